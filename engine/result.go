@@ -1,0 +1,204 @@
+package engine
+
+// Result is the answer to one mix request. Its JSON form is the public
+// contract of `mixward ask --format json`; field names never change, new
+// fields may be added.
+type Result struct {
+	Request       string        `json:"request"`
+	Species       []SpeciesInfo `json:"species"`
+	Oxidizer      *Couple       `json:"oxidizer"`
+	Reducer       *Couple       `json:"reducer"`
+	Reaction      *Reaction     `json:"reaction"`
+	ECellStandard *float64      `json:"e_cell_standard_v"`
+	ECell         *float64      `json:"e_cell_v"`
+	Alternatives  []Alternative `json:"alternatives"`
+	Spontaneous   bool          `json:"spontaneous"`
+	Verdict       Verdict       `json:"verdict"`
+	DeltaGkJ      *float64      `json:"delta_g_kj"`
+	Log10K        *float64      `json:"log10_k"`
+	Hazards       []Hazard      `json:"hazards"`
+	Cautions      []string      `json:"cautions"`
+
+	// What comes out of the tank.
+	Amounts          *Amounts     `json:"amounts"`
+	Gases            []GasRelease `json:"gases"`
+	Heat             *Heat        `json:"heat"`
+	Steps            []Step       `json:"steps"`
+	FinalComposition []AmountOf   `json:"final_composition"`
+	Caveats          []string     `json:"caveats"`
+
+	// Conditions the prediction was made under.
+	Conditions Conditions  `json:"conditions"`
+	Allowance  *Allowance  `json:"allowance"` // kinetic allowance that moved the headline pair, if any
+	Streams    []StreamOut `json:"streams"`   // the streams as understood, tags resolved
+	Notes      []string    `json:"notes"`     // assumptions made (equal volumes, excess metal, ...)
+}
+
+// Verdict is the one-word outcome of a prediction.
+type Verdict string
+
+// The verdicts. Error is used only by the query log for requests that did
+// not parse.
+const (
+	Spontaneous    Verdict = "spontaneous"
+	NonSpontaneous Verdict = "non-spontaneous"
+	NoReaction     Verdict = "no-reaction"
+	ErrorVerdict   Verdict = "error"
+)
+
+// Role is what a species can do in the mix.
+type Role string
+
+// Roles of a species.
+const (
+	OxidizerRole Role = "oxidizer"
+	ReducerRole  Role = "reducer"
+)
+
+// SpeciesInfo is one species present in the mix.
+type SpeciesInfo struct {
+	Text      string   `json:"text"`
+	Formula   string   `json:"formula"`
+	Charge    int      `json:"charge"`
+	Phase     Phase    `json:"phase"`
+	Roles     []Role   `json:"roles"`
+	Spectator bool     `json:"spectator"`
+	Mol       float64  `json:"mol"`                // amount present in the mix (0 for water, see Excess)
+	Molar     float64  `json:"mol_per_l"`          // concentration after mixing, aqueous species only
+	Excess    bool     `json:"excess"`             // a solid or water present in excess
+	Partners  []string `json:"partners,omitempty"` // species it acts together with (partner couples)
+}
+
+// Couple is a half-reaction chosen for the oxidizing or the reducing side.
+type Couple struct {
+	Species      string  `json:"species"`
+	HalfReaction string  `json:"half_reaction"` // as written for its role: reduction for the oxidizer, reversed for the reducer
+	EStandard    float64 `json:"e_standard_v"`  // standard reduction potential of the couple
+	E            float64 `json:"e_v"`           // reduction potential under the mix's conditions (Nernst)
+	ID           string  `json:"id"`
+	Medium       Medium  `json:"medium"`
+	Electrons    int     `json:"electrons"`
+	Source       string  `json:"source"`
+}
+
+// Reaction is a balanced net ionic equation. Electrons never appear in it.
+type Reaction struct {
+	Reactants []EqTerm `json:"reactants"`
+	Products  []EqTerm `json:"products"`
+	Text      string   `json:"text"`
+	Electrons int      `json:"electrons"` // electrons transferred per reaction as written (n in ΔG = −nFE)
+}
+
+// EqTerm is one term of a net ionic equation.
+type EqTerm struct {
+	Formula string `json:"formula"`
+	Charge  int    `json:"charge"`
+	Phase   Phase  `json:"phase"`
+	Coef    int    `json:"coef"`
+	Text    string `json:"text"`
+}
+
+// Alternative is another oxidizer–reducer pair present whose cell potential
+// is positive under the mix's conditions.
+type Alternative struct {
+	Oxidizer      *Couple   `json:"oxidizer"`
+	Reducer       *Couple   `json:"reducer"`
+	Reaction      *Reaction `json:"reaction"`
+	ECellStandard float64   `json:"e_cell_standard_v"`
+	ECell         float64   `json:"e_cell_v"`
+	Note          string    `json:"note,omitempty"` // e.g. why it is not the headline
+}
+
+// Severity of a hazard.
+type Severity string
+
+// Hazard severities, least to most severe.
+const (
+	Info    Severity = "info"
+	Warning Severity = "warning"
+	Danger  Severity = "danger"
+)
+
+// Hazard is one hazard found in the mix.
+type Hazard struct {
+	Code     string   `json:"code"`
+	Severity Severity `json:"severity"`
+	Message  string   `json:"message"`
+	Source   string   `json:"source,omitempty"`
+}
+
+// Amounts is the stoichiometry of the headline reaction.
+type Amounts struct {
+	Limiting  *string    `json:"limiting"`
+	ExtentMol float64    `json:"extent_mol"`
+	Consumed  []AmountOf `json:"consumed"`
+	Formed    []AmountOf `json:"formed"`
+}
+
+// AmountOf is an amount of one species.
+type AmountOf struct {
+	Text  string  `json:"text"`
+	Mol   float64 `json:"mol"`
+	Phase Phase   `json:"phase,omitempty"`
+}
+
+// GasRelease is a gas given off by the mix.
+type GasRelease struct {
+	Text     string  `json:"text"`
+	Mol      float64 `json:"mol"`
+	VolumeL  float64 `json:"volume_l"`
+	VolumeM3 float64 `json:"volume_m3"`
+}
+
+// Heat is the heat estimate of the mix (all reactions, neutralisation included).
+type Heat struct {
+	DeltaHkJPerMol   *float64 `json:"delta_h_kj_per_mol"`
+	HeatReleasedkJ   *float64 `json:"heat_released_kj"`
+	TemperatureRiseC *float64 `json:"temperature_rise_c"`
+	NeutralisationkJ float64  `json:"neutralisation_kj"`
+	Assumption       string   `json:"assumption"`
+	Missing          []string `json:"missing,omitempty"` // species without formation-enthalpy data
+}
+
+// Step is one follow-on reaction, predicted on what the previous one left.
+type Step struct {
+	Oxidizer      *Couple   `json:"oxidizer"`
+	Reducer       *Couple   `json:"reducer"`
+	Reaction      *Reaction `json:"reaction"`
+	ECellStandard *float64  `json:"e_cell_standard_v"`
+	ECell         *float64  `json:"e_cell_v"`
+	Spontaneous   bool      `json:"spontaneous"`
+	Verdict       Verdict   `json:"verdict"`
+	DeltaGkJ      *float64  `json:"delta_g_kj"`
+	Log10K        *float64  `json:"log10_k"`
+	Amounts       *Amounts  `json:"amounts"`
+}
+
+// Conditions are the conditions of the mix after combining the streams.
+type Conditions struct {
+	PH           float64 `json:"ph"`
+	PHStated     bool    `json:"ph_stated"`
+	TemperatureK float64 `json:"temperature_k"`
+	TemperatureC float64 `json:"temperature_c"`
+	PressureKPa  float64 `json:"pressure_kpa"`
+	VolumeL      float64 `json:"volume_l"`
+	Medium       Medium  `json:"medium"` // acid or base: which table form applies
+}
+
+// Allowance is a kinetic allowance (data/kinetics.txt) applied when ranking.
+type Allowance struct {
+	ID     string  `json:"id"`
+	Volts  float64 `json:"volts"`
+	Reason string  `json:"reason"`
+	Source string  `json:"source"`
+}
+
+// StreamOut describes one stream of the request as the engine understood it.
+type StreamOut struct {
+	Text       string   `json:"text"`
+	Tag        string   `json:"tag,omitempty"` // catalogue tag the stream came from
+	VolumeL    float64  `json:"volume_l,omitempty"`
+	MassKg     float64  `json:"mass_kg,omitempty"`
+	PH         *float64 `json:"ph,omitempty"`
+	Components []string `json:"components"`
+}

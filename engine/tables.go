@@ -1,0 +1,11 @@
+package engine
+
+// Tables is the validated content of the data/ tables. Load builds it.
+type Tables struct {
+	Atomic    map[string]float64 // standard atomic weights, g/mol
+	Chemicals []*Chemical
+	Half      []*HalfReaction
+	AcidBase  []*AcidBasePair
+	Densities map[string][]DensityPoint // by chemical formula, sorted by PercentWW
+	Hash      string                    // SHA-256 over every table file, hex
+}
