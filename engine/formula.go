@@ -23,14 +23,23 @@ func ParseFormula(f string) (Atoms, error) {
 	if len(parts) == 0 {
 		return nil, fmt.Errorf("formula %q has no atoms", f)
 	}
-	for _, part := range parts {
+	if len(parts) != strings.Count(f, ".")+strings.Count(f, "·")+strings.Count(f, "*")+1 {
+		return nil, fmt.Errorf("formula %q: a hydrate separator must stand between two parts, like CuSO4.5H2O", f)
+	}
+	for k, part := range parts {
 		mult := 1
 		i := 0
 		for i < len(part) && part[i] >= '0' && part[i] <= '9' {
 			i++
 		}
 		if i > 0 {
+			if k == 0 {
+				return nil, fmt.Errorf("formula %q starts with a number; write a coefficient apart from the formula (2 H2O)", f)
+			}
 			mult = atoiSafe(part[:i])
+			if mult == 0 {
+				return nil, fmt.Errorf("formula %q: the multiplier of %q is zero", f, part)
+			}
 		}
 		p := &formulaParser{s: part, pos: i}
 		a, err := p.group(0)
@@ -40,15 +49,22 @@ func ParseFormula(f string) (Atoms, error) {
 		if p.pos != len(p.s) {
 			return nil, fmt.Errorf("formula %q: unexpected %q at position %d", f, p.s[p.pos:p.pos+1], p.pos+1)
 		}
+		if len(a) == 0 {
+			return nil, fmt.Errorf("formula %q: part %q has no atoms", f, part)
+		}
 		for el, n := range a {
 			total[el] += n * mult
+			if total[el] > maxAtoms {
+				return nil, fmt.Errorf("formula %q has more than %d atoms of %s", f, maxAtoms, el)
+			}
 		}
-	}
-	if len(total) == 0 {
-		return nil, fmt.Errorf("formula %q has no atoms", f)
 	}
 	return total, nil
 }
+
+// maxAtoms bounds the count of one element in a formula, so that nested
+// multipliers cannot overflow.
+const maxAtoms = 1_000_000
 
 func atoiSafe(s string) int {
 	n := 0
@@ -66,15 +82,21 @@ type formulaParser struct {
 	pos int
 }
 
-func (p *formulaParser) number() int {
+// number reads an optional subscript: 1 when there is none, an error when it
+// is zero.
+func (p *formulaParser) number() (int, error) {
 	start := p.pos
 	for p.pos < len(p.s) && p.s[p.pos] >= '0' && p.s[p.pos] <= '9' {
 		p.pos++
 	}
 	if p.pos == start {
-		return 1
+		return 1, nil
 	}
-	return atoiSafe(p.s[start:p.pos])
+	n := atoiSafe(p.s[start:p.pos])
+	if n == 0 {
+		return 0, fmt.Errorf("subscript %q at position %d is zero", p.s[start:p.pos], start+1)
+	}
+	return n, nil
 }
 
 func (p *formulaParser) group(depth int) (Atoms, error) {
@@ -102,9 +124,15 @@ func (p *formulaParser) group(depth int) (Atoms, error) {
 			if len(inner) == 0 {
 				return nil, fmt.Errorf("empty parentheses")
 			}
-			n := p.number()
+			n, err := p.number()
+			if err != nil {
+				return nil, err
+			}
 			for el, k := range inner {
 				a[el] += k * n
+				if a[el] > maxAtoms {
+					return nil, fmt.Errorf("more than %d atoms of %s", maxAtoms, el)
+				}
 			}
 		case c == ')' || c == ']':
 			if depth == 0 {
@@ -121,13 +149,20 @@ func (p *formulaParser) group(depth int) (Atoms, error) {
 				return nil, fmt.Errorf("%q is not an element symbol", p.s[start:p.pos])
 			}
 			el := p.s[start:p.pos]
-			a[el] += p.number()
+			n, err := p.number()
+			if err != nil {
+				return nil, err
+			}
+			a[el] += n
+			if a[el] > maxAtoms {
+				return nil, fmt.Errorf("more than %d atoms of %s", maxAtoms, el)
+			}
 		default:
 			return nil, fmt.Errorf("unexpected %q at position %d", string(c), p.pos+1)
 		}
 	}
 	if depth > 0 {
-		return nil, fmt.Errorf("missing ')'")
+		return nil, fmt.Errorf("missing closing parenthesis")
 	}
 	return a, nil
 }

@@ -78,7 +78,8 @@ func (s Species) IsElectron() bool { return s.Formula == "e" && s.Charge == -1 }
 //	H+  OH-  MnO4-  Fe^3+  SO4^2-  Cu(s)  Cl2(g)  H2O(l)  Cl2(aq)  e-
 //
 // A charge other than ±1 must follow a caret. Without a phase suffix an ion is
-// aqueous, and a neutral species is aqueous too except water, which is liquid.
+// aqueous, and a neutral species is aqueous too except water, which is liquid
+// (H2O(aq) is read as H2O(l) as well).
 func ParseSpecies(text string) (Species, error) {
 	t := strings.TrimSpace(text)
 	if t == "" {
@@ -133,9 +134,11 @@ func ParseSpecies(text string) (Species, error) {
 	}
 	if sp.Phase == "" {
 		sp.Phase = Aqueous
-		if sp.Charge == 0 && t == "H2O" {
-			sp.Phase = Liquid
-		}
+	}
+	if sp.Phase == Aqueous && sp.Charge == 0 && t == "H2O" {
+		// Water in water is the solvent: H2O and H2O(aq) both mean H2O(l),
+		// so that the two spellings give one species with one Key.
+		sp.Phase = Liquid
 	}
 	return sp, nil
 }
