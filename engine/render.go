@@ -1,10 +1,182 @@
 package engine
 
-import "strings"
+import (
+	"fmt"
+	"strings"
+)
 
-// RenderText writes a result as plain text for a terminal or a chat fallback.
+// RenderText writes a result as plain text for a terminal, the console or a
+// chat fallback. It is deterministic: the same result gives the same text.
 func RenderText(r *Result) string {
 	var b strings.Builder
-	b.WriteString(r.Request)
+	w := func(format string, args ...any) { fmt.Fprintf(&b, format, args...) }
+	w("Request: %s\n", r.Request)
+	w("Verdict: %s\n", Headline(r))
+	for _, s := range r.Streams {
+		if s.Tag != "" {
+			w("  %s is %s\n", s.Tag, s.Text)
+		}
+	}
+	c := r.Conditions
+	phHow := "computed"
+	if c.PHStated {
+		phHow = "stated"
+	}
+	if c.VolumeL > 0 {
+		w("Conditions: pH %.2f (%s), %.1f °C, %s L mixed, %s medium\n", c.PH, phHow, c.TemperatureC, trimFloat(c.VolumeL, 4), c.Medium)
+	} else {
+		w("Conditions: %.1f °C, no liquid\n", c.TemperatureC)
+	}
+	if len(r.Species) > 0 {
+		w("\nSpecies present:\n")
+		width := 0
+		for _, s := range r.Species {
+			width = max(width, len(s.Text))
+		}
+		for _, s := range r.Species {
+			w("  %-*s  %s\n", width, s.Text, speciesRole(s))
+		}
+	}
+	if r.Oxidizer != nil && r.Reducer != nil {
+		w("\nOxidizing agent: %s   E° %+.3f V, E here %+.3f V\n", r.Oxidizer.Species, r.Oxidizer.EStandard, r.Oxidizer.E)
+		w("  reduction: %s\n", r.Oxidizer.HalfReaction)
+		w("Reducing agent:  %s   E° %+.3f V, E here %+.3f V\n", r.Reducer.Species, r.Reducer.EStandard, r.Reducer.E)
+		w("  oxidation: %s\n", r.Reducer.HalfReaction)
+	}
+	if r.Reaction != nil {
+		w("\nNet ionic equation (%d e- transferred):\n  %s\n", r.Reaction.Electrons, r.Reaction.Text)
+	}
+	if r.ECell != nil {
+		w("E°cell %+.3f V, E cell %+.3f V at the mix's conditions", *r.ECellStandard, *r.ECell)
+		if r.DeltaGkJ != nil {
+			w(", ΔG %s kJ", trimFloat(*r.DeltaGkJ, 1))
+		}
+		if r.Log10K != nil {
+			w(", log10 K %.1f", *r.Log10K)
+		}
+		w("\n")
+	}
+	if r.Allowance != nil {
+		w("Kinetic allowance used in ranking (%s, %.1f V): %s (%s)\n", r.Allowance.ID, r.Allowance.Volts, r.Allowance.Reason, r.Allowance.Source)
+	}
+	if len(r.Alternatives) > 0 {
+		w("\nOther pairs that could react (E cell > 0):\n")
+		for i, a := range r.Alternatives {
+			w("  %d. %s with %s, E cell %+.3f V\n     %s\n", i+1, a.Oxidizer.Species, a.Reducer.Species, a.ECell, a.Reaction.Text)
+			if a.Note != "" {
+				w("     %s\n", a.Note)
+			}
+		}
+	}
+	renderAmounts(&b, r)
+	if len(r.Hazards) > 0 {
+		w("\nHazards:\n")
+		for _, h := range r.Hazards {
+			w("  [%s] %s: %s\n", strings.ToUpper(string(h.Severity)), h.Code, h.Message)
+		}
+	}
+	if len(r.Caveats) > 0 {
+		w("\nCaveats:\n")
+		for _, c := range r.Caveats {
+			w("  - %s\n", c)
+		}
+	}
+	if len(r.Notes) > 0 {
+		w("\nAssumptions:\n")
+		for _, n := range r.Notes {
+			w("  - %s\n", n)
+		}
+	}
+	w("\n")
+	for _, c := range r.Cautions {
+		w("CAUTION: %s\n", c)
+	}
 	return b.String()
 }
+
+// Headline is the one-line verdict shown first.
+func Headline(r *Result) string {
+	switch r.Verdict {
+	case Spontaneous:
+		s := "SPONTANEOUS"
+		if r.Reaction != nil {
+			s += " — " + r.Oxidizer.Species + " oxidizes " + r.Reducer.Species
+		}
+		if d := dangerCount(r); d > 0 {
+			s += fmt.Sprintf(" (%d danger hazard%s)", d, plural(d))
+		}
+		return s
+	case NonSpontaneous:
+		s := "NOT SPONTANEOUS — no redox reaction expected"
+		if d := dangerCount(r); d > 0 {
+			s += fmt.Sprintf(", but %d danger hazard%s", d, plural(d))
+		}
+		return s
+	default:
+		s := "NO REACTION — no oxidizing and reducing agent pair present"
+		if d := dangerCount(r); d > 0 {
+			s += fmt.Sprintf(", but %d danger hazard%s", d, plural(d))
+		}
+		return s
+	}
+}
+
+func dangerCount(r *Result) int {
+	n := 0
+	for _, h := range r.Hazards {
+		if h.Severity == Danger {
+			n++
+		}
+	}
+	return n
+}
+
+func plural(n int) string {
+	if n == 1 {
+		return ""
+	}
+	return "s"
+}
+
+func speciesRole(s SpeciesInfo) string {
+	var parts []string
+	switch {
+	case len(s.Roles) == 2:
+		parts = append(parts, "oxidizing and reducing agent")
+	case len(s.Roles) == 1 && s.Roles[0] == OxidizerRole:
+		parts = append(parts, "oxidizing agent")
+	case len(s.Roles) == 1:
+		parts = append(parts, "reducing agent")
+	default:
+		parts = append(parts, "neither")
+	}
+	if len(s.Partners) > 0 {
+		parts = append(parts, "with "+strings.Join(s.Partners, ", "))
+	}
+	if s.Spectator {
+		parts = append(parts, "spectator")
+	}
+	switch {
+	case s.Excess:
+		parts = append(parts, "in excess")
+	case s.Phase == Aqueous && s.Molar > 0:
+		parts = append(parts, fmt.Sprintf("%.3g mol/L", s.Molar))
+	case s.Mol > 0:
+		parts = append(parts, fmt.Sprintf("%.3g mol", s.Mol))
+	}
+	return strings.Join(parts, "; ")
+}
+
+// trimFloat formats x with at most d decimals and no trailing zeros.
+func trimFloat(x float64, d int) string {
+	s := fmt.Sprintf("%.*f", d, x)
+	if strings.Contains(s, ".") {
+		s = strings.TrimRight(strings.TrimRight(s, "0"), ".")
+	}
+	if s == "-0" {
+		s = "0"
+	}
+	return s
+}
+
+func renderAmounts(b *strings.Builder, r *Result) {}

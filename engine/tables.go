@@ -1,6 +1,7 @@
 package engine
 
-// Tables is the validated content of the data/ tables. Load builds it.
+// Tables is the validated content of the data/ tables. Load builds it; New
+// adds the tables owned by the prediction and hazard code.
 type Tables struct {
 	Atomic    map[string]float64 // standard atomic weights, g/mol
 	Chemicals []*Chemical
@@ -8,4 +9,11 @@ type Tables struct {
 	AcidBase  []*AcidBasePair
 	Densities map[string][]DensityPoint // by chemical formula, sorted by PercentWW
 	Hash      string                    // SHA-256 over every table file, hex
+
+	Kinetics   []*KineticRule
+	Hazards    []*HazardRule
+	Enthalpies map[string]Enthalpy // standard enthalpy of formation by Species.Key
+
+	families []family // acid–base chains, built by New
+
 }

@@ -1,25 +1,228 @@
+//go:build mixward_pending
+
 package main
 
 import (
 	"context"
+	"encoding/json"
+	"errors"
+	"flag"
 	"fmt"
 	"io"
+	"strings"
+
+	"mixward/data"
+	"mixward/engine"
 )
 
 func (a *app) cmdDefault(ctx context.Context) error { return a.cmdConsole(ctx, nil) }
 
+// loadEngine loads the embedded tables. A failure here is a broken build.
+func loadEngine() (*engine.Engine, error) {
+	e, err := engine.New(data.FS)
+	if err != nil {
+		return nil, fmt.Errorf("loading the embedded data tables: %w", err)
+	}
+	return e, nil
+}
+
+// newFlags makes a flag set that reports errors through its return value.
+func (a *app) newFlags(name, usage string) *flag.FlagSet {
+	fs := flag.NewFlagSet(name, flag.ContinueOnError)
+	fs.SetOutput(a.stderr)
+	fs.Usage = func() {
+		fmt.Fprintf(a.stderr, "usage: mixward %s\n", usage)
+		fs.PrintDefaults()
+	}
+	return fs
+}
+
+// parseFlags parses args, allowing flags after positional arguments.
+func parseFlags(fs *flag.FlagSet, args []string) ([]string, error) {
+	var pos []string
+	for {
+		if err := fs.Parse(args); err != nil {
+			if errors.Is(err, flag.ErrHelp) {
+				return nil, &exitError{exitOK, errors.New("")}
+			}
+			return nil, &exitError{exitUsage, errors.New("")}
+		}
+		args = fs.Args()
+		if len(args) == 0 {
+			return pos, nil
+		}
+		pos = append(pos, args[0])
+		args = args[1:]
+	}
+}
+
+func checkFormat(f string, allowed ...string) error {
+	for _, x := range allowed {
+		if f == x {
+			return nil
+		}
+	}
+	return &exitError{exitUsage, fmt.Errorf("--format %q: use %s", f, strings.Join(allowed, " or "))}
+}
+
 func (a *app) cmdAsk(ctx context.Context, args []string) error {
-	return &exitError{exitFail, fmt.Errorf("'ask' is not built yet")}
+	fs := a.newFlags("ask", `ask [--format text|json] [--no-log] [--db PATH] "<request>"`)
+	format := fs.String("format", "text", "output format: text or json")
+	noLog := fs.Bool("no-log", false, "do not record the query in the log")
+	dbPath := fs.String("db", envOr(a.getenv, "MIXWARD_DB", "mixward.db"), "SQLite log file (env MIXWARD_DB)")
+	pos, err := parseFlags(fs, args)
+	if err != nil {
+		return err
+	}
+	if err := checkFormat(*format, "text", "json"); err != nil {
+		return err
+	}
+	text := strings.TrimSpace(strings.Join(pos, " "))
+	if text == "" {
+		fs.Usage()
+		return &exitError{exitUsage, errors.New(`give the request in quotes, e.g. mixward ask "mix 200 L NaOCl 12.5 % + 50 L HCl 10 %"`)}
+	}
+	eng, err := loadEngine()
+	if err != nil {
+		return err
+	}
+	var logger *askLogger
+	if !*noLog {
+		logger, err = a.openAskLog(ctx, *dbPath)
+		if err != nil {
+			return err
+		}
+		defer logger.Close()
+	}
+	res, err := eng.Ask(text, engine.AskOptions{Resolve: logger.resolver(ctx)})
+	if logger != nil {
+		if lerr := logger.Log(ctx, eng, text, res, err); lerr != nil {
+			return fmt.Errorf("the query was not logged, so no answer is given: %w", lerr)
+		}
+	}
+	if err != nil {
+		var pe *engine.ParseError
+		if !errors.As(err, &pe) {
+			return err
+		}
+		if *format == "json" {
+			writeJSON(a.stdout, map[string]any{"error": pe})
+		} else {
+			fmt.Fprintf(a.stderr, "mixward: cannot read the request: %s\n", pe.Error())
+			fmt.Fprintf(a.stderr, "  %s\n  %s^\n", text, strings.Repeat(" ", max(pe.Position-1, 0)))
+			fmt.Fprintf(a.stderr, "example: mixward ask %q\n", "mix 200 L NaOCl 12.5 % + 50 L HCl 10 %")
+		}
+		return &exitError{exitUsage, errors.New("")}
+	}
+	if *format == "json" {
+		return writeJSON(a.stdout, res)
+	}
+	_, err = io.WriteString(a.stdout, engine.RenderText(res))
+	return err
+}
+
+func writeJSON(w io.Writer, v any) error {
+	enc := json.NewEncoder(w)
+	enc.SetEscapeHTML(false)
+	enc.SetIndent("", "  ")
+	return enc.Encode(v)
+}
+
+func envOr(getenv func(string) string, key, def string) string {
+	if v := getenv(key); v != "" {
+		return v
+	}
+	return def
+}
+
+// tableRow is one half-reaction in `mixward table --format json`.
+type tableRow struct {
+	ID        string          `json:"id"`
+	Reactants []engine.EqTerm `json:"reactants"`
+	Products  []engine.EqTerm `json:"products"`
+	Electrons int             `json:"electrons"`
+	EStandard float64         `json:"e_standard_v"`
+	Medium    engine.Medium   `json:"medium"`
+	Source    string          `json:"source"`
+	Text      string          `json:"text"`
+}
+
+func eqTerms(ts []engine.Term) []engine.EqTerm {
+	out := make([]engine.EqTerm, len(ts))
+	for i, t := range ts {
+		out[i] = engine.EqTerm{Formula: t.Formula, Charge: t.Charge, Phase: t.Phase, Coef: t.Coef, Text: t.Species.Text()}
+	}
+	return out
 }
 
 func (a *app) cmdTable(ctx context.Context, args []string) error {
-	return &exitError{exitFail, fmt.Errorf("'table' is not built yet")}
+	fs := a.newFlags("table", "table [--format text|json]")
+	format := fs.String("format", "text", "output format: text or json")
+	if _, err := parseFlags(fs, args); err != nil {
+		return err
+	}
+	if err := checkFormat(*format, "text", "json"); err != nil {
+		return err
+	}
+	eng, err := loadEngine()
+	if err != nil {
+		return err
+	}
+	rows := make([]tableRow, 0, len(eng.Tables.Half))
+	for _, h := range eng.Tables.Half {
+		rows = append(rows, tableRow{
+			ID: h.ID, Reactants: eqTerms(h.Reactants), Products: eqTerms(h.Products),
+			Electrons: h.Electrons, EStandard: h.E0, Medium: h.Medium, Source: h.Source,
+			Text: engine.HalfText(h, false),
+		})
+	}
+	if *format == "json" {
+		return writeJSON(a.stdout, rows)
+	}
+	fmt.Fprintf(a.stdout, "%-22s %-6s %9s  %s\n", "ID", "MEDIUM", "E°/V", "REDUCTION")
+	for _, r := range rows {
+		fmt.Fprintf(a.stdout, "%-22s %-6s %+9.3f  %s\n", r.ID, r.Medium, r.EStandard, r.Text)
+	}
+	fmt.Fprintf(a.stdout, "\n%d half-reactions at 25 °C; sources per row in data/halfreactions.txt and in --format json.\n", len(rows))
+	return nil
 }
 
 func (a *app) cmdPlot(ctx context.Context, args []string) error {
 	return &exitError{exitFail, fmt.Errorf("'plot' is not built yet")}
 }
 
-func (a *app) cmdVersion(ctx context.Context) error { return nil }
+func (a *app) cmdVersion(ctx context.Context) error {
+	eng, err := loadEngine()
+	if err != nil {
+		return err
+	}
+	fmt.Fprintf(a.stdout, "mixward engine %s, data tables %s\n", engine.Version, eng.Tables.Hash[:12])
+	return nil
+}
 
-func (a *app) usage(w io.Writer) { fmt.Fprintln(w, "usage: mixward <subcommand>") }
+func (a *app) usage(w io.Writer) {
+	fmt.Fprint(w, `mixward — may these streams be mixed? Advisory redox and hazard answers for process operators.
+
+usage:
+  mixward                         start the local console (no Slack tokens needed)
+  mixward ask "<request>"         answer one mix request (--format text|json, --no-log, --db)
+  mixward table                   list the half-reaction table (--format text|json)
+  mixward plot "<request>" -o mix.png   draw the E–pH picture of the predicted couples
+  mixward streams set|list|show|rm      the site stream catalogue (tags such as T-101)
+  mixward log verify|search|export|prune|backup   the query log
+  mixward digest                  shift digest (--since, --until, --format text|json)
+  mixward console                 the local console, reading stdin
+  mixward serve                   the Slack bot (Socket Mode, or --http ADDR for the Events API)
+  mixward version
+
+request language:
+  [mix] <stream> + <stream> [+ ...] [at <temperature>|<pressure>|pH <n>]
+  stream:    [<amount>] <chemical> [<number> <unit>][, <component> ...]   or a site tag (T-101)
+  amount:    L, mL, m3, gal (liquids); kg, g, lb (solids)
+  units:     M, mol/L, mmol/L, %, % w/w, % w/v, g/L, mg/L, ppm;  pH <number>
+  example:   mixward ask "mix 200 L NaOCl 12.5 % + 50 L HCl 10 % at 20 C"
+
+Answers are advisory, never a permit: confirm with the safety data sheets, site procedures,
+management-of-change, local codes and licensed practice.
+`)
+}

@@ -1,0 +1,237 @@
+//go:build mixward_pending
+
+package engine
+
+import (
+	"errors"
+	"fmt"
+	"io/fs"
+	"math"
+)
+
+// New loads and validates every table in fsys (normally data.FS) and
+// returns an engine ready to answer requests.
+func New(fsys fs.FS) (*Engine, error) {
+	t, err := Load(fsys)
+	if err != nil {
+		return nil, err
+	}
+	if t.Kinetics, err = loadKinetics(fsys); err != nil {
+		return nil, err
+	}
+	t.families = families(t)
+	return &Engine{Tables: t}, nil
+}
+
+// Cautions close every answer.
+var cautions = []string{
+	"Advisory only, not a permit to mix. Confirm with the safety data sheets, the site's procedures and management-of-change, local codes and licensed practice before combining any streams.",
+	"The prediction uses standard potentials corrected for pH, concentration and temperature (Nernst); it cannot see reaction rates, impurities or every side reaction.",
+}
+
+// Cautions returns the cautions every answer ends with.
+func Cautions() []string { return append([]string(nil), cautions...) }
+
+// Ask parses a request and predicts what happens.
+func (e *Engine) Ask(text string, opt AskOptions) (*Result, error) {
+	req, err := ParseRequest(text, e.Tables, opt.Resolve)
+	if err != nil {
+		return nil, err
+	}
+	return e.Predict(req)
+}
+
+// Predict answers a parsed request.
+func (e *Engine) Predict(req *Request) (*Result, error) {
+	m, err := buildMixture(req, e.Tables)
+	if err != nil {
+		var pe *ParseError
+		if errors.As(err, &pe) {
+			return nil, pe
+		}
+		return nil, err
+	}
+	res := &Result{
+		Request:      req.Text,
+		Alternatives: []Alternative{},
+		Hazards:      []Hazard{},
+		Cautions:     Cautions(),
+		Gases:        []GasRelease{},
+		Steps:        []Step{},
+		Caveats:      []string{},
+		Notes:        append([]string{}, m.notes...),
+		Conditions: Conditions{
+			PH:           roundDec(m.pH, 2),
+			PHStated:     m.pHStated,
+			TemperatureK: roundDec(m.tempK, 2),
+			TemperatureC: roundDec(m.tempK-273.15, 2),
+			PressureKPa:  m.pressureKPa,
+			VolumeL:      roundDec(m.volumeL, 6),
+			Medium:       mediumOf(m.pH),
+		},
+	}
+	for _, st := range req.Streams {
+		so := StreamOut{Text: st.Text, Tag: st.Tag, VolumeL: st.VolumeL, MassKg: st.MassKg, PH: st.PH, Components: []string{}}
+		for _, c := range st.Components {
+			so.Components = append(so.Components, c.Chemical.Formula)
+		}
+		res.Streams = append(res.Streams, so)
+	}
+	if !m.aqueous {
+		res.Notes = append(res.Notes, "no liquid stream: solids alone do not react by the table method; add the liquid they will meet")
+	}
+	ox, red := e.sides(m)
+	ps := e.pairs(m, ox, red)
+	res.Species = speciesInfo(m, ox, red)
+	if len(ps) == 0 {
+		res.Verdict = NoReaction
+		for i := range res.Species {
+			res.Species[i].Spectator = !isWaterText(res.Species[i])
+		}
+		return res, nil
+	}
+	head := ps[0]
+	res.Oxidizer = head.ox.couple()
+	res.Reducer = head.red.couple()
+	res.Reaction = head.rx.out()
+	res.ECellStandard = ptr(roundDec(head.eCellStd, 4))
+	res.ECell = ptr(roundDec(head.eCell, 4))
+	res.Spontaneous = head.eCell > 0
+	res.Verdict = NonSpontaneous
+	if res.Spontaneous {
+		res.Verdict = Spontaneous
+	}
+	n := float64(head.rx.electrons)
+	res.DeltaGkJ = ptr(roundDec(-n*faraday*head.eCell/1000, 2))
+	res.Log10K = ptr(roundDec(n*head.eCellStd/nernstSlope(m.tempK), 2))
+	if a := head.ox.allowance; a != nil {
+		res.Allowance = allowanceOut(a)
+	} else if a := head.red.allowance; a != nil {
+		res.Allowance = allowanceOut(a)
+	}
+	// Allowances that moved the ranking: a thermodynamically stronger pair
+	// was passed over.
+	for _, p := range ps[1:] {
+		if p.eCell > head.eCell && (p.ox.allowance != nil || p.red.allowance != nil) && res.Allowance == nil {
+			a := p.ox.allowance
+			if a == nil {
+				a = p.red.allowance
+			}
+			res.Allowance = allowanceOut(a)
+		}
+	}
+	inHead := map[string]bool{}
+	for _, t := range head.rx.reactants {
+		inHead[t.Species.Ion()] = true
+	}
+	for _, t := range head.rx.products {
+		inHead[t.Species.Ion()] = true
+	}
+	for i := range res.Species {
+		s := &res.Species[i]
+		sp := Species{Formula: s.Formula, Charge: s.Charge, Phase: s.Phase}
+		s.Spectator = !inHead[sp.Ion()] && !sp.IsWater()
+	}
+	for _, p := range ps[1:] {
+		if p.eCell <= 0 || len(res.Alternatives) == 10 {
+			continue
+		}
+		alt := Alternative{
+			Oxidizer: p.ox.couple(), Reducer: p.red.couple(), Reaction: p.rx.out(),
+			ECellStandard: roundDec(p.eCellStd, 4), ECell: roundDec(p.eCell, 4),
+		}
+		switch {
+		case p.ox.allowance != nil:
+			alt.Note = "kinetically slow here: " + p.ox.allowance.Reason
+		case p.red.allowance != nil:
+			alt.Note = "kinetically slow here: " + p.red.allowance.Reason
+		}
+		res.Alternatives = append(res.Alternatives, alt)
+	}
+	sortAlternatives(res.Alternatives)
+	return res, nil
+}
+
+func isWaterText(s SpeciesInfo) bool { return s.Formula == "H2O" && s.Charge == 0 }
+
+func allowanceOut(a *KineticRule) *Allowance {
+	return &Allowance{ID: a.ID, Volts: a.Volts, Reason: a.Reason, Source: a.Source}
+}
+
+func sortAlternatives(a []Alternative) {
+	// Already ranked by effective potential; list strongest by E cell first.
+	for i := 1; i < len(a); i++ {
+		for j := i; j > 0 && a[j].ECell > a[j-1].ECell; j-- {
+			a[j], a[j-1] = a[j-1], a[j]
+		}
+	}
+}
+
+// speciesInfo lists the species of the mix with their roles.
+func speciesInfo(m *mixture, ox, red []*side) []SpeciesInfo {
+	roles := map[string][]Role{}
+	partners := map[string][]string{}
+	mark := func(s *side) {
+		k := s.main.Ion()
+		for _, r := range roles[k] {
+			if r == s.role {
+				goto partnersOnly
+			}
+		}
+		roles[k] = append(roles[k], s.role)
+	partnersOnly:
+		for _, p := range s.partners {
+			t := p.Text()
+			dup := false
+			for _, x := range partners[k] {
+				dup = dup || x == t
+			}
+			if !dup {
+				partners[k] = append(partners[k], t)
+			}
+		}
+	}
+	for _, s := range ox {
+		mark(s)
+	}
+	for _, s := range red {
+		mark(s)
+	}
+	var out []SpeciesInfo
+	for _, p := range m.list() {
+		si := SpeciesInfo{
+			Text: p.sp.Text(), Formula: p.sp.Formula, Charge: p.sp.Charge, Phase: p.sp.Phase,
+			Roles: []Role{}, Mol: roundDec(p.mol, 9), Excess: p.excess,
+		}
+		if p.sp.Phase == Aqueous && m.volumeL > 0 {
+			si.Molar = sigDigits(p.mol/m.volumeL, 4)
+		}
+		if p.sp.IsWater() {
+			si.Mol = 0
+		}
+		k := p.sp.Ion()
+		// Keep the order oxidizer, reducer.
+		for _, r := range []Role{OxidizerRole, ReducerRole} {
+			for _, x := range roles[k] {
+				if x == r {
+					si.Roles = append(si.Roles, r)
+				}
+			}
+		}
+		si.Partners = partners[k]
+		out = append(out, si)
+	}
+	return out
+}
+
+// sig rounds x to d significant digits.
+func sigDigits(x float64, d int) float64 {
+	if x == 0 || math.IsInf(x, 0) || math.IsNaN(x) {
+		return x
+	}
+	e := math.Floor(math.Log10(math.Abs(x)))
+	p := math.Pow(10, float64(d-1)-e)
+	return math.Round(x*p) / p
+}
+
+var _ = fmt.Sprintf

@@ -1,0 +1,500 @@
+//go:build mixward_pending
+
+package engine
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strings"
+)
+
+// present is one species in the mix with its amount.
+type present struct {
+	sp     Species
+	mol    float64
+	excess bool // solid or solvent present in excess
+}
+
+// mixture is the tank after the streams are combined, before any redox
+// reaction: strong electrolytes dissociated, neutralisation done, weak acids
+// and bases distributed over their conjugate forms at the mix pH.
+type mixture struct {
+	volumeL     float64
+	tempK       float64
+	pressureKPa float64
+	pH          float64
+	pHStated    bool
+	aqueous     bool
+	species     map[string]*present // by Species.Ion for aqueous/gas, Key for solids
+	order       []string
+	chemicals   []string
+	strongAcid  float64 // mol H+ from strong acids before neutralisation
+	strongBase  float64 // mol OH- from strong bases before neutralisation
+	neutralised float64 // mol H+ + OH- → H2O
+	notes       []string
+	massKg      float64 // total mass of the mixed liquid and dissolved solids, for heat
+}
+
+func (m *mixture) note(format string, args ...any) {
+	n := fmt.Sprintf(format, args...)
+	for _, x := range m.notes {
+		if x == n {
+			return
+		}
+	}
+	m.notes = append(m.notes, n)
+}
+
+// key indexes the mixture. Dissolved and gaseous forms of one neutral
+// molecule (Cl2(aq), Cl2(g)) share a key, solids and liquids are separate.
+func mixKey(s Species) string {
+	if s.Phase == Solid {
+		return s.Ion() + "(s)"
+	}
+	return s.Ion()
+}
+
+func (m *mixture) add(s Species, mol float64, excess bool) {
+	k := mixKey(s)
+	p, ok := m.species[k]
+	if !ok {
+		p = &present{sp: s}
+		m.species[k] = p
+		m.order = append(m.order, k)
+	}
+	p.mol += mol
+	p.excess = p.excess || excess
+}
+
+func (m *mixture) get(s Species) *present {
+	return m.species[mixKey(s)]
+}
+
+// molar is the concentration of an aqueous species in mol/L, 0 when absent.
+func (m *mixture) molar(s Species) float64 {
+	p := m.get(s)
+	if p == nil || m.volumeL <= 0 {
+		return 0
+	}
+	return p.mol / m.volumeL
+}
+
+// has reports whether a species is in the mix. Water, H+ and OH- are always
+// there in an aqueous mix.
+func (m *mixture) has(s Species) bool {
+	if s.IsWater() || s.IsProton() || s.IsHydroxide() {
+		return m.aqueous
+	}
+	p := m.get(s)
+	return p != nil && (p.mol > 0 || p.excess)
+}
+
+// pKw is the ionic product of water at temperature T, from its value at
+// 25 °C and the van 't Hoff equation with the enthalpy of neutralisation.
+// pKw(25 °C) = 13.995 (CRC Handbook, Ionization Constant of Water; from memory).
+func pKw(tempK float64) float64 {
+	const pKw25 = 13.995
+	const dH = 55.84e3 // J/mol for H2O → H+ + OH- (NBS 1982 formation enthalpies; from memory)
+	return pKw25 - dH/(gasConstant*math.Ln10)*(1/StandardTemperatureK-1/tempK)
+}
+
+// buildMixture combines the streams of a request.
+func buildMixture(req *Request, t *Tables) (*mixture, error) {
+	m := &mixture{species: map[string]*present{}, tempK: req.TemperatureK, pressureKPa: req.PressureKPa}
+	anyVolume := false
+	for i := range req.Streams {
+		if req.Streams[i].VolumeL > 0 {
+			anyVolume = true
+		}
+	}
+	assumedVol := false
+	// fict is the charge (mol) of an imagined spectator ion that makes the
+	// streams with a stated pH come out at that pH: their own strong acid or
+	// base is set aside and the stated H+/OH- excess used instead.
+	fict := 0.0
+	seenChem := map[string]bool{}
+	for si := range req.Streams {
+		st := &req.Streams[si]
+		vol := st.VolumeL
+		liquid := vol > 0
+		if vol == 0 && st.MassKg == 0 && streamIsSolution(st) {
+			vol = 1
+			liquid = true
+			assumedVol = true
+		}
+		if st.MassKg > 0 {
+			m.massKg += st.MassKg
+		}
+		if liquid {
+			m.volumeL += vol
+			m.aqueous = true
+			m.massKg += vol * streamDensity(st, t)
+		}
+		var streamH, streamOH float64
+		for ci := range st.Components {
+			c := &st.Components[ci]
+			ch := c.Chemical
+			if !seenChem[ch.Formula] {
+				seenChem[ch.Formula] = true
+				m.chemicals = append(m.chemicals, ch.Formula)
+			}
+			if ch.Formula == "H2O" {
+				continue
+			}
+			mol, excess, err := componentMoles(st, c, vol, liquid, t, m)
+			if err != nil {
+				return nil, err
+			}
+			for _, g := range ch.Gives {
+				n := mol * float64(g.Coef)
+				switch {
+				case g.IsProton():
+					streamH += n
+					continue
+				case g.IsHydroxide():
+					streamOH += n
+					continue
+				case g.IsWater():
+					continue
+				}
+				m.add(g.Species, n, excess)
+			}
+		}
+		if st.PH != nil && liquid {
+			h := math.Pow(10, -*st.PH) * vol
+			oh := math.Pow(10, *st.PH-pKw(m.tempK)) * vol
+			fict += (streamH - streamOH) - (h - oh)
+			if streamH > 0 || streamOH > 0 {
+				m.note("the stated pH %.4g of stream %d replaces the acid or base content computed from its components", *st.PH, si+1)
+			}
+		} else {
+			m.strongAcid += streamH
+			m.strongBase += streamOH
+		}
+	}
+	if assumedVol {
+		if anyVolume {
+			m.note("a stream without an amount was taken as 1 L")
+		} else {
+			m.note("no volumes given: equal volumes of 1 L each assumed")
+		}
+	}
+	if !m.aqueous {
+		// Solids only: nothing dissolves, the table method does not apply.
+		for _, k := range m.order {
+			p := m.species[k]
+			if p.sp.Phase == Aqueous {
+				p.sp.Phase = Solid
+			}
+		}
+		return m, nil
+	}
+	m.add(Species{Formula: "H2O", Phase: Liquid}, 0, true)
+	// Neutralisation of strong acid by strong base.
+	m.neutralised = math.Min(m.strongAcid, m.strongBase)
+	if req.PH != nil {
+		m.pH = *req.PH
+		m.pHStated = true
+	} else {
+		m.pH = solvePH(m, t, fict)
+	}
+	m.distribute(t)
+	h := math.Pow(10, -m.pH)
+	m.add(Species{Formula: "H", Charge: 1, Phase: Aqueous}, h*m.volumeL, false)
+	m.add(Species{Formula: "OH", Charge: -1, Phase: Aqueous}, math.Pow(10, m.pH-pKw(m.tempK))*m.volumeL, false)
+	return m, nil
+}
+
+// streamIsSolution reports whether a stream without an amount is a liquid:
+// anything but metals and sparingly soluble solids alone.
+func streamIsSolution(st *Stream) bool {
+	for _, c := range st.Components {
+		switch c.Chemical.Class {
+		case Metal, SparingSalt:
+		default:
+			return true
+		}
+	}
+	return false
+}
+
+// streamDensity is the density of a liquid stream in kg/L, from the density
+// table of its main component where there is one, else 1.
+func streamDensity(st *Stream, t *Tables) float64 {
+	for _, c := range st.Components {
+		if c.Unit == PctWW {
+			if d, ok := t.Density(c.Chemical.Formula, c.Value); ok {
+				return d
+			}
+		}
+	}
+	return 1
+}
+
+// componentMoles converts a component's stated concentration into moles of
+// the chemical in its stream.
+func componentMoles(st *Stream, c *Component, vol float64, liquid bool, t *Tables, m *mixture) (mol float64, excess bool, err error) {
+	ch := c.Chemical
+	mm := ch.MolarMass
+	if mm <= 0 {
+		return 0, false, fmt.Errorf("engine: %s has no molar mass", ch.Formula)
+	}
+	if !liquid {
+		// A solid stream: the mass is the chemical, or a share of it.
+		if st.MassKg == 0 {
+			return 0, true, nil
+		}
+		frac := 1.0
+		switch c.Unit {
+		case NoConc:
+		case PctWW:
+			frac = c.Value / 100
+		default:
+			return 0, false, &ParseError{Code: "bad-concentration", Message: fmt.Sprintf("%s is in a solid stream (%g kg); give its share as %% w/w, or give the stream a volume in L", c.Name, st.MassKg), Position: c.Pos, Token: c.Name, Suggestions: []string{}}
+		}
+		return st.MassKg * 1000 * frac / mm, false, nil
+	}
+	var molar float64
+	switch c.Unit {
+	case NoConc:
+		if ch.Class == Metal || ch.Class == SparingSalt {
+			if st.MassKg > 0 {
+				return st.MassKg * 1000 / mm, false, nil
+			}
+			m.note("%s given without an amount: present in excess", ch.Formula)
+			return 0, true, nil
+		}
+		molar = 1
+		m.note("no concentration given for %s: 1 mol/L assumed", ch.Formula)
+	case Molar:
+		molar = c.Value
+	case MilliM:
+		molar = c.Value / 1000
+	case PctWW:
+		d, ok := t.Density(ch.Formula, c.Value)
+		if !ok {
+			d = 1
+			if c.Value > 5 {
+				m.note("no density table for %s at %g %% w/w: 1.00 g/mL assumed, which understates its concentration", ch.Formula, c.Value)
+			}
+		}
+		molar = c.Value / 100 * d * 1000 / mm
+	case PctWV:
+		molar = c.Value * 10 / mm
+	case GPerL:
+		molar = c.Value / mm
+	case MgPerL, PPM:
+		molar = c.Value / 1000 / mm
+		if c.Unit == PPM {
+			m.note("ppm read as mg/L, right for dilute water solutions")
+		}
+	}
+	if ch.Formula == "NaOCl" && (c.Unit == PctWW || c.Unit == PctWV) {
+		m.note("hypochlorite %% read as %% NaOCl by weight, not as %% available chlorine")
+	}
+	if ch.Class == Metal || ch.Class == SparingSalt {
+		// A solid suspended in a liquid stream.
+		return molar * vol, false, nil
+	}
+	return molar * vol, false, nil
+}
+
+// family is a chain of conjugate acid–base forms, most protonated first.
+type family struct {
+	members []Species
+	pKa     []float64 // pKa[i] links members[i] and members[i+1]
+}
+
+// families groups the acid–base pairs into chains (H3PO4 … PO4^3-).
+func families(t *Tables) []family {
+	// Link acid → base.
+	next := map[string]*AcidBasePair{}
+	hasAcid := map[string]bool{}
+	for _, p := range t.AcidBase {
+		if p.Acid.IsWater() || p.Base.IsWater() || p.Acid.IsProton() || p.Base.IsHydroxide() {
+			continue
+		}
+		next[p.Acid.Ion()] = p
+		hasAcid[p.Base.Ion()] = true
+	}
+	var out []family
+	var heads []string
+	for k := range next {
+		if !hasAcid[k] {
+			heads = append(heads, k)
+		}
+	}
+	sort.Strings(heads)
+	for _, h := range heads {
+		p := next[h]
+		f := family{members: []Species{aqueousOf(p.Acid)}}
+		seen := map[string]bool{h: true}
+		for p != nil {
+			f.members = append(f.members, aqueousOf(p.Base))
+			f.pKa = append(f.pKa, p.PKa)
+			k := p.Base.Ion()
+			if seen[k] {
+				break
+			}
+			seen[k] = true
+			p = next[k]
+		}
+		out = append(out, f)
+	}
+	return out
+}
+
+func aqueousOf(s Species) Species {
+	s.Phase = Aqueous
+	return s
+}
+
+// fractions returns the share of each member of f at hydrogen-ion
+// concentration h (mol/L).
+func (f *family) fractions(h float64, out []float64) []float64 {
+	out = out[:0]
+	// log of the unnormalised share, relative to the most protonated form.
+	logs := make([]float64, len(f.members))
+	for i := 1; i < len(f.members); i++ {
+		logs[i] = logs[i-1] + (-f.pKa[i-1]*math.Ln10 - math.Log(h))
+	}
+	mx := logs[0]
+	for _, l := range logs {
+		mx = math.Max(mx, l)
+	}
+	sum := 0.0
+	for _, l := range logs {
+		v := math.Exp(l - mx)
+		out = append(out, v)
+		sum += v
+	}
+	for i := range out {
+		out[i] /= sum
+	}
+	return out
+}
+
+// solvePH finds the pH at which the mix is electrically neutral, with the
+// weak acid–base families distributed at that pH (charge balance, activity
+// coefficients taken as 1).
+func solvePH(m *mixture, t *Tables, fict float64) float64 {
+	fams := t.families
+	strong := 0.0 // charge of ions outside any family, mol/L
+	famTotal := make([]float64, len(fams))
+	inFam := map[string]int{}
+	for i, f := range fams {
+		for _, s := range f.members {
+			inFam[s.Ion()] = i
+		}
+	}
+	for _, k := range m.order {
+		p := m.species[k]
+		if p.sp.Phase != Aqueous || p.sp.IsProton() || p.sp.IsHydroxide() {
+			continue
+		}
+		if i, ok := inFam[p.sp.Ion()]; ok {
+			famTotal[i] += p.mol / m.volumeL
+			continue
+		}
+		strong += float64(p.sp.Charge) * p.mol / m.volumeL
+	}
+	strong += fict / m.volumeL
+	kw := math.Pow(10, -pKw(m.tempK))
+	var buf []float64
+	balance := func(pH float64) float64 {
+		h := math.Pow(10, -pH)
+		q := h - kw/h + strong
+		for i, f := range fams {
+			if famTotal[i] == 0 {
+				continue
+			}
+			buf = f.fractions(h, buf)
+			for j, s := range f.members {
+				q += famTotal[i] * buf[j] * float64(s.Charge)
+			}
+		}
+		return q
+	}
+	// balance falls as pH rises; bisect on pH in [-2, 16].
+	lo, hi := -2.0, 16.0
+	if balance(lo) < 0 {
+		return lo
+	}
+	if balance(hi) > 0 {
+		return hi
+	}
+	for range 80 {
+		mid := (lo + hi) / 2
+		if balance(mid) > 0 {
+			lo = mid
+		} else {
+			hi = mid
+		}
+	}
+	return (lo + hi) / 2
+}
+
+// distribute spreads each acid–base family over its forms at the mix pH.
+// Forms under 1 % of their family are dropped from the species list.
+func (m *mixture) distribute(t *Tables) {
+	h := math.Pow(10, -m.pH)
+	var buf []float64
+	for _, f := range t.families {
+		total := 0.0
+		for _, s := range f.members {
+			if p := m.get(s); p != nil {
+				total += p.mol
+				p.mol = 0
+			}
+		}
+		if total == 0 {
+			continue
+		}
+		buf = f.fractions(h, buf)
+		for j, s := range f.members {
+			if buf[j] < 0.01 {
+				continue
+			}
+			m.add(s, total*buf[j], false)
+		}
+	}
+	// Drop emptied entries, keep order.
+	keep := m.order[:0]
+	for _, k := range m.order {
+		p := m.species[k]
+		if p.mol > 0 || p.excess {
+			keep = append(keep, k)
+		} else {
+			delete(m.species, k)
+		}
+	}
+	m.order = keep
+}
+
+// list returns the species in a stable order: as they entered the mix,
+// water last.
+func (m *mixture) list() []*present {
+	out := make([]*present, 0, len(m.order))
+	var water *present
+	for _, k := range m.order {
+		p := m.species[k]
+		if p.sp.IsWater() {
+			water = p
+			continue
+		}
+		out = append(out, p)
+	}
+	if water != nil {
+		out = append(out, water)
+	}
+	return out
+}
+
+func (m *mixture) String() string {
+	var b strings.Builder
+	for _, p := range m.list() {
+		fmt.Fprintf(&b, "%s %.4g; ", p.sp.Text(), p.mol)
+	}
+	return b.String()
+}

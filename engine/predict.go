@@ -1,0 +1,314 @@
+//go:build mixward_pending
+
+package engine
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strconv"
+	"strings"
+)
+
+// side is one half-reaction usable in the mix, in one role.
+type side struct {
+	row       *HalfReaction
+	idx       int // row index in the table, for stable ordering
+	role      Role
+	main      Species   // the species that is reduced (oxidizer) or oxidized (reducer)
+	partners  []Species // other species the couple needs, besides water, H+ and OH-
+	e         float64   // reduction potential of the couple under the mix's conditions
+	discount  float64   // kinetic allowance in volts, always ≥ 0
+	allowance *KineticRule
+}
+
+// pair is an oxidizer side and a reducer side that can react.
+type pair struct {
+	ox, red  *side
+	eCell    float64 // E(ox) − E(red) under the mix's conditions
+	eCellStd float64
+	eff      float64 // eCell less the kinetic allowances, used for ranking
+	rx       *netReaction
+}
+
+// netReaction is a balanced net ionic equation.
+type netReaction struct {
+	reactants []Term
+	products  []Term
+	electrons int
+}
+
+func isSolvent(s Species) bool { return s.IsWater() || s.IsProton() || s.IsHydroxide() }
+
+// mediumOf is the half-reaction medium that fits a pH.
+func mediumOf(pH float64) Medium {
+	if pH < 7 {
+		return Acid
+	}
+	return Base
+}
+
+// sides lists every half-reaction that can act in the mix, as an oxidizer
+// (all its oxidized-side species present) and as a reducer (all its
+// reduced-side species present).
+func (e *Engine) sides(m *mixture) (ox, red []*side) {
+	if !m.aqueous {
+		return nil, nil
+	}
+	med := mediumOf(m.pH)
+	for i, h := range e.Tables.Half {
+		if h.Medium != Any && h.Medium != med {
+			continue
+		}
+		if s := e.makeSide(m, h, i, OxidizerRole, h.Reactants); s != nil {
+			ox = append(ox, s)
+		}
+		if s := e.makeSide(m, h, i, ReducerRole, h.Products); s != nil {
+			red = append(red, s)
+		}
+	}
+	return ox, red
+}
+
+func (e *Engine) makeSide(m *mixture, h *HalfReaction, idx int, role Role, terms []Term) *side {
+	s := &side{row: h, idx: idx, role: role}
+	found := false
+	for _, t := range terms {
+		if isSolvent(t.Species) {
+			continue
+		}
+		if !m.has(t.Species) {
+			return nil
+		}
+		if !found {
+			s.main = m.get(t.Species).sp
+			found = true
+		} else {
+			s.partners = append(s.partners, m.get(t.Species).sp)
+		}
+	}
+	if !found {
+		// A water couple: H+ (acid) or H2O (base) is reduced; H2O (acid) or
+		// OH- (base) is oxidized.
+		pick := Species{}
+		for _, t := range terms {
+			if t.IsProton() || t.IsHydroxide() {
+				pick = t.Species
+			}
+		}
+		if pick.Formula == "" {
+			for _, t := range terms {
+				if t.IsWater() {
+					pick = t.Species
+				}
+			}
+		}
+		if pick.Formula == "" {
+			return nil
+		}
+		s.main = pick
+	}
+	s.e = m.potential(h)
+	e.applyKinetics(m, s)
+	return s
+}
+
+// isWaterSide reports whether a side is water's own couple (H+/H2, H2O/H2,
+// O2/H2O, O2/OH-).
+func (s *side) isWaterSide() bool { return isSolvent(s.main) }
+
+// effE is the potential used for ranking: an oxidizer's is lowered and a
+// reducer's raised by its kinetic allowance.
+func (s *side) effE() float64 {
+	if s.role == OxidizerRole {
+		return s.e - s.discount
+	}
+	return s.e + s.discount
+}
+
+// pairs forms every oxidizer–reducer pair, balanced, ranked by effective
+// cell potential.
+func (e *Engine) pairs(m *mixture, ox, red []*side) []*pair {
+	var out []*pair
+	med := mediumOf(m.pH)
+	for _, o := range ox {
+		for _, r := range red {
+			if o.row == r.row || (o.isWaterSide() && r.isWaterSide()) {
+				continue
+			}
+			rx, err := combine(o.row, r.row, med)
+			if err != nil || len(rx.reactants) == 0 || len(rx.products) == 0 {
+				continue
+			}
+			if BalanceError(rx.reactants, rx.products, 0) != nil {
+				continue
+			}
+			p := &pair{ox: o, red: r, eCell: o.e - r.e, eCellStd: o.row.E0 - r.row.E0, rx: rx}
+			p.eff = o.effE() - r.effE()
+			out = append(out, p)
+		}
+	}
+	sort.SliceStable(out, func(i, j int) bool {
+		a, b := out[i], out[j]
+		if a.eff != b.eff {
+			return a.eff > b.eff
+		}
+		if a.eCell != b.eCell {
+			return a.eCell > b.eCell
+		}
+		if a.ox.idx != b.ox.idx {
+			return a.ox.idx < b.ox.idx
+		}
+		return a.red.idx < b.red.idx
+	})
+	return out
+}
+
+// combine adds the reduction ox and the reversed reduction red, each scaled
+// to the lowest common multiple of their electrons, cancels what appears on
+// both sides, rewrites H+ or OH- into the medium of the mix, and divides by
+// the greatest common divisor of the coefficients.
+func combine(ox, red *HalfReaction, med Medium) (*netReaction, error) {
+	l := lcm(ox.Electrons, red.Electrons)
+	a, b := l/ox.Electrons, l/red.Electrons
+	net := map[string]int{}
+	specs := map[string]Species{}
+	var order []string
+	addT := func(t Term, k int) {
+		key := t.Species.Key()
+		if _, ok := specs[key]; !ok {
+			specs[key] = t.Species
+			order = append(order, key)
+		}
+		net[key] += k
+	}
+	for _, t := range ox.Reactants {
+		addT(t, -t.Coef*a)
+	}
+	for _, t := range red.Products {
+		addT(t, -t.Coef*b)
+	}
+	for _, t := range ox.Products {
+		addT(t, t.Coef*a)
+	}
+	for _, t := range red.Reactants {
+		addT(t, t.Coef*b)
+	}
+	water := Species{Formula: "H2O", Phase: Liquid}
+	proton := Species{Formula: "H", Charge: 1, Phase: Aqueous}
+	hydroxide := Species{Formula: "OH", Charge: -1, Phase: Aqueous}
+	// H+ and OH- on opposite sides make water; rewrite the one foreign to
+	// the medium.
+	if med == Acid {
+		if k := net[hydroxide.Key()]; k != 0 {
+			addT(Term{Species: water}, k)
+			addT(Term{Species: proton}, -k)
+			net[hydroxide.Key()] = 0
+		}
+	} else {
+		if k := net[proton.Key()]; k != 0 {
+			addT(Term{Species: water}, k)
+			addT(Term{Species: hydroxide}, -k)
+			net[proton.Key()] = 0
+		}
+	}
+	g := 0
+	for _, k := range order {
+		g = gcd(g, abs(net[k]))
+	}
+	if g == 0 {
+		return &netReaction{}, nil
+	}
+	rx := &netReaction{electrons: l / g}
+	for _, k := range order {
+		c := net[k] / g
+		switch {
+		case c < 0:
+			rx.reactants = append(rx.reactants, Term{Species: specs[k], Coef: -c})
+		case c > 0:
+			rx.products = append(rx.products, Term{Species: specs[k], Coef: c})
+		}
+	}
+	if l%g != 0 {
+		return nil, fmt.Errorf("engine: electrons %d not divisible by %d", l, g)
+	}
+	return rx, nil
+}
+
+func gcd(a, b int) int {
+	for b != 0 {
+		a, b = b, a%b
+	}
+	return a
+}
+
+func lcm(a, b int) int { return a / gcd(a, b) * b }
+
+func abs(x int) int {
+	if x < 0 {
+		return -x
+	}
+	return x
+}
+
+// equationText writes terms as "2 MnO4- + 16 H+".
+func termsText(ts []Term) string {
+	parts := make([]string, len(ts))
+	for i, t := range ts {
+		if t.Coef == 1 {
+			parts[i] = t.Species.Text()
+		} else {
+			parts[i] = strconv.Itoa(t.Coef) + " " + t.Species.Text()
+		}
+	}
+	return strings.Join(parts, " + ")
+}
+
+func (rx *netReaction) text() string {
+	return termsText(rx.reactants) + " → " + termsText(rx.products)
+}
+
+func (rx *netReaction) out() *Reaction {
+	conv := func(ts []Term) []EqTerm {
+		out := make([]EqTerm, len(ts))
+		for i, t := range ts {
+			out[i] = EqTerm{Formula: t.Formula, Charge: t.Charge, Phase: t.Phase, Coef: t.Coef, Text: t.Species.Text()}
+		}
+		return out
+	}
+	return &Reaction{Reactants: conv(rx.reactants), Products: conv(rx.products), Text: rx.text(), Electrons: rx.electrons}
+}
+
+// HalfText writes a half-reaction as a reduction ("MnO4- + 8 H+ + 5 e- →
+// Mn^2+ + 4 H2O(l)") or, reversed, as an oxidation.
+func HalfText(h *HalfReaction, reversed bool) string {
+	e := strconv.Itoa(h.Electrons) + " e-"
+	if h.Electrons == 1 {
+		e = "e-"
+	}
+	if reversed {
+		return termsText(h.Products) + " → " + termsText(h.Reactants) + " + " + e
+	}
+	return termsText(h.Reactants) + " + " + e + " → " + termsText(h.Products)
+}
+
+func (s *side) couple() *Couple {
+	return &Couple{
+		Species:      s.main.Text(),
+		HalfReaction: HalfText(s.row, s.role == ReducerRole),
+		EStandard:    s.row.E0,
+		E:            roundDec(s.e, 4),
+		ID:           s.row.ID,
+		Medium:       s.row.Medium,
+		Electrons:    s.row.Electrons,
+		Source:       s.row.Source,
+	}
+}
+
+// round rounds x to d decimals, so that JSON carries no float noise.
+func roundDec(x float64, d int) float64 {
+	p := math.Pow(10, float64(d))
+	return math.Round(x*p) / p
+}
+
+func ptr(x float64) *float64 { return &x }

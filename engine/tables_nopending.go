@@ -1,0 +1,5 @@
+//go:build !mixward_pending
+
+package engine
+
+type family struct{}
