@@ -1,0 +1,358 @@
+// Package bot answers mix requests where operators talk: in Slack (Socket
+// Mode, or the HTTP Events API with a slash command) and in a local
+// terminal console. It is the only package that imports slack-go.
+//
+// The pieces: Bot turns one message into a Reply (engine call, query log,
+// stream catalogue, search, digest, access rules) without knowing the
+// transport; Slack takes messages from Slack, acknowledges them at once,
+// queues them per thread and posts the replies as Block Kit through a
+// rate-limited, retrying Poster; Console reads lines from a terminal or a
+// pipe and prints the same replies as plain text.
+package bot
+
+import (
+	"context"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"log/slog"
+	"regexp"
+	"strings"
+	"sync"
+	"time"
+
+	"github.com/slack-go/slack"
+
+	"mixward/engine"
+	"mixward/store"
+)
+
+// Answerer answers mix requests. *engine.Engine implements it.
+type Answerer interface {
+	Ask(text string, opt engine.AskOptions) (*engine.Result, error)
+}
+
+// QueryLog is the query log: every mix request is written before it is
+// answered, and the outcome of posting the answer is recorded after.
+// *store.DB implements it.
+type QueryLog interface {
+	LogQuery(ctx context.Context, q *store.Query) (int64, error)
+	RecordDelivery(ctx context.Context, queryID int64, ok bool, detail string) error
+}
+
+// Searcher searches the query log (reviewers only). *store.DB implements it.
+type Searcher interface {
+	Search(ctx context.Context, o store.SearchOptions) (store.SearchPage, error)
+}
+
+// Catalogue is the site stream catalogue. *store.DB implements it.
+type Catalogue interface {
+	SetStream(ctx context.Context, tag, stream, note, by string) error
+	RemoveStream(ctx context.Context, tag, by string) error
+	Stream(ctx context.Context, tag string) (store.Stream, error)
+	Streams(ctx context.Context) ([]store.Stream, error)
+	StreamHistory(ctx context.Context, tag string) ([]store.StreamChange, error)
+}
+
+// Plotter draws the E–pH picture of a result as PNG; ok is false when the
+// result has no pair to draw.
+type Plotter interface {
+	Plot(r *engine.Result) (png []byte, ok bool, err error)
+}
+
+// Incoming is one message to the bot, from any transport.
+type Incoming struct {
+	Transport   string // "socket", "http" or "console"
+	EventID     string // Slack event id (or slash-command trigger id); "" when none
+	Retry       int    // Slack's redelivery attempt number, 0 for the first delivery
+	Channel     string // Slack channel id, or "console"
+	ThreadTS    string // thread to answer in; "" for a slash command (a thread is started)
+	UserID      string
+	UserName    string
+	Text        string // as typed, Slack escaping undone and bot mention removed
+	Command     string // "/mixward" when it came as a slash command
+	ResponseURL string
+	Received    time.Time
+}
+
+// Key is the ordering key: replies with the same key are posted in order.
+func (in Incoming) Key() string {
+	if in.ThreadTS != "" {
+		return in.Channel + "/" + in.ThreadTS
+	}
+	return in.Channel + "/@" + in.UserID
+}
+
+// Reply is what the bot answers to one message.
+type Reply struct {
+	Kind      Kind
+	Text      string         // the whole answer as plain text: console output, Slack fallback
+	Blocks    []slack.Block  // Block Kit form for Slack; nil means Text as sections
+	Result    *engine.Result // the mix answer, for the picture; nil otherwise
+	QueryID   int64          // id in the query log; 0 when nothing was logged
+	Duplicate bool           // the event was already answered: post nothing
+}
+
+// Bot answers messages. Its fields are set once before use; it is safe for
+// concurrent use afterwards.
+type Bot struct {
+	Engine      Answerer
+	Render      func(*engine.Result) string // plain text of an answer; nil means engine.RenderText
+	CheckStream func(text string) error     // validates "streams set" text; nil accepts anything
+	Log         QueryLog
+	Catalogue   Catalogue
+	Searcher    Searcher
+	Digests     Digester
+	Access      *Access
+	Now         func() time.Time
+	Sleep       func(ctx context.Context, d time.Duration) error // waits between log retries
+	Location    *time.Location                                   // site time zone for dates
+	ShiftStart  func(now time.Time) time.Time                    // start of the shift now is in; nil means 12 h ago
+	Logger      *slog.Logger
+	Metrics     *Metrics
+
+	EngineVersion string
+	DataHash      string
+	ConsoleHelp   bool // help says the console user may do everything
+}
+
+func (b *Bot) now() time.Time {
+	if b.Now != nil {
+		return b.Now()
+	}
+	return time.Now()
+}
+
+func (b *Bot) loc() *time.Location {
+	if b.Location != nil {
+		return b.Location
+	}
+	return time.UTC
+}
+
+func (b *Bot) logger() *slog.Logger {
+	if b.Logger != nil {
+		return b.Logger
+	}
+	return slog.New(slog.DiscardHandler)
+}
+
+// Answer works out the reply to one message. It never fails: every problem
+// becomes text for the person who asked, and internals go to the log only.
+func (b *Bot) Answer(ctx context.Context, in Incoming) Reply {
+	cmd, err := ParseCommand(in.Text, b.loc())
+	b.Metrics.request(in.Transport, string(cmd.Kind))
+	if err != nil {
+		return usageReply(cmd.Kind, err)
+	}
+	switch cmd.Kind {
+	case KindHelp:
+		return b.help()
+	case KindStreams:
+		return b.streams(ctx, in, cmd)
+	case KindSearch:
+		return b.search(ctx, in, cmd.Search)
+	case KindDigest:
+		return b.digest(ctx, in, cmd.Hours)
+	}
+	return b.mix(ctx, in, cmd.Text)
+}
+
+// usageReply explains a command that could not be read.
+func usageReply(k Kind, err error) Reply {
+	var ue *UsageError
+	text := "I couldn't read that command."
+	example := ""
+	if errors.As(err, &ue) {
+		text, example = ue.Message, ue.Example
+	}
+	if example != "" {
+		text += "\nFor example: `" + example + "`"
+	}
+	text += "\nSay `help` for everything I understand."
+	return Reply{Kind: k, Text: text}
+}
+
+var tagWord = regexp.MustCompile(`\b[A-Za-z][A-Za-z0-9]*-[A-Za-z0-9][A-Za-z0-9_-]*\b`)
+
+// mix answers a mix request: engine, then log, then reply.
+func (b *Bot) mix(ctx context.Context, in Incoming, text string) Reply {
+	var mu sync.Mutex
+	resolved := map[string]string{}
+	resolve := func(tag string) (string, bool) {
+		if b.Catalogue == nil {
+			return "", false
+		}
+		s, err := b.Catalogue.Stream(ctx, tag)
+		if err != nil {
+			if !errors.Is(err, store.ErrNotFound) && !errors.Is(err, store.ErrInvalid) {
+				b.logger().Warn("stream lookup failed", "tag", tag, "err", err)
+			}
+			return "", false
+		}
+		mu.Lock()
+		resolved[strings.ToUpper(tag)] = s.Stream
+		mu.Unlock()
+		return s.Stream, true
+	}
+
+	q := &store.Query{
+		Time:          b.now(),
+		UserID:        in.UserID,
+		UserName:      in.UserName,
+		Channel:       in.Channel,
+		EventID:       in.EventID,
+		Request:       text,
+		EngineVersion: b.EngineVersion,
+		DataHash:      b.DataHash,
+	}
+	res, err := b.ask(text, engine.AskOptions{Resolve: resolve})
+	if len(resolved) > 0 {
+		q.Resolved = tagWord.ReplaceAllStringFunc(text, func(w string) string {
+			if s, ok := resolved[strings.ToUpper(w)]; ok {
+				return "(" + s + ")"
+			}
+			return w
+		})
+	}
+	var pe *engine.ParseError
+	switch {
+	case err == nil:
+		fillQuery(q, res)
+	case errors.As(err, &pe):
+		q.Verdict = store.VerdictError
+		q.Error = pe.Error()
+	default:
+		b.logger().Error("engine failed", "request", text, "err", err)
+		b.Metrics.failed("engine")
+		q.Verdict = store.VerdictError
+		q.Error = "internal error: " + err.Error()
+	}
+	b.Metrics.verdict(q.Verdict)
+
+	id, err := b.logQuery(ctx, q)
+	if errors.Is(err, store.ErrDuplicate) {
+		b.Metrics.duplicate()
+		b.logger().Info("duplicate delivery not answered again", "event_id", in.EventID, "query_id", id)
+		return Reply{Kind: KindMix, QueryID: id, Duplicate: true}
+	}
+	if err != nil {
+		b.Metrics.failed("log")
+		b.logger().Error("query not logged; not answering", "event_id", in.EventID, "err", err)
+		return Reply{Kind: KindMix, Text: "I could not write this request to the query log, so I am not answering it: every answer has to be on record first. " +
+			"Please try again in a minute; if it keeps happening, tell whoever runs mixward on site."}
+	}
+
+	switch {
+	case res != nil:
+		return Reply{Kind: KindMix, Text: b.render(res), Blocks: ResultBlocks(res, id), Result: res, QueryID: id}
+	case pe != nil:
+		b.Metrics.failed("request")
+		return parseErrorReply(text, pe, id)
+	default:
+		return Reply{Kind: KindMix, QueryID: id, Text: fmt.Sprintf("Something went wrong on my side while working out this request, so I have no answer for it. "+
+			"It is logged as query #%d; please tell whoever runs mixward on site.", id)}
+	}
+}
+
+// ask calls the engine, turning a panic into an error so one bad request
+// cannot take the bot down.
+func (b *Bot) ask(text string, opt engine.AskOptions) (res *engine.Result, err error) {
+	defer func() {
+		if v := recover(); v != nil {
+			res, err = nil, fmt.Errorf("engine panic: %v", v)
+		}
+	}()
+	return b.Engine.Ask(text, opt)
+}
+
+func (b *Bot) render(r *engine.Result) string {
+	if b.Render != nil {
+		return b.Render(r)
+	}
+	return engine.RenderText(r)
+}
+
+// logQuery writes q, retrying a few times when the database is busy.
+func (b *Bot) logQuery(ctx context.Context, q *store.Query) (int64, error) {
+	var id int64
+	var err error
+	for attempt := 1; attempt <= 3; attempt++ {
+		cp := *q
+		id, err = b.Log.LogQuery(ctx, &cp)
+		if err == nil || errors.Is(err, store.ErrDuplicate) || errors.Is(err, store.ErrInvalid) || ctx.Err() != nil {
+			return id, err
+		}
+		b.logger().Warn("logging query failed, retrying", "attempt", attempt, "err", err)
+		sleep := b.Sleep
+		if sleep == nil {
+			sleep = SleepContext
+		}
+		if sleep(ctx, time.Duration(attempt)*200*time.Millisecond) != nil {
+			break
+		}
+	}
+	return id, err
+}
+
+// fillQuery copies the logged summary of a result into q.
+func fillQuery(q *store.Query, r *engine.Result) {
+	q.Verdict = string(r.Verdict)
+	for _, s := range r.Species {
+		q.Species = append(q.Species, s.Text)
+	}
+	if r.Oxidizer != nil {
+		q.Oxidizer = r.Oxidizer.Species
+	}
+	if r.Reducer != nil {
+		q.Reducer = r.Reducer.Species
+	}
+	q.ECellV, q.ECellStandardV = r.ECell, r.ECellStandard
+	for _, h := range r.Hazards {
+		q.Hazards = append(q.Hazards, store.Hazard{Code: h.Code, Severity: string(h.Severity), Message: h.Message})
+	}
+	for _, s := range r.Streams {
+		q.Streams = append(q.Streams, s.Text)
+	}
+	if js, err := json.Marshal(r); err == nil {
+		q.Result = js
+	}
+}
+
+// RequestExample is the example shown with every request error.
+const RequestExample = "mix 200 L NaOCl 12.5 % + 50 L HCl 10 %"
+
+// parseErrorReply explains a request the engine could not read, as plain
+// text and as Slack mrkdwn.
+func parseErrorReply(text string, pe *engine.ParseError, id int64) Reply {
+	var plain, md strings.Builder
+	both := func(format string, args ...any) {
+		t := fmt.Sprintf(format, args...)
+		plain.WriteString(t)
+		md.WriteString(esc(t))
+	}
+	both("I couldn't read that mix request: %s", pe.Message)
+	if pe.Position > 0 {
+		both(" (at character %d", pe.Position)
+		if pe.Token != "" {
+			both(", %q", pe.Token)
+		}
+		both(")")
+	}
+	both(".\n")
+	if n := len([]rune(text)); pe.Position > 0 && pe.Position <= n+1 {
+		caret := strings.Repeat(" ", pe.Position-1) + "^"
+		fmt.Fprintf(&plain, "  %s\n  %s\n", text, caret)
+		fmt.Fprintf(&md, "```%s\n%s```\n", esc(text), caret)
+	}
+	if len(pe.Suggestions) > 0 {
+		both("Did you mean: %s?\n", strings.Join(pe.Suggestions, ", "))
+	}
+	fmt.Fprintf(&plain, "A request lists the streams joined by +, for example:\n  %s\n", RequestExample)
+	fmt.Fprintf(&md, "A request lists the streams joined by +, for example: `%s`\n", RequestExample)
+	both("Say `help` for the request language.")
+	if id > 0 {
+		both(" (Logged as query #%d.)", id)
+	}
+	return Reply{Kind: KindMix, Text: plain.String(), Blocks: TextBlocks(md.String()), QueryID: id}
+}

@@ -1,0 +1,264 @@
+package bot
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"strings"
+	"time"
+
+	"github.com/slack-go/slack"
+
+	"mixward/store"
+)
+
+// Digester summarises the query log for a period. *store.DB implements it.
+type Digester interface {
+	Digest(ctx context.Context, since, until time.Time) (*store.Digest, error)
+}
+
+// searchPageSize is how many queries one search reply lists.
+const searchPageSize = 10
+
+// refuse is the polite refusal for a missing right.
+func (b *Bot) refuse(k Kind, right, what string) Reply {
+	b.Metrics.refusal(right)
+	return Reply{Kind: k, Text: fmt.Sprintf("Sorry, %s is open to %ss only, and you are not on that list. "+
+		"If you need it, ask whoever runs mixward on site to add you (by Slack user id or user group).", what, right)}
+}
+
+func (b *Bot) help() Reply {
+	var s strings.Builder
+	s.WriteString("I check whether streams may be mixed: I list the species present, pick the strongest oxidizing and reducing agents, " +
+		"write both half-reactions and the net ionic equation, say whether the reaction is spontaneous, and estimate gas, heat and hazards.\n\n")
+	s.WriteString("Mix request:  mix 200 L NaOCl 12.5 % + 50 L HCl 10 %\n")
+	s.WriteString("  stream    = [amount] chemical [number unit][, chemical [number unit]]...  or a stream tag like T-101\n")
+	s.WriteString("  amount    = 200 L, 500 mL, 2 m3, 25 kg, 500 g\n")
+	s.WriteString("  units     = M, mol/L, mmol/L, %, % w/w, % w/v, g/L, mg/L, ppm; also pH 11.5 inside a stream\n")
+	s.WriteString("  at the end: at 40 C, at 2 bar, at pH 3 (a stated pH overrides the computed one)\n\n")
+	s.WriteString("Other commands:\n")
+	s.WriteString("  streams                          list the site stream catalogue\n")
+	s.WriteString("  streams show T-101               one stream; streams history T-101 for its changes\n")
+	s.WriteString("  streams set T-101 STREAM [note: TEXT]   define a tag (supervisors)\n")
+	s.WriteString("  streams remove T-101             retire a tag (supervisors)\n")
+	s.WriteString("  search WORDS [since:2026-11-01] [until:2026-11-30] [user:U123] [verdict:spontaneous] [hazard:CODE] [page:2]\n")
+	s.WriteString("                                   search the query log (reviewers)\n")
+	s.WriteString("  digest [12h]                     shift summary so far, or for the last hours (supervisors and reviewers)\n")
+	s.WriteString("  help                             this text\n\n")
+	if b.ConsoleHelp {
+		s.WriteString("This is the local console: you are the operator at this terminal, so every command is open to you, " +
+			"and your requests are logged as user \"console\".\n\n")
+	} else {
+		s.WriteString("Mention me in a channel, write to me directly, or use /mixward. I answer in a thread. Every request is logged.\n\n")
+	}
+	s.WriteString(Advisory)
+	text := s.String()
+	return Reply{Kind: KindHelp, Text: text, Blocks: helpBlocks(text)}
+}
+
+// helpBlocks shows the help with its syntax lines in a code block.
+func helpBlocks(text string) []slack.Block {
+	intro, rest, _ := strings.Cut(text, "\n\n")
+	syntax, tail, _ := strings.Cut(rest, "\n\nThis is")
+	if tail != "" {
+		tail = "This is" + tail
+	} else {
+		syntax, tail, _ = strings.Cut(rest, "\n\nMention")
+		if tail != "" {
+			tail = "Mention" + tail
+		}
+	}
+	var bl []slack.Block
+	bl = append(bl, TextBlocks(esc(intro))...)
+	bl = append(bl, TextBlocks("```"+esc(syntax)+"```")...)
+	if tail != "" {
+		bl = append(bl, TextBlocks(esc(tail))...)
+	}
+	return bl
+}
+
+func (b *Bot) streams(ctx context.Context, in Incoming, c Command) Reply {
+	if b.Catalogue == nil {
+		return Reply{Kind: KindStreams, Text: "The stream catalogue is not available here."}
+	}
+	fail := func(err error) Reply {
+		if errors.Is(err, store.ErrNotFound) {
+			return Reply{Kind: KindStreams, Text: fmt.Sprintf("There is no stream %s in the catalogue. Say `streams` for the list.", c.Tag)}
+		}
+		if errors.Is(err, store.ErrInvalid) {
+			return Reply{Kind: KindStreams, Text: "The catalogue refused that: " + strings.TrimPrefix(err.Error(), "invalid argument: ") + "."}
+		}
+		b.Metrics.failed("catalogue")
+		b.logger().Error("stream catalogue failed", "action", c.Action, "tag", c.Tag, "err", err)
+		return Reply{Kind: KindStreams, Text: "I could not reach the stream catalogue just now; please try again in a minute."}
+	}
+	switch c.Action {
+	case "list":
+		ss, err := b.Catalogue.Streams(ctx)
+		if err != nil {
+			return fail(err)
+		}
+		if len(ss) == 0 {
+			return Reply{Kind: KindStreams, Text: "The stream catalogue is empty. A supervisor can add streams with `" + streamsExample + "`."}
+		}
+		var s strings.Builder
+		fmt.Fprintf(&s, "%d stream%s in the catalogue:\n", len(ss), plural(len(ss)))
+		for _, st := range ss {
+			fmt.Fprintf(&s, "%s  %s", st.Tag, st.Stream)
+			if st.Note != "" {
+				fmt.Fprintf(&s, "  (%s)", st.Note)
+			}
+			s.WriteString("\n")
+		}
+		s.WriteString("Use a tag in a mix request: mix T-101 + T-204")
+		return codeReply(KindStreams, s.String())
+	case "show":
+		st, err := b.Catalogue.Stream(ctx, c.Tag)
+		if err != nil {
+			return fail(err)
+		}
+		text := fmt.Sprintf("%s  %s\n", st.Tag, st.Stream)
+		if st.Note != "" {
+			text += "note: " + st.Note + "\n"
+		}
+		text += fmt.Sprintf("version %d, set by %s on %s", st.Version, st.By, st.Time.In(b.loc()).Format("2006-01-02 15:04 MST"))
+		return codeReply(KindStreams, text)
+	case "history":
+		hs, err := b.Catalogue.StreamHistory(ctx, c.Tag)
+		if err != nil {
+			return fail(err)
+		}
+		var s strings.Builder
+		fmt.Fprintf(&s, "History of %s, oldest first:\n", c.Tag)
+		for _, h := range hs {
+			fmt.Fprintf(&s, "%s  %-6s by %s", h.Time.In(b.loc()).Format("2006-01-02 15:04"), h.Action, h.By)
+			if h.Stream != "" {
+				fmt.Fprintf(&s, ": %s", h.Stream)
+			}
+			if h.Note != "" {
+				fmt.Fprintf(&s, "  (%s)", h.Note)
+			}
+			s.WriteString("\n")
+		}
+		return codeReply(KindStreams, strings.TrimRight(s.String(), "\n"))
+	case "set", "remove":
+		if !b.Access.IsSupervisor(ctx, in.UserID) {
+			return b.refuse(KindStreams, "supervisor", "changing the stream catalogue")
+		}
+		by := in.UserID
+		if in.UserName != "" && in.UserName != in.UserID {
+			by = in.UserName + " (" + in.UserID + ")"
+		}
+		if c.Action == "remove" {
+			if err := b.Catalogue.RemoveStream(ctx, c.Tag, by); err != nil {
+				return fail(err)
+			}
+			return Reply{Kind: KindStreams, Text: fmt.Sprintf("Removed %s from the catalogue. Its history is kept (`streams history %s`).", c.Tag, c.Tag)}
+		}
+		if b.CheckStream != nil {
+			if err := b.CheckStream(c.Stream); err != nil {
+				return Reply{Kind: KindStreams, Text: fmt.Sprintf("I did not save %s: the stream does not read as a stream of a mix request: %v.\nFor example: `%s`", c.Tag, err, streamsExample)}
+			}
+		}
+		if err := b.Catalogue.SetStream(ctx, c.Tag, c.Stream, c.Note, by); err != nil {
+			return fail(err)
+		}
+		return Reply{Kind: KindStreams, Text: fmt.Sprintf("Saved %s as: %s\nUse it in a request: mix %s + ...", c.Tag, c.Stream, c.Tag)}
+	}
+	return usageReply(KindStreams, &UsageError{Message: "I don't know that streams command.", Example: streamsExample})
+}
+
+// codeReply is a reply whose Slack form is a code block (for aligned text).
+func codeReply(k Kind, text string) Reply {
+	return Reply{Kind: k, Text: text, Blocks: TextBlocks("```" + esc(text) + "```")}
+}
+
+func (b *Bot) search(ctx context.Context, in Incoming, q SearchQuery) Reply {
+	if !b.Access.IsReviewer(ctx, in.UserID) {
+		return b.refuse(KindSearch, "reviewer", "searching the query log")
+	}
+	if b.Searcher == nil {
+		return Reply{Kind: KindSearch, Text: "The query log cannot be searched here."}
+	}
+	page, err := b.Searcher.Search(ctx, store.SearchOptions{
+		Terms:   strings.Join(q.Terms, " "),
+		Since:   q.Since,
+		Until:   q.Until,
+		User:    q.User,
+		Verdict: q.Verdict,
+		Hazard:  q.Hazard,
+		Limit:   searchPageSize,
+		Offset:  (q.Page - 1) * searchPageSize,
+	})
+	if err != nil {
+		if errors.Is(err, store.ErrInvalid) {
+			return usageReply(KindSearch, &UsageError{Message: "The log refused that search: " + err.Error() + ".", Example: searchExample})
+		}
+		b.Metrics.failed("search")
+		b.logger().Error("search failed", "err", err)
+		return Reply{Kind: KindSearch, Text: "I could not search the query log just now; please try again in a minute."}
+	}
+	if len(page.Queries) == 0 {
+		if q.Page > 1 {
+			return Reply{Kind: KindSearch, Text: fmt.Sprintf("No more matches: page %d is past the end.", q.Page)}
+		}
+		return Reply{Kind: KindSearch, Text: "No logged query matches that search."}
+	}
+	var s strings.Builder
+	first := page.Offset + 1
+	fmt.Fprintf(&s, "Matches %d–%d, newest first:\n", first, page.Offset+len(page.Queries))
+	for _, lq := range page.Queries {
+		who := lq.UserName
+		if who == "" {
+			who = lq.UserID
+		}
+		fmt.Fprintf(&s, "#%d  %s  %s  %s  %s", lq.ID, lq.Time.In(b.loc()).Format("2006-01-02 15:04"), who, lq.Verdict, truncate(lq.Request, 120))
+		for _, h := range lq.Hazards {
+			if h.Severity == "danger" {
+				fmt.Fprintf(&s, "  [DANGER %s]", h.Code)
+			}
+		}
+		s.WriteString("\n")
+	}
+	if page.HasMore {
+		fmt.Fprintf(&s, "More: add page:%d to the search.", q.Page+1)
+	}
+	return codeReply(KindSearch, strings.TrimRight(s.String(), "\n"))
+}
+
+func (b *Bot) digest(ctx context.Context, in Incoming, hours int) Reply {
+	if !b.Access.IsSupervisor(ctx, in.UserID) && !b.Access.IsReviewer(ctx, in.UserID) {
+		return b.refuse(KindDigest, "supervisor", "the shift digest")
+	}
+	if b.Digests == nil {
+		return Reply{Kind: KindDigest, Text: "Digests are not available here."}
+	}
+	until := b.now()
+	since := until.Add(-12 * time.Hour)
+	switch {
+	case hours > 0:
+		since = until.Add(-time.Duration(hours) * time.Hour)
+	case b.ShiftStart != nil:
+		if t := b.ShiftStart(until); t.Before(until) {
+			since = t
+		}
+	}
+	d, err := b.Digests.Digest(ctx, since, until)
+	if err != nil {
+		b.Metrics.failed("digest")
+		b.logger().Error("digest failed", "err", err)
+		return Reply{Kind: KindDigest, Text: "I could not build the digest just now; please try again in a minute."}
+	}
+	return DigestReply(d)
+}
+
+// DigestReply renders a digest for the console (plain text) and Slack (a
+// code block, split to fit).
+func DigestReply(d *store.Digest) Reply {
+	text := d.Text()
+	var bl []slack.Block
+	for _, part := range splitText(esc(text), MaxSectionText-6) {
+		bl = append(bl, section("```"+part+"```"))
+	}
+	return Reply{Kind: KindDigest, Text: text, Blocks: bl}
+}

@@ -1,0 +1,156 @@
+package bot
+
+import (
+	"encoding/json"
+	"net/http"
+	"sync/atomic"
+	"time"
+
+	"github.com/prometheus/client_golang/prometheus"
+	"github.com/prometheus/client_golang/prometheus/promhttp"
+)
+
+// Metrics are the bot's Prometheus series. A nil *Metrics records nothing.
+type Metrics struct {
+	reg        *prometheus.Registry
+	requests   *prometheus.CounterVec   // by transport and kind
+	verdicts   *prometheus.CounterVec   // by verdict
+	errors     *prometheus.CounterVec   // by stage
+	duplicates prometheus.Counter       // redeliveries answered before
+	post       *prometheus.HistogramVec // Slack call latency by call and outcome
+	reply      prometheus.Histogram     // event received → answer posted
+	depth      prometheus.Gauge         // jobs accepted and not finished
+	refused    *prometheus.CounterVec   // access refusals by right
+}
+
+// NewMetrics makes the series on a registry of their own (plus the Go and
+// process collectors), so that two bots in one test never collide.
+func NewMetrics() *Metrics {
+	reg := prometheus.NewRegistry()
+	m := &Metrics{
+		reg: reg,
+		requests: prometheus.NewCounterVec(prometheus.CounterOpts{
+			Name: "mixward_requests_total", Help: "Messages taken from Slack or the console, by transport and kind (mix, streams, search, digest, help).",
+		}, []string{"transport", "kind"}),
+		verdicts: prometheus.NewCounterVec(prometheus.CounterOpts{
+			Name: "mixward_verdicts_total", Help: "Mix requests answered, by verdict (error for requests that did not parse).",
+		}, []string{"verdict"}),
+		errors: prometheus.NewCounterVec(prometheus.CounterOpts{
+			Name: "mixward_errors_total", Help: "Failures by stage: request (bad request), engine, log, post, upload, verify, queue.",
+		}, []string{"stage"}),
+		duplicates: prometheus.NewCounter(prometheus.CounterOpts{
+			Name: "mixward_duplicate_deliveries_total", Help: "Slack redeliveries of an event already taken, answered once.",
+		}),
+		post: prometheus.NewHistogramVec(prometheus.HistogramOpts{
+			Name: "mixward_slack_post_seconds", Help: "Latency of Slack Web API calls, by call and outcome.",
+			Buckets: []float64{.005, .01, .025, .05, .1, .25, .5, 1, 2.5, 5, 10},
+		}, []string{"call", "outcome"}),
+		reply: prometheus.NewHistogram(prometheus.HistogramOpts{
+			Name: "mixward_reply_seconds", Help: "Time from receiving a message to its answer being posted.",
+			Buckets: []float64{.01, .025, .05, .1, .25, .5, 1, 2.5, 5, 10, 30, 60},
+		}),
+		depth: prometheus.NewGauge(prometheus.GaugeOpts{
+			Name: "mixward_queue_depth", Help: "Messages accepted and not yet fully answered.",
+		}),
+		refused: prometheus.NewCounterVec(prometheus.CounterOpts{
+			Name: "mixward_access_refused_total", Help: "Commands refused for lack of a right, by right (supervisor, reviewer).",
+		}, []string{"right"}),
+	}
+	reg.MustRegister(m.requests, m.verdicts, m.errors, m.duplicates, m.post, m.reply, m.depth, m.refused,
+		prometheus.NewGoCollector(), prometheus.NewProcessCollector(prometheus.ProcessCollectorOpts{}))
+	return m
+}
+
+// Registry is where the series live, for /metrics or for tests.
+func (m *Metrics) Registry() *prometheus.Registry { return m.reg }
+
+func (m *Metrics) request(transport, kind string) {
+	if m != nil {
+		m.requests.WithLabelValues(transport, kind).Inc()
+	}
+}
+
+func (m *Metrics) verdict(v string) {
+	if m != nil {
+		m.verdicts.WithLabelValues(v).Inc()
+	}
+}
+
+func (m *Metrics) failed(stage string) {
+	if m != nil {
+		m.errors.WithLabelValues(stage).Inc()
+	}
+}
+
+func (m *Metrics) duplicate() {
+	if m != nil {
+		m.duplicates.Inc()
+	}
+}
+
+func (m *Metrics) refusal(right string) {
+	if m != nil {
+		m.refused.WithLabelValues(right).Inc()
+	}
+}
+
+func (m *Metrics) observePost(call string, d time.Duration, err error) {
+	if m == nil {
+		return
+	}
+	outcome := "ok"
+	if err != nil {
+		outcome = "error"
+	}
+	m.post.WithLabelValues(call, outcome).Observe(d.Seconds())
+}
+
+func (m *Metrics) observeReply(d time.Duration) {
+	if m != nil {
+		m.reply.Observe(d.Seconds())
+	}
+}
+
+func (m *Metrics) setDepth(n int) {
+	if m != nil {
+		m.depth.Set(float64(n))
+	}
+}
+
+// Health is the state /healthz reports.
+type Health struct {
+	ready atomic.Bool
+	sock  atomic.Value // string: Socket Mode connection state, "" when not used
+	depth func() int
+}
+
+// SetReady marks the bot as serving (true) or draining (false).
+func (h *Health) SetReady(ok bool) { h.ready.Store(ok) }
+
+// SetSocket records the Socket Mode connection state (connecting, connected, ...).
+func (h *Health) SetSocket(state string) { h.sock.Store(state) }
+
+// AdminHandler serves /healthz (JSON; 200 while ready, 503 while starting or
+// draining) and /metrics (Prometheus text format).
+func AdminHandler(m *Metrics, h *Health) http.Handler {
+	mux := http.NewServeMux()
+	mux.Handle("GET /metrics", promhttp.HandlerFor(m.Registry(), promhttp.HandlerOpts{}))
+	mux.HandleFunc("GET /healthz", h.ServeHTTP)
+	return mux
+}
+
+// ServeHTTP answers a health check.
+func (h *Health) ServeHTTP(w http.ResponseWriter, r *http.Request) {
+	body := map[string]any{"ready": h.ready.Load()}
+	if s, _ := h.sock.Load().(string); s != "" {
+		body["socket"] = s
+	}
+	if h.depth != nil {
+		body["queue_depth"] = h.depth()
+	}
+	w.Header().Set("Content-Type", "application/json")
+	if !h.ready.Load() {
+		w.WriteHeader(http.StatusServiceUnavailable)
+	}
+	_ = json.NewEncoder(w).Encode(body)
+}
