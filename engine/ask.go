@@ -1,5 +1,3 @@
-//go:build mixward_pending
-
 package engine
 
 import (
@@ -17,6 +15,12 @@ func New(fsys fs.FS) (*Engine, error) {
 		return nil, err
 	}
 	if t.Kinetics, err = loadKinetics(fsys); err != nil {
+		return nil, err
+	}
+	if t.Hazards, err = LoadHazardRules(fsys); err != nil {
+		return nil, err
+	}
+	if t.Enthalpies, err = LoadEnthalpies(fsys); err != nil {
 		return nil, err
 	}
 	t.families = families(t)
@@ -88,6 +92,7 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 		for i := range res.Species {
 			res.Species[i].Spectator = !isWaterText(res.Species[i])
 		}
+		e.outcome(res, m, nil)
 		return res, nil
 	}
 	head := ps[0]
@@ -149,6 +154,7 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 		res.Alternatives = append(res.Alternatives, alt)
 	}
 	sortAlternatives(res.Alternatives)
+	e.outcome(res, m, head)
 	return res, nil
 }
 

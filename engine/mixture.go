@@ -1,5 +1,3 @@
-//go:build mixward_pending
-
 package engine
 
 import (
@@ -9,8 +7,8 @@ import (
 	"strings"
 )
 
-// present is one species in the mix with its amount.
-type present struct {
+// inMix is one species in the mix with its amount.
+type inMix struct {
 	sp     Species
 	mol    float64
 	excess bool // solid or solvent present in excess
@@ -26,7 +24,7 @@ type mixture struct {
 	pH          float64
 	pHStated    bool
 	aqueous     bool
-	species     map[string]*present // by Species.Ion for aqueous/gas, Key for solids
+	species     map[string]*inMix // by Species.Ion for aqueous/gas, Key for solids
 	order       []string
 	chemicals   []string
 	strongAcid  float64 // mol H+ from strong acids before neutralisation
@@ -34,6 +32,7 @@ type mixture struct {
 	neutralised float64 // mol H+ + OH- → H2O
 	notes       []string
 	massKg      float64 // total mass of the mixed liquid and dissolved solids, for heat
+	fict        float64 // charge standing in for streams with a stated pH (see buildMixture)
 }
 
 func (m *mixture) note(format string, args ...any) {
@@ -59,7 +58,7 @@ func (m *mixture) add(s Species, mol float64, excess bool) {
 	k := mixKey(s)
 	p, ok := m.species[k]
 	if !ok {
-		p = &present{sp: s}
+		p = &inMix{sp: s}
 		m.species[k] = p
 		m.order = append(m.order, k)
 	}
@@ -67,7 +66,7 @@ func (m *mixture) add(s Species, mol float64, excess bool) {
 	p.excess = p.excess || excess
 }
 
-func (m *mixture) get(s Species) *present {
+func (m *mixture) get(s Species) *inMix {
 	return m.species[mixKey(s)]
 }
 
@@ -101,7 +100,7 @@ func pKw(tempK float64) float64 {
 
 // buildMixture combines the streams of a request.
 func buildMixture(req *Request, t *Tables) (*mixture, error) {
-	m := &mixture{species: map[string]*present{}, tempK: req.TemperatureK, pressureKPa: req.PressureKPa}
+	m := &mixture{species: map[string]*inMix{}, tempK: req.TemperatureK, pressureKPa: req.PressureKPa}
 	anyVolume := false
 	for i := range req.Streams {
 		if req.Streams[i].VolumeL > 0 {
@@ -199,11 +198,11 @@ func buildMixture(req *Request, t *Tables) (*mixture, error) {
 	} else {
 		m.pH = solvePH(m, t, fict)
 	}
+	m.fict = fict
 	m.distribute(t)
-	h := math.Pow(10, -m.pH)
-	m.add(Species{Formula: "H", Charge: 1, Phase: Aqueous}, h*m.volumeL, false)
-	m.add(Species{Formula: "OH", Charge: -1, Phase: Aqueous}, math.Pow(10, m.pH-pKw(m.tempK))*m.volumeL, false)
+	m.setSolvent()
 	return m, nil
+
 }
 
 // streamIsSolution reports whether a stream without an amount is a liquid:
@@ -474,9 +473,9 @@ func (m *mixture) distribute(t *Tables) {
 
 // list returns the species in a stable order: as they entered the mix,
 // water last.
-func (m *mixture) list() []*present {
-	out := make([]*present, 0, len(m.order))
-	var water *present
+func (m *mixture) list() []*inMix {
+	out := make([]*inMix, 0, len(m.order))
+	var water *inMix
 	for _, k := range m.order {
 		p := m.species[k]
 		if p.sp.IsWater() {

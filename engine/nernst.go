@@ -1,5 +1,3 @@
-//go:build mixward_pending
-
 package engine
 
 import (

@@ -1,0 +1,267 @@
+package engine
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strings"
+)
+
+// maxSteps bounds the follow-on reactions predicted after the headline.
+const maxSteps = 10
+
+// limitingPH: below this pH the free H+ of the mix is a reagent that can run
+// out; above its mirror (14 − limitingPH) OH- is. In between, buffers and
+// water supply what a reaction takes, and the pH moves instead.
+const limitingPH = 4.0
+
+func (m *mixture) clone() *mixture {
+	c := *m
+	c.species = make(map[string]*inMix, len(m.species))
+	for k, p := range m.species {
+		q := *p
+		c.species[k] = &q
+	}
+	c.order = append([]string(nil), m.order...)
+	c.notes = nil
+	return &c
+}
+
+// available is the amount of a reactant that can be consumed, and whether it
+// limits the reaction at all (water, excess solids and buffered H+/OH- do not).
+func (m *mixture) available(s Species) (mol float64, limited bool) {
+	switch {
+	case s.IsWater():
+		return 0, false
+	case s.IsProton():
+		if m.pH < limitingPH {
+			return math.Pow(10, -m.pH) * m.volumeL, true
+		}
+		return 0, false
+	case s.IsHydroxide():
+		if m.pH > 14-limitingPH {
+			return math.Pow(10, m.pH-pKw(m.tempK)) * m.volumeL, true
+		}
+		return 0, false
+	}
+	p := m.get(s)
+	if p == nil {
+		return 0, true
+	}
+	if p.excess {
+		return 0, false
+	}
+	return p.mol, true
+}
+
+// extent finds how far a reaction runs: the limiting reactant and the
+// extent in mol of reaction as written. ok is false when nothing limits it.
+func (m *mixture) extent(rx *netReaction) (xi float64, limiting *Species, ok bool) {
+	xi = math.Inf(1)
+	for i := range rx.reactants {
+		t := &rx.reactants[i]
+		mol, limited := m.available(t.Species)
+		if !limited {
+			continue
+		}
+		if x := mol / float64(t.Coef); x < xi {
+			xi = x
+			sp := t.Species
+			limiting = &sp
+		}
+	}
+	if math.IsInf(xi, 1) {
+		return 0, nil, false
+	}
+	return xi, limiting, true
+}
+
+// react applies a reaction of extent xi to the mixture. Gases leave the
+// liquid; H+ and OH- are left to the charge balance.
+func (m *mixture) react(rx *netReaction, xi float64) (consumed, formed []AmountOf, gases []GasRelease) {
+	for _, t := range rx.reactants {
+		n := xi * float64(t.Coef)
+		consumed = append(consumed, AmountOf{Text: t.Species.Text(), Mol: sigDigits(n, 6), Phase: t.Phase})
+		if isSolvent(t.Species) {
+			continue
+		}
+		if p := m.get(t.Species); p != nil && !p.excess {
+			p.mol = math.Max(0, p.mol-n)
+		}
+	}
+	for _, t := range rx.products {
+		n := xi * float64(t.Coef)
+		formed = append(formed, AmountOf{Text: t.Species.Text(), Mol: sigDigits(n, 6), Phase: t.Phase})
+		if isSolvent(t.Species) {
+			continue
+		}
+		if t.Phase == Gas {
+			gases = append(gases, GasRelease{Text: t.Species.Text(), Mol: n})
+			continue
+		}
+		m.add(t.Species, n, false)
+	}
+	return consumed, formed, gases
+}
+
+// respeciate recomputes the pH and the acid–base forms after a reaction.
+func (m *mixture) respeciate(t *Tables) {
+	if !m.aqueous {
+		return
+	}
+	for _, k := range []string{"H+", "OH-"} {
+		if p, ok := m.species[k]; ok {
+			p.mol = 0
+		}
+	}
+	if !m.pHStated {
+		m.pH = solvePH(m, t, m.fict)
+	}
+	m.distribute(t)
+	m.setSolvent()
+}
+
+// setSolvent sets the H+ and OH- amounts from the pH.
+func (m *mixture) setSolvent() {
+	h := Species{Formula: "H", Charge: 1, Phase: Aqueous}
+	oh := Species{Formula: "OH", Charge: -1, Phase: Aqueous}
+	m.add(h, 0, false)
+	m.add(oh, 0, false)
+	m.get(h).mol = math.Pow(10, -m.pH) * m.volumeL
+	m.get(oh).mol = math.Pow(10, m.pH-pKw(m.tempK)) * m.volumeL
+}
+
+// composition lists what is in the tank, largest amount first, water last.
+func (m *mixture) composition() []AmountOf {
+	var out []AmountOf
+	var water *AmountOf
+	for _, p := range m.list() {
+		if p.sp.IsWater() {
+			water = &AmountOf{Text: p.sp.Text(), Mol: 0, Phase: p.sp.Phase}
+			continue
+		}
+		if p.mol <= 0 && !p.excess {
+			continue
+		}
+		out = append(out, AmountOf{Text: p.sp.Text(), Mol: sigDigits(p.mol, 6), Phase: p.sp.Phase})
+	}
+	sort.SliceStable(out, func(i, j int) bool { return out[i].Mol > out[j].Mol })
+	if water != nil {
+		out = append(out, *water)
+	}
+	return out
+}
+
+func (m *mixture) amounts() []SpeciesAmount {
+	var out []SpeciesAmount
+	for _, p := range m.list() {
+		sa := SpeciesAmount{Species: p.sp, Mol: p.mol}
+		if p.sp.Phase == Aqueous && m.volumeL > 0 {
+			sa.Molar = p.mol / m.volumeL
+		}
+		out = append(out, sa)
+	}
+	return out
+}
+
+// outcome runs the headline reaction and its follow-on reactions on the
+// amounts in the tank, then estimates gas, heat, hazards and caveats.
+func (e *Engine) outcome(res *Result, m *mixture, head *pair) {
+	cases := []ReactionCase{}
+	var heatRx []ReactionExtent
+	gasMol := map[string]float64{}
+	var gasOrder []string
+	addGases := func(gs []GasRelease) {
+		for _, g := range gs {
+			if _, ok := gasMol[g.Text]; !ok {
+				gasOrder = append(gasOrder, g.Text)
+			}
+			gasMol[g.Text] += g.Mol
+		}
+	}
+	before := m.amounts()
+	cur := m.clone()
+	if head != nil {
+		cases = append(cases, ReactionCase{Label: "headline", Reaction: res.Reaction, ECell: head.eCell})
+		for i, a := range res.Alternatives {
+			cases = append(cases, ReactionCase{Label: fmt.Sprintf("alternative %d", i+1), Reaction: a.Reaction, ECell: a.ECell})
+		}
+	}
+	p := head
+	for step := 0; p != nil && p.eCell > 0; step++ {
+		xi, lim, ok := cur.extent(p.rx)
+		if !ok {
+			res.Notes = append(res.Notes, "no reactant of "+p.rx.text()+" runs out (excess solids, buffered pH): amounts are not bounded")
+			break
+		}
+		if xi <= 1e-12 {
+			break
+		}
+		consumed, formed, gases := cur.react(p.rx, xi)
+		limText := lim.Text()
+		am := &Amounts{Limiting: &limText, ExtentMol: sigDigits(xi, 6), Consumed: consumed, Formed: formed}
+		rx := p.rx.out()
+		heatRx = append(heatRx, ReactionExtent{Reaction: rx, ExtentMol: xi})
+		addGases(gases)
+		if step == 0 {
+			res.Amounts = am
+		} else {
+			n := float64(p.rx.electrons)
+			res.Steps = append(res.Steps, Step{
+				Oxidizer: p.ox.couple(), Reducer: p.red.couple(), Reaction: rx,
+				ECellStandard: ptr(roundDec(p.eCellStd, 4)), ECell: ptr(roundDec(p.eCell, 4)),
+				Spontaneous: true, Verdict: Spontaneous,
+				DeltaGkJ: ptr(roundDec(-n*faraday*p.eCell/1000, 2)),
+				Log10K:   ptr(roundDec(n*p.eCellStd/nernstSlope(cur.tempK), 2)),
+				Amounts:  am,
+			})
+			cases = append(cases, ReactionCase{Label: fmt.Sprintf("step %d", step+1), Reaction: rx, ECell: p.eCell})
+		}
+		cur.respeciate(e.Tables)
+		ox, red := e.sides(cur)
+		next := e.pairs(cur, ox, red)
+		p = nil
+		if len(next) > 0 && next[0].eCell > 0 {
+			p = next[0]
+		}
+		if step == maxSteps && p != nil {
+			res.Notes = append(res.Notes, fmt.Sprintf("stopped after %d follow-on reactions; more may follow", maxSteps))
+			break
+		}
+	}
+	if res.Amounts == nil && head != nil && head.eCell > 0 {
+		res.Amounts = &Amounts{Consumed: []AmountOf{}, Formed: []AmountOf{}}
+	}
+	res.FinalComposition = cur.composition()
+	for _, g := range gasOrder {
+		gr := GasReleaseOf(g, gasMol[g], m.tempK, m.pressureKPa)
+		gr.Mol, gr.VolumeL, gr.VolumeM3 = sigDigits(gr.Mol, 6), sigDigits(gr.VolumeL, 6), sigDigits(gr.VolumeM3, 6)
+		res.Gases = append(res.Gases, gr)
+	}
+	heat := EstimateHeat(HeatInput{Reactions: heatRx, NeutralisedMol: m.neutralised, MassKg: m.massKg}, e.Tables.Enthalpies)
+	res.Heat = &heat
+	if len(heat.Missing) > 0 {
+		res.Notes = append(res.Notes, "no heat estimate: no formation-enthalpy data for "+strings.Join(heat.Missing, ", "))
+	}
+	hin := HazardInput{
+		Present: before, Chemicals: m.chemicals, Reactions: cases, Gases: res.Gases,
+		PH: m.pH, VolumeL: m.volumeL, TemperatureC: m.tempK - 273.15, TemperatureRiseC: heat.TemperatureRiseC,
+		StrongAcidMol: m.strongAcid, StrongBaseMol: m.strongBase,
+	}
+	res.Hazards = EvaluateHazards(e.Tables.Hazards, hin)
+	cin := CaveatInput{Present: before, Chemicals: m.chemicals, Oxidizer: res.Oxidizer, Reducer: res.Reducer,
+		Reaction: res.Reaction, PH: m.pH, Alternatives: res.Alternatives}
+	if res.ECell != nil {
+		cin.ECell, cin.HasECell = *res.ECell, true
+	}
+	if res.Allowance != nil {
+		cin.AllowanceIDs = []string{res.Allowance.ID}
+	}
+	res.Caveats = Caveats(cin)
+	if res.Hazards == nil {
+		res.Hazards = []Hazard{}
+	}
+	if res.Caveats == nil {
+		res.Caveats = []string{}
+	}
+}

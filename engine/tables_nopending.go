@@ -1,5 +1,0 @@
-//go:build !mixward_pending
-
-package engine
-
-type family struct{}
