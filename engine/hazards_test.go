@@ -158,9 +158,9 @@ func TestEvaluateHazards(t *testing.T) {
 			want: []wantHazard{{"acid-cyanide", Danger, "hydrogen cyanide"}, {"toxic-gas", Danger, "50 ppm"}},
 		},
 		{
-			name: "cyanide kept alkaline",
-			in:   HazardInput{Present: hzPresent(t, "CN-", "Na+", "OH-"), PH: 12},
-			want: []wantHazard{{"cyanide-present", Info, "alkaline"}},
+			name:   "cyanide kept alkaline",
+			in:     HazardInput{Present: hzPresent(t, "CN-", "Na+", "OH-"), PH: 12},
+			want:   []wantHazard{{"cyanide-present", Info, "alkaline"}},
 			absent: []string{"acid-cyanide", "toxic-gas"},
 		},
 		{
