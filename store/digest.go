@@ -1,0 +1,402 @@
+package store
+
+import (
+	"context"
+	"database/sql"
+	"encoding/json"
+	"fmt"
+	"sort"
+	"strings"
+	"text/tabwriter"
+	"time"
+	"unicode/utf8"
+)
+
+// Digest summarises the queries logged in [Since, Until): the shift
+// handover for supervisors. Its JSON form (`mixward digest --format json`)
+// has stable snake_case fields; times are UTC, TimeZone names the site zone
+// Text renders them in.
+type Digest struct {
+	Since       time.Time      `json:"since"`
+	Until       time.Time      `json:"until"`
+	TimeZone    string         `json:"time_zone"`
+	Queries     int            `json:"queries"`
+	Askers      []AskerCount   `json:"askers"`
+	Verdicts    VerdictCounts  `json:"verdicts"`
+	Flagged     []FlaggedMix   `json:"flagged_mixes"` // spontaneous mixes with a danger or warning hazard
+	ParseErrors []ParseFailure `json:"parse_errors"`
+	TopPairs    []PairCount    `json:"top_stream_pairs"`
+
+	// Location is the site time zone Text uses.
+	Location *time.Location `json:"-"`
+}
+
+// AskerCount is how many queries one person asked.
+type AskerCount struct {
+	UserID   string `json:"user_id"`
+	UserName string `json:"user_name"`
+	Queries  int    `json:"queries"`
+}
+
+// VerdictCounts counts queries by verdict.
+type VerdictCounts struct {
+	Spontaneous    int `json:"spontaneous"`
+	NonSpontaneous int `json:"non_spontaneous"`
+	NoReaction     int `json:"no_reaction"`
+	Error          int `json:"error"`
+}
+
+// FlaggedMix is a spontaneous mix with at least one danger or warning
+// hazard; Hazards holds only those.
+type FlaggedMix struct {
+	ID       int64     `json:"id"`
+	Time     time.Time `json:"time"`
+	UserID   string    `json:"user_id"`
+	UserName string    `json:"user_name"`
+	Channel  string    `json:"channel"`
+	Request  string    `json:"request"`
+	Hazards  []Hazard  `json:"hazards"`
+}
+
+// ParseFailure is a request that did not parse.
+type ParseFailure struct {
+	ID       int64     `json:"id"`
+	Time     time.Time `json:"time"`
+	UserID   string    `json:"user_id"`
+	UserName string    `json:"user_name"`
+	Channel  string    `json:"channel"`
+	Request  string    `json:"request"`
+	Error    string    `json:"error"`
+}
+
+// PairCount is how many queries mixed two streams together.
+type PairCount struct {
+	Streams [2]string `json:"streams"`
+	Count   int       `json:"count"`
+}
+
+// TopPairsN is how many stream pairs a digest lists.
+const TopPairsN = 10
+
+// Digest summarises the queries logged in [since, until).
+func (db *DB) Digest(ctx context.Context, since, until time.Time) (*Digest, error) {
+	if since.IsZero() || until.IsZero() || !since.Before(until) {
+		return nil, fmt.Errorf("digest: %w: period %s to %s is empty; the start must be before the end",
+			ErrInvalid, since.Format(time.RFC3339), until.Format(time.RFC3339))
+	}
+	d := &Digest{Since: since.UTC(), Until: until.UTC(), TimeZone: db.loc.String(), Location: db.loc,
+		Askers: []AskerCount{}, Flagged: []FlaggedMix{}, ParseErrors: []ParseFailure{}, TopPairs: []PairCount{}}
+	tx, err := db.r.BeginTx(ctx, nil)
+	if err != nil {
+		return nil, fmt.Errorf("digest: %w", err)
+	}
+	defer tx.Rollback()
+	window := `q.kind = 'query' AND q.time >= ? AND q.time < ?`
+	lo, hi := formatTime(since), formatTime(until)
+	for _, step := range []func() error{
+		func() error { return digestVerdicts(ctx, tx, d, window, lo, hi) },
+		func() error { return digestAskers(ctx, tx, d, window, lo, hi) },
+		func() error { return digestFlagged(ctx, tx, d, window, lo, hi) },
+		func() error { return digestErrors(ctx, tx, d, window, lo, hi) },
+		func() error { return digestPairs(ctx, tx, d, window, lo, hi) },
+	} {
+		if err := step(); err != nil {
+			return nil, fmt.Errorf("digest: %w", err)
+		}
+	}
+	return d, nil
+}
+
+func digestVerdicts(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi string) error {
+	rows, err := tx.QueryContext(ctx, `SELECT q.verdict, count(*) FROM queries q WHERE `+window+` GROUP BY q.verdict`, lo, hi)
+	if err != nil {
+		return err
+	}
+	defer rows.Close()
+	for rows.Next() {
+		var v string
+		var n int
+		if err := rows.Scan(&v, &n); err != nil {
+			return err
+		}
+		d.Queries += n
+		switch v {
+		case VerdictSpontaneous:
+			d.Verdicts.Spontaneous = n
+		case VerdictNonSpontaneous:
+			d.Verdicts.NonSpontaneous = n
+		case VerdictNoReaction:
+			d.Verdicts.NoReaction = n
+		case VerdictError:
+			d.Verdicts.Error = n
+		}
+	}
+	return rows.Err()
+}
+
+func digestAskers(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi string) error {
+	rows, err := tx.QueryContext(ctx, `SELECT q.user_id, q.user_name, count(*) FROM queries q WHERE `+window+`
+		GROUP BY q.user_id, q.user_name ORDER BY count(*) DESC, q.user_name, q.user_id`, lo, hi)
+	if err != nil {
+		return err
+	}
+	defer rows.Close()
+	for rows.Next() {
+		var a AskerCount
+		if err := rows.Scan(&a.UserID, &a.UserName, &a.Queries); err != nil {
+			return err
+		}
+		d.Askers = append(d.Askers, a)
+	}
+	return rows.Err()
+}
+
+func digestFlagged(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi string) error {
+	rows, err := tx.QueryContext(ctx, `SELECT q.id, q.time, q.user_id, q.user_name, q.channel, q.request,
+		       h.code, h.severity, h.message
+		  FROM queries q JOIN query_hazards h ON h.query_id = q.id
+		 WHERE `+window+` AND q.verdict = 'spontaneous' AND h.severity IN ('danger', 'warning')
+		 ORDER BY q.time, q.id, h.pos`, lo, hi)
+	if err != nil {
+		return err
+	}
+	defer rows.Close()
+	for rows.Next() {
+		var f FlaggedMix
+		var ts string
+		var h Hazard
+		if err := rows.Scan(&f.ID, &ts, &f.UserID, &f.UserName, &f.Channel, &f.Request, &h.Code, &h.Severity, &h.Message); err != nil {
+			return err
+		}
+		if n := len(d.Flagged); n > 0 && d.Flagged[n-1].ID == f.ID {
+			d.Flagged[n-1].Hazards = append(d.Flagged[n-1].Hazards, h)
+			continue
+		}
+		if f.Time, err = parseTime(ts); err != nil {
+			return err
+		}
+		f.Hazards = []Hazard{h}
+		d.Flagged = append(d.Flagged, f)
+	}
+	return rows.Err()
+}
+
+func digestErrors(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi string) error {
+	rows, err := tx.QueryContext(ctx, `SELECT q.id, q.time, q.user_id, q.user_name, q.channel, q.request, q.error
+		  FROM queries q WHERE `+window+` AND q.verdict = 'error' ORDER BY q.time, q.id`, lo, hi)
+	if err != nil {
+		return err
+	}
+	defer rows.Close()
+	for rows.Next() {
+		var p ParseFailure
+		var ts string
+		if err := rows.Scan(&p.ID, &ts, &p.UserID, &p.UserName, &p.Channel, &p.Request, &p.Error); err != nil {
+			return err
+		}
+		if p.Time, err = parseTime(ts); err != nil {
+			return err
+		}
+		d.ParseErrors = append(d.ParseErrors, p)
+	}
+	return rows.Err()
+}
+
+func digestPairs(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi string) error {
+	rows, err := tx.QueryContext(ctx, `SELECT q.streams FROM queries q WHERE `+window+` AND q.streams <> '[]'`, lo, hi)
+	if err != nil {
+		return err
+	}
+	defer rows.Close()
+	counts := map[[2]string]int{}
+	var raw []byte
+	var streams []string
+	for rows.Next() {
+		if err := rows.Scan(&raw); err != nil {
+			return err
+		}
+		streams = streams[:0]
+		if err := json.Unmarshal(raw, &streams); err != nil {
+			return fmt.Errorf("stored streams %q: %v", raw, err)
+		}
+		for _, p := range streamPairs(streams) {
+			counts[p]++
+		}
+	}
+	if err := rows.Err(); err != nil {
+		return err
+	}
+	for p, n := range counts {
+		d.TopPairs = append(d.TopPairs, PairCount{Streams: p, Count: n})
+	}
+	sort.Slice(d.TopPairs, func(i, j int) bool {
+		a, b := d.TopPairs[i], d.TopPairs[j]
+		if a.Count != b.Count {
+			return a.Count > b.Count
+		}
+		if a.Streams[0] != b.Streams[0] {
+			return a.Streams[0] < b.Streams[0]
+		}
+		return a.Streams[1] < b.Streams[1]
+	})
+	if len(d.TopPairs) > TopPairsN {
+		d.TopPairs = d.TopPairs[:TopPairsN]
+	}
+	return nil
+}
+
+// streamPairs returns each unordered pair of distinct streams in one
+// request once, each pair sorted; whitespace is collapsed.
+func streamPairs(streams []string) [][2]string {
+	var uniq []string
+	for _, s := range streams {
+		s = strings.Join(strings.Fields(s), " ")
+		if s != "" && !contains(uniq, s) {
+			uniq = append(uniq, s)
+		}
+	}
+	sort.Strings(uniq)
+	var out [][2]string
+	for i := range uniq {
+		for j := i + 1; j < len(uniq); j++ {
+			out = append(out, [2]string{uniq[i], uniq[j]})
+		}
+	}
+	return out
+}
+
+// JSON is the digest's JSON form, indented, with a final newline.
+func (d *Digest) JSON() ([]byte, error) {
+	b, err := json.MarshalIndent(d, "", "  ")
+	if err != nil {
+		return nil, err
+	}
+	return append(b, '\n'), nil
+}
+
+// Advisory closes every rendered digest.
+const Advisory = "Verdicts are advisory, never a permit: safety data sheets, site procedures, " +
+	"management of change and local codes come first."
+
+// maxTextRequest caps requests in the text form (the JSON form has them whole).
+const maxTextRequest = 72
+
+// Text renders the digest for people: aligned columns, times in the site
+// zone.
+func (d *Digest) Text() string {
+	loc := d.Location
+	if loc == nil {
+		loc = time.UTC
+	}
+	since, until := d.Since.In(loc), d.Until.In(loc)
+	sameDay := since.Format("2006-01-02") == until.Add(-time.Nanosecond).Format("2006-01-02")
+	at := func(t time.Time) string {
+		t = t.In(loc)
+		if sameDay {
+			return t.Format("15:04")
+		}
+		return t.Format("Mon 02 Jan 15:04")
+	}
+	var b strings.Builder
+	fmt.Fprintf(&b, "Shift digest %s – %s", since.Format("Mon 02 Jan 2006 15:04 MST"), untilHeader(since, until))
+	if name := loc.String(); name != until.Format("MST") {
+		fmt.Fprintf(&b, " (%s)", name)
+	}
+	b.WriteString("\n\n")
+
+	tw := tabwriter.NewWriter(&b, 0, 4, 2, ' ', 0)
+	fmt.Fprintf(tw, "Queries\t%d from %d %s\n", d.Queries, len(d.Askers), plural(len(d.Askers), "person", "people"))
+	fmt.Fprintf(tw, "Verdicts\tspontaneous %d · non-spontaneous %d · no-reaction %d · error %d\n",
+		d.Verdicts.Spontaneous, d.Verdicts.NonSpontaneous, d.Verdicts.NoReaction, d.Verdicts.Error)
+	tw.Flush()
+
+	fmt.Fprintf(&b, "\nSpontaneous mixes with danger or warning hazards: %d\n", len(d.Flagged))
+	if len(d.Flagged) > 0 {
+		tw = tabwriter.NewWriter(&b, 0, 4, 2, ' ', 0)
+		fmt.Fprintln(tw, "  TIME\tID\tWHO\tREQUEST\tHAZARD")
+		for _, f := range d.Flagged {
+			for i, h := range f.Hazards {
+				if i == 0 {
+					fmt.Fprintf(tw, "  %s\t%d\t%s\t%s\t%s %s: %s\n", at(f.Time), f.ID, who(f.UserName, f.UserID),
+						shorten(f.Request, maxTextRequest), h.Severity, h.Code, h.Message)
+				} else {
+					fmt.Fprintf(tw, "  \t\t\t\t%s %s: %s\n", h.Severity, h.Code, h.Message)
+				}
+			}
+		}
+		tw.Flush()
+	}
+
+	fmt.Fprintf(&b, "\nRequests that did not parse: %d\n", len(d.ParseErrors))
+	if len(d.ParseErrors) > 0 {
+		tw = tabwriter.NewWriter(&b, 0, 4, 2, ' ', 0)
+		fmt.Fprintln(tw, "  TIME\tID\tWHO\tREQUEST\tERROR")
+		for _, p := range d.ParseErrors {
+			fmt.Fprintf(tw, "  %s\t%d\t%s\t%s\t%s\n", at(p.Time), p.ID, who(p.UserName, p.UserID),
+				shorten(p.Request, maxTextRequest), p.Error)
+		}
+		tw.Flush()
+	}
+
+	b.WriteString("\nMost-asked stream pairs\n")
+	if len(d.TopPairs) == 0 {
+		b.WriteString("  none\n")
+	} else {
+		tw = tabwriter.NewWriter(&b, 0, 4, 2, ' ', 0)
+		fmt.Fprintln(tw, "  TIMES\tSTREAMS")
+		for _, p := range d.TopPairs {
+			fmt.Fprintf(tw, "  %d\t%s  +  %s\n", p.Count, p.Streams[0], p.Streams[1])
+		}
+		tw.Flush()
+	}
+
+	b.WriteString("\nWho asked\n")
+	if len(d.Askers) == 0 {
+		b.WriteString("  nobody\n")
+	} else {
+		tw = tabwriter.NewWriter(&b, 0, 4, 2, ' ', 0)
+		fmt.Fprintln(tw, "  QUERIES\tWHO")
+		for _, a := range d.Askers {
+			fmt.Fprintf(tw, "  %d\t%s\n", a.Queries, who(a.UserName, a.UserID))
+		}
+		tw.Flush()
+	}
+	b.WriteString("\n" + Advisory + "\n")
+	return b.String()
+}
+
+func untilHeader(since, until time.Time) string {
+	if since.Format("2006-01-02") == until.Format("2006-01-02") {
+		return until.Format("15:04 MST")
+	}
+	return until.Format("Mon 02 Jan 2006 15:04 MST")
+}
+
+func who(name, id string) string {
+	switch {
+	case name != "" && id != "" && id != name:
+		return name + " (" + id + ")"
+	case name != "":
+		return name
+	case id != "":
+		return id
+	}
+	return "(unknown)"
+}
+
+func plural(n int, one, many string) string {
+	if n == 1 {
+		return one
+	}
+	return many
+}
+
+// shorten cuts s to n runes with an ellipsis, on one line.
+func shorten(s string, n int) string {
+	s = strings.Join(strings.Fields(s), " ")
+	if utf8.RuneCountInString(s) <= n {
+		return s
+	}
+	r := []rune(s)
+	return string(r[:n-1]) + "…"
+}

@@ -1,0 +1,109 @@
+package store
+
+import (
+	"context"
+	"embed"
+	"fmt"
+	"io/fs"
+	"path"
+	"sort"
+	"strconv"
+	"strings"
+)
+
+//go:embed migrations/*.sql
+var migrationFS embed.FS
+
+// migration is one schema step; version n is migrations[n-1].
+type migration struct {
+	version int
+	name    string
+	sql     string
+}
+
+// migrations are the embedded schema steps in order. Their file names are
+// NNNN_name.sql with NNNN = 1, 2, 3 … without gaps.
+var migrations = loadMigrations()
+
+func loadMigrations() []migration {
+	names, err := fs.Glob(migrationFS, "migrations/*.sql")
+	if err != nil {
+		panic("store: " + err.Error())
+	}
+	sort.Strings(names)
+	var ms []migration
+	for i, n := range names {
+		base := path.Base(n)
+		num, _, ok := strings.Cut(base, "_")
+		v, err := strconv.Atoi(num)
+		if !ok || err != nil || v != i+1 {
+			panic(fmt.Sprintf("store: migration %s: want version %d as NNNN_name.sql", base, i+1))
+		}
+		b, err := migrationFS.ReadFile(n)
+		if err != nil {
+			panic("store: " + err.Error())
+		}
+		ms = append(ms, migration{version: v, name: strings.TrimSuffix(base, ".sql"), sql: string(b)})
+	}
+	return ms
+}
+
+// SchemaVersion is the newest schema version this binary knows.
+func SchemaVersion() int { return len(migrations) }
+
+// migrate brings the file up to version upto, one transaction per step.
+// Each step re-reads the version under the write lock, so two processes
+// opening the same new file do not apply a step twice.
+func (db *DB) migrate(ctx context.Context, upto int) error {
+	if _, err := db.w.ExecContext(ctx, `CREATE TABLE IF NOT EXISTS schema_version (
+		version    INTEGER PRIMARY KEY,
+		name       TEXT NOT NULL,
+		applied_at TEXT NOT NULL)`); err != nil {
+		return fmt.Errorf("open database %s: create version table: %w", db.path, err)
+	}
+	for {
+		done, err := db.migrateStep(ctx, upto)
+		if err != nil || done {
+			return err
+		}
+	}
+}
+
+func (db *DB) migrateStep(ctx context.Context, upto int) (done bool, err error) {
+	tx, err := db.w.BeginTx(ctx, nil)
+	if err != nil {
+		return false, fmt.Errorf("open database %s: %w", db.path, err)
+	}
+	defer tx.Rollback()
+	var cur int
+	if err := tx.QueryRowContext(ctx, `SELECT coalesce(max(version), 0) FROM schema_version`).Scan(&cur); err != nil {
+		return false, fmt.Errorf("open database %s: read schema version: %w", db.path, err)
+	}
+	if cur > len(migrations) {
+		return false, fmt.Errorf("open database %s: %w: the file has schema version %d, this mixward knows up to %d; "+
+			"use the mixward release that wrote it (or a newer one), or restore a backup made by this release",
+			db.path, ErrSchemaTooNew, cur, len(migrations))
+	}
+	if cur >= upto {
+		return true, nil
+	}
+	m := migrations[cur]
+	if _, err := tx.ExecContext(ctx, m.sql); err != nil {
+		return false, fmt.Errorf("open database %s: apply migration %s: %w", db.path, m.name, err)
+	}
+	if _, err := tx.ExecContext(ctx, `INSERT INTO schema_version (version, name, applied_at) VALUES (?, ?, ?)`,
+		m.version, m.name, formatTime(db.now())); err != nil {
+		return false, fmt.Errorf("open database %s: record migration %s: %w", db.path, m.name, err)
+	}
+	if err := tx.Commit(); err != nil {
+		return false, fmt.Errorf("open database %s: commit migration %s: %w", db.path, m.name, err)
+	}
+	return false, nil
+}
+
+// Version reports the schema version of the open file.
+func (db *DB) Version(ctx context.Context) (int, error) {
+	var v int
+	err := db.r.QueryRowContext(ctx, `SELECT coalesce(max(version), 0) FROM schema_version`).Scan(&v)
+	return v, err
+}

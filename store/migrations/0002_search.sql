@@ -1,0 +1,19 @@
+-- Version 2: full-text search for safety reviewers (built-in FTS4, so no
+-- build tags are needed). One document per query row, docid = queries.id:
+-- the request as typed plus its tag-resolved form, the species, and each
+-- hazard's code and message. Rows logged before this version are indexed
+-- here.
+CREATE VIRTUAL TABLE query_fts USING fts4(request, species, hazards, tokenize=unicode61);
+
+INSERT INTO query_fts (docid, request, species, hazards)
+SELECT q.id,
+       q.request || ' ' || q.resolved,
+       q.species,
+       coalesce((SELECT group_concat(h.code || ' ' || h.message, ' ')
+                   FROM query_hazards h WHERE h.query_id = q.id), '')
+  FROM queries q
+ WHERE q.kind = 'query';
+
+CREATE TRIGGER queries_fts_delete AFTER DELETE ON queries BEGIN
+    DELETE FROM query_fts WHERE docid = old.id;
+END;

@@ -1,0 +1,382 @@
+package store
+
+import (
+	"bytes"
+	"context"
+	"database/sql"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"math"
+	"strings"
+	"time"
+	"unicode/utf8"
+)
+
+// Hazard is one hazard found in a mix, as logged.
+type Hazard struct {
+	Code     string `json:"code"`
+	Severity string `json:"severity"` // info, warning or danger
+	Message  string `json:"message"`
+}
+
+// Query is one logged request and its answer. Its JSON form is used by
+// `mixward log search/export --format json`; field names never change.
+type Query struct {
+	ID   int64     `json:"id"`
+	Time time.Time `json:"time"` // UTC; set by LogQuery from the clock when zero
+
+	UserID   string `json:"user_id"`
+	UserName string `json:"user_name"`
+	Channel  string `json:"channel"`  // Slack channel id, "console" or "cli"
+	EventID  string `json:"event_id"` // transport delivery id for de-duplication; "" = none
+
+	Request  string `json:"request"`  // raw text as typed
+	Resolved string `json:"resolved"` // request after stream-tag substitution ("" when none)
+	Verdict  string `json:"verdict"`  // spontaneous, non-spontaneous, no-reaction or error
+	Error    string `json:"error"`    // parse error message when Verdict == "error"
+
+	Species        []string `json:"species"` // species texts, e.g. "MnO4-", "Fe^2+", "Cu(s)"
+	Oxidizer       string   `json:"oxidizer"`
+	Reducer        string   `json:"reducer"`
+	ECellV         *float64 `json:"e_cell_v"`
+	ECellStandardV *float64 `json:"e_cell_standard_v"`
+	Hazards        []Hazard `json:"hazards"`
+	Streams        []string `json:"streams"` // stream texts as parsed, tags resolved
+
+	Result json.RawMessage `json:"result"` // the full engine result JSON (nil for errors)
+
+	EngineVersion string `json:"engine_version"`
+	DataHash      string `json:"data_hash"`
+
+	Hash     string `json:"hash"`      // set by LogQuery
+	PrevHash string `json:"prev_hash"` // set by LogQuery
+}
+
+// The verdicts a query can carry.
+const (
+	VerdictSpontaneous    = "spontaneous"
+	VerdictNonSpontaneous = "non-spontaneous"
+	VerdictNoReaction     = "no-reaction"
+	VerdictError          = "error"
+)
+
+// Verdicts lists the valid verdicts in display order.
+var Verdicts = []string{VerdictSpontaneous, VerdictNonSpontaneous, VerdictNoReaction, VerdictError}
+
+// ValidVerdict reports whether v is one of Verdicts.
+func ValidVerdict(v string) bool {
+	for _, x := range Verdicts {
+		if v == x {
+			return true
+		}
+	}
+	return false
+}
+
+// Severities of hazards, least to most severe.
+var severities = []string{"info", "warning", "danger"}
+
+// LogQuery writes q as the next row of the chain in one transaction and
+// returns its id; it sets q.ID, q.Time (when zero), q.Hash and q.PrevHash.
+// A query whose EventID is already logged is not written again: the
+// existing id is returned with an error wrapping ErrDuplicate. Text fields
+// are stored as given, except that invalid UTF-8 and NUL bytes become
+// U+FFFD.
+func (db *DB) LogQuery(ctx context.Context, q *Query) (int64, error) {
+	if q == nil {
+		return 0, fmt.Errorf("log query: %w: nil query", ErrInvalid)
+	}
+	if q.Time.IsZero() {
+		q.Time = db.now()
+	}
+	q.Time = q.Time.UTC()
+	r, err := encodeQuery(q)
+	if err != nil {
+		return 0, err
+	}
+	tx, err := db.w.BeginTx(ctx, nil)
+	if err != nil {
+		return 0, fmt.Errorf("log query: %w", err)
+	}
+	defer tx.Rollback()
+	if q.EventID != "" {
+		var id int64
+		err := tx.QueryRowContext(ctx, `SELECT id FROM queries WHERE event_id = ?`, q.EventID).Scan(&id)
+		if err == nil {
+			return id, fmt.Errorf("log query: event %q is query %d: %w", q.EventID, id, ErrDuplicate)
+		}
+		if !errors.Is(err, sql.ErrNoRows) {
+			return 0, fmt.Errorf("log query: %w", err)
+		}
+	}
+	if err := appendRow(ctx, tx, r); err != nil {
+		return 0, fmt.Errorf("log query: %w", err)
+	}
+	if err := insertHazards(ctx, tx, r.ID, q.Hazards); err != nil {
+		return 0, fmt.Errorf("log query: %w", err)
+	}
+	if err := indexRow(ctx, tx, r.ID); err != nil {
+		return 0, fmt.Errorf("log query: %w", err)
+	}
+	if err := tx.Commit(); err != nil {
+		return 0, fmt.Errorf("log query: commit: %w", err)
+	}
+	q.ID, q.Hash, q.PrevHash = r.ID, r.Hash, r.PrevHash
+	return r.ID, nil
+}
+
+// clean makes s storable text: valid UTF-8 without NUL bytes.
+func clean(s string) string {
+	if !utf8.ValidString(s) {
+		s = strings.ToValidUTF8(s, "\uFFFD")
+	}
+	if strings.IndexByte(s, 0) >= 0 {
+		s = strings.ReplaceAll(s, "\x00", "\uFFFD")
+	}
+	return s
+}
+
+func cleanAll(ss []string) []string {
+	out := make([]string, len(ss))
+	for i, s := range ss {
+		out[i] = clean(s)
+	}
+	return out
+}
+
+// encodeQuery validates q (cleaning its text in place) and returns its row
+// without id and hashes.
+func encodeQuery(q *Query) (*row, error) {
+	if !ValidVerdict(q.Verdict) {
+		return nil, fmt.Errorf("log query: %w: verdict %q is not one of %s", ErrInvalid, q.Verdict, strings.Join(Verdicts, ", "))
+	}
+	if q.Verdict == VerdictError && strings.TrimSpace(q.Error) == "" {
+		return nil, fmt.Errorf("log query: %w: verdict error needs the parse error message in Error", ErrInvalid)
+	}
+	for _, f := range []struct {
+		name string
+		v    *float64
+	}{{"e_cell_v", q.ECellV}, {"e_cell_standard_v", q.ECellStandardV}} {
+		if f.v != nil && (math.IsNaN(*f.v) || math.IsInf(*f.v, 0)) {
+			return nil, fmt.Errorf("log query: %w: %s is %v; give a finite number or nil", ErrInvalid, f.name, *f.v)
+		}
+	}
+	for i := range q.Hazards {
+		h := &q.Hazards[i]
+		h.Code, h.Severity, h.Message = clean(h.Code), clean(h.Severity), clean(h.Message)
+		if strings.TrimSpace(h.Code) == "" {
+			return nil, fmt.Errorf("log query: %w: hazard %d has no code", ErrInvalid, i+1)
+		}
+		if !contains(severities, h.Severity) {
+			return nil, fmt.Errorf("log query: %w: hazard %s has severity %q, want one of %s",
+				ErrInvalid, h.Code, h.Severity, strings.Join(severities, ", "))
+		}
+	}
+	q.UserID, q.UserName, q.Channel, q.EventID = clean(q.UserID), clean(q.UserName), clean(q.Channel), clean(q.EventID)
+	q.Request, q.Resolved, q.Error = clean(q.Request), clean(q.Resolved), clean(q.Error)
+	q.Oxidizer, q.Reducer = clean(q.Oxidizer), clean(q.Reducer)
+	q.EngineVersion, q.DataHash = clean(q.EngineVersion), clean(q.DataHash)
+	q.Species, q.Streams = cleanAll(q.Species), cleanAll(q.Streams)
+	if q.Hazards == nil {
+		q.Hazards = []Hazard{}
+	}
+	r := &row{
+		Kind: kindQuery, Time: formatTime(q.Time),
+		UserID: q.UserID, UserName: q.UserName, Channel: q.Channel, EventID: q.EventID,
+		Request: q.Request, Resolved: q.Resolved, Verdict: q.Verdict, Error: q.Error,
+		Species: mustJSON(q.Species), Oxidizer: q.Oxidizer, Reducer: q.Reducer,
+		ECellV: nullFloat(q.ECellV), ECellStandardV: nullFloat(q.ECellStandardV),
+		Hazards: mustJSON(q.Hazards), Streams: mustJSON(q.Streams),
+		EngineVersion: q.EngineVersion, DataHash: q.DataHash,
+	}
+	if q.Result != nil {
+		var buf bytes.Buffer
+		if err := json.Compact(&buf, q.Result); err != nil {
+			return nil, fmt.Errorf("log query: %w: result is not valid JSON: %v", ErrInvalid, err)
+		}
+		q.Result = json.RawMessage(buf.Bytes())
+		r.Result = sql.NullString{String: buf.String(), Valid: true}
+	}
+	return r, nil
+}
+
+func contains(list []string, s string) bool {
+	for _, x := range list {
+		if x == s {
+			return true
+		}
+	}
+	return false
+}
+
+// mustJSON encodes slices of strings or hazards; these cannot fail.
+func mustJSON(v any) string {
+	b, err := json.Marshal(v)
+	if err != nil {
+		panic("store: " + err.Error())
+	}
+	if string(b) == "null" {
+		return "[]"
+	}
+	return string(b)
+}
+
+func nullFloat(f *float64) sql.NullFloat64 {
+	if f == nil {
+		return sql.NullFloat64{}
+	}
+	return sql.NullFloat64{Float64: *f, Valid: true}
+}
+
+// appendRow gives r the next id, links it to the newest row and inserts it.
+// It must run in a write transaction.
+func appendRow(ctx context.Context, tx *sql.Tx, r *row) error {
+	var seq int64
+	err := tx.QueryRowContext(ctx, `SELECT seq FROM sqlite_sequence WHERE name = 'queries'`).Scan(&seq)
+	if err != nil && !errors.Is(err, sql.ErrNoRows) {
+		return err
+	}
+	var lastID int64
+	var prev string
+	err = tx.QueryRowContext(ctx, `SELECT id, hash FROM queries ORDER BY id DESC LIMIT 1`).Scan(&lastID, &prev)
+	if err != nil && !errors.Is(err, sql.ErrNoRows) {
+		return err
+	}
+	r.ID = max(seq, lastID) + 1
+	r.PrevHash = prev
+	r.Hash = computeHash(r)
+	_, err = tx.ExecContext(ctx, `INSERT INTO queries (`+rowColumns+`)
+		VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
+		r.ID, r.Kind, r.Time, r.UserID, r.UserName, r.Channel, r.EventID, r.Request, r.Resolved, r.Verdict,
+		r.Error, r.Species, r.Oxidizer, r.Reducer, r.ECellV, r.ECellStandardV, r.Hazards, r.Streams, r.Result,
+		r.EngineVersion, r.DataHash, r.PrevHash, r.Hash)
+	if isUnique(err) {
+		return fmt.Errorf("%w: event id %q already logged", ErrDuplicate, r.EventID)
+	}
+	return err
+}
+
+func insertHazards(ctx context.Context, tx *sql.Tx, id int64, hz []Hazard) error {
+	for i, h := range hz {
+		if _, err := tx.ExecContext(ctx, `INSERT INTO query_hazards (query_id, pos, code, severity, message)
+			VALUES (?, ?, ?, ?, ?)`, id, i, h.Code, h.Severity, h.Message); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+// indexRow adds query id to the full-text index; the expression is the one
+// migration 0002 uses to index older rows.
+func indexRow(ctx context.Context, tx *sql.Tx, id int64) error {
+	_, err := tx.ExecContext(ctx, `INSERT INTO query_fts (docid, request, species, hazards)
+		SELECT q.id, q.request || ' ' || q.resolved, q.species,
+		       coalesce((SELECT group_concat(h.code || ' ' || h.message, ' ')
+		                   FROM query_hazards h WHERE h.query_id = q.id), '')
+		  FROM queries q WHERE q.id = ?`, id)
+	return err
+}
+
+// decodeQuery turns a stored query row back into a Query.
+func decodeQuery(r *row) (*Query, error) {
+	t, err := parseTime(r.Time)
+	if err != nil {
+		return nil, fmt.Errorf("query %d: %w", r.ID, err)
+	}
+	q := &Query{
+		ID: r.ID, Time: t, UserID: r.UserID, UserName: r.UserName, Channel: r.Channel, EventID: r.EventID,
+		Request: r.Request, Resolved: r.Resolved, Verdict: r.Verdict, Error: r.Error,
+		Oxidizer: r.Oxidizer, Reducer: r.Reducer, EngineVersion: r.EngineVersion, DataHash: r.DataHash,
+		Hash: r.Hash, PrevHash: r.PrevHash,
+	}
+	if r.ECellV.Valid {
+		q.ECellV = &r.ECellV.Float64
+	}
+	if r.ECellStandardV.Valid {
+		q.ECellStandardV = &r.ECellStandardV.Float64
+	}
+	if r.Result.Valid {
+		q.Result = json.RawMessage(r.Result.String)
+	}
+	for _, f := range []struct {
+		name string
+		src  string
+		dst  any
+	}{{"species", r.Species, &q.Species}, {"hazards", r.Hazards, &q.Hazards}, {"streams", r.Streams, &q.Streams}} {
+		if err := json.Unmarshal([]byte(f.src), f.dst); err != nil {
+			return nil, fmt.Errorf("query %d: stored %s is not a JSON array: %v", r.ID, f.name, err)
+		}
+	}
+	return q, nil
+}
+
+// Get returns the logged query with the given id, or ErrNotFound.
+func (db *DB) Get(ctx context.Context, id int64) (*Query, error) {
+	var r row
+	err := db.r.QueryRowContext(ctx, `SELECT `+rowColumns+` FROM queries WHERE id = ? AND kind = 'query'`, id).Scan(r.scanDest()...)
+	if errors.Is(err, sql.ErrNoRows) {
+		return nil, fmt.Errorf("query %d: %w", id, ErrNotFound)
+	}
+	if err != nil {
+		return nil, fmt.Errorf("query %d: %w", id, err)
+	}
+	return decodeQuery(&r)
+}
+
+// Delivery is the outcome of one attempt to post an answer.
+type Delivery struct {
+	QueryID int64     `json:"query_id"`
+	Time    time.Time `json:"time"`
+	OK      bool      `json:"ok"`
+	Detail  string    `json:"detail"`
+}
+
+// RecordDelivery records whether the answer to query queryID was posted.
+// Deliveries are kept outside the hash chain (a post can be retried; the
+// outcome is operational state, not the safety record) in their own table,
+// one row per attempt.
+func (db *DB) RecordDelivery(ctx context.Context, queryID int64, ok bool, detail string) error {
+	tx, err := db.w.BeginTx(ctx, nil)
+	if err != nil {
+		return fmt.Errorf("record delivery of query %d: %w", queryID, err)
+	}
+	defer tx.Rollback()
+	var n int
+	if err := tx.QueryRowContext(ctx, `SELECT count(*) FROM queries WHERE id = ? AND kind = 'query'`, queryID).Scan(&n); err != nil {
+		return fmt.Errorf("record delivery of query %d: %w", queryID, err)
+	}
+	if n == 0 {
+		return fmt.Errorf("record delivery of query %d: %w", queryID, ErrNotFound)
+	}
+	if _, err := tx.ExecContext(ctx, `INSERT INTO deliveries (query_id, time, ok, detail) VALUES (?, ?, ?, ?)`,
+		queryID, formatTime(db.now()), ok, clean(detail)); err != nil {
+		return fmt.Errorf("record delivery of query %d: %w", queryID, err)
+	}
+	if err := tx.Commit(); err != nil {
+		return fmt.Errorf("record delivery of query %d: %w", queryID, err)
+	}
+	return nil
+}
+
+// Deliveries lists the delivery attempts of query queryID, oldest first.
+func (db *DB) Deliveries(ctx context.Context, queryID int64) ([]Delivery, error) {
+	rows, err := db.r.QueryContext(ctx, `SELECT time, ok, detail FROM deliveries WHERE query_id = ? ORDER BY id`, queryID)
+	if err != nil {
+		return nil, fmt.Errorf("deliveries of query %d: %w", queryID, err)
+	}
+	defer rows.Close()
+	var out []Delivery
+	for rows.Next() {
+		d := Delivery{QueryID: queryID}
+		var ts string
+		if err := rows.Scan(&ts, &d.OK, &d.Detail); err != nil {
+			return nil, err
+		}
+		if d.Time, err = parseTime(ts); err != nil {
+			return nil, err
+		}
+		out = append(out, d)
+	}
+	return out, rows.Err()
+}

@@ -1,0 +1,226 @@
+package store
+
+import (
+	"context"
+	"database/sql"
+	"fmt"
+	"strings"
+	"time"
+	"unicode"
+)
+
+// SearchOptions select logged queries. Zero fields do not filter.
+type SearchOptions struct {
+	// Terms are words that must all appear in the request (as typed or
+	// tag-resolved), the species or the hazard codes and messages. Text in
+	// double quotes must appear as a phrase. Every other character is
+	// literal: FTS operators (AND, OR, NOT, NEAR, *, -, ^, parentheses,
+	// column filters) have no special meaning. Matching ignores case and
+	// accents, and punctuation splits words: "Fe^2+" finds "Fe 2".
+	Terms   string
+	Since   time.Time // inclusive
+	Until   time.Time // exclusive
+	User    string    // user name (any case) or user id
+	Verdict string    // one of Verdicts
+	Hazard  string    // hazard code (any case)
+	Limit   int       // page size; 0 means 50, at most 1000
+	Offset  int       // rows to skip, for paging
+}
+
+// SearchPage is one page of results, newest first.
+type SearchPage struct {
+	Queries    []*Query `json:"queries"`
+	Offset     int      `json:"offset"`
+	Limit      int      `json:"limit"`
+	HasMore    bool     `json:"has_more"`
+	NextOffset int      `json:"next_offset,omitempty"` // offset of the next page when HasMore
+	// Phrases are the word groups searched for, after punctuation was
+	// dropped. Terms with no letters or digits at all match nothing.
+	Phrases []string `json:"phrases"`
+}
+
+// DefaultLimit and MaxLimit bound SearchOptions.Limit.
+const (
+	DefaultLimit = 50
+	MaxLimit     = 1000
+)
+
+// Search returns the queries matching o, newest first (by id, which is
+// the order they were logged in).
+func (db *DB) Search(ctx context.Context, o SearchOptions) (SearchPage, error) {
+	page := SearchPage{Offset: o.Offset, Limit: o.Limit, Queries: []*Query{}, Phrases: []string{}}
+	if page.Limit <= 0 {
+		page.Limit = DefaultLimit
+	}
+	page.Limit = min(page.Limit, MaxLimit)
+	if page.Offset < 0 {
+		return page, fmt.Errorf("search: %w: negative offset %d", ErrInvalid, page.Offset)
+	}
+	if o.Verdict != "" && !ValidVerdict(o.Verdict) {
+		return page, fmt.Errorf("search: %w: verdict %q is not one of %s", ErrInvalid, o.Verdict, strings.Join(Verdicts, ", "))
+	}
+	phrases := Phrases(o.Terms)
+	page.Phrases = phrases
+	if strings.TrimSpace(o.Terms) != "" && len(phrases) == 0 {
+		return page, nil // only punctuation: nothing can match
+	}
+
+	tx, err := db.r.BeginTx(ctx, nil)
+	if err != nil {
+		return page, fmt.Errorf("search: %w", err)
+	}
+	defer tx.Rollback()
+
+	where := []string{`q.kind = 'query'`}
+	var args []any
+	if !o.Since.IsZero() {
+		where = append(where, `q.time >= ?`)
+		args = append(args, formatTime(o.Since))
+	}
+	if !o.Until.IsZero() {
+		where = append(where, `q.time < ?`)
+		args = append(args, formatTime(o.Until))
+	}
+	if o.User != "" {
+		where = append(where, `(q.user_name = ? COLLATE NOCASE OR q.user_id = ?)`)
+		args = append(args, o.User, o.User)
+	}
+	if o.Verdict != "" {
+		where = append(where, `q.verdict = ?`)
+		args = append(args, o.Verdict)
+	}
+	if o.Hazard != "" {
+		where = append(where, `q.id IN (SELECT query_id FROM query_hazards WHERE code = ? COLLATE NOCASE)`)
+		args = append(args, o.Hazard)
+	}
+	if len(phrases) > 0 {
+		// The time window bounds the ids too (time and id grow together;
+		// min/max keep it exact even if they did not), which lets FTS skip
+		// the rest of each doclist.
+		lo, hi, empty, err := idRange(ctx, tx, o.Since, o.Until)
+		if err != nil {
+			return page, fmt.Errorf("search: %w", err)
+		}
+		if empty {
+			return page, nil
+		}
+		sub := `SELECT docid FROM query_fts WHERE query_fts MATCH ?`
+		args = append(args, MatchExpr(phrases))
+		if lo > 0 {
+			sub += ` AND docid >= ?`
+			args = append(args, lo)
+		}
+		if hi > 0 {
+			sub += ` AND docid <= ?`
+			args = append(args, hi)
+		}
+		where = append(where, `q.id IN (`+sub+`)`)
+	}
+	cols := strings.ReplaceAll(rowColumns, "\n\t", " ")
+	cols = "q." + strings.ReplaceAll(cols, ", ", ", q.")
+	stmt := `SELECT ` + cols + ` FROM queries q WHERE ` + strings.Join(where, " AND ") +
+		` ORDER BY q.id DESC LIMIT ? OFFSET ?`
+	args = append(args, page.Limit+1, page.Offset)
+	rows, err := tx.QueryContext(ctx, stmt, args...)
+	if err != nil {
+		return page, fmt.Errorf("search: %w", err)
+	}
+	defer rows.Close()
+	for rows.Next() {
+		var r row
+		if err := rows.Scan(r.scanDest()...); err != nil {
+			return page, fmt.Errorf("search: %w", err)
+		}
+		if len(page.Queries) == page.Limit {
+			page.HasMore = true
+			page.NextOffset = page.Offset + page.Limit
+			break
+		}
+		q, err := decodeQuery(&r)
+		if err != nil {
+			return page, fmt.Errorf("search: %w", err)
+		}
+		page.Queries = append(page.Queries, q)
+	}
+	if err := rows.Err(); err != nil {
+		return page, fmt.Errorf("search: %w", err)
+	}
+	return page, nil
+}
+
+// idRange returns the id bounds of rows in [since, until); 0 means open.
+// empty is true when no row can be in the window.
+func idRange(ctx context.Context, tx *sql.Tx, since, until time.Time) (lo, hi int64, empty bool, err error) {
+	if !since.IsZero() {
+		var v sql.NullInt64
+		if err := tx.QueryRowContext(ctx, `SELECT min(id) FROM queries WHERE time >= ?`, formatTime(since)).Scan(&v); err != nil {
+			return 0, 0, false, err
+		}
+		if !v.Valid {
+			return 0, 0, true, nil
+		}
+		lo = v.Int64
+	}
+	if !until.IsZero() {
+		var v sql.NullInt64
+		if err := tx.QueryRowContext(ctx, `SELECT max(id) FROM queries WHERE time < ?`, formatTime(until)).Scan(&v); err != nil {
+			return 0, 0, false, err
+		}
+		if !v.Valid {
+			return 0, 0, true, nil
+		}
+		hi = v.Int64
+	}
+	return lo, hi, lo > 0 && hi > 0 && lo > hi, nil
+}
+
+// Phrases splits search terms into phrases of words. Whitespace separates
+// phrases except inside double quotes (an unclosed quote runs to the end).
+// Within a phrase every character that is not a letter, digit or mark
+// separates words and is dropped, so the words hold nothing the FTS query
+// language could read as an operator. Words are lower-cased.
+func Phrases(terms string) []string {
+	var out []string
+	var cur []string
+	var word strings.Builder
+	flushWord := func() {
+		if word.Len() > 0 {
+			cur = append(cur, strings.ToLower(word.String()))
+			word.Reset()
+		}
+	}
+	flushPhrase := func() {
+		flushWord()
+		if len(cur) > 0 {
+			out = append(out, strings.Join(cur, " "))
+			cur = nil
+		}
+	}
+	inQuote := false
+	for _, c := range terms {
+		switch {
+		case c == '"':
+			flushPhrase()
+			inQuote = !inQuote
+		case unicode.IsSpace(c) && !inQuote:
+			flushPhrase()
+		case unicode.IsLetter(c) || unicode.IsDigit(c) || unicode.IsNumber(c) || unicode.Is(unicode.Mn, c):
+			word.WriteRune(c)
+		default:
+			flushWord()
+		}
+	}
+	flushPhrase()
+	return out
+}
+
+// MatchExpr is the FTS4 MATCH expression for phrases: each phrase in double
+// quotes, all required. Phrases come from Phrases, so they hold only
+// letters, digits, marks and single spaces.
+func MatchExpr(phrases []string) string {
+	q := make([]string, len(phrases))
+	for i, p := range phrases {
+		q[i] = `"` + p + `"`
+	}
+	return strings.Join(q, " ")
+}

@@ -1,0 +1,160 @@
+// Package store keeps mixward's query log, site stream catalogue and digest
+// records in one SQLite file (github.com/mattn/go-sqlite3).
+//
+// Every answer the bot gives is a safety record: LogQuery writes it in one
+// transaction, chained by SHA-256 to the row before it, before the answer is
+// sent. Verify walks the chain. The file runs in WAL mode with a busy
+// timeout and synchronous=FULL, so an acknowledged row survives a crash of
+// the process and of the machine. The schema is created and upgraded by
+// ordered migrations embedded in the binary; an older binary refuses a file
+// whose schema is newer than it knows.
+//
+// Two connection pools are kept: one writer (a single connection whose
+// transactions begin IMMEDIATE, so writers queue instead of deadlocking) and
+// a small read-only pool for search, export and digests.
+package store
+
+import (
+	"context"
+	"database/sql"
+	"errors"
+	"fmt"
+	"strings"
+	"time"
+
+	"github.com/mattn/go-sqlite3"
+)
+
+// Options tune Open.
+type Options struct {
+	// Now is the clock; nil means time.Now. Times are stored in UTC.
+	Now func() time.Time
+	// Location is the site time zone used when rendering (digests); nil means UTC.
+	Location *time.Location
+}
+
+// DB is an open mixward database. It is safe for concurrent use.
+type DB struct {
+	path string
+	w    *sql.DB // writer: one connection, BEGIN IMMEDIATE
+	r    *sql.DB // readers: query_only
+	now  func() time.Time
+	loc  *time.Location
+}
+
+// Sentinel errors. Wrapped errors match with errors.Is.
+var (
+	// ErrDuplicate is returned by LogQuery when a query with the same
+	// EventID is already logged; the existing id is returned with it.
+	ErrDuplicate = errors.New("query already logged for this event id")
+	// ErrNotFound is returned when a stream tag or query id does not exist.
+	ErrNotFound = errors.New("not found")
+	// ErrSchemaTooNew is returned by Open when the file was written by a
+	// newer mixward than this one.
+	ErrSchemaTooNew = errors.New("database schema is newer than this mixward")
+	// ErrInvalid is wrapped by errors about bad arguments (a bad tag, an
+	// unknown verdict, a non-finite potential).
+	ErrInvalid = errors.New("invalid argument")
+)
+
+// busyTimeout is how long a connection waits for another writer (ms).
+const busyTimeout = 5000
+
+// Open opens (creating if needed) the database file at path and applies any
+// pending migrations. path is a file name; ":memory:" is refused because each
+// pooled connection would see its own empty database.
+func Open(ctx context.Context, path string, opt Options) (*DB, error) {
+	return openAt(ctx, path, opt, len(migrations))
+}
+
+// openAt is Open with migrations applied only up to version upto (tests use
+// it to build files of older schema versions).
+func openAt(ctx context.Context, path string, opt Options, upto int) (*DB, error) {
+	if path == "" {
+		return nil, fmt.Errorf("open database: %w: empty path (set --db or MIXWARD_DB)", ErrInvalid)
+	}
+	if path == ":memory:" || strings.HasPrefix(path, "file:") {
+		return nil, fmt.Errorf("open database %q: %w: give a plain file path", path, ErrInvalid)
+	}
+	db := &DB{path: path, now: opt.Now, loc: opt.Location}
+	if db.now == nil {
+		db.now = time.Now
+	}
+	if db.loc == nil {
+		db.loc = time.UTC
+	}
+	var err error
+	db.w, err = sql.Open("sqlite3", dsn(path, "_journal_mode=WAL", "_synchronous=FULL", "_txlock=immediate"))
+	if err != nil {
+		return nil, fmt.Errorf("open database %s: %w", path, err)
+	}
+	db.w.SetMaxOpenConns(1)
+	db.w.SetConnMaxIdleTime(0)
+	if err := db.w.PingContext(ctx); err != nil {
+		db.w.Close()
+		return nil, fmt.Errorf("open database %s: %w (check the directory exists and is writable)", path, err)
+	}
+	if err := db.migrate(ctx, upto); err != nil {
+		db.w.Close()
+		return nil, err
+	}
+	db.r, err = sql.Open("sqlite3", dsn(path, "_query_only=1", "_txlock=deferred"))
+	if err != nil {
+		db.w.Close()
+		return nil, fmt.Errorf("open database %s for reading: %w", path, err)
+	}
+	db.r.SetMaxOpenConns(4)
+	return db, nil
+}
+
+// dsn builds a go-sqlite3 URI for path with the common pragmas plus extra.
+func dsn(path string, extra ...string) string {
+	// A SQLite URI decodes %XX and stops the path at ? and #.
+	r := strings.NewReplacer("%", "%25", "?", "%3f", "#", "%23")
+	q := []string{fmt.Sprintf("_busy_timeout=%d", busyTimeout), "_foreign_keys=on"}
+	q = append(q, extra...)
+	return "file:" + r.Replace(path) + "?" + strings.Join(q, "&")
+}
+
+// Close closes the database.
+func (db *DB) Close() error {
+	var errs []error
+	if db.r != nil {
+		errs = append(errs, db.r.Close())
+	}
+	if db.w != nil {
+		// Fold the WAL back into the main file so a plain copy of a closed
+		// database is complete.
+		_, _ = db.w.Exec("PRAGMA wal_checkpoint(TRUNCATE)")
+		errs = append(errs, db.w.Close())
+	}
+	return errors.Join(errs...)
+}
+
+// Path is the database file name.
+func (db *DB) Path() string { return db.path }
+
+// Location is the site time zone the database renders times in.
+func (db *DB) Location() *time.Location { return db.loc }
+
+// Now is the database clock in UTC.
+func (db *DB) Now() time.Time { return db.now().UTC() }
+
+// timeLayout stores times as fixed-width UTC text, so text order is time order.
+const timeLayout = "2006-01-02T15:04:05.000000000Z"
+
+func formatTime(t time.Time) string { return t.UTC().Format(timeLayout) }
+
+func parseTime(s string) (time.Time, error) {
+	t, err := time.Parse(timeLayout, s)
+	if err != nil {
+		return time.Time{}, fmt.Errorf("stored time %q: %w", s, err)
+	}
+	return t, nil
+}
+
+// isUnique reports whether err is a UNIQUE or PRIMARY KEY constraint failure.
+func isUnique(err error) bool {
+	var se sqlite3.Error
+	return errors.As(err, &se) && (se.ExtendedCode == sqlite3.ErrConstraintUnique || se.ExtendedCode == sqlite3.ErrConstraintPrimaryKey)
+}
