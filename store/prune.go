@@ -105,7 +105,7 @@ func prune(ctx context.Context, conn *sql.Conn, before time.Time, by string, now
 		Species: "[]", Hazards: "[]", Streams: "[]",
 		Result: sql.NullString{String: string(b), Valid: true},
 	}
-	if err := appendRow(ctx, tx, r); err != nil {
+	if err := appendRow(ctx, tx, r, anchor.AnchorHash); err != nil {
 		return 0, fmt.Errorf("prune: record the prune: %w", err)
 	}
 	if err := tx.Commit(); err != nil {

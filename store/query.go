@@ -110,7 +110,7 @@ func (db *DB) LogQuery(ctx context.Context, q *Query) (int64, error) {
 			return 0, fmt.Errorf("log query: %w", err)
 		}
 	}
-	if err := appendRow(ctx, tx, r); err != nil {
+	if err := appendRow(ctx, tx, r, ""); err != nil {
 		return 0, fmt.Errorf("log query: %w", err)
 	}
 	if err := insertHazards(ctx, tx, r.ID, q.Hazards); err != nil {
@@ -229,16 +229,17 @@ func nullFloat(f *float64) sql.NullFloat64 {
 	return sql.NullFloat64{Float64: *f, Valid: true}
 }
 
-// appendRow gives r the next id, links it to the newest row and inserts it.
-// It must run in a write transaction.
-func appendRow(ctx context.Context, tx *sql.Tx, r *row) error {
+// appendRow gives r the next id, links it to the newest row (or to
+// emptyPrev when the table is empty) and inserts it. It must run in a
+// write transaction.
+func appendRow(ctx context.Context, tx *sql.Tx, r *row, emptyPrev string) error {
 	var seq int64
 	err := tx.QueryRowContext(ctx, `SELECT seq FROM sqlite_sequence WHERE name = 'queries'`).Scan(&seq)
 	if err != nil && !errors.Is(err, sql.ErrNoRows) {
 		return err
 	}
 	var lastID int64
-	var prev string
+	prev := emptyPrev
 	err = tx.QueryRowContext(ctx, `SELECT id, hash FROM queries ORDER BY id DESC LIMIT 1`).Scan(&lastID, &prev)
 	if err != nil && !errors.Is(err, sql.ErrNoRows) {
 		return err

@@ -57,7 +57,7 @@ func mustOpen(t testing.TB, now func() time.Time) (*DB, string) {
 // rawDB opens path with plain SQL, as someone editing the file by hand would.
 func rawDB(t testing.TB, path string) *sql.DB {
 	t.Helper()
-	r, err := sql.Open("sqlite3", dsn(path))
+	r, err := sql.Open("sqlite3", path) // no pragmas: foreign keys off, as in the sqlite3 shell
 	if err != nil {
 		t.Fatal(err)
 	}

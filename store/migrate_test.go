@@ -1,0 +1,176 @@
+package store
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"path/filepath"
+	"strings"
+	"sync"
+	"testing"
+)
+
+// logAsVersion logs q the way a binary of schema version v did: the search
+// index exists from version 2 on.
+func logAsVersion(t *testing.T, db *DB, q *Query, v int) {
+	t.Helper()
+	ctx := context.Background()
+	q.Time = db.now()
+	r, err := encodeQuery(q)
+	if err != nil {
+		t.Fatal(err)
+	}
+	tx, err := db.w.BeginTx(ctx, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer tx.Rollback()
+	if err := appendRow(ctx, tx, r, ""); err != nil {
+		t.Fatal(err)
+	}
+	if err := insertHazards(ctx, tx, r.ID, q.Hazards); err != nil {
+		t.Fatal(err)
+	}
+	if v >= 2 {
+		if err := indexRow(ctx, tx, r.ID); err != nil {
+			t.Fatal(err)
+		}
+	}
+	if err := tx.Commit(); err != nil {
+		t.Fatal(err)
+	}
+}
+
+func TestMigrateFromEmpty(t *testing.T) {
+	db, path := mustOpen(t, nil)
+	ctx := context.Background()
+	v, err := db.Version(ctx)
+	if err != nil || v != SchemaVersion() || v < 3 {
+		t.Fatalf("Version = %d, %v; want %d", v, err, SchemaVersion())
+	}
+	for _, table := range []string{"queries", "query_hazards", "deliveries", "query_fts", "stream_changes", "digests", "schema_version"} {
+		var n int
+		if err := rawDB(t, path).QueryRow(`SELECT count(*) FROM sqlite_master WHERE name = ?`, table).Scan(&n); err != nil || n != 1 {
+			t.Errorf("table %s: count %d, %v", table, n, err)
+		}
+	}
+	// Reopening applies nothing twice.
+	db.Close()
+	db2, err := Open(ctx, path, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer db2.Close()
+	var rows int
+	rawDB(t, path).QueryRow(`SELECT count(*) FROM schema_version`).Scan(&rows)
+	if rows != SchemaVersion() {
+		t.Errorf("schema_version has %d rows after reopening, want %d", rows, SchemaVersion())
+	}
+}
+
+func TestMigrateFromEachOlderVersion(t *testing.T) {
+	ctx := context.Background()
+	for v := 1; v < SchemaVersion(); v++ {
+		t.Run(migrations[v-1].name, func(t *testing.T) {
+			c := newClock(t0)
+			path := filepath.Join(t.TempDir(), "old.db")
+			old, err := openAt(ctx, path, Options{Now: c.Now}, v)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if got, _ := old.Version(ctx); got != v {
+				t.Fatalf("old file at version %d, want %d", got, v)
+			}
+			q := demoQuery()
+			q.Request = "mix 20 L CuSO4 0.5 M + 2 kg Zn"
+			logAsVersion(t, old, q, v)
+			old.Close()
+
+			db, err := Open(ctx, path, Options{Now: c.Now})
+			if err != nil {
+				t.Fatalf("Open upgraded file: %v", err)
+			}
+			defer db.Close()
+			if got, _ := db.Version(ctx); got != SchemaVersion() {
+				t.Errorf("Version after upgrade = %d, want %d", got, SchemaVersion())
+			}
+			mustLog(t, db, demoQuery())
+			rep, err := db.Verify(ctx)
+			if err != nil || !rep.OK || rep.Queries != 2 {
+				t.Errorf("Verify after upgrade = %+v, %v", rep, err)
+			}
+			// Rows logged before the search index existed are found.
+			page, err := db.Search(ctx, SearchOptions{Terms: "CuSO4"})
+			if err != nil || len(page.Queries) != 1 || page.Queries[0].ID != 1 {
+				t.Errorf("Search(CuSO4) after upgrade = %+v, %v; want row 1", page.Queries, err)
+			}
+			page, err = db.Search(ctx, SearchOptions{Terms: "chlorine gas"})
+			if err != nil || len(page.Queries) != 2 {
+				t.Errorf("Search(hazard message) after upgrade = %d rows, %v; want 2", len(page.Queries), err)
+			}
+			if err := db.SetStream(ctx, "T-101", "200 L NaOCl 12.5 %", "", "op.north"); err != nil {
+				t.Errorf("SetStream after upgrade: %v", err)
+			}
+		})
+	}
+}
+
+func TestNewerSchemaRefused(t *testing.T) {
+	ctx := context.Background()
+	db, path := mustOpen(t, nil)
+	db.Close()
+	if _, err := rawDB(t, path).Exec(`INSERT INTO schema_version (version, name, applied_at) VALUES (?, '9999_future', '')`, SchemaVersion()+1); err != nil {
+		t.Fatal(err)
+	}
+	_, err := Open(ctx, path, Options{})
+	if !errors.Is(err, ErrSchemaTooNew) {
+		t.Fatalf("Open(newer file) = %v, want ErrSchemaTooNew", err)
+	}
+	for _, want := range []string{fmt.Sprintf("schema version %d", SchemaVersion()+1), fmt.Sprintf("knows up to %d", SchemaVersion()), "newer one"} {
+		if !strings.Contains(err.Error(), want) {
+			t.Errorf("error %q does not say %q", err, want)
+		}
+	}
+	if _, err := VerifyFile(ctx, path); !errors.Is(err, ErrSchemaTooNew) {
+		t.Errorf("VerifyFile(newer file) = %v, want ErrSchemaTooNew", err)
+	}
+}
+
+func TestConcurrentOpenOfNewFile(t *testing.T) {
+	path := filepath.Join(t.TempDir(), "race.db")
+	var wg sync.WaitGroup
+	errs := make([]error, 4)
+	for i := range errs {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			db, err := Open(context.Background(), path, Options{})
+			if err == nil {
+				_, err = db.LogQuery(context.Background(), demoQuery())
+				db.Close()
+			}
+			errs[i] = err
+		}()
+	}
+	wg.Wait()
+	for i, err := range errs {
+		if err != nil {
+			t.Errorf("opener %d: %v", i, err)
+		}
+	}
+	rep, err := VerifyFile(context.Background(), path)
+	if err != nil || !rep.OK || rep.Queries != 4 {
+		t.Errorf("VerifyFile = %+v, %v", rep, err)
+	}
+}
+
+func TestMigrationFilesNumbered(t *testing.T) {
+	for i, m := range migrations {
+		if m.version != i+1 || !strings.HasPrefix(m.name, "000") {
+			t.Errorf("migration %d = %+v", i, m)
+		}
+		if strings.TrimSpace(m.sql) == "" {
+			t.Errorf("migration %s is empty", m.name)
+		}
+	}
+}
