@@ -79,7 +79,7 @@ func TestVerifyDetectsEdits(t *testing.T) {
 				// Edit row 3 and recompute its own hash: only the link from
 				// row 4 can tell.
 				var r row
-				if err := raw.QueryRow(`SELECT `+rowColumns+` FROM queries WHERE id = 3`).Scan(r.scanDest()...); err != nil {
+				if err := raw.QueryRow(`SELECT ` + rowColumns + ` FROM queries WHERE id = 3`).Scan(r.scanDest()...); err != nil {
 					t.Fatal(err)
 				}
 				r.Request = "mix water + water"

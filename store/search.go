@@ -177,7 +177,7 @@ func idRange(ctx context.Context, tx *sql.Tx, since, until time.Time) (lo, hi in
 // Phrases splits search terms into phrases of words. Whitespace separates
 // phrases except inside double quotes (an unclosed quote runs to the end).
 // Within a phrase every character that is not a letter, digit or mark
-// separates words and is dropped, so the words hold nothing the FTS query
+// (or a combining mark that follows no letter) separates words and is dropped, so the words hold nothing the FTS query
 // language could read as an operator. Words are lower-cased.
 func Phrases(terms string) []string {
 	var out []string
@@ -204,7 +204,9 @@ func Phrases(terms string) []string {
 			inQuote = !inQuote
 		case unicode.IsSpace(c) && !inQuote:
 			flushPhrase()
-		case unicode.IsLetter(c) || unicode.IsDigit(c) || unicode.IsNumber(c) || unicode.Is(unicode.Mn, c):
+		case unicode.IsLetter(c) || unicode.IsNumber(c):
+			word.WriteRune(c)
+		case unicode.Is(unicode.Mn, c) && word.Len() > 0: // an accent on the letter before
 			word.WriteRune(c)
 		default:
 			flushWord()
