@@ -7,6 +7,8 @@ import (
 	"strings"
 	"sync"
 	"time"
+
+	"github.com/slack-go/slack"
 )
 
 // GroupLister lists the members of a Slack user group (usergroups.users.list).
@@ -125,4 +127,16 @@ func (a *Access) members(ctx context.Context, group string) []string {
 	a.cache[group] = groupEntry{members: m, at: now()}
 	a.mu.Unlock()
 	return m
+}
+
+// SlackGroups lists user-group members with usergroups.users.list.
+type SlackGroups struct {
+	API interface {
+		GetUserGroupMembersContext(ctx context.Context, group string, options ...slack.GetUserGroupMembersOption) ([]string, error)
+	}
+}
+
+// GroupMembers implements GroupLister.
+func (g SlackGroups) GroupMembers(ctx context.Context, group string) ([]string, error) {
+	return g.API.GetUserGroupMembersContext(ctx, group)
 }

@@ -233,13 +233,14 @@ func (b *Bot) digest(ctx context.Context, in Incoming, hours int) Reply {
 	if b.Digests == nil {
 		return Reply{Kind: KindDigest, Text: "Digests are not available here."}
 	}
-	until := b.now()
-	since := until.Add(-12 * time.Hour)
+	now := b.now()
+	until := now.Add(time.Nanosecond) // "so far" includes this instant
+	since := now.Add(-12 * time.Hour)
 	switch {
 	case hours > 0:
-		since = until.Add(-time.Duration(hours) * time.Hour)
+		since = now.Add(-time.Duration(hours) * time.Hour)
 	case b.ShiftStart != nil:
-		if t := b.ShiftStart(until); t.Before(until) {
+		if t := b.ShiftStart(now); t.Before(until) {
 			since = t
 		}
 	}
