@@ -55,6 +55,7 @@ type FlaggedMix struct {
 	UserName string    `json:"user_name"`
 	Channel  string    `json:"channel"`
 	Request  string    `json:"request"`
+	Resolved string    `json:"resolved"` // request after stream-tag substitution ("" when none)
 	Hazards  []Hazard  `json:"hazards"`
 }
 
@@ -152,7 +153,7 @@ func digestAskers(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi str
 }
 
 func digestFlagged(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi string) error {
-	rows, err := tx.QueryContext(ctx, `SELECT q.id, q.time, q.user_id, q.user_name, q.channel, q.request,
+	rows, err := tx.QueryContext(ctx, `SELECT q.id, q.time, q.user_id, q.user_name, q.channel, q.request, q.resolved,
 		       h.code, h.severity, h.message
 		  FROM queries q JOIN query_hazards h ON h.query_id = q.id
 		 WHERE `+window+` AND q.verdict = 'spontaneous' AND h.severity IN ('danger', 'warning')
@@ -165,7 +166,7 @@ func digestFlagged(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi st
 		var f FlaggedMix
 		var ts string
 		var h Hazard
-		if err := rows.Scan(&f.ID, &ts, &f.UserID, &f.UserName, &f.Channel, &f.Request, &h.Code, &h.Severity, &h.Message); err != nil {
+		if err := rows.Scan(&f.ID, &ts, &f.UserID, &f.UserName, &f.Channel, &f.Request, &f.Resolved, &h.Code, &h.Severity, &h.Message); err != nil {
 			return err
 		}
 		if n := len(d.Flagged); n > 0 && d.Flagged[n-1].ID == f.ID {
@@ -315,12 +316,23 @@ func (d *Digest) Text() string {
 		tw = tabwriter.NewWriter(&b, 0, 4, 2, ' ', 0)
 		fmt.Fprintln(tw, "  TIME\tID\tWHO\tREQUEST\tHAZARD")
 		for _, f := range d.Flagged {
-			for i, h := range f.Hazards {
+			req := []string{shorten(f.Request, maxTextRequest)}
+			if f.Resolved != "" && f.Resolved != f.Request {
+				req = append(req, "= "+shorten(f.Resolved, maxTextRequest-2))
+			}
+			for i := 0; i < max(len(req), len(f.Hazards)); i++ {
+				var r, hz string
+				if i < len(req) {
+					r = req[i]
+				}
+				if i < len(f.Hazards) {
+					h := f.Hazards[i]
+					hz = fmt.Sprintf("%s %s: %s", h.Severity, h.Code, h.Message)
+				}
 				if i == 0 {
-					fmt.Fprintf(tw, "  %s\t%d\t%s\t%s\t%s %s: %s\n", at(f.Time), f.ID, who(f.UserName, f.UserID),
-						shorten(f.Request, maxTextRequest), h.Severity, h.Code, h.Message)
+					fmt.Fprintf(tw, "  %s\t%d\t%s\t%s\t%s\n", at(f.Time), f.ID, who(f.UserName, f.UserID), r, hz)
 				} else {
-					fmt.Fprintf(tw, "  \t\t\t\t%s %s: %s\n", h.Severity, h.Code, h.Message)
+					fmt.Fprintf(tw, "  \t\t\t%s\t%s\n", r, hz)
 				}
 			}
 		}
