@@ -66,12 +66,14 @@ func ParseFormula(f string) (Atoms, error) {
 // multipliers cannot overflow.
 const maxAtoms = 1_000_000
 
+// atoiSafe reads decimal digits; a number above maxAtoms reads as
+// maxAtoms+1, which the callers reject.
 func atoiSafe(s string) int {
 	n := 0
 	for _, c := range s {
 		n = n*10 + int(c-'0')
-		if n > 1_000_000 {
-			return 1_000_000
+		if n > maxAtoms {
+			return maxAtoms + 1
 		}
 	}
 	return n

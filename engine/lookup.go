@@ -1,0 +1,202 @@
+package engine
+
+import (
+	"fmt"
+	"sort"
+	"strings"
+)
+
+// Lookup finds a chemical by what an operator typed: first its formula
+// exactly (case matters, so Co is cobalt and CO carbon monoxide; a hydrate
+// may be written with ., · or *), then one of its names or synonyms, ignoring
+// case and extra spaces, and last its formula ignoring case when that is
+// unambiguous (naocl). It returns false when nothing matches.
+func (t *Tables) Lookup(name string) (*Chemical, bool) {
+	q := strings.TrimSpace(name)
+	if q == "" {
+		return nil, false
+	}
+	f := hydrateDots(q)
+	for _, c := range t.Chemicals {
+		if c.Formula == f {
+			return c, true
+		}
+	}
+	n := normName(q)
+	for _, c := range t.Chemicals {
+		for _, cn := range c.Names {
+			if cn == n {
+				return c, true
+			}
+		}
+	}
+	var found *Chemical
+	for _, c := range t.Chemicals {
+		if strings.EqualFold(c.Formula, f) {
+			if found != nil {
+				return nil, false
+			}
+			found = c
+		}
+	}
+	return found, found != nil
+}
+
+// hydrateDots writes the hydrate separators · and * as the tables do, with a
+// full stop.
+func hydrateDots(s string) string {
+	if !strings.ContainsAny(s, "·*") {
+		return s
+	}
+	return strings.NewReplacer("·", ".", "*", ".").Replace(s)
+}
+
+// normName is a chemical name as the tables store it: lower case, single
+// spaces, straight apostrophes.
+func normName(s string) string {
+	s = strings.ToLower(strings.ReplaceAll(s, "’", "'"))
+	return strings.Join(strings.Fields(s), " ")
+}
+
+// Suggest returns up to n names or formulas close to word, for a "did you
+// mean" reply: the closest first, ties in alphabetical order, at most one per
+// chemical. Closeness is the optimal-string-alignment (Damerau–Levenshtein)
+// distance, ignoring case, to a whole name or formula, or one more than the
+// distance to one word of a name of several words. Words of up to 3
+// characters allow 1 edit, up to 6 characters 2, longer ones 3. The result
+// is empty when nothing is that close.
+func (t *Tables) Suggest(word string, n int) []string {
+	w := normName(word)
+	if w == "" || n <= 0 {
+		return nil
+	}
+	wr := []rune(w)
+	limit := 3
+	switch {
+	case len(wr) <= 3:
+		limit = 1
+	case len(wr) <= 6:
+		limit = 2
+	}
+	type cand struct {
+		text string
+		d    int
+	}
+	var cands []cand
+	multi := strings.Contains(w, " ")
+	for _, c := range t.Chemicals {
+		best := cand{d: limit + 1}
+		try := func(text string) {
+			lt := normName(text)
+			d := boundedOSA(wr, []rune(lt), best.d)
+			if !multi && strings.Contains(lt, " ") {
+				for _, tok := range strings.Fields(lt) {
+					if td := boundedOSA(wr, []rune(tok), best.d-1); td+1 < d {
+						d = td + 1
+					}
+				}
+			}
+			if d < best.d || d == best.d && text < best.text {
+				best = cand{text, d}
+			}
+		}
+		try(c.Formula)
+		for _, name := range c.Names {
+			try(name)
+		}
+		if best.d <= limit {
+			cands = append(cands, best)
+		}
+	}
+	sort.Slice(cands, func(i, j int) bool {
+		if cands[i].d != cands[j].d {
+			return cands[i].d < cands[j].d
+		}
+		return cands[i].text < cands[j].text
+	})
+	if len(cands) > n {
+		cands = cands[:n]
+	}
+	out := make([]string, len(cands))
+	for i, c := range cands {
+		out[i] = c.text
+	}
+	return out
+}
+
+// boundedOSA is the optimal-string-alignment distance between a and b (edits
+// are insertion, deletion, substitution and transposition of neighbours). It
+// returns max+1 early when the distance is certainly above max.
+func boundedOSA(a, b []rune, max int) int {
+	if max < 0 {
+		return max + 1
+	}
+	if d := len(a) - len(b); d > max || -d > max {
+		return max + 1
+	}
+	prev2 := make([]int, len(b)+1)
+	prev := make([]int, len(b)+1)
+	cur := make([]int, len(b)+1)
+	for j := range prev {
+		prev[j] = j
+	}
+	for i := 1; i <= len(a); i++ {
+		cur[0] = i
+		rowMin := cur[0]
+		for j := 1; j <= len(b); j++ {
+			cost := 1
+			if a[i-1] == b[j-1] {
+				cost = 0
+			}
+			v := min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
+			if i > 1 && j > 1 && a[i-1] == b[j-2] && a[i-2] == b[j-1] {
+				v = min(v, prev2[j-2]+1)
+			}
+			cur[j] = v
+			rowMin = min(rowMin, v)
+		}
+		if rowMin > max {
+			return max + 1
+		}
+		prev2, prev, cur = prev, cur, prev2
+	}
+	if prev[len(b)] > max {
+		return max + 1
+	}
+	return prev[len(b)]
+}
+
+// MolarMass is the molar mass of a formula in g/mol from the standard atomic
+// weights of elements.txt. It fails for a formula that does not parse or that
+// names an element the table lacks.
+func (t *Tables) MolarMass(formula string) (float64, error) {
+	a, err := ParseFormula(hydrateDots(strings.TrimSpace(formula)))
+	if err != nil {
+		return 0, err
+	}
+	els := sortedElements(a)
+	for _, el := range els {
+		if _, ok := t.Atomic[el]; !ok {
+			return 0, fmt.Errorf("formula %q: element %q has no atomic weight in %s%s", formula, el, tableDir, ElementsFile)
+		}
+	}
+	return massOf(a, t.Atomic), nil
+}
+
+// Density is the density in g/mL at 20 °C of an aqueous solution of formula
+// at percentWW % w/w, interpolated linearly between the rows of
+// densities.txt. It returns false for a formula without a density table and
+// for a concentration outside the table's range.
+func (t *Tables) Density(formula string, percentWW float64) (gPerML float64, ok bool) {
+	pts := t.Densities[formula]
+	if len(pts) == 0 || !(percentWW >= pts[0].PercentWW) || !(percentWW <= pts[len(pts)-1].PercentWW) {
+		return 0, false
+	}
+	i := sort.Search(len(pts), func(i int) bool { return pts[i].PercentWW >= percentWW })
+	if pts[i].PercentWW == percentWW {
+		return pts[i].GPerML, true
+	}
+	a, b := pts[i-1], pts[i]
+	f := (percentWW - a.PercentWW) / (b.PercentWW - a.PercentWW)
+	return a.GPerML + f*(b.GPerML-a.GPerML), true
+}
