@@ -6,6 +6,7 @@ import (
 	"errors"
 	"fmt"
 	"log/slog"
+	"strings"
 	"sync"
 	"time"
 
@@ -75,6 +76,10 @@ func NewScheduler(db *DB, spec string, loc *time.Location, pub Publisher, now fu
 // ParseShifts parses a shift-change spec (standard 5-field cron, optionally
 // with CRON_TZ=Area/City, or a descriptor such as @daily).
 func ParseShifts(spec string) (cron.Schedule, error) {
+	if strings.Contains(spec, "@every") {
+		return nil, fmt.Errorf("shift changes %q: %w: @every has no fixed clock times; give times such as %q",
+			spec, ErrInvalid, DefaultShifts)
+	}
 	s, err := cron.ParseStandard(spec)
 	if err != nil {
 		return nil, fmt.Errorf("shift changes %q: %w: %v (want 5 cron fields, e.g. %q)", spec, ErrInvalid, err, DefaultShifts)
