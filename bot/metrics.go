@@ -111,7 +111,8 @@ func (m *Metrics) observeReply(d time.Duration) {
 	}
 }
 
-func (m *Metrics) setDepth(n int) {
+// QueueDepth sets the queue-depth gauge; hand it to NewQueue.
+func (m *Metrics) QueueDepth(n int) {
 	if m != nil {
 		m.depth.Set(float64(n))
 	}

@@ -1,0 +1,446 @@
+package main
+
+import (
+	"bytes"
+	"context"
+	"errors"
+	"flag"
+	"fmt"
+	"io"
+	"log/slog"
+	"net"
+	"net/http"
+	"strconv"
+	"strings"
+	"sync"
+	"time"
+	_ "time/tzdata" // MIXWARD_TZ works in minimal images
+
+	"github.com/slack-go/slack"
+	"github.com/slack-go/slack/socketmode"
+	"golang.org/x/time/rate"
+
+	"mixward/bot"
+	"mixward/engine"
+	"mixward/engine/eph"
+	"mixward/store"
+)
+
+// siteFlags are the settings the console and the bot share.
+type siteFlags struct {
+	db     string
+	tz     string
+	shifts string
+}
+
+func (s *siteFlags) register(fs *flag.FlagSet, getenv func(string) string) {
+	fs.StringVar(&s.db, "db", envOr(getenv, "MIXWARD_DB", "mixward.db"), "SQLite query log and stream catalogue (env MIXWARD_DB)")
+	fs.StringVar(&s.tz, "tz", getenv("MIXWARD_TZ"), "site time zone for digests and dates, e.g. Europe/London; empty means the machine's (env MIXWARD_TZ)")
+	fs.StringVar(&s.shifts, "shifts", envOr(getenv, "MIXWARD_SHIFTS", store.DefaultShifts), "shift changes as a 5-field cron spec in the site zone; a digest is made at each (env MIXWARD_SHIFTS)")
+}
+
+// location reads --tz.
+func (s *siteFlags) location() (*time.Location, error) {
+	if s.tz == "" {
+		return time.Local, nil
+	}
+	loc, err := time.LoadLocation(s.tz)
+	if err != nil {
+		return nil, &exitError{exitUsage, fmt.Errorf("--tz %q: %v (use an IANA zone such as Europe/London, or UTC)", s.tz, err)}
+	}
+	return loc, nil
+}
+
+// site is what both front ends open: engine, store, clock and zone.
+type site struct {
+	eng    *engine.Engine
+	db     *store.DB
+	loc    *time.Location
+	shifts string
+}
+
+func openSite(ctx context.Context, s siteFlags) (*site, error) {
+	loc, err := s.location()
+	if err != nil {
+		return nil, err
+	}
+	if _, err := store.ParseShifts(s.shifts); err != nil {
+		return nil, &exitError{exitUsage, fmt.Errorf("--shifts: %w", err)}
+	}
+	eng, err := loadEngine()
+	if err != nil {
+		return nil, err
+	}
+	db, err := store.Open(ctx, s.db, store.Options{Location: loc})
+	if err != nil {
+		return nil, err
+	}
+	return &site{eng: eng, db: db, loc: loc, shifts: s.shifts}, nil
+}
+
+// newBot wires the transport-independent bot to the site.
+func (st *site) newBot(logger *slog.Logger, metrics *bot.Metrics, access *bot.Access) *bot.Bot {
+	sched, _ := store.ParseShifts(st.shifts)
+	return &bot.Bot{
+		Engine:      st.eng,
+		CheckStream: func(text string) error { return checkStream(st.eng, text) },
+		Log:         st.db,
+		Catalogue:   st.db,
+		Searcher:    st.db,
+		Digests:     st.db,
+		Access:      access,
+		Location:    st.loc,
+		ShiftStart: func(now time.Time) time.Time {
+			_, until, err := store.LastShift(sched, st.loc, now)
+			if err != nil {
+				return now.Add(-12 * time.Hour)
+			}
+			return until
+		},
+		Logger:        logger,
+		Metrics:       metrics,
+		EngineVersion: engine.Version,
+		DataHash:      st.eng.Tables.Hash,
+	}
+}
+
+// checkStream accepts text for the catalogue if it reads as exactly one
+// stream of a mix request, without request-wide conditions.
+func checkStream(eng *engine.Engine, text string) error {
+	req, err := engine.ParseRequest(text, eng.Tables, nil)
+	if err != nil {
+		return err
+	}
+	if len(req.Streams) != 1 {
+		return fmt.Errorf("it holds %d streams; a tag names one stream (leave out \"+\")", len(req.Streams))
+	}
+	if req.TempStated || req.PH != nil || req.PressureKPa != engine.StandardPressureKPa {
+		return errors.New(`conditions ("at 40 C", "at pH 3") belong in the mix request, not in the stream`)
+	}
+	return nil
+}
+
+// curver is the engine's source of the two E–pH curves of a result, once
+// it has one.
+type curver interface {
+	Curves(r *engine.Result) (ox, red eph.Curve, ok bool)
+}
+
+// ephPlotter draws the E–pH picture of an answer.
+type ephPlotter struct{ c curver }
+
+func (p ephPlotter) Plot(r *engine.Result) ([]byte, bool, error) {
+	ox, red, ok := p.c.Curves(r)
+	if !ok {
+		return nil, false, nil
+	}
+	var buf bytes.Buffer
+	if err := eph.Draw(&buf, ox, red, r.Conditions.PH, truncateRunes(r.Request, 80)); err != nil {
+		return nil, false, err
+	}
+	return buf.Bytes(), true, nil
+}
+
+func truncateRunes(s string, n int) string {
+	r := []rune(s)
+	if len(r) <= n {
+		return s
+	}
+	return string(r[:n-1]) + "…"
+}
+
+// plotterFor returns the E–pH plotter when the engine can give curves.
+func plotterFor(eng *engine.Engine) bot.Plotter {
+	if c, ok := any(eng).(curver); ok {
+		return ephPlotter{c}
+	}
+	return nil
+}
+
+// newLogger makes the structured log on stderr.
+func newLogger(w io.Writer, level, format string) (*slog.Logger, error) {
+	var lv slog.Level
+	if err := lv.UnmarshalText([]byte(level)); err != nil {
+		return nil, &exitError{exitUsage, fmt.Errorf("--log-level %q: use debug, info, warn or error", level)}
+	}
+	opts := &slog.HandlerOptions{Level: lv}
+	switch format {
+	case "json":
+		return slog.New(slog.NewJSONHandler(w, opts)), nil
+	case "text":
+		return slog.New(slog.NewTextHandler(w, opts)), nil
+	}
+	return nil, &exitError{exitUsage, fmt.Errorf("--log-format %q: use json or text", format)}
+}
+
+// syncWriter serialises writes from several goroutines.
+type syncWriter struct {
+	mu sync.Mutex
+	w  io.Writer
+}
+
+func (s *syncWriter) Write(p []byte) (int, error) {
+	s.mu.Lock()
+	defer s.mu.Unlock()
+	return s.w.Write(p)
+}
+
+// serveConfig is everything `mixward serve` is told.
+type serveConfig struct {
+	site          siteFlags
+	httpAddr      string
+	adminAddr     string
+	supervisors   string
+	reviewers     string
+	digestChannel string
+	apiURL        string
+	postRate      float64
+	postBurst     int
+	queueSize     int
+	drainTimeout  time.Duration
+	logLevel      string
+	logFormat     string
+
+	// secrets: from the environment only
+	appToken      string
+	botToken      string
+	signingSecret string
+}
+
+func envFloat(getenv func(string) string, key string, def float64) float64 {
+	if v, err := strconv.ParseFloat(getenv(key), 64); err == nil {
+		return v
+	}
+	return def
+}
+
+func envInt(getenv func(string) string, key string, def int) int {
+	if v, err := strconv.Atoi(getenv(key)); err == nil {
+		return v
+	}
+	return def
+}
+
+func envDuration(getenv func(string) string, key string, def time.Duration) time.Duration {
+	if v, err := time.ParseDuration(getenv(key)); err == nil {
+		return v
+	}
+	return def
+}
+
+func (a *app) cmdServe(ctx context.Context, args []string) error {
+	fs := a.newFlags("serve", "serve [--http ADDR] [--admin-addr ADDR] [flags]\n\n"+
+		"Runs the Slack bot: Socket Mode when SLACK_APP_TOKEN is set, the HTTP Events API and /mixward\n"+
+		"slash command on --http (POST /slack/events, POST /slack/commands) with SLACK_SIGNING_SECRET.\n"+
+		"Both need SLACK_BOT_TOKEN. Tokens and the signing secret are read from the environment only.")
+	var c serveConfig
+	g := a.getenv
+	c.site.register(fs, g)
+	fs.StringVar(&c.httpAddr, "http", g("MIXWARD_HTTP_ADDR"), "serve the Events API and slash command on this address, e.g. :8080 (env MIXWARD_HTTP_ADDR)")
+	fs.StringVar(&c.adminAddr, "admin-addr", g("MIXWARD_ADMIN_ADDR"), "serve /healthz and /metrics on this address, e.g. 127.0.0.1:9464; empty: off (env MIXWARD_ADMIN_ADDR)")
+	fs.StringVar(&c.supervisors, "supervisors", g("MIXWARD_SUPERVISORS"), "who may change the stream catalogue: comma list of Slack user ids (U…) and user-group ids (S…) (env MIXWARD_SUPERVISORS)")
+	fs.StringVar(&c.reviewers, "reviewers", g("MIXWARD_REVIEWERS"), "who may search the query log: comma list of user and user-group ids (env MIXWARD_REVIEWERS)")
+	fs.StringVar(&c.digestChannel, "digest-channel", g("MIXWARD_DIGEST_CHANNEL"), "channel id the shift digests are posted to; empty: no digests (env MIXWARD_DIGEST_CHANNEL)")
+	fs.StringVar(&c.apiURL, "slack-api-url", envOr(g, "MIXWARD_SLACK_API_URL", slack.APIURL), "Slack Web API base URL, for on-site proxies and tests (env MIXWARD_SLACK_API_URL)")
+	fs.Float64Var(&c.postRate, "post-rate", envFloat(g, "MIXWARD_POST_RATE", 1), "messages per second per channel (env MIXWARD_POST_RATE)")
+	fs.IntVar(&c.postBurst, "post-burst", envInt(g, "MIXWARD_POST_BURST", 3), "messages a channel may take at once before the rate applies (env MIXWARD_POST_BURST)")
+	fs.IntVar(&c.queueSize, "queue-size", envInt(g, "MIXWARD_QUEUE_SIZE", 2048), "messages held at once; beyond it intake waits (env MIXWARD_QUEUE_SIZE)")
+	fs.DurationVar(&c.drainTimeout, "drain-timeout", envDuration(g, "MIXWARD_DRAIN_TIMEOUT", 30*time.Second), "on SIGTERM, how long to finish queued answers (env MIXWARD_DRAIN_TIMEOUT)")
+	fs.StringVar(&c.logLevel, "log-level", envOr(g, "MIXWARD_LOG_LEVEL", "info"), "debug, info, warn or error (env MIXWARD_LOG_LEVEL)")
+	fs.StringVar(&c.logFormat, "log-format", envOr(g, "MIXWARD_LOG_FORMAT", "json"), "json or text (env MIXWARD_LOG_FORMAT)")
+	rest, err := parseFlags(fs, args)
+	if err != nil {
+		return err
+	}
+	if len(rest) > 0 {
+		return &exitError{exitUsage, fmt.Errorf("serve takes no arguments, got %q", strings.Join(rest, " "))}
+	}
+	c.appToken, c.botToken, c.signingSecret = g("SLACK_APP_TOKEN"), g("SLACK_BOT_TOKEN"), g("SLACK_SIGNING_SECRET")
+	if err := c.check(); err != nil {
+		return err
+	}
+	logger, err := newLogger(&syncWriter{w: a.stderr}, c.logLevel, c.logFormat)
+	if err != nil {
+		return err
+	}
+	return serve(ctx, c, logger)
+}
+
+// check reports a configuration that cannot work, before anything starts.
+func (c *serveConfig) check() error {
+	usage := func(format string, args ...any) error { return &exitError{exitUsage, fmt.Errorf(format, args...)} }
+	if c.botToken == "" {
+		return usage("SLACK_BOT_TOKEN is not set: the bot needs its xoxb- token to post answers (or run 'mixward console' for the local console)")
+	}
+	if c.httpAddr == "" && c.appToken == "" {
+		return usage("nothing to serve: set SLACK_APP_TOKEN for Socket Mode, or give --http ADDR with SLACK_SIGNING_SECRET for the Events API")
+	}
+	if c.httpAddr != "" && c.signingSecret == "" {
+		return usage("--http needs SLACK_SIGNING_SECRET: every request from Slack is checked against it")
+	}
+	if c.postRate <= 0 || c.postBurst < 1 {
+		return usage("--post-rate must be above 0 and --post-burst at least 1")
+	}
+	if c.queueSize < 1 {
+		return usage("--queue-size must be at least 1")
+	}
+	if !strings.HasSuffix(c.apiURL, "/") {
+		c.apiURL += "/"
+	}
+	return nil
+}
+
+// serve runs the bot until ctx ends, then drains.
+func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
+	st, err := openSite(ctx, c.site)
+	if err != nil {
+		return err
+	}
+	defer st.db.Close()
+
+	metrics := bot.NewMetrics()
+	health := &bot.Health{}
+	opts := []slack.Option{slack.OptionAPIURL(c.apiURL)}
+	if c.appToken != "" {
+		opts = append(opts, slack.OptionAppLevelToken(c.appToken))
+	}
+	api := slack.New(c.botToken, opts...)
+
+	botUser := ""
+	actx, cancel := context.WithTimeout(ctx, 5*time.Second)
+	if at, err := api.AuthTestContext(actx); err == nil {
+		botUser = at.UserID
+		logger.Info("slack identity", "user_id", at.UserID, "bot_id", at.BotID, "team", at.Team)
+	} else {
+		logger.Warn("auth.test failed; carrying on without knowing the bot's user id", "err", err)
+	}
+	cancel()
+
+	access := &bot.Access{
+		Supervisors: bot.ParseIDList(c.supervisors),
+		Reviewers:   bot.ParseIDList(c.reviewers),
+		Groups:      bot.SlackGroups{API: api},
+		Log:         logger,
+	}
+	b := st.newBot(logger, metrics, access)
+	queue := bot.NewQueue(c.queueSize, metrics.QueueDepth)
+	queue.OnPanic = func(key string, v any) { logger.Error("answer failed with a panic", "thread", key, "panic", v) }
+	sl := &bot.Slack{
+		Bot: b,
+		Poster: &bot.Poster{
+			API: api, Rate: rate.Limit(c.postRate), Burst: c.postBurst, Metrics: metrics, Log: logger,
+		},
+		Queue:         queue,
+		Plot:          plotterFor(st.eng),
+		BotUserID:     botUser,
+		DigestChannel: c.digestChannel,
+		Health:        health,
+		Logger:        logger,
+		Metrics:       metrics,
+	}
+
+	runCtx, stopRun := context.WithCancel(ctx)
+	defer stopRun()
+	errc := make(chan error, 4)
+	var wg sync.WaitGroup
+
+	var admin *http.Server
+	if c.adminAddr != "" {
+		ln, err := net.Listen("tcp", c.adminAddr)
+		if err != nil {
+			return fmt.Errorf("--admin-addr %s: %w", c.adminAddr, err)
+		}
+		admin = &http.Server{Handler: bot.AdminHandler(metrics, health), ReadHeaderTimeout: 10 * time.Second}
+		logger.Info("admin listening", "addr", ln.Addr().String(), "paths", "/healthz /metrics")
+		wg.Go(func() {
+			if err := admin.Serve(ln); err != nil && !errors.Is(err, http.ErrServerClosed) {
+				errc <- fmt.Errorf("admin server: %w", err)
+			}
+		})
+	}
+
+	var events *http.Server
+	if c.httpAddr != "" {
+		ln, err := net.Listen("tcp", c.httpAddr)
+		if err != nil {
+			return fmt.Errorf("--http %s: %w", c.httpAddr, err)
+		}
+		events = &http.Server{
+			Handler:           sl.HTTPHandler(bot.NewVerifier(c.signingSecret, nil)),
+			ReadHeaderTimeout: 10 * time.Second,
+			ReadTimeout:       30 * time.Second,
+			WriteTimeout:      30 * time.Second,
+		}
+		logger.Info("events API listening", "addr", ln.Addr().String(), "paths", "POST /slack/events, POST /slack/commands")
+		wg.Go(func() {
+			if err := events.Serve(ln); err != nil && !errors.Is(err, http.ErrServerClosed) {
+				errc <- fmt.Errorf("events server: %w", err)
+			}
+		})
+	}
+
+	if c.appToken != "" {
+		sm := socketmode.New(api)
+		wg.Go(func() {
+			if err := sl.RunSocket(runCtx, sm); err != nil {
+				errc <- err
+			}
+		})
+	}
+
+	var sched *store.Scheduler
+	if c.digestChannel != "" {
+		sched, err = store.NewScheduler(st.db, c.site.shifts, st.loc, sl, nil)
+		if err != nil {
+			return &exitError{exitUsage, err}
+		}
+		sched.Log = logger
+		wg.Go(func() { _ = sched.Start(runCtx) })
+		logger.Info("digests scheduled", "channel", c.digestChannel, "shifts", c.site.shifts, "zone", st.loc.String(), "next", sched.Next())
+	} else {
+		logger.Info("no digest channel: scheduled digests are off (set MIXWARD_DIGEST_CHANNEL)")
+	}
+
+	health.SetReady(true)
+	logger.Info("mixward serving", "engine", engine.Version, "data", shortHash(st.eng.Tables.Hash),
+		"socket_mode", c.appToken != "", "http", c.httpAddr != "", "db", c.site.db)
+
+	var runErr error
+	select {
+	case <-ctx.Done():
+		logger.Info("shutting down: finishing queued answers", "queued", queue.Depth(), "drain_timeout", c.drainTimeout)
+	case runErr = <-errc:
+		logger.Error("stopping", "err", runErr)
+	}
+	health.SetReady(false)
+
+	// Stop intake first, then let the queue drain, then the rest.
+	shutdownCtx, cancelShutdown := context.WithTimeout(context.WithoutCancel(ctx), c.drainTimeout)
+	defer cancelShutdown()
+	if events != nil {
+		_ = events.Shutdown(shutdownCtx)
+	}
+	stopRun()
+	if err := queue.Close(shutdownCtx); err != nil {
+		logger.Error("drain timed out; unfinished answers are in the log without a delivery record", "err", err)
+	}
+	if admin != nil {
+		_ = admin.Shutdown(shutdownCtx)
+	}
+	wg.Wait()
+	if sched != nil {
+		sched.Stop() // Start has returned (wg), so its cron is set
+	}
+	logger.Info("mixward stopped")
+	if runErr != nil {
+		return runErr
+	}
+	return nil
+}
+
+func shortHash(h string) string {
+	if len(h) > 12 {
+		return h[:12]
+	}
+	return h
+}
