@@ -95,13 +95,15 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 		e.outcome(res, m, nil)
 		return res, nil
 	}
-	head := ps[0]
+	head := e.terminal(m, ps)
 	res.Oxidizer = head.ox.couple()
 	res.Reducer = head.red.couple()
 	res.Reaction = head.rx.out()
 	res.ECellStandard = ptr(roundDec(head.eCellStd, 4))
 	res.ECell = ptr(roundDec(head.eCell, 4))
 	res.Spontaneous = head.eCell > 0
+	res.Hindered = res.Spontaneous && head.eff <= 0
+
 	res.Verdict = NonSpontaneous
 	if res.Spontaneous {
 		res.Verdict = Spontaneous
@@ -116,8 +118,8 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 	}
 	// Allowances that moved the ranking: a thermodynamically stronger pair
 	// was passed over.
-	for _, p := range ps[1:] {
-		if p.eCell > head.eCell && (p.ox.allowance != nil || p.red.allowance != nil) && res.Allowance == nil {
+	for _, p := range ps {
+		if p != head && p.eCell > head.eCell && (p.ox.allowance != nil || p.red.allowance != nil) && res.Allowance == nil {
 			a := p.ox.allowance
 			if a == nil {
 				a = p.red.allowance
@@ -137,13 +139,18 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 		sp := Species{Formula: s.Formula, Charge: s.Charge, Phase: s.Phase}
 		s.Spectator = !inHead[sp.Ion()] && !sp.IsWater()
 	}
-	for _, p := range ps[1:] {
-		if p.eCell <= 0 || len(res.Alternatives) == 10 {
+	seen := map[string]bool{head.rx.key(): true}
+	for _, p := range ps {
+
+		if p.eCell <= 0 || len(res.Alternatives) == 10 || seen[p.rx.key()] {
 			continue
 		}
+		seen[p.rx.key()] = true
+
 		alt := Alternative{
 			Oxidizer: p.ox.couple(), Reducer: p.red.couple(), Reaction: p.rx.out(),
 			ECellStandard: roundDec(p.eCellStd, 4), ECell: roundDec(p.eCell, 4),
+			Hindered: p.eff <= 0,
 		}
 		switch {
 		case p.ox.allowance != nil:

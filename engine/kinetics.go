@@ -6,7 +6,8 @@ package engine
 type KineticRule struct {
 	ID      string
 	Side    Role     // the role it slows: oxidizer or reducer
-	Couple  string   // couple signature OX/RED the rule applies to, or ""
+	Couples []string // couple signatures OX/RED the rule applies to, or nil
+
 	Species []string // species (Species.Ion) the rule applies to, or nil
 	Volts   float64  // allowance in volts when ranking
 	When    string   // "always", or conditions on ph, t (°C) and conc (mol/L)

@@ -47,10 +47,13 @@ func loadKinetics(fsys fs.FS) ([]*KineticRule, error) {
 		kind, rest, _ := strings.Cut(f[2], " ")
 		switch kind {
 		case "couple":
-			r.Couple = strings.TrimSpace(rest)
-			if !strings.Contains(r.Couple, "/") {
-				bad("couple %q must be written OX/RED", r.Couple)
-				continue
+			for _, c := range strings.Split(rest, ",") {
+				c = strings.TrimSpace(c)
+				if !strings.Contains(c, "/") {
+					bad("couple %q must be written OX/RED", c)
+					continue
+				}
+				r.Couples = append(r.Couples, c)
 			}
 		case "species":
 			for _, s := range strings.Split(rest, ",") {
@@ -189,9 +192,16 @@ func (e *Engine) applyKinetics(m *mixture, s *side) {
 }
 
 func (r *KineticRule) matches(s *side) bool {
-	if r.Couple != "" {
-		return signature(s.row) == r.Couple
+	if len(r.Couples) > 0 {
+		sig := signature(s.row)
+		for _, c := range r.Couples {
+			if c == sig {
+				return true
+			}
+		}
+		return false
 	}
+
 	for _, sp := range r.Species {
 		if sp == s.main.Ion() {
 			return true

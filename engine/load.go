@@ -427,10 +427,14 @@ func (l *loader) acidBase(f []string, line int) {
 	diff, _ := ParseFormula(acid.Formula)
 	bb, _ := ParseFormula(base.Formula)
 	diff.Add(bb, -1)
-	if len(diff) != 1 || diff["H"] != 1 || acid.Charge-base.Charge != 1 {
-		l.fail("base", f[1], "must be %s less one H+ (atoms differ by %s, charge by %+d); fix the pair", acid.Ion(), atomDiffText(diff), acid.Charge-base.Charge)
+	// A hydrated metal ion loses H+ from a bound water (Fe^3+ + H2O =
+	// FeOH^2+ + H+): the base may then carry one H2O more than the acid.
+	hydrolysis := len(diff) == 2 && diff["O"] == -1 && diff["H"] == -1
+	if !hydrolysis && (len(diff) != 1 || diff["H"] != 1) || acid.Charge-base.Charge != 1 {
+		l.fail("base", f[1], "must be %s less one H+, or %s + H2O less one H+ (atoms differ by %s, charge by %+d); fix the pair", acid.Ion(), acid.Ion(), atomDiffText(diff), acid.Charge-base.Charge)
 		return
 	}
+
 	key := acid.Ion() + "|" + base.Ion()
 	if prev, dup := l.abPairs[key]; dup {
 		l.fail("acid", f[0], "the pair %s / %s is already listed at line %d", acid.Ion(), base.Ion(), prev)

@@ -12,6 +12,8 @@ type inMix struct {
 	sp     Species
 	mol    float64
 	excess bool // solid or solvent present in excess
+	minor  bool // a conjugate form under minorShare of its family
+
 }
 
 // mixture is the tank after the streams are combined, before any redox
@@ -86,7 +88,7 @@ func (m *mixture) has(s Species) bool {
 		return m.aqueous
 	}
 	p := m.get(s)
-	return p != nil && (p.mol > 0 || p.excess)
+	return p != nil && !p.minor && (p.mol > 0 || p.excess)
 }
 
 // pKw is the ionic product of water at temperature T, from its value at
@@ -452,10 +454,11 @@ func (m *mixture) distribute(t *Tables) {
 		}
 		buf = f.fractions(h, buf)
 		for j, s := range f.members {
-			if buf[j] < 0.01 {
+			if buf[j] < 1e-12 {
 				continue
 			}
 			m.add(s, total*buf[j], false)
+			m.get(s).minor = buf[j] < minorShare
 		}
 	}
 	// Drop emptied entries, keep order.
@@ -471,13 +474,21 @@ func (m *mixture) distribute(t *Tables) {
 	m.order = keep
 }
 
+// minorShare: a conjugate form under this share of its family is kept in
+// the books (its charge and amount count) but not listed, and does not act
+// as an oxidizer or reducer of its own; its main form does.
+const minorShare = 0.01
+
 // list returns the species in a stable order: as they entered the mix,
-// water last.
+// water last. Minor conjugate forms are left out.
 func (m *mixture) list() []*inMix {
 	out := make([]*inMix, 0, len(m.order))
 	var water *inMix
 	for _, k := range m.order {
 		p := m.species[k]
+		if p.minor {
+			continue
+		}
 		if p.sp.IsWater() {
 			water = p
 			continue

@@ -183,17 +183,31 @@ func (e *Engine) outcome(res *Result, m *mixture, head *pair) {
 	cur := m.clone()
 	if head != nil {
 		cases = append(cases, ReactionCase{Label: "headline", Reaction: res.Reaction, ECell: head.eCell})
+		// Kinetically hindered alternatives are listed, but their
+		// products are not what the tank gives off.
 		for i, a := range res.Alternatives {
-			cases = append(cases, ReactionCase{Label: fmt.Sprintf("alternative %d", i+1), Reaction: a.Reaction, ECell: a.ECell})
+			if !a.Hindered {
+				cases = append(cases, ReactionCase{Label: fmt.Sprintf("alternative %d", i+1), Reaction: a.Reaction, ECell: a.ECell})
+			}
 		}
+
 	}
 	p := head
-	for step := 0; p != nil && p.eCell > 0; step++ {
+	if head != nil && head.eCell > 0 && head.eff <= 0 {
+		res.Notes = append(res.Notes, "the headline reaction is spontaneous but kinetically hindered at these conditions, so it is not run to completion in the amounts")
+		p = nil
+	}
+	// A step runs only when it is spontaneous after the kinetic allowances
+	// too: a reaction known to be slow is not carried to completion.
+	for step := 0; p != nil && p.eCell > 0 && p.eff > 0; step++ {
 		xi, lim, ok := cur.extent(p.rx)
 		if !ok {
-			res.Notes = append(res.Notes, "no reactant of "+p.rx.text()+" runs out (excess solids, buffered pH): amounts are not bounded")
+			if step == 0 {
+				res.Notes = append(res.Notes, "no reactant of "+p.rx.text()+" runs out (excess solids, buffered pH): amounts are not bounded")
+			}
 			break
 		}
+
 		if xi <= 1e-12 {
 			break
 		}
@@ -221,7 +235,7 @@ func (e *Engine) outcome(res *Result, m *mixture, head *pair) {
 		ox, red := e.sides(cur)
 		next := e.pairs(cur, ox, red)
 		p = nil
-		if len(next) > 0 && next[0].eCell > 0 {
+		if len(next) > 0 && next[0].eCell > 0 && next[0].eff > 0 {
 			p = next[0]
 		}
 		if step == maxSteps && p != nil {
@@ -239,7 +253,17 @@ func (e *Engine) outcome(res *Result, m *mixture, head *pair) {
 		res.Gases = append(res.Gases, gr)
 	}
 	heat := EstimateHeat(HeatInput{Reactions: heatRx, NeutralisedMol: m.neutralised, MassKg: m.massKg}, e.Tables.Enthalpies)
+	roundPtr := func(p *float64, d int) {
+		if p != nil {
+			*p = roundDec(*p, d)
+		}
+	}
+	roundPtr(heat.DeltaHkJPerMol, 2)
+	roundPtr(heat.HeatReleasedkJ, 1)
+	roundPtr(heat.TemperatureRiseC, 2)
+	heat.NeutralisationkJ = roundDec(heat.NeutralisationkJ, 1)
 	res.Heat = &heat
+
 	if len(heat.Missing) > 0 {
 		res.Notes = append(res.Notes, "no heat estimate: no formation-enthalpy data for "+strings.Join(heat.Missing, ", "))
 	}

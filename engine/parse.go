@@ -533,7 +533,11 @@ func (p *parser) component() (Component, error) {
 		return c, nil
 	}
 	name := joinWords(words)
+	if len(words) == 1 && p.resolve != nil && looksLikeTag(name) && strings.Contains(name, "-") {
+		return Component{}, p.errAt(words[0], "unknown-tag", "%s is not in the site stream catalogue; list the tags with 'mixward streams list', or write the stream out (\"40 L HCl 10 %%\")", strings.ToUpper(name))
+	}
 	e := p.errAt(words[0], "unknown-chemical", "%q is not a chemical mixward knows", name)
+
 	e.Token = name
 	e.Suggestions = p.t.Suggest(name, 5)
 	if len(e.Suggestions) == 0 && len(words) > 1 {

@@ -54,14 +54,32 @@ func (e *Engine) sides(m *mixture) (ox, red []*side) {
 		return nil, nil
 	}
 	med := mediumOf(m.pH)
+	has := map[string]bool{} // role + species with a couple in the fitting medium
 	for i, h := range e.Tables.Half {
 		if h.Medium != Any && h.Medium != med {
 			continue
 		}
 		if s := e.makeSide(m, h, i, OxidizerRole, h.Reactants); s != nil {
 			ox = append(ox, s)
+			has["o"+s.main.Ion()] = true
 		}
 		if s := e.makeSide(m, h, i, ReducerRole, h.Products); s != nil {
+			red = append(red, s)
+			has["r"+s.main.Ion()] = true
+		}
+	}
+	// A species whose couples are all written for the other medium (HOCl
+	// in a mix at pH 7.8, say) still acts through them: the Nernst
+	// correction makes the potential right at the mix's pH, and combine
+	// rewrites H+ or OH- into the mix's medium.
+	for i, h := range e.Tables.Half {
+		if h.Medium == Any || h.Medium == med {
+			continue
+		}
+		if s := e.makeSide(m, h, i, OxidizerRole, h.Reactants); s != nil && !s.isWaterSide() && !has["o"+s.main.Ion()] {
+			ox = append(ox, s)
+		}
+		if s := e.makeSide(m, h, i, ReducerRole, h.Products); s != nil && !s.isWaterSide() && !has["r"+s.main.Ion()] {
 			red = append(red, s)
 		}
 	}
@@ -173,7 +191,9 @@ func combine(ox, red *HalfReaction, med Medium) (*netReaction, error) {
 	specs := map[string]Species{}
 	var order []string
 	addT := func(t Term, k int) {
-		key := t.Species.Key()
+		// Dissolved and gaseous forms of one molecule (Cl2, Cl2(g)) are one
+		// term; the first form met is kept.
+		key := mixKey(t.Species)
 		if _, ok := specs[key]; !ok {
 			specs[key] = t.Species
 			order = append(order, key)
@@ -198,18 +218,19 @@ func combine(ox, red *HalfReaction, med Medium) (*netReaction, error) {
 	// H+ and OH- on opposite sides make water; rewrite the one foreign to
 	// the medium.
 	if med == Acid {
-		if k := net[hydroxide.Key()]; k != 0 {
+		if k := net[mixKey(hydroxide)]; k != 0 {
 			addT(Term{Species: water}, k)
 			addT(Term{Species: proton}, -k)
-			net[hydroxide.Key()] = 0
+			net[mixKey(hydroxide)] = 0
 		}
 	} else {
-		if k := net[proton.Key()]; k != 0 {
+		if k := net[mixKey(proton)]; k != 0 {
 			addT(Term{Species: water}, k)
 			addT(Term{Species: hydroxide}, -k)
-			net[proton.Key()] = 0
+			net[mixKey(proton)] = 0
 		}
 	}
+
 	g := 0
 	for _, k := range order {
 		g = gcd(g, abs(net[k]))
@@ -262,7 +283,22 @@ func termsText(ts []Term) string {
 	return strings.Join(parts, " + ")
 }
 
+// key identifies the net reaction regardless of phases, so that one
+// reaction reached through different couples is listed once.
+func (rx *netReaction) key() string {
+	var b strings.Builder
+	for _, t := range rx.reactants {
+		fmt.Fprintf(&b, "%d %s ", t.Coef, t.Species.Ion())
+	}
+	b.WriteString("=")
+	for _, t := range rx.products {
+		fmt.Fprintf(&b, " %d %s", t.Coef, t.Species.Ion())
+	}
+	return b.String()
+}
+
 func (rx *netReaction) text() string {
+
 	return termsText(rx.reactants) + " → " + termsText(rx.products)
 }
 
@@ -310,3 +346,77 @@ func roundDec(x float64, d int) float64 {
 }
 
 func ptr(x float64) *float64 { return &x }
+
+// terminal re-picks the headline oxidizer couple so that its product is an
+// end product. When the oxidizer's first product would itself be reduced by
+// the same reducer (MnO4- to MnO2, which iron(II) takes on to Mn^2+), the
+// tank ends with the deeper product, so the headline uses the couple that
+// goes there directly when the table has it (MnO4-/Mn^2+). Gaseous
+// products count as end products: they leave the liquid.
+
+func (e *Engine) terminal(m *mixture, ps []*pair) *pair {
+	head := ps[0]
+	if head.eCell <= 0 {
+		return head
+	}
+	for _, p := range ps {
+		if p.ox.main.Ion() != head.ox.main.Ion() || p.red.row != head.red.row || p.eff <= 0 || p.eCell <= 0 {
+			continue
+		}
+		if !e.reducedFurther(m, p.ox, p.red) {
+			return p
+		}
+	}
+	return head
+}
+
+// reducedFurther reports whether a product of ox's couple would be reduced
+// by red, spontaneously and without a kinetic allowance against it.
+func (e *Engine) reducedFurther(m *mixture, ox, red *side) bool {
+	med := mediumOf(m.pH)
+	for _, prod := range ox.row.Products {
+		// A gas leaves the liquid before it can react on (common
+		// practice): NO from nitric acid, Cl2 from hypochlorite.
+		if isSolvent(prod.Species) || prod.Phase == Gas {
+			continue
+		}
+
+		for i, h := range e.Tables.Half {
+			if h == ox.row || h == red.row || (h.Medium != Any && h.Medium != med) {
+				continue
+			}
+			uses := false
+			ok := true
+			for _, r := range h.Reactants {
+				switch {
+				case isSolvent(r.Species):
+				case mixKey(r.Species) == mixKey(prod.Species):
+					uses = true
+				case !m.has(r.Species):
+					ok = false
+				}
+			}
+			if !uses || !ok || !e.firstOxidized(h, prod.Species) {
+				continue
+			}
+			s := &side{row: h, idx: i, role: OxidizerRole, main: prod.Species, e: m.potential(h)}
+			e.applyKinetics(m, s)
+			if s.effE()-red.effE() > 0 {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// firstOxidized reports whether sp is the species a couple reduces (its
+// first reactant other than water, H+ and OH-).
+func (e *Engine) firstOxidized(h *HalfReaction, sp Species) bool {
+	for _, r := range h.Reactants {
+		if isSolvent(r.Species) {
+			continue
+		}
+		return mixKey(r.Species) == mixKey(sp)
+	}
+	return false
+}

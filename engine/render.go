@@ -99,6 +99,10 @@ func Headline(r *Result) string {
 	switch r.Verdict {
 	case Spontaneous:
 		s := "SPONTANEOUS"
+		if r.Hindered {
+			s += " but kinetically slow"
+		}
+
 		if r.Reaction != nil {
 			s += " — " + r.Oxidizer.Species + " oxidizes " + r.Reducer.Species
 		}
@@ -179,4 +183,84 @@ func trimFloat(x float64, d int) string {
 	return s
 }
 
-func renderAmounts(b *strings.Builder, r *Result) {}
+func renderAmounts(b *strings.Builder, r *Result) {
+	w := func(format string, args ...any) { fmt.Fprintf(b, format, args...) }
+	if a := r.Amounts; a != nil && a.Limiting != nil {
+		w("\nAmounts (headline reaction):\n")
+		w("  limiting reagent %s, extent %s mol\n", *a.Limiting, sigText(a.ExtentMol))
+		w("  consumed: %s\n", amountsText(a.Consumed))
+		w("  formed:   %s\n", amountsText(a.Formed))
+	}
+	if len(r.Steps) > 0 {
+		w("\nFollow-on reactions on what is left:\n")
+		for i, s := range r.Steps {
+			w("  %d. %s (E cell %+.3f V)", i+2, s.Reaction.Text, *s.ECell)
+			if s.Amounts != nil && s.Amounts.Limiting != nil {
+				w(", limited by %s, extent %s mol", *s.Amounts.Limiting, sigText(s.Amounts.ExtentMol))
+			}
+			w("\n")
+		}
+	}
+	if len(r.Gases) > 0 {
+		w("\nGas released (%.0f °C, %s kPa):\n", r.Conditions.TemperatureC, trimFloat(r.Conditions.PressureKPa, 3))
+		for _, g := range r.Gases {
+			w("  %-8s %s mol = %s L = %s m³\n", g.Text, sigText(g.Mol), sigText(g.VolumeL), sigText(g.VolumeM3))
+		}
+	}
+	if h := r.Heat; h != nil {
+		switch {
+		case h.HeatReleasedkJ != nil:
+			if q := *h.HeatReleasedkJ; q >= 0 {
+				w("\nHeat: %s kJ released", sigText(q))
+			} else {
+				w("\nHeat: %s kJ taken up (the mix cools)", sigText(-q))
+			}
+
+			if h.NeutralisationkJ != 0 {
+				w(" (%s kJ of it from neutralisation)", sigText(h.NeutralisationkJ))
+			}
+			if h.TemperatureRiseC != nil {
+				w(", temperature change about %+.1f °C", *h.TemperatureRiseC)
+			}
+
+			w("\n")
+			if h.DeltaHkJPerMol != nil {
+				w("  ΔH of the headline reaction %s kJ per mol as written\n", trimFloat(*h.DeltaHkJPerMol, 1))
+			}
+			w("  %s\n", h.Assumption)
+		case len(h.Missing) > 0:
+			w("\nHeat: no estimate, the formation-enthalpy table lacks %s\n", strings.Join(h.Missing, ", "))
+		}
+	}
+	if len(r.FinalComposition) > 0 && (r.Amounts != nil && r.Amounts.Limiting != nil) {
+		w("\nIn the tank afterwards:\n")
+		for _, c := range r.FinalComposition {
+			if c.Mol == 0 {
+				w("  %s\n", c.Text)
+				continue
+			}
+			w("  %-10s %s mol\n", c.Text, sigText(c.Mol))
+		}
+	}
+}
+
+func amountsText(xs []AmountOf) string {
+	parts := make([]string, len(xs))
+	for i, x := range xs {
+		parts[i] = sigText(x.Mol) + " mol " + x.Text
+	}
+	return strings.Join(parts, ", ")
+}
+
+// sigText writes x with 4 significant digits, without exponent for
+// everyday magnitudes.
+func sigText(x float64) string {
+	ax := x
+	if ax < 0 {
+		ax = -ax
+	}
+	if ax != 0 && (ax < 1e-3 || ax >= 1e7) {
+		return fmt.Sprintf("%.3g", x)
+	}
+	return trimFloat(sigDigits(x, 4), 6)
+}

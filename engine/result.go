@@ -28,10 +28,12 @@ type Result struct {
 	Caveats          []string     `json:"caveats"`
 
 	// Conditions the prediction was made under.
-	Conditions Conditions  `json:"conditions"`
-	Allowance  *Allowance  `json:"allowance"` // kinetic allowance that moved the headline pair, if any
-	Streams    []StreamOut `json:"streams"`   // the streams as understood, tags resolved
-	Notes      []string    `json:"notes"`     // assumptions made (equal volumes, excess metal, ...)
+	Conditions Conditions `json:"conditions"`
+	Allowance  *Allowance `json:"allowance"`            // kinetic allowance that moved the headline pair, if any
+	Hindered   bool       `json:"kinetically_hindered"` // the headline is spontaneous but kinetically hindered
+
+	Streams []StreamOut `json:"streams"` // the streams as understood, tags resolved
+	Notes   []string    `json:"notes"`   // assumptions made (equal volumes, excess metal, ...)
 }
 
 // Verdict is the one-word outcome of a prediction.
@@ -107,6 +109,8 @@ type Alternative struct {
 	ECellStandard float64   `json:"e_cell_standard_v"`
 	ECell         float64   `json:"e_cell_v"`
 	Note          string    `json:"note,omitempty"` // e.g. why it is not the headline
+	// Hindered: spontaneous, but not once its kinetic allowance is counted.
+	Hindered bool `json:"kinetically_hindered"`
 }
 
 // Severity of a hazard.

@@ -1,0 +1,274 @@
+package engine_test
+
+import (
+	"fmt"
+	"math"
+	"strings"
+	"sync"
+	"testing"
+
+	"mixward/data"
+	"mixward/engine"
+)
+
+var (
+	engOnce sync.Once
+	eng     *engine.Engine
+	engErr  error
+)
+
+// mustEngine loads the real embedded tables once for all tests.
+func mustEngine(t testing.TB) *engine.Engine {
+	t.Helper()
+	engOnce.Do(func() { eng, engErr = engine.New(data.FS) })
+	if engErr != nil {
+		t.Fatalf("engine.New(data.FS): %v", engErr)
+	}
+	return eng
+}
+
+func ask(t *testing.T, req string) *engine.Result {
+	t.Helper()
+	r, err := mustEngine(t).Ask(req, engine.AskOptions{})
+	if err != nil {
+		t.Fatalf("Ask(%q): %v", req, err)
+	}
+	return r
+}
+
+func hasTerm(ts []engine.EqTerm, formula string, charge, coef int) bool {
+	for _, x := range ts {
+		if x.Formula == formula && x.Charge == charge && (coef == 0 || x.Coef == coef) {
+			return true
+		}
+	}
+	return false
+}
+
+// TestWorkedExamples checks predictions against published worked examples
+// and handbook potentials. Each case names its source.
+func TestWorkedExamples(t *testing.T) {
+	type term struct {
+		formula string
+		charge  int
+		coef    int
+	}
+	cases := []struct {
+		name      string
+		req       string
+		source    string
+		verdict   engine.Verdict
+		oxidizer  string // species text of the headline oxidizer, "" = don't check
+		reducer   string
+		eCellStd  float64 // NaN = don't check
+		tol       float64
+		reactants []term
+		products  []term
+	}{
+		{
+			name: "Daniell cell", req: "Zn + CuSO4 1 M",
+			source:  "Daniell cell E°cell = 1.10 V: CRC Handbook, Electrochemical Series (Zn2+/Zn −0.7618 V, Cu2+/Cu +0.3419 V); from memory",
+			verdict: engine.Spontaneous, oxidizer: "Cu^2+", reducer: "Zn(s)", eCellStd: 1.10, tol: 0.01,
+			reactants: []term{{"Zn", 0, 1}, {"Cu", 2, 1}}, products: []term{{"Zn", 2, 1}, {"Cu", 0, 1}},
+		},
+		{
+			name: "permanganate titration of iron(II)", req: "mix 1 L KMnO4 0.02 M, H2SO4 1 M + 1 L FeSO4 0.1 M",
+			source:  "MnO4- + 8 H+ + 5 Fe2+ → Mn2+ + 5 Fe3+ + 4 H2O, the standard permanganometric titration (Vogel's Textbook of Quantitative Chemical Analysis); E° 1.507 and 0.771 V, CRC; from memory",
+			verdict: engine.Spontaneous, oxidizer: "MnO4-", reducer: "Fe^2+", eCellStd: 0.736, tol: 0.01,
+			reactants: []term{{"MnO4", -1, 1}, {"H", 1, 8}, {"Fe", 2, 5}}, products: []term{{"Mn", 2, 1}, {"Fe", 3, 5}, {"H2O", 0, 4}},
+		},
+		{
+			name: "dichromate oxidizes iron(II)", req: "K2Cr2O7 0.02 M, H2SO4 1 M + FeSO4 0.1 M",
+			source:  "Cr2O7^2- + 14 H+ + 6 Fe2+ → 2 Cr3+ + 6 Fe3+ + 7 H2O, dichromate titration (Vogel); E° 1.232 V (CRC recent; older tables 1.33 V); from memory",
+			verdict: engine.Spontaneous, oxidizer: "Cr2O7^2-", reducer: "Fe^2+", eCellStd: math.NaN(),
+			reactants: []term{{"Cr2O7", -2, 1}, {"H", 1, 14}, {"Fe", 2, 6}}, products: []term{{"Cr", 3, 2}, {"Fe", 3, 6}, {"H2O", 0, 7}},
+		},
+		{
+			name: "zinc dissolves in hydrochloric acid", req: "Zn + HCl 1 M",
+			source:  "Zn + 2 H+ → Zn2+ + H2, metals below hydrogen in the electrochemical series dissolve in non-oxidising acids (common practice, no source); E° Zn2+/Zn −0.7618 V, CRC; from memory",
+			verdict: engine.Spontaneous, oxidizer: "H+", reducer: "Zn(s)", eCellStd: 0.76, tol: 0.01,
+			reactants: []term{{"Zn", 0, 1}, {"H", 1, 2}}, products: []term{{"Zn", 2, 1}, {"H2", 0, 1}},
+		},
+		{
+			name: "magnesium in hydrochloric acid", req: "Mg + 1 L HCl 1 M",
+			source:  "Mg2+/Mg −2.372 V, CRC; from memory",
+			verdict: engine.Spontaneous, oxidizer: "H+", reducer: "Mg(s)", eCellStd: 2.37, tol: 0.01,
+		},
+		{
+			name: "copper does not dissolve in hydrochloric acid", req: "Cu + HCl 1 M",
+			source:  "Cu2+/Cu +0.3419 V lies above H+/H2, so copper is not attacked by non-oxidising acids (common practice, no source); CRC; from memory",
+			verdict: engine.NonSpontaneous,
+		},
+		{
+			name: "silver does not dissolve in hydrochloric acid", req: "Ag + HCl 1 M",
+			source:  "AgCl/Ag +0.2223 V above H+/H2 (CRC; from memory)",
+			verdict: engine.NonSpontaneous,
+		},
+		{
+			name: "steel in dilute sulfuric acid gives hydrogen", req: "Fe + 100 L H2SO4 10 %",
+			source:  "Pickling: iron in dilute sulfuric acid evolves hydrogen, sulfate is not reduced at room temperature (common practice, no source)",
+			verdict: engine.Spontaneous, oxidizer: "H+", reducer: "Fe(s)",
+			products: []term{{"H2", 0, 1}, {"Fe", 2, 1}},
+		},
+		{
+			name: "chlorine displaces bromide", req: "Cl2 0.1 M + KBr 0.1 M",
+			source:  "Cl2(g)/Cl- +1.358 V above Br2(l)/Br- +1.066 V: E°cell 0.292 V (CRC; from memory)",
+			verdict: engine.Spontaneous, oxidizer: "Cl2", reducer: "Br-", eCellStd: 0.292, tol: 0.005,
+			products: []term{{"Cl", -1, 2}},
+		},
+		{
+			name: "bromine displaces iodide", req: "Br2 0.1 M + KI 0.1 M",
+			source:  "Br2/Br- +1.087 V above I2/I- +0.5355 V (CRC; from memory)",
+			verdict: engine.Spontaneous, oxidizer: "Br2", reducer: "I-",
+			products: []term{{"I2", 0, 1}, {"Br", -1, 2}},
+		},
+		{
+			name: "iodine does not displace bromide", req: "I2 0.01 M + KBr 0.1 M",
+			source:  "I2/I- +0.5355 V below Br2/Br- +1.087 V (CRC; from memory)",
+			verdict: engine.NonSpontaneous,
+		},
+		{
+			name: "iron(III) oxidizes iodide", req: "FeCl3 0.1 M + KI 0.1 M",
+			source:  "Fe3+/Fe2+ +0.771 V above I2/I- +0.5355 V (CRC; from memory)",
+			verdict: engine.Spontaneous, oxidizer: "Fe^3+", reducer: "I-",
+			reactants: []term{{"Fe", 3, 2}, {"I", -1, 2}}, products: []term{{"Fe", 2, 2}, {"I2", 0, 1}},
+		},
+		{
+			name: "iron(III) does not oxidize bromide", req: "FeCl3 0.1 M + KBr 0.1 M",
+			source:  "Fe3+/Fe2+ +0.771 V below Br2/Br- +1.087 V (CRC; from memory)",
+			verdict: engine.NonSpontaneous,
+		},
+		{
+			name: "aluminium in caustic soda", req: "Al + NaOH 1 M",
+			source:  "2 Al + 2 OH- + 6 H2O → 2 Al(OH)4- + 3 H2, aluminium etching in caustic (common practice, no source); Al(OH)4-/Al −2.31 V, CRC; from memory",
+			verdict: engine.Spontaneous, reducer: "Al(s)",
+			products: []term{{"H2", 0, 3}},
+		},
+		{
+			name: "bleach into excess hydrochloric acid releases chlorine", req: "mix 50 L NaOCl 12.5 % + 200 L HCl 10 %",
+			source:  "hypochlorite plus acid gives chlorine, the classic drain-cleaning accident (common practice, no source); HOCl/Cl2 +1.611 V, Cl2/Cl- +1.358 V, CRC; from memory",
+			verdict: engine.Spontaneous, oxidizer: "HOCl", reducer: "Cl-", eCellStd: 0.253, tol: 0.01,
+			reactants: []term{{"HOCl", 0, 1}, {"H", 1, 1}, {"Cl", -1, 1}}, products: []term{{"Cl2", 0, 1}, {"H2O", 0, 1}},
+		},
+		{
+			name: "water alone", req: "200 L water",
+			source:  "nothing but water: no oxidizer–reducer pair (common practice, no source)",
+			verdict: engine.NoReaction,
+		},
+		{
+			name: "dry metals", req: "Cu + Zn",
+			source:  "solids without a liquid do not react by the table method (common practice, no source)",
+			verdict: engine.NoReaction,
+		},
+	}
+	for _, tc := range cases {
+		t.Run(tc.name, func(t *testing.T) {
+			r := ask(t, tc.req)
+			if r.Verdict != tc.verdict {
+				t.Fatalf("Ask(%q).Verdict = %s, want %s (%s)\n%s", tc.req, r.Verdict, tc.verdict, tc.source, engine.RenderText(r))
+			}
+			if tc.oxidizer != "" && (r.Oxidizer == nil || r.Oxidizer.Species != tc.oxidizer) {
+				t.Errorf("oxidizer = %+v, want %s (%s)", r.Oxidizer, tc.oxidizer, tc.source)
+			}
+			if tc.reducer != "" && (r.Reducer == nil || r.Reducer.Species != tc.reducer) {
+				t.Errorf("reducer = %+v, want %s (%s)", r.Reducer, tc.reducer, tc.source)
+			}
+			if tc.tol > 0 {
+				if r.ECellStandard == nil || math.Abs(*r.ECellStandard-tc.eCellStd) > tc.tol {
+					t.Errorf("E°cell = %s, want %.3f ±%.3f (%s)", fmtPtr(r.ECellStandard), tc.eCellStd, tc.tol, tc.source)
+				}
+			}
+			for _, x := range tc.reactants {
+				if r.Reaction == nil || !hasTerm(r.Reaction.Reactants, x.formula, x.charge, x.coef) {
+					t.Errorf("reaction %v lacks reactant %d %s (charge %d) (%s)", reactionText(r), x.coef, x.formula, x.charge, tc.source)
+				}
+			}
+			for _, x := range tc.products {
+				if r.Reaction == nil || !hasTerm(r.Reaction.Products, x.formula, x.charge, x.coef) {
+					t.Errorf("reaction %v lacks product %d %s (charge %d) (%s)", reactionText(r), x.coef, x.formula, x.charge, tc.source)
+				}
+			}
+			if len(r.Cautions) == 0 || !strings.Contains(r.Cautions[0], "Advisory") {
+				t.Errorf("no caution in the answer")
+			}
+		})
+	}
+}
+
+func fmtPtr(p *float64) string {
+	if p == nil {
+		return "null"
+	}
+	return fmt.Sprintf("%.4f", *p)
+}
+
+func reactionText(r *engine.Result) string {
+	if r.Reaction == nil {
+		return "<none>"
+	}
+	return r.Reaction.Text
+}
+
+// TestMixPH checks the pH computed from the charge balance against
+// textbook acid–base examples (Harris, Quantitative Chemical Analysis,
+// acid–base chapters; pKa values CRC; from memory).
+func TestMixPH(t *testing.T) {
+	cases := []struct {
+		req  string
+		want float64
+		tol  float64
+		why  string
+	}{
+		{"1 L HCl 0.01 M", 2.00, 0.01, "strong acid: pH = −log c"},
+		{"1 L NaOH 0.1 M", 13.00, 0.02, "strong base: pH = 14 + log c"},
+		{"1 L HCl 0.1 M + 1 L NaOH 0.1 M", 7.00, 0.05, "equivalence point of strong acid and strong base"},
+		{"1 L HCl 0.2 M + 1 L NaOH 0.1 M", 1.30, 0.01, "0.05 M H+ left after neutralisation"},
+		{"1 L CH3COOH 0.1 M", 2.88, 0.03, "weak acid, pKa 4.76"},
+		{"1 L CH3COOH 0.1 M, CH3COONa 0.1 M", 4.76, 0.03, "equimolar buffer: pH = pKa"},
+		{"1 L NH3 0.1 M", 11.13, 0.05, "weak base, pKa(NH4+) 9.25"},
+		{"1 L water", 7.00, 0.01, "pure water"},
+		{"1 L water, pH 3", 3.00, 0.001, "stated pH"},
+	}
+	for _, tc := range cases {
+		r := ask(t, tc.req)
+		if math.Abs(r.Conditions.PH-tc.want) > tc.tol {
+			t.Errorf("pH of %q = %.3f, want %.2f ±%.2f (%s)", tc.req, r.Conditions.PH, tc.want, tc.tol, tc.why)
+		}
+	}
+}
+
+// TestAmounts checks the stoichiometry against textbook worked examples.
+func TestAmounts(t *testing.T) {
+	// 0.1 mol Zn (6.538 g; IUPAC atomic weight 65.38) in excess 1 M HCl gives
+	// 0.1 mol H2, 2.4466 L at 25 °C and 101.325 kPa (ideal gas, CODATA R; from memory).
+	r := ask(t, "6.538 g Zn + 1 L HCl 1 M")
+	if r.Amounts == nil || r.Amounts.Limiting == nil || *r.Amounts.Limiting != "Zn(s)" {
+		t.Fatalf("limiting = %+v, want Zn(s)", r.Amounts)
+	}
+	if math.Abs(r.Amounts.ExtentMol-0.1) > 1e-4 {
+		t.Errorf("extent = %g mol, want 0.1", r.Amounts.ExtentMol)
+	}
+	var h2 *engine.GasRelease
+	for i := range r.Gases {
+		if r.Gases[i].Text == "H2(g)" {
+			h2 = &r.Gases[i]
+		}
+	}
+	if h2 == nil || math.Abs(h2.Mol-0.1) > 1e-4 || math.Abs(h2.VolumeL-2.4466) > 0.003 || math.Abs(h2.VolumeM3-h2.VolumeL/1000) > 1e-12 {
+		t.Fatalf("H2 = %+v, want 0.1 mol, 2.447 L", h2)
+	}
+	// Limiting acid: 0.05 mol HCl with excess zinc gives 0.025 mol H2.
+	r = ask(t, "Zn + 0.5 L HCl 0.1 M")
+	if r.Amounts == nil || r.Amounts.Limiting == nil || *r.Amounts.Limiting != "H+" {
+		t.Fatalf("limiting = %+v, want H+", r.Amounts)
+	}
+	got := 0.0
+	for _, g := range r.Gases {
+		if g.Text == "H2(g)" {
+			got = g.Mol
+		}
+	}
+	if math.Abs(got-0.025) > 0.0005 {
+		t.Errorf("H2 from 0.05 mol HCl = %g mol, want 0.025", got)
+	}
+}
