@@ -74,8 +74,8 @@ func (q *Queue) Submit(ctx context.Context, key string, job func(context.Context
 	q.pending.Add(1)
 	waiting, running := q.keys[key]
 	q.keys[key] = append(waiting, job)
-	q.mu.Unlock()
 	q.depthChanged()
+	q.mu.Unlock()
 	if !running {
 		go q.run(key)
 	}
@@ -99,9 +99,11 @@ func (q *Queue) run(key string) {
 		q.mu.Unlock()
 
 		q.runOne(key, job)
+		q.mu.Lock()
 		<-q.slots
-		q.pending.Done()
 		q.depthChanged()
+		q.mu.Unlock()
+		q.pending.Done()
 	}
 }
 
@@ -116,6 +118,8 @@ func (q *Queue) runOne(key string, job func(context.Context)) {
 	job(q.work)
 }
 
+// depthChanged reports the depth; called with q.mu held so that reports
+// arrive in order.
 func (q *Queue) depthChanged() {
 	if q.onDepth != nil {
 		q.onDepth(len(q.slots))

@@ -37,7 +37,7 @@ func TestMentionGetsThreadedBlockKitReply(t *testing.T) {
 	}
 	text := p.blockText()
 	for _, want := range []string{
-		"SPONTANEOUS",                         // verdict in the header
+		"SPONTANEOUS", // verdict in the header
 		"Species present", "HOCl(aq)", "oxidizing agent", "reducing agent",
 		"Half-reactions", "2 Cl- → Cl2(g) + 2 e-",
 		"Net ionic equation", "HOCl + H+ + Cl- → Cl2(g) + H2O",

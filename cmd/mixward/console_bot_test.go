@@ -1,0 +1,174 @@
+package main
+
+import (
+	"bytes"
+	"context"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"mixward/bot"
+	"mixward/engine"
+	"mixward/store"
+)
+
+var (
+	_ bot.QueryLog  = (*store.DB)(nil)
+	_ bot.Searcher  = (*store.DB)(nil)
+	_ bot.Catalogue = (*store.DB)(nil)
+	_ bot.Digester  = (*store.DB)(nil)
+	_ bot.Answerer  = (*engine.Engine)(nil)
+)
+
+func mustEngine(t *testing.T) *engine.Engine {
+	t.Helper()
+	e, err := loadEngine()
+	if err != nil {
+		t.Fatal(err)
+	}
+	return e
+}
+
+// runConsole drives `mixward console` (or, with no args, `mixward`) with
+// input on stdin, and returns its stdout, stderr and exit code.
+func runConsole(t *testing.T, env map[string]string, input string, args ...string) (stdout, stderr string, code int) {
+	t.Helper()
+	var out, errb bytes.Buffer
+	getenv := func(k string) string { return env[k] }
+	code = run(context.Background(), args, getenv, strings.NewReader(input), &out, &errb)
+	return out.String(), errb.String(), code
+}
+
+func TestConsoleAnswersLogsAndSeedsDemo(t *testing.T) {
+	db := filepath.Join(t.TempDir(), "site.db")
+	env := map[string]string{"MIXWARD_DB": db, "MIXWARD_TZ": "UTC"}
+	input := strings.Join([]string{
+		"streams",
+		"mix T-102 + T-204",
+		"mix 200 L NaOCl 12.5 % + 50 L HCl 10 %",
+		"mix 2 L wizard dust + 1 L HCl 10 %",
+		"search chlorine",
+		"streams set T-999 5 L NaOH 1 %",
+		"help",
+	}, "\n") + "\n"
+	stdout, stderr, code := runConsole(t, env, input, "console")
+	if code != 0 {
+		t.Fatalf("exit %d\nstderr: %s", code, stderr)
+	}
+	for _, want := range []string{
+		"10 streams in the catalogue", "T-102  200 L NaOCl 12.5 %", "invented demo data", // the seeded demo site
+		"Verdict: SPONTANEOUS", "T-102 is 200 L NaOCl 12.5 %", // a tag request, resolved
+		"CAUTION: Advisory only, not a permit",
+		"(logged as query #1)", "(logged as query #2)",
+		"couldn't read that mix request", "mix 200 L NaOCl 12.5 % + 50 L HCl 10 %", // error with an example
+		"Matches 1–", // the console may search
+		"Saved T-999", // and change the catalogue
+		"every command is open to you",
+	} {
+		if !strings.Contains(stdout, want) {
+			t.Errorf("console output lacks %q", want)
+		}
+	}
+	if strings.Contains(stdout, bot.Prompt) {
+		t.Errorf("non-interactive console printed prompts")
+	}
+	if !strings.Contains(stderr, "seeded 10 streams") {
+		t.Errorf("stderr %q does not report the demo seeding", stderr)
+	}
+	if t.Failed() {
+		t.Logf("stdout:\n%s", stdout)
+	}
+
+	d, err := store.Open(context.Background(), db, store.Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer d.Close()
+	page, err := d.Search(context.Background(), store.SearchOptions{Limit: 100})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(page.Queries) != 3 {
+		t.Fatalf("%d queries logged, want 3 (two answers, one parse error)", len(page.Queries))
+	}
+	for _, q := range page.Queries {
+		if q.UserID != "console" || q.UserName != "console" || q.Channel != "console" {
+			t.Errorf("query %d logged as user %q/%q channel %q, want console", q.ID, q.UserID, q.UserName, q.Channel)
+		}
+	}
+	if q := page.Queries[len(page.Queries)-1]; q.Resolved == "" || !strings.Contains(q.Resolved, "200 L NaOCl 12.5 %") {
+		t.Errorf("tag request logged with resolved text %q", q.Resolved)
+	}
+}
+
+func TestConsoleSecondStartDoesNotReseed(t *testing.T) {
+	db := filepath.Join(t.TempDir(), "site.db")
+	env := map[string]string{"MIXWARD_DB": db}
+	if _, _, code := runConsole(t, env, "streams remove T-101\n", "console"); code != 0 {
+		t.Fatal("first run failed")
+	}
+	stdout, stderr, code := runConsole(t, env, "streams show T-101\nstreams\n", "console")
+	if code != 0 || strings.Contains(stderr, "seeded") {
+		t.Fatalf("second start: exit %d, stderr %q", code, stderr)
+	}
+	if !strings.Contains(stdout, "no stream T-101") || !strings.Contains(stdout, "9 streams") {
+		t.Errorf("second start changed the catalogue:\n%s", stdout)
+	}
+}
+
+func TestConsoleNoDemoAndBadFlags(t *testing.T) {
+	db := filepath.Join(t.TempDir(), "site.db")
+	stdout, _, code := runConsole(t, nil, "streams\n", "console", "--db", db, "--no-demo")
+	if code != 0 || !strings.Contains(stdout, "catalogue is empty") {
+		t.Errorf("--no-demo: exit %d, %q", code, stdout)
+	}
+	for _, args := range [][]string{
+		{"console", "--db", db, "--tz", "Mars/Olympus"},
+		{"console", "--db", db, "--shifts", "every day"},
+		{"console", "--db", db, "--frobnicate"},
+		{"console", "--db", db, "extra"},
+	} {
+		_, stderr, code := runConsole(t, nil, "", args...)
+		if code != exitUsage {
+			t.Errorf("%v: exit %d, want %d (stderr %q)", args, code, exitUsage, stderr)
+		}
+	}
+}
+
+func TestDemoStreamsAllParse(t *testing.T) {
+	eng := mustEngine(t)
+	demo, err := parseDemo(demoStreams)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(demo) < 8 {
+		t.Fatalf("%d demo streams, want about ten", len(demo))
+	}
+	for _, d := range demo {
+		if err := checkStream(eng, d.Stream); err != nil {
+			t.Errorf("demo stream %s %q: %v", d.Tag, d.Stream, err)
+		}
+		if !strings.Contains(d.Note, "invented demo data") {
+			t.Errorf("demo stream %s is not marked as invented demo data: %q", d.Tag, d.Note)
+		}
+	}
+}
+
+func TestCheckStream(t *testing.T) {
+	eng := mustEngine(t)
+	for _, tc := range []struct {
+		text string
+		ok   bool
+	}{
+		{"200 L NaOCl 12.5 %", true},
+		{"NaOH 5 %, Na2CO3 2 %", true},
+		{"200 L NaOCl 12.5 % + 50 L HCl 10 %", false}, // two streams
+		{"200 L NaOCl 12.5 % at 40 C", false},         // conditions belong to a request
+		{"200 L unobtainium 5 %", false},
+	} {
+		err := checkStream(eng, tc.text)
+		if (err == nil) != tc.ok {
+			t.Errorf("checkStream(%q) = %v, want ok %v", tc.text, err, tc.ok)
+		}
+	}
+}
