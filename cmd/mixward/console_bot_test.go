@@ -61,7 +61,7 @@ func TestConsoleAnswersLogsAndSeedsDemo(t *testing.T) {
 		"CAUTION: Advisory only, not a permit",
 		"(logged as query #1)", "(logged as query #2)",
 		"couldn't read that mix request", "mix 200 L NaOCl 12.5 % + 50 L HCl 10 %", // error with an example
-		"Matches 1–", // the console may search
+		"Matches 1–",  // the console may search
 		"Saved T-999", // and change the catalogue
 		"every command is open to you",
 	} {
