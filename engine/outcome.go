@@ -181,8 +181,11 @@ func (e *Engine) outcome(res *Result, m *mixture, head *pair) {
 	}
 	before := m.amounts()
 	cur := m.clone()
-	if head != nil {
-		cases = append(cases, ReactionCase{Label: "headline", Reaction: res.Reaction, ECell: head.eCell})
+		if head != nil {
+		if !res.Hindered {
+			cases = append(cases, ReactionCase{Label: "headline", Reaction: res.Reaction, ECell: head.eCell})
+		}
+
 		// Kinetically hindered alternatives are listed, but their
 		// products are not what the tank gives off.
 		for i, a := range res.Alternatives {
@@ -246,9 +249,21 @@ func (e *Engine) outcome(res *Result, m *mixture, head *pair) {
 	if res.Amounts == nil && head != nil && head.eCell > 0 {
 		res.Amounts = &Amounts{Consumed: []AmountOf{}, Formed: []AmountOf{}}
 	}
+		gasKind := map[string]string{}
+	for _, g := range gasOrder {
+		gasKind[g] = "formed"
+	}
+	for _, g := range cur.outgas() {
+		if _, ok := gasKind[g.Text]; !ok {
+			gasKind[g.Text] = g.Kind
+		}
+		addGases([]GasRelease{g})
+	}
 	res.FinalComposition = cur.composition()
 	for _, g := range gasOrder {
 		gr := GasReleaseOf(g, gasMol[g], m.tempK, m.pressureKPa)
+		gr.Kind = gasKind[g]
+
 		gr.Mol, gr.VolumeL, gr.VolumeM3 = sigDigits(gr.Mol, 6), sigDigits(gr.VolumeL, 6), sigDigits(gr.VolumeM3, 6)
 		res.Gases = append(res.Gases, gr)
 	}
@@ -288,4 +303,48 @@ func (e *Engine) outcome(res *Result, m *mixture, head *pair) {
 	if res.Caveats == nil {
 		res.Caveats = []string{}
 	}
+}
+
+// volatile lists dissolved molecules that leave an aqueous mix as gas, with
+// their Henry's-law solubility in mol/(L·bar) at 25 °C (Sander, Compilation
+// of Henry's law constants for water, Atmos. Chem. Phys. 15, 2015; from
+// memory). What the liquid holds at the mix's pressure stays dissolved; the
+// rest is given off.
+var volatile = []struct {
+	aq, gas string
+	kH      float64
+}{
+	{"H2CO3", "CO2(g)", 0.034},
+	{"H2S", "H2S(g)", 0.10},
+	{"Cl2", "Cl2(g)", 0.062},
+	{"H2SO3", "SO2(g)", 1.3},
+	{"ClO2", "ClO2(g)", 1.0},
+	{"HCN", "HCN(g)", 9},
+	{"O3", "O3(g)", 0.010},
+}
+
+// outgas moves dissolved gases beyond their solubility out of the mix.
+func (m *mixture) outgas() []GasRelease {
+	if !m.aqueous || m.volumeL <= 0 {
+		return nil
+	}
+	var out []GasRelease
+	bar := m.pressureKPa / 100
+	for _, v := range volatile {
+		sp, err := ParseSpecies(v.aq)
+		if err != nil {
+			continue
+		}
+		p := m.get(sp)
+		if p == nil || p.mol <= 0 {
+			continue
+		}
+		keep := v.kH * bar * m.volumeL
+		if p.mol <= keep {
+			continue
+		}
+		out = append(out, GasRelease{Text: v.gas, Mol: p.mol - keep, Kind: "volatile"})
+		p.mol = keep
+	}
+	return out
 }
