@@ -500,9 +500,10 @@ CuCl2.2H2O | soluble-salt | Cu^2+ + 2 Cl- | copper(ii) chloride dihydrate | give
 C2H5OH | molecular | C2H5OH | ethanol | isomer of dimethyl ether
 CH3OCH3 | molecular | CH3OCH3 | dimethyl ether | isomer of ethanol
 `...)
+	m[AcidBaseFile].Data = append(m[AcidBaseFile].Data, "Cu^2+ | CuOH+ | 8.0 | hydrolysis: the base carries one H2O more\n"...)
 	tb := dtMustLoad(t, m)
-	if len(tb.Chemicals) != 8 {
-		t.Errorf("%d chemicals, want 8", len(tb.Chemicals))
+	if len(tb.Chemicals) != 8 || len(tb.AcidBase) != 2 {
+		t.Errorf("%d chemicals and %d acid–base pairs, want 8 and 2", len(tb.Chemicals), len(tb.AcidBase))
 	}
 }
 
@@ -556,7 +557,9 @@ func TestLoadRejects(t *testing.T) {
 		{"second spelling", ChemicalsFile, "NaClO | soluble-salt | Na+ + ClO- | sodium hypochlorite solid | test", "has the same atoms and charge as"},
 		{"second spelling in pairs", AcidBaseFile, "HClO2 | ClO2- | 1.96 | test\nHOClO | OClO- | 2 | test", "has the same atoms and charge as HClO2"},
 		{"pair differs by more than H+", AcidBaseFile, "HCl | Cl2 | 1 | test", "must be HCl less one H+"},
-		{"pair differs in charge", AcidBaseFile, "HClO4 | ClO4 | 1 | test", "must be HClO4 less one H+ (atoms differ by H +1, charge by +0)"},
+		{"pair differs in charge", AcidBaseFile, "HClO4 | ClO4 | 1 | test", "(atoms differ by H +1, charge by +0)"},
+		{"hydrolysis pair with a wrong charge", AcidBaseFile, "Cu^2+ | CuOH^2+ | 8 | test", "(atoms differ by H -1, O -1, charge by +0)"},
+		{"hydrolysis pair with two waters", AcidBaseFile, "Cu^2+ | Cu(OH)2 | 8 | test", "must be Cu^2+ less one H+"},
 		{"pKa out of range", AcidBaseFile, "HCl | Cl- | -9 | test", "outside"},
 		{"pKa not a number", AcidBaseFile, "HCl | Cl- | strong | test", `pKa "strong": is not a number`},
 		{"duplicate pair", AcidBaseFile, "HOCl | OCl- | 7.5 | test", "already listed at line 2"},

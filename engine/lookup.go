@@ -32,7 +32,7 @@ func (t *Tables) Lookup(name string) (*Chemical, bool) {
 	}
 	var found *Chemical
 	for _, c := range t.Chemicals {
-		if strings.EqualFold(c.Formula, f) {
+		if len(c.Formula) == len(f) && strings.EqualFold(c.Formula, f) {
 			if found != nil {
 				return nil, false
 			}
@@ -54,23 +54,43 @@ func hydrateDots(s string) string {
 // normName is a chemical name as the tables store it: lower case, single
 // spaces, straight apostrophes.
 func normName(s string) string {
+	if isNormName(s) {
+		return s
+	}
 	s = strings.ToLower(strings.ReplaceAll(s, "’", "'"))
 	return strings.Join(strings.Fields(s), " ")
 }
 
+// isNormName reports whether s, in ASCII, is already as normName leaves it.
+func isNormName(s string) bool {
+	for i := 0; i < len(s); i++ {
+		c := s[i]
+		switch {
+		case c >= 'A' && c <= 'Z', c >= 0x80, c == '\t', c == '\n', c == '\r', c == '\v', c == '\f':
+			return false
+		case c == ' ' && (i == 0 || i == len(s)-1 || s[i-1] == ' '):
+			return false
+		}
+	}
+	return true
+}
+
 // Suggest returns up to n names or formulas close to word, for a "did you
-// mean" reply: the closest first, ties in alphabetical order, at most one per
-// chemical. Closeness is the optimal-string-alignment (Damerau–Levenshtein)
-// distance, ignoring case, to a whole name or formula, or one more than the
-// distance to one word of a name of several words. Words of up to 3
-// characters allow 1 edit, up to 6 characters 2, longer ones 3. The result
-// is empty when nothing is that close.
+// mean" reply: the closest first, at most one per chemical. Closeness is the
+// optimal-string-alignment (Damerau–Levenshtein) distance, ignoring case, to a
+// whole name or formula, or one more than the distance to one word of a name
+// of several words. Words of up to 3 characters allow 1 edit, up to 6
+// characters 2, longer ones 3. Ties go to the candidate that is closer once
+// look-alike characters are taken as equal (NaOCI, with a capital i, is
+// NaOCl rather than NaOCN), then alphabetically. The result is empty when
+// nothing is that close.
 func (t *Tables) Suggest(word string, n int) []string {
 	w := normName(word)
 	if w == "" || n <= 0 {
 		return nil
 	}
 	wr := []rune(w)
+	wf := []rune(lookAlike(strings.TrimSpace(word)))
 	limit := 3
 	switch {
 	case len(wr) <= 3:
@@ -79,25 +99,39 @@ func (t *Tables) Suggest(word string, n int) []string {
 		limit = 2
 	}
 	type cand struct {
-		text string
-		d    int
+		text  string
+		d, dl int // distance; distance with look-alikes folded
+	}
+	less := func(a, b cand) bool {
+		if a.d != b.d {
+			return a.d < b.d
+		}
+		if a.dl != b.dl {
+			return a.dl < b.dl
+		}
+		return a.text < b.text
 	}
 	var cands []cand
+	var o osa
 	multi := strings.Contains(w, " ")
 	for _, c := range t.Chemicals {
 		best := cand{d: limit + 1}
 		try := func(text string) {
 			lt := normName(text)
-			d := boundedOSA(wr, []rune(lt), best.d)
+			d := o.dist(wr, o.runes(lt), best.d)
 			if !multi && strings.Contains(lt, " ") {
-				for _, tok := range strings.Fields(lt) {
-					if td := boundedOSA(wr, []rune(tok), best.d-1); td+1 < d {
+				for tok := range strings.FieldsSeq(lt) {
+					if td := o.dist(wr, o.runes(tok), best.d-1); td+1 < d {
 						d = td + 1
 					}
 				}
 			}
-			if d < best.d || d == best.d && text < best.text {
-				best = cand{text, d}
+			if d > best.d {
+				return
+			}
+			x := cand{text, d, o.dist(wf, o.runes(lookAlike(text)), limit+1)}
+			if less(x, best) {
+				best = x
 			}
 		}
 		try(c.Formula)
@@ -108,12 +142,7 @@ func (t *Tables) Suggest(word string, n int) []string {
 			cands = append(cands, best)
 		}
 	}
-	sort.Slice(cands, func(i, j int) bool {
-		if cands[i].d != cands[j].d {
-			return cands[i].d < cands[j].d
-		}
-		return cands[i].text < cands[j].text
-	})
+	sort.Slice(cands, func(i, j int) bool { return less(cands[i], cands[j]) })
 	if len(cands) > n {
 		cands = cands[:n]
 	}
@@ -124,19 +153,52 @@ func (t *Tables) Suggest(word string, n int) []string {
 	return out
 }
 
+// lookAlike folds characters that are easily typed for one another in a
+// formula (capital I, digit 1 and bar for small l; digit 0 for O) and then
+// lowers the case.
+func lookAlike(s string) string {
+	return normName(strings.NewReplacer("I", "l", "1", "l", "|", "l", "0", "o").Replace(s))
+}
+
 // boundedOSA is the optimal-string-alignment distance between a and b (edits
 // are insertion, deletion, substitution and transposition of neighbours). It
 // returns max+1 early when the distance is certainly above max.
 func boundedOSA(a, b []rune, max int) int {
+	var o osa
+	return o.dist(a, b, max)
+}
+
+// osa holds the scratch space of boundedOSA, so that Suggest can compare
+// hundreds of candidates without allocating for each.
+type osa struct {
+	rows [3][]int
+	rb   []rune
+}
+
+// runes converts s into the scratch rune buffer; the result is valid until
+// the next call.
+func (o *osa) runes(s string) []rune {
+	o.rb = o.rb[:0]
+	for _, r := range s {
+		o.rb = append(o.rb, r)
+	}
+	return o.rb
+}
+
+func (o *osa) dist(a, b []rune, max int) int {
 	if max < 0 {
 		return max + 1
 	}
 	if d := len(a) - len(b); d > max || -d > max {
 		return max + 1
 	}
-	prev2 := make([]int, len(b)+1)
-	prev := make([]int, len(b)+1)
-	cur := make([]int, len(b)+1)
+	for i := range o.rows {
+		if cap(o.rows[i]) < len(b)+1 {
+			o.rows[i] = make([]int, len(b)+1)
+		}
+		o.rows[i] = o.rows[i][:len(b)+1]
+	}
+	prev2, prev, cur := o.rows[0], o.rows[1], o.rows[2]
 	for j := range prev {
 		prev[j] = j
 	}
