@@ -65,8 +65,8 @@ func (e *TableError) Error() string {
 		b.WriteString(e.Field)
 		if e.Value != "" {
 			v := e.Value
-			if len(v) > 70 {
-				v = v[:67] + "..."
+			if r := []rune(v); len(r) > 70 {
+				v = string(r[:67]) + "..."
 			}
 			fmt.Fprintf(&b, " %q", v)
 		}
@@ -113,15 +113,13 @@ func Load(fsys fs.FS) (*Tables, error) {
 	for _, f := range files {
 		l.file = tableDir + f.name
 		b, err := fs.ReadFile(fsys, f.name)
+		rows := 0
 		if err != nil {
 			l.errs = append(l.errs, &TableError{File: l.file, Msg: fmt.Sprintf("cannot read the table (%v); it must sit at the root of the data directory", err)})
-			continue
-		}
-		rows := l.rows(b, f.n, f.read)
-		if rows == 0 {
+		} else if rows = l.rows(b, f.n, f.read); rows == 0 {
 			l.errs = append(l.errs, &TableError{File: l.file, Msg: "the table has no rows; restore it from version control"})
 		}
-		if f.name == ElementsFile && rows == 0 {
+		if f.name == ElementsFile && len(l.t.Atomic) == 0 {
 			// Nothing else can be checked without atomic weights.
 			return nil, errors.Join(l.errs...)
 		}

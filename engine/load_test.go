@@ -628,6 +628,11 @@ func TestLoadMissingOrEmptyFiles(t *testing.T) {
 		t.Errorf("without densities.txt: error = %v", err)
 	}
 	m = dtTableFS()
+	delete(m, ElementsFile)
+	if _, err := Load(m); err == nil || !strings.Contains(err.Error(), "data/elements.txt: cannot read the table") || strings.Contains(err.Error(), "chemicals.txt") {
+		t.Errorf("without elements.txt: error = %v; want only that file named", err)
+	}
+	m = dtTableFS()
 	m[ElementsFile].Data = []byte("# nothing here\n\n")
 	if _, err := Load(m); err == nil || !strings.Contains(err.Error(), "data/elements.txt: the table has no rows") {
 		t.Errorf("with an empty elements.txt: error = %v", err)
@@ -693,4 +698,34 @@ func BenchmarkLoad(b *testing.B) {
 			b.Fatal(err)
 		}
 	}
+}
+
+// FuzzLoadTables appends one arbitrary row to one table of the small test set: the
+// loader must never panic, and a row it accepts must not lose the others.
+func FuzzLoadTables(f *testing.F) {
+	files := []string{ElementsFile, ChemicalsFile, HalfReactionsFile, AcidBaseFile, DensitiesFile}
+	f.Add(uint8(1), "NaCl | soluble-salt | Na+ + Cl- | salt | test")
+	f.Add(uint8(2), "cu1-cu | any | Cu+ + e- -> Cu(s) | 0.521 | test")
+	f.Add(uint8(2), "x | acid | MnO4- + 8 H+ + 5 e- -> Mn^2+ + 4 H2O(aq) | 1 | t")
+	f.Add(uint8(3), "HCl | Cl- | -3 | test")
+	f.Add(uint8(4), "HCl | 25 | 1.1239 | test")
+	f.Add(uint8(0), "Fe | iron | 55.845 | test")
+	f.Add(uint8(1), "((( | | | |")
+	f.Fuzz(func(t *testing.T, which uint8, row string) {
+		m := dtTableFS()
+		file := files[int(which)%len(files)]
+		m[file].Data = append(m[file].Data, row+"\n"...)
+		tb, err := Load(m)
+		if err != nil {
+			return
+		}
+		if len(tb.Chemicals) < 4 || len(tb.Half) < 3 || len(tb.AcidBase) < 1 || len(tb.Atomic) < 7 {
+			t.Fatalf("accepting %q in %s lost rows: %d chemicals, %d half-reactions", row, file, len(tb.Chemicals), len(tb.Half))
+		}
+		for _, h := range tb.Half {
+			if err := BalanceError(h.Reactants, h.Products, h.Electrons); err != nil {
+				t.Fatalf("accepted %q, but %s does not balance: %v", row, h.ID, err)
+			}
+		}
+	})
 }
