@@ -23,7 +23,27 @@ func New(fsys fs.FS) (*Engine, error) {
 	if t.Enthalpies, err = LoadEnthalpies(fsys); err != nil {
 		return nil, err
 	}
+	for _, h := range t.Half {
+		h.sig = signature(h)
+		h.oxKeys, h.redKeys = nil, nil
+		for _, r := range h.Reactants {
+			if !isSolvent(r.Species) {
+				h.oxKeys = append(h.oxKeys, mixKey(r.Species))
+			}
+		}
+		for _, p := range h.Products {
+			if !isSolvent(p.Species) {
+				h.redKeys = append(h.redKeys, mixKey(p.Species))
+			}
+		}
+	}
 	t.families = families(t)
+	t.famOf = map[string]int{}
+	for i, f := range t.families {
+		for _, s := range f.members {
+			t.famOf[s.Ion()] = i
+		}
+	}
 	return &Engine{Tables: t}, nil
 }
 
@@ -86,6 +106,9 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 	}
 	ox, red := e.sides(m)
 	ps := e.pairs(m, ox, red)
+	for len(ps) > 0 && ps[0].rxn() == nil {
+		ps = ps[1:]
+	}
 	res.Species = speciesInfo(m, ox, red)
 	if len(ps) == 0 {
 		res.Verdict = NoReaction
@@ -98,7 +121,10 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 	head := e.terminal(m, ps)
 	res.Oxidizer = head.ox.couple()
 	res.Reducer = head.red.couple()
-	res.Reaction = head.rx.out()
+	if err := checkBalance(head.rxn()); err != nil {
+		return nil, err
+	}
+	res.Reaction = head.rxn().out()
 	res.ECellStandard = ptr(roundDec(head.eCellStd, 4))
 	res.ECell = ptr(roundDec(head.eCell, 4))
 	res.Spontaneous = head.eCell > 0
@@ -108,7 +134,7 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 	if res.Spontaneous {
 		res.Verdict = Spontaneous
 	}
-	n := float64(head.rx.electrons)
+	n := float64(head.rxn().electrons)
 	res.DeltaGkJ = ptr(roundDec(-n*faraday*head.eCell/1000, 2))
 	res.Log10K = ptr(roundDec(n*head.eCellStd/nernstSlope(m.tempK), 2))
 	if a := head.ox.allowance; a != nil {
@@ -128,10 +154,10 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 		}
 	}
 	inHead := map[string]bool{}
-	for _, t := range head.rx.reactants {
+	for _, t := range head.rxn().reactants {
 		inHead[t.Species.Ion()] = true
 	}
-	for _, t := range head.rx.products {
+	for _, t := range head.rxn().products {
 		inHead[t.Species.Ion()] = true
 	}
 	for i := range res.Species {
@@ -139,16 +165,22 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 		sp := Species{Formula: s.Formula, Charge: s.Charge, Phase: s.Phase}
 		s.Spectator = !inHead[sp.Ion()] && !sp.IsWater()
 	}
-	seen := map[string]bool{head.rx.key(): true}
+	seen := map[string]bool{head.rxn().key(): true}
 	for _, p := range ps {
 
-		if p.eCell <= 0 || len(res.Alternatives) == 10 || seen[p.rx.key()] {
+		if len(res.Alternatives) == 10 {
+			break
+		}
+		if p.eCell <= 0 || p.rxn() == nil || seen[p.rxn().key()] {
 			continue
 		}
-		seen[p.rx.key()] = true
+		seen[p.rxn().key()] = true
+		if err := checkBalance(p.rxn()); err != nil {
+			return nil, err
+		}
 
 		alt := Alternative{
-			Oxidizer: p.ox.couple(), Reducer: p.red.couple(), Reaction: p.rx.out(),
+			Oxidizer: p.ox.couple(), Reducer: p.red.couple(), Reaction: p.rxn().out(),
 			ECellStandard: roundDec(p.eCellStd, 4), ECell: roundDec(p.eCell, 4),
 			Hindered: p.eff <= 0,
 		}
@@ -248,3 +280,13 @@ func sigDigits(x float64, d int) float64 {
 }
 
 var _ = fmt.Sprintf
+
+// checkBalance is the last check on every equation reported: it must
+// conserve every element and charge. Combining balanced half-reactions
+// cannot fail it, so a failure is a bug, reported rather than shown.
+func checkBalance(rx *netReaction) error {
+	if err := BalanceError(rx.reactants, rx.products, 0); err != nil {
+		return fmt.Errorf("engine: %s does not balance: %w", rx.text(), err)
+	}
+	return nil
+}

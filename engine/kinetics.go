@@ -13,4 +13,6 @@ type KineticRule struct {
 	When    string   // "always", or conditions on ph, t (°C) and conc (mol/L)
 	Reason  string
 	Source  string
+
+	when func(ph, tC, conc float64) bool // compiled When
 }

@@ -74,7 +74,7 @@ func loadKinetics(fsys fs.FS) ([]*KineticRule, error) {
 			continue
 		}
 		r.Volts = v
-		if _, err := parseWhen(r.When); err != nil {
+		if r.when, err = parseWhen(r.When); err != nil {
 			bad("when %q: %v", r.When, err)
 			continue
 		}
@@ -180,8 +180,7 @@ func (e *Engine) applyKinetics(m *mixture, s *side) {
 		if r.Side != s.role || !r.matches(s) {
 			continue
 		}
-		when, _ := parseWhen(r.When)
-		if !when(m.pH, m.tempK-273.15, m.molar(s.main)) {
+		if !r.when(m.pH, m.tempK-273.15, m.molar(s.main)) {
 			continue
 		}
 		if r.Volts > s.discount {
@@ -193,7 +192,7 @@ func (e *Engine) applyKinetics(m *mixture, s *side) {
 
 func (r *KineticRule) matches(s *side) bool {
 	if len(r.Couples) > 0 {
-		sig := signature(s.row)
+		sig := s.row.sig
 		for _, c := range r.Couples {
 			if c == sig {
 				return true

@@ -198,9 +198,9 @@ func buildMixture(req *Request, t *Tables) (*mixture, error) {
 		m.pH = *req.PH
 		m.pHStated = true
 	} else {
-		m.pH = solvePH(m, t, fict)
+		m.fict = fict
+		m.pH = solvePH(m, t)
 	}
-	m.fict = fict
 	m.distribute(t)
 	m.setSolvent()
 	return m, nil
@@ -379,31 +379,50 @@ func (f *family) fractions(h float64, out []float64) []float64 {
 // solvePH finds the pH at which the mix is electrically neutral, with the
 // weak acid–base families distributed at that pH (charge balance, activity
 // coefficients taken as 1).
-func solvePH(m *mixture, t *Tables, fict float64) float64 {
+func solvePH(m *mixture, t *Tables) float64 {
+	balance := m.balance(t)
+	// balance falls as pH rises; bisect on pH in [-2, 16].
+	lo, hi := -2.0, 16.0
+	if balance(lo) < 0 {
+		return lo
+	}
+	if balance(hi) > 0 {
+		return hi
+	}
+	for range 60 {
+		mid := (lo + hi) / 2
+		if balance(mid) > 0 {
+			lo = mid
+		} else {
+			hi = mid
+		}
+	}
+	return (lo + hi) / 2
+}
+
+// balance returns the net charge concentration (mol/L) of the mix as a
+// function of pH, with every acid–base family distributed at that pH. It is
+// zero at the mix's pH and falls as the pH rises; −balance(pH)·V is the
+// acid (mol H+) to be taken out of the mix to bring it to that pH.
+func (m *mixture) balance(t *Tables) func(pH float64) float64 {
 	fams := t.families
 	strong := 0.0 // charge of ions outside any family, mol/L
 	famTotal := make([]float64, len(fams))
-	inFam := map[string]int{}
-	for i, f := range fams {
-		for _, s := range f.members {
-			inFam[s.Ion()] = i
-		}
-	}
 	for _, k := range m.order {
 		p := m.species[k]
 		if p.sp.Phase != Aqueous || p.sp.IsProton() || p.sp.IsHydroxide() {
 			continue
 		}
-		if i, ok := inFam[p.sp.Ion()]; ok {
+		if i, ok := t.famOf[p.sp.Ion()]; ok {
 			famTotal[i] += p.mol / m.volumeL
 			continue
 		}
 		strong += float64(p.sp.Charge) * p.mol / m.volumeL
 	}
-	strong += fict / m.volumeL
+	strong += m.fict / m.volumeL
 	kw := math.Pow(10, -pKw(m.tempK))
 	var buf []float64
-	balance := func(pH float64) float64 {
+	return func(pH float64) float64 {
 		h := math.Pow(10, -pH)
 		q := h - kw/h + strong
 		for i, f := range fams {
@@ -417,23 +436,6 @@ func solvePH(m *mixture, t *Tables, fict float64) float64 {
 		}
 		return q
 	}
-	// balance falls as pH rises; bisect on pH in [-2, 16].
-	lo, hi := -2.0, 16.0
-	if balance(lo) < 0 {
-		return lo
-	}
-	if balance(hi) > 0 {
-		return hi
-	}
-	for range 80 {
-		mid := (lo + hi) / 2
-		if balance(mid) > 0 {
-			lo = mid
-		} else {
-			hi = mid
-		}
-	}
-	return (lo + hi) / 2
 }
 
 // distribute spreads each acid–base family over its forms at the mix pH.

@@ -29,18 +29,21 @@ func (m *mixture) clone() *mixture {
 
 // available is the amount of a reactant that can be consumed, and whether it
 // limits the reaction at all (water, excess solids and buffered H+/OH- do not).
-func (m *mixture) available(s Species) (mol float64, limited bool) {
+// H+ counts the acid that can be taken out before the mix reaches
+// limitingPH, weak acids and HSO4- included; OH- likewise down to
+// 14 − limitingPH.
+func (m *mixture) available(s Species, t *Tables) (mol float64, limited bool) {
 	switch {
 	case s.IsWater():
 		return 0, false
 	case s.IsProton():
 		if m.pH < limitingPH {
-			return math.Pow(10, -m.pH) * m.volumeL, true
+			return math.Max(0, -m.balance(t)(limitingPH)*m.volumeL), true
 		}
 		return 0, false
 	case s.IsHydroxide():
 		if m.pH > 14-limitingPH {
-			return math.Pow(10, m.pH-pKw(m.tempK)) * m.volumeL, true
+			return math.Max(0, m.balance(t)(14-limitingPH)*m.volumeL), true
 		}
 		return 0, false
 	}
@@ -56,17 +59,17 @@ func (m *mixture) available(s Species) (mol float64, limited bool) {
 
 // extent finds how far a reaction runs: the limiting reactant and the
 // extent in mol of reaction as written. ok is false when nothing limits it.
-func (m *mixture) extent(rx *netReaction) (xi float64, limiting *Species, ok bool) {
+func (m *mixture) extent(rx *netReaction, t *Tables) (xi float64, limiting *Species, ok bool) {
 	xi = math.Inf(1)
 	for i := range rx.reactants {
-		t := &rx.reactants[i]
-		mol, limited := m.available(t.Species)
+		tm := &rx.reactants[i]
+		mol, limited := m.available(tm.Species, t)
 		if !limited {
 			continue
 		}
-		if x := mol / float64(t.Coef); x < xi {
+		if x := mol / float64(tm.Coef); x < xi {
 			xi = x
-			sp := t.Species
+			sp := tm.Species
 			limiting = &sp
 		}
 	}
@@ -115,7 +118,7 @@ func (m *mixture) respeciate(t *Tables) {
 		}
 	}
 	if !m.pHStated {
-		m.pH = solvePH(m, t, m.fict)
+		m.pH = solvePH(m, t)
 	}
 	m.distribute(t)
 	m.setSolvent()
@@ -181,7 +184,7 @@ func (e *Engine) outcome(res *Result, m *mixture, head *pair) {
 	}
 	before := m.amounts()
 	cur := m.clone()
-		if head != nil {
+	if head != nil {
 		if !res.Hindered {
 			cases = append(cases, ReactionCase{Label: "headline", Reaction: res.Reaction, ECell: head.eCell})
 		}
@@ -196,34 +199,46 @@ func (e *Engine) outcome(res *Result, m *mixture, head *pair) {
 
 	}
 	p := head
+	firstXi := 0.0
+	// Each net reaction runs once, and never its reverse: a repeat would
+	// only chase the traces its conjugate forms hand back.
+	ran := map[string]bool{}
 	if head != nil && head.eCell > 0 && head.eff <= 0 {
+
 		res.Notes = append(res.Notes, "the headline reaction is spontaneous but kinetically hindered at these conditions, so it is not run to completion in the amounts")
 		p = nil
 	}
 	// A step runs only when it is spontaneous after the kinetic allowances
 	// too: a reaction known to be slow is not carried to completion.
 	for step := 0; p != nil && p.eCell > 0 && p.eff > 0; step++ {
-		xi, lim, ok := cur.extent(p.rx)
+		xi, lim, ok := cur.extent(p.rxn(), e.Tables)
+
 		if !ok {
 			if step == 0 {
-				res.Notes = append(res.Notes, "no reactant of "+p.rx.text()+" runs out (excess solids, buffered pH): amounts are not bounded")
+				res.Notes = append(res.Notes, "no reactant of "+p.rxn().text()+" runs out (excess solids, buffered pH): amounts are not bounded")
 			}
 			break
 		}
 
-		if xi <= 1e-12 {
+		// Stop at a trace: what is left of a reagent after its conjugate
+		// forms are redistributed is not a reaction worth reporting.
+		if xi <= 1e-12 || (step > 0 && xi < 1e-6*firstXi) {
 			break
 		}
-		consumed, formed, gases := cur.react(p.rx, xi)
+		if step == 0 {
+			firstXi = xi
+		}
+		ran[p.rxn().key()] = true
+		consumed, formed, gases := cur.react(p.rxn(), xi)
 		limText := lim.Text()
 		am := &Amounts{Limiting: &limText, ExtentMol: sigDigits(xi, 6), Consumed: consumed, Formed: formed}
-		rx := p.rx.out()
+		rx := p.rxn().out()
 		heatRx = append(heatRx, ReactionExtent{Reaction: rx, ExtentMol: xi})
 		addGases(gases)
 		if step == 0 {
 			res.Amounts = am
 		} else {
-			n := float64(p.rx.electrons)
+			n := float64(p.rxn().electrons)
 			res.Steps = append(res.Steps, Step{
 				Oxidizer: p.ox.couple(), Reducer: p.red.couple(), Reaction: rx,
 				ECellStandard: ptr(roundDec(p.eCellStd, 4)), ECell: ptr(roundDec(p.eCell, 4)),
@@ -236,11 +251,23 @@ func (e *Engine) outcome(res *Result, m *mixture, head *pair) {
 		}
 		cur.respeciate(e.Tables)
 		ox, red := e.sides(cur)
-		next := e.pairs(cur, ox, red)
 		p = nil
-		if len(next) > 0 && next[0].eCell > 0 && next[0].eff > 0 {
-			p = next[0]
+		for _, q := range e.pairs(cur, ox, red) {
+			if q.eCell <= 0 || q.eff <= 0 {
+				break
+			}
+			// Skip a pair that can only run to a trace (a reagent used up
+			// but for what its conjugate forms hand back).
+			if q.rxn() == nil || ran[q.rxn().key()] || ran[reverseKey(q.rxn())] {
+				continue
+			}
+			if x, _, ok := cur.extent(q.rxn(), e.Tables); ok && x < 1e-6*firstXi {
+				continue
+			}
+			p = q
+			break
 		}
+
 		if step == maxSteps && p != nil {
 			res.Notes = append(res.Notes, fmt.Sprintf("stopped after %d follow-on reactions; more may follow", maxSteps))
 			break
@@ -249,7 +276,7 @@ func (e *Engine) outcome(res *Result, m *mixture, head *pair) {
 	if res.Amounts == nil && head != nil && head.eCell > 0 {
 		res.Amounts = &Amounts{Consumed: []AmountOf{}, Formed: []AmountOf{}}
 	}
-		gasKind := map[string]string{}
+	gasKind := map[string]string{}
 	for _, g := range gasOrder {
 		gasKind[g] = "formed"
 	}
@@ -347,4 +374,10 @@ func (m *mixture) outgas() []GasRelease {
 		p.mol = keep
 	}
 	return out
+}
+
+// reverseKey is the key of rx run backwards.
+func reverseKey(rx *netReaction) string {
+	r := netReaction{reactants: rx.products, products: rx.reactants}
+	return r.key()
 }

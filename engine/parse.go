@@ -527,8 +527,9 @@ func (p *parser) component() (Component, error) {
 			if err := p.concUnit(&c, tk); err != nil {
 				return c, err
 			}
-		} else if tk != nil && tk.kind == tWord {
-			return c, p.errAt(tk, "unknown-word", "%q does not belong after %s; give a concentration (\"%s 10 %%\") or separate components with \",\"", tk.text, name, name)
+		} else if tk != nil && tk.kind == tWord && !isWord(tk, "at", "ph") {
+			return c, p.errAt(tk, "unknown-word",
+				"%q does not belong after %s; give a concentration (\"%s 10 %%\") or separate components with \",\"", tk.text, name, name)
 		}
 		return c, nil
 	}

@@ -26,7 +26,24 @@ type pair struct {
 	eCell    float64 // E(ox) − E(red) under the mix's conditions
 	eCellStd float64
 	eff      float64 // eCell less the kinetic allowances, used for ranking
+	med      Medium  // medium of the mix the equation is written for
 	rx       *netReaction
+	rxDone   bool
+}
+
+// rxn balances the pair's net equation on first use; nil when the two
+// couples cancel out or do not balance.
+func (p *pair) rxn() *netReaction {
+	if p.rxDone {
+		return p.rx
+	}
+	p.rxDone = true
+	rx, err := combine(p.ox.row, p.red.row, p.med)
+	if err != nil || len(rx.reactants) == 0 || len(rx.products) == 0 {
+		return nil
+	}
+	p.rx = rx
+	return rx
 }
 
 // netReaction is a balanced net ionic equation.
@@ -34,6 +51,7 @@ type netReaction struct {
 	reactants []Term
 	products  []Term
 	electrons int
+	keyText   string // cached key
 }
 
 func isSolvent(s Species) bool { return s.IsWater() || s.IsProton() || s.IsHydroxide() }
@@ -87,20 +105,24 @@ func (e *Engine) sides(m *mixture) (ox, red []*side) {
 }
 
 func (e *Engine) makeSide(m *mixture, h *HalfReaction, idx int, role Role, terms []Term) *side {
-	s := &side{row: h, idx: idx, role: role}
-	found := false
-	for _, t := range terms {
-		if isSolvent(t.Species) {
-			continue
-		}
-		if !m.has(t.Species) {
+	keys := h.redKeys
+	if role == OxidizerRole {
+		keys = h.oxKeys
+	}
+	for _, k := range keys {
+		p := m.species[k]
+		if p == nil || p.minor || (p.mol <= 0 && !p.excess) {
 			return nil
 		}
+	}
+	s := &side{row: h, idx: idx, role: role}
+	found := false
+	for _, k := range keys {
 		if !found {
-			s.main = m.get(t.Species).sp
+			s.main = m.species[k].sp
 			found = true
 		} else {
-			s.partners = append(s.partners, m.get(t.Species).sp)
+			s.partners = append(s.partners, m.species[k].sp)
 		}
 	}
 	if !found {
@@ -152,14 +174,7 @@ func (e *Engine) pairs(m *mixture, ox, red []*side) []*pair {
 			if o.row == r.row || (o.isWaterSide() && r.isWaterSide()) {
 				continue
 			}
-			rx, err := combine(o.row, r.row, med)
-			if err != nil || len(rx.reactants) == 0 || len(rx.products) == 0 {
-				continue
-			}
-			if BalanceError(rx.reactants, rx.products, 0) != nil {
-				continue
-			}
-			p := &pair{ox: o, red: r, eCell: o.e - r.e, eCellStd: o.row.E0 - r.row.E0, rx: rx}
+			p := &pair{ox: o, red: r, eCell: o.e - r.e, eCellStd: o.row.E0 - r.row.E0, med: med}
 			p.eff = o.effE() - r.effE()
 			out = append(out, p)
 		}
@@ -286,15 +301,27 @@ func termsText(ts []Term) string {
 // key identifies the net reaction regardless of phases, so that one
 // reaction reached through different couples is listed once.
 func (rx *netReaction) key() string {
+	if rx.keyText != "" {
+		return rx.keyText
+	}
 	var b strings.Builder
 	for _, t := range rx.reactants {
-		fmt.Fprintf(&b, "%d %s ", t.Coef, t.Species.Ion())
+		b.WriteString(strconv.Itoa(t.Coef))
+		b.WriteByte(' ')
+		b.WriteString(t.Formula)
+		b.WriteString(chargeText(t.Charge))
+		b.WriteByte(' ')
 	}
-	b.WriteString("=")
+	b.WriteByte('=')
 	for _, t := range rx.products {
-		fmt.Fprintf(&b, " %d %s", t.Coef, t.Species.Ion())
+		b.WriteByte(' ')
+		b.WriteString(strconv.Itoa(t.Coef))
+		b.WriteByte(' ')
+		b.WriteString(t.Formula)
+		b.WriteString(chargeText(t.Charge))
 	}
-	return b.String()
+	rx.keyText = b.String()
+	return rx.keyText
 }
 
 func (rx *netReaction) text() string {
@@ -360,7 +387,7 @@ func (e *Engine) terminal(m *mixture, ps []*pair) *pair {
 		return head
 	}
 	for _, p := range ps {
-		if p.ox.main.Ion() != head.ox.main.Ion() || p.red.row != head.red.row || p.eff <= 0 || p.eCell <= 0 {
+		if p.ox.main.Ion() != head.ox.main.Ion() || p.red.row != head.red.row || p.eff <= 0 || p.eCell <= 0 || p.rxn() == nil {
 			continue
 		}
 		if !e.reducedFurther(m, p.ox, p.red) {

@@ -151,13 +151,12 @@ type GasRelease struct {
 	Text     string  `json:"text"`
 	Mol      float64 `json:"mol"`
 	VolumeL  float64 `json:"volume_l"`
-		VolumeM3 float64 `json:"volume_m3"`
+	VolumeM3 float64 `json:"volume_m3"`
 	// Kind is "formed" for a gaseous reaction product, "volatile" for a
 	// dissolved gas (CO2 from carbonate and acid, H2S, SO2) beyond what the
 	// liquid holds at the stated pressure.
 	Kind string `json:"kind"`
 }
-
 
 // Heat is the heat estimate of the mix (all reactions, neutralisation included).
 type Heat struct {

@@ -14,6 +14,7 @@ type Tables struct {
 	Hazards    []*HazardRule
 	Enthalpies map[string]Enthalpy // standard enthalpy of formation by Species.Key
 
-	families []family // acid–base chains, built by New
+	families []family       // acid–base chains, built by New
+	famOf    map[string]int // family index by Species.Ion
 
 }

@@ -47,6 +47,12 @@ type HalfReaction struct {
 	E0        float64 // standard reduction potential at 25 °C, volts vs SHE
 	Medium    Medium
 	Source    string
+
+	// Filled by New: the mixture keys of the oxidized-side and
+	// reduced-side species other than water, H+ and OH-, and the couple's
+	// signature (see signature).
+	oxKeys, redKeys []string
+	sig             string
 }
 
 // AcidBasePair is one conjugate acid–base pair (data/acidbase.txt).
