@@ -354,9 +354,10 @@ func TextBlocks(mrkdwn string) []slack.Block {
 func splitText(s string, limit int) []string {
 	var out []string
 	for len(s) > limit {
-		cut := strings.LastIndexByte(s[:limit], '\n')
+		// The separator may sit just past the limit: it is dropped.
+		cut := strings.LastIndexByte(s[:limit+1], '\n')
 		if cut <= 0 {
-			cut = strings.LastIndexByte(s[:limit], ' ')
+			cut = strings.LastIndexByte(s[:limit+1], ' ')
 		}
 		if cut <= 0 {
 			cut = limit
