@@ -62,7 +62,7 @@ func TestVerifyDetectsEdits(t *testing.T) {
 		{"engine version", `UPDATE queries SET engine_version = '9' WHERE id = 3`, 3, "content does not match"},
 		{"kind", `UPDATE queries SET kind = 'prune' WHERE id = 3`, 3, "content does not match"},
 		{"re-hashed row breaks the next link", "", 4, "does not follow row 3"},
-		{"middle row deleted", `DELETE FROM queries WHERE id = 3`, 4, "does not follow row 2"},
+		{"middle row deleted", `DELETE FROM queries WHERE id = 3`, 4, "rows 3–3 are missing"},
 		{"first row deleted", `DELETE FROM queries WHERE id = 1`, 2, "no prune"},
 		{"newest row deleted", `DELETE FROM queries WHERE id = 5`, 5, "rows after 4 are missing"},
 		{"all rows deleted", `DELETE FROM queries`, 1, "log is empty but ids up to 5"},
@@ -97,6 +97,23 @@ func TestVerifyDetectsEdits(t *testing.T) {
 					rep.OK, rep.BrokenID, rep.Problem, tc.brokeAt, tc.problem)
 			}
 		})
+	}
+}
+
+// TestVerifyTailDeletedThenLogged deletes the newest rows by hand, then logs
+// on: the gap in ids gives it away.
+func TestVerifyTailDeletedThenLogged(t *testing.T) {
+	c := newClock(t0)
+	db, path := mustOpen(t, c.Now)
+	ctx := context.Background()
+	logN(t, db, c, 5)
+	if _, err := rawDB(t, path).Exec(`DELETE FROM queries WHERE id >= 4`); err != nil {
+		t.Fatal(err)
+	}
+	logN(t, db, c, 1)
+	rep, _ := db.Verify(ctx)
+	if rep.OK || rep.BrokenID != 6 || !strings.Contains(rep.Problem, "rows 4–5 are missing") {
+		t.Errorf("Verify = %+v; want rows 4–5 reported missing at row 6", rep)
 	}
 }
 

@@ -95,9 +95,8 @@ func (db *DB) Digest(ctx context.Context, since, until time.Time) (*Digest, erro
 	window := `q.kind = 'query' AND q.time >= ? AND q.time < ?`
 	lo, hi := formatTime(since), formatTime(until)
 	for _, step := range []func() error{
-		func() error { return digestVerdicts(ctx, tx, d, window, lo, hi) },
-		func() error { return digestAskers(ctx, tx, d, window, lo, hi) },
-		func() error { return digestFlagged(ctx, tx, d, window, lo, hi) },
+		func() error { return digestCounts(ctx, tx, d, window, lo, hi) },
+		func() error { return digestFlagged(ctx, tx, d, window, since, until) },
 		func() error { return digestErrors(ctx, tx, d, window, lo, hi) },
 		func() error { return digestPairs(ctx, tx, d, window, lo, hi) },
 	} {
@@ -108,56 +107,70 @@ func (db *DB) Digest(ctx context.Context, since, until time.Time) (*Digest, erro
 	return d, nil
 }
 
-func digestVerdicts(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi string) error {
-	rows, err := tx.QueryContext(ctx, `SELECT q.verdict, count(*) FROM queries q WHERE `+window+` GROUP BY q.verdict`, lo, hi)
+// digestCounts counts verdicts and askers in one pass over the time index.
+func digestCounts(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi string) error {
+	rows, err := tx.QueryContext(ctx, `SELECT q.user_id, q.user_name, q.verdict, count(*) FROM queries q WHERE `+window+`
+		GROUP BY q.user_id, q.user_name, q.verdict`, lo, hi)
 	if err != nil {
 		return err
 	}
 	defer rows.Close()
+	idx := map[[2]string]int{}
 	for rows.Next() {
-		var v string
+		var id, name, v string
 		var n int
-		if err := rows.Scan(&v, &n); err != nil {
+		if err := rows.Scan(&id, &name, &v, &n); err != nil {
 			return err
 		}
 		d.Queries += n
 		switch v {
 		case VerdictSpontaneous:
-			d.Verdicts.Spontaneous = n
+			d.Verdicts.Spontaneous += n
 		case VerdictNonSpontaneous:
-			d.Verdicts.NonSpontaneous = n
+			d.Verdicts.NonSpontaneous += n
 		case VerdictNoReaction:
-			d.Verdicts.NoReaction = n
+			d.Verdicts.NoReaction += n
 		case VerdictError:
-			d.Verdicts.Error = n
+			d.Verdicts.Error += n
 		}
+		k := [2]string{id, name}
+		i, ok := idx[k]
+		if !ok {
+			i = len(d.Askers)
+			idx[k] = i
+			d.Askers = append(d.Askers, AskerCount{UserID: id, UserName: name})
+		}
+		d.Askers[i].Queries += n
 	}
-	return rows.Err()
-}
-
-func digestAskers(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi string) error {
-	rows, err := tx.QueryContext(ctx, `SELECT q.user_id, q.user_name, count(*) FROM queries q WHERE `+window+`
-		GROUP BY q.user_id, q.user_name ORDER BY count(*) DESC, q.user_name, q.user_id`, lo, hi)
-	if err != nil {
+	if err := rows.Err(); err != nil {
 		return err
 	}
-	defer rows.Close()
-	for rows.Next() {
-		var a AskerCount
-		if err := rows.Scan(&a.UserID, &a.UserName, &a.Queries); err != nil {
-			return err
+	sort.Slice(d.Askers, func(i, j int) bool {
+		a, b := d.Askers[i], d.Askers[j]
+		if a.Queries != b.Queries {
+			return a.Queries > b.Queries
 		}
-		d.Askers = append(d.Askers, a)
-	}
-	return rows.Err()
+		if a.UserName != b.UserName {
+			return a.UserName < b.UserName
+		}
+		return a.UserID < b.UserID
+	})
+	return nil
 }
 
-func digestFlagged(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi string) error {
+func digestFlagged(ctx context.Context, tx *sql.Tx, d *Digest, window string, since, until time.Time) error {
+	// Walk the hazards of the window's id range (ids grow with time; the
+	// time test on q keeps it exact).
+	idLo, idHi, empty, err := idRange(ctx, tx, since, until)
+	if err != nil || empty {
+		return err
+	}
 	rows, err := tx.QueryContext(ctx, `SELECT q.id, q.time, q.user_id, q.user_name, q.channel, q.request, q.resolved,
 		       h.code, h.severity, h.message
-		  FROM queries q JOIN query_hazards h ON h.query_id = q.id
-		 WHERE `+window+` AND q.verdict = 'spontaneous' AND h.severity IN ('danger', 'warning')
-		 ORDER BY q.time, q.id, h.pos`, lo, hi)
+		  FROM query_hazards h JOIN queries q ON q.id = h.query_id
+		 WHERE h.query_id BETWEEN ? AND ? AND h.severity IN ('danger', 'warning')
+		   AND `+window+` AND q.verdict = 'spontaneous'
+		 ORDER BY q.time, q.id, h.pos`, idLo, idHi, formatTime(since), formatTime(until))
 	if err != nil {
 		return err
 	}
@@ -204,24 +217,27 @@ func digestErrors(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi str
 }
 
 func digestPairs(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi string) error {
-	rows, err := tx.QueryContext(ctx, `SELECT q.streams FROM queries q WHERE `+window+` AND q.streams <> '[]'`, lo, hi)
+	// Operators ask the same mixes again and again: group first, decode
+	// each distinct stream list once.
+	rows, err := tx.QueryContext(ctx, `SELECT q.streams, count(*) FROM queries q WHERE `+window+` AND q.streams <> '[]'
+		GROUP BY q.streams`, lo, hi)
 	if err != nil {
 		return err
 	}
 	defer rows.Close()
 	counts := map[[2]string]int{}
 	var raw []byte
-	var streams []string
+	var n int
 	for rows.Next() {
-		if err := rows.Scan(&raw); err != nil {
+		if err := rows.Scan(&raw, &n); err != nil {
 			return err
 		}
-		streams = streams[:0]
+		var streams []string
 		if err := json.Unmarshal(raw, &streams); err != nil {
 			return fmt.Errorf("stored streams %q: %v", raw, err)
 		}
 		for _, p := range streamPairs(streams) {
-			counts[p]++
+			counts[p] += n
 		}
 	}
 	if err := rows.Err(); err != nil {

@@ -25,14 +25,14 @@ func logAsVersion(t *testing.T, db *DB, q *Query, v int) {
 		t.Fatal(err)
 	}
 	defer tx.Rollback()
-	if err := appendRow(ctx, tx, r, ""); err != nil {
+	if err := db.appendRow(ctx, tx, r, ""); err != nil {
 		t.Fatal(err)
 	}
-	if err := insertHazards(ctx, tx, r.ID, q.Hazards); err != nil {
+	if err := db.insertHazards(ctx, tx, r.ID, q.Hazards); err != nil {
 		t.Fatal(err)
 	}
 	if v >= 2 {
-		if err := indexRow(ctx, tx, r.ID); err != nil {
+		if err := db.indexUpTo(ctx, tx, r.ID, true); err != nil {
 			t.Fatal(err)
 		}
 	}

@@ -37,7 +37,7 @@ func (db *DB) Prune(ctx context.Context, before time.Time, by string) (int64, er
 	}
 	defer conn.ExecContext(context.Background(), `PRAGMA secure_delete = OFF`)
 
-	n, err := prune(ctx, conn, before.UTC(), by, db.now().UTC())
+	n, err := db.prune(ctx, conn, before.UTC(), by, db.now().UTC())
 	if err != nil {
 		return 0, err
 	}
@@ -51,7 +51,7 @@ func (db *DB) Prune(ctx context.Context, before time.Time, by string) (int64, er
 	return n, nil
 }
 
-func prune(ctx context.Context, conn *sql.Conn, before time.Time, by string, now time.Time) (int64, error) {
+func (db *DB) prune(ctx context.Context, conn *sql.Conn, before time.Time, by string, now time.Time) (int64, error) {
 	tx, err := conn.BeginTx(ctx, nil)
 	if err != nil {
 		return 0, fmt.Errorf("prune: %w", err)
@@ -105,7 +105,7 @@ func prune(ctx context.Context, conn *sql.Conn, before time.Time, by string, now
 		Species: "[]", Hazards: "[]", Streams: "[]",
 		Result: sql.NullString{String: string(b), Valid: true},
 	}
-	if err := appendRow(ctx, tx, r, anchor.AnchorHash); err != nil {
+	if err := db.appendRow(ctx, tx, r, anchor.AnchorHash); err != nil {
 		return 0, fmt.Errorf("prune: record the prune: %w", err)
 	}
 	if err := tx.Commit(); err != nil {

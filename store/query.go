@@ -102,7 +102,7 @@ func (db *DB) LogQuery(ctx context.Context, q *Query) (int64, error) {
 	defer tx.Rollback()
 	if q.EventID != "" {
 		var id int64
-		err := tx.QueryRowContext(ctx, `SELECT id FROM queries WHERE event_id = ?`, q.EventID).Scan(&id)
+		err := db.ws.event.queryRow(ctx, tx, q.EventID).Scan(&id)
 		if err == nil {
 			return id, fmt.Errorf("log query: event %q is query %d: %w", q.EventID, id, ErrDuplicate)
 		}
@@ -110,13 +110,13 @@ func (db *DB) LogQuery(ctx context.Context, q *Query) (int64, error) {
 			return 0, fmt.Errorf("log query: %w", err)
 		}
 	}
-	if err := appendRow(ctx, tx, r, ""); err != nil {
+	if err := db.appendRow(ctx, tx, r, ""); err != nil {
 		return 0, fmt.Errorf("log query: %w", err)
 	}
-	if err := insertHazards(ctx, tx, r.ID, q.Hazards); err != nil {
+	if err := db.insertHazards(ctx, tx, r.ID, q.Hazards); err != nil {
 		return 0, fmt.Errorf("log query: %w", err)
 	}
-	if err := indexRow(ctx, tx, r.ID); err != nil {
+	if err := db.indexUpTo(ctx, tx, r.ID, false); err != nil {
 		return 0, fmt.Errorf("log query: %w", err)
 	}
 	if err := tx.Commit(); err != nil {
@@ -231,24 +231,18 @@ func nullFloat(f *float64) sql.NullFloat64 {
 
 // appendRow gives r the next id, links it to the newest row (or to
 // emptyPrev when the table is empty) and inserts it. It must run in a
-// write transaction.
-func appendRow(ctx context.Context, tx *sql.Tx, r *row, emptyPrev string) error {
-	var seq int64
-	err := tx.QueryRowContext(ctx, `SELECT seq FROM sqlite_sequence WHERE name = 'queries'`).Scan(&seq)
-	if err != nil && !errors.Is(err, sql.ErrNoRows) {
-		return err
-	}
-	var lastID int64
-	prev := emptyPrev
-	err = tx.QueryRowContext(ctx, `SELECT id, hash FROM queries ORDER BY id DESC LIMIT 1`).Scan(&lastID, &prev)
-	if err != nil && !errors.Is(err, sql.ErrNoRows) {
+// write transaction. Ids are contiguous: the next id is one more than the
+// highest ever issued, and a rolled-back transaction takes its id back.
+func (db *DB) appendRow(ctx context.Context, tx *sql.Tx, r *row, emptyPrev string) error {
+	var seq, lastID int64
+	var prev string
+	if err := db.ws.head.queryRow(ctx, tx, emptyPrev).Scan(&seq, &lastID, &prev); err != nil {
 		return err
 	}
 	r.ID = max(seq, lastID) + 1
 	r.PrevHash = prev
 	r.Hash = computeHash(r)
-	_, err = tx.ExecContext(ctx, `INSERT INTO queries (`+rowColumns+`)
-		VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
+	_, err := db.ws.insert.exec(ctx, tx,
 		r.ID, r.Kind, r.Time, r.UserID, r.UserName, r.Channel, r.EventID, r.Request, r.Resolved, r.Verdict,
 		r.Error, r.Species, r.Oxidizer, r.Reducer, r.ECellV, r.ECellStandardV, r.Hazards, r.Streams, r.Result,
 		r.EngineVersion, r.DataHash, r.PrevHash, r.Hash)
@@ -258,25 +252,55 @@ func appendRow(ctx context.Context, tx *sql.Tx, r *row, emptyPrev string) error 
 	return err
 }
 
-func insertHazards(ctx context.Context, tx *sql.Tx, id int64, hz []Hazard) error {
+func (db *DB) insertHazards(ctx context.Context, tx *sql.Tx, id int64, hz []Hazard) error {
 	for i, h := range hz {
-		if _, err := tx.ExecContext(ctx, `INSERT INTO query_hazards (query_id, pos, code, severity, message)
-			VALUES (?, ?, ?, ?, ?)`, id, i, h.Code, h.Severity, h.Message); err != nil {
+		if _, err := db.ws.hazard.exec(ctx, tx, id, i, h.Code, h.Severity, h.Message); err != nil {
 			return err
 		}
 	}
 	return nil
 }
 
-// indexRow adds query id to the full-text index; the expression is the one
-// migration 0002 uses to index older rows.
-func indexRow(ctx context.Context, tx *sql.Tx, id int64) error {
-	_, err := tx.ExecContext(ctx, `INSERT INTO query_fts (docid, request, species, hazards)
-		SELECT q.id, q.request || ' ' || q.resolved, q.species,
-		       coalesce((SELECT group_concat(h.code || ' ' || h.message, ' ')
-		                   FROM query_hazards h WHERE h.query_id = q.id), '')
-		  FROM queries q WHERE q.id = ?`, id)
+// indexBatch is how many logged rows may wait for the search index before
+// LogQuery indexes them (in its own transaction, one FTS segment for all).
+const indexBatch = 64
+
+// indexUpTo indexes every query row with id in (indexed_upto, upto] and
+// moves the mark; force indexes even a short backlog.
+func (db *DB) indexUpTo(ctx context.Context, tx *sql.Tx, upto int64, force bool) error {
+	var done int64
+	if err := db.ws.indexed.queryRow(ctx, tx).Scan(&done); err != nil {
+		return err
+	}
+	if upto <= done || (!force && upto-done < indexBatch) {
+		return nil
+	}
+	if _, err := db.ws.index.exec(ctx, tx, done, upto); err != nil {
+		return err
+	}
+	_, err := db.ws.setIndexed.exec(ctx, tx, upto)
 	return err
+}
+
+// syncIndex indexes every row not yet in the search index.
+func (db *DB) syncIndex(ctx context.Context) error {
+	var done, last int64
+	err := db.r.QueryRowContext(ctx, `SELECT (SELECT indexed_upto FROM search_state), coalesce((SELECT max(id) FROM queries), 0)`).Scan(&done, &last)
+	if err != nil || done >= last {
+		return err
+	}
+	tx, err := db.w.BeginTx(ctx, nil)
+	if err != nil {
+		return err
+	}
+	defer tx.Rollback()
+	if err := tx.QueryRowContext(ctx, `SELECT coalesce(max(id), 0) FROM queries`).Scan(&last); err != nil {
+		return err
+	}
+	if err := db.indexUpTo(ctx, tx, last, true); err != nil {
+		return err
+	}
+	return tx.Commit()
 }
 
 // decodeQuery turns a stored query row back into a Query.

@@ -65,6 +65,11 @@ func (db *DB) Search(ctx context.Context, o SearchOptions) (SearchPage, error) {
 		return page, nil // only punctuation: nothing can match
 	}
 
+	if len(phrases) > 0 {
+		if err := db.syncIndex(ctx); err != nil {
+			return page, fmt.Errorf("search: bring the index up to date: %w", err)
+		}
+	}
 	tx, err := db.r.BeginTx(ctx, nil)
 	if err != nil {
 		return page, fmt.Errorf("search: %w", err)

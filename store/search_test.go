@@ -283,3 +283,35 @@ func foldAccents(s string) string {
 		return r
 	}, s)
 }
+
+func TestSearchIndexCatchesUp(t *testing.T) {
+	c := newClock(t0)
+	db, path := mustOpen(t, c.Now)
+	ctx := context.Background()
+	logN(t, db, c, 150)
+	mark := func() int64 {
+		var n int64
+		if err := db.r.QueryRowContext(ctx, `SELECT indexed_upto FROM search_state`).Scan(&n); err != nil {
+			t.Fatal(err)
+		}
+		return n
+	}
+	if got := mark(); got != 128 {
+		t.Errorf("indexed up to %d after 150 queries, want 128 (batches of %d)", got, indexBatch)
+	}
+	// T-250 is query 150, not yet indexed: Search indexes it first.
+	page, err := db.Search(ctx, SearchOptions{Terms: "T-250"})
+	if err != nil || len(page.Queries) != 1 || page.Queries[0].ID != 150 {
+		t.Fatalf("Search(newest) = %v, %v", ids(page.Queries), err)
+	}
+	if got := mark(); got != 150 {
+		t.Errorf("indexed up to %d after a search, want 150", got)
+	}
+	logN(t, db, c, 3)
+	db.Close()
+	var n int64
+	rawDB(t, path).QueryRow(`SELECT indexed_upto FROM search_state`).Scan(&n)
+	if n != 153 {
+		t.Errorf("indexed up to %d after Close, want 153", n)
+	}
+}

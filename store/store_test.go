@@ -104,7 +104,7 @@ func TestOpenPragmas(t *testing.T) {
 	}{
 		{db.w, "journal_mode", "wal"},
 		{db.w, "busy_timeout", "5000"},
-		{db.w, "synchronous", "2"}, // FULL
+		{db.w, "synchronous", "1"}, // NORMAL (FULL with Options.FullSync)
 		{db.w, "foreign_keys", "1"},
 		{db.r, "query_only", "1"},
 		{db.r, "busy_timeout", "5000"},
@@ -119,6 +119,16 @@ func TestOpenPragmas(t *testing.T) {
 	}
 	if _, err := db.r.ExecContext(ctx, `DELETE FROM queries`); err == nil {
 		t.Error("read pool accepted a DELETE")
+	}
+	full, err := Open(ctx, filepath.Join(t.TempDir(), "full.db"), Options{FullSync: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer full.Close()
+	var sync string
+	full.w.QueryRowContext(ctx, "PRAGMA synchronous").Scan(&sync)
+	if sync != "2" {
+		t.Errorf("FullSync: PRAGMA synchronous = %s, want 2 (FULL)", sync)
 	}
 }
 

@@ -43,6 +43,11 @@ type pruneRecord struct {
 // is broken, and rows missing at either end. A broken chain is reported in
 // the VerifyReport (OK false), not as an error; the error is for failures
 // to read the file.
+//
+// The chain has no secret: someone who can write the file and recomputes
+// every hash after an edit (or deletes the newest rows and rewinds
+// sqlite_sequence) is caught only by comparing HeadHash with a copy kept
+// elsewhere: a backup, an export, or the head hash noted in a report.
 func (db *DB) Verify(ctx context.Context) (VerifyReport, error) {
 	tx, err := db.r.BeginTx(ctx, nil)
 	if err != nil {
@@ -152,10 +157,16 @@ func checkRow(r, prev *row, first bool, anchorID int64, anchorHash string) strin
 			}
 			return fmt.Sprintf("row %d: does not follow row %d, the last row removed by the newest prune (rows deleted outside mixward)", r.ID, anchorID)
 		}
+		if anchorID > 0 && r.ID != anchorID+1 {
+			return fmt.Sprintf("row %d: the log starts here but the newest prune removed rows up to %d: rows %d–%d are missing", r.ID, anchorID, anchorID+1, r.ID-1)
+		}
 		if anchorID == 0 && r.ID != 1 {
 			return fmt.Sprintf("row %d: the log starts here but no prune of rows 1–%d is recorded (rows deleted outside mixward)", r.ID, r.ID-1)
 		}
 		return ""
+	}
+	if r.ID != prev.ID+1 {
+		return fmt.Sprintf("row %d: rows %d–%d are missing (ids are issued without gaps)", r.ID, prev.ID+1, r.ID-1)
 	}
 	if r.PrevHash != prev.Hash {
 		return fmt.Sprintf("row %d: does not follow row %d (a row between was removed or inserted, or row %d was re-hashed)", r.ID, prev.ID, prev.ID)

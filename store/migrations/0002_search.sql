@@ -3,6 +3,17 @@
 -- the request as typed plus its tag-resolved form, the species, and each
 -- hazard's code and message. Rows logged before this version are indexed
 -- here.
+--
+-- The index is derived data and trails the log by a few rows: LogQuery
+-- indexes in batches (one FTS segment per batch instead of per query), and
+-- Search and Close first index whatever is left. search_state says up to
+-- which query id every row is indexed.
+CREATE TABLE search_state (
+    id           INTEGER PRIMARY KEY CHECK (id = 1),
+    indexed_upto INTEGER NOT NULL
+);
+INSERT INTO search_state (id, indexed_upto) VALUES (1, coalesce((SELECT max(id) FROM queries), 0));
+
 CREATE VIRTUAL TABLE query_fts USING fts4(request, species, hazards, tokenize=unicode61);
 
 INSERT INTO query_fts (docid, request, species, hazards)
