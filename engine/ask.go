@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"io/fs"
 	"math"
+	"strings"
 )
 
 // New loads and validates every table in fsys (normally data.FS) and
@@ -35,6 +36,19 @@ func New(fsys fs.FS) (*Engine, error) {
 			if !isSolvent(p.Species) {
 				h.redKeys = append(h.redKeys, mixKey(p.Species))
 			}
+		}
+	}
+	t.byFormula, t.byName, t.byFold = map[string]*Chemical{}, map[string]*Chemical{}, map[string]*Chemical{}
+	for _, c := range t.Chemicals {
+		t.byFormula[c.Formula] = c
+		for _, n := range c.Names {
+			t.byName[n] = c
+		}
+		k := strings.ToLower(c.Formula)
+		if _, dup := t.byFold[k]; dup {
+			t.byFold[k] = nil
+		} else {
+			t.byFold[k] = c
 		}
 	}
 	t.families = families(t)

@@ -17,6 +17,16 @@ func (t *Tables) Lookup(name string) (*Chemical, bool) {
 		return nil, false
 	}
 	f := hydrateDots(q)
+	if t.byFormula != nil {
+		if c, ok := t.byFormula[f]; ok {
+			return c, true
+		}
+		if c, ok := t.byName[normName(q)]; ok {
+			return c, true
+		}
+		c, ok := t.byFold[strings.ToLower(f)]
+		return c, ok && c != nil
+	}
 	for _, c := range t.Chemicals {
 		if c.Formula == f {
 			return c, true

@@ -17,4 +17,7 @@ type Tables struct {
 	families []family       // acid–base chains, built by New
 	famOf    map[string]int // family index by Species.Ion
 
+	// Lookup indexes, built by New: by exact formula, by name, and by
+	// lower-case formula (nil where two formulas fold together).
+	byFormula, byName, byFold map[string]*Chemical
 }
