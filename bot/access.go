@@ -60,18 +60,21 @@ func ParseIDList(s string) []string {
 
 // IsSupervisor reports whether user may change the stream catalogue.
 func (a *Access) IsSupervisor(ctx context.Context, user string) bool {
+	if a == nil {
+		return false
+	}
 	return a.allowed(ctx, a.Supervisors, user)
 }
 
 // IsReviewer reports whether user may search the query log.
 func (a *Access) IsReviewer(ctx context.Context, user string) bool {
+	if a == nil {
+		return false
+	}
 	return a.allowed(ctx, a.Reviewers, user)
 }
 
 func (a *Access) allowed(ctx context.Context, list []string, user string) bool {
-	if a == nil {
-		return false
-	}
 	if a.Everyone {
 		return true
 	}

@@ -86,7 +86,7 @@ func num(v float64) string {
 	switch a := math.Abs(v); {
 	case a == 0:
 		return "0"
-	case a >= 1000 || a < 0.001:
+	case a >= 1e7 || a < 0.001:
 		return fmt.Sprintf("%.3g", v)
 	case a >= 100:
 		return fmt.Sprintf("%.0f", v)
@@ -234,7 +234,7 @@ func potentialLines(r *engine.Result) []string {
 	}
 	if r.ECell != nil {
 		c := r.Conditions
-		lines = append(lines, fmt.Sprintf("Ecell = %s at pH %.1f, %.0f °C (Nernst)", volts(*r.ECell), c.PH, c.TemperatureC))
+		lines = append(lines, fmt.Sprintf("Ecell = %s at pH %.2f, %.0f °C (Nernst)", volts(*r.ECell), c.PH, c.TemperatureC))
 	}
 	if r.DeltaGkJ != nil {
 		lines = append(lines, fmt.Sprintf("ΔG = %s kJ per reaction as written", num(*r.DeltaGkJ)))
