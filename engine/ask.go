@@ -151,7 +151,9 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 	n := float64(head.rxn().electrons)
 	res.DeltaGkJ = ptr(roundDec(-n*faraday*head.eCell/1000, 2))
 	res.Log10K = ptr(roundDec(n*head.eCellStd/nernstSlope(m.tempK), 2))
-	if a := head.ox.allowance; a != nil {
+	if a := head.self; a != nil {
+		res.Allowance = allowanceOut(a)
+	} else if a := head.ox.allowance; a != nil {
 		res.Allowance = allowanceOut(a)
 	} else if a := head.red.allowance; a != nil {
 		res.Allowance = allowanceOut(a)
@@ -159,8 +161,11 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 	// Allowances that moved the ranking: a thermodynamically stronger pair
 	// was passed over.
 	for _, p := range ps {
-		if p != head && p.eCell > head.eCell && (p.ox.allowance != nil || p.red.allowance != nil) && res.Allowance == nil {
-			a := p.ox.allowance
+		if p != head && p.eCell > head.eCell && (p.ox.allowance != nil || p.red.allowance != nil || p.self != nil) && res.Allowance == nil {
+			a := p.self
+			if a == nil {
+				a = p.ox.allowance
+			}
 			if a == nil {
 				a = p.red.allowance
 			}
@@ -199,6 +204,8 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 			Hindered: p.eff <= 0,
 		}
 		switch {
+		case p.self != nil:
+			alt.Note = "kinetically slow here: " + p.self.Reason
 		case p.ox.allowance != nil:
 			alt.Note = "kinetically slow here: " + p.ox.allowance.Reason
 		case p.red.allowance != nil:

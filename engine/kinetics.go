@@ -16,3 +16,7 @@ type KineticRule struct {
 
 	when func(ph, tC, conc float64) bool // compiled When
 }
+
+// SelfRole marks a kinetic allowance on a species that reacts with itself
+// (its oxidizer and reducer sides in one pair).
+const SelfRole Role = "self"

@@ -40,8 +40,12 @@ func loadKinetics(fsys fs.FS) ([]*KineticRule, error) {
 			continue
 		}
 		seen[r.ID] = true
-		if r.Side != OxidizerRole && r.Side != ReducerRole {
-			bad("side %q must be oxidizer or reducer", f[1])
+		if r.Side != OxidizerRole && r.Side != ReducerRole && r.Side != SelfRole {
+			bad("side %q must be oxidizer, reducer or self", f[1])
+			continue
+		}
+		if r.Side == SelfRole && !strings.HasPrefix(f[2], "species ") {
+			bad("a self allowance names species, not couples")
 			continue
 		}
 		kind, rest, _ := strings.Cut(f[2], " ")
@@ -207,4 +211,21 @@ func (r *KineticRule) matches(s *side) bool {
 		}
 	}
 	return false
+}
+
+// selfAllowance is the allowance of a species reacting with itself, if
+// any applies.
+func (e *Engine) selfAllowance(m *mixture, sp Species) *KineticRule {
+	var best *KineticRule
+	for _, r := range e.Tables.Kinetics {
+		if r.Side != SelfRole || !r.when(m.pH, m.tempK-273.15, m.molar(sp)) {
+			continue
+		}
+		for _, x := range r.Species {
+			if x == sp.Ion() && (best == nil || r.Volts > best.Volts) {
+				best = r
+			}
+		}
+	}
+	return best
 }

@@ -25,8 +25,9 @@ type pair struct {
 	ox, red  *side
 	eCell    float64 // E(ox) − E(red) under the mix's conditions
 	eCellStd float64
-	eff      float64 // eCell less the kinetic allowances, used for ranking
-	med      Medium  // medium of the mix the equation is written for
+	eff      float64      // eCell less the kinetic allowances, used for ranking
+	med      Medium       // medium of the mix the equation is written for
+	self     *KineticRule // allowance on a species reacting with itself
 	rx       *netReaction
 	rxDone   bool
 }
@@ -176,6 +177,12 @@ func (e *Engine) pairs(m *mixture, ox, red []*side) []*pair {
 			}
 			p := &pair{ox: o, red: r, eCell: o.e - r.e, eCellStd: o.row.E0 - r.row.E0, med: med}
 			p.eff = o.effE() - r.effE()
+			if o.main.Ion() == r.main.Ion() {
+				if a := e.selfAllowance(m, o.main); a != nil {
+					p.eff -= a.Volts
+					p.self = a
+				}
+			}
 			out = append(out, p)
 		}
 	}

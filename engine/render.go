@@ -209,7 +209,7 @@ func renderAmounts(b *strings.Builder, r *Result) {
 	}
 	if h := r.Heat; h != nil {
 		switch {
-				case h.HeatReleasedkJ != nil && *h.HeatReleasedkJ == 0:
+		case h.HeatReleasedkJ != nil && *h.HeatReleasedkJ == 0:
 			w("\nHeat: none estimated (no reaction runs and no strong acid meets strong base)\n")
 		case h.HeatReleasedkJ != nil:
 
