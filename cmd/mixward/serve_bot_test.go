@@ -10,12 +10,15 @@ import (
 	"net/http"
 	"net/http/httptest"
 	"net/url"
+	"os"
 	"path/filepath"
 	"strconv"
 	"strings"
 	"sync"
 	"testing"
 	"time"
+
+	"github.com/gorilla/websocket"
 
 	"mixward/bot"
 	"mixward/store"
@@ -26,13 +29,18 @@ import (
 type miniSlack struct {
 	srv   *httptest.Server
 	delay time.Duration // before answering chat.postMessage
+	hit   chan string   // thread_ts of each post, if not nil
 
 	mu    sync.Mutex
 	posts []url.Values
 	n     int
+
+	// Socket Mode: envelopes to send after hello, and acks received.
+	envelopes []string
+	acks      chan string
 }
 
-func newMiniSlack(t *testing.T) *miniSlack {
+func newMiniSlack(t testing.TB) *miniSlack {
 	m := &miniSlack{}
 	m.srv = httptest.NewServer(http.HandlerFunc(m.serve))
 	t.Cleanup(m.srv.Close)
@@ -40,9 +48,15 @@ func newMiniSlack(t *testing.T) *miniSlack {
 }
 
 func (m *miniSlack) serve(w http.ResponseWriter, r *http.Request) {
+	if r.URL.Path == "/ws" {
+		m.serveWS(w, r)
+		return
+	}
 	r.ParseMultipartForm(1 << 20)
 	w.Header().Set("Content-Type", "application/json")
 	switch strings.TrimPrefix(r.URL.Path, "/api/") {
+	case "apps.connections.open":
+		fmt.Fprintf(w, `{"ok":true,"url":%q}`, "ws"+strings.TrimPrefix(m.srv.URL, "http")+"/ws")
 	case "auth.test":
 		io.WriteString(w, `{"ok":true,"user_id":"UBOT","bot_id":"BBOT"}`)
 	case "chat.postMessage":
@@ -51,7 +65,11 @@ func (m *miniSlack) serve(w http.ResponseWriter, r *http.Request) {
 		m.n++
 		ts := fmt.Sprintf("1800000000.%06d", m.n)
 		m.posts = append(m.posts, r.PostForm)
+		hit := m.hit
 		m.mu.Unlock()
+		if hit != nil {
+			hit <- r.PostForm.Get("thread_ts")
+		}
 		fmt.Fprintf(w, `{"ok":true,"channel":%q,"ts":%q}`, r.PostForm.Get("channel"), ts)
 	case "files.getUploadURLExternal":
 		fmt.Fprintf(w, `{"ok":true,"upload_url":%q,"file_id":"F1"}`, m.srv.URL+"/upload")
@@ -64,13 +82,38 @@ func (m *miniSlack) serve(w http.ResponseWriter, r *http.Request) {
 	}
 }
 
+func (m *miniSlack) serveWS(w http.ResponseWriter, r *http.Request) {
+	up := websocket.Upgrader{CheckOrigin: func(*http.Request) bool { return true }}
+	c, err := up.Upgrade(w, r, nil)
+	if err != nil {
+		return
+	}
+	defer c.Close()
+	c.WriteMessage(websocket.TextMessage, []byte(`{"type":"hello","num_connections":1}`))
+	for _, e := range m.envelopes {
+		c.WriteMessage(websocket.TextMessage, []byte(e))
+	}
+	for {
+		_, msg, err := c.ReadMessage()
+		if err != nil {
+			return
+		}
+		var ack struct {
+			EnvelopeID string `json:"envelope_id"`
+		}
+		if json.Unmarshal(msg, &ack) == nil && ack.EnvelopeID != "" {
+			m.acks <- ack.EnvelopeID
+		}
+	}
+}
+
 func (m *miniSlack) postsNow() []url.Values {
 	m.mu.Lock()
 	defer m.mu.Unlock()
 	return append([]url.Values(nil), m.posts...)
 }
 
-func (m *miniSlack) waitPosts(t *testing.T, n int) []url.Values {
+func (m *miniSlack) waitPosts(t testing.TB, n int) []url.Values {
 	t.Helper()
 	deadline := time.Now().Add(20 * time.Second)
 	for time.Now().Before(deadline) {
@@ -113,7 +156,7 @@ const (
 	testSecret   = "0123456789abcdef0123456789abcdef"
 )
 
-func startServe(t *testing.T, env map[string]string, args ...string) *server {
+func startServe(t testing.TB, env map[string]string, args ...string) *server {
 	t.Helper()
 	stderr := &syncBuffer{}
 	ctx, cancel := context.WithCancel(context.Background())
@@ -168,7 +211,7 @@ func startServe(t *testing.T, env map[string]string, args ...string) *server {
 	return s
 }
 
-func signedPost(t *testing.T, target, contentType, secret string, body []byte, at time.Time) *http.Response {
+func signedPost(t testing.TB, target, contentType, secret string, body []byte, at time.Time) *http.Response {
 	t.Helper()
 	req, _ := http.NewRequest("POST", target, bytes.NewReader(body))
 	req.Header.Set("Content-Type", contentType)
@@ -356,5 +399,74 @@ func TestServeConfigErrors(t *testing.T) {
 				t.Errorf("exit %d, stderr %q; want %d and %q", code, errb.String(), exitUsage, tc.want)
 			}
 		})
+	}
+}
+
+// The documented environment and the one serve reads are the same.
+func TestEnvExampleMatchesServe(t *testing.T) {
+	raw, err := os.ReadFile("../../deploy/mixward.env.example")
+	if err != nil {
+		t.Fatal(err)
+	}
+	documented := map[string]bool{}
+	for _, line := range strings.Split(string(raw), "\n") {
+		if k, _, ok := strings.Cut(line, "="); ok && !strings.HasPrefix(line, "#") {
+			documented[strings.TrimSpace(k)] = true
+		}
+	}
+	read := map[string]bool{}
+	getenv := func(k string) string { read[k] = true; return "" }
+	run(context.Background(), []string{"serve"}, getenv, strings.NewReader(""), io.Discard, io.Discard)
+	for k := range read {
+		if !documented[k] {
+			t.Errorf("serve reads %s but deploy/mixward.env.example does not document it", k)
+		}
+	}
+	for k := range documented {
+		if !read[k] {
+			t.Errorf("deploy/mixward.env.example documents %s but serve does not read it", k)
+		}
+	}
+}
+
+func TestServeSocketMode(t *testing.T) {
+	slack := newMiniSlack(t)
+	slack.acks = make(chan string, 8)
+	ev, _ := json.Marshal(map[string]any{
+		"type": "events_api", "envelope_id": "env-1",
+		"payload": json.RawMessage(mentionBody("EvS1", "CPLANT", "1700000000.000500", "<@UBOT> mix 200 L NaOCl 12.5 % + 50 L HCl 10 %")),
+	})
+	slack.envelopes = []string{string(ev)}
+	db := filepath.Join(t.TempDir(), "socket.db")
+	env := map[string]string{
+		"SLACK_BOT_TOKEN": testBotToken, "SLACK_APP_TOKEN": "xapp-1-A1-secretapptoken",
+		"MIXWARD_SLACK_API_URL": slack.srv.URL + "/api/", "MIXWARD_DB": db,
+	}
+	var errb syncBuffer
+	ctx, cancel := context.WithCancel(context.Background())
+	done := make(chan int, 1)
+	go func() {
+		done <- run(ctx, []string{"serve"}, func(k string) string { return env[k] }, strings.NewReader(""), io.Discard, &errb)
+	}()
+	select {
+	case id := <-slack.acks:
+		if id != "env-1" {
+			t.Errorf("acked %q", id)
+		}
+	case c := <-done:
+		t.Fatalf("serve exited %d: %s", c, errb.String())
+	case <-time.After(20 * time.Second):
+		t.Fatalf("envelope never acknowledged: %s", errb.String())
+	}
+	p := slack.waitPosts(t, 1)[0]
+	if p.Get("thread_ts") != "1700000000.000500" || !strings.Contains(p.Get("blocks"), "SPONTANEOUS") {
+		t.Errorf("socket reply = %v", p)
+	}
+	cancel()
+	if c := <-done; c != 0 {
+		t.Errorf("exit %d: %s", c, errb.String())
+	}
+	if strings.Contains(errb.String(), "secretapptoken") || strings.Contains(errb.String(), "secrettoken") {
+		t.Error("a token appears in the logs")
 	}
 }
