@@ -82,7 +82,10 @@ func (a *app) dispatch(ctx context.Context, args []string) error {
 	case "help", "-h", "-help", "--help":
 		a.usage(a.stdout)
 		return nil
+	case "healthcheck":
+		return a.cmdHealthcheck(ctx, args[1:])
 	case "version", "--version":
+
 		return a.cmdVersion(ctx)
 	}
 	a.usage(a.stderr)
