@@ -15,7 +15,15 @@ import (
 	"mixward/engine/eph"
 )
 
-func (a *app) cmdDefault(ctx context.Context) error { return a.cmdConsole(ctx, nil) }
+// cmdDefault is plain `mixward`: the Slack bot when Slack tokens are set,
+// else the local console, so that a fresh machine starts something useful.
+func (a *app) cmdDefault(ctx context.Context) error {
+	if a.getenv("SLACK_BOT_TOKEN") != "" && (a.getenv("SLACK_APP_TOKEN") != "" || a.getenv("SLACK_SIGNING_SECRET") != "") {
+		return a.cmdServe(ctx, nil)
+	}
+	return a.cmdConsole(ctx, nil)
+}
+
 
 // loadEngine loads the embedded tables. A failure here is a broken build.
 func loadEngine() (*engine.Engine, error) {

@@ -172,3 +172,11 @@ func TestCheckStream(t *testing.T) {
 		}
 	}
 }
+
+func TestNoArgumentsStartsTheConsole(t *testing.T) {
+	env := map[string]string{"MIXWARD_DB": filepath.Join(t.TempDir(), "d.db")}
+	stdout, stderr, code := runConsole(t, env, "mix 200 L NaOCl 12.5 % + 50 L HCl 10 %\n")
+	if code != 0 || !strings.Contains(stdout, "Verdict: SPONTANEOUS") {
+		t.Errorf("mixward with no arguments: exit %d\nstdout %s\nstderr %s", code, stdout, stderr)
+	}
+}

@@ -45,7 +45,7 @@ func BenchmarkServeEventToReply(b *testing.B) {
 // BenchmarkServeBurst500 sends 500 signed mentions over 25 threads as fast
 // as the client can, and measures until all 500 answers are posted.
 func BenchmarkServeBurst500(b *testing.B) {
-	for b.Loop() {
+	for range b.N {
 		b.StopTimer()
 		slack := newMiniSlack(b)
 		slack.hit = make(chan string, 1024)
@@ -57,7 +57,6 @@ func BenchmarkServeBurst500(b *testing.B) {
 		s := startServe(b, env, "--http", "127.0.0.1:0", "--admin-addr", "127.0.0.1:0")
 		b.StartTimer()
 		start := time.Now()
-		sent := make([]time.Time, 500)
 		var wg sync.WaitGroup
 		for g := range 25 {
 			wg.Go(func() {
@@ -65,7 +64,6 @@ func BenchmarkServeBurst500(b *testing.B) {
 					i := k*25 + g
 					body := mentionBody(fmt.Sprint("EvB", i), "CPLANT", fmt.Sprintf("1700000000.%06d", g),
 						fmt.Sprintf("<@UBOT> mix %d L NaOCl 12.5 %% + 50 L HCl 10 %%", k+1))
-					sent[i] = time.Now()
 					signedPost(b, s.events+"/slack/events", "application/json", testSecret, body, time.Now())
 				}
 			})
@@ -75,9 +73,10 @@ func BenchmarkServeBurst500(b *testing.B) {
 		for range 500 {
 			<-slack.hit
 		}
-		b.ReportMetric(accepted.Seconds()*1000, "all-accepted-ms")
-		b.ReportMetric(time.Since(start).Seconds()*1000, "all-answered-ms")
+		answered := time.Since(start)
 		b.StopTimer()
+		b.ReportMetric(accepted.Seconds()*1000, "all-accepted-ms")
+		b.ReportMetric(answered.Seconds()*1000, "all-answered-ms")
 		s.stop()
 		if n := len(slack.postsNow()); n != 500 {
 			b.Fatalf("%d answers posted, want 500", n)
