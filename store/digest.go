@@ -170,7 +170,7 @@ func digestFlagged(ctx context.Context, tx *sql.Tx, d *Digest, window string, si
 		  FROM query_hazards h JOIN queries q ON q.id = h.query_id
 		 WHERE h.query_id BETWEEN ? AND ? AND h.severity IN ('danger', 'warning')
 		   AND `+window+` AND q.verdict = 'spontaneous'
-		 ORDER BY q.time, q.id, h.pos`, idLo, idHi, formatTime(since), formatTime(until))
+		 ORDER BY h.query_id, h.pos`, idLo, idHi, formatTime(since), formatTime(until))
 	if err != nil {
 		return err
 	}

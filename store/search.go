@@ -98,10 +98,16 @@ func (db *DB) Search(ctx context.Context, o SearchOptions) (SearchPage, error) {
 		where = append(where, `q.id IN (SELECT query_id FROM query_hazards WHERE code = ? COLLATE NOCASE)`)
 		args = append(args, o.Hazard)
 	}
-	if len(phrases) > 0 {
-		// The time window bounds the ids too (time and id grow together;
-		// min/max keep it exact even if they did not), which lets FTS skip
-		// the rest of each doclist.
+	cols := "q." + strings.ReplaceAll(strings.ReplaceAll(rowColumns, "\n\t", " "), ", ", ", q.")
+	var stmt string
+	if len(phrases) == 0 {
+		stmt = `SELECT ` + cols + ` FROM queries q WHERE ` + strings.Join(where, " AND ") +
+			` ORDER BY q.id DESC LIMIT ? OFFSET ?`
+	} else {
+		// The index drives (CROSS JOIN keeps it outermost) newest first, so
+		// the scan stops once the page is full. The time window also bounds
+		// the docids (ids grow with time; min/max keep it exact even if
+		// they did not).
 		lo, hi, empty, err := idRange(ctx, tx, o.Since, o.Until)
 		if err != nil {
 			return page, fmt.Errorf("search: %w", err)
@@ -109,22 +115,20 @@ func (db *DB) Search(ctx context.Context, o SearchOptions) (SearchPage, error) {
 		if empty {
 			return page, nil
 		}
-		sub := `SELECT docid FROM query_fts WHERE query_fts MATCH ?`
-		args = append(args, MatchExpr(phrases))
+		fts := []string{`f.query_fts MATCH ?`}
+		ftsArgs := []any{MatchExpr(phrases)}
 		if lo > 0 {
-			sub += ` AND docid >= ?`
-			args = append(args, lo)
+			fts = append(fts, `f.docid >= ?`)
+			ftsArgs = append(ftsArgs, lo)
 		}
 		if hi > 0 {
-			sub += ` AND docid <= ?`
-			args = append(args, hi)
+			fts = append(fts, `f.docid <= ?`)
+			ftsArgs = append(ftsArgs, hi)
 		}
-		where = append(where, `q.id IN (`+sub+`)`)
+		args = append(ftsArgs, args...)
+		stmt = `SELECT ` + cols + ` FROM query_fts f CROSS JOIN queries q ON q.id = f.docid WHERE ` +
+			strings.Join(append(fts, where...), " AND ") + ` ORDER BY f.docid DESC LIMIT ? OFFSET ?`
 	}
-	cols := strings.ReplaceAll(rowColumns, "\n\t", " ")
-	cols = "q." + strings.ReplaceAll(cols, ", ", ", q.")
-	stmt := `SELECT ` + cols + ` FROM queries q WHERE ` + strings.Join(where, " AND ") +
-		` ORDER BY q.id DESC LIMIT ? OFFSET ?`
 	args = append(args, page.Limit+1, page.Offset)
 	rows, err := tx.QueryContext(ctx, stmt, args...)
 	if err != nil {

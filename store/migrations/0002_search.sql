@@ -14,7 +14,9 @@ CREATE TABLE search_state (
 );
 INSERT INTO search_state (id, indexed_upto) VALUES (1, coalesce((SELECT max(id) FROM queries), 0));
 
-CREATE VIRTUAL TABLE query_fts USING fts4(request, species, hazards, tokenize=unicode61);
+-- order=DESC keeps doclists newest first, so a newest-first search reads
+-- only as far as the page it needs.
+CREATE VIRTUAL TABLE query_fts USING fts4(request, species, hazards, tokenize=unicode61, order=DESC);
 
 INSERT INTO query_fts (docid, request, species, hazards)
 SELECT q.id,
@@ -23,7 +25,8 @@ SELECT q.id,
        coalesce((SELECT group_concat(h.code || ' ' || h.message, ' ')
                    FROM query_hazards h WHERE h.query_id = q.id), '')
   FROM queries q
- WHERE q.kind = 'query';
+ WHERE q.kind = 'query'
+ ORDER BY q.id;
 
 CREATE TRIGGER queries_fts_delete AFTER DELETE ON queries BEGIN
     DELETE FROM query_fts WHERE docid = old.id;
