@@ -185,6 +185,10 @@ func (s *syncWriter) Write(p []byte) (int, error) {
 	return s.w.Write(p)
 }
 
+// defaultAdminAddr is where /healthz and /metrics are served unless told
+// otherwise (`mixward healthcheck` asks there too).
+const defaultAdminAddr = "127.0.0.1:9464"
+
 // serveConfig is everything `mixward serve` is told.
 type serveConfig struct {
 	site          siteFlags
@@ -237,7 +241,7 @@ func (a *app) cmdServe(ctx context.Context, args []string) error {
 	g := a.getenv
 	c.site.register(fs, g)
 	fs.StringVar(&c.httpAddr, "http", g("MIXWARD_HTTP_ADDR"), "serve the Events API and slash command on this address, e.g. :8080 (env MIXWARD_HTTP_ADDR)")
-	fs.StringVar(&c.adminAddr, "admin-addr", g("MIXWARD_ADMIN_ADDR"), "serve /healthz and /metrics on this address, e.g. 127.0.0.1:9464; empty: off (env MIXWARD_ADMIN_ADDR)")
+	fs.StringVar(&c.adminAddr, "admin-addr", envOr(g, "MIXWARD_ADMIN_ADDR", defaultAdminAddr), "serve /healthz and /metrics on this address; \"off\" for none (env MIXWARD_ADMIN_ADDR)")
 	fs.StringVar(&c.supervisors, "supervisors", g("MIXWARD_SUPERVISORS"), "who may change the stream catalogue: comma list of Slack user ids (U…) and user-group ids (S…) (env MIXWARD_SUPERVISORS)")
 	fs.StringVar(&c.reviewers, "reviewers", g("MIXWARD_REVIEWERS"), "who may search the query log: comma list of user and user-group ids (env MIXWARD_REVIEWERS)")
 	fs.StringVar(&c.digestChannel, "digest-channel", g("MIXWARD_DIGEST_CHANNEL"), "channel id the shift digests are posted to; empty: no digests (env MIXWARD_DIGEST_CHANNEL)")
@@ -345,11 +349,20 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 	var wg sync.WaitGroup
 
 	var admin *http.Server
-	if c.adminAddr != "" {
-		ln, err := net.Listen("tcp", c.adminAddr)
-		if err != nil {
+	var adminLn net.Listener
+	if c.adminAddr != "" && c.adminAddr != "off" {
+		adminLn, err = net.Listen("tcp", c.adminAddr)
+		switch {
+		case err != nil && c.adminAddr == defaultAdminAddr:
+			// The default port is taken (another instance, a test): run
+			// without the admin endpoints rather than not at all.
+			logger.Warn("admin endpoints off: default address in use; set --admin-addr", "addr", c.adminAddr, "err", err)
+		case err != nil:
 			return fmt.Errorf("--admin-addr %s: %w", c.adminAddr, err)
 		}
+	}
+	if adminLn != nil {
+		ln := adminLn
 		admin = &http.Server{Handler: bot.AdminHandler(metrics, health), ReadHeaderTimeout: 10 * time.Second}
 		logger.Info("admin listening", "addr", ln.Addr().String(), "paths", "/healthz /metrics")
 		wg.Go(func() {
