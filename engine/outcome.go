@@ -273,7 +273,9 @@ func (e *Engine) outcome(res *Result, m *mixture, head *pair) {
 			break
 		}
 	}
-	if res.Amounts == nil && head != nil && head.eCell > 0 {
+		if res.Amounts == nil {
+		// Nothing ran (no pair, not spontaneous, hindered or unbounded):
+		// an empty account, so that the JSON shape never changes.
 		res.Amounts = &Amounts{Consumed: []AmountOf{}, Formed: []AmountOf{}}
 	}
 	gasKind := map[string]string{}
@@ -286,7 +288,11 @@ func (e *Engine) outcome(res *Result, m *mixture, head *pair) {
 		}
 		addGases([]GasRelease{g})
 	}
-	res.FinalComposition = cur.composition()
+		res.FinalComposition = cur.composition()
+	if res.FinalComposition == nil {
+		res.FinalComposition = []AmountOf{}
+	}
+
 	for _, g := range gasOrder {
 		gr := GasReleaseOf(g, gasMol[g], m.tempK, m.pressureKPa)
 		gr.Kind = gasKind[g]
