@@ -24,7 +24,13 @@ func New(fsys fs.FS) (*Engine, error) {
 	if t.Enthalpies, err = LoadEnthalpies(fsys); err != nil {
 		return nil, err
 	}
+	t.atoms = map[string]Atoms{}
 	for _, h := range t.Half {
+		for _, tm := range append(append([]Term(nil), h.Reactants...), h.Products...) {
+			if a, err := ParseFormula(tm.Formula); err == nil {
+				t.atoms[tm.Formula] = a
+			}
+		}
 		h.sig = signature(h)
 		h.oxKeys, h.redKeys = nil, nil
 		for _, r := range h.Reactants {
@@ -135,7 +141,7 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 	head := e.terminal(m, ps)
 	res.Oxidizer = head.ox.couple()
 	res.Reducer = head.red.couple()
-	if err := checkBalance(head.rxn()); err != nil {
+	if err := e.Tables.checkBalance(head.rxn()); err != nil {
 		return nil, err
 	}
 	res.Reaction = head.rxn().out()
@@ -194,7 +200,7 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 			continue
 		}
 		seen[p.rxn().key()] = true
-		if err := checkBalance(p.rxn()); err != nil {
+		if err := e.Tables.checkBalance(p.rxn()); err != nil {
 			return nil, err
 		}
 
@@ -305,9 +311,18 @@ var _ = fmt.Sprintf
 // checkBalance is the last check on every equation reported: it must
 // conserve every element and charge. Combining balanced half-reactions
 // cannot fail it, so a failure is a bug, reported rather than shown.
-func checkBalance(rx *netReaction) error {
-	if err := BalanceError(rx.reactants, rx.products, 0); err != nil {
+func (t *Tables) checkBalance(rx *netReaction) error {
+	if err := balanceErrorWith(t.atomsOf, rx.reactants, rx.products, 0); err != nil {
 		return fmt.Errorf("engine: %s does not balance: %w", rx.text(), err)
 	}
 	return nil
+}
+
+// atomsOf counts the atoms of a formula, from the cache built by New for
+// every formula in the half-reaction table.
+func (t *Tables) atomsOf(formula string) (Atoms, error) {
+	if a, ok := t.atoms[formula]; ok {
+		return a, nil
+	}
+	return ParseFormula(formula)
 }

@@ -793,6 +793,12 @@ func massOf(a Atoms, w map[string]float64) float64 {
 // differ. Electrons may also be given as e- terms. Every coefficient must be
 // positive.
 func BalanceError(reactants, products []Term, electrons int) error {
+	return balanceErrorWith(ParseFormula, reactants, products, electrons)
+}
+
+// balanceErrorWith is BalanceError with the atom counts of a formula
+// taken from atomsOf (a cache of the tables' formulas on the hot path).
+func balanceErrorWith(atomsOf func(string) (Atoms, error), reactants, products []Term, electrons int) error {
 	left, right := Atoms{}, Atoms{}
 	lz, rz := -electrons, 0
 	add := func(ts []Term, a Atoms, z *int) error {
@@ -804,7 +810,7 @@ func BalanceError(reactants, products []Term, electrons int) error {
 			if t.IsElectron() {
 				continue
 			}
-			ta, err := ParseFormula(t.Formula)
+			ta, err := atomsOf(t.Formula)
 			if err != nil {
 				return err
 			}

@@ -11,8 +11,9 @@ import (
 type inMix struct {
 	sp     Species
 	mol    float64
-	excess bool // solid or solvent present in excess
-	minor  bool // a conjugate form under minorShare of its family
+	excess bool   // solid or solvent present in excess
+	minor  bool   // a conjugate form under minorShare of its family
+	key    string // mixKey(sp)
 
 }
 
@@ -60,7 +61,7 @@ func (m *mixture) add(s Species, mol float64, excess bool) {
 	k := mixKey(s)
 	p, ok := m.species[k]
 	if !ok {
-		p = &inMix{sp: s}
+		p = &inMix{sp: s, key: k}
 		m.species[k] = p
 		m.order = append(m.order, k)
 	}
@@ -304,6 +305,7 @@ func componentMoles(st *Stream, c *Component, vol float64, liquid bool, t *Table
 // family is a chain of conjugate acid–base forms, most protonated first.
 type family struct {
 	members []Species
+	keys    []string  // mixKey of each member
 	pKa     []float64 // pKa[i] links members[i] and members[i+1]
 }
 
@@ -329,10 +331,11 @@ func families(t *Tables) []family {
 	sort.Strings(heads)
 	for _, h := range heads {
 		p := next[h]
-		f := family{members: []Species{aqueousOf(p.Acid)}}
+		f := family{members: []Species{aqueousOf(p.Acid)}, keys: []string{p.Acid.Ion()}}
 		seen := map[string]bool{h: true}
 		for p != nil {
 			f.members = append(f.members, aqueousOf(p.Base))
+			f.keys = append(f.keys, p.Base.Ion())
 			f.pKa = append(f.pKa, p.PKa)
 			k := p.Base.Ion()
 			if seen[k] {
@@ -413,7 +416,7 @@ func (m *mixture) balance(t *Tables) func(pH float64) float64 {
 		if p.sp.Phase != Aqueous || p.sp.IsProton() || p.sp.IsHydroxide() {
 			continue
 		}
-		if i, ok := t.famOf[p.sp.Ion()]; ok {
+		if i, ok := t.famOf[p.key]; ok && p.sp.Phase == Aqueous {
 			famTotal[i] += p.mol / m.volumeL
 			continue
 		}
@@ -445,8 +448,8 @@ func (m *mixture) distribute(t *Tables) {
 	var buf []float64
 	for _, f := range t.families {
 		total := 0.0
-		for _, s := range f.members {
-			if p := m.get(s); p != nil {
+		for _, k := range f.keys {
+			if p := m.species[k]; p != nil {
 				total += p.mol
 				p.mol = 0
 			}

@@ -273,7 +273,7 @@ func (e *Engine) outcome(res *Result, m *mixture, head *pair) {
 			break
 		}
 	}
-		if res.Amounts == nil {
+	if res.Amounts == nil {
 		// Nothing ran (no pair, not spontaneous, hindered or unbounded):
 		// an empty account, so that the JSON shape never changes.
 		res.Amounts = &Amounts{Consumed: []AmountOf{}, Formed: []AmountOf{}}
@@ -288,7 +288,7 @@ func (e *Engine) outcome(res *Result, m *mixture, head *pair) {
 		}
 		addGases([]GasRelease{g})
 	}
-		res.FinalComposition = cur.composition()
+	res.FinalComposition = cur.composition()
 	if res.FinalComposition == nil {
 		res.FinalComposition = []AmountOf{}
 	}

@@ -43,13 +43,23 @@ func (s Species) Text() string {
 func (s Species) Ion() string { return s.Formula + chargeText(s.Charge) }
 
 func chargeText(z int) string {
-	switch {
-	case z == 0:
+	switch z {
+	case 0:
 		return ""
-	case z == 1:
+	case 1:
 		return "+"
-	case z == -1:
+	case -1:
 		return "-"
+	case 2:
+		return "^2+"
+	case 3:
+		return "^3+"
+	case -2:
+		return "^2-"
+	case -3:
+		return "^3-"
+	}
+	switch {
 	case z > 1:
 		return "^" + strconv.Itoa(z) + "+"
 	default:

@@ -20,4 +20,5 @@ type Tables struct {
 	// Lookup indexes, built by New: by exact formula, by name, and by
 	// lower-case formula (nil where two formulas fold together).
 	byFormula, byName, byFold map[string]*Chemical
+	atoms                     map[string]Atoms // atom counts of the half-reaction formulas
 }
