@@ -390,7 +390,11 @@ func (d *Digest) Text() string {
 		tw.Flush()
 	}
 	b.WriteString("\n" + Advisory + "\n")
-	return b.String()
+	lines := strings.Split(b.String(), "\n")
+	for i, l := range lines {
+		lines[i] = strings.TrimRight(l, " ")
+	}
+	return strings.Join(lines, "\n")
 }
 
 func untilHeader(since, until time.Time) string {

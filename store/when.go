@@ -10,7 +10,7 @@ import (
 // ParseWhen reads a date or time given on the command line: "2026-12-01"
 // (midnight), "2026-12-01T06:00", "2026-12-01 06:00", "2026-12-01T06:00:30"
 // (all in loc, the site time zone), RFC 3339 with its own offset
-// ("2026-12-01T06:00:00Z"), "now", or a duration back from now: "90m",
+// ("2026-12-01T06:00:00Z", seconds optional: "2026-12-01T06:00+01:00"), "now", or a duration back from now: "90m",
 // "24h", "7d", "2w".
 func ParseWhen(s string, now time.Time, loc *time.Location) (time.Time, error) {
 	if loc == nil {
@@ -26,8 +26,10 @@ func ParseWhen(s string, now time.Time, loc *time.Location) (time.Time, error) {
 	if d, ok := parseAgo(s); ok {
 		return now.Add(-d), nil
 	}
-	if t, err := time.Parse(time.RFC3339Nano, s); err == nil {
-		return t, nil
+	for _, layout := range []string{time.RFC3339Nano, "2006-01-02T15:04Z07:00"} {
+		if t, err := time.Parse(layout, s); err == nil {
+			return t, nil
+		}
 	}
 	for _, layout := range []string{"2006-01-02", "2006-01-02T15:04", "2006-01-02 15:04", "2006-01-02T15:04:05", "2006-01-02 15:04:05"} {
 		if t, err := time.ParseInLocation(layout, s, loc); err == nil {
@@ -42,7 +44,7 @@ func ParseWhen(s string, now time.Time, loc *time.Location) (time.Time, error) {
 func parseAgo(s string) (time.Duration, bool) {
 	if n := len(s); n >= 2 && (s[n-1] == 'd' || s[n-1] == 'w') {
 		v, err := strconv.ParseFloat(s[:n-1], 64)
-		if err != nil || v < 0 || v > 100*366 {
+		if err != nil || !(v >= 0 && v <= 100*366) { // also refuses NaN
 			return 0, false
 		}
 		day := 24 * time.Hour
