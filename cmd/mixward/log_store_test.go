@@ -301,7 +301,7 @@ func TestStreamsCLI(t *testing.T) {
 	}{
 		{[]string{"set", "T 101", "water"}, exitUsage},
 		{[]string{"set", "T-1"}, exitUsage},
-		{[]string{"set", "T-1", "200 L Bleech 12.5 %"}, exitUsage},          // does not parse
+		{[]string{"set", "T-1", "200 L Bleech 12.5 %"}, exitUsage},           // does not parse
 		{[]string{"set", "T-1", "200 L NaOCl 12.5 % + 50 L HCl"}, exitUsage}, // two streams
 		{[]string{"show", "T-404"}, exitFail},
 		{[]string{"rm", "T-404"}, exitFail},
