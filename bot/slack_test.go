@@ -555,3 +555,49 @@ func TestDigestOnDemandAndPublished(t *testing.T) {
 		t.Errorf("published digest posts = %+v", posts)
 	}
 }
+
+func TestDirectMessagesAnsweredOthersIgnored(t *testing.T) {
+	e := newEnv(t)
+	e.sl.BotUserID = "UBOT"
+	h := e.sl.HTTPHandler(bot.NewVerifier(e.secret, e.clock.Now))
+	msg := func(id, channelType, user, botID, subtype, text string) []byte {
+		ev := map[string]any{"type": "message", "channel": "D1", "channel_type": channelType, "user": user, "text": text, "ts": "1700000300.000100"}
+		if botID != "" {
+			ev["bot_id"] = botID
+		}
+		if subtype != "" {
+			ev["subtype"] = subtype
+		}
+		b, _ := json.Marshal(map[string]any{"type": "event_callback", "event_id": id, "event": ev})
+		return b
+	}
+	for _, body := range [][]byte{
+		msg("Em1", "im", "UOP", "", "", "mix 1 L NaOCl 12.5 % + 1 L HCl 10 %"),      // answered
+		msg("Em2", "im", "UBOT", "BBOT", "bot_message", "our own answer"),           // ignored
+		msg("Em3", "channel", "UOP", "", "", "mix 1 L NaOCl 12.5 % + 1 L HCl 10 %"), // no mention: ignored
+		msg("Em4", "im", "UOP", "", "message_changed", "edited"),                    // edits: ignored
+		[]byte(`{"type":"event_callback","event_id":"Em5","event":{"type":"reaction_added","user":"UOP"}}`),
+	} {
+		if w := postEvents(t, h, signedRequest(t, "POST", "/slack/events", "application/json", body, e.secret, e.clock.Now())); w.Code != 200 {
+			t.Errorf("event answered %d", w.Code)
+		}
+	}
+	e.slack.waitPosts(1)
+	e.drain()
+	if posts := e.slack.postsNow(); len(posts) != 1 || posts[0].Channel != "D1" || posts[0].ThreadTS != "1700000300.000100" {
+		t.Errorf("posts = %+v, want one answer in the direct message", posts)
+	}
+}
+
+func TestUnknownSocketEnvelopeIsAcknowledged(t *testing.T) {
+	e := newEnv(t)
+	e.runSocket()
+	e.slack.waitConn(1)
+	e.slack.send(`{"type":"events_api","envelope_id":"env-odd","payload":{"type":"event_callback","event_id":"Ev9","event":{"type":"no_such_event_type"}}}`)
+	e.slack.waitAck("env-odd")
+	e.slack.send(`{"type":"interactive","envelope_id":"env-int","payload":{"type":"block_actions"}}`)
+	e.slack.waitAck("env-int")
+	if n := len(e.slack.postsNow()); n != 0 {
+		t.Errorf("%d posts for events that ask nothing", n)
+	}
+}
