@@ -122,7 +122,9 @@ func (m *Metrics) QueueDepth(n int) {
 type Health struct {
 	ready atomic.Bool
 	sock  atomic.Value // string: Socket Mode connection state, "" when not used
-	depth func() int
+
+	// Depth, if set, reports the queue depth in the health answer.
+	Depth func() int
 }
 
 // SetReady marks the bot as serving (true) or draining (false).
@@ -146,8 +148,8 @@ func (h *Health) ServeHTTP(w http.ResponseWriter, r *http.Request) {
 	if s, _ := h.sock.Load().(string); s != "" {
 		body["socket"] = s
 	}
-	if h.depth != nil {
-		body["queue_depth"] = h.depth()
+	if h.Depth != nil {
+		body["queue_depth"] = h.Depth()
 	}
 	w.Header().Set("Content-Type", "application/json")
 	if !h.ready.Load() {

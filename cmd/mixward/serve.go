@@ -329,6 +329,7 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 	b := st.newBot(logger, metrics, access)
 	queue := bot.NewQueue(c.queueSize, metrics.QueueDepth)
 	queue.OnPanic = func(key string, v any) { logger.Error("answer failed with a panic", "thread", key, "panic", v) }
+	health.Depth = queue.Depth
 	sl := &bot.Slack{
 		Bot: b,
 		Poster: &bot.Poster{

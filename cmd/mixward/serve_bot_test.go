@@ -289,8 +289,13 @@ func TestServeHTTPEndToEnd(t *testing.T) {
 
 	// Operations endpoints.
 	h, err := http.Get(s.admin + "/healthz")
-	if err != nil || h.StatusCode != 200 {
-		t.Errorf("/healthz: %v %v", h, err)
+	if err != nil {
+		t.Fatal(err)
+	}
+	hb, _ := io.ReadAll(h.Body)
+	h.Body.Close()
+	if h.StatusCode != 200 || !strings.Contains(string(hb), `"ready":true`) || !strings.Contains(string(hb), `"queue_depth"`) {
+		t.Errorf("/healthz: %s %s", h.Status, hb)
 	}
 	var metrics []byte
 	for try := 0; try < 200; try++ { // the last job may still be finishing
