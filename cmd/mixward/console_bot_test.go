@@ -3,6 +3,7 @@ package main
 import (
 	"bytes"
 	"context"
+	"encoding/json"
 	"path/filepath"
 	"strings"
 	"testing"
@@ -178,5 +179,50 @@ func TestNoArgumentsStartsTheConsole(t *testing.T) {
 	stdout, stderr, code := runConsole(t, env, "mix 200 L NaOCl 12.5 % + 50 L HCl 10 %\n")
 	if code != 0 || !strings.Contains(stdout, "Verdict: SPONTANEOUS") {
 		t.Errorf("mixward with no arguments: exit %d\nstdout %s\nstderr %s", code, stdout, stderr)
+	}
+}
+
+// Every pair of demo streams gets an answer that fits Slack's Block Kit
+// limits once rendered.
+func TestDemoPairsRenderWithinBlockKitLimits(t *testing.T) {
+	eng := mustEngine(t)
+	demo, err := parseDemo(demoStreams)
+	if err != nil {
+		t.Fatal(err)
+	}
+	byTag := map[string]string{}
+	for _, d := range demo {
+		byTag[d.Tag] = d.Stream
+	}
+	resolve := func(tag string) (string, bool) { s, ok := byTag[tag]; return s, ok }
+	for i, a := range demo {
+		for _, b := range demo[i+1:] {
+			req := "mix " + a.Tag + " + " + b.Tag
+			res, err := eng.Ask(req, engine.AskOptions{Resolve: resolve})
+			if err != nil {
+				t.Errorf("%s: %v", req, err)
+				continue
+			}
+			msgs := bot.SplitMessages(engine.RenderText(res), bot.ResultBlocks(res, 1))
+			for _, m := range msgs {
+				if len(m.Blocks) > bot.MaxBlocks || len(m.Text) > bot.MaxFallback {
+					t.Errorf("%s: message of %d blocks, %d bytes of fallback", req, len(m.Blocks), len(m.Text))
+				}
+				js, _ := json.Marshal(m.Blocks)
+				var blocks []struct {
+					Type string `json:"type"`
+					Text struct {
+						Text string `json:"text"`
+					} `json:"text"`
+				}
+				json.Unmarshal(js, &blocks)
+				for _, bl := range blocks {
+					n := len([]rune(bl.Text.Text))
+					if bl.Type == "header" && n > bot.MaxHeaderChars || bl.Type == "section" && (n > bot.MaxSectionText || n == 0) {
+						t.Errorf("%s: %s block of %d characters", req, bl.Type, n)
+					}
+				}
+			}
+		}
 	}
 }
