@@ -23,6 +23,9 @@ const (
 	MaxFallback    = 3900 // the message "text": Slack truncates past 4000
 )
 
+// maxAlternatives is how many other reacting pairs a Slack answer lists.
+const maxAlternatives = 3
+
 // Advisory is said under every mix answer, whatever the engine adds.
 const Advisory = "Advisory only, not a permit: follow the safety data sheets, site procedures, management-of-change and local codes, and ask a qualified person before mixing."
 
@@ -245,13 +248,19 @@ func potentialLines(r *engine.Result) []string {
 	if a := r.Allowance; a != nil {
 		lines = append(lines, fmt.Sprintf("Kinetic allowance %s (%s): %s", esc(a.ID), volts(a.Volts), esc(a.Reason)))
 	}
+	shown := 0
 	for _, alt := range r.Alternatives {
 		if alt.Oxidizer == nil || alt.Reducer == nil {
 			continue
 		}
+		if shown == maxAlternatives {
+			lines = append(lines, fmt.Sprintf("… and %d more pairs with Ecell > 0 (the plain-text answer lists them all)", len(r.Alternatives)-shown))
+			break
+		}
+		shown++
 		l := fmt.Sprintf("Also possible: %s with %s, Ecell = %s", esc(alt.Oxidizer.Species), esc(alt.Reducer.Species), volts(alt.ECell))
 		if alt.Note != "" {
-			l += " (" + esc(alt.Note) + ")"
+			l += " (" + esc(truncate(alt.Note, 140)) + ")"
 		}
 		lines = append(lines, l)
 	}

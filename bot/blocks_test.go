@@ -230,3 +230,18 @@ func TestTruncate(t *testing.T) {
 		t.Errorf("truncate = %q", got)
 	}
 }
+
+func TestAlternativesCapped(t *testing.T) {
+	r := goldenResult()
+	for i := range 6 {
+		r.Alternatives = append(r.Alternatives, engine.Alternative{Oxidizer: &engine.Couple{Species: fmt.Sprint("Ox", i)}, Reducer: &engine.Couple{Species: "R"}, Note: strings.Repeat("slow ", 60)})
+	}
+	lines := potentialLines(r)
+	text := strings.Join(lines, "\n")
+	if n := strings.Count(text, "Also possible"); n != maxAlternatives {
+		t.Errorf("%d alternatives listed, want %d", n, maxAlternatives)
+	}
+	if !strings.Contains(text, "and 4 more pairs") {
+		t.Errorf("no count of the rest:\n%s", text)
+	}
+}
