@@ -118,7 +118,10 @@ func (s *Slack) process(ctx context.Context, in Incoming) {
 	}
 	detail, err := s.post(ctx, in, reply)
 	if err == nil {
-		s.Metrics.observeReply(s.now().Sub(in.Received))
+		took := s.now().Sub(in.Received)
+		s.Metrics.observeReply(took)
+		s.logger().Info("answered", "kind", reply.Kind, "query_id", reply.QueryID, "transport", in.Transport,
+			"channel", in.Channel, "user", in.UserID, "event_id", in.EventID, "retry", in.Retry, "took", took)
 	} else {
 		s.Metrics.failed("post")
 		s.logger().Error("answer not posted", "channel", in.Channel, "thread", in.ThreadTS, "query_id", reply.QueryID, "err", err)
