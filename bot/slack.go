@@ -7,6 +7,7 @@ import (
 	"log/slog"
 	"strings"
 	"sync"
+	"sync/atomic"
 	"time"
 
 	"github.com/slack-go/slack"
@@ -24,7 +25,7 @@ type Slack struct {
 	Poster        *Poster
 	Queue         *Queue
 	Plot          Plotter // may be nil: no picture
-	BotUserID     string  // the bot's own user id (auth.test); "" if unknown
+	BotUserID     string  // the bot's own user id (auth.test), if known before start; see SetBotUser
 	DigestChannel string  // where scheduled digests go
 	AckWait       time.Duration
 	Health        *Health
@@ -32,7 +33,20 @@ type Slack struct {
 	Logger        *slog.Logger
 	Metrics       *Metrics
 
-	seen seenSet
+	seen    seenSet
+	botUser atomic.Value // string set by SetBotUser
+}
+
+// SetBotUser records the bot's own user id once it is known (auth.test may
+// answer after the transports started). Safe to call concurrently.
+func (s *Slack) SetBotUser(id string) { s.botUser.Store(id) }
+
+// me is the bot's own user id, "" when not known.
+func (s *Slack) me() string {
+	if id, _ := s.botUser.Load().(string); id != "" {
+		return id
+	}
+	return s.BotUserID
 }
 
 func (s *Slack) now() time.Time {
@@ -212,21 +226,22 @@ func (s *Slack) FromEvent(ev slackevents.EventsAPIEvent, transport string, retry
 	}
 	cb, _ := ev.Data.(*slackevents.EventsAPICallbackEvent)
 	in := Incoming{Transport: transport, Retry: retry, Received: s.now()}
+	me := s.me()
 	if cb != nil {
 		in.EventID = cb.EventID
 	}
 	switch e := ev.InnerEvent.Data.(type) {
 	case *slackevents.AppMentionEvent:
-		if e.BotID != "" || (s.BotUserID != "" && e.User == s.BotUserID) || e.User == "" {
+		if e.BotID != "" || (me != "" && e.User == me) || e.User == "" {
 			return Incoming{}, false
 		}
-		in.Channel, in.UserID, in.Text = e.Channel, e.User, CleanText(e.Text, s.BotUserID)
+		in.Channel, in.UserID, in.Text = e.Channel, e.User, CleanText(e.Text, me)
 		in.ThreadTS = orDefault(e.ThreadTimeStamp, e.TimeStamp)
 	case *slackevents.MessageEvent:
-		if e.ChannelType != "im" || e.SubType != "" || e.BotID != "" || e.User == "" || (s.BotUserID != "" && e.User == s.BotUserID) {
+		if e.ChannelType != "im" || e.SubType != "" || e.BotID != "" || e.User == "" || (me != "" && e.User == me) {
 			return Incoming{}, false
 		}
-		in.Channel, in.UserID, in.Text = e.Channel, e.User, CleanText(e.Text, s.BotUserID)
+		in.Channel, in.UserID, in.Text = e.Channel, e.User, CleanText(e.Text, me)
 		in.ThreadTS = orDefault(e.ThreadTimeStamp, e.TimeStamp)
 	default:
 		return Incoming{}, false
@@ -244,7 +259,7 @@ func (s *Slack) FromCommand(c slack.SlashCommand, transport string) Incoming {
 		Channel:     c.ChannelID,
 		UserID:      c.UserID,
 		UserName:    c.UserName,
-		Text:        CleanText(c.Text, s.BotUserID),
+		Text:        CleanText(c.Text, s.me()),
 		Command:     orDefault(c.Command, "/mixward"),
 		ResponseURL: c.ResponseURL,
 		Received:    s.now(),

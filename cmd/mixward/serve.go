@@ -310,16 +310,6 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 	}
 	api := slack.New(c.botToken, opts...)
 
-	botUser := ""
-	actx, cancel := context.WithTimeout(ctx, 5*time.Second)
-	if at, err := api.AuthTestContext(actx); err == nil {
-		botUser = at.UserID
-		logger.Info("slack identity", "user_id", at.UserID, "bot_id", at.BotID, "team", at.Team)
-	} else {
-		logger.Warn("auth.test failed; carrying on without knowing the bot's user id", "err", err)
-	}
-	cancel()
-
 	access := &bot.Access{
 		Supervisors: bot.ParseIDList(c.supervisors),
 		Reviewers:   bot.ParseIDList(c.reviewers),
@@ -337,7 +327,6 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 		},
 		Queue:         queue,
 		Plot:          plotterFor(st.eng),
-		BotUserID:     botUser,
 		DigestChannel: c.digestChannel,
 		Health:        health,
 		Logger:        logger,
@@ -414,6 +403,20 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 	} else {
 		logger.Info("no digest channel: scheduled digests are off (set MIXWARD_DIGEST_CHANNEL)")
 	}
+
+	// Who am I: used to tell the bot's own messages and mentions apart. It
+	// is not needed to answer, so the transports do not wait for it.
+	wg.Go(func() {
+		actx, cancel := context.WithTimeout(runCtx, 10*time.Second)
+		defer cancel()
+		at, err := api.AuthTestContext(actx)
+		if err != nil {
+			logger.Warn("auth.test failed; carrying on without knowing the bot's user id", "err", err)
+			return
+		}
+		sl.SetBotUser(at.UserID)
+		logger.Info("slack identity", "user_id", at.UserID, "bot_id", at.BotID, "team", at.Team)
+	})
 
 	health.SetReady(true)
 	logger.Info("mixward serving", "engine", engine.Version, "data", shortHash(st.eng.Tables.Hash),
