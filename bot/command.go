@@ -65,8 +65,8 @@ var (
 )
 
 // CleanText turns Slack message text into what the operator typed: it drops
-// mentions of the bot (of any user at the very start when botUser is not
-// known), unwraps links, and undoes Slack's &amp; &lt; &gt; escaping.
+// mentions of the bot (when botUser is not known, any mention at the very
+// start or end), unwraps links, and undoes Slack's &amp; &lt; &gt; escaping.
 func CleanText(s, botUser string) string {
 	s = strings.TrimSpace(s)
 	if botUser != "" {
@@ -77,12 +77,25 @@ func CleanText(s, botUser string) string {
 			return m
 		})
 	} else {
+		// Not knowing which mention is the bot's, drop those that lead or
+		// end the message; mentions inside it (search user:<@U…>) stay.
 		for {
 			loc := userMention.FindStringIndex(s)
 			if loc == nil || loc[0] != 0 {
 				break
 			}
 			s = strings.TrimSpace(s[loc[1]:])
+		}
+		for {
+			all := userMention.FindAllStringIndex(s, -1)
+			if len(all) == 0 {
+				break
+			}
+			last := all[len(all)-1]
+			if last[1] != len(s) || (last[0] > 0 && s[last[0]-1] != ' ') {
+				break
+			}
+			s = strings.TrimSpace(s[:last[0]])
 		}
 	}
 	s = slackLink.ReplaceAllStringFunc(s, func(m string) string {

@@ -18,7 +18,9 @@ func TestCleanText(t *testing.T) {
 		{"hey <@UBOT> streams", "UBOT", "hey streams"},
 		{"<@UOTHER> <@UBOT> help", "UBOT", "<@UOTHER> help"},               // other mentions stay
 		{"<@UBOT> <@UBOT> help", "", "help"},                               // bot unknown: leading mentions go
-		{"search <@UOP> verdict:error", "", "search <@UOP> verdict:error"}, // not leading: kept
+		{"search <@UOP> verdict:error", "", "search <@UOP> verdict:error"}, // inside: kept
+		{"search user:<@UOP>", "", "search user:<@UOP>"},                   // part of a word: kept
+		{"mix 1 L NaOCl 12.5 % <@UBOT>", "", "mix 1 L NaOCl 12.5 %"},       // trailing: dropped
 		{"mix 1 L NaOCl &gt; 5 % &amp; more &lt;x", "", "mix 1 L NaOCl > 5 % & more <x"},
 		{"mix <http://example.invalid|T-101> + T-204", "", "mix T-101 + T-204"},
 		{"see <https://example.invalid/a>", "", "see https://example.invalid/a"},
