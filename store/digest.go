@@ -96,7 +96,7 @@ func (db *DB) Digest(ctx context.Context, since, until time.Time) (*Digest, erro
 	lo, hi := formatTime(since), formatTime(until)
 	for _, step := range []func() error{
 		func() error { return digestCounts(ctx, tx, d, window, lo, hi) },
-		func() error { return digestFlagged(ctx, tx, d, window, since, until) },
+		func() error { return digestFlagged(ctx, tx, d, window, lo, hi) },
 		func() error { return digestErrors(ctx, tx, d, window, lo, hi) },
 		func() error { return digestPairs(ctx, tx, d, window, lo, hi) },
 	} {
@@ -158,19 +158,14 @@ func digestCounts(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi str
 	return nil
 }
 
-func digestFlagged(ctx context.Context, tx *sql.Tx, d *Digest, window string, since, until time.Time) error {
-	// Walk the hazards of the window's id range (ids grow with time; the
-	// time test on q keeps it exact).
-	idLo, idHi, empty, err := idRange(ctx, tx, since, until)
-	if err != nil || empty {
-		return err
-	}
+func digestFlagged(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi string) error {
+	// The time index (which holds the verdict) drives; hazards are looked
+	// up by query id.
 	rows, err := tx.QueryContext(ctx, `SELECT q.id, q.time, q.user_id, q.user_name, q.channel, q.request, q.resolved,
 		       h.code, h.severity, h.message
-		  FROM query_hazards h JOIN queries q ON q.id = h.query_id
-		 WHERE h.query_id BETWEEN ? AND ? AND h.severity IN ('danger', 'warning')
-		   AND `+window+` AND q.verdict = 'spontaneous'
-		 ORDER BY h.query_id, h.pos`, idLo, idHi, formatTime(since), formatTime(until))
+		  FROM queries q CROSS JOIN query_hazards h ON h.query_id = q.id
+		 WHERE `+window+` AND q.verdict = 'spontaneous' AND h.severity IN ('danger', 'warning')
+		 ORDER BY q.time, q.id, h.pos`, lo, hi)
 	if err != nil {
 		return err
 	}

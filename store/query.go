@@ -235,9 +235,14 @@ func nullFloat(f *float64) sql.NullFloat64 {
 // highest ever issued, and a rolled-back transaction takes its id back.
 func (db *DB) appendRow(ctx context.Context, tx *sql.Tx, r *row, emptyPrev string) error {
 	var seq, lastID int64
-	var prev string
-	if err := db.ws.head.queryRow(ctx, tx, emptyPrev).Scan(&seq, &lastID, &prev); err != nil {
+	var prev, lastTime string
+	if err := db.ws.head.queryRow(ctx, tx, emptyPrev).Scan(&seq, &lastID, &prev, &lastTime); err != nil {
 		return err
+	}
+	if r.Time < lastTime && db.ver >= 2 {
+		if _, err := db.ws.timeBroken.exec(ctx, tx); err != nil {
+			return err
+		}
 	}
 	r.ID = max(seq, lastID) + 1
 	r.PrevHash = prev

@@ -158,11 +158,23 @@ func (db *DB) Search(ctx context.Context, o SearchOptions) (SearchPage, error) {
 }
 
 // idRange returns the id bounds of rows in [since, until); 0 means open.
-// empty is true when no row can be in the window.
+// empty is true when no row can be in the window. While row times never
+// went backwards (search_state.time_order_broken = 0) the bounds come from
+// the time index; otherwise from scans, which stay exact.
 func idRange(ctx context.Context, tx *sql.Tx, since, until time.Time) (lo, hi int64, empty bool, err error) {
+	var broken bool
+	if err := tx.QueryRowContext(ctx, `SELECT time_order_broken FROM search_state`).Scan(&broken); err != nil {
+		return 0, 0, false, err
+	}
+	loSQL := `SELECT min(id) FROM queries WHERE time = (SELECT min(time) FROM queries WHERE time >= ?)`
+	hiSQL := `SELECT max(id) FROM queries WHERE time = (SELECT max(time) FROM queries WHERE time < ?)`
+	if broken {
+		loSQL = `SELECT min(id) FROM queries WHERE time >= ?`
+		hiSQL = `SELECT max(id) FROM queries WHERE time < ?`
+	}
 	if !since.IsZero() {
 		var v sql.NullInt64
-		if err := tx.QueryRowContext(ctx, `SELECT min(id) FROM queries WHERE time >= ?`, formatTime(since)).Scan(&v); err != nil {
+		if err := tx.QueryRowContext(ctx, loSQL, formatTime(since)).Scan(&v); err != nil {
 			return 0, 0, false, err
 		}
 		if !v.Valid {
@@ -172,7 +184,7 @@ func idRange(ctx context.Context, tx *sql.Tx, since, until time.Time) (lo, hi in
 	}
 	if !until.IsZero() {
 		var v sql.NullInt64
-		if err := tx.QueryRowContext(ctx, `SELECT max(id) FROM queries WHERE time < ?`, formatTime(until)).Scan(&v); err != nil {
+		if err := tx.QueryRowContext(ctx, hiSQL, formatTime(until)).Scan(&v); err != nil {
 			return 0, 0, false, err
 		}
 		if !v.Valid {

@@ -3,6 +3,7 @@ package store
 import (
 	"context"
 	"errors"
+	"fmt"
 	"reflect"
 	"strings"
 	"testing"
@@ -313,5 +314,50 @@ func TestSearchIndexCatchesUp(t *testing.T) {
 	rawDB(t, path).QueryRow(`SELECT indexed_upto FROM search_state`).Scan(&n)
 	if n != 153 {
 		t.Errorf("indexed up to %d after Close, want 153", n)
+	}
+}
+
+// TestSearchWindowClockStepBack logs rows whose times go backwards (a clock
+// stepped back) and checks that time windows still find every row.
+func TestSearchWindowClockStepBack(t *testing.T) {
+	db, _ := mustOpen(t, nil)
+	ctx := context.Background()
+	for i, min := range []int{0, 10, 20, 5, 30} { // the fourth row is earlier than the third
+		q := demoQuery()
+		q.Time = t0.Add(time.Duration(min) * time.Minute)
+		q.Request = fmt.Sprintf("mix T-%d + HCl", 101+i)
+		mustLog(t, db, q)
+	}
+	var broken bool
+	db.r.QueryRowContext(ctx, `SELECT time_order_broken FROM search_state`).Scan(&broken)
+	if !broken {
+		t.Error("time_order_broken not set after a row earlier than the one before it")
+	}
+	for _, tc := range []struct {
+		since, until int
+		want         []int64
+	}{
+		{0, 8, []int64{4, 1}},
+		{4, 6, []int64{4}},
+		{5, 25, []int64{4, 3, 2}},
+		{25, 60, []int64{5}},
+	} {
+		o := SearchOptions{Terms: "HCl", Since: t0.Add(time.Duration(tc.since) * time.Minute), Until: t0.Add(time.Duration(tc.until) * time.Minute)}
+		page, err := db.Search(ctx, o)
+		if err != nil || !reflect.DeepEqual(ids(page.Queries), tc.want) {
+			t.Errorf("window %d–%d min: %v, %v; want %v", tc.since, tc.until, ids(page.Queries), err, tc.want)
+		}
+	}
+}
+
+func TestSearchWindowEqualTimes(t *testing.T) {
+	db, _ := mustOpen(t, newClock(t0).Now) // every row at the same instant
+	ctx := context.Background()
+	for i := 0; i < 5; i++ {
+		mustLog(t, db, demoQuery())
+	}
+	page, err := db.Search(ctx, SearchOptions{Terms: "HCl", Since: t0, Until: t0.Add(time.Second)})
+	if err != nil || !reflect.DeepEqual(ids(page.Queries), []int64{5, 4, 3, 2, 1}) {
+		t.Errorf("equal times: %v, %v", ids(page.Queries), err)
 	}
 }

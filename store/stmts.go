@@ -30,7 +30,7 @@ func (st *stmt) queryRow(ctx context.Context, tx *sql.Tx, args ...any) *sql.Row 
 
 // writeStmts are the statements of LogQuery.
 type writeStmts struct {
-	head, insert, hazard, index, event, indexed, setIndexed stmt
+	head, insert, hazard, index, event, indexed, setIndexed, timeBroken stmt
 }
 
 func newWriteStmts() *writeStmts {
@@ -38,7 +38,9 @@ func newWriteStmts() *writeStmts {
 		// The highest id ever issued, the newest row's id and its hash.
 		head: stmt{sql: `SELECT coalesce((SELECT seq FROM sqlite_sequence WHERE name = 'queries'), 0),
 			coalesce((SELECT max(id) FROM queries), 0),
-			coalesce((SELECT hash FROM queries ORDER BY id DESC LIMIT 1), ?)`},
+			coalesce((SELECT hash FROM queries ORDER BY id DESC LIMIT 1), ?),
+			coalesce((SELECT time FROM queries ORDER BY id DESC LIMIT 1), '')`},
+		timeBroken: stmt{sql: `UPDATE search_state SET time_order_broken = 1 WHERE time_order_broken = 0`},
 		insert: stmt{sql: `INSERT INTO queries (` + rowColumns + `)
 			VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`},
 		hazard: stmt{sql: `INSERT INTO query_hazards (query_id, pos, code, severity, message) VALUES (?, ?, ?, ?, ?)`},
@@ -73,5 +75,5 @@ func (ws *writeStmts) close() {
 }
 
 func (ws *writeStmts) all() []*stmt {
-	return []*stmt{&ws.head, &ws.insert, &ws.hazard, &ws.index, &ws.event, &ws.indexed, &ws.setIndexed}
+	return []*stmt{&ws.head, &ws.insert, &ws.hazard, &ws.index, &ws.event, &ws.indexed, &ws.setIndexed, &ws.timeBroken}
 }

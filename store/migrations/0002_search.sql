@@ -8,11 +8,18 @@
 -- indexes in batches (one FTS segment per batch instead of per query), and
 -- Search and Close first index whatever is left. search_state says up to
 -- which query id every row is indexed.
+--
+-- time_order_broken is 1 once some row's time is earlier than the row
+-- before it (a clock stepped back, or a caller-given time). While it is 0,
+-- a time window maps to an id range by two index look-ups; after, by scans.
 CREATE TABLE search_state (
-    id           INTEGER PRIMARY KEY CHECK (id = 1),
-    indexed_upto INTEGER NOT NULL
+    id                INTEGER PRIMARY KEY CHECK (id = 1),
+    indexed_upto      INTEGER NOT NULL,
+    time_order_broken INTEGER NOT NULL DEFAULT 0
 );
-INSERT INTO search_state (id, indexed_upto) VALUES (1, coalesce((SELECT max(id) FROM queries), 0));
+INSERT INTO search_state (id, indexed_upto, time_order_broken) VALUES (1,
+    coalesce((SELECT max(id) FROM queries), 0),
+    EXISTS (SELECT 1 FROM queries a JOIN queries b ON b.id = a.id + 1 WHERE b.time < a.time));
 
 -- order=DESC keeps doclists newest first, so a newest-first search reads
 -- only as far as the page it needs.
