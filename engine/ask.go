@@ -32,6 +32,7 @@ func New(fsys fs.FS) (*Engine, error) {
 			}
 		}
 		h.sig = signature(h)
+		h.textRed, h.textOx = halfText(h, false), halfText(h, true)
 		h.oxKeys, h.redKeys = nil, nil
 		for _, r := range h.Reactants {
 			if !isSolvent(r.Species) {

@@ -392,7 +392,7 @@ func solvePH(m *mixture, t *Tables) float64 {
 	if balance(hi) > 0 {
 		return hi
 	}
-	for range 60 {
+	for range 48 { // 18 pH units / 2^48: far below any meaningful digit
 		mid := (lo + hi) / 2
 		if balance(mid) > 0 {
 			lo = mid

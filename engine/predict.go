@@ -209,69 +209,73 @@ func (e *Engine) pairs(m *mixture, ox, red []*side) []*pair {
 func combine(ox, red *HalfReaction, med Medium) (*netReaction, error) {
 	l := lcm(ox.Electrons, red.Electrons)
 	a, b := l/ox.Electrons, l/red.Electrons
-	net := map[string]int{}
-	specs := map[string]Species{}
-	var order []string
-	addT := func(t Term, k int) {
+	// A handful of terms: a slice searched by key beats maps here.
+	type acc struct {
+		key string
+		sp  Species
+		n   int
+	}
+	terms := make([]acc, 0, 12)
+	addT := func(sp Species, k int) {
 		// Dissolved and gaseous forms of one molecule (Cl2, Cl2(g)) are one
 		// term; the first form met is kept.
-		key := mixKey(t.Species)
-		if _, ok := specs[key]; !ok {
-			specs[key] = t.Species
-			order = append(order, key)
+		key := mixKey(sp)
+		for i := range terms {
+			if terms[i].key == key {
+				terms[i].n += k
+				return
+			}
 		}
-		net[key] += k
+		terms = append(terms, acc{key: key, sp: sp, n: k})
 	}
 	for _, t := range ox.Reactants {
-		addT(t, -t.Coef*a)
+		addT(t.Species, -t.Coef*a)
 	}
 	for _, t := range red.Products {
-		addT(t, -t.Coef*b)
+		addT(t.Species, -t.Coef*b)
 	}
 	for _, t := range ox.Products {
-		addT(t, t.Coef*a)
+		addT(t.Species, t.Coef*a)
 	}
 	for _, t := range red.Reactants {
-		addT(t, t.Coef*b)
+		addT(t.Species, t.Coef*b)
 	}
 	water := Species{Formula: "H2O", Phase: Liquid}
 	proton := Species{Formula: "H", Charge: 1, Phase: Aqueous}
 	hydroxide := Species{Formula: "OH", Charge: -1, Phase: Aqueous}
 	// H+ and OH- on opposite sides make water; rewrite the one foreign to
 	// the medium.
-	if med == Acid {
-		if k := net[mixKey(hydroxide)]; k != 0 {
-			addT(Term{Species: water}, k)
-			addT(Term{Species: proton}, -k)
-			net[mixKey(hydroxide)] = 0
-		}
-	} else {
-		if k := net[mixKey(proton)]; k != 0 {
-			addT(Term{Species: water}, k)
-			addT(Term{Species: hydroxide}, -k)
-			net[mixKey(proton)] = 0
+	foreign, native := hydroxide, proton
+	if med != Acid {
+		foreign, native = proton, hydroxide
+	}
+	for i := range terms {
+		if k := terms[i].n; k != 0 && terms[i].key == foreign.Ion() {
+			terms[i].n = 0
+			addT(water, k)
+			addT(native, -k)
+			break
 		}
 	}
-
 	g := 0
-	for _, k := range order {
-		g = gcd(g, abs(net[k]))
+	for _, t := range terms {
+		g = gcd(g, abs(t.n))
 	}
 	if g == 0 {
 		return &netReaction{}, nil
 	}
-	rx := &netReaction{electrons: l / g}
-	for _, k := range order {
-		c := net[k] / g
-		switch {
-		case c < 0:
-			rx.reactants = append(rx.reactants, Term{Species: specs[k], Coef: -c})
-		case c > 0:
-			rx.products = append(rx.products, Term{Species: specs[k], Coef: c})
-		}
-	}
 	if l%g != 0 {
 		return nil, fmt.Errorf("engine: electrons %d not divisible by %d", l, g)
+	}
+	rx := &netReaction{electrons: l / g}
+	for _, t := range terms {
+		c := t.n / g
+		switch {
+		case c < 0:
+			rx.reactants = append(rx.reactants, Term{Species: t.sp, Coef: -c})
+		case c > 0:
+			rx.products = append(rx.products, Term{Species: t.sp, Coef: c})
+		}
 	}
 	return rx, nil
 }
@@ -350,6 +354,16 @@ func (rx *netReaction) out() *Reaction {
 // HalfText writes a half-reaction as a reduction ("MnO4- + 8 H+ + 5 e- →
 // Mn^2+ + 4 H2O(l)") or, reversed, as an oxidation.
 func HalfText(h *HalfReaction, reversed bool) string {
+	if reversed && h.textOx != "" {
+		return h.textOx
+	}
+	if !reversed && h.textRed != "" {
+		return h.textRed
+	}
+	return halfText(h, reversed)
+}
+
+func halfText(h *HalfReaction, reversed bool) string {
 	e := strconv.Itoa(h.Electrons) + " e-"
 	if h.Electrons == 1 {
 		e = "e-"

@@ -53,6 +53,7 @@ type HalfReaction struct {
 	// signature (see signature).
 	oxKeys, redKeys []string
 	sig             string
+	textRed, textOx string // HalfText as a reduction and reversed
 }
 
 // AcidBasePair is one conjugate acid–base pair (data/acidbase.txt).
