@@ -73,9 +73,9 @@ func sqlExec(t *testing.T, path, stmt string) {
 
 func TestLogVerifyCLI(t *testing.T) {
 	env, path := storeEnv(t)
-	code, out, _ := storeCLI(t, env, "log", "verify")
-	if code != 0 || !strings.Contains(out, "chain intact: 0 rows") {
-		t.Fatalf("verify on a fresh db: %d %q", code, out)
+	code, out, errOut := storeCLI(t, env, "log", "verify")
+	if code != 0 || !strings.Contains(out, "chain intact: 0 rows") || !strings.Contains(errOut, "created a new, empty log at "+path) {
+		t.Fatalf("verify on a fresh db: %d %q %q", code, out, errOut)
 	}
 	seedLog(t, path)
 	code, out, _ = storeCLI(t, env, "log", "verify")
@@ -88,7 +88,7 @@ func TestLogVerifyCLI(t *testing.T) {
 		t.Fatalf("verify json: %d %q", code, out)
 	}
 	sqlExec(t, path, `UPDATE queries SET verdict = 'no-reaction' WHERE id = 1`)
-	code, out, errOut := storeCLI(t, env, "log", "verify")
+	code, out, errOut = storeCLI(t, env, "log", "verify")
 	if code != exitFail || !strings.Contains(out, "CHAIN BROKEN at row 1") || !strings.Contains(errOut, "broken at row 1") {
 		t.Errorf("verify after an edit: code %d\n%s\n%s", code, out, errOut)
 	}

@@ -57,9 +57,13 @@ func openDB(ctx context.Context, a *app, o *storeOpts) (*store.DB, *time.Locatio
 	if err != nil {
 		return nil, nil, err
 	}
+	_, statErr := os.Stat(o.db)
 	db, err := store.Open(ctx, o.db, store.Options{Location: loc})
 	if err != nil {
 		return nil, nil, err
+	}
+	if errors.Is(statErr, os.ErrNotExist) {
+		fmt.Fprintf(a.stderr, "mixward: created a new, empty log at %s (set --db or MIXWARD_DB to use another)\n", o.db)
 	}
 	return db, loc, nil
 }
