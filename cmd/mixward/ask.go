@@ -18,7 +18,10 @@ import (
 // cmdDefault is plain `mixward`: the Slack bot when Slack tokens are set,
 // else the local console, so that a fresh machine starts something useful.
 func (a *app) cmdDefault(ctx context.Context) error {
-	if a.getenv("SLACK_BOT_TOKEN") != "" && (a.getenv("SLACK_APP_TOKEN") != "" || a.getenv("SLACK_SIGNING_SECRET") != "") {
+		socket := a.getenv("SLACK_APP_TOKEN") != ""
+	http := a.getenv("SLACK_SIGNING_SECRET") != "" && a.getenv("MIXWARD_HTTP_ADDR") != ""
+	if a.getenv("SLACK_BOT_TOKEN") != "" && (socket || http) {
+
 		return a.cmdServe(ctx, nil)
 	}
 	return a.cmdConsole(ctx, nil)

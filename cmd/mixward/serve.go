@@ -1,7 +1,6 @@
 package main
 
 import (
-	"bytes"
 	"context"
 	"errors"
 	"flag"
@@ -120,41 +119,10 @@ func checkStream(eng *engine.Engine, text string) error {
 	return nil
 }
 
-// curver is the engine's source of the two E–pH curves of a result, once
-// it has one.
-type curver interface {
-	Curves(r *engine.Result) (ox, red eph.Curve, ok bool)
-}
-
-// ephPlotter draws the E–pH picture of an answer.
-type ephPlotter struct{ c curver }
-
-func (p ephPlotter) Plot(r *engine.Result) ([]byte, bool, error) {
-	ox, red, ok := p.c.Curves(r)
-	if !ok {
-		return nil, false, nil
-	}
-	var buf bytes.Buffer
-	if err := eph.Draw(&buf, ox, red, r.Conditions.PH, truncateRunes(r.Request, 80)); err != nil {
-		return nil, false, err
-	}
-	return buf.Bytes(), true, nil
-}
-
-func truncateRunes(s string, n int) string {
-	r := []rune(s)
-	if len(r) <= n {
-		return s
-	}
-	return string(r[:n-1]) + "…"
-}
-
-// plotterFor returns the E–pH plotter when the engine can give curves.
+// plotterFor returns the E–pH plotter for answers, drawn from the
+// engine's half-reaction table.
 func plotterFor(eng *engine.Engine) bot.Plotter {
-	if c, ok := any(eng).(curver); ok {
-		return ephPlotter{c}
-	}
-	return nil
+	return eph.Plotter{Tables: eng.Tables}
 }
 
 // newLogger makes the structured log on stderr.
