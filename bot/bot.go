@@ -175,8 +175,13 @@ func usageReply(k Kind, err error) Reply {
 
 var tagWord = regexp.MustCompile(`\b[A-Za-z][A-Za-z0-9]*-[A-Za-z0-9][A-Za-z0-9_-]*\b`)
 
-// mix answers a mix request: engine, then log, then reply.
-func (b *Bot) mix(ctx context.Context, in Incoming, text string) Reply {
+// Record answers a mix request with the engine and writes the query to
+// the log before anything is shown: the one path of every front end (Slack,
+// the console, mixward ask). askErr is the engine's error (a
+// *engine.ParseError for a request that does not read); logErr is
+// store.ErrDuplicate for a delivery already logged, or why the log write
+// failed, in which case the answer must not be shown.
+func (b *Bot) Record(ctx context.Context, in Incoming, text string) (res *engine.Result, id int64, askErr, logErr error) {
 	var mu sync.Mutex
 	resolved := map[string]string{}
 	resolve := func(tag string) (string, bool) {
@@ -206,7 +211,7 @@ func (b *Bot) mix(ctx context.Context, in Incoming, text string) Reply {
 		EngineVersion: b.EngineVersion,
 		DataHash:      b.DataHash,
 	}
-	res, err := b.ask(text, engine.AskOptions{Resolve: resolve})
+	res, askErr = b.ask(text, engine.AskOptions{Resolve: resolve})
 	if len(resolved) > 0 {
 		q.Resolved = tagWord.ReplaceAllStringFunc(text, func(w string) string {
 			if s, ok := resolved[strings.ToUpper(w)]; ok {
@@ -217,20 +222,27 @@ func (b *Bot) mix(ctx context.Context, in Incoming, text string) Reply {
 	}
 	var pe *engine.ParseError
 	switch {
-	case err == nil:
+	case askErr == nil:
 		fillQuery(q, res)
-	case errors.As(err, &pe):
+	case errors.As(askErr, &pe):
 		q.Verdict = store.VerdictError
 		q.Error = pe.Error()
 	default:
-		b.logger().Error("engine failed", "request", text, "err", err)
+		b.logger().Error("engine failed", "request", text, "err", askErr)
 		b.Metrics.failed("engine")
 		q.Verdict = store.VerdictError
-		q.Error = "internal error: " + err.Error()
+		q.Error = "internal error: " + askErr.Error()
 	}
 	b.Metrics.verdict(q.Verdict)
+	id, logErr = b.logQuery(ctx, q)
+	return res, id, askErr, logErr
+}
 
-	id, err := b.logQuery(ctx, q)
+// mix answers a mix request: engine, then log, then reply.
+func (b *Bot) mix(ctx context.Context, in Incoming, text string) Reply {
+	res, id, askErr, err := b.Record(ctx, in, text)
+	var pe *engine.ParseError
+	errors.As(askErr, &pe)
 	if errors.Is(err, store.ErrDuplicate) {
 		b.Metrics.duplicate()
 		b.logger().Info("duplicate delivery not answered again", "event_id", in.EventID, "query_id", id)

@@ -18,7 +18,7 @@ import (
 // cmdDefault is plain `mixward`: the Slack bot when Slack tokens are set,
 // else the local console, so that a fresh machine starts something useful.
 func (a *app) cmdDefault(ctx context.Context) error {
-		socket := a.getenv("SLACK_APP_TOKEN") != ""
+	socket := a.getenv("SLACK_APP_TOKEN") != ""
 	http := a.getenv("SLACK_SIGNING_SECRET") != "" && a.getenv("MIXWARD_HTTP_ADDR") != ""
 	if a.getenv("SLACK_BOT_TOKEN") != "" && (socket || http) {
 
@@ -26,7 +26,6 @@ func (a *app) cmdDefault(ctx context.Context) error {
 	}
 	return a.cmdConsole(ctx, nil)
 }
-
 
 // loadEngine loads the embedded tables. A failure here is a broken build.
 func loadEngine() (*engine.Engine, error) {
@@ -77,10 +76,10 @@ func checkFormat(f string, allowed ...string) error {
 }
 
 func (a *app) cmdAsk(ctx context.Context, args []string) error {
-	fs := a.newFlags("ask", `ask [--format text|json] [--no-log] [--db PATH] "<request>"`)
+	fs := a.newFlags("ask", `ask [--format text|json] [--no-log] [--db PATH] [--tz ZONE] "<request>"`)
 	format := fs.String("format", "text", "output format: text or json")
 	noLog := fs.Bool("no-log", false, "do not record the query in the log")
-	dbPath := fs.String("db", envOr(a.getenv, "MIXWARD_DB", "mixward.db"), "SQLite log file (env MIXWARD_DB)")
+	so := storeFlags(a, fs)
 	pos, err := parseFlags(fs, args)
 	if err != nil {
 		return err
@@ -97,19 +96,12 @@ func (a *app) cmdAsk(ctx context.Context, args []string) error {
 	if err != nil {
 		return err
 	}
-	var logger *askLogger
-	if !*noLog {
-		logger, err = a.openAskLog(ctx, *dbPath)
-		if err != nil {
-			return err
-		}
-		defer logger.Close()
+	res, id, err, logErr := a.askOnce(ctx, eng, so, text, *noLog)
+	if logErr != nil {
+		return fmt.Errorf("%w: %v", errNotLogged, logErr)
 	}
-	res, err := eng.Ask(text, engine.AskOptions{Resolve: logger.resolver(ctx)})
-	if logger != nil {
-		if lerr := logger.Log(ctx, eng, text, res, err); lerr != nil {
-			return fmt.Errorf("the query was not logged, so no answer is given: %w", lerr)
-		}
+	if id > 0 {
+		fmt.Fprintf(a.stderr, "mixward: logged as query #%d in %s\n", id, so.db)
 	}
 	if err != nil {
 		var pe *engine.ParseError

@@ -2,20 +2,53 @@ package main
 
 import (
 	"context"
+	"errors"
+	"os"
 
+	"mixward/bot"
 	"mixward/engine"
+	"mixward/store"
 )
 
-// askLogger records `mixward ask` queries in the store. Until the store is
-// wired it records nothing.
-type askLogger struct{}
-
-func (a *app) openAskLog(ctx context.Context, path string) (*askLogger, error) { return nil, nil }
-
-func (l *askLogger) Close() error { return nil }
-
-func (l *askLogger) resolver(ctx context.Context) engine.Resolver { return nil }
-
-func (l *askLogger) Log(ctx context.Context, eng *engine.Engine, text string, res *engine.Result, askErr error) error {
-	return nil
+// askOnce answers one request for `mixward ask`. With logging it goes
+// through the same path as the chat (bot.Record): the query is written to
+// the log, as user $MIXWARD_USER or $USER in channel "cli", before the
+// answer is shown. Without logging, an existing log is still read for the
+// stream catalogue, so that tags resolve.
+func (a *app) askOnce(ctx context.Context, eng *engine.Engine, o *storeOpts, text string, noLog bool) (res *engine.Result, id int64, askErr error, err error) {
+	if noLog {
+		if _, statErr := os.Stat(o.db); statErr != nil {
+			res, askErr = eng.Ask(text, engine.AskOptions{})
+			return res, 0, askErr, nil
+		}
+	}
+	db, loc, err := openDB(ctx, a, o)
+	if err != nil {
+		return nil, 0, nil, err
+	}
+	defer db.Close()
+	if noLog {
+		res, askErr = eng.Ask(text, engine.AskOptions{Resolve: catalogueResolver(ctx, db)})
+		return res, 0, askErr, nil
+	}
+	b := &bot.Bot{
+		Engine: eng, Log: db, Catalogue: db, Location: loc,
+		EngineVersion: engine.Version, DataHash: eng.Tables.Hash,
+	}
+	user := cliUser(a)
+	res, id, askErr, err = b.Record(ctx, bot.Incoming{Transport: "cli", Channel: "cli", UserID: user, UserName: user}, text)
+	return res, id, askErr, err
 }
+
+// catalogueResolver resolves stream tags from the site catalogue.
+func catalogueResolver(ctx context.Context, db *store.DB) engine.Resolver {
+	return func(tag string) (string, bool) {
+		s, err := db.Stream(ctx, tag)
+		if err != nil {
+			return "", false
+		}
+		return s.Stream, true
+	}
+}
+
+var errNotLogged = errors.New("the query could not be written to the log, so no answer is given (every answer is on record first)")
