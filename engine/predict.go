@@ -315,23 +315,15 @@ func (rx *netReaction) key() string {
 	if rx.keyText != "" {
 		return rx.keyText
 	}
-	var b strings.Builder
-	for _, t := range rx.reactants {
-		b.WriteString(strconv.Itoa(t.Coef))
-		b.WriteByte(' ')
-		b.WriteString(t.Formula)
-		b.WriteString(chargeText(t.Charge))
-		b.WriteByte(' ')
+	side := func(ts []Term) string {
+		parts := make([]string, len(ts))
+		for i, t := range ts {
+			parts[i] = strconv.Itoa(t.Coef) + " " + t.Formula + chargeText(t.Charge)
+		}
+		sort.Strings(parts)
+		return strings.Join(parts, " + ")
 	}
-	b.WriteByte('=')
-	for _, t := range rx.products {
-		b.WriteByte(' ')
-		b.WriteString(strconv.Itoa(t.Coef))
-		b.WriteByte(' ')
-		b.WriteString(t.Formula)
-		b.WriteString(chargeText(t.Charge))
-	}
-	rx.keyText = b.String()
+	rx.keyText = side(rx.reactants) + " = " + side(rx.products)
 	return rx.keyText
 }
 
