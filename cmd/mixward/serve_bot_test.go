@@ -422,6 +422,9 @@ func TestEnvExampleMatchesServe(t *testing.T) {
 	read := map[string]bool{}
 	getenv := func(k string) string { read[k] = true; return "" }
 	run(context.Background(), []string{"serve"}, getenv, strings.NewReader(""), io.Discard, io.Discard)
+	// The command-line section of the example is read by `ask`, not serve.
+	run(context.Background(), []string{"ask", "--db", filepath.Join(t.TempDir(), "env.db"), "Zn + HCl 1 M"}, getenv, strings.NewReader(""), io.Discard, io.Discard)
+	delete(read, "USER") // the login name, the fallback for MIXWARD_USER
 	for k := range read {
 		if !documented[k] {
 			t.Errorf("serve reads %s but deploy/mixward.env.example does not document it", k)
