@@ -238,15 +238,48 @@ func (b *Bot) Record(ctx context.Context, in Incoming, text string) (res *engine
 	return res, id, askErr, logErr
 }
 
+// deliveryLog is the part of the log that knows whether an answer was
+// posted (store.DB has it).
+type deliveryLog interface {
+	Deliveries(ctx context.Context, queryID int64) ([]store.Delivery, error)
+}
+
+// answeredBefore reports whether the answer to a logged query was posted.
+// When the log cannot tell, it says yes: a second answer is worse than a
+// redelivery left unanswered by a log that cannot be read.
+func (b *Bot) answeredBefore(ctx context.Context, id int64) bool {
+	dl, ok := b.Log.(deliveryLog)
+	if !ok || id == 0 {
+		return true
+	}
+	ds, err := dl.Deliveries(ctx, id)
+	if err != nil {
+		return true
+	}
+	for _, d := range ds {
+		if d.OK {
+			return true
+		}
+	}
+	return false
+}
+
 // mix answers a mix request: engine, then log, then reply.
 func (b *Bot) mix(ctx context.Context, in Incoming, text string) Reply {
 	res, id, askErr, err := b.Record(ctx, in, text)
 	var pe *engine.ParseError
 	errors.As(askErr, &pe)
 	if errors.Is(err, store.ErrDuplicate) {
-		b.Metrics.duplicate()
-		b.logger().Info("duplicate delivery not answered again", "event_id", in.EventID, "query_id", id)
-		return Reply{Kind: KindMix, QueryID: id, Duplicate: true}
+		if !b.answeredBefore(ctx, id) {
+			// Logged, but no post went through (the service stopped, or
+			// Slack was down): this redelivery is the chance to answer.
+			b.logger().Info("redelivery of a logged but unanswered query: answering now", "event_id", in.EventID, "query_id", id)
+			err = nil
+		} else {
+			b.Metrics.duplicate()
+			b.logger().Info("duplicate delivery not answered again", "event_id", in.EventID, "query_id", id)
+			return Reply{Kind: KindMix, QueryID: id, Duplicate: true}
+		}
 	}
 	if err != nil {
 		b.Metrics.failed("log")

@@ -601,3 +601,69 @@ func TestUnknownSocketEnvelopeIsAcknowledged(t *testing.T) {
 		t.Errorf("%d posts for events that ask nothing", n)
 	}
 }
+
+// TestLoggedButUnansweredAnsweredOnRedelivery: a query logged whose answer
+// never got through (Slack refused the post) is answered when Slack
+// delivers the event again, even to a restarted bot, and still logged once;
+// after an answer has gone through, a further redelivery is not answered.
+func TestLoggedButUnansweredAnsweredOnRedelivery(t *testing.T) {
+	e := newEnv(t)
+	failing := true
+	e.slack.fault = func(method string, n int) *fakeFault {
+		if method == "chat.postMessage" && failing {
+			return &fakeFault{Error: "channel_not_found"}
+		}
+		return nil
+	}
+	ev, _ := json.Marshal(mentionPayload("EvLost", "CPLANT", "UOP", "1700000100.000900", "<@UBOT> mix 1 L NaOCl 12.5 % + 1 L HCl 10 %"))
+	h := e.sl.HTTPHandler(bot.NewVerifier(e.secret, e.clock.Now))
+	if w := postEvents(t, h, signedRequest(t, "POST", "/slack/events", "application/json", ev, e.secret, e.clock.Now())); w.Code != 200 {
+		t.Fatalf("first delivery answered %d", w.Code)
+	}
+	e.drain()
+	qs := e.queries()
+	if len(qs) != 1 {
+		t.Fatalf("%d queries logged, want 1", len(qs))
+	}
+	ds, _ := e.db.Deliveries(context.Background(), qs[0].ID)
+	if len(ds) == 0 || ds[len(ds)-1].OK {
+		t.Fatalf("deliveries after a refused post = %+v, want a failure recorded", ds)
+	}
+
+	redeliver := func(retry int) {
+		t.Helper()
+		failing = false
+		e2 := &bot.Slack{Bot: e.bot, Poster: e.sl.Poster, Queue: bot.NewQueue(4, nil), Now: e.clock.Now}
+		r := signedRequest(t, "POST", "/slack/events", "application/json", ev, e.secret, e.clock.Now())
+		r.Header.Set("X-Slack-Retry-Num", fmt.Sprint(retry))
+		if w := postEvents(t, e2.HTTPHandler(bot.NewVerifier(e.secret, e.clock.Now)), r); w.Code != 200 {
+			t.Fatalf("redelivery %d answered %d", retry, w.Code)
+		}
+		if err := e2.Queue.Close(context.Background()); err != nil {
+			t.Fatal(err)
+		}
+	}
+	redeliver(1)
+	posted := 0
+	for _, p := range e.slack.postsNow() {
+		if p.ThreadTS == "1700000100.000900" {
+			posted++
+		}
+	}
+	if posted != 1 {
+		t.Fatalf("%d answers posted after the redelivery, want 1", posted)
+	}
+	redeliver(2)
+	again := 0
+	for _, p := range e.slack.postsNow() {
+		if p.ThreadTS == "1700000100.000900" {
+			again++
+		}
+	}
+	if again != 1 {
+		t.Errorf("%d answers after a second redelivery, want still 1", again)
+	}
+	if qs := e.queries(); len(qs) != 1 {
+		t.Errorf("%d queries logged, want 1", len(qs))
+	}
+}
