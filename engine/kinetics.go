@@ -8,15 +8,17 @@ type KineticRule struct {
 	Side    Role     // the role it slows: oxidizer or reducer
 	Couples []string // couple signatures OX/RED the rule applies to, or nil
 
-	Species []string // species (Species.Ion) the rule applies to, or nil
-	Volts   float64  // allowance in volts when ranking
-	When    string   // "always", or conditions on ph, t (°C) and conc (mol/L)
-	Reason  string
-	Source  string
+	Species  []string // species (Species.Ion) the rule applies to, or nil
+	Reducers []string // for a pair rule: the reducing species; Species are the oxidizing ones
+	Volts    float64  // allowance in volts when ranking
+	When     string   // "always", or conditions on ph, t (°C) and conc (mol/L)
+	Reason   string
+	Source   string
 
 	when func(ph, tC, conc float64) bool // compiled When
 }
 
-// SelfRole marks a kinetic allowance on a species that reacts with itself
-// (its oxidizer and reducer sides in one pair).
-const SelfRole Role = "self"
+// PairRole marks a kinetic allowance on one oxidizer–reducer pair (a
+// species with itself, or nitrate with ammonium): the pair's effective cell
+// potential is lowered, not either couple's.
+const PairRole Role = "pair"

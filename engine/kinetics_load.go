@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"io/fs"
+	"slices"
 	"strconv"
 	"strings"
 )
@@ -40,13 +41,25 @@ func loadKinetics(fsys fs.FS) ([]*KineticRule, error) {
 			continue
 		}
 		seen[r.ID] = true
-		if r.Side != OxidizerRole && r.Side != ReducerRole && r.Side != SelfRole {
-			bad("side %q must be oxidizer, reducer or self", f[1])
+		if r.Side != OxidizerRole && r.Side != ReducerRole && r.Side != PairRole {
+			bad("side %q must be oxidizer, reducer or pair", f[1])
 			continue
 		}
-		if r.Side == SelfRole && !strings.HasPrefix(f[2], "species ") {
-			bad("a self allowance names species, not couples")
-			continue
+		if r.Side == PairRole {
+			ox, red, ok := strings.Cut(strings.TrimPrefix(f[2], "species "), "/")
+			if !strings.HasPrefix(f[2], "species ") || !ok {
+				bad("a pair allowance is written \"species OX, ... / RED, ...\", not %q", f[2])
+				continue
+			}
+			var err error
+			if r.Species, err = ionList(ox); err == nil {
+				r.Reducers, err = ionList(red)
+			}
+			if err != nil {
+				bad("%v", err)
+				continue
+			}
+			f[2] = "pair"
 		}
 		kind, rest, _ := strings.Cut(f[2], " ")
 		switch kind {
@@ -59,14 +72,12 @@ func loadKinetics(fsys fs.FS) ([]*KineticRule, error) {
 				}
 				r.Couples = append(r.Couples, c)
 			}
+		case "pair":
 		case "species":
-			for _, s := range strings.Split(rest, ",") {
-				sp, err := ParseSpecies(s)
-				if err != nil {
-					bad("%v", err)
-					continue
-				}
-				r.Species = append(r.Species, sp.Ion())
+			var err error
+			if r.Species, err = ionList(rest); err != nil {
+				bad("%v", err)
+				continue
 			}
 		default:
 			bad("selector %q must start with \"couple\" or \"species\"", f[2])
@@ -213,18 +224,29 @@ func (r *KineticRule) matches(s *side) bool {
 	return false
 }
 
-// selfAllowance is the allowance of a species reacting with itself, if
-// any applies.
-func (e *Engine) selfAllowance(m *mixture, sp Species) *KineticRule {
+// ionList reads "A, B, C" as species in their Ion form.
+func ionList(s string) ([]string, error) {
+	var out []string
+	for _, x := range strings.Split(s, ",") {
+		sp, err := ParseSpecies(x)
+		if err != nil {
+			return nil, err
+		}
+		out = append(out, sp.Ion())
+	}
+	return out, nil
+}
+
+// pairAllowance is the largest pair allowance on oxidizer ox with reducer
+// red, if any applies.
+func (e *Engine) pairAllowance(m *mixture, ox, red Species) *KineticRule {
 	var best *KineticRule
 	for _, r := range e.Tables.Kinetics {
-		if r.Side != SelfRole || !r.when(m.pH, m.tempK-273.15, m.molar(sp)) {
+		if r.Side != PairRole || !r.when(m.pH, m.tempK-273.15, m.molar(ox)) {
 			continue
 		}
-		for _, x := range r.Species {
-			if x == sp.Ion() && (best == nil || r.Volts > best.Volts) {
-				best = r
-			}
+		if slices.Contains(r.Species, ox.Ion()) && slices.Contains(r.Reducers, red.Ion()) && (best == nil || r.Volts > best.Volts) {
+			best = r
 		}
 	}
 	return best

@@ -27,7 +27,7 @@ type pair struct {
 	eCellStd float64
 	eff      float64      // eCell less the kinetic allowances, used for ranking
 	med      Medium       // medium of the mix the equation is written for
-	self     *KineticRule // allowance on a species reacting with itself
+	self     *KineticRule // allowance on the pair as such (see PairRole)
 	rx       *netReaction
 	rxDone   bool
 }
@@ -177,11 +177,9 @@ func (e *Engine) pairs(m *mixture, ox, red []*side) []*pair {
 			}
 			p := &pair{ox: o, red: r, eCell: o.e - r.e, eCellStd: o.row.E0 - r.row.E0, med: med}
 			p.eff = o.effE() - r.effE()
-			if o.main.Ion() == r.main.Ion() {
-				if a := e.selfAllowance(m, o.main); a != nil {
-					p.eff -= a.Volts
-					p.self = a
-				}
+			if a := e.pairAllowance(m, o.main, r.main); a != nil {
+				p.eff -= a.Volts
+				p.self = a
 			}
 			out = append(out, p)
 		}
