@@ -18,6 +18,7 @@ type side struct {
 	e         float64   // reduction potential of the couple under the mix's conditions
 	discount  float64   // kinetic allowance in volts, always ≥ 0
 	allowance *KineticRule
+	cpl       *Couple // the couple as reported, built on first use
 }
 
 // pair is an oxidizer side and a reducer side that can react.
@@ -365,7 +366,11 @@ func halfText(h *HalfReaction, reversed bool) string {
 }
 
 func (s *side) couple() *Couple {
-	return &Couple{
+	if s.cpl != nil {
+		c := *s.cpl
+		return &c
+	}
+	s.cpl = &Couple{
 		Species:      s.main.Text(),
 		HalfReaction: HalfText(s.row, s.role == ReducerRole),
 		EStandard:    s.row.E0,
@@ -375,6 +380,8 @@ func (s *side) couple() *Couple {
 		Electrons:    s.row.Electrons,
 		Source:       s.row.Source,
 	}
+	c := *s.cpl
+	return &c
 }
 
 // round rounds x to d decimals, so that JSON carries no float noise.

@@ -32,6 +32,9 @@ type Species struct {
 // read as a subscript. Aqueous species carry no phase suffix; other phases do
 // (Cu(s), Cl2(g), H2O(l)).
 func (s Species) Text() string {
+	if s.Phase == Aqueous || s.Phase == "" {
+		return s.Ion()
+	}
 	t := s.Formula + chargeText(s.Charge)
 	if s.Phase != Aqueous && s.Phase != "" {
 		t += "(" + string(s.Phase) + ")"
@@ -40,7 +43,12 @@ func (s Species) Text() string {
 }
 
 // Ion is the species text without its phase suffix (Fe^3+, Cu, Cl2).
-func (s Species) Ion() string { return s.Formula + chargeText(s.Charge) }
+func (s Species) Ion() string {
+	if s.Charge == 0 {
+		return s.Formula
+	}
+	return s.Formula + chargeText(s.Charge)
+}
 
 func chargeText(z int) string {
 	switch z {
