@@ -24,7 +24,7 @@ import (
 
 // benchGenVersion changes when the generator does, so stale cached files
 // are not reused.
-const benchGenVersion = 4
+const benchGenVersion = 5
 
 const (
 	defaultBenchRows = 1_000_000

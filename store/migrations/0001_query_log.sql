@@ -31,8 +31,9 @@ CREATE TABLE queries (
     prev_hash         TEXT NOT NULL,
     hash              TEXT NOT NULL
 );
--- Covers the digest's counts (verdicts and askers over a time window).
-CREATE INDEX queries_time ON queries (time, kind, verdict, user_id, user_name);
+-- Covers the digest's counts and stream pairs over a time window, so they
+-- read no table rows.
+CREATE INDEX queries_time ON queries (time, kind, verdict, user_id, user_name, streams);
 CREATE UNIQUE INDEX queries_event ON queries (event_id) WHERE event_id <> '';
 CREATE INDEX queries_user_name ON queries (user_name COLLATE NOCASE);
 CREATE INDEX queries_user_id ON queries (user_id);
