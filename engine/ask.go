@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"io/fs"
 	"math"
+	"sort"
 	"strings"
 )
 
@@ -67,6 +68,9 @@ func New(fsys fs.FS) (*Engine, error) {
 	}
 	return &Engine{Tables: t}, nil
 }
+
+// maxAlternatives bounds the other reacting pairs listed with an answer.
+const maxAlternatives = 10
 
 // Cautions close every answer.
 var cautions = []string{
@@ -191,20 +195,25 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 		sp := Species{Formula: s.Formula, Charge: s.Charge, Phase: s.Phase}
 		s.Spectator = !inHead[sp.Ion()] && !sp.IsWater()
 	}
+	// Every other pair that could react, one entry per net reaction,
+	// strongest by E cell first, at most maxAlternatives.
+	var alts []*pair
 	seen := map[string]bool{head.rxn().key(): true}
 	for _, p := range ps {
-
-		if len(res.Alternatives) == 10 {
-			break
-		}
 		if p.eCell <= 0 || p.rxn() == nil || seen[p.rxn().key()] {
 			continue
 		}
 		seen[p.rxn().key()] = true
+		alts = append(alts, p)
+	}
+	sort.SliceStable(alts, func(i, j int) bool { return alts[i].eCell > alts[j].eCell })
+	if len(alts) > maxAlternatives {
+		alts = alts[:maxAlternatives]
+	}
+	for _, p := range alts {
 		if err := e.Tables.checkBalance(p.rxn()); err != nil {
 			return nil, err
 		}
-
 		alt := Alternative{
 			Oxidizer: p.ox.couple(), Reducer: p.red.couple(), Reaction: p.rxn().out(),
 			ECellStandard: roundDec(p.eCellStd, 4), ECell: roundDec(p.eCell, 4),
@@ -220,7 +229,6 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 		}
 		res.Alternatives = append(res.Alternatives, alt)
 	}
-	sortAlternatives(res.Alternatives)
 	e.outcome(res, m, head)
 	return res, nil
 }
@@ -229,15 +237,6 @@ func isWaterText(s SpeciesInfo) bool { return s.Formula == "H2O" && s.Charge == 
 
 func allowanceOut(a *KineticRule) *Allowance {
 	return &Allowance{ID: a.ID, Volts: a.Volts, Reason: a.Reason, Source: a.Source}
-}
-
-func sortAlternatives(a []Alternative) {
-	// Already ranked by effective potential; list strongest by E cell first.
-	for i := 1; i < len(a); i++ {
-		for j := i; j > 0 && a[j].ECell > a[j-1].ECell; j-- {
-			a[j], a[j-1] = a[j-1], a[j]
-		}
-	}
 }
 
 // speciesInfo lists the species of the mix with their roles.
@@ -306,8 +305,6 @@ func sigDigits(x float64, d int) float64 {
 	p := math.Pow(10, float64(d-1)-e)
 	return math.Round(x*p) / p
 }
-
-var _ = fmt.Sprintf
 
 // checkBalance is the last check on every equation reported: it must
 // conserve every element and charge. Combining balanced half-reactions

@@ -4,7 +4,6 @@ import (
 	"fmt"
 	"math"
 	"sort"
-	"strings"
 )
 
 // inMix is one species in the mix with its amount.
@@ -504,12 +503,4 @@ func (m *mixture) list() []*inMix {
 		out = append(out, water)
 	}
 	return out
-}
-
-func (m *mixture) String() string {
-	var b strings.Builder
-	for _, p := range m.list() {
-		fmt.Fprintf(&b, "%s %.4g; ", p.sp.Text(), p.mol)
-	}
-	return b.String()
 }

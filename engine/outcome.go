@@ -282,7 +282,7 @@ func (e *Engine) outcome(res *Result, m *mixture, head *pair) {
 	for _, g := range gasOrder {
 		gasKind[g] = "formed"
 	}
-		for _, g := range cur.outgas() { // volatile keys are mixKeys of dissolved molecules
+	for _, g := range cur.outgas() { // volatile keys are mixKeys of dissolved molecules
 		if _, ok := gasKind[g.Text]; !ok {
 			gasKind[g.Text] = g.Kind
 		}
@@ -363,7 +363,7 @@ func (m *mixture) outgas() []GasRelease {
 	}
 	var out []GasRelease
 	bar := m.pressureKPa / 100
-		for _, v := range volatile {
+	for _, v := range volatile {
 		p := m.species[v.aq]
 		if p == nil || p.mol <= 0 {
 			continue
