@@ -82,7 +82,9 @@ var severities = []string{"info", "warning", "danger"}
 // A query whose EventID is already logged is not written again: the
 // existing id is returned with an error wrapping ErrDuplicate. Text fields
 // are stored as given, except that invalid UTF-8 and NUL bytes become
-// U+FFFD.
+// U+FFFD. The full-text index, derived from the log, is brought up to date
+// every indexBatch queries inside the same transaction; Search and Close
+// index the rest first.
 func (db *DB) LogQuery(ctx context.Context, q *Query) (int64, error) {
 	if q == nil {
 		return 0, fmt.Errorf("log query: %w: nil query", ErrInvalid)
