@@ -33,8 +33,9 @@ type mixture struct {
 	strongBase  float64 // mol OH- from strong bases before neutralisation
 	neutralised float64 // mol H+ + OH- → H2O
 	notes       []string
-	massKg      float64 // total mass of the mixed liquid and dissolved solids, for heat
-	fict        float64 // charge standing in for streams with a stated pH (see buildMixture)
+	massKg      float64     // total mass of the mixed liquid and dissolved solids, for heat
+	fict        float64     // charge standing in for streams with a stated pH (see buildMixture)
+	dissolved   []dissolved // solids and near-pure liquids that dissolve into the mix
 }
 
 func (m *mixture) note(format string, args ...any) {
@@ -100,6 +101,18 @@ func pKw(tempK float64) float64 {
 	return pKw25 - dH/(gasConstant*math.Ln10)*(1/StandardTemperatureK-1/tempK)
 }
 
+// dissolved is a reagent that enters the mix as a solid or as a near-pure
+// liquid, whose heat of solution counts with the heat of the mix.
+type dissolved struct {
+	chem  *Chemical
+	mol   float64
+	phase Phase
+}
+
+// pureLiquidPct: a liquid reagent at or above this strength is taken as the
+// pure liquid for its heat of dilution (96 % sulfuric acid as H2SO4(l)).
+const pureLiquidPct = 90
+
 // buildMixture combines the streams of a request.
 func buildMixture(req *Request, t *Tables) (*mixture, error) {
 	m := &mixture{species: map[string]*inMix{}, tempK: req.TemperatureK, pressureKPa: req.PressureKPa}
@@ -146,6 +159,12 @@ func buildMixture(req *Request, t *Tables) (*mixture, error) {
 			mol, excess, err := componentMoles(st, c, vol, liquid, t, m)
 			if err != nil {
 				return nil, err
+			}
+			switch {
+			case !liquid && st.MassKg > 0 && ch.Class != Metal && ch.Class != SparingSalt:
+				m.dissolved = append(m.dissolved, dissolved{chem: ch, mol: mol, phase: Solid})
+			case liquid && c.Unit == PctWW && c.Value >= pureLiquidPct:
+				m.dissolved = append(m.dissolved, dissolved{chem: ch, mol: mol, phase: Liquid})
 			}
 			for _, g := range ch.Gives {
 				n := mol * float64(g.Coef)

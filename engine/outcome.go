@@ -301,6 +301,17 @@ func (e *Engine) outcome(res *Result, m *mixture, head *pair) {
 		res.Gases = append(res.Gases, gr)
 	}
 	heat := EstimateHeat(HeatInput{Reactions: heatRx, NeutralisedMol: m.neutralised, MassKg: m.massKg}, e.Tables.Enthalpies)
+	if q, ok := m.solutionHeat(e.Tables); ok && q != 0 {
+		heat.DissolutionkJ = q
+		if heat.HeatReleasedkJ != nil {
+			total := *heat.HeatReleasedkJ + q
+			heat.HeatReleasedkJ = &total
+			if m.massKg > 0 {
+				rise := TemperatureRise(total, m.massKg)
+				heat.TemperatureRiseC = &rise
+			}
+		}
+	}
 	roundPtr := func(p *float64, d int) {
 		if p != nil {
 			*p = roundDec(*p, d)
@@ -310,6 +321,7 @@ func (e *Engine) outcome(res *Result, m *mixture, head *pair) {
 	roundPtr(heat.HeatReleasedkJ, 1)
 	roundPtr(heat.TemperatureRiseC, 2)
 	heat.NeutralisationkJ = roundDec(heat.NeutralisationkJ, 1)
+	heat.DissolutionkJ = roundDec(heat.DissolutionkJ, 1)
 	res.Heat = &heat
 
 	if len(heat.Missing) > 0 {
@@ -382,4 +394,64 @@ func (m *mixture) outgas() []GasRelease {
 func reverseKey(rx *netReaction) string {
 	r := netReaction{reactants: rx.products, products: rx.reactants}
 	return r.key()
+}
+
+// solutionHeat is the heat released (kJ) by dissolving the solid and
+// near-pure liquid reagents of the mix into it, from formation enthalpies:
+// caustic pellets, quicklime, 96 % sulfuric acid. ok is false when a reagent
+// lacks data; those are left out of the estimate.
+func (m *mixture) solutionHeat(t *Tables) (kJ float64, ok bool) {
+	if !m.aqueous {
+		return 0, false
+	}
+	ok = true
+	for _, d := range m.dissolved {
+		rx, err := dissolution(d, t)
+		if err != nil {
+			ok = false
+			continue
+		}
+		dh, missing := ReactionEnthalpy(rx, t.Enthalpies)
+		if len(missing) > 0 {
+			ok = false
+			continue
+		}
+		kJ += -dh * d.mol
+	}
+	return kJ, ok
+}
+
+// dissolution writes "NaOH(s) → Na+ + OH-" for a dissolving reagent, with
+// the water it takes up or gives off.
+func dissolution(d dissolved, t *Tables) (*Reaction, error) {
+	solid := Species{Formula: d.chem.Formula, Phase: d.phase}
+	atoms, err := t.atomsOf(d.chem.Formula)
+	if err != nil {
+		return nil, err
+	}
+	diff := Atoms{}
+	for el, n := range atoms {
+		diff[el] = -n
+	}
+	r := &Reaction{Reactants: []EqTerm{{Formula: solid.Formula, Phase: solid.Phase, Coef: 1, Text: solid.Text()}}}
+	for _, g := range d.chem.Gives {
+		a, err := t.atomsOf(g.Formula)
+		if err != nil {
+			return nil, err
+		}
+		diff.Add(a, g.Coef)
+		r.Products = append(r.Products, EqTerm{Formula: g.Formula, Charge: g.Charge, Phase: g.Phase, Coef: g.Coef, Text: g.Species.Text()})
+	}
+	// What is left over is water taken up (CaO + H2O) or given off.
+	if k := diff["O"]; k != 0 {
+		w := EqTerm{Formula: "H2O", Phase: Liquid, Text: "H2O(l)"}
+		if k > 0 {
+			w.Coef = k
+			r.Reactants = append(r.Reactants, w)
+		} else {
+			w.Coef = -k
+			r.Products = append(r.Products, w)
+		}
+	}
+	return r, nil
 }

@@ -209,8 +209,9 @@ func renderAmounts(b *strings.Builder, r *Result) {
 	}
 	if h := r.Heat; h != nil {
 		switch {
-		case h.HeatReleasedkJ != nil && *h.HeatReleasedkJ == 0:
-			w("\nHeat: none estimated (no reaction runs and no strong acid meets strong base)\n")
+				case h.HeatReleasedkJ != nil && *h.HeatReleasedkJ == 0:
+			w("\nHeat: none estimated (no reaction runs, no strong acid meets strong base, nothing solid dissolves)\n")
+
 		case h.HeatReleasedkJ != nil:
 
 			if q := *h.HeatReleasedkJ; q >= 0 {
@@ -219,9 +220,13 @@ func renderAmounts(b *strings.Builder, r *Result) {
 				w("\nHeat: %s kJ taken up (the mix cools)", sigText(-q))
 			}
 
-			if h.NeutralisationkJ != 0 {
+						if h.NeutralisationkJ != 0 {
 				w(" (%s kJ of it from neutralisation)", sigText(h.NeutralisationkJ))
 			}
+			if h.DissolutionkJ != 0 {
+				w(" (%s kJ from dissolving solid or concentrated reagents)", sigText(h.DissolutionkJ))
+			}
+
 			if h.TemperatureRiseC != nil {
 				w(", temperature change about %+.1f °C", *h.TemperatureRiseC)
 			}

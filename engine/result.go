@@ -164,6 +164,7 @@ type Heat struct {
 	HeatReleasedkJ   *float64 `json:"heat_released_kj"`
 	TemperatureRiseC *float64 `json:"temperature_rise_c"`
 	NeutralisationkJ float64  `json:"neutralisation_kj"`
+	DissolutionkJ    float64  `json:"dissolution_kj"` // heat of dissolving solid or near-pure reagents, included in HeatReleasedkJ
 	Assumption       string   `json:"assumption"`
 	Missing          []string `json:"missing,omitempty"` // species without formation-enthalpy data
 }
