@@ -357,7 +357,7 @@ func fillQuery(q *store.Query, r *engine.Result) {
 		q.Hazards = append(q.Hazards, store.Hazard{Code: h.Code, Severity: string(h.Severity), Message: h.Message})
 	}
 	for _, s := range r.Streams {
-		q.Streams = append(q.Streams, s.Text)
+		q.Streams = append(q.Streams, s.Label)
 	}
 	if js, err := json.Marshal(r); err == nil {
 		q.Result = js

@@ -120,7 +120,7 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 		},
 	}
 	for _, st := range req.Streams {
-		so := StreamOut{Text: st.Text, Tag: st.Tag, VolumeL: st.VolumeL, MassKg: st.MassKg, PH: st.PH, Components: []string{}}
+		so := StreamOut{Text: st.Text, Label: st.Label(), Tag: st.Tag, VolumeL: st.VolumeL, MassKg: st.MassKg, PH: st.PH, Components: []string{}}
 		for _, c := range st.Components {
 			so.Components = append(so.Components, c.Chemical.Formula)
 		}

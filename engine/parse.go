@@ -30,6 +30,31 @@ type Stream struct {
 	PH         *float64
 }
 
+// Label names the stream for counting: its catalogue tag, or what it
+// holds without its amount ("NaOCl 12.5 %, NaOH 1 %"), so that the same
+// stream in different amounts counts as one.
+func (s *Stream) Label() string {
+	if s.Tag != "" {
+		return s.Tag
+	}
+	parts := make([]string, 0, len(s.Components)+1)
+	for _, c := range s.Components {
+		p := c.Chemical.Formula
+		if c.Unit != NoConc {
+			u := string(c.Unit)
+			if c.Unit == PctWW {
+				u = "%"
+			}
+			p += " " + strconv.FormatFloat(c.Value, 'g', -1, 64) + " " + u
+		}
+		parts = append(parts, p)
+	}
+	if s.PH != nil {
+		parts = append(parts, "pH "+strconv.FormatFloat(*s.PH, 'g', -1, 64))
+	}
+	return strings.Join(parts, ", ")
+}
+
 // HasVolume reports whether the stream states a liquid volume.
 func (s *Stream) HasVolume() bool { return s.VolumeL > 0 }
 

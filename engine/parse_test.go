@@ -216,3 +216,17 @@ func FuzzParseRequest(f *testing.F) {
 		}
 	})
 }
+
+func TestStreamLabel(t *testing.T) {
+	resolve := func(tag string) (string, bool) { return "200 L NaOCl 12.5 %", tag == "T-101" }
+	r, err := parse(t, "T-101 + 50 L NaOCl 12.5 %, NaOH 1 % + 20 L water, pH 11", resolve)
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := []string{"T-101", "NaOCl 12.5 %, NaOH 1 %", "H2O, pH 11"}
+	for i, w := range want {
+		if got := r.Streams[i].Label(); got != w {
+			t.Errorf("stream %d label = %q, want %q", i+1, got, w)
+		}
+	}
+}

@@ -209,7 +209,7 @@ func renderAmounts(b *strings.Builder, r *Result) {
 	}
 	if h := r.Heat; h != nil {
 		switch {
-				case h.HeatReleasedkJ != nil && *h.HeatReleasedkJ == 0:
+		case h.HeatReleasedkJ != nil && *h.HeatReleasedkJ == 0:
 			w("\nHeat: none estimated (no reaction runs, no strong acid meets strong base, nothing solid dissolves)\n")
 
 		case h.HeatReleasedkJ != nil:
@@ -220,7 +220,7 @@ func renderAmounts(b *strings.Builder, r *Result) {
 				w("\nHeat: %s kJ taken up (the mix cools)", sigText(-q))
 			}
 
-						if h.NeutralisationkJ != 0 {
+			if h.NeutralisationkJ != 0 {
 				w(" (%s kJ of it from neutralisation)", sigText(h.NeutralisationkJ))
 			}
 			if h.DissolutionkJ != 0 {

@@ -205,6 +205,7 @@ type Allowance struct {
 // StreamOut describes one stream of the request as the engine understood it.
 type StreamOut struct {
 	Text       string   `json:"text"`
+	Label      string   `json:"label"`         // the tag, or what is in the stream without its amount: counts "most-asked pairs"
 	Tag        string   `json:"tag,omitempty"` // catalogue tag the stream came from
 	VolumeL    float64  `json:"volume_l,omitempty"`
 	MassKg     float64  `json:"mass_kg,omitempty"`

@@ -378,6 +378,17 @@ func newQueryCSV(w io.Writer, export bool) *queryCSV {
 	return c
 }
 
+// csvText guards a text cell of a CSV export against spreadsheet formula
+// injection: a cell that starts with =, +, -, @, tab or carriage return gets
+// a leading apostrophe, so a spreadsheet shows it as text instead of running
+// it (OWASP, "CSV Injection"; common practice). The JSON export is verbatim.
+func csvText(s string) string {
+	if s != "" && strings.ContainsRune("=+-@\t\r", rune(s[0])) {
+		return "'" + s
+	}
+	return s
+}
+
 func (c *queryCSV) write(kind string, q *store.Query) {
 	f := func(p *float64) string {
 		if p == nil {
@@ -389,9 +400,10 @@ func (c *queryCSV) write(kind string, q *store.Query) {
 	for _, h := range q.Hazards {
 		hz = append(hz, fmt.Sprintf("%s %s: %s", h.Severity, h.Code, h.Message))
 	}
-	c.w.Write([]string{strconv.FormatInt(q.ID, 10), kind, q.Time.UTC().Format(time.RFC3339Nano), q.UserID, q.UserName,
-		q.Channel, q.EventID, q.Request, q.Resolved, q.Verdict, q.Error, strings.Join(q.Species, "; "), q.Oxidizer,
-		q.Reducer, f(q.ECellV), f(q.ECellStandardV), strings.Join(hz, "; "), strings.Join(q.Streams, "; "),
+	s := csvText
+	c.w.Write([]string{strconv.FormatInt(q.ID, 10), kind, q.Time.UTC().Format(time.RFC3339Nano), s(q.UserID), s(q.UserName),
+		s(q.Channel), s(q.EventID), s(q.Request), s(q.Resolved), q.Verdict, s(q.Error), s(strings.Join(q.Species, "; ")), s(q.Oxidizer),
+		s(q.Reducer), f(q.ECellV), f(q.ECellStandardV), s(strings.Join(hz, "; ")), s(strings.Join(q.Streams, "; ")),
 		q.EngineVersion, q.DataHash, q.PrevHash, q.Hash})
 	c.n++
 }
@@ -410,7 +422,8 @@ queries (parse failures included) and prune records, each with its hash and
 the hash of the row before it. CSV has a header row; JSON is one array of
 objects with the same snake_case fields as 'log search --format json' plus
 "kind" ("query" or "prune"). Without --since and --until the whole log is
-written.
+written. In CSV, a text cell starting with =, +, -, @ or a tab gets a leading
+apostrophe so that spreadsheets do not run it as a formula; JSON is verbatim.
 
 `+dateHelp)
 	o := storeFlags(a, fs)

@@ -30,3 +30,14 @@ func TestScripts(t *testing.T) {
 		},
 	})
 }
+
+func TestCSVText(t *testing.T) {
+	for in, want := range map[string]string{
+		"=HYPERLINK(\"x\")": "'=HYPERLINK(\"x\")", "+1": "'+1", "-5 L NaOCl": "'-5 L NaOCl", "@SUM(A1)": "'@SUM(A1)",
+		"\tx": "'\tx", "mix T-102 + T-204": "mix T-102 + T-204", "": "",
+	} {
+		if got := csvText(in); got != want {
+			t.Errorf("csvText(%q) = %q, want %q", in, got, want)
+		}
+	}
+}

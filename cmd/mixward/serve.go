@@ -34,20 +34,15 @@ type siteFlags struct {
 
 func (s *siteFlags) register(fs *flag.FlagSet, getenv func(string) string) {
 	fs.StringVar(&s.db, "db", envOr(getenv, "MIXWARD_DB", "mixward.db"), "SQLite query log and stream catalogue (env MIXWARD_DB)")
-	fs.StringVar(&s.tz, "tz", getenv("MIXWARD_TZ"), "site time zone for digests and dates, e.g. Europe/London; empty means the machine's (env MIXWARD_TZ)")
+	fs.StringVar(&s.tz, "tz", getenv("MIXWARD_TZ"), "site time zone for digests and dates, e.g. Europe/London; empty means UTC (env MIXWARD_TZ)")
 	fs.StringVar(&s.shifts, "shifts", envOr(getenv, "MIXWARD_SHIFTS", store.DefaultShifts), "shift changes as a 5-field cron spec in the site zone; a digest is made at each (env MIXWARD_SHIFTS)")
 }
 
 // location reads --tz.
+// location is the site time zone; unset means UTC, as for every other
+// subcommand, so the bot and the command line show the same times.
 func (s *siteFlags) location() (*time.Location, error) {
-	if s.tz == "" {
-		return time.Local, nil
-	}
-	loc, err := time.LoadLocation(s.tz)
-	if err != nil {
-		return nil, &exitError{exitUsage, fmt.Errorf("--tz %q: %v (use an IANA zone such as Europe/London, or UTC)", s.tz, err)}
-	}
-	return loc, nil
+	return siteLocation(s.tz)
 }
 
 // site is what both front ends open: engine, store, clock and zone.
