@@ -66,6 +66,15 @@ func New(fsys fs.FS) (*Engine, error) {
 			t.famOf[s.Ion()] = i
 		}
 	}
+	t.standIn = map[string]string{}
+	for _, h := range t.Half {
+		h.canon = canonical(t, h)
+		for _, tm := range append(append([]Term(nil), h.Reactants...), h.Products...) {
+			if ion, ok := hydroxideIon(t, tm.Species); ok {
+				t.standIn[mixKey(tm.Species)] = mixKey(ion)
+			}
+		}
+	}
 	return &Engine{Tables: t}, nil
 }
 
@@ -323,4 +332,54 @@ func (t *Tables) atomsOf(formula string) (Atoms, error) {
 		return a, nil
 	}
 	return ParseFormula(formula)
+}
+
+// canonical is a couple's signature with every species replaced by the
+// first member of its acid–base family, so that the acid and base forms of
+// one couple (HOCl/Cl- and OCl-/Cl-) compare equal.
+func canonical(t *Tables, h *HalfReaction) string {
+	form := func(ts []Term) string {
+		var parts []string
+		for _, tm := range ts {
+			if isSolvent(tm.Species) {
+				continue
+			}
+			k := tm.Species.Ion()
+			if i, ok := t.famOf[k]; ok && tm.Phase == Aqueous {
+				k = t.families[i].keys[0]
+			}
+			parts = append(parts, k)
+		}
+		sort.Strings(parts)
+		return strings.Join(parts, "+")
+	}
+	return form(h.Reactants) + "/" + form(h.Products)
+}
+
+// hydroxideIon is the dissolved metal ion a hydroxide or oxide solid
+// (Cr(OH)3, Fe(OH)2, ZnO) stands for: one metal atom, oxygen and hydrogen
+// only, the metal's charge 2·O − H.
+func hydroxideIon(t *Tables, s Species) (Species, bool) {
+	if s.Phase != Solid || s.Charge != 0 {
+		return Species{}, false
+	}
+	a, err := t.atomsOf(s.Formula)
+	if err != nil || a["O"] == 0 {
+		return Species{}, false
+	}
+	metal := ""
+	for el, n := range a {
+		if el == "O" || el == "H" {
+			continue
+		}
+		if metal != "" || n != 1 {
+			return Species{}, false
+		}
+		metal = el
+	}
+	z := 2*a["O"] - a["H"]
+	if metal == "" || z <= 0 || z > 4 {
+		return Species{}, false
+	}
+	return Species{Formula: metal, Charge: z, Phase: Aqueous}, true
 }

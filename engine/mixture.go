@@ -82,6 +82,21 @@ func (m *mixture) molar(s Species) float64 {
 	return p.mol / m.volumeL
 }
 
+// lookup finds the species with mixture key k, present and not minor. In a
+// basic mix a metal hydroxide or oxide solid that a couple names (Cr(OH)3)
+// is found as its dissolved ion (Cr^3+): in base that ion is the hydroxide.
+func (m *mixture) lookup(k string, t *Tables) *inMix {
+	if p := m.species[k]; p != nil && !p.minor && (p.mol > 0 || p.excess) {
+		return p
+	}
+	if ion, ok := t.standIn[k]; ok && m.pH >= 7 {
+		if p := m.species[ion]; p != nil && !p.minor && p.mol > 0 {
+			return p
+		}
+	}
+	return nil
+}
+
 // has reports whether a species is in the mix. Water, H+ and OH- are always
 // there in an aqueous mix.
 func (m *mixture) has(s Species) bool {
@@ -322,9 +337,14 @@ func componentMoles(st *Stream, c *Component, vol float64, liquid bool, t *Table
 
 // family is a chain of conjugate acid–base forms, most protonated first.
 type family struct {
-	members []Species
-	keys    []string  // mixKey of each member
-	pKa     []float64 // pKa[i] links members[i] and members[i+1]
+	// hydrolysis: a hydrated metal ion and its hydroxo form. They set the
+	// pH of metal-salt solutions, but the ion keeps its name in the species
+	// list and acts through its own couples (Cu^2+ stands for the hydrated
+	// ion in every form), so its amount is not split.
+	hydrolysis bool
+	members    []Species
+	keys       []string  // mixKey of each member
+	pKa        []float64 // pKa[i] links members[i] and members[i+1]
 }
 
 // families groups the acid–base pairs into chains (H3PO4 … PO4^3-).
@@ -349,7 +369,7 @@ func families(t *Tables) []family {
 	sort.Strings(heads)
 	for _, h := range heads {
 		p := next[h]
-		f := family{members: []Species{aqueousOf(p.Acid)}, keys: []string{p.Acid.Ion()}}
+		f := family{members: []Species{aqueousOf(p.Acid)}, keys: []string{p.Acid.Ion()}, hydrolysis: isHydrolysis(p)}
 		seen := map[string]bool{h: true}
 		for p != nil {
 			f.members = append(f.members, aqueousOf(p.Base))
@@ -365,6 +385,14 @@ func families(t *Tables) []family {
 		out = append(out, f)
 	}
 	return out
+}
+
+// isHydrolysis reports whether a pair is a metal ion losing H+ from a bound
+// water (Fe^3+ / FeOH^2+): the base carries one O more than the acid.
+func isHydrolysis(p *AcidBasePair) bool {
+	a, err1 := ParseFormula(p.Acid.Formula)
+	b, err2 := ParseFormula(p.Base.Formula)
+	return err1 == nil && err2 == nil && b["O"] == a["O"]+1
 }
 
 func aqueousOf(s Species) Species {
@@ -473,6 +501,11 @@ func (m *mixture) distribute(t *Tables) {
 			}
 		}
 		if total == 0 {
+			continue
+		}
+		if f.hydrolysis {
+			m.add(f.members[0], total, false)
+			m.get(f.members[0]).minor = false
 			continue
 		}
 		buf = f.fractions(h, buf)

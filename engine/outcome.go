@@ -47,7 +47,7 @@ func (m *mixture) available(s Species, t *Tables) (mol float64, limited bool) {
 		}
 		return 0, false
 	}
-	p := m.get(s)
+	p := m.lookup(mixKey(s), t)
 	if p == nil {
 		return 0, true
 	}
@@ -81,14 +81,14 @@ func (m *mixture) extent(rx *netReaction, t *Tables) (xi float64, limiting *Spec
 
 // react applies a reaction of extent xi to the mixture. Gases leave the
 // liquid; H+ and OH- are left to the charge balance.
-func (m *mixture) react(rx *netReaction, xi float64) (consumed, formed []AmountOf, gases []GasRelease) {
-	for _, t := range rx.reactants {
-		n := xi * float64(t.Coef)
-		consumed = append(consumed, AmountOf{Text: t.Species.Text(), Mol: sigDigits(n, 6), Phase: t.Phase})
-		if isSolvent(t.Species) {
+func (m *mixture) react(rx *netReaction, xi float64, t *Tables) (consumed, formed []AmountOf, gases []GasRelease) {
+	for _, tm := range rx.reactants {
+		n := xi * float64(tm.Coef)
+		consumed = append(consumed, AmountOf{Text: tm.Species.Text(), Mol: sigDigits(n, 6), Phase: tm.Phase})
+		if isSolvent(tm.Species) {
 			continue
 		}
-		if p := m.get(t.Species); p != nil && !p.excess {
+		if p := m.lookup(mixKey(tm.Species), t); p != nil && !p.excess {
 			p.mol = math.Max(0, p.mol-n)
 		}
 	}
@@ -229,7 +229,7 @@ func (e *Engine) outcome(res *Result, m *mixture, head *pair) {
 			firstXi = xi
 		}
 		ran[p.rxn().key()] = true
-		consumed, formed, gases := cur.react(p.rxn(), xi)
+		consumed, formed, gases := cur.react(p.rxn(), xi, e.Tables)
 		limText := lim.Text()
 		am := &Amounts{Limiting: &limText, ExtentMol: sigDigits(xi, 6), Consumed: consumed, Formed: formed}
 		rx := p.rxn().out()

@@ -74,32 +74,33 @@ func (e *Engine) sides(m *mixture) (ox, red []*side) {
 		return nil, nil
 	}
 	med := mediumOf(m.pH)
-	has := map[string]bool{} // role + species with a couple in the fitting medium
+	has := map[string]bool{} // couple signatures written for the fitting medium
 	for i, h := range e.Tables.Half {
 		if h.Medium != Any && h.Medium != med {
 			continue
 		}
+		has[h.sig] = true
 		if s := e.makeSide(m, h, i, OxidizerRole, h.Reactants); s != nil {
 			ox = append(ox, s)
-			has["o"+s.main.Ion()] = true
 		}
 		if s := e.makeSide(m, h, i, ReducerRole, h.Products); s != nil {
 			red = append(red, s)
-			has["r"+s.main.Ion()] = true
 		}
 	}
-	// A species whose couples are all written for the other medium (HOCl
-	// in a mix at pH 7.8, say) still acts through them: the Nernst
-	// correction makes the potential right at the mix's pH, and combine
-	// rewrites H+ or OH- into the mix's medium.
+	// A couple written only for the other medium (HOCl/Cl- in a mix at pH
+	// 7.8, MnO2/Mn^2+ in caustic) still acts: the Nernst correction makes
+	// its potential right at the mix's pH, and combine rewrites H+ or OH-
+	// into the mix's medium. It must not form a dissolved species the mix
+	// lacks, though: that species would enter the Nernst term at 1 mol/L,
+	// which the other medium cannot hold (Mn^2+ in caustic precipitates).
 	for i, h := range e.Tables.Half {
-		if h.Medium == Any || h.Medium == med {
+		if h.Medium == Any || h.Medium == med || has[h.sig] {
 			continue
 		}
-		if s := e.makeSide(m, h, i, OxidizerRole, h.Reactants); s != nil && !s.isWaterSide() && !has["o"+s.main.Ion()] {
+		if s := e.makeSide(m, h, i, OxidizerRole, h.Reactants); s != nil && !s.isWaterSide() && formsOnlyKnown(m, h.Products) {
 			ox = append(ox, s)
 		}
-		if s := e.makeSide(m, h, i, ReducerRole, h.Products); s != nil && !s.isWaterSide() && !has["r"+s.main.Ion()] {
+		if s := e.makeSide(m, h, i, ReducerRole, h.Products); s != nil && !s.isWaterSide() && formsOnlyKnown(m, h.Reactants) {
 			red = append(red, s)
 		}
 	}
@@ -112,8 +113,7 @@ func (e *Engine) makeSide(m *mixture, h *HalfReaction, idx int, role Role, terms
 		keys = h.oxKeys
 	}
 	for _, k := range keys {
-		p := m.species[k]
-		if p == nil || p.minor || (p.mol <= 0 && !p.excess) {
+		if m.lookup(k, e.Tables) == nil {
 			return nil
 		}
 	}
@@ -121,10 +121,10 @@ func (e *Engine) makeSide(m *mixture, h *HalfReaction, idx int, role Role, terms
 	found := false
 	for _, k := range keys {
 		if !found {
-			s.main = m.species[k].sp
+			s.main = m.lookup(k, e.Tables).sp
 			found = true
 		} else {
-			s.partners = append(s.partners, m.species[k].sp)
+			s.partners = append(s.partners, m.lookup(k, e.Tables).sp)
 		}
 	}
 	if !found {
@@ -153,6 +153,19 @@ func (e *Engine) makeSide(m *mixture, h *HalfReaction, idx int, role Role, terms
 	return s
 }
 
+// formsOnlyKnown reports whether every species a couple would form is in
+// the mix already, or is a solid or a gas (whose activity does not hang on
+// the standard-state assumption).
+func formsOnlyKnown(m *mixture, formed []Term) bool {
+	for _, t := range formed {
+		if isSolvent(t.Species) || t.Phase == Solid || t.Phase == Gas || m.has(t.Species) {
+			continue
+		}
+		return false
+	}
+	return true
+}
+
 // isWaterSide reports whether a side is water's own couple (H+/H2, H2O/H2,
 // O2/H2O, O2/OH-).
 func (s *side) isWaterSide() bool { return isSolvent(s.main) }
@@ -173,7 +186,9 @@ func (e *Engine) pairs(m *mixture, ox, red []*side) []*pair {
 	med := mediumOf(m.pH)
 	for _, o := range ox {
 		for _, r := range red {
-			if o.row == r.row || (o.isWaterSide() && r.isWaterSide()) {
+			// A couple against itself in another form (OCl-/Cl- with
+			// HOCl/Cl-) transfers no electrons: it is acid–base only.
+			if o.row == r.row || o.row.canon == r.row.canon || (o.isWaterSide() && r.isWaterSide()) {
 				continue
 			}
 			p := &pair{ox: o, red: r, eCell: o.e - r.e, eCellStd: o.row.E0 - r.row.E0, med: med}

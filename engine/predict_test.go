@@ -151,6 +151,24 @@ func TestWorkedExamples(t *testing.T) {
 			reactants: []term{{"HOCl", 0, 1}, {"H", 1, 1}, {"Cl", -1, 1}}, products: []term{{"Cl2", 0, 1}, {"H2O", 0, 1}},
 		},
 		{
+			name: "permanganate in alkaline solution gives MnO2", req: "KMnO4 1 % + Na2SO3 5 %, NaOH 2 %",
+			source:  "2 MnO4- + 3 SO3^2- + H2O → 2 MnO2 + 3 SO4^2- + 2 OH-: permanganate in alkaline solution is reduced to MnO2 (Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis; from memory); MnO4-/MnO2 base +0.595 V, CRC",
+			verdict: engine.Spontaneous, oxidizer: "MnO4-", reducer: "SO3^2-",
+			reactants: []term{{"MnO4", -1, 2}, {"SO3", -2, 3}}, products: []term{{"MnO2", 0, 2}, {"SO4", -2, 3}, {"OH", -1, 2}},
+		},
+		{
+			name: "peroxide oxidizes chromium(III) to chromate in caustic", req: "Cr2(SO4)3 0.1 M + H2O2 3 %, NaOH 10 %",
+			source:  "2 Cr(OH)3 + 3 HO2- + OH- → 2 CrO4^2- + 5 H2O, the alkaline peroxide test for chromium (Vogel, qualitative analysis; from memory); CrO4^2-/Cr(OH)3 −0.13 V, HO2-/OH- +0.878 V, CRC",
+			verdict: engine.Spontaneous, reducer: "Cr^3+",
+			reactants: []term{{"Cr(OH)3", 0, 2}, {"HO2", -1, 3}}, products: []term{{"CrO4", -2, 2}},
+		},
+		{
+			name: "hypochlorite oxidizes manganese(II) in caustic", req: "MnSO4 0.1 M + NaOCl 5 %, NaOH 5 %",
+			source:  "Mn2+ + OCl- + 2 OH- → MnO2 + Cl- + H2O, manganese removal by chlorination at high pH (common practice, no source)",
+			verdict: engine.Spontaneous, oxidizer: "OCl-", reducer: "Mn^2+",
+			products: []term{{"MnO2", 0, 1}, {"Cl", -1, 1}},
+		},
+		{
 			name: "water alone", req: "200 L water",
 			source:  "nothing but water: no oxidizer–reducer pair (common practice, no source)",
 			verdict: engine.NoReaction,

@@ -21,4 +21,7 @@ type Tables struct {
 	// lower-case formula (nil where two formulas fold together).
 	byFormula, byName, byFold map[string]*Chemical
 	atoms                     map[string]Atoms // atom counts of the half-reaction formulas
+	// standIn maps a metal hydroxide or oxide solid of a base couple
+	// (Cr(OH)3(s)) to the ion that stands for it in a basic mix (Cr^3+).
+	standIn map[string]string
 }

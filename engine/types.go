@@ -54,6 +54,7 @@ type HalfReaction struct {
 	oxKeys, redKeys []string
 	sig             string
 	textRed, textOx string // HalfText as a reduction and reversed
+	canon           string // sig with each species replaced by its acid–base family's first member
 }
 
 // AcidBasePair is one conjugate acid–base pair (data/acidbase.txt).
