@@ -30,14 +30,7 @@ console do that at each shift change). --sent lists the digests they sent.
 	format := fs.String("format", "text", "output `format`: text or json")
 	shifts := fs.String("shifts", shiftSpec(a), "shift-change `spec` (cron, site time zone) for the default period (env MIXWARD_SHIFTS)")
 	sent := fs.Bool("sent", false, "list the scheduled digests recorded as sent, newest first, instead")
-	pos, err := parseFlags(fs, args)
-	if err != nil {
-		return err
-	}
-	if err := noArgs(pos, "digest"); err != nil {
-		return err
-	}
-	if err := checkFormat(*format, "text", "json"); err != nil {
+	if err := parseNoArgs(fs, args, "digest", "text", "json"); err != nil {
 		return err
 	}
 	loc, err := siteLocation(o.tz)

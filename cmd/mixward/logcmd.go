@@ -174,6 +174,19 @@ func (a *app) cmdLog(ctx context.Context, args []string) error {
 	return usageErr("log: unknown command %q", args[0])
 }
 
+// parseNoArgs parses the flags of a subcommand that takes no arguments and
+// checks its --format flag against formats.
+func parseNoArgs(fs *flag.FlagSet, args []string, cmd string, formats ...string) error {
+	pos, err := parseFlags(fs, args)
+	if err != nil {
+		return err
+	}
+	if err := noArgs(pos, cmd); err != nil {
+		return err
+	}
+	return checkFormat(fs.Lookup("format").Value.String(), formats...)
+}
+
 func noArgs(pos []string, cmd string) error {
 	if len(pos) > 0 {
 		return usageErr("%s takes no arguments, got %q", cmd, strings.Join(pos, " "))
@@ -192,14 +205,7 @@ Note the head hash in the shift report: a later verify that shows the same
 hash proves nothing up to it was rewritten.`)
 	o := storeFlags(a, fs)
 	format := fs.String("format", "text", "output `format`: text or json")
-	pos, err := parseFlags(fs, args)
-	if err != nil {
-		return err
-	}
-	if err := noArgs(pos, "log verify"); err != nil {
-		return err
-	}
-	if err := checkFormat(*format, "text", "json"); err != nil {
+	if err := parseNoArgs(fs, args, "log verify", "text", "json"); err != nil {
 		return err
 	}
 	db, _, err := openDB(ctx, a, o)
@@ -431,14 +437,7 @@ apostrophe so that spreadsheets do not run it as a formula; JSON is verbatim.
 	until := fs.String("until", "", "`date` to stop before")
 	format := fs.String("format", "csv", "output `format`: csv or json")
 	out := fs.String("out", "", "write to this new `file` instead of standard output (never overwrites)")
-	pos, err := parseFlags(fs, args)
-	if err != nil {
-		return err
-	}
-	if err := noArgs(pos, "log export"); err != nil {
-		return err
-	}
-	if err := checkFormat(*format, "csv", "json"); err != nil {
+	if err := parseNoArgs(fs, args, "log export", "csv", "json"); err != nil {
 		return err
 	}
 	loc, err := siteLocation(o.tz)

@@ -127,14 +127,7 @@ List the current stream catalogue by tag, with who changed each tag last
 and when.`)
 	o := storeFlags(a, fs)
 	format := fs.String("format", "text", "output `format`: text or json")
-	pos, err := parseFlags(fs, args)
-	if err != nil {
-		return err
-	}
-	if err := noArgs(pos, "streams list"); err != nil {
-		return err
-	}
-	if err := checkFormat(*format, "text", "json"); err != nil {
+	if err := parseNoArgs(fs, args, "streams list", "text", "json"); err != nil {
 		return err
 	}
 	db, loc, err := openDB(ctx, a, o)
