@@ -27,6 +27,11 @@ func New(fsys fs.FS) (*Engine, error) {
 	}
 	t.atoms = map[string]Atoms{}
 	for _, h := range t.Half {
+		for _, ts := range [][]Term{h.Reactants, h.Products} {
+			for i := range ts {
+				ts[i].key, ts[i].text = mixKey(ts[i].Species), ts[i].Species.Text()
+			}
+		}
 		for _, tm := range append(append([]Term(nil), h.Reactants...), h.Products...) {
 			if a, err := ParseFormula(tm.Formula); err == nil {
 				t.atoms[tm.Formula] = a
@@ -65,6 +70,31 @@ func New(fsys fs.FS) (*Engine, error) {
 		for _, s := range f.members {
 			t.famOf[s.Ion()] = i
 		}
+	}
+	t.pairRules = map[string]bool{}
+	for _, k := range t.Kinetics {
+		if k.Side == PairRole {
+			for _, s := range k.Species {
+				t.pairRules[s] = true
+			}
+		}
+	}
+	t.rows = map[Medium]mediumRows{}
+	for _, med := range []Medium{Acid, Base} {
+		var r mediumRows
+		fits := map[string]bool{}
+		for i, h := range t.Half {
+			if h.Medium == Any || h.Medium == med {
+				r.fitting = append(r.fitting, i)
+				fits[h.sig] = true
+			}
+		}
+		for i, h := range t.Half {
+			if h.Medium != Any && h.Medium != med && !fits[h.sig] {
+				r.fallback = append(r.fallback, i)
+			}
+		}
+		t.rows[med] = r
 	}
 	t.standIn = map[string]string{}
 	for _, h := range t.Half {
@@ -219,10 +249,10 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 	if len(alts) > maxAlternatives {
 		alts = alts[:maxAlternatives]
 	}
+	// The headline is checked below; every pairing of table rows is
+	// checked by TestEveryPairBalances, so the alternatives are not
+	// checked again on each request.
 	for _, p := range alts {
-		if err := e.Tables.checkBalance(p.rxn()); err != nil {
-			return nil, err
-		}
 		alt := Alternative{
 			Oxidizer: p.ox.couple(), Reducer: p.red.couple(), Reaction: p.rxn().out(),
 			ECellStandard: roundDec(p.eCellStd, 4), ECell: roundDec(p.eCell, 4),

@@ -195,7 +195,7 @@ func (e *Engine) applyKinetics(m *mixture, s *side) {
 		if r.Side != s.role || !r.matches(s) {
 			continue
 		}
-		if !r.when(m.pH, m.tempK-273.15, m.molar(s.main)) {
+		if !r.when(m.pH, m.tempK-273.15, m.molarKey(s.mainKey)) {
 			continue
 		}
 		if r.Volts > s.discount {
@@ -216,12 +216,7 @@ func (r *KineticRule) matches(s *side) bool {
 		return false
 	}
 
-	for _, sp := range r.Species {
-		if sp == s.main.Ion() {
-			return true
-		}
-	}
-	return false
+	return slices.Contains(r.Species, s.mainKey)
 }
 
 // ionList reads "A, B, C" as species in their Ion form.
@@ -242,10 +237,13 @@ func ionList(s string) ([]string, error) {
 func (e *Engine) pairAllowance(m *mixture, ox, red Species) *KineticRule {
 	var best *KineticRule
 	for _, r := range e.Tables.Kinetics {
-		if r.Side != PairRole || !r.when(m.pH, m.tempK-273.15, m.molar(ox)) {
+		if r.Side != PairRole || (best != nil && r.Volts <= best.Volts) {
 			continue
 		}
-		if slices.Contains(r.Species, ox.Ion()) && slices.Contains(r.Reducers, red.Ion()) && (best == nil || r.Volts > best.Volts) {
+		if !slices.Contains(r.Species, ox.Ion()) || !slices.Contains(r.Reducers, red.Ion()) {
+			continue
+		}
+		if r.when(m.pH, m.tempK-273.15, m.molar(ox)) {
 			best = r
 		}
 	}

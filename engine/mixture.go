@@ -73,6 +73,15 @@ func (m *mixture) get(s Species) *inMix {
 	return m.species[mixKey(s)]
 }
 
+// molarKey is molar for the species with mixture key k.
+func (m *mixture) molarKey(k string) float64 {
+	p := m.species[k]
+	if p == nil || m.volumeL <= 0 {
+		return 0
+	}
+	return p.mol / m.volumeL
+}
+
 // molar is the concentration of an aqueous species in mol/L, 0 when absent.
 func (m *mixture) molar(s Species) float64 {
 	p := m.get(s)
@@ -89,7 +98,10 @@ func (m *mixture) lookup(k string, t *Tables) *inMix {
 	if p := m.species[k]; p != nil && !p.minor && (p.mol > 0 || p.excess) {
 		return p
 	}
-	if ion, ok := t.standIn[k]; ok && m.pH >= 7 {
+	if m.pH < 7 {
+		return nil
+	}
+	if ion, ok := t.standIn[k]; ok {
 		if p := m.species[ion]; p != nil && !p.minor && p.mol > 0 {
 			return p
 		}
@@ -438,7 +450,7 @@ func solvePH(m *mixture, t *Tables) float64 {
 	if balance(hi) > 0 {
 		return hi
 	}
-	for range 48 { // 18 pH units / 2^48: far below any meaningful digit
+	for range 34 { // 18 pH units / 2^34 ≈ 1e-9: well below any digit shown
 		mid := (lo + hi) / 2
 		if balance(mid) > 0 {
 			lo = mid

@@ -19,6 +19,7 @@ type side struct {
 	discount  float64   // kinetic allowance in volts, always ≥ 0
 	allowance *KineticRule
 	cpl       *Couple // the couple as reported, built on first use
+	mainKey   string  // mixKey(main)
 }
 
 // pair is an oxidizer side and a reducer side that can react.
@@ -74,12 +75,9 @@ func (e *Engine) sides(m *mixture) (ox, red []*side) {
 		return nil, nil
 	}
 	med := mediumOf(m.pH)
-	has := map[string]bool{} // couple signatures written for the fitting medium
-	for i, h := range e.Tables.Half {
-		if h.Medium != Any && h.Medium != med {
-			continue
-		}
-		has[h.sig] = true
+	rows := e.Tables.rows[med]
+	for _, i := range rows.fitting {
+		h := e.Tables.Half[i]
 		if s := e.makeSide(m, h, i, OxidizerRole, h.Reactants); s != nil {
 			ox = append(ox, s)
 		}
@@ -93,14 +91,12 @@ func (e *Engine) sides(m *mixture) (ox, red []*side) {
 	// into the mix's medium. It must not form a dissolved species the mix
 	// lacks, though: that species would enter the Nernst term at 1 mol/L,
 	// which the other medium cannot hold (Mn^2+ in caustic precipitates).
-	for i, h := range e.Tables.Half {
-		if h.Medium == Any || h.Medium == med || has[h.sig] {
-			continue
-		}
-		if s := e.makeSide(m, h, i, OxidizerRole, h.Reactants); s != nil && !s.isWaterSide() && formsOnlyKnown(m, h.Products) {
+	for _, i := range rows.fallback {
+		h := e.Tables.Half[i]
+		if s := e.makeSide(m, h, i, OxidizerRole, h.Reactants); s != nil && !s.isWaterSide() && formsOnlyKnown(m, e.Tables, h.Products) {
 			ox = append(ox, s)
 		}
-		if s := e.makeSide(m, h, i, ReducerRole, h.Products); s != nil && !s.isWaterSide() && formsOnlyKnown(m, h.Reactants) {
+		if s := e.makeSide(m, h, i, ReducerRole, h.Products); s != nil && !s.isWaterSide() && formsOnlyKnown(m, e.Tables, h.Reactants) {
 			red = append(red, s)
 		}
 	}
@@ -121,7 +117,8 @@ func (e *Engine) makeSide(m *mixture, h *HalfReaction, idx int, role Role, terms
 	found := false
 	for _, k := range keys {
 		if !found {
-			s.main = m.lookup(k, e.Tables).sp
+			p := m.lookup(k, e.Tables)
+			s.main, s.mainKey = p.sp, p.key
 			found = true
 		} else {
 			s.partners = append(s.partners, m.lookup(k, e.Tables).sp)
@@ -147,6 +144,7 @@ func (e *Engine) makeSide(m *mixture, h *HalfReaction, idx int, role Role, terms
 			return nil
 		}
 		s.main = pick
+		s.mainKey = mixKey(pick)
 	}
 	s.e = m.potential(h)
 	e.applyKinetics(m, s)
@@ -155,10 +153,18 @@ func (e *Engine) makeSide(m *mixture, h *HalfReaction, idx int, role Role, terms
 
 // formsOnlyKnown reports whether every species a couple would form is in
 // the mix already, or is a solid or a gas (whose activity does not hang on
-// the standard-state assumption).
-func formsOnlyKnown(m *mixture, formed []Term) bool {
-	for _, t := range formed {
-		if isSolvent(t.Species) || t.Phase == Solid || t.Phase == Gas || m.has(t.Species) {
+// the standard-state assumption) — but not a metal oxide or hydroxide in an
+// acid mix, which would dissolve again (Cu2O, Fe(OH)3 in acid; common
+// practice, no source).
+func formsOnlyKnown(m *mixture, t *Tables, formed []Term) bool {
+	for i := range formed {
+		tm := &formed[i]
+		if tm.Phase == Solid && m.pH < 7 {
+			if _, oxide := t.standIn[tm.mixKey()]; oxide {
+				return false
+			}
+		}
+		if isSolvent(tm.Species) || tm.Phase == Solid || tm.Phase == Gas || m.has(tm.Species) {
 			continue
 		}
 		return false
@@ -193,9 +199,11 @@ func (e *Engine) pairs(m *mixture, ox, red []*side) []*pair {
 			}
 			p := &pair{ox: o, red: r, eCell: o.e - r.e, eCellStd: o.row.E0 - r.row.E0, med: med}
 			p.eff = o.effE() - r.effE()
-			if a := e.pairAllowance(m, o.main, r.main); a != nil {
-				p.eff -= a.Volts
-				p.self = a
+			if e.Tables.pairRules[o.mainKey] {
+				if a := e.pairAllowance(m, o.main, r.main); a != nil {
+					p.eff -= a.Volts
+					p.self = a
+				}
 			}
 			out = append(out, p)
 		}
@@ -225,48 +233,45 @@ func combine(ox, red *HalfReaction, med Medium) (*netReaction, error) {
 	a, b := l/ox.Electrons, l/red.Electrons
 	// A handful of terms: a slice searched by key beats maps here.
 	type acc struct {
-		key string
-		sp  Species
-		n   int
+		key, text string
+		sp        Species
+		n         int
 	}
 	terms := make([]acc, 0, 12)
-	addT := func(sp Species, k int) {
+	addT := func(t *Term, k int) {
 		// Dissolved and gaseous forms of one molecule (Cl2, Cl2(g)) are one
 		// term; the first form met is kept.
-		key := mixKey(sp)
+		key := t.mixKey()
 		for i := range terms {
 			if terms[i].key == key {
 				terms[i].n += k
 				return
 			}
 		}
-		terms = append(terms, acc{key: key, sp: sp, n: k})
+		terms = append(terms, acc{key: key, text: t.textOf(), sp: t.Species, n: k})
 	}
-	for _, t := range ox.Reactants {
-		addT(t.Species, -t.Coef*a)
+	for i := range ox.Reactants {
+		addT(&ox.Reactants[i], -ox.Reactants[i].Coef*a)
 	}
-	for _, t := range red.Products {
-		addT(t.Species, -t.Coef*b)
+	for i := range red.Products {
+		addT(&red.Products[i], -red.Products[i].Coef*b)
 	}
-	for _, t := range ox.Products {
-		addT(t.Species, t.Coef*a)
+	for i := range ox.Products {
+		addT(&ox.Products[i], ox.Products[i].Coef*a)
 	}
-	for _, t := range red.Reactants {
-		addT(t.Species, t.Coef*b)
+	for i := range red.Reactants {
+		addT(&red.Reactants[i], red.Reactants[i].Coef*b)
 	}
-	water := Species{Formula: "H2O", Phase: Liquid}
-	proton := Species{Formula: "H", Charge: 1, Phase: Aqueous}
-	hydroxide := Species{Formula: "OH", Charge: -1, Phase: Aqueous}
 	// H+ and OH- on opposite sides make water; rewrite the one foreign to
 	// the medium.
-	foreign, native := hydroxide, proton
+	foreign, native := &hydroxideTerm, &protonTerm
 	if med != Acid {
-		foreign, native = proton, hydroxide
+		foreign, native = &protonTerm, &hydroxideTerm
 	}
 	for i := range terms {
-		if k := terms[i].n; k != 0 && terms[i].key == foreign.Ion() {
+		if k := terms[i].n; k != 0 && terms[i].key == foreign.key {
 			terms[i].n = 0
-			addT(water, k)
+			addT(&waterTerm, k)
 			addT(native, -k)
 			break
 		}
@@ -286,9 +291,9 @@ func combine(ox, red *HalfReaction, med Medium) (*netReaction, error) {
 		c := t.n / g
 		switch {
 		case c < 0:
-			rx.reactants = append(rx.reactants, Term{Species: t.sp, Coef: -c})
+			rx.reactants = append(rx.reactants, Term{Species: t.sp, Coef: -c, key: t.key, text: t.text})
 		case c > 0:
-			rx.products = append(rx.products, Term{Species: t.sp, Coef: c})
+			rx.products = append(rx.products, Term{Species: t.sp, Coef: c, key: t.key, text: t.text})
 		}
 	}
 	return rx, nil
@@ -312,16 +317,28 @@ func abs(x int) int {
 
 // equationText writes terms as "2 MnO4- + 16 H+".
 func termsText(ts []Term) string {
-	parts := make([]string, len(ts))
-	for i, t := range ts {
-		if t.Coef == 1 {
-			parts[i] = t.Species.Text()
-		} else {
-			parts[i] = strconv.Itoa(t.Coef) + " " + t.Species.Text()
+	var b strings.Builder
+	for i := range ts {
+		if i > 0 {
+			b.WriteString(" + ")
 		}
+		if ts[i].Coef != 1 {
+			b.WriteString(strconv.Itoa(ts[i].Coef))
+			b.WriteByte(' ')
+		}
+		b.WriteString(ts[i].textOf())
 	}
-	return strings.Join(parts, " + ")
+	return b.String()
 }
+
+// The solvent terms combine adds when it rewrites H+ or OH-.
+var (
+	waterTerm     = solventTerm(Species{Formula: "H2O", Phase: Liquid})
+	protonTerm    = solventTerm(Species{Formula: "H", Charge: 1, Phase: Aqueous})
+	hydroxideTerm = solventTerm(Species{Formula: "OH", Charge: -1, Phase: Aqueous})
+)
+
+func solventTerm(s Species) Term { return Term{Species: s, key: mixKey(s), text: s.Text()} }
 
 // key identifies the net reaction regardless of phases, so that one
 // reaction reached through different couples is listed once.
@@ -331,8 +348,8 @@ func (rx *netReaction) key() string {
 	}
 	side := func(ts []Term) string {
 		parts := make([]string, len(ts))
-		for i, t := range ts {
-			parts[i] = strconv.Itoa(t.Coef) + " " + t.Formula + chargeText(t.Charge)
+		for i := range ts {
+			parts[i] = strconv.Itoa(ts[i].Coef) + " " + ts[i].mixKey()
 		}
 		sort.Strings(parts)
 		return strings.Join(parts, " + ")
@@ -350,7 +367,7 @@ func (rx *netReaction) out() *Reaction {
 	conv := func(ts []Term) []EqTerm {
 		out := make([]EqTerm, len(ts))
 		for i, t := range ts {
-			out[i] = EqTerm{Formula: t.Formula, Charge: t.Charge, Phase: t.Phase, Coef: t.Coef, Text: t.Species.Text()}
+			out[i] = EqTerm{Formula: t.Formula, Charge: t.Charge, Phase: t.Phase, Coef: t.Coef, Text: t.textOf()}
 		}
 		return out
 	}

@@ -165,4 +165,25 @@ func ParseSpecies(text string) (Species, error) {
 type Term struct {
 	Species
 	Coef int
+
+	// Filled by New for the half-reaction table and carried into the
+	// equations built from it, so the hot path neither concatenates nor
+	// allocates: the mixture key and the text of the species.
+	key, text string
+}
+
+// mixKey is mixKey(t.Species), cached when the term came from the tables.
+func (t *Term) mixKey() string {
+	if t.key != "" {
+		return t.key
+	}
+	return mixKey(t.Species)
+}
+
+// textOf is t.Species.Text(), cached when the term came from the tables.
+func (t *Term) textOf() string {
+	if t.text != "" {
+		return t.text
+	}
+	return t.Species.Text()
 }
