@@ -21,8 +21,9 @@ import (
 // usergroups.users.list, auth.test, apps.connections.open) and speaks the
 // Socket Mode envelope protocol on /ws.
 type fakeSlack struct {
-	t   *testing.T
-	srv *httptest.Server
+	responses []map[string]any // bodies posted to /respond/ (slash-command response URLs)
+	t         *testing.T
+	srv       *httptest.Server
 
 	mu      sync.Mutex
 	posts   []fakePost
@@ -135,6 +136,19 @@ func (f *fakeSlack) serve(w http.ResponseWriter, r *http.Request) {
 		w.Write([]byte("OK - 1"))
 		return
 	}
+	if strings.HasPrefix(r.URL.Path, "/respond/") {
+		// A slash command's response URL: JSON in, "ok" out.
+		var msg map[string]any
+		if err := json.NewDecoder(r.Body).Decode(&msg); err != nil {
+			http.Error(w, err.Error(), 400)
+			return
+		}
+		f.mu.Lock()
+		f.responses = append(f.responses, msg)
+		f.mu.Unlock()
+		f.reply(w, map[string]any{"ok": true})
+		return
+	}
 	method := strings.TrimPrefix(r.URL.Path, "/api/")
 	if err := r.ParseMultipartForm(1 << 20); err != nil && err != http.ErrNotMultipart {
 		http.Error(w, err.Error(), 400)
@@ -179,6 +193,10 @@ func (f *fakeSlack) serve(w http.ResponseWriter, r *http.Request) {
 		}
 		if p.Channel == "CGONE" {
 			f.reply(w, map[string]any{"ok": false, "error": "channel_not_found"})
+			return
+		}
+		if p.Channel == "COUTSIDE" {
+			f.reply(w, map[string]any{"ok": false, "error": "not_in_channel"})
 			return
 		}
 		f.mu.Lock()

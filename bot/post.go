@@ -245,6 +245,20 @@ func (p *Poster) Post(ctx context.Context, channel, threadTS string, msg Message
 	return ts, err
 }
 
+// Respond sends msg to a slash command's response URL, seen only by the
+// person who asked. It is how the bot answers in a channel it is not a
+// member of. The rate limit of channel applies.
+func (p *Poster) Respond(ctx context.Context, channel, responseURL string, msg Message) error {
+	opts := []slack.MsgOption{slack.MsgOptionText(msg.Text, false), slack.MsgOptionResponseURL(responseURL, slack.ResponseTypeEphemeral)}
+	if len(msg.Blocks) > 0 {
+		opts = append(opts, slack.MsgOptionBlocks(msg.Blocks...))
+	}
+	return p.call(ctx, channel, "response_url", func(ctx context.Context) error {
+		_, _, err := p.API.PostMessageContext(ctx, channel, opts...)
+		return err
+	})
+}
+
 // Upload puts a PNG into channel's thread threadTS.
 func (p *Poster) Upload(ctx context.Context, channel, threadTS, filename, title, alt string, png []byte) error {
 	return p.call(ctx, channel, "files.upload", func(ctx context.Context) error {

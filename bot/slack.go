@@ -162,6 +162,9 @@ func (s *Slack) post(ctx context.Context, in Incoming, reply Reply) (detail stri
 		// request, then answer in its thread.
 		anchor := fmt.Sprintf("<@%s> asked: `%s %s`", in.UserID, esc(orDefault(in.Command, "/mixward")), esc(in.Text))
 		ts, err := s.Poster.Post(ctx, in.Channel, "", Message{Text: anchor, Blocks: []slack.Block{section(anchor)}})
+		if err != nil && in.ResponseURL != "" && notMember(err) {
+			return s.respondPrivately(ctx, in, reply, err)
+		}
 		if err != nil {
 			return "request message not posted: " + errText(err), err
 		}
@@ -295,3 +298,39 @@ func (s *Slack) PublishDigest(ctx context.Context, d *store.Digest) error {
 }
 
 var _ store.Publisher = (*Slack)(nil)
+
+// notMember reports whether a post failed because the bot may not post in
+// the channel (not invited, a private channel, a direct message between
+// other people).
+func notMember(err error) bool {
+	se, ok := errors.AsType[slack.SlackErrorResponse](err)
+	if !ok {
+		return false
+	}
+	switch se.Err {
+	case "not_in_channel", "channel_not_found", "restricted_action":
+		return true
+	}
+	return false
+}
+
+// privateNote heads an answer sent through a slash command's response URL.
+const privateNote = "Only you can see this answer: I am not a member of this channel, so I could not answer in it. " +
+	"Invite me (`/invite @mixward`) to have answers posted in the channel. The query is in the log all the same."
+
+// respondPrivately answers a slash command through its response URL when
+// the bot cannot post in the channel.
+func (s *Slack) respondPrivately(ctx context.Context, in Incoming, reply Reply, cause error) (string, error) {
+	blocks := reply.Blocks
+	if blocks == nil {
+		blocks = TextBlocks(esc(reply.Text))
+	}
+	blocks = append([]slack.Block{contextBlock(privateNote)}, blocks...)
+	msgs := SplitMessages(privateNote+"\n\n"+reply.Text, blocks)
+	for i, m := range msgs {
+		if err := s.Poster.Respond(ctx, in.Channel, in.ResponseURL, m); err != nil {
+			return fmt.Sprintf("not a member of %s (%s); private answer part %d of %d not sent: %s", in.Channel, errText(cause), i+1, len(msgs), errText(err)), err
+		}
+	}
+	return fmt.Sprintf("not a member of %s (%s); answered privately through the slash command's response URL in %d part(s)", in.Channel, errText(cause), len(msgs)), nil
+}

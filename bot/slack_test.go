@@ -667,3 +667,36 @@ func TestLoggedButUnansweredAnsweredOnRedelivery(t *testing.T) {
 		t.Errorf("%d queries logged, want 1", len(qs))
 	}
 }
+
+// TestSlashCommandInChannelWithoutBot: a slash command from a channel the
+// bot is not a member of is answered privately through the command's
+// response URL, logged, and the private delivery recorded.
+func TestSlashCommandInChannelWithoutBot(t *testing.T) {
+	e := newEnv(t)
+	h := e.sl.HTTPHandler(bot.NewVerifier(e.secret, e.clock.Now))
+	form := slashForm("COUTSIDE", "UOP", "mix 10 L NaOCl 12.5 % + 2 L HCl 10 %", "trig-out")
+	form.Set("response_url", e.slack.srv.URL+"/respond/1")
+	body := []byte(form.Encode())
+	if w := postEvents(t, h, signedRequest(t, "POST", "/slack/commands", "application/x-www-form-urlencoded", body, e.secret, e.clock.Now())); w.Code != 200 {
+		t.Fatalf("slash command answered %d", w.Code)
+	}
+	e.drain()
+	e.slack.mu.Lock()
+	resp := append([]map[string]any(nil), e.slack.responses...)
+	e.slack.mu.Unlock()
+	if len(resp) == 0 {
+		t.Fatalf("nothing sent to the response URL")
+	}
+	text, _ := resp[0]["text"].(string)
+	if resp[0]["response_type"] != "ephemeral" || !strings.Contains(text, "not a member of this channel") || !strings.Contains(text, "SPONTANEOUS") {
+		t.Errorf("private answer = %v", resp[0])
+	}
+	qs := e.queries()
+	if len(qs) != 1 {
+		t.Fatalf("%d queries logged, want 1", len(qs))
+	}
+	ds, _ := e.db.Deliveries(context.Background(), qs[0].ID)
+	if len(ds) != 1 || !ds[0].OK || !strings.Contains(ds[0].Detail, "answered privately") {
+		t.Errorf("deliveries = %+v, want one ok private answer", ds)
+	}
+}
