@@ -91,6 +91,7 @@ type Reply struct {
 	Result    *engine.Result // the mix answer, for the picture; nil otherwise
 	QueryID   int64          // id in the query log; 0 when nothing was logged
 	Duplicate bool           // the event was already answered: post nothing
+	Private   bool           // in a channel, show only to the person who asked (search results)
 }
 
 // Bot answers messages. Its fields are set once before use; it is safe for

@@ -223,7 +223,11 @@ func (b *Bot) search(ctx context.Context, in Incoming, q SearchQuery) Reply {
 	if page.HasMore {
 		fmt.Fprintf(&s, "More: add page:%d to the search.", q.Page+1)
 	}
-	return codeReply(KindSearch, strings.TrimRight(s.String(), "\n"))
+	r := codeReply(KindSearch, strings.TrimRight(s.String(), "\n"))
+	// Log records name people and requests: in a channel, only the
+	// reviewer who searched sees them.
+	r.Private = true
+	return r
 }
 
 func (b *Bot) digest(ctx context.Context, in Incoming, hours int) Reply {

@@ -21,9 +21,10 @@ import (
 // usergroups.users.list, auth.test, apps.connections.open) and speaks the
 // Socket Mode envelope protocol on /ws.
 type fakeSlack struct {
-	responses []map[string]any // bodies posted to /respond/ (slash-command response URLs)
-	t         *testing.T
-	srv       *httptest.Server
+	responses  []map[string]any // bodies posted to /respond/ (slash-command response URLs)
+	ephemerals []fakePost       // chat.postEphemeral calls
+	t          *testing.T
+	srv        *httptest.Server
 
 	mu      sync.Mutex
 	posts   []fakePost
@@ -49,6 +50,7 @@ type fakePost struct {
 	Text     string
 	Blocks   []map[string]any
 	TS       string
+	User     string // chat.postEphemeral: who alone sees it
 	At       time.Time
 }
 
@@ -209,6 +211,11 @@ func (f *fakeSlack) serve(w http.ResponseWriter, r *http.Request) {
 			hit <- p
 		}
 		f.reply(w, map[string]any{"ok": true, "channel": p.Channel, "ts": p.TS})
+	case "chat.postEphemeral":
+		f.mu.Lock()
+		f.ephemerals = append(f.ephemerals, fakePost{Channel: r.Form.Get("channel"), ThreadTS: r.Form.Get("thread_ts"), Text: r.Form.Get("text"), User: r.Form.Get("user")})
+		f.mu.Unlock()
+		f.reply(w, map[string]any{"ok": true, "message_ts": "1700000000.999999"})
 	case "files.getUploadURLExternal":
 		f.reply(w, map[string]any{"ok": true, "upload_url": f.srv.URL + "/upload/F1", "file_id": "F1"})
 	case "files.completeUploadExternal":

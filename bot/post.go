@@ -20,6 +20,7 @@ import (
 type SlackAPI interface {
 	PostMessageContext(ctx context.Context, channelID string, options ...slack.MsgOption) (string, string, error)
 	UploadFileContext(ctx context.Context, params slack.UploadFileParameters) (*slack.FileSummary, error)
+	PostEphemeralContext(ctx context.Context, channelID, userID string, options ...slack.MsgOption) (string, error)
 }
 
 // Backoff is the retry policy for Slack calls that failed in a way worth
@@ -243,6 +244,22 @@ func (p *Poster) Post(ctx context.Context, channel, threadTS string, msg Message
 		return err
 	})
 	return ts, err
+}
+
+// Ephemeral shows msg in channel (in thread threadTS when not empty) to
+// user alone.
+func (p *Poster) Ephemeral(ctx context.Context, channel, user, threadTS string, msg Message) error {
+	opts := []slack.MsgOption{slack.MsgOptionText(msg.Text, false)}
+	if len(msg.Blocks) > 0 {
+		opts = append(opts, slack.MsgOptionBlocks(msg.Blocks...))
+	}
+	if threadTS != "" {
+		opts = append(opts, slack.MsgOptionTS(threadTS))
+	}
+	return p.call(ctx, channel, "chat.postEphemeral", func(ctx context.Context) error {
+		_, err := p.API.PostEphemeralContext(ctx, channel, user, opts...)
+		return err
+	})
 }
 
 // Respond sends msg to a slash command's response URL, seen only by the

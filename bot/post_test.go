@@ -89,6 +89,11 @@ func (a *countingAPI) PostMessageContext(ctx context.Context, ch string, _ ...sl
 	return ch, fmt.Sprint(a.calls[ch]), nil
 }
 
+func (a *countingAPI) PostEphemeralContext(ctx context.Context, ch, user string, _ ...slack.MsgOption) (string, error) {
+	_, ts, err := a.PostMessageContext(ctx, ch)
+	return ts, err
+}
+
 func (a *countingAPI) UploadFileContext(ctx context.Context, p slack.UploadFileParameters) (*slack.FileSummary, error) {
 	_, _, err := a.PostMessageContext(ctx, p.Channel)
 	return &slack.FileSummary{ID: "F"}, err

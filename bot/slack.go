@@ -156,6 +156,9 @@ func (s *Slack) process(ctx context.Context, in Incoming) {
 // command) and uploads the E–pH picture. detail describes the outcome for
 // the log.
 func (s *Slack) post(ctx context.Context, in Incoming, reply Reply) (detail string, err error) {
+	if reply.Private && !strings.HasPrefix(in.Channel, "D") {
+		return s.postPrivate(ctx, in, reply)
+	}
 	thread := in.ThreadTS
 	if thread == "" {
 		// A slash command leaves no message to answer under: post the
@@ -333,4 +336,19 @@ func (s *Slack) respondPrivately(ctx context.Context, in Incoming, reply Reply, 
 		}
 	}
 	return fmt.Sprintf("not a member of %s (%s); answered privately through the slash command's response URL in %d part(s)", in.Channel, errText(cause), len(msgs)), nil
+}
+
+// postPrivate shows a reply in the channel to the person who asked alone.
+func (s *Slack) postPrivate(ctx context.Context, in Incoming, reply Reply) (string, error) {
+	blocks := reply.Blocks
+	if blocks == nil {
+		blocks = TextBlocks(esc(reply.Text))
+	}
+	msgs := SplitMessages(reply.Text, blocks)
+	for i, m := range msgs {
+		if err := s.Poster.Ephemeral(ctx, in.Channel, in.UserID, in.ThreadTS, m); err != nil {
+			return fmt.Sprintf("private reply part %d of %d not shown: %s", i+1, len(msgs), errText(err)), err
+		}
+	}
+	return fmt.Sprintf("shown privately to %s in %s in %d part(s)", in.UserID, in.Channel, len(msgs)), nil
 }

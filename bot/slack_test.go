@@ -700,3 +700,29 @@ func TestSlashCommandInChannelWithoutBot(t *testing.T) {
 		t.Errorf("deliveries = %+v, want one ok private answer", ds)
 	}
 }
+
+// TestSearchResultsShownOnlyToTheReviewer: search results name people and
+// requests, so in a channel they are shown to the reviewer alone.
+func TestSearchResultsShownOnlyToTheReviewer(t *testing.T) {
+	e := newEnv(t)
+	ctx := context.Background()
+	if r := e.bot.Answer(ctx, bot.Incoming{Transport: "test", Channel: "CPLANT", UserID: "UOP", Text: "mix 1 L NaOCl 12.5 % + 1 L HCl 10 %", EventID: "Eq"}); r.QueryID == 0 {
+		t.Fatal("request not logged")
+	}
+	e.runSocket()
+	e.slack.waitConn(1)
+	e.slack.send(mentionEnvelope("env-q", "EvSearch", "CPLANT", "UREV", "1700000100.000700", "<@UBOT> search NaOCl", 0))
+	e.slack.waitAck("env-q")
+	e.drain()
+	e.slack.mu.Lock()
+	eph := append([]fakePost(nil), e.slack.ephemerals...)
+	e.slack.mu.Unlock()
+	if len(eph) != 1 || eph[0].User != "UREV" || eph[0].Channel != "CPLANT" || !strings.Contains(eph[0].Text, "NaOCl") {
+		t.Fatalf("ephemeral posts = %+v, want the results shown to UREV alone", eph)
+	}
+	for _, p := range e.slack.postsNow() {
+		if strings.Contains(p.Text, "Matches") {
+			t.Errorf("search results posted for everyone: %+v", p)
+		}
+	}
+}
