@@ -28,16 +28,25 @@ func ParseWhen(s string, now time.Time, loc *time.Location) (time.Time, error) {
 	}
 	for _, layout := range []string{time.RFC3339Nano, "2006-01-02T15:04Z07:00"} {
 		if t, err := time.Parse(layout, s); err == nil {
-			return t, nil
+			return inRange(s, t)
 		}
 	}
 	for _, layout := range []string{"2006-01-02", "2006-01-02T15:04", "2006-01-02 15:04", "2006-01-02T15:04:05", "2006-01-02 15:04:05"} {
 		if t, err := time.ParseInLocation(layout, s, loc); err == nil {
-			return t, nil
+			return inRange(s, t)
 		}
 	}
 	return time.Time{}, fmt.Errorf("%w: date %q: use 2026-12-01, 2026-12-01T06:00 (site time, %s), "+
 		"RFC 3339 such as 2026-12-01T06:00:00Z, or a span back from now such as 24h or 7d", ErrInvalid, s, loc)
+}
+
+// inRange refuses dates no log can hold: before 1970 (a zero time would read
+// as "no limit") or after 9999.
+func inRange(s string, t time.Time) (time.Time, error) {
+	if t.Year() < 1970 || t.Year() > 9999 {
+		return time.Time{}, fmt.Errorf("%w: date %q is outside 1970–9999", ErrInvalid, s)
+	}
+	return t, nil
 }
 
 // parseAgo reads "90m", "24h", "7d", "2w" and Go durations like "1h30m".
