@@ -173,10 +173,7 @@ func (s *Slack) post(ctx context.Context, in Incoming, reply Reply) (detail stri
 		}
 		thread = ts
 	}
-	blocks := reply.Blocks
-	if blocks == nil {
-		blocks = TextBlocks(esc(reply.Text))
-	}
+	blocks := replyBlocks(reply)
 	msgs := SplitMessages(reply.Text, blocks)
 	var parts []string
 	for i, m := range msgs {
@@ -324,10 +321,7 @@ const privateNote = "Only you can see this answer: I am not a member of this cha
 // respondPrivately answers a slash command through its response URL when
 // the bot cannot post in the channel.
 func (s *Slack) respondPrivately(ctx context.Context, in Incoming, reply Reply, cause error) (string, error) {
-	blocks := reply.Blocks
-	if blocks == nil {
-		blocks = TextBlocks(esc(reply.Text))
-	}
+	blocks := replyBlocks(reply)
 	blocks = append([]slack.Block{contextBlock(privateNote)}, blocks...)
 	msgs := SplitMessages(privateNote+"\n\n"+reply.Text, blocks)
 	for i, m := range msgs {
@@ -340,10 +334,7 @@ func (s *Slack) respondPrivately(ctx context.Context, in Incoming, reply Reply, 
 
 // postPrivate shows a reply in the channel to the person who asked alone.
 func (s *Slack) postPrivate(ctx context.Context, in Incoming, reply Reply) (string, error) {
-	blocks := reply.Blocks
-	if blocks == nil {
-		blocks = TextBlocks(esc(reply.Text))
-	}
+	blocks := replyBlocks(reply)
 	msgs := SplitMessages(reply.Text, blocks)
 	for i, m := range msgs {
 		if err := s.Poster.Ephemeral(ctx, in.Channel, in.UserID, in.ThreadTS, m); err != nil {
@@ -351,4 +342,13 @@ func (s *Slack) postPrivate(ctx context.Context, in Incoming, reply Reply) (stri
 		}
 	}
 	return fmt.Sprintf("shown privately to %s in %s in %d part(s)", in.UserID, in.Channel, len(msgs)), nil
+}
+
+// replyBlocks is a reply's Block Kit form, its text as sections when it has
+// none of its own.
+func replyBlocks(reply Reply) []slack.Block {
+	if reply.Blocks != nil {
+		return reply.Blocks
+	}
+	return TextBlocks(esc(reply.Text))
 }

@@ -282,7 +282,7 @@ func (e *Engine) outcome(res *Result, m *mixture, head *pair) {
 	for _, g := range gasOrder {
 		gasKind[g] = "formed"
 	}
-	for _, g := range cur.outgas() { // volatile keys are mixKeys of dissolved molecules
+	for _, g := range cur.outgas() {
 		if _, ok := gasKind[g.Text]; !ok {
 			gasKind[g.Text] = g.Kind
 		}
