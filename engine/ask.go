@@ -5,8 +5,11 @@ import (
 	"fmt"
 	"io/fs"
 	"math"
-	"sort"
 	"strings"
+
+	"mixward/engine/explain"
+	"mixward/engine/state"
+	"mixward/engine/thermo"
 )
 
 // New loads and validates every table in fsys (normally data.FS) and
@@ -105,7 +108,15 @@ func New(fsys fs.FS) (*Engine, error) {
 			}
 		}
 	}
-	return &Engine{Tables: t}, nil
+	db, err := thermo.Load(fsys)
+	if err != nil {
+		return nil, err
+	}
+	model, err := state.NewModel(db, fsys)
+	if err != nil {
+		return nil, err
+	}
+	return &Engine{Tables: t, Thermo: db, Model: model}, nil
 }
 
 // maxAlternatives bounds the other reacting pairs listed with an answer.
@@ -129,7 +140,9 @@ func (e *Engine) Ask(text string, opt AskOptions) (*Result, error) {
 	return e.Predict(req)
 }
 
-// Predict answers a parsed request.
+// Predict answers a parsed request: the states of the streams and of the
+// mix (package state), the redox steps between them (package explain), and
+// the amounts, gas, heat and hazards derived from those states.
 func (e *Engine) Predict(req *Request) (*Result, error) {
 	m, err := buildMixture(req, e.Tables)
 	if err != nil {
@@ -139,23 +152,59 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 		}
 		return nil, err
 	}
+	res := baseResult(req, m)
+	if !m.aqueous {
+		res.Notes = append(res.Notes, "no liquid stream: solids alone do not react in the tank; add the liquid they will meet")
+		res.Verdict = NoReaction
+		res.Species = speciesOfSolids(m)
+		e.finish(res, m, nil, nil)
+		return res, nil
+	}
+	feed, err := feedOf(req, e.Tables, e.Thermo, m)
+	if err != nil {
+		return nil, err
+	}
+	mx, err := e.Model.Solve(feed)
+	if err != nil {
+		return nil, fmt.Errorf("engine: %w", err)
+	}
+	steps, err := explain.Steps(e.Thermo, mx)
+	if err != nil {
+		return nil, err
+	}
+	res.Notes = append(res.Notes, mx.Final.Eq.Notes...)
+	res.Conditions.PH = roundDec(mx.Combined.PH, 2)
+	res.Conditions.PHFinal = ptr(roundDec(mx.Final.PH, 2))
+	res.Conditions.Medium = Medium(explain.MediumAt(e.Thermo, mx.Combined.PH, mx.TempK))
+	res.Species = speciesOut(mx, steps)
+	for _, st := range steps {
+		res.Steps = append(res.Steps, e.stepOut(mx, st))
+	}
+	if len(steps) > 0 {
+		e.headline(res, mx, steps)
+	} else {
+		e.noChange(res, mx)
+	}
+	res.HeldBack = e.heldBack(mx)
+	res.FinalComposition = compositionOut(mx)
+	res.Gases = gasesOut(mx, formedBy(steps), m.pressureKPa)
+	res.Heat = heatOut(mx, m, e.Tables)
+	e.finish(res, m, mx, steps)
+	return res, nil
+}
+
+// baseResult holds what every answer carries before any chemistry.
+func baseResult(req *Request, m *mixture) *Result {
 	res := &Result{
-		Request:      req.Text,
-		Alternatives: []Alternative{},
-		Hazards:      []Hazard{},
-		Cautions:     Cautions(),
-		Gases:        []GasRelease{},
-		Steps:        []Step{},
-		Caveats:      []string{},
-		Notes:        append([]string{}, m.notes...),
+		Request: req.Text, Alternatives: []Alternative{}, Hazards: []Hazard{}, Cautions: Cautions(),
+		Gases: []GasRelease{}, Steps: []Step{}, Caveats: []string{}, HeldBack: []HeldBack{},
+		FinalComposition: []AmountOf{}, Species: []SpeciesInfo{},
+		Amounts: &Amounts{Consumed: []AmountOf{}, Formed: []AmountOf{}},
+		Notes:   append([]string{}, m.notes...),
 		Conditions: Conditions{
-			PH:           roundDec(m.pH, 2),
-			PHStated:     m.pHStated,
-			TemperatureK: roundDec(m.tempK, 2),
-			TemperatureC: roundDec(m.tempK-273.15, 2),
-			PressureKPa:  m.pressureKPa,
-			VolumeL:      roundDec(m.volumeL, 6),
-			Medium:       mediumOf(m.pH),
+			PH: roundDec(m.pH, 2), PHStated: m.pHStated,
+			TemperatureK: roundDec(m.tempK, 2), TemperatureC: roundDec(m.tempK-273.15, 2),
+			PressureKPa: m.pressureKPa, VolumeL: roundDec(m.volumeL, 6), Medium: mediumOf(m.pH),
 		},
 	}
 	for _, st := range req.Streams {
@@ -165,111 +214,24 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 		}
 		res.Streams = append(res.Streams, so)
 	}
-	if !m.aqueous {
-		res.Notes = append(res.Notes, "no liquid stream: solids alone do not react by the table method; add the liquid they will meet")
-	}
-	ox, red := e.sides(m)
-	ps := e.pairs(m, ox, red)
-	for len(ps) > 0 && ps[0].rxn() == nil {
-		ps = ps[1:]
-	}
-	res.Species = speciesInfo(m, ox, red)
-	if len(ps) == 0 {
-		res.Verdict = NoReaction
-		for i := range res.Species {
-			res.Species[i].Spectator = !isWaterText(res.Species[i])
-		}
-		e.outcome(res, m, nil)
-		return res, nil
-	}
-	head := e.terminal(m, ps)
-	res.Oxidizer = head.ox.couple()
-	res.Reducer = head.red.couple()
-	if err := e.Tables.checkBalance(head.rxn()); err != nil {
-		return nil, err
-	}
-	res.Reaction = head.rxn().out()
-	res.ECellStandard = ptr(roundDec(head.eCellStd, 4))
-	res.ECell = ptr(roundDec(head.eCell, 4))
-	res.Spontaneous = head.eCell > 0
-	res.Hindered = res.Spontaneous && head.eff <= 0
+	return res
+}
 
-	res.Verdict = NonSpontaneous
-	if res.Spontaneous {
-		res.Verdict = Spontaneous
+// headline fills the headline fields from the step that moved the most
+// electrons; the others are its alternatives.
+func (e *Engine) headline(res *Result, mx *state.Mix, steps []explain.Step) {
+	h := res.Steps[0]
+	res.Oxidizer, res.Reducer, res.Reaction = h.Oxidizer, h.Reducer, h.Reaction
+	res.ECellStandard, res.ECell, res.DeltaGkJ, res.Log10K = h.ECellStandard, h.ECell, h.DeltaGkJ, h.Log10K
+	res.Spontaneous, res.Verdict = true, Spontaneous
+	res.Amounts = h.Amounts
+	for i, st := range res.Steps[1:] {
+		res.Alternatives = append(res.Alternatives, Alternative{
+			Oxidizer: st.Oxidizer, Reducer: st.Reducer, Reaction: st.Reaction,
+			ECellStandard: *st.ECellStandard, ECell: *st.ECell,
+			Note: fmt.Sprintf("also proceeds: %.3g mol of electrons against %.3g in the headline", steps[i+1].ElectronsMol, steps[0].ElectronsMol),
+		})
 	}
-	n := float64(head.rxn().electrons)
-	res.DeltaGkJ = ptr(roundDec(-n*faraday*head.eCell/1000, 2))
-	res.Log10K = ptr(roundDec(n*head.eCellStd/nernstSlope(m.tempK), 2))
-	if a := head.self; a != nil {
-		res.Allowance = allowanceOut(a)
-	} else if a := head.ox.allowance; a != nil {
-		res.Allowance = allowanceOut(a)
-	} else if a := head.red.allowance; a != nil {
-		res.Allowance = allowanceOut(a)
-	}
-	// Allowances that moved the ranking: a thermodynamically stronger pair
-	// was passed over.
-	for _, p := range ps {
-		if p != head && p.eCell > head.eCell && (p.ox.allowance != nil || p.red.allowance != nil || p.self != nil) && res.Allowance == nil {
-			a := p.self
-			if a == nil {
-				a = p.ox.allowance
-			}
-			if a == nil {
-				a = p.red.allowance
-			}
-			res.Allowance = allowanceOut(a)
-		}
-	}
-	inHead := map[string]bool{}
-	for _, t := range head.rxn().reactants {
-		inHead[t.Species.Ion()] = true
-	}
-	for _, t := range head.rxn().products {
-		inHead[t.Species.Ion()] = true
-	}
-	for i := range res.Species {
-		s := &res.Species[i]
-		sp := Species{Formula: s.Formula, Charge: s.Charge, Phase: s.Phase}
-		s.Spectator = !inHead[sp.Ion()] && !sp.IsWater()
-	}
-	// Every other pair that could react, one entry per net reaction,
-	// strongest by E cell first, at most maxAlternatives.
-	var alts []*pair
-	seen := map[string]bool{head.rxn().key(): true}
-	for _, p := range ps {
-		if p.eCell <= 0 || p.rxn() == nil || seen[p.rxn().key()] {
-			continue
-		}
-		seen[p.rxn().key()] = true
-		alts = append(alts, p)
-	}
-	sort.SliceStable(alts, func(i, j int) bool { return alts[i].eCell > alts[j].eCell })
-	if len(alts) > maxAlternatives {
-		alts = alts[:maxAlternatives]
-	}
-	// The headline is checked below; every pairing of table rows is
-	// checked by TestEveryPairBalances, so the alternatives are not
-	// checked again on each request.
-	for _, p := range alts {
-		alt := Alternative{
-			Oxidizer: p.ox.couple(), Reducer: p.red.couple(), Reaction: p.rxn().out(),
-			ECellStandard: roundDec(p.eCellStd, 4), ECell: roundDec(p.eCell, 4),
-			Hindered: p.eff <= 0,
-		}
-		switch {
-		case p.self != nil:
-			alt.Note = "kinetically slow here: " + p.self.Reason
-		case p.ox.allowance != nil:
-			alt.Note = "kinetically slow here: " + p.ox.allowance.Reason
-		case p.red.allowance != nil:
-			alt.Note = "kinetically slow here: " + p.red.allowance.Reason
-		}
-		res.Alternatives = append(res.Alternatives, alt)
-	}
-	e.outcome(res, m, head)
-	return res, nil
 }
 
 func isWaterText(s SpeciesInfo) bool { return s.Formula == "H2O" && s.Charge == 0 }

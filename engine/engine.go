@@ -1,6 +1,12 @@
 package engine
 
-import "fmt"
+import (
+	"fmt"
+	"sync"
+
+	"mixward/engine/state"
+	"mixward/engine/thermo"
+)
 
 // Version is the engine version recorded with every logged query.
 const Version = "0.1.0"
@@ -18,6 +24,11 @@ type AskOptions struct {
 // concurrent use.
 type Engine struct {
 	Tables *Tables
+	Thermo *thermo.DB   // species data (data/species.txt)
+	Model  *state.Model // the equilibrium of a mix under the kinetic locks
+
+	rowsOnce sync.Once
+	rows     []tableRow // the half-reaction table as reactions of the species data
 }
 
 // ParseError is a request that could not be read. Position is the 1-based

@@ -34,6 +34,18 @@ type Result struct {
 
 	Streams []StreamOut `json:"streams"` // the streams as understood, tags resolved
 	Notes   []string    `json:"notes"`   // assumptions made (equal volumes, excess metal, ...)
+
+	// HeldBack lists the changes that are downhill on paper but held back
+	// at plant conditions (data/locks.txt), each with its reason.
+	HeldBack []HeldBack `json:"held_back"`
+}
+
+// HeldBack is a kinetic lock that held something back in this mix.
+type HeldBack struct {
+	Lock     string    `json:"lock"`
+	Reason   string    `json:"reason"`
+	Source   string    `json:"source"`
+	Reaction *Reaction `json:"reaction,omitempty"` // what would happen without the lock, when found
 }
 
 // Verdict is the one-word outcome of a prediction.
@@ -156,6 +168,12 @@ type GasRelease struct {
 	// dissolved gas (CO2 from carbonate and acid, H2S, SO2) beyond what the
 	// liquid holds at the stated pressure.
 	Kind string `json:"kind"`
+	// PartialKPa is the gas's partial pressure over the mix at equilibrium;
+	// HeadspacePPM the same as a share of the headspace air, by volume.
+	// Kind "headspace" marks a gas that stays dissolved but fills a closed
+	// headspace as large as the liquid volume: Mol is what that holds.
+	PartialKPa   float64 `json:"partial_kpa"`
+	HeadspacePPM float64 `json:"headspace_ppm"`
 }
 
 // Heat is the heat estimate of the mix (all reactions, neutralisation included).
@@ -167,6 +185,12 @@ type Heat struct {
 	DissolutionkJ    float64  `json:"dissolution_kj"` // heat of dissolving solid or near-pure reagents, included in HeatReleasedkJ
 	Assumption       string   `json:"assumption"`
 	Missing          []string `json:"missing,omitempty"` // species without formation-enthalpy data
+	// TemperatureReachedC is the start temperature plus the rise; Boils says
+	// the estimate passed the boiling point, where the rise stops and
+	// WaterFlashedKg of water boils off.
+	TemperatureReachedC *float64 `json:"temperature_reached_c"`
+	Boils               bool     `json:"boils"`
+	WaterFlashedKg      *float64 `json:"water_flashed_kg,omitempty"`
 }
 
 // Step is one follow-on reaction, predicted on what the previous one left.
@@ -185,13 +209,14 @@ type Step struct {
 
 // Conditions are the conditions of the mix after combining the streams.
 type Conditions struct {
-	PH           float64 `json:"ph"`
-	PHStated     bool    `json:"ph_stated"`
-	TemperatureK float64 `json:"temperature_k"`
-	TemperatureC float64 `json:"temperature_c"`
-	PressureKPa  float64 `json:"pressure_kpa"`
-	VolumeL      float64 `json:"volume_l"`
-	Medium       Medium  `json:"medium"` // acid or base: which table form applies
+	PH           float64  `json:"ph"`
+	PHStated     bool     `json:"ph_stated"`
+	PHFinal      *float64 `json:"ph_final"` // pH of the mix at equilibrium, after every change
+	TemperatureK float64  `json:"temperature_k"`
+	TemperatureC float64  `json:"temperature_c"`
+	PressureKPa  float64  `json:"pressure_kpa"`
+	VolumeL      float64  `json:"volume_l"`
+	Medium       Medium   `json:"medium"` // acid or base: which table form applies
 }
 
 // Allowance is a kinetic allowance (data/kinetics.txt) applied when ranking.

@@ -1,0 +1,150 @@
+package engine
+
+import (
+	"math"
+	"strings"
+
+	"mixward/engine/explain"
+	"mixward/engine/state"
+	"mixward/engine/thermo"
+)
+
+// gasesOut lists what leaves the liquid: the gas phase of the mix at
+// equilibrium, and toxic gases that stay dissolved but fill the headspace
+// (a headspace as large as the liquid volume is assumed) above 1 ppm.
+func gasesOut(mx *state.Mix, formed func(*thermo.Species) bool, kPa float64) []GasRelease {
+	out := []GasRelease{}
+	f := mx.Final
+	for i, sp := range mx.Species {
+		if sp.Phase != Gas {
+			continue
+		}
+		p := partialOf(mx, f, i) // bar
+		if p <= 0 {
+			continue
+		}
+		g := GasReleaseOf(sp.Species.Text(), f.Amount[i], mx.TempK, kPa)
+		g.Kind = "volatile"
+		if formed(sp) {
+			g.Kind = "formed"
+		}
+		g.PartialKPa = sigDigits(p*100, 4)
+		g.HeadspacePPM = sigDigits(p/(kPa/100)*1e6, 4)
+		if f.Amount[i] <= 0 {
+			if g.HeadspacePPM < 1 {
+				continue
+			}
+			// Dissolved: what a closed headspace of the liquid's volume holds.
+			g.Kind = "headspace"
+			g.Mol = p * 100 * mx.VolumeL / (MolarGasConstant() * mx.TempK) // kPa·L / (J/mol) = mol
+			g.VolumeL = GasVolumeL(g.Mol, mx.TempK, kPa)
+			g.VolumeM3 = g.VolumeL / 1000
+		}
+		g.Mol, g.VolumeL, g.VolumeM3 = sigDigits(g.Mol, 6), sigDigits(g.VolumeL, 6), sigDigits(g.VolumeM3, 6)
+		out = append(out, g)
+	}
+	return out
+}
+
+// partialOf is a gas's partial pressure in bar at equilibrium: its share of
+// the gas phase when one forms, else its equilibrium partial pressure.
+func partialOf(mx *state.Mix, s *state.State, i int) float64 {
+	if s.Eq.GasMoles > 0 && s.Amount[i] > 0 {
+		return s.Amount[i] / s.Eq.GasMoles * mx.Pressure
+	}
+	return math.Exp(s.LnA[i])
+}
+
+// heatOut is ΔH from the streams' states to the mix at equilibrium, from ΔfH°
+// of every species that changed, plus the heat of dissolving solids and
+// near-pure reagents; the temperature reached over the mixed mass, and
+// boiling when it passes the boiling point.
+func heatOut(mx *state.Mix, m *mixture, t *Tables) *Heat {
+	dh, big := 0.0, 0.0
+	var missing []string
+	for i, sp := range mx.Species {
+		d := mx.Final.Amount[i] - mx.Initial[i]
+		big = math.Max(big, math.Abs(d))
+		if !sp.HasDfH {
+			continue
+		}
+		dh += d * sp.DfH
+	}
+	for i, sp := range mx.Species {
+		if d := mx.Final.Amount[i] - mx.Initial[i]; !sp.HasDfH && math.Abs(d) > 1e-3*big {
+			missing = append(missing, sp.Species.Text())
+		}
+	}
+	released := -dh
+	h := &Heat{Assumption: heatAssumption, Missing: missing}
+	if q, ok := m.solutionHeat(t); ok && q != 0 {
+		h.DissolutionkJ = roundDec(q, 1)
+		released += q
+	}
+	h.HeatReleasedkJ = ptr(roundDec(released, 1))
+	if m.massKg > 0 {
+		rise := TemperatureRise(released, m.massKg)
+		boilC := boilingPointC(m.pressureKPa)
+		startC := mx.TempK - 273.15
+		if startC+rise > boilC {
+			h.Boils = true
+			excess := released - m.massKg*heatCapacity*(boilC-startC)
+			h.WaterFlashedKg = ptr(roundDec(math.Max(excess, 0)/vaporisationKJPerKg, 2))
+			rise = boilC - startC
+		}
+		h.TemperatureRiseC = ptr(roundDec(rise, 2))
+		h.TemperatureReachedC = ptr(roundDec(startC+rise, 1))
+	}
+	return h
+}
+
+// heatAssumption is stated with every heat estimate.
+const heatAssumption = "ΔH from ΔfH° (data/species.txt) of every species that changes between the streams and the mixed state, at infinite dilution, plus the heat of dissolving solids and near-pure reagents; adiabatic, over the mixed mass with the heat capacity of water (4.18 J/(g·K))"
+
+// heatCapacity is kJ/(kg·K) of water at 25 °C (CRC Handbook, Properties of
+// water; from memory), used for the whole mix.
+const heatCapacity = 4.18
+
+// vaporisationKJPerKg is the enthalpy of vaporisation of water at 100 °C,
+// 40.65 kJ/mol = 2257 kJ/kg (CRC Handbook, Enthalpy of vaporization; from memory).
+const vaporisationKJPerKg = 2257
+
+// boilingPointC is water's boiling point at a pressure, by Clausius–Clapeyron
+// from 100 °C at 101.325 kPa with ΔvapH 40.65 kJ/mol.
+func boilingPointC(kPa float64) float64 {
+	const tb, dH = 373.15, 40650.0
+	inv := 1/tb - MolarGasConstant()*math.Log(kPa/101.325)/dH
+	return 1/inv - 273.15
+}
+
+// formedBy reports whether a species holds an element in a state that a
+// redox step produced.
+func formedBy(steps []explain.Step) func(*thermo.Species) bool {
+	type key struct {
+		el string
+		ox float64
+	}
+	made := map[key]bool{}
+	for _, st := range steps {
+		for _, c := range []explain.Couple{st.Oxidizer, st.Reducer} {
+			made[key{c.Element, c.To}] = true
+		}
+	}
+	return func(sp *thermo.Species) bool {
+		for el := range sp.Atoms {
+			if made[key{el, math.Round(sp.Ox[el]*100) / 100}] {
+				return true
+			}
+		}
+		return false
+	}
+}
+
+// joinTexts is a comma list of species texts.
+func joinTexts(sps []*thermo.Species) string {
+	parts := make([]string, len(sps))
+	for i, s := range sps {
+		parts[i] = s.Species.Text()
+	}
+	return strings.Join(parts, ", ")
+}

@@ -1,0 +1,241 @@
+package engine
+
+import (
+	"math"
+	"sort"
+	"strconv"
+	"strings"
+
+	"mixward/engine/explain"
+	"mixward/engine/state"
+	"mixward/engine/thermo"
+)
+
+// tableRow is a row of the half-reaction table as a reaction of the species
+// data, with its key for matching a derived half-reaction.
+type tableRow struct {
+	h   *HalfReaction
+	r   thermo.Reaction
+	key string
+}
+
+// tableRows parses the half-reaction table against the species data once.
+// Rows whose species have no data are left out.
+func (e *Engine) tableRows() []tableRow {
+	e.rowsOnce.Do(func() {
+		for _, h := range e.Tables.Half {
+			r, err := thermo.ParseReaction(e.Thermo, HalfText(h, false))
+			if err != nil {
+				continue
+			}
+			e.rows = append(e.rows, tableRow{h: h, r: r, key: reductionKey(r)})
+		}
+	})
+	return e.rows
+}
+
+// reductionKey identifies a half-reaction whatever its multiple: each term's
+// coefficient per electron.
+func reductionKey(r thermo.Reaction) string {
+	parts := make([]string, 0, len(r.Terms))
+	for _, t := range r.Terms {
+		parts = append(parts, t.Species.Text+":"+strconv.FormatFloat(t.Nu/float64(r.Electrons), 'f', 4, 64))
+	}
+	sort.Strings(parts)
+	return strings.Join(parts, " ")
+}
+
+// tableRow finds the table row a derived half-reaction matches.
+func (e *Engine) tableRow(r thermo.Reaction) (*HalfReaction, bool) {
+	k := reductionKey(r)
+	for _, row := range e.tableRows() {
+		if row.key == k {
+			return row.h, true
+		}
+	}
+	return nil, false
+}
+
+// candidate is a table couple that can act in the mix as combined.
+type candidate struct {
+	row tableRow
+	e0  float64 // V at the mix temperature, from the species data
+	e   float64 // V at the mix's conditions (Nernst)
+}
+
+// noChange explains a mix in which nothing changes oxidation state, by the
+// table method at the mix's conditions: the strongest oxidizing agent and
+// the strongest reducing agent present, and why they do not react (E cell
+// not positive, or a change held back at plant conditions).
+func (e *Engine) noChange(res *Result, mx *state.Mix) {
+	ox, red := e.strongest(mx)
+	if ox == nil || red == nil || (isWaterCouple(ox.row.h) && isWaterCouple(red.row.h)) {
+		res.Verdict = NoReaction
+		return
+	}
+	net, n := explain.Combine(ox.row.r, red.row.r)
+	res.Oxidizer = e.tableCouple(ox, false)
+	res.Reducer = e.tableCouple(red, true)
+	res.Reaction = reactionOut(net, n)
+	eCell := ox.e - red.e
+	res.ECellStandard = ptr(roundDec(ox.e0-red.e0, 4))
+	res.ECell = ptr(roundDec(eCell, 4))
+	res.DeltaGkJ = ptr(roundDec(-float64(n)*thermo.F*eCell/1000, 2))
+	res.Log10K = ptr(roundDec(net.LogK(mx.TempK), 2))
+	res.Spontaneous = eCell > 0
+	res.Verdict = NonSpontaneous
+	if res.Spontaneous {
+		res.Verdict = Spontaneous
+		res.Hindered = true
+		res.Notes = append(res.Notes, "the strongest pair on the table has a positive E cell, but the change is held back at plant conditions (see held back): nothing is run to completion")
+	}
+}
+
+func isWaterCouple(h *HalfReaction) bool {
+	for _, ts := range [][]Term{h.Reactants, h.Products} {
+		for _, t := range ts {
+			if !isSolvent(t.Species) && !(t.Formula == "H2" || t.Formula == "O2") {
+				return false
+			}
+		}
+	}
+	return true
+}
+
+// strongest finds, among the table couples in the mix's medium whose
+// oxidized (reduced) forms are present as combined, the one with the highest
+// (lowest) potential at the mix's conditions.
+func (e *Engine) strongest(mx *state.Mix) (ox, red *candidate) {
+	med := Medium(explain.MediumAt(e.Thermo, mx.Combined.PH, mx.TempK))
+	present := map[*thermo.Species]bool{}
+	for i, sp := range mx.Species {
+		n := mx.Combined.Amount[i]
+		if n > 0 && (sp.Phase != Aqueous || n/mx.VolumeL >= trace) {
+			present[sp] = true
+		}
+	}
+	for _, row := range e.tableRows() {
+		if row.h.Medium != Any && row.h.Medium != med {
+			continue
+		}
+		c := candidate{row: row, e0: row.r.E0(mx.TempK)}
+		c.e = c.e0 - thermo.R*mx.TempK/(float64(row.r.Electrons)*thermo.F)*lnQAt(mx, row.r)
+		if sidePresent(row.r, -1, present) && (ox == nil || c.e > ox.e) {
+			cc := c
+			ox = &cc
+		}
+		if sidePresent(row.r, 1, present) && (red == nil || c.e < red.e) {
+			cc := c
+			red = &cc
+		}
+	}
+	return ox, red
+}
+
+// sidePresent reports whether every species on one side (sign −1: the
+// oxidized side, +1: the reduced side) other than water, H+ and OH- is
+// present.
+func sidePresent(r thermo.Reaction, sign float64, present map[*thermo.Species]bool) bool {
+	any := false
+	for _, t := range r.Terms {
+		if t.Nu*sign <= 0 || isSolvent(t.Species.Species) {
+			continue
+		}
+		if !present[t.Species] {
+			return false
+		}
+		any = true
+	}
+	return any
+}
+
+// lnQAt is ln Q of a reaction as the mix is combined; absent species at
+// their standard state.
+func lnQAt(mx *state.Mix, r thermo.Reaction) float64 {
+	q := 0.0
+	for _, t := range r.Terms {
+		for i, sp := range mx.Species {
+			if sp == t.Species && !math.IsNaN(mx.Combined.LnA[i]) {
+				q += t.Nu * mx.Combined.LnA[i]
+			}
+		}
+	}
+	return q
+}
+
+func (e *Engine) tableCouple(c *candidate, reducer bool) *Couple {
+	species := ""
+	for _, t := range c.row.r.Terms {
+		if (t.Nu < 0) != reducer && !isSolvent(t.Species.Species) {
+			species = t.Species.Species.Text()
+			break
+		}
+	}
+	return &Couple{Species: species, HalfReaction: halfOut(c.row.r, reducer), EStandard: roundDec(c.e0, 4),
+		E: roundDec(c.e, 4), ID: c.row.h.ID, Medium: c.row.h.Medium, Electrons: c.row.r.Electrons,
+		Source: "E° derived from ΔfG° of data/species.txt; published " + strconv.FormatFloat(c.row.h.E0, 'g', 4, 64) + " V, " + c.row.h.Source}
+}
+
+// heldBack lists the locks that held something back in the mix.
+func (e *Engine) heldBack(mx *state.Mix) []HeldBack {
+	out := []HeldBack{}
+	for _, l := range mx.Final.Held {
+		out = append(out, HeldBack{Lock: l.ID, Reason: l.Reason, Source: l.Source})
+	}
+	return out
+}
+
+// finish judges the hazards and caveats of an answer from its species, steps,
+// gases and heat.
+func (e *Engine) finish(res *Result, m *mixture, mx *state.Mix, steps []explain.Step) {
+	hin := HazardInput{
+		Chemicals: m.chemicals, Gases: res.Gases, PH: res.Conditions.PH, VolumeL: m.volumeL,
+		TemperatureC: m.tempK - 273.15, StrongAcidMol: m.strongAcid, StrongBaseMol: m.strongBase,
+	}
+	if res.Heat != nil {
+		hin.TemperatureRiseC = res.Heat.TemperatureRiseC
+	}
+	if mx != nil {
+		for i, sp := range mx.Species {
+			if n := mx.Combined.Amount[i]; n > 0 {
+				hin.Present = append(hin.Present, SpeciesAmount{Species: sp.Species, Mol: n, Molar: n / mx.VolumeL})
+			}
+		}
+	} else {
+		hin.Present = m.amounts()
+	}
+	for i, st := range res.Steps {
+		label := "headline"
+		if i > 0 {
+			label = "step " + strconv.Itoa(i+1)
+		}
+		hin.Reactions = append(hin.Reactions, ReactionCase{Label: label, Reaction: st.Reaction, ECell: *st.ECell})
+	}
+	res.Hazards = EvaluateHazards(e.Tables.Hazards, hin)
+	if res.Hazards == nil {
+		res.Hazards = []Hazard{}
+	}
+	cin := CaveatInput{Present: hin.Present, Chemicals: m.chemicals, Oxidizer: res.Oxidizer, Reducer: res.Reducer,
+		Reaction: res.Reaction, PH: res.Conditions.PH, Alternatives: res.Alternatives}
+	if res.ECell != nil {
+		cin.ECell, cin.HasECell = *res.ECell, true
+	}
+	res.Caveats = Caveats(cin)
+	if res.Caveats == nil {
+		res.Caveats = []string{}
+	}
+	if res.Heat == nil {
+		res.Heat = &Heat{Assumption: heatAssumption}
+	}
+	_ = steps
+}
+
+// speciesOfSolids lists the species of a mix of solids alone.
+func speciesOfSolids(m *mixture) []SpeciesInfo {
+	out := []SpeciesInfo{}
+	for _, a := range m.amounts() {
+		out = append(out, SpeciesInfo{Text: a.Species.Text(), Formula: a.Species.Formula, Charge: a.Species.Charge,
+			Phase: a.Species.Phase, Roles: []Role{}, Spectator: true, Mol: sigDigits(a.Mol, 6)})
+	}
+	return out
+}

@@ -1,0 +1,168 @@
+package explain
+
+import (
+	"fmt"
+	"math"
+	"sort"
+
+	"gonum.org/v1/gonum/mat"
+
+	"mixward/engine/thermo"
+)
+
+// Medium is how a half-reaction is written: with H+ (acid) or OH- (base).
+type Medium string
+
+// The media.
+const (
+	Acid Medium = "acid"
+	Base Medium = "base"
+)
+
+// balancer writes half-reactions between species of one DB.
+type balancer struct {
+	db      *thermo.DB
+	water   *thermo.Species
+	proton  *thermo.Species
+	hydrox  *thermo.Species
+	partner func(el string, not ...*thermo.Species) *thermo.Species // main carrier of an element
+}
+
+func newBalancer(db *thermo.DB, partner func(string, ...*thermo.Species) *thermo.Species) (*balancer, error) {
+	b := &balancer{db: db, partner: partner}
+	var ok1, ok2, ok3 bool
+	b.water, ok1 = db.Get("H2O")
+	b.proton, ok2 = db.Get("H+")
+	b.hydrox, ok3 = db.Get("OH-")
+	if !ok1 || !ok2 || !ok3 {
+		return nil, fmt.Errorf("explain: the species data lack H2O, H+ or OH-")
+	}
+	return b, nil
+}
+
+// maxScale bounds the whole-number multiplier that clears a half-reaction's
+// fractions.
+const maxScale = 60
+
+// Reduction writes ox + n e- → red, balanced with partner species for the
+// other elements, water, and H+ or OH- by medium, in smallest whole numbers.
+func (b *balancer) Reduction(ox, red *thermo.Species, med Medium) (thermo.Reaction, error) {
+	terms := []*thermo.Species{ox, red}
+	for _, el := range b.unmatched(ox, red) {
+		p := b.partner(el, ox, red)
+		if p == nil {
+			return thermo.Reaction{}, fmt.Errorf("no species carries %s to balance %s → %s", el, ox.Text, red.Text)
+		}
+		terms = append(terms, p)
+	}
+	ion := b.proton
+	if med == Base {
+		ion = b.hydrox
+	}
+	terms = append(terms, b.water, ion)
+	nu, e, err := solveCoefficients(terms)
+	if err != nil {
+		return thermo.Reaction{}, fmt.Errorf("%s → %s: %v", ox.Text, red.Text, err)
+	}
+	if e <= 0 || nu[1] <= 0 {
+		return thermo.Reaction{}, fmt.Errorf("%s is not reduced to %s", ox.Text, red.Text)
+	}
+	r := thermo.Reaction{Electrons: e}
+	for i, sp := range terms {
+		if nu[i] != 0 {
+			r.Terms = append(r.Terms, thermo.Term{Species: sp, Nu: float64(nu[i])})
+		}
+	}
+	return r, nil
+}
+
+// unmatched lists the elements other than H and O found in only one of the
+// two forms: a partner species must carry them (chloride for AgCl → Ag,
+// ammonia for Cu(NH3)4^2+ → Cu).
+func (b *balancer) unmatched(ox, red *thermo.Species) []string {
+	var out []string
+	for _, pair := range [][2]*thermo.Species{{ox, red}, {red, ox}} {
+		for el := range pair[0].Atoms {
+			if el != "H" && el != "O" && pair[1].Atoms[el] == 0 {
+				out = append(out, el)
+			}
+		}
+	}
+	sort.Strings(out)
+	return out
+}
+
+// solveCoefficients finds signed coefficients (terms[0] consumed with −k)
+// and the electrons n so that every element and the charge balance:
+// Σ ν_t·atoms_t + (−n)·e⁻ = 0. It returns whole numbers.
+func solveCoefficients(terms []*thermo.Species) ([]int, int, error) {
+	els := map[string]int{}
+	var names []string
+	for _, sp := range terms {
+		for el := range sp.Atoms {
+			if _, ok := els[el]; !ok {
+				els[el] = len(names)
+				names = append(names, el)
+			}
+		}
+	}
+	rows := len(names) + 1 // elements and charge
+	cols := len(terms)     // terms 1.. plus the electron column
+	a := mat.NewDense(rows, cols, nil)
+	rhs := mat.NewVecDense(rows, nil)
+	for j, sp := range terms {
+		for el, n := range sp.Atoms {
+			if j == 0 {
+				rhs.SetVec(els[el], float64(n)) // ν₀ = −1 moved to the right
+				continue
+			}
+			a.Set(els[el], j-1, float64(n))
+		}
+		if j == 0 {
+			rhs.SetVec(len(names), float64(sp.Charge))
+			continue
+		}
+		a.Set(len(names), j-1, float64(sp.Charge))
+	}
+	a.Set(len(names), cols-1, -1) // the electron's charge; its ν is −n for a reduction
+	var x mat.VecDense
+	if err := x.SolveVec(a, rhs); err != nil {
+		return nil, 0, fmt.Errorf("cannot be balanced: %v", err)
+	}
+	var res mat.VecDense
+	res.MulVec(a, &x)
+	res.SubVec(&res, rhs)
+	if mat.Norm(&res, math.Inf(1)) > 1e-7 {
+		return nil, 0, fmt.Errorf("cannot be balanced with these species")
+	}
+	vals := append([]float64{-1}, x.RawVector().Data...)
+	k := wholeScale(vals)
+	if k == 0 {
+		return nil, 0, fmt.Errorf("needs coefficients beyond %d", maxScale)
+	}
+	out := make([]int, len(terms))
+	for i := range terms {
+		out[i] = int(math.Round(vals[i] * float64(k)))
+	}
+	n := -int(math.Round(vals[len(vals)-1] * float64(k)))
+	return out, n, nil
+}
+
+// wholeScale is the least k ≤ maxScale that makes every value whole (0 when
+// none does).
+func wholeScale(vals []float64) int {
+	for k := 1; k <= maxScale; k++ {
+		ok := true
+		for _, v := range vals {
+			x := v * float64(k)
+			if math.Abs(x-math.Round(x)) > 1e-6 {
+				ok = false
+				break
+			}
+		}
+		if ok {
+			return k
+		}
+	}
+	return 0
+}

@@ -1,0 +1,262 @@
+package explain
+
+import (
+	"fmt"
+	"math"
+
+	"mixward/engine/state"
+	"mixward/engine/thermo"
+)
+
+// Couple is one side of a redox change: the agent, what it turns into, and
+// the half-reaction written as a reduction in the mix's medium.
+type Couple struct {
+	Agent   *thermo.Species // the oxidizing agent, or the reducing agent
+	Product *thermo.Species // what the agent turns into
+	Half    thermo.Reaction // the reduction oxidized form + n e- → reduced form
+	E0      float64         // V at the mix's temperature, from the species data
+	E       float64         // V at the mix's conditions as combined (Nernst)
+	Element string
+	From    float64 // oxidation state of Element in Agent
+	To      float64 // in Product
+}
+
+// Step is one redox change between the mix as combined and the mix at
+// equilibrium, explained as an oxidizing agent and a reducing agent.
+type Step struct {
+	Oxidizer, Reducer Couple
+	Net               thermo.Reaction // the net ionic equation, whole numbers, no electrons
+	N                 int             // electrons per reaction as written
+	Medium            Medium
+	E0Cell, ECell     float64 // V
+	DeltaG0, DeltaG   float64 // kJ per reaction as written: standard, and at the mix's conditions
+	Log10K            float64
+	Extent            float64 // mol of the reaction as written
+	ElectronsMol      float64 // mol of electrons that passed
+}
+
+// Steps explains the redox changes of a solved mix, the one that moves the
+// most electrons first. A mix without any redox change gives none.
+func Steps(db *thermo.DB, mx *state.Mix) ([]Step, error) {
+	ts := Transfers(mx.Species, mx.Combined.Amount, mx.Final.Amount)
+	matches := Pairs(ts, 1e-4)
+	if len(matches) == 0 {
+		return nil, nil
+	}
+	x, err := newExplainer(db, mx)
+	if err != nil {
+		return nil, err
+	}
+	var out []Step
+	for _, m := range matches {
+		st, err := x.step(m)
+		if err != nil {
+			return nil, err
+		}
+		out = append(out, st)
+	}
+	return out, nil
+}
+
+type explainer struct {
+	db  *thermo.DB
+	mx  *state.Mix
+	bal *balancer
+	med Medium
+	lnA []float64 // ln activity as combined (NaN: not present, taken at its standard state)
+}
+
+func newExplainer(db *thermo.DB, mx *state.Mix) (*explainer, error) {
+	x := &explainer{db: db, mx: mx, lnA: mx.Combined.LnA, med: MediumAt(db, mx.Combined.PH, mx.TempK)}
+	b, err := newBalancer(db, x.partner)
+	if err != nil {
+		return nil, err
+	}
+	x.bal = b
+	return x, nil
+}
+
+// MediumAt is acid below neutral pH at the temperature (pKw/2 from the
+// species data), base at or above it.
+func MediumAt(db *thermo.DB, pH, tempK float64) Medium {
+	if pH < NeutralPH(db, tempK) {
+		return Acid
+	}
+	return Base
+}
+
+// NeutralPH is pKw/2 at tempK from the species data (7.00 at 25 °C).
+func NeutralPH(db *thermo.DB, tempK float64) float64 {
+	r, err := thermo.ParseReaction(db, "H2O -> H+ + OH-")
+	if err != nil {
+		return 7
+	}
+	return -r.LogK(tempK) / 2
+}
+
+// partner is the main carrier of an element in the mix at equilibrium (or as
+// combined) other than the given species and free of their key elements.
+func (x *explainer) partner(el string, not ...*thermo.Species) *thermo.Species {
+	skip := map[string]bool{}
+	for _, sp := range not {
+		for e := range sp.Atoms {
+			if e != el && e != "H" && e != "O" {
+				skip[e] = true
+			}
+		}
+	}
+	for _, amount := range [][]float64{x.mx.Final.Amount, x.mx.Combined.Amount} {
+		var best *thermo.Species
+		bestMol := 0.0
+		for i, sp := range x.mx.Species {
+			if sp.Atoms[el] == 0 || contains(not, sp) || hasAny(sp, skip) {
+				continue
+			}
+			if m := amount[i] * float64(sp.Atoms[el]); m > bestMol {
+				best, bestMol = sp, m
+			}
+		}
+		if best != nil {
+			return best
+		}
+	}
+	return nil
+}
+
+func contains(list []*thermo.Species, sp *thermo.Species) bool {
+	for _, s := range list {
+		if s == sp {
+			return true
+		}
+	}
+	return false
+}
+
+func hasAny(sp *thermo.Species, els map[string]bool) bool {
+	for e := range sp.Atoms {
+		if els[e] {
+			return true
+		}
+	}
+	return false
+}
+
+// couple writes one side of a match: the agent as combined, its product at
+// equilibrium, the reduction between the oxidized and reduced forms.
+func (x *explainer) couple(t Transfer) (Couple, error) {
+	agent := dominant(x.mx, x.mx.Combined.Amount, t.Element, t.From)
+	product := dominant(x.mx, x.mx.Final.Amount, t.Element, t.To)
+	if agent == nil || product == nil {
+		return Couple{}, fmt.Errorf("explain: no species holds %s in state %g or %g", t.Element, t.From, t.To)
+	}
+	ox, red := agent, product
+	if !t.Reduction() {
+		ox, red = product, agent
+	}
+	half, err := x.bal.Reduction(ox, red, x.med)
+	if err != nil {
+		return Couple{}, fmt.Errorf("explain: %w", err)
+	}
+	c := Couple{Agent: agent, Product: product, Half: half, Element: t.Element, From: t.From, To: t.To}
+	c.E0 = half.E0(x.mx.TempK)
+	c.E = c.E0 - thermo.R*x.mx.TempK/(float64(half.Electrons)*thermo.F)*x.lnQ(half)
+	return c, nil
+}
+
+// lnQ is ln of the reaction quotient as combined; a species not present is
+// taken at its standard state.
+func (x *explainer) lnQ(r thermo.Reaction) float64 {
+	q := 0.0
+	for _, t := range r.Terms {
+		for i, sp := range x.mx.Species {
+			if sp == t.Species && !math.IsNaN(x.lnA[i]) {
+				q += t.Nu * x.lnA[i]
+			}
+		}
+	}
+	return q
+}
+
+func (x *explainer) step(m Match) (Step, error) {
+	oc, err := x.couple(m.Red)
+	if err != nil {
+		return Step{}, err
+	}
+	rc, err := x.couple(m.Ox)
+	if err != nil {
+		return Step{}, err
+	}
+	net, n := Combine(oc.Half, rc.Half)
+	st := Step{Oxidizer: oc, Reducer: rc, Net: net, N: n, Medium: x.med}
+	st.E0Cell = oc.E0 - rc.E0
+	st.ECell = oc.E - rc.E
+	st.DeltaG0 = st.Net.DeltaG(x.mx.TempK)
+	st.DeltaG = -float64(st.N) * thermo.F * st.ECell / 1000
+	st.Log10K = st.Net.LogK(x.mx.TempK)
+	st.ElectronsMol = m.Electrons
+	st.Extent = m.Electrons / float64(st.N)
+	return st, nil
+}
+
+type netResult struct {
+	r   thermo.Reaction
+	div int
+}
+
+// combine adds a·red + b·(ox reversed), cancels what stands on both sides
+// and divides by the common factor.
+func combine(red thermo.Reaction, a int, ox thermo.Reaction, b int, electrons int) netResult {
+	sum := map[*thermo.Species]float64{}
+	var order []*thermo.Species
+	add := func(r thermo.Reaction, k float64) {
+		for _, t := range r.Terms {
+			if _, ok := sum[t.Species]; !ok {
+				order = append(order, t.Species)
+			}
+			sum[t.Species] += k * t.Nu
+		}
+	}
+	add(red, float64(a))
+	add(ox, -float64(b))
+	g := 0
+	for _, sp := range order {
+		if v := int(math.Round(sum[sp])); v != 0 {
+			g = gcd(g, abs(v))
+		}
+	}
+	if g == 0 || electrons%g != 0 {
+		g = 1
+	}
+	var out thermo.Reaction
+	for _, sp := range order {
+		if v := math.Round(sum[sp]); v != 0 {
+			out.Terms = append(out.Terms, thermo.Term{Species: sp, Nu: v / float64(g)})
+		}
+	}
+	return netResult{r: out, div: g}
+}
+
+func gcd(a, b int) int {
+	for b != 0 {
+		a, b = b, a%b
+	}
+	return a
+}
+
+func abs(a int) int {
+	if a < 0 {
+		return -a
+	}
+	return a
+}
+
+// Combine writes the net equation of a reduction and an oxidation (given
+// as its reduction), each scaled to the least common multiple of their
+// electrons, with what stands on both sides cancelled. It returns the
+// equation and the electrons that pass per equation as written.
+func Combine(red, ox thermo.Reaction) (thermo.Reaction, int) {
+	n1, n2 := red.Electrons, ox.Electrons
+	l := n1 / gcd(n1, n2) * n2
+	net := combine(red, l/n1, ox, l/n2, l)
+	return net.r, l / net.div
+}

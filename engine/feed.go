@@ -1,0 +1,74 @@
+package engine
+
+import (
+	"errors"
+	"fmt"
+
+	"mixward/engine/state"
+	"mixward/engine/thermo"
+)
+
+// ErrNoData is a chemical the dictionary knows by name but whose species
+// have no thermodynamic data: the answer is withheld rather than guessed.
+var ErrNoData = errors.New("no thermodynamic data")
+
+// waterMolarMass is g/mol (IUPAC standard atomic weights: 2 × 1.008 + 15.999).
+const waterMolarMass = 18.015
+
+// feedOf turns a parsed request into what the streams bring: the species
+// each chemical gives in water (data/chemicals.txt) with their amounts, and
+// the water of each liquid stream. Assumptions go to m's notes.
+func feedOf(req *Request, t *Tables, db *thermo.DB, m *mixture) (state.Feed, error) {
+	f := state.Feed{TempK: req.TemperatureK, PressureBar: req.PressureKPa / 100}
+	for si := range req.Streams {
+		st, err := streamFeed(&req.Streams[si], t, db, m)
+		if err != nil {
+			return state.Feed{}, err
+		}
+		f.Streams = append(f.Streams, st)
+	}
+	return f, nil
+}
+
+func streamFeed(st *Stream, t *Tables, db *thermo.DB, m *mixture) (state.Stream, error) {
+	vol := st.VolumeL
+	liquid := vol > 0
+	if vol == 0 && st.MassKg == 0 && streamIsSolution(st) {
+		vol, liquid = 1, true
+	}
+	out := state.Stream{Label: st.Label()}
+	solutes := 0.0 // kg of dissolved chemicals
+	for ci := range st.Components {
+		c := &st.Components[ci]
+		if c.Chemical.Formula == "H2O" {
+			continue
+		}
+		mol, excess, err := componentMoles(st, c, vol, liquid, t, m)
+		if err != nil {
+			return state.Stream{}, err
+		}
+		if liquid {
+			solutes += mol * c.Chemical.MolarMass / 1000
+		}
+		for _, g := range c.Chemical.Gives {
+			sp, ok := db.Get(g.Species.Text())
+			if !ok {
+				return state.Stream{}, fmt.Errorf("%w for %s (%s gives %s): the answer is withheld rather than guessed; check the safety data sheet and ask a chemist", ErrNoData, c.Name, c.Chemical.Formula, g.Species.Text())
+			}
+			if sp.Text == "H2O" {
+				out.WaterMol += mol * float64(g.Coef)
+				continue
+			}
+			out.Items = append(out.Items, state.Item{Species: sp, Mol: mol * float64(g.Coef), Excess: excess})
+		}
+	}
+	if liquid {
+		out.VolumeL = vol
+		water := vol*streamDensity(st, t) - solutes // kg
+		if water < 0.02*vol {
+			water = 0.02 * vol // a near-pure reagent still holds a little water
+		}
+		out.WaterMol += water * 1000 / waterMolarMass
+	}
+	return out, nil
+}

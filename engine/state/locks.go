@@ -1,0 +1,234 @@
+package state
+
+import (
+	"fmt"
+	"math"
+	"strconv"
+	"strings"
+
+	"mixward/engine/chem"
+	"mixward/engine/thermo"
+)
+
+// A Lock takes a class of changes out of the equilibrium search while its
+// condition holds (data/locks.txt): what is downhill on paper but does not
+// happen in a tank at plant conditions.
+type Lock struct {
+	ID     string
+	Rules  []Rule // at least one must hold (one, or two joined by "or")
+	When   Cond   // nil means always
+	Reason string
+	Source string
+	Line   int
+}
+
+// Direction says which way a rule keeps a group.
+type Direction int
+
+// Directions of a rule.
+const (
+	NoGain Direction = iota // the group may not grow
+	NoLoss                  // the group may not shrink
+	Fixed                   // neither
+)
+
+// Rule keeps one group of atoms from growing, shrinking or both.
+type Rule struct {
+	Dir   Direction
+	Group Group
+}
+
+// Group selects atoms: of an element within an oxidation-state range, of an
+// element in organic species, or formula units of listed species.
+type Group struct {
+	Element string
+	Lo, Hi  float64
+	Organic bool
+	Species []string // species texts; when set, Element is unused
+	text    string
+}
+
+func (g Group) String() string { return g.text }
+
+// Weight is how many atoms (or formula units) of the group one formula unit
+// of sp holds.
+func (g Group) Weight(sp *thermo.Species) float64 {
+	if len(g.Species) > 0 {
+		for _, s := range g.Species {
+			if s == sp.Text || s == sp.Ion() {
+				return 1
+			}
+		}
+		return 0
+	}
+	n := sp.Atoms[g.Element]
+	if n == 0 {
+		return 0
+	}
+	if g.Organic {
+		if IsOrganic(sp.Atoms, sp.Ion()) {
+			return float64(n)
+		}
+		return 0
+	}
+	ox, ok := sp.Ox[g.Element]
+	if !ok {
+		return 0
+	}
+	const tol = 0.01
+	if ox < g.Lo-tol || ox > g.Hi+tol {
+		return 0
+	}
+	return float64(n)
+}
+
+// inorganicCarbon are the one-carbon species with hydrogen that are not
+// organic by the usual convention.
+var inorganicCarbon = map[string]bool{"HCO3-": true, "H2CO3": true, "HCN": true, "HOCN": true, "HSCN": true}
+
+// IsOrganic reports whether a species counts as organic: two or more carbon
+// atoms, or carbon together with hydrogen other than in bicarbonate, carbonic
+// acid, HCN, HOCN and HSCN.
+func IsOrganic(a chem.Atoms, ion string) bool {
+	c := a["C"]
+	switch {
+	case c >= 2:
+		return true
+	case c == 1 && a["H"] > 0:
+		return !inorganicCarbon[ion]
+	}
+	return false
+}
+
+// parseLocks reads data/locks.txt.
+func parseLocks(file string, b []byte) ([]Lock, error) {
+	var out []Lock
+	seen := map[string]int{}
+	for i, line := range strings.Split(string(b), "\n") {
+		line = strings.TrimSpace(line)
+		if line == "" || strings.HasPrefix(line, "#") {
+			continue
+		}
+		l, err := parseLockRow(line)
+		if err != nil {
+			return nil, fmt.Errorf("%s:%d: %v", file, i+1, err)
+		}
+		if prev, dup := seen[l.ID]; dup {
+			return nil, fmt.Errorf("%s:%d: lock %q is already defined on line %d; give each lock its own id", file, i+1, l.ID, prev)
+		}
+		seen[l.ID] = i + 1
+		l.Line = i + 1
+		out = append(out, l)
+	}
+	return out, nil
+}
+
+func parseLockRow(line string) (Lock, error) {
+	f := strings.Split(line, " | ")
+	if len(f) != 5 {
+		return Lock{}, fmt.Errorf("want 5 fields (id | rule | applies when | reason | source), got %d", len(f))
+	}
+	for i := range f {
+		f[i] = strings.TrimSpace(f[i])
+	}
+	l := Lock{ID: f[0], Reason: f[3], Source: f[4]}
+	if l.ID == "" || strings.ContainsAny(l.ID, " \t") {
+		return Lock{}, fmt.Errorf("lock id %q must be one word", l.ID)
+	}
+	if l.Source == "" {
+		return Lock{}, fmt.Errorf("lock %s has no source; name one or write \"common practice, no source\"", l.ID)
+	}
+	for _, part := range strings.Split(f[1], " or ") {
+		r, err := parseRule(strings.TrimSpace(part))
+		if err != nil {
+			return Lock{}, fmt.Errorf("lock %s: %v", l.ID, err)
+		}
+		l.Rules = append(l.Rules, r)
+	}
+	if len(l.Rules) > 2 {
+		return Lock{}, fmt.Errorf("lock %s: at most two rules may be joined by \"or\"", l.ID)
+	}
+	if f[2] != "always" {
+		c, err := parseCond(f[2])
+		if err != nil {
+			return Lock{}, fmt.Errorf("lock %s: condition %q: %v", l.ID, f[2], err)
+		}
+		l.When = c
+	}
+	return l, nil
+}
+
+func parseRule(s string) (Rule, error) {
+	dir, rest, ok := strings.Cut(s, " ")
+	if !ok {
+		return Rule{}, fmt.Errorf("rule %q: want no-gain, no-loss or fixed followed by a group", s)
+	}
+	var r Rule
+	switch dir {
+	case "no-gain":
+		r.Dir = NoGain
+	case "no-loss":
+		r.Dir = NoLoss
+	case "fixed":
+		r.Dir = Fixed
+	default:
+		return Rule{}, fmt.Errorf("rule %q: %q is not no-gain, no-loss or fixed", s, dir)
+	}
+	g, err := parseGroup(strings.TrimSpace(rest))
+	if err != nil {
+		return Rule{}, err
+	}
+	r.Group = g
+	return r, nil
+}
+
+// parseGroup reads X(a), X(a..b), X(organic) or {A, B}.
+func parseGroup(s string) (Group, error) {
+	g := Group{text: s}
+	if strings.HasPrefix(s, "{") {
+		if !strings.HasSuffix(s, "}") {
+			return g, fmt.Errorf("group %q: a species list ends with }", s)
+		}
+		for _, sp := range strings.Split(s[1:len(s)-1], ",") {
+			sp = strings.TrimSpace(sp)
+			if _, err := chem.ParseSpecies(sp); err != nil {
+				return g, fmt.Errorf("group %q: %v", s, err)
+			}
+			g.Species = append(g.Species, sp)
+		}
+		return g, nil
+	}
+	el, arg, ok := strings.Cut(s, "(")
+	if !ok || !strings.HasSuffix(arg, ")") || !chem.IsElementSymbol(el) {
+		return g, fmt.Errorf("group %q: want an element and an oxidation state, like S(6) or N(0..1)", s)
+	}
+	g.Element = el
+	arg = strings.TrimSuffix(arg, ")")
+	if arg == "organic" {
+		g.Organic = true
+		return g, nil
+	}
+	lo, hi, isRange := strings.Cut(arg, "..")
+	var err error
+	if g.Lo, err = parseState(lo); err != nil {
+		return g, fmt.Errorf("group %q: %v", s, err)
+	}
+	g.Hi = g.Lo
+	if isRange {
+		if g.Hi, err = parseState(hi); err != nil {
+			return g, fmt.Errorf("group %q: %v", s, err)
+		}
+		if g.Hi < g.Lo {
+			return g, fmt.Errorf("group %q: the range runs from low to high", s)
+		}
+	}
+	return g, nil
+}
+
+func parseState(s string) (float64, error) {
+	v, err := strconv.ParseFloat(s, 64)
+	if err != nil || math.IsNaN(v) || math.Abs(v) > 8 {
+		return 0, fmt.Errorf("%q is not an oxidation state between -8 and 8", s)
+	}
+	return v, nil
+}

@@ -1,0 +1,248 @@
+package state
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strconv"
+
+	"mixward/engine/chem"
+	"mixward/engine/equilibrium"
+	"mixward/engine/thermo"
+)
+
+// presence is the concentration (mol/L) above which a group counts as
+// present in a lock's condition.
+const presence = 1e-5
+
+// solveLocked solves n0 twice: as combined (no redox change) and at
+// equilibrium under the locks whose conditions hold for the combined state.
+// A lock of two alternatives is solved both ways and the lower Gibbs energy
+// kept.
+func (m *Model) solveLocked(mx *Mix, n0 []float64, volL float64) (*State, error) {
+	combined, err := m.solve(mx, n0, true, nil, volL)
+	if err != nil {
+		return nil, fmt.Errorf("as combined: %w", err)
+	}
+	env := m.env(mx, combined, volL)
+	var applied []*Lock
+	for i := range m.Locks {
+		l := &m.Locks[i]
+		if l.When == nil || l.When.Holds(env) {
+			applied = append(applied, l)
+		}
+	}
+	var best *State
+	for _, cons := range constraintSets(mx, applied, n0) {
+		st, err := m.solve(mx, n0, false, cons, volL)
+		if err != nil {
+			return nil, err
+		}
+		if best == nil || st.Eq.G < best.Eq.G {
+			best = st
+		}
+	}
+	best.Applied = applied
+	best.Held = heldLocks(applied, best.Eq.Active)
+	best.combined = combined
+	return best, nil
+}
+
+// env is what lock conditions are judged against.
+func (m *Model) env(mx *Mix, s *State, volL float64) Env {
+	return Env{
+		TempC: mx.TempK - 273.15,
+		PH:    s.PH,
+		Has: func(g Group) bool {
+			tot := 0.0
+			for i, sp := range mx.Species {
+				if w := g.Weight(sp); w > 0 {
+					tot += w * s.Amount[i]
+				}
+			}
+			return volL > 0 && tot/volL >= presence
+		},
+	}
+}
+
+// constraintSets lists the constraint sets to try: every combination of the
+// alternatives of two-way locks (one set when there are none).
+func constraintSets(mx *Mix, locks []*Lock, n0 []float64) [][]equilibrium.Constraint {
+	sets := [][]equilibrium.Constraint{nil}
+	for _, l := range locks {
+		var next [][]equilibrium.Constraint
+		for k, r := range l.Rules {
+			c := ruleConstraint(mx, l.ID+"#"+strconv.Itoa(k), r, n0)
+			for _, s := range sets {
+				next = append(next, append(append([]equilibrium.Constraint(nil), s...), c))
+			}
+		}
+		sets = next
+	}
+	return sets
+}
+
+func ruleConstraint(mx *Mix, name string, r Rule, n0 []float64) equilibrium.Constraint {
+	c := equilibrium.Constraint{Name: name, Coef: make([]float64, len(mx.Species))}
+	for i, sp := range mx.Species {
+		c.Coef[i] = r.Group.Weight(sp)
+		c.Bound += c.Coef[i] * n0[i]
+	}
+	switch r.Dir {
+	case NoGain:
+		c.Rel = equilibrium.AtMost
+	case NoLoss:
+		c.Rel = equilibrium.AtLeast
+	default:
+		c.Rel = equilibrium.Exactly
+	}
+	return c
+}
+
+func heldLocks(applied []*Lock, active []string) []*Lock {
+	var out []*Lock
+	for _, l := range applied {
+		for _, a := range active {
+			if len(a) > len(l.ID) && a[:len(l.ID)+1] == l.ID+"#" {
+				out = append(out, l)
+				break
+			}
+		}
+	}
+	return out
+}
+
+// solve builds and solves one equilibrium problem. With frozen set, every
+// element in each oxidation state is a component of its own, so only
+// acid–base, complex and solid changes can happen.
+func (m *Model) solve(mx *Mix, n0 []float64, frozen bool, cons []equilibrium.Constraint, volL float64) (*State, error) {
+	comps := map[string]int{}
+	var names []string
+	rows := make([]map[string]float64, len(mx.Species))
+	for i, sp := range mx.Species {
+		rows[i] = components(sp, frozen)
+		for k := range rows[i] {
+			if _, ok := comps[k]; !ok {
+				comps[k] = len(names)
+				names = append(names, k)
+			}
+		}
+	}
+	sort.Strings(names)
+	for i, k := range names {
+		comps[k] = i
+	}
+	totals := make([]float64, len(names))
+	for i, n := range n0 {
+		for k, a := range rows[i] {
+			totals[comps[k]] += n * a
+		}
+	}
+	p := equilibrium.Problem{Components: names, Totals: totals, TemperatureK: mx.TempK, PressureBar: mx.Pressure}
+	var keep []int // problem species → mix species
+	for i, sp := range mx.Species {
+		if !formable(rows[i], totals, comps) {
+			continue
+		}
+		p.Species = append(p.Species, problemSpecies(sp, rows[i], comps, len(names), mx.TempK))
+		keep = append(keep, i)
+	}
+	for _, c := range cons {
+		pc := c
+		pc.Coef = make([]float64, len(keep))
+		for j, i := range keep {
+			pc.Coef[j] = c.Coef[i]
+		}
+		p.Constraints = append(p.Constraints, pc)
+	}
+	eq, err := equilibrium.Solve(p)
+	if err != nil {
+		return nil, err
+	}
+	st := &State{Amount: make([]float64, len(mx.Species)), LnA: make([]float64, len(mx.Species)), Eq: eq, VolumeL: volL}
+	for i := range st.LnA {
+		st.LnA[i] = math.NaN()
+	}
+	for j, i := range keep {
+		st.Amount[i] = eq.Amount[j]
+		st.LnA[i] = lnActivity(p.Species[j].Phase, eq, j)
+	}
+	st.PH = math.NaN()
+	for j, i := range keep {
+		if mx.Species[i].Text == "H+" {
+			st.PH = -(math.Log(eq.Molality[j]) + eq.LogGamma[j]) / math.Ln10
+		}
+	}
+	return st, nil
+}
+
+// formable reports whether every component of a species is brought by the
+// feed.
+func formable(row map[string]float64, totals []float64, comps map[string]int) bool {
+	for k := range row {
+		if totals[comps[k]] <= 0 {
+			return false
+		}
+	}
+	return true
+}
+
+func problemSpecies(sp *thermo.Species, row map[string]float64, comps map[string]int, nc int, tempK float64) equilibrium.Species {
+	ps := equilibrium.Species{Name: sp.Text, Charge: sp.Charge, Amounts: make([]float64, nc), Mu0: sp.GibbsRT(tempK)}
+	for k, a := range row {
+		ps.Amounts[comps[k]] = a
+	}
+	switch {
+	case sp.Text == "H2O":
+		ps.Phase = equilibrium.Solvent
+	case sp.Phase == chem.Gas:
+		ps.Phase = equilibrium.Gas
+	case sp.Phase == chem.Solid || sp.Phase == chem.Liquid:
+		ps.Phase = equilibrium.Pure
+	default:
+		ps.Phase = equilibrium.Aqueous
+	}
+	return ps
+}
+
+// components is the component make-up of one formula unit. Elements of an
+// inert species other than H, O and metals are components of their own, so
+// that it never takes part in a redox change.
+func components(sp *thermo.Species, frozen bool) map[string]float64 {
+	row := make(map[string]float64, len(sp.Atoms))
+	for el, n := range sp.Atoms {
+		key := el
+		switch {
+		case sp.Inert && el != "H" && el != "O" && !chem.IsMetal(el):
+			key = el + "*"
+		case frozen:
+			key = el + "@" + strconv.FormatFloat(math.Round(sp.Ox[el]*100)/100, 'f', -1, 64)
+		}
+		row[key] += float64(n)
+	}
+	return row
+}
+
+// lnActivity is ln a of problem species j in a solved state: γm for a
+// solute, the partial pressure in bar for a gas, 1 for water and a pure phase
+// that is present; NaN for an absent species (taken at its standard state by
+// the Nernst equation).
+func lnActivity(ph equilibrium.Phase, eq equilibrium.State, j int) float64 {
+	switch ph {
+	case equilibrium.Solvent:
+		return 0
+	case equilibrium.Pure:
+		if eq.Amount[j] > 0 {
+			return 0
+		}
+	case equilibrium.Gas:
+		if eq.Partial[j] > 0 {
+			return math.Log(eq.Partial[j])
+		}
+	default:
+		if eq.Molality[j] > 0 {
+			return math.Log(eq.Molality[j]) + eq.LogGamma[j]
+		}
+	}
+	return math.NaN()
+}

@@ -1,0 +1,181 @@
+// Package state finds the state of a tank: the chemical equilibrium of
+// everything the streams bring, under the kinetic locks of data/locks.txt.
+// Every number of an answer is derived from the states it returns: each
+// stream alone, the mix as combined before any redox change, and the mix at
+// equilibrium. It is pure computation.
+package state
+
+import (
+	"errors"
+	"fmt"
+	"io/fs"
+	"math"
+	"sort"
+
+	"mixward/engine/equilibrium"
+	"mixward/engine/thermo"
+)
+
+// Item is one species a stream brings, as the chemical dictionary gives it.
+type Item struct {
+	Species *thermo.Species
+	Mol     float64
+	Excess  bool // a solid present in excess: whatever reacts, some is left
+}
+
+// Stream is one stream of a mix.
+type Stream struct {
+	Label    string
+	Items    []Item
+	WaterMol float64 // liquid water the stream brings
+	VolumeL  float64 // liquid volume; 0 for a solid
+}
+
+// Feed is everything poured into the tank.
+type Feed struct {
+	Streams     []Stream
+	TempK       float64
+	PressureBar float64
+}
+
+// Model holds the species data and the locks. It is safe for concurrent use.
+type Model struct {
+	DB    *thermo.DB
+	Locks []Lock
+}
+
+// NewModel reads data/locks.txt from fsys.
+func NewModel(db *thermo.DB, fsys fs.FS) (*Model, error) {
+	b, err := fs.ReadFile(fsys, "locks.txt")
+	if err != nil {
+		return nil, fmt.Errorf("state: %w", err)
+	}
+	locks, err := parseLocks("locks.txt", b)
+	if err != nil {
+		return nil, err
+	}
+	return &Model{DB: db, Locks: locks}, nil
+}
+
+// State is one solved state.
+type State struct {
+	Amount  []float64 // mol, per species of the Mix
+	LnA     []float64 // ln activity per species; NaN where the species is absent
+	Eq      equilibrium.State
+	PH      float64
+	VolumeL float64
+	Applied []*Lock // locks whose conditions held
+	Held    []*Lock // locks that held something back (active at the solution)
+
+	combined *State // the same amounts as combined, before any redox change
+}
+
+// Mix is the solved tank.
+type Mix struct {
+	Species  []*thermo.Species
+	Initial  []float64 // what the streams' states bring together, mol per species
+	Streams  []*State  // each stream alone (nil for a solid stream)
+	Combined *State    // the mix as combined: acid–base, complexes and solids, no redox change
+	Final    *State    // the mix at equilibrium under the locks
+	VolumeL  float64
+	TempK    float64
+	Pressure float64 // bar
+}
+
+// ErrNoLiquid is returned for a feed with no water at all: nothing dissolves.
+var ErrNoLiquid = errors.New("state: no liquid in the mix")
+
+// Solve finds the states of a feed.
+func (m *Model) Solve(f Feed) (*Mix, error) {
+	if f.TempK <= 0 || f.PressureBar <= 0 {
+		return nil, fmt.Errorf("state: temperature %g K and pressure %g bar must be positive", f.TempK, f.PressureBar)
+	}
+	mx := &Mix{TempK: f.TempK, Pressure: f.PressureBar}
+	mx.Species = m.candidates(f)
+	index := map[*thermo.Species]int{}
+	for i, sp := range mx.Species {
+		index[sp] = i
+	}
+	water := 0.0
+	for _, st := range f.Streams {
+		water += st.WaterMol
+		mx.VolumeL += st.VolumeL
+	}
+	if water <= 0 {
+		return nil, ErrNoLiquid
+	}
+	excess := 10.0
+	for _, st := range f.Streams {
+		for _, it := range st.Items {
+			excess += 10 * it.Mol * float64(atomCount(it.Species))
+		}
+	}
+	mx.Initial = make([]float64, len(mx.Species))
+	mx.Streams = make([]*State, len(f.Streams))
+	for si, st := range f.Streams {
+		n0 := m.feedVector(mx, index, st, excess)
+		if st.WaterMol <= 0 {
+			addTo(mx.Initial, n0)
+			continue
+		}
+		s, err := m.solveLocked(mx, n0, st.VolumeL)
+		if err != nil {
+			return nil, fmt.Errorf("stream %d (%s): %w", si+1, st.Label, err)
+		}
+		mx.Streams[si] = s
+		addTo(mx.Initial, s.Amount)
+	}
+	final, err := m.solveLocked(mx, mx.Initial, mx.VolumeL)
+	if err != nil {
+		return nil, fmt.Errorf("the mix: %w", err)
+	}
+	mx.Final = final
+	mx.Combined = final.combined
+	return mx, nil
+}
+
+func addTo(dst, src []float64) {
+	for i, v := range src {
+		dst[i] += v
+	}
+}
+
+// candidates are the species made only of the elements the feed brings.
+func (m *Model) candidates(f Feed) []*thermo.Species {
+	els := map[string]bool{"H": true, "O": true}
+	for _, st := range f.Streams {
+		for _, it := range st.Items {
+			for el := range it.Species.Atoms {
+				els[el] = true
+			}
+		}
+	}
+	out := append([]*thermo.Species(nil), m.DB.Within(els)...)
+	sort.SliceStable(out, func(i, j int) bool { return out[i].Text < out[j].Text })
+	return out
+}
+
+// feedVector is the as-given composition of a stream, per species of mx. A
+// solid in excess is given excess mol, well beyond what can react with it.
+func (m *Model) feedVector(mx *Mix, index map[*thermo.Species]int, st Stream, excess float64) []float64 {
+	n := make([]float64, len(mx.Species))
+	for _, it := range st.Items {
+		mol := it.Mol
+		if it.Excess {
+			mol = math.Max(mol, excess)
+		}
+		n[index[it.Species]] += mol
+	}
+	if w, ok := m.DB.Get("H2O"); ok {
+		n[index[w]] += st.WaterMol
+	}
+	return n
+}
+
+func atomCount(sp *thermo.Species) int {
+	n := 0
+	for _, c := range sp.Atoms {
+		n += c
+	}
+	return n
+}
