@@ -72,6 +72,8 @@ type DB struct {
 	byText map[string]*Species // by Text as written
 	atomic map[string]float64  // atomic weights, for Check
 	file   string              // "data/species.txt", for messages
+
+	withheld map[string]*Withheld // by chemical formula (withheld.txt)
 }
 
 // RowError is one bad row of a table: `FILE:LINE: what is wrong; what to do`.
@@ -88,8 +90,8 @@ func (e *RowError) Error() string {
 	return e.File + ":" + strconv.Itoa(e.Line) + ": " + e.Msg
 }
 
-// Load reads species.txt and elements.txt from the root of fsys (normally
-// data.FS). It parses every row and checks only what reading needs: six
+// Load reads species.txt, elements.txt and, when present, withheld.txt from
+// the root of fsys (normally data.FS). It parses every row and checks only what reading needs: six
 // fields, numbers, the species notation, the attributes, one row per species.
 // Everything else — sources, known elements, plausible values — is Check's.
 // The errors of all bad rows are joined (errors.Join).
@@ -106,7 +108,14 @@ func Load(fsys fs.FS) (*DB, error) {
 	if err != nil {
 		return nil, fmt.Errorf("%s%s: cannot read the table (%v); it must sit at the root of the data directory", tableDir, SpeciesFile, err)
 	}
-	return parseTable(tableDir+SpeciesFile, string(b), atomic)
+	db, err := parseTable(tableDir+SpeciesFile, string(b), atomic)
+	if err != nil {
+		return nil, err
+	}
+	if db.withheld, err = loadWithheld(fsys); err != nil {
+		return nil, err
+	}
+	return db, nil
 }
 
 // parseTable reads the text of species.txt.

@@ -1,6 +1,7 @@
 package thermo
 
 import (
+	"errors"
 	"math"
 	"strings"
 	"testing"
@@ -191,5 +192,36 @@ func TestGibbsRT(t *testing.T) {
 	fe, _ := db.Get("FeOH^2+")
 	if got, want := fe.GibbsRT(350), -229.4e3/(R*350); math.Abs(got-want) > 1e-9 {
 		t.Errorf("GibbsRT(350) of FeOH^2+ = %g, want %g", got, want)
+	}
+}
+
+func TestWithheld(t *testing.T) {
+	fsys := testFS(testSpecies)
+	fsys["withheld.txt"] = &fstest.MapFile{Data: []byte("# formula | missing | source\nNaBH4 | no reliable ΔfG° of BH4- at hand | test\n")}
+	db, err := Load(fsys)
+	if err != nil {
+		t.Fatal(err)
+	}
+	w, ok := db.Withheld("NaBH4")
+	if !ok || w.Line != 2 || len(db.AllWithheld()) != 1 {
+		t.Fatalf("Withheld(NaBH4) = %+v, %v", w, ok)
+	}
+	err = db.WithheldError("NaBH4")
+	if !errors.Is(err, ErrWithheld) || !strings.HasPrefix(err.Error(), "no thermodynamic data for NaBH4; answer withheld") {
+		t.Errorf("WithheldError(NaBH4) = %v", err)
+	}
+	if db.WithheldError("NaCl") != nil {
+		t.Error("NaCl reported as withheld")
+	}
+	for _, bad := range []struct{ row, want string }{
+		{"NaBH4 | x", "data/withheld.txt:1: has 2 fields"},
+		{"NaBH4 |  | src", "neither may be empty"},
+		{"nabh4 | x | src", "write the formula as in chemicals.txt"},
+		{"NaBH4 | x | s\nNaBH4 | y | s", "data/withheld.txt:2: NaBH4 is already listed at line 1"},
+	} {
+		fsys["withheld.txt"] = &fstest.MapFile{Data: []byte(bad.row + "\n")}
+		if _, err := Load(fsys); err == nil || !strings.Contains(err.Error(), bad.want) {
+			t.Errorf("Load(withheld %q) error = %v, want %q", bad.row, err, bad.want)
+		}
 	}
 }
