@@ -34,7 +34,9 @@ import (
 //     cyanate with S for O), CH3NH2 is C −2, Fe(CN)6^3- is Fe +3, C +2, N −3.
 //     The first choice of metal states that leaves every state plausible
 //     (PlausibleState) and the balance whole is taken; failing that, the first
-//     plausible one; failing that, an error asks for an override.
+//     plausible one; failing that, the least electronegative metal takes the
+//     balance instead (MoS2: S −2, Mo +4); failing that, an error asks for an
+//     override.
 //
 // Without an override NH2Cl comes out N −1, Cl −1 (Cl is the more
 // electronegative by Pauling's scale); water treatment's convention, Cl +1 and
@@ -89,15 +91,21 @@ func undetermined(atoms Atoms, st map[string]float64) []string {
 			out = append(out, el)
 		}
 	}
-	sort.Slice(out, func(i, j int) bool {
-		a, _ := Electronegativity(out[i])
-		b, _ := Electronegativity(out[j])
+	return byElectronegativity(out)
+}
+
+// byElectronegativity sorts els most electronegative first (ties by symbol,
+// elements without a value last) and returns it.
+func byElectronegativity(els []string) []string {
+	sort.Slice(els, func(i, j int) bool {
+		a, _ := Electronegativity(els[i])
+		b, _ := Electronegativity(els[j])
 		if a != b {
 			return a > b
 		}
-		return out[i] < out[j]
+		return els[i] < els[j]
 	})
-	return out
+	return els
 }
 
 // usualRules applies rule 3 of OxidationStates to the undetermined elements.
@@ -139,7 +147,9 @@ func usualRules(atoms Atoms, st map[string]float64, und []string) {
 	}
 }
 
-// fallbackStates applies rule 4 of OxidationStates.
+// fallbackStates applies rule 4 of OxidationStates. When no choice of the
+// metals' common states works, the least electronegative metal takes the
+// balance instead (MoS2: S −2, Mo +4).
 func fallbackStates(atoms Atoms, charge int, st map[string]float64, und []string) error {
 	var metals, others []string
 	for _, el := range und {
@@ -154,6 +164,25 @@ func fallbackStates(atoms Atoms, charge int, st map[string]float64, und []string
 		// electronegative takes the balance.
 		others, metals = metals[len(metals)-1:], metals[:len(metals)-1]
 	}
+	found := tryMetalStates(atoms, charge, st, metals, others)
+	if found == nil && len(metals) > 0 {
+		last := metals[len(metals)-1]
+		others = byElectronegativity(append(append([]string(nil), others...), last))
+		found = tryMetalStates(atoms, charge, st, metals[:len(metals)-1], others)
+	}
+	if found == nil {
+		return fmt.Errorf("cannot assign oxidation states to %s by the usual rules; give them as attributes (like Fe=2)", strings.Join(und, ", "))
+	}
+	for el, v := range found {
+		st[el] = v
+	}
+	return nil
+}
+
+// tryMetalStates tries every choice of the metals' common states and returns
+// the first that leaves every state plausible and the balance whole, else the
+// first plausible one, else nil.
+func tryMetalStates(atoms Atoms, charge int, st map[string]float64, metals, others []string) map[string]float64 {
 	var plausible map[string]float64
 	for _, combo := range stateCombos(metals) {
 		trial := make(map[string]float64, len(atoms))
@@ -168,20 +197,13 @@ func fallbackStates(atoms Atoms, charge int, st map[string]float64, und []string
 			continue
 		}
 		if whole {
-			plausible = trial
-			break
+			return trial
 		}
 		if plausible == nil {
 			plausible = trial
 		}
 	}
-	if plausible == nil {
-		return fmt.Errorf("cannot assign oxidation states to %s by the usual rules; give them as attributes (like Fe=2)", strings.Join(und, ", "))
-	}
-	for el, v := range plausible {
-		st[el] = v
-	}
-	return nil
+	return plausible
 }
 
 // balanceNonMetals gives each element of others (most electronegative first)

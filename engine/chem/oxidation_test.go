@@ -61,6 +61,8 @@ func TestOxidationStates(t *testing.T) {
 		{name: "hexaamminecobalt(III)", species: "Co(NH3)6^3+", want: map[string]float64{"Co": 3, "N": -3, "H": 1}},
 		{name: "tetraamminecopper(II)", species: "Cu(NH3)4^2+", want: map[string]float64{"Cu": 2, "N": -3, "H": 1}},
 		{name: "chromite", species: "FeCr2O4(s)", want: map[string]float64{"Fe": 2, "Cr": 3, "O": -2}},
+		{name: "molybdenite, metal takes the balance", species: "MoS2(s)", want: map[string]float64{"Mo": 4, "S": -2}},
+		{name: "pyrite", species: "FeS2(s)", want: map[string]float64{"Fe": 2, "S": -1}},
 		{name: "override of an absent element", species: "H2O", override: map[string]float64{"N": 1}, wantErr: "does not contain"},
 	}
 	for _, tc := range tests {
