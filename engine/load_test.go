@@ -473,10 +473,10 @@ func TestLoadSmallTables(t *testing.T) {
 	if h.ID != "mno4-mn2" || h.Electrons != 5 || h.E0 != 1.507 || h.Medium != Acid || len(h.Reactants) != 2 || len(h.Products) != 2 {
 		t.Errorf("mno4-mn2 read as %+v", h)
 	}
-	if h.Reactants[1].Species != (Species{"H", 1, Aqueous}) || h.Reactants[1].Coef != 8 {
+	if h.Reactants[1].Species != (Species{Formula: "H", Charge: 1, Phase: Aqueous}) || h.Reactants[1].Coef != 8 {
 		t.Errorf("second reactant of mno4-mn2 = %+v, want 8 H+", h.Reactants[1])
 	}
-	if h.Products[1].Species != (Species{"H2O", 0, Liquid}) || h.Products[1].Coef != 4 {
+	if h.Products[1].Species != (Species{Formula: "H2O", Charge: 0, Phase: Liquid}) || h.Products[1].Coef != 4 {
 		t.Errorf("second product of mno4-mn2 = %+v, want 4 H2O(l)", h.Products[1])
 	}
 	c := tb.Chemicals[0]
@@ -488,7 +488,7 @@ func TestLoadSmallTables(t *testing.T) {
 		t.Errorf("molar mass of NaOCl = %.6f, want %.6f", c.MolarMass, want)
 	}
 	p := tb.AcidBase[0]
-	if p.Acid != (Species{"HOCl", 0, Aqueous}) || p.Base != (Species{"OCl", -1, Aqueous}) || p.PKa != 7.53 {
+	if p.Acid != (Species{Formula: "HOCl", Charge: 0, Phase: Aqueous}) || p.Base != (Species{Formula: "OCl", Charge: -1, Phase: Aqueous}) || p.PKa != 7.53 {
 		t.Errorf("HOCl pair read as %+v", p)
 	}
 }

@@ -1,4 +1,4 @@
-package engine
+package chem
 
 import (
 	"fmt"
@@ -13,7 +13,7 @@ type Atoms map[string]int
 // element symbols with subscripts, parenthesised groups with a multiplier
 // (Fe2(SO4)3, Ca(OH)2), and hydrates after a dot or a middle dot
 // (CuSO4.5H2O, CuSO4·5H2O). It checks only the syntax; whether each symbol is
-// a real element is checked against the atomic-weight table by the loader.
+// a real element is checked against the atomic-weight table (ReadAtomicWeights).
 func ParseFormula(f string) (Atoms, error) {
 	if f == "" {
 		return nil, fmt.Errorf("empty formula")
