@@ -187,7 +187,7 @@ func (e *Engine) heldBack(mx *state.Mix) []HeldBack {
 
 // finish judges the hazards and caveats of an answer from its species, steps,
 // gases and heat.
-func (e *Engine) finish(res *Result, m *mixture, mx *state.Mix, steps []explain.Step) {
+func (e *Engine) finish(res *Result, m *mixture, mx *state.Mix) {
 	hin := HazardInput{
 		Chemicals: m.chemicals, Gases: res.Gases, PH: res.Conditions.PH, VolumeL: m.volumeL,
 		TemperatureC: m.tempK - 273.15, StrongAcidMol: m.strongAcid, StrongBaseMol: m.strongBase,
@@ -227,7 +227,6 @@ func (e *Engine) finish(res *Result, m *mixture, mx *state.Mix, steps []explain.
 	if res.Heat == nil {
 		res.Heat = &Heat{Assumption: heatAssumption}
 	}
-	_ = steps
 }
 
 // speciesOfSolids lists the species of a mix of solids alone.

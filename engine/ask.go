@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"io/fs"
 	"math"
+	"sort"
 	"strings"
 
 	"mixward/engine/explain"
@@ -157,7 +158,7 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 		res.Notes = append(res.Notes, "no liquid stream: solids alone do not react in the tank; add the liquid they will meet")
 		res.Verdict = NoReaction
 		res.Species = speciesOfSolids(m)
-		e.finish(res, m, nil, nil)
+		e.finish(res, m, nil)
 		return res, nil
 	}
 	feed, err := feedOf(req, e.Tables, e.Thermo, m)
@@ -189,7 +190,7 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 	res.FinalComposition = compositionOut(mx)
 	res.Gases = gasesOut(mx, formedBy(steps), m.pressureKPa)
 	res.Heat = heatOut(mx, m, e.Tables)
-	e.finish(res, m, mx, steps)
+	e.finish(res, m, mx)
 	return res, nil
 }
 

@@ -59,7 +59,11 @@ func (b *balancer) Reduction(ox, red *thermo.Species, med Medium) (thermo.Reacti
 	if med == Base {
 		ion = b.hydrox
 	}
-	terms = append(terms, b.water, ion)
+	for _, sp := range []*thermo.Species{b.water, ion} {
+		if !contains(terms, sp) {
+			terms = append(terms, sp)
+		}
+	}
 	nu, e, err := solveCoefficients(terms)
 	if err != nil {
 		return thermo.Reaction{}, fmt.Errorf("%s → %s: %v", ox.Text, red.Text, err)

@@ -20,6 +20,8 @@ type Lock struct {
 	Reason string
 	Source string
 	Line   int
+
+	groups []Group // every group the row names, for checking against the species data
 }
 
 // Direction says which way a rule keeps a group.
@@ -144,6 +146,7 @@ func parseLockRow(line string) (Lock, error) {
 			return Lock{}, fmt.Errorf("lock %s: %v", l.ID, err)
 		}
 		l.Rules = append(l.Rules, r)
+		l.groups = append(l.groups, r.Group)
 	}
 	if len(l.Rules) > 2 {
 		return Lock{}, fmt.Errorf("lock %s: at most two rules may be joined by \"or\"", l.ID)
@@ -154,6 +157,7 @@ func parseLockRow(line string) (Lock, error) {
 			return Lock{}, fmt.Errorf("lock %s: condition %q: %v", l.ID, f[2], err)
 		}
 		l.When = c
+		l.groups = append(l.groups, condGroups(c)...)
 	}
 	return l, nil
 }
@@ -231,4 +235,54 @@ func parseState(s string) (float64, error) {
 		return 0, fmt.Errorf("%q is not an oxidation state between -8 and 8", s)
 	}
 	return v, nil
+}
+
+// condGroups lists the groups a condition names.
+func condGroups(c Cond) []Group {
+	switch c := c.(type) {
+	case andCond:
+		return condGroupsOf(c)
+	case orCond:
+		return condGroupsOf(c)
+	case notCond:
+		return condGroups(c.c)
+	case hasCond:
+		return c
+	}
+	return nil
+}
+
+func condGroupsOf(cs []Cond) []Group {
+	var out []Group
+	for _, c := range cs {
+		out = append(out, condGroups(c)...)
+	}
+	return out
+}
+
+// checkGroups reports a lock group whose element or species the species
+// data do not know: a misspelt row would otherwise hold nothing back.
+func checkGroups(l *Lock, db *thermo.DB, elements map[string]bool) error {
+	for _, g := range l.groups {
+		for _, s := range g.Species {
+			if _, ok := db.Get(s); !ok {
+				return fmt.Errorf("locks.txt:%d: lock %s names %s, which has no row in species.txt; fix the spelling or add the species", l.Line, l.ID, s)
+			}
+		}
+		if len(g.Species) == 0 && !elements[g.Element] {
+			return fmt.Errorf("locks.txt:%d: lock %s names element %s, which no species in species.txt holds", l.Line, l.ID, g.Element)
+		}
+	}
+	return nil
+}
+
+// elementsOf lists the elements the species data hold.
+func elementsOf(db *thermo.DB) map[string]bool {
+	out := map[string]bool{}
+	for _, sp := range db.All() {
+		for el := range sp.Atoms {
+			out[el] = true
+		}
+	}
+	return out
 }

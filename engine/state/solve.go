@@ -150,10 +150,14 @@ func (m *Model) solve(mx *Mix, n0 []float64, frozen bool, cons []equilibrium.Con
 	for _, c := range cons {
 		pc := c
 		pc.Coef = make([]float64, len(keep))
+		any := false
 		for j, i := range keep {
 			pc.Coef[j] = c.Coef[i]
+			any = any || pc.Coef[j] != 0
 		}
-		p.Constraints = append(p.Constraints, pc)
+		if any { // a lock on a group the mix cannot hold has nothing to keep
+			p.Constraints = append(p.Constraints, pc)
+		}
 	}
 	eq, err := equilibrium.Solve(p)
 	if err != nil {

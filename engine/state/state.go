@@ -54,6 +54,12 @@ func NewModel(db *thermo.DB, fsys fs.FS) (*Model, error) {
 	if err != nil {
 		return nil, err
 	}
+	els := elementsOf(db)
+	for i := range locks {
+		if err := checkGroups(&locks[i], db, els); err != nil {
+			return nil, err
+		}
+	}
 	return &Model{DB: db, Locks: locks}, nil
 }
 

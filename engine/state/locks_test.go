@@ -1,0 +1,159 @@
+package state
+
+import (
+	"strings"
+	"testing"
+
+	"mixward/data"
+	"mixward/engine/thermo"
+)
+
+func loadDB(t testing.TB) *thermo.DB {
+	t.Helper()
+	db, err := thermo.Load(data.FS)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return db
+}
+
+func TestLocksFileLoads(t *testing.T) {
+	m, err := NewModel(loadDB(t), data.FS)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(m.Locks) < 10 {
+		t.Fatalf("locks.txt gave %d locks", len(m.Locks))
+	}
+	for _, l := range m.Locks {
+		if l.Reason == "" || l.Source == "" {
+			t.Errorf("lock %s (line %d) lacks a reason or source", l.ID, l.Line)
+		}
+	}
+}
+
+// TestGroupWeights checks which species a group counts and how many atoms.
+func TestGroupWeights(t *testing.T) {
+	db := loadDB(t)
+	cases := []struct {
+		group, species string
+		want           float64
+	}{
+		{"O(-1.5..0)", "H2O2", 2},
+		{"O(-1.5..0)", "O2(g)", 2},
+		{"O(-1.5..0)", "H2O", 0},
+		{"O(-1.5..0)", "OCl-", 0},
+		{"O(0)", "O2", 2},
+		{"O(0)", "H2O2", 0},
+		{"S(6)", "SO4^2-", 1},
+		{"S(6)", "HSO4-", 1},
+		{"S(6)", "SO3^2-", 0},
+		{"S(-2..3.5)", "S2O3^2-", 2},
+		{"N(0..1)", "N2(g)", 2},
+		{"N(5)", "NO3-", 1},
+		{"Cl(3..5)", "ClO3-", 1},
+		{"Cl(3..5)", "ClO2", 1},
+		{"Cl(3..5)", "OCl-", 0},
+		{"H(-1)", "BH4-", 4},
+		{"C(organic)", "CH3COOH", 2},
+		{"C(organic)", "HCOO-", 1},
+		{"C(organic)", "HCO3-", 0},
+		{"C(organic)", "CN-", 0},
+		{"{OCN-, HOCN}", "OCN-", 1},
+	}
+	for _, c := range cases {
+		g, err := parseGroup(c.group)
+		if err != nil {
+			t.Fatalf("parseGroup(%q): %v", c.group, err)
+		}
+		sp, ok := db.Get(c.species)
+		if !ok {
+			t.Errorf("%s: no species data", c.species)
+			continue
+		}
+		if got := g.Weight(sp); got != c.want {
+			t.Errorf("%s.Weight(%s) = %g, want %g", c.group, c.species, got, c.want)
+		}
+	}
+}
+
+func TestConditions(t *testing.T) {
+	has := map[string]bool{"Cl(1)": true, "Cu(2)": true, "NH2SO3-": true}
+	env := Env{TempC: 25, PH: 8, Has: func(g Group) bool { return has[strings.Trim(g.String(), "{}")] }}
+	cases := []struct {
+		cond string
+		want bool
+	}{
+		{"t<60", true},
+		{"t>=60", false},
+		{"ph>=3 and ph<12", true},
+		{"not has Cl(1) or not has Ni(2), Co(2), Cu(2)", false},
+		{"not has Fe(2..3), Mn(2..4) and t<60", true},
+		{"not (ph>=13 and has Al(0), Zn(0))", true},
+		{"has N(3) and has NH2SO3-, NH2SO3H", false},
+		{"has Cl(1), Br(1) or (ph<4 and t<60)", true},
+	}
+	for _, c := range cases {
+		got, err := parseCond(c.cond)
+		if err != nil {
+			t.Errorf("parseCond(%q): %v", c.cond, err)
+			continue
+		}
+		if got.Holds(env) != c.want {
+			t.Errorf("%q (read as %s) = %v, want %v", c.cond, got, !c.want, c.want)
+		}
+	}
+}
+
+func TestLockErrors(t *testing.T) {
+	cases := []struct{ row, want string }{
+		{"x | no-gain S(6) | t<60 | why", "want 5 fields"},
+		{"x | keep S(6) | t<60 | why | src", "not no-gain"},
+		{"x | no-gain S(9) | t<60 | why | src", "between -8 and 8"},
+		{"x | no-gain S(6) | t<<60 | why | src", "not a number"},
+		{"two words | no-gain S(6) | t<60 | why | src", "one word"},
+		{"x | no-gain S(6) | (t<60 | why | src", "missing )"},
+	}
+	for _, c := range cases {
+		_, err := parseLocks("locks.txt", []byte(c.row+"\n"))
+		if err == nil || !strings.Contains(err.Error(), c.want) {
+			t.Errorf("parseLocks(%q) error = %v, want one containing %q", c.row, err, c.want)
+		}
+	}
+}
+
+func TestLockGroupsChecked(t *testing.T) {
+	db := loadDB(t)
+	for _, row := range []string{
+		"x | no-gain Qq(6) | t<60 | why | src",
+		"x | no-gain S(6) | has Zz9- | why | src",
+	} {
+		locks, err := parseLocks("locks.txt", []byte(row))
+		if err != nil {
+			t.Fatalf("parseLocks(%q): %v", row, err)
+		}
+		if err := checkGroups(&locks[0], db, elementsOf(db)); err == nil {
+			t.Errorf("checkGroups(%q) = nil, want an error naming the unknown group", row)
+		}
+	}
+}
+
+func FuzzParseLocks(f *testing.F) {
+	for _, s := range []string{
+		"a | no-gain S(6) or no-loss O(-1..0) | not (has Cl(1), Cu(2) and t<60) or ph>=3 | r | s",
+		"b | fixed {OCN-, HOCN} | always | r | s",
+	} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, s string) {
+		locks, err := parseLocks("locks.txt", []byte(s))
+		if err != nil {
+			return
+		}
+		for _, l := range locks {
+			if l.When != nil {
+				l.When.Holds(Env{Has: func(Group) bool { return true }})
+			}
+		}
+	})
+}
