@@ -1,0 +1,294 @@
+package equilibrium
+
+import (
+	"errors"
+	"fmt"
+	"math"
+)
+
+// solve is Solve with an optional debug trace.
+func solve(p *Problem, tr *trace) (State, error) {
+	solvent, err := validate(p)
+	if err != nil {
+		return State{}, err
+	}
+	off := make([]bool, len(p.Species))
+	if err := eliminate(p, off); err != nil {
+		return State{}, err
+	}
+	if off[solvent] {
+		return State{}, fmt.Errorf("equilibrium: the solvent %q contains a component with zero total: %w", p.Species[solvent].Name, ErrInfeasible)
+	}
+	base, err := balanceRows(p, off, &rowSet{})
+	if err != nil {
+		return State{}, err
+	}
+	s := newSystem(p, solvent, off)
+	ls := &lockSolver{s: s, base: base, tr: tr}
+	pt, err := ls.run()
+	if err != nil {
+		return State{}, err
+	}
+	return s.state(pt, ls.activeNames(), ls.w.iter), nil
+}
+
+// trace records the accepted Newton iterations for tests.
+type trace struct {
+	steps []traceStep
+	notes []string
+}
+
+type traceStep struct {
+	alpha, before, after float64 // step length, merit before and after
+	g                    float64 // Σ nᵢ(μ°ᵢ + ln aᵢ) of the iterate (not balanced until the end)
+}
+
+func (t *trace) record(s *system, pt *point, alpha, before, after float64) {
+	if t == nil {
+		return
+	}
+	t.steps = append(t.steps, traceStep{alpha: alpha, before: before, after: after, g: s.gibbs(pt)})
+}
+
+func (t *trace) note(format string, args ...any) {
+	if t != nil {
+		t.notes = append(t.notes, fmt.Sprintf(format, args...))
+	}
+}
+
+// lockSolver runs the active set over the constraints.
+type lockSolver struct {
+	s      *system
+	base   []balanceRow
+	active []int // constraint indices treated as equalities
+	w      newtonWork
+	tr     *trace
+}
+
+func (ls *lockSolver) activeNames() []string {
+	var out []string
+	for _, r := range ls.s.rows {
+		if r.lock >= 0 {
+			out = append(out, r.name)
+		}
+	}
+	return out
+}
+
+// rows builds the equality rows: the balances and the active constraints.
+// A constraint that depends on the rows before it is dropped when its bound
+// agrees with them and makes the problem infeasible when it does not.
+func (ls *lockSolver) rows() ([]balanceRow, error) {
+	set := &rowSet{}
+	rows := make([]balanceRow, 0, len(ls.base)+len(ls.active))
+	for _, r := range ls.base {
+		set.add(r.coef, r.rhs)
+		rows = append(rows, balanceRow{name: r.name, coef: r.coef, rhs: r.rhs, lock: -1})
+	}
+	kept := ls.active[:0]
+	for _, k := range ls.active {
+		r := constraintRow(ls.s.p, k, ls.s.off)
+		indep, implied, scale := set.add(r.coef, r.rhs)
+		if indep {
+			rows = append(rows, r)
+			kept = append(kept, k)
+			continue
+		}
+		if math.Abs(implied-r.rhs) > 1e-9*scale+1e-300 && !holds(ls.s.p.Constraints[k].Rel, implied, r.rhs, scale) {
+			return nil, fmt.Errorf("equilibrium: constraint %q cannot hold: the totals fix its left side at %g against the bound %g: %w", r.name, implied, r.rhs, ErrInfeasible)
+		}
+	}
+	ls.active = kept
+	return rows, nil
+}
+
+func holds(rel Relation, v, bound, scale float64) bool {
+	tol := 1e-9*scale + 1e-300
+	switch rel {
+	case AtMost:
+		return v <= bound+tol
+	case AtLeast:
+		return v >= bound-tol
+	}
+	return math.Abs(v-bound) <= tol
+}
+
+// run solves with the active set: add the violated constraints, drop the
+// one whose multiplier has the wrong sign, repeat.
+func (ls *lockSolver) run() (*point, error) {
+	p := ls.s.p
+	for k, c := range p.Constraints {
+		if c.Rel == Exactly {
+			ls.active = append(ls.active, k)
+		}
+	}
+	var pt *point
+	var prev []balanceRow
+	limit := 3*len(p.Constraints) + 4
+	var history []string
+	for round := 0; ; round++ {
+		rows, err := ls.rows()
+		if err != nil {
+			return nil, err
+		}
+		ls.s.setRows(rows)
+		if pt, err = ls.solveRound(pt, prev); err != nil {
+			return nil, err
+		}
+		prev = rows
+		change := ls.update(pt)
+		if change == "" {
+			return pt, nil
+		}
+		history = append(history, change)
+		if round == limit {
+			return nil, fmt.Errorf("equilibrium: the set of active constraints does not settle after %d rounds (%v): %w", round+1, history, ErrNoConvergence)
+		}
+		ls.tr.note("constraints: %s", change)
+	}
+}
+
+// solveRound solves with the current rows, from the previous round's point,
+// the warm start or the cold start, falling back to the cold start once.
+func (ls *lockSolver) solveRound(prevPt *point, prevRows []balanceRow) (*point, error) {
+	s := ls.s
+	var pt *point
+	switch {
+	case prevPt != nil:
+		pt = remap(prevPt, prevRows, s.rows)
+	case len(s.p.Start) > 0:
+		pt = s.startFrom(s.p.Start, 0)
+	}
+	if pt != nil {
+		err := s.solveGamma(pt, &ls.w, ls.tr)
+		if err == nil {
+			return pt, nil
+		}
+		ls.tr.note("warm start failed: %v", err)
+	}
+	n, err := s.lpStart()
+	if err != nil {
+		if errors.Is(err, ErrInfeasible) {
+			return nil, ls.blame(err)
+		}
+		ls.tr.note("linear-programming start failed: %v", err)
+		n = s.crudeStart()
+	}
+	pt = s.startFrom(n, 0)
+	if err := s.solveGamma(pt, &ls.w, ls.tr); err != nil {
+		if errors.Is(err, ErrNoConvergence) || errors.Is(err, ErrInfeasible) {
+			return nil, fmt.Errorf("equilibrium: %v", err)
+		}
+		return nil, fmt.Errorf("equilibrium: %v (cold start from the dominant species): %w", err, ErrNoConvergence)
+	}
+	return pt, nil
+}
+
+// blame names the active constraints when the balances alone are feasible.
+func (ls *lockSolver) blame(err error) error {
+	if len(ls.active) == 0 {
+		return err
+	}
+	rows := ls.s.rows
+	ls.s.setRows(ls.base)
+	_, err2 := ls.s.lpStart()
+	ls.s.setRows(rows)
+	if err2 != nil {
+		return err
+	}
+	var names []string
+	for _, r := range rows {
+		if r.lock >= 0 {
+			names = append(names, fmt.Sprintf("%q", r.name))
+		}
+	}
+	return fmt.Errorf("equilibrium: the totals can be met but not together with the constraints %v: %w", names, ErrInfeasible)
+}
+
+// crudeStart is all water, used when the linear program fails numerically.
+func (s *system) crudeStart() []float64 {
+	n := make([]float64, s.ns)
+	nw := math.Inf(1)
+	for j, a := range s.p.Species[s.solvent].Amounts {
+		if a > 0 && s.p.Totals[j] > 0 {
+			nw = math.Min(nw, s.p.Totals[j]/a)
+		}
+	}
+	if math.IsInf(nw, 1) {
+		nw = 1
+	}
+	n[s.solvent] = nw
+	return n
+}
+
+// remap carries a point to a new set of rows (constraints added or
+// dropped): balance potentials are kept, new constraint potentials start at 0.
+func remap(pt *point, from, to []balanceRow) *point {
+	theta := make([]float64, len(to))
+	for k, r := range to {
+		for j, o := range from {
+			if o.lock == r.lock && o.name == r.name {
+				theta[k] = pt.theta[j]
+				break
+			}
+		}
+	}
+	pt.theta = theta
+	return pt
+}
+
+// update adds the violated inactive constraints or, when none is violated,
+// drops the active inequality whose multiplier has the wrong sign. It
+// returns a description of the change, "" for none.
+func (ls *lockSolver) update(pt *point) string {
+	s, p := ls.s, ls.s.p
+	isActive := make(map[int]int, len(ls.active))
+	for k, r := range s.rows {
+		if r.lock >= 0 {
+			isActive[r.lock] = k
+		}
+	}
+	var added []string
+	for k, c := range p.Constraints {
+		if _, ok := isActive[k]; ok {
+			continue
+		}
+		v, scale := 0.0, math.Abs(c.Bound)
+		for i, a := range c.Coef {
+			v += a * pt.amt[i]
+			scale += math.Abs(a * pt.amt[i])
+		}
+		if !holds(c.Rel, v, c.Bound, scale) {
+			ls.active = append(ls.active, k)
+			added = append(added, c.Name+" added")
+		}
+	}
+	if len(added) > 0 {
+		return fmt.Sprint(added)
+	}
+	worst, drop := 1e-9, -1
+	for k, row := range isActive {
+		eta := pt.theta[row]
+		switch p.Constraints[k].Rel {
+		case AtMost:
+			if eta > worst {
+				worst, drop = eta, k
+			}
+		case AtLeast:
+			if -eta > worst {
+				worst, drop = -eta, k
+			}
+		}
+	}
+	if drop < 0 {
+		return ""
+	}
+	kept := ls.active[:0]
+	for _, k := range ls.active {
+		if k != drop {
+			kept = append(kept, k)
+		}
+	}
+	ls.active = kept
+	return p.Constraints[drop].Name + " dropped"
+}

@@ -1,0 +1,120 @@
+package equilibrium
+
+import (
+	"errors"
+	"fmt"
+	"math"
+
+	"gonum.org/v1/gonum/mat"
+	"gonum.org/v1/gonum/optimize/convex/lp"
+)
+
+// lpStart returns the composition of least Σ nᵢ μ°ᵢ/RT under the equality
+// rows, ignoring mixing: the dominant species of the equilibrium. It returns
+// an ErrInfeasible error when no composition with amounts ≥ 0 meets them.
+func (s *system) lpStart() ([]float64, error) {
+	var cols []int
+	for i := 0; i < s.ns; i++ {
+		if !s.off[i] && len(s.colIdx[i]) > 0 {
+			cols = append(cols, i)
+		}
+	}
+	q := len(s.rows)
+	if len(cols) < q {
+		// More independent rows than species: the simplex needs a wide
+		// matrix; pad with zero-cost artificial columns is not meaningful
+		// here, so report that the balances over-determine the species.
+		return nil, fmt.Errorf("equilibrium: %d independent balances for %d species: %w", q, len(cols), ErrInfeasible)
+	}
+	a := mat.NewDense(q, len(cols), nil)
+	c := make([]float64, len(cols))
+	b := make([]float64, q)
+	for k, r := range s.rows {
+		b[k] = r.rhs
+		for j, i := range cols {
+			a.Set(k, j, r.coef[i])
+		}
+	}
+	for j, i := range cols {
+		c[j] = s.p.Species[i].Mu0
+	}
+	_, x, err := lp.Simplex(c, a, b, 1e-10, nil)
+	if err != nil {
+		if errors.Is(err, lp.ErrInfeasible) {
+			return nil, fmt.Errorf("equilibrium: no composition with amounts ≥ 0 meets the balances [%s]: %w", names(s.rows), ErrInfeasible)
+		}
+		return nil, err
+	}
+	n := make([]float64, s.ns)
+	for j, i := range cols {
+		n[i] = math.Max(x[j], 0)
+	}
+	return n, nil
+}
+
+// startFrom builds an iterate from a composition: the potentials that best
+// reproduce the chemical potentials of the species present (weighted least
+// squares with a small ridge for directions the composition leaves free),
+// the pure phases present in it, and the gas phase when a gas is present.
+func (s *system) startFrom(n []float64, gamma float64) *point {
+	q := len(s.rows)
+	pt := newPoint(s.ns, q)
+	pt.gamma = gamma
+	scale := math.Exp(s.logBig)
+	nw := math.Max(n[s.solvent], 1e-6*scale)
+	pt.amt[s.solvent] = nw
+	ng := 0.0
+	for _, g := range s.gas {
+		ng += n[g]
+	}
+	ata := mat.NewSymDense(q, nil)
+	atb := make([]float64, q)
+	addEq := func(i int, target, weight float64) {
+		idx, val := s.colIdx[i], s.colVal[i]
+		for a, r := range idx {
+			atb[r] += weight * val[a] * target
+			for bb, c := range idx {
+				if c >= r {
+					ata.SetSym(r, c, ata.At(r, c)+weight*val[a]*val[bb])
+				}
+			}
+		}
+	}
+	addEq(s.solvent, s.p.Species[s.solvent].Mu0, 100)
+	for _, i := range s.pure {
+		if n[i] > 0 {
+			pt.present[i], pt.amt[i] = true, n[i]
+			addEq(i, s.p.Species[i].Mu0, 100)
+		}
+	}
+	for _, i := range s.aq {
+		if n[i] > 0 {
+			addEq(i, s.p.Species[i].Mu0+s.z2[i]*gamma+math.Log(n[i]/(nw*MolarMassWater)), 1)
+		}
+	}
+	if ng > 0 {
+		pt.gasOn, pt.ng = true, ng
+		for _, g := range s.gas {
+			if n[g] > 0 {
+				addEq(g, s.p.Species[g].Mu0+s.lnP+math.Log(n[g]/ng), 1)
+			}
+		}
+	}
+	ridge := 0.0
+	for k := 0; k < q; k++ {
+		ridge = math.Max(ridge, ata.At(k, k))
+	}
+	for k := 0; k < q; k++ {
+		ata.SetSym(k, k, ata.At(k, k)+1e-8*ridge+1e-300)
+	}
+	var ch mat.Cholesky
+	if ch.Factorize(ata) {
+		x := mat.NewVecDense(q, pt.theta)
+		if err := ch.SolveVecTo(x, mat.NewVecDense(q, atb)); err != nil {
+			for k := range pt.theta {
+				pt.theta[k] = 0
+			}
+		}
+	}
+	return pt
+}
