@@ -32,7 +32,7 @@ func speciesOut(mx *state.Mix, steps []explain.Step) []SpeciesInfo {
 	for i, sp := range mx.Species {
 		n := mx.Combined.Amount[i]
 		water := sp.Text == "H2O"
-		if !water && (n <= 0 || (sp.Phase == Aqueous && n/mx.VolumeL < trace)) {
+		if !water && (n <= 0 || state.IsStandIn(sp) || (sp.Phase == Aqueous && n/mx.VolumeL < trace)) {
 			continue
 		}
 		si := SpeciesInfo{Text: sp.Species.Text(), Formula: sp.Formula, Charge: sp.Charge, Phase: sp.Phase,
@@ -181,7 +181,7 @@ func compositionOut(mx *state.Mix) []AmountOf {
 	out := []AmountOf{}
 	for i, sp := range mx.Species {
 		n := mx.Final.Amount[i]
-		if sp.Text == "H2O" || n <= 0 || (sp.Phase == Aqueous && n/mx.VolumeL < trace) {
+		if sp.Text == "H2O" || n <= 0 || state.IsStandIn(sp) || (sp.Phase == Aqueous && n/mx.VolumeL < trace) {
 			continue
 		}
 		out = append(out, AmountOf{Text: sp.Species.Text(), Mol: sigDigits(n, 6), Phase: sp.Phase})

@@ -197,7 +197,7 @@ func (e *Engine) finish(res *Result, m *mixture, mx *state.Mix) {
 	}
 	if mx != nil {
 		for i, sp := range mx.Species {
-			if n := mx.Combined.Amount[i]; n > 0 {
+			if n := mx.Combined.Amount[i]; n > 0 && !state.IsStandIn(sp) {
 				hin.Present = append(hin.Present, SpeciesAmount{Species: sp.Species, Mol: n, Molar: n / mx.VolumeL})
 			}
 		}

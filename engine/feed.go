@@ -19,7 +19,7 @@ const waterMolarMass = 18.015
 // each chemical gives in water (data/chemicals.txt) with their amounts, and
 // the water of each liquid stream. Assumptions go to m's notes.
 func feedOf(req *Request, t *Tables, db *thermo.DB, m *mixture) (state.Feed, error) {
-	f := state.Feed{TempK: req.TemperatureK, PressureBar: req.PressureKPa / 100}
+	f := state.Feed{TempK: req.TemperatureK, PressureBar: req.PressureKPa / 100, PH: req.PH}
 	for si := range req.Streams {
 		st, err := streamFeed(&req.Streams[si], t, db, m)
 		if err != nil {
@@ -63,7 +63,7 @@ func streamFeed(st *Stream, t *Tables, db *thermo.DB, m *mixture) (state.Stream,
 		}
 	}
 	if liquid {
-		out.VolumeL = vol
+		out.VolumeL, out.PH = vol, st.PH
 		water := vol*streamDensity(st, t) - solutes // kg
 		if water < 0.02*vol {
 			water = 0.02 * vol // a near-pure reagent still holds a little water

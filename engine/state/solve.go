@@ -11,6 +11,13 @@ import (
 	"mixward/engine/thermo"
 )
 
+// dump, when set by a test, receives every problem built.
+var (
+	dump       func(name string, p equilibrium.Problem)
+	dumpPrefix string
+	dumpN      int
+)
+
 // presence is the concentration (mol/L) above which a group counts as
 // present in a lock's condition.
 const presence = 1e-5
@@ -158,6 +165,10 @@ func (m *Model) solve(mx *Mix, n0 []float64, frozen bool, cons []equilibrium.Con
 		if any { // a lock on a group the mix cannot hold has nothing to keep
 			p.Constraints = append(p.Constraints, pc)
 		}
+	}
+	if dump != nil {
+		dumpN++
+		dump(fmt.Sprintf("%s-%d-frozen%v", dumpPrefix, dumpN, frozen), p)
 	}
 	eq, err := equilibrium.Solve(p)
 	if err != nil {

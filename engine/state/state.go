@@ -27,8 +27,9 @@ type Item struct {
 type Stream struct {
 	Label    string
 	Items    []Item
-	WaterMol float64 // liquid water the stream brings
-	VolumeL  float64 // liquid volume; 0 for a solid
+	WaterMol float64  // liquid water the stream brings
+	VolumeL  float64  // liquid volume; 0 for a solid
+	PH       *float64 // a measured pH stated for the stream
 }
 
 // Feed is everything poured into the tank.
@@ -36,6 +37,7 @@ type Feed struct {
 	Streams     []Stream
 	TempK       float64
 	PressureBar float64
+	PH          *float64 // a pH stated for the whole mix as combined
 }
 
 // Model holds the species data and the locks. It is safe for concurrent use.
@@ -124,12 +126,25 @@ func (m *Model) Solve(f Feed) (*Mix, error) {
 			addTo(mx.Initial, n0)
 			continue
 		}
+		if st.PH != nil {
+			var err error
+			if n0, err = m.fitPH(mx, n0, st.VolumeL, *st.PH); err != nil {
+				return nil, fmt.Errorf("stream %d (%s): %w", si+1, st.Label, err)
+			}
+		}
 		s, err := m.solveLocked(mx, n0, st.VolumeL)
 		if err != nil {
 			return nil, fmt.Errorf("stream %d (%s): %w", si+1, st.Label, err)
 		}
 		mx.Streams[si] = s
 		addTo(mx.Initial, s.Amount)
+	}
+	if f.PH != nil {
+		n, err := m.fitPH(mx, mx.Initial, mx.VolumeL, *f.PH)
+		if err != nil {
+			return nil, fmt.Errorf("the mix: %w", err)
+		}
+		mx.Initial = n
 	}
 	final, err := m.solveLocked(mx, mx.Initial, mx.VolumeL)
 	if err != nil {
@@ -158,7 +173,7 @@ func (m *Model) candidates(f Feed) []*thermo.Species {
 	}
 	out := append([]*thermo.Species(nil), m.DB.Within(els)...)
 	sort.SliceStable(out, func(i, j int) bool { return out[i].Text < out[j].Text })
-	return out
+	return append(out, standInAnion, standInCation)
 }
 
 // feedVector is the as-given composition of a stream, per species of mx. A

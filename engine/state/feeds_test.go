@@ -1,0 +1,38 @@
+package state
+
+import (
+	"io/fs"
+	"testing"
+
+	"mixward/data"
+)
+
+func dataFS() fs.FS { return data.FS }
+
+// item is a shorthand for one species of a feed.
+func item(t testing.TB, m *Model, text string, mol float64) Item {
+	t.Helper()
+	sp, ok := m.DB.Get(text)
+	if !ok {
+		t.Fatalf("no species data for %s", text)
+	}
+	return Item{Species: sp, Mol: mol}
+}
+
+// water is the mol of water in v litres of a dilute solution.
+func water(v float64) float64 { return v * 997 / 18.015 }
+
+// sampleFeeds are plant mixes in invented tanks.
+func sampleFeeds(t testing.TB, m *Model) map[string]Feed {
+	f := func(sts ...Stream) Feed { return Feed{Streams: sts, TempK: 298.15, PressureBar: 1.01325} }
+	return map[string]Feed{
+		"ferrous-permanganate": f(
+			Stream{Label: "T-1", Items: []Item{item(t, m, "Fe^2+", 0.1), item(t, m, "SO4^2-", 0.1)}, WaterMol: water(1), VolumeL: 1},
+			Stream{Label: "T-2", Items: []Item{item(t, m, "K+", 0.02), item(t, m, "MnO4-", 0.02), item(t, m, "H+", 1), item(t, m, "HSO4-", 1)}, WaterMol: water(1), VolumeL: 1}),
+		"copper-sulfate": f(
+			Stream{Label: "T-3", Items: []Item{item(t, m, "Cu^2+", 1), item(t, m, "SO4^2-", 1)}, WaterMol: water(1), VolumeL: 1}),
+		"bleach-acid": f(
+			Stream{Label: "T-4", Items: []Item{item(t, m, "Na+", 3.8), item(t, m, "OCl-", 3.8)}, WaterMol: water(2), VolumeL: 2},
+			Stream{Label: "T-5", Items: []Item{item(t, m, "H+", 1.4), item(t, m, "Cl-", 1.4)}, WaterMol: water(0.5), VolumeL: 0.5}),
+	}
+}
