@@ -180,7 +180,17 @@ func (e *Engine) tableCouple(c *candidate, reducer bool) *Couple {
 func (e *Engine) heldBack(mx *state.Mix) []HeldBack {
 	out := []HeldBack{}
 	for _, l := range mx.Final.Held {
-		out = append(out, HeldBack{Lock: l.ID, Reason: l.Reason, Source: l.Source})
+		hb := HeldBack{Lock: l.ID, Reason: l.Reason, Source: l.Source}
+		if st, err := e.Model.Without(mx, l.ID); err == nil {
+			// What the lock prevents: the change from the state with it to
+			// the state without it.
+			free := *mx
+			free.Combined, free.Final = mx.Final, st
+			if steps, err := explain.Steps(e.Thermo, &free); err == nil && len(steps) > 0 {
+				hb.Reaction = reactionOut(steps[0].Net, steps[0].N)
+			}
+		}
+		out = append(out, hb)
 	}
 	return out
 }

@@ -31,11 +31,22 @@ func (m *Model) solveLocked(mx *Mix, n0 []float64, volL float64) (*State, error)
 	if err != nil {
 		return nil, fmt.Errorf("as combined: %w", err)
 	}
+	return m.solveFrom(mx, n0, combined, volL, "")
+}
+
+// Without solves the mix again with one lock lifted: what the lock held back.
+func (m *Model) Without(mx *Mix, lockID string) (*State, error) {
+	return m.solveFrom(mx, mx.Initial, mx.Combined, mx.VolumeL, lockID)
+}
+
+// solveFrom solves n0 at equilibrium under the locks (but skip) whose
+// conditions hold for its combined state.
+func (m *Model) solveFrom(mx *Mix, n0 []float64, combined *State, volL float64, skip string) (*State, error) {
 	env := m.env(mx, combined, volL)
 	var applied []*Lock
 	for i := range m.Locks {
 		l := &m.Locks[i]
-		if l.When == nil || l.When.Holds(env) {
+		if l.ID != skip && (l.When == nil || l.When.Holds(env)) {
 			applied = append(applied, l)
 		}
 	}
