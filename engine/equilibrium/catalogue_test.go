@@ -3,7 +3,6 @@ package equilibrium
 import (
 	"math"
 	"sort"
-	"testing"
 
 	"gonum.org/v1/gonum/unit/constant"
 )
@@ -140,18 +139,3 @@ func pH(p Problem, st State) float64 {
 // water is 1 kg of water in mol (1000 g / 18.015 g/mol).
 const water = 1 / MolarMassWater
 
-func TestSmoke(t *testing.T) {
-	p := build([]string{"H2O", "H+", "OH-"}, map[string]float64{"H2O": water})
-	tr := &trace{}
-	st, err := solve(&p, tr)
-	if err != nil {
-		t.Fatal(err)
-	}
-	t.Logf("pH %.4f iters %d notes %v", pH(p, st), st.Iterations, tr.notes)
-	p = build([]string{"H2O", "H+", "OH-", "Cl-"}, map[string]float64{"H2O": water, "H+": 0.1, "Cl-": 0.1})
-	st, err = solve(&p, tr)
-	if err != nil {
-		t.Fatal(err)
-	}
-	t.Logf("pH %.4f iters %d", pH(p, st), st.Iterations)
-}

@@ -3,6 +3,7 @@ package equilibrium
 import (
 	"fmt"
 	"math"
+	"sort"
 	"strings"
 )
 
@@ -116,34 +117,43 @@ func eliminate(p *Problem, off []bool) error {
 // the problem infeasible.
 func balanceRows(p *Problem, off []bool, set *rowSet) ([]balanceRow, error) {
 	ns := len(p.Species)
-	var rows []balanceRow
-	for j, name := range p.Components {
-		r := make([]float64, ns)
-		for i := range p.Species {
-			if !off[i] {
-				r[i] = p.Species[i].Amounts[j]
-			}
-		}
-		indep, implied, scale := set.add(r, p.Totals[j])
-		if !indep {
-			if math.Abs(implied-p.Totals[j]) > 1e-9*scale+1e-300 {
-				return nil, fmt.Errorf("equilibrium: the total of component %q (%g mol) contradicts the other totals (the species' formulas tie it to %g mol): %w", name, p.Totals[j], implied, ErrInfeasible)
-			}
-			continue
-		}
-		rows = append(rows, balanceRow{name: name, coef: r, rhs: p.Totals[j], lock: -1})
-	}
 	charge := make([]float64, ns)
 	for i, s := range p.Species {
 		if !off[i] && s.Phase == Aqueous {
 			charge[i] = float64(s.Charge)
 		}
 	}
-	indep, implied, scale := set.add(charge, 0)
-	if indep {
-		rows = append(rows, balanceRow{name: "charge", coef: charge, lock: -1})
-	} else if math.Abs(implied) > 1e-9*scale+1e-300 {
-		return nil, fmt.Errorf("equilibrium: the totals are not electrically neutral: with these species they imply a net charge of %.4g mol: %w", implied, ErrInfeasible)
+	// The charge row goes first and the components follow by increasing
+	// total, so that a dependent row, which is only conserved through the
+	// others, is a large one: neutrality and trace components are then
+	// enforced directly, each to its own relative tolerance.
+	var rows []balanceRow
+	set.add(charge, 0)
+	rows = append(rows, balanceRow{name: "charge", coef: charge, lock: -1})
+	order := make([]int, len(p.Components))
+	for j := range order {
+		order[j] = j
+	}
+	sort.SliceStable(order, func(a, b int) bool { return math.Abs(p.Totals[order[a]]) < math.Abs(p.Totals[order[b]]) })
+	for _, j := range order {
+		r := make([]float64, ns)
+		for i := range p.Species {
+			if !off[i] {
+				r[i] = p.Species[i].Amounts[j]
+			}
+		}
+		name := p.Components[j]
+		indep, implied, scale := set.add(r, p.Totals[j])
+		if !indep {
+			if math.Abs(implied-p.Totals[j]) > 1e-9*scale+1e-300 {
+				return nil, fmt.Errorf("equilibrium: the totals are inconsistent: component %q has %g mol but with these species electroneutrality and the other totals tie it to %g mol: %w", name, p.Totals[j], implied, ErrInfeasible)
+			}
+			continue
+		}
+		rows = append(rows, balanceRow{name: name, coef: r, rhs: p.Totals[j], lock: -1})
+	}
+	if dot(charge, charge) == 0 {
+		rows = rows[1:] // no charged species
 	}
 	return rows, nil
 }
