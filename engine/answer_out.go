@@ -20,7 +20,7 @@ func gasesOut(mx *state.Mix, formed func(*thermo.Species) bool, kPa float64) []G
 			continue
 		}
 		p := partialOf(mx, f, i) // bar
-		if p <= 0 {
+		if !(p > 0) { // absent, or never formable (NaN)
 			continue
 		}
 		g := GasReleaseOf(sp.Species.Text(), f.Amount[i], mx.TempK, kPa)

@@ -45,6 +45,7 @@ type Rule struct {
 type Group struct {
 	Element string
 	Lo, Hi  float64
+	Above   bool // X(>a): atoms above state a, each counted at most once per unit of state (see Weight)
 	Organic bool
 	Species []string // species texts; when set, Element is unused
 	text    string
@@ -78,6 +79,15 @@ func (g Group) Weight(sp *thermo.Species) float64 {
 		return 0
 	}
 	const tol = 0.01
+	if g.Above {
+		// Atoms above state Lo, from an average state: n·min(ox−Lo, 1).
+		// Oxygen above −II: 2 in H2O2, 2 in O2, 2 in HSO5- (average −1.6),
+		// 2 in S2O8^2- (average −1.75), 3 in O3.
+		if ox <= g.Lo+tol {
+			return 0
+		}
+		return math.Round(float64(n)*math.Min(ox-g.Lo, 1)*1e9) / 1e9
+	}
 	if ox < g.Lo-tol || ox > g.Hi+tol {
 		return 0
 	}
@@ -210,6 +220,14 @@ func parseGroup(s string) (Group, error) {
 	arg = strings.TrimSuffix(arg, ")")
 	if arg == "organic" {
 		g.Organic = true
+		return g, nil
+	}
+	if rest, ok := strings.CutPrefix(arg, ">"); ok {
+		v, err := parseState(rest)
+		if err != nil {
+			return g, fmt.Errorf("group %q: %v", s, err)
+		}
+		g.Lo, g.Hi, g.Above = v, 8, true
 		return g, nil
 	}
 	lo, hi, isRange := strings.Cut(arg, "..")

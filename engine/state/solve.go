@@ -5,6 +5,9 @@ import (
 	"math"
 	"sort"
 	"strconv"
+	"strings"
+
+	"gonum.org/v1/gonum/mat"
 
 	"mixward/engine/chem"
 	"mixward/engine/equilibrium"
@@ -85,19 +88,26 @@ func (m *Model) env(mx *Mix, s *State, volL float64) Env {
 
 // constraintSets lists the constraint sets to try: every combination of the
 // alternatives of two-way locks (one set when there are none).
-func constraintSets(mx *Mix, locks []*Lock, n0 []float64) [][]equilibrium.Constraint {
-	sets := [][]equilibrium.Constraint{nil}
+func constraintSets(mx *Mix, locks []*Lock, n0 []float64) [][]lockRule {
+	sets := [][]lockRule{nil}
 	for _, l := range locks {
-		var next [][]equilibrium.Constraint
+		var next [][]lockRule
 		for k, r := range l.Rules {
-			c := ruleConstraint(mx, l.ID+"#"+strconv.Itoa(k), r, n0)
+			c := lockRule{c: ruleConstraint(mx, l.ID+"#"+strconv.Itoa(k), r, n0), g: r.Group}
 			for _, s := range sets {
-				next = append(next, append(append([]equilibrium.Constraint(nil), s...), c))
+				next = append(next, append(append([]lockRule(nil), s...), c))
 			}
 		}
 		sets = next
 	}
 	return sets
+}
+
+// lockRule is one rule of a lock as a constraint on the species of a mix.
+type lockRule struct {
+	c    equilibrium.Constraint
+	g    Group
+	shut []int // species a pinned rule shut out of the problem
 }
 
 func ruleConstraint(mx *Mix, name string, r Rule, n0 []float64) equilibrium.Constraint {
@@ -133,7 +143,7 @@ func heldLocks(applied []*Lock, active []string) []*Lock {
 // solve builds and solves one equilibrium problem. With frozen set, every
 // element in each oxidation state is a component of its own, so only
 // acid–base, complex and solid changes can happen.
-func (m *Model) solve(mx *Mix, n0 []float64, frozen bool, cons []equilibrium.Constraint, volL float64) (*State, error) {
+func (m *Model) solve(mx *Mix, n0 []float64, frozen bool, cons []lockRule, volL float64) (*State, error) {
 	comps := map[string]int{}
 	var names []string
 	rows := make([]map[string]float64, len(mx.Species))
@@ -157,15 +167,20 @@ func (m *Model) solve(mx *Mix, n0 []float64, frozen bool, cons []equilibrium.Con
 		}
 	}
 	p := equilibrium.Problem{Components: names, Totals: totals, TemperatureK: mx.TempK, PressureBar: mx.Pressure}
+	cons, shut := presolve(mx, n0, cons)
 	var keep []int // problem species → mix species
 	for i, sp := range mx.Species {
-		if !formable(rows[i], totals, comps) {
+		if !formable(rows[i], totals, comps) || shut[i] {
 			continue
 		}
 		p.Species = append(p.Species, problemSpecies(sp, rows[i], comps, len(names), mx.TempK))
 		keep = append(keep, i)
 	}
-	for _, c := range cons {
+	for _, lr := range cons {
+		c := lr.c
+		if strings.HasSuffix(c.Name, "=pinned") {
+			continue
+		}
 		pc := c
 		pc.Coef = make([]float64, len(keep))
 		any := false
@@ -185,6 +200,7 @@ func (m *Model) solve(mx *Mix, n0 []float64, frozen bool, cons []equilibrium.Con
 	if err != nil {
 		return nil, err
 	}
+	eq.Active = append(eq.Active, pinnedHeld(mx, p, eq, rows, comps, cons)...)
 	st := &State{Amount: make([]float64, len(mx.Species)), LnA: make([]float64, len(mx.Species)), Eq: eq, VolumeL: volL}
 	for i := range st.LnA {
 		st.LnA[i] = math.NaN()
@@ -271,4 +287,137 @@ func lnActivity(ph equilibrium.Phase, eq equilibrium.State, j int) float64 {
 		}
 	}
 	return math.NaN()
+}
+
+// presolve turns the rules that pin a group at an end of its range into
+// species left out of the problem: "may not grow" from nothing (no O2 where
+// none was brought), or "may not shrink" when the group already holds every
+// atom of its element (all sulfur is sulfate). A solver on component
+// potentials cannot meet such rules any other way (their multipliers run to
+// infinity). It returns the rules left and the species shut out; a rule that
+// shut out a species the free problem would form is reported active by
+// solve's caller through the names it keeps.
+func presolve(mx *Mix, n0 []float64, cons []lockRule) ([]lockRule, map[int]bool) {
+	shut := map[int]bool{}
+	var left []lockRule
+	for _, lr := range cons {
+		c, g := lr.c, lr.g
+		var list []int
+		switch {
+		case c.Rel != equilibrium.AtLeast && c.Bound <= 1e-300:
+			for i, w := range c.Coef {
+				if w > 0 {
+					list = append(list, i)
+				}
+			}
+		case c.Rel != equilibrium.AtMost && len(g.Species) == 0 && c.Bound >= (1-1e-12)*elementTotal(mx, n0, g.Element):
+			for i, sp := range mx.Species {
+				if sp.Atoms[g.Element] > 0 && c.Coef[i] == 0 {
+					list = append(list, i)
+				}
+			}
+		default:
+			left = append(left, lr)
+			continue
+		}
+		for _, i := range list {
+			shut[i] = true
+		}
+		left = append(left, lockRule{c: equilibrium.Constraint{Name: c.Name + "=pinned"}, g: g, shut: list})
+	}
+	return left, shut
+}
+
+func elementTotal(mx *Mix, n0 []float64, el string) float64 {
+	t := 0.0
+	for i, sp := range mx.Species {
+		t += n0[i] * float64(sp.Atoms[el])
+	}
+	return t
+}
+
+// pinnedHeld names the pinned rules that held something back: a species they
+// shut out would be present at the potentials of the solved state (a solute
+// or gas above 1e-6, a solid supersaturated).
+func pinnedHeld(mx *Mix, p equilibrium.Problem, eq equilibrium.State, rows []map[string]float64, comps map[string]int, cons []lockRule) []string {
+	var pinned []lockRule
+	for _, lr := range cons {
+		if strings.HasSuffix(lr.c.Name, "=pinned") {
+			pinned = append(pinned, lr)
+		}
+	}
+	if len(pinned) == 0 {
+		return nil
+	}
+	lam, ok := potentials(p, eq)
+	if !ok {
+		return nil
+	}
+	var out []string
+	for _, lr := range pinned {
+		for _, i := range lr.shut {
+			sp := mx.Species[i]
+			lnA := lam[len(lam)-1] * float64(sp.Charge)
+			okRow := true
+			for k, a := range rows[i] {
+				j, found := comps[k]
+				if !found {
+					okRow = false
+					break
+				}
+				lnA += a * lam[j]
+			}
+			lnA -= sp.GibbsRT(mx.TempK)
+			pure := sp.Phase == chem.Solid || sp.Phase == chem.Liquid
+			if okRow && (pure && lnA > 0 || !pure && lnA > math.Log(1e-6)) {
+				out = append(out, strings.TrimSuffix(lr.c.Name, "=pinned"))
+				break
+			}
+		}
+	}
+	return out
+}
+
+// potentials recovers the component potentials (and, last, the charge
+// potential) of a solved state from the species present: for each,
+// ln a + μ°/RT = Σ A·λ + z·ψ, solved in the least-squares sense.
+func potentials(p equilibrium.Problem, eq equilibrium.State) ([]float64, bool) {
+	nc := len(p.Components) + 1
+	var rowsA [][]float64
+	var rhs []float64
+	for j, sp := range p.Species {
+		var lnA float64
+		switch sp.Phase {
+		case equilibrium.Solvent:
+		case equilibrium.Pure:
+			if eq.Amount[j] <= 0 {
+				continue
+			}
+		case equilibrium.Gas:
+			if eq.Partial[j] <= 1e-200 {
+				continue
+			}
+			lnA = math.Log(eq.Partial[j])
+		default:
+			if eq.Molality[j] <= 1e-200 {
+				continue
+			}
+			lnA = math.Log(eq.Molality[j]) + eq.LogGamma[j]
+		}
+		row := append(append([]float64(nil), sp.Amounts...), float64(sp.Charge))
+		rowsA = append(rowsA, row)
+		rhs = append(rhs, lnA+sp.Mu0)
+	}
+	if len(rowsA) < nc {
+		return nil, false
+	}
+	a := mat.NewDense(len(rowsA), nc, nil)
+	for i, r := range rowsA {
+		a.SetRow(i, r)
+	}
+	var x mat.VecDense
+	if err := x.SolveVec(a, mat.NewVecDense(len(rhs), rhs)); err != nil {
+		return nil, false
+	}
+	return x.RawVector().Data, true
 }

@@ -171,7 +171,13 @@ func (m *Model) candidates(f Feed) []*thermo.Species {
 			}
 		}
 	}
-	out := append([]*thermo.Species(nil), m.DB.Within(els)...)
+	var out []*thermo.Species
+	for _, sp := range m.DB.Within(els) {
+		// Water vapour is the solvent's own; boiling is judged from the heat.
+		if sp.Text != "H2O(g)" {
+			out = append(out, sp)
+		}
+	}
 	sort.SliceStable(out, func(i, j int) bool { return out[i].Text < out[j].Text })
 	return append(out, standInAnion, standInCation)
 }
