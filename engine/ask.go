@@ -7,13 +7,22 @@ import (
 	"math"
 	"sort"
 	"strings"
+
+	"mixward/engine/thermo"
 )
 
-// New loads and validates every table in fsys (normally data.FS) and
-// returns an engine ready to answer requests.
+// New loads every table in fsys (normally data.FS), the species data
+// included, and returns an engine ready to answer requests. To start quickly
+// it only parses the tables that Load validates (see loadFast) and the
+// species table (thermo.Load; thermo's DB.Check is the full validation): the
+// tests run both validations on data/, so a table that reaches a build has
+// passed them.
 func New(fsys fs.FS) (*Engine, error) {
-	t, err := Load(fsys)
+	t, err := loadFast(fsys)
 	if err != nil {
+		return nil, err
+	}
+	if t.Thermo, err = thermo.Load(fsys); err != nil {
 		return nil, err
 	}
 	if t.Kinetics, err = loadKinetics(fsys); err != nil {
@@ -32,9 +41,14 @@ func New(fsys fs.FS) (*Engine, error) {
 				ts[i].key, ts[i].text = mixKey(ts[i].Species), ts[i].Species.Text()
 			}
 		}
-		for _, tm := range append(append([]Term(nil), h.Reactants...), h.Products...) {
-			if a, err := ParseFormula(tm.Formula); err == nil {
-				t.atoms[tm.Formula] = a
+		for _, ts := range [][]Term{h.Reactants, h.Products} {
+			for _, tm := range ts {
+				if _, done := t.atoms[tm.Formula]; done {
+					continue
+				}
+				if a, err := ParseFormula(tm.Formula); err == nil {
+					t.atoms[tm.Formula] = a
+				}
 			}
 		}
 		h.sig = signature(h)

@@ -3,6 +3,7 @@ package chem
 import (
 	"fmt"
 	"math"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -97,13 +98,15 @@ func undetermined(atoms Atoms, st map[string]float64) []string {
 // byElectronegativity sorts els most electronegative first (ties by symbol,
 // elements without a value last) and returns it.
 func byElectronegativity(els []string) []string {
-	sort.Slice(els, func(i, j int) bool {
-		a, _ := Electronegativity(els[i])
-		b, _ := Electronegativity(els[j])
-		if a != b {
-			return a > b
+	slices.SortFunc(els, func(x, y string) int {
+		a, b := pauling[x], pauling[y]
+		switch {
+		case a > b:
+			return -1
+		case a < b:
+			return 1
 		}
-		return els[i] < els[j]
+		return strings.Compare(x, y)
 	})
 	return els
 }
