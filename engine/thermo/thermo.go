@@ -69,9 +69,9 @@ type Species struct {
 type DB struct {
 	list   []*Species
 	byKey  map[chem.Species]*Species // by formula, charge and phase
-	byText map[string]*Species // by Text as written
-	atomic map[string]float64  // atomic weights, for Check
-	file   string              // "data/species.txt", for messages
+	byText map[string]*Species       // by Text as written
+	atomic map[string]float64        // atomic weights, for Check
+	file   string                    // "data/species.txt", for messages
 
 	withheld map[string]*Withheld // by chemical formula (withheld.txt)
 }
