@@ -7,6 +7,7 @@ import (
 	"math"
 	"sort"
 	"strings"
+	"sync"
 
 	"mixward/engine/thermo"
 )
@@ -18,20 +19,8 @@ import (
 // tests run both validations on data/, so a table that reaches a build has
 // passed them.
 func New(fsys fs.FS) (*Engine, error) {
-	t, err := loadFast(fsys)
+	t, err := loadAll(fsys)
 	if err != nil {
-		return nil, err
-	}
-	if t.Thermo, err = thermo.Load(fsys); err != nil {
-		return nil, err
-	}
-	if t.Kinetics, err = loadKinetics(fsys); err != nil {
-		return nil, err
-	}
-	if t.Hazards, err = LoadHazardRules(fsys); err != nil {
-		return nil, err
-	}
-	if t.Enthalpies, err = LoadEnthalpies(fsys); err != nil {
 		return nil, err
 	}
 	t.atoms = map[string]Atoms{}
@@ -120,6 +109,40 @@ func New(fsys fs.FS) (*Engine, error) {
 		}
 	}
 	return &Engine{Tables: t}, nil
+}
+
+// loadAll reads every table of fsys. The tables of Load are parsed on the
+// calling goroutine while a second one reads the species data, the kinetic
+// allowances, the hazard rules and the enthalpies: they share nothing until
+// both are done. The first error in the order loadFast, species, kinetics,
+// hazards, enthalpies is returned.
+func loadAll(fsys fs.FS) (*Tables, error) {
+	var (
+		db     *thermo.DB
+		kin    []*KineticRule
+		haz    []*HazardRule
+		enth   map[string]Enthalpy
+		errs   [4]error
+		others sync.WaitGroup
+	)
+	others.Go(func() {
+		db, errs[0] = thermo.Load(fsys)
+		kin, errs[1] = loadKinetics(fsys)
+		haz, errs[2] = LoadHazardRules(fsys)
+		enth, errs[3] = LoadEnthalpies(fsys)
+	})
+	t, err := loadFast(fsys)
+	others.Wait()
+	if err != nil {
+		return nil, err
+	}
+	for _, err := range errs {
+		if err != nil {
+			return nil, err
+		}
+	}
+	t.Thermo, t.Kinetics, t.Hazards, t.Enthalpies = db, kin, haz, enth
+	return t, nil
 }
 
 // maxAlternatives bounds the other reacting pairs listed with an answer.
