@@ -24,7 +24,7 @@ type tableRow struct {
 func (e *Engine) tableRows() []tableRow {
 	e.rowsOnce.Do(func() {
 		for _, h := range e.Tables.Half {
-			r, err := thermo.ParseReaction(e.Thermo, HalfText(h, false))
+			r, err := thermo.ParseReaction(e.Tables.Thermo, HalfText(h, false))
 			if err != nil {
 				continue
 			}
@@ -106,7 +106,7 @@ func isWaterCouple(h *HalfReaction) bool {
 // oxidized (reduced) forms are present as combined, the one with the highest
 // (lowest) potential at the mix's conditions.
 func (e *Engine) strongest(mx *state.Mix) (ox, red *candidate) {
-	med := Medium(explain.MediumAt(e.Thermo, mx.Combined.PH, mx.TempK))
+	med := Medium(explain.MediumAt(e.Tables.Thermo, mx.Combined.PH, mx.TempK))
 	present := map[*thermo.Species]bool{}
 	for i, sp := range mx.Species {
 		n := mx.Combined.Amount[i]
@@ -186,7 +186,7 @@ func (e *Engine) heldBack(mx *state.Mix) []HeldBack {
 			// the state without it.
 			free := *mx
 			free.Combined, free.Final = mx.Final, st
-			if steps, err := explain.Steps(e.Thermo, &free); err == nil && len(steps) > 0 {
+			if steps, err := explain.Steps(e.Tables.Thermo, &free); err == nil && len(steps) > 0 {
 				hb.Reaction = reactionOut(steps[0].Net, steps[0].N)
 			}
 		}

@@ -7,26 +7,22 @@ import (
 	"math"
 	"sort"
 	"strings"
+	"sync"
 
 	"mixward/engine/explain"
 	"mixward/engine/state"
 	"mixward/engine/thermo"
 )
 
-// New loads and validates every table in fsys (normally data.FS) and
-// returns an engine ready to answer requests.
+// New loads every table in fsys (normally data.FS), the species data
+// included, and returns an engine ready to answer requests. To start quickly
+// it only parses the tables that Load validates (see loadFast) and the
+// species table (thermo.Load; thermo's DB.Check is the full validation): the
+// tests run both validations on data/, so a table that reaches a build has
+// passed them.
 func New(fsys fs.FS) (*Engine, error) {
-	t, err := Load(fsys)
+	t, err := loadAll(fsys)
 	if err != nil {
-		return nil, err
-	}
-	if t.Kinetics, err = loadKinetics(fsys); err != nil {
-		return nil, err
-	}
-	if t.Hazards, err = LoadHazardRules(fsys); err != nil {
-		return nil, err
-	}
-	if t.Enthalpies, err = LoadEnthalpies(fsys); err != nil {
 		return nil, err
 	}
 	t.atoms = map[string]Atoms{}
@@ -36,9 +32,14 @@ func New(fsys fs.FS) (*Engine, error) {
 				ts[i].key, ts[i].text = mixKey(ts[i].Species), ts[i].Species.Text()
 			}
 		}
-		for _, tm := range append(append([]Term(nil), h.Reactants...), h.Products...) {
-			if a, err := ParseFormula(tm.Formula); err == nil {
-				t.atoms[tm.Formula] = a
+		for _, ts := range [][]Term{h.Reactants, h.Products} {
+			for _, tm := range ts {
+				if _, done := t.atoms[tm.Formula]; done {
+					continue
+				}
+				if a, err := ParseFormula(tm.Formula); err == nil {
+					t.atoms[tm.Formula] = a
+				}
 			}
 		}
 		h.sig = signature(h)
@@ -109,15 +110,45 @@ func New(fsys fs.FS) (*Engine, error) {
 			}
 		}
 	}
-	db, err := thermo.Load(fsys)
+	model, err := state.NewModel(t.Thermo, fsys)
 	if err != nil {
 		return nil, err
 	}
-	model, err := state.NewModel(db, fsys)
+	return &Engine{Tables: t, Model: model}, nil
+}
+
+// loadAll reads every table of fsys. The tables of Load are parsed on the
+// calling goroutine while a second one reads the species data, the kinetic
+// allowances, the hazard rules and the enthalpies: they share nothing until
+// both are done. The first error in the order loadFast, species, kinetics,
+// hazards, enthalpies is returned.
+func loadAll(fsys fs.FS) (*Tables, error) {
+	var (
+		db     *thermo.DB
+		kin    []*KineticRule
+		haz    []*HazardRule
+		enth   map[string]Enthalpy
+		errs   [4]error
+		others sync.WaitGroup
+	)
+	others.Go(func() {
+		db, errs[0] = thermo.Load(fsys)
+		kin, errs[1] = loadKinetics(fsys)
+		haz, errs[2] = LoadHazardRules(fsys)
+		enth, errs[3] = LoadEnthalpies(fsys)
+	})
+	t, err := loadFast(fsys)
+	others.Wait()
 	if err != nil {
 		return nil, err
 	}
-	return &Engine{Tables: t, Thermo: db, Model: model}, nil
+	for _, err := range errs {
+		if err != nil {
+			return nil, err
+		}
+	}
+	t.Thermo, t.Kinetics, t.Hazards, t.Enthalpies = db, kin, haz, enth
+	return t, nil
 }
 
 // maxAlternatives bounds the other reacting pairs listed with an answer.
@@ -161,7 +192,7 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 		e.finish(res, m, nil)
 		return res, nil
 	}
-	feed, err := feedOf(req, e.Tables, e.Thermo, m)
+	feed, err := feedOf(req, e.Tables, e.Tables.Thermo, m)
 	if err != nil {
 		return nil, err
 	}
@@ -169,14 +200,14 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 	if err != nil {
 		return nil, fmt.Errorf("engine: %w", err)
 	}
-	steps, err := explain.Steps(e.Thermo, mx)
+	steps, err := explain.Steps(e.Tables.Thermo, mx)
 	if err != nil {
 		return nil, err
 	}
 	res.Notes = append(res.Notes, mx.Final.Eq.Notes...)
 	res.Conditions.PH = roundDec(mx.Combined.PH, 2)
 	res.Conditions.PHFinal = ptr(roundDec(mx.Final.PH, 2))
-	res.Conditions.Medium = Medium(explain.MediumAt(e.Thermo, mx.Combined.PH, mx.TempK))
+	res.Conditions.Medium = Medium(explain.MediumAt(e.Tables.Thermo, mx.Combined.PH, mx.TempK))
 	res.Species = speciesOut(mx, steps)
 	for _, st := range steps {
 		res.Steps = append(res.Steps, e.stepOut(mx, st))

@@ -5,7 +5,6 @@ import (
 	"sync"
 
 	"mixward/engine/state"
-	"mixward/engine/thermo"
 )
 
 // Version is the engine version recorded with every logged query.
@@ -24,7 +23,6 @@ type AskOptions struct {
 // concurrent use.
 type Engine struct {
 	Tables *Tables
-	Thermo *thermo.DB   // species data (data/species.txt)
 	Model  *state.Model // the equilibrium of a mix under the kinetic locks
 
 	rowsOnce sync.Once

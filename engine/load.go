@@ -1,17 +1,18 @@
 package engine
 
 import (
-	"bufio"
-	"bytes"
 	"crypto/sha256"
 	"encoding/hex"
 	"errors"
 	"fmt"
 	"io/fs"
 	"math"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
+
+	"mixward/engine/chem"
 )
 
 // Names of the tables Load reads from the root of the data FS.
@@ -85,8 +86,17 @@ func (e *TableError) Error() string {
 // Hash is the hex SHA-256 over every *.txt file at the root of fsys, taken in
 // name order: for each file its name, a NUL byte, its length in decimal, a
 // NUL byte and its content.
-func Load(fsys fs.FS) (*Tables, error) {
+func Load(fsys fs.FS) (*Tables, error) { return load(fsys, false) }
+
+// loadFast reads the same tables as Load into the same Tables, but only
+// parses: it skips every check that the tests run through Load on the tables
+// of data/ (balance, spellings, classes, names, pair shapes, density order),
+// so that a process starts quickly. Use it only on tables that Load accepts.
+func loadFast(fsys fs.FS) (*Tables, error) { return load(fsys, true) }
+
+func load(fsys fs.FS, fast bool) (*Tables, error) {
 	l := &loader{
+		fast:       fast,
 		t:          &Tables{Densities: map[string][]DensityPoint{}},
 		spellings:  map[string]string{},
 		byComp:     map[string]spellingUse{},
@@ -94,7 +104,7 @@ func Load(fsys fs.FS) (*Tables, error) {
 		bases:      map[string]bool{},
 		chemByForm: map[string]*Chemical{},
 	}
-	hash, err := hashTables(fsys)
+	hash, contents, err := hashTables(fsys)
 	if err != nil {
 		return nil, err
 	}
@@ -110,9 +120,15 @@ func Load(fsys fs.FS) (*Tables, error) {
 		{HalfReactionsFile, l.halfReaction, 5},
 		{DensitiesFile, l.density, 4},
 	}
+	if fast {
+		files[1].read, files[2].read, files[3].read, files[4].read = l.fastAcidBase, l.fastChemical, l.fastHalfReaction, l.fastDensity
+	}
 	for _, f := range files {
 		l.file = tableDir + f.name
-		b, err := fs.ReadFile(fsys, f.name)
+		b, ok := contents[f.name]
+		if !ok {
+			b, err = fs.ReadFile(fsys, f.name)
+		}
 		rows := 0
 		if err != nil {
 			l.errs = append(l.errs, &TableError{File: l.file, Msg: fmt.Sprintf("cannot read the table (%v); it must sit at the root of the data directory", err)})
@@ -124,30 +140,35 @@ func Load(fsys fs.FS) (*Tables, error) {
 			return nil, errors.Join(l.errs...)
 		}
 	}
-	l.checkDensityOrder()
+	if !fast {
+		l.checkDensityOrder()
+	}
 	if len(l.errs) > 0 {
 		return nil, errors.Join(l.errs...)
 	}
 	return l.t, nil
 }
 
-// hashTables hashes every *.txt file at the root of fsys in name order.
-func hashTables(fsys fs.FS) (string, error) {
+// hashTables hashes every *.txt file at the root of fsys in name order. It
+// returns the contents it read, by name, so that each file is read once.
+func hashTables(fsys fs.FS) (string, map[string][]byte, error) {
 	names, err := fs.Glob(fsys, "*.txt")
 	if err != nil {
-		return "", fmt.Errorf("list the data tables: %w", err)
+		return "", nil, fmt.Errorf("list the data tables: %w", err)
 	}
 	sort.Strings(names)
 	h := sha256.New()
+	contents := make(map[string][]byte, len(names))
 	for _, n := range names {
 		b, err := fs.ReadFile(fsys, n)
 		if err != nil {
-			return "", fmt.Errorf("read %s%s for the table hash: %w", tableDir, n, err)
+			return "", nil, fmt.Errorf("read %s%s for the table hash: %w", tableDir, n, err)
 		}
 		fmt.Fprintf(h, "%s\x00%d\x00", n, len(b))
 		h.Write(b)
+		contents[n] = b
 	}
-	return hex.EncodeToString(h.Sum(nil)), nil
+	return hex.EncodeToString(h.Sum(nil)), contents, nil
 }
 
 // spellingUse remembers where a species spelling was first used.
@@ -157,6 +178,7 @@ type spellingUse struct {
 }
 
 type loader struct {
+	fast bool // loadFast: parse only
 	t    *Tables
 	errs []error
 	file string
@@ -174,6 +196,7 @@ type loader struct {
 	abPairs      map[string]int         // "acid|base" → line
 	abAcidLine   map[string]int         // acid Ion() → line
 	chemLine     map[*Chemical]int      // chemical → line
+	parsed       map[string]Species     // loadFast: species by text
 }
 
 // fail records a problem with the current row.
@@ -181,24 +204,36 @@ func (l *loader) fail(field, value, format string, args ...any) {
 	l.errs = append(l.errs, &TableError{File: l.file, Line: l.line, Field: field, Value: value, Msg: fmt.Sprintf(format, args...)})
 }
 
+// maxLine bounds the length of a table line.
+const maxLine = 1 << 20
+
 // rows splits a table into rows of n fields and hands each to read. It
-// returns the number of rows seen.
+// returns the number of rows seen. The text is copied once: every field is a
+// substring of that copy, and the slice of fields is reused from row to row
+// (read must not keep it).
 func (l *loader) rows(b []byte, n int, read func([]string, int)) int {
-	sc := bufio.NewScanner(bytes.NewReader(b))
-	sc.Buffer(make([]byte, 0, 64*1024), 1024*1024)
+	rest := string(b)
+	fields := make([]string, 0, 8)
 	l.line = 0
 	count := 0
-	for sc.Scan() {
+	for rest != "" {
+		var line string
+		if i := strings.IndexByte(rest, '\n'); i >= 0 {
+			line, rest = rest[:i], rest[i+1:]
+		} else {
+			line, rest = rest, ""
+		}
 		l.line++
-		text := strings.TrimSpace(strings.TrimPrefix(sc.Text(), "\ufeff"))
-		if text == "" || strings.HasPrefix(text, "#") {
+		if len(line) > maxLine {
+			l.errs = append(l.errs, &TableError{File: l.file, Line: l.line, Msg: "cannot read the line (token too long); keep lines under 1 MiB"})
+			return count
+		}
+		text := strings.TrimSpace(strings.TrimPrefix(line, "\ufeff"))
+		if text == "" || text[0] == '#' {
 			continue
 		}
 		count++
-		fields := strings.Split(text, "|")
-		for i := range fields {
-			fields[i] = strings.TrimSpace(fields[i])
-		}
+		fields = splitFields(fields[:0], text)
 		if len(fields) != n {
 			l.fail("row", text, "has %d fields but this table has %d, separated by \" | \"; see the header comment of the file", len(fields), n)
 			continue
@@ -215,10 +250,19 @@ func (l *loader) rows(b []byte, n int, read func([]string, int)) int {
 		}
 		read(fields, l.line)
 	}
-	if err := sc.Err(); err != nil {
-		l.errs = append(l.errs, &TableError{File: l.file, Line: l.line + 1, Msg: fmt.Sprintf("cannot read the line (%v); keep lines under 1 MiB", err)})
-	}
 	return count
+}
+
+// splitFields appends the "|"-separated fields of text, trimmed, to dst.
+func splitFields(dst []string, text string) []string {
+	for {
+		i := strings.IndexByte(text, '|')
+		if i < 0 {
+			return append(dst, strings.TrimSpace(text))
+		}
+		dst = append(dst, strings.TrimSpace(text[:i]))
+		text = text[i+1:]
+	}
 }
 
 // number parses a finite decimal number.
@@ -262,17 +306,7 @@ func (l *loader) element(f []string, line int) {
 	l.t.Atomic[sym] = w
 }
 
-func isElementSymbol(s string) bool {
-	if len(s) == 0 || len(s) > 3 || s[0] < 'A' || s[0] > 'Z' {
-		return false
-	}
-	for i := 1; i < len(s); i++ {
-		if s[i] < 'a' || s[i] > 'z' {
-			return false
-		}
-	}
-	return true
-}
+func isElementSymbol(s string) bool { return chem.IsElementSymbol(s) }
 
 // atoms parses a formula and checks its elements against elements.txt.
 func (l *loader) atoms(field, formula string) (Atoms, bool) {
@@ -300,12 +334,25 @@ func sortedElements(a Atoms) []string {
 	return els
 }
 
-// species parses a species and records its spelling.
+// species parses a species and records its spelling. loadFast only parses,
+// once per spelling.
 func (l *loader) species(field, text string) (Species, bool) {
+	if l.fast {
+		if sp, ok := l.parsed[text]; ok {
+			return sp, true
+		}
+	}
 	sp, err := ParseSpecies(text)
 	if err != nil {
 		l.fail(field, text, "%v; write species like H+, MnO4-, Fe^3+, Cu(s), Cl2(g)", err)
 		return Species{}, false
+	}
+	if l.fast {
+		if l.parsed == nil {
+			l.parsed = map[string]Species{}
+		}
+		l.parsed[text] = sp
+		return sp, true
 	}
 	if sp.IsElectron() {
 		return sp, true
@@ -362,7 +409,10 @@ func (l *loader) terms(field, text string) ([]Term, int, bool) {
 	var out []Term
 	electrons := 0
 	ok := true
-	seen := map[string]bool{}
+	var seen map[string]bool
+	if !l.fast {
+		seen = map[string]bool{}
+	}
 	for _, part := range strings.Split(text, " + ") {
 		part = strings.TrimSpace(part)
 		words := strings.Fields(part)
@@ -389,6 +439,10 @@ func (l *loader) terms(field, text string) ([]Term, int, bool) {
 		}
 		if sp.IsElectron() {
 			electrons += coef
+			continue
+		}
+		if l.fast {
+			out = append(out, Term{Species: sp, Coef: coef})
 			continue
 		}
 		if seen[sp.Key()] {
@@ -779,8 +833,14 @@ func (l *loader) checkDensityOrder() {
 
 // massOf is the molar mass of atoms a from the atomic weights w.
 func massOf(a Atoms, w map[string]float64) float64 {
+	var buf [16]string
+	els := buf[:0]
+	for el := range a {
+		els = append(els, el)
+	}
+	slices.Sort(els) // a fixed order of summing: the same mass every run
 	m := 0.0
-	for _, el := range sortedElements(a) {
+	for _, el := range els {
 		m += float64(a[el]) * w[el]
 	}
 	return m
@@ -853,4 +913,58 @@ func balanceErrorWith(atomsOf func(string) (Atoms, error), reactants, products [
 		return nil
 	}
 	return fmt.Errorf("%w: %s", ErrUnbalanced, strings.Join(probs, "; "))
+}
+
+// fastAcidBase is acidBase without its checks (loadFast).
+func (l *loader) fastAcidBase(f []string, _ int) {
+	acid, ok1 := l.species("acid", f[0])
+	base, ok2 := l.species("base", f[1])
+	pka, ok3 := l.number("pKa", f[2])
+	if ok1 && ok2 && ok3 {
+		l.t.AcidBase = append(l.t.AcidBase, &AcidBasePair{Acid: acid, Base: base, PKa: pka, Source: f[3]})
+	}
+}
+
+// fastChemical is chemical without its checks (loadFast).
+func (l *loader) fastChemical(f []string, _ int) {
+	a, err := ParseFormula(f[0])
+	if err != nil {
+		l.fail("formula", f[0], "%v; fix the formula", err)
+		return
+	}
+	gives, _, ok := l.terms("gives", f[2])
+	if !ok {
+		return
+	}
+	names := strings.Split(f[3], ";")
+	for i := range names {
+		names[i] = strings.TrimSpace(names[i])
+	}
+	ch := &Chemical{Formula: f[0], Names: names, Class: Class(f[1]), Gives: gives, Source: f[4]}
+	ch.MolarMass = massOf(a, l.t.Atomic)
+	l.t.Chemicals = append(l.t.Chemicals, ch)
+}
+
+// fastHalfReaction is halfReaction without its checks (loadFast).
+func (l *loader) fastHalfReaction(f []string, _ int) {
+	left, right, ok := strings.Cut(f[2], "->")
+	if !ok {
+		l.fail("reduction", f[2], "needs exactly one \"->\" between the oxidized and the reduced form")
+		return
+	}
+	lt, le, ok1 := l.terms("reduction", strings.TrimSpace(left))
+	rt, _, ok2 := l.terms("reduction", strings.TrimSpace(right))
+	e0, ok3 := l.number("E°", f[3])
+	if ok1 && ok2 && ok3 {
+		l.t.Half = append(l.t.Half, &HalfReaction{ID: f[0], Reactants: lt, Products: rt, Electrons: le, E0: e0, Medium: Medium(f[1]), Source: f[4]})
+	}
+}
+
+// fastDensity is density without its checks (loadFast).
+func (l *loader) fastDensity(f []string, _ int) {
+	pct, ok1 := l.number("% w/w", f[1])
+	rho, ok2 := l.number("density", f[2])
+	if ok1 && ok2 {
+		l.t.Densities[f[0]] = append(l.t.Densities[f[0]], DensityPoint{PercentWW: pct, GPerML: rho})
+	}
 }

@@ -1,5 +1,7 @@
 package engine
 
+import "mixward/engine/thermo"
+
 // Tables is the validated content of the data/ tables. Load builds it; New
 // adds the tables owned by the prediction and hazard code.
 type Tables struct {
@@ -13,6 +15,7 @@ type Tables struct {
 	Kinetics   []*KineticRule
 	Hazards    []*HazardRule
 	Enthalpies map[string]Enthalpy // standard enthalpy of formation by Species.Key
+	Thermo     *thermo.DB          // species data (data/species.txt), loaded by New
 
 	families []family       // acid–base chains, built by New
 	famOf    map[string]int // family index by Species.Ion

@@ -18,6 +18,18 @@ func ParseFormula(f string) (Atoms, error) {
 	if f == "" {
 		return nil, fmt.Errorf("empty formula")
 	}
+	if !strings.ContainsAny(f, ".·*") && (f[0] < '0' || f[0] > '9') {
+		// One part without a multiplier: its atoms are the total.
+		p := &formulaParser{s: f}
+		a := make(Atoms, 4)
+		if _, err := p.group(0, 1, a); err != nil {
+			return nil, fmt.Errorf("formula %q: %w", f, err)
+		}
+		if len(a) == 0 {
+			return nil, fmt.Errorf("formula %q: part %q has no atoms", f, f)
+		}
+		return a, nil
+	}
 	total := Atoms{}
 	parts := strings.FieldsFunc(f, func(r rune) bool { return r == '.' || r == '·' || r == '*' })
 	if len(parts) == 0 {
@@ -42,21 +54,12 @@ func ParseFormula(f string) (Atoms, error) {
 			}
 		}
 		p := &formulaParser{s: part, pos: i}
-		a, err := p.group(0)
+		seen, err := p.group(0, mult, total)
 		if err != nil {
 			return nil, fmt.Errorf("formula %q: %w", f, err)
 		}
-		if p.pos != len(p.s) {
-			return nil, fmt.Errorf("formula %q: unexpected %q at position %d", f, p.s[p.pos:p.pos+1], p.pos+1)
-		}
-		if len(a) == 0 {
+		if !seen {
 			return nil, fmt.Errorf("formula %q: part %q has no atoms", f, part)
-		}
-		for el, n := range a {
-			total[el] += n * mult
-			if total[el] > maxAtoms {
-				return nil, fmt.Errorf("formula %q has more than %d atoms of %s", f, maxAtoms, el)
-			}
 		}
 	}
 	return total, nil
@@ -101,46 +104,28 @@ func (p *formulaParser) number() (int, error) {
 	return n, nil
 }
 
-func (p *formulaParser) group(depth int) (Atoms, error) {
+// group adds mult times the atoms from p.pos up to the closing bracket of
+// this depth (or the end at depth 0) into a, and reports whether it saw any.
+// A bracket's multiplier follows its closer, so it is read ahead and passed
+// down: the whole formula fills one map.
+func (p *formulaParser) group(depth, mult int, a Atoms) (bool, error) {
 	if depth > 8 {
-		return nil, fmt.Errorf("parentheses nested too deep")
+		return false, fmt.Errorf("parentheses nested too deep")
 	}
-	a := Atoms{}
+	seen := false
 	for p.pos < len(p.s) {
 		c := p.s[p.pos]
 		switch {
 		case c == '(' || c == '[':
-			closer := byte(')')
-			if c == '[' {
-				closer = ']'
+			if err := p.bracket(depth, mult, a, c); err != nil {
+				return false, err
 			}
-			p.pos++
-			inner, err := p.group(depth + 1)
-			if err != nil {
-				return nil, err
-			}
-			if p.pos >= len(p.s) || p.s[p.pos] != closer {
-				return nil, fmt.Errorf("missing %q", string(closer))
-			}
-			p.pos++
-			if len(inner) == 0 {
-				return nil, fmt.Errorf("empty parentheses")
-			}
-			n, err := p.number()
-			if err != nil {
-				return nil, err
-			}
-			for el, k := range inner {
-				a[el] += k * n
-				if a[el] > maxAtoms {
-					return nil, fmt.Errorf("more than %d atoms of %s", maxAtoms, el)
-				}
-			}
+			seen = true
 		case c == ')' || c == ']':
 			if depth == 0 {
-				return nil, fmt.Errorf("unmatched %q at position %d", string(c), p.pos+1)
+				return false, fmt.Errorf("unmatched %q at position %d", string(c), p.pos+1)
 			}
-			return a, nil
+			return seen, nil
 		case c >= 'A' && c <= 'Z':
 			start := p.pos
 			p.pos++
@@ -148,25 +133,71 @@ func (p *formulaParser) group(depth int) (Atoms, error) {
 				p.pos++
 			}
 			if p.pos-start > 3 {
-				return nil, fmt.Errorf("%q is not an element symbol", p.s[start:p.pos])
+				return false, fmt.Errorf("%q is not an element symbol", p.s[start:p.pos])
 			}
 			el := p.s[start:p.pos]
 			n, err := p.number()
 			if err != nil {
-				return nil, err
+				return false, err
 			}
-			a[el] += n
+			a[el] += n * mult
 			if a[el] > maxAtoms {
-				return nil, fmt.Errorf("more than %d atoms of %s", maxAtoms, el)
+				return false, fmt.Errorf("more than %d atoms of %s", maxAtoms, el)
 			}
+			seen = true
 		default:
-			return nil, fmt.Errorf("unexpected %q at position %d", string(c), p.pos+1)
+			return false, fmt.Errorf("unexpected %q at position %d", string(c), p.pos+1)
 		}
 	}
 	if depth > 0 {
-		return nil, fmt.Errorf("missing closing parenthesis")
+		return false, fmt.Errorf("missing closing parenthesis")
 	}
-	return a, nil
+	return seen, nil
+}
+
+// bracket reads a bracketed group and its multiplier, p.pos at the opener c.
+func (p *formulaParser) bracket(depth, mult int, a Atoms, c byte) error {
+	closer := byte(')')
+	if c == '[' {
+		closer = ']'
+	}
+	// Find the closer of this bracket, and read the multiplier after it.
+	end, level := -1, 0
+	for i := p.pos; i < len(p.s) && end < 0; i++ {
+		switch p.s[i] {
+		case '(', '[':
+			level++
+		case ')', ']':
+			level--
+			if level == 0 {
+				end = i
+			}
+		}
+	}
+	if end < 0 {
+		return fmt.Errorf("missing %q", string(closer))
+	}
+	after := &formulaParser{s: p.s, pos: end + 1}
+	n, err := after.number()
+	if err != nil {
+		return err
+	}
+	if mult*n > maxAtoms {
+		return fmt.Errorf("more than %d atoms in a group", maxAtoms)
+	}
+	p.pos++
+	inner, err := p.group(depth+1, mult*n, a)
+	if err != nil {
+		return err
+	}
+	if p.pos >= len(p.s) || p.s[p.pos] != closer {
+		return fmt.Errorf("missing %q", string(closer))
+	}
+	if !inner {
+		return fmt.Errorf("empty parentheses")
+	}
+	p.pos = after.pos
+	return nil
 }
 
 // Add adds n times b to a.

@@ -3,6 +3,7 @@ package chem
 import (
 	"fmt"
 	"math"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -50,6 +51,10 @@ func OxidationStates(atoms Atoms, charge int, override map[string]float64) (map[
 		if n <= 0 {
 			return nil, fmt.Errorf("element %s has count %d; counts must be positive", el, n)
 		}
+		if len(atoms) == 1 && len(override) == 0 {
+			st[el] = float64(charge) / float64(n) // O2, Fe^3+, Hg2^2+
+			return st, nil
+		}
 	}
 	for el, v := range override {
 		if atoms[el] == 0 {
@@ -82,28 +87,30 @@ func OxidationStates(atoms Atoms, charge int, override map[string]float64) (map[
 	return st, nil
 }
 
-// undetermined lists the elements of atoms without a state in st, most
-// electronegative first (ties by symbol; elements without a value last).
+// undetermined lists the elements of atoms without a state in st, in no
+// particular order.
 func undetermined(atoms Atoms, st map[string]float64) []string {
-	var out []string
+	out := make([]string, 0, len(atoms))
 	for el := range atoms {
 		if _, ok := st[el]; !ok {
 			out = append(out, el)
 		}
 	}
-	return byElectronegativity(out)
+	return out
 }
 
 // byElectronegativity sorts els most electronegative first (ties by symbol,
 // elements without a value last) and returns it.
 func byElectronegativity(els []string) []string {
-	sort.Slice(els, func(i, j int) bool {
-		a, _ := Electronegativity(els[i])
-		b, _ := Electronegativity(els[j])
-		if a != b {
-			return a > b
+	slices.SortFunc(els, func(x, y string) int {
+		a, b := pauling[x], pauling[y]
+		switch {
+		case a > b:
+			return -1
+		case a < b:
+			return 1
 		}
-		return els[i] < els[j]
+		return strings.Compare(x, y)
 	})
 	return els
 }
@@ -151,6 +158,7 @@ func usualRules(atoms Atoms, st map[string]float64, und []string) {
 // metals' common states works, the least electronegative metal takes the
 // balance instead (MoS2: S −2, Mo +4).
 func fallbackStates(atoms Atoms, charge int, st map[string]float64, und []string) error {
+	und = byElectronegativity(und)
 	var metals, others []string
 	for _, el := range und {
 		if _, ok := metalStates[el]; ok {

@@ -105,17 +105,23 @@ func (s Species) IsElectron() bool { return s.Formula == "e" && s.Charge == -1 }
 // aqueous, and a neutral species is aqueous too except water, which is liquid
 // (H2O(aq) is read as H2O(l) as well).
 func ParseSpecies(text string) (Species, error) {
+	sp, _, err := ParseSpeciesAtoms(text)
+	return sp, err
+}
+
+// ParseSpeciesAtoms is ParseSpecies that also returns the atom counts of the
+// formula (nil for the electron), parsed once for both.
+func ParseSpeciesAtoms(text string) (Species, Atoms, error) {
 	t := strings.TrimSpace(text)
 	if t == "" {
-		return Species{}, fmt.Errorf("empty species")
+		return Species{}, nil, fmt.Errorf("empty species")
 	}
 	var sp Species
 	// Phase suffix.
-	for _, ph := range []Phase{Aqueous, Solid, Liquid, Gas} {
-		suf := "(" + string(ph) + ")"
-		if strings.HasSuffix(t, suf) {
-			sp.Phase = ph
-			t = strings.TrimSuffix(t, suf)
+	for _, ps := range phaseSuffixes {
+		if strings.HasSuffix(t, ps.suffix) {
+			sp.Phase = ps.phase
+			t = t[:len(t)-len(ps.suffix)]
 			break
 		}
 	}
@@ -124,12 +130,12 @@ func ParseSpecies(text string) (Species, error) {
 		ch := t[i+1:]
 		t = t[:i]
 		if len(ch) < 2 {
-			return Species{}, fmt.Errorf("species %q: charge after '^' must be digits and a sign, like ^2+", text)
+			return Species{}, nil, fmt.Errorf("species %q: charge after '^' must be digits and a sign, like ^2+", text)
 		}
 		sign := ch[len(ch)-1]
 		n, err := strconv.Atoi(ch[:len(ch)-1])
 		if err != nil || n <= 0 || (sign != '+' && sign != '-') {
-			return Species{}, fmt.Errorf("species %q: charge after '^' must be digits and a sign, like ^2+", text)
+			return Species{}, nil, fmt.Errorf("species %q: charge after '^' must be digits and a sign, like ^2+", text)
 		}
 		if sign == '-' {
 			n = -n
@@ -143,18 +149,19 @@ func ParseSpecies(text string) (Species, error) {
 		t = t[:len(t)-1]
 	}
 	if t == "" {
-		return Species{}, fmt.Errorf("species %q has no formula", text)
+		return Species{}, nil, fmt.Errorf("species %q has no formula", text)
 	}
 	sp.Formula = t
 	if t == "e" {
 		if sp.Charge != -1 {
-			return Species{}, fmt.Errorf("species %q: the electron is written e-", text)
+			return Species{}, nil, fmt.Errorf("species %q: the electron is written e-", text)
 		}
 		sp.Phase = Aqueous
-		return sp, nil
+		return sp, nil, nil
 	}
-	if _, err := ParseFormula(t); err != nil {
-		return Species{}, fmt.Errorf("species %q: %w", text, err)
+	atoms, err := ParseFormula(t)
+	if err != nil {
+		return Species{}, nil, fmt.Errorf("species %q: %w", text, err)
 	}
 	if sp.Phase == "" {
 		sp.Phase = Aqueous
@@ -164,5 +171,11 @@ func ParseSpecies(text string) (Species, error) {
 		// so that the two spellings give one species with one Key.
 		sp.Phase = Liquid
 	}
-	return sp, nil
+	return sp, atoms, nil
 }
+
+// phaseSuffixes are the phase suffixes ParseSpecies reads.
+var phaseSuffixes = [...]struct {
+	suffix string
+	phase  Phase
+}{{"(aq)", Aqueous}, {"(s)", Solid}, {"(l)", Liquid}, {"(g)", Gas}}

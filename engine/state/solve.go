@@ -91,6 +91,9 @@ func (m *Model) env(mx *Mix, s *State, volL float64) Env {
 func constraintSets(mx *Mix, locks []*Lock, n0 []float64) [][]lockRule {
 	sets := [][]lockRule{nil}
 	for _, l := range locks {
+		if vacuous(mx, l, n0) {
+			continue
+		}
 		var next [][]lockRule
 		for k, r := range l.Rules {
 			c := lockRule{c: ruleConstraint(mx, l.ID+"#"+strconv.Itoa(k), r, n0), g: r.Group}
@@ -101,6 +104,22 @@ func constraintSets(mx *Mix, locks []*Lock, n0 []float64) [][]lockRule {
 		sets = next
 	}
 	return sets
+}
+
+// vacuous reports whether a lock cannot hold anything back in n0: a single
+// rule that keeps nothing, or two rules of which one keeps nothing (either
+// may hold, so the lock as a whole asks nothing).
+func vacuous(mx *Mix, l *Lock, n0 []float64) bool {
+	for _, r := range l.Rules {
+		c := ruleConstraint(mx, "", r, n0)
+		switch {
+		case r.Dir == NoLoss && c.Bound <= 0:
+			return true
+		case r.Dir == NoGain && len(r.Group.Species) == 0 && !r.Group.Above && c.Bound >= (1-1e-12)*elementTotal(mx, n0, r.Group.Element):
+			return true
+		}
+	}
+	return false
 }
 
 // lockRule is one rule of a lock as a constraint on the species of a mix.
@@ -166,6 +185,21 @@ func (m *Model) solve(mx *Mix, n0 []float64, frozen bool, cons []lockRule, volL 
 			totals[comps[k]] += n * a
 		}
 	}
+	// Components the feed does not bring leave the problem with every
+	// species that holds them.
+	kept := names[:0:0]
+	var keptTotals []float64
+	for i, k := range names {
+		if totals[i] > 0 {
+			kept = append(kept, k)
+			keptTotals = append(keptTotals, totals[i])
+		}
+	}
+	names, totals = kept, keptTotals
+	comps = map[string]int{}
+	for i, k := range names {
+		comps[k] = i
+	}
 	p := equilibrium.Problem{Components: names, Totals: totals, TemperatureK: mx.TempK, PressureBar: mx.Pressure}
 	cons, shut := presolve(mx, n0, cons)
 	var keep []int // problem species → mix species
@@ -222,7 +256,7 @@ func (m *Model) solve(mx *Mix, n0 []float64, frozen bool, cons []lockRule, volL 
 // feed.
 func formable(row map[string]float64, totals []float64, comps map[string]int) bool {
 	for k := range row {
-		if totals[comps[k]] <= 0 {
+		if j, ok := comps[k]; !ok || totals[j] <= 0 {
 			return false
 		}
 	}
@@ -310,7 +344,9 @@ func presolve(mx *Mix, n0 []float64, cons []lockRule) ([]lockRule, map[int]bool)
 					list = append(list, i)
 				}
 			}
-		case c.Rel != equilibrium.AtMost && len(g.Species) == 0 && c.Bound >= (1-1e-12)*elementTotal(mx, n0, g.Element):
+		case c.Rel == equilibrium.AtMost && len(g.Species) == 0 && !g.Above && c.Bound >= (1-1e-12)*elementTotal(mx, n0, g.Element):
+			continue // the group cannot grow beyond every atom of its element
+		case c.Rel != equilibrium.AtMost && len(g.Species) == 0 && !g.Above && c.Bound >= (1-1e-12)*elementTotal(mx, n0, g.Element):
 			for i, sp := range mx.Species {
 				if sp.Atoms[g.Element] > 0 && c.Coef[i] == 0 {
 					list = append(list, i)

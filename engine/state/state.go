@@ -12,6 +12,7 @@ import (
 	"math"
 	"sort"
 
+	"mixward/engine/chem"
 	"mixward/engine/equilibrium"
 	"mixward/engine/thermo"
 )
@@ -173,10 +174,13 @@ func (m *Model) candidates(f Feed) []*thermo.Species {
 	}
 	var out []*thermo.Species
 	for _, sp := range m.DB.Within(els) {
-		// Water vapour is the solvent's own; boiling is judged from the heat.
-		if sp.Text != "H2O(g)" {
-			out = append(out, sp)
+		// Water vapour is the solvent's own (boiling is judged from the
+		// heat); a pure liquid of a compound (H2SO4(l), SO3(l)) is the
+		// concentrated reagent itself, not a phase that separates from water.
+		if sp.Text == "H2O(g)" || sp.Phase == chem.Liquid && len(sp.Atoms) > 1 && sp.Text != "H2O" {
+			continue
 		}
+		out = append(out, sp)
 	}
 	sort.SliceStable(out, func(i, j int) bool { return out[i].Text < out[j].Text })
 	return append(out, standInAnion, standInCation)

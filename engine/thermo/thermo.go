@@ -68,10 +68,10 @@ type Species struct {
 // DB is the loaded species table.
 type DB struct {
 	list   []*Species
-	byKey  map[string]*Species // by chem.Species.Key()
-	byText map[string]*Species // by Text as written
-	atomic map[string]float64  // atomic weights, for Check
-	file   string              // "data/species.txt", for messages
+	byKey  map[chem.Species]*Species // by formula, charge and phase
+	byText map[string]*Species       // by Text as written
+	atomic map[string]float64        // atomic weights, for Check
+	file   string                    // "data/species.txt", for messages
 
 	withheld map[string]*Withheld // by chemical formula (withheld.txt)
 }
@@ -121,7 +121,7 @@ func Load(fsys fs.FS) (*DB, error) {
 // parseTable reads the text of species.txt.
 func parseTable(file, text string, atomic map[string]float64) (*DB, error) {
 	n := strings.Count(text, "\n") + 1
-	db := &DB{byKey: make(map[string]*Species, n), byText: make(map[string]*Species, n), atomic: atomic, file: file}
+	db := &DB{byKey: make(map[chem.Species]*Species, n), byText: make(map[string]*Species, n), atomic: atomic, file: file}
 	var errs []error
 	for line := 1; text != ""; line++ {
 		var row string
@@ -140,12 +140,12 @@ func parseTable(file, text string, atomic map[string]float64) (*DB, error) {
 			continue
 		}
 		sp.Line = line
-		if prev, dup := db.byKey[sp.Key()]; dup {
+		if prev, dup := db.byKey[sp.Species]; dup {
 			errs = append(errs, &RowError{File: file, Line: line, Msg: fmt.Sprintf("%s is already listed at line %d; keep one row per species and phase", sp.Text, prev.Line)})
 			continue
 		}
 		db.list = append(db.list, sp)
-		db.byKey[sp.Key()] = sp
+		db.byKey[sp.Species] = sp
 		db.byText[sp.Text] = sp
 	}
 	if len(db.list) == 0 && len(errs) == 0 {
@@ -159,24 +159,33 @@ func parseTable(file, text string, atomic map[string]float64) (*DB, error) {
 
 // parseRow reads `species | ΔfG° | ΔfH° | S° | attributes | source`.
 func parseRow(row string) (*Species, error) {
-	f := strings.Split(row, "|")
-	if len(f) != 6 {
-		return nil, fmt.Errorf("has %d fields, want 6 (species | ΔfG° | ΔfH° | S° | attributes | source) separated by \" | \"; see the header of the file", len(f))
+	var f [6]string
+	n := 0
+	for rest := row; ; n++ {
+		i := strings.IndexByte(rest, '|')
+		if n < len(f) {
+			if i < 0 {
+				f[n] = strings.TrimSpace(rest)
+			} else {
+				f[n] = strings.TrimSpace(rest[:i])
+			}
+		}
+		if i < 0 {
+			break
+		}
+		rest = rest[i+1:]
 	}
-	for i := range f {
-		f[i] = strings.TrimSpace(f[i])
+	if n+1 != len(f) {
+		return nil, fmt.Errorf("has %d fields, want 6 (species | ΔfG° | ΔfH° | S° | attributes | source) separated by \" | \"; see the header of the file", n+1)
 	}
-	cs, err := chem.ParseSpecies(f[0])
+	cs, atoms, err := chem.ParseSpeciesAtoms(f[0])
 	if err != nil {
 		return nil, fmt.Errorf("%v; write species like H+, MnO4-, Fe^3+, Cu(s), Cl2(g)", err)
 	}
 	if cs.IsElectron() {
 		return nil, fmt.Errorf("the electron has no row (it counts zero by convention); remove the row")
 	}
-	sp := &Species{Species: cs, Text: f[0], Source: f[5]}
-	if sp.Atoms, err = chem.ParseFormula(cs.Formula); err != nil {
-		return nil, fmt.Errorf("%v; fix the formula", err)
-	}
+	sp := &Species{Species: cs, Text: f[0], Source: f[5], Atoms: atoms}
 	if sp.DfG, _, err = number("ΔfG°", f[1], false); err != nil {
 		return nil, err
 	}
@@ -258,7 +267,7 @@ func (db *DB) Get(text string) (*Species, bool) {
 	if err != nil {
 		return nil, false
 	}
-	sp, ok := db.byKey[cs.Key()]
+	sp, ok := db.byKey[cs]
 	return sp, ok
 }
 
