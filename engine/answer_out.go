@@ -60,18 +60,18 @@ func partialOf(mx *state.Mix, s *state.State, i int) float64 {
 // near-pure reagents; the temperature reached over the mixed mass, and
 // boiling when it passes the boiling point.
 func heatOut(mx *state.Mix, m *mixture, t *Tables) *Heat {
+	dfh := enthalpies(mx)
 	dh, big := 0.0, 0.0
 	var missing []string
-	for i, sp := range mx.Species {
+	for i := range mx.Species {
 		d := mx.Final.Amount[i] - mx.Initial[i]
 		big = math.Max(big, math.Abs(d))
-		if !sp.HasDfH {
-			continue
+		if !math.IsNaN(dfh[i]) {
+			dh += d * dfh[i]
 		}
-		dh += d * sp.DfH
 	}
 	for i, sp := range mx.Species {
-		if d := mx.Final.Amount[i] - mx.Initial[i]; !sp.HasDfH && math.Abs(d) > 1e-3*big {
+		if d := mx.Final.Amount[i] - mx.Initial[i]; math.IsNaN(dfh[i]) && math.Abs(d) > 1e-3*big {
 			missing = append(missing, sp.Species.Text())
 		}
 	}
@@ -98,8 +98,83 @@ func heatOut(mx *state.Mix, m *mixture, t *Tables) *Heat {
 	return h
 }
 
+// enthalpies is ΔfH° of each species of the mix: its own, or for a species
+// without one (a complex, an ion pair, a hydrolysis form) the sum over the
+// main species of the same oxidation states it is made of, as if forming it
+// from them took no heat (complexation enthalpies are tens of kJ/mol at
+// most); NaN when neither is known.
+func enthalpies(mx *state.Mix) []float64 {
+	out := make([]float64, len(mx.Species))
+	var water, proton *thermo.Species
+	for _, sp := range mx.Species {
+		switch sp.Text {
+		case "H2O":
+			water = sp
+		case "H+":
+			proton = sp
+		}
+	}
+	for i, sp := range mx.Species {
+		switch {
+		case sp.HasDfH:
+			out[i] = sp.DfH
+		case water == nil || proton == nil:
+			out[i] = math.NaN()
+		default:
+			out[i] = estimateDfH(mx, sp, water, proton)
+		}
+	}
+	return out
+}
+
+func estimateDfH(mx *state.Mix, sp, water, proton *thermo.Species) float64 {
+	h, o, z := float64(sp.Atoms["H"]), float64(sp.Atoms["O"]), float64(sp.Charge)
+	sum := 0.0
+	for el, n := range sp.Atoms {
+		if el == "H" || el == "O" {
+			continue
+		}
+		b := basisSpecies(mx, el, sp.Ox[el])
+		if b == nil {
+			return math.NaN()
+		}
+		x := float64(n) / float64(b.Atoms[el])
+		sum += x * b.DfH
+		h -= x * float64(b.Atoms["H"])
+		o -= x * float64(b.Atoms["O"])
+		z -= x * float64(b.Charge)
+	}
+	// The rest is water and H+: o H2O, then H+ for the hydrogen left.
+	hPlus := h - 2*o
+	if math.Abs(z-hPlus) > 1e-9 {
+		return math.NaN() // oxygen not all at −II (a peroxo species): no estimate
+	}
+	return sum + o*water.DfH + hPlus*proton.DfH
+}
+
+// basisSpecies is the main species with ΔfH° that holds el in state ox and
+// nothing else but H and O (Fe^3+ for iron(III), SO4^2- for sulfur(VI)).
+func basisSpecies(mx *state.Mix, el string, ox float64) *thermo.Species {
+	var best *thermo.Species
+	for _, sp := range mx.Species {
+		if !sp.HasDfH || sp.Minor || sp.Atoms[el] == 0 || math.Abs(sp.Ox[el]-ox) > 0.01 || len(sp.Atoms) > 3 {
+			continue
+		}
+		only := true
+		for e := range sp.Atoms {
+			if e != el && e != "H" && e != "O" {
+				only = false
+			}
+		}
+		if only && sp.Phase == Aqueous && (best == nil || sp.Atoms.String() < best.Atoms.String()) {
+			best = sp
+		}
+	}
+	return best
+}
+
 // heatAssumption is stated with every heat estimate.
-const heatAssumption = "ΔH from ΔfH° (data/species.txt) of every species that changes between the streams and the mixed state, at infinite dilution, plus the heat of dissolving solids and near-pure reagents; adiabatic, over the mixed mass with the heat capacity of water (4.18 J/(g·K))"
+const heatAssumption = "ΔH from ΔfH° (data/species.txt) of every species that changes between the streams and the mixed state, at infinite dilution (complexes and ion pairs without a value counted as their main species), plus the heat of dissolving solids and near-pure reagents; adiabatic, over the mixed mass with the heat capacity of water (4.18 J/(g·K))"
 
 // heatCapacity is kJ/(kg·K) of water at 25 °C (CRC Handbook, Properties of
 // water; from memory), used for the whole mix.

@@ -1,7 +1,6 @@
 package engine
 
 import (
-	"math"
 	"sort"
 	"strconv"
 	"strings"
@@ -136,7 +135,6 @@ func (e *Engine) strongest(mx *state.Mix) (ox, red *candidate) {
 // oxidized side, +1: the reduced side) other than water, H+ and OH- is
 // present.
 func sidePresent(r thermo.Reaction, sign float64, present map[*thermo.Species]bool) bool {
-	any := false
 	for _, t := range r.Terms {
 		if t.Nu*sign <= 0 || isSolvent(t.Species.Species) {
 			continue
@@ -144,23 +142,13 @@ func sidePresent(r thermo.Reaction, sign float64, present map[*thermo.Species]bo
 		if !present[t.Species] {
 			return false
 		}
-		any = true
 	}
-	return any
+	return true // water itself is always there
 }
 
-// lnQAt is ln Q of a reaction as the mix is combined; absent species at
-// their standard state.
+// lnQAt is ln Q of a reaction as the mix is combined (explain.LnQ).
 func lnQAt(mx *state.Mix, r thermo.Reaction) float64 {
-	q := 0.0
-	for _, t := range r.Terms {
-		for i, sp := range mx.Species {
-			if sp == t.Species && !math.IsNaN(mx.Combined.LnA[i]) {
-				q += t.Nu * mx.Combined.LnA[i]
-			}
-		}
-	}
-	return q
+	return explain.LnQ(mx.Species, mx.Combined.LnA, r)
 }
 
 func (e *Engine) tableCouple(c *candidate, reducer bool) *Couple {
@@ -180,17 +168,20 @@ func (e *Engine) tableCouple(c *candidate, reducer bool) *Couple {
 func (e *Engine) heldBack(mx *state.Mix) []HeldBack {
 	out := []HeldBack{}
 	for _, l := range mx.Final.Held {
-		hb := HeldBack{Lock: l.ID, Reason: l.Reason, Source: l.Source}
-		if st, err := e.Model.Without(mx, l.ID); err == nil {
-			// What the lock prevents: the change from the state with it to
-			// the state without it.
-			free := *mx
-			free.Combined, free.Final = mx.Final, st
-			if steps, err := explain.Steps(e.Tables.Thermo, &free); err == nil && len(steps) > 0 {
-				hb.Reaction = reactionOut(steps[0].Net, steps[0].N)
-			}
+		st, err := e.Model.Without(mx, l.ID)
+		if err != nil {
+			continue
 		}
-		out = append(out, hb)
+		// What the lock prevents: the change from the state with it to the
+		// state without it. A lock whose lifting changes nothing held
+		// nothing back.
+		free := *mx
+		free.Combined, free.Final = mx.Final, st
+		steps, err := explain.Steps(e.Tables.Thermo, &free)
+		if err != nil || len(steps) == 0 {
+			continue
+		}
+		out = append(out, HeldBack{Lock: l.ID, Reason: l.Reason, Source: l.Source, Reaction: reactionOut(steps[0].Net, steps[0].N)})
 	}
 	return out
 }

@@ -60,7 +60,7 @@ func RenderText(r *Result) string {
 		w("Kinetic allowance used in ranking (%s, %.1f V): %s (%s)\n", r.Allowance.ID, r.Allowance.Volts, r.Allowance.Reason, r.Allowance.Source)
 	}
 	if len(r.Alternatives) > 0 {
-		w("\nOther pairs that could react (E cell > 0):\n")
+		w("\nOther changes that also proceed, largest first:\n")
 		for i, a := range r.Alternatives {
 			w("  %d. %s with %s, E cell %+.3f V\n     %s\n", i+1, a.Oxidizer.Species, a.Reducer.Species, a.ECell, a.Reaction.Text)
 			if a.Note != "" {
@@ -191,14 +191,13 @@ func renderAmounts(b *strings.Builder, r *Result) {
 		w("  consumed: %s\n", amountsText(a.Consumed))
 		w("  formed:   %s\n", amountsText(a.Formed))
 	}
-	if len(r.Steps) > 0 {
-		w("\nFollow-on reactions on what is left:\n")
-		for i, s := range r.Steps {
-			w("  %d. %s (E cell %+.3f V)", i+2, s.Reaction.Text, *s.ECell)
-			if s.Amounts != nil && s.Amounts.Limiting != nil {
-				w(", limited by %s, extent %s mol", *s.Amounts.Limiting, sigText(s.Amounts.ExtentMol))
+	if len(r.HeldBack) > 0 {
+		w("\nPossible on paper, held back at plant conditions:\n")
+		for _, h := range r.HeldBack {
+			if h.Reaction != nil {
+				w("  %s\n", h.Reaction.Text)
 			}
-			w("\n")
+			w("     %s (%s)\n", h.Reason, h.Lock)
 		}
 	}
 	if len(r.Gases) > 0 {

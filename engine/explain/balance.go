@@ -46,7 +46,10 @@ const maxScale = 60
 
 // Reduction writes ox + n e- → red, balanced with partner species for the
 // other elements, water, and H+ or OH- by medium, in smallest whole numbers.
-func (b *balancer) Reduction(ox, red *thermo.Species, med Medium) (thermo.Reaction, error) {
+// key is the element that changes state: the electrons per ox are fixed by
+// its states in the two forms, which settles couples of oxygen itself
+// (H2O2 → H2O, where water is also the medium).
+func (b *balancer) Reduction(ox, red *thermo.Species, key string, med Medium) (thermo.Reaction, error) {
 	terms := []*thermo.Species{ox, red}
 	for _, el := range b.unmatched(ox, red) {
 		p := b.partner(el, ox, red)
@@ -64,7 +67,8 @@ func (b *balancer) Reduction(ox, red *thermo.Species, med Medium) (thermo.Reacti
 			terms = append(terms, sp)
 		}
 	}
-	nu, e, err := solveCoefficients(terms)
+	perOx := float64(ox.Atoms[key]) * (ox.Ox[key] - red.Ox[key])
+	nu, e, err := solveCoefficients(terms, perOx)
 	if err != nil {
 		return thermo.Reaction{}, fmt.Errorf("%s → %s: %v", ox.Text, red.Text, err)
 	}
@@ -99,7 +103,7 @@ func (b *balancer) unmatched(ox, red *thermo.Species) []string {
 // solveCoefficients finds signed coefficients (terms[0] consumed with −k)
 // and the electrons n so that every element and the charge balance:
 // Σ ν_t·atoms_t + (−n)·e⁻ = 0. It returns whole numbers.
-func solveCoefficients(terms []*thermo.Species) ([]int, int, error) {
+func solveCoefficients(terms []*thermo.Species, perOx float64) ([]int, int, error) {
 	els := map[string]int{}
 	var names []string
 	for _, sp := range terms {
@@ -110,7 +114,7 @@ func solveCoefficients(terms []*thermo.Species) ([]int, int, error) {
 			}
 		}
 	}
-	rows := len(names) + 1 // elements and charge
+	rows := len(names) + 2 // elements, charge, electrons per ox
 	cols := len(terms)     // terms 1.. plus the electron column
 	a := mat.NewDense(rows, cols, nil)
 	rhs := mat.NewVecDense(rows, nil)
@@ -129,6 +133,8 @@ func solveCoefficients(terms []*thermo.Species) ([]int, int, error) {
 		a.Set(len(names), j-1, float64(sp.Charge))
 	}
 	a.Set(len(names), cols-1, -1) // the electron's charge; its ν is −n for a reduction
+	a.Set(len(names)+1, cols-1, 1)
+	rhs.SetVec(len(names)+1, -perOx) // ν_e = −n, n per ox from the key element's states
 	var x mat.VecDense
 	if err := x.SolveVec(a, rhs); err != nil {
 		return nil, 0, fmt.Errorf("cannot be balanced: %v", err)

@@ -192,18 +192,24 @@ func Pairs(ts []Transfer, frac float64) []Match {
 }
 
 // dominant is the species holding the most atoms of el in oxidation state ox
-// in a state (nil when none does).
+// in a state (nil when none does). Minor species (ion pairs, hydrolysis
+// forms) stand in only when no main species holds any.
 func dominant(mx *state.Mix, amount []float64, el string, ox float64) *thermo.Species {
-	var best *thermo.Species
-	bestMol := 0.0
-	for i, sp := range mx.Species {
-		n := sp.Atoms[el]
-		if n == 0 || !redoxElement(sp, el) || roundOx(sp.Ox[el]) != ox {
-			continue
+	for _, minor := range []bool{false, true} {
+		var best *thermo.Species
+		bestMol := 0.0
+		for i, sp := range mx.Species {
+			n := sp.Atoms[el]
+			if n == 0 || sp.Minor != minor || !redoxElement(sp, el) || roundOx(sp.Ox[el]) != ox {
+				continue
+			}
+			if m := amount[i] * float64(n); m > bestMol {
+				best, bestMol = sp, m
+			}
 		}
-		if m := amount[i] * float64(n); m > bestMol {
-			best, bestMol = sp, m
+		if best != nil {
+			return best
 		}
 	}
-	return best
+	return nil
 }

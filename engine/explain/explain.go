@@ -15,7 +15,10 @@ type Couple struct {
 	Product *thermo.Species // what the agent turns into
 	Half    thermo.Reaction // the reduction oxidized form + n e- → reduced form
 	E0      float64         // V at the mix's temperature, from the species data
-	E       float64         // V at the mix's conditions as combined (Nernst)
+	E       float64         // V at the mix's conditions as combined (Nernst); what is not yet there at its standard state
+	// Ereached is E with what is not yet there taken at the level the
+	// change brings it to (its activity in the mixed state).
+	Ereached float64
 	Element string
 	From    float64 // oxidation state of Element in Agent
 	To      float64 // in Product
@@ -64,10 +67,20 @@ type explainer struct {
 	bal *balancer
 	med Medium
 	lnA []float64 // ln activity as combined (NaN: not present, taken at its standard state)
+	// lnReached is lnA with what is absent as combined taken at its
+	// activity in the mixed state.
+	lnReached []float64
 }
 
 func newExplainer(db *thermo.DB, mx *state.Mix) (*explainer, error) {
 	x := &explainer{db: db, mx: mx, lnA: mx.Combined.LnA, med: MediumAt(db, mx.Combined.PH, mx.TempK)}
+	x.lnReached = make([]float64, len(mx.Species))
+	for i, v := range x.lnA {
+		x.lnReached[i] = v
+		if math.IsNaN(v) || v <= traceLnA {
+			x.lnReached[i] = mx.Final.LnA[i]
+		}
+	}
 	b, err := newBalancer(db, x.partner)
 	if err != nil {
 		return nil, err
@@ -153,24 +166,37 @@ func (x *explainer) couple(t Transfer) (Couple, error) {
 	if !t.Reduction() {
 		ox, red = product, agent
 	}
-	half, err := x.bal.Reduction(ox, red, x.med)
+	half, err := x.bal.Reduction(ox, red, t.Element, x.med)
 	if err != nil {
 		return Couple{}, fmt.Errorf("explain: %w", err)
 	}
 	c := Couple{Agent: agent, Product: product, Half: half, Element: t.Element, From: t.From, To: t.To}
 	c.E0 = half.E0(x.mx.TempK)
 	c.E = c.E0 - thermo.R*x.mx.TempK/(float64(half.Electrons)*thermo.F)*x.lnQ(half)
+	// Ereached: what the change formed counted at the level it reaches
+	// rather than at its standard state.
+	c.Ereached = c.E0 - thermo.R*x.mx.TempK/(float64(half.Electrons)*thermo.F)*LnQ(x.mx.Species, x.lnReached, half)
 	return c, nil
 }
 
-// lnQ is ln of the reaction quotient as combined; a species not present is
-// taken at its standard state.
-func (x *explainer) lnQ(r thermo.Reaction) float64 {
+// lnQ is ln of the reaction quotient as combined.
+func (x *explainer) lnQ(r thermo.Reaction) float64 { return LnQ(x.mx.Species, x.lnA, r) }
+
+// traceLnA is ln of the activity below which a species counts as not yet
+// present: it is then taken at its standard state, so that a potential
+// never hinges on a trace (1e-6 mol/kg or bar). H+ and OH- are the medium
+// and always count at their activity.
+var traceLnA = math.Log(1e-6)
+
+// LnQ is ln of a reaction's quotient at the activities lnA (ln a per
+// species of the list); a species absent or below trace is taken at its
+// standard state.
+func LnQ(species []*thermo.Species, lnA []float64, r thermo.Reaction) float64 {
 	q := 0.0
 	for _, t := range r.Terms {
-		for i, sp := range x.mx.Species {
-			if sp == t.Species && !math.IsNaN(x.lnA[i]) {
-				q += t.Nu * x.lnA[i]
+		for i, sp := range species {
+			if sp == t.Species && !math.IsNaN(lnA[i]) && (lnA[i] > traceLnA || sp.Text == "H+" || sp.Text == "OH-") {
+				q += t.Nu * lnA[i]
 			}
 		}
 	}
@@ -189,7 +215,11 @@ func (x *explainer) step(m Match) (Step, error) {
 	net, n := Combine(oc.Half, rc.Half)
 	st := Step{Oxidizer: oc, Reducer: rc, Net: net, N: n, Medium: x.med}
 	st.E0Cell = oc.E0 - rc.E0
-	st.ECell = oc.E - rc.E
+	// E cell at the mix's conditions: the reactants as combined, the
+	// products at the level the change brings them to (a product not yet
+	// there would otherwise count at 1 mol/L and make a change that does
+	// proceed, to a small extent, look uphill).
+	st.ECell = oc.Ereached - rc.Ereached
 	st.DeltaG0 = st.Net.DeltaG(x.mx.TempK)
 	st.DeltaG = -float64(st.N) * thermo.F * st.ECell / 1000
 	st.Log10K = st.Net.LogK(x.mx.TempK)

@@ -30,11 +30,30 @@ const presence = 1e-5
 // A lock of two alternatives is solved both ways and the lower Gibbs energy
 // kept.
 func (m *Model) solveLocked(mx *Mix, n0 []float64, volL float64) (*State, error) {
-	combined, err := m.solve(mx, n0, true, nil, volL)
+	combined, err := m.solve(mx, n0, true, m.formationRules(mx, n0), volL)
 	if err != nil {
 		return nil, fmt.Errorf("as combined: %w", err)
 	}
 	return m.solveFrom(mx, n0, combined, volL, "")
+}
+
+// formationRules are the rules of the locks that only keep listed species
+// from forming (crystalline oxides): they hold for the mix as combined too,
+// judged on the temperature alone.
+func (m *Model) formationRules(mx *Mix, n0 []float64) []lockRule {
+	env := Env{TempC: mx.TempK - 273.15, PH: math.NaN()}
+	var out []lockRule
+	for i := range m.Locks {
+		l := &m.Locks[i]
+		if len(l.Rules) != 1 || l.Rules[0].Dir != NoGain || len(l.Rules[0].Group.Species) == 0 {
+			continue
+		}
+		if l.When == nil || l.When.Holds(env) {
+			r := l.Rules[0]
+			out = append(out, lockRule{c: ruleConstraint(mx, l.ID+"#0", r, n0), g: r.Group})
+		}
+	}
+	return out
 }
 
 // Without solves the mix again with one lock lifted: what the lock held back.
