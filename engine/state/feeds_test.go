@@ -49,6 +49,12 @@ func sampleFeeds(t testing.TB, m *Model) map[string]Feed {
 		"cyanide-hypochlorite": f(
 			Stream{Label: "T-7", Items: []Item{item(t, m, "Na+", 0.12), item(t, m, "CN-", 0.02), item(t, m, "OH-", 0.1)}, WaterMol: water(1000), VolumeL: 1000},
 			Stream{Label: "T-8", Items: []Item{item(t, m, "Na+", 95), item(t, m, "OCl-", 95)}, WaterMol: water(50), VolumeL: 50}),
+		"iron-pickle": f(
+			Stream{Label: "T-9", Items: []Item{{Species: get(t, m, "Fe(s)"), Excess: true}}},
+			Stream{Label: "T-10", Items: []Item{item(t, m, "H+", 107), item(t, m, "HSO4-", 107)}, WaterMol: water(100), VolumeL: 100}),
+		"aluminium-caustic": f(
+			Stream{Label: "T-11", Items: []Item{item(t, m, "Al(s)", 185)}},
+			Stream{Label: "T-12", Items: []Item{item(t, m, "Na+", 530), item(t, m, "OH-", 530)}, WaterMol: water(400), VolumeL: 400}),
 		"bleach-acid": f(
 			Stream{Label: "T-4", Items: []Item{item(t, m, "Na+", 3.8), item(t, m, "OCl-", 3.8)}, WaterMol: water(2), VolumeL: 2},
 			Stream{Label: "T-5", Items: []Item{item(t, m, "H+", 1.4), item(t, m, "Cl-", 1.4)}, WaterMol: water(0.5), VolumeL: 0.5}),

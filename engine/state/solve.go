@@ -205,11 +205,16 @@ func (m *Model) solve(mx *Mix, n0 []float64, frozen bool, cons []lockRule, volL 
 		}
 	}
 	// Components the feed does not bring leave the problem with every
-	// species that holds them.
+	// species that holds them; so do traces left by an earlier solve (a
+	// stream's own equilibrium), below 1e-14 of the largest total.
+	most := 0.0
+	for _, t := range totals {
+		most = math.Max(most, t)
+	}
 	kept := names[:0:0]
 	var keptTotals []float64
 	for i, k := range names {
-		if totals[i] > 0 {
+		if totals[i] > 1e-14*most {
 			kept = append(kept, k)
 			keptTotals = append(keptTotals, totals[i])
 		}
