@@ -72,6 +72,25 @@ func (s *system) phaseChange(pt *point) (bool, string) {
 	return false, ""
 }
 
+// dropNegative removes the present phase with the most negative amount.
+func (s *system) dropNegative(pt *point) (bool, string) {
+	worst, which := 0.0, -1
+	for _, i := range s.pure {
+		if pt.present[i] && pt.amt[i] < worst {
+			worst, which = pt.amt[i], i
+		}
+	}
+	if pt.gasOn && pt.ng < worst {
+		pt.gasOn, pt.ng = false, 0
+		return true, "gas phase removed"
+	}
+	if which < 0 {
+		return false, ""
+	}
+	pt.present[which], pt.amt[which] = false, 0
+	return true, s.p.Species[which].Name + " removed"
+}
+
 // solveAssemblage runs Newton solves and phase changes until no phase is
 // undersaturated-but-present or supersaturated-but-absent.
 func (s *system) solveAssemblage(pt *point, w *newtonWork, tr *trace) error {
@@ -79,10 +98,17 @@ func (s *system) solveAssemblage(pt *point, w *newtonWork, tr *trace) error {
 	limit := 2*len(s.pure) + 8
 	var history []string
 	for round := 0; ; round++ {
+		var changed bool
+		var what string
 		if err := s.newton(pt, w, tr); err != nil {
-			return fmt.Errorf("with phases [%s]: %v", s.assemblageKeyNames(pt), err)
+			// A phase whose amount has gone negative may be what keeps the
+			// equations from a solution: drop it and go on.
+			if changed, what = s.dropNegative(pt); !changed {
+				return fmt.Errorf("with phases [%s]: %v", s.assemblageKeyNames(pt), err)
+			}
+		} else {
+			changed, what = s.phaseChange(pt)
 		}
-		changed, what := s.phaseChange(pt)
 		if !changed {
 			for _, i := range s.pure {
 				if pt.present[i] && pt.amt[i] < 0 {

@@ -9,6 +9,10 @@ import (
 	"gonum.org/v1/gonum/optimize/convex/lp"
 )
 
+// traceMolality is where the start places species the starting
+// composition does not contain (mol/kg, or bar for gases).
+const traceMolality = 1e-10
+
 // lpStart returns the composition of least Σ nᵢ μ°ᵢ/RT under the equality
 // rows, ignoring mixing: the dominant species of the equilibrium. It returns
 // an ErrInfeasible error when no composition with amounts ≥ 0 meets them.
@@ -87,17 +91,29 @@ func (s *system) startFrom(n []float64, gamma float64) *point {
 			addEq(i, s.p.Species[i].Mu0, 100)
 		}
 	}
+	// Species in the composition are fitted; the others get a weak pull
+	// towards a trace molality, which settles the directions the
+	// composition leaves free without pushing any species far from the
+	// scale of the totals.
+	tiny := 1e-12 * scale
 	for _, i := range s.aq {
-		if n[i] > 0 {
+		if n[i] > tiny {
 			addEq(i, s.p.Species[i].Mu0+s.z2[i]*gamma+math.Log(n[i]/(nw*MolarMassWater)), 1)
+		} else {
+			addEq(i, s.p.Species[i].Mu0+s.z2[i]*gamma+math.Log(traceMolality), 1e-4)
 		}
 	}
-	if ng > 0 {
+	if ng > 1e-9*scale {
 		pt.gasOn, pt.ng = true, ng
 		for _, g := range s.gas {
 			if n[g] > 0 {
 				addEq(g, s.p.Species[g].Mu0+s.lnP+math.Log(n[g]/ng), 1)
 			}
+		}
+	}
+	if !pt.gasOn {
+		for _, g := range s.gas {
+			addEq(g, s.p.Species[g].Mu0+math.Log(traceMolality), 1e-4)
 		}
 	}
 	ridge := 0.0

@@ -15,6 +15,9 @@ type system struct {
 	aq, gas []int     // aqueous and gas species that are not off
 	pure    []int     // pure species that are not off (solvent excluded)
 	logBig  float64   // ln of the largest amount scale of the problem
+	// ub is an upper bound on each species amount from the totals of the
+	// components that every species carries with a coefficient ≥ 0.
+	ub []float64
 
 	rows []balanceRow
 	// Sparse columns over rows: colIdx[i], colVal[i] list the nonzero rows
@@ -32,6 +35,7 @@ func newSystem(p *Problem, solvent int, off []bool) *system {
 		big = math.Max(big, math.Abs(t))
 	}
 	s.logBig = math.Log(big)
+	s.ub = upperBounds(p, off, big)
 	for i, sp := range p.Species {
 		if off[i] {
 			continue
@@ -55,7 +59,9 @@ func (s *system) setRows(rows []balanceRow) {
 	s.colIdx = make([][]int, s.ns)
 	s.colVal = make([][]float64, s.ns)
 	for k := range rows {
-		sc := math.Abs(rows[k].rhs)
+		// The merit scale: |rhs| plus the amounts (added in residual),
+		// and never finer than the rounding in rhs allows.
+		sc := math.Abs(rows[k].rhs) + math.Max(rows[k].noise, roundoff*math.Abs(rows[k].rhs))/tolBalance
 		for i, v := range rows[k].coef {
 			if v != 0 {
 				s.colIdx[i] = append(s.colIdx[i], k)
@@ -91,6 +97,10 @@ func newPoint(ns, nrows int) *point {
 		logAmt: make([]float64, ns), present: make([]bool, ns)}
 }
 
+func newPointLike(o *point) *point {
+	return newPoint(len(o.amt), len(o.theta))
+}
+
 func (pt *point) copyFrom(o *point) {
 	pt.theta = append(pt.theta[:0], o.theta...)
 	copy(pt.amt, o.amt)
@@ -99,9 +109,10 @@ func (pt *point) copyFrom(o *point) {
 	pt.gasOn, pt.ng, pt.gamma = o.gasOn, o.ng, o.gamma
 }
 
-// expCap keeps exp from overflowing; amounts beyond e^expCap mol are
-// rejected by the line search long before they matter.
-const expCap = 700
+// expCap keeps exp, and the squares of amounts in the Newton matrix, from
+// overflowing: amounts beyond e^230 (1e100) mol are never meaningful and
+// the line search rejects such points.
+const expCap = 230
 
 // evaluate sets the aqueous and gas amounts from theta. It reports false
 // when the solvent amount is not positive.
@@ -140,8 +151,9 @@ func (s *system) unknowns(pt *point, dst []int) []int {
 }
 
 // residual fills f with the balance, saturation and gas equations and sc
-// with their scales; it returns the merit ½Σ(f/sc)².
-func (s *system) residual(pt *point, pures []int, f, sc []float64) float64 {
+// with their scales (|rhs| plus the amounts in the row, floored by the
+// rounding of rhs; 1 for the equations in log units).
+func (s *system) residual(pt *point, pures []int, f, sc []float64) {
 	q := len(s.rows)
 	for k := range s.rows {
 		f[k] = -s.rows[k].rhs
@@ -170,7 +182,6 @@ func (s *system) residual(pt *point, pures []int, f, sc []float64) float64 {
 		f[q+len(pures)] = sum
 		sc[q+len(pures)] = 1
 	}
-	return merit(f, sc)
 }
 
 func merit(f, sc []float64) float64 {
@@ -180,4 +191,49 @@ func merit(f, sc []float64) float64 {
 		m += r * r
 	}
 	return m / 2
+}
+
+func upperBounds(p *Problem, off []bool, big float64) []float64 {
+	ub := make([]float64, len(p.Species))
+	for i := range ub {
+		ub[i] = 10 * big
+	}
+	for j := range p.Components {
+		nonneg := true
+		for i, sp := range p.Species {
+			nonneg = nonneg && (off[i] || sp.Amounts[j] >= 0)
+		}
+		if !nonneg {
+			continue
+		}
+		for i, sp := range p.Species {
+			if a := sp.Amounts[j]; a > 0 {
+				ub[i] = math.Min(ub[i], math.Max(p.Totals[j], 0)/a)
+			}
+		}
+	}
+	return ub
+}
+
+// meritScales fills fix with the scales of the merit for one Newton solve:
+// like residual's scales, with each amount capped by its upper bound so
+// that a wild start cannot make the merit blind.
+func (s *system) meritScales(pt *point, d int, fix []float64) []float64 {
+	fix = fix[:0]
+	for k := range s.rows {
+		fix = append(fix, s.rows[k].scale)
+	}
+	for i := 0; i < s.ns; i++ {
+		n := math.Min(math.Abs(pt.amt[i]), s.ub[i])
+		if n == 0 {
+			continue
+		}
+		for k, r := range s.colIdx[i] {
+			fix[r] += math.Abs(s.colVal[i][k] * n)
+		}
+	}
+	for len(fix) < d {
+		fix = append(fix, 1)
+	}
+	return fix
 }
