@@ -66,8 +66,10 @@ func (s *system) jacobian(pt *point, w *newtonWork, d int) {
 	}
 	gcol := q + len(w.pures)
 	if pt.gasOn {
+		lse := s.gasLogSum(pt)
 		for _, g := range s.gas {
 			x := math.Exp(math.Min(pt.logAmt[g], expCap))
+			share := math.Exp(pt.logAmt[g] - lse) // x / Σx: the gas row is ln Σx = 0
 			n := pt.ng * x
 			idx, val := s.colIdx[g], s.colVal[g]
 			for a, r := range idx {
@@ -75,7 +77,7 @@ func (s *system) jacobian(pt *point, w *newtonWork, d int) {
 					jac[r*d+c] += val[a] * val[b] * n
 				}
 				jac[r*d+gcol] += val[a] * x
-				jac[gcol*d+r] += val[a] * x
+				jac[gcol*d+r] += val[a] * share
 			}
 		}
 	}
@@ -90,7 +92,7 @@ func (s *system) jacobian(pt *point, w *newtonWork, d int) {
 
 // solveLinear solves jac·dx = −f with row and column equilibration; it
 // falls back to a least-squares SVD solve when the matrix is singular.
-func solveLinear(w *newtonWork, d int) error {
+func solveLinear(w *newtonWork, d int, useSVD bool) error {
 	jac := w.jac[:d*d]
 	rs, cs := w.rs[:d], w.cs[:d]
 	for r := 0; r < d; r++ {
@@ -118,9 +120,15 @@ func solveLinear(w *newtonWork, d int) error {
 	a := mat.NewDense(d, d, jac)
 	b := mat.NewVecDense(d, w.rhs[:d])
 	x := mat.NewVecDense(d, w.dx[:d])
-	w.lu.Factorize(a)
-	err := w.lu.SolveVecTo(x, false, b)
-	if err != nil || w.lu.Cond() > 1e15 {
+	var err error
+	if !useSVD {
+		w.lu.Factorize(a)
+		err = w.lu.SolveVecTo(x, false, b)
+		if err != nil && (!finiteVec(x) || w.lu.Cond() > 1e15) {
+			useSVD = true
+		}
+	}
+	if useSVD {
 		w.svdUsed++
 		if err := solveSVD(a, b, x); err != nil {
 			return err
@@ -141,6 +149,15 @@ func solveLinear(w *newtonWork, d int) error {
 		}
 	}
 	return nil
+}
+
+func finiteVec(x *mat.VecDense) bool {
+	for i := 0; i < x.Len(); i++ {
+		if !finite(x.AtVec(i)) {
+			return false
+		}
+	}
+	return true
 }
 
 func solveSVD(a *mat.Dense, b, x *mat.VecDense) error {
@@ -178,10 +195,13 @@ func converged(f, sc []float64, q int) bool {
 	return true
 }
 
-// closeEnough is the looser test applied when rounding stops progress.
-func closeEnough(f, sc []float64, q int) bool {
+// closeEnough is the looser test applied when rounding stops progress: a
+// balance may also miss by the rounding carried in the totals (noise), which
+// a direction of the equations with vanishing curvature — species forced to
+// zero, such as an oxidation state with nothing to reduce it — cannot absorb.
+func closeEnough(f, sc []float64, q int, noise float64) bool {
 	for k, v := range f {
-		if k < q && math.Abs(v) > tolStalled*sc[k]+1e-300 || k >= q && math.Abs(v) > 1e3*tolLog {
+		if k < q && math.Abs(v) > tolStalled*sc[k]+noise+1e-300 || k >= q && math.Abs(v) > 1e3*tolLog {
 			return false
 		}
 	}
@@ -213,11 +233,21 @@ func (s *system) newton(pt *point, w *newtonWork, tr *trace) error {
 			return fmt.Errorf("%d Newton iterations (merit %.3g)", maxNewton, phi)
 		}
 		s.jacobian(pt, w, d)
-		if err := solveLinear(w, d); err != nil {
+		if err := solveLinear(w, d, false); err != nil {
 			return err
 		}
 		alpha, after, err := s.lineSearch(pt, w, d, phi)
-		if err != nil && closeEnough(w.f[:d], w.sc[:d], q) {
+		if err != nil {
+			// The matrix may be too ill-conditioned for the plain solve:
+			// retry with the least-squares step.
+			s.residual(pt, w.pures, w.f[:d], w.sc[:d])
+			s.jacobian(pt, w, d)
+			if err := solveLinear(w, d, true); err != nil {
+				return err
+			}
+			alpha, after, err = s.lineSearch(pt, w, d, phi)
+		}
+		if err != nil && closeEnough(w.f[:d], w.sc[:d], q, s.noise) {
 			return nil
 		}
 		if err != nil {
@@ -225,7 +255,7 @@ func (s *system) newton(pt *point, w *newtonWork, tr *trace) error {
 			tr.dump(s, pt, w.f[:d], w.sc[:d])
 			return err
 		}
-		if (alpha < 1e-10 || after > 0.99*phi) && closeEnough(w.f[:d], w.sc[:d], q) {
+		if (alpha < 1e-10 || after > 0.99*phi) && closeEnough(w.f[:d], w.sc[:d], q, s.noise) {
 			return nil
 		}
 		w.iter++

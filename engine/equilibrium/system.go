@@ -19,7 +19,8 @@ type system struct {
 	// components that every species carries with a coefficient ≥ 0.
 	ub []float64
 
-	rows []balanceRow
+	rows  []balanceRow
+	noise float64 // largest rounding carried by a row's right-hand side
 	// Sparse columns over rows: colIdx[i], colVal[i] list the nonzero rows
 	// of species i.
 	colIdx [][]int
@@ -56,6 +57,10 @@ func newSystem(p *Problem, solvent int, off []bool) *system {
 // setRows installs the equality rows and rebuilds the sparse columns.
 func (s *system) setRows(rows []balanceRow) {
 	s.rows = rows
+	s.noise = 0
+	for _, r := range rows {
+		s.noise = math.Max(s.noise, r.noise)
+	}
 	s.colIdx = make([][]int, s.ns)
 	s.colVal = make([][]float64, s.ns)
 	for k := range rows {
@@ -175,13 +180,26 @@ func (s *system) residual(pt *point, pures []int, f, sc []float64) {
 		sc[q+k] = 1
 	}
 	if pt.gasOn {
-		sum := -1.0
-		for _, g := range s.gas {
-			sum += math.Exp(math.Min(pt.logAmt[g], expCap))
-		}
-		f[q+len(pures)] = sum
+		f[q+len(pures)] = s.gasLogSum(pt)
 		sc[q+len(pures)] = 1
 	}
+}
+
+// gasLogSum returns ln Σ x_g, the log of the summed partial pressures over
+// the ambient pressure.
+func (s *system) gasLogSum(pt *point) float64 {
+	m := math.Inf(-1)
+	for _, g := range s.gas {
+		m = math.Max(m, pt.logAmt[g])
+	}
+	if math.IsInf(m, -1) {
+		return m
+	}
+	sum := 0.0
+	for _, g := range s.gas {
+		sum += math.Exp(pt.logAmt[g] - m)
+	}
+	return m + math.Log(sum)
 }
 
 func merit(f, sc []float64) float64 {
