@@ -56,12 +56,16 @@ func (s *system) phaseChange(pt *point) (bool, string) {
 		}
 	}
 	if !pt.gasOn && len(s.gas) > 0 {
-		sum := 0.0
-		for _, g := range s.gas {
-			sum += math.Exp(math.Min(pt.logAmt[g], expCap))
-		}
-		if math.Log(sum) > best {
-			pt.gasOn, pt.ng = true, 0
+		if lse := s.gasLogSum(pt); lse > best {
+			// Start the phase small: its most supersaturated member at a
+			// thousandth of what the totals allow.
+			top := s.gas[0]
+			for _, g := range s.gas {
+				if pt.logAmt[g] > pt.logAmt[top] {
+					top = g
+				}
+			}
+			pt.gasOn, pt.ng = true, 1e-3*s.ub[top]*math.Exp(-math.Max(lse, 0))
 			return true, "gas phase added"
 		}
 	}
@@ -72,31 +76,64 @@ func (s *system) phaseChange(pt *point) (bool, string) {
 	return false, ""
 }
 
+// dropNegative removes the present phase with the most negative amount.
+func (s *system) dropNegative(pt *point) (bool, string) {
+	worst, which := 0.0, -1
+	for _, i := range s.pure {
+		if pt.present[i] && pt.amt[i] < worst {
+			worst, which = pt.amt[i], i
+		}
+	}
+	if pt.gasOn && pt.ng < worst {
+		pt.gasOn, pt.ng = false, 0
+		return true, "gas phase removed"
+	}
+	if which < 0 {
+		return false, ""
+	}
+	pt.present[which], pt.amt[which] = false, 0
+	return true, s.p.Species[which].Name + " removed"
+}
+
 // solveAssemblage runs Newton solves and phase changes until no phase is
 // undersaturated-but-present or supersaturated-but-absent.
 func (s *system) solveAssemblage(pt *point, w *newtonWork, tr *trace) error {
-	seen := map[string]bool{}
-	limit := 2*len(s.pure) + 8
+	seen := map[string]int{}
+	limit := 3*len(s.pure) + 12
 	var history []string
 	for round := 0; ; round++ {
+		var changed bool
+		var what string
 		if err := s.newton(pt, w, tr); err != nil {
-			return fmt.Errorf("with phases [%s]: %v", s.assemblageKeyNames(pt), err)
+			// A phase whose amount has gone negative may be what keeps the
+			// equations from a solution: drop it and go on.
+			if changed, what = s.dropNegative(pt); !changed {
+				return fmt.Errorf("with phases [%s]: %v", s.assemblageKeyNames(pt), err)
+			}
+		} else {
+			changed, what = s.phaseChange(pt)
 		}
-		changed, what := s.phaseChange(pt)
 		if !changed {
+			// Amounts within the tolerance below zero are zero.
 			for _, i := range s.pure {
 				if pt.present[i] && pt.amt[i] < 0 {
 					pt.amt[i] = 0
 				}
 			}
+			if pt.gasOn && pt.ng <= 0 {
+				pt.gasOn, pt.ng = false, 0
+				s.evaluate(pt)
+			}
 			return nil
 		}
 		history = append(history, what)
 		key := s.assemblageKey(pt)
-		if seen[key] || round == limit {
+		// An assemblage may be revisited from a better point, but not
+		// endlessly.
+		if seen[key] == 3 || round == limit {
 			return fmt.Errorf("the phase assemblage does not settle (%s): %w", strings.Join(history, "; "), ErrNoConvergence)
 		}
-		seen[key] = true
+		seen[key]++
 	}
 }
 

@@ -138,4 +138,3 @@ func pH(p Problem, st State) float64 {
 
 // water is 1 kg of water in mol (1000 g / 18.015 g/mol).
 const water = 1 / MolarMassWater
-

@@ -12,9 +12,11 @@ import (
 const (
 	maxNewton   = 200   // iterations per Newton solve
 	tolBalance  = 1e-12 // balance residual relative to the row's scale
+	tolStalled  = 1e-10 // accepted when the line search can do no better
 	tolLog      = 1e-10 // saturation and gas residuals (natural-log units)
 	armijo      = 1e-4
 	maxBacktrak = 50
+	maxExtend   = 256 // longest extrapolated step, in Newton steps
 	stepGrow    = 2.0 // a species may rise this much (ln units) above the totals' scale per step
 )
 
@@ -24,12 +26,14 @@ var errStall = errors.New("line search found no decrease")
 type newtonWork struct {
 	pures    []int
 	f, sc    []float64
+	fix      []float64 // merit scales, fixed for one Newton solve
 	jac      []float64
 	rhs, dx  []float64
 	rs, cs   []float64
 	trial    *point
 	lu       mat.LU
 	iter     int
+	svdUsed  int
 	lastStep float64
 }
 
@@ -62,8 +66,10 @@ func (s *system) jacobian(pt *point, w *newtonWork, d int) {
 	}
 	gcol := q + len(w.pures)
 	if pt.gasOn {
+		lse := s.gasLogSum(pt)
 		for _, g := range s.gas {
 			x := math.Exp(math.Min(pt.logAmt[g], expCap))
+			share := math.Exp(pt.logAmt[g] - lse) // x / Σx: the gas row is ln Σx = 0
 			n := pt.ng * x
 			idx, val := s.colIdx[g], s.colVal[g]
 			for a, r := range idx {
@@ -71,7 +77,7 @@ func (s *system) jacobian(pt *point, w *newtonWork, d int) {
 					jac[r*d+c] += val[a] * val[b] * n
 				}
 				jac[r*d+gcol] += val[a] * x
-				jac[gcol*d+r] += val[a] * x
+				jac[gcol*d+r] += val[a] * share
 			}
 		}
 	}
@@ -86,7 +92,7 @@ func (s *system) jacobian(pt *point, w *newtonWork, d int) {
 
 // solveLinear solves jac·dx = −f with row and column equilibration; it
 // falls back to a least-squares SVD solve when the matrix is singular.
-func solveLinear(w *newtonWork, d int) error {
+func solveLinear(w *newtonWork, d int, useSVD bool) error {
 	jac := w.jac[:d*d]
 	rs, cs := w.rs[:d], w.cs[:d]
 	for r := 0; r < d; r++ {
@@ -114,11 +120,26 @@ func solveLinear(w *newtonWork, d int) error {
 	a := mat.NewDense(d, d, jac)
 	b := mat.NewVecDense(d, w.rhs[:d])
 	x := mat.NewVecDense(d, w.dx[:d])
-	w.lu.Factorize(a)
-	err := w.lu.SolveVecTo(x, false, b)
-	if err != nil || w.lu.Cond() > 1e13 {
+	var err error
+	if !useSVD {
+		w.lu.Factorize(a)
+		err = w.lu.SolveVecTo(x, false, b)
+		if err != nil && (!finiteVec(x) || w.lu.Cond() > 1e15) {
+			useSVD = true
+		}
+	}
+	if useSVD {
+		w.svdUsed++
 		if err := solveSVD(a, b, x); err != nil {
 			return err
+		}
+	} else {
+		// One step of iterative refinement.
+		var r, dx mat.VecDense
+		r.MulVec(a, x)
+		r.SubVec(b, &r)
+		if w.lu.SolveVecTo(&dx, false, &r) == nil {
+			x.AddVec(x, &dx)
 		}
 	}
 	for c := 0; c < d; c++ {
@@ -128,6 +149,15 @@ func solveLinear(w *newtonWork, d int) error {
 		}
 	}
 	return nil
+}
+
+func finiteVec(x *mat.VecDense) bool {
+	for i := 0; i < x.Len(); i++ {
+		if !finite(x.AtVec(i)) {
+			return false
+		}
+	}
+	return true
 }
 
 func solveSVD(a *mat.Dense, b, x *mat.VecDense) error {
@@ -155,10 +185,23 @@ func solveSVD(a *mat.Dense, b, x *mat.VecDense) error {
 func converged(f, sc []float64, q int) bool {
 	for k, v := range f {
 		if k < q {
-			if math.Abs(v) > tolBalance*(sc[k]+1e-300) {
+			if math.Abs(v) > tolBalance*sc[k]+1e-300 {
 				return false
 			}
 		} else if math.Abs(v) > tolLog {
+			return false
+		}
+	}
+	return true
+}
+
+// closeEnough is the looser test applied when rounding stops progress: a
+// balance may also miss by the rounding carried in the totals (noise), which
+// a direction of the equations with vanishing curvature — species forced to
+// zero, such as an oxidation state with nothing to reduce it — cannot absorb.
+func closeEnough(f, sc []float64, q int, noise float64) bool {
+	for k, v := range f {
+		if k < q && math.Abs(v) > tolStalled*sc[k]+noise+1e-300 || k >= q && math.Abs(v) > 1e3*tolLog {
 			return false
 		}
 	}
@@ -172,27 +215,48 @@ func (s *system) newton(pt *point, w *newtonWork, tr *trace) error {
 	if !s.evaluate(pt) {
 		return fmt.Errorf("the solvent amount is not positive (%g mol)", pt.amt[s.solvent])
 	}
+	w.pures = s.unknowns(pt, w.pures)
+	d := q + len(w.pures)
+	if pt.gasOn {
+		d++
+	}
+	w.grow(d, s.ns, q)
+	w.fix = s.meritScales(pt, d, w.fix)
 	for it := 0; ; it++ {
-		w.pures = s.unknowns(pt, w.pures)
-		d := q + len(w.pures)
-		if pt.gasOn {
-			d++
-		}
-		w.grow(d, s.ns, q)
-		phi := s.residual(pt, w.pures, w.f[:d], w.sc[:d])
+		s.residual(pt, w.pures, w.f[:d], w.sc[:d])
+		phi := merit(w.f[:d], w.fix)
 		if converged(w.f[:d], w.sc[:d], q) {
 			return nil
 		}
 		if it == maxNewton {
+			tr.dump(s, pt, w.f[:d], w.sc[:d])
 			return fmt.Errorf("%d Newton iterations (merit %.3g)", maxNewton, phi)
 		}
 		s.jacobian(pt, w, d)
-		if err := solveLinear(w, d); err != nil {
+		if err := solveLinear(w, d, false); err != nil {
 			return err
 		}
 		alpha, after, err := s.lineSearch(pt, w, d, phi)
 		if err != nil {
+			// The matrix may be too ill-conditioned for the plain solve:
+			// retry with the least-squares step.
+			s.residual(pt, w.pures, w.f[:d], w.sc[:d])
+			s.jacobian(pt, w, d)
+			if err := solveLinear(w, d, true); err != nil {
+				return err
+			}
+			alpha, after, err = s.lineSearch(pt, w, d, phi)
+		}
+		if err != nil && closeEnough(w.f[:d], w.sc[:d], q, s.noise) {
+			return nil
+		}
+		if err != nil {
+			s.residual(pt, w.pures, w.f[:d], w.sc[:d])
+			tr.dump(s, pt, w.f[:d], w.sc[:d])
 			return err
+		}
+		if (alpha < 1e-10 || after > 0.99*phi) && closeEnough(w.f[:d], w.sc[:d], q, s.noise) {
+			return nil
 		}
 		w.iter++
 		w.lastStep = alpha
@@ -218,7 +282,7 @@ func (w *newtonWork) grow(d, ns, q int) {
 // scale of the totals and the solvent stays positive.
 func (s *system) maxStep(pt *point, w *newtonWork) float64 {
 	q := len(s.rows)
-	alpha := 1.0
+	alpha := float64(maxExtend)
 	nw := pt.amt[s.solvent]
 	dnw := w.dx[q]
 	if dnw < 0 {
@@ -229,7 +293,7 @@ func (s *system) maxStep(pt *point, w *newtonWork) float64 {
 		if rate <= 0 {
 			continue
 		}
-		room := math.Max(s.logBig-pt.logAmt[i], 0) + stepGrow
+		room := math.Max(math.Log(s.ub[i])-pt.logAmt[i], 0) + stepGrow
 		alpha = math.Min(alpha, room/rate)
 	}
 	for _, g := range s.gas {
@@ -243,35 +307,79 @@ func (s *system) maxStep(pt *point, w *newtonWork) float64 {
 	return alpha
 }
 
+// trialMerit evaluates the point alpha along the Newton step into
+// w.trial; it returns +Inf when the point is not admissible.
+func (s *system) trialMerit(pt *point, w *newtonWork, d int, alpha float64) float64 {
+	q := len(s.rows)
+	tp := w.trial
+	tp.copyFrom(pt)
+	for k := 0; k < q; k++ {
+		tp.theta[k] += alpha * w.dx[k]
+	}
+	for k, i := range w.pures {
+		tp.amt[i] += alpha * w.dx[q+k]
+	}
+	if pt.gasOn {
+		tp.ng += alpha * w.dx[d-1]
+	}
+	if !s.evaluate(tp) {
+		return math.Inf(1)
+	}
+	// The merit scales are fixed for the whole Newton solve so that the
+	// merit is one function along it.
+	s.residual(tp, w.pures, w.rhs[:d], w.rs[:d])
+	return merit(w.rhs[:d], w.fix)
+}
+
 // lineSearch backtracks from the limited Newton step until the merit drops
 // (Armijo); it moves pt to the accepted point and returns the step length.
+// When the full step only shrinks the merit linearly (a species being driven
+// towards zero, where Newton on an exponential gains one ln unit per step),
+// it tries longer steps while they keep paying.
 func (s *system) lineSearch(pt *point, w *newtonWork, d int, phi float64) (alpha, after float64, err error) {
-	q := len(s.rows)
-	alpha = s.maxStep(pt, w)
-	tp := w.trial
-	f, sc := w.rhs[:d], w.rs[:d] // scratch: the Newton step is in dx
+	alpha = math.Min(1, s.maxStep(pt, w))
+	full := alpha == 1
 	for try := 0; try < maxBacktrak; try++ {
-		tp.copyFrom(pt)
-		for k := 0; k < q; k++ {
-			tp.theta[k] += alpha * w.dx[k]
-		}
-		for k, i := range w.pures {
-			tp.amt[i] += alpha * w.dx[q+k]
-		}
-		if pt.gasOn {
-			tp.ng += alpha * w.dx[d-1]
-		}
-		if s.evaluate(tp) {
-			// Scales are kept from the current point so that the merit is
-			// one function along the search.
-			s.residual(tp, w.pures, f, sc)
-			m := merit(f, w.sc[:d])
-			if m <= (1-2*armijo*alpha)*phi || m == 0 {
-				pt.copyFrom(tp)
-				return alpha, m, nil
+		m := s.trialMerit(pt, w, d, alpha)
+		if m <= (1-2*armijo*alpha)*phi || m == 0 {
+			pt.copyFrom(w.trial)
+			if full && try == 0 && m > 1e-3*phi {
+				alpha, m = s.extrapolate(pt, w, d, m)
 			}
+			return alpha, m, nil
 		}
 		alpha /= 2
 	}
 	return 0, phi, fmt.Errorf("%w (merit %.3g)", errStall, phi)
+}
+
+// extrapolate tries steps of 2, 4, … times the Newton step from the point
+// before pt (pt is the full step) and keeps the best while the merit at
+// least halves with each doubling. The step limit still applies.
+func (s *system) extrapolate(pt *point, w *newtonWork, d int, m float64) (float64, float64) {
+	q := len(s.rows)
+	base := newPointLike(pt)
+	base.copyFrom(pt)
+	// step back to the start so that trial points are start + alpha·dx
+	for k := 0; k < q; k++ {
+		base.theta[k] -= w.dx[k]
+	}
+	for k, i := range w.pures {
+		base.amt[i] -= w.dx[q+k]
+	}
+	if pt.gasOn {
+		base.ng -= w.dx[d-1]
+	}
+	s.evaluate(base)
+	limit := s.maxStep(base, w)
+	best := 1.0
+	for a := 2.0; a <= maxExtend && a <= limit; a *= 2 {
+		mt := s.trialMerit(base, w, d, a)
+		if !(mt < m/2) {
+			break
+		}
+		pt.copyFrom(w.trial)
+		best, m = a, mt
+	}
+	return best, m
 }

@@ -14,37 +14,42 @@ import (
 type rowSet struct {
 	q   [][]float64
 	rho []float64
-	mag []float64 // magnitude of the terms that made rho, for tolerances
+	mag []float64 // magnitude of the terms that made rho
+	nz  []float64 // rounding carried in rho
 }
 
 // dependentTol is the relative norm below which a row counts as a linear
 // combination of the rows before it.
 const dependentTol = 1e-9
 
-// add offers row r with right-hand side b. It returns whether r is
-// independent (then it is kept); for a dependent row it returns the
-// right-hand side the other rows imply and the scale to compare against.
-func (s *rowSet) add(r []float64, b float64) (indep bool, implied, scale float64) {
+// add offers row r with right-hand side b (rounded by noise). It returns
+// whether r is independent (then it is kept); for a dependent row it
+// returns the right-hand side the other rows imply and the tolerance within
+// which b must agree with it.
+func (s *rowSet) add(r []float64, b, noise float64) (indep bool, implied, tol float64) {
 	v := append([]float64(nil), r...)
 	rb := b
 	norm := math.Sqrt(dot(r, r))
+	scale, nz := math.Abs(b), noise
 	for k, q := range s.q {
 		c := dot(q, v)
 		axpy(v, -c, q)
 		rb -= c * s.rho[k]
 		implied += c * s.rho[k]
 		scale += math.Abs(c) * s.mag[k]
+		nz += math.Abs(c) * s.nz[k]
 	}
 	nv := math.Sqrt(dot(v, v))
 	if nv <= dependentTol*norm {
-		return false, implied, scale + math.Abs(b)
+		return false, implied, 1e-9*scale + nz + 1e-300
 	}
 	for i := range v {
 		v[i] /= nv
 	}
 	s.q = append(s.q, v)
 	s.rho = append(s.rho, rb/nv)
-	s.mag = append(s.mag, (scale+math.Abs(b))/nv)
+	s.mag = append(s.mag, scale/nv)
+	s.nz = append(s.nz, nz/nv)
 	return true, 0, 0
 }
 
@@ -70,7 +75,14 @@ type balanceRow struct {
 	rhs   float64
 	lock  int // constraint index, −1 for balances
 	scale float64
+	// noise is the size of the rounding in rhs: a row formed by subtracting
+	// a multiple of the solvent row inherits that row's rounding. Residuals
+	// below it are not meaningful.
+	noise float64
 }
+
+// roundoff is the relative rounding assumed in the totals (a few ulps).
+const roundoff = 1e-15
 
 // eliminate marks species that cannot be present because a component they
 // contain has a zero total and no species carries it negatively. It returns
@@ -115,7 +127,7 @@ func eliminate(p *Problem, off []bool) error {
 // balanceRows returns the independent component rows and the charge row (if
 // independent). A dependent row whose total disagrees with the others makes
 // the problem infeasible.
-func balanceRows(p *Problem, off []bool, set *rowSet) ([]balanceRow, error) {
+func balanceRows(p *Problem, off []bool, set *rowSet, solvent int) ([]balanceRow, error) {
 	ns := len(p.Species)
 	charge := make([]float64, ns)
 	for i, s := range p.Species {
@@ -123,39 +135,72 @@ func balanceRows(p *Problem, off []bool, set *rowSet) ([]balanceRow, error) {
 			charge[i] = float64(s.Charge)
 		}
 	}
+	comps := componentRows(p, off, solvent)
 	// The charge row goes first and the components follow by increasing
 	// total, so that a dependent row, which is only conserved through the
 	// others, is a large one: neutrality and trace components are then
 	// enforced directly, each to its own relative tolerance.
 	var rows []balanceRow
-	set.add(charge, 0)
+	set.add(charge, 0, 0)
 	rows = append(rows, balanceRow{name: "charge", coef: charge, lock: -1})
-	order := make([]int, len(p.Components))
-	for j := range order {
-		order[j] = j
+	sort.SliceStable(comps, func(a, b int) bool { return comps[a].scale < comps[b].scale })
+	for _, r := range comps {
+		indep, implied, tol := set.add(r.coef, r.rhs, r.noise)
+		if !indep {
+			if math.Abs(implied-r.rhs) > tol {
+				return nil, fmt.Errorf("equilibrium: the totals are inconsistent: %s is %g mol but with these species electroneutrality and the other totals tie it to %g mol: %w", r.name, r.rhs, implied, ErrInfeasible)
+			}
+			continue
+		}
+		rows = append(rows, r)
 	}
-	sort.SliceStable(order, func(a, b int) bool { return math.Abs(p.Totals[order[a]]) < math.Abs(p.Totals[order[b]]) })
-	for _, j := range order {
+	if dot(charge, charge) == 0 {
+		rows = rows[1:] // no charged species
+	}
+	return rows, nil
+}
+
+// componentRows returns one balance row per component, with the solvent
+// carried by one row only: every other row that contains the solvent has
+// that row's multiple subtracted (for water, "H" becomes "H beyond water",
+// H − 2·O). The big solvent amount then no longer swamps the balances of
+// acidity and oxidation state, which are enforced to their own scale. The
+// row carrying the solvent sorts last (scale = +Inf).
+func componentRows(p *Problem, off []bool, solvent int) []balanceRow {
+	ns := len(p.Species)
+	rows := make([]balanceRow, len(p.Components))
+	pivot := -1
+	for j, name := range p.Components {
 		r := make([]float64, ns)
 		for i := range p.Species {
 			if !off[i] {
 				r[i] = p.Species[i].Amounts[j]
 			}
 		}
-		name := p.Components[j]
-		indep, implied, scale := set.add(r, p.Totals[j])
-		if !indep {
-			if math.Abs(implied-p.Totals[j]) > 1e-9*scale+1e-300 {
-				return nil, fmt.Errorf("equilibrium: the totals are inconsistent: component %q has %g mol but with these species electroneutrality and the other totals tie it to %g mol: %w", name, p.Totals[j], implied, ErrInfeasible)
-			}
+		rows[j] = balanceRow{name: fmt.Sprintf("component %q", name), coef: r, rhs: p.Totals[j], lock: -1}
+		if r[solvent] != 0 && (pivot < 0 || math.Abs(p.Totals[j]) > math.Abs(p.Totals[pivot])) {
+			pivot = j
+		}
+	}
+	for j := range rows {
+		rows[j].scale = math.Abs(rows[j].rhs)
+		if pivot < 0 || j == pivot || rows[j].coef[solvent] == 0 {
 			continue
 		}
-		rows = append(rows, balanceRow{name: name, coef: r, rhs: p.Totals[j], lock: -1})
+		f := rows[j].coef[solvent] / rows[pivot].coef[solvent]
+		for i, v := range rows[pivot].coef {
+			rows[j].coef[i] -= f * v
+		}
+		rows[j].coef[solvent] = 0
+		rows[j].noise = roundoff * (math.Abs(rows[j].rhs) + math.Abs(f*rows[pivot].rhs))
+		rows[j].rhs -= f * rows[pivot].rhs
+		rows[j].scale = math.Abs(rows[j].rhs)
+		rows[j].name = fmt.Sprintf("component %q beyond what the solvent carries", p.Components[j])
 	}
-	if dot(charge, charge) == 0 {
-		rows = rows[1:] // no charged species
+	if pivot >= 0 {
+		rows[pivot].scale = math.Inf(1)
 	}
-	return rows, nil
+	return rows
 }
 
 // constraintRow builds the row of constraint k with the species that are

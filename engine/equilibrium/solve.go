@@ -19,7 +19,7 @@ func solve(p *Problem, tr *trace) (State, error) {
 	if off[solvent] {
 		return State{}, fmt.Errorf("equilibrium: the solvent %q contains a component with zero total: %w", p.Species[solvent].Name, ErrInfeasible)
 	}
-	base, err := balanceRows(p, off, &rowSet{})
+	base, err := balanceRows(p, off, &rowSet{}, solvent)
 	if err != nil {
 		return State{}, err
 	}
@@ -82,19 +82,19 @@ func (ls *lockSolver) rows() ([]balanceRow, error) {
 	set := &rowSet{}
 	rows := make([]balanceRow, 0, len(ls.base)+len(ls.active))
 	for _, r := range ls.base {
-		set.add(r.coef, r.rhs)
-		rows = append(rows, balanceRow{name: r.name, coef: r.coef, rhs: r.rhs, lock: -1})
+		set.add(r.coef, r.rhs, r.noise)
+		rows = append(rows, balanceRow{name: r.name, coef: r.coef, rhs: r.rhs, lock: -1, noise: r.noise})
 	}
 	kept := ls.active[:0]
 	for _, k := range ls.active {
 		r := constraintRow(ls.s.p, k, ls.s.off)
-		indep, implied, scale := set.add(r.coef, r.rhs)
+		indep, implied, tol := set.add(r.coef, r.rhs, roundoff*math.Abs(r.rhs))
 		if indep {
 			rows = append(rows, r)
 			kept = append(kept, k)
 			continue
 		}
-		if math.Abs(implied-r.rhs) > 1e-9*scale+1e-300 && !holds(ls.s.p.Constraints[k].Rel, implied, r.rhs, scale) {
+		if !holds(ls.s.p.Constraints[k].Rel, implied, r.rhs, tol) {
 			return nil, fmt.Errorf("equilibrium: constraint %q cannot hold: the totals fix its left side at %g against the bound %g: %w", r.name, implied, r.rhs, ErrInfeasible)
 		}
 	}
@@ -102,8 +102,7 @@ func (ls *lockSolver) rows() ([]balanceRow, error) {
 	return rows, nil
 }
 
-func holds(rel Relation, v, bound, scale float64) bool {
-	tol := 1e-9*scale + 1e-300
+func holds(rel Relation, v, bound, tol float64) bool {
 	switch rel {
 	case AtMost:
 		return v <= bound+tol
@@ -258,7 +257,7 @@ func (ls *lockSolver) update(pt *point) string {
 			v += a * pt.amt[i]
 			scale += math.Abs(a * pt.amt[i])
 		}
-		if !holds(c.Rel, v, c.Bound, scale) {
+		if !holds(c.Rel, v, c.Bound, 1e-9*scale+1e-300) {
 			ls.active = append(ls.active, k)
 			added = append(added, c.Name+" added")
 		}
@@ -291,4 +290,26 @@ func (ls *lockSolver) update(pt *point) string {
 	}
 	ls.active = kept
 	return p.Constraints[drop].Name + " dropped"
+}
+
+// dump notes the residuals of a failed Newton solve.
+func (t *trace) dump(s *system, pt *point, f, sc []float64) {
+	if t == nil {
+		return
+	}
+	for k, v := range f {
+		name := "saturation/gas"
+		if k < len(s.rows) {
+			name = s.rows[k].name
+		}
+		t.note("row %d %s: residual %.3g scale %.3g theta %.4g", k, name, v, sc[k], func() float64 {
+			if k < len(pt.theta) {
+				return pt.theta[k]
+			}
+			return 0
+		}())
+	}
+	for i := range pt.amt {
+		t.note("  %s n=%.4g log=%.4g", s.p.Species[i].Name, pt.amt[i], pt.logAmt[i])
+	}
 }

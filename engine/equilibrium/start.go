@@ -9,6 +9,10 @@ import (
 	"gonum.org/v1/gonum/optimize/convex/lp"
 )
 
+// traceMolality is where the start places species the starting
+// composition does not contain (mol/kg, or bar for gases).
+const traceMolality = 1e-10
+
 // lpStart returns the composition of least Σ nᵢ μ°ᵢ/RT under the equality
 // rows, ignoring mixing: the dominant species of the equilibrium. It returns
 // an ErrInfeasible error when no composition with amounts ≥ 0 meets them.
@@ -49,6 +53,10 @@ func (s *system) lpStart() ([]float64, error) {
 	for j, i := range cols {
 		n[i] = math.Max(x[j], 0)
 	}
+	if n[s.solvent] <= 1e-9*math.Exp(s.logBig) {
+		return nil, fmt.Errorf("equilibrium: the reactions would use up the solvent %q (with no mixing terms the least-Gibbs-energy composition keeps %.3g mol of it); "+
+			"there is no aqueous phase left to solve for: give more water or lock the reaction that consumes it: %w", s.p.Species[s.solvent].Name, n[s.solvent], ErrInfeasible)
+	}
 	return n, nil
 }
 
@@ -67,7 +75,7 @@ func (s *system) startFrom(n []float64, gamma float64) *point {
 	for _, g := range s.gas {
 		ng += n[g]
 	}
-	ata := mat.NewSymDense(q, nil)
+	ata := mat.NewSymDense(q, nil) // normal equations of the fit
 	atb := make([]float64, q)
 	addEq := func(i int, target, weight float64) {
 		idx, val := s.colIdx[i], s.colVal[i]
@@ -87,12 +95,19 @@ func (s *system) startFrom(n []float64, gamma float64) *point {
 			addEq(i, s.p.Species[i].Mu0, 100)
 		}
 	}
+	// Species in the composition are fitted; the others get a weak pull
+	// towards a trace molality, which settles the directions the
+	// composition leaves free without pushing any species far from the
+	// scale of the totals.
+	tiny := 1e-12 * scale
 	for _, i := range s.aq {
-		if n[i] > 0 {
+		if n[i] > tiny {
 			addEq(i, s.p.Species[i].Mu0+s.z2[i]*gamma+math.Log(n[i]/(nw*MolarMassWater)), 1)
+		} else {
+			addEq(i, s.p.Species[i].Mu0+s.z2[i]*gamma+math.Log(traceMolality), 1e-4)
 		}
 	}
-	if ng > 0 {
+	if ng > 1e-9*scale {
 		pt.gasOn, pt.ng = true, ng
 		for _, g := range s.gas {
 			if n[g] > 0 {
@@ -100,21 +115,68 @@ func (s *system) startFrom(n []float64, gamma float64) *point {
 			}
 		}
 	}
-	ridge := 0.0
-	for k := 0; k < q; k++ {
-		ridge = math.Max(ridge, ata.At(k, k))
+	if !pt.gasOn {
+		for _, g := range s.gas {
+			addEq(g, s.p.Species[g].Mu0+math.Log(traceMolality), 1e-4)
+		}
 	}
-	for k := 0; k < q; k++ {
-		ata.SetSym(k, k, ata.At(k, k)+1e-8*ridge+1e-300)
-	}
-	var ch mat.Cholesky
-	if ch.Factorize(ata) {
-		x := mat.NewVecDense(q, pt.theta)
-		if err := ch.SolveVecTo(x, mat.NewVecDense(q, atb)); err != nil {
-			for k := range pt.theta {
-				pt.theta[k] = 0
+	// Repair: a species the fit puts far above what the totals allow gets
+	// an equation holding it at a thousandth of its bound, and the fit is
+	// repeated (a few rounds at most).
+	for round := 0; ; round++ {
+		solveNormal(ata, atb, pt.theta)
+		if round == 3 {
+			break
+		}
+		repaired := false
+		for _, i := range append(s.aq, s.gas...) {
+			if n[i] > tiny || (pt.gasOn && s.p.Species[i].Phase == Gas) {
+				continue
 			}
+			lnBound := math.Log(s.ub[i] * 1e-3)
+			ln := s.potential(i, pt.theta) - s.p.Species[i].Mu0
+			if s.p.Species[i].Phase == Aqueous {
+				ln += math.Log(nw*MolarMassWater) - s.z2[i]*gamma
+			} else {
+				ln += math.Log(math.Max(ng, s.ub[i])) - s.lnP
+			}
+			if ln > lnBound+1 {
+				addEq(i, s.potential(i, pt.theta)-(ln-lnBound), 1)
+				repaired = true
+			}
+		}
+		if !repaired {
+			break
 		}
 	}
 	return pt
+}
+
+// solveNormal solves the normal equations with a small ridge; theta is left
+// at zero when they cannot be solved.
+func solveNormal(ata *mat.SymDense, atb, theta []float64) {
+	q := len(theta)
+	a := mat.NewSymDense(q, nil)
+	a.CopySym(ata)
+	ridge := 0.0
+	for k := 0; k < q; k++ {
+		ridge = math.Max(ridge, a.At(k, k))
+	}
+	for k := 0; k < q; k++ {
+		a.SetSym(k, k, a.At(k, k)+1e-8*ridge+1e-300)
+	}
+	var ch mat.Cholesky
+	x := mat.NewVecDense(q, theta)
+	if !ch.Factorize(a) {
+		x.Zero()
+		return
+	}
+	if err := ch.SolveVecTo(x, mat.NewVecDense(q, atb)); err != nil {
+		for _, v := range theta {
+			if !finite(v) {
+				x.Zero()
+				return
+			}
+		}
+	}
 }

@@ -15,8 +15,12 @@ type system struct {
 	aq, gas []int     // aqueous and gas species that are not off
 	pure    []int     // pure species that are not off (solvent excluded)
 	logBig  float64   // ln of the largest amount scale of the problem
+	// ub is an upper bound on each species amount from the totals of the
+	// components that every species carries with a coefficient ≥ 0.
+	ub []float64
 
-	rows []balanceRow
+	rows  []balanceRow
+	noise float64 // largest rounding carried by a row's right-hand side
 	// Sparse columns over rows: colIdx[i], colVal[i] list the nonzero rows
 	// of species i.
 	colIdx [][]int
@@ -32,6 +36,7 @@ func newSystem(p *Problem, solvent int, off []bool) *system {
 		big = math.Max(big, math.Abs(t))
 	}
 	s.logBig = math.Log(big)
+	s.ub = upperBounds(p, off, big)
 	for i, sp := range p.Species {
 		if off[i] {
 			continue
@@ -52,10 +57,16 @@ func newSystem(p *Problem, solvent int, off []bool) *system {
 // setRows installs the equality rows and rebuilds the sparse columns.
 func (s *system) setRows(rows []balanceRow) {
 	s.rows = rows
+	s.noise = 0
+	for _, r := range rows {
+		s.noise = math.Max(s.noise, r.noise)
+	}
 	s.colIdx = make([][]int, s.ns)
 	s.colVal = make([][]float64, s.ns)
 	for k := range rows {
-		sc := math.Abs(rows[k].rhs)
+		// The merit scale: |rhs| plus the amounts (added in residual),
+		// and never finer than the rounding in rhs allows.
+		sc := math.Abs(rows[k].rhs) + math.Max(rows[k].noise, roundoff*math.Abs(rows[k].rhs))/tolBalance
 		for i, v := range rows[k].coef {
 			if v != 0 {
 				s.colIdx[i] = append(s.colIdx[i], k)
@@ -91,6 +102,10 @@ func newPoint(ns, nrows int) *point {
 		logAmt: make([]float64, ns), present: make([]bool, ns)}
 }
 
+func newPointLike(o *point) *point {
+	return newPoint(len(o.amt), len(o.theta))
+}
+
 func (pt *point) copyFrom(o *point) {
 	pt.theta = append(pt.theta[:0], o.theta...)
 	copy(pt.amt, o.amt)
@@ -99,9 +114,10 @@ func (pt *point) copyFrom(o *point) {
 	pt.gasOn, pt.ng, pt.gamma = o.gasOn, o.ng, o.gamma
 }
 
-// expCap keeps exp from overflowing; amounts beyond e^expCap mol are
-// rejected by the line search long before they matter.
-const expCap = 700
+// expCap keeps exp, and the squares of amounts in the Newton matrix, from
+// overflowing: amounts beyond e^230 (1e100) mol are never meaningful and
+// the line search rejects such points.
+const expCap = 230
 
 // evaluate sets the aqueous and gas amounts from theta. It reports false
 // when the solvent amount is not positive.
@@ -140,8 +156,9 @@ func (s *system) unknowns(pt *point, dst []int) []int {
 }
 
 // residual fills f with the balance, saturation and gas equations and sc
-// with their scales; it returns the merit ½Σ(f/sc)².
-func (s *system) residual(pt *point, pures []int, f, sc []float64) float64 {
+// with their scales (|rhs| plus the amounts in the row, floored by the
+// rounding of rhs; 1 for the equations in log units).
+func (s *system) residual(pt *point, pures []int, f, sc []float64) {
 	q := len(s.rows)
 	for k := range s.rows {
 		f[k] = -s.rows[k].rhs
@@ -163,14 +180,26 @@ func (s *system) residual(pt *point, pures []int, f, sc []float64) float64 {
 		sc[q+k] = 1
 	}
 	if pt.gasOn {
-		sum := -1.0
-		for _, g := range s.gas {
-			sum += math.Exp(math.Min(pt.logAmt[g], expCap))
-		}
-		f[q+len(pures)] = sum
+		f[q+len(pures)] = s.gasLogSum(pt)
 		sc[q+len(pures)] = 1
 	}
-	return merit(f, sc)
+}
+
+// gasLogSum returns ln Σ x_g, the log of the summed partial pressures over
+// the ambient pressure.
+func (s *system) gasLogSum(pt *point) float64 {
+	m := math.Inf(-1)
+	for _, g := range s.gas {
+		m = math.Max(m, pt.logAmt[g])
+	}
+	if math.IsInf(m, -1) {
+		return m
+	}
+	sum := 0.0
+	for _, g := range s.gas {
+		sum += math.Exp(pt.logAmt[g] - m)
+	}
+	return m + math.Log(sum)
 }
 
 func merit(f, sc []float64) float64 {
@@ -180,4 +209,49 @@ func merit(f, sc []float64) float64 {
 		m += r * r
 	}
 	return m / 2
+}
+
+func upperBounds(p *Problem, off []bool, big float64) []float64 {
+	ub := make([]float64, len(p.Species))
+	for i := range ub {
+		ub[i] = 10 * big
+	}
+	for j := range p.Components {
+		nonneg := true
+		for i, sp := range p.Species {
+			nonneg = nonneg && (off[i] || sp.Amounts[j] >= 0)
+		}
+		if !nonneg {
+			continue
+		}
+		for i, sp := range p.Species {
+			if a := sp.Amounts[j]; a > 0 {
+				ub[i] = math.Min(ub[i], math.Max(p.Totals[j], 0)/a)
+			}
+		}
+	}
+	return ub
+}
+
+// meritScales fills fix with the scales of the merit for one Newton solve:
+// like residual's scales, with each amount capped by its upper bound so
+// that a wild start cannot make the merit blind.
+func (s *system) meritScales(pt *point, d int, fix []float64) []float64 {
+	fix = fix[:0]
+	for k := range s.rows {
+		fix = append(fix, s.rows[k].scale)
+	}
+	for i := 0; i < s.ns; i++ {
+		n := math.Min(math.Abs(pt.amt[i]), s.ub[i])
+		if n == 0 {
+			continue
+		}
+		for k, r := range s.colIdx[i] {
+			fix[r] += math.Abs(s.colVal[i][k] * n)
+		}
+	}
+	for len(fix) < d {
+		fix = append(fix, 1)
+	}
+	return fix
 }
