@@ -38,6 +38,10 @@ const (
 type Rule struct {
 	Dir   Direction
 	Group Group
+	// AcidTo, when set, lets a no-gain group grow by the strong acid the mix
+	// as combined holds above that pH (one atom per proton): hydrogen from
+	// metals in acid until the acid is spent, not beyond.
+	AcidTo *float64
 }
 
 // Group selects atoms: of an element within an oxidation-state range, of an
@@ -188,11 +192,19 @@ func parseRule(s string) (Rule, error) {
 	default:
 		return Rule{}, fmt.Errorf("rule %q: %q is not no-gain, no-loss or fixed", s, dir)
 	}
+	rest, acid, hasAcid := strings.Cut(strings.TrimSpace(rest), " + acid to ph ")
 	g, err := parseGroup(strings.TrimSpace(rest))
 	if err != nil {
 		return Rule{}, err
 	}
 	r.Group = g
+	if hasAcid {
+		v, err := strconv.ParseFloat(acid, 64)
+		if err != nil || r.Dir != NoGain || v < 0 || v > 14 {
+			return Rule{}, fmt.Errorf("rule %q: \"+ acid to ph N\" goes with no-gain and a pH from 0 to 14", s)
+		}
+		r.AcidTo = &v
+	}
 	return r, nil
 }
 

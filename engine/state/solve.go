@@ -73,7 +73,11 @@ func (m *Model) solveFrom(mx *Mix, n0 []float64, combined *State, volL float64, 
 		}
 	}
 	var best *State
-	for _, cons := range constraintSets(mx, applied, n0) {
+	sets, err := m.constraintSets(mx, applied, n0, combined, volL)
+	if err != nil {
+		return nil, err
+	}
+	for _, cons := range sets {
 		st, err := m.solve(mx, n0, false, cons, volL)
 		if err != nil {
 			return nil, err
@@ -107,7 +111,7 @@ func (m *Model) env(mx *Mix, s *State, volL float64) Env {
 
 // constraintSets lists the constraint sets to try: every combination of the
 // alternatives of two-way locks (one set when there are none).
-func constraintSets(mx *Mix, locks []*Lock, n0 []float64) [][]lockRule {
+func (m *Model) constraintSets(mx *Mix, locks []*Lock, n0 []float64, combined *State, volL float64) ([][]lockRule, error) {
 	sets := [][]lockRule{nil}
 	for _, l := range locks {
 		if vacuous(mx, l, n0) {
@@ -116,13 +120,20 @@ func constraintSets(mx *Mix, locks []*Lock, n0 []float64) [][]lockRule {
 		var next [][]lockRule
 		for k, r := range l.Rules {
 			c := lockRule{c: ruleConstraint(mx, l.ID+"#"+strconv.Itoa(k), r, n0), g: r.Group}
+			if r.AcidTo != nil && combined.PH < *r.AcidTo {
+				x, err := m.titrate(mx, n0, volL, *r.AcidTo)
+				if err != nil {
+					return nil, fmt.Errorf("lock %s: %w", l.ID, err)
+				}
+				c.c.Bound += -x // base needed to reach the pH: the acid that can be spent
+			}
 			for _, s := range sets {
 				next = append(next, append(append([]lockRule(nil), s...), c))
 			}
 		}
 		sets = next
 	}
-	return sets
+	return sets, nil
 }
 
 // vacuous reports whether a lock cannot hold anything back in n0: a single

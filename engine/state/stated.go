@@ -28,47 +28,53 @@ func standIn(el string, z int) *thermo.Species {
 func IsStandIn(sp *thermo.Species) bool { return sp == standInAnion || sp == standInCation }
 
 // fitPH adds to n0 the stand-in strong acid (x > 0 mol) or base (x < 0) that
-// brings the solution as combined to pH target, by bisection on asinh(x).
+// brings the solution as combined to pH target.
 func (m *Model) fitPH(mx *Mix, n0 []float64, volL, target float64) ([]float64, error) {
-	idx := map[*thermo.Species]int{}
+	x, err := m.titrate(mx, n0, volL, target)
+	if err != nil {
+		return nil, err
+	}
+	return m.withAcid(mx, n0, x), nil
+}
+
+// withAcid is n0 with x mol of the stand-in strong acid (x > 0) or base
+// (x < 0) added.
+func (m *Model) withAcid(mx *Mix, n0 []float64, x float64) []float64 {
+	n := append([]float64(nil), n0...)
 	for i, sp := range mx.Species {
-		idx[sp] = i
-	}
-	h, _ := m.DB.Get("H+")
-	oh, _ := m.DB.Get("OH-")
-	with := func(x float64) []float64 {
-		n := append([]float64(nil), n0...)
-		if x > 0 {
-			n[idx[h]] += x
-			n[idx[standInAnion]] += x
-		} else {
-			n[idx[oh]] -= x
-			n[idx[standInCation]] -= x
+		switch {
+		case x > 0 && (sp.Text == "H+" || sp == standInAnion):
+			n[i] += x
+		case x < 0 && (sp.Text == "OH-" || sp == standInCation):
+			n[i] -= x
 		}
-		return n
 	}
+	return n
+}
+
+// titrate finds the mol of stand-in strong acid (> 0) or base (< 0) that
+// brings the solution as combined to pH target, by bisection on asinh(x).
+func (m *Model) titrate(mx *Mix, n0 []float64, volL, target float64) (float64, error) {
 	limit := math.Asinh(20 * volL) // up to 20 mol/L of acid or base
 	lo, hi := -limit, limit        // pH falls as x rises
-	var best []float64
+	mid := 0.0
 	for it := 0; it < 60 && hi-lo > 1e-7; it++ {
-		mid := (lo + hi) / 2
-		n := with(math.Sinh(mid))
-		s, err := m.solve(mx, n, true, nil, volL)
+		mid = (lo + hi) / 2
+		s, err := m.solve(mx, m.withAcid(mx, n0, math.Sinh(mid)), true, nil, volL)
 		if err != nil {
-			return nil, fmt.Errorf("fitting the stated pH %g: %w", target, err)
+			return 0, fmt.Errorf("fitting the stated pH %g: %w", target, err)
 		}
-		best = n
 		switch d := s.PH - target; {
 		case math.Abs(d) < 0.002:
-			return n, nil
+			return math.Sinh(mid), nil
 		case d > 0:
 			lo = mid
 		default:
 			hi = mid
 		}
 	}
-	if best == nil {
-		return nil, fmt.Errorf("the stated pH %g cannot be reached", target)
+	if mid <= -limit+1e-6 || mid >= limit-1e-6 {
+		return 0, fmt.Errorf("the stated pH %g cannot be reached", target)
 	}
-	return best, nil
+	return math.Sinh(mid), nil
 }
