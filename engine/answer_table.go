@@ -218,7 +218,9 @@ func (e *Engine) finish(res *Result, m *mixture, mx *state.Mix) {
 	}
 	cin := CaveatInput{Present: hin.Present, Chemicals: m.chemicals, Oxidizer: res.Oxidizer, Reducer: res.Reducer,
 		Reaction: res.Reaction, PH: res.Conditions.PH, Alternatives: res.Alternatives}
-	if res.ECell != nil {
+	// A change found in the mixed state is not a verdict on the edge: the
+	// close-call caveats belong to a pair judged by the table alone.
+	if res.ECell != nil && len(res.Steps) == 0 {
 		cin.ECell, cin.HasECell = *res.ECell, true
 	}
 	res.Caveats = Caveats(cin)
