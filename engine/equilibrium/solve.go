@@ -156,7 +156,7 @@ func (ls *lockSolver) solveRound(prevPt *point, prevRows []balanceRow) (*point, 
 	case prevPt != nil:
 		pt = remap(prevPt, prevRows, s.rows)
 	case len(s.p.Start) > 0:
-		pt = s.startFrom(s.p.Start, 0)
+		pt = s.startFrom(s.p.Start)
 	}
 	if pt != nil {
 		err := s.solveGamma(pt, &ls.w, ls.tr)
@@ -173,7 +173,7 @@ func (ls *lockSolver) solveRound(prevPt *point, prevRows []balanceRow) (*point, 
 		ls.tr.note("linear-programming start failed: %v", err)
 		n = s.crudeStart()
 	}
-	pt = s.startFrom(n, 0)
+	pt = s.startFrom(n)
 	if err := s.solveGamma(pt, &ls.w, ls.tr); err != nil {
 		if errors.Is(err, ErrNoConvergence) || errors.Is(err, ErrInfeasible) {
 			return nil, fmt.Errorf("equilibrium: %v", err)

@@ -64,13 +64,17 @@ func (s *system) lpStart() ([]float64, error) {
 // reproduce the chemical potentials of the species present (weighted least
 // squares with a small ridge for directions the composition leaves free),
 // the pure phases present in it, and the gas phase when a gas is present.
-func (s *system) startFrom(n []float64, gamma float64) *point {
+func (s *system) startFrom(n []float64) *point {
 	q := len(s.rows)
 	pt := newPoint(s.ns, q)
-	pt.gamma = gamma
 	scale := math.Exp(s.logBig)
 	nw := math.Max(n[s.solvent], 1e-6*scale)
 	pt.amt[s.solvent] = nw
+	for _, i := range s.aq {
+		pt.amt[i] = n[i]
+	}
+	gamma := daviesLn(s.daviesA, s.ionic(pt))
+	pt.gamma = gamma
 	ng := 0.0
 	for _, g := range s.gas {
 		ng += n[g]
