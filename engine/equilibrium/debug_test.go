@@ -7,6 +7,7 @@ import (
 	"math"
 	"os"
 	"strconv"
+	"syscall"
 	"testing"
 	"time"
 )
@@ -218,5 +219,44 @@ func TestDebugWarm(t *testing.T) {
 		tr := &trace{}
 		st2, err := solve(&q, tr)
 		t.Logf("n=%d cold iters %d warm iters=%d err=%v notes=%v", n, st.Iterations, st2.Iterations, err, tr.notes)
+	}
+}
+
+func cpuNow() time.Duration {
+	var ru syscall.Rusage
+	syscall.Getrusage(syscall.RUSAGE_SELF, &ru)
+	return time.Duration(ru.Utime.Nano() + ru.Stime.Nano())
+}
+
+func TestDebugCPU(t *testing.T) {
+	if os.Getenv("DBGS") == "" {
+		t.Skip()
+	}
+	for _, n := range []int{20, 40, 80, 160} {
+		p := complexProblem(n, 1)
+		st, _ := Solve(p)
+		q := nearby(p)
+		q.Start = st.Amount
+		const reps = 200
+		c0 := cpuNow()
+		for k := 0; k < reps; k++ {
+			Solve(p)
+		}
+		c1 := cpuNow()
+		for k := 0; k < reps; k++ {
+			Solve(q)
+		}
+		c2 := cpuNow()
+		solvent, _ := validate(&p)
+		off := make([]bool, len(p.Species))
+		eliminate(&p, off)
+		base, _ := balanceRows(&p, off, &rowSet{}, solvent)
+		s := newSystem(&p, solvent, off)
+		s.setRows(base)
+		for k := 0; k < reps; k++ {
+			s.lpStart()
+		}
+		c3 := cpuNow()
+		t.Logf("n=%d cold %v warm %v lp %v (CPU per solve)", len(p.Species), (c1-c0)/reps, (c2-c1)/reps, (c3-c2)/reps)
 	}
 }
