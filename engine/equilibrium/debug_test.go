@@ -7,7 +7,9 @@ import (
 	"math"
 	"os"
 	"strconv"
+	"syscall"
 	"testing"
+	"time"
 )
 
 func TestDebugOne(t *testing.T) {
@@ -63,7 +65,7 @@ func TestDebugStart(t *testing.T) {
 	}
 	n, err := s.lpStart()
 	t.Logf("lp %v %v", n, err)
-	pt := s.startFrom(n, 0)
+	pt := s.startFrom(n)
 	s.evaluate(pt)
 	t.Logf("theta %v", pt.theta)
 	for i := range pt.amt {
@@ -105,11 +107,11 @@ func TestDebugCond(t *testing.T) {
 	s := newSystem(&p, solvent, off)
 	s.setRows(base)
 	n, _ := s.lpStart()
-	pt := s.startFrom(n, 0)
+	pt := s.startFrom(n)
 	var w newtonWork
 	err = s.solveGamma(pt, &w, nil)
 	t.Logf("err %v svd %d iters %d", err, w.svdUsed, w.iter)
-	t.Logf("cond %g", w.lu.Cond())
+
 }
 
 func TestDebugNull(t *testing.T) {
@@ -125,7 +127,7 @@ func TestDebugNull(t *testing.T) {
 	s := newSystem(&p, solvent, off)
 	s.setRows(base)
 	n, _ := s.lpStart()
-	pt := s.startFrom(n, 0)
+	pt := s.startFrom(n)
 	var w newtonWork
 	err = s.solveGamma(pt, &w, nil)
 	q := len(s.rows)
@@ -176,5 +178,85 @@ func TestDebugNull(t *testing.T) {
 			row += fmt.Sprintf("%9.2e ", jac[r*d+c])
 		}
 		t.Log(row)
+	}
+}
+
+func TestDebugSpeed(t *testing.T) {
+	if os.Getenv("DBGS") == "" {
+		t.Skip()
+	}
+	for _, n := range []int{20, 40, 80, 160} {
+		p := complexProblem(n, 1)
+		tr := &trace{}
+		st, err := solve(&p, tr)
+		t.Logf("n=%d comps=%d err=%v iters=%d notes=%d", len(p.Species), len(p.Components), err, st.Iterations, len(tr.notes))
+		for _, no := range tr.notes {
+			t.Log("   ", no)
+		}
+		solvent, _ := validate(&p)
+		off := make([]bool, len(p.Species))
+		eliminate(&p, off)
+		base, _ := balanceRows(&p, off, &rowSet{}, solvent)
+		s := newSystem(&p, solvent, off)
+		s.setRows(base)
+		t0 := time.Now()
+		for k := 0; k < 20; k++ {
+			s.lpStart()
+		}
+		t.Logf("   lp %v", time.Since(t0)/20)
+	}
+}
+
+func TestDebugWarm(t *testing.T) {
+	if os.Getenv("DBGS") == "" {
+		t.Skip()
+	}
+	for _, n := range []int{20, 40, 80, 160} {
+		p := complexProblem(n, 1)
+		st, _ := Solve(p)
+		q := nearby(p)
+		q.Start = st.Amount
+		tr := &trace{}
+		st2, err := solve(&q, tr)
+		t.Logf("n=%d cold iters %d warm iters=%d err=%v notes=%v", n, st.Iterations, st2.Iterations, err, tr.notes)
+	}
+}
+
+func cpuNow() time.Duration {
+	var ru syscall.Rusage
+	syscall.Getrusage(syscall.RUSAGE_SELF, &ru)
+	return time.Duration(ru.Utime.Nano() + ru.Stime.Nano())
+}
+
+func TestDebugCPU(t *testing.T) {
+	if os.Getenv("DBGS") == "" {
+		t.Skip()
+	}
+	for _, n := range []int{20, 40, 80, 160} {
+		p := complexProblem(n, 1)
+		st, _ := Solve(p)
+		q := nearby(p)
+		q.Start = st.Amount
+		const reps = 200
+		c0 := cpuNow()
+		for k := 0; k < reps; k++ {
+			Solve(p)
+		}
+		c1 := cpuNow()
+		for k := 0; k < reps; k++ {
+			Solve(q)
+		}
+		c2 := cpuNow()
+		solvent, _ := validate(&p)
+		off := make([]bool, len(p.Species))
+		eliminate(&p, off)
+		base, _ := balanceRows(&p, off, &rowSet{}, solvent)
+		s := newSystem(&p, solvent, off)
+		s.setRows(base)
+		for k := 0; k < reps; k++ {
+			s.lpStart()
+		}
+		c3 := cpuNow()
+		t.Logf("n=%d cold %v warm %v lp %v (CPU per solve)", len(p.Species), (c1-c0)/reps, (c2-c1)/reps, (c3-c2)/reps)
 	}
 }

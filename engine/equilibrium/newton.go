@@ -5,6 +5,9 @@ import (
 	"fmt"
 	"math"
 
+	"gonum.org/v1/gonum/blas"
+	"gonum.org/v1/gonum/blas/blas64"
+	"gonum.org/v1/gonum/lapack/lapack64"
 	"gonum.org/v1/gonum/mat"
 )
 
@@ -27,11 +30,12 @@ type newtonWork struct {
 	pures    []int
 	f, sc    []float64
 	fix      []float64 // merit scales, fixed for one Newton solve
-	jac      []float64
+	jac, fac []float64
+	ipiv     []int
+	ref      []float64
 	rhs, dx  []float64
 	rs, cs   []float64
 	trial    *point
-	lu       mat.LU
 	iter     int
 	svdUsed  int
 	lastStep float64
@@ -117,29 +121,15 @@ func solveLinear(w *newtonWork, d int, useSVD bool) error {
 		}
 		w.rhs[r] = -w.f[r] * rs[r]
 	}
-	a := mat.NewDense(d, d, jac)
-	b := mat.NewVecDense(d, w.rhs[:d])
-	x := mat.NewVecDense(d, w.dx[:d])
-	var err error
+	x := w.dx[:d]
 	if !useSVD {
-		w.lu.Factorize(a)
-		err = w.lu.SolveVecTo(x, false, b)
-		if err != nil && (!finiteVec(x) || w.lu.Cond() > 1e15) {
-			useSVD = true
-		}
+		useSVD = !luSolve(w, d)
 	}
 	if useSVD {
 		w.svdUsed++
-		if err := solveSVD(a, b, x); err != nil {
+		a := mat.NewDense(d, d, jac)
+		if err := solveSVD(a, mat.NewVecDense(d, w.rhs[:d]), mat.NewVecDense(d, x)); err != nil {
 			return err
-		}
-	} else {
-		// One step of iterative refinement.
-		var r, dx mat.VecDense
-		r.MulVec(a, x)
-		r.SubVec(b, &r)
-		if w.lu.SolveVecTo(&dx, false, &r) == nil {
-			x.AddVec(x, &dx)
 		}
 	}
 	for c := 0; c < d; c++ {
@@ -151,13 +141,47 @@ func solveLinear(w *newtonWork, d int, useSVD bool) error {
 	return nil
 }
 
-func finiteVec(x *mat.VecDense) bool {
-	for i := 0; i < x.Len(); i++ {
-		if !finite(x.AtVec(i)) {
+// luSolve solves the equilibrated system in w by LU with partial pivoting
+// and one step of iterative refinement. It reports false when the matrix is
+// numerically singular (pivot ratio below 1e-15), leaving the choice of a
+// least-squares step to the caller.
+func luSolve(w *newtonWork, d int) bool {
+	fac := w.fac[:d*d]
+	copy(fac, w.jac[:d*d])
+	g := blas64.General{Rows: d, Cols: d, Stride: d, Data: fac}
+	ipiv := w.ipiv[:d]
+	if !lapack64.Getrf(g, ipiv) {
+		return false
+	}
+	lo, hi := math.Inf(1), 0.0
+	for i := 0; i < d; i++ {
+		v := math.Abs(fac[i*d+i])
+		lo, hi = math.Min(lo, v), math.Max(hi, v)
+	}
+	if !(lo > 1e-15*hi) {
+		return false
+	}
+	x := w.dx[:d]
+	copy(x, w.rhs[:d])
+	lapack64.Getrs(blas.NoTrans, g, blas64.General{Rows: d, Cols: 1, Stride: 1, Data: x}, ipiv)
+	// r = b − A·x, then x += A⁻¹ r
+	r := w.ref[:d]
+	copy(r, w.rhs[:d])
+	blas64.Gemv(blas.NoTrans, -1, g0(w, d), blas64.Vector{N: d, Inc: 1, Data: x}, 1, blas64.Vector{N: d, Inc: 1, Data: r})
+	lapack64.Getrs(blas.NoTrans, g, blas64.General{Rows: d, Cols: 1, Stride: 1, Data: r}, ipiv)
+	for i := range x {
+		x[i] += r[i]
+	}
+	for _, v := range x {
+		if !finite(v) {
 			return false
 		}
 	}
 	return true
+}
+
+func g0(w *newtonWork, d int) blas64.General {
+	return blas64.General{Rows: d, Cols: d, Stride: d, Data: w.jac[:d*d]}
 }
 
 func solveSVD(a *mat.Dense, b, x *mat.VecDense) error {
@@ -195,6 +219,17 @@ func converged(f, sc []float64, q int) bool {
 	return true
 }
 
+// updateGamma sets ln γ per z² from the ionic strength of pt and reports
+// whether it moved by more than the tolerance.
+func (s *system) updateGamma(pt *point) bool {
+	g := daviesLn(s.daviesA, s.ionic(pt))
+	if math.Abs(g-pt.gamma) <= tolGamma {
+		return false
+	}
+	pt.gamma = g
+	return true
+}
+
 // closeEnough is the looser test applied when rounding stops progress: a
 // balance may also miss by the rounding carried in the totals (noise), which
 // a direction of the equations with vanishing curvature — species forced to
@@ -222,12 +257,24 @@ func (s *system) newton(pt *point, w *newtonWork, tr *trace) error {
 	}
 	w.grow(d, s.ns, q)
 	w.fix = s.meritScales(pt, d, w.fix)
+	nearby := false
 	for it := 0; ; it++ {
+		// Once the balances are nearly met, the activity coefficients
+		// follow the ionic strength at every iteration (a fixed point
+		// inside Newton); the outer loop in solveGamma only confirms it.
+		if nearby && s.updateGamma(pt) {
+			s.evaluate(pt)
+		}
 		s.residual(pt, w.pures, w.f[:d], w.sc[:d])
 		phi := merit(w.f[:d], w.fix)
 		if converged(w.f[:d], w.sc[:d], q) {
+			if s.updateGamma(pt) {
+				nearby = true
+				continue
+			}
 			return nil
 		}
+		nearby = phi < 1e-6
 		if it == maxNewton {
 			tr.dump(s, pt, w.f[:d], w.sc[:d])
 			return fmt.Errorf("%d Newton iterations (merit %.3g)", maxNewton, phi)
@@ -271,7 +318,10 @@ func (w *newtonWork) grow(d, ns, q int) {
 		w.rs, w.cs = make([]float64, d), make([]float64, d)
 	}
 	if cap(w.jac) < d*d {
-		w.jac = make([]float64, d*d)
+		w.jac, w.fac = make([]float64, d*d), make([]float64, d*d)
+	}
+	if cap(w.ipiv) < d {
+		w.ipiv, w.ref = make([]int, d), make([]float64, d)
 	}
 	if w.trial == nil || len(w.trial.amt) != ns {
 		w.trial = newPoint(ns, q)

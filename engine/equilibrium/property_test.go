@@ -267,7 +267,11 @@ func TestPropertySaltInWater(t *testing.T) {
 						t.Errorf("%s %g mol: %s %.12g, fed %.12g", tc.salt, mol, s.Name, st.Amount[i], fed)
 					}
 				case s.Name != "H+" && s.Name != "OH-":
-					if st.Amount[i] > 1e-15 {
+					// Oxidized or reduced forms have no partner here and
+					// must stay at zero up to the rounding of the totals
+					// (the H and O totals of 55 mol of water carry ~1e-14
+					// mol of rounding, which sets the redox balance).
+					if st.Amount[i] > 1e-12*mol+1e-14*water {
 						t.Errorf("%s %g mol: %s formed (%.3g mol)", tc.salt, mol, s.Name, st.Amount[i])
 					}
 				}

@@ -79,6 +79,9 @@ func (ls *lockSolver) activeNames() []string {
 // A constraint that depends on the rows before it is dropped when its bound
 // agrees with them and makes the problem infeasible when it does not.
 func (ls *lockSolver) rows() ([]balanceRow, error) {
+	if len(ls.active) == 0 {
+		return append([]balanceRow(nil), ls.base...), nil
+	}
 	set := &rowSet{}
 	rows := make([]balanceRow, 0, len(ls.base)+len(ls.active))
 	for _, r := range ls.base {
@@ -134,7 +137,7 @@ func (ls *lockSolver) run() (*point, error) {
 		if pt, err = ls.solveRound(pt, prev); err != nil {
 			return nil, err
 		}
-		prev = rows
+		prev = ls.s.rows // solveRound may have activated constraints
 		change := ls.update(pt)
 		if change == "" {
 			return pt, nil
@@ -156,7 +159,7 @@ func (ls *lockSolver) solveRound(prevPt *point, prevRows []balanceRow) (*point, 
 	case prevPt != nil:
 		pt = remap(prevPt, prevRows, s.rows)
 	case len(s.p.Start) > 0:
-		pt = s.startFrom(s.p.Start, 0)
+		pt = s.startFrom(s.p.Start)
 	}
 	if pt != nil {
 		err := s.solveGamma(pt, &ls.w, ls.tr)
@@ -165,7 +168,18 @@ func (ls *lockSolver) solveRound(prevPt *point, prevRows []balanceRow) (*point, 
 		}
 		ls.tr.note("warm start failed: %v", err)
 	}
-	n, err := s.lpStart()
+	n, tight, err := s.lpStartTight()
+	if err == nil && len(tight) > 0 {
+		// Locks the dominant-species composition meets with equality are
+		// taken as active from the start; the active-set loop corrects.
+		ls.active = append(ls.active, tight...)
+		rows, rerr := ls.rows()
+		if rerr != nil {
+			return nil, rerr
+		}
+		s.setRows(rows)
+		ls.tr.note("constraints active at the start: %v", tight)
+	}
 	if err != nil {
 		if errors.Is(err, ErrInfeasible) {
 			return nil, ls.blame(err)
@@ -173,7 +187,7 @@ func (ls *lockSolver) solveRound(prevPt *point, prevRows []balanceRow) (*point, 
 		ls.tr.note("linear-programming start failed: %v", err)
 		n = s.crudeStart()
 	}
-	pt = s.startFrom(n, 0)
+	pt = s.startFrom(n)
 	if err := s.solveGamma(pt, &ls.w, ls.tr); err != nil {
 		if errors.Is(err, ErrNoConvergence) || errors.Is(err, ErrInfeasible) {
 			return nil, fmt.Errorf("equilibrium: %v", err)

@@ -17,21 +17,40 @@ const traceMolality = 1e-10
 // rows, ignoring mixing: the dominant species of the equilibrium. It returns
 // an ErrInfeasible error when no composition with amounts ≥ 0 meets them.
 func (s *system) lpStart() ([]float64, error) {
+	n, _, err := s.lpStartTight()
+	return n, err
+}
+
+// lpStartTight is lpStart that also returns the inequality constraints
+// (outside the rows) that the composition meets with equality.
+func (s *system) lpStartTight() ([]float64, []int, error) {
 	var cols []int
 	for i := 0; i < s.ns; i++ {
 		if !s.off[i] && len(s.colIdx[i]) > 0 {
 			cols = append(cols, i)
 		}
 	}
-	q := len(s.rows)
-	if len(cols) < q {
-		// More independent rows than species: the simplex needs a wide
-		// matrix; pad with zero-cost artificial columns is not meaningful
-		// here, so report that the balances over-determine the species.
-		return nil, fmt.Errorf("equilibrium: %d independent balances for %d species: %w", q, len(cols), ErrInfeasible)
+	// Inequality constraints not in the rows join with a slack column each,
+	// so that the start respects every lock.
+	var extra []int
+	active := map[int]bool{}
+	for _, r := range s.rows {
+		if r.lock >= 0 {
+			active[r.lock] = true
+		}
 	}
-	a := mat.NewDense(q, len(cols), nil)
-	c := make([]float64, len(cols))
+	for k, c := range s.p.Constraints {
+		if !active[k] && c.Rel != Exactly {
+			extra = append(extra, k)
+		}
+	}
+	q := len(s.rows) + len(extra)
+	nc := len(cols) + len(extra)
+	if nc < q {
+		return nil, nil, fmt.Errorf("equilibrium: %d independent balances for %d species: %w", q, len(cols), ErrInfeasible)
+	}
+	a := mat.NewDense(q, nc, nil)
+	c := make([]float64, nc)
 	b := make([]float64, q)
 	for k, r := range s.rows {
 		b[k] = r.rhs
@@ -39,38 +58,63 @@ func (s *system) lpStart() ([]float64, error) {
 			a.Set(k, j, r.coef[i])
 		}
 	}
+	for e, k := range extra {
+		row := len(s.rows) + e
+		con := s.p.Constraints[k]
+		b[row] = con.Bound
+		for j, i := range cols {
+			if !s.off[i] {
+				a.Set(row, j, con.Coef[i])
+			}
+		}
+		slack := 1.0 // AtMost: Σ + s = bound
+		if con.Rel == AtLeast {
+			slack = -1
+		}
+		a.Set(row, len(cols)+e, slack)
+	}
 	for j, i := range cols {
 		c[j] = s.p.Species[i].Mu0
 	}
 	_, x, err := lp.Simplex(c, a, b, 1e-10, nil)
 	if err != nil {
 		if errors.Is(err, lp.ErrInfeasible) {
-			return nil, fmt.Errorf("equilibrium: no composition with amounts ≥ 0 meets the balances [%s]: %w", names(s.rows), ErrInfeasible)
+			return nil, nil, fmt.Errorf("equilibrium: no composition with amounts ≥ 0 meets the balances [%s]: %w", names(s.rows), ErrInfeasible)
 		}
-		return nil, err
+		return nil, nil, err
 	}
 	n := make([]float64, s.ns)
 	for j, i := range cols {
 		n[i] = math.Max(x[j], 0)
 	}
 	if n[s.solvent] <= 1e-9*math.Exp(s.logBig) {
-		return nil, fmt.Errorf("equilibrium: the reactions would use up the solvent %q (with no mixing terms the least-Gibbs-energy composition keeps %.3g mol of it); "+
+		return nil, nil, fmt.Errorf("equilibrium: the reactions would use up the solvent %q (with no mixing terms the least-Gibbs-energy composition keeps %.3g mol of it); "+
 			"there is no aqueous phase left to solve for: give more water or lock the reaction that consumes it: %w", s.p.Species[s.solvent].Name, n[s.solvent], ErrInfeasible)
 	}
-	return n, nil
+	var tight []int
+	for e, k := range extra {
+		if x[len(cols)+e] <= 1e-9*math.Abs(s.p.Constraints[k].Bound)+1e-300 {
+			tight = append(tight, k)
+		}
+	}
+	return n, tight, nil
 }
 
 // startFrom builds an iterate from a composition: the potentials that best
 // reproduce the chemical potentials of the species present (weighted least
 // squares with a small ridge for directions the composition leaves free),
 // the pure phases present in it, and the gas phase when a gas is present.
-func (s *system) startFrom(n []float64, gamma float64) *point {
+func (s *system) startFrom(n []float64) *point {
 	q := len(s.rows)
 	pt := newPoint(s.ns, q)
-	pt.gamma = gamma
 	scale := math.Exp(s.logBig)
 	nw := math.Max(n[s.solvent], 1e-6*scale)
 	pt.amt[s.solvent] = nw
+	for _, i := range s.aq {
+		pt.amt[i] = n[i]
+	}
+	gamma := daviesLn(s.daviesA, s.ionic(pt))
+	pt.gamma = gamma
 	ng := 0.0
 	for _, g := range s.gas {
 		ng += n[g]
