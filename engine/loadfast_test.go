@@ -2,7 +2,9 @@ package engine
 
 import (
 	"reflect"
+	"strings"
 	"testing"
+	"testing/fstest"
 
 	"mixward/data"
 )
@@ -41,6 +43,23 @@ func BenchmarkNew(b *testing.B) {
 	for b.Loop() {
 		if _, err := New(data.FS); err != nil {
 			b.Fatal(err)
+		}
+	}
+}
+
+// TestCheckTables: the tables of data/ pass every check New skips, and a bad
+// row in any of them is reported with its file and line.
+func TestCheckTables(t *testing.T) {
+	if err := CheckTables(data.FS); err != nil {
+		t.Fatalf("CheckTables(data/):\n%v", err)
+	}
+	m := dtTableFS()
+	m[ChemicalsFile].Data = append(m[ChemicalsFile].Data, "NaCl | soluble-salt | Na+ + 2 Cl- | salt | test\n"...)
+	m["species.txt"] = &fstest.MapFile{Data: []byte("H+ | 0 | 0 | 0 | - | convention\nNa+ | -261.905 | -240.12 | 59.0 | - | \n")}
+	err := CheckTables(m)
+	for _, want := range []string{"data/chemicals.txt:", "is not neutral", "data/species.txt:2: Na+ has no source"} {
+		if err == nil || !strings.Contains(err.Error(), want) {
+			t.Errorf("CheckTables(bad tables) error = %v, want it to contain %q", err, want)
 		}
 	}
 }
