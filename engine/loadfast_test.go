@@ -1,6 +1,7 @@
 package engine
 
 import (
+	"math"
 	"reflect"
 	"strings"
 	"testing"
@@ -61,5 +62,30 @@ func TestCheckTables(t *testing.T) {
 		if err == nil || !strings.Contains(err.Error(), want) {
 			t.Errorf("CheckTables(bad tables) error = %v, want it to contain %q", err, want)
 		}
+	}
+}
+
+// TestNewLoadsSpeciesData: New hands the species data to the tables.
+func TestNewLoadsSpeciesData(t *testing.T) {
+	e, err := New(data.FS)
+	if err != nil {
+		t.Fatal(err)
+	}
+	w, ok := e.Tables.Thermo.Get("H2O")
+	// NBS Tables 1982 -237.129, CODATA Key Values 1989 -237.140 kJ/mol.
+	if !ok || math.Abs(w.DfG-(-237.13)) > 0.02 {
+		t.Errorf("Thermo.Get(H2O) = %+v, %v; want the water row, ΔfG° about -237.13 kJ/mol", w, ok)
+	}
+	m := dtTableFS()
+	for _, name := range []string{"kinetics.txt", "hazards.txt", "enthalpies.txt"} {
+		b, err := data.FS.ReadFile(name)
+		if err != nil {
+			t.Fatal(err)
+		}
+		m[name] = &fstest.MapFile{Data: b}
+	}
+	m["species.txt"] = &fstest.MapFile{Data: []byte("H+ | 0 | 0 | 0 | - | convention\nH+ | 0 | 0 | 0 | - | again\n")}
+	if _, err := New(m); err == nil || !strings.Contains(err.Error(), "data/species.txt:2: H+ is already listed at line 1") {
+		t.Errorf("New with a duplicate species row: error = %v", err)
 	}
 }
