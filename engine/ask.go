@@ -27,34 +27,7 @@ func New(fsys fs.FS) (*Engine, error) {
 	}
 	t.atoms = map[string]Atoms{}
 	for _, h := range t.Half {
-		for _, ts := range [][]Term{h.Reactants, h.Products} {
-			for i := range ts {
-				ts[i].key, ts[i].text = mixKey(ts[i].Species), ts[i].Species.Text()
-			}
-		}
-		for _, ts := range [][]Term{h.Reactants, h.Products} {
-			for _, tm := range ts {
-				if _, done := t.atoms[tm.Formula]; done {
-					continue
-				}
-				if a, err := ParseFormula(tm.Formula); err == nil {
-					t.atoms[tm.Formula] = a
-				}
-			}
-		}
-		h.sig = signature(h)
-		h.textRed, h.textOx = halfText(h, false), halfText(h, true)
-		h.oxKeys, h.redKeys = nil, nil
-		for _, r := range h.Reactants {
-			if !isSolvent(r.Species) {
-				h.oxKeys = append(h.oxKeys, mixKey(r.Species))
-			}
-		}
-		for _, p := range h.Products {
-			if !isSolvent(p.Species) {
-				h.redKeys = append(h.redKeys, mixKey(p.Species))
-			}
-		}
+		t.indexHalf(h)
 	}
 	t.byFormula, t.byName, t.byFold = map[string]*Chemical{}, map[string]*Chemical{}, map[string]*Chemical{}
 	for _, c := range t.Chemicals {
@@ -115,6 +88,35 @@ func New(fsys fs.FS) (*Engine, error) {
 		return nil, err
 	}
 	return &Engine{Tables: t, Model: model}, nil
+}
+
+// indexHalf fills the cached keys, texts and atom counts of one
+// half-reaction.
+func (t *Tables) indexHalf(h *HalfReaction) {
+	for _, ts := range [][]Term{h.Reactants, h.Products} {
+		for i := range ts {
+			ts[i].key, ts[i].text = mixKey(ts[i].Species), ts[i].Species.Text()
+			if _, done := t.atoms[ts[i].Formula]; done {
+				continue
+			}
+			if a, err := ParseFormula(ts[i].Formula); err == nil {
+				t.atoms[ts[i].Formula] = a
+			}
+		}
+	}
+	h.sig = signature(h)
+	h.textRed, h.textOx = halfText(h, false), halfText(h, true)
+	h.oxKeys, h.redKeys = nil, nil
+	for _, r := range h.Reactants {
+		if !isSolvent(r.Species) {
+			h.oxKeys = append(h.oxKeys, mixKey(r.Species))
+		}
+	}
+	for _, p := range h.Products {
+		if !isSolvent(p.Species) {
+			h.redKeys = append(h.redKeys, mixKey(p.Species))
+		}
+	}
 }
 
 // loadAll reads every table of fsys. The tables of Load are parsed on the

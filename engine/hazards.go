@@ -1,8 +1,6 @@
 package engine
 
 import (
-	"bufio"
-	"bytes"
 	"fmt"
 	"io/fs"
 	"math"
@@ -137,8 +135,7 @@ func parseHazardRules(name string, b []byte) ([]*HazardRule, error) {
 		cur = nil
 		return nil
 	}
-	sc := bufio.NewScanner(bytes.NewReader(b))
-	sc.Buffer(make([]byte, 0, 64*1024), 1024*1024)
+	sc := newLineReader(b)
 	line := 0
 	for sc.Scan() {
 		line++

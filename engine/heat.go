@@ -1,8 +1,6 @@
 package engine
 
 import (
-	"bufio"
-	"bytes"
 	"fmt"
 	"io/fs"
 	"math"
@@ -58,8 +56,7 @@ func LoadEnthalpies(fsys fs.FS) (map[string]Enthalpy, error) {
 func parseEnthalpies(name string, b []byte) (map[string]Enthalpy, error) {
 	out := map[string]Enthalpy{}
 	lines := map[string]int{}
-	sc := bufio.NewScanner(bytes.NewReader(b))
-	sc.Buffer(make([]byte, 0, 64*1024), 1024*1024)
+	sc := newLineReader(b)
 	line := 0
 	for sc.Scan() {
 		line++

@@ -253,6 +253,40 @@ func (l *loader) rows(b []byte, n int, read func([]string, int)) int {
 	return count
 }
 
+// lineReader walks the lines of a table held in one string, as a
+// bufio.Scanner splitting lines would (a trailing \r dropped, lines over
+// maxLine an error), without copying each line.
+type lineReader struct {
+	rest, line string
+	err        error
+}
+
+func newLineReader(b []byte) *lineReader { return &lineReader{rest: string(b)} }
+
+// Scan moves to the next line; it returns false at the end or on an error.
+func (r *lineReader) Scan() bool {
+	if r.rest == "" || r.err != nil {
+		return false
+	}
+	if i := strings.IndexByte(r.rest, '\n'); i >= 0 {
+		r.line, r.rest = r.rest[:i], r.rest[i+1:]
+	} else {
+		r.line, r.rest = r.rest, ""
+	}
+	r.line = strings.TrimSuffix(r.line, "\r")
+	if len(r.line) > maxLine {
+		r.err = errors.New("token too long")
+		return false
+	}
+	return true
+}
+
+// Text is the current line.
+func (r *lineReader) Text() string { return r.line }
+
+// Err is the error that stopped Scan, if any.
+func (r *lineReader) Err() error { return r.err }
+
 // splitFields appends the "|"-separated fields of text, trimmed, to dst.
 func splitFields(dst []string, text string) []string {
 	for {

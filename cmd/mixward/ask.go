@@ -159,13 +159,21 @@ func eqTerms(ts []engine.Term) []engine.EqTerm {
 }
 
 func (a *app) cmdTable(ctx context.Context, args []string) error {
-	fs := a.newFlags("table", "table [--format text|json]")
+	fs := a.newFlags("table", "table [--format text|json] [--check]")
 	format := fs.String("format", "text", "output format: text or json")
+	check := fs.Bool("check", false, "validate every data table, the species data included, and report each bad row")
 	if _, err := parseFlags(fs, args); err != nil {
 		return err
 	}
 	if err := checkFormat(*format, "text", "json"); err != nil {
 		return err
+	}
+	if *check {
+		if err := engine.CheckTables(data.FS); err != nil {
+			return fmt.Errorf("the data tables have problems:\n%w", err)
+		}
+		fmt.Fprintln(a.stdout, "data tables: every check passed")
+		return nil
 	}
 	eng, err := loadEngine()
 	if err != nil {
@@ -243,7 +251,7 @@ func (a *app) usage(w io.Writer) {
 usage:
   mixward                         start the local console (no Slack tokens needed)
   mixward ask "<request>"         answer one mix request (--format text|json, --no-log, --db)
-  mixward table                   list the half-reaction table (--format text|json)
+  mixward table                   list the half-reaction table (--format text|json; --check validates every table)
   mixward plot "<request>" -o mix.png   draw the E–pH picture of the predicted couples
   mixward streams set|list|show|rm      the site stream catalogue (tags such as T-101)
   mixward log verify|search|export|prune|backup   the query log

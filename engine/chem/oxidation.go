@@ -68,7 +68,13 @@ func OxidationStates(atoms Atoms, charge int, override map[string]float64) (map[
 	und := undetermined(atoms, st)
 	if len(und) > 1 {
 		usualRules(atoms, st, und)
-		und = undetermined(atoms, st)
+		left := und[:0]
+		for _, el := range und {
+			if _, ok := st[el]; !ok {
+				left = append(left, el)
+			}
+		}
+		und = left
 	}
 	switch len(und) {
 	case 0:

@@ -32,10 +32,10 @@ const T0 = 298.15
 
 // R is the molar gas constant in J/(mol·K): Avogadro times Boltzmann, both
 // exact in CODATA 2018 (gonum unit/constant).
-var R = float64(constant.Avogadro) * float64(constant.Boltzmann)
+const R = float64(constant.Avogadro) * float64(constant.Boltzmann)
 
 // F is the Faraday constant in C/mol (CODATA 2018, exact; gonum unit/constant).
-var F = float64(constant.Faraday)
+const F = float64(constant.Faraday)
 
 // tableDir prefixes file names in error messages, so that a maintainer can
 // open the file at once.
