@@ -25,6 +25,9 @@ func New(fsys fs.FS) (*Engine, error) {
 	if t.Enthalpies, err = LoadEnthalpies(fsys); err != nil {
 		return nil, err
 	}
+	if t.Ceilings, err = LoadCeilings(fsys, t); err != nil {
+		return nil, err
+	}
 	t.atoms = map[string]Atoms{}
 	for _, h := range t.Half {
 		for _, ts := range [][]Term{h.Reactants, h.Products} {
@@ -122,7 +125,7 @@ func Cautions() []string { return append([]string(nil), cautions...) }
 
 // Ask parses a request and predicts what happens.
 func (e *Engine) Ask(text string, opt AskOptions) (*Result, error) {
-	req, err := ParseRequest(text, e.Tables, opt.Resolve)
+	req, err := Parse(text, e.Tables, opt)
 	if err != nil {
 		return nil, err
 	}
@@ -147,7 +150,7 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 		Gases:        []GasRelease{},
 		Steps:        []Step{},
 		Caveats:      []string{},
-		Notes:        append([]string{}, m.notes...),
+		Notes:        append(append([]string{}, req.Notes...), m.notes...),
 		Conditions: Conditions{
 			PH:           roundDec(m.pH, 2),
 			PHStated:     m.pHStated,
