@@ -7,12 +7,10 @@ import (
 	"flag"
 	"fmt"
 	"io"
-	"os"
 	"strings"
 
 	"mixward/data"
 	"mixward/engine"
-	"mixward/engine/eph"
 )
 
 // cmdDefault is plain `mixward`: the Slack bot when Slack tokens are set,
@@ -187,44 +185,6 @@ func (a *app) cmdTable(ctx context.Context, args []string) error {
 		fmt.Fprintf(a.stdout, "%-22s %-6s %+9.3f  %s\n", r.ID, r.Medium, r.EStandard, r.Text)
 	}
 	fmt.Fprintf(a.stdout, "\n%d half-reactions at 25 °C; sources per row in data/halfreactions.txt and in --format json.\n", len(rows))
-	return nil
-}
-
-func (a *app) cmdPlot(ctx context.Context, args []string) error {
-	fs := a.newFlags("plot", `plot "<request>" -o mix.png`)
-	out := fs.String("o", "mix.png", "PNG file to write")
-	pos, err := parseFlags(fs, args)
-	if err != nil {
-		return err
-	}
-	text := strings.TrimSpace(strings.Join(pos, " "))
-	if text == "" {
-		fs.Usage()
-		return &exitError{exitUsage, errors.New(`give the request in quotes, e.g. mixward plot "Zn + CuSO4 1 M" -o mix.png`)}
-	}
-	eng, err := loadEngine()
-	if err != nil {
-		return err
-	}
-	res, err := eng.Ask(text, engine.AskOptions{})
-	if err != nil {
-		var pe *engine.ParseError
-		if errors.As(err, &pe) {
-			return &exitError{exitUsage, fmt.Errorf("cannot read the request: %s", pe.Error())}
-		}
-		return err
-	}
-	png, ok, err := eph.Plotter{Tables: eng.Tables}.Plot(res)
-	if err != nil {
-		return err
-	}
-	if !ok {
-		return &exitError{exitFail, fmt.Errorf("nothing to draw: %s", engine.Headline(res))}
-	}
-	if err := os.WriteFile(*out, png, 0o644); err != nil {
-		return fmt.Errorf("writing the picture: %w", err)
-	}
-	fmt.Fprintf(a.stdout, "wrote %s: %s with %s, mix pH %.2f\n", *out, res.Oxidizer.Species, res.Reducer.Species, res.Conditions.PH)
 	return nil
 }
 

@@ -28,7 +28,7 @@ func (a *app) askOnce(ctx context.Context, eng *engine.Engine, o *storeOpts, tex
 	}
 	defer db.Close()
 	if noLog {
-		res, askErr = eng.Ask(text, engine.AskOptions{Resolve: catalogueResolver(ctx, db)})
+		res, askErr = eng.Ask(text, catalogueOptions(ctx, db))
 		return res, 0, askErr, nil
 	}
 	b := &bot.Bot{
@@ -49,6 +49,28 @@ func catalogueResolver(ctx context.Context, db *store.DB) engine.Resolver {
 		}
 		return s.Stream, true
 	}
+}
+
+// catalogueTags lists the catalogue's tags, for "did you mean" on a tag
+// that is not there; nil when the catalogue cannot be read.
+func catalogueTags(ctx context.Context, db *store.DB) func() []string {
+	return func() []string {
+		ss, err := db.Streams(ctx)
+		if err != nil {
+			return nil
+		}
+		tags := make([]string, len(ss))
+		for i, s := range ss {
+			tags[i] = s.Tag
+		}
+		return tags
+	}
+}
+
+// catalogueOptions resolves tags from the site catalogue in db and suggests
+// its tags for near misses.
+func catalogueOptions(ctx context.Context, db *store.DB) engine.AskOptions {
+	return engine.AskOptions{Resolve: catalogueResolver(ctx, db), Tags: catalogueTags(ctx, db)}
 }
 
 var errNotLogged = errors.New("the query could not be written to the log, so no answer is given (every answer is on record first)")
