@@ -77,8 +77,8 @@ func (p *parser) checkTemperature(num, unit *token, k float64) error {
 		return nil
 	}
 	return p.errAt(num, "bad-temperature",
-		"temperature %s %s is outside the range mixward handles, %d to %d °C: concentrated brines and acids stay liquid to about −30 °C, water under 5 bar to about 150 °C; state the temperature of the mix in C, F or K",
-		num.text, unit.text, minTemperatureC, maxTemperatureC)
+		"temperature %s %s is outside the range mixward handles, −30 to 150 °C: concentrated brines and acids stay liquid to about −30 °C, water under 5 bar to about 150 °C; state the temperature of the mix in C, F or K",
+		num.text, unit.text)
 }
 
 // checkPressure bounds a stated pressure, converted to kPa.

@@ -279,6 +279,8 @@ func (t *Tables) Density(formula string, percentWW float64) (gPerML float64, ok 
 // compared in upper case without their separators (T102 and t_102 are
 // T-102) by optimal-string-alignment distance, allowing 1 edit for tags of
 // up to 5 such characters and 2 for longer ones, so that T-120 finds T-102.
+// When some tag differs only in case or separators, only such tags are
+// returned.
 func SuggestTags(word string, tags []string, n int) []string {
 	w := []rune(tagKey(word))
 	if len(w) == 0 || n <= 0 {
@@ -307,7 +309,7 @@ func SuggestTags(word string, tags []string, n int) []string {
 	})
 	out := []string{}
 	for _, c := range cands {
-		if len(out) == n {
+		if len(out) == n || (c.d > 0 && cands[0].d == 0) {
 			break
 		}
 		out = append(out, c.tag)
