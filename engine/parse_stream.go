@@ -353,6 +353,9 @@ func (p *parser) unknownName(words []*token) error {
 			return e
 		}
 	}
+	if len(words) == 1 && p.resolve == nil && p.depth == 0 && looksLikeTag(name) && strings.Contains(name, "-") && len(p.t.Suggest(name, 1)) == 0 {
+		return p.errAt(words[0], "unknown-tag", "%s looks like a stream tag, but no site stream catalogue was given to look it up in; use the catalogue's database, or write the stream out (\"40 L HCl 10 %%\")", strings.ToUpper(name))
+	}
 	e := p.errAt(words[0], "unknown-chemical", "%q is not a chemical mixward knows", name)
 	e.Token = name
 	e.Suggestions = p.t.Suggest(name, 5)

@@ -361,6 +361,12 @@ func TestParseTagSuggestions(t *testing.T) {
 	if err != nil || r.Streams[0].Tag != "T-102" {
 		t.Errorf("t-102: %v", err)
 	}
+	// Without a catalogue a tag-like word says so rather than calling itself
+	// an unknown chemical.
+	_, err = parse(t, "T-301 + HCl 1 M", nil)
+	if pe := (*engine.ParseError)(nil); !errors.As(err, &pe) || pe.Code != "unknown-tag" || !strings.Contains(pe.Message, "no site stream catalogue") {
+		t.Errorf("no catalogue: %v", err)
+	}
 	// Without a tag list there is nothing to suggest, but the error stands.
 	_, err = parse(t, "T-120 + T-204", resolve)
 	var pe *engine.ParseError
