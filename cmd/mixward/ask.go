@@ -204,7 +204,7 @@ usage:
   mixward                         start the local console (no Slack tokens needed)
   mixward ask "<request>"         answer one mix request (--format text|json, --no-log, --db)
   mixward table                   list the half-reaction table (--format text|json)
-  mixward plot "<request>" -o mix.png   draw the E–pH picture of the predicted couples
+  mixward plot "<request>" -o mix.png   draw the E–pH picture of the predicted couples (--db for tags)
   mixward streams set|list|show|rm      the site stream catalogue (tags such as T-101)
   mixward log verify|search|export|prune|backup   the query log
   mixward digest                  shift digest (--since, --until, --format text|json)
@@ -213,10 +213,10 @@ usage:
   mixward version
 
 request language:
-  [mix] <stream> + <stream> [+ ...] [at <temperature>|<pressure>|pH <n>]
-  stream:    [<amount>] <chemical> [<number> <unit>][, <component> ...]   or a site tag (T-101)
-  amount:    L, mL, m3, gal (liquids); kg, g, lb (solids)
-  units:     M, mol/L, mmol/L, %, % w/w, % w/v, g/L, mg/L, ppm;  pH <number>
+  [mix] <stream> + <stream> [+ ...] [at <temperature>|<pressure>|pH <n>]   (+, &, and, with)
+  stream:    [<amount>] <chemical> [<number> <unit>][, <component> ...]   or [<amount>] a site tag (T-101)
+  amount:    L, mL, m3, gal (US), US gal, imp gal (liquids); kg, g, t, lb (solids)
+  units:     M, mol/L, mmol/L, %, % w/w, % w/v, g/L, mg/L, ppm;  pH <number>;  12,5 % = 12.5 %
   example:   mixward ask "mix 200 L NaOCl 12.5 % + 50 L HCl 10 % at 20 C"
 
 Answers are advisory, never a permit: confirm with the safety data sheets, site procedures,
