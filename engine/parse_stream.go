@@ -1,6 +1,7 @@
 package engine
 
 import (
+	"errors"
 	"fmt"
 	"strings"
 )
@@ -230,7 +231,10 @@ func (p *parser) scaleTag(st *Stream, outer Stream, tag *token, amount string) e
 		p.note("%s", n)
 	}
 	if err := p.checkStream(st); err != nil {
-		pe, _ := err.(*ParseError)
+		var pe *ParseError
+		if !errors.As(err, &pe) {
+			return err
+		}
 		pe.Message = fmt.Sprintf("with %s, stream tag %s (%q): %s", amount, st.Tag, st.Text, pe.Message)
 		pe.Position, pe.Token = tag.pos, tag.text
 		return pe
