@@ -242,3 +242,32 @@ func TestLoadCeilingsRefusesBadRows(t *testing.T) {
 		t.Errorf("missing file: %v", err)
 	}
 }
+
+func FuzzLoadCeilings(f *testing.F) {
+	for _, s := range []string{
+		"HCl | 42 | 1.21 | saturated | source",
+		"H2SO4 | 100 | 1.8305 | pure | source\nHNO3 | 100 | 1.51 | pure | source",
+		"# comment\n\nNaOH | 52.5 | 1.55 | saturated | x",
+		"HCl | 30 | 1.15 | saturated | x", "XyZ | 1 | 1 | pure | x", "HCl | NaN | Inf | pure | x", "| | | |", "HCl|42|1.21|saturated|x|y",
+	} {
+		f.Add(s)
+	}
+	tb, err := engine.Load(data.FS)
+	if err != nil {
+		f.Fatal(err)
+	}
+	f.Fuzz(func(t *testing.T, s string) {
+		got, err := engine.LoadCeilings(fstest.MapFS{engine.CeilingsFile: &fstest.MapFile{Data: []byte(s)}}, tb)
+		if err != nil {
+			if !strings.Contains(err.Error(), "ceilings.txt") {
+				t.Fatalf("LoadCeilings error %q does not name the file", err)
+			}
+			return
+		}
+		for f, c := range got {
+			if _, ok := tb.Lookup(f); !ok || !(c.PercentWW > 0 && c.PercentWW <= 100) || !(c.GPerML > 0) || math.IsInf(c.GPerL(), 0) {
+				t.Fatalf("LoadCeilings(%q) accepted %s %+v", s, f, c)
+			}
+		}
+	})
+}

@@ -398,30 +398,44 @@ func FuzzParseRequest(f *testing.F) {
 		"Zn + CuSO4 1 M", "T-101 + 40 L HCl 1 M", "500 L water, NaOH 2 %, pH 12 + 20 L H2O2 30 %",
 		"55 gal bleach + 10 lb Na2S2O5 at 2 bar, pH 3", "1e3 mL Fe2(SO4)3 2 g/L", "-5 C", "mix mix + + , ,",
 		"NaOCl 12.5 % w/v + iron(II) sulfate 3 mg/L at 77 F",
+		"mix 40 L T-301 + 2 kg T-412 & 3 imp gal T-555 with T-101", "T-10 + t_412 and T301", "5 kg T-555 + T-412",
 	} {
 		f.Add(s)
 	}
 	e := mustEngine(f)
-	resolve := func(tag string) (string, bool) {
-		if tag == "T-101" {
-			return "200 L NaOCl 12.5 %", true
-		}
-		return "", false
+	cat := map[string]string{"T-101": "200 L NaOCl 12.5 %", "T-301": "25 kg Zn", "T-555": "55 gal NaOCl 5 %", "T-412": "NaOH 10 %"}
+	opt := engine.AskOptions{
+		Resolve: func(tag string) (string, bool) { s, ok := cat[tag]; return s, ok },
+		Tags:    func() []string { return []string{"T-101", "T-301", "T-412", "T-555"} },
 	}
 	f.Fuzz(func(t *testing.T, s string) {
-		r, err := engine.ParseRequest(s, e.Tables, resolve)
+		r, err := engine.Parse(s, e.Tables, opt)
 		if err != nil {
 			var pe *engine.ParseError
 			if !errors.As(err, &pe) {
 				t.Fatalf("ParseRequest(%q) error %v is not a *ParseError", s, err)
 			}
-			if pe.Message == "" || pe.Position < 1 || pe.Position > utf8.RuneCountInString(s)+1 {
+			if pe.Message == "" || pe.Code == "" || pe.Suggestions == nil || pe.Position < 1 || pe.Position > utf8.RuneCountInString(s)+1 {
 				t.Fatalf("ParseRequest(%q): bad error %+v", s, pe)
 			}
 			return
 		}
 		if len(r.Streams) == 0 {
 			t.Fatalf("ParseRequest(%q) gave no streams and no error", s)
+		}
+		// Every accepted number is finite and inside its bounds.
+		if !(r.TemperatureK >= 243.15 && r.TemperatureK <= 423.15) || !(r.PressureKPa >= 1 && r.PressureKPa <= 10000) {
+			t.Fatalf("ParseRequest(%q): conditions %g K, %g kPa out of bounds", s, r.TemperatureK, r.PressureKPa)
+		}
+		for _, st := range r.Streams {
+			if !(st.VolumeL >= 0 && st.VolumeL <= 1e7) || !(st.MassKg >= 0 && st.MassKg <= 1e7) {
+				t.Fatalf("ParseRequest(%q): amount %g L, %g kg out of bounds", s, st.VolumeL, st.MassKg)
+			}
+			for _, c := range st.Components {
+				if max, _ := engine.ConcCeiling(e.Tables, c.Chemical, c.Unit, st.VolumeL > 0); !(c.Value >= 0 && c.Value <= max) && c.Unit != engine.NoConc {
+					t.Fatalf("ParseRequest(%q): %s %g %s above its ceiling %g", s, c.Name, c.Value, c.Unit, max)
+				}
+			}
 		}
 		// A parsed request must always be answerable.
 		if _, err := e.Predict(r); err != nil {
