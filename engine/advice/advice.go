@@ -1,0 +1,79 @@
+// Package advice answers a mix request the way an operator reads it: the
+// engine's prediction, judged through the hazard package's Outcome, the
+// pour along the addition, and the decision first. It also renders the
+// short answer and reviews a catalogue of streams pair by pair. No I/O.
+package advice
+
+import (
+	"fmt"
+	"io/fs"
+
+	"mixward/engine"
+	"mixward/engine/hazard"
+	"mixward/engine/pour"
+)
+
+// Advisor answers requests with a decision. It is safe for concurrent use.
+type Advisor struct {
+	Engine *engine.Engine
+	Gases  *hazard.Data
+}
+
+// New builds an Advisor on a loaded engine, reading the gas table from fsys
+// (normally data.FS).
+func New(e *engine.Engine, fsys fs.FS) (*Advisor, error) {
+	d, err := hazard.Load(fsys)
+	if err != nil {
+		return nil, err
+	}
+	return &Advisor{Engine: e, Gases: d}, nil
+}
+
+// Ask parses and answers a request: the engine's prediction with the
+// hazards judged from what forms, the pour, and the decision.
+func (a *Advisor) Ask(text string, opt engine.AskOptions) (*engine.Result, error) {
+	req, err := engine.ParseRequest(text, a.Engine.Tables, opt.Resolve)
+	if err != nil {
+		return nil, err
+	}
+	return a.Predict(req)
+}
+
+// Predict answers a parsed request.
+func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
+	res, err := a.Engine.Predict(req)
+	if err != nil {
+		return nil, err
+	}
+	o := hazard.FromResult(res, a.Engine.Tables)
+	res.Hazards = hazard.Judge(o, a.Gases)
+	for _, h := range o.HeldBack {
+		res.Notes = append(res.Notes, fmt.Sprintf("not counted for the hazards: %s (%s)", h.Text, h.Reason))
+	}
+	if o.Heat.Known && o.Heat.RiseC != rise(res) {
+		res.Notes = append(res.Notes, fmt.Sprintf("heat counted for the hazards: %.0f kJ, about %+.1f °C (reactions that do not proceed left out)", o.Heat.ReleasedkJ, o.Heat.RiseC))
+	}
+	res.Notes = append(res.Notes, fmt.Sprintf("gas concentrations are for a closed headspace equal to the liquid volume (%s L), at equilibrium", trim(o.HeadspaceL)))
+	res.Addition = pour.Analyse(req, a.evaluate)
+	d := hazard.Decide(res.Hazards, res.Addition)
+	res.Decision = &d
+	return res, nil
+}
+
+// evaluate judges one point of a pour.
+func (a *Advisor) evaluate(req *engine.Request) ([]engine.Hazard, error) {
+	res, err := a.Engine.Predict(req)
+	if err != nil {
+		return nil, err
+	}
+	return hazard.Judge(hazard.FromResult(res, a.Engine.Tables), a.Gases), nil
+}
+
+func rise(r *engine.Result) float64 {
+	if r.Heat == nil || r.Heat.TemperatureRiseC == nil {
+		return 0
+	}
+	return *r.Heat.TemperatureRiseC
+}
+
+func trim(x float64) string { return fmt.Sprintf("%.4g", x) }

@@ -1,0 +1,139 @@
+package hazard
+
+import (
+	"strings"
+
+	"mixward/engine"
+)
+
+// NoConcernTitle is the decision's title when nothing of concern forms.
+const NoConcernTitle = "no redox or acid–base reaction of concern"
+
+// Decide derives the operator's decision from the hazards of the final mix
+// and of the pour. The final mix counts as it is; of the orders of
+// addition the better one counts, since the operator can choose it. The
+// redox verdict plays no part.
+func Decide(final []engine.Hazard, add *engine.Addition) engine.Decision {
+	d := engine.Decision{Level: engine.NoConcern, Title: NoConcernTitle, Reasons: []string{}, Actions: []string{}}
+	worst := worstOf(final)
+	for _, h := range final {
+		if h.Severity == engine.Info {
+			continue
+		}
+		d.Reasons = append(d.Reasons, Reason(h))
+		d.Actions = appendNew(d.Actions, h.Action)
+	}
+	best, bestOrder, pourWorst := pourLevels(add)
+	if worst >= 2 {
+		d.Title = titleOf(final)
+	}
+	if best > worst && bestOrder != nil {
+		worst = best
+		d.Title = pourTitle(add, bestOrder)
+		for _, ph := range bestOrder.Hazards {
+			d.Reasons = append(d.Reasons, "while "+bestOrder.Added+" runs into "+bestOrder.Into+": "+codeTitle(ph.Code)+" from "+pct(ph.FromFraction)+" to "+pct(ph.ToFraction)+" of the addition")
+		}
+	} else if pourWorst > worst && add != nil {
+		d.Title = strings.TrimSpace(d.Title + "; " + add.Advice)
+		if worst < 2 {
+			d.Title = add.Advice
+		}
+		worst = max(worst, 2)
+	}
+	if add != nil && add.Advice != "" && pourWorst > 0 {
+		d.Actions = appendNew(d.Actions, add.Advice)
+	}
+	switch worst {
+	case 3:
+		d.Level = engine.DoNotMix
+	case 2:
+		d.Level = engine.WithPrecautions
+	}
+	return d
+}
+
+// pourLevels returns the worst severity rank of the better order, that
+// order, and the worst rank over all orders.
+func pourLevels(add *engine.Addition) (best int, order *engine.PourOrder, all int) {
+	if add == nil || len(add.Orders) == 0 {
+		return 0, nil, 0
+	}
+	best = 99
+	for i := range add.Orders {
+		w := 0
+		for _, h := range add.Orders[i].Hazards {
+			w = max(w, rank(h.Worst))
+		}
+		all = max(all, w)
+		if w < best {
+			best, order = w, &add.Orders[i]
+		}
+	}
+	return best, order, all
+}
+
+func pourTitle(add *engine.Addition, o *engine.PourOrder) string {
+	t := codeTitle(o.Hazards[0].Code)
+	if len(add.Orders) == 2 {
+		return t + " in either order of addition"
+	}
+	return t + " along the pour"
+}
+
+func worstOf(hs []engine.Hazard) int {
+	w := 0
+	for _, h := range hs {
+		w = max(w, rank(h.Severity))
+	}
+	return w
+}
+
+// titleOf is the title of the worst hazards, at most two.
+func titleOf(hs []engine.Hazard) string {
+	var ts []string
+	w := worstOf(hs)
+	for _, h := range hs {
+		if rank(h.Severity) == w && len(ts) < 2 {
+			ts = appendNew(ts, h.Title)
+		}
+	}
+	return strings.Join(ts, "; ")
+}
+
+// Reason is a hazard in a few words with its numbers.
+func Reason(h engine.Hazard) string {
+	switch {
+	case h.Gas != nil:
+		g := h.Gas
+		return h.Title + ": " + fmtNum(g.Mol, 3) + " mol " + g.Formula + " (" + fmtNum(g.VolumeL, 3) + " L), headspace " +
+			fmtNum(g.HeadspacePPM, 3) + " ppm = " + fmtNum(g.Ratio, 2) + "× " + g.LimitName + " " + fmtNum(g.LimitPPM, 3) + " ppm"
+	case h.Heat != nil && h.Heat.Boils:
+		return h.Title + ": " + fmtNum(h.Heat.ReleasedkJ, 3) + " kJ, would reach about " + fmtNum(h.Heat.ReachedC, 3) + " °C"
+	case h.Heat != nil:
+		return h.Title + ": " + fmtNum(h.Heat.ReleasedkJ, 3) + " kJ, to about " + fmtNum(h.Heat.ReachedC, 3) + " °C"
+	}
+	return h.Title
+}
+
+func codeTitle(code string) string {
+	for _, c := range codes {
+		if c.Code == code {
+			return c.Title
+		}
+	}
+	return code
+}
+
+func appendNew(xs []string, s string) []string {
+	if s == "" {
+		return xs
+	}
+	for _, x := range xs {
+		if x == s {
+			return xs
+		}
+	}
+	return append(xs, s)
+}
+
+func pct(f float64) string { return fmtNum(f*100, 2) + " %" }
