@@ -61,6 +61,11 @@ type Decision struct {
 	Title   string   `json:"title"`
 	Reasons []string `json:"reasons"`
 	Actions []string `json:"actions"`
+
+	Heat       *HeatJudged  `json:"heat,omitempty"` // the heat counted (reactions that proceed, neutralisation, dissolving)
+	HeadspaceL float64      `json:"headspace_l"`    // gas space the concentrations are for
+	Held       []string     `json:"held_back"`      // reactions possible on paper that are not counted, with the reason
+	Gases      []GasRelease `json:"gases"`          // gases counted: from reactions that proceed and what the liquid cannot hold
 }
 
 // Addition is the pour judged along the way: each stream run into the

@@ -7,6 +7,7 @@ package advice
 import (
 	"fmt"
 	"io/fs"
+	"math"
 
 	"mixward/engine"
 	"mixward/engine/hazard"
@@ -47,15 +48,24 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 	}
 	o := hazard.FromResult(res, a.Engine.Tables)
 	res.Hazards = hazard.Judge(o, a.Gases)
-	for _, h := range o.HeldBack {
-		res.Notes = append(res.Notes, fmt.Sprintf("not counted for the hazards: %s (%s)", h.Text, h.Reason))
-	}
 	if o.Heat.Known && o.Heat.RiseC != rise(res) {
 		res.Notes = append(res.Notes, fmt.Sprintf("heat counted for the hazards: %.0f kJ, about %+.1f °C (reactions that do not proceed left out)", o.Heat.ReleasedkJ, o.Heat.RiseC))
 	}
 	res.Notes = append(res.Notes, fmt.Sprintf("gas concentrations are for a closed headspace equal to the liquid volume (%s L), at equilibrium", trim(o.HeadspaceL)))
 	res.Addition = pour.Analyse(req, a.evaluate)
 	d := hazard.Decide(res.Hazards, res.Addition)
+	d.HeadspaceL = o.HeadspaceL
+	d.Held = []string{}
+	d.Gases = []engine.GasRelease{}
+	for _, g := range o.Gases {
+		d.Gases = append(d.Gases, engine.GasReleaseOf(g.Formula+"(g)", g.Mol, o.TemperatureK(), o.PressureKPa))
+	}
+	for _, h := range o.HeldBack {
+		d.Held = append(d.Held, h.Text+": "+h.Reason)
+	}
+	if o.Heat.Known {
+		d.Heat = &engine.HeatJudged{ReleasedkJ: round1(o.Heat.ReleasedkJ), ReachedC: round1(o.Heat.ReachedC), Boils: o.Heat.Boils}
+	}
 	res.Decision = &d
 	return res, nil
 }
@@ -75,5 +85,7 @@ func rise(r *engine.Result) float64 {
 	}
 	return *r.Heat.TemperatureRiseC
 }
+
+func round1(x float64) float64 { return math.Round(x*10) / 10 }
 
 func trim(x float64) string { return fmt.Sprintf("%.4g", x) }

@@ -15,41 +15,65 @@ const NoConcernTitle = "no redox or acid–base reaction of concern"
 // redox verdict plays no part.
 func Decide(final []engine.Hazard, add *engine.Addition) engine.Decision {
 	d := engine.Decision{Level: engine.NoConcern, Title: NoConcernTitle, Reasons: []string{}, Actions: []string{}}
-	worst := worstOf(final)
+	finalW := worstOf(final)
 	for _, h := range final {
-		if h.Severity == engine.Info {
-			continue
+		if h.Severity != engine.Info {
+			d.Reasons = append(d.Reasons, Reason(h))
+			d.Actions = appendNew(d.Actions, h.Action)
 		}
-		d.Reasons = append(d.Reasons, Reason(h))
-		d.Actions = appendNew(d.Actions, h.Action)
 	}
-	best, bestOrder, pourWorst := pourLevels(add)
-	if worst >= 2 {
+	if finalW >= 2 {
 		d.Title = titleOf(final)
 	}
-	if best > worst && bestOrder != nil {
-		worst = best
+	best, bestOrder, allW := pourLevels(add)
+	level := max(finalW, best)
+	switch {
+	case best > finalW && bestOrder != nil:
 		d.Title = pourTitle(add, bestOrder)
 		for _, ph := range bestOrder.Hazards {
-			d.Reasons = append(d.Reasons, "while "+bestOrder.Added+" runs into "+bestOrder.Into+": "+codeTitle(ph.Code)+" from "+pct(ph.FromFraction)+" to "+pct(ph.ToFraction)+" of the addition")
+			d.Reasons = append(d.Reasons, "while "+bestOrder.Added+" runs into "+bestOrder.Into+": "+codeTitle(ph.Code)+
+				" from "+pct(ph.FromFraction)+" to "+pct(ph.ToFraction)+" of the addition")
 		}
-	} else if pourWorst > worst && add != nil {
-		d.Title = strings.TrimSpace(d.Title + "; " + add.Advice)
-		if worst < 2 {
-			d.Title = add.Advice
+	case allW > best && bestOrder != nil:
+		level = max(level, 2)
+		if finalW < 2 {
+			d.Title = worseOrderTitle(add, bestOrder)
 		}
-		worst = max(worst, 2)
+		d.Title += "; order of addition matters: add " + bestOrder.Added + " into " + bestOrder.Into
 	}
-	if add != nil && add.Advice != "" && pourWorst > 0 {
+	if add != nil && add.Advice != "" && allW >= 2 {
 		d.Actions = appendNew(d.Actions, add.Advice)
 	}
-	switch worst {
-	case 3:
+	switch {
+	case level >= 3:
 		d.Level = engine.DoNotMix
-	case 2:
+	case level == 2:
 		d.Level = engine.WithPrecautions
 	}
 	return d
+}
+
+// worseOrderTitle names the worst hazard met in the other order(s).
+func worseOrderTitle(add *engine.Addition, good *engine.PourOrder) string {
+	w, t := 0, ""
+	for i := range add.Orders {
+		o := &add.Orders[i]
+		if o == good || o.Added != good.Into || o.Into != good.Added {
+			continue
+		}
+		for _, h := range o.Hazards {
+			if rank(h.Worst) > w {
+				w, t = rank(h.Worst), codeTitle(h.Code)
+			}
+		}
+	}
+	if t == "" {
+		return "hazard along the pour"
+	}
+	if t == codeTitle("boils") {
+		t = "boils locally"
+	}
+	return t + " if poured the other way"
 }
 
 // pourLevels returns the worst severity rank of the better order, that

@@ -29,7 +29,7 @@ var gasCodes = map[string]string{
 
 // gasActions is what to do, by gas, for a danger and for a warning.
 var gasActions = map[string][2]string{
-	"Cl2":  {"Do not combine. Keep hypochlorite and acids on separate lines; if it has happened, leave upwind and return only with breathing apparatus.", "Keep the pH above 7, add slowly with extraction running."},
+	"Cl2":  {"Do not combine. If it has happened, leave upwind and return only with breathing apparatus.", "Add slowly with extraction running; keep the pH of anything holding hypochlorite above 7."},
 	"HCN":  {"Do not combine. Keep cyanide liquors above pH 10.5 and acids away from them; if it has happened, leave at once and raise the alarm.", "Raise the pH above 10.5 with caustic first; work with extraction and an HCN detector."},
 	"H2S":  {"Do not combine. Keep sulfide liquors alkaline (above pH 9); if it has happened, leave and return only with a detector and breathing apparatus.", "Keep the liquor above pH 9, ventilate and wear an H2S detector."},
 	"SO2":  {"Do not combine in one go. Dose only into liquors that are not strongly acidic, slowly, with extraction; if it has happened, leave the area.", "Add slowly with extraction running and keep the tank covered."},
@@ -82,7 +82,7 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 	if g.LimitName == "O2" {
 		limit = "the added oxygen that makes air oxygen-enriched (23.5 % O2)"
 	}
-	msg := fmt.Sprintf("%s: %s mol (%s L as gas) can leave the liquid, from %s. At equilibrium the headspace (%s, %s L) holds %s ppm, %s× %s.",
+	msg := fmt.Sprintf("%s: %s mol (%s L as gas) can leave the liquid (%s). At equilibrium the headspace (%s, %s L) holds %s ppm, %s× %s.",
 		upperFirst(g.Name), fmtNum(p.mol, 3), fmtNum(litres, 3), strings.Join(p.origins, "; "), hsWhy, fmtNum(o.HeadspaceL, 4), fmtNum(hs.PPM, 3), fmtNum(ratio, 2), limit)
 	if hs.Vents {
 		msg += " It fills the headspace and the rest vents."

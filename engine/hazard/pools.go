@@ -2,6 +2,9 @@ package hazard
 
 import (
 	"math"
+	"strconv"
+
+	"mixward/engine"
 )
 
 // ChlorineHydrolysisK is the equilibrium constant of
@@ -33,6 +36,12 @@ func pools(o *Outcome, d *Data) map[string]*pool {
 				p.mol = tot * o.VolumeL
 				p.molecular = o.Molar(g.Dissolved) / tot
 				p.origins = append(p.origins, "dissolved "+g.Formula+" and its acid–base forms")
+			}
+		}
+		for _, a := range o.After {
+			if a.Species.Formula == f && a.Species.Charge == 0 && a.Species.Phase == engine.Liquid && a.Mol > 0 {
+				p.mol += a.Mol
+				p.origins = append(p.origins, "liquid "+f+" formed")
 			}
 		}
 		if n := o.GasMol(f); n > 0 {
@@ -104,7 +113,7 @@ func chlorineFromHypochlorite(o *Outcome, ps map[string]*pool) {
 		return
 	}
 	addTo(ps, "Cl2", math.Min(ocl, cl)*o.VolumeL, molecular,
-		"hypochlorite with chloride at pH "+fmtNum(o.PH, 1)+" (Cl2 ⇌ HOCl + H+ + Cl-)",
+		"hypochlorite with chloride at pH "+strconv.FormatFloat(o.PH, 'f', 1, 64)+" (Cl2 ⇌ HOCl + H+ + Cl-)",
 		"chlorine hydrolysis constant 3.9e-4 (mol/L)² at 25 °C, Connick and Chia 1959, from memory")
 }
 

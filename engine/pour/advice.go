@@ -56,7 +56,7 @@ func pairAdvice(x, y engine.PourOrder) string {
 }
 
 func better(good, bad engine.PourOrder) string {
-	s := "Add " + good.Added + " into " + good.Into + ", slowly; never " + bad.Added + " into " + bad.Into + " (" + codes(bad) + " from the first " + pct(firstWorst(bad)) + ")."
+	s := "Add " + good.Added + " into " + good.Into + ", slowly; never " + bad.Added + " into " + bad.Into + " (" + codes(bad) + " from " + pct(firstWorst(bad)) + " of the addition)."
 	if worst(good) > 0 {
 		s += " That order still meets " + codes(good) + "."
 	}
