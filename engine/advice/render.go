@@ -100,6 +100,8 @@ func heatLine(r *engine.Result) string {
 		return fmt.Sprintf("Heat: %s kJ, would reach about %s °C: boils", num(h.ReleasedkJ), num(h.ReachedC))
 	case h.ReleasedkJ == 0:
 		return "Heat: none to speak of"
+	case h.ReleasedkJ < 0:
+		return fmt.Sprintf("Heat: %s kJ taken up, cools to about %s °C", num(-h.ReleasedkJ), num(h.ReachedC))
 	}
 	return fmt.Sprintf("Heat: %s kJ, to about %s °C", num(h.ReleasedkJ), num(h.ReachedC))
 }

@@ -19,8 +19,10 @@ const BoilingC = 100.0
 var catalysts = []string{"Cu^2+", "Ni^2+", "Co^2+", "Fe^3+", "Fe^2+", "Mn^2+", "Ag+"}
 
 // selfDecomposing are the species whose own decomposition to oxygen is
-// held back without a catalyst.
-var selfDecomposing = map[string]bool{"OCl-": true, "HOCl": true, "H2O2": true, "HO2-": true, "ClO2-": true, "HClO2": true}
+// held back without a catalyst, by family (acid–base forms of one
+// species). Two different families together (hypochlorite with peroxide)
+// react fast and are not held back.
+var selfDecomposing = map[string]string{"OCl-": "OCl", "HOCl": "OCl", "H2O2": "H2O2", "HO2-": "H2O2", "ClO2-": "ClO2", "HClO2": "ClO2"}
 
 // FromResult fills an Outcome from today's engine answer. Reactions count
 // only when they proceed (E cell above ProceedMarginV, not kinetically
@@ -108,18 +110,22 @@ func (o *Outcome) consider(lbl string, rx *engine.Reaction, eCell float64, hinde
 }
 
 // uncatalysedOxygen: the reaction gives oxygen, every reactant other than
-// water, H+ and OH- decomposes by itself, and no catalyst ion is present.
+// water, H+ and OH- is one species decomposing by itself, and no catalyst
+// ion is present.
 func (o *Outcome) uncatalysedOxygen(p Proceeding) bool {
 	if !producesGas(p, "O2") {
 		return false
 	}
+	fam := ""
 	for _, s := range p.Reactants {
 		if s.IsWater() || s.IsProton() || s.IsHydroxide() {
 			continue
 		}
-		if !selfDecomposing[s.Text()] {
+		f, ok := selfDecomposing[s.Text()]
+		if !ok || (fam != "" && f != fam) {
 			return false
 		}
+		fam = f
 	}
 	return !(o.MolarBefore(catalysts...) >= TraceMolar)
 }

@@ -66,7 +66,10 @@ func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 
 func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) engine.Hazard {
 	sev, act := engine.Warning, gasActions[g.Formula][1]
-	if ratio >= DangerRatio {
+	// Oxygen enrichment is a fire precaution, never a reason on its own
+	// not to combine (OSHA 1910.146 treats it as a hazardous atmosphere to
+	// ventilate).
+	if ratio >= DangerRatio && g.LimitName != "O2" {
 		sev, act = engine.Danger, gasActions[g.Formula][0]
 	}
 	code := gasCodes[g.Formula]
