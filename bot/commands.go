@@ -10,6 +10,7 @@ import (
 	"github.com/slack-go/slack"
 
 	"mixward/engine/advice"
+	"mixward/engine/hazard"
 	"mixward/store"
 )
 
@@ -182,15 +183,19 @@ func (b *Bot) search(ctx context.Context, in Incoming, q SearchQuery) Reply {
 	if b.Searcher == nil {
 		return Reply{Kind: KindSearch, Text: "The query log cannot be searched here."}
 	}
+	var codes []string
+	if q.Hazard != "" {
+		codes = hazard.Equivalent(q.Hazard) // renamed codes find older records too
+	}
 	page, err := b.Searcher.Search(ctx, store.SearchOptions{
-		Terms:   strings.Join(q.Terms, " "),
-		Since:   q.Since,
-		Until:   q.Until,
-		User:    q.User,
-		Verdict: q.Verdict,
-		Hazard:  q.Hazard,
-		Limit:   searchPageSize,
-		Offset:  (q.Page - 1) * searchPageSize,
+		HazardAny: codes,
+		Terms:     strings.Join(q.Terms, " "),
+		Since:     q.Since,
+		Until:     q.Until,
+		User:      q.User,
+		Verdict:   q.Verdict,
+		Limit:     searchPageSize,
+		Offset:    (q.Page - 1) * searchPageSize,
 	})
 	if err != nil {
 		if errors.Is(err, store.ErrInvalid) {
