@@ -102,6 +102,11 @@ func (o *Outcome) consider(lbl string, rx *engine.Reaction, eCell float64, hinde
 		reason = "chlorine does not persist above about pH 5 (it hydrolyses to hypochlorous acid and chloride); chlorine is judged from that equilibrium instead"
 	}
 	if reason != "" {
+		for _, h := range o.HeldBack {
+			if h.Text == rx.Text {
+				return false
+			}
+		}
 		o.HeldBack = append(o.HeldBack, HeldBack{Text: rx.Text, Reason: reason})
 		return false
 	}
