@@ -28,8 +28,8 @@ type SearchOptions struct {
 	// aliases (engine/hazard.Equivalent), so that renamed codes still find
 	// older records.
 	HazardAny []string
-	Limit   int       // page size; 0 means 50, at most 1000
-	Offset  int       // rows to skip, for paging
+	Limit     int // page size; 0 means 50, at most 1000
+	Offset    int // rows to skip, for paging
 }
 
 // SearchPage is one page of results, newest first.
