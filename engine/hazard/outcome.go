@@ -32,6 +32,15 @@ type Amount struct {
 	Species engine.Species
 	Mol     float64
 	Molar   float64
+
+	ion string // Species.Ion(), cached by FromResult
+}
+
+func (a *Amount) key() string {
+	if a.ion == "" {
+		a.ion = a.Species.Ion()
+	}
+	return a.ion
 }
 
 // Proceeding is a reaction that runs at the mix's conditions.
@@ -143,9 +152,14 @@ func (o *Outcome) GasMol(formula string) float64 {
 
 func sumMolar(xs []Amount, species []string) float64 {
 	t := 0.0
-	for _, a := range xs {
+	for i := range xs {
+		a := &xs[i]
+		if a.Molar < TraceMolar {
+			continue
+		}
+		k := a.key()
 		for _, s := range species {
-			if speciesIs(a.Species, s) && a.Molar >= TraceMolar {
+			if k == s || (hasPhase(s) && a.Species.Text() == s) {
 				t += a.Molar
 			}
 		}
@@ -153,24 +167,27 @@ func sumMolar(xs []Amount, species []string) float64 {
 	return t
 }
 
+// hasPhase reports whether a species text ends in a phase suffix: (s),
+// (l), (g) or (aq).
+func hasPhase(text string) bool {
+	for _, suf := range []string{"(s)", "(l)", "(g)", "(aq)"} {
+		if strings.HasSuffix(text, suf) {
+			return true
+		}
+	}
+	return false
+}
+
 // speciesIs matches a species written as in the tables ("CN-", "Fe^3+",
 // "Na(s)"); without a phase suffix any phase matches.
 func speciesIs(s engine.Species, text string) bool {
-	want, err := engine.ParseSpecies(text)
-	if err != nil {
-		panic("hazard: bad species text " + text)
-	}
-	if s.Formula != want.Formula || s.Charge != want.Charge {
-		return false
-	}
-	if strings.HasSuffix(text, ")") {
-		ph := s.Phase
-		if ph == "" {
-			ph = engine.Aqueous
+	if hasPhase(text) {
+		if s.Phase == "" {
+			s.Phase = engine.Aqueous
 		}
-		return ph == want.Phase
+		return s.Text() == text || (s.Phase == engine.Aqueous && s.Ion()+"(aq)" == text)
 	}
-	return true
+	return s.Ion() == text
 }
 
 func finite(x float64) bool { return !math.IsNaN(x) && !math.IsInf(x, 0) }
