@@ -15,10 +15,14 @@ import (
 	"mixward/engine"
 )
 
-// Fractions are the shares of the added stream at which the pour is judged:
+// fractions are the shares of the added stream at which the pour is judged:
 // 23 points, denser near the first drop and near the end.
-var Fractions = []float64{0.001, 0.003, 0.01, 0.02, 0.04, 0.07, 0.1, 0.15, 0.2, 0.3, 0.4, 0.5,
+var fractions = [...]float64{0.001, 0.003, 0.01, 0.02, 0.04, 0.07, 0.1, 0.15, 0.2, 0.3, 0.4, 0.5,
 	0.6, 0.7, 0.8, 0.85, 0.9, 0.93, 0.96, 0.98, 0.99, 0.995, 1}
+
+// Fractions returns the shares of the added stream at which the pour is
+// judged.
+func Fractions() []float64 { return append([]float64(nil), fractions[:]...) }
 
 // Evaluate judges one mix and returns its hazards.
 type Evaluate func(req *engine.Request) ([]engine.Hazard, error)
@@ -62,7 +66,7 @@ func order(req *engine.Request, a, b int, eval Evaluate) (engine.PourOrder, int)
 	open := map[string]*engine.PourHazard{}
 	var keys []string
 	pts := 0
-	for _, f := range Fractions {
+	for _, f := range fractions {
 		r := *req
 		r.Streams = []engine.Stream{sb, scaled(sa, f)}
 		hs, err := eval(&r)
