@@ -53,6 +53,9 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 	}
 	res.Notes = append(res.Notes, fmt.Sprintf("gas concentrations are for a closed headspace equal to the liquid volume (%s L), at equilibrium", trim(o.HeadspaceL)))
 	res.Addition = pour.Analyse(req, a.evaluate)
+	if res.Addition == nil {
+		res.Addition = &engine.Addition{Orders: []engine.PourOrder{}, Advice: "One stream: nothing is poured into anything."}
+	}
 	d := hazard.Decide(res.Hazards, res.Addition)
 	d.HeadspaceL = o.HeadspaceL
 	d.Held = []string{}
