@@ -47,12 +47,16 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 		return nil, err
 	}
 	o := hazard.FromResult(res, a.Engine.Tables)
-	res.Hazards = hazard.Judge(o, a.Gases)
+	alone := a.alone(req)
+	res.Hazards = hazard.Relative(hazard.Judge(o, a.Gases), pick(alone, req.Streams))
 	if o.Heat.Known && o.Heat.RiseC != rise(res) {
 		res.Notes = append(res.Notes, fmt.Sprintf("heat counted for the hazards: %.0f kJ, about %+.1f °C (reactions that do not proceed left out)", o.Heat.ReleasedkJ, o.Heat.RiseC))
 	}
 	res.Notes = append(res.Notes, fmt.Sprintf("gas concentrations are for a closed headspace equal to the liquid volume (%s L), at equilibrium", trim(o.HeadspaceL)))
-	res.Addition = pour.Analyse(req, a.evaluate)
+	res.Addition = pour.Analyse(req, func(r *engine.Request) ([]engine.Hazard, error) {
+		hs, err := a.evaluate(r)
+		return hazard.Relative(hs, pick(alone, r.Streams)), err
+	})
 	if res.Addition == nil {
 		res.Addition = &engine.Addition{Orders: []engine.PourOrder{}, Advice: "One stream: nothing is poured into anything."}
 	}
@@ -81,6 +85,35 @@ func (a *Advisor) evaluate(req *engine.Request) ([]engine.Hazard, error) {
 	}
 	return hazard.Judge(hazard.FromResult(res, a.Engine.Tables), a.Gases), nil
 }
+
+// alone judges each stream by itself, keyed by streamKey.
+func (a *Advisor) alone(req *engine.Request) map[string]hazard.Alone {
+	out := map[string]hazard.Alone{}
+	for _, s := range req.Streams {
+		r := *req
+		r.Streams = []engine.Stream{s}
+		hs, err := a.evaluate(&r)
+		if err != nil {
+			continue
+		}
+		out[streamKey(s)] = hazard.Alone{Name: pour.Name(&s), Hazards: hs}
+	}
+	return out
+}
+
+// pick returns the judgements alone of the streams given (a pour point
+// holds two of the request's streams, one of them scaled).
+func pick(alone map[string]hazard.Alone, ss []engine.Stream) []hazard.Alone {
+	var out []hazard.Alone
+	for _, s := range ss {
+		if a, ok := alone[streamKey(s)]; ok {
+			out = append(out, a)
+		}
+	}
+	return out
+}
+
+func streamKey(s engine.Stream) string { return s.Tag + "\x00" + s.Text }
 
 func rise(r *engine.Result) float64 {
 	if r.Heat == nil || r.Heat.TemperatureRiseC == nil {

@@ -205,3 +205,26 @@ func TestDecisionNotFromVerdict(t *testing.T) {
 		t.Errorf("title %q", r.Decision.Title)
 	}
 }
+
+// TestStreamsOwnHazards: a hazard a stream carries alone is not blamed on
+// the mix unless mixing makes it worse; heat, hydrofluoric acid and
+// hexavalent chromium always count.
+func TestStreamsOwnHazards(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "mix 10 L NH3 10 % + 10 L water")
+	if h, ok := hazardOf(r, "ammonia-release"); ok && h.Severity != engine.Info {
+		t.Errorf("diluting ammonia solution raised %s %s: %s", h.Code, h.Severity, h.Message)
+	}
+	if r.Decision.Level != engine.NoConcern {
+		t.Errorf("diluting ammonia solution: %s (%s)", r.Decision.Level, r.Decision.Title)
+	}
+	// Acid makes the cyanide stream's own trace of HCN far worse: it counts.
+	r = ask(t, a, "mix 1 L NaCN 5 %, NaOH 1 % + 1 L HCl 10 %")
+	if h, ok := hazardOf(r, "hcn-release"); !ok || h.Severity != engine.Danger {
+		t.Errorf("cyanide with acid: %v", codesOf(r))
+	}
+	r = ask(t, a, "mix 1 L HF 40 % + 1 L water")
+	if h, ok := hazardOf(r, "hf-burns"); !ok || h.Severity == engine.Info {
+		t.Errorf("hydrofluoric acid demoted: %v", codesOf(r))
+	}
+}

@@ -98,6 +98,8 @@ func (o *Outcome) consider(lbl string, rx *engine.Reaction, eCell float64, hinde
 		reason = "kinetically hindered at these conditions"
 	case o.uncatalysedOxygen(p):
 		reason = "oxygen from hypochlorite or peroxide alone needs a catalyst (Cu, Ni, Co, Fe, Mn ions) or heat; none is present, so it is slow at plant temperature"
+	case producesGas(p, "H2") && hasReactant(p, "BH4-") && o.PH >= 10:
+		reason = "borohydride hydrolyses only slowly above about pH 10 (it is stored in caustic for that reason: Bretherick's Handbook, sodium tetrahydroborate, from memory)"
 	case producesGas(p, "Cl2") && o.PH >= 5:
 		reason = "chlorine does not persist above about pH 5 (it hydrolyses to hypochlorous acid and chloride); chlorine is judged from that equilibrium instead"
 	}
@@ -133,6 +135,15 @@ func (o *Outcome) uncatalysedOxygen(p Proceeding) bool {
 		fam = f
 	}
 	return !(o.MolarBefore(catalysts...) >= TraceMolar)
+}
+
+func hasReactant(p Proceeding, text string) bool {
+	for _, s := range p.Reactants {
+		if s.Text() == text {
+			return true
+		}
+	}
+	return false
 }
 
 func producesGas(p Proceeding, formula string) bool {
