@@ -49,6 +49,7 @@ func (b *Bot) help() Reply {
 	s.WriteString("  digest [12h]                     shift summary so far, or for the last hours (supervisors and reviewers)\n")
 	s.WriteString("  help                             this text\n\n")
 	if b.ConsoleHelp {
+		s.WriteString("At the console also: details (the full answer to the last request), details 12 (logged query #12).\n\n")
 		s.WriteString("This is the local console: you are the operator at this terminal, so every command is open to you, " +
 			"and your requests are logged as user \"console\".\n\n")
 	} else {

@@ -118,3 +118,22 @@ func TestEquivalent(t *testing.T) {
 		t.Errorf("toxic-gas maps to %v; every toxic gas code should be listed", a["toxic-gas"])
 	}
 }
+
+// FuzzParseGases: the gas table parser never panics and accepts only rows
+// that read back with a positive limit and a source.
+func FuzzParseGases(f *testing.F) {
+	f.Add([]byte("Cl2 | Cl2 | Cl2 | 0.062 | IDLH | 10 | NIOSH | Sander 2015 | chlorine\n"))
+	f.Add([]byte("# comment\n\nH2 | - | - | 0.00078 | LFL | 40000 | USBM | Sander | hydrogen\n"))
+	f.Add([]byte("X | | | | | | | |\n"))
+	f.Fuzz(func(t *testing.T, b []byte) {
+		d, err := parseGases(b)
+		if err != nil {
+			return
+		}
+		for f, g := range d.Gases {
+			if !(g.LimitPPM > 0) || g.KH < 0 || g.LimitSource == "" || g.HenrySource == "" || f != g.Formula {
+				t.Fatalf("accepted a bad row: %+v", g)
+			}
+		}
+	})
+}

@@ -64,6 +64,7 @@ func order(req *engine.Request, a, b int, eval Evaluate) (engine.PourOrder, int)
 	sa, sb := withAmount(req.Streams[a]), withAmount(req.Streams[b])
 	po := engine.PourOrder{Added: Name(&req.Streams[a]), Into: Name(&req.Streams[b]), Hazards: []engine.PourHazard{}}
 	open := map[string]*engine.PourHazard{}
+	worstRatio := map[string]float64{} // the message kept is that of the worst point
 	var keys []string
 	pts := 0
 	for _, f := range fractions {
@@ -82,11 +83,13 @@ func order(req *engine.Request, a, b int, eval Evaluate) (engine.PourOrder, int)
 			seen[h.Code] = true
 			if ph := open[h.Code]; ph != nil {
 				ph.ToFraction = f
-				if rank(h.Severity) > rank(ph.Worst) {
+				if rank(h.Severity) > rank(ph.Worst) || (h.Severity == ph.Worst && ratio(h) > worstRatio[h.Code]) {
 					ph.Worst, ph.Message = h.Severity, h.Message
+					worstRatio[h.Code] = ratio(h)
 				}
 				continue
 			}
+			worstRatio[h.Code] = ratio(h)
 			open[h.Code] = &engine.PourHazard{Code: h.Code, FromFraction: f, ToFraction: f, Worst: h.Severity, Message: h.Message}
 			keys = append(keys, h.Code)
 		}
@@ -120,6 +123,16 @@ func scaled(s engine.Stream, f float64) engine.Stream {
 	s.VolumeL *= f
 	s.MassKg *= f
 	return s
+}
+
+func ratio(h engine.Hazard) float64 {
+	if h.Gas != nil {
+		return h.Gas.Ratio
+	}
+	if h.Heat != nil {
+		return h.Heat.ReachedC
+	}
+	return 0
 }
 
 func rank(s engine.Severity) int {
