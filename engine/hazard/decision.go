@@ -25,21 +25,21 @@ func Decide(final []engine.Hazard, add *engine.Addition) engine.Decision {
 	if finalW >= 2 {
 		d.Title = titleOf(final)
 	}
-	best, bestOrder, allW := pourLevels(add)
+	best, bestOrder, allW, choice := pourLevels(add)
 	level := max(finalW, best)
 	switch {
-	case best > finalW && bestOrder != nil:
+	case best > finalW && bestOrder != nil && len(bestOrder.Hazards) > 0:
 		d.Title = pourTitle(add, bestOrder)
 		for _, ph := range bestOrder.Hazards {
 			d.Reasons = append(d.Reasons, "while "+bestOrder.Added+" runs into "+bestOrder.Into+": "+codeTitle(ph.Code)+
 				" from "+pct(ph.FromFraction)+" to "+pct(ph.ToFraction)+" of the addition")
 		}
-	case allW > best && bestOrder != nil:
+	case allW > best && choice != nil:
 		level = max(level, 2)
 		if finalW < 2 {
-			d.Title = worseOrderTitle(add, bestOrder)
+			d.Title = worseOrderTitle(add, choice)
 		}
-		d.Title += "; order of addition matters: add " + bestOrder.Added + " into " + bestOrder.Into
+		d.Title += "; order of addition matters: add " + choice.Added + " into " + choice.Into
 	}
 	if add != nil && add.Advice != "" && allW >= 2 {
 		d.Actions = appendNew(d.Actions, add.Advice)
@@ -76,24 +76,40 @@ func worseOrderTitle(add *engine.Addition, good *engine.PourOrder) string {
 	return t + " if poured the other way"
 }
 
-// pourLevels returns the worst severity rank of the better order, that
-// order, and the worst rank over all orders.
-func pourLevels(add *engine.Addition) (best int, order *engine.PourOrder, all int) {
-	if add == nil || len(add.Orders) == 0 {
-		return 0, nil, 0
+// pourLevels judges the pour pair by pair (the orders come in pairs: one
+// pair of streams, both ways). For each pair the better order counts, as the
+// operator can choose it. best is the worst of those over the pairs, with
+// its order; all is the worst rank met in any order; choice is the better
+// order of the pair where the order matters most (nil when it never does).
+func pourLevels(add *engine.Addition) (best int, order *engine.PourOrder, all int, choice *engine.PourOrder) {
+	if add == nil {
+		return 0, nil, 0, nil
 	}
-	best = 99
-	for i := range add.Orders {
-		w := 0
-		for _, h := range add.Orders[i].Hazards {
-			w = max(w, rank(h.Worst))
+	gap := 0
+	for i := 0; i+1 < len(add.Orders); i += 2 {
+		x, y := &add.Orders[i], &add.Orders[i+1]
+		wx, wy := orderRank(x), orderRank(y)
+		good, pb := x, wx
+		if wy < wx {
+			good, pb = y, wy
 		}
-		all = max(all, w)
-		if w < best {
-			best, order = w, &add.Orders[i]
+		if pb > best || order == nil {
+			best, order = max(best, pb), good
+		}
+		all = max(all, wx, wy)
+		if d := max(wx, wy) - pb; d > 0 && max(wx, wy) > gap {
+			gap, choice = max(wx, wy), good
 		}
 	}
-	return best, order, all
+	return best, order, all, choice
+}
+
+func orderRank(o *engine.PourOrder) int {
+	w := 0
+	for _, h := range o.Hazards {
+		w = max(w, rank(h.Worst))
+	}
+	return w
 }
 
 func pourTitle(add *engine.Addition, o *engine.PourOrder) string {

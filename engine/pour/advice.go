@@ -30,8 +30,19 @@ func span(o engine.PourOrder) float64 {
 // advice compares the orders of each pair of streams and says which to use.
 func advice(add *engine.Addition) string {
 	var parts []string
+	quiet := 0
 	for i := 0; i+1 < len(add.Orders); i += 2 {
-		parts = append(parts, pairAdvice(add.Orders[i], add.Orders[i+1]))
+		x, y := add.Orders[i], add.Orders[i+1]
+		if worst(x) == 0 && worst(y) == 0 {
+			quiet++
+			if len(add.Orders) > 2 {
+				continue // with three or more streams only the pairs that matter are named
+			}
+		}
+		parts = append(parts, pairAdvice(x, y))
+	}
+	if len(add.Orders) > 2 && quiet*2 == len(add.Orders) {
+		return "Any order: nothing of concern appears along the pour of any pair."
 	}
 	return strings.Join(parts, " ")
 }
