@@ -155,6 +155,8 @@ func (b *Bot) Answer(ctx context.Context, in Incoming) Reply {
 		return b.search(ctx, in, cmd.Search)
 	case KindDigest:
 		return b.digest(ctx, in, cmd.Hours)
+	case KindReview:
+		return b.review(ctx)
 	}
 	return b.mix(ctx, in, cmd.Text)
 }

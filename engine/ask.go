@@ -151,6 +151,7 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 		Steps:        []Step{},
 		Caveats:      []string{},
 		Notes:        append(append([]string{}, req.Notes...), m.notes...),
+		ReadAs:       append([]string{}, req.Notes...),
 		Conditions: Conditions{
 			PH:           roundDec(m.pH, 2),
 			PHStated:     m.pHStated,

@@ -11,6 +11,7 @@ import (
 
 	"mixward/data"
 	"mixward/engine"
+	"mixward/engine/advice"
 )
 
 // cmdDefault is plain `mixward`: the Slack bot when Slack tokens are set,
@@ -74,8 +75,9 @@ func checkFormat(f string, allowed ...string) error {
 }
 
 func (a *app) cmdAsk(ctx context.Context, args []string) error {
-	fs := a.newFlags("ask", `ask [--format text|json] [--no-log] [--db PATH] [--tz ZONE] "<request>"`)
+	fs := a.newFlags("ask", `ask [--details] [--format text|json] [--no-log] [--db PATH] [--tz ZONE] "<request>"`)
 	format := fs.String("format", "text", "output format: text or json")
+	details := fs.Bool("details", false, "print the full answer (species, half-reactions, amounts, every hazard, the pour) instead of the short one")
 	noLog := fs.Bool("no-log", false, "do not record the query in the log")
 	so := storeFlags(a, fs)
 	pos, err := parseFlags(fs, args)
@@ -94,7 +96,11 @@ func (a *app) cmdAsk(ctx context.Context, args []string) error {
 	if err != nil {
 		return err
 	}
-	res, id, err, logErr := a.askOnce(ctx, eng, so, text, *noLog)
+	adv, err := loadAdvisor(eng)
+	if err != nil {
+		return err
+	}
+	res, id, err, logErr := a.askOnce(ctx, eng, adv, so, text, *noLog)
 	if logErr != nil {
 		return fmt.Errorf("%w: %v", errNotLogged, logErr)
 	}
@@ -118,8 +124,22 @@ func (a *app) cmdAsk(ctx context.Context, args []string) error {
 	if *format == "json" {
 		return writeJSON(a.stdout, res)
 	}
-	_, err = io.WriteString(a.stdout, engine.RenderText(res))
+	render := advice.RenderShort
+	if *details {
+		render = advice.RenderDetails
+	}
+	_, err = io.WriteString(a.stdout, render(res))
 	return err
+}
+
+// loadAdvisor wraps the engine with the hazard judgement, the pour and the
+// decision.
+func loadAdvisor(eng *engine.Engine) (*advice.Advisor, error) {
+	adv, err := advice.New(eng, data.FS)
+	if err != nil {
+		return nil, fmt.Errorf("loading the embedded gas table: %w", err)
+	}
+	return adv, nil
 }
 
 func writeJSON(w io.Writer, v any) error {
@@ -202,7 +222,8 @@ func (a *app) usage(w io.Writer) {
 
 usage:
   mixward                         start the local console (no Slack tokens needed)
-  mixward ask "<request>"         answer one mix request (--format text|json, --no-log, --db)
+  mixward ask "<request>"         answer one mix request, short: the decision first (--details, --format text|json, --no-log, --db)
+  mixward review                  judge every pair of the site's tagged streams, worst first (--format text|json|csv, --db)
   mixward table                   list the half-reaction table (--format text|json)
   mixward plot "<request>" -o mix.png   draw the E–pH picture of the predicted couples (--db for tags)
   mixward streams set|list|show|rm      the site stream catalogue (tags such as T-101)
