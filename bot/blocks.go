@@ -11,6 +11,7 @@ import (
 	"github.com/slack-go/slack"
 
 	"mixward/engine"
+	"mixward/engine/advice"
 )
 
 // Block Kit limits (Slack's Block Kit reference; the library does not
@@ -29,9 +30,17 @@ const maxAlternatives = 3
 // Advisory is said under every mix answer, whatever the engine adds.
 const Advisory = "Advisory only, not a permit: follow the safety data sheets, site procedures, management-of-change and local codes, and ask a qualified person before mixing."
 
-// VerdictTitle is the headline of an answer: a marker for the verdict and
-// the engine's one-line headline.
+// VerdictTitle is the headline of an answer: the decision (do not mix,
+// with precautions, no concern) with its marker when the answer carries
+// one, else a marker for the verdict and the engine's one-line headline.
 func VerdictTitle(r *engine.Result) string {
+	if d := r.Decision; d != nil {
+		mark := map[engine.Level]string{engine.DoNotMix: ":red_circle:", engine.WithPrecautions: ":large_orange_circle:"}[d.Level]
+		if mark == "" {
+			mark = ":large_green_circle:"
+		}
+		return mark + " " + advice.DecisionLine(r)
+	}
 	mark := ":large_green_circle:"
 	switch {
 	case countSeverity(r.Hazards, engine.Danger) > 0:
@@ -108,7 +117,13 @@ func num(v float64) string {
 func ResultBlocks(r *engine.Result, queryID int64) []slack.Block {
 	var bl []slack.Block
 	bl = append(bl, header(VerdictTitle(r)))
+	if d := r.Decision; d != nil && len(d.Actions) > 0 {
+		bl = append(bl, sections("What to do", escAll(d.Actions))...)
+	}
 	req := "*Request:* `" + esc(r.Request) + "`"
+	if r.Decision != nil {
+		req += "  ·  redox: " + esc(engine.Headline(r))
+	}
 	if queryID > 0 {
 		req += fmt.Sprintf("  ·  logged as query #%d", queryID)
 	}
@@ -410,6 +425,14 @@ func SplitMessages(fallback string, blocks []slack.Block) []Message {
 			text = fmt.Sprintf("(continued, part %d)", len(out)+1)
 		}
 		out = append(out, Message{Text: text, Blocks: blocks[i:j]})
+	}
+	return out
+}
+
+func escAll(xs []string) []string {
+	out := make([]string, len(xs))
+	for i, x := range xs {
+		out[i] = "• " + esc(x)
 	}
 	return out
 }

@@ -245,3 +245,41 @@ func TestAlternativesCapped(t *testing.T) {
 		t.Errorf("no count of the rest:\n%s", text)
 	}
 }
+
+// TestDecisionIsTheFirstBlock: an answer with a decision leads with it
+// (level and reason), then what to do; the redox verdict stays beside the
+// request.
+func TestDecisionIsTheFirstBlock(t *testing.T) {
+	r := &engine.Result{
+		Request: "mix 1 L NaCN 5 % + 1 L HCl 10 %",
+		Verdict: engine.NonSpontaneous,
+		Hazards: []engine.Hazard{{Code: "hcn-release", Severity: engine.Danger, Message: "Hydrogen cyanide ..."}},
+		Decision: &engine.Decision{Level: engine.DoNotMix, Title: "releases hydrogen cyanide",
+			Actions: []string{"Do not combine."}},
+	}
+	bl := ResultBlocks(r, 7)
+	h, ok := bl[0].(*slack.HeaderBlock)
+	if !ok {
+		t.Fatalf("first block is %s, want the decision header", bl[0].BlockType())
+	}
+	if got := h.Text.Text; got != ":red_circle: DO NOT MIX: releases hydrogen cyanide" {
+		t.Errorf("first block %q", got)
+	}
+	s, ok := bl[1].(*slack.SectionBlock)
+	if !ok || !strings.Contains(s.Text.Text, "What to do") || !strings.Contains(s.Text.Text, "Do not combine.") {
+		t.Errorf("second block is not the actions: %#v", bl[1])
+	}
+	c, ok := bl[2].(*slack.ContextBlock)
+	if !ok || len(c.ContextElements.Elements) == 0 || !strings.Contains(c.ContextElements.Elements[0].(*slack.TextBlockObject).Text, "NOT SPONTANEOUS") {
+		t.Errorf("the redox verdict is not beside the request: %#v", bl[2])
+	}
+	for _, lv := range []struct {
+		level engine.Level
+		mark  string
+	}{{engine.WithPrecautions, ":large_orange_circle: MIX ONLY WITH PRECAUTIONS"}, {engine.NoConcern, ":large_green_circle: NO CONCERN"}} {
+		r.Decision.Level = lv.level
+		if got := VerdictTitle(r); !strings.HasPrefix(got, lv.mark) {
+			t.Errorf("VerdictTitle = %q, want prefix %q", got, lv.mark)
+		}
+	}
+}

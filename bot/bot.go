@@ -155,6 +155,8 @@ func (b *Bot) Answer(ctx context.Context, in Incoming) Reply {
 		return b.search(ctx, in, cmd.Search)
 	case KindDigest:
 		return b.digest(ctx, in, cmd.Hours)
+	case KindReview:
+		return b.review(ctx)
 	}
 	return b.mix(ctx, in, cmd.Text)
 }
@@ -212,7 +214,21 @@ func (b *Bot) Record(ctx context.Context, in Incoming, text string) (res *engine
 		EngineVersion: b.EngineVersion,
 		DataHash:      b.DataHash,
 	}
-	res, askErr = b.ask(text, engine.AskOptions{Resolve: resolve})
+	tags := func() []string {
+		if b.Catalogue == nil {
+			return nil
+		}
+		ss, err := b.Catalogue.Streams(ctx)
+		if err != nil {
+			return nil
+		}
+		out := make([]string, len(ss))
+		for i, s := range ss {
+			out[i] = s.Tag
+		}
+		return out
+	}
+	res, askErr = b.ask(text, engine.AskOptions{Resolve: resolve, Tags: tags})
 	if len(resolved) > 0 {
 		q.Resolved = tagWord.ReplaceAllStringFunc(text, func(w string) string {
 			if s, ok := resolved[strings.ToUpper(w)]; ok {

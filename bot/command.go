@@ -18,6 +18,7 @@ const (
 	KindStreams Kind = "streams"
 	KindSearch  Kind = "search"
 	KindDigest  Kind = "digest"
+	KindReview  Kind = "review"
 )
 
 // Command is one parsed message.
@@ -129,6 +130,11 @@ func ParseCommand(text string, loc *time.Location) (Command, error) {
 			c.Hours = h
 		}
 		return c, nil
+	case "review":
+		if rest != "" {
+			return Command{Kind: KindReview, Text: text}, &UsageError{Message: "`review` takes no arguments: it judges every pair of the site's tagged streams.", Example: "review"}
+		}
+		return Command{Kind: KindReview, Text: text}, nil
 	case "streams", "stream":
 		return parseStreams(text, rest)
 	case "search":

@@ -9,6 +9,8 @@ import (
 
 	"github.com/slack-go/slack"
 
+	"mixward/engine/advice"
+	"mixward/engine/hazard"
 	"mixward/store"
 )
 
@@ -43,9 +45,11 @@ func (b *Bot) help() Reply {
 	s.WriteString("  streams remove T-101             retire a tag (supervisors)\n")
 	s.WriteString("  search WORDS [since:2026-11-01] [until:2026-11-30] [user:U123] [verdict:spontaneous] [hazard:CODE] [page:2]\n")
 	s.WriteString("                                   search the query log (reviewers)\n")
+	s.WriteString("  review                           every pair of the site's tagged streams, worst first\n")
 	s.WriteString("  digest [12h]                     shift summary so far, or for the last hours (supervisors and reviewers)\n")
 	s.WriteString("  help                             this text\n\n")
 	if b.ConsoleHelp {
+		s.WriteString("At the console also: details (the full answer to the last request), details 12 (logged query #12).\n\n")
 		s.WriteString("This is the local console: you are the operator at this terminal, so every command is open to you, " +
 			"and your requests are logged as user \"console\".\n\n")
 	} else {
@@ -180,15 +184,19 @@ func (b *Bot) search(ctx context.Context, in Incoming, q SearchQuery) Reply {
 	if b.Searcher == nil {
 		return Reply{Kind: KindSearch, Text: "The query log cannot be searched here."}
 	}
+	var codes []string
+	if q.Hazard != "" {
+		codes = hazard.Equivalent(q.Hazard) // renamed codes find older records too
+	}
 	page, err := b.Searcher.Search(ctx, store.SearchOptions{
-		Terms:   strings.Join(q.Terms, " "),
-		Since:   q.Since,
-		Until:   q.Until,
-		User:    q.User,
-		Verdict: q.Verdict,
-		Hazard:  q.Hazard,
-		Limit:   searchPageSize,
-		Offset:  (q.Page - 1) * searchPageSize,
+		HazardAny: codes,
+		Terms:     strings.Join(q.Terms, " "),
+		Since:     q.Since,
+		Until:     q.Until,
+		User:      q.User,
+		Verdict:   q.Verdict,
+		Limit:     searchPageSize,
+		Offset:    (q.Page - 1) * searchPageSize,
 	})
 	if err != nil {
 		if errors.Is(err, store.ErrInvalid) {
@@ -266,4 +274,33 @@ func DigestReply(d *store.Digest) Reply {
 		bl = append(bl, section("```"+part+"```"))
 	}
 	return Reply{Kind: KindDigest, Text: text, Blocks: bl}
+}
+
+// Reviewer judges every pair of a catalogue's streams. *advice.Advisor
+// implements it; the bot uses it when its Engine does.
+type Reviewer interface {
+	Review(streams []advice.Tagged) []advice.Pair
+}
+
+// review answers `review`: every pair of the site's tagged streams, worst
+// first.
+func (b *Bot) review(ctx context.Context) Reply {
+	rv, ok := b.Engine.(Reviewer)
+	if !ok || b.Catalogue == nil {
+		return Reply{Kind: KindReview, Text: "The catalogue review is not available here."}
+	}
+	ss, err := b.Catalogue.Streams(ctx)
+	if err != nil {
+		b.Metrics.failed("catalogue")
+		b.logger().Error("stream catalogue failed", "action", "review", "err", err)
+		return Reply{Kind: KindReview, Text: "I could not reach the stream catalogue just now; please try again in a minute."}
+	}
+	if len(ss) < 2 {
+		return Reply{Kind: KindReview, Text: "The catalogue needs at least two streams to review. A supervisor can add streams with `" + streamsExample + "`."}
+	}
+	ts := make([]advice.Tagged, len(ss))
+	for i, s := range ss {
+		ts[i] = advice.Tagged{Tag: s.Tag, Stream: s.Stream}
+	}
+	return codeReply(KindReview, strings.TrimRight(advice.RenderReview(rv.Review(ts)), "\n"))
 }

@@ -3,12 +3,16 @@ package bot
 import (
 	"bufio"
 	"context"
+	"encoding/json"
 	"fmt"
 	"io"
+	"strconv"
 	"strings"
 	"sync"
 	"time"
 
+	"mixward/engine"
+	"mixward/engine/advice"
 	"mixward/store"
 )
 
@@ -26,8 +30,12 @@ type Console struct {
 	Out         io.Writer
 	Interactive bool // print a banner and prompts
 	Now         func() time.Time
+	// Query reads a logged query by id, for `details <id>`; nil means
+	// only the last answer can be shown in full.
+	Query func(ctx context.Context, id int64) (*store.Query, error)
 
-	mu sync.Mutex // serialises writes to Out (answers and digests)
+	mu   sync.Mutex     // serialises writes to Out (answers and digests)
+	last *engine.Result // the last mix answer, for `details`
 }
 
 // Prompt is shown before each line in interactive mode.
@@ -59,7 +67,7 @@ func (c *Console) Run(ctx context.Context) error {
 	}()
 	if c.Interactive {
 		c.print("mixward console. Type a mix request such as\n  " + RequestExample +
-			"\nor help, streams, search, digest. quit or Ctrl-D leaves.\n" + Advisory + "\n\n" + Prompt)
+			"\nor help, details, review, streams, search, digest. quit or Ctrl-D leaves.\n" + Advisory + "\n\n" + Prompt)
 	}
 	for {
 		select {
@@ -87,6 +95,13 @@ func (c *Console) Run(ctx context.Context) error {
 			if c.Interactive && (text == "quit" || text == "exit") {
 				return nil
 			}
+			if word, rest, _ := strings.Cut(text, " "); strings.EqualFold(word, "details") {
+				c.print(c.details(ctx, strings.TrimSpace(rest)) + "\n")
+				if c.Interactive {
+					c.print(Prompt)
+				}
+				continue
+			}
 			now := time.Now
 			if c.Now != nil {
 				now = c.Now
@@ -104,7 +119,44 @@ func (c *Console) Run(ctx context.Context) error {
 	}
 }
 
+// details is the full answer of the last request, or of a logged query.
+func (c *Console) details(ctx context.Context, arg string) string {
+	if arg == "" {
+		c.mu.Lock()
+		r := c.last
+		c.mu.Unlock()
+		if r == nil {
+			return "No mix answer yet: ask a mix request first, or say `details 12` for logged query #12."
+		}
+		return advice.RenderDetails(r)
+	}
+	id, err := strconv.ParseInt(strings.TrimPrefix(arg, "#"), 10, 64)
+	if err != nil || id <= 0 {
+		return fmt.Sprintf("`details` takes nothing (the last answer) or a query number like `details 12`; got %q.", arg)
+	}
+	if c.Query == nil {
+		return "The query log cannot be read here."
+	}
+	q, err := c.Query(ctx, id)
+	if err != nil {
+		return fmt.Sprintf("I could not read query #%d from the log: %v.", id, err)
+	}
+	if len(q.Result) == 0 {
+		return fmt.Sprintf("Query #%d has no answer on record (%s): %s", id, q.Verdict, q.Error)
+	}
+	var r engine.Result
+	if err := json.Unmarshal(q.Result, &r); err != nil {
+		return fmt.Sprintf("Query #%d's answer on record could not be read: %v.", id, err)
+	}
+	return fmt.Sprintf("Query #%d, asked %s by %s:\n", id, q.Time.Format("2006-01-02 15:04 MST"), q.UserName) + advice.RenderDetails(&r)
+}
+
 func (c *Console) answer(r Reply) {
+	if r.Result != nil {
+		c.mu.Lock()
+		c.last = r.Result
+		c.mu.Unlock()
+	}
 	var b strings.Builder
 	b.WriteString(strings.TrimRight(r.Text, "\n"))
 	b.WriteString("\n")

@@ -25,6 +25,9 @@ func New(fsys fs.FS) (*Engine, error) {
 	if err != nil {
 		return nil, err
 	}
+	if t.Ceilings, err = LoadCeilings(fsys, t); err != nil {
+		return nil, err
+	}
 	t.atoms = map[string]Atoms{}
 	for _, h := range t.Half {
 		t.indexHalf(h)
@@ -167,7 +170,7 @@ func Cautions() []string { return append([]string(nil), cautions...) }
 
 // Ask parses a request and predicts what happens.
 func (e *Engine) Ask(text string, opt AskOptions) (*Result, error) {
-	req, err := ParseRequest(text, e.Tables, opt.Resolve)
+	req, err := Parse(text, e.Tables, opt)
 	if err != nil {
 		return nil, err
 	}
@@ -234,7 +237,7 @@ func baseResult(req *Request, m *mixture) *Result {
 		Gases: []GasRelease{}, Steps: []Step{}, Caveats: []string{}, HeldBack: []HeldBack{},
 		FinalComposition: []AmountOf{}, Species: []SpeciesInfo{},
 		Amounts: &Amounts{Consumed: []AmountOf{}, Formed: []AmountOf{}},
-		Notes:   append([]string{}, m.notes...),
+		Notes:   append(append([]string{}, req.Notes...), m.notes...), ReadAs: append([]string{}, req.Notes...),
 		Conditions: Conditions{
 			PH: roundDec(m.pH, 2), PHStated: m.pHStated,
 			TemperatureK: roundDec(m.tempK, 2), TemperatureC: roundDec(m.tempK-273.15, 2),

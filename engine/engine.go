@@ -17,6 +17,10 @@ type Resolver func(tag string) (stream string, ok bool)
 // AskOptions tune one request.
 type AskOptions struct {
 	Resolve Resolver // may be nil: tags are then unknown words
+	// Tags lists the catalogue's tags; may be nil. It is called only for a
+	// tag-like word that names nothing, to suggest the nearest tags
+	// ("T102", "T-120": did you mean T-102?).
+	Tags func() []string
 }
 
 // Engine answers mix requests from a loaded set of tables. It is safe for

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"sort"
 	"strings"
+	"unicode"
 )
 
 // Lookup finds a chemical by what an operator typed: first its formula
@@ -271,4 +272,58 @@ func (t *Tables) Density(formula string, percentWW float64) (gPerML float64, ok 
 	a, b := pts[i-1], pts[i]
 	f := (percentWW - a.PercentWW) / (b.PercentWW - a.PercentWW)
 	return a.GPerML + f*(b.GPerML-a.GPerML), true
+}
+
+// SuggestTags returns up to n of tags close to word, for a "did you mean"
+// reply to a tag that is not in the catalogue: the closest first. Tags are
+// compared in upper case without their separators (T102 and t_102 are
+// T-102) by optimal-string-alignment distance, allowing 1 edit for tags of
+// up to 5 such characters and 2 for longer ones, so that T-120 finds T-102.
+// When some tag differs only in case or separators, only such tags are
+// returned.
+func SuggestTags(word string, tags []string, n int) []string {
+	w := []rune(tagKey(word))
+	if len(w) == 0 || n <= 0 {
+		return nil
+	}
+	limit := 1
+	if len(w) > 5 {
+		limit = 2
+	}
+	type cand struct {
+		tag string
+		d   int
+	}
+	var cands []cand
+	var o osa
+	for _, t := range tags {
+		if d := o.dist(w, o.runes(tagKey(t)), limit); d <= limit {
+			cands = append(cands, cand{t, d})
+		}
+	}
+	sort.Slice(cands, func(i, j int) bool {
+		if cands[i].d != cands[j].d {
+			return cands[i].d < cands[j].d
+		}
+		return cands[i].tag < cands[j].tag
+	})
+	out := []string{}
+	for _, c := range cands {
+		if len(out) == n || (c.d > 0 && cands[0].d == 0) {
+			break
+		}
+		out = append(out, c.tag)
+	}
+	return out
+}
+
+// tagKey is a tag in upper case without separators.
+func tagKey(s string) string {
+	return strings.Map(func(r rune) rune {
+		switch r {
+		case '-', '_', ' ', '.', '/':
+			return -1
+		}
+		return unicode.ToUpper(r)
+	}, s)
 }

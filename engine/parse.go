@@ -3,6 +3,7 @@ package engine
 import (
 	"fmt"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 	"unicode"
@@ -17,6 +18,7 @@ type Request struct {
 	PressureKPa  float64 // 101.325 unless stated
 	PH           *float64
 	TempStated   bool
+	Notes        []string // how the parser read the request where the answer should say so
 }
 
 // Stream is one stream of a mix request.
@@ -37,6 +39,11 @@ func (s *Stream) Label() string {
 	if s.Tag != "" {
 		return s.Tag
 	}
+	return s.contents()
+}
+
+// contents is what the stream holds, without its amount or tag.
+func (s *Stream) contents() string {
 	parts := make([]string, 0, len(s.Components)+1)
 	for _, c := range s.Components {
 		p := c.Chemical.Formula
@@ -65,6 +72,9 @@ type Component struct {
 	Pos      int     // 1-based position in the request
 	Value    float64 // concentration value, in Unit
 	Unit     ConcUnit
+
+	numText string // the value as typed ("12,5"), for errors
+	numPos  int    // its position, for errors
 }
 
 // ConcUnit is a concentration unit of the request language.
@@ -91,8 +101,9 @@ const (
 
 // Conversion factors, exact by definition (NIST SP 811, Appendix B).
 const (
-	litresPerUSGallon = 3.785411784
-	kgPerPound        = 0.45359237
+	litresPerUSGallon  = 3.785411784
+	litresPerImpGallon = 4.54609
+	kgPerPound         = 0.45359237
 )
 
 type tokKind int
@@ -100,7 +111,7 @@ type tokKind int
 const (
 	tWord tokKind = iota
 	tNumber
-	tPlus
+	tPlus // "+" or "&" between streams
 	tComma
 	tPercent
 )
@@ -121,8 +132,8 @@ func lex(s string) ([]token, error) {
 		switch {
 		case unicode.IsSpace(r):
 			i++
-		case r == '+':
-			toks = append(toks, token{kind: tPlus, text: "+", pos: i + 1})
+		case r == '+' || r == '&':
+			toks = append(toks, token{kind: tPlus, text: string(r), pos: i + 1})
 			i++
 		case r == ',' || r == ';':
 			toks = append(toks, token{kind: tComma, text: string(r), pos: i + 1})
@@ -130,37 +141,81 @@ func lex(s string) ([]token, error) {
 		case r == '%':
 			toks = append(toks, token{kind: tPercent, text: "%", pos: i + 1})
 			i++
-		case isDigit(r) || (r == '.' && i+1 < len(rs) && isDigit(rs[i+1])) ||
-			(r == '-' && i+1 < len(rs) && (isDigit(rs[i+1]) || rs[i+1] == '.') && (i == 0 || unicode.IsSpace(rs[i-1]))):
-			start := i
-			if r == '-' {
-				i++
+		case isNumberStart(rs, i):
+			tk, next, err := lexNumber(rs, i)
+			if err != nil {
+				return nil, err
 			}
-			for i < len(rs) && (isDigit(rs[i]) || rs[i] == '.') {
-				i++
-			}
-			if i < len(rs) && (rs[i] == 'e' || rs[i] == 'E') && i+1 < len(rs) &&
-				(isDigit(rs[i+1]) || ((rs[i+1] == '-' || rs[i+1] == '+') && i+2 < len(rs) && isDigit(rs[i+2]))) {
-				i += 2
-				for i < len(rs) && isDigit(rs[i]) {
-					i++
-				}
-			}
-			text := string(rs[start:i])
-			v, err := strconv.ParseFloat(text, 64)
-			if err != nil || math.IsInf(v, 0) || math.IsNaN(v) {
-				return nil, &ParseError{Code: "bad-number", Message: fmt.Sprintf("%q is not a number", text), Position: start + 1, Token: text}
-			}
-			toks = append(toks, token{kind: tNumber, text: text, num: v, pos: start + 1})
+			toks = append(toks, tk)
+			i = next
 		default:
 			start := i
-			for i < len(rs) && !unicode.IsSpace(rs[i]) && rs[i] != '+' && rs[i] != ',' && rs[i] != ';' && rs[i] != '%' {
+			for i < len(rs) && !unicode.IsSpace(rs[i]) && !strings.ContainsRune("+&,;%", rs[i]) {
 				i++
 			}
 			toks = append(toks, token{kind: tWord, text: string(rs[start:i]), pos: start + 1})
 		}
 	}
 	return toks, nil
+}
+
+// isNumberStart reports whether a number begins at rs[i]: a digit, a point
+// before a digit, or a minus sign before either at the start of a word.
+func isNumberStart(rs []rune, i int) bool {
+	r := rs[i]
+	return isDigit(r) || (r == '.' && i+1 < len(rs) && isDigit(rs[i+1])) ||
+		(r == '-' && i+1 < len(rs) && (isDigit(rs[i+1]) || rs[i+1] == '.') && (i == 0 || unicode.IsSpace(rs[i-1])))
+}
+
+// lexNumber reads the number starting at rs[i] and returns it with the
+// index after it. A comma directly between digits is a decimal comma
+// ("12,5 %"), except where it could as well separate thousands ("1,500":
+// one to three digits, not a lone 0, then exactly three), which is refused
+// rather than guessed; a comma followed by a space separates components.
+func lexNumber(rs []rune, i int) (token, int, error) {
+	start := i
+	if rs[i] == '-' {
+		i++
+	}
+	for i < len(rs) && (isDigit(rs[i]) || rs[i] == '.') {
+		i++
+	}
+	text := string(rs[start:i])
+	value := text
+	if i+1 < len(rs) && rs[i] == ',' && isDigit(rs[i+1]) && isDigit(rs[i-1]) && !strings.ContainsRune(text, '.') {
+		j := i + 1
+		for j < len(rs) && isDigit(rs[j]) {
+			j++
+		}
+		whole, frac := strings.TrimPrefix(text, "-"), string(rs[i+1:j])
+		if len(frac) == 3 && len(whole) <= 3 && whole != "0" {
+			amb := string(rs[start:j])
+			dec := whole
+			if f := strings.TrimRight(frac, "0"); f != "" {
+				dec += "." + f
+			}
+			return token{}, 0, &ParseError{Code: "ambiguous-number", Position: start + 1, Token: amb, Suggestions: []string{},
+				Message: fmt.Sprintf("%q could be a decimal comma or a thousands separator; write %s or %s", amb, whole+frac, dec)}
+		}
+		text = string(rs[start:j])
+		value = strings.Replace(text, ",", ".", 1)
+		i = j
+	}
+	if i < len(rs) && (rs[i] == 'e' || rs[i] == 'E') && i+1 < len(rs) &&
+		(isDigit(rs[i+1]) || ((rs[i+1] == '-' || rs[i+1] == '+') && i+2 < len(rs) && isDigit(rs[i+2]))) {
+		e := i
+		i += 2
+		for i < len(rs) && isDigit(rs[i]) {
+			i++
+		}
+		text += string(rs[e:i])
+		value += string(rs[e:i])
+	}
+	v, err := strconv.ParseFloat(value, 64)
+	if err != nil || math.IsInf(v, 0) || math.IsNaN(v) {
+		return token{}, 0, &ParseError{Code: "bad-number", Message: fmt.Sprintf("%q is not a number", text), Position: start + 1, Token: text, Suggestions: []string{}}
+	}
+	return token{kind: tNumber, text: text, num: v, pos: start + 1}, i, nil
 }
 
 func isDigit(r rune) bool { return r >= '0' && r <= '9' }
@@ -170,31 +225,43 @@ const maxRequestLen = 4000
 
 // ParseRequest reads a mix request in the mixward request language:
 //
-//	[mix] <stream> + <stream> [+ <stream> ...] [at <condition>[, <condition>]]
+//	[mix] <stream> <sep> <stream> [<sep> <stream> ...] [at <condition>[, <condition>]]
+//	sep       = + | & | and | with
 //	stream    = [<amount>] <component>[, <component> ...] | [<amount>] <TAG>
-//	amount    = <number> L|mL|m3|gal | <number> kg|g|lb
+//	amount    = <number> L|mL|m3|gal|US gal|imp gal | <number> kg|g|lb|t
 //	component = <chemical> [<number> <unit>] | pH <number>
 //	unit      = M | mol/L | mmol/L | mM | % | % w/w | % w/v | g/L | mg/L | ppm
-//	condition = <number> C|F|K | <number> kPa|bar|atm | pH <number>
+//	condition = <number> C|F|K | <number> kPa|MPa|bar|atm | pH <number>
 //
-// Streams named by a site tag are looked up with resolve (which may be nil).
+// A number may use a decimal comma ("12,5 %") where it cannot be read as a
+// thousands separator. Every number is bounded (see bounds.go): a value no
+// plant stream can have is refused with a *ParseError. Streams named by a
+// site tag are looked up with resolve (which may be nil).
 func ParseRequest(text string, t *Tables, resolve Resolver) (*Request, error) {
+	return Parse(text, t, AskOptions{Resolve: resolve})
+}
+
+// Parse is ParseRequest with every option of a request: the tag resolver
+// and the list of known tags, from which an unknown tag gets "did you mean"
+// suggestions.
+func Parse(text string, t *Tables, opt AskOptions) (*Request, error) {
 	if !utf8.ValidString(text) {
-		return nil, &ParseError{Code: "bad-encoding", Message: "the request is not valid UTF-8 text", Position: 1}
+		return nil, &ParseError{Code: "bad-encoding", Message: "the request is not valid UTF-8 text", Position: 1, Suggestions: []string{}}
 	}
 	if len(text) > maxRequestLen {
-		return nil, &ParseError{Code: "too-long", Message: fmt.Sprintf("the request is %d bytes long; keep it under %d", len(text), maxRequestLen), Position: 1}
+		return nil, &ParseError{Code: "too-long", Message: fmt.Sprintf("the request is %d bytes long; keep it under %d", len(text), maxRequestLen), Position: 1, Suggestions: []string{}}
 	}
 	toks, err := lex(text)
 	if err != nil {
 		return nil, err
 	}
-	p := &parser{toks: toks, t: t, resolve: resolve, text: text}
+	p := &parser{toks: toks, t: t, resolve: opt.Resolve, tags: opt.Tags, text: text}
 	req, err := p.request()
 	if err != nil {
 		return nil, err
 	}
 	req.Text = text
+	req.Notes = p.notes
 	return req, nil
 }
 
@@ -203,10 +270,11 @@ type parser struct {
 	i       int
 	t       *Tables
 	resolve Resolver
+	tags    func() []string
 	text    string
 	depth   int // tag resolution depth
-	offset  int // position offset when parsing a resolved tag's text
 	tagPos  int
+	notes   []string // what was read in a way the answer should state
 }
 
 func (p *parser) peek() *token {
@@ -214,6 +282,20 @@ func (p *parser) peek() *token {
 		return &p.toks[p.i]
 	}
 	return nil
+}
+
+func (p *parser) peekAt(k int) *token {
+	if p.i+k < len(p.toks) {
+		return &p.toks[p.i+k]
+	}
+	return nil
+}
+
+func (p *parser) note(format string, args ...any) {
+	n := fmt.Sprintf(format, args...)
+	if !slices.Contains(p.notes, n) {
+		p.notes = append(p.notes, n)
+	}
 }
 
 func (p *parser) endPos() int { return utf8.RuneCountInString(p.text) + 1 }
@@ -248,6 +330,18 @@ func isWord(tk *token, words ...string) bool {
 	return false
 }
 
+// isSeparator reports whether tk separates two streams: "+", "&", "and" or
+// "with".
+func isSeparator(tk *token) bool {
+	return tk != nil && (tk.kind == tPlus || isWord(tk, "and", "with"))
+}
+
+// endsStream reports whether a stream ends before tk: at the end of the
+// request, at a stream separator or at the conditions.
+func endsStream(tk *token) bool {
+	return tk == nil || isSeparator(tk) || isWord(tk, "at")
+}
+
 const example = "mix 200 L NaOCl 12.5 % + 50 L HCl 10 % at 20 C"
 
 func (p *parser) request() (*Request, error) {
@@ -260,7 +354,7 @@ func (p *parser) request() (*Request, error) {
 	}
 	for {
 		tk := p.peek()
-		if tk == nil || tk.kind == tPlus || isWord(tk, "at") {
+		if endsStream(tk) {
 			return nil, p.errAt(tk, "missing-stream", "expected a stream here (an amount and a chemical, e.g. \"50 L HCl 10 %%\")")
 		}
 		st, err := p.stream()
@@ -272,7 +366,7 @@ func (p *parser) request() (*Request, error) {
 		if tk == nil {
 			break
 		}
-		if tk.kind == tPlus {
+		if isSeparator(tk) {
 			p.i++
 			continue
 		}
@@ -282,7 +376,7 @@ func (p *parser) request() (*Request, error) {
 			}
 			break
 		}
-		return nil, p.errAt(tk, "unexpected-token", "did not expect %q here; separate streams with \"+\" and components with \",\"", tk.text)
+		return nil, p.errAt(tk, "unexpected-token", "did not expect %q here; separate streams with \"+\" or \"and\", and components with \",\"", tk.text)
 	}
 	if len(req.Streams) > 20 {
 		return nil, &ParseError{Code: "too-many-streams", Message: fmt.Sprintf("%d streams: mixward takes at most 20 in one request", len(req.Streams)), Position: req.Streams[20].Pos, Suggestions: []string{}}
@@ -315,42 +409,44 @@ func (p *parser) conditions(req *Request) error {
 		p.i++
 		u := p.peek()
 		if u == nil || u.kind != tWord {
-			return p.errAt(u, "missing-unit", "a unit must follow %s: C, F or K for a temperature; kPa, bar or atm for a pressure", tk.text)
+			return p.errAt(u, "missing-unit", "a unit must follow %s: C, F or K for a temperature; kPa, MPa, bar or atm for a pressure", tk.text)
 		}
 		p.i++
-		switch strings.ToLower(u.text) {
-		case "c", "°c", "degc", "celsius":
-			req.TemperatureK = tk.num + 273.15
-		case "f", "°f", "degf", "fahrenheit":
-			req.TemperatureK = (tk.num-32)*5/9 + 273.15
-		case "k", "kelvin":
-			req.TemperatureK = tk.num
-		case "kpa":
-			req.PressureKPa = tk.num
-			if tk.num <= 0 || tk.num > 10000 {
-				return p.errAt(tk, "bad-pressure", "pressure %s kPa is outside 0–10000 kPa", tk.text)
-			}
-			continue
-		case "bar":
-			req.PressureKPa = tk.num * 100
-			if tk.num <= 0 || tk.num > 100 {
-				return p.errAt(tk, "bad-pressure", "pressure %s bar is outside 0–100 bar", tk.text)
-			}
-			continue
-		case "atm":
-			req.PressureKPa = tk.num * StandardPressureKPa
-			if tk.num <= 0 || tk.num > 100 {
-				return p.errAt(tk, "bad-pressure", "pressure %s atm is outside 0–100 atm", tk.text)
-			}
-			continue
-		default:
-			return p.errAt(u, "unknown-unit", "%q is not a temperature or pressure unit; use C, F, K, kPa, bar or atm", u.text)
-		}
-		req.TempStated = true
-		if req.TemperatureK < 273.15-30 || req.TemperatureK > 273.15+150 {
-			return p.errAt(tk, "bad-temperature", "temperature %s %s is outside the range mixward handles (−30 to 150 °C)", tk.text, u.text)
+		if err := p.condition(req, tk, u); err != nil {
+			return err
 		}
 	}
+}
+
+// temperatureUnits convert a stated temperature to kelvin.
+var temperatureUnits = map[string]func(float64) float64{
+	"c": celsius, "°c": celsius, "degc": celsius, "celsius": celsius,
+	"f": fahrenheit, "°f": fahrenheit, "degf": fahrenheit, "fahrenheit": fahrenheit,
+	"k": kelvin, "kelvin": kelvin,
+}
+
+func celsius(v float64) float64    { return v + 273.15 }
+func fahrenheit(v float64) float64 { return (v-32)*5/9 + 273.15 }
+func kelvin(v float64) float64     { return v }
+
+// pressureUnits are kPa per unit (1 atm = 101.325 kPa exactly, 1 bar =
+// 100 kPa exactly; NIST SP 811, Appendix B).
+var pressureUnits = map[string]float64{"kpa": 1, "mpa": 1000, "bar": 100, "atm": StandardPressureKPa}
+
+// condition reads one temperature or pressure: the number num in unit u.
+func (p *parser) condition(req *Request, num, u *token) error {
+	lu := strings.ToLower(u.text)
+	if f, ok := pressureUnits[lu]; ok {
+		req.PressureKPa = num.num * f
+		return p.checkPressure(num, u, req.PressureKPa)
+	}
+	conv, ok := temperatureUnits[lu]
+	if !ok {
+		return p.errAt(u, "unknown-unit", "%q is not a temperature or pressure unit; use C, F, K, kPa, MPa, bar or atm", u.text)
+	}
+	req.TemperatureK = conv(num.num)
+	req.TempStated = true
+	return p.checkTemperature(num, u, req.TemperatureK)
 }
 
 func (p *parser) phValue(at *token) (float64, error) {
@@ -359,225 +455,10 @@ func (p *parser) phValue(at *token) (float64, error) {
 		return 0, p.errAt(tk, "bad-ph", "a number must follow pH, e.g. pH 12.5")
 	}
 	p.i++
-	if tk.num < -2 || tk.num > 16 {
-		return 0, p.errAt(tk, "bad-ph", "pH %s is outside −2…16", tk.text)
+	if !inRange(tk.num, minPH, maxPH) {
+		return 0, p.errAt(tk, "bad-ph", "pH %s is outside −2…16, beyond the strongest acids and caustics in plant use; check the value", tk.text)
 	}
 	return tk.num, nil
-}
-
-var volumeUnits = map[string]float64{"l": 1, "ml": 1e-3, "m3": 1000, "m³": 1000, "gal": litresPerUSGallon, "litre": 1, "liter": 1, "litres": 1, "liters": 1}
-var massUnits = map[string]float64{"kg": 1, "g": 1e-3, "lb": kgPerPound, "lbs": kgPerPound, "t": 1000}
-
-func (p *parser) stream() (Stream, error) {
-	start := p.peek()
-	st := Stream{Pos: p.pos(start)}
-	if start.kind == tNumber {
-		p.i++
-		u := p.peek()
-		if u == nil || u.kind != tWord {
-			return st, p.errAt(u, "missing-unit", "a unit must follow the amount %s: L, mL, m3 or gal for a liquid; kg, g or lb for a solid", start.text)
-		}
-		lu := strings.ToLower(u.text)
-		if f, ok := volumeUnits[lu]; ok {
-			st.VolumeL = start.num * f
-		} else if f, ok := massUnits[lu]; ok {
-			st.MassKg = start.num * f
-		} else {
-			return st, p.errAt(u, "unknown-unit", "%q is not an amount unit; use L, mL, m3 or gal for a liquid, kg, g or lb for a solid", u.text)
-		}
-		if start.num <= 0 {
-			return st, p.errAt(start, "bad-amount", "the amount %s %s must be more than zero", start.text, u.text)
-		}
-		if st.VolumeL > 1e7 || st.MassKg > 1e7 {
-			return st, p.errAt(start, "bad-amount", "the amount %s %s is larger than any plant vessel; check the unit", start.text, u.text)
-		}
-		p.i++
-	}
-	// A stream named by its catalogue tag.
-	if tk := p.peek(); tk != nil && tk.kind == tWord && p.resolve != nil && p.depth == 0 && looksLikeTag(tk.text) {
-		if next := p.peekAt(1); next == nil || next.kind == tPlus || isWord(next, "at") {
-			if text, ok := p.resolve(strings.ToUpper(tk.text)); ok {
-				p.i++
-				sub, err := p.resolved(tk, text)
-				if err != nil {
-					return st, err
-				}
-				sub.Pos = st.Pos
-				sub.Tag = strings.ToUpper(tk.text)
-				if st.VolumeL > 0 || st.MassKg > 0 {
-					sub.VolumeL, sub.MassKg = st.VolumeL, st.MassKg
-				}
-				return sub, nil
-			}
-		}
-	}
-	for {
-		tk := p.peek()
-		if tk == nil || tk.kind == tPlus || isWord(tk, "at") {
-			return st, p.errAt(tk, "missing-chemical", "expected a chemical here, e.g. \"HCl 10 %%\" or \"sodium hypochlorite 12.5 %%\"")
-		}
-		if isWord(tk, "ph") {
-			p.i++
-			v, err := p.phValue(tk)
-			if err != nil {
-				return st, err
-			}
-			st.PH = &v
-		} else {
-			c, err := p.component()
-			if err != nil {
-				return st, err
-			}
-			st.Components = append(st.Components, c)
-		}
-		tk = p.peek()
-		if tk == nil || tk.kind == tPlus || isWord(tk, "at") {
-			break
-		}
-		if tk.kind == tComma {
-			p.i++
-			continue
-		}
-		return st, p.errAt(tk, "unexpected-token", "did not expect %q here; separate components of a stream with \",\" and streams with \"+\"", tk.text)
-	}
-	if len(st.Components) == 0 {
-		return st, p.errAt(start, "missing-chemical", "the stream has a pH but no chemical; name what it contains, e.g. \"200 L water, pH 11\"")
-	}
-	st.Text = p.sourceText(start)
-	return st, nil
-}
-
-func (p *parser) peekAt(k int) *token {
-	if p.i+k < len(p.toks) {
-		return &p.toks[p.i+k]
-	}
-	return nil
-}
-
-// sourceText returns the request text from the start token to the token
-// before the current one.
-func (p *parser) sourceText(start *token) string {
-	if p.depth > 0 {
-		return p.text
-	}
-	rs := []rune(p.text)
-	from := start.pos - 1
-	to := len(rs)
-	if tk := p.peek(); tk != nil {
-		to = tk.pos - 1
-	}
-	if from < 0 || from > to || to > len(rs) {
-		return ""
-	}
-	return strings.TrimSpace(string(rs[from:to]))
-}
-
-func looksLikeTag(w string) bool {
-	if len(w) < 2 || len(w) > 32 {
-		return false
-	}
-	hasDigit := false
-	for _, r := range w {
-		switch {
-		case isDigit(r):
-			hasDigit = true
-		case r == '-' || r == '_' || (r >= 'A' && r <= 'Z') || (r >= 'a' && r <= 'z'):
-		default:
-			return false
-		}
-	}
-	return hasDigit
-}
-
-// resolved parses the stream text of a catalogue tag.
-func (p *parser) resolved(tag *token, text string) (Stream, error) {
-	toks, err := lex(text)
-	if err != nil {
-		return Stream{}, p.tagError(tag, text, err)
-	}
-	sub := &parser{toks: toks, t: p.t, text: text, depth: 1, tagPos: tag.pos}
-	st, err := sub.stream()
-	if err == nil && sub.peek() != nil {
-		err = sub.errAt(sub.peek(), "unexpected-token", "did not expect %q", sub.peek().text)
-	}
-	if err != nil {
-		return Stream{}, p.tagError(tag, text, err)
-	}
-	st.Text = text
-	return st, nil
-}
-
-func (p *parser) tagError(tag *token, text string, err error) error {
-	pe, ok := err.(*ParseError)
-	if !ok {
-		pe = &ParseError{Code: "bad-tag", Message: err.Error()}
-	}
-	return &ParseError{
-		Code:        pe.Code,
-		Message:     fmt.Sprintf("stream tag %s resolves to %q, which does not parse: %s; fix it with 'mixward streams set %s ...'", tag.text, text, pe.Message, strings.ToUpper(tag.text)),
-		Position:    tag.pos,
-		Token:       tag.text,
-		Suggestions: pe.Suggestions,
-	}
-}
-
-func (p *parser) component() (Component, error) {
-	// Gather the words of the chemical name.
-	first := p.peek()
-	var words []*token
-	for j := p.i; j < len(p.toks); j++ {
-		tk := &p.toks[j]
-		if tk.kind != tWord || isWord(tk, "at", "ph") {
-			break
-		}
-		words = append(words, tk)
-	}
-	if len(words) == 0 {
-		if first.kind == tNumber {
-			return Component{}, p.errAt(first, "unexpected-number", "expected a chemical name before %s; write the chemical first, then its concentration (\"HCl 10 %%\")", first.text)
-		}
-		return Component{}, p.errAt(first, "missing-chemical", "expected a chemical here, not %q", first.text)
-	}
-	// Longest run of words that names a chemical.
-	for k := len(words); k >= 1; k-- {
-		name := joinWords(words[:k])
-		chem, ok := p.t.Lookup(name)
-		if !ok {
-			continue
-		}
-		p.i += k
-		c := Component{Chemical: chem, Name: name, Pos: p.pos(words[0])}
-		if tk := p.peek(); tk != nil && tk.kind == tNumber {
-			p.i++
-			if err := p.concUnit(&c, tk); err != nil {
-				return c, err
-			}
-		} else if tk != nil && tk.kind == tWord && !isWord(tk, "at", "ph") {
-			return c, p.errAt(tk, "unknown-word",
-				"%q does not belong after %s; give a concentration (\"%s 10 %%\") or separate components with \",\"", tk.text, name, name)
-		}
-		return c, nil
-	}
-	name := joinWords(words)
-	if len(words) == 1 && p.resolve != nil && looksLikeTag(name) && strings.Contains(name, "-") {
-		return Component{}, p.errAt(words[0], "unknown-tag", "%s is not in the site stream catalogue; list the tags with 'mixward streams list', or write the stream out (\"40 L HCl 10 %%\")", strings.ToUpper(name))
-	}
-	e := p.errAt(words[0], "unknown-chemical", "%q is not a chemical mixward knows", name)
-
-	e.Token = name
-	e.Suggestions = p.t.Suggest(name, 5)
-	if len(e.Suggestions) == 0 && len(words) > 1 {
-		e.Suggestions = p.t.Suggest(words[0].text, 5)
-	}
-	if e.Suggestions == nil {
-		e.Suggestions = []string{}
-	}
-	if len(e.Suggestions) > 0 {
-		e.Message += "; did you mean " + quoteList(e.Suggestions) + "?"
-	} else {
-		e.Message += "; write its formula (NaOCl, H2SO4) or its English name"
-	}
-	return Component{}, e
 }
 
 func joinWords(ws []*token) string {
@@ -594,54 +475,4 @@ func quoteList(xs []string) string {
 		q[i] = strconv.Quote(x)
 	}
 	return strings.Join(q, ", ")
-}
-
-func (p *parser) concUnit(c *Component, num *token) error {
-	c.Value = num.num
-	tk := p.peek()
-	if tk == nil || (tk.kind != tWord && tk.kind != tPercent) {
-		return p.errAt(tk, "missing-unit", "a unit must follow %s %s: M, mol/L, mmol/L, %%, %% w/w, %% w/v, g/L, mg/L or ppm", c.Name, num.text)
-	}
-	p.i++
-	if tk.kind == tPercent {
-		c.Unit = PctWW
-		if n := p.peek(); n != nil && n.kind == tWord {
-			switch strings.ToLower(n.text) {
-			case "w/w", "wt", "(w/w)":
-				p.i++
-			case "w/v", "(w/v)":
-				c.Unit = PctWV
-				p.i++
-			}
-		}
-	} else {
-		switch tk.text {
-		case "M", "mol/L", "mol/l", "mol/dm3":
-			c.Unit = Molar
-		case "mM", "mmol/L", "mmol/l":
-			c.Unit = MilliM
-		case "g/L", "g/l":
-			c.Unit = GPerL
-		case "mg/L", "mg/l":
-			c.Unit = MgPerL
-		case "ppm", "PPM":
-			c.Unit = PPM
-		case "wt%", "%w/w":
-			c.Unit = PctWW
-		case "%w/v":
-			c.Unit = PctWV
-		default:
-			return p.errAt(tk, "unknown-unit", "%q is not a concentration unit; use M, mol/L, mmol/L, %%, %% w/w, %% w/v, g/L, mg/L or ppm", tk.text)
-		}
-	}
-	if c.Value < 0 {
-		return p.errAt(num, "bad-concentration", "the concentration of %s cannot be negative", c.Name)
-	}
-	if (c.Unit == PctWW || c.Unit == PctWV) && c.Value > 100 {
-		return p.errAt(num, "bad-concentration", "%s %s%% is more than 100 %%", c.Name, num.text)
-	}
-	if c.Unit == Molar && c.Value > 60 {
-		return p.errAt(num, "bad-concentration", "%s %s M is more concentrated than any solution; check the unit", c.Name, num.text)
-	}
-	return nil
 }

@@ -176,36 +176,266 @@ func TestParseTags(t *testing.T) {
 	}
 }
 
+// TestParseForgiving covers the forgiving forms: decimal commas, stream
+// separators other than "+", gallons of both kinds and "wt%".
+func TestParseForgiving(t *testing.T) {
+	cases := []struct {
+		name   string
+		in     string
+		values []float64 // the first component's value of each stream
+		litres []float64 // each stream's volume, when checked
+		notes  []string  // each must appear in the request's notes
+		tempK  float64   // when not 0
+	}{
+		{"decimal comma", "NaOCl 12,5 % + HCl 10 %", []float64{12.5, 10}, nil, nil, 0},
+		{"decimal comma before a unit", "NaOCl 12,5% + HCl 0,5M", []float64{12.5, 0.5}, nil, nil, 0},
+		{"decimal comma after a lone zero", "NaOCl 0,125 M + HCl 1 M", []float64{0.125, 1}, nil, nil, 0},
+		{"four decimals are not thousands", "NaOCl 1234,567 mg/L + HCl 1 M", []float64{1234.567, 1}, nil, nil, 0},
+		{"decimal comma in an amount and a condition", "2,5 L NaOCl 5 % + HCl 1 M at 20,5 C", []float64{5, 1}, []float64{2.5, 0}, nil, 293.65},
+		{"decimal comma with an exponent", "NaOCl 1,5e-3 M + HCl 1 M", []float64{1.5e-3, 1}, nil, nil, 0},
+		{"comma before a letter separates components", "water, NaOH 2,5 %,NaCl 1 % + HCl 1 M", nil, nil, nil, 0},
+		{"and", "NaOCl 5 % and HCl 10 %", []float64{5, 10}, nil, nil, 0},
+		{"with", "mix bleach with HCl 10 %", []float64{0, 10}, nil, nil, 0},
+		{"ampersand", "NaOCl 5 %&HCl 10 % & Zn", []float64{5, 10, 0}, nil, nil, 0},
+		{"all separators and conditions", "NaOCl 5 % + HCl 1 M and Zn with Fe & Cu at 20 C and pH 3", []float64{5, 1, 0, 0, 0}, nil, nil, 293.15},
+		{"gal is the US gallon, and the answer says so", "55 gal NaOCl 5 % + HCl 1 M", nil, []float64{55 * 3.785411784, 0},
+			[]string{"55 gal read as US gallons: 208.2 L", "write imp gal for imperial gallons"}, 0},
+		{"US gal", "10 US gal NaOCl 5 % + HCl 1 M", nil, []float64{37.85411784, 0}, []string{"10 US gal read as US gallons: 37.85 L"}, 0},
+		{"imp gal", "10 imp gal NaOCl 5 % + 2 imperial gallons HCl 1 M", nil, []float64{45.4609, 9.09218},
+			[]string{"10 imp gal read as imperial gallons: 45.46 L (1 imp gal = 4.54609 L", "2 imperial gallons read as imperial gallons: 9.092 L"}, 0},
+		{"gallons", "3 gallons NaOCl 5 % + HCl 1 M", nil, []float64{3 * 3.785411784, 0}, []string{"3 gallons read as US gallons"}, 0},
+		{"wt%", "NaOCl 12.5 wt% + HCl 10 wt %", []float64{12.5, 10}, nil, nil, 0},
+		{"MPa", "Zn + HCl 1 M at 0.2 MPa", nil, nil, nil, 0},
+	}
+	for _, tc := range cases {
+		t.Run(tc.name, func(t *testing.T) {
+			r, err := parse(t, tc.in, nil)
+			if err != nil {
+				t.Fatalf("ParseRequest(%q): %v", tc.in, err)
+			}
+			if tc.values != nil && len(r.Streams) != len(tc.values) {
+				t.Fatalf("ParseRequest(%q): %d streams, want %d", tc.in, len(r.Streams), len(tc.values))
+			}
+			for i, v := range tc.values {
+				if got := r.Streams[i].Components[0].Value; math.Abs(got-v) > 1e-12 {
+					t.Errorf("stream %d value = %g, want %g", i+1, got, v)
+				}
+			}
+			for i, l := range tc.litres {
+				if got := r.Streams[i].VolumeL; math.Abs(got-l) > 1e-9 {
+					t.Errorf("stream %d = %g L, want %g", i+1, got, l)
+				}
+			}
+			for _, n := range tc.notes {
+				if !containsSub(r.Notes, n) {
+					t.Errorf("notes %q lack %q", r.Notes, n)
+				}
+			}
+			if tc.tempK != 0 && math.Abs(r.TemperatureK-tc.tempK) > 1e-9 {
+				t.Errorf("T = %g K, want %g", r.TemperatureK, tc.tempK)
+			}
+		})
+	}
+	r, err := parse(t, "Zn + HCl 1 M at 0,2 MPa", nil)
+	if err != nil || math.Abs(r.PressureKPa-200) > 1e-9 {
+		t.Errorf("0,2 MPa = %v kPa (%v), want 200", r, err)
+	}
+}
+
+// TestParseForgivingErrors: the forms that stay errors.
+func TestParseForgivingErrors(t *testing.T) {
+	for in, want := range map[string]struct {
+		code string
+		pos  int
+	}{
+		"1,500 L NaOCl 5 % + HCl 1 M":  {"ambiguous-number", 1},
+		"NaOCl 12,500 mg/L + HCl 1 M":  {"ambiguous-number", 7},
+		"NaOCl 1,000,000 ppm + HCl":    {"ambiguous-number", 7},
+		"NaOCl 12, 5 % + HCl 1 M":      {"missing-unit", 9},
+		"NaOCl 5 % and":                {"missing-stream", 14},
+		"NaOCl 5 % with + HCl":         {"missing-stream", 16},
+		"NaOCl 5 % & at 20 C":          {"missing-stream", 13},
+		"10 pints NaOCl 5 %":           {"unknown-unit", 4},
+		"10 imp NaOCl 5 %":             {"unknown-unit", 4},
+		"Zn + HCl 1 M at 2 psi":        {"unknown-unit", 19},
+		"Zn + HCl 1 M at 20 C with Fe": {"bad-condition", 22},
+	} {
+		_, err := parse(t, in, nil)
+		var pe *engine.ParseError
+		if !errors.As(err, &pe) || pe.Code != want.code || pe.Position != want.pos {
+			t.Errorf("ParseRequest(%q) = %v, want %s at %d", in, err, want.code, want.pos)
+		}
+	}
+}
+
+func containsSub(xs []string, sub string) bool {
+	for _, x := range xs {
+		if strings.Contains(x, sub) {
+			return true
+		}
+	}
+	return false
+}
+
+// TestParseTagAmounts: an amount before a tag scales the tag's stream at its
+// catalogue concentrations, and the notes say so.
+func TestParseTagAmounts(t *testing.T) {
+	cat := map[string]string{"T-204": "1500 L HCl 10 %", "T-412": "NaOH 10 %", "T-301": "25 kg Zn", "T-555": "55 gal NaOCl 5 %", "T-777": "NaOCl 5 %, NaCl 1 %"}
+	resolve := func(tag string) (string, bool) { s, ok := cat[tag]; return s, ok }
+	cases := []struct {
+		in     string
+		litres float64
+		kg     float64
+		note   string
+	}{
+		{"mix 40 L T-204 + T-412", 40, 0, "40 L of T-204 used at its catalogue concentrations (HCl 10 %); the catalogue states 1500 L"},
+		{"mix 1 m3 T-412 + T-204", 1000, 0, "1 m3 of T-412 used at its catalogue concentrations (NaOH 10 %)"},
+		{"mix 10 gal T-777 + T-204", 37.85411784, 0, "10 gal of T-777 used at its catalogue concentrations (NaOCl 5 %, NaCl 1 %)"},
+		// 1 kg of 10 % HCl at 1.0474 kg/L (data/densities.txt) is 0.9547 L.
+		{"mix 1 kg T-204 + T-412", 1 / 1.0474, 0, "1 kg of T-204 (HCl 10 %) taken as 0.9547 L at 1.047 kg/L (from data/densities.txt)"},
+		{"mix 2 kg T-301 + T-204", 0, 2, "2 kg of T-301 used at its catalogue concentrations (Zn); the catalogue states 25 kg"},
+		{"mix T-555 + T-204", 55 * 3.785411784, 0, "T-555: 55 gal read as US gallons"},
+	}
+	for _, tc := range cases {
+		r, err := parse(t, tc.in, resolve)
+		if err != nil {
+			t.Errorf("ParseRequest(%q): %v", tc.in, err)
+			continue
+		}
+		st := r.Streams[0]
+		if math.Abs(st.VolumeL-tc.litres) > 1e-9 || math.Abs(st.MassKg-tc.kg) > 1e-12 {
+			t.Errorf("ParseRequest(%q): stream 1 = %g L, %g kg, want %g L, %g kg", tc.in, st.VolumeL, st.MassKg, tc.litres, tc.kg)
+		}
+		if !containsSub(r.Notes, tc.note) {
+			t.Errorf("ParseRequest(%q): notes %q lack %q", tc.in, r.Notes, tc.note)
+		}
+		res, err := mustEngine(t).Predict(r)
+		if err != nil || !containsSub(res.Notes, tc.note) {
+			t.Errorf("Predict(%q): %v, notes %q lack %q", tc.in, err, res.Notes, tc.note)
+		}
+	}
+	_, err := parse(t, "mix 40 L T-301 + T-204", resolve)
+	var pe *engine.ParseError
+	if !errors.As(err, &pe) || pe.Code != "bad-amount" || pe.Position != 10 || pe.Token != "T-301" || !strings.Contains(pe.Message, "as a mass") {
+		t.Errorf("a volume of a solid tag: %v, want bad-amount at 10 on T-301", err)
+	}
+}
+
+// TestParseTagSuggestions: near misses of a catalogue tag get the nearest
+// tags as suggestions when the catalogue can list them.
+func TestParseTagSuggestions(t *testing.T) {
+	cat := map[string]string{"T-102": "200 L NaOCl 12.5 %", "T-204": "HCl 10 %", "T-103": "H2O2 3 %", "TK-7": "NaOH 5 %"}
+	resolve := func(tag string) (string, bool) { s, ok := cat[tag]; return s, ok }
+	tags := func() []string { return []string{"T-102", "T-103", "T-204", "TK-7"} }
+	opt := engine.AskOptions{Resolve: resolve, Tags: tags}
+	cases := []struct {
+		in   string
+		code string
+		want []string // suggestions, in order
+	}{
+		{"T102 + T-204", "unknown-tag", []string{"T-102"}},
+		{"T-120 + T-204", "unknown-tag", []string{"T-102"}},
+		{"T-10 + T-204", "unknown-tag", []string{"T-102", "T-103"}},
+		{"T_102 + T-204", "unknown-tag", []string{"T-102"}},
+		{"mix 40 L T-2044 + T-102", "unknown-tag", []string{"T-204"}},
+		{"TK7 + T-204", "unknown-tag", []string{"TK-7"}},
+		{"T-999 + T-204", "unknown-tag", []string{}},
+		{"H2S04 + T-204", "unknown-chemical", nil}, // a formula typo, not a tag
+	}
+	for _, tc := range cases {
+		_, err := engine.Parse(tc.in, mustEngine(t).Tables, opt)
+		var pe *engine.ParseError
+		if !errors.As(err, &pe) || pe.Code != tc.code {
+			t.Errorf("Parse(%q) = %v, want %s", tc.in, err, tc.code)
+			continue
+		}
+		if tc.want != nil && strings.Join(pe.Suggestions, ",") != strings.Join(tc.want, ",") {
+			t.Errorf("Parse(%q) suggestions = %q, want %q", tc.in, pe.Suggestions, tc.want)
+		}
+		if len(tc.want) > 0 && !strings.Contains(pe.Message, `did you mean "`+tc.want[0]+`"`) {
+			t.Errorf("Parse(%q) message %q does not offer %s", tc.in, pe.Message, tc.want[0])
+		}
+	}
+	// Lower case resolves as it always did; no suggestion needed.
+	r, err := engine.Parse("t-102 + T-204", mustEngine(t).Tables, opt)
+	if err != nil || r.Streams[0].Tag != "T-102" {
+		t.Errorf("t-102: %v", err)
+	}
+	// Without a catalogue a tag-like word says so rather than calling itself
+	// an unknown chemical.
+	_, err = parse(t, "T-301 + HCl 1 M", nil)
+	if pe := (*engine.ParseError)(nil); !errors.As(err, &pe) || pe.Code != "unknown-tag" || !strings.Contains(pe.Message, "no site stream catalogue") {
+		t.Errorf("no catalogue: %v", err)
+	}
+	// Without a tag list there is nothing to suggest, but the error stands.
+	_, err = parse(t, "T-120 + T-204", resolve)
+	var pe *engine.ParseError
+	if !errors.As(err, &pe) || pe.Code != "unknown-tag" || len(pe.Suggestions) != 0 {
+		t.Errorf("no tag list: %v", err)
+	}
+}
+
+func TestSuggestTags(t *testing.T) {
+	tags := []string{"T-101", "T-102", "T-204", "TANK-12A", "P-7"}
+	for in, want := range map[string]string{
+		"T102": "T-102", "t-102": "T-102", "T-999": "", "T-201": "T-101", "T-2O4": "T-204", "TANK12B": "TANK-12A", "TANK-21A": "TANK-12A",
+		"P7": "P-7", "Q-7": "P-7", "": "", "ZZZZZZ": "",
+	} {
+		got := engine.SuggestTags(in, tags, 1)
+		if (want == "" && len(got) != 0) || (want != "" && (len(got) != 1 || got[0] != want)) {
+			t.Errorf("SuggestTags(%q) = %q, want %q", in, got, want)
+		}
+	}
+}
+
 func FuzzParseRequest(f *testing.F) {
 	for _, s := range []string{
+		"NaOCl 12,5 % and HCl 10 % with Zn & Fe", "1,500 L NaOCl", "NaOCl 0,125 M + HCl 1,5e-3 M at 20,5 C",
+		"55 US gal bleach + 10 imp gal HCl 10 % + 3 gallons NaOH 2 %", "40 L T-101 + 2 kg T-101 + T102 + T-110",
+		"Zn + HCl 1e308 g/L at 1e-320 kPa", "HCl 40 M + NaOH 50 M at pH 17", "NaOH 10 wt% + HCl 42 % at 10 MPa",
+		"10 kg NaOH 99 % + 10 L NaOH 99 %", "Zn at 1e308 F", "1e308 m3 HCl", "0,0001 mL HCl",
 		"mix 200 L NaOCl 12.5 % + 50 L HCl 10 % at 20 C",
 		"Zn + CuSO4 1 M", "T-101 + 40 L HCl 1 M", "500 L water, NaOH 2 %, pH 12 + 20 L H2O2 30 %",
 		"55 gal bleach + 10 lb Na2S2O5 at 2 bar, pH 3", "1e3 mL Fe2(SO4)3 2 g/L", "-5 C", "mix mix + + , ,",
 		"NaOCl 12.5 % w/v + iron(II) sulfate 3 mg/L at 77 F",
+		"mix 40 L T-301 + 2 kg T-412 & 3 imp gal T-555 with T-101", "T-10 + t_412 and T301", "5 kg T-555 + T-412",
 	} {
 		f.Add(s)
 	}
 	e := mustEngine(f)
-	resolve := func(tag string) (string, bool) {
-		if tag == "T-101" {
-			return "200 L NaOCl 12.5 %", true
-		}
-		return "", false
+	cat := map[string]string{"T-101": "200 L NaOCl 12.5 %", "T-301": "25 kg Zn", "T-555": "55 gal NaOCl 5 %", "T-412": "NaOH 10 %"}
+	opt := engine.AskOptions{
+		Resolve: func(tag string) (string, bool) { s, ok := cat[tag]; return s, ok },
+		Tags:    func() []string { return []string{"T-101", "T-301", "T-412", "T-555"} },
 	}
 	f.Fuzz(func(t *testing.T, s string) {
-		r, err := engine.ParseRequest(s, e.Tables, resolve)
+		r, err := engine.Parse(s, e.Tables, opt)
 		if err != nil {
 			var pe *engine.ParseError
 			if !errors.As(err, &pe) {
 				t.Fatalf("ParseRequest(%q) error %v is not a *ParseError", s, err)
 			}
-			if pe.Message == "" || pe.Position < 1 || pe.Position > utf8.RuneCountInString(s)+1 {
+			if pe.Message == "" || pe.Code == "" || pe.Suggestions == nil || pe.Position < 1 || pe.Position > utf8.RuneCountInString(s)+1 {
 				t.Fatalf("ParseRequest(%q): bad error %+v", s, pe)
 			}
 			return
 		}
 		if len(r.Streams) == 0 {
 			t.Fatalf("ParseRequest(%q) gave no streams and no error", s)
+		}
+		// Every accepted number is finite and inside its bounds.
+		if !(r.TemperatureK >= 243.15 && r.TemperatureK <= 423.15) || !(r.PressureKPa >= 1 && r.PressureKPa <= 10000) {
+			t.Fatalf("ParseRequest(%q): conditions %g K, %g kPa out of bounds", s, r.TemperatureK, r.PressureKPa)
+		}
+		for _, st := range r.Streams {
+			if !(st.VolumeL >= 0 && st.VolumeL <= 1e7) || !(st.MassKg >= 0 && st.MassKg <= 1e7) {
+				t.Fatalf("ParseRequest(%q): amount %g L, %g kg out of bounds", s, st.VolumeL, st.MassKg)
+			}
+			for _, c := range st.Components {
+				if max, _ := engine.ConcCeiling(e.Tables, c.Chemical, c.Unit, st.VolumeL > 0); !(c.Value >= 0 && c.Value <= max) && c.Unit != engine.NoConc {
+					t.Fatalf("ParseRequest(%q): %s %g %s above its ceiling %g", s, c.Name, c.Value, c.Unit, max)
+				}
+			}
 		}
 		// A parsed request must always be answerable.
 		if _, err := e.Predict(r); err != nil {

@@ -34,6 +34,15 @@ type Result struct {
 
 	Streams []StreamOut `json:"streams"` // the streams as understood, tags resolved
 	Notes   []string    `json:"notes"`   // assumptions made (equal volumes, excess metal, ...)
+	// ReadAs lists how the request itself was read (gallons, an amount
+	// before a tag): the first of Notes, repeated for the short answer.
+	ReadAs []string `json:"read_as"`
+
+	// The operator's decision and the pour along the addition. The engine
+	// leaves them nil; the judgement package (engine/hazard with
+	// engine/pour, wired by engine/advice) fills them from the hazards.
+	Decision *Decision `json:"decision,omitempty"`
+	Addition *Addition `json:"addition,omitempty"`
 
 	// HeldBack lists the changes that are downhill on paper but held back
 	// at plant conditions (data/locks.txt), each with its reason.
@@ -46,6 +55,57 @@ type HeldBack struct {
 	Reason   string    `json:"reason"`
 	Source   string    `json:"source"`
 	Reaction *Reaction `json:"reaction,omitempty"` // what would happen without the lock, when found
+}
+
+// Level is the answer to "may I combine these?".
+type Level string
+
+// The decision levels, most severe first.
+const (
+	DoNotMix        Level = "do-not-mix"
+	WithPrecautions Level = "with-precautions"
+	NoConcern       Level = "no-concern"
+)
+
+// Decision is what the operator reads first: whether to combine the
+// streams, the main reason in a few words, the reasons in numbers and what
+// to do. It is derived from the hazards (end state and along the pour),
+// never from the redox verdict alone.
+type Decision struct {
+	Level   Level    `json:"level"`
+	Title   string   `json:"title"`
+	Reasons []string `json:"reasons"`
+	Actions []string `json:"actions"`
+
+	Heat       *HeatJudged  `json:"heat,omitempty"` // the heat counted (reactions that proceed, neutralisation, dissolving)
+	HeadspaceL float64      `json:"headspace_l"`    // gas space the concentrations are for
+	Held       []string     `json:"held_back"`      // reactions possible on paper that are not counted, with the reason
+	Gases      []GasRelease `json:"gases"`          // gases counted: from reactions that proceed and what the liquid cannot hold
+}
+
+// Addition is the pour judged along the way: each stream run into the
+// other, from the first drop to the final ratio.
+type Addition struct {
+	Orders []PourOrder `json:"orders"`
+	Advice string      `json:"advice"`
+	Points int         `json:"points"` // mixes evaluated along the pour, all orders
+}
+
+// PourOrder is one order of addition: Added is run into Into.
+type PourOrder struct {
+	Added   string       `json:"added"`
+	Into    string       `json:"into"`
+	Hazards []PourHazard `json:"hazards"`
+}
+
+// PourHazard is one hazard met along a pour, between two fractions of the
+// added stream (0 = first drop, 1 = all of it), with its worst severity.
+type PourHazard struct {
+	Code         string   `json:"code"`
+	FromFraction float64  `json:"from_fraction"`
+	ToFraction   float64  `json:"to_fraction"`
+	Worst        Severity `json:"worst"`
+	Message      string   `json:"message,omitempty"` // the worst point's message
 }
 
 // Verdict is the one-word outcome of a prediction.
@@ -141,6 +201,35 @@ type Hazard struct {
 	Severity Severity `json:"severity"`
 	Message  string   `json:"message"`
 	Source   string   `json:"source,omitempty"`
+
+	// Filled by the judgement (engine/hazard); empty from the table rules.
+	Aliases []string    `json:"aliases,omitempty"` // older codes of the same hazard, still searchable
+	Title   string      `json:"title,omitempty"`   // a few words: "releases hydrogen cyanide"
+	Action  string      `json:"action,omitempty"`  // what to do
+	Gas     *GasJudged  `json:"gas,omitempty"`     // the gas, in numbers, when the hazard is a gas
+	Heat    *HeatJudged `json:"heat,omitempty"`    // the heat, when the hazard is heat
+}
+
+// GasJudged is a gas hazard in numbers: the amount released and the
+// equilibrium concentration in the headspace against its limit.
+type GasJudged struct {
+	Formula      string  `json:"formula"`
+	Mol          float64 `json:"mol"`
+	VolumeL      float64 `json:"volume_l"`
+	HeadspaceL   float64 `json:"headspace_l"`
+	HeadspacePPM float64 `json:"headspace_ppm"`
+	LimitName    string  `json:"limit_name"` // IDLH, ceiling, LFL, O2
+	LimitPPM     float64 `json:"limit_ppm"`
+	Ratio        float64 `json:"ratio"` // headspace concentration / limit
+	LimitSource  string  `json:"limit_source"`
+	HenrySource  string  `json:"henry_source"`
+}
+
+// HeatJudged is a heat hazard in numbers.
+type HeatJudged struct {
+	ReleasedkJ float64 `json:"released_kj"`
+	ReachedC   float64 `json:"reached_c"`
+	Boils      bool    `json:"boils"`
 }
 
 // Amounts is the stoichiometry of the headline reaction.

@@ -10,6 +10,7 @@ type Tables struct {
 	Half      []*HalfReaction
 	AcidBase  []*AcidBasePair
 	Densities map[string][]DensityPoint // by chemical formula, sorted by PercentWW
+	Ceilings  map[string]Ceiling        // most concentrated solution, by chemical formula
 	Hash      string                    // SHA-256 over every table file, hex
 
 	Kinetics   []*KineticRule

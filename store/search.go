@@ -23,8 +23,13 @@ type SearchOptions struct {
 	User    string    // user name (any case) or user id
 	Verdict string    // one of Verdicts
 	Hazard  string    // hazard code (any case)
-	Limit   int       // page size; 0 means 50, at most 1000
-	Offset  int       // rows to skip, for paging
+	// HazardAny matches a query with any of these codes (any case); with
+	// Hazard both apply. The CLI and the bot fill it with a code and its
+	// aliases (engine/hazard.Equivalent), so that renamed codes still find
+	// older records.
+	HazardAny []string
+	Limit     int // page size; 0 means 50, at most 1000
+	Offset    int // rows to skip, for paging
 }
 
 // SearchPage is one page of results, newest first.
@@ -97,6 +102,13 @@ func (db *DB) Search(ctx context.Context, o SearchOptions) (SearchPage, error) {
 	if o.Hazard != "" {
 		where = append(where, `q.id IN (SELECT query_id FROM query_hazards WHERE code = ? COLLATE NOCASE)`)
 		args = append(args, o.Hazard)
+	}
+	if len(o.HazardAny) > 0 {
+		marks := strings.TrimSuffix(strings.Repeat("?, ", len(o.HazardAny)), ", ")
+		where = append(where, `q.id IN (SELECT query_id FROM query_hazards WHERE code COLLATE NOCASE IN (`+marks+`))`)
+		for _, c := range o.HazardAny {
+			args = append(args, c)
+		}
 	}
 	cols := "q." + strings.ReplaceAll(strings.ReplaceAll(rowColumns, "\n\t", " "), ", ", ", q.")
 	var stmt string

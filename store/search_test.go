@@ -144,6 +144,8 @@ func TestSearchFilters(t *testing.T) {
 		{"hazard code any case", SearchOptions{Hazard: "cl2-gas"}, []int64{9, 1}},
 		{"hazard HEAT", SearchOptions{Hazard: "HEAT"}, []int64{9, 4}},
 		{"hazard unknown", SearchOptions{Hazard: "NOPE"}, []int64{}},
+		{"any of several hazard codes", SearchOptions{HazardAny: []string{"nope", "Cl2-gas", "heat"}}, []int64{9, 4, 1}},
+		{"any of no known codes", SearchOptions{HazardAny: []string{"nope"}}, []int64{}},
 		{"since", SearchOptions{Since: t0.Add(60 * time.Minute)}, []int64{9, 8, 7}},
 		{"until", SearchOptions{Until: t0.Add(20 * time.Minute)}, []int64{2, 1}},
 		{"window and terms", SearchOptions{Terms: "HCl", Since: t0.Add(30 * time.Minute), Until: t0.Add(60 * time.Minute)}, []int64{5}},

@@ -7,12 +7,11 @@ import (
 	"flag"
 	"fmt"
 	"io"
-	"os"
 	"strings"
 
 	"mixward/data"
 	"mixward/engine"
-	"mixward/engine/eph"
+	"mixward/engine/advice"
 )
 
 // cmdDefault is plain `mixward`: the Slack bot when Slack tokens are set,
@@ -76,8 +75,9 @@ func checkFormat(f string, allowed ...string) error {
 }
 
 func (a *app) cmdAsk(ctx context.Context, args []string) error {
-	fs := a.newFlags("ask", `ask [--format text|json] [--no-log] [--db PATH] [--tz ZONE] "<request>"`)
+	fs := a.newFlags("ask", `ask [--details] [--format text|json] [--no-log] [--db PATH] [--tz ZONE] "<request>"`)
 	format := fs.String("format", "text", "output format: text or json")
+	details := fs.Bool("details", false, "print the full answer (species, half-reactions, amounts, every hazard, the pour) instead of the short one")
 	noLog := fs.Bool("no-log", false, "do not record the query in the log")
 	so := storeFlags(a, fs)
 	pos, err := parseFlags(fs, args)
@@ -96,7 +96,11 @@ func (a *app) cmdAsk(ctx context.Context, args []string) error {
 	if err != nil {
 		return err
 	}
-	res, id, err, logErr := a.askOnce(ctx, eng, so, text, *noLog)
+	adv, err := loadAdvisor(eng)
+	if err != nil {
+		return err
+	}
+	res, id, err, logErr := a.askOnce(ctx, eng, adv, so, text, *noLog)
 	if logErr != nil {
 		return fmt.Errorf("%w: %v", errNotLogged, logErr)
 	}
@@ -120,8 +124,22 @@ func (a *app) cmdAsk(ctx context.Context, args []string) error {
 	if *format == "json" {
 		return writeJSON(a.stdout, res)
 	}
-	_, err = io.WriteString(a.stdout, engine.RenderText(res))
+	render := advice.RenderShort
+	if *details {
+		render = advice.RenderDetails
+	}
+	_, err = io.WriteString(a.stdout, render(res))
 	return err
+}
+
+// loadAdvisor wraps the engine with the hazard judgement, the pour and the
+// decision.
+func loadAdvisor(eng *engine.Engine) (*advice.Advisor, error) {
+	adv, err := advice.New(eng, data.FS)
+	if err != nil {
+		return nil, fmt.Errorf("loading the embedded gas table: %w", err)
+	}
+	return adv, nil
 }
 
 func writeJSON(w io.Writer, v any) error {
@@ -198,44 +216,6 @@ func (a *app) cmdTable(ctx context.Context, args []string) error {
 	return nil
 }
 
-func (a *app) cmdPlot(ctx context.Context, args []string) error {
-	fs := a.newFlags("plot", `plot "<request>" -o mix.png`)
-	out := fs.String("o", "mix.png", "PNG file to write")
-	pos, err := parseFlags(fs, args)
-	if err != nil {
-		return err
-	}
-	text := strings.TrimSpace(strings.Join(pos, " "))
-	if text == "" {
-		fs.Usage()
-		return &exitError{exitUsage, errors.New(`give the request in quotes, e.g. mixward plot "Zn + CuSO4 1 M" -o mix.png`)}
-	}
-	eng, err := loadEngine()
-	if err != nil {
-		return err
-	}
-	res, err := eng.Ask(text, engine.AskOptions{})
-	if err != nil {
-		var pe *engine.ParseError
-		if errors.As(err, &pe) {
-			return &exitError{exitUsage, fmt.Errorf("cannot read the request: %s", pe.Error())}
-		}
-		return err
-	}
-	png, ok, err := eph.Plotter{Tables: eng.Tables}.Plot(res)
-	if err != nil {
-		return err
-	}
-	if !ok {
-		return &exitError{exitFail, fmt.Errorf("nothing to draw: %s", engine.Headline(res))}
-	}
-	if err := os.WriteFile(*out, png, 0o644); err != nil {
-		return fmt.Errorf("writing the picture: %w", err)
-	}
-	fmt.Fprintf(a.stdout, "wrote %s: %s with %s, mix pH %.2f\n", *out, res.Oxidizer.Species, res.Reducer.Species, res.Conditions.PH)
-	return nil
-}
-
 func (a *app) cmdVersion(ctx context.Context) error {
 	eng, err := loadEngine()
 	if err != nil {
@@ -250,9 +230,10 @@ func (a *app) usage(w io.Writer) {
 
 usage:
   mixward                         start the local console (no Slack tokens needed)
-  mixward ask "<request>"         answer one mix request (--format text|json, --no-log, --db)
+  mixward ask "<request>"         answer one mix request, short: the decision first (--details, --format text|json, --no-log, --db)
+  mixward review                  judge every pair of the site's tagged streams, worst first (--format text|json|csv, --db)
   mixward table                   list the half-reaction table (--format text|json; --check validates every table)
-  mixward plot "<request>" -o mix.png   draw the E–pH picture of the predicted couples
+  mixward plot "<request>" -o mix.png   draw the E–pH picture of the predicted couples (--db for tags)
   mixward streams set|list|show|rm      the site stream catalogue (tags such as T-101)
   mixward log verify|search|export|prune|backup   the query log
   mixward digest                  shift digest (--since, --until, --format text|json)
@@ -261,10 +242,10 @@ usage:
   mixward version
 
 request language:
-  [mix] <stream> + <stream> [+ ...] [at <temperature>|<pressure>|pH <n>]
-  stream:    [<amount>] <chemical> [<number> <unit>][, <component> ...]   or a site tag (T-101)
-  amount:    L, mL, m3, gal (liquids); kg, g, lb (solids)
-  units:     M, mol/L, mmol/L, %, % w/w, % w/v, g/L, mg/L, ppm;  pH <number>
+  [mix] <stream> + <stream> [+ ...] [at <temperature>|<pressure>|pH <n>]   (+, &, and, with)
+  stream:    [<amount>] <chemical> [<number> <unit>][, <component> ...]   or [<amount>] a site tag (T-101)
+  amount:    L, mL, m3, gal (US), US gal, imp gal (liquids); kg, g, t, lb (solids)
+  units:     M, mol/L, mmol/L, %, % w/w, % w/v, g/L, mg/L, ppm;  pH <number>;  12,5 % = 12.5 %
   example:   mixward ask "mix 200 L NaOCl 12.5 % + 50 L HCl 10 % at 20 C"
 
 Answers are advisory, never a permit: confirm with the safety data sheets, site procedures,

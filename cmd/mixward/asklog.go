@@ -7,6 +7,7 @@ import (
 
 	"mixward/bot"
 	"mixward/engine"
+	"mixward/engine/advice"
 	"mixward/store"
 )
 
@@ -15,10 +16,10 @@ import (
 // the log, as user $MIXWARD_USER or $USER in channel "cli", before the
 // answer is shown. Without logging, an existing log is still read for the
 // stream catalogue, so that tags resolve.
-func (a *app) askOnce(ctx context.Context, eng *engine.Engine, o *storeOpts, text string, noLog bool) (res *engine.Result, id int64, askErr error, err error) {
+func (a *app) askOnce(ctx context.Context, eng *engine.Engine, adv *advice.Advisor, o *storeOpts, text string, noLog bool) (res *engine.Result, id int64, askErr error, err error) {
 	if noLog {
 		if _, statErr := os.Stat(o.db); statErr != nil {
-			res, askErr = eng.Ask(text, engine.AskOptions{})
+			res, askErr = adv.Ask(text, engine.AskOptions{})
 			return res, 0, askErr, nil
 		}
 	}
@@ -28,11 +29,11 @@ func (a *app) askOnce(ctx context.Context, eng *engine.Engine, o *storeOpts, tex
 	}
 	defer db.Close()
 	if noLog {
-		res, askErr = eng.Ask(text, engine.AskOptions{Resolve: catalogueResolver(ctx, db)})
+		res, askErr = adv.Ask(text, catalogueOptions(ctx, db))
 		return res, 0, askErr, nil
 	}
 	b := &bot.Bot{
-		Engine: eng, Log: db, Catalogue: db, Location: loc,
+		Engine: adv, Log: db, Catalogue: db, Location: loc,
 		EngineVersion: engine.Version, DataHash: eng.Tables.Hash,
 	}
 	user := cliUser(a)
@@ -49,6 +50,28 @@ func catalogueResolver(ctx context.Context, db *store.DB) engine.Resolver {
 		}
 		return s.Stream, true
 	}
+}
+
+// catalogueTags lists the catalogue's tags, for "did you mean" on a tag
+// that is not there; nil when the catalogue cannot be read.
+func catalogueTags(ctx context.Context, db *store.DB) func() []string {
+	return func() []string {
+		ss, err := db.Streams(ctx)
+		if err != nil {
+			return nil
+		}
+		tags := make([]string, len(ss))
+		for i, s := range ss {
+			tags[i] = s.Tag
+		}
+		return tags
+	}
+}
+
+// catalogueOptions resolves tags from the site catalogue in db and suggests
+// its tags for near misses.
+func catalogueOptions(ctx context.Context, db *store.DB) engine.AskOptions {
+	return engine.AskOptions{Resolve: catalogueResolver(ctx, db), Tags: catalogueTags(ctx, db)}
 }
 
 var errNotLogged = errors.New("the query could not be written to the log, so no answer is given (every answer is on record first)")

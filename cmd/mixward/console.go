@@ -120,7 +120,7 @@ func (a *app) cmdConsole(ctx context.Context, args []string) error {
 	}
 	b := st.newBot(logger, nil, &bot.Access{Everyone: true})
 	b.ConsoleHelp = true
-	con := &bot.Console{Bot: b, In: a.stdin, Out: a.stdout, Interactive: interactive}
+	con := &bot.Console{Bot: b, In: a.stdin, Out: a.stdout, Interactive: interactive, Query: st.db.Get}
 
 	if *digests {
 		sched, err := store.NewScheduler(st.db, s.shifts, st.loc, con, nil)

@@ -48,6 +48,9 @@ func TestConsoleAnswersLogsAndSeedsDemo(t *testing.T) {
 		"mix T-102 + T-204",
 		"mix 200 L NaOCl 12.5 % + 50 L HCl 10 %",
 		"mix 2 L wizard dust + 1 L HCl 10 %",
+		"details",
+		"details 1",
+		"review",
 		"search chlorine",
 		"streams set T-999 5 L NaOH 1 %",
 		"help",
@@ -58,8 +61,11 @@ func TestConsoleAnswersLogsAndSeedsDemo(t *testing.T) {
 	}
 	for _, want := range []string{
 		"10 streams in the catalogue", "T-102  200 L NaOCl 12.5 %", "invented demo data", // the seeded demo site
-		"Verdict: SPONTANEOUS", "T-102 is 200 L NaOCl 12.5 %", // a tag request, resolved
-		"CAUTION: Advisory only, not a permit",
+		"DO NOT MIX: releases chlorine", "T-102 is 200 L NaOCl 12.5 %", // a tag request, resolved, decision first
+		"Advisory only, not a permit",
+		"Verdict: SPONTANEOUS", "CAUTION: Advisory only, not a permit", // details: the full answer
+		"Query #1, asked", // details of a logged query
+		"Every pair of the site's tagged streams, worst first: 45 pairs", // review
 		"(logged as query #1)", "(logged as query #2)",
 		"couldn't read that mix request", "mix 200 L NaOCl 12.5 % + 50 L HCl 10 %", // error with an example
 		"Matches 1–",  // the console may search
@@ -177,7 +183,7 @@ func TestCheckStream(t *testing.T) {
 func TestNoArgumentsStartsTheConsole(t *testing.T) {
 	env := map[string]string{"MIXWARD_DB": filepath.Join(t.TempDir(), "d.db")}
 	stdout, stderr, code := runConsole(t, env, "mix 200 L NaOCl 12.5 % + 50 L HCl 10 %\n")
-	if code != 0 || !strings.Contains(stdout, "Verdict: SPONTANEOUS") {
+	if code != 0 || !strings.Contains(stdout, "DO NOT MIX: releases chlorine") {
 		t.Errorf("mixward with no arguments: exit %d\nstdout %s\nstderr %s", code, stdout, stderr)
 	}
 }

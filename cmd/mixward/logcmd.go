@@ -21,6 +21,7 @@ import (
 	_ "time/tzdata" // MIXWARD_TZ works without the system zone database
 	"unicode/utf8"
 
+	"mixward/engine/hazard"
 	"mixward/store"
 )
 
@@ -263,7 +264,7 @@ filters alone.
 	until := fs.String("until", "", "only queries before this `date`")
 	user := fs.String("user", "", "only queries by this user `name` (any case) or user id")
 	verdict := fs.String("verdict", "", "only this `verdict`: spontaneous, non-spontaneous, no-reaction or error")
-	hazard := fs.String("hazard", "", "only queries with this hazard `code`, e.g. CL2-GAS")
+	hazardCode := fs.String("hazard", "", "only queries with this hazard `code`, e.g. chlorine-release; older codes (hypochlorite-acid) find the same records")
 	limit := fs.Int("limit", store.DefaultLimit, fmt.Sprintf("page size, at most %d", store.MaxLimit))
 	offset := fs.Int("offset", 0, "skip this many matches (the next page starts at the offset printed)")
 	format := fs.String("format", "text", "output `format`: text, json or csv")
@@ -287,7 +288,11 @@ filters alone.
 	if err != nil {
 		return err
 	}
-	so := store.SearchOptions{Terms: strings.Join(pos, " "), User: *user, Verdict: *verdict, Hazard: *hazard, Limit: *limit, Offset: *offset}
+	so := store.SearchOptions{Terms: strings.Join(pos, " "), User: *user, Verdict: *verdict, Limit: *limit, Offset: *offset}
+	if *hazardCode != "" {
+		// Renamed codes keep their old names as aliases: either finds both.
+		so.HazardAny = hazard.Equivalent(*hazardCode)
+	}
 	if *since != "" {
 		if so.Since, err = parseWhen("since", *since, loc); err != nil {
 			return err

@@ -73,6 +73,8 @@ func (a *app) dispatch(ctx context.Context, args []string) error {
 		return a.cmdLog(ctx, args[1:])
 	case "streams":
 		return a.cmdStreams(ctx, args[1:])
+	case "review":
+		return a.cmdReview(ctx, args[1:])
 	case "digest":
 		return a.cmdDigest(ctx, args[1:])
 	case "console":

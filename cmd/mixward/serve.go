@@ -21,6 +21,7 @@ import (
 
 	"mixward/bot"
 	"mixward/engine"
+	"mixward/engine/advice"
 	"mixward/engine/eph"
 	"mixward/store"
 )
@@ -48,6 +49,7 @@ func (s *siteFlags) location() (*time.Location, error) {
 // site is what both front ends open: engine, store, clock and zone.
 type site struct {
 	eng    *engine.Engine
+	adv    *advice.Advisor
 	db     *store.DB
 	loc    *time.Location
 	shifts string
@@ -65,18 +67,23 @@ func openSite(ctx context.Context, s siteFlags) (*site, error) {
 	if err != nil {
 		return nil, err
 	}
+	adv, err := loadAdvisor(eng)
+	if err != nil {
+		return nil, err
+	}
 	db, err := store.Open(ctx, s.db, store.Options{Location: loc})
 	if err != nil {
 		return nil, err
 	}
-	return &site{eng: eng, db: db, loc: loc, shifts: s.shifts}, nil
+	return &site{eng: eng, adv: adv, db: db, loc: loc, shifts: s.shifts}, nil
 }
 
 // newBot wires the transport-independent bot to the site.
 func (st *site) newBot(logger *slog.Logger, metrics *bot.Metrics, access *bot.Access) *bot.Bot {
 	sched, _ := store.ParseShifts(st.shifts)
 	return &bot.Bot{
-		Engine:      st.eng,
+		Engine:      st.adv,
+		Render:      advice.RenderShort,
 		CheckStream: func(text string) error { return checkStream(st.eng, text) },
 		Log:         st.db,
 		Catalogue:   st.db,

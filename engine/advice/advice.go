@@ -1,0 +1,127 @@
+// Package advice answers a mix request the way an operator reads it: the
+// engine's prediction, judged through the hazard package's Outcome, the
+// pour along the addition, and the decision first. It also renders the
+// short answer and reviews a catalogue of streams pair by pair. No I/O.
+package advice
+
+import (
+	"fmt"
+	"io/fs"
+	"math"
+
+	"mixward/engine"
+	"mixward/engine/hazard"
+	"mixward/engine/pour"
+)
+
+// Advisor answers requests with a decision. It is safe for concurrent use.
+type Advisor struct {
+	Engine *engine.Engine
+	Gases  *hazard.Data
+}
+
+// New builds an Advisor on a loaded engine, reading the gas table from fsys
+// (normally data.FS).
+func New(e *engine.Engine, fsys fs.FS) (*Advisor, error) {
+	d, err := hazard.Load(fsys)
+	if err != nil {
+		return nil, err
+	}
+	return &Advisor{Engine: e, Gases: d}, nil
+}
+
+// Ask parses and answers a request: the engine's prediction with the
+// hazards judged from what forms, the pour, and the decision.
+func (a *Advisor) Ask(text string, opt engine.AskOptions) (*engine.Result, error) {
+	req, err := engine.Parse(text, a.Engine.Tables, opt)
+	if err != nil {
+		return nil, err
+	}
+	return a.Predict(req)
+}
+
+// Predict answers a parsed request.
+func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
+	res, err := a.Engine.Predict(req)
+	if err != nil {
+		return nil, err
+	}
+	o := hazard.FromResult(res, a.Engine.Tables)
+	alone := a.alone(req)
+	res.Hazards = hazard.Relative(hazard.Judge(o, a.Gases), pick(alone, req.Streams))
+	if o.Heat.Known && o.Heat.RiseC != rise(res) {
+		res.Notes = append(res.Notes, fmt.Sprintf("heat counted for the hazards: %.0f kJ, about %+.1f °C (reactions that do not proceed left out)", o.Heat.ReleasedkJ, o.Heat.RiseC))
+	}
+	res.Notes = append(res.Notes, fmt.Sprintf("gas concentrations are for a closed headspace equal to the liquid volume (%s L), at equilibrium", trim(o.HeadspaceL)))
+	res.Addition = pour.Analyse(req, func(r *engine.Request) ([]engine.Hazard, error) {
+		hs, err := a.evaluate(r)
+		return hazard.Relative(hs, pick(alone, r.Streams)), err
+	})
+	if res.Addition == nil {
+		res.Addition = &engine.Addition{Orders: []engine.PourOrder{}, Advice: "One stream: nothing is poured into anything."}
+	}
+	d := hazard.Decide(res.Hazards, res.Addition)
+	d.HeadspaceL = o.HeadspaceL
+	d.Held = []string{}
+	d.Gases = []engine.GasRelease{}
+	for _, g := range o.Gases {
+		d.Gases = append(d.Gases, engine.GasReleaseOf(g.Formula+"(g)", g.Mol, o.TemperatureK(), o.PressureKPa))
+	}
+	for _, h := range o.HeldBack {
+		d.Held = append(d.Held, h.Text+": "+h.Reason)
+	}
+	if o.Heat.Known {
+		d.Heat = &engine.HeatJudged{ReleasedkJ: round1(o.Heat.ReleasedkJ), ReachedC: round1(o.Heat.ReachedC), Boils: o.Heat.Boils}
+	}
+	res.Decision = &d
+	return res, nil
+}
+
+// evaluate judges one point of a pour.
+func (a *Advisor) evaluate(req *engine.Request) ([]engine.Hazard, error) {
+	res, err := a.Engine.Predict(req)
+	if err != nil {
+		return nil, err
+	}
+	return hazard.Judge(hazard.FromResult(res, a.Engine.Tables), a.Gases), nil
+}
+
+// alone judges each stream by itself, keyed by streamKey.
+func (a *Advisor) alone(req *engine.Request) map[string]hazard.Alone {
+	out := map[string]hazard.Alone{}
+	for _, s := range req.Streams {
+		r := *req
+		r.Streams = []engine.Stream{s}
+		hs, err := a.evaluate(&r)
+		if err != nil {
+			continue
+		}
+		out[streamKey(s)] = hazard.Alone{Name: pour.Name(&s), Hazards: hs}
+	}
+	return out
+}
+
+// pick returns the judgements alone of the streams given (a pour point
+// holds two of the request's streams, one of them scaled).
+func pick(alone map[string]hazard.Alone, ss []engine.Stream) []hazard.Alone {
+	var out []hazard.Alone
+	for _, s := range ss {
+		if a, ok := alone[streamKey(s)]; ok {
+			out = append(out, a)
+		}
+	}
+	return out
+}
+
+func streamKey(s engine.Stream) string { return s.Tag + "\x00" + s.Text }
+
+func rise(r *engine.Result) float64 {
+	if r.Heat == nil || r.Heat.TemperatureRiseC == nil {
+		return 0
+	}
+	return *r.Heat.TemperatureRiseC
+}
+
+func round1(x float64) float64 { return math.Round(x*10) / 10 }
+
+func trim(x float64) string { return fmt.Sprintf("%.4g", x) }

@@ -1,0 +1,193 @@
+package advice
+
+import (
+	"fmt"
+	"strings"
+
+	"mixward/engine"
+	"mixward/engine/hazard"
+)
+
+// LevelText is the decision level as the first words of an answer.
+func LevelText(l engine.Level) string {
+	switch l {
+	case engine.DoNotMix:
+		return "DO NOT MIX"
+	case engine.WithPrecautions:
+		return "MIX ONLY WITH PRECAUTIONS"
+	case engine.NoConcern:
+		return "NO CONCERN"
+	}
+	return "NO DECISION"
+}
+
+// DecisionLine is the first line of every answer: the level and the main
+// reason.
+func DecisionLine(r *engine.Result) string {
+	if r.Decision == nil {
+		return engine.Headline(r)
+	}
+	return LevelText(r.Decision.Level) + ": " + r.Decision.Title
+}
+
+// shortCaution closes the short answer.
+const shortCaution = "Advisory only, not a permit: follow the SDS, site procedures and local codes."
+
+// RenderShort writes the short answer: the decision, what forms (gases
+// with litres and headspace concentration against the limit, heat with the
+// temperature reached), the net equation and the actions. About a dozen
+// lines for two streams.
+func RenderShort(r *engine.Result) string {
+	var b strings.Builder
+	w := func(format string, args ...any) { fmt.Fprintf(&b, format, args...) }
+	w("%s\n", DecisionLine(r))
+	for _, s := range r.Streams {
+		if s.Tag != "" {
+			w("  %s is %s\n", s.Tag, s.Text)
+		}
+	}
+	for _, n := range r.ReadAs {
+		w("  %s\n", n)
+	}
+	w("%s\n", formsLine(r))
+	w("%s\n", heatLine(r))
+	w("%s\n", reactionLine(r))
+	if d := r.Decision; d != nil {
+		for i, a := range d.Actions {
+			if i == 3 {
+				w("  (%d more in the details)\n", len(d.Actions)-3)
+				break
+			}
+			w("- %s\n", a)
+		}
+	}
+	hs := 0.0
+	if r.Decision != nil {
+		hs = r.Decision.HeadspaceL
+	}
+	w("Gas figures: closed headspace equal to the liquid volume (%s L), at equilibrium. %s\n", trim(hs), shortCaution)
+	return b.String()
+}
+
+// formsLine lists the gases of concern in numbers, else the gases formed.
+func formsLine(r *engine.Result) string {
+	var parts []string
+	for _, h := range r.Hazards {
+		if h.Gas != nil && len(parts) < 3 {
+			g := h.Gas
+			parts = append(parts, fmt.Sprintf("%s %s mol (%s L), headspace %s ppm = %s× %s %s ppm",
+				g.Formula, num(g.Mol), num(g.VolumeL), num(g.HeadspacePPM), num(g.Ratio), g.LimitName, num(g.LimitPPM)))
+		}
+	}
+	if len(parts) == 0 && r.Decision != nil {
+		for _, g := range r.Decision.Gases {
+			if len(parts) < 3 {
+				parts = append(parts, fmt.Sprintf("%s %s L", g.Text, num(g.VolumeL)))
+			}
+		}
+		if len(parts) > 0 {
+			return "Forms: " + strings.Join(parts, "; ") + " (no gas of concern in the headspace)"
+		}
+		return "Forms: no gas of concern"
+	}
+	return "Forms: " + strings.Join(parts, "; ")
+}
+
+func heatLine(r *engine.Result) string {
+	if r.Decision == nil || r.Decision.Heat == nil {
+		return "Heat: no estimate (formation enthalpies missing)"
+	}
+	h := r.Decision.Heat
+	switch {
+	case h.Boils:
+		return fmt.Sprintf("Heat: %s kJ, would reach about %s °C: boils", num(h.ReleasedkJ), num(h.ReachedC))
+	case h.ReleasedkJ == 0:
+		return "Heat: none to speak of"
+	case h.ReleasedkJ < 0:
+		return fmt.Sprintf("Heat: %s kJ taken up, cools to about %s °C", num(-h.ReleasedkJ), num(h.ReachedC))
+	}
+	return fmt.Sprintf("Heat: %s kJ, to about %s °C", num(h.ReleasedkJ), num(h.ReachedC))
+}
+
+func reactionLine(r *engine.Result) string {
+	switch {
+	case r.Reaction == nil:
+		return "Redox: no oxidizing and reducing agent pair"
+	case r.Verdict == engine.Spontaneous && r.Decision != nil && held(r.Decision.Held, r.Reaction.Text):
+		return "Redox: " + r.Reaction.Text + " possible on paper, held back (not counted; see the details)"
+	case r.Verdict == engine.Spontaneous && r.ECell != nil:
+		s := fmt.Sprintf("Redox: %s (spontaneous, E cell %+.2f V", r.Reaction.Text, *r.ECell)
+		if r.Hindered {
+			s += ", kinetically slow"
+		}
+		return s + ")"
+	}
+	return "Redox: no spontaneous reaction (" + r.Reaction.Text + " does not run)"
+}
+
+func num(x float64) string { return hazardNum(x) }
+
+// hazardNum writes 3 significant digits without exponent.
+func hazardNum(x float64) string {
+	s := fmt.Sprintf("%.3g", x)
+	if strings.ContainsAny(s, "e") {
+		s = fmt.Sprintf("%.0f", x)
+	}
+	return s
+}
+
+// RenderDetails writes the full answer: the decision with every reason
+// and action, the engine's full text, and the pour.
+func RenderDetails(r *engine.Result) string {
+	var b strings.Builder
+	w := func(format string, args ...any) { fmt.Fprintf(&b, format, args...) }
+	w("Decision: %s\n", DecisionLine(r))
+	if d := r.Decision; d != nil {
+		for _, x := range d.Reasons {
+			w("  because: %s\n", x)
+		}
+		for _, x := range d.Actions {
+			w("  do: %s\n", x)
+		}
+		for _, x := range d.Held {
+			w("  not counted: %s\n", x)
+		}
+	}
+	w("\n%s", engine.RenderText(r))
+	if a := r.Addition; a != nil {
+		w("\nAlong the pour (%d mixes evaluated):\n", a.Points)
+		for _, o := range a.Orders {
+			w("  %s into %s:", o.Added, o.Into)
+			if len(o.Hazards) == 0 {
+				w(" nothing of concern\n")
+				continue
+			}
+			w("\n")
+			for _, h := range o.Hazards {
+				w("    [%s] %s from %s to %s of the addition\n", strings.ToUpper(string(h.Worst)), h.Code, pctText(h.FromFraction), pctText(h.ToFraction))
+			}
+		}
+		w("  %s\n", a.Advice)
+	}
+	return b.String()
+}
+
+func pctText(f float64) string { return strings.TrimSuffix(fmt.Sprintf("%.1f", f*100), ".0") + " %" }
+
+// Reasons is hazard.Reason, for front ends that list the hazards briefly.
+func Reasons(r *engine.Result) []string {
+	var out []string
+	for _, h := range r.Hazards {
+		out = append(out, hazard.Reason(h))
+	}
+	return out
+}
+
+func held(hs []string, text string) bool {
+	for _, h := range hs {
+		if strings.HasPrefix(h, text+": ") {
+			return true
+		}
+	}
+	return false
+}

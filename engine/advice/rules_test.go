@@ -1,0 +1,230 @@
+package advice_test
+
+import (
+	"strings"
+	"testing"
+
+	"mixward/data"
+	"mixward/engine"
+	"mixward/engine/advice"
+)
+
+func mustAdvisor(t testing.TB) *advice.Advisor {
+	t.Helper()
+	e, err := engine.New(data.FS)
+	if err != nil {
+		t.Fatal(err)
+	}
+	a, err := advice.New(e, data.FS)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return a
+}
+
+func ask(t testing.TB, a *advice.Advisor, req string) *engine.Result {
+	t.Helper()
+	r, err := a.Ask(req, engine.AskOptions{})
+	if err != nil {
+		t.Fatalf("Ask(%q): %v", req, err)
+	}
+	return r
+}
+
+func hazardOf(r *engine.Result, code string) (engine.Hazard, bool) {
+	for _, h := range r.Hazards {
+		if h.Code == code {
+			return h, true
+		}
+	}
+	return engine.Hazard{}, false
+}
+
+// TestHazardsAdded: each hazard the judgement adds, on an invented-plant
+// request, with the source of the rule beside it.
+func TestHazardsAdded(t *testing.T) {
+	a := mustAdvisor(t)
+	for _, tc := range []struct {
+		name, req, code string
+		sev             engine.Severity
+		source          string // where the rule comes from (also in the hazard's Source)
+	}{
+		{"bleach with acetic acid", "mix 1 L NaOCl 5 % + 1 L acetic acid 5 %", "chlorine-release", engine.Danger,
+			"Cl2 hydrolysis constant, Connick and Chia 1959; NIOSH IDLH chlorine 10 ppm; Sander 2015"},
+		{"bleach with citric acid", "mix 1 L NaOCl 5 % + 1 L citric acid 5 %", "chlorine-release", engine.Danger,
+			"Cl2 hydrolysis constant, Connick and Chia 1959; NIOSH IDLH chlorine 10 ppm"},
+		{"borohydride into acid", "mix 1 L NaBH4 10 %, NaOH 1 % + 1 L HCl 10 %", "hydrogen-release", engine.Danger,
+			"Bretherick's Handbook, sodium tetrahydroborate; US Bureau of Mines LFL 4 %"},
+		{"dithionite into acid", "mix 1 kg Na2S2O4 + 10 L H2SO4 10 %", "so2-release", engine.Danger,
+			"Bretherick's Handbook, sodium dithionite; NIOSH IDLH sulfur dioxide 100 ppm"},
+		{"dithionite self-heating", "mix 1 kg Na2S2O4 + 10 L H2SO4 10 %", "self-heating", engine.Warning,
+			"Bretherick's Handbook, sodium dithionite"},
+		{"hydrofluoric acid", "mix 1 L HF 40 % + 1 L water", "hf-burns", engine.Danger,
+			"NIOSH Pocket Guide, hydrogen fluoride IDLH 30 ppm"},
+		{"aqua regia", "mix 3 L HCl 37 % + 1 L HNO3 65 %", "chlorine-release", engine.Danger,
+			"CRC Handbook and Bretherick's Handbook, aqua regia"},
+		{"chlorate with hydrochloric acid", "mix 1 L NaClO3 30 % + 1 L HCl 37 %", "clo2-release", engine.Danger,
+			"Bretherick's Handbook, sodium chlorate; NIOSH IDLH chlorine dioxide 5 ppm"},
+		{"silver with ammonia", "mix 1 L AgNO3 5 % + 1 L NH3 10 %", "explosive-residue", engine.Danger,
+			"Bretherick's Handbook, silver nitrate with ammonia"},
+		{"hypochlorite with copper", "mix 1 L NaOCl 12.5 % + 1 L CuSO4 5 %", "oxygen-surge", engine.Warning,
+			"Bretherick's Handbook, sodium hypochlorite with metal salts"},
+		{"hypochlorite with nickel", "mix 1 L NiCl2 5 % + 1 L NaOCl 12.5 %", "oxygen-surge", engine.Warning,
+			"Bretherick's Handbook, sodium hypochlorite with metal salts"},
+		{"hypochlorite with cobalt", "mix 1 L CoSO4 5 % + 1 L NaOCl 12.5 %", "oxygen-surge", engine.Warning,
+			"Bretherick's Handbook, sodium hypochlorite with metal salts"},
+		{"hypochlorite with urea in acid", "mix 1 L NaOCl 5 % + 1 L urea 5 %, H2SO4 5 %", "nitrogen-trichloride", engine.Danger,
+			"Bretherick's Handbook, nitrogen trichloride; White's Handbook of Chlorination"},
+		{"hypochlorite with ammonium in acid", "mix 1 L NaOCl 5 % + 1 L NH4Cl 5 %, HCl 5 %", "nitrogen-trichloride", engine.Danger,
+			"Bretherick's Handbook, nitrogen trichloride"},
+		{"hypochlorite with ammonia", "mix 1 L NH3 1 M + 1 L NaOCl 5 %, NaOH 1 M", "chloramine-release", engine.Danger,
+			"White's Handbook of Chlorination"},
+		{"cyanide with hypochlorite below pH 10", "mix 1 L NaCN 0.1 M + 1 L NaOCl 1 % at pH 8", "cyanogen-chloride-release", engine.Danger,
+			"alkaline chlorination at pH 10 or more: common practice; ACGIH ceiling 0.3 ppm"},
+		{"bromate with bromide in acid", "mix 1 L KBrO3 5 % + 1 L KBr 10 %, H2SO4 10 %", "bromine-release", engine.Danger,
+			"Bretherick's Handbook, potassium bromate; NIOSH IDLH bromine 3 ppm"},
+		{"sodium with water", "mix 100 g Na + 10 L water", "alkali-metal-fire", engine.Danger,
+			"Bretherick's Handbook, sodium"},
+		{"concentrated ammonia with concentrated acid", "mix 1 L NH3 28 % + 1 L HCl 37 %", "ammonium-salt-fumes", engine.Warning,
+			"common practice, no source"},
+		{"cyanide into acid, in numbers", "mix 600 L CuCN 22 g/L, NaCN 30 g/L, NaOH 5 g/L + 1500 L HCl 10 %", "hcn-release", engine.Danger,
+			"NIOSH IDLH hydrogen cyanide 50 ppm; Sander 2015"},
+		{"chlorine dioxide in numbers", "mix 1 L NaClO3 30 % + 1 L HCl 37 %", "clo2-release", engine.Danger,
+			"NIOSH IDLH chlorine dioxide 5 ppm"},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			r := ask(t, a, tc.req)
+			h, ok := hazardOf(r, tc.code)
+			if !ok {
+				t.Fatalf("%s: no %s among %v (source: %s)", tc.req, tc.code, codesOf(r), tc.source)
+			}
+			if h.Severity != tc.sev {
+				t.Errorf("%s: %s is %s, want %s", tc.req, tc.code, h.Severity, tc.sev)
+			}
+			if h.Source == "" || h.Title == "" || h.Action == "" {
+				t.Errorf("%s: %s lacks a source, title or action: %+v", tc.req, tc.code, h)
+			}
+			if g := h.Gas; g != nil && !(g.Mol > 0 && g.HeadspacePPM > 0 && g.LimitPPM > 0) {
+				t.Errorf("%s: gas hazard without numbers: %+v", tc.req, g)
+			}
+		})
+	}
+}
+
+func codesOf(r *engine.Result) []string {
+	var cs []string
+	for _, h := range r.Hazards {
+		cs = append(cs, h.Code+":"+string(h.Severity))
+	}
+	return cs
+}
+
+// TestFalseAlarmsRemoved: each false alarm that taught operators to ignore
+// warnings, with the codes it must no longer raise.
+func TestFalseAlarmsRemoved(t *testing.T) {
+	a := mustAdvisor(t)
+	for _, tc := range []struct {
+		name, req string
+		not       []string // codes that must not appear (new names)
+		why       string
+	}{
+		{"diluting 50 % peroxide does not boil", "mix 10 L H2O2 50 % + 10 L water", []string{"boils", "scalding-heat", "oxygen-release"},
+			"peroxide does not decompose without a catalyst (held back)"},
+		{"caustic into bleach gives no oxygen", "mix 200 L NaOCl 12.5 % + 50 L NaOH 50 %", []string{"oxygen-release", "oxygen-surge"},
+			"hypochlorite does not decompose without a catalyst; caustic is how bleach is stabilised"},
+		{"no chlorine from alkaline ammonia with bleach", "mix 1 L NH3 1 M + 1 L NaOCl 5 %, NaOH 1 M", []string{"chlorine-release"},
+			"chlorine does not persist above pH 5"},
+		{"no chlorine from alkaline cyanide destruction", "mix 1 L NaCN 1 g/L, NaOH 1 g/L + 1 L NaOCl 1 %", []string{"chlorine-release", "cyanogen-chloride-release", "hcn-release"},
+			"pH 12: chlorine hydrolysed, cyanogen chloride hydrolysed, cyanide held as CN-"},
+		{"no hydrogen from copper in hydrochloric acid", "mix 1 L Cu + 1 L HCl 37 %", []string{"hydrogen-release"},
+			"copper with hydrochloric acid is not spontaneous"},
+		{"no boiling from a stated bath temperature", "mix 1 L HCl 10 % + 1 L water at 90 C", []string{"boils", "scalding-heat", "warms"},
+			"a stated temperature alone never raises a heat hazard"},
+		{"no acid-cyanide alarm when peroxide destroys cyanide at pH 10.6, no acid present",
+			"mix 600 L CuCN 22 g/L, NaCN 30 g/L, NaOH 5 g/L + 1000 L H2O2 3 %", []string{"hcn-release", "oxygen-release"},
+			"the cyanide is oxidised to cyanate; no acid is present; peroxide does not decompose without a catalyst"},
+		{"no acid-cyanide alarm in alkaline cyanide without acid", "mix 10 L NaCN 0.01 M, NaOH 0.01 M + 10 L water", []string{"hcn-release"},
+			"pH above 11: a trace of HCN in the headspace, below a tenth of the IDLH"},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			r := ask(t, a, tc.req)
+			for _, c := range tc.not {
+				if h, ok := hazardOf(r, c); ok {
+					t.Errorf("%s raised %s (%s): %s", tc.req, c, tc.why, h.Message)
+				}
+			}
+		})
+	}
+}
+
+// TestHydrogenMargin: a pair within ProceedMarginV of zero raises nothing.
+func TestHydrogenMargin(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "mix 1 L NaCN 1 g/L, NaOH 1 g/L + 1 L NaOCl 1 %")
+	for _, alt := range r.Alternatives {
+		if alt.ECell > 0 && alt.ECell <= 0.05 && strings.Contains(alt.Reaction.Text, "H2(g)") {
+			if _, ok := hazardOf(r, "hydrogen-release"); ok {
+				t.Errorf("hydrogen from a pair at %+.3f V", alt.ECell)
+			}
+		}
+	}
+	held := strings.Join(r.Decision.Held, "\n")
+	if !strings.Contains(held, "not above +0.05 V") && !strings.Contains(held, "kinetically hindered") {
+		t.Errorf("held-back reactions do not say why: %q", held)
+	}
+}
+
+// TestDecisionNotFromVerdict: the decision follows the hazards, never the
+// redox verdict alone.
+func TestDecisionNotFromVerdict(t *testing.T) {
+	a := mustAdvisor(t)
+	for _, tc := range []struct {
+		req     string
+		verdict engine.Verdict
+		level   engine.Level
+	}{
+		// Spontaneous but harmless: permanganate titration-strength with ferrous.
+		{"mix 1 L KMnO4 0.02 M, H2SO4 1 M + 1 L FeSO4 0.1 M", engine.Spontaneous, engine.NoConcern},
+		// Lethal and not redox: cyanide with acid, hypochlorite with acid.
+		{"mix 1 L NaCN 5 % + 1 L HCl 10 %", "", engine.DoNotMix},
+		{"mix 1 L HCl 10 % + 1 L NaOCl 5 %", "", engine.DoNotMix},
+	} {
+		r := ask(t, a, tc.req)
+		if tc.verdict != "" && r.Verdict != tc.verdict {
+			t.Errorf("%s: verdict %s, want %s", tc.req, r.Verdict, tc.verdict)
+		}
+		if r.Decision == nil || r.Decision.Level != tc.level {
+			t.Errorf("%s: decision %+v, want %s", tc.req, r.Decision, tc.level)
+		}
+	}
+	r := ask(t, a, "mix 1 L NaCN 5 % + 1 L HCl 10 %")
+	if r.Verdict == engine.Spontaneous && r.Reaction != nil && strings.Contains(r.Reaction.Text, "HCN") {
+		t.Errorf("cyanide with acid dressed as redox: %s", r.Reaction.Text)
+	}
+	if r.Decision.Title != "releases hydrogen cyanide" {
+		t.Errorf("title %q", r.Decision.Title)
+	}
+}
+
+// TestStreamsOwnHazards: a hazard a stream carries alone is not blamed on
+// the mix unless mixing makes it worse; heat, hydrofluoric acid and
+// hexavalent chromium always count.
+func TestStreamsOwnHazards(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "mix 10 L NH3 10 % + 10 L water")
+	if h, ok := hazardOf(r, "ammonia-release"); ok && h.Severity != engine.Info {
+		t.Errorf("diluting ammonia solution raised %s %s: %s", h.Code, h.Severity, h.Message)
+	}
+	if r.Decision.Level != engine.NoConcern {
+		t.Errorf("diluting ammonia solution: %s (%s)", r.Decision.Level, r.Decision.Title)
+	}
+	// Acid makes the cyanide stream's own trace of HCN far worse: it counts.
+	r = ask(t, a, "mix 1 L NaCN 5 %, NaOH 1 % + 1 L HCl 10 %")
+	if h, ok := hazardOf(r, "hcn-release"); !ok || h.Severity != engine.Danger {
+		t.Errorf("cyanide with acid: %v", codesOf(r))
+	}
+	r = ask(t, a, "mix 1 L HF 40 % + 1 L water")
+	if h, ok := hazardOf(r, "hf-burns"); !ok || h.Severity == engine.Info {
+		t.Errorf("hydrofluoric acid demoted: %v", codesOf(r))
+	}
+}

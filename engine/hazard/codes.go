@@ -1,0 +1,104 @@
+package hazard
+
+import (
+	"sort"
+	"strings"
+)
+
+// Code describes one hazard code: what forms or happens, in a few words,
+// and the older codes it replaces.
+type Code struct {
+	Code    string
+	Title   string   // the decision's reason in a few words
+	Aliases []string // older codes (class-pair names) that still find it in the log
+}
+
+// Codes lists every hazard code the judgement can raise, in the order of
+// the README's list.
+var codes = []Code{
+	{"hcn-release", "releases hydrogen cyanide", []string{"acid-cyanide", "cyanide-low-ph", "toxic-gas"}},
+	{"cyanogen-chloride-release", "releases cyanogen chloride", []string{"toxic-gas"}},
+	{"cyanide-kept-alkaline", "cyanide present: keep it alkaline", []string{"cyanide-present"}},
+	{"chlorine-release", "releases chlorine", []string{"hypochlorite-acid", "toxic-gas"}},
+	{"chloramine-release", "forms chloramines", []string{"hypochlorite-ammonia"}},
+	{"nitrogen-trichloride", "forms explosive nitrogen trichloride", []string{"hypochlorite-ammonia"}},
+	{"clo2-release", "releases chlorine dioxide", []string{"toxic-gas"}},
+	{"bromine-release", "releases bromine", []string{"toxic-gas"}},
+	{"h2s-release", "releases hydrogen sulfide", []string{"acid-sulfide", "sulfide-near-neutral", "toxic-gas"}},
+	{"so2-release", "releases sulfur dioxide", []string{"acid-sulfite", "sulfite-acidic", "toxic-gas"}},
+	{"no2-release", "releases nitrogen dioxide", []string{"toxic-gas"}},
+	{"no-release", "releases nitric oxide", []string{"toxic-gas"}},
+	{"ammonia-release", "releases ammonia", []string{"ammonium-base", "toxic-gas"}},
+	{"ammonium-salt-fumes", "fumes of ammonium salt and heat", nil},
+	{"co2-release", "releases carbon dioxide", []string{"acid-carbonate", "toxic-gas"}},
+	{"fizzing-pressure", "fizzes: foam-over and pressure", []string{"acid-carbonate"}},
+	{"hydrogen-release", "releases flammable hydrogen", []string{"flammable-gas"}},
+	{"alkali-metal-fire", "alkali metal with water: fire", []string{"flammable-gas"}},
+	{"oxygen-release", "releases oxygen", []string{"oxygen-enrichment"}},
+	{"oxygen-surge", "metal salts set hypochlorite decomposing: oxygen surge", []string{"oxygen-enrichment"}},
+	{"explosive-residue", "leaves explosive residues on standing", nil},
+	{"hf-burns", "hydrofluoric acid: deep burns and fumes", nil},
+	{"self-heating", "self-heating decomposition", nil},
+	{"chromium-vi-exposure", "hexavalent chromium (causes cancer)", []string{"carcinogen-cr6"}},
+	{"boils", "boils", []string{"boiling", "neutralisation-heat"}},
+	{"scalding-heat", "gets hot enough to scald", []string{"strong-heat", "neutralisation-heat"}},
+	{"warms", "warms noticeably", []string{"temperature-rise", "neutralisation-heat"}},
+}
+
+// Codes returns the hazard codes with their titles and older aliases.
+func Codes() []Code {
+	out := make([]Code, len(codes))
+	for i, c := range codes {
+		out[i] = Code{Code: c.Code, Title: c.Title, Aliases: append([]string(nil), c.Aliases...)}
+	}
+	return out
+}
+
+func codeOf(code string) Code {
+	for _, c := range codes {
+		if c.Code == code {
+			return c
+		}
+	}
+	panic("hazard: unknown code " + code)
+}
+
+// Aliases maps each older code to the codes that replace it.
+func Aliases() map[string][]string {
+	m := map[string][]string{}
+	for _, c := range codes {
+		for _, a := range c.Aliases {
+			m[a] = append(m[a], c.Code)
+		}
+	}
+	return m
+}
+
+// Equivalent lists the codes that name the same hazard as code, itself
+// first: a new code with its older aliases, or an older code with the codes
+// that replace it. The log search uses it so that old records are found by
+// new codes and new records by old ones. Matching ignores case.
+func Equivalent(code string) []string {
+	code = strings.ToLower(strings.TrimSpace(code))
+	set := map[string]bool{code: true}
+	for _, c := range codes {
+		if c.Code == code {
+			for _, a := range c.Aliases {
+				set[a] = true
+			}
+		}
+		for _, a := range c.Aliases {
+			if a == code {
+				set[c.Code] = true
+			}
+		}
+	}
+	out := []string{code}
+	delete(set, code)
+	rest := make([]string, 0, len(set))
+	for k := range set {
+		rest = append(rest, k)
+	}
+	sort.Strings(rest)
+	return append(out, rest...)
+}

@@ -1,0 +1,179 @@
+package hazard
+
+import (
+	"strings"
+
+	"mixward/engine"
+)
+
+// NoConcernTitle is the decision's title when nothing of concern forms.
+const NoConcernTitle = "no redox or acid–base reaction of concern"
+
+// Decide derives the operator's decision from the hazards of the final mix
+// and of the pour. The final mix counts as it is; of the orders of
+// addition the better one counts, since the operator can choose it. The
+// redox verdict plays no part.
+func Decide(final []engine.Hazard, add *engine.Addition) engine.Decision {
+	d := engine.Decision{Level: engine.NoConcern, Title: NoConcernTitle, Reasons: []string{}, Actions: []string{}}
+	finalW := worstOf(final)
+	for _, h := range final {
+		if h.Severity != engine.Info {
+			d.Reasons = append(d.Reasons, Reason(h))
+			d.Actions = appendNew(d.Actions, h.Action)
+		}
+	}
+	if finalW >= 2 {
+		d.Title = titleOf(final)
+	}
+	best, bestOrder, allW, choice := pourLevels(add)
+	level := max(finalW, best)
+	switch {
+	case best > finalW && bestOrder != nil && len(bestOrder.Hazards) > 0:
+		d.Title = pourTitle(add, bestOrder)
+		for _, ph := range bestOrder.Hazards {
+			d.Reasons = append(d.Reasons, "while "+bestOrder.Added+" runs into "+bestOrder.Into+": "+codeTitle(ph.Code)+
+				" from "+pct(ph.FromFraction)+" to "+pct(ph.ToFraction)+" of the addition")
+		}
+	case allW > best && choice != nil:
+		level = max(level, 2)
+		if finalW < 2 {
+			d.Title = worseOrderTitle(add, choice)
+		}
+		d.Title += "; order of addition matters: add " + choice.Added + " into " + choice.Into
+	}
+	if add != nil && add.Advice != "" && allW >= 2 {
+		d.Actions = appendNew(d.Actions, add.Advice)
+	}
+	switch {
+	case level >= 3:
+		d.Level = engine.DoNotMix
+	case level == 2:
+		d.Level = engine.WithPrecautions
+	}
+	return d
+}
+
+// worseOrderTitle names the worst hazard met in the other order(s).
+func worseOrderTitle(add *engine.Addition, good *engine.PourOrder) string {
+	w, t := 0, ""
+	for i := range add.Orders {
+		o := &add.Orders[i]
+		if o == good || o.Added != good.Into || o.Into != good.Added {
+			continue
+		}
+		for _, h := range o.Hazards {
+			if rank(h.Worst) > w {
+				w, t = rank(h.Worst), codeTitle(h.Code)
+			}
+		}
+	}
+	if t == "" {
+		return "hazard along the pour"
+	}
+	if t == codeTitle("boils") {
+		t = "boils locally"
+	}
+	return t + " if poured the other way"
+}
+
+// pourLevels judges the pour pair by pair (the orders come in pairs: one
+// pair of streams, both ways). For each pair the better order counts, as the
+// operator can choose it. best is the worst of those over the pairs, with
+// its order; all is the worst rank met in any order; choice is the better
+// order of the pair where the order matters most (nil when it never does).
+func pourLevels(add *engine.Addition) (best int, order *engine.PourOrder, all int, choice *engine.PourOrder) {
+	if add == nil {
+		return 0, nil, 0, nil
+	}
+	gap := 0
+	for i := 0; i+1 < len(add.Orders); i += 2 {
+		x, y := &add.Orders[i], &add.Orders[i+1]
+		wx, wy := orderRank(x), orderRank(y)
+		good, pb := x, wx
+		if wy < wx {
+			good, pb = y, wy
+		}
+		if pb > best || order == nil {
+			best, order = max(best, pb), good
+		}
+		all = max(all, wx, wy)
+		if d := max(wx, wy) - pb; d > 0 && max(wx, wy) > gap {
+			gap, choice = max(wx, wy), good
+		}
+	}
+	return best, order, all, choice
+}
+
+func orderRank(o *engine.PourOrder) int {
+	w := 0
+	for _, h := range o.Hazards {
+		w = max(w, rank(h.Worst))
+	}
+	return w
+}
+
+func pourTitle(add *engine.Addition, o *engine.PourOrder) string {
+	t := codeTitle(o.Hazards[0].Code)
+	if len(add.Orders) == 2 {
+		return t + " in either order of addition"
+	}
+	return t + " along the pour"
+}
+
+func worstOf(hs []engine.Hazard) int {
+	w := 0
+	for _, h := range hs {
+		w = max(w, rank(h.Severity))
+	}
+	return w
+}
+
+// titleOf is the title of the worst hazards, at most two.
+func titleOf(hs []engine.Hazard) string {
+	var ts []string
+	w := worstOf(hs)
+	for _, h := range hs {
+		if rank(h.Severity) == w && len(ts) < 2 {
+			ts = appendNew(ts, h.Title)
+		}
+	}
+	return strings.Join(ts, "; ")
+}
+
+// Reason is a hazard in a few words with its numbers.
+func Reason(h engine.Hazard) string {
+	switch {
+	case h.Gas != nil:
+		g := h.Gas
+		return h.Title + ": " + fmtNum(g.Mol, 3) + " mol " + g.Formula + " (" + fmtNum(g.VolumeL, 3) + " L), headspace " +
+			fmtNum(g.HeadspacePPM, 3) + " ppm = " + fmtNum(g.Ratio, 2) + "× " + g.LimitName + " " + fmtNum(g.LimitPPM, 3) + " ppm"
+	case h.Heat != nil && h.Heat.Boils:
+		return h.Title + ": " + fmtNum(h.Heat.ReleasedkJ, 3) + " kJ, would reach about " + fmtNum(h.Heat.ReachedC, 3) + " °C"
+	case h.Heat != nil:
+		return h.Title + ": " + fmtNum(h.Heat.ReleasedkJ, 3) + " kJ, to about " + fmtNum(h.Heat.ReachedC, 3) + " °C"
+	}
+	return h.Title
+}
+
+func codeTitle(code string) string {
+	for _, c := range codes {
+		if c.Code == code {
+			return c.Title
+		}
+	}
+	return code
+}
+
+func appendNew(xs []string, s string) []string {
+	if s == "" {
+		return xs
+	}
+	for _, x := range xs {
+		if x == s {
+			return xs
+		}
+	}
+	return append(xs, s)
+}
+
+func pct(f float64) string { return fmtNum(f*100, 2) + " %" }

@@ -1,0 +1,58 @@
+package hazard
+
+import (
+	"strings"
+	"testing"
+
+	"mixward/engine"
+)
+
+func order(added, into string, sev ...engine.Severity) engine.PourOrder {
+	o := engine.PourOrder{Added: added, Into: into}
+	for _, s := range sev {
+		o.Hazards = append(o.Hazards, engine.PourHazard{Code: "chlorine-release", FromFraction: 0.001, ToFraction: 0.5, Worst: s})
+	}
+	return o
+}
+
+func TestDecide(t *testing.T) {
+	danger := []engine.Hazard{{Code: "hcn-release", Severity: engine.Danger, Title: "releases hydrogen cyanide", Action: "Do not combine."}}
+	info := []engine.Hazard{{Code: "cyanide-kept-alkaline", Severity: engine.Info, Title: "cyanide present: keep it alkaline"}}
+	for _, tc := range []struct {
+		name    string
+		final   []engine.Hazard
+		orders  []engine.PourOrder
+		level   engine.Level
+		inTitle string
+	}{
+		{"nothing", nil, []engine.PourOrder{order("A", "B"), order("B", "A")}, engine.NoConcern, NoConcernTitle},
+		{"info only", info, nil, engine.NoConcern, NoConcernTitle},
+		{"final danger", danger, []engine.PourOrder{order("A", "B"), order("B", "A")}, engine.DoNotMix, "releases hydrogen cyanide"},
+		{"one order avoids it", nil, []engine.PourOrder{order("B", "A", engine.Danger), order("A", "B")}, engine.WithPrecautions,
+			"releases chlorine if poured the other way; order of addition matters: add A into B"},
+		{"neither order", nil, []engine.PourOrder{order("B", "A", engine.Danger), order("A", "B", engine.Danger)}, engine.DoNotMix,
+			"releases chlorine in either order of addition"},
+		{"three streams: one pair matters", nil, []engine.PourOrder{
+			order("B", "A"), order("A", "B"),
+			order("C", "A", engine.Danger), order("A", "C"),
+			order("C", "B"), order("B", "C")}, engine.WithPrecautions, "add A into C"},
+		{"three streams: one pair unsafe both ways", nil, []engine.PourOrder{
+			order("B", "A"), order("A", "B"),
+			order("C", "A", engine.Danger), order("A", "C", engine.Danger),
+			order("C", "B"), order("B", "C")}, engine.DoNotMix, "releases chlorine along the pour"},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			var add *engine.Addition
+			if tc.orders != nil {
+				add = &engine.Addition{Orders: tc.orders, Advice: "advice"}
+			}
+			d := Decide(tc.final, add)
+			if d.Level != tc.level || !strings.Contains(d.Title, tc.inTitle) {
+				t.Errorf("Decide = %s %q, want %s containing %q", d.Level, d.Title, tc.level, tc.inTitle)
+			}
+			if d.Level != engine.NoConcern && len(d.Actions) == 0 {
+				t.Error("a decision of concern without actions")
+			}
+		})
+	}
+}

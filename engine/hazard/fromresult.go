@@ -1,0 +1,232 @@
+package hazard
+
+import (
+	"strconv"
+	"strings"
+
+	"mixward/engine"
+)
+
+// BoilingC is the boiling point taken for a dilute aqueous mix at
+// atmospheric pressure (common practice, no source: strong salt or acid
+// solutions boil a few degrees higher).
+const BoilingC = 100.0
+
+// catalysts are the dissolved metal ions that set hypochlorite and
+// peroxide decomposing to oxygen (Bretherick's Handbook of Reactive
+// Chemical Hazards, entries for sodium hypochlorite and hydrogen peroxide,
+// from memory).
+var catalysts = []string{"Cu^2+", "Ni^2+", "Co^2+", "Fe^3+", "Fe^2+", "Mn^2+", "Ag+"}
+
+// selfDecomposing are the species whose own decomposition to oxygen is
+// held back without a catalyst, by family (acid–base forms of one
+// species). Two different families together (hypochlorite with peroxide)
+// react fast and are not held back.
+var selfDecomposing = map[string]string{"OCl-": "OCl", "HOCl": "OCl", "H2O2": "H2O2", "HO2-": "H2O2", "ClO2-": "ClO2", "HClO2": "ClO2"}
+
+// FromResult fills an Outcome from today's engine answer. Reactions count
+// only when they proceed (E cell above ProceedMarginV, not kinetically
+// hindered, not a decomposition that needs a catalyst the mix lacks); the
+// gases and heat are those of the reactions that proceed.
+func FromResult(r *engine.Result, t *engine.Tables) *Outcome {
+	c := r.Conditions
+	o := &Outcome{
+		VolumeL: c.VolumeL, HeadspaceL: c.VolumeL, TemperatureC: c.TemperatureC,
+		PressureKPa: c.PressureKPa, PH: c.PH, PHStated: c.PHStated,
+	}
+	for _, s := range r.Species {
+		o.Before = append(o.Before, Amount{Species: engine.Species{Formula: s.Formula, Charge: s.Charge, Phase: s.Phase}, Mol: s.Mol, Molar: s.Molar})
+	}
+	for _, s := range r.Streams {
+		o.Chemicals = append(o.Chemicals, s.Components...)
+		for _, f := range s.Components {
+			if ch, ok := t.Lookup(f); ok {
+				o.StrongAcid = o.StrongAcid || ch.Class == engine.StrongAcid
+				o.StrongBase = o.StrongBase || ch.Class == engine.StrongBase
+			}
+		}
+	}
+	headRuns := o.reactions(r)
+	o.After = o.Before
+	if headRuns {
+		o.After = afterAmounts(r.FinalComposition, o.VolumeL)
+		o.gasesOf(r)
+	}
+	o.heatOf(r, headRuns)
+	return o
+}
+
+// reactions sorts the engine's reactions into those that proceed and those
+// held back. It reports whether the headline (whose amounts the engine ran)
+// proceeds.
+func (o *Outcome) reactions(r *engine.Result) bool {
+	head := false
+	if r.Reaction != nil && r.ECell != nil {
+		head = o.consider("headline", r.Reaction, *r.ECell, r.Hindered)
+	}
+	for i, a := range r.Alternatives {
+		o.consider(label("alternative", i+1), a.Reaction, a.ECell, a.Hindered)
+	}
+	for i, s := range r.Steps {
+		if s.ECell != nil && head {
+			o.consider(label("step", i+2), s.Reaction, *s.ECell, false)
+		}
+	}
+	return head
+}
+
+func label(what string, n int) string { return what + " " + strconv.Itoa(n) }
+
+// consider adds one reaction to Reactions or HeldBack; it reports whether
+// the reaction proceeds.
+func (o *Outcome) consider(lbl string, rx *engine.Reaction, eCell float64, hindered bool) bool {
+	if rx == nil {
+		return false
+	}
+	p := Proceeding{Label: lbl, Text: rx.Text, ECell: eCell}
+	for _, t := range rx.Reactants {
+		p.Reactants = append(p.Reactants, engine.Species{Formula: t.Formula, Charge: t.Charge, Phase: t.Phase})
+	}
+	for _, t := range rx.Products {
+		p.Products = append(p.Products, engine.Species{Formula: t.Formula, Charge: t.Charge, Phase: t.Phase})
+	}
+	reason := ""
+	switch {
+	case !(eCell > ProceedMarginV):
+		reason = "E cell within the uncertainty of the potential table (not above +0.05 V): not counted as proceeding"
+	case hindered:
+		reason = "kinetically hindered at these conditions"
+	case o.uncatalysedOxygen(p):
+		reason = "oxygen from hypochlorite or peroxide alone needs a catalyst (Cu, Ni, Co, Fe, Mn ions) or heat; none is present, so it is slow at plant temperature"
+	case producesGas(p, "H2") && hasReactant(p, "BH4-") && o.PH >= 10:
+		reason = "borohydride hydrolyses only slowly above about pH 10 (it is stored in caustic for that reason: Bretherick's Handbook, sodium tetrahydroborate, from memory)"
+	case producesGas(p, "Cl2") && o.PH >= 5:
+		reason = "chlorine does not persist above about pH 5 (it hydrolyses to hypochlorous acid and chloride); chlorine is judged from that equilibrium instead"
+	}
+	if reason != "" {
+		for _, h := range o.HeldBack {
+			if h.Text == rx.Text {
+				return false
+			}
+		}
+		o.HeldBack = append(o.HeldBack, HeldBack{Text: rx.Text, Reason: reason})
+		return false
+	}
+	o.Reactions = append(o.Reactions, p)
+	return true
+}
+
+// uncatalysedOxygen: the reaction gives oxygen, every reactant other than
+// water, H+ and OH- is one species decomposing by itself, and no catalyst
+// ion is present.
+func (o *Outcome) uncatalysedOxygen(p Proceeding) bool {
+	if !producesGas(p, "O2") {
+		return false
+	}
+	fam := ""
+	for _, s := range p.Reactants {
+		if s.IsWater() || s.IsProton() || s.IsHydroxide() {
+			continue
+		}
+		f, ok := selfDecomposing[s.Text()]
+		if !ok || (fam != "" && f != fam) {
+			return false
+		}
+		fam = f
+	}
+	return !(o.MolarBefore(catalysts...) >= TraceMolar)
+}
+
+func hasReactant(p Proceeding, text string) bool {
+	for _, s := range p.Reactants {
+		if s.Text() == text {
+			return true
+		}
+	}
+	return false
+}
+
+func producesGas(p Proceeding, formula string) bool {
+	for _, s := range p.Products {
+		if s.Formula == formula && s.Charge == 0 && s.Phase == engine.Gas {
+			return true
+		}
+	}
+	return false
+}
+
+func afterAmounts(xs []engine.AmountOf, volumeL float64) []Amount {
+	var out []Amount
+	for _, x := range xs {
+		sp, err := engine.ParseSpecies(x.Text)
+		if err != nil {
+			continue
+		}
+		a := Amount{Species: sp, Mol: x.Mol}
+		if sp.Phase == engine.Aqueous && volumeL > 0 {
+			a.Molar = x.Mol / volumeL
+		}
+		out = append(out, a)
+	}
+	return out
+}
+
+// gasesOf keeps the gases of the engine's answer that come from reactions
+// that proceed (every reaction the engine ran when they all proceed; the
+// headline alone otherwise), and the dissolved gases the liquid cannot hold.
+func (o *Outcome) gasesOf(r *engine.Result) {
+	held := map[string]bool{}
+	for _, h := range o.HeldBack {
+		held[h.Text] = true
+	}
+	stepHeld := false
+	for _, s := range r.Steps {
+		stepHeld = stepHeld || (s.Reaction != nil && held[s.Reaction.Text])
+	}
+	if stepHeld {
+		if r.Amounts != nil {
+			for _, f := range r.Amounts.Formed {
+				if strings.HasSuffix(f.Text, "(g)") {
+					o.Gases = append(o.Gases, Gas{Formula: strings.TrimSuffix(f.Text, "(g)"), Mol: f.Mol})
+				}
+			}
+		}
+		for _, g := range r.Gases {
+			if g.Kind == "volatile" {
+				o.Gases = append(o.Gases, Gas{Formula: strings.TrimSuffix(g.Text, "(g)"), Mol: g.Mol})
+			}
+		}
+		return
+	}
+	for _, g := range r.Gases {
+		o.Gases = append(o.Gases, Gas{Formula: strings.TrimSuffix(g.Text, "(g)"), Mol: g.Mol})
+	}
+}
+
+// heatOf takes the engine's heat, without the reactions that do not
+// proceed: neutralisation and dissolving always count; the reactions only
+// when the headline proceeds.
+func (o *Outcome) heatOf(r *engine.Result, headRuns bool) {
+	h := r.Heat
+	if h == nil || h.HeatReleasedkJ == nil {
+		return
+	}
+	total, rise := *h.HeatReleasedkJ, 0.0
+	if h.TemperatureRiseC != nil {
+		rise = *h.TemperatureRiseC
+	}
+	q := total
+	if !headRuns {
+		q = h.NeutralisationkJ + h.DissolutionkJ
+	}
+	if q != total {
+		// Scale the rise by the heat kept: the same mass and heat capacity.
+		if total != 0 && rise != 0 {
+			rise = rise * q / total
+		} else {
+			rise = engine.TemperatureRise(q, o.VolumeL) // about 1 kg per litre
+		}
+	}
+	o.Heat = Heat{Known: true, ReleasedkJ: q, RiseC: rise, ReachedC: o.TemperatureC + rise, Reactions: headRuns && q != h.NeutralisationkJ+h.DissolutionkJ}
+	o.Heat.Boils = rise > 0 && o.Heat.ReachedC >= BoilingC
+}

@@ -1,0 +1,181 @@
+package hazard
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strconv"
+	"strings"
+
+	"mixward/engine"
+)
+
+// Loudness of a gas hazard, from the ratio of its equilibrium headspace
+// concentration to its limit: at or above the limit it is a danger; from a
+// tenth of the limit a warning; below that it raises nothing (the stated
+// trace threshold for gases).
+const (
+	DangerRatio  = 1.0
+	WarningRatio = 0.1
+)
+
+// gasCodes names the hazard of each gas of the table.
+var gasCodes = map[string]string{
+	"Cl2": "chlorine-release", "HCN": "hcn-release", "H2S": "h2s-release", "SO2": "so2-release",
+	"ClO2": "clo2-release", "NH3": "ammonia-release", "CO2": "co2-release", "NO2": "no2-release",
+	"NO": "no-release", "Br2": "bromine-release", "CNCl": "cyanogen-chloride-release",
+	"H2": "hydrogen-release", "O2": "oxygen-release",
+}
+
+// gasActions is what to do, by gas, for a danger and for a warning.
+var gasActions = map[string][2]string{
+	"Cl2":  {"Do not combine. If it has happened, leave upwind and return only with breathing apparatus.", "Add slowly with extraction running; keep the pH of anything holding hypochlorite above 7."},
+	"HCN":  {"Do not combine. Keep cyanide liquors above pH 10.5 and acids away from them; if it has happened, leave at once and raise the alarm.", "Raise the pH above 10.5 with caustic first; work with extraction and an HCN detector."},
+	"H2S":  {"Do not combine. Keep sulfide liquors alkaline (above pH 9); if it has happened, leave and return only with a detector and breathing apparatus.", "Keep the liquor above pH 9, ventilate and wear an H2S detector."},
+	"SO2":  {"Do not combine in one go. Dose only into liquors that are not strongly acidic, slowly, with extraction; if it has happened, leave the area.", "Add slowly with extraction running and keep the tank covered."},
+	"ClO2": {"Do not combine. Chlorine dioxide is toxic and explodes when concentrated in air; leave the area if it has happened.", "Keep it dilute, cool and covered, with extraction."},
+	"NH3":  {"Do not combine in a closed space. Add slowly with extraction running, away from hypochlorite.", "Add slowly with extraction running, away from hypochlorite."},
+	"CO2":  {"Ventilate low spaces (pits, sumps) before entry; add slowly to an open, vented tank.", "Add slowly to an open, vented tank; ventilate pits before entry."},
+	"NO2":  {"Do not combine outside a fume extraction; anyone exposed sees a doctor (lung damage shows hours later).", "Work only with extraction."},
+	"NO":   {"Do not combine outside a fume extraction (it turns to brown nitrogen dioxide in air).", "Work only with extraction."},
+	"Br2":  {"Do not combine. Work only with extraction, goggles and gloves.", "Work only with extraction, goggles and gloves."},
+	"CNCl": {"Do not combine below pH 10. For cyanide destruction raise the pH to 10.5 or more before any hypochlorite goes in.", "Raise the pH to 10.5 before dosing hypochlorite."},
+	"H2":   {"Do not combine in a closed vessel. Vent the headspace, keep sparks and hot work away.", "Vent the headspace and keep sparks and hot work away."},
+	"O2":   {"Keep oil, grease and flames away and vent the headspace.", "Vent the headspace; keep oil and grease away."},
+}
+
+// judgeGas turns each gas pool into a hazard when its headspace
+// concentration reaches a tenth of its limit.
+func judgeGas(o *Outcome, d *Data) []engine.Hazard {
+	ps := pools(o, d)
+	var out []engine.Hazard
+	for _, f := range d.order {
+		g, p := d.Gases[f], ps[f]
+		if p.mol <= 0 {
+			continue
+		}
+		hs := Share(p.mol, p.molecular, g.KH, o.VolumeL, o.HeadspaceL, o.TemperatureK(), o.PressureKPa)
+		ratio := hs.PPM / g.LimitPPM
+		if !(ratio >= WarningRatio) {
+			continue
+		}
+		out = append(out, gasHazard(o, g, p, hs, ratio))
+	}
+	return out
+}
+
+func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) engine.Hazard {
+	sev, act := engine.Warning, gasActions[g.Formula][1]
+	// Oxygen enrichment is a fire precaution, never a reason on its own
+	// not to combine (OSHA 1910.146 treats it as a hazardous atmosphere to
+	// ventilate).
+	if ratio >= DangerRatio && g.LimitName != "O2" {
+		sev, act = engine.Danger, gasActions[g.Formula][0]
+	}
+	code := gasCodes[g.Formula]
+	litres := p.mol * litreBarPerMolK() * o.TemperatureK() / (o.PressureKPa / 100)
+	hsWhy := "headspace taken equal to the liquid volume"
+	if o.HeadspaceStated {
+		hsWhy = "headspace as stated"
+	}
+	limit := g.LimitName + " " + fmtNum(g.LimitPPM, 3) + " ppm"
+	if g.LimitName == "LFL" {
+		limit = "the lower flammable limit (" + fmtNum(g.LimitPPM/1e4, 2) + " %)"
+	}
+	if g.LimitName == "O2" {
+		limit = "the added oxygen that makes air oxygen-enriched (23.5 % O2)"
+	}
+	msg := fmt.Sprintf("%s: %s mol (%s L as gas) can leave the liquid (%s). At equilibrium the headspace (%s, %s L) holds %s ppm, %s× %s.",
+		upperFirst(g.Name), fmtNum(p.mol, 3), fmtNum(litres, 3), strings.Join(p.origins, "; "), hsWhy, fmtNum(o.HeadspaceL, 4), fmtNum(hs.PPM, 3), fmtNum(ratio, 2), limit)
+	if hs.Vents {
+		msg += " It fills the headspace and the rest vents."
+	}
+	src := []string{g.LimitSource, g.HenrySource}
+	src = append(src, p.sources...)
+	return engine.Hazard{
+		Code: code, Severity: sev, Title: codeOf(code).Title, Message: msg + " " + act, Action: act,
+		Source: strings.Join(src, "; "), Aliases: codeOf(code).Aliases,
+		Gas: &engine.GasJudged{
+			Formula: g.Formula, Mol: sig(p.mol), VolumeL: sig(litres), HeadspaceL: o.HeadspaceL,
+			HeadspacePPM: sig(hs.PPM), LimitName: g.LimitName, LimitPPM: g.LimitPPM, Ratio: sig(ratio),
+			LimitSource: g.LimitSource, HenrySource: g.HenrySource,
+		},
+	}
+}
+
+// Judge lists the hazards of an outcome, danger first, then warning, then
+// info; within a severity the worse gas ratio first, then table order.
+func Judge(o *Outcome, d *Data) []engine.Hazard {
+	out := judgeGas(o, d)
+	for _, r := range presenceRules {
+		if h, ok := r(o); ok {
+			out = append(out, h)
+		}
+	}
+	out = append(out, judgeHeat(o)...)
+	sort.SliceStable(out, func(i, j int) bool {
+		ri, rj := rank(out[i].Severity), rank(out[j].Severity)
+		if ri != rj {
+			return ri > rj
+		}
+		return ratioOf(out[i]) > ratioOf(out[j])
+	})
+	if out == nil {
+		out = []engine.Hazard{}
+	}
+	return out
+}
+
+func ratioOf(h engine.Hazard) float64 {
+	if h.Gas != nil {
+		return h.Gas.Ratio
+	}
+	return 0
+}
+
+func rank(s engine.Severity) int {
+	switch s {
+	case engine.Danger:
+		return 3
+	case engine.Warning:
+		return 2
+	case engine.Info:
+		return 1
+	}
+	return 0
+}
+
+// fmtNum writes a number for an operator: d significant digits, no
+// exponent, thousands as plain digits.
+func fmtNum(x float64, d int) string {
+	if x == 0 || !finite(x) {
+		return strconv.FormatFloat(x, 'f', 0, 64)
+	}
+	x = sigN(x, d)
+	dec := d - 1 - int(math.Floor(math.Log10(math.Abs(x))))
+	if dec < 0 {
+		dec = 0
+	}
+	out := strconv.FormatFloat(x, 'f', dec, 64)
+	if strings.Contains(out, ".") {
+		out = strings.TrimRight(strings.TrimRight(out, "0"), ".")
+	}
+	return out
+}
+
+func sigN(x float64, d int) float64 {
+	if x == 0 || !finite(x) {
+		return x
+	}
+	p := math.Pow(10, float64(d-1)-math.Floor(math.Log10(math.Abs(x))))
+	return math.Round(x*p) / p
+}
+
+func sig(x float64) float64 { return sigN(x, 4) }
+
+func upperFirst(s string) string {
+	if s == "" {
+		return s
+	}
+	return strings.ToUpper(s[:1]) + s[1:]
+}

@@ -1,0 +1,204 @@
+package hazard
+
+import (
+	"math"
+	"strconv"
+
+	"mixward/engine"
+)
+
+// ChlorineHydrolysisK is the equilibrium constant of
+// Cl2(aq) + H2O ⇌ HOCl + H+ + Cl- at 25 °C, in (mol/L)² (Connick and Chia,
+// J. Am. Chem. Soc. 81, 1280 (1959), from memory; later work gives up to
+// 5.1e-4, which lowers the chlorine estimated by a quarter).
+const ChlorineHydrolysisK = 3.9e-4
+
+// pool is what can become one gas: the amount (mol) of the gas and its
+// dissolved forms, the share of the dissolved amount that is the neutral
+// molecule, and where the amount comes from.
+type pool struct {
+	mol       float64
+	molecular float64 // 0..1; 1 when the gas has no acid–base forms
+	origins   []string
+	sources   []string
+}
+
+// pools works out, for each gas of the table, what in the mix can become
+// that gas.
+func pools(o *Outcome, d *Data) map[string]*pool {
+	ps := map[string]*pool{}
+	for _, f := range d.order {
+		g := d.Gases[f]
+		p := &pool{molecular: 1}
+		if len(g.Pool) > 0 {
+			tot := o.Molar(g.Pool...)
+			if tot > 0 && g.Dissolved != "" {
+				p.mol = tot * o.VolumeL
+				p.molecular = o.Molar(g.Dissolved) / tot
+				p.origins = append(p.origins, "dissolved "+g.Formula+" and its acid–base forms")
+			}
+		}
+		for _, a := range o.After {
+			if a.Species.Formula == f && a.Species.Charge == 0 && a.Species.Phase == engine.Liquid && a.Mol > 0 {
+				p.mol += a.Mol
+				p.origins = append(p.origins, "liquid "+f+" formed")
+			}
+		}
+		if n := o.GasMol(f); n > 0 {
+			p.mol += n
+			p.origins = append(p.origins, "formed by the reactions that run")
+		}
+		ps[f] = p
+	}
+	for _, add := range poolRules {
+		add(o, ps)
+	}
+	return ps
+}
+
+// addTo adds an amount to a gas pool.
+func addTo(ps map[string]*pool, gas string, mol, molecular float64, origin, source string) {
+	p := ps[gas]
+	if p == nil || !(mol > 0) || !finite(mol) {
+		return
+	}
+	if p.mol == 0 {
+		p.molecular = molecular
+	} else {
+		p.molecular = math.Max(p.molecular, molecular)
+	}
+	p.mol += mol
+	p.origins = append(p.origins, origin)
+	if source != "" {
+		p.sources = append(p.sources, source)
+	}
+}
+
+// poolRules add the gases that today's engine does not form by itself:
+// each is a reaction known to run fast at plant temperature.
+var poolRules = []func(o *Outcome, ps map[string]*pool){
+	chlorineFromHypochlorite, aquaRegia, chlorateWithHydrochloric, bromateWithAcid,
+	cyanogenChloride, borohydrideInAcid, dithioniteInAcid, alkaliMetalInWater,
+}
+
+// hypochloriteMolar is HOCl + OCl- after the reactions that run.
+func hypochloriteMolar(o *Outcome) float64 { return o.Molar("HOCl", "OCl-") }
+
+// chlorideMolar is the chloride of the mix. Hypochlorite bleach is made
+// from chlorine and caustic and carries about one chloride per
+// hypochlorite (common practice, no source): when a stream names
+// hypochlorite and the mix lists less chloride, that much is assumed.
+func chlorideMolar(o *Outcome) float64 {
+	cl := o.Molar("Cl-")
+	if o.Named("NaOCl", "Ca(OCl)2", "KOCl", "LiOCl") {
+		cl = math.Max(cl, hypochloriteMolar(o))
+	}
+	return cl
+}
+
+func hPlus(o *Outcome) float64 { return math.Pow(10, -o.PH) }
+
+// chlorineFromHypochlorite: HOCl + H+ + Cl- ⇌ Cl2(aq) + H2O. The chlorine
+// share follows the pH, not a strong-acid rule: bleach with acetic or
+// citric acid gives chlorine too.
+func chlorineFromHypochlorite(o *Outcome, ps map[string]*pool) {
+	ocl, cl := hypochloriteMolar(o), chlorideMolar(o)
+	if ocl < TraceMolar || cl < TraceMolar {
+		return
+	}
+	hocl := o.Molar("HOCl")
+	cl2 := hocl * hPlus(o) * cl / ChlorineHydrolysisK
+	molecular := math.Min(1, cl2/math.Min(ocl, cl))
+	if !(molecular > 0) {
+		return
+	}
+	addTo(ps, "Cl2", math.Min(ocl, cl)*o.VolumeL, molecular,
+		"hypochlorite with chloride at pH "+strconv.FormatFloat(o.PH, 'f', 1, 64)+" (Cl2 ⇌ HOCl + H+ + Cl-)",
+		"chlorine hydrolysis constant 3.9e-4 (mol/L)² at 25 °C, Connick and Chia 1959, from memory")
+}
+
+// aquaRegia: HNO3 + 3 HCl → NOCl + Cl2 + 2 H2O in concentrated acid.
+func aquaRegia(o *Outcome, ps map[string]*pool) {
+	no3, cl := o.Molar("NO3-"), o.Molar("Cl-")
+	if no3 < 1 || cl < 3 || o.PH > 0 {
+		return
+	}
+	addTo(ps, "Cl2", math.Min(no3, cl/3)*o.VolumeL, 1,
+		"concentrated nitric and hydrochloric acid (aqua regia: chlorine and nitrosyl chloride)",
+		"aqua regia gives nitrosyl chloride and chlorine: CRC Handbook and Bretherick's Handbook of Reactive Chemical Hazards, from memory")
+}
+
+// chlorateWithHydrochloric: 2 ClO3- + 4 H+ + 2 Cl- → 2 ClO2 + Cl2 + 2 H2O.
+func chlorateWithHydrochloric(o *Outcome, ps map[string]*pool) {
+	clo3, cl := o.Molar("ClO3-", "HClO3"), o.Molar("Cl-")
+	if clo3 < TraceMolar || cl < TraceMolar || o.PH > 1 {
+		return
+	}
+	n := math.Min(clo3, cl) * o.VolumeL
+	const src = "chlorate with hydrochloric acid gives chlorine dioxide (explosive above about 10 % in air): Bretherick's Handbook of Reactive Chemical Hazards, sodium chlorate, from memory"
+	addTo(ps, "ClO2", n, 1, "chlorate with hydrochloric acid", src)
+	addTo(ps, "Cl2", n/2, 1, "chlorate with hydrochloric acid", src)
+}
+
+// bromateWithAcid: BrO3- + 5 Br- + 6 H+ → 3 Br2 + 3 H2O; in strong
+// hydrochloric acid bromate gives bromine and chlorine.
+func bromateWithAcid(o *Outcome, ps map[string]*pool) {
+	bro3, br, cl := o.Molar("BrO3-"), o.Molar("Br-"), o.Molar("Cl-")
+	if bro3 < TraceMolar || o.PH > 3 {
+		return
+	}
+	const src = "bromate with acid and bromide or chloride gives bromine: Bretherick's Handbook of Reactive Chemical Hazards, potassium bromate, from memory"
+	if br >= TraceMolar {
+		addTo(ps, "Br2", math.Min(3*bro3, 0.6*br)*o.VolumeL, 1, "bromate with bromide in acid", src)
+	}
+	if cl >= TraceMolar && o.PH <= 1 {
+		addTo(ps, "Br2", bro3/2*o.VolumeL, 1, "bromate in hydrochloric acid", src)
+	}
+}
+
+// cyanogenChloride: CN- + HOCl → CNCl + OH-; below pH 10 cyanogen chloride
+// is not hydrolysed to cyanate fast enough and escapes.
+func cyanogenChloride(o *Outcome, ps map[string]*pool) {
+	cn, ocl := o.MolarBefore("CN-", "HCN"), o.MolarBefore("OCl-", "HOCl")
+	if cn < TraceMolar || ocl < TraceMolar || o.PH >= 10 {
+		return
+	}
+	addTo(ps, "CNCl", math.Min(cn, ocl)*o.VolumeL, 1, "cyanide with hypochlorite below pH 10",
+		"alkaline chlorination of cyanide is run at pH 10 or above so that cyanogen chloride hydrolyses to cyanate: common practice, no source")
+}
+
+// borohydrideInAcid: BH4- + H+ + 3 H2O → B(OH)3 + 4 H2, fast below about
+// pH 10; borohydride is kept in caustic above pH 12.
+func borohydrideInAcid(o *Outcome, ps map[string]*pool) {
+	bh4 := o.MolarBefore("BH4-")
+	if bh4 < TraceMolar || o.PH >= 10 {
+		return
+	}
+	addTo(ps, "H2", 4*bh4*o.VolumeL, 1, "borohydride below pH 10",
+		"borohydride hydrolyses to hydrogen in acid and neutral water: Bretherick's Handbook of Reactive Chemical Hazards, sodium tetrahydroborate, from memory")
+}
+
+// dithioniteInAcid: 2 S2O4^2- + 4 H+ → 3 SO2 + S + 2 H2O.
+func dithioniteInAcid(o *Outcome, ps map[string]*pool) {
+	s2o4 := o.MolarBefore("S2O4^2-", "HS2O4-", "H2S2O4")
+	if s2o4 < TraceMolar || o.PH >= 5 {
+		return
+	}
+	addTo(ps, "SO2", 1.5*s2o4*o.VolumeL, 1, "dithionite in acid (sulfur dioxide and sulfur)",
+		"dithionite decomposes in acid to sulfur dioxide and sulfur, with heat: Bretherick's Handbook of Reactive Chemical Hazards, sodium dithionite, from memory")
+}
+
+// alkaliMetalInWater: 2 M + 2 H2O → 2 MOH + H2.
+func alkaliMetalInWater(o *Outcome, ps map[string]*pool) {
+	if o.VolumeL <= 0 || o.GasMol("H2") > 0 {
+		return
+	}
+	n := 0.0
+	for _, a := range o.Before {
+		if a.Species.Charge == 0 && a.Species.Phase == "s" && (a.Species.Formula == "Na" || a.Species.Formula == "K" || a.Species.Formula == "Li") {
+			n += a.Mol
+		}
+	}
+	addTo(ps, "H2", n/2, 1, "alkali metal with water",
+		"alkali metals react with water to hydrogen, which the heat ignites: Bretherick's Handbook of Reactive Chemical Hazards, sodium, from memory")
+}

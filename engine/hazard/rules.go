@@ -1,0 +1,178 @@
+package hazard
+
+import (
+	"math"
+
+	"mixward/engine"
+)
+
+// presenceRules are hazards that follow from what is present together,
+// each with its source beside it.
+var presenceRules = []func(o *Outcome) (engine.Hazard, bool){
+	chloramines, nitrogenTrichloride, silverAmmonia, hypochloriteCatalysed, hydrofluoric,
+	alkaliMetalFire, dithioniteSelfHeating, ammoniaWithStrongAcid, cyanideAlkaline,
+	chromiumVI, carbonateFizz,
+}
+
+func mk(code string, sev engine.Severity, msg, action, source string) engine.Hazard {
+	c := codeOf(code)
+	return engine.Hazard{Code: code, Severity: sev, Title: c.Title, Message: msg + " " + action, Action: action, Source: source, Aliases: c.Aliases}
+}
+
+// hypochloriteAny is hypochlorite before or after the reactions.
+func hypochloriteAny(o *Outcome) float64 {
+	return math.Max(o.Molar("HOCl", "OCl-"), o.MolarBefore("HOCl", "OCl-"))
+}
+
+// chloramines: hypochlorite with ammonia or ammonium forms chloramines
+// (mono- above about pH 7.5, di- between 4.5 and 7.5).
+func chloramines(o *Outcome) (engine.Hazard, bool) {
+	n := math.Min(hypochloriteAny(o), math.Max(o.Molar("NH3", "NH4+"), o.MolarBefore("NH3", "NH4+")))
+	if n < 1e-4 || o.PH < 4.5 {
+		return engine.Hazard{}, false
+	}
+	sev := engine.Warning
+	if n >= 0.01 {
+		sev = engine.Danger
+	}
+	return mk("chloramine-release", sev,
+		"Hypochlorite with ammonia or ammonium forms chloramines ("+fmtNum(n, 2)+" mol/L of each can meet): toxic, choking gases.",
+		"Do not combine; rinse lines between chlorinated and ammoniated products. If it has happened, leave and ventilate.",
+		"chloramine formation by pH: White's Handbook of Chlorination and Alternative Disinfectants (from memory); 0.01 mol/L threshold for danger: common practice, no source"), true
+}
+
+// nitrogenTrichloride: hypochlorite with ammonium or urea below about pH 4.5
+// forms nitrogen trichloride, an explosive oil and toxic vapour.
+func nitrogenTrichloride(o *Outcome) (engine.Hazard, bool) {
+	n := math.Min(hypochloriteAny(o), math.Max(o.MolarBefore("NH3", "NH4+", "CO(NH2)2"), o.Molar("NH3", "NH4+", "CO(NH2)2")))
+	if n < TraceMolar || o.PH >= 4.5 {
+		return engine.Hazard{}, false
+	}
+	return mk("nitrogen-trichloride", engine.Danger,
+		"Hypochlorite with ammonium or urea at pH "+fmtNum(o.PH, 2)+" forms nitrogen trichloride: a toxic vapour and an oil that explodes on shock or warming.",
+		"Do not combine. Never let acid, hypochlorite and ammonium or urea meet.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, nitrogen trichloride (from memory); pH 4.5 boundary: White's Handbook of Chlorination (from memory)"), true
+}
+
+// silverAmmonia: ammoniacal silver solutions deposit silver nitride
+// ("fulminating silver") on standing, which explodes when touched.
+func silverAmmonia(o *Outcome) (engine.Hazard, bool) {
+	ag := math.Max(o.MolarBefore("Ag+", "Ag2O"), o.Molar("Ag+"))
+	if ag < TraceMolar || o.Molar("NH3") < TraceMolar && o.MolarBefore("NH3") < TraceMolar {
+		return engine.Hazard{}, false
+	}
+	return mk("explosive-residue", engine.Danger,
+		"Silver with ammonia leaves explosive silver nitride on standing (hours to days): dried residues go off when touched.",
+		"Do not combine in plant. If it has happened, do not store it: acidify at once with dilute nitric acid and rinse out.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, silver nitrate with ammonia (from memory)"), true
+}
+
+// hypochloriteCatalysed: copper, nickel and cobalt salts set hypochlorite
+// decomposing to oxygen and heat.
+func hypochloriteCatalysed(o *Outcome) (engine.Hazard, bool) {
+	if hypochloriteAny(o) < 1e-3 {
+		return engine.Hazard{}, false
+	}
+	cat := o.MolarBefore("Cu^2+", "Ni^2+", "Co^2+") + o.MolarBefore("Cu(OH)2", "Ni(OH)2", "Co(OH)2", "CuO", "NiO")
+	if cat < TraceMolar && !o.Named("CuSO4", "CuSO4.5H2O", "CuCl2", "NiSO4", "NiSO4.6H2O", "NiCl2", "CoCl2", "CoSO4") {
+		return engine.Hazard{}, false
+	}
+	o2 := hypochloriteAny(o) / 2 * o.VolumeL
+	l := o2 * litreBarPerMolK() * o.TemperatureK() / (o.PressureKPa / 100)
+	return mk("oxygen-surge", engine.Warning,
+		"Copper, nickel or cobalt salts make hypochlorite decompose: up to "+fmtNum(o2, 3)+" mol oxygen ("+fmtNum(l, 3)+" L), with heat, can come off quickly.",
+		"Do not combine in a closed vessel; add the metal liquor slowly to a vented tank, away from oil and grease.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, sodium hypochlorite with metal salts (from memory)"), true
+}
+
+// hydrofluoric: HF burns penetrate and poison through the skin; the vapour
+// is immediately dangerous at 30 ppm.
+func hydrofluoric(o *Outcome) (engine.Hazard, bool) {
+	hf := math.Max(o.MolarBefore("HF"), o.Molar("HF"))
+	if hf < 1e-3 {
+		return engine.Hazard{}, false
+	}
+	sev := engine.Warning
+	if hf >= 10 {
+		sev = engine.Danger
+	}
+	return mk("hf-burns", sev,
+		"Hydrofluoric acid ("+fmtNum(hf, 2)+" mol/L HF): burns show up late and fluoride poisons through the skin; concentrated acid fumes (IDLH 30 ppm).",
+		"Wear HF-rated gloves and face shield, keep calcium gluconate gel at hand, work with extraction.",
+		"NIOSH Pocket Guide, hydrogen fluoride, IDLH 30 ppm (from memory); 10 mol/L danger threshold: common practice, no source"), true
+}
+
+// alkaliMetalFire: sodium, potassium and lithium with water.
+func alkaliMetalFire(o *Outcome) (engine.Hazard, bool) {
+	if o.VolumeL <= 0 {
+		return engine.Hazard{}, false
+	}
+	for _, a := range o.Before {
+		if s := a.Species; s.Charge == 0 && s.Phase == engine.Solid && (s.Formula == "Na" || s.Formula == "K" || s.Formula == "Li") {
+			return mk("alkali-metal-fire", engine.Danger,
+				"Alkali metal ("+s.Formula+") with water reacts violently: the hydrogen it gives off ignites.",
+				"Do not combine. Keep the metal dry under oil; use a class D extinguisher, never water.",
+				"Bretherick's Handbook of Reactive Chemical Hazards, sodium and potassium (from memory)"), true
+		}
+	}
+	return engine.Hazard{}, false
+}
+
+// dithioniteSelfHeating: dithionite decomposes exothermically in acid and
+// when damp; the heat can set the solid alight.
+func dithioniteSelfHeating(o *Outcome) (engine.Hazard, bool) {
+	if o.MolarBefore("S2O4^2-", "HS2O4-", "H2S2O4") < TraceMolar || o.PH >= 5 {
+		return engine.Hazard{}, false
+	}
+	return mk("self-heating", engine.Warning,
+		"Dithionite in acid decomposes with heat, to sulfur dioxide and sulfur; damp solid can heat itself to ignition.",
+		"Dose dithionite only into neutral or alkaline liquor; keep the solid dry and closed.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, sodium dithionite (from memory)"), true
+}
+
+// ammoniaWithStrongAcid: concentrated ammonia and a strong acid meet in a
+// cloud of ammonium salt and heat.
+func ammoniaWithStrongAcid(o *Outcome) (engine.Hazard, bool) {
+	if !o.Named("NH3") || !o.StrongAcid || o.MolarBefore("NH3", "NH4+") < 1 {
+		return engine.Hazard{}, false
+	}
+	return mk("ammonium-salt-fumes", engine.Warning,
+		"Concentrated ammonia with a strong acid gives white fumes of ammonium salt and heat where they meet.",
+		"Add slowly, below the surface, with extraction and cooling.",
+		"common practice, no source"), true
+}
+
+// cyanideAlkaline: cyanide kept alkaline is a note, not an alarm.
+func cyanideAlkaline(o *Outcome) (engine.Hazard, bool) {
+	if o.Molar("CN-") < TraceMolar || o.PH < 10.5 {
+		return engine.Hazard{}, false
+	}
+	return mk("cyanide-kept-alkaline", engine.Info,
+		"Cyanide is present at pH "+fmtNum(o.PH, 3)+".", "Keep it above pH 10.5 and keep acids away.",
+		"pH 10.5 for cyanide liquors: common practice, no source"), true
+}
+
+// chromiumVI: hexavalent chromium is a human carcinogen.
+func chromiumVI(o *Outcome) (engine.Hazard, bool) {
+	if math.Max(o.MolarBefore("Cr2O7^2-", "CrO4^2-", "HCrO4-", "H2CrO4"), o.Molar("Cr2O7^2-", "CrO4^2-", "HCrO4-")) < TraceMolar {
+		return engine.Hazard{}, false
+	}
+	return mk("chromium-vi-exposure", engine.Warning,
+		"Hexavalent chromium causes cancer; the workplace limit is 5 µg/m³ (OSHA).",
+		"Work inside the site's chromium(VI) controls: closed transfer, extraction, gloves and eye protection; collect every drop for treatment.",
+		"IARC Monographs volume 100C, 2012, Group 1 (from memory); OSHA 29 CFR 1910.1026, PEL 5 µg/m³ (from memory)"), true
+}
+
+// carbonateFizz: carbon dioxide more than a tenth of the liquid's volume
+// foams and builds pressure.
+func carbonateFizz(o *Outcome) (engine.Hazard, bool) {
+	n := o.GasMol("CO2")
+	l := n * litreBarPerMolK() * o.TemperatureK() / (o.PressureKPa / 100)
+	if o.VolumeL <= 0 || l < 0.1*o.VolumeL {
+		return engine.Hazard{}, false
+	}
+	return mk("fizzing-pressure", engine.Warning,
+		"Carbon dioxide comes off ("+fmtNum(l, 3)+" L, "+fmtNum(l/o.VolumeL, 2)+"× the liquid volume): the tank can foam over and a closed vessel builds pressure.",
+		"Add slowly to an open, vented tank with headroom.",
+		"common practice, no source"), true
+}

@@ -1,0 +1,108 @@
+package pour
+
+import (
+	"strconv"
+	"strings"
+
+	"mixward/engine"
+)
+
+// worst is the highest severity rank met in an order.
+func worst(o engine.PourOrder) int {
+	w := 0
+	for _, h := range o.Hazards {
+		w = max(w, rank(h.Worst))
+	}
+	return w
+}
+
+// span is how much of the addition the order's worst hazards cover.
+func span(o engine.PourOrder) float64 {
+	w, s := worst(o), 0.0
+	for _, h := range o.Hazards {
+		if rank(h.Worst) == w {
+			s += h.ToFraction - h.FromFraction + 0.001
+		}
+	}
+	return s
+}
+
+// advice compares the orders of each pair of streams and says which to use.
+func advice(add *engine.Addition) string {
+	var parts []string
+	quiet := 0
+	for i := 0; i+1 < len(add.Orders); i += 2 {
+		x, y := add.Orders[i], add.Orders[i+1]
+		if worst(x) == 0 && worst(y) == 0 {
+			quiet++
+			if len(add.Orders) > 2 {
+				continue // with three or more streams only the pairs that matter are named
+			}
+		}
+		parts = append(parts, pairAdvice(x, y))
+	}
+	if len(add.Orders) > 2 && quiet*2 == len(add.Orders) {
+		return "Any order: nothing of concern appears along the pour of any pair."
+	}
+	return strings.Join(parts, " ")
+}
+
+func pairAdvice(x, y engine.PourOrder) string {
+	wx, wy := worst(x), worst(y)
+	switch {
+	case wx == 0 && wy == 0:
+		return "Either order: nothing of concern appears along the pour of " + x.Added + " and " + x.Into + "."
+	case wx >= 3 && wy >= 3:
+		return "Neither order is safe: " + codes(x) + " while " + x.Added + " runs into " + x.Into + ", " + codes(y) + " the other way."
+	case wx < wy:
+		return better(x, y)
+	case wy < wx:
+		return better(y, x)
+	case span(x) < span(y):
+		return lessens(x, y)
+	case span(y) < span(x):
+		return lessens(y, x)
+	}
+	return "Both orders meet the same hazards (" + codes(x) + "); add slowly either way."
+}
+
+func better(good, bad engine.PourOrder) string {
+	s := "Add " + good.Added + " into " + good.Into + ", slowly; never " + bad.Added + " into " + bad.Into + " (" + codes(bad) + " from " + pct(firstWorst(bad)) + " of the addition)."
+	if worst(good) > 0 {
+		s += " That order still meets " + codes(good) + "."
+	}
+	return s
+}
+
+func lessens(good, bad engine.PourOrder) string {
+	return "Add " + good.Added + " into " + good.Into + ", slowly: it meets " + codes(good) + " over less of the pour than the other way."
+}
+
+func firstWorst(o engine.PourOrder) float64 {
+	w, f := worst(o), 1.0
+	for _, h := range o.Hazards {
+		if rank(h.Worst) == w && h.FromFraction < f {
+			f = h.FromFraction
+		}
+	}
+	return f
+}
+
+func codes(o engine.PourOrder) string {
+	var cs []string
+	seen := map[string]bool{}
+	for _, h := range o.Hazards {
+		if !seen[h.Code] {
+			seen[h.Code] = true
+			cs = append(cs, h.Code)
+		}
+	}
+	return strings.Join(cs, ", ")
+}
+
+func pct(f float64) string {
+	s := strings.TrimRight(strings.TrimRight(strconvF(f*100), "0"), ".")
+	return s + " %"
+}
+
+func strconvF(x float64) string { return strconv.FormatFloat(x, 'f', 1, 64) }

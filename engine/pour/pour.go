@@ -1,0 +1,148 @@
+// Package pour judges a mix along the addition: while one stream runs into
+// another every ratio from the first drop to the final one occurs in the
+// tank. It evaluates the mix at fractions of the added stream, both orders
+// of addition (each pair of streams when there are three or more), and
+// reports where each hazard appears and which order avoids or lessens it.
+//
+// It knows nothing of how a point is evaluated: the caller passes an
+// Evaluate function (today the engine's prediction judged through the
+// hazard package's Outcome; later the equilibrium state). No I/O.
+package pour
+
+import (
+	"strings"
+
+	"mixward/engine"
+)
+
+// fractions are the shares of the added stream at which the pour is judged:
+// 23 points, denser near the first drop and near the end.
+var fractions = [...]float64{0.001, 0.003, 0.01, 0.02, 0.04, 0.07, 0.1, 0.15, 0.2, 0.3, 0.4, 0.5,
+	0.6, 0.7, 0.8, 0.85, 0.9, 0.93, 0.96, 0.98, 0.99, 0.995, 1}
+
+// Fractions returns the shares of the added stream at which the pour is
+// judged.
+func Fractions() []float64 { return append([]float64(nil), fractions[:]...) }
+
+// Evaluate judges one mix and returns its hazards.
+type Evaluate func(req *engine.Request) ([]engine.Hazard, error)
+
+// Analyse judges the pour of a request's streams. With fewer than two
+// streams there is no pour and it returns nil.
+func Analyse(req *engine.Request, eval Evaluate) *engine.Addition {
+	n := len(req.Streams)
+	if n < 2 {
+		return nil
+	}
+	add := &engine.Addition{Orders: []engine.PourOrder{}}
+	for i := 0; i < n; i++ {
+		for j := i + 1; j < n; j++ {
+			for _, ord := range [][2]int{{j, i}, {i, j}} {
+				o, pts := order(req, ord[0], ord[1], eval)
+				add.Orders = append(add.Orders, o)
+				add.Points += pts
+			}
+		}
+	}
+	add.Advice = advice(add)
+	return add
+}
+
+// Name is how a stream is called in the pour: its tag, or what it holds.
+func Name(s *engine.Stream) string {
+	if s.Tag != "" {
+		return s.Tag
+	}
+	if l := s.Label(); l != "" {
+		return l
+	}
+	return strings.TrimSpace(s.Text)
+}
+
+// order runs stream a into stream b and records the hazards met.
+func order(req *engine.Request, a, b int, eval Evaluate) (engine.PourOrder, int) {
+	sa, sb := withAmount(req.Streams[a]), withAmount(req.Streams[b])
+	po := engine.PourOrder{Added: Name(&req.Streams[a]), Into: Name(&req.Streams[b]), Hazards: []engine.PourHazard{}}
+	open := map[string]*engine.PourHazard{}
+	worstRatio := map[string]float64{} // the message kept is that of the worst point
+	var keys []string
+	pts := 0
+	for _, f := range fractions {
+		r := *req
+		r.Streams = []engine.Stream{sb, scaled(sa, f)}
+		hs, err := eval(&r)
+		if err != nil {
+			continue
+		}
+		pts++
+		seen := map[string]bool{}
+		for _, h := range hs {
+			if h.Severity == engine.Info || seen[h.Code] {
+				continue
+			}
+			seen[h.Code] = true
+			if ph := open[h.Code]; ph != nil {
+				ph.ToFraction = f
+				if rank(h.Severity) > rank(ph.Worst) || (h.Severity == ph.Worst && ratio(h) > worstRatio[h.Code]) {
+					ph.Worst, ph.Message = h.Severity, h.Message
+					worstRatio[h.Code] = ratio(h)
+				}
+				continue
+			}
+			worstRatio[h.Code] = ratio(h)
+			open[h.Code] = &engine.PourHazard{Code: h.Code, FromFraction: f, ToFraction: f, Worst: h.Severity, Message: h.Message}
+			keys = append(keys, h.Code)
+		}
+		// A hazard that stopped is closed; if it comes back it is a new run.
+		for _, k := range keys {
+			if ph := open[k]; ph != nil && !seen[k] {
+				po.Hazards = append(po.Hazards, *ph)
+				delete(open, k)
+			}
+		}
+	}
+	for _, k := range keys {
+		if ph := open[k]; ph != nil {
+			po.Hazards = append(po.Hazards, *ph)
+			delete(open, k)
+		}
+	}
+	return po, pts
+}
+
+// withAmount gives a stream without an amount the 1 L the engine assumes
+// when volumes are not stated (equal volumes).
+func withAmount(s engine.Stream) engine.Stream {
+	if s.VolumeL <= 0 && s.MassKg <= 0 {
+		s.VolumeL = 1
+	}
+	return s
+}
+
+func scaled(s engine.Stream, f float64) engine.Stream {
+	s.VolumeL *= f
+	s.MassKg *= f
+	return s
+}
+
+func ratio(h engine.Hazard) float64 {
+	if h.Gas != nil {
+		return h.Gas.Ratio
+	}
+	if h.Heat != nil {
+		return h.Heat.ReachedC
+	}
+	return 0
+}
+
+func rank(s engine.Severity) int {
+	switch s {
+	case engine.Danger:
+		return 3
+	case engine.Warning:
+		return 2
+	case engine.Info:
+		return 1
+	}
+	return 0
+}

@@ -1,0 +1,96 @@
+package pour
+
+import (
+	"strings"
+	"testing"
+
+	"mixward/engine"
+)
+
+// fakeEval raises "gas" as a danger whenever the acid stream (named "acid")
+// is in excess of the base by volume, and "warm" as a warning past half the
+// final ratio: enough to check the ranges and the advice without the engine.
+func fakeEval(req *engine.Request) ([]engine.Hazard, error) {
+	vol := map[string]float64{}
+	for _, s := range req.Streams {
+		vol[s.Text] += s.VolumeL
+	}
+	var hs []engine.Hazard
+	if vol["acid"] > vol["base"] {
+		hs = append(hs, engine.Hazard{Code: "gas", Severity: engine.Danger})
+	}
+	if vol["acid"] >= 0.5 && vol["base"] >= 0.5 {
+		hs = append(hs, engine.Hazard{Code: "warm", Severity: engine.Warning})
+	}
+	hs = append(hs, engine.Hazard{Code: "note", Severity: engine.Info})
+	return hs, nil
+}
+
+func TestAnalyseTwoStreams(t *testing.T) {
+	req := &engine.Request{Streams: []engine.Stream{{Text: "acid", VolumeL: 1}, {Text: "base", VolumeL: 1}}}
+	add := Analyse(req, fakeEval)
+	if len(add.Orders) != 2 || add.Points != 2*len(fractions) {
+		t.Fatalf("orders %d, points %d", len(add.Orders), add.Points)
+	}
+	// base into acid: the tank is all acid at first, so gas from the first drop
+	// until the base catches up (never: volumes equal only at the end).
+	bIntoA := add.Orders[0]
+	if bIntoA.Added != "base" || bIntoA.Into != "acid" {
+		t.Fatalf("first order %s into %s", bIntoA.Added, bIntoA.Into)
+	}
+	got := map[string]engine.PourHazard{}
+	for _, h := range bIntoA.Hazards {
+		got[h.Code] = h
+	}
+	if g := got["gas"]; g.FromFraction != fractions[0] || g.ToFraction != 0.995 || g.Worst != engine.Danger {
+		t.Errorf("gas along base into acid: %+v", g)
+	}
+	if w := got["warm"]; w.FromFraction != 0.5 || w.ToFraction != 1 {
+		t.Errorf("warm along base into acid: %+v", w)
+	}
+	if _, ok := got["note"]; ok {
+		t.Error("info hazards are not pour hazards")
+	}
+	// acid into base never has acid in excess.
+	for _, h := range add.Orders[1].Hazards {
+		if h.Code == "gas" {
+			t.Errorf("gas while acid runs into base: %+v", h)
+		}
+	}
+	if !strings.HasPrefix(add.Advice, "Add acid into base, slowly; never base into acid") {
+		t.Errorf("advice %q", add.Advice)
+	}
+}
+
+func TestAnalyseThreeStreamsAndNeither(t *testing.T) {
+	always := func(req *engine.Request) ([]engine.Hazard, error) {
+		return []engine.Hazard{{Code: "gas", Severity: engine.Danger}}, nil
+	}
+	req := &engine.Request{Streams: []engine.Stream{{Text: "a"}, {Text: "b"}, {Text: "c", MassKg: 2}}}
+	add := Analyse(req, always)
+	if len(add.Orders) != 6 {
+		t.Fatalf("three streams give %d orders, want each pair both ways (6)", len(add.Orders))
+	}
+	if strings.Count(add.Advice, "Neither order is safe") != 3 {
+		t.Errorf("advice %q", add.Advice)
+	}
+	if Analyse(&engine.Request{Streams: req.Streams[:1]}, always) != nil {
+		t.Error("one stream has no pour")
+	}
+}
+
+func TestFractionsDenserAtTheEnds(t *testing.T) {
+	Fractions := Fractions()
+	if len(Fractions) < 20 || len(Fractions) > 40 || Fractions[len(Fractions)-1] != 1 {
+		t.Fatalf("%d fractions ending at %g", len(Fractions), Fractions[len(Fractions)-1])
+	}
+	mid := Fractions[12] - Fractions[11]
+	if !(Fractions[1]-Fractions[0] < mid && Fractions[len(Fractions)-1]-Fractions[len(Fractions)-2] < mid) {
+		t.Error("fractions are not denser near the ends")
+	}
+	for i := 1; i < len(Fractions); i++ {
+		if Fractions[i] <= Fractions[i-1] {
+			t.Errorf("fractions not increasing at %d", i)
+		}
+	}
+}
