@@ -30,7 +30,7 @@ const presence = 1e-5
 // A lock of two alternatives is solved both ways and the lower Gibbs energy
 // kept.
 func (m *Model) solveLocked(mx *Mix, n0 []float64, volL float64) (*State, error) {
-	combined, err := m.solve(mx, n0, true, m.formationRules(mx, n0), volL)
+	combined, err := m.solve(mx, n0, true, m.formationRules(mx, n0), volL, n0)
 	if err != nil {
 		return nil, fmt.Errorf("as combined: %w", err)
 	}
@@ -72,18 +72,15 @@ func (m *Model) solveFrom(mx *Mix, n0 []float64, combined *State, volL float64, 
 			applied = append(applied, l)
 		}
 	}
-	var best *State
-	sets, err := m.constraintSets(mx, applied, n0, combined, volL)
+	best, err := m.solveSets(mx, n0, applied, volL, nil, combined.Amount)
 	if err != nil {
 		return nil, err
 	}
-	for _, cons := range sets {
-		st, err := m.solve(mx, n0, false, cons, volL)
-		if err != nil {
+	// A lock that lets its group grow by the acid the mix holds: only when
+	// it held something back at no allowance is the acid titrated.
+	if allow := m.acidAllowances(mx, applied, best, n0, combined, volL); allow != nil {
+		if best, err = m.solveSets(mx, n0, applied, volL, allow, best.Amount); err != nil {
 			return nil, err
-		}
-		if best == nil || st.Eq.G < best.Eq.G {
-			best = st
 		}
 	}
 	best.Applied = applied
@@ -111,7 +108,56 @@ func (m *Model) env(mx *Mix, s *State, volL float64) Env {
 
 // constraintSets lists the constraint sets to try: every combination of the
 // alternatives of two-way locks (one set when there are none).
-func (m *Model) constraintSets(mx *Mix, locks []*Lock, n0 []float64, combined *State, volL float64) ([][]lockRule, error) {
+// solveSets solves n0 under every combination of the locks' alternatives
+// and keeps the state of least Gibbs energy. allow adds to the bound of the
+// named rules.
+func (m *Model) solveSets(mx *Mix, n0 []float64, applied []*Lock, volL float64, allow map[string]float64, start []float64) (*State, error) {
+	var best *State
+	for _, cons := range constraintSets(mx, applied, n0, allow) {
+		st, err := m.solve(mx, n0, false, cons, volL, start)
+		if err != nil {
+			return nil, err
+		}
+		if best == nil || st.Eq.G < best.Eq.G {
+			best = st
+		}
+	}
+	return best, nil
+}
+
+// acidAllowances titrates the mix as combined for each "+ acid to ph N"
+// rule that held something back; nil when none did.
+func (m *Model) acidAllowances(mx *Mix, applied []*Lock, st *State, n0 []float64, combined *State, volL float64) map[string]float64 {
+	var out map[string]float64
+	for _, l := range applied {
+		for k, r := range l.Rules {
+			name := l.ID + "#" + strconv.Itoa(k)
+			if r.AcidTo == nil || combined.PH >= *r.AcidTo || !contains(st.Eq.Active, name) {
+				continue
+			}
+			x, err := m.titrate(mx, n0, volL, *r.AcidTo)
+			if err != nil || x >= 0 {
+				continue
+			}
+			if out == nil {
+				out = map[string]float64{}
+			}
+			out[name] = -x // the base it takes to reach the pH: the acid that can be spent
+		}
+	}
+	return out
+}
+
+func contains(list []string, s string) bool {
+	for _, x := range list {
+		if x == s {
+			return true
+		}
+	}
+	return false
+}
+
+func constraintSets(mx *Mix, locks []*Lock, n0 []float64, allow map[string]float64) [][]lockRule {
 	sets := [][]lockRule{nil}
 	for _, l := range locks {
 		if vacuous(mx, l, n0) {
@@ -119,21 +165,16 @@ func (m *Model) constraintSets(mx *Mix, locks []*Lock, n0 []float64, combined *S
 		}
 		var next [][]lockRule
 		for k, r := range l.Rules {
-			c := lockRule{c: ruleConstraint(mx, l.ID+"#"+strconv.Itoa(k), r, n0), g: r.Group}
-			if r.AcidTo != nil && combined.PH < *r.AcidTo {
-				x, err := m.titrate(mx, n0, volL, *r.AcidTo)
-				if err != nil {
-					return nil, fmt.Errorf("lock %s: %w", l.ID, err)
-				}
-				c.c.Bound += -x // base needed to reach the pH: the acid that can be spent
-			}
+			name := l.ID + "#" + strconv.Itoa(k)
+			c := lockRule{c: ruleConstraint(mx, name, r, n0), g: r.Group}
+			c.c.Bound += allow[name]
 			for _, s := range sets {
 				next = append(next, append(append([]lockRule(nil), s...), c))
 			}
 		}
 		sets = next
 	}
-	return sets, nil
+	return sets
 }
 
 // vacuous reports whether a lock cannot hold anything back in n0: a single
@@ -192,7 +233,7 @@ func heldLocks(applied []*Lock, active []string) []*Lock {
 // solve builds and solves one equilibrium problem. With frozen set, every
 // element in each oxidation state is a component of its own, so only
 // acid–base, complex and solid changes can happen.
-func (m *Model) solve(mx *Mix, n0 []float64, frozen bool, cons []lockRule, volL float64) (*State, error) {
+func (m *Model) solve(mx *Mix, n0 []float64, frozen bool, cons []lockRule, volL float64, start []float64) (*State, error) {
 	comps := map[string]int{}
 	var names []string
 	rows := make([]map[string]float64, len(mx.Species))
@@ -259,6 +300,12 @@ func (m *Model) solve(mx *Mix, n0 []float64, frozen bool, cons []lockRule, volL 
 		}
 		if any { // a lock on a group the mix cannot hold has nothing to keep
 			p.Constraints = append(p.Constraints, pc)
+		}
+	}
+	if start != nil {
+		p.Start = make([]float64, len(keep))
+		for j, i := range keep {
+			p.Start[j] = start[i]
 		}
 	}
 	if dump != nil {

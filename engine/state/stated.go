@@ -53,28 +53,56 @@ func (m *Model) withAcid(mx *Mix, n0 []float64, x float64) []float64 {
 }
 
 // titrate finds the mol of stand-in strong acid (> 0) or base (< 0) that
-// brings the solution as combined to pH target, by bisection on asinh(x).
+// brings the solution as combined to pH target: a bracketing secant
+// (Illinois) on u = asinh(x), where the pH is smooth and monotone.
 func (m *Model) titrate(mx *Mix, n0 []float64, volL, target float64) (float64, error) {
-	limit := math.Asinh(20 * volL) // up to 20 mol/L of acid or base
-	lo, hi := -limit, limit        // pH falls as x rises
-	mid := 0.0
-	for it := 0; it < 60 && hi-lo > 1e-7; it++ {
-		mid = (lo + hi) / 2
-		s, err := m.solve(mx, m.withAcid(mx, n0, math.Sinh(mid)), true, nil, volL)
+	f := func(u float64) (float64, error) {
+		n := m.withAcid(mx, n0, math.Sinh(u))
+		s, err := m.solve(mx, n, true, nil, volL, n)
 		if err != nil {
-			return 0, fmt.Errorf("fitting the stated pH %g: %w", target, err)
+			return 0, fmt.Errorf("fitting pH %g: %w", target, err)
 		}
-		switch d := s.PH - target; {
-		case math.Abs(d) < 0.002:
-			return math.Sinh(mid), nil
-		case d > 0:
-			lo = mid
-		default:
-			hi = mid
+		return s.PH - target, nil
+	}
+	limit := math.Asinh(20 * volL) // up to 20 mol/L of acid or base
+	lo, hi := -limit, limit        // f falls as u rises
+	flo, err := f(lo)
+	if err != nil {
+		return 0, err
+	}
+	fhi, err := f(hi)
+	if err != nil {
+		return 0, err
+	}
+	if flo < 0 || fhi > 0 {
+		return 0, fmt.Errorf("pH %g cannot be reached with up to 20 mol/L of acid or base", target)
+	}
+	side := 0
+	for it := 0; it < 60; it++ {
+		u := (lo*fhi - hi*flo) / (fhi - flo)
+		if !(u > lo && u < hi) {
+			u = (lo + hi) / 2
+		}
+		fu, err := f(u)
+		if err != nil {
+			return 0, err
+		}
+		if math.Abs(fu) < 0.01 || hi-lo < 1e-9 {
+			return math.Sinh(u), nil
+		}
+		if fu > 0 {
+			lo, flo = u, fu
+			if side == -1 {
+				fhi /= 2
+			}
+			side = -1
+		} else {
+			hi, fhi = u, fu
+			if side == 1 {
+				flo /= 2
+			}
+			side = 1
 		}
 	}
-	if mid <= -limit+1e-6 || mid >= limit-1e-6 {
-		return 0, fmt.Errorf("the stated pH %g cannot be reached", target)
-	}
-	return math.Sinh(mid), nil
+	return 0, fmt.Errorf("fitting pH %g: no convergence", target)
 }
