@@ -961,7 +961,7 @@ func (l *loader) fastAcidBase(f []string, _ int) {
 
 // fastChemical is chemical without its checks (loadFast).
 func (l *loader) fastChemical(f []string, _ int) {
-	a, err := ParseFormula(f[0])
+	mass, err := chem.MolarMass(f[0], l.t.Atomic)
 	if err != nil {
 		l.fail("formula", f[0], "%v; fix the formula", err)
 		return
@@ -974,8 +974,7 @@ func (l *loader) fastChemical(f []string, _ int) {
 	for i := range names {
 		names[i] = strings.TrimSpace(names[i])
 	}
-	ch := &Chemical{Formula: f[0], Names: names, Class: Class(f[1]), Gives: gives, Source: f[4]}
-	ch.MolarMass = massOf(a, l.t.Atomic)
+	ch := &Chemical{Formula: f[0], Names: names, Class: Class(f[1]), Gives: gives, Source: f[4], MolarMass: mass}
 	l.t.Chemicals = append(l.t.Chemicals, ch)
 }
 
