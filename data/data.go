@@ -1,11 +1,15 @@
 // Package data embeds the chemistry tables mixward reasons with: atomic
 // weights (elements.txt), the chemical dictionary (chemicals.txt), standard
 // reduction potentials (halfreactions.txt), acid–base pairs (acidbase.txt),
-// solution densities (densities.txt) and the tables other parts of the engine
-// read (kinetic allowances, hazard rules, formation enthalpies). Each file is
-// plain text, one row per line with fields separated by " | ", and every row
-// names its source. The package only embeds the files; engine.Load reads and
-// validates them.
+// solution densities (densities.txt), the species data (species.txt: standard
+// Gibbs energies and enthalpies of formation, entropies), the chemicals known
+// by name whose data are withheld (withheld.txt) and the tables other parts of
+// the engine read (kinetic allowances, hazard rules, formation enthalpies).
+// Each file is plain text, one row per line with fields separated by " | "
+// (hazard rules and enthalpies have their own layout), and every row names
+// its source. The package only embeds the files; engine.New reads them,
+// engine.CheckTables (run by the tests and `mixward table --check`) validates
+// them.
 package data
 
 import "embed"

@@ -11,6 +11,7 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"sync"
 
 	"mixward/engine/chem"
 )
@@ -104,11 +105,18 @@ func load(fsys fs.FS, fast bool) (*Tables, error) {
 		bases:      map[string]bool{},
 		chemByForm: map[string]*Chemical{},
 	}
-	hash, contents, err := hashTables(fsys)
+	names, contents, err := readTables(fsys)
 	if err != nil {
 		return nil, err
 	}
-	l.t.Hash = hash
+	// The hash does not depend on the parse: New's loader takes it on a
+	// goroutine of its own.
+	var hashing sync.WaitGroup
+	hashing.Go(func() { l.t.Hash = hashTables(names, contents) })
+	if !fast {
+		hashing.Wait()
+	}
+	defer hashing.Wait()
 	files := []struct {
 		name string
 		read func([]string, int)
@@ -149,26 +157,34 @@ func load(fsys fs.FS, fast bool) (*Tables, error) {
 	return l.t, nil
 }
 
-// hashTables hashes every *.txt file at the root of fsys in name order. It
-// returns the contents it read, by name, so that each file is read once.
-func hashTables(fsys fs.FS) (string, map[string][]byte, error) {
+// readTables reads every *.txt file at the root of fsys, and returns their
+// names in order and their contents by name, so that each file is read once.
+func readTables(fsys fs.FS) ([]string, map[string][]byte, error) {
 	names, err := fs.Glob(fsys, "*.txt")
 	if err != nil {
-		return "", nil, fmt.Errorf("list the data tables: %w", err)
+		return nil, nil, fmt.Errorf("list the data tables: %w", err)
 	}
 	sort.Strings(names)
-	h := sha256.New()
 	contents := make(map[string][]byte, len(names))
 	for _, n := range names {
 		b, err := fs.ReadFile(fsys, n)
 		if err != nil {
-			return "", nil, fmt.Errorf("read %s%s for the table hash: %w", tableDir, n, err)
+			return nil, nil, fmt.Errorf("read %s%s for the table hash: %w", tableDir, n, err)
 		}
-		fmt.Fprintf(h, "%s\x00%d\x00", n, len(b))
-		h.Write(b)
 		contents[n] = b
 	}
-	return hex.EncodeToString(h.Sum(nil)), contents, nil
+	return names, contents, nil
+}
+
+// hashTables hashes the tables in name order (see Load for the layout).
+func hashTables(names []string, contents map[string][]byte) string {
+	h := sha256.New()
+	for _, n := range names {
+		b := contents[n]
+		fmt.Fprintf(h, "%s\x00%d\x00", n, len(b))
+		h.Write(b)
+	}
+	return hex.EncodeToString(h.Sum(nil))
 }
 
 // spellingUse remembers where a species spelling was first used.
@@ -961,7 +977,7 @@ func (l *loader) fastAcidBase(f []string, _ int) {
 
 // fastChemical is chemical without its checks (loadFast).
 func (l *loader) fastChemical(f []string, _ int) {
-	a, err := ParseFormula(f[0])
+	mass, err := chem.MolarMass(f[0], l.t.Atomic)
 	if err != nil {
 		l.fail("formula", f[0], "%v; fix the formula", err)
 		return
@@ -974,8 +990,7 @@ func (l *loader) fastChemical(f []string, _ int) {
 	for i := range names {
 		names[i] = strings.TrimSpace(names[i])
 	}
-	ch := &Chemical{Formula: f[0], Names: names, Class: Class(f[1]), Gives: gives, Source: f[4]}
-	ch.MolarMass = massOf(a, l.t.Atomic)
+	ch := &Chemical{Formula: f[0], Names: names, Class: Class(f[1]), Gives: gives, Source: f[4], MolarMass: mass}
 	l.t.Chemicals = append(l.t.Chemicals, ch)
 }
 

@@ -10,6 +10,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"reflect"
 	"sort"
 	"strconv"
 	"strings"
@@ -726,6 +727,11 @@ func FuzzLoadTables(f *testing.F) {
 			if err := BalanceError(h.Reactants, h.Products, h.Electrons); err != nil {
 				t.Fatalf("accepted %q, but %s does not balance: %v", row, h.ID, err)
 			}
+		}
+		// What Load accepts, the parse-only loader of New reads the same.
+		fast, err := loadFast(m)
+		if err != nil || !reflect.DeepEqual(fast, tb) {
+			t.Fatalf("Load accepted %q in %s, but loadFast differs (error %v)", row, file, err)
 		}
 	})
 }

@@ -2,8 +2,10 @@ package engine
 
 import "mixward/engine/thermo"
 
-// Tables is the validated content of the data/ tables. Load builds it; New
-// adds the tables owned by the prediction and hazard code.
+// Tables is the content of the data/ tables. Load builds it and validates
+// every row; New builds it with loadFast (parse only: the tests validate
+// data/ through Load and CheckTables) and adds the tables owned by the
+// prediction and hazard code and the species data.
 type Tables struct {
 	Atomic    map[string]float64 // standard atomic weights, g/mol
 	Chemicals []*Chemical

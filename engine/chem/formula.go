@@ -2,6 +2,7 @@ package chem
 
 import (
 	"fmt"
+	"slices"
 	"sort"
 	"strings"
 )
@@ -15,28 +16,44 @@ type Atoms map[string]int
 // (CuSO4.5H2O, CuSO4·5H2O). It checks only the syntax; whether each symbol is
 // a real element is checked against the atomic-weight table (ReadAtomicWeights).
 func ParseFormula(f string) (Atoms, error) {
+	p := formulaParser{a: make(Atoms, 4)}
+	if err := p.formula(f); err != nil {
+		return nil, err
+	}
+	return p.a, nil
+}
+
+// CheckFormula returns the error ParseFormula would return for f, without
+// building the atom counts (no allocation for a good formula of up to
+// twelve elements).
+func CheckFormula(f string) error {
+	var p formulaParser
+	return p.formula(f)
+}
+
+// formula parses f, every part, into p's tally.
+func (p *formulaParser) formula(f string) error {
 	if f == "" {
-		return nil, fmt.Errorf("empty formula")
+		return fmt.Errorf("empty formula")
 	}
 	if !strings.ContainsAny(f, ".·*") && (f[0] < '0' || f[0] > '9') {
-		// One part without a multiplier: its atoms are the total.
-		p := &formulaParser{s: f}
-		a := make(Atoms, 4)
-		if _, err := p.group(0, 1, a); err != nil {
-			return nil, fmt.Errorf("formula %q: %w", f, err)
+		// One part without a multiplier.
+		p.s, p.pos = f, 0
+		seen, err := p.group(0, 1)
+		if err != nil {
+			return fmt.Errorf("formula %q: %w", f, err)
 		}
-		if len(a) == 0 {
-			return nil, fmt.Errorf("formula %q: part %q has no atoms", f, f)
+		if !seen {
+			return fmt.Errorf("formula %q: part %q has no atoms", f, f)
 		}
-		return a, nil
+		return nil
 	}
-	total := Atoms{}
 	parts := strings.FieldsFunc(f, func(r rune) bool { return r == '.' || r == '·' || r == '*' })
 	if len(parts) == 0 {
-		return nil, fmt.Errorf("formula %q has no atoms", f)
+		return fmt.Errorf("formula %q has no atoms", f)
 	}
 	if len(parts) != strings.Count(f, ".")+strings.Count(f, "·")+strings.Count(f, "*")+1 {
-		return nil, fmt.Errorf("formula %q: a hydrate separator must stand between two parts, like CuSO4.5H2O", f)
+		return fmt.Errorf("formula %q: a hydrate separator must stand between two parts, like CuSO4.5H2O", f)
 	}
 	for k, part := range parts {
 		mult := 1
@@ -46,23 +63,23 @@ func ParseFormula(f string) (Atoms, error) {
 		}
 		if i > 0 {
 			if k == 0 {
-				return nil, fmt.Errorf("formula %q starts with a number; write a coefficient apart from the formula (2 H2O)", f)
+				return fmt.Errorf("formula %q starts with a number; write a coefficient apart from the formula (2 H2O)", f)
 			}
 			mult = atoiSafe(part[:i])
 			if mult == 0 {
-				return nil, fmt.Errorf("formula %q: the multiplier of %q is zero", f, part)
+				return fmt.Errorf("formula %q: the multiplier of %q is zero", f, part)
 			}
 		}
-		p := &formulaParser{s: part, pos: i}
-		seen, err := p.group(0, mult, total)
+		p.s, p.pos = part, i
+		seen, err := p.group(0, mult)
 		if err != nil {
-			return nil, fmt.Errorf("formula %q: %w", f, err)
+			return fmt.Errorf("formula %q: %w", f, err)
 		}
 		if !seen {
-			return nil, fmt.Errorf("formula %q: part %q has no atoms", f, part)
+			return fmt.Errorf("formula %q: part %q has no atoms", f, part)
 		}
 	}
-	return total, nil
+	return nil
 }
 
 // maxAtoms bounds the count of one element in a formula, so that nested
@@ -82,9 +99,43 @@ func atoiSafe(s string) int {
 	return n
 }
 
+// formulaParser reads one part of a formula at a time and tallies its atoms:
+// into the map a when it is set, otherwise into a small array (spilling into
+// a map past its size), so that checking a formula allocates nothing.
 type formulaParser struct {
-	s   string
-	pos int
+	s     string
+	pos   int
+	a     Atoms
+	small [12]struct {
+		el string
+		n  int
+	}
+	k int // entries used in small
+}
+
+// add adds n atoms of el to the tally and returns el's new count.
+func (p *formulaParser) add(el string, n int) int {
+	if p.a != nil {
+		p.a[el] += n
+		return p.a[el]
+	}
+	for i := 0; i < p.k; i++ {
+		if p.small[i].el == el {
+			p.small[i].n += n
+			return p.small[i].n
+		}
+	}
+	if p.k < len(p.small) {
+		p.small[p.k].el, p.small[p.k].n = el, n
+		p.k++
+		return n
+	}
+	p.a = make(Atoms, p.k+1)
+	for _, c := range p.small[:p.k] {
+		p.a[c.el] = c.n
+	}
+	p.a[el] += n
+	return p.a[el]
 }
 
 // number reads an optional subscript: 1 when there is none, an error when it
@@ -105,10 +156,11 @@ func (p *formulaParser) number() (int, error) {
 }
 
 // group adds mult times the atoms from p.pos up to the closing bracket of
-// this depth (or the end at depth 0) into a, and reports whether it saw any.
+// this depth (or the end at depth 0) to the tally, and reports whether it saw
+// any.
 // A bracket's multiplier follows its closer, so it is read ahead and passed
 // down: the whole formula fills one map.
-func (p *formulaParser) group(depth, mult int, a Atoms) (bool, error) {
+func (p *formulaParser) group(depth, mult int) (bool, error) {
 	if depth > 8 {
 		return false, fmt.Errorf("parentheses nested too deep")
 	}
@@ -117,7 +169,7 @@ func (p *formulaParser) group(depth, mult int, a Atoms) (bool, error) {
 		c := p.s[p.pos]
 		switch {
 		case c == '(' || c == '[':
-			if err := p.bracket(depth, mult, a, c); err != nil {
+			if err := p.bracket(depth, mult, c); err != nil {
 				return false, err
 			}
 			seen = true
@@ -140,8 +192,7 @@ func (p *formulaParser) group(depth, mult int, a Atoms) (bool, error) {
 			if err != nil {
 				return false, err
 			}
-			a[el] += n * mult
-			if a[el] > maxAtoms {
+			if p.add(el, n*mult) > maxAtoms {
 				return false, fmt.Errorf("more than %d atoms of %s", maxAtoms, el)
 			}
 			seen = true
@@ -156,7 +207,7 @@ func (p *formulaParser) group(depth, mult int, a Atoms) (bool, error) {
 }
 
 // bracket reads a bracketed group and its multiplier, p.pos at the opener c.
-func (p *formulaParser) bracket(depth, mult int, a Atoms, c byte) error {
+func (p *formulaParser) bracket(depth, mult int, c byte) error {
 	closer := byte(')')
 	if c == '[' {
 		closer = ']'
@@ -186,7 +237,7 @@ func (p *formulaParser) bracket(depth, mult int, a Atoms, c byte) error {
 		return fmt.Errorf("more than %d atoms in a group", maxAtoms)
 	}
 	p.pos++
-	inner, err := p.group(depth+1, mult*n, a)
+	inner, err := p.group(depth+1, mult*n)
 	if err != nil {
 		return err
 	}
@@ -240,4 +291,39 @@ func hillLess(x, y string, a Atoms) bool {
 		return rank(x) < rank(y)
 	}
 	return x < y
+}
+
+// MolarMass is the molar mass of formula from the atomic weights w (g/mol),
+// summed over the elements in symbol order, as ParseFormula's atoms would be;
+// an element missing from w counts zero. It allocates nothing for a formula
+// of up to twelve elements.
+func MolarMass(formula string, w map[string]float64) (float64, error) {
+	var p formulaParser
+	if err := p.formula(formula); err != nil {
+		return 0, err
+	}
+	if p.a != nil {
+		els := make([]string, 0, len(p.a))
+		for el := range p.a {
+			els = append(els, el)
+		}
+		slices.Sort(els)
+		m := 0.0
+		for _, el := range els {
+			m += float64(p.a[el]) * w[el]
+		}
+		return m, nil
+	}
+	tally := p.small[:p.k]
+	slices.SortFunc(tally, func(x, y struct {
+		el string
+		n  int
+	}) int {
+		return strings.Compare(x.el, y.el)
+	})
+	m := 0.0
+	for _, c := range tally {
+		m += float64(c.n) * w[c.el]
+	}
+	return m, nil
 }

@@ -1,6 +1,7 @@
 package chem
 
 import (
+	"fmt"
 	"maps"
 	"strings"
 	"testing"
@@ -105,6 +106,20 @@ func TestAtomsAdd(t *testing.T) {
 
 // FuzzParseFormula checks that ParseFormula never panics and that what it
 // accepts survives a round trip through Atoms.String.
+// TestCheckFormula: CheckFormula agrees with ParseFormula, past the size of
+// its small tally too (thirteen elements; H twice over a million).
+func TestCheckFormula(t *testing.T) {
+	for _, f := range []string{"H2O", "Fe2(SO4)3", "CuSO4.5H2O", "HLiBeBCNOFNaMgAlSiP", "HLiBeBCNOFNaMgAlSiPH999999H999999", "H999999H2", "h2o", ""} {
+		_, err := ParseFormula(f)
+		if cerr := CheckFormula(f); fmt.Sprint(cerr) != fmt.Sprint(err) {
+			t.Errorf("CheckFormula(%q) = %v, ParseFormula error %v", f, cerr, err)
+		}
+	}
+	if n := testing.AllocsPerRun(100, func() { _ = CheckFormula("K4[Fe(CN)6]") }); n != 0 {
+		t.Errorf("CheckFormula allocates %g times for a good formula", n)
+	}
+}
+
 func FuzzParseFormula(f *testing.F) {
 	for _, s := range []string{"H2O", "Fe2(SO4)3", "CuSO4.5H2O", "CuSO4·5H2O", "K4[Fe(CN)6]", "(NaPO3)6",
 		"Ca(OH", "H0", "2H2O", "((((H9)9)9)9)", "Abc12", "x", "", "..", "C10H16N2O8", "\xff"} {
@@ -112,6 +127,9 @@ func FuzzParseFormula(f *testing.F) {
 	}
 	f.Fuzz(func(t *testing.T, s string) {
 		a, err := ParseFormula(s)
+		if cerr := CheckFormula(s); fmt.Sprint(cerr) != fmt.Sprint(err) {
+			t.Fatalf("CheckFormula(%q) = %v, ParseFormula error %v", s, cerr, err)
+		}
 		if err != nil {
 			return
 		}
@@ -127,4 +145,28 @@ func FuzzParseFormula(f *testing.F) {
 			t.Fatalf("round trip of %q: %v -> %q -> %v", s, a, text, b)
 		}
 	})
+}
+
+// TestMolarMass: the mass is the atom counts times the weights (weights here
+// invented round numbers), the same whether the tally spilled into a map.
+func TestMolarMass(t *testing.T) {
+	w := map[string]float64{"H": 1, "O": 16, "S": 32, "Fe": 56, "C": 12, "N": 14, "K": 39}
+	for _, tc := range []struct {
+		f    string
+		want float64
+	}{
+		{"H2O", 18}, {"Fe2(SO4)3", 400}, {"K4[Fe(CN)6]", 368}, {"FeSO4.7H2O", 278}, {"Xx", 0},
+		{"HLiBeBCNOFNaMgAlSiP", 1 + 12 + 14 + 16},
+	} {
+		got, err := MolarMass(tc.f, w)
+		if err != nil || got != tc.want {
+			t.Errorf("MolarMass(%q) = %g, %v; want %g", tc.f, got, err, tc.want)
+		}
+	}
+	if _, err := MolarMass("h2o", w); err == nil {
+		t.Error("MolarMass(h2o) gave no error")
+	}
+	if n := testing.AllocsPerRun(100, func() { _, _ = MolarMass("K4[Fe(CN)6]", w) }); n != 0 {
+		t.Errorf("MolarMass allocates %g times", n)
+	}
 }

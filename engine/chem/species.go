@@ -105,13 +105,19 @@ func (s Species) IsElectron() bool { return s.Formula == "e" && s.Charge == -1 }
 // aqueous, and a neutral species is aqueous too except water, which is liquid
 // (H2O(aq) is read as H2O(l) as well).
 func ParseSpecies(text string) (Species, error) {
-	sp, _, err := ParseSpeciesAtoms(text)
+	sp, _, err := parseSpecies(text, false)
 	return sp, err
 }
 
 // ParseSpeciesAtoms is ParseSpecies that also returns the atom counts of the
 // formula (nil for the electron), parsed once for both.
 func ParseSpeciesAtoms(text string) (Species, Atoms, error) {
+	return parseSpecies(text, true)
+}
+
+// parseSpecies reads a species; with atoms it also returns the formula's atom
+// counts, without it only checks the formula.
+func parseSpecies(text string, atoms bool) (Species, Atoms, error) {
 	t := strings.TrimSpace(text)
 	if t == "" {
 		return Species{}, nil, fmt.Errorf("empty species")
@@ -159,7 +165,13 @@ func ParseSpeciesAtoms(text string) (Species, Atoms, error) {
 		sp.Phase = Aqueous
 		return sp, nil, nil
 	}
-	atoms, err := ParseFormula(t)
+	var a Atoms
+	var err error
+	if atoms {
+		a, err = ParseFormula(t)
+	} else {
+		err = CheckFormula(t)
+	}
 	if err != nil {
 		return Species{}, nil, fmt.Errorf("species %q: %w", text, err)
 	}
@@ -171,7 +183,7 @@ func ParseSpeciesAtoms(text string) (Species, Atoms, error) {
 		// so that the two spellings give one species with one Key.
 		sp.Phase = Liquid
 	}
-	return sp, atoms, nil
+	return sp, a, nil
 }
 
 // phaseSuffixes are the phase suffixes ParseSpecies reads.
