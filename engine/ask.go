@@ -180,7 +180,14 @@ func (e *Engine) Ask(text string, opt AskOptions) (*Result, error) {
 // Predict answers a parsed request: the states of the streams and of the
 // mix (package state), the redox steps between them (package explain), and
 // the amounts, gas, heat and hazards derived from those states.
-func (e *Engine) Predict(req *Request) (*Result, error) {
+func (e *Engine) Predict(req *Request) (*Result, error) { return e.predict(req, true) }
+
+// PredictBrief is Predict without the held-back changes (each needs the mix
+// solved again with one lock lifted): for the points of a pour, where only
+// what forms is judged.
+func (e *Engine) PredictBrief(req *Request) (*Result, error) { return e.predict(req, false) }
+
+func (e *Engine) predict(req *Request, full bool) (*Result, error) {
 	m, err := buildMixture(req, e.Tables)
 	if err != nil {
 		var pe *ParseError
@@ -222,7 +229,9 @@ func (e *Engine) Predict(req *Request) (*Result, error) {
 	} else {
 		e.noChange(res, mx)
 	}
-	res.HeldBack = e.heldBack(mx)
+	if full {
+		res.HeldBack = e.heldBack(mx)
+	}
 	res.FinalComposition = compositionOut(mx)
 	res.Gases = gasesOut(mx, formedBy(steps), m.pressureKPa)
 	res.Heat = heatOut(mx, m, e.Tables)

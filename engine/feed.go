@@ -1,16 +1,19 @@
 package engine
 
 import (
-	"errors"
 	"fmt"
 
 	"mixward/engine/state"
 	"mixward/engine/thermo"
 )
 
-// ErrNoData is a chemical the dictionary knows by name but whose species
-// have no thermodynamic data: the answer is withheld rather than guessed.
-var ErrNoData = errors.New("no thermodynamic data")
+// withheld is the refusal of a chemical the dictionary knows by name but
+// whose species have no thermodynamic data (data/withheld.txt): the answer
+// is withheld rather than guessed.
+func withheld(c *Component, msg string) *ParseError {
+	return &ParseError{Code: "withheld", Message: msg + "; check the safety data sheet and ask a chemist before combining",
+		Position: c.Pos, Token: c.Name, Suggestions: []string{}}
+}
 
 // waterMolarMass is g/mol (IUPAC standard atomic weights: 2 × 1.008 + 15.999).
 const waterMolarMass = 18.015
@@ -43,6 +46,9 @@ func streamFeed(st *Stream, t *Tables, db *thermo.DB, m *mixture) (state.Stream,
 		if c.Chemical.Formula == "H2O" {
 			continue
 		}
+		if err := db.WithheldError(c.Chemical.Formula); err != nil {
+			return state.Stream{}, withheld(c, err.Error())
+		}
 		mol, excess, err := componentMoles(st, c, vol, liquid, t, m)
 		if err != nil {
 			return state.Stream{}, err
@@ -53,7 +59,7 @@ func streamFeed(st *Stream, t *Tables, db *thermo.DB, m *mixture) (state.Stream,
 		for _, g := range c.Chemical.Gives {
 			sp, ok := db.Get(g.Species.Text())
 			if !ok {
-				return state.Stream{}, fmt.Errorf("%w for %s (%s gives %s): the answer is withheld rather than guessed; check the safety data sheet and ask a chemist", ErrNoData, c.Name, c.Chemical.Formula, g.Species.Text())
+				return state.Stream{}, withheld(c, fmt.Sprintf("no thermodynamic data for %s (%s gives %s); answer withheld", c.Name, c.Chemical.Formula, g.Species.Text()))
 			}
 			if sp.Text == "H2O" {
 				out.WaterMol += mol * float64(g.Coef)

@@ -114,7 +114,10 @@ func solveCoefficients(terms []*thermo.Species, perOx float64) ([]int, int, erro
 			}
 		}
 	}
-	rows := len(names) + 2 // elements, charge, electrons per ox
+	rows := len(names) + 1 // elements and charge
+	if !fullRank(terms, names, els) {
+		rows++ // and the electrons per ox, when the rest leaves a choice
+	}
 	cols := len(terms)     // terms 1.. plus the electron column
 	a := mat.NewDense(rows, cols, nil)
 	rhs := mat.NewVecDense(rows, nil)
@@ -133,8 +136,10 @@ func solveCoefficients(terms []*thermo.Species, perOx float64) ([]int, int, erro
 		a.Set(len(names), j-1, float64(sp.Charge))
 	}
 	a.Set(len(names), cols-1, -1) // the electron's charge; its ν is −n for a reduction
-	a.Set(len(names)+1, cols-1, 1)
-	rhs.SetVec(len(names)+1, -perOx) // ν_e = −n, n per ox from the key element's states
+	if rows > len(names)+1 {
+		a.Set(len(names)+1, cols-1, 1)
+		rhs.SetVec(len(names)+1, -perOx) // ν_e = −n, n per ox from the key element's states
+	}
 	var x mat.VecDense
 	if err := x.SolveVec(a, rhs); err != nil {
 		return nil, 0, fmt.Errorf("cannot be balanced: %v", err)
@@ -175,4 +180,31 @@ func wholeScale(vals []float64) int {
 		}
 	}
 	return 0
+}
+
+// fullRank reports whether the element and charge rows alone fix every
+// coefficient: true unless two terms can trade atoms freely (O2, H2O2 and
+// water for a couple of oxygen itself).
+func fullRank(terms []*thermo.Species, names []string, els map[string]int) bool {
+	cols := len(terms) // terms 1.. and the electron
+	a := mat.NewDense(len(names)+1, cols, nil)
+	for j, sp := range terms[1:] {
+		for el, n := range sp.Atoms {
+			a.Set(els[el], j, float64(n))
+		}
+		a.Set(len(names), j, float64(sp.Charge))
+	}
+	a.Set(len(names), cols-1, -1)
+	var svd mat.SVD
+	if !svd.Factorize(a, mat.SVDNone) {
+		return false
+	}
+	vals := svd.Values(nil)
+	rank := 0
+	for _, v := range vals {
+		if v > 1e-9*vals[0] {
+			rank++
+		}
+	}
+	return rank == cols
 }

@@ -157,8 +157,14 @@ func hasAny(sp *thermo.Species, els map[string]bool) bool {
 // couple writes one side of a match: the agent as combined, its product at
 // equilibrium, the reduction between the oxidized and reduced forms.
 func (x *explainer) couple(t Transfer) (Couple, error) {
-	agent := dominant(x.mx, x.mx.Combined.Amount, t.Element, t.From)
-	product := dominant(x.mx, x.mx.Final.Amount, t.Element, t.To)
+	agent := x.medium(t.Element, t.From)
+	if agent == nil {
+		agent = dominant(x.mx, x.mx.Combined.Amount, t.Element, t.From)
+	}
+	product := x.medium(t.Element, t.To)
+	if product == nil {
+		product = dominant(x.mx, x.mx.Final.Amount, t.Element, t.To)
+	}
 	if agent == nil || product == nil {
 		return Couple{}, fmt.Errorf("explain: no species holds %s in state %g or %g", t.Element, t.From, t.To)
 	}
@@ -177,6 +183,26 @@ func (x *explainer) couple(t Transfer) (Couple, error) {
 	// rather than at its standard state.
 	c.Ereached = c.E0 - thermo.R*x.mx.TempK/(float64(half.Electrons)*thermo.F)*LnQ(x.mx.Species, x.lnReached, half)
 	return c, nil
+}
+
+// medium is the species that stands for hydrogen(I) or oxygen(−II) of the
+// water itself in the mix's medium: H+ and H2O in acid, H2O and OH- in
+// base (2 H+ + 2 e- → H2 in acid, 2 H2O + 2 e- → H2 + 2 OH- in base). Nil
+// for any other element or state.
+func (x *explainer) medium(el string, ox float64) *thermo.Species {
+	var text string
+	switch {
+	case el == "H" && ox == 1 && x.med == Acid:
+		text = "H+"
+	case el == "H" && ox == 1, el == "O" && ox == -2 && x.med == Acid:
+		text = "H2O"
+	case el == "O" && ox == -2:
+		text = "OH-"
+	default:
+		return nil
+	}
+	sp, _ := x.db.Get(text)
+	return sp
 }
 
 // lnQ is ln of the reaction quotient as combined.

@@ -55,6 +55,9 @@ func sampleFeeds(t testing.TB, m *Model) map[string]Feed {
 		"aluminium-caustic": f(
 			Stream{Label: "T-11", Items: []Item{item(t, m, "Al(s)", 185)}},
 			Stream{Label: "T-12", Items: []Item{item(t, m, "Na+", 530), item(t, m, "OH-", 530)}, WaterMol: water(400), VolumeL: 400}),
+		"zinc-strong-caustic": f(
+			Stream{Label: "T-13", Items: []Item{{Species: get(t, m, "Zn(s)"), Excess: true}}},
+			Stream{Label: "T-14", Items: []Item{item(t, m, "Na+", 20.3), item(t, m, "OH-", 20.3)}, WaterMol: water(0.6), VolumeL: 1}),
 		"bleach-acid": f(
 			Stream{Label: "T-4", Items: []Item{item(t, m, "Na+", 3.8), item(t, m, "OCl-", 3.8)}, WaterMol: water(2), VolumeL: 2},
 			Stream{Label: "T-5", Items: []Item{item(t, m, "H+", 1.4), item(t, m, "Cl-", 1.4)}, WaterMol: water(0.5), VolumeL: 0.5}),

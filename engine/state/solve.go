@@ -312,7 +312,7 @@ func (m *Model) solve(mx *Mix, n0 []float64, frozen bool, cons []lockRule, volL 
 		dumpN++
 		dump(fmt.Sprintf("%s-%d-frozen%v", dumpPrefix, dumpN, frozen), p)
 	}
-	eq, err := equilibrium.Solve(p)
+	eq, err := solveSafely(p)
 	if err != nil {
 		return nil, err
 	}
@@ -538,4 +538,16 @@ func potentials(p equilibrium.Problem, eq equilibrium.State) ([]float64, bool) {
 		return nil, false
 	}
 	return x.RawVector().Data, true
+}
+
+// solveSafely runs the solver and turns a panic inside it (a linear-algebra
+// routine refusing a singular basis) into an error, so that no request can
+// take the process down.
+func solveSafely(p equilibrium.Problem) (st equilibrium.State, err error) {
+	defer func() {
+		if r := recover(); r != nil {
+			err = fmt.Errorf("%w: the solver failed (%v)", equilibrium.ErrNoConvergence, r)
+		}
+	}()
+	return equilibrium.Solve(p)
 }
