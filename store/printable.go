@@ -52,7 +52,7 @@ func needsEscape(r rune) bool {
 	case r == 0x061C, r == 0x200E, r == 0x200F, // bidi marks
 		0x202A <= r && r <= 0x202E, // embeddings and overrides
 		0x2066 <= r && r <= 0x2069, // isolates
-		r == 0x2028, r == 0x2029: // line and paragraph separators
+		r == 0x2028, r == 0x2029:   // line and paragraph separators
 		return true
 	}
 	return false
