@@ -5,6 +5,7 @@ import (
 	"database/sql"
 	"encoding/json"
 	"fmt"
+	"strconv"
 	"strings"
 )
 
@@ -81,7 +82,7 @@ func (c *cursor) next() error {
 func newDerivedCheck(ctx context.Context, tx queryer, ver int) (*derivedCheck, error) {
 	d := &derivedCheck{ctx: ctx, tx: tx, enabled: ver >= 2}
 	var err error
-	d.hz, err = openCursor(ctx, tx, 3, `SELECT query_id, code, severity, message FROM query_hazards ORDER BY query_id, pos`)
+	d.hz, err = openCursor(ctx, tx, 4, `SELECT query_id, pos, code, severity, message FROM query_hazards ORDER BY query_id, pos`)
 	if err != nil || !d.enabled {
 		return d, err
 	}
@@ -145,7 +146,10 @@ func (d *derivedCheck) hazards(id int64, hz []Hazard) (string, error) {
 		if i >= len(hz) {
 			return fmt.Sprintf("row %d: the hazard table has more hazards than the hashed row (added outside mixward)", id), nil
 		}
-		if h := hz[i]; [3]string(c.cols) != [3]string{h.Code, h.Severity, h.Message} {
+		if c.cols[0] != strconv.Itoa(i) {
+			return fmt.Sprintf("row %d: hazard %d (%s) is missing from the hazard table (deleted outside mixward)", id, i+1, hz[i].Code), nil
+		}
+		if h := hz[i]; [3]string(c.cols[1:]) != [3]string{h.Code, h.Severity, h.Message} {
 			return fmt.Sprintf("row %d: hazard %d in the hazard table differs from the hashed row (edited outside mixward)", id, i+1), nil
 		}
 		if err := c.next(); err != nil {
