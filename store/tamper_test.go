@@ -59,7 +59,7 @@ func rehash(t *testing.T, raw *sql.DB, from int64, key *ChainKey) {
 func forgeAppend(t *testing.T, raw *sql.DB, key *ChainKey, madeUpHash bool) {
 	t.Helper()
 	var r, head row
-	raw.QueryRow(`SELECT `+rowColumns+` FROM queries WHERE id = 2`).Scan(r.scanDest()...)
+	raw.QueryRow(`SELECT ` + rowColumns + ` FROM queries WHERE id = 2`).Scan(r.scanDest()...)
 	if err := raw.QueryRow(`SELECT ` + rowColumns + ` FROM queries ORDER BY id DESC LIMIT 1`).Scan(head.scanDest()...); err != nil {
 		t.Fatal(err)
 	}
@@ -260,7 +260,7 @@ func TestKeyedChain(t *testing.T) {
 	// to its new hash, which without the key breaks that row's own hash.
 	raw := rawDB(t, path)
 	var r row
-	raw.QueryRow(`SELECT `+rowColumns+` FROM queries WHERE id = 2`).Scan(r.scanDest()...)
+	raw.QueryRow(`SELECT ` + rowColumns + ` FROM queries WHERE id = 2`).Scan(r.scanDest()...)
 	r.Request = "mix water + water"
 	seal(&r, nil)
 	raw.Exec(`UPDATE queries SET request = ?, hash = ? WHERE id = 2; UPDATE queries SET prev_hash = ? WHERE id = 3`, r.Request, r.Hash, r.Hash)
