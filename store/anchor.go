@@ -2,6 +2,8 @@ package store
 
 import (
 	"bufio"
+	"context"
+	"encoding/json"
 	"fmt"
 	"io"
 	"strconv"
@@ -27,6 +29,7 @@ type AnchorResult struct {
 	Status    string `json:"status"`
 	FoundID   int64  `json:"found_id,omitempty"`   // the row that has the hash
 	FoundHash string `json:"found_hash,omitempty"` // the row's hash now, when rewritten
+	from      string // where the anchor was noted, for messages
 }
 
 // ParseAnchors reads anchors: one per line, "ID HASH" or a bare HASH;
@@ -81,10 +84,10 @@ type anchorCheck struct {
 	byHash map[string][]int
 }
 
-func newAnchorCheck(anchors []Anchor) *anchorCheck {
+func newAnchorCheck(anchors []Anchor, from func(i int) string) *anchorCheck {
 	c := &anchorCheck{byID: map[int64][]int{}, byHash: map[string][]int{}}
 	for i, a := range anchors {
-		c.res = append(c.res, AnchorResult{Anchor: a})
+		c.res = append(c.res, AnchorResult{Anchor: a, from: from(i)})
 		if a.ID > 0 {
 			c.byID[a.ID] = append(c.byID[a.ID], i)
 		} else {
@@ -110,6 +113,7 @@ func (c *anchorCheck) row(r *row) {
 
 // finish settles the anchors not seen and returns the first failure.
 func (c *anchorCheck) finish(rep *VerifyReport) (int64, string) {
+	defer func() { rep.Anchors = append(rep.Anchors, c.res...) }()
 	var brokenID int64
 	var problem string
 	for i := range c.res {
@@ -130,19 +134,51 @@ func (c *anchorCheck) finish(rep *VerifyReport) (int64, string) {
 		switch {
 		case a.Status == "rewritten":
 			brokenID = a.ID
-			problem = fmt.Sprintf("row %d: has hash %s, but the anchor noted %s: the row and every row after it were re-hashed after it was noted", a.ID, short(a.FoundHash), short(a.Hash))
+			problem = fmt.Sprintf("row %d: has hash %s, but %s noted %s: the row and every row after it were re-hashed after it was noted", a.ID, short(a.FoundHash), a.from, short(a.Hash))
 		case a.Status == "missing" && a.ID > rep.LastID:
 			brokenID = a.ID
-			problem = fmt.Sprintf("row %d: is noted in an anchor but the log ends at row %d: the newest rows were cut off (and sqlite_sequence rewound)", a.ID, rep.LastID)
+			problem = fmt.Sprintf("row %d: is noted in %s but the log ends at row %d: the newest rows were cut off (and sqlite_sequence rewound)", a.ID, a.from, rep.LastID)
 		case a.Status == "missing" && a.ID > 0:
 			brokenID = a.ID
-			problem = fmt.Sprintf("row %d: is noted in an anchor but is not in the log", a.ID)
+			problem = fmt.Sprintf("row %d: is noted in %s but is not in the log", a.ID, a.from)
 		case a.Status == "missing":
-			problem = fmt.Sprintf("no row has the expected hash %s: the row it named was rewritten, re-hashed or cut off", short(a.Hash))
+			problem = fmt.Sprintf("no row has the hash %s noted in %s: the row it named was rewritten, re-hashed or cut off", short(a.Hash), a.from)
 		}
 	}
-	rep.Anchors = c.res
 	return brokenID, problem
+}
+
+// recordedAnchors are the log heads carried by the digests recorded as
+// sent (schema 3 and later; digests made before heads were carried have
+// none): someone who cuts or rewrites the log must also find and edit
+// these, or Verify notices.
+func recordedAnchors(ctx context.Context, tx queryer, ver int) ([]Anchor, []string, error) {
+	if ver < 3 {
+		return nil, nil, nil
+	}
+	rows, err := tx.QueryContext(ctx, `SELECT slot, body FROM digests WHERE status = 'sent' AND body <> '' ORDER BY slot`)
+	if err != nil {
+		return nil, nil, err
+	}
+	defer rows.Close()
+	var as []Anchor
+	var from []string
+	for rows.Next() {
+		var slot, body string
+		if err := rows.Scan(&slot, &body); err != nil {
+			return nil, nil, err
+		}
+		var d struct {
+			HeadID   int64  `json:"head_id"`
+			HeadHash string `json:"head_hash"`
+		}
+		if json.Unmarshal([]byte(body), &d) != nil || d.HeadID == 0 {
+			continue
+		}
+		as = append(as, Anchor{ID: d.HeadID, Hash: d.HeadHash})
+		from = append(from, "the digest recorded as sent for the shift ending "+slot)
+	}
+	return as, from, rows.Err()
 }
 
 func short(h string) string {

@@ -364,3 +364,35 @@ func TestParseAnchors(t *testing.T) {
 		}
 	}
 }
+
+// TestDigestHeadsChecked: the head each sent digest carried is checked like
+// an anchor, so cutting the tail is caught unless the digest records are
+// found and edited too.
+func TestDigestHeadsChecked(t *testing.T) {
+	ctx := context.Background()
+	c := newClock(t0) // 06:00
+	db, path := mustOpen(t, c.Now)
+	logN(t, db, c, 6) // 06:00 … 06:05
+	c.Set(t0.Add(12 * time.Hour))
+	var sent *Digest
+	s, err := NewScheduler(db, DefaultShifts, time.UTC, PublisherFunc(func(_ context.Context, d *Digest) error { sent = d; return nil }), c.Now)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if n, err := s.RunDue(ctx); err != nil || n != 1 || sent.HeadID != 6 {
+		t.Fatalf("RunDue = %d, %v; digest head %d, want 6", n, err, sent.HeadID)
+	}
+	rep, err := db.Verify(ctx)
+	if err != nil || !rep.OK || rep.DigestAnchors != 1 || len(rep.Anchors) != 0 {
+		t.Fatalf("Verify = %+v, %v; want OK with 1 digest head checked", rep, err)
+	}
+	db.Close()
+	if _, err := rawDB(t, path).Exec(cutTail); err != nil {
+		t.Fatal(err)
+	}
+	rep, _ = VerifyFile(ctx, path)
+	if rep.OK || !strings.Contains(rep.Problem, "row 6: is noted in the digest recorded as sent for the shift ending 2026-12-01T18:00") ||
+		!strings.Contains(rep.Problem, "cut off") {
+		t.Errorf("Verify after cutting the tail = %+v; want the digest's head reported", rep)
+	}
+}

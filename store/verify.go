@@ -40,6 +40,9 @@ type VerifyReport struct {
 	DerivedChecked bool `json:"derived_checked"`
 	// Anchors are the outcomes of the anchors given to Verify.
 	Anchors []AnchorResult `json:"anchors,omitempty"`
+	// DigestAnchors counts the log heads carried by digests recorded as
+	// sent, each checked like an anchor (not listed in Anchors).
+	DigestAnchors int `json:"digest_anchors"`
 	// BrokenID is the first row that fails, with the reason in Problem.
 	BrokenID int64  `json:"broken_id,omitempty"`
 	Problem  string `json:"problem,omitempty"`
@@ -94,8 +97,9 @@ type walk struct {
 	rep     *VerifyReport
 	prev    row
 	first   bool
-	derived *derivedCheck
-	anchors *anchorCheck
+	derived  *derivedCheck
+	anchors  *anchorCheck
+	recorded *anchorCheck // heads carried by recorded digests
 	// derivedID and derivedProblem are the first difference between a
 	// derived table and the rows; the chain is walked to the end first,
 	// since a broken chain is the stronger finding.
@@ -105,12 +109,19 @@ type walk struct {
 
 func verifyTx(ctx context.Context, tx queryer, ver int, key *ChainKey, anchors []Anchor) (VerifyReport, error) {
 	rep := VerifyReport{}
-	w := &walk{ctx: ctx, tx: tx, ver: ver, key: key, rep: &rep, first: true, anchors: newAnchorCheck(anchors)}
+	given := func(int) string { return "an anchor" }
+	w := &walk{ctx: ctx, tx: tx, ver: ver, key: key, rep: &rep, first: true, anchors: newAnchorCheck(anchors, given)}
 	if ok, err := w.readPruneAnchor(); err != nil || !ok {
 		return rep, err
 	}
+	recorded, from, err := recordedAnchors(ctx, tx, ver)
+	if err != nil {
+		return rep, fmt.Errorf("verify: read the digests sent: %w", err)
+	}
+	w.recorded = newAnchorCheck(recorded, func(i int) string { return from[i] })
+	rep.DigestAnchors = len(recorded)
 	var seq int64
-	err := tx.QueryRowContext(ctx, `SELECT seq FROM sqlite_sequence WHERE name = 'queries'`).Scan(&seq)
+	err = tx.QueryRowContext(ctx, `SELECT seq FROM sqlite_sequence WHERE name = 'queries'`).Scan(&seq)
 	if err != nil && !errors.Is(err, sql.ErrNoRows) {
 		return rep, fmt.Errorf("verify: %w", err)
 	}
@@ -121,35 +132,47 @@ func verifyTx(ctx context.Context, tx queryer, ver int, key *ChainKey, anchors [
 	if err := w.walkRows(); err != nil || rep.Problem != "" {
 		return rep, err
 	}
-	if seq > rep.LastID {
-		rep.BrokenID = rep.LastID + 1
-		if rep.Rows == 0 {
-			rep.Problem = fmt.Sprintf("the log is empty but ids up to %d were issued: rows were deleted outside mixward", seq)
-		} else {
-			rep.Problem = fmt.Sprintf("rows after %d are missing: ids up to %d were issued (deleted outside mixward)", rep.LastID, seq)
-		}
-		return rep, nil
-	}
-	if p := w.keyedHeadProblem(); p != "" {
-		rep.BrokenID, rep.Problem = rep.LastID, p
-		return rep, nil
-	}
-	if w.derivedProblem != "" {
-		rep.BrokenID, rep.Problem = w.derivedID, w.derivedProblem
-		return rep, nil
-	}
-	id, p, err := w.derived.finish(rep.LastID)
+	id, p, err := w.finish(seq)
 	if err != nil || p != "" {
 		rep.BrokenID, rep.Problem = id, p
 		return rep, err
 	}
-	rep.DerivedChecked = w.derived.enabled
-	if id, p := w.anchors.finish(&rep); p != "" {
-		rep.BrokenID, rep.Problem = id, p
-		return rep, nil
-	}
 	rep.OK = true
 	return rep, nil
+}
+
+// finish runs the checks that need the whole walk, strongest evidence
+// first: rows missing at the end, the keyed head, the anchors given, the
+// heads recorded by digests, then the derived tables.
+func (w *walk) finish(seq int64) (int64, string, error) {
+	rep := w.rep
+	if seq > rep.LastID {
+		if rep.Rows == 0 {
+			return 1, fmt.Sprintf("the log is empty but ids up to %d were issued: rows were deleted outside mixward", seq), nil
+		}
+		return rep.LastID + 1, fmt.Sprintf("rows after %d are missing: ids up to %d were issued (deleted outside mixward)", rep.LastID, seq), nil
+	}
+	if p := w.keyedHeadProblem(); p != "" {
+		return rep.LastID, p, nil
+	}
+	if id, p := w.anchors.finish(rep); p != "" {
+		return id, p, nil
+	}
+	listed := rep.Anchors
+	id, p := w.recorded.finish(rep)
+	rep.Anchors = listed
+	if p != "" {
+		return id, p, nil
+	}
+	if w.derivedProblem != "" {
+		return w.derivedID, w.derivedProblem, nil
+	}
+	id, p, err := w.derived.finish(rep.LastID)
+	if err != nil || p != "" {
+		return id, p, err
+	}
+	rep.DerivedChecked = w.derived.enabled
+	return 0, "", nil
 }
 
 // readPruneAnchor reads the newest prune record, which holds the anchor the
@@ -211,6 +234,7 @@ func (w *walk) walkRows() error {
 		}
 		rep.LastID, rep.HeadHash = r.ID, r.Hash
 		w.anchors.row(&r)
+		w.recorded.row(&r)
 		w.prev = r
 	}
 	if err := rows.Err(); err != nil {

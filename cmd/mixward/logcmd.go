@@ -299,6 +299,9 @@ func (a *app) printVerifyText(rep store.VerifyReport, what string) {
 	if rep.DerivedChecked {
 		fmt.Fprintln(w, "derived tables (hazard rows, search index, search state) match the rows")
 	}
+	if rep.DigestAnchors > 0 {
+		fmt.Fprintf(w, "the log heads carried by %d digests sent are on the chain\n", rep.DigestAnchors)
+	}
 	for _, an := range rep.Anchors {
 		switch an.Status {
 		case "ok":
