@@ -51,6 +51,8 @@ type Query struct {
 
 	Hash     string `json:"hash"`      // set by LogQuery
 	PrevHash string `json:"prev_hash"` // set by LogQuery
+	Chain    string `json:"chain"`     // ChainPlain or ChainKeyed; set by LogQuery
+	KeyID    string `json:"key_id"`    // the key's id when keyed; set by LogQuery
 }
 
 // The verdicts a query can carry.
@@ -127,7 +129,7 @@ func (db *DB) LogQuery(ctx context.Context, q *Query) (int64, error) {
 	if err := tx.Commit(); err != nil {
 		return 0, fmt.Errorf("log query: commit: %w", err)
 	}
-	q.ID, q.Hash, q.PrevHash = r.ID, r.Hash, r.PrevHash
+	q.ID, q.Hash, q.PrevHash, q.Chain, q.KeyID = r.ID, r.Hash, r.PrevHash, r.Chain, r.KeyID
 	return r.ID, nil
 }
 
@@ -329,7 +331,7 @@ func decodeQuery(r *row) (*Query, error) {
 		ID: r.ID, Time: t, UserID: r.UserID, UserName: r.UserName, Channel: r.Channel, EventID: r.EventID,
 		Request: r.Request, Resolved: r.Resolved, Verdict: r.Verdict, Error: r.Error,
 		Oxidizer: r.Oxidizer, Reducer: r.Reducer, EngineVersion: r.EngineVersion, DataHash: r.DataHash,
-		Hash: r.Hash, PrevHash: r.PrevHash,
+		Hash: r.Hash, PrevHash: r.PrevHash, Chain: r.Chain, KeyID: r.KeyID,
 	}
 	if r.ECellV.Valid {
 		q.ECellV = &r.ECellV.Float64

@@ -130,7 +130,7 @@ func (a *app) cmdAsk(ctx context.Context, args []string) error {
 	if *format == "json" {
 		return writeJSON(a.stdout, res)
 	}
-	_, err = io.WriteString(a.stdout, engine.RenderText(res))
+	_, err = io.WriteString(a.stdout, safeLines(engine.RenderText(res)))
 	return err
 }
 

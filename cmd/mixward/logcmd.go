@@ -443,7 +443,7 @@ type queryCSV struct {
 
 var csvHeader = []string{"id", "kind", "time", "user_id", "user_name", "channel", "event_id", "request", "resolved",
 	"verdict", "error", "species", "oxidizer", "reducer", "e_cell_v", "e_cell_standard_v", "hazards", "streams",
-	"engine_version", "data_hash", "prev_hash", "hash"}
+	"engine_version", "data_hash", "prev_hash", "hash", "chain", "key_id"}
 
 func newQueryCSV(w io.Writer, export bool) *queryCSV {
 	c := &queryCSV{w: csv.NewWriter(w), export: export}
@@ -479,7 +479,7 @@ func (c *queryCSV) write(kind string, q *store.Query) {
 	c.w.Write([]string{strconv.FormatInt(q.ID, 10), kind, q.Time.UTC().Format(time.RFC3339Nano), s(q.UserID), s(q.UserName),
 		s(q.Channel), s(q.EventID), s(q.Request), s(q.Resolved), q.Verdict, s(q.Error), s(strings.Join(q.Species, "; ")), s(q.Oxidizer),
 		s(q.Reducer), f(q.ECellV), f(q.ECellStandardV), s(strings.Join(hz, "; ")), s(strings.Join(q.Streams, "; ")),
-		s(q.EngineVersion), s(q.DataHash), q.PrevHash, q.Hash})
+		s(q.EngineVersion), s(q.DataHash), q.PrevHash, q.Hash, q.Chain, q.KeyID})
 	c.n++
 }
 
@@ -661,6 +661,9 @@ data hash, its hashes, and whether the answer was posted.`)
 	row("engine", strings.TrimSpace(q.EngineVersion+"  data "+q.DataHash))
 	row("hash", q.Hash)
 	row("prev hash", orDash(q.PrevHash, "(first row)"))
+	if q.Chain == store.ChainKeyed {
+		row("chain", "keyed, HMAC-SHA256 (key id "+q.KeyID+")")
+	}
 	if len(ds) == 0 {
 		row("posted", "no delivery recorded")
 	}

@@ -1,6 +1,10 @@
 package main
 
-import "mixward/store"
+import (
+	"strings"
+
+	"mixward/store"
+)
 
 // safe returns stored or echoed text (a request, a user name, a note, an
 // error that quotes input) ready to print on a terminal or in a CSV cell:
@@ -14,3 +18,14 @@ func safe(s string) string { return store.Printable(s) }
 
 // safeCut is cut (one line, at most n runes) made safe to print.
 func safeCut(s string, n int) string { return safe(cut(s, n)) }
+
+// safeLines is safe for multi-line text (a rendered answer, which echoes
+// the request and the tags it resolved): each line is escaped, the line
+// breaks kept.
+func safeLines(s string) string {
+	lines := strings.Split(s, "\n")
+	for i, l := range lines {
+		lines[i] = safe(l)
+	}
+	return strings.Join(lines, "\n")
+}
