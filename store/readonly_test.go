@@ -111,3 +111,52 @@ func TestReadOnlyImmutable(t *testing.T) {
 		t.Errorf("immutable read left %d files beside the database", len(es)-1)
 	}
 }
+
+// TestReadOnlySearchSeesUnindexedRows: rows the live writer has not yet
+// indexed (it indexes in batches) are found by a read-only search, which
+// indexes them in a temporary table, and paging runs across both.
+func TestReadOnlySearchSeesUnindexedRows(t *testing.T) {
+	ctx := context.Background()
+	c := newClock(t0)
+	db, path := mustOpen(t, c.Now)
+	n := indexBatch + 6
+	logN(t, db, c, n) // the writer stays open: 6 rows wait for the index
+	var done int64
+	rawDB(t, path).QueryRow(`SELECT indexed_upto FROM search_state`).Scan(&done)
+	if done != int64(indexBatch) {
+		t.Fatalf("indexed_upto = %d, want %d (the test needs unindexed rows)", done, indexBatch)
+	}
+	ro, err := OpenReadOnly(ctx, path, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer ro.Close()
+	var got []int64
+	for off := 0; ; {
+		page, err := ro.Search(ctx, SearchOptions{Terms: "HCl chlorine", Limit: 4, Offset: off})
+		if err != nil {
+			t.Fatal(err)
+		}
+		got = append(got, ids(page.Queries)...)
+		if !page.HasMore {
+			break
+		}
+		off = page.NextOffset
+	}
+	if len(got) != n || got[0] != int64(n) || got[n-1] != 1 {
+		t.Fatalf("read-only search pages = %d ids %v…; want %d to 1", len(got), got[:min(len(got), 8)], n)
+	}
+	for i := 1; i < len(got); i++ {
+		if got[i] != got[i-1]-1 {
+			t.Fatalf("ids out of order or repeated at %d: %v", i, got)
+		}
+	}
+	page, err := ro.Search(ctx, SearchOptions{Terms: "T-170", Hazard: "CL2-GAS"})
+	if err != nil || len(page.Queries) != 1 || page.Queries[0].ID != 70 {
+		t.Errorf("read-only search of an unindexed row = %v, %v; want row 70", ids(page.Queries), err)
+	}
+	rawDB(t, path).QueryRow(`SELECT indexed_upto FROM search_state`).Scan(&done)
+	if done != int64(indexBatch) {
+		t.Errorf("a read-only search moved indexed_upto to %d", done)
+	}
+}

@@ -21,16 +21,20 @@ func (a *app) askOnce(ctx context.Context, eng *engine.Engine, o *storeOpts, tex
 			res, askErr = eng.Ask(text, engine.AskOptions{})
 			return res, 0, askErr, nil
 		}
+		// Only the catalogue is read: the file is not changed or upgraded.
+		db, _, err := openReadDB(ctx, a, o, true)
+		if err != nil {
+			return nil, 0, nil, err
+		}
+		defer db.Close()
+		res, askErr = eng.Ask(text, engine.AskOptions{Resolve: catalogueResolver(ctx, db)})
+		return res, 0, askErr, nil
 	}
 	db, loc, err := openDB(ctx, a, o)
 	if err != nil {
 		return nil, 0, nil, err
 	}
 	defer db.Close()
-	if noLog {
-		res, askErr = eng.Ask(text, engine.AskOptions{Resolve: catalogueResolver(ctx, db)})
-		return res, 0, askErr, nil
-	}
 	b := &bot.Bot{
 		Engine: eng, Log: db, Catalogue: db, Location: loc,
 		EngineVersion: engine.Version, DataHash: eng.Tables.Hash,
