@@ -90,13 +90,13 @@ type queryer interface {
 
 // walk is the state of one verification.
 type walk struct {
-	ctx     context.Context
-	tx      queryer
-	ver     int
-	key     *ChainKey
-	rep     *VerifyReport
-	prev    row
-	first   bool
+	ctx      context.Context
+	tx       queryer
+	ver      int
+	key      *ChainKey
+	rep      *VerifyReport
+	prev     row
+	first    bool
 	derived  *derivedCheck
 	anchors  *anchorCheck
 	recorded *anchorCheck // heads carried by recorded digests
