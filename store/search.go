@@ -84,26 +84,30 @@ func (db *DB) Search(ctx context.Context, o SearchOptions) (SearchPage, error) {
 	defer tx.Rollback()
 	where, args := searchFilters(o)
 	cols := "q." + strings.ReplaceAll(strings.ReplaceAll(rowColumns, "\n\t", " "), ", ", ", q.")
-	var stmt string
 	if len(phrases) == 0 {
-		stmt = `SELECT ` + cols + ` FROM queries q WHERE ` + strings.Join(where, " AND ") +
+		stmt := `SELECT ` + cols + ` FROM queries q WHERE ` + strings.Join(where, " AND ") +
 			` ORDER BY q.id DESC LIMIT ? OFFSET ?`
-		args = append(args, page.Limit+1, page.Offset)
-		return page, readPage(ctx, tx, &page, stmt, args)
+		err = readPage(ctx, tx, &page, stmt, append(args, page.Limit+1, page.Offset))
+	} else {
+		err = db.searchTerms(ctx, tx, o, &page, cols, where, args)
 	}
+	return page, err
+}
+
+// searchTerms fills page with the queries matching o's phrases (page.Phrases)
+// and the filters where/args.
+func (db *DB) searchTerms(ctx context.Context, tx *sql.Tx, o SearchOptions, page *SearchPage, cols string, where []string, args []any) error {
 	// The index drives (CROSS JOIN keeps it outermost) newest first, so
 	// the scan stops once the page is full. The time window also bounds
 	// the docids (ids grow with time; min/max keep it exact even if they
 	// did not).
 	lo, hi, empty, err := idRange(ctx, tx, o.Since, o.Until)
-	if err != nil {
-		return page, fmt.Errorf("search: %w", err)
+	if err != nil || empty {
+		return err
 	}
-	if empty {
-		return page, nil
-	}
+	match := MatchExpr(page.Phrases)
 	fts := []string{`f.query_fts MATCH ?`}
-	ftsArgs := []any{MatchExpr(phrases)}
+	ftsArgs := []any{match}
 	if lo > 0 {
 		fts = append(fts, `f.docid >= ?`)
 		ftsArgs = append(ftsArgs, lo)
@@ -116,9 +120,9 @@ func (db *DB) Search(ctx context.Context, o SearchOptions) (SearchPage, error) {
 	if db.ro {
 		// Nothing may be written: rows logged after the last indexing
 		// (at most a batch) are indexed in a temporary table instead.
-		tail, done, err := searchTail(ctx, tx, cols, where, args, MatchExpr(phrases))
+		tail, done, err := searchTail(ctx, tx, cols, where, args, match)
 		if err != nil {
-			return page, fmt.Errorf("search: %w", err)
+			return fmt.Errorf("search: %w", err)
 		}
 		fts = append(fts, `f.docid <= ?`)
 		ftsArgs = append(ftsArgs, done)
@@ -128,10 +132,10 @@ func (db *DB) Search(ctx context.Context, o SearchOptions) (SearchPage, error) {
 		offset = max(offset-len(tail), 0)
 	}
 	args = append(ftsArgs, args...)
-	stmt = `SELECT ` + cols + ` FROM query_fts f CROSS JOIN queries q ON q.id = f.docid WHERE ` +
+	stmt := `SELECT ` + cols + ` FROM query_fts f CROSS JOIN queries q ON q.id = f.docid WHERE ` +
 		strings.Join(append(fts, where...), " AND ") + ` ORDER BY f.docid DESC LIMIT ? OFFSET ?`
 	args = append(args, page.Limit+1-len(page.Queries), offset)
-	return page, readPage(ctx, tx, &page, stmt, args)
+	return readPage(ctx, tx, page, stmt, args)
 }
 
 // searchFilters turns the filters of o other than the terms into SQL over
