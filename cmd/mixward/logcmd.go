@@ -321,8 +321,10 @@ the request (as typed or with stream tags resolved), its species, or its
 hazard codes and messages; text in double quotes must appear as a phrase.
 Case and accents are ignored and punctuation splits words, so "Fe^2+" finds
 Fe 2+. Every character is literal: AND, OR, NOT, NEAR, *, -, parentheses
-and quotes are never operators. The terms may be left out to list by the
-filters alone.
+and quotes are never operators. At most 64 different terms (a quoted phrase
+counts as one) of 256 words in all; more is refused (exit 2). The terms may
+be left out to list by the filters alone. A first term starting with - needs
+-- before it: mixward log search -- -40 L. The file is only read.
 
 `+dateHelp)
 	o := storeFlags(a, fs)
@@ -625,13 +627,19 @@ data hash, its hashes, and whether the answer was posted.`)
 			Deliveries []store.Delivery `json:"deliveries"`
 		}{q, ds})
 	}
-	tw := tabwriter.NewWriter(a.stdout, 0, 4, 2, ' ', 0)
+	return printQuery(a.stdout, q, ds, loc)
+}
+
+// printQuery writes one query in full for people, every stored text made
+// safe to print.
+func printQuery(w io.Writer, q *store.Query, ds []store.Delivery, loc *time.Location) error {
+	tw := tabwriter.NewWriter(w, 0, 4, 2, ' ', 0)
 	row := func(k, v string) {
 		if v != "" {
 			fmt.Fprintf(tw, "%s\t%s\n", k, safe(v))
 		}
 	}
-	fmt.Fprintf(a.stdout, "Query %d\n", q.ID)
+	fmt.Fprintf(w, "Query %d\n", q.ID)
 	row("time", local(q.Time, loc)+"  ("+q.Time.Format(time.RFC3339Nano)+")")
 	row("who", orDash(q.UserName, q.UserID)+" "+paren(q.UserID, q.UserName))
 	row("where", q.Channel)
