@@ -245,3 +245,37 @@ func (d *derivedCheck) compareWordCounts() (string, error) {
 	}
 	return "", nil
 }
+
+// RebuildDerived rebuilds every derived table from the hashed rows, in one
+// transaction: the hazard rows, the search index and the search state. Use
+// it after Verify reported a derived table that differs from the rows (keep
+// a copy of the file as evidence first); it changes no chained row.
+func (db *DB) RebuildDerived(ctx context.Context) error {
+	if err := db.writable("rebuild derived tables"); err != nil {
+		return err
+	}
+	tx, err := db.w.BeginTx(ctx, nil)
+	if err != nil {
+		return fmt.Errorf("rebuild derived tables: %w", err)
+	}
+	defer tx.Rollback()
+	for _, s := range []string{
+		`DELETE FROM query_hazards`,
+		`INSERT INTO query_hazards (query_id, pos, code, severity, message)
+		 SELECT q.id, j.key, json_extract(j.value, '$.code'), json_extract(j.value, '$.severity'), json_extract(j.value, '$.message')
+		   FROM queries q, json_each(q.hazards) j ORDER BY q.id, j.key`,
+		`DELETE FROM query_fts`,
+		`INSERT INTO query_fts (docid, request, species, hazards) SELECT ` + ftsDocColumns + ` FROM queries q WHERE q.kind = 'query' ORDER BY q.id`,
+		`INSERT INTO query_fts (query_fts) VALUES ('optimize')`,
+		`UPDATE search_state SET indexed_upto = coalesce((SELECT max(id) FROM queries), 0),
+		    time_order_broken = EXISTS (SELECT 1 FROM queries a JOIN queries b ON b.id = a.id + 1 WHERE b.time < a.time)`,
+	} {
+		if _, err := tx.ExecContext(ctx, s); err != nil {
+			return fmt.Errorf("rebuild derived tables: %w", err)
+		}
+	}
+	if err := tx.Commit(); err != nil {
+		return fmt.Errorf("rebuild derived tables: %w", err)
+	}
+	return nil
+}

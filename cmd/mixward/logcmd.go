@@ -126,6 +126,7 @@ commands:
   backup <file>        copy the live log with SQLite's online backup, then verify the copy
   restore <file>       replace the log with a verified backup
   migrate              upgrade the file to this mixward's schema (back it up first)
+  reindex              rebuild the hazard rows and the search index from the hashed rows
 
 verify, search, export, show and backup only read the file: they never
 create, upgrade or change it, and fail on a path where no log exists.
@@ -158,6 +159,8 @@ func (a *app) cmdLog(ctx context.Context, args []string) error {
 		return a.logRestore(ctx, args[1:])
 	case "migrate":
 		return a.logMigrate(ctx, args[1:])
+	case "reindex":
+		return a.logReindex(ctx, args[1:])
 	case "-h", "-help", "--help", "help":
 		fmt.Fprint(a.stdout, logUsage)
 		return nil
@@ -885,4 +888,37 @@ themselves when they start.`)
 	}
 	fmt.Fprintf(a.stdout, "Upgraded %s from schema version %d to %d.\n", safe(o.db), from, to)
 	return nil
+}
+
+// --- reindex ----------------------------------------------------------------
+
+func (a *app) logReindex(ctx context.Context, args []string) error {
+	fs := subFlags(a, "log reindex", "log reindex [--db FILE]", `
+Rebuild the tables derived from the hashed rows (the per-hazard rows, the
+search index and its state) from those rows, then verify. Use it when
+'log verify' reports that a derived table differs from the rows, after
+keeping a copy of the file as evidence ('mixward log backup'). No hashed
+row is changed, so a broken chain stays broken.`)
+	o := storeFlags(a, fs)
+	pos, err := parseFlags(fs, args)
+	if err != nil {
+		return err
+	}
+	if err := noArgs(pos, "log reindex"); err != nil {
+		return err
+	}
+	db, _, err := openDB(ctx, a, o)
+	if err != nil {
+		return err
+	}
+	defer db.Close()
+	if err := db.RebuildDerived(ctx); err != nil {
+		return err
+	}
+	fmt.Fprintf(a.stdout, "Rebuilt the hazard rows and the search index of %s from the hashed rows.\n", safe(o.db))
+	rep, err := db.Verify(ctx)
+	if err != nil {
+		return err
+	}
+	return a.printVerify(rep, "text", o.db)
 }

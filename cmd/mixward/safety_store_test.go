@@ -363,3 +363,20 @@ func TestKeyedChainCLI(t *testing.T) {
 }
 
 func jsonUnmarshal(s string, v any) error { return json.Unmarshal([]byte(s), v) }
+
+func TestLogReindexCLI(t *testing.T) {
+	env, path := storeEnv(t)
+	seedLog(t, path)
+	sqlExec(t, path, `DELETE FROM query_hazards WHERE severity = 'danger'; DELETE FROM query_fts WHERE docid = 3`)
+	code, out, _ := storeCLI(t, env, "log", "verify")
+	if code != exitFail || !strings.Contains(out, "CL2-GAS") {
+		t.Fatalf("verify after deleting derived rows: %d\n%s", code, out)
+	}
+	code, out, errOut := storeCLI(t, env, "log", "reindex")
+	if code != 0 || !strings.Contains(out, "Rebuilt") || !strings.Contains(out, "chain intact: 4 rows") {
+		t.Fatalf("log reindex: %d\n%s%s", code, out, errOut)
+	}
+	if code, out, _ := storeCLI(t, env, "log", "search", "CuSO4"); code != 0 || !strings.Contains(out, "Matches 1–1") {
+		t.Errorf("search after reindex: %d\n%s", code, out)
+	}
+}
