@@ -125,10 +125,11 @@ func verifyTx(ctx context.Context, tx queryer, ver int, key *ChainKey, anchors [
 	if err != nil && !errors.Is(err, sql.ErrNoRows) {
 		return rep, fmt.Errorf("verify: %w", err)
 	}
-	if w.derived, err = newDerivedCheck(ctx, tx, ver); err != nil {
+	w.derived, err = newDerivedCheck(ctx, tx, ver)
+	defer w.derived.close() // also the cursors opened before an error
+	if err != nil {
 		return rep, fmt.Errorf("verify: %w", err)
 	}
-	defer w.derived.close()
 	if err := w.walkRows(); err != nil || rep.Problem != "" {
 		return rep, err
 	}

@@ -266,7 +266,7 @@ usage:
   mixward table                   list the half-reaction table (--format text|json)
   mixward plot "<request>" -o mix.png   draw the E–pH picture of the predicted couples
   mixward streams set|list|show|rm      the site stream catalogue (tags such as T-101)
-  mixward log verify|search|show|export|prune|backup|restore|migrate   the query log
+  mixward log verify|search|show|export|prune|backup|restore|migrate|reindex   the query log
   mixward digest                  shift digest (--since, --until, --format text|json)
   mixward console                 the local console, reading stdin
   mixward serve                   the Slack bot (Socket Mode, or --http ADDR for the Events API)
