@@ -31,9 +31,11 @@ type siteFlags struct {
 	db     string
 	tz     string
 	shifts string
+	getenv func(string) string // for MIXWARD_CHAIN_KEY_FILE
 }
 
 func (s *siteFlags) register(fs *flag.FlagSet, getenv func(string) string) {
+	s.getenv = getenv
 	fs.StringVar(&s.db, "db", envOr(getenv, "MIXWARD_DB", "mixward.db"), "SQLite query log and stream catalogue (env MIXWARD_DB)")
 	fs.StringVar(&s.tz, "tz", getenv("MIXWARD_TZ"), "site time zone for digests and dates, e.g. Europe/London; empty means UTC (env MIXWARD_TZ)")
 	fs.StringVar(&s.shifts, "shifts", envOr(getenv, "MIXWARD_SHIFTS", store.DefaultShifts), "shift changes as a 5-field cron spec in the site zone; a digest is made at each (env MIXWARD_SHIFTS)")
@@ -71,7 +73,11 @@ func openSite(ctx context.Context, s siteFlags) (*site, error) {
 	if err != nil {
 		return nil, err
 	}
-	db, err := store.Open(ctx, s.db, store.Options{Location: loc})
+	key, err := chainKey(s.getenv)
+	if err != nil {
+		return nil, err
+	}
+	db, err := store.Open(ctx, s.db, store.Options{Location: loc, ChainKey: key})
 	if err != nil {
 		return nil, err
 	}
