@@ -3,23 +3,32 @@ package bot
 import (
 	"context"
 	"errors"
+	"hash/maphash"
 	"sync"
+	"sync/atomic"
 )
 
 // ErrClosed is returned by Submit once the queue has begun shutting down.
 var ErrClosed = errors.New("bot: queue closed, not accepting new work")
 
-// Queue runs jobs with one worker per key: jobs with the same key (a Slack
-// thread) run one after another in submission order, jobs with different
-// keys run concurrently. At most Capacity jobs wait or run at once; Submit
-// blocks when the queue is full (backpressure) and never drops a job.
-type Queue struct {
-	slots chan struct{} // one token per accepted, unfinished job
+// DefaultWorkers is the number of answer workers NewQueue starts.
+const DefaultWorkers = 32
 
-	mu      sync.Mutex
-	keys    map[string][]func(context.Context)
-	closed  bool
-	pending sync.WaitGroup
+// Queue runs jobs on a fixed pool of workers. A job's key picks its worker
+// (a hash of the key), so jobs with the same key (a Slack channel) run one
+// after another in submission order, and at most Workers jobs run at once
+// however many keys are busy. At most Capacity jobs wait or run at once;
+// Submit blocks when the queue is full (back-pressure) and never drops a
+// job. A worker serves its keys in turn: a job that waits (a channel held
+// by Slack's rate limit) delays the other keys of that worker only.
+type Queue struct {
+	slots  chan struct{}    // one token per accepted, unfinished job
+	shards []chan queuedJob // one per worker; each can hold Capacity jobs
+	seed   maphash.Seed
+	closed atomic.Bool
+
+	mu      sync.Mutex // orders Submit against Close, and depth reports
+	workers sync.WaitGroup
 
 	work   context.Context // handed to jobs; cancelled only when draining times out
 	cancel context.CancelFunc
@@ -27,37 +36,56 @@ type Queue struct {
 	onDepth func(int) // called with the number of unfinished jobs after each change
 
 	// OnPanic, if set, is told about a job that panicked; the worker
-	// carries on with the next job of its key.
+	// carries on with its next job.
 	OnPanic func(key string, v any)
 }
 
-// NewQueue returns a queue holding at most capacity unfinished jobs.
-// onDepth, if not nil, is told the depth after every change.
+type queuedJob struct {
+	key string
+	run func(context.Context)
+}
+
+// NewQueue returns a queue of DefaultWorkers workers holding at most
+// capacity unfinished jobs. onDepth, if not nil, is told the depth after
+// every change.
 func NewQueue(capacity int, onDepth func(int)) *Queue {
-	if capacity < 1 {
-		capacity = 1
-	}
+	return NewPool(DefaultWorkers, capacity, onDepth)
+}
+
+// NewPool returns a queue of workers workers holding at most capacity
+// unfinished jobs.
+func NewPool(workers, capacity int, onDepth func(int)) *Queue {
+	workers, capacity = max(workers, 1), max(capacity, 1)
 	work, cancel := context.WithCancel(context.Background())
-	return &Queue{
+	q := &Queue{
 		slots:   make(chan struct{}, capacity),
-		keys:    map[string][]func(context.Context){},
+		shards:  make([]chan queuedJob, workers),
+		seed:    maphash.MakeSeed(),
 		work:    work,
 		cancel:  cancel,
 		onDepth: onDepth,
 	}
+	for i := range q.shards {
+		q.shards[i] = make(chan queuedJob, capacity)
+		q.workers.Go(func() { q.run(q.shards[i]) })
+	}
+	return q
 }
 
 // Depth is the number of jobs accepted and not yet finished.
 func (q *Queue) Depth() int { return len(q.slots) }
 
+// Capacity is the most jobs the queue holds at once.
+func (q *Queue) Capacity() int { return cap(q.slots) }
+
+// Workers is the number of workers.
+func (q *Queue) Workers() int { return len(q.shards) }
+
 // Submit adds a job under key. It blocks while the queue is full, until ctx
 // ends (returning ctx's error; the job is then not queued) or the queue
 // closes (ErrClosed).
 func (q *Queue) Submit(ctx context.Context, key string, job func(context.Context)) error {
-	q.mu.Lock()
-	closed := q.closed
-	q.mu.Unlock()
-	if closed {
+	if q.closed.Load() {
 		return ErrClosed
 	}
 	select {
@@ -66,56 +94,43 @@ func (q *Queue) Submit(ctx context.Context, key string, job func(context.Context
 		return ctx.Err()
 	}
 	q.mu.Lock()
-	if q.closed {
-		q.mu.Unlock()
+	defer q.mu.Unlock()
+	if q.closed.Load() {
 		<-q.slots
 		return ErrClosed
 	}
-	q.pending.Add(1)
-	waiting, running := q.keys[key]
-	q.keys[key] = append(waiting, job)
+	// Never blocks: each shard holds Capacity jobs and a slot is held.
+	q.shards[q.shardOf(key)] <- queuedJob{key, job}
 	q.depthChanged()
-	q.mu.Unlock()
-	if !running {
-		go q.run(key)
-	}
 	return nil
 }
 
-// run is the worker for one key: it takes that key's jobs in order until
-// none is left, then exits.
-func (q *Queue) run(key string) {
-	for {
-		q.mu.Lock()
-		jobs := q.keys[key]
-		if len(jobs) == 0 {
-			delete(q.keys, key)
-			q.mu.Unlock()
-			return
-		}
-		job := jobs[0]
-		jobs[0] = nil
-		q.keys[key] = jobs[1:]
-		q.mu.Unlock()
+// shardOf is the worker that runs key's jobs.
+func (q *Queue) shardOf(key string) int {
+	return int(maphash.String(q.seed, key) % uint64(len(q.shards)))
+}
 
-		q.runOne(key, job)
+// run is one worker: it takes its shard's jobs in order until the shard is
+// closed and empty.
+func (q *Queue) run(shard chan queuedJob) {
+	for j := range shard {
+		q.runOne(j)
 		q.mu.Lock()
 		<-q.slots
 		q.depthChanged()
 		q.mu.Unlock()
-		q.pending.Done()
 	}
 }
 
-func (q *Queue) runOne(key string, job func(context.Context)) {
+func (q *Queue) runOne(j queuedJob) {
 	defer func() {
-		// A panicking job must not take the worker (and the rest of its
-		// thread) down with it.
+		// A panicking job must not take the worker (and the keys it
+		// serves) down with it.
 		if v := recover(); v != nil && q.OnPanic != nil {
-			q.OnPanic(key, v)
+			q.OnPanic(j.key, v)
 		}
 	}()
-	job(q.work)
+	j.run(q.work)
 }
 
 // depthChanged reports the depth; called with q.mu held so that reports
@@ -127,14 +142,19 @@ func (q *Queue) depthChanged() {
 }
 
 // Close stops accepting jobs and waits for every accepted job to finish.
-// If ctx ends first, the jobs' context is cancelled (so retries stop) and
-// Close returns ctx's error after the workers have returned.
+// If ctx ends first, the jobs' context is cancelled (jobs still waiting then
+// run with it, and should give up at once) and Close returns ctx's error
+// after the workers have returned.
 func (q *Queue) Close(ctx context.Context) error {
 	q.mu.Lock()
-	q.closed = true
+	if !q.closed.Swap(true) {
+		for _, s := range q.shards {
+			close(s)
+		}
+	}
 	q.mu.Unlock()
 	done := make(chan struct{})
-	go func() { q.pending.Wait(); close(done) }()
+	go func() { q.workers.Wait(); close(done) }()
 	select {
 	case <-done:
 		q.cancel()
