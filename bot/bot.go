@@ -91,6 +91,7 @@ type Reply struct {
 	Result    *engine.Result // the mix answer, for the picture; nil otherwise
 	QueryID   int64          // id in the query log; 0 when nothing was logged
 	Duplicate bool           // the event was already answered: post nothing
+	Again     bool           // the query was logged before under this event id and may have been posted
 	Private   bool           // in a channel, show only to the person who asked (search results)
 }
 
@@ -268,6 +269,7 @@ func (b *Bot) answeredBefore(ctx context.Context, id int64) bool {
 // mix answers a mix request: engine, then log, then reply.
 func (b *Bot) mix(ctx context.Context, in Incoming, text string) Reply {
 	res, id, askErr, err := b.Record(ctx, in, text)
+	again := false
 	var pe *engine.ParseError
 	errors.As(askErr, &pe)
 	if errors.Is(err, store.ErrDuplicate) {
@@ -276,6 +278,7 @@ func (b *Bot) mix(ctx context.Context, in Incoming, text string) Reply {
 			// Slack was down): this redelivery is the chance to answer.
 			b.logger().Info("redelivery of a logged but unanswered query: answering now", "event_id", in.EventID, "query_id", id)
 			err = nil
+			again = true
 		} else {
 			b.Metrics.duplicate()
 			b.logger().Info("duplicate delivery not answered again", "event_id", in.EventID, "query_id", id)
@@ -289,16 +292,19 @@ func (b *Bot) mix(ctx context.Context, in Incoming, text string) Reply {
 			"Please try again in a minute; if it keeps happening, tell whoever runs mixward on site."}
 	}
 
+	var r Reply
 	switch {
 	case res != nil:
-		return Reply{Kind: KindMix, Text: b.render(res), Blocks: ResultBlocks(res, id), Result: res, QueryID: id}
+		r = Reply{Kind: KindMix, Text: b.render(res), Blocks: ResultBlocks(res, id), Result: res, QueryID: id}
 	case pe != nil:
 		b.Metrics.failed("request")
-		return parseErrorReply(text, pe, id)
+		r = parseErrorReply(text, pe, id)
 	default:
-		return Reply{Kind: KindMix, QueryID: id, Text: fmt.Sprintf("Something went wrong on my side while working out this request, so I have no answer for it. "+
+		r = Reply{Kind: KindMix, QueryID: id, Text: fmt.Sprintf("Something went wrong on my side while working out this request, so I have no answer for it. "+
 			"It is logged as query #%d; please tell whoever runs mixward on site.", id)}
 	}
+	r.Again = again
+	return r
 }
 
 // ask calls the engine, turning a panic into an error so one bad request

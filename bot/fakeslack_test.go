@@ -384,6 +384,21 @@ func (f *fakeSlack) uploadsNow() []fakeUpload {
 	return append([]fakeUpload(nil), f.uploads...)
 }
 
+// waitUploads waits until at least n files were uploaded and returns them.
+func (f *fakeSlack) waitUploads(n int) []fakeUpload {
+	f.t.Helper()
+	deadline := time.Now().Add(20 * time.Second)
+	for {
+		if got := f.uploadsNow(); len(got) >= n {
+			return got
+		}
+		if time.Now().After(deadline) {
+			f.t.Fatalf("fake slack: %d files uploaded, want %d", len(f.uploadsNow()), n)
+		}
+		time.Sleep(5 * time.Millisecond)
+	}
+}
+
 func (f *fakeSlack) callCount(method string) int {
 	f.mu.Lock()
 	defer f.mu.Unlock()
