@@ -12,6 +12,7 @@ package bot
 
 import (
 	"context"
+	"crypto/sha256"
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -20,6 +21,7 @@ import (
 	"strings"
 	"sync"
 	"time"
+	"unicode/utf8"
 
 	"github.com/slack-go/slack"
 
@@ -73,6 +75,15 @@ type Incoming struct {
 	Command     string // "/mixward" when it came as a slash command
 	ResponseURL string
 	Received    time.Time
+
+	// FullBytes and FullSHA256 describe the whole message when the
+	// transport kept only its start in Text (a console line over 1 MiB);
+	// zero and "" when Text is the whole message.
+	FullBytes  int
+	FullSHA256 string
+	// PrevEventID is the id the same slash command (without trigger_id)
+	// had in the previous time slot; a message seen under it is a replay.
+	PrevEventID string
 }
 
 // Key is the ordering key: replies with the same key are posted in order.
@@ -142,6 +153,10 @@ func (b *Bot) logger() *slog.Logger {
 // Answer works out the reply to one message. It never fails: every problem
 // becomes text for the person who asked, and internals go to the log only.
 func (b *Bot) Answer(ctx context.Context, in Incoming) Reply {
+	if in.FullBytes > MaxRequestBytes || len(in.Text) > MaxRequestBytes {
+		b.Metrics.request(in.Transport, string(KindMix))
+		return b.oversize(ctx, in)
+	}
 	cmd, err := ParseCommand(in.Text, b.loc())
 	b.Metrics.request(in.Transport, string(cmd.Kind))
 	if err != nil {
@@ -158,6 +173,60 @@ func (b *Bot) Answer(ctx context.Context, in Incoming) Reply {
 		return b.digest(ctx, in, cmd.Hours)
 	}
 	return b.mix(ctx, in, cmd.Text)
+}
+
+// MaxRequestBytes is the longest message the bot works out, in bytes (the
+// engine's own limit on a request; chat messages are far shorter).
+const MaxRequestBytes = 4000
+
+// oversize answers a message over MaxRequestBytes: it is logged cut to the
+// limit, with its full length and SHA-256, and the answer names the limit
+// without echoing the message.
+func (b *Bot) oversize(ctx context.Context, in Incoming) Reply {
+	n, sum := in.FullBytes, in.FullSHA256
+	if sum == "" {
+		n, sum = len(in.Text), fmt.Sprintf("%x", sha256.Sum256([]byte(in.Text)))
+	}
+	kept := cutUTF8(in.Text, MaxRequestBytes)
+	q := &store.Query{
+		Time: b.now(), UserID: in.UserID, UserName: in.UserName, Channel: in.Channel, EventID: in.EventID,
+		Request: kept, Verdict: store.VerdictError, EngineVersion: b.EngineVersion, DataHash: b.DataHash,
+		Error: fmt.Sprintf("request of %d bytes is over the %d-byte limit; stored cut to its first %d bytes; SHA-256 of the whole request: %s",
+			n, MaxRequestBytes, len(kept), sum),
+	}
+	b.Metrics.failed("request")
+	b.Metrics.verdict(q.Verdict)
+	id, err := b.logQuery(ctx, q)
+	again := false
+	if errors.Is(err, store.ErrDuplicate) {
+		if b.answeredBefore(ctx, id) {
+			b.Metrics.duplicate()
+			return Reply{Kind: KindMix, QueryID: id, Duplicate: true}
+		}
+		err, again = nil, true
+	}
+	logged := ""
+	if err != nil {
+		b.Metrics.failed("log")
+		b.logger().Error("oversized request not logged", "event_id", in.EventID, "bytes", n, "err", err)
+	} else {
+		logged = fmt.Sprintf(" (Logged as query #%d, cut to the limit, with its length and SHA-256.)", id)
+	}
+	text := fmt.Sprintf("That message is %d bytes long; I read requests of up to %d bytes, so I have not worked it out. "+
+		"Please send one mix request per message, for example: %s%s", n, MaxRequestBytes, RequestExample, logged)
+	return Reply{Kind: KindMix, Text: text, QueryID: id, Again: again}
+}
+
+// cutUTF8 returns the longest prefix of s of at most n bytes that does not
+// split a character.
+func cutUTF8(s string, n int) string {
+	if len(s) <= n {
+		return s
+	}
+	for n > 0 && !utf8.RuneStart(s[n]) {
+		n--
+	}
+	return s[:n]
 }
 
 // usageReply explains a command that could not be read.

@@ -39,6 +39,7 @@ type journalWriter struct {
 	life     context.Context // ends when close's deadline passes
 	endLife  context.CancelFunc
 	wg       sync.WaitGroup
+	stopOnce sync.Once
 }
 
 type acceptReq struct {
@@ -197,7 +198,7 @@ func (w *journalWriter) write(ctx context.Context, outs []store.Outcome) {
 // close stops taking work, writes the outcomes already handed over (until
 // ctx ends) and waits for the writers.
 func (w *journalWriter) close(ctx context.Context) {
-	close(w.stop)
+	w.stopOnce.Do(func() { close(w.stop) })
 	done := make(chan struct{})
 	go func() { w.wg.Wait(); close(done) }()
 	select {

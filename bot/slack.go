@@ -2,6 +2,8 @@ package bot
 
 import (
 	"context"
+	"crypto/sha256"
+	"encoding/hex"
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -100,6 +102,14 @@ func (s *seenSet) claim(id string, now time.Time) bool {
 	return true
 }
 
+// has reports whether id was claimed within seenTTL of now.
+func (s *seenSet) has(id string, now time.Time) bool {
+	s.mu.Lock()
+	defer s.mu.Unlock()
+	t, ok := s.ids[id]
+	return ok && now.Sub(t) < seenTTL
+}
+
 func (s *seenSet) release(id string) {
 	s.mu.Lock()
 	delete(s.ids, id)
@@ -132,6 +142,11 @@ func (s *Slack) Submit(ctx context.Context, in Incoming) error {
 		s.logger().Info("redelivery of a taken event ignored", "event_id", in.EventID, "retry", in.Retry)
 		return nil
 	}
+	if in.PrevEventID != "" && s.seenBefore(ctx, in.PrevEventID) {
+		s.Metrics.duplicate()
+		s.logger().Info("replay of a slash command ignored", "event_id", in.EventID, "first_as", in.PrevEventID)
+		return nil
+	}
 	gate := make(chan intake, 1)
 	err := s.Queue.Submit(ctx, in.Channel, func(ctx context.Context) { s.process(ctx, in, gate) })
 	if err != nil {
@@ -153,6 +168,19 @@ func (s *Slack) Submit(ctx context.Context, in Incoming) error {
 	}
 	gate <- how
 	return nil
+}
+
+// seenBefore reports whether id was taken, by this process or (in the
+// inbox) an earlier one.
+func (s *Slack) seenBefore(ctx context.Context, id string) bool {
+	if s.seen.has(id, s.now()) {
+		return true
+	}
+	if s.Journal == nil {
+		return false
+	}
+	_, err := s.Journal.InboxEntryFor(ctx, id)
+	return err == nil
 }
 
 // record writes in to the inbox and says what its job is to do.
@@ -446,8 +474,35 @@ func (s *Slack) FromCommand(c slack.SlashCommand, transport string) Incoming {
 	}
 	if c.TriggerID != "" {
 		in.EventID = "cmd:" + c.TriggerID
+	} else {
+		// No trigger id (Slack always sends one; a replay or a hand-made
+		// request may not): the command is known by a hash of its fields
+		// within a time slot, so a replay is answered once.
+		in.EventID, in.PrevEventID = commandSum(c, in.Received)
 	}
 	return in
+}
+
+// CommandWindow is the time slot within which a slash command without a
+// trigger_id counts as a replay of one with the same fields: the current
+// and the previous slot are checked, so a replay between 5 and 10 minutes
+// after the first is caught too. It matches the signature window, the
+// longest a signed request can be replayed.
+const CommandWindow = SignatureWindow
+
+// commandSum is the id of a slash command without trigger_id in the slot
+// of at, and in the slot before: "cmd-sum:" + the first 32 hex digits of
+// the SHA-256 of team, channel, user, command, text and response URL, +
+// "@" + the slot number.
+func commandSum(c slack.SlashCommand, at time.Time) (id, prev string) {
+	h := sha256.New()
+	for _, f := range []string{c.TeamID, c.ChannelID, c.UserID, c.Command, c.Text, c.ResponseURL} {
+		h.Write([]byte(f))
+		h.Write([]byte{0})
+	}
+	sum := hex.EncodeToString(h.Sum(nil))[:32]
+	slot := at.Unix() / int64(CommandWindow/time.Second)
+	return fmt.Sprintf("cmd-sum:%s@%d", sum, slot), fmt.Sprintf("cmd-sum:%s@%d", sum, slot-1)
 }
 
 // commandAck is the immediate, private answer to a slash command.
