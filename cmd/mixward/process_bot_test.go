@@ -37,6 +37,7 @@ type loopSlack struct {
 	mu      sync.Mutex
 	posts   []loopPost
 	uploads int
+	lookups int // conversations.replies calls
 }
 
 type loopPost struct {
@@ -84,6 +85,7 @@ func (s *loopSlack) serve(w http.ResponseWriter, r *http.Request) {
 	case "conversations.replies":
 		var msgs []map[string]any
 		s.mu.Lock()
+		s.lookups++
 		for _, p := range s.posts {
 			if p.Channel == r.PostForm.Get("channel") && p.Thread == r.PostForm.Get("ts") && p.EventID != "" {
 				msgs = append(msgs, map[string]any{"type": "message", "ts": p.TS, "thread_ts": p.Thread, "bot_id": "BBOT",
