@@ -270,3 +270,41 @@ func TestHealthNeedsEveryTransport(t *testing.T) {
 	h.SetReady(false) // draining
 	check(503, "")
 }
+
+// TestInboxFailedAnswerTriedAgainOnRedelivery: a post Slack refused for
+// good (the bot was not in the channel) is tried again when Slack
+// redelivers the event, and then posted once.
+func TestInboxFailedAnswerTriedAgainOnRedelivery(t *testing.T) {
+	e := newEnv(t, withJournal)
+	refusing := true
+	e.slack.fault = func(method string, n int) *fakeFault {
+		if method == "chat.postMessage" && refusing {
+			return &fakeFault{Error: "not_in_channel"}
+		}
+		return nil
+	}
+	ev, _ := json.Marshal(mentionPayload("EvFail", "CPLANT", "UOP", "1700000400.000100", "<@UBOT> mix 4 L NaOCl 12.5 % + 1 L HCl 10 %"))
+	send := func(s *bot.Slack) {
+		t.Helper()
+		w := postEvents(t, s.HTTPHandler(bot.NewVerifier(e.secret, e.clock.Now)), signedRequest(t, "POST", "/slack/events", "application/json", ev, e.secret, e.clock.Now()))
+		if w.Code != 200 {
+			t.Fatalf("delivery answered %d", w.Code)
+		}
+		if err := s.Close(context.Background()); err != nil {
+			t.Fatal(err)
+		}
+	}
+	send(e.sl)
+	if st := e.inboxState("EvFail"); st != store.InboxFailed {
+		t.Fatalf("inbox says %q after a refused post, want failed", st)
+	}
+	refusing = false
+	send(e.restart(e.db))
+	send(e.restart(e.db))
+	if got := e.threadPosts("1700000400.000100"); got != 1 {
+		t.Errorf("%d answers after two redeliveries, want 1", got)
+	}
+	if st := e.inboxState("EvFail"); st != store.InboxPosted {
+		t.Errorf("inbox says %q, want posted", st)
+	}
+}

@@ -203,11 +203,14 @@ func (s *Slack) record(ctx context.Context, in Incoming) (intake, error) {
 	if err != nil {
 		return intakeSkip, err
 	}
-	if e.State != store.InboxPending {
+	if e.State == store.InboxPosted {
 		s.Metrics.duplicate()
-		s.logger().Info("redelivery of an answered event ignored", "event_id", in.EventID, "state", e.State)
+		s.logger().Info("redelivery of an answered event ignored", "event_id", in.EventID)
 		return intakeSkip, nil
 	}
+	// Pending (owed from an earlier process) or failed (Slack refused the
+	// post, e.g. the bot was not in the channel): this delivery is the
+	// chance to answer.
 	return intakeResume, nil
 }
 

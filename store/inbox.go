@@ -110,9 +110,10 @@ func (db *DB) InboxEntryFor(ctx context.Context, eventID string) (InboxEntry, er
 	return e, err
 }
 
-// FinishMessages records outcomes in one transaction: the entry's state,
-// and for an answer that carried a logged query, a row in deliveries (as
-// RecordDelivery writes). An outcome for an event not in the inbox still
+// FinishMessages records outcomes in one transaction: the entry's state
+// (a posted entry stays posted; a failed one may be tried again and
+// posted), and for an answer that carried a logged query, a row in
+// deliveries (as RecordDelivery writes). An outcome for an event not in the inbox still
 // records its delivery.
 func (db *DB) FinishMessages(ctx context.Context, outs []Outcome) error {
 	tx, err := db.w.BeginTx(ctx, nil)
@@ -133,7 +134,7 @@ func (db *DB) FinishMessages(ctx context.Context, outs []Outcome) error {
 		}
 		if o.EventID != "" {
 			if _, err := tx.ExecContext(ctx, `UPDATE inbox SET state = ?, attempts = attempts + 1, detail = ?, done_at = ?
-				WHERE event_id = ? AND state = 'pending'`, o.State, clean(o.Detail), done, o.EventID); err != nil {
+				WHERE event_id = ? AND state <> 'posted'`, o.State, clean(o.Detail), done, o.EventID); err != nil {
 				return fmt.Errorf("finish messages: event %q: %w", o.EventID, err)
 			}
 		}

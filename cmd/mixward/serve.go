@@ -341,14 +341,7 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 	}
 	if adminLn != nil {
 		ln := adminLn
-		admin = &http.Server{
-			Handler:           bot.AdminHandler(metrics, health),
-			ReadHeaderTimeout: 5 * time.Second,
-			ReadTimeout:       10 * time.Second,
-			WriteTimeout:      30 * time.Second,
-			IdleTimeout:       60 * time.Second,
-			MaxHeaderBytes:    16 << 10,
-		}
+		admin = newAdminServer(bot.AdminHandler(metrics, health))
 		logger.Info("admin listening", "addr", ln.Addr().String(), "paths", "/healthz /metrics")
 		wg.Go(func() {
 			if err := admin.Serve(ln); err != nil && !errors.Is(err, http.ErrServerClosed) {
@@ -451,6 +444,19 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 		return runErr
 	}
 	return nil
+}
+
+// newAdminServer serves /healthz and /metrics with timeouts, so that slow
+// or idle clients cannot hold connections open.
+func newAdminServer(h http.Handler) *http.Server {
+	return &http.Server{
+		Handler:           h,
+		ReadHeaderTimeout: 5 * time.Second,
+		ReadTimeout:       10 * time.Second,
+		WriteTimeout:      30 * time.Second,
+		IdleTimeout:       60 * time.Second,
+		MaxHeaderBytes:    16 << 10,
+	}
 }
 
 // pruneInbox drops inbox entries answered more than a day ago: Slack
