@@ -4,10 +4,12 @@
 //
 // The pieces: Bot turns one message into a Reply (engine call, query log,
 // stream catalogue, search, digest, access rules) without knowing the
-// transport; Slack takes messages from Slack, acknowledges them at once,
-// queues them per thread and posts the replies as Block Kit through a
-// rate-limited, retrying Poster; Console reads lines from a terminal or a
-// pipe and prints the same replies as plain text.
+// transport; Slack takes messages from Slack, queues them on a fixed pool of
+// workers (Queue), writes them to a durable inbox (Journal) and only then
+// acknowledges them, and posts the replies as Block Kit through a
+// rate-limited, retrying Poster, with the E–pH picture after the answer from
+// a small pool of its own (Pictures); Console reads lines from a terminal or
+// a pipe and prints the same replies as plain text.
 package bot
 
 import (
