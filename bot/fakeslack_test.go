@@ -382,9 +382,10 @@ func (f *fakeSlack) waitAck(id string) fakeAck {
 }
 
 // waitPosts waits until at least n messages were posted and returns them.
+// The minute allows for -race on a busy machine.
 func (f *fakeSlack) waitPosts(n int) []fakePost {
 	f.t.Helper()
-	deadline := time.Now().Add(20 * time.Second)
+	deadline := time.Now().Add(60 * time.Second)
 	for {
 		f.mu.Lock()
 		got := append([]fakePost(nil), f.posts...)

@@ -3,7 +3,6 @@ package bot
 import (
 	"context"
 	"errors"
-	"hash/maphash"
 	"sync"
 	"sync/atomic"
 )
@@ -14,21 +13,24 @@ var ErrClosed = errors.New("bot: queue closed, not accepting new work")
 // DefaultWorkers is the number of answer workers NewQueue starts.
 const DefaultWorkers = 32
 
-// Queue runs jobs on a fixed pool of workers. A job's key picks its worker
-// (a hash of the key), so jobs with the same key (a Slack channel) run one
-// after another in submission order, and at most Workers jobs run at once
-// however many keys are busy. At most Capacity jobs wait or run at once;
-// Submit blocks when the queue is full (back-pressure) and never drops a
-// job. A worker serves its keys in turn: a job that waits (a channel held
-// by Slack's rate limit) delays the other keys of that worker only.
+// Queue runs jobs on a fixed pool of workers. Jobs with the same key (a
+// Slack thread) run one after another in submission order; jobs with
+// different keys run concurrently, at most Workers at once however many
+// keys are busy. A key with jobs waiting is handed to whichever worker is
+// free next, and goes to the back of the line after each job, so busy
+// threads take turns. At most Capacity jobs wait or run at once; Submit
+// blocks when the queue is full (back-pressure) and never drops a job.
 type Queue struct {
-	slots  chan struct{}    // one token per accepted, unfinished job
-	shards []chan queuedJob // one per worker; each can hold Capacity jobs
-	seed   maphash.Seed
-	closed atomic.Bool
+	slots   chan struct{} // one token per accepted, unfinished job
+	ready   chan string   // keys with a job waiting and none running
+	workers int
 
-	mu      sync.Mutex // orders Submit against Close, and depth reports
-	workers sync.WaitGroup
+	mu      sync.Mutex // guards keys and closing; orders depth reports
+	keys    map[string][]queuedJob
+	closed  atomic.Bool
+	pending sync.WaitGroup // accepted, unfinished jobs
+	running sync.WaitGroup // workers
+	stopped bool
 
 	work   context.Context // handed to jobs; cancelled only when draining times out
 	cancel context.CancelFunc
@@ -59,15 +61,15 @@ func NewPool(workers, capacity int, onDepth func(int)) *Queue {
 	work, cancel := context.WithCancel(context.Background())
 	q := &Queue{
 		slots:   make(chan struct{}, capacity),
-		shards:  make([]chan queuedJob, workers),
-		seed:    maphash.MakeSeed(),
+		ready:   make(chan string, capacity), // a key is in it at most once and has a job holding a slot
+		workers: workers,
+		keys:    map[string][]queuedJob{},
 		work:    work,
 		cancel:  cancel,
 		onDepth: onDepth,
 	}
-	for i := range q.shards {
-		q.shards[i] = make(chan queuedJob, capacity)
-		q.workers.Go(func() { q.run(q.shards[i]) })
+	for range workers {
+		q.running.Go(q.run)
 	}
 	return q
 }
@@ -79,7 +81,7 @@ func (q *Queue) Depth() int { return len(q.slots) }
 func (q *Queue) Capacity() int { return cap(q.slots) }
 
 // Workers is the number of workers.
-func (q *Queue) Workers() int { return len(q.shards) }
+func (q *Queue) Workers() int { return q.workers }
 
 // Submit adds a job under key. It blocks while the queue is full, until ctx
 // ends (returning ctx's error; the job is then not queued) or the queue
@@ -99,33 +101,46 @@ func (q *Queue) Submit(ctx context.Context, key string, job func(context.Context
 		<-q.slots
 		return ErrClosed
 	}
-	// Never blocks: each shard holds Capacity jobs and a slot is held.
-	q.shards[q.shardOf(key)] <- queuedJob{key, job}
+	q.pending.Add(1)
+	waiting, active := q.keys[key]
+	q.keys[key] = append(waiting, queuedJob{key, job})
+	if !active {
+		q.ready <- key // never blocks: fewer active keys than slots
+	}
 	q.depthChanged()
 	return nil
 }
 
-// shardOf is the worker that runs key's jobs.
-func (q *Queue) shardOf(key string) int {
-	return int(maphash.String(q.seed, key) % uint64(len(q.shards)))
-}
+// run is one worker: it takes the next ready key, runs that key's oldest
+// job, and puts the key back in line if it has more.
+func (q *Queue) run() {
+	for key := range q.ready {
+		q.mu.Lock()
+		jobs := q.keys[key]
+		j := jobs[0]
+		jobs[0] = queuedJob{}
+		q.keys[key] = jobs[1:]
+		q.mu.Unlock()
 
-// run is one worker: it takes its shard's jobs in order until the shard is
-// closed and empty.
-func (q *Queue) run(shard chan queuedJob) {
-	for j := range shard {
 		q.runOne(j)
+
 		q.mu.Lock()
 		<-q.slots
+		if len(q.keys[key]) == 0 {
+			delete(q.keys, key)
+		} else {
+			q.ready <- key
+		}
 		q.depthChanged()
 		q.mu.Unlock()
+		q.pending.Done()
 	}
 }
 
 func (q *Queue) runOne(j queuedJob) {
 	defer func() {
-		// A panicking job must not take the worker (and the keys it
-		// serves) down with it.
+		// A panicking job must not take the worker (and its key's later
+		// jobs) down with it.
 		if v := recover(); v != nil && q.OnPanic != nil {
 			q.OnPanic(j.key, v)
 		}
@@ -147,21 +162,25 @@ func (q *Queue) depthChanged() {
 // after the workers have returned.
 func (q *Queue) Close(ctx context.Context) error {
 	q.mu.Lock()
-	if !q.closed.Swap(true) {
-		for _, s := range q.shards {
-			close(s)
-		}
-	}
+	q.closed.Store(true)
 	q.mu.Unlock()
 	done := make(chan struct{})
-	go func() { q.workers.Wait(); close(done) }()
+	go func() { q.pending.Wait(); close(done) }()
+	var err error
 	select {
 	case <-done:
-		q.cancel()
-		return nil
 	case <-ctx.Done():
+		err = ctx.Err()
 		q.cancel()
 		<-done
-		return ctx.Err()
 	}
+	q.cancel()
+	q.mu.Lock()
+	if !q.stopped {
+		q.stopped = true
+		close(q.ready)
+	}
+	q.mu.Unlock()
+	q.running.Wait()
+	return err
 }

@@ -148,7 +148,7 @@ func (s *Slack) Submit(ctx context.Context, in Incoming) error {
 		return nil
 	}
 	gate := make(chan intake, 1)
-	err := s.Queue.Submit(ctx, in.Channel, func(ctx context.Context) { s.process(ctx, in, gate) })
+	err := s.Queue.Submit(ctx, in.Key(), func(ctx context.Context) { s.process(ctx, in, gate) })
 	if err != nil {
 		if in.EventID != "" {
 			s.seen.release(in.EventID)
@@ -252,7 +252,7 @@ func (s *Slack) Resume(ctx context.Context) (int, error) {
 			}
 			gate := make(chan intake, 1)
 			gate <- intakeResume
-			if err := s.Queue.Submit(ctx, in.Channel, func(ctx context.Context) { s.process(ctx, in, gate) }); err != nil {
+			if err := s.Queue.Submit(ctx, in.Key(), func(ctx context.Context) { s.process(ctx, in, gate) }); err != nil {
 				s.seen.release(e.EventID)
 				return n, fmt.Errorf("resume owed answers: %w", err)
 			}

@@ -214,7 +214,7 @@ func (a *app) cmdServe(ctx context.Context, args []string) error {
 	fs.Float64Var(&c.postRate, "post-rate", envFloat(g, "MIXWARD_POST_RATE", 1), "messages per second per channel (env MIXWARD_POST_RATE)")
 	fs.IntVar(&c.postBurst, "post-burst", envInt(g, "MIXWARD_POST_BURST", 3), "messages a channel may take at once before the rate applies (env MIXWARD_POST_BURST)")
 	fs.IntVar(&c.queueSize, "queue-size", envInt(g, "MIXWARD_QUEUE_SIZE", 2048), "messages held at once; beyond it intake waits (env MIXWARD_QUEUE_SIZE)")
-	fs.IntVar(&c.workers, "workers", envInt(g, "MIXWARD_WORKERS", bot.DefaultWorkers), "answer workers: messages worked on at once; one channel's messages always go to the same worker, in order (env MIXWARD_WORKERS)")
+	fs.IntVar(&c.workers, "workers", envInt(g, "MIXWARD_WORKERS", bot.DefaultWorkers), "answer workers: messages worked on at once; one thread's messages always go to the same worker, in order (env MIXWARD_WORKERS)")
 	fs.IntVar(&c.picWorkers, "picture-workers", envInt(g, "MIXWARD_PICTURE_WORKERS", 1), "E–pH pictures drawn and uploaded at once, after the answers; 0 turns pictures off (env MIXWARD_PICTURE_WORKERS)")
 	fs.DurationVar(&c.drainTimeout, "drain-timeout", envDuration(g, "MIXWARD_DRAIN_TIMEOUT", 30*time.Second), "on SIGTERM, how long to finish queued answers (env MIXWARD_DRAIN_TIMEOUT)")
 	fs.StringVar(&c.logLevel, "log-level", envOr(g, "MIXWARD_LOG_LEVEL", "info"), "debug, info, warn or error (env MIXWARD_LOG_LEVEL)")
@@ -291,7 +291,7 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 	}
 	b := st.newBot(logger, metrics, access)
 	queue := bot.NewPool(c.workers, c.queueSize, metrics.QueueDepth)
-	queue.OnPanic = func(key string, v any) { logger.Error("answer failed with a panic", "channel", key, "panic", v) }
+	queue.OnPanic = func(key string, v any) { logger.Error("answer failed with a panic", "thread", key, "panic", v) }
 	health.Depth = queue.Depth
 	poster := &bot.Poster{API: api, Rate: rate.Limit(c.postRate), Burst: c.postBurst, Metrics: metrics, Log: logger}
 	var pics *bot.Pictures
