@@ -32,6 +32,11 @@ func TestServeBurstBoundedMemory(t *testing.T) {
 		"MIXWARD_SLACK_API_URL": slack.srv.URL + "/api/", "MIXWARD_DB": dbPath,
 		"MIXWARD_POST_RATE": "1000", "MIXWARD_POST_BURST": "1000",
 	}
+	// MIXWARD_BURST_POST_RATE runs it at a real rate limit instead (Slack
+	// allows about one message a second per channel).
+	if r := os.Getenv("MIXWARD_BURST_POST_RATE"); r != "" {
+		env["MIXWARD_POST_RATE"], env["MIXWARD_POST_BURST"] = r, "3"
+	}
 	p := startProc(t, bin, freeAddr(t), env)
 	client := &slackClient{addr: func() string { return p.events }, hc: &http.Client{Timeout: 10 * time.Second}}
 	ctx, cancel := context.WithTimeout(context.Background(), 5*time.Minute)
