@@ -193,8 +193,7 @@ func (b *Bot) oversize(ctx context.Context, in Incoming) Reply {
 	q := &store.Query{
 		Time: b.now(), UserID: in.UserID, UserName: in.UserName, Channel: in.Channel, EventID: in.EventID,
 		Request: kept, Verdict: store.VerdictError, EngineVersion: b.EngineVersion, DataHash: b.DataHash,
-		Error: fmt.Sprintf("request of %d bytes is over the %d-byte limit; stored cut to its first %d bytes; SHA-256 of the whole request: %s",
-			n, MaxRequestBytes, len(kept), sum),
+		Error: oversizeNote(n, sum, len(kept)),
 	}
 	b.Metrics.failed("request")
 	b.Metrics.verdict(q.Verdict)
@@ -306,9 +305,20 @@ func (b *Bot) Record(ctx context.Context, in Incoming, text string) (res *engine
 		q.Verdict = store.VerdictError
 		q.Error = "internal error: " + askErr.Error()
 	}
+	if len(text) > MaxRequestBytes {
+		// Never a request of any size in the log: its start, length and hash.
+		q.Request, q.Resolved = cutUTF8(text, MaxRequestBytes), cutUTF8(q.Resolved, MaxRequestBytes)
+		q.Error = strings.TrimSpace(q.Error + "; " + oversizeNote(len(text), fmt.Sprintf("%x", sha256.Sum256([]byte(text))), len(q.Request)))
+	}
 	b.Metrics.verdict(q.Verdict)
 	id, logErr = b.logQuery(ctx, q)
 	return res, id, askErr, logErr
+}
+
+// oversizeNote is what the log says of a request over MaxRequestBytes.
+func oversizeNote(n int, sum string, kept int) string {
+	return fmt.Sprintf("request of %d bytes is over the %d-byte limit; stored cut to its first %d bytes; SHA-256 of the whole request: %s",
+		n, MaxRequestBytes, kept, sum)
 }
 
 // deliveryLog is the part of the log that knows whether an answer was

@@ -308,3 +308,22 @@ func TestInboxFailedAnswerTriedAgainOnRedelivery(t *testing.T) {
 		t.Errorf("inbox says %q, want posted", st)
 	}
 }
+
+// TestRecordCutsOversizedRequests: every front end's log row (mixward ask
+// goes through Record) holds at most MaxRequestBytes of a request.
+func TestRecordCutsOversizedRequests(t *testing.T) {
+	e := newEnv(t)
+	text := "mix " + strings.Repeat("1 L HCl 10 % + ", 500) + "1 L water"
+	_, id, _, err := e.bot.Record(context.Background(), bot.Incoming{Transport: "cli", Channel: "cli", UserID: "u"}, text)
+	if err != nil {
+		t.Fatal(err)
+	}
+	q, err := e.db.Get(context.Background(), id)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(q.Request) != bot.MaxRequestBytes || !strings.Contains(q.Error, fmt.Sprintf("request of %d bytes", len(text))) ||
+		!strings.Contains(q.Error, fmt.Sprintf("%x", sha256.Sum256([]byte(text)))) {
+		t.Errorf("logged %d bytes with error %q", len(q.Request), q.Error)
+	}
+}
