@@ -310,6 +310,14 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 		Metrics:       metrics,
 	}
 
+	defer func() {
+		// On an early return (a listener that cannot bind): stop the
+		// workers the resume below started; what they leave stays owed.
+		ctx, cancel := context.WithTimeout(context.Background(), 5*time.Second)
+		defer cancel()
+		_ = sl.Close(ctx)
+	}()
+
 	// Answers owed by the process before this one go first, so that each
 	// thread keeps its order.
 	owed, err := sl.Resume(ctx)
@@ -394,6 +402,19 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 		logger.Info("no digest channel: scheduled digests are off (set MIXWARD_DIGEST_CHANNEL)")
 	}
 
+	wg.Go(func() {
+		t := time.NewTicker(time.Hour)
+		defer t.Stop()
+		for {
+			select {
+			case <-runCtx.Done():
+				return
+			case <-t.C:
+				pruneInbox(runCtx, st.db, logger)
+			}
+		}
+	})
+
 	// Who am I: used to tell the bot's own messages and mentions apart. It
 	// is not needed to answer, so the transports do not wait for it.
 	wg.Go(func() {
@@ -459,7 +480,8 @@ func newAdminServer(h http.Handler) *http.Server {
 	}
 }
 
-// pruneInbox drops inbox entries answered more than a day ago: Slack
+// pruneInbox (at start and hourly) drops inbox entries answered more than
+// a day ago: Slack
 // redelivers within the hour, so they are no longer needed to tell a
 // redelivery from a new message.
 func pruneInbox(ctx context.Context, db *store.DB, logger *slog.Logger) {
