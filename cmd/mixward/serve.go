@@ -481,9 +481,8 @@ func newAdminServer(h http.Handler) *http.Server {
 }
 
 // pruneInbox (at start and hourly) drops inbox entries answered more than
-// a day ago: Slack
-// redelivers within the hour, so they are no longer needed to tell a
-// redelivery from a new message.
+// a day ago: Slack redelivers within the hour, so they are no longer
+// needed to tell a redelivery from a new message.
 func pruneInbox(ctx context.Context, db *store.DB, logger *slog.Logger) {
 	n, err := db.PruneInbox(ctx, time.Now().Add(-24*time.Hour))
 	if err != nil {
