@@ -327,3 +327,27 @@ func TestRecordCutsOversizedRequests(t *testing.T) {
 		t.Errorf("logged %d bytes with error %q", len(q.Request), q.Error)
 	}
 }
+
+// TestInboxWrittenBeforeAcknowledged: by the time Slack has its
+// acknowledgement (a Socket Mode ack, an HTTP 200) the message is in the
+// inbox, so a process killed right after still owes its answer.
+func TestInboxWrittenBeforeAcknowledged(t *testing.T) {
+	e := newEnv(t, withJournal)
+	e.runSocket()
+	e.slack.waitConn(1)
+	e.slack.send(mentionEnvelope("env-j", "EvSock", "CPLANT", "UOP", "1700000500.000100", "<@UBOT> mix 5 L NaOCl 12.5 % + 1 L HCl 10 %", 0))
+	e.slack.waitAck("env-j")
+	if _, err := e.db.InboxEntryFor(context.Background(), "EvSock"); err != nil {
+		t.Errorf("Socket Mode: acknowledged, but not in the inbox: %v", err)
+	}
+	ev, _ := json.Marshal(mentionPayload("EvHTTP", "CPLANT", "UOP", "1700000500.000200", "<@UBOT> mix 6 L NaOCl 12.5 % + 1 L HCl 10 %"))
+	h := e.sl.HTTPHandler(bot.NewVerifier(e.secret, e.clock.Now))
+	if w := postEvents(t, h, signedRequest(t, "POST", "/slack/events", "application/json", ev, e.secret, e.clock.Now())); w.Code != 200 {
+		t.Fatalf("event answered %d", w.Code)
+	}
+	if _, err := e.db.InboxEntryFor(context.Background(), "EvHTTP"); err != nil {
+		t.Errorf("HTTP: answered 200, but not in the inbox: %v", err)
+	}
+	e.slack.waitPosts(2)
+	e.drain()
+}
