@@ -12,6 +12,7 @@ import (
 	"time"
 
 	"mixward/bot"
+	"mixward/engine"
 	"mixward/store"
 )
 
@@ -350,4 +351,14 @@ func TestInboxWrittenBeforeAcknowledged(t *testing.T) {
 	}
 	e.slack.waitPosts(2)
 	e.drain()
+}
+
+// TestRequestLimitMatchesEngine: the bot's limit is the engine's, so a
+// request the bot takes is never refused by the engine for its length.
+func TestRequestLimitMatchesEngine(t *testing.T) {
+	_, err := engine.ParseRequest(strings.Repeat("x", bot.MaxRequestBytes+1), nil, nil)
+	var pe *engine.ParseError
+	if !errors.As(err, &pe) || pe.Code != "too-long" {
+		t.Errorf("engine on %d bytes: %v; want its too-long error", bot.MaxRequestBytes+1, err)
+	}
 }
