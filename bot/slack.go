@@ -224,7 +224,8 @@ func (s *Slack) journal() *journalWriter {
 // Resume queues every message the inbox still owes an answer, oldest
 // first, so that answers left by a process that stopped (SIGTERM past the
 // drain timeout, a crash, a Slack outage) are posted, once and in order
-// per thread. Call it before the transports start.
+// per thread. Call it before the transports start; called again later, it
+// queues only what this process has not taken within the last hour.
 func (s *Slack) Resume(ctx context.Context) (int, error) {
 	if s.Journal == nil {
 		return 0, nil

@@ -411,6 +411,13 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 				return
 			case <-t.C:
 				pruneInbox(runCtx, st.db, logger)
+				// Answers still owed after an hour (Slack was down past the
+				// poster's retries) are tried again.
+				if n, err := sl.Resume(runCtx); err != nil && runCtx.Err() == nil {
+					logger.Warn("owed answers not queued again", "err", err)
+				} else if n > 0 {
+					logger.Info("answering messages still owed", "messages", n)
+				}
 			}
 		}
 	})
