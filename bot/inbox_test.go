@@ -362,3 +362,47 @@ func TestRequestLimitMatchesEngine(t *testing.T) {
 		t.Errorf("engine on %d bytes: %v; want its too-long error", bot.MaxRequestBytes+1, err)
 	}
 }
+
+// TestInboxOwedAnswerRetriedLaterInTheSameProcess: after a Slack outage
+// longer than the poster's retries, a later Resume (serve calls it hourly)
+// posts the answer, once.
+func TestInboxOwedAnswerRetriedLaterInTheSameProcess(t *testing.T) {
+	e := newEnv(t, withJournal)
+	down := true
+	e.slack.fault = func(method string, n int) *fakeFault {
+		if method == "chat.postMessage" && down {
+			return &fakeFault{Status: 502}
+		}
+		return nil
+	}
+	ev, _ := json.Marshal(mentionPayload("EvLater", "CPLANT", "UOP", "1700000600.000100", "<@UBOT> mix 7 L NaOCl 12.5 % + 1 L HCl 10 %"))
+	h := e.sl.HTTPHandler(bot.NewVerifier(e.secret, e.clock.Now))
+	if w := postEvents(t, h, signedRequest(t, "POST", "/slack/events", "application/json", ev, e.secret, e.clock.Now())); w.Code != 200 {
+		t.Fatalf("event answered %d", w.Code)
+	}
+	e.drain()
+	if n, _ := e.sl.Resume(context.Background()); n != 0 {
+		t.Errorf("Resume right away queued %d; the event is still this process's own", n)
+	}
+	down = false
+	e.clock.Sleep(context.Background(), 61*time.Minute)
+	deadline := time.Now().Add(10 * time.Second)
+	for {
+		ent, err := e.db.InboxEntryFor(context.Background(), "EvLater")
+		if err == nil && ent.Attempts == 1 && ent.State == store.InboxPending {
+			break
+		}
+		if time.Now().After(deadline) {
+			t.Fatal("outcome of the failed post never recorded")
+		}
+		time.Sleep(time.Millisecond)
+	}
+	if n, err := e.sl.Resume(context.Background()); n != 1 || err != nil {
+		t.Fatalf("Resume after an hour = %d, %v; want the owed answer", n, err)
+	}
+	e.slack.waitPosts(1)
+	e.drain()
+	if got := e.threadPosts("1700000600.000100"); got != 1 {
+		t.Errorf("%d answers, want 1", got)
+	}
+}
