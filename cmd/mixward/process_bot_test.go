@@ -132,28 +132,16 @@ func (s *loopSlack) order() map[string][]string {
 	return o
 }
 
-// buildBinary compiles mixward once per test binary run.
-var buildBinary = sync.OnceValues(func() (string, error) {
-	dir, err := os.MkdirTemp("", "mixward-bin-")
-	if err != nil {
-		return "", err
-	}
-	bin := filepath.Join(dir, "mixward")
-	out, err := exec.Command("go", "build", "-o", bin, ".").CombinedOutput()
-	if err != nil {
-		return "", fmt.Errorf("go build: %v\n%s", err, out)
-	}
-	return bin, nil
-})
-
+// mixwardBinary builds the binary into the test's temporary directory
+// (the build cache makes all but the first build a link).
 func mixwardBinary(t testing.TB) string {
 	t.Helper()
 	if testing.Short() {
 		t.Skip("builds and runs the binary; skipped with -short")
 	}
-	bin, err := buildBinary()
-	if err != nil {
-		t.Fatal(err)
+	bin := filepath.Join(t.TempDir(), "mixward")
+	if out, err := exec.Command("go", "build", "-o", bin, ".").CombinedOutput(); err != nil {
+		t.Fatalf("go build: %v\n%s", err, out)
 	}
 	return bin
 }
