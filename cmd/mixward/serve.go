@@ -283,33 +283,8 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 	}
 	api := slack.New(c.botToken, opts...)
 
-	access := &bot.Access{
-		Supervisors: bot.ParseIDList(c.supervisors),
-		Reviewers:   bot.ParseIDList(c.reviewers),
-		Groups:      bot.SlackGroups{API: api},
-		Log:         logger,
-	}
-	b := st.newBot(logger, metrics, access)
-	queue := bot.NewPool(c.workers, c.queueSize, metrics.QueueDepth)
-	queue.OnPanic = func(key string, v any) { logger.Error("answer failed with a panic", "thread", key, "panic", v) }
-	health.Depth = queue.Depth
-	poster := &bot.Poster{API: api, Rate: rate.Limit(c.postRate), Burst: c.postBurst, Metrics: metrics, Log: logger}
-	var pics *bot.Pictures
-	if c.picWorkers > 0 {
-		pics = &bot.Pictures{Plot: plotterFor(st.eng), Poster: poster, Workers: c.picWorkers, Logger: logger, Metrics: metrics}
-	}
-	sl := &bot.Slack{
-		Bot:           b,
-		Poster:        poster,
-		Queue:         queue,
-		Pictures:      pics,
-		Journal:       st.db,
-		DigestChannel: c.digestChannel,
-		Health:        health,
-		Logger:        logger,
-		Metrics:       metrics,
-	}
-
+	sl := newSlack(c, st, api, logger, metrics, health)
+	queue := sl.Queue
 	defer func() {
 		// On an early return (a listener that cannot bind): stop the
 		// workers the resume below started; what they leave stays owed.
@@ -402,25 +377,7 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 		logger.Info("no digest channel: scheduled digests are off (set MIXWARD_DIGEST_CHANNEL)")
 	}
 
-	wg.Go(func() {
-		t := time.NewTicker(time.Hour)
-		defer t.Stop()
-		for {
-			select {
-			case <-runCtx.Done():
-				return
-			case <-t.C:
-				pruneInbox(runCtx, st.db, logger)
-				// Answers still owed after an hour (Slack was down past the
-				// poster's retries) are tried again.
-				if n, err := sl.Resume(runCtx); err != nil && runCtx.Err() == nil {
-					logger.Warn("owed answers not queued again", "err", err)
-				} else if n > 0 {
-					logger.Info("answering messages still owed", "messages", n)
-				}
-			}
-		}
-	})
+	wg.Go(func() { keepInbox(runCtx, sl, st.db, logger) })
 
 	// Who am I: used to tell the bot's own messages and mentions apart. It
 	// is not needed to answer, so the transports do not wait for it.
@@ -472,6 +429,57 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 		return runErr
 	}
 	return nil
+}
+
+// newSlack wires the bot, its worker pool, poster, pictures and inbox for
+// `mixward serve`.
+func newSlack(c serveConfig, st *site, api *slack.Client, logger *slog.Logger, metrics *bot.Metrics, health *bot.Health) *bot.Slack {
+	access := &bot.Access{
+		Supervisors: bot.ParseIDList(c.supervisors),
+		Reviewers:   bot.ParseIDList(c.reviewers),
+		Groups:      bot.SlackGroups{API: api},
+		Log:         logger,
+	}
+	queue := bot.NewPool(c.workers, c.queueSize, metrics.QueueDepth)
+	queue.OnPanic = func(key string, v any) { logger.Error("answer failed with a panic", "thread", key, "panic", v) }
+	health.Depth = queue.Depth
+	poster := &bot.Poster{API: api, Rate: rate.Limit(c.postRate), Burst: c.postBurst, Metrics: metrics, Log: logger}
+	var pics *bot.Pictures
+	if c.picWorkers > 0 {
+		pics = &bot.Pictures{Plot: plotterFor(st.eng), Poster: poster, Workers: c.picWorkers, Logger: logger, Metrics: metrics}
+	}
+	return &bot.Slack{
+		Bot:           st.newBot(logger, metrics, access),
+		Poster:        poster,
+		Queue:         queue,
+		Pictures:      pics,
+		Journal:       st.db,
+		DigestChannel: c.digestChannel,
+		Health:        health,
+		Logger:        logger,
+		Metrics:       metrics,
+	}
+}
+
+// keepInbox prunes the inbox hourly and queues again the answers still
+// owed after an hour (Slack was down past the poster's retries), until ctx
+// ends.
+func keepInbox(ctx context.Context, sl *bot.Slack, db *store.DB, logger *slog.Logger) {
+	t := time.NewTicker(time.Hour)
+	defer t.Stop()
+	for {
+		select {
+		case <-ctx.Done():
+			return
+		case <-t.C:
+			pruneInbox(ctx, db, logger)
+			if n, err := sl.Resume(ctx); err != nil && ctx.Err() == nil {
+				logger.Warn("owed answers not queued again", "err", err)
+			} else if n > 0 {
+				logger.Info("answering messages still owed", "messages", n)
+			}
+		}
+	}
 }
 
 // newAdminServer serves /healthz and /metrics with timeouts, so that slow
