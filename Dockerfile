@@ -18,12 +18,17 @@ RUN apt-get update \
  && useradd --system --uid 10001 --gid mixward --home-dir /data --shell /usr/sbin/nologin mixward \
  && mkdir -p /data && chown mixward:mixward /data
 COPY --from=build /out/mixward /usr/local/bin/mixward
+# /healthz and /metrics stay on the container's loopback, where the
+# HEALTHCHECK below asks. /metrics has no authentication: to scrape it from
+# outside, expose it deliberately, e.g.
+#   docker run -e MIXWARD_ADMIN_ADDR=0.0.0.0:9464 -p 127.0.0.1:9464:9464 ...
+# (publish on the host's loopback or a private interface, never 0.0.0.0).
 ENV MIXWARD_DB=/data/mixward.db \
-    MIXWARD_ADMIN_ADDR=:9464
+    MIXWARD_ADMIN_ADDR=127.0.0.1:9464
 VOLUME ["/data"]
 WORKDIR /data
 USER mixward:mixward
-EXPOSE 8080 9464
+EXPOSE 8080
 HEALTHCHECK --interval=30s --timeout=5s --start-period=20s --retries=3 \
   CMD ["/usr/local/bin/mixward", "healthcheck"]
 ENTRYPOINT ["/usr/local/bin/mixward"]

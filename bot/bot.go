@@ -4,14 +4,17 @@
 //
 // The pieces: Bot turns one message into a Reply (engine call, query log,
 // stream catalogue, search, digest, access rules) without knowing the
-// transport; Slack takes messages from Slack, acknowledges them at once,
-// queues them per thread and posts the replies as Block Kit through a
-// rate-limited, retrying Poster; Console reads lines from a terminal or a
-// pipe and prints the same replies as plain text.
+// transport; Slack takes messages from Slack, queues them on a fixed pool of
+// workers (Queue), writes them to a durable inbox (Journal) and only then
+// acknowledges them, and posts the replies as Block Kit through a
+// rate-limited, retrying Poster, with the E–pH picture after the answer from
+// a small pool of its own (Pictures); Console reads lines from a terminal or
+// a pipe and prints the same replies as plain text.
 package bot
 
 import (
 	"context"
+	"crypto/sha256"
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -20,6 +23,7 @@ import (
 	"strings"
 	"sync"
 	"time"
+	"unicode/utf8"
 
 	"github.com/slack-go/slack"
 
@@ -73,6 +77,15 @@ type Incoming struct {
 	Command     string // "/mixward" when it came as a slash command
 	ResponseURL string
 	Received    time.Time
+
+	// FullBytes and FullSHA256 describe the whole message when the
+	// transport kept only its start in Text (a console line over 1 MiB);
+	// zero and "" when Text is the whole message.
+	FullBytes  int
+	FullSHA256 string
+	// PrevEventID is the id the same slash command (without trigger_id)
+	// had in the previous time slot; a message seen under it is a replay.
+	PrevEventID string
 }
 
 // Key is the ordering key: replies with the same key are posted in order.
@@ -91,6 +104,7 @@ type Reply struct {
 	Result    *engine.Result // the mix answer, for the picture; nil otherwise
 	QueryID   int64          // id in the query log; 0 when nothing was logged
 	Duplicate bool           // the event was already answered: post nothing
+	Again     bool           // the query was logged before under this event id and may have been posted
 	Private   bool           // in a channel, show only to the person who asked (search results)
 }
 
@@ -141,6 +155,10 @@ func (b *Bot) logger() *slog.Logger {
 // Answer works out the reply to one message. It never fails: every problem
 // becomes text for the person who asked, and internals go to the log only.
 func (b *Bot) Answer(ctx context.Context, in Incoming) Reply {
+	if in.FullBytes > MaxRequestBytes || len(in.Text) > MaxRequestBytes {
+		b.Metrics.request(in.Transport, string(KindMix))
+		return b.oversize(ctx, in)
+	}
 	cmd, err := ParseCommand(in.Text, b.loc())
 	b.Metrics.request(in.Transport, string(cmd.Kind))
 	if err != nil {
@@ -159,6 +177,59 @@ func (b *Bot) Answer(ctx context.Context, in Incoming) Reply {
 		return b.review(ctx)
 	}
 	return b.mix(ctx, in, cmd.Text)
+}
+
+// MaxRequestBytes is the longest message the bot works out, in bytes (the
+// engine's own limit on a request; chat messages are far shorter).
+const MaxRequestBytes = 4000
+
+// oversize answers a message over MaxRequestBytes: it is logged cut to the
+// limit, with its full length and SHA-256, and the answer names the limit
+// without echoing the message.
+func (b *Bot) oversize(ctx context.Context, in Incoming) Reply {
+	n, sum := in.FullBytes, in.FullSHA256
+	if sum == "" {
+		n, sum = len(in.Text), fmt.Sprintf("%x", sha256.Sum256([]byte(in.Text)))
+	}
+	kept := cutUTF8(in.Text, MaxRequestBytes)
+	q := &store.Query{
+		Time: b.now(), UserID: in.UserID, UserName: in.UserName, Channel: in.Channel, EventID: in.EventID,
+		Request: kept, Verdict: store.VerdictError, EngineVersion: b.EngineVersion, DataHash: b.DataHash,
+		Error: oversizeNote(n, sum, len(kept)),
+	}
+	b.Metrics.failed("request")
+	b.Metrics.verdict(q.Verdict)
+	id, err := b.logQuery(ctx, q)
+	again := false
+	if errors.Is(err, store.ErrDuplicate) {
+		if b.answeredBefore(ctx, id) {
+			b.Metrics.duplicate()
+			return Reply{Kind: KindMix, QueryID: id, Duplicate: true}
+		}
+		err, again = nil, true
+	}
+	logged := ""
+	if err != nil {
+		b.Metrics.failed("log")
+		b.logger().Error("oversized request not logged", "event_id", in.EventID, "bytes", n, "err", err)
+	} else {
+		logged = fmt.Sprintf(" (Logged as query #%d, cut to the limit, with its length and SHA-256.)", id)
+	}
+	text := fmt.Sprintf("That message is %d bytes long; I read requests of up to %d bytes, so I have not worked it out. "+
+		"Please send one mix request per message, for example: %s%s", n, MaxRequestBytes, RequestExample, logged)
+	return Reply{Kind: KindMix, Text: text, QueryID: id, Again: again}
+}
+
+// cutUTF8 returns the longest prefix of s of at most n bytes that does not
+// split a character.
+func cutUTF8(s string, n int) string {
+	if len(s) <= n {
+		return s
+	}
+	for n > 0 && !utf8.RuneStart(s[n]) {
+		n--
+	}
+	return s[:n]
 }
 
 // usageReply explains a command that could not be read.
@@ -250,9 +321,20 @@ func (b *Bot) Record(ctx context.Context, in Incoming, text string) (res *engine
 		q.Verdict = store.VerdictError
 		q.Error = "internal error: " + askErr.Error()
 	}
+	if len(text) > MaxRequestBytes {
+		// Never a request of any size in the log: its start, length and hash.
+		q.Request, q.Resolved = cutUTF8(text, MaxRequestBytes), cutUTF8(q.Resolved, MaxRequestBytes)
+		q.Error = strings.TrimSpace(q.Error + "; " + oversizeNote(len(text), fmt.Sprintf("%x", sha256.Sum256([]byte(text))), len(q.Request)))
+	}
 	b.Metrics.verdict(q.Verdict)
 	id, logErr = b.logQuery(ctx, q)
 	return res, id, askErr, logErr
+}
+
+// oversizeNote is what the log says of a request over MaxRequestBytes.
+func oversizeNote(n int, sum string, kept int) string {
+	return fmt.Sprintf("request of %d bytes is over the %d-byte limit; stored cut to its first %d bytes; SHA-256 of the whole request: %s",
+		n, MaxRequestBytes, kept, sum)
 }
 
 // deliveryLog is the part of the log that knows whether an answer was
@@ -284,6 +366,7 @@ func (b *Bot) answeredBefore(ctx context.Context, id int64) bool {
 // mix answers a mix request: engine, then log, then reply.
 func (b *Bot) mix(ctx context.Context, in Incoming, text string) Reply {
 	res, id, askErr, err := b.Record(ctx, in, text)
+	again := false
 	var pe *engine.ParseError
 	errors.As(askErr, &pe)
 	if errors.Is(err, store.ErrDuplicate) {
@@ -292,6 +375,7 @@ func (b *Bot) mix(ctx context.Context, in Incoming, text string) Reply {
 			// Slack was down): this redelivery is the chance to answer.
 			b.logger().Info("redelivery of a logged but unanswered query: answering now", "event_id", in.EventID, "query_id", id)
 			err = nil
+			again = true
 		} else {
 			b.Metrics.duplicate()
 			b.logger().Info("duplicate delivery not answered again", "event_id", in.EventID, "query_id", id)
@@ -305,16 +389,19 @@ func (b *Bot) mix(ctx context.Context, in Incoming, text string) Reply {
 			"Please try again in a minute; if it keeps happening, tell whoever runs mixward on site."}
 	}
 
+	var r Reply
 	switch {
 	case res != nil:
-		return Reply{Kind: KindMix, Text: b.render(res), Blocks: ResultBlocks(res, id), Result: res, QueryID: id}
+		r = Reply{Kind: KindMix, Text: b.render(res), Blocks: ResultBlocks(res, id), Result: res, QueryID: id}
 	case pe != nil:
 		b.Metrics.failed("request")
-		return parseErrorReply(text, pe, id)
+		r = parseErrorReply(text, pe, id)
 	default:
-		return Reply{Kind: KindMix, QueryID: id, Text: fmt.Sprintf("Something went wrong on my side while working out this request, so I have no answer for it. "+
+		r = Reply{Kind: KindMix, QueryID: id, Text: fmt.Sprintf("Something went wrong on my side while working out this request, so I have no answer for it. "+
 			"It is logged as query #%d; please tell whoever runs mixward on site.", id)}
 	}
+	r.Again = again
+	return r
 }
 
 // ask calls the engine, turning a panic into an error so one bad request

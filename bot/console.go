@@ -2,7 +2,9 @@ package bot
 
 import (
 	"bufio"
+	"bytes"
 	"context"
+	"crypto/sha256"
 	"encoding/json"
 	"fmt"
 	"io"
@@ -50,21 +52,9 @@ func (c *Console) print(s string) {
 // Run reads and answers lines until the input ends, "quit" or "exit" is
 // typed (interactive only), or ctx ends.
 func (c *Console) Run(ctx context.Context) error {
-	lines := make(chan string)
+	lines := make(chan consoleLine)
 	readErr := make(chan error, 1)
-	go func() {
-		sc := bufio.NewScanner(c.In)
-		sc.Buffer(make([]byte, 64*1024), 1<<20)
-		for sc.Scan() {
-			select {
-			case lines <- sc.Text():
-			case <-ctx.Done():
-				readErr <- nil
-				return
-			}
-		}
-		readErr <- sc.Err()
-	}()
+	go func() { readErr <- readLines(ctx, c.In, lines) }()
 	if c.Interactive {
 		c.print("mixward console. Type a mix request such as\n  " + RequestExample +
 			"\nor help, details, review, streams, search, digest. quit or Ctrl-D leaves.\n" + Advisory + "\n\n" + Prompt)
@@ -85,7 +75,7 @@ func (c *Console) Run(ctx context.Context) error {
 			}
 			return nil
 		case line := <-lines:
-			text := strings.TrimSpace(line)
+			text := strings.TrimSpace(line.text)
 			if text == "" || strings.HasPrefix(text, "#") {
 				if c.Interactive {
 					c.print(Prompt)
@@ -107,12 +97,14 @@ func (c *Console) Run(ctx context.Context) error {
 				now = c.Now
 			}
 			r := c.Bot.Answer(ctx, Incoming{
-				Transport: "console",
-				Channel:   ConsoleUser,
-				UserID:    ConsoleUser,
-				UserName:  ConsoleUser,
-				Text:      CleanText(text, ""),
-				Received:  now(),
+				Transport:  "console",
+				Channel:    ConsoleUser,
+				UserID:     ConsoleUser,
+				UserName:   ConsoleUser,
+				Text:       CleanText(text, ""),
+				Received:   now(),
+				FullBytes:  line.full,
+				FullSHA256: line.sum,
 			})
 			c.answer(r)
 		}
@@ -182,3 +174,64 @@ func (c *Console) PublishDigest(ctx context.Context, d *store.Digest) error {
 }
 
 var _ store.Publisher = (*Console)(nil)
+
+// MaxConsoleLine is the most of one console line kept in memory; a longer
+// line is read to its end (counted and hashed) and answered with the
+// request limit, and the console carries on.
+const MaxConsoleLine = 1 << 20
+
+// consoleLine is one line of console input. full and sum are its length
+// and SHA-256 when it was longer than MaxConsoleLine and text holds only
+// its start.
+type consoleLine struct {
+	text string
+	full int
+	sum  string
+}
+
+// readLines sends the lines of r until it ends (nil) or fails, or ctx ends.
+func readLines(ctx context.Context, r io.Reader, out chan<- consoleLine) error {
+	br := bufio.NewReaderSize(r, 64*1024)
+	for {
+		var kept []byte
+		h := sha256.New()
+		n := 0
+		var err error
+		for {
+			var frag []byte
+			frag, err = br.ReadSlice('\n')
+			if err == nil {
+				frag = bytes.TrimSuffix(bytes.TrimSuffix(frag, []byte("\n")), []byte("\r"))
+			}
+			n += len(frag)
+			h.Write(frag)
+			if room := MaxConsoleLine - len(kept); room > 0 {
+				kept = append(kept, frag[:min(len(frag), room)]...)
+			}
+			if err != bufio.ErrBufferFull {
+				break
+			}
+		}
+		if err != nil && n == 0 {
+			if err == io.EOF {
+				return nil
+			}
+			return err
+		}
+		line := consoleLine{text: string(kept)}
+		if n > MaxConsoleLine {
+			line.full, line.sum = n, fmt.Sprintf("%x", h.Sum(nil))
+		}
+		select {
+		case out <- line:
+		case <-ctx.Done():
+			return nil
+		}
+		if err == io.EOF {
+			return nil
+		}
+		if err != nil {
+			return err
+		}
+	}
+}

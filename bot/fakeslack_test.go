@@ -52,6 +52,7 @@ type fakePost struct {
 	TS       string
 	User     string // chat.postEphemeral: who alone sees it
 	At       time.Time
+	Meta     map[string]any // message metadata, as posted
 }
 
 // blockText is every text of the post's blocks, one per line.
@@ -182,6 +183,12 @@ func (f *fakeSlack) serve(w http.ResponseWriter, r *http.Request) {
 		f.reply(w, map[string]any{"ok": true, "url": u})
 	case "chat.postMessage":
 		p := fakePost{Channel: r.Form.Get("channel"), ThreadTS: r.Form.Get("thread_ts"), Text: r.Form.Get("text"), At: time.Now()}
+		if m := r.Form.Get("metadata"); m != "" {
+			if err := json.Unmarshal([]byte(m), &p.Meta); err != nil {
+				f.reply(w, map[string]any{"ok": false, "error": "invalid_metadata"})
+				return
+			}
+		}
 		if b := r.Form.Get("blocks"); b != "" {
 			if err := json.Unmarshal([]byte(b), &p.Blocks); err != nil {
 				f.reply(w, map[string]any{"ok": false, "error": "invalid_blocks"})
@@ -211,6 +218,26 @@ func (f *fakeSlack) serve(w http.ResponseWriter, r *http.Request) {
 			hit <- p
 		}
 		f.reply(w, map[string]any{"ok": true, "channel": p.Channel, "ts": p.TS})
+	case "conversations.replies", "conversations.history":
+		// The bot's own posts in the thread (replies) or at the top of
+		// the channel (history), with their metadata; one page.
+		var msgs []map[string]any
+		f.mu.Lock()
+		for _, p := range f.posts {
+			if p.Channel != r.Form.Get("channel") {
+				continue
+			}
+			inThread := method == "conversations.replies" && (p.ThreadTS == r.Form.Get("ts") || p.TS == r.Form.Get("ts"))
+			if inThread || (method == "conversations.history" && p.ThreadTS == "") {
+				m := map[string]any{"type": "message", "ts": p.TS, "thread_ts": p.ThreadTS, "text": p.Text, "bot_id": "BBOT"}
+				if p.Meta != nil {
+					m["metadata"] = p.Meta
+				}
+				msgs = append(msgs, m)
+			}
+		}
+		f.mu.Unlock()
+		f.reply(w, map[string]any{"ok": true, "messages": msgs, "has_more": false})
 	case "chat.postEphemeral":
 		f.mu.Lock()
 		f.ephemerals = append(f.ephemerals, fakePost{Channel: r.Form.Get("channel"), ThreadTS: r.Form.Get("thread_ts"), Text: r.Form.Get("text"), User: r.Form.Get("user")})
@@ -355,9 +382,10 @@ func (f *fakeSlack) waitAck(id string) fakeAck {
 }
 
 // waitPosts waits until at least n messages were posted and returns them.
+// The minute allows for -race on a busy machine.
 func (f *fakeSlack) waitPosts(n int) []fakePost {
 	f.t.Helper()
-	deadline := time.Now().Add(20 * time.Second)
+	deadline := time.Now().Add(60 * time.Second)
 	for {
 		f.mu.Lock()
 		got := append([]fakePost(nil), f.posts...)
@@ -382,6 +410,21 @@ func (f *fakeSlack) uploadsNow() []fakeUpload {
 	f.mu.Lock()
 	defer f.mu.Unlock()
 	return append([]fakeUpload(nil), f.uploads...)
+}
+
+// waitUploads waits until at least n files were uploaded and returns them.
+func (f *fakeSlack) waitUploads(n int) []fakeUpload {
+	f.t.Helper()
+	deadline := time.Now().Add(20 * time.Second)
+	for {
+		if got := f.uploadsNow(); len(got) >= n {
+			return got
+		}
+		if time.Now().After(deadline) {
+			f.t.Fatalf("fake slack: %d files uploaded, want %d", len(f.uploadsNow()), n)
+		}
+		time.Sleep(5 * time.Millisecond)
+	}
 }
 
 func (f *fakeSlack) callCount(method string) int {

@@ -192,7 +192,7 @@ func newEnv(t *testing.T, opts ...envOption) *env {
 	t.Cleanup(func() {
 		ctx, cancel := context.WithTimeout(context.Background(), 20*time.Second)
 		defer cancel()
-		if err := e.sl.Queue.Close(ctx); err != nil {
+		if err := e.sl.Close(ctx); err != nil {
 			t.Errorf("queue did not drain: %v", err)
 		}
 	})

@@ -3,6 +3,8 @@ package bot
 import (
 	"encoding/json"
 	"net/http"
+	"slices"
+	"sync"
 	"sync/atomic"
 	"time"
 
@@ -118,10 +120,13 @@ func (m *Metrics) QueueDepth(n int) {
 	}
 }
 
-// Health is the state /healthz reports.
+// Health is the state /healthz reports: ready while the bot serves (not
+// while starting or draining) and every transport it runs is up.
 type Health struct {
 	ready atomic.Bool
-	sock  atomic.Value // string: Socket Mode connection state, "" when not used
+
+	mu         sync.Mutex
+	transports map[string]string // transport → state; see Up
 
 	// Depth, if set, reports the queue depth in the health answer.
 	Depth func() int
@@ -130,8 +135,42 @@ type Health struct {
 // SetReady marks the bot as serving (true) or draining (false).
 func (h *Health) SetReady(ok bool) { h.ready.Store(ok) }
 
+// Expect registers a transport the bot runs ("socket", "http") in state
+// "not connected": the bot is not ready until it reports itself up.
+func (h *Health) Expect(transport string) { h.SetTransport(transport, "not connected") }
+
+// SetTransport records a transport's state. "connected" and "listening"
+// count as up; anything else (connecting, reconnecting, invalid auth) as
+// down.
+func (h *Health) SetTransport(transport, state string) {
+	h.mu.Lock()
+	defer h.mu.Unlock()
+	if h.transports == nil {
+		h.transports = map[string]string{}
+	}
+	h.transports[transport] = state
+}
+
 // SetSocket records the Socket Mode connection state (connecting, connected, ...).
-func (h *Health) SetSocket(state string) { h.sock.Store(state) }
+func (h *Health) SetSocket(state string) { h.SetTransport("socket", state) }
+
+func up(state string) bool { return state == "connected" || state == "listening" }
+
+// Status reports whether the bot is ready, each transport's state, and
+// the transports that are down, sorted.
+func (h *Health) Status() (ready bool, states map[string]string, down []string) {
+	h.mu.Lock()
+	defer h.mu.Unlock()
+	states = map[string]string{}
+	for t, s := range h.transports {
+		states[t] = s
+		if !up(s) {
+			down = append(down, t)
+		}
+	}
+	slices.Sort(down)
+	return h.ready.Load() && len(down) == 0, states, down
+}
 
 // AdminHandler serves /healthz (JSON; 200 while ready, 503 while starting or
 // draining) and /metrics (Prometheus text format).
@@ -142,17 +181,24 @@ func AdminHandler(m *Metrics, h *Health) http.Handler {
 	return mux
 }
 
-// ServeHTTP answers a health check.
+// ServeHTTP answers a health check: JSON with "ready", each transport's
+// state under "transports" (and Socket Mode's also under "socket"), the
+// transports that are down under "down", and the queue depth; 200 when
+// ready, 503 otherwise.
 func (h *Health) ServeHTTP(w http.ResponseWriter, r *http.Request) {
-	body := map[string]any{"ready": h.ready.Load()}
-	if s, _ := h.sock.Load().(string); s != "" {
+	ready, states, down := h.Status()
+	body := map[string]any{"ready": ready, "serving": h.ready.Load(), "transports": states, "down": down}
+	if down == nil {
+		body["down"] = []string{}
+	}
+	if s, ok := states["socket"]; ok {
 		body["socket"] = s
 	}
 	if h.Depth != nil {
 		body["queue_depth"] = h.Depth()
 	}
 	w.Header().Set("Content-Type", "application/json")
-	if !h.ready.Load() {
+	if !ready {
 		w.WriteHeader(http.StatusServiceUnavailable)
 	}
 	_ = json.NewEncoder(w).Encode(body)

@@ -21,6 +21,8 @@ type SlackAPI interface {
 	PostMessageContext(ctx context.Context, channelID string, options ...slack.MsgOption) (string, string, error)
 	UploadFileContext(ctx context.Context, params slack.UploadFileParameters) (*slack.FileSummary, error)
 	PostEphemeralContext(ctx context.Context, channelID, userID string, options ...slack.MsgOption) (string, error)
+	GetConversationRepliesContext(ctx context.Context, params *slack.GetConversationRepliesParameters) ([]slack.Message, bool, string, error)
+	GetConversationHistoryContext(ctx context.Context, params *slack.GetConversationHistoryParameters) (*slack.GetConversationHistoryResponse, error)
 }
 
 // Backoff is the retry policy for Slack calls that failed in a way worth
@@ -81,6 +83,7 @@ type channelGate struct {
 type Message struct {
 	Text   string
 	Blocks []slack.Block
+	Meta   *slack.SlackMetadata // carried with the message, so a restarted bot can find it
 }
 
 // SleepContext waits for d or until ctx ends.
@@ -237,6 +240,9 @@ func (p *Poster) Post(ctx context.Context, channel, threadTS string, msg Message
 	if threadTS != "" {
 		opts = append(opts, slack.MsgOptionTS(threadTS))
 	}
+	if msg.Meta != nil {
+		opts = append(opts, slack.MsgOptionMetadata(*msg.Meta))
+	}
 	var ts string
 	err := p.call(ctx, channel, "chat.postMessage", func(ctx context.Context) error {
 		var err error
@@ -290,4 +296,92 @@ func (p *Poster) Upload(ctx context.Context, channel, threadTS, filename, title,
 		})
 		return err
 	})
+}
+
+// The metadata event types the bot marks its messages with.
+const (
+	metaAnswer  = "mixward_answer"  // one part of an answer; payload event_id, part
+	metaRequest = "mixward_request" // a slash command's request message; payload event_id
+)
+
+func answerMeta(eventID string, part int) *slack.SlackMetadata {
+	if eventID == "" {
+		return nil
+	}
+	return &slack.SlackMetadata{EventType: metaAnswer, EventPayload: map[string]any{"event_id": eventID, "part": part}}
+}
+
+func metaEvent(m slack.SlackMetadata, typ string) (eventID string, part int) {
+	if m.EventType != typ {
+		return "", 0
+	}
+	id, _ := m.EventPayload["event_id"].(string)
+	if f, ok := m.EventPayload["part"].(float64); ok {
+		part = int(f)
+	}
+	return id, part
+}
+
+// lookupPages bounds how many pages of history a lookup reads.
+const lookupPages = 10
+
+// PostedParts finds the parts of the answer to eventID already in thread
+// threadTS (the bot's messages carrying the event id in their metadata):
+// what a process that stopped between posting and recording left behind.
+// It needs the conversations history scopes (channels:history,
+// groups:history, im:history, mpim:history).
+func (p *Poster) PostedParts(ctx context.Context, channel, threadTS, eventID string) (map[int]bool, error) {
+	parts := map[int]bool{}
+	params := &slack.GetConversationRepliesParameters{ChannelID: channel, Timestamp: threadTS, Limit: 200, IncludeAllMetadata: true}
+	for range lookupPages {
+		var msgs []slack.Message
+		var more bool
+		var next string
+		err := p.call(ctx, channel, "conversations.replies", func(ctx context.Context) error {
+			var err error
+			msgs, more, next, err = p.API.GetConversationRepliesContext(ctx, params)
+			return err
+		})
+		if err != nil {
+			return nil, err
+		}
+		for _, m := range msgs {
+			if id, part := metaEvent(m.Metadata, metaAnswer); id == eventID {
+				parts[part] = true
+			}
+		}
+		if !more || next == "" {
+			break
+		}
+		params.Cursor = next
+	}
+	return parts, nil
+}
+
+// PostedRequest finds the request message the bot posted for a slash
+// command (eventID) in channel since since; "" when there is none.
+func (p *Poster) PostedRequest(ctx context.Context, channel, eventID string, since time.Time) (string, error) {
+	params := &slack.GetConversationHistoryParameters{ChannelID: channel, Limit: 200, IncludeAllMetadata: true,
+		Oldest: fmt.Sprintf("%d.000000", since.Unix())}
+	for range lookupPages {
+		var resp *slack.GetConversationHistoryResponse
+		err := p.call(ctx, channel, "conversations.history", func(ctx context.Context) error {
+			var err error
+			resp, err = p.API.GetConversationHistoryContext(ctx, params)
+			return err
+		})
+		if err != nil {
+			return "", err
+		}
+		for _, m := range resp.Messages {
+			if id, _ := metaEvent(m.Metadata, metaRequest); id == eventID {
+				return m.Timestamp, nil
+			}
+		}
+		if !resp.HasMore || resp.ResponseMetaData.NextCursor == "" {
+			break
+		}
+		params.Cursor = resp.ResponseMetaData.NextCursor
+	}
+	return "", nil
 }

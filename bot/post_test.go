@@ -94,6 +94,14 @@ func (a *countingAPI) PostEphemeralContext(ctx context.Context, ch, user string,
 	return ts, err
 }
 
+func (a *countingAPI) GetConversationRepliesContext(ctx context.Context, p *slack.GetConversationRepliesParameters) ([]slack.Message, bool, string, error) {
+	return nil, false, "", nil
+}
+
+func (a *countingAPI) GetConversationHistoryContext(ctx context.Context, p *slack.GetConversationHistoryParameters) (*slack.GetConversationHistoryResponse, error) {
+	return &slack.GetConversationHistoryResponse{}, nil
+}
+
 func (a *countingAPI) UploadFileContext(ctx context.Context, p slack.UploadFileParameters) (*slack.FileSummary, error) {
 	_, _, err := a.PostMessageContext(ctx, p.Channel)
 	return &slack.FileSummary{ID: "F"}, err

@@ -4,29 +4,32 @@ import (
 	"context"
 	"errors"
 	"fmt"
+	"runtime"
 	"sync"
+	"sync/atomic"
 	"testing"
 	"time"
 )
 
 func TestQueueKeepsOrderPerKeyAndRunsKeysConcurrently(t *testing.T) {
-	q := NewQueue(100, nil)
+	q := NewPool(2, 100, nil)
+	ka, kb := "a", "b"
 	var mu sync.Mutex
 	got := map[string][]int{}
-	// Key "a" blocks until key "b" has run: if keys shared a worker this
+	// Key a blocks until key b has run: if they shared a worker this
 	// would deadlock.
 	bDone := make(chan struct{})
 	for i := range 20 {
-		key := []string{"a", "b"}[i%2]
+		key := []string{ka, kb}[i%2]
 		err := q.Submit(context.Background(), key, func(context.Context) {
-			if key == "a" && i == 0 {
+			if key == ka && i == 0 {
 				<-bDone
 			}
 			mu.Lock()
 			got[key] = append(got[key], i)
-			n := len(got["b"])
+			n := len(got[kb])
 			mu.Unlock()
-			if key == "b" && n == 10 {
+			if key == kb && n == 10 {
 				close(bDone)
 			}
 		})
@@ -48,6 +51,34 @@ func TestQueueKeepsOrderPerKeyAndRunsKeysConcurrently(t *testing.T) {
 		if len(ns) != 10 {
 			t.Errorf("key %s ran %d jobs, want 10", key, len(ns))
 		}
+	}
+}
+
+func TestQueueBoundsConcurrency(t *testing.T) {
+	const workers = 3
+	q := NewPool(workers, 1000, nil)
+	var running, peak atomic.Int32
+	for i := range 300 {
+		q.Submit(context.Background(), fmt.Sprint("thread-", i), func(context.Context) {
+			n := running.Add(1)
+			for {
+				p := peak.Load()
+				if n <= p || peak.CompareAndSwap(p, n) {
+					break
+				}
+			}
+			time.Sleep(100 * time.Microsecond)
+			running.Add(-1)
+		})
+	}
+	if err := q.Close(context.Background()); err != nil {
+		t.Fatal(err)
+	}
+	if p := peak.Load(); p > workers || p < 2 {
+		t.Errorf("%d jobs ran at once over 300 keys, want between 2 and the %d workers", p, workers)
+	}
+	if n := runtime.NumGoroutine(); n > 50 {
+		t.Errorf("%d goroutines after Close; workers left behind?", n)
 	}
 }
 

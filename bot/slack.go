@@ -2,6 +2,9 @@ package bot
 
 import (
 	"context"
+	"crypto/sha256"
+	"encoding/hex"
+	"encoding/json"
 	"errors"
 	"fmt"
 	"log/slog"
@@ -24,9 +27,11 @@ type Slack struct {
 	Bot           *Bot
 	Poster        *Poster
 	Queue         *Queue
-	Plot          Plotter // may be nil: no picture
-	BotUserID     string  // the bot's own user id (auth.test), if known before start; see SetBotUser
-	DigestChannel string  // where scheduled digests go
+	Plot          Plotter   // may be nil: no picture
+	Pictures      *Pictures // draws and uploads pictures; nil means one worker over Plot
+	Journal       Journal   // durable inbox; nil keeps taken messages in memory only
+	BotUserID     string    // the bot's own user id (auth.test), if known before start; see SetBotUser
+	DigestChannel string    // where scheduled digests go
 	AckWait       time.Duration
 	Health        *Health
 	Now           func() time.Time
@@ -35,6 +40,9 @@ type Slack struct {
 
 	seen    seenSet
 	botUser atomic.Value // string set by SetBotUser
+	jwOnce  sync.Once
+	jw      *journalWriter
+	picOnce sync.Once
 }
 
 // SetBotUser records the bot's own user id once it is known (auth.test may
@@ -94,16 +102,37 @@ func (s *seenSet) claim(id string, now time.Time) bool {
 	return true
 }
 
+// has reports whether id was claimed within seenTTL of now.
+func (s *seenSet) has(id string, now time.Time) bool {
+	s.mu.Lock()
+	defer s.mu.Unlock()
+	t, ok := s.ids[id]
+	return ok && now.Sub(t) < seenTTL
+}
+
 func (s *seenSet) release(id string) {
 	s.mu.Lock()
 	delete(s.ids, id)
 	s.mu.Unlock()
 }
 
-// Submit queues a message for answering. It returns nil for a redelivery of
-// an event already taken (nothing to do), and an error when the queue did
-// not take the message before ctx ended; the caller then must not
-// acknowledge it, so that Slack delivers it again.
+// intake says what a queued job is to do once the message is (or is not)
+// in the inbox.
+type intake int
+
+const (
+	intakeRun    intake = iota // a new message: answer it
+	intakeResume               // owed from before: check what was posted, then answer
+	intakeSkip                 // not taken after all (the inbox write failed, or it was answered before)
+)
+
+// Submit takes a message for answering. It returns nil once the message is
+// queued and, when the Slack has a Journal, written to the inbox: only then
+// may the transport acknowledge it. A redelivery of an event this process
+// already took, or one already answered, returns nil with nothing to do.
+// An error means the message was not taken (queue full until ctx ended, or
+// the inbox could not be written); the caller must not acknowledge it, so
+// that Slack delivers it again.
 func (s *Slack) Submit(ctx context.Context, in Incoming) error {
 	if in.Received.IsZero() {
 		in.Received = s.now()
@@ -113,7 +142,13 @@ func (s *Slack) Submit(ctx context.Context, in Incoming) error {
 		s.logger().Info("redelivery of a taken event ignored", "event_id", in.EventID, "retry", in.Retry)
 		return nil
 	}
-	err := s.Queue.Submit(ctx, in.Key(), func(ctx context.Context) { s.process(ctx, in) })
+	if in.PrevEventID != "" && s.seenBefore(ctx, in.PrevEventID) {
+		s.Metrics.duplicate()
+		s.logger().Info("replay of a slash command ignored", "event_id", in.EventID, "first_as", in.PrevEventID)
+		return nil
+	}
+	gate := make(chan intake, 1)
+	err := s.Queue.Submit(ctx, in.Key(), func(ctx context.Context) { s.process(ctx, in, gate) })
 	if err != nil {
 		if in.EventID != "" {
 			s.seen.release(in.EventID)
@@ -121,55 +156,244 @@ func (s *Slack) Submit(ctx context.Context, in Incoming) error {
 		s.Metrics.failed("queue")
 		return err
 	}
+	if s.Journal == nil || in.EventID == "" {
+		gate <- intakeRun
+		return nil
+	}
+	how, err := s.record(ctx, in)
+	if err != nil {
+		gate <- intakeSkip
+		s.seen.release(in.EventID)
+		return err
+	}
+	gate <- how
 	return nil
 }
 
+// seenBefore reports whether id was taken, by this process or (in the
+// inbox) an earlier one.
+func (s *Slack) seenBefore(ctx context.Context, id string) bool {
+	if s.seen.has(id, s.now()) {
+		return true
+	}
+	if s.Journal == nil {
+		return false
+	}
+	_, err := s.Journal.InboxEntryFor(ctx, id)
+	return err == nil
+}
+
+// record writes in to the inbox and says what its job is to do.
+func (s *Slack) record(ctx context.Context, in Incoming) (intake, error) {
+	msg, err := json.Marshal(in)
+	if err != nil {
+		return intakeSkip, fmt.Errorf("encode message: %w", err)
+	}
+	fresh, err := s.journal().accept(ctx, store.InboxEntry{EventID: in.EventID, Received: in.Received, Thread: in.Key(), Message: msg})
+	if err != nil {
+		s.logger().Warn("message not written to the inbox; asking Slack to redeliver", "event_id", in.EventID, "err", err)
+		return intakeSkip, err
+	}
+	if fresh {
+		return intakeRun, nil
+	}
+	// In the inbox already: taken by an earlier process (or by this one
+	// before a failed hand-over). Answer it only if it is still owed.
+	e, err := s.Journal.InboxEntryFor(ctx, in.EventID)
+	if err != nil {
+		return intakeSkip, err
+	}
+	if e.State == store.InboxPosted {
+		s.Metrics.duplicate()
+		s.logger().Info("redelivery of an answered event ignored", "event_id", in.EventID)
+		return intakeSkip, nil
+	}
+	// Pending (owed from an earlier process) or failed (Slack refused the
+	// post, e.g. the bot was not in the channel): this delivery is the
+	// chance to answer.
+	return intakeResume, nil
+}
+
+func (s *Slack) journal() *journalWriter {
+	s.jwOnce.Do(func() {
+		s.jw = newJournalWriter(s.Journal, s.logger(), s.Metrics, nil)
+	})
+	return s.jw
+}
+
+// Resume queues every message the inbox still owes an answer, oldest
+// first, so that answers left by a process that stopped (SIGTERM past the
+// drain timeout, a crash, a Slack outage) are posted, once and in order
+// per thread. Call it before the transports start; called again later, it
+// queues only what this process has not taken within the last hour.
+func (s *Slack) Resume(ctx context.Context) (int, error) {
+	if s.Journal == nil {
+		return 0, nil
+	}
+	var after int64
+	n := 0
+	for {
+		es, err := s.Journal.PendingMessages(ctx, after, journalBatch)
+		if err != nil {
+			return n, fmt.Errorf("resume owed answers: %w", err)
+		}
+		if len(es) == 0 {
+			return n, nil
+		}
+		for _, e := range es {
+			after = e.Seq
+			var in Incoming
+			if err := json.Unmarshal(e.Message, &in); err != nil {
+				s.logger().Error("owed message unreadable; marking it failed", "event_id", e.EventID, "err", err)
+				s.journal().finish(store.Outcome{EventID: e.EventID, State: store.InboxFailed, Detail: "stored message unreadable: " + err.Error()})
+				continue
+			}
+			if !s.seen.claim(e.EventID, s.now()) {
+				continue
+			}
+			gate := make(chan intake, 1)
+			gate <- intakeResume
+			if err := s.Queue.Submit(ctx, in.Key(), func(ctx context.Context) { s.process(ctx, in, gate) }); err != nil {
+				s.seen.release(e.EventID)
+				return n, fmt.Errorf("resume owed answers: %w", err)
+			}
+			n++
+		}
+	}
+}
+
 // process answers one message and posts the answer.
-func (s *Slack) process(ctx context.Context, in Incoming) {
-	reply := s.Bot.Answer(ctx, in)
-	if reply.Duplicate {
+func (s *Slack) process(ctx context.Context, in Incoming, gate <-chan intake) {
+	how := <-gate
+	if how == intakeSkip || ctx.Err() != nil {
+		// Skipped, or the drain timed out: the inbox still owes it, and
+		// the next start answers it.
 		return
 	}
-	detail, err := s.post(ctx, in, reply)
-	if err == nil {
+	reply := s.Bot.Answer(ctx, in)
+	if ctx.Err() != nil {
+		return
+	}
+	if reply.Duplicate {
+		s.outcome(in, store.Outcome{EventID: in.EventID, QueryID: 0, State: store.InboxPosted, Detail: "answered before"})
+		return
+	}
+	var done map[int]bool
+	thread := in.ThreadTS
+	if how == intakeResume && (reply.QueryID == 0 || reply.Again) {
+		// It may have been posted by a process that stopped before
+		// recording it: post only the parts that are not in Slack.
+		var err error
+		thread, done, err = s.alreadyPosted(ctx, in)
+		if err != nil {
+			s.logger().Warn("could not check what was posted before the restart; posting the whole answer",
+				"event_id", in.EventID, "err", err)
+			thread, done = in.ThreadTS, nil
+		}
+	}
+	thread, detail, err := s.post(ctx, in, thread, reply, done)
+	o := store.Outcome{EventID: in.EventID, QueryID: reply.QueryID, State: store.InboxPosted, Detail: detail}
+	switch {
+	case err == nil:
 		took := s.now().Sub(in.Received)
 		s.Metrics.observeReply(took)
 		s.logger().Info("answered", "kind", reply.Kind, "query_id", reply.QueryID, "transport", in.Transport,
 			"channel", in.Channel, "user", in.UserID, "event_id", in.EventID, "retry", in.Retry, "took", took)
-	} else {
+		if reply.Result != nil && thread != "" && !reply.Private {
+			s.pictures().Offer(in.Channel, thread, reply.QueryID, reply.Result)
+		}
+	case ctx.Err() != nil || Retryable(err):
+		o.State = store.InboxPending
+		s.Metrics.failed("post")
+		s.logger().Warn("answer not posted yet; the next start tries again", "channel", in.Channel, "query_id", reply.QueryID, "err", err)
+	default:
+		o.State = store.InboxFailed
 		s.Metrics.failed("post")
 		s.logger().Error("answer not posted", "channel", in.Channel, "thread", in.ThreadTS, "query_id", reply.QueryID, "err", err)
 	}
-	if reply.QueryID > 0 && s.Bot.Log != nil {
-		// Record the outcome even when the work context is being
-		// cancelled by a shutdown that ran out of time.
-		rctx, cancel := context.WithTimeout(context.WithoutCancel(ctx), 10*time.Second)
-		defer cancel()
-		if rerr := s.Bot.Log.RecordDelivery(rctx, reply.QueryID, err == nil, detail); rerr != nil {
-			s.Metrics.failed("log")
-			s.logger().Error("delivery not recorded", "query_id", reply.QueryID, "err", rerr)
-		}
+	s.outcome(in, o)
+}
+
+// outcome records what came of an answer: in the inbox (with its delivery)
+// through the journal writer, or straight into the query log when there
+// is no journal.
+func (s *Slack) outcome(in Incoming, o store.Outcome) {
+	if s.Journal != nil && in.EventID != "" {
+		s.journal().finish(o)
+		return
+	}
+	if o.QueryID == 0 || s.Bot.Log == nil || o.Detail == "answered before" {
+		return
+	}
+	ctx, cancel := context.WithTimeout(context.Background(), 30*time.Second)
+	defer cancel()
+	if err := s.Bot.Log.RecordDelivery(ctx, o.QueryID, o.State == store.InboxPosted, o.Detail); err != nil {
+		s.Metrics.failed("log")
+		s.logger().Error("delivery not recorded", "query_id", o.QueryID, "err", err)
 	}
 }
 
-// post sends a reply into the message's thread (starting one for a slash
-// command) and uploads the E–pH picture. detail describes the outcome for
-// the log.
-func (s *Slack) post(ctx context.Context, in Incoming, reply Reply) (detail string, err error) {
-	if reply.Private && !strings.HasPrefix(in.Channel, "D") {
-		return s.postPrivate(ctx, in, reply)
-	}
+// alreadyPosted finds the thread of a message owed from before (for a
+// slash command, the request message the bot posted, "" when none) and
+// the answer parts already in it.
+func (s *Slack) alreadyPosted(ctx context.Context, in Incoming) (string, map[int]bool, error) {
 	thread := in.ThreadTS
+	if thread == "" {
+		ts, err := s.Poster.PostedRequest(ctx, in.Channel, in.EventID, in.Received.Add(-time.Minute))
+		if err != nil || ts == "" {
+			return "", nil, err
+		}
+		thread = ts
+	}
+	parts, err := s.Poster.PostedParts(ctx, in.Channel, thread, in.EventID)
+	return thread, parts, err
+}
+
+// Close finishes the work taken, until ctx ends: the answers queued, then
+// the pictures, then the outcome records. What is left unposted stays owed
+// in the inbox for the next start.
+func (s *Slack) Close(ctx context.Context) error {
+	err := s.Queue.Close(ctx)
+	s.pictures().Close(ctx)
+	if s.Journal != nil {
+		s.journal().close(ctx)
+	}
+	return err
+}
+
+func (s *Slack) pictures() *Pictures {
+	s.picOnce.Do(func() {
+		if s.Pictures == nil && s.Plot != nil {
+			s.Pictures = &Pictures{Plot: s.Plot, Poster: s.Poster, Logger: s.Logger, Metrics: s.Metrics}
+		}
+	})
+	return s.Pictures
+}
+
+// post sends a reply into the message's thread (starting one for a slash
+// command, unless thread already names it) and returns the thread. Parts
+// in done are already in Slack and are not posted again. detail describes
+// the outcome for the log.
+func (s *Slack) post(ctx context.Context, in Incoming, thread string, reply Reply, done map[int]bool) (string, string, error) {
+	if reply.Private && !strings.HasPrefix(in.Channel, "D") {
+		d, err := s.postPrivate(ctx, in, reply)
+		return "", d, err
+	}
 	if thread == "" {
 		// A slash command leaves no message to answer under: post the
 		// request, then answer in its thread.
-		anchor := fmt.Sprintf("<@%s> asked: `%s %s`", in.UserID, esc(orDefault(in.Command, "/mixward")), esc(in.Text))
-		ts, err := s.Poster.Post(ctx, in.Channel, "", Message{Text: anchor, Blocks: []slack.Block{section(anchor)}})
+		anchor := fmt.Sprintf("<@%s> asked: `%s %s`", in.UserID, esc(orDefault(in.Command, "/mixward")), esc(truncate(in.Text, 500)))
+		var meta *slack.SlackMetadata
+		if in.EventID != "" {
+			meta = &slack.SlackMetadata{EventType: metaRequest, EventPayload: map[string]any{"event_id": in.EventID}}
+		}
+		ts, err := s.Poster.Post(ctx, in.Channel, "", Message{Text: anchor, Blocks: []slack.Block{section(anchor)}, Meta: meta})
 		if err != nil && in.ResponseURL != "" && notMember(err) {
-			return s.respondPrivately(ctx, in, reply, err)
+			d, err := s.respondPrivately(ctx, in, reply, err)
+			return "", d, err
 		}
 		if err != nil {
-			return "request message not posted: " + errText(err), err
+			return "", "request message not posted: " + errText(err), err
 		}
 		thread = ts
 	}
@@ -177,33 +401,18 @@ func (s *Slack) post(ctx context.Context, in Incoming, reply Reply) (detail stri
 	msgs := SplitMessages(reply.Text, blocks)
 	var parts []string
 	for i, m := range msgs {
+		if done[i+1] {
+			parts = append(parts, "(posted before)")
+			continue
+		}
+		m.Meta = answerMeta(in.EventID, i+1)
 		ts, err := s.Poster.Post(ctx, in.Channel, thread, m)
 		if err != nil {
-			return fmt.Sprintf("part %d of %d not posted: %s", i+1, len(msgs), errText(err)), err
+			return thread, fmt.Sprintf("part %d of %d not posted: %s", i+1, len(msgs), errText(err)), err
 		}
 		parts = append(parts, ts)
 	}
-	detail = fmt.Sprintf("posted in %s thread %s as %s", in.Channel, thread, strings.Join(parts, ","))
-	if reply.Result != nil && s.Plot != nil {
-		png, ok, perr := s.Plot.Plot(reply.Result)
-		switch {
-		case perr != nil:
-			s.logger().Warn("E–pH picture not drawn", "query_id", reply.QueryID, "err", perr)
-			detail += "; picture not drawn"
-		case ok && len(png) > 0:
-			name := fmt.Sprintf("mixward-eph-%d.png", reply.QueryID)
-			title := "E–pH picture: " + truncate(reply.Result.Request, 200)
-			alt := "E–pH diagram of the oxidizing and reducing couples with the mix pH marked"
-			if uerr := s.Poster.Upload(ctx, in.Channel, thread, name, title, alt, png); uerr != nil {
-				s.Metrics.failed("upload")
-				s.logger().Warn("E–pH picture not uploaded", "query_id", reply.QueryID, "err", uerr)
-				detail += "; picture not uploaded: " + errText(uerr)
-			} else {
-				detail += "; picture uploaded"
-			}
-		}
-	}
-	return detail, nil
+	return thread, fmt.Sprintf("posted in %s thread %s as %s", in.Channel, thread, strings.Join(parts, ",")), nil
 }
 
 func orDefault(s, d string) string {
@@ -269,8 +478,35 @@ func (s *Slack) FromCommand(c slack.SlashCommand, transport string) Incoming {
 	}
 	if c.TriggerID != "" {
 		in.EventID = "cmd:" + c.TriggerID
+	} else {
+		// No trigger id (Slack always sends one; a replay or a hand-made
+		// request may not): the command is known by a hash of its fields
+		// within a time slot, so a replay is answered once.
+		in.EventID, in.PrevEventID = commandSum(c, in.Received)
 	}
 	return in
+}
+
+// CommandWindow is the time slot within which a slash command without a
+// trigger_id counts as a replay of one with the same fields: the current
+// and the previous slot are checked, so a replay between 5 and 10 minutes
+// after the first is caught too. It matches the signature window, the
+// longest a signed request can be replayed.
+const CommandWindow = SignatureWindow
+
+// commandSum is the id of a slash command without trigger_id in the slot
+// of at, and in the slot before: "cmd-sum:" + the first 32 hex digits of
+// the SHA-256 of team, channel, user, command, text and response URL, +
+// "@" + the slot number.
+func commandSum(c slack.SlashCommand, at time.Time) (id, prev string) {
+	h := sha256.New()
+	for _, f := range []string{c.TeamID, c.ChannelID, c.UserID, c.Command, c.Text, c.ResponseURL} {
+		h.Write([]byte(f))
+		h.Write([]byte{0})
+	}
+	sum := hex.EncodeToString(h.Sum(nil))[:32]
+	slot := at.Unix() / int64(CommandWindow/time.Second)
+	return fmt.Sprintf("cmd-sum:%s@%d", sum, slot), fmt.Sprintf("cmd-sum:%s@%d", sum, slot-1)
 }
 
 // commandAck is the immediate, private answer to a slash command.

@@ -60,7 +60,8 @@ func TestMentionGetsThreadedBlockKitReply(t *testing.T) {
 		t.Errorf("the mention was passed on as part of the request:\n%s", text)
 	}
 
-	ups := e.slack.uploadsNow()
+	// The picture follows the answer, from its own pool.
+	ups := e.slack.waitUploads(1)
 	if len(ups) != 1 || ups[0].Channel != "CPLANT" || ups[0].ThreadTS != "1700000100.000100" {
 		t.Errorf("uploads = %+v, want one E–pH picture in the thread", ups)
 	}
@@ -77,8 +78,8 @@ func TestMentionGetsThreadedBlockKitReply(t *testing.T) {
 		t.Errorf("logged summary = oxidizer %q reducer %q hazards %v engine %q data %q", q.Oxidizer, q.Reducer, q.Hazards, q.EngineVersion, q.DataHash)
 	}
 	ds, err := e.db.Deliveries(context.Background(), q.ID)
-	if err != nil || len(ds) != 1 || !ds[0].OK || !strings.Contains(ds[0].Detail, "picture uploaded") {
-		t.Errorf("deliveries = %+v, %v; want one ok with the picture", ds, err)
+	if err != nil || len(ds) != 1 || !ds[0].OK || !strings.Contains(ds[0].Detail, "posted in CPLANT thread 1700000100.000100") {
+		t.Errorf("deliveries = %+v, %v; want one ok in the thread", ds, err)
 	}
 }
 

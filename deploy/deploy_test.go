@@ -136,7 +136,7 @@ func TestManifests(t *testing.T) {
 		return out
 	}
 	sock, http := read(t, "slack-manifest.socket.yaml"), read(t, "slack-manifest.http.yaml")
-	want := []string{"app_mentions:read", "chat:write", "commands", "files:write", "im:history", "usergroups:read"}
+	want := []string{"app_mentions:read", "channels:history", "chat:write", "commands", "files:write", "groups:history", "im:history", "mpim:history", "usergroups:read"}
 	for name, m := range map[string]string{"socket": sock, "http": http} {
 		if got := scopes(m); strings.Join(got, ",") != strings.Join(want, ",") {
 			t.Errorf("%s manifest scopes = %v, want %v", name, got, want)
@@ -187,5 +187,51 @@ func TestEnvDocumented(t *testing.T) {
 		if !strings.Contains(readme, v) {
 			t.Errorf("%s is read by mixward but not documented in README.md", v)
 		}
+	}
+}
+
+// TestAdminOnLoopback: the admin endpoints (/metrics has no authentication)
+// default to loopback in the image, the unit and the env example, and each
+// says how to expose them on purpose.
+func TestAdminOnLoopback(t *testing.T) {
+	docker := read(t, "../Dockerfile")
+	if !strings.Contains(docker, "MIXWARD_ADMIN_ADDR=127.0.0.1:9464") {
+		t.Errorf("Dockerfile does not default the admin address to 127.0.0.1:9464")
+	}
+	for _, in := range instructions(docker) {
+		if strings.HasPrefix(in, "EXPOSE") && strings.Contains(in, "9464") {
+			t.Errorf("Dockerfile exposes the admin port: %q", in)
+		}
+	}
+	if !strings.Contains(docker, "-p 127.0.0.1:9464:9464") {
+		t.Errorf("Dockerfile does not say how to publish the admin port deliberately")
+	}
+	env := read(t, "mixward.env.example")
+	if !regexp.MustCompile(`(?m)^MIXWARD_ADMIN_ADDR=127\.0\.0\.1:9464$`).MatchString(env) || !strings.Contains(env, "private interface deliberately") {
+		t.Errorf("mixward.env.example: want MIXWARD_ADMIN_ADDR=127.0.0.1:9464 and how to expose it")
+	}
+	if strings.Contains(read(t, "mixward.service"), "MIXWARD_ADMIN_ADDR=0.0.0.0") {
+		t.Errorf("mixward.service puts the admin endpoints on every interface")
+	}
+}
+
+// TestDynamicUserAdvice: the unit runs as a DynamicUser with its state in
+// StateDirectory, and no document asks for a chown to a user that exists
+// only while the service runs.
+func TestDynamicUserAdvice(t *testing.T) {
+	unit := read(t, "mixward.service")
+	for _, line := range []string{"DynamicUser=yes", "StateDirectory=mixward", "WorkingDirectory=/var/lib/mixward"} {
+		if !regexp.MustCompile(`(?m)^` + regexp.QuoteMeta(line) + `$`).MatchString(unit) {
+			t.Errorf("mixward.service lacks %q", line)
+		}
+	}
+	owned := regexp.MustCompile(`(?i)owned by the service user|chown\s+mixward|chown\s+\S*:mixward`)
+	for _, f := range []string{"mixward.service", "mixward.env.example", "../README.md"} {
+		if m := owned.FindString(read(t, f)); m != "" {
+			t.Errorf("%s advises %q, which cannot work with DynamicUser=yes", f, m)
+		}
+	}
+	if env := read(t, "mixward.env.example"); !strings.Contains(env, "-o root -g root -m 0600") {
+		t.Errorf("mixward.env.example does not say to install the file root-owned, mode 0600")
 	}
 }

@@ -26,6 +26,12 @@ func (db *DB) Backup(ctx context.Context, dest string) error {
 	} else if !errors.Is(err, os.ErrNotExist) {
 		return fmt.Errorf("backup: %w", err)
 	}
+	// Create the file first, private to the owner and only if it is new.
+	f, err := os.OpenFile(dest, os.O_RDWR|os.O_CREATE|os.O_EXCL, 0o600)
+	if err != nil {
+		return fmt.Errorf("backup: %w (backups never overwrite; choose a new file name)", err)
+	}
+	f.Close()
 	out, err := sql.Open("sqlite3", dsn(dest))
 	if err != nil {
 		return fmt.Errorf("backup to %s: %w", dest, err)
@@ -74,47 +80,22 @@ func copyDB(ctx context.Context, dst, src *sql.DB) error {
 	})
 }
 
-// openReadOnly opens path for reading only, without creating it or
-// changing its schema.
-func openReadOnly(ctx context.Context, path string) (*sql.DB, error) {
-	if _, err := os.Stat(path); err != nil {
-		return nil, fmt.Errorf("open %s: %w", path, err)
-	}
-	r, err := sql.Open("sqlite3", dsn(path, "mode=ro", "_query_only=1"))
-	if err != nil {
-		return nil, fmt.Errorf("open %s: %w", path, err)
-	}
-	if err := r.PingContext(ctx); err != nil {
-		r.Close()
-		return nil, fmt.Errorf("open %s: %w", path, err)
-	}
-	var v int
-	if err := r.QueryRowContext(ctx, `SELECT coalesce(max(version), 0) FROM schema_version`).Scan(&v); err != nil {
-		r.Close()
-		return nil, fmt.Errorf("open %s: not a mixward database (%v)", path, err)
-	}
-	if v > len(migrations) {
-		r.Close()
-		return nil, fmt.Errorf("open %s: %w: the file has schema version %d, this mixward knows up to %d",
-			path, ErrSchemaTooNew, v, len(migrations))
-	}
-	return r, nil
+// VerifyFile verifies the hash chain of the database file at path (a
+// backup, say) without changing it, with no key and no anchors. A file of
+// an older schema is read as it is.
+func VerifyFile(ctx context.Context, path string) (VerifyReport, error) {
+	return VerifyFileWith(ctx, path, nil)
 }
 
-// VerifyFile verifies the hash chain of the database file at path (a
-// backup, say) without changing it.
-func VerifyFile(ctx context.Context, path string) (VerifyReport, error) {
-	r, err := openReadOnly(ctx, path)
+// VerifyFileWith is VerifyFile checking keyed rows with key (nil: none)
+// and the anchors given.
+func VerifyFileWith(ctx context.Context, path string, key *ChainKey, anchors ...Anchor) (VerifyReport, error) {
+	db, err := OpenReadOnly(ctx, path, Options{ChainKey: key, OlderSchema: true})
 	if err != nil {
 		return VerifyReport{}, fmt.Errorf("verify: %w", err)
 	}
-	defer r.Close()
-	tx, err := r.BeginTx(ctx, &sql.TxOptions{ReadOnly: true})
-	if err != nil {
-		return VerifyReport{}, fmt.Errorf("verify %s: %w", path, err)
-	}
-	defer tx.Rollback()
-	return verifyTx(ctx, tx)
+	defer db.Close()
+	return db.Verify(ctx, anchors...)
 }
 
 // Restore replaces the whole content of the open database with the
@@ -122,19 +103,22 @@ func VerifyFile(ctx context.Context, path string) (VerifyReport, error) {
 // A backup from an older release is migrated. It returns the verification
 // of the restored database.
 func (db *DB) Restore(ctx context.Context, src string) (VerifyReport, error) {
-	rep, err := VerifyFile(ctx, src)
+	if err := db.writable("restore"); err != nil {
+		return VerifyReport{}, err
+	}
+	rep, err := VerifyFileWith(ctx, src, db.key)
 	if err != nil {
 		return rep, fmt.Errorf("restore: %w", err)
 	}
 	if !rep.OK {
 		return rep, fmt.Errorf("restore: %s: %w: %s; nothing was restored", src, ErrBrokenChain, rep.Problem)
 	}
-	in, err := openReadOnly(ctx, src)
+	in, err := OpenReadOnly(ctx, src, Options{OlderSchema: true})
 	if err != nil {
 		return rep, fmt.Errorf("restore: %w", err)
 	}
 	defer in.Close()
-	if err := copyDB(ctx, db.w, in); err != nil {
+	if err := copyDB(ctx, db.w, in.r); err != nil {
 		return rep, fmt.Errorf("restore from %s: %w", src, err)
 	}
 	if err := db.migrate(ctx, len(migrations)); err != nil {

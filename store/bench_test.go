@@ -301,3 +301,19 @@ func (g *generator) query(i int) *Query {
 	q.Result = []byte(fmt.Sprintf(`{"verdict":%q,"e_cell_v":%.3f}`, q.Verdict, e))
 	return q
 }
+
+// BenchmarkVerify walks the whole benchmark log: every hash, the hazard
+// rows, the search index's text, and its word counts against a rebuild.
+func BenchmarkVerify(b *testing.B) {
+	db, rows := benchDB(b)
+	ctx := context.Background()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		rep, err := db.Verify(ctx)
+		if err != nil || !rep.OK || rep.Rows < int64(rows) {
+			b.Fatalf("Verify = %+v, %v", rep, err)
+		}
+	}
+	b.StopTimer()
+	b.ReportMetric(float64(rows)/(b.Elapsed().Seconds()/float64(b.N)), "rows/s")
+}

@@ -1,10 +1,15 @@
 package store
 
 import (
+	"bytes"
+	"crypto/hmac"
 	"crypto/sha256"
 	"database/sql"
 	"encoding/hex"
+	"errors"
+	"fmt"
 	"hash"
+	"os"
 	"strconv"
 )
 
@@ -12,6 +17,15 @@ import (
 const (
 	kindQuery = "query"
 	kindPrune = "prune"
+)
+
+// Chain kinds a row may use (column queries.chain, schema version 4).
+const (
+	// ChainPlain is SHA-256 over the row's content: anyone can recompute it.
+	ChainPlain = "sha256"
+	// ChainKeyed is HMAC-SHA256 under a key kept outside the database:
+	// only a holder of the key can compute it.
+	ChainKeyed = "hmac-sha256"
 )
 
 // row is one row of the queries table exactly as stored: the hash covers
@@ -40,32 +54,69 @@ type row struct {
 	DataHash       string
 	PrevHash       string
 	Hash           string
+	Chain          string // ChainPlain or ChainKeyed
+	KeyID          string // the key's id for ChainKeyed, else ""
 }
 
 // rowColumns lists the queries columns in the order of row's fields.
 const rowColumns = `id, kind, time, user_id, user_name, channel, event_id, request, resolved, verdict, error,
 	species, oxidizer, reducer, e_cell_v, e_cell_standard_v, hazards, streams, result, engine_version, data_hash,
-	prev_hash, hash`
+	prev_hash, hash, chain, key_id`
+
+// rowColumnsV3 reads a file of schema version 1–3 (before chain kinds) into
+// the same fields: every row of such a file is plain.
+const rowColumnsV3 = `id, kind, time, user_id, user_name, channel, event_id, request, resolved, verdict, error,
+	species, oxidizer, reducer, e_cell_v, e_cell_standard_v, hazards, streams, result, engine_version, data_hash,
+	prev_hash, hash, 'sha256', ''`
+
+// rowColumnsFor returns the column list for a file of schema version ver.
+func rowColumnsFor(ver int) string {
+	if ver < 4 {
+		return rowColumnsV3
+	}
+	return rowColumns
+}
 
 // scanDest returns pointers to r's fields in rowColumns order.
 func (r *row) scanDest() []any {
 	return []any{&r.ID, &r.Kind, &r.Time, &r.UserID, &r.UserName, &r.Channel, &r.EventID, &r.Request, &r.Resolved,
 		&r.Verdict, &r.Error, &r.Species, &r.Oxidizer, &r.Reducer, &r.ECellV, &r.ECellStandardV, &r.Hazards,
-		&r.Streams, &r.Result, &r.EngineVersion, &r.DataHash, &r.PrevHash, &r.Hash}
+		&r.Streams, &r.Result, &r.EngineVersion, &r.DataHash, &r.PrevHash, &r.Hash, &r.Chain, &r.KeyID}
 }
 
-// chainVersion names the content encoding below. A change to the encoding
-// is a new version, so rows written before it still verify.
-const chainVersion = "mixward-chain-1"
+// Content encodings. A change to an encoding is a new version, so rows
+// written before it still verify.
+const (
+	chainVersion      = "mixward-chain-1" // plain rows
+	chainVersionKeyed = "mixward-chain-2" // keyed rows: adds chain and key_id
+)
 
-// computeHash is the chain hash of r: SHA-256 over a canonical encoding of
-// every content column and prev_hash (not hash itself). Each field is
-// written as "name len:value\n" (len in bytes), NULL as "name -\n", numbers
-// in Go's shortest round-trip form, so no two different rows encode alike.
+// computeHash is the plain chain hash of r: SHA-256 over a canonical
+// encoding of every content column and prev_hash (not hash itself). Each
+// field is written as "name len:value\n" (len in bytes), NULL as "name -\n",
+// numbers in Go's shortest round-trip form, so no two different rows encode
+// alike.
 func computeHash(r *row) string {
 	h := sha256.New()
 	e := encoder{h: h}
 	e.str("v", chainVersion)
+	encodeContent(e, r)
+	return hex.EncodeToString(h.Sum(nil))
+}
+
+// keyedHash is the keyed chain hash of r: HMAC-SHA256 under k of the same
+// encoding, headed by the keyed version, the chain kind and the key id.
+func keyedHash(r *row, k *ChainKey) string {
+	h := hmac.New(sha256.New, k.secret)
+	e := encoder{h: h}
+	e.str("v", chainVersionKeyed)
+	e.str("chain", ChainKeyed)
+	e.str("key_id", k.id)
+	encodeContent(e, r)
+	return hex.EncodeToString(h.Sum(nil))
+}
+
+func encodeContent(e encoder, r *row) {
 	e.str("id", strconv.FormatInt(r.ID, 10))
 	e.str("kind", r.Kind)
 	e.str("time", r.Time)
@@ -92,7 +143,17 @@ func computeHash(r *row) string {
 	e.str("engine_version", r.EngineVersion)
 	e.str("data_hash", r.DataHash)
 	e.str("prev_hash", r.PrevHash)
-	return hex.EncodeToString(h.Sum(nil))
+}
+
+// seal sets r's chain kind and hash: keyed under k, plain when k is nil.
+func seal(r *row, k *ChainKey) {
+	if k == nil {
+		r.Chain, r.KeyID = ChainPlain, ""
+		r.Hash = computeHash(r)
+		return
+	}
+	r.Chain, r.KeyID = ChainKeyed, k.id
+	r.Hash = keyedHash(r, k)
 }
 
 type encoder struct{ h hash.Hash }
@@ -118,3 +179,48 @@ func (e encoder) float(name string, f sql.NullFloat64) {
 	}
 	e.str(name, strconv.FormatFloat(f.Float64, 'g', -1, 64))
 }
+
+// ChainKey is the secret of the keyed chain. Keep it outside the database
+// (and outside its backups): someone with the database file but not the
+// key cannot compute the hash of an edited, inserted or appended row.
+type ChainKey struct {
+	secret []byte
+	id     string
+}
+
+// MinChainKeyLen is the shortest key accepted, in bytes.
+const MinChainKeyLen = 32
+
+// ErrChainKey is wrapped by errors about a missing, short or wrong key.
+var ErrChainKey = errors.New("chain key")
+
+// NewChainKey makes a key from secret (at least MinChainKeyLen bytes).
+func NewChainKey(secret []byte) (*ChainKey, error) {
+	if len(secret) < MinChainKeyLen {
+		return nil, fmt.Errorf("%w: %d bytes is too short; use at least %d random bytes (e.g. the output of 'openssl rand -hex 32')",
+			ErrChainKey, len(secret), MinChainKeyLen)
+	}
+	k := &ChainKey{secret: bytes.Clone(secret)}
+	m := hmac.New(sha256.New, k.secret)
+	m.Write([]byte("mixward chain key id"))
+	k.id = hex.EncodeToString(m.Sum(nil))[:16]
+	return k, nil
+}
+
+// ReadChainKey reads a key file: its whole content, less trailing line
+// breaks and spaces, is the key.
+func ReadChainKey(path string) (*ChainKey, error) {
+	b, err := os.ReadFile(path)
+	if err != nil {
+		return nil, fmt.Errorf("%w file: %v", ErrChainKey, err)
+	}
+	k, err := NewChainKey(bytes.TrimRight(b, " \t\r\n"))
+	if err != nil {
+		return nil, fmt.Errorf("key file %s: %w", path, err)
+	}
+	return k, nil
+}
+
+// ID names the key without revealing it: 16 hex digits of an HMAC of a
+// fixed text under the key.
+func (k *ChainKey) ID() string { return k.id }

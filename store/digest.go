@@ -26,6 +26,13 @@ type Digest struct {
 	Flagged     []FlaggedMix   `json:"flagged_mixes"` // spontaneous mixes with a danger or warning hazard
 	ParseErrors []ParseFailure `json:"parse_errors"`
 	TopPairs    []PairCount    `json:"top_stream_pairs"`
+	// HeadID and HeadHash are the newest row of the log logged before
+	// Until, as read when the digest was made (0 and "" for an empty log).
+	// Noted outside the database, they let `mixward log verify --expect`
+	// (or --anchors) prove later that no row up to it was rewritten or
+	// cut off.
+	HeadID   int64  `json:"head_id"`
+	HeadHash string `json:"head_hash"`
 
 	// Location is the site time zone Text uses.
 	Location *time.Location `json:"-"`
@@ -99,6 +106,7 @@ func (db *DB) Digest(ctx context.Context, since, until time.Time) (*Digest, erro
 		func() error { return digestFlagged(ctx, tx, d, window, lo, hi) },
 		func() error { return digestErrors(ctx, tx, d, window, lo, hi) },
 		func() error { return digestPairs(ctx, tx, d, window, lo, hi) },
+		func() error { return digestHead(ctx, tx, d, until) },
 	} {
 		if err := step(); err != nil {
 			return nil, fmt.Errorf("digest: %w", err)
@@ -159,35 +167,50 @@ func digestCounts(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi str
 }
 
 func digestFlagged(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi string) error {
-	// The time index (which holds the verdict) drives; hazards are looked
-	// up by query id.
-	rows, err := tx.QueryContext(ctx, `SELECT q.id, q.time, q.user_id, q.user_name, q.channel, q.request, q.resolved,
-		       h.code, h.severity, h.message
-		  FROM queries q CROSS JOIN query_hazards h ON h.query_id = q.id
-		 WHERE `+window+` AND q.verdict = 'spontaneous' AND h.severity IN ('danger', 'warning')
-		 ORDER BY q.time, q.id, h.pos`, lo, hi)
+	// The time index (which holds the verdict) drives; the hazards are the
+	// hashed JSON of each row, so editing a derived table cannot hide one.
+	rows, err := tx.QueryContext(ctx, `SELECT q.id, q.time, q.user_id, q.user_name, q.channel, q.request, q.resolved, q.hazards
+		  FROM queries q
+		 WHERE `+window+` AND q.verdict = 'spontaneous' AND (q.hazards LIKE '%"danger"%' OR q.hazards LIKE '%"warning"%')
+		 ORDER BY q.time, q.id`, lo, hi)
 	if err != nil {
 		return err
 	}
 	defer rows.Close()
 	for rows.Next() {
 		var f FlaggedMix
-		var ts string
-		var h Hazard
-		if err := rows.Scan(&f.ID, &ts, &f.UserID, &f.UserName, &f.Channel, &f.Request, &f.Resolved, &h.Code, &h.Severity, &h.Message); err != nil {
+		var ts, raw string
+		if err := rows.Scan(&f.ID, &ts, &f.UserID, &f.UserName, &f.Channel, &f.Request, &f.Resolved, &raw); err != nil {
 			return err
 		}
-		if n := len(d.Flagged); n > 0 && d.Flagged[n-1].ID == f.ID {
-			d.Flagged[n-1].Hazards = append(d.Flagged[n-1].Hazards, h)
+		var hz []Hazard
+		if err := json.Unmarshal([]byte(raw), &hz); err != nil {
+			return fmt.Errorf("query %d: stored hazards are not a JSON array: %v", f.ID, err)
+		}
+		for _, h := range hz {
+			if h.Severity == "danger" || h.Severity == "warning" {
+				f.Hazards = append(f.Hazards, h)
+			}
+		}
+		if len(f.Hazards) == 0 {
 			continue
 		}
 		if f.Time, err = parseTime(ts); err != nil {
 			return err
 		}
-		f.Hazards = []Hazard{h}
 		d.Flagged = append(d.Flagged, f)
 	}
 	return rows.Err()
+}
+
+// digestHead finds the newest row logged before until (by id among the
+// rows before it) and its hash.
+func digestHead(ctx context.Context, tx *sql.Tx, d *Digest, until time.Time) error {
+	_, hi, empty, err := idRange(ctx, tx, time.Time{}, until)
+	if err != nil || empty || hi == 0 {
+		return err
+	}
+	return tx.QueryRowContext(ctx, `SELECT id, hash FROM queries WHERE id = ?`, hi).Scan(&d.HeadID, &d.HeadHash)
 }
 
 func digestErrors(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi string) error {
@@ -338,7 +361,7 @@ func (d *Digest) Text() string {
 				}
 				if i < len(f.Hazards) {
 					h := f.Hazards[i]
-					hz = fmt.Sprintf("%s %s: %s", h.Severity, h.Code, h.Message)
+					hz = Printable(fmt.Sprintf("%s %s: %s", h.Severity, h.Code, h.Message))
 				}
 				if i == 0 {
 					fmt.Fprintf(tw, "  %s\t%d\t%s\t%s\t%s\n", at(f.Time), f.ID, who(f.UserName, f.UserID), r, hz)
@@ -356,7 +379,7 @@ func (d *Digest) Text() string {
 		fmt.Fprintln(tw, "  TIME\tID\tWHO\tREQUEST\tERROR")
 		for _, p := range d.ParseErrors {
 			fmt.Fprintf(tw, "  %s\t%d\t%s\t%s\t%s\n", at(p.Time), p.ID, who(p.UserName, p.UserID),
-				shorten(p.Request, maxTextRequest), p.Error)
+				shorten(p.Request, maxTextRequest), Printable(p.Error))
 		}
 		tw.Flush()
 	}
@@ -368,7 +391,7 @@ func (d *Digest) Text() string {
 		tw = tabwriter.NewWriter(&b, 0, 4, 2, ' ', 0)
 		fmt.Fprintln(tw, "  TIMES\tSTREAMS")
 		for _, p := range d.TopPairs {
-			fmt.Fprintf(tw, "  %d\t%s  +  %s\n", p.Count, p.Streams[0], p.Streams[1])
+			fmt.Fprintf(tw, "  %d\t%s  +  %s\n", p.Count, Printable(p.Streams[0]), Printable(p.Streams[1]))
 		}
 		tw.Flush()
 	}
@@ -383,6 +406,12 @@ func (d *Digest) Text() string {
 			fmt.Fprintf(tw, "  %d\t%s\n", a.Queries, who(a.UserName, a.UserID))
 		}
 		tw.Flush()
+	}
+	if d.HeadHash != "" {
+		fmt.Fprintf(&b, "\nLog head at the end of the period: row %d, hash %s\n", d.HeadID, d.HeadHash)
+		fmt.Fprintf(&b, "To check later that nothing up to it was rewritten or cut off: mixward log verify --expect %s\n", d.HeadHash)
+	} else {
+		b.WriteString("\nLog head at the end of the period: none (nothing was logged before it)\n")
 	}
 	b.WriteString("\n" + Advisory + "\n")
 	lines := strings.Split(b.String(), "\n")
@@ -399,7 +428,9 @@ func untilHeader(since, until time.Time) string {
 	return until.Format("Mon 02 Jan 2006 15:04 MST")
 }
 
+// who names the asker, safe to print.
 func who(name, id string) string {
+	name, id = Printable(name), Printable(id)
 	switch {
 	case name != "" && id != "" && id != name:
 		return name + " (" + id + ")"
@@ -418,12 +449,12 @@ func plural(n int, one, many string) string {
 	return many
 }
 
-// shorten cuts s to n runes with an ellipsis, on one line.
+// shorten cuts s to n runes with an ellipsis, on one line, safe to print
+// (the escapes may make it longer).
 func shorten(s string, n int) string {
 	s = strings.Join(strings.Fields(s), " ")
-	if utf8.RuneCountInString(s) <= n {
-		return s
+	if utf8.RuneCountInString(s) > n {
+		s = string([]rune(s)[:n-1]) + "…"
 	}
-	r := []rune(s)
-	return string(r[:n-1]) + "…"
+	return Printable(s)
 }

@@ -27,6 +27,9 @@ func (db *DB) Prune(ctx context.Context, before time.Time, by string) (int64, er
 	if before.IsZero() {
 		return 0, fmt.Errorf("prune: %w: no cut-off date", ErrInvalid)
 	}
+	if err := db.writable("prune"); err != nil {
+		return 0, err
+	}
 	conn, err := db.w.Conn(ctx)
 	if err != nil {
 		return 0, fmt.Errorf("prune: %w", err)

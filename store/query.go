@@ -51,6 +51,8 @@ type Query struct {
 
 	Hash     string `json:"hash"`      // set by LogQuery
 	PrevHash string `json:"prev_hash"` // set by LogQuery
+	Chain    string `json:"chain"`     // ChainPlain or ChainKeyed; set by LogQuery
+	KeyID    string `json:"key_id"`    // the key's id when keyed; set by LogQuery
 }
 
 // The verdicts a query can carry.
@@ -89,6 +91,9 @@ func (db *DB) LogQuery(ctx context.Context, q *Query) (int64, error) {
 	if q == nil {
 		return 0, fmt.Errorf("log query: %w: nil query", ErrInvalid)
 	}
+	if err := db.writable("log query"); err != nil {
+		return 0, err
+	}
 	if q.Time.IsZero() {
 		q.Time = db.now()
 	}
@@ -124,7 +129,7 @@ func (db *DB) LogQuery(ctx context.Context, q *Query) (int64, error) {
 	if err := tx.Commit(); err != nil {
 		return 0, fmt.Errorf("log query: commit: %w", err)
 	}
-	q.ID, q.Hash, q.PrevHash = r.ID, r.Hash, r.PrevHash
+	q.ID, q.Hash, q.PrevHash, q.Chain, q.KeyID = r.ID, r.Hash, r.PrevHash, r.Chain, r.KeyID
 	return r.ID, nil
 }
 
@@ -248,11 +253,17 @@ func (db *DB) appendRow(ctx context.Context, tx *sql.Tx, r *row, emptyPrev strin
 	}
 	r.ID = max(seq, lastID) + 1
 	r.PrevHash = prev
-	r.Hash = computeHash(r)
-	_, err := db.ws.insert.exec(ctx, tx,
-		r.ID, r.Kind, r.Time, r.UserID, r.UserName, r.Channel, r.EventID, r.Request, r.Resolved, r.Verdict,
+	args := []any{r.ID, r.Kind, r.Time, r.UserID, r.UserName, r.Channel, r.EventID, r.Request, r.Resolved, r.Verdict,
 		r.Error, r.Species, r.Oxidizer, r.Reducer, r.ECellV, r.ECellStandardV, r.Hazards, r.Streams, r.Result,
-		r.EngineVersion, r.DataHash, r.PrevHash, r.Hash)
+		r.EngineVersion, r.DataHash, r.PrevHash}
+	var err error
+	if db.ver < 4 { // a file of an older schema (tests build them): plain rows without the chain columns
+		seal(r, nil)
+		_, err = tx.ExecContext(ctx, insertV3, append(args, r.Hash)...)
+	} else {
+		seal(r, db.key)
+		_, err = db.ws.insert.exec(ctx, tx, append(args, r.Hash, r.Chain, r.KeyID)...)
+	}
 	if isUnique(err) {
 		return fmt.Errorf("%w: event id %q already logged", ErrDuplicate, r.EventID)
 	}
@@ -320,7 +331,7 @@ func decodeQuery(r *row) (*Query, error) {
 		ID: r.ID, Time: t, UserID: r.UserID, UserName: r.UserName, Channel: r.Channel, EventID: r.EventID,
 		Request: r.Request, Resolved: r.Resolved, Verdict: r.Verdict, Error: r.Error,
 		Oxidizer: r.Oxidizer, Reducer: r.Reducer, EngineVersion: r.EngineVersion, DataHash: r.DataHash,
-		Hash: r.Hash, PrevHash: r.PrevHash,
+		Hash: r.Hash, PrevHash: r.PrevHash, Chain: r.Chain, KeyID: r.KeyID,
 	}
 	if r.ECellV.Valid {
 		q.ECellV = &r.ECellV.Float64

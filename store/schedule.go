@@ -274,6 +274,9 @@ func (s *Scheduler) Next() time.Time { return s.sched.Next(s.now().In(s.loc)) }
 // was (sent, in progress, or of unknown outcome). A failed slot is
 // re-claimed.
 func (db *DB) claimDigest(ctx context.Context, slot, since time.Time) (bool, error) {
+	if err := db.writable("claim digest"); err != nil {
+		return false, err
+	}
 	tx, err := db.w.BeginTx(ctx, nil)
 	if err != nil {
 		return false, fmt.Errorf("claim digest: %w", err)
@@ -302,6 +305,9 @@ func (db *DB) claimDigest(ctx context.Context, slot, since time.Time) (bool, err
 }
 
 func (db *DB) finishDigest(ctx context.Context, slot time.Time, status, detail string, d *Digest) error {
+	if err := db.writable("record digest"); err != nil {
+		return err
+	}
 	body := ""
 	if d != nil {
 		b, err := d.JSON()

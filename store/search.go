@@ -3,7 +3,9 @@ package store
 import (
 	"context"
 	"database/sql"
+	"encoding/json"
 	"fmt"
+	"math"
 	"strings"
 	"time"
 	"unicode"
@@ -24,9 +26,7 @@ type SearchOptions struct {
 	Verdict string    // one of Verdicts
 	Hazard  string    // hazard code (any case)
 	// HazardAny matches a query with any of these codes (any case); with
-	// Hazard both apply. The CLI and the bot fill it with a code and its
-	// aliases (engine/hazard.Equivalent), so that renamed codes still find
-	// older records.
+	// Hazard it finds a code together with its older aliases.
 	HazardAny []string
 	Limit     int // page size; 0 means 50, at most 1000
 	Offset    int // rows to skip, for paging
@@ -66,11 +66,16 @@ func (db *DB) Search(ctx context.Context, o SearchOptions) (SearchPage, error) {
 	}
 	phrases := Phrases(o.Terms)
 	page.Phrases = phrases
+	if n, w := len(phrases), wordCount(phrases); n > MaxSearchTerms || w > MaxSearchWords {
+		return page, fmt.Errorf("search: %w: %d different terms of %d words; at most %d terms (a quoted phrase counts as one) of %d words in all "+
+			"are searched at once (narrow the search with the date, user, verdict or hazard filters instead)",
+			ErrInvalid, n, w, MaxSearchTerms, MaxSearchWords)
+	}
 	if strings.TrimSpace(o.Terms) != "" && len(phrases) == 0 {
 		return page, nil // only punctuation: nothing can match
 	}
 
-	if len(phrases) > 0 {
+	if len(phrases) > 0 && !db.ro {
 		if err := db.syncIndex(ctx); err != nil {
 			return page, fmt.Errorf("search: bring the index up to date: %w", err)
 		}
@@ -80,7 +85,65 @@ func (db *DB) Search(ctx context.Context, o SearchOptions) (SearchPage, error) {
 		return page, fmt.Errorf("search: %w", err)
 	}
 	defer tx.Rollback()
+	where, args := searchFilters(o)
+	cols := "q." + strings.ReplaceAll(strings.ReplaceAll(rowColumns, "\n\t", " "), ", ", ", q.")
+	if len(phrases) == 0 {
+		stmt := `SELECT ` + cols + ` FROM queries q WHERE ` + strings.Join(where, " AND ") +
+			` ORDER BY q.id DESC LIMIT ? OFFSET ?`
+		err = readPage(ctx, tx, &page, stmt, append(args, page.Limit+1, page.Offset))
+	} else {
+		err = db.searchTerms(ctx, tx, o, &page, cols, where, args)
+	}
+	return page, err
+}
 
+// searchTerms fills page with the queries matching o's phrases (page.Phrases)
+// and the filters where/args.
+func (db *DB) searchTerms(ctx context.Context, tx *sql.Tx, o SearchOptions, page *SearchPage, cols string, where []string, args []any) error {
+	// The index drives (CROSS JOIN keeps it outermost) newest first, so
+	// the scan stops once the page is full. The time window also bounds
+	// the docids (ids grow with time; min/max keep it exact even if they
+	// did not).
+	lo, hi, empty, err := idRange(ctx, tx, o.Since, o.Until)
+	if err != nil || empty {
+		return err
+	}
+	match := MatchExpr(page.Phrases)
+	fts := []string{`f.query_fts MATCH ?`}
+	ftsArgs := []any{match}
+	if lo > 0 {
+		fts = append(fts, `f.docid >= ?`)
+		ftsArgs = append(ftsArgs, lo)
+	}
+	if hi > 0 {
+		fts = append(fts, `f.docid <= ?`)
+		ftsArgs = append(ftsArgs, hi)
+	}
+	offset := page.Offset
+	if db.ro {
+		// Nothing may be written: rows logged after the last indexing
+		// (at most a batch) are indexed in a temporary table instead.
+		tail, done, err := searchTail(ctx, tx, cols, where, args, match)
+		if err != nil {
+			return fmt.Errorf("search: %w", err)
+		}
+		fts = append(fts, `f.docid <= ?`)
+		ftsArgs = append(ftsArgs, done)
+		if offset < len(tail) {
+			page.Queries = append(page.Queries, tail[offset:min(len(tail), offset+page.Limit+1)]...)
+		}
+		offset = max(offset-len(tail), 0)
+	}
+	args = append(ftsArgs, args...)
+	stmt := `SELECT ` + cols + ` FROM query_fts f CROSS JOIN queries q ON q.id = f.docid WHERE ` +
+		strings.Join(append(fts, where...), " AND ") + ` ORDER BY f.docid DESC LIMIT ? OFFSET ?`
+	args = append(args, page.Limit+1-len(page.Queries), offset)
+	return readPage(ctx, tx, page, stmt, args)
+}
+
+// searchFilters turns the filters of o other than the terms into SQL over
+// queries q. The hazard filter reads the hashed hazards of each row.
+func searchFilters(o SearchOptions) ([]string, []any) {
 	where := []string{`q.kind = 'query'`}
 	var args []any
 	if !o.Since.IsZero() {
@@ -100,73 +163,102 @@ func (db *DB) Search(ctx context.Context, o SearchOptions) (SearchPage, error) {
 		args = append(args, o.Verdict)
 	}
 	if o.Hazard != "" {
-		where = append(where, `q.id IN (SELECT query_id FROM query_hazards WHERE code = ? COLLATE NOCASE)`)
-		args = append(args, o.Hazard)
+		// A quick test on the JSON text, then the exact one.
+		code, _ := json.Marshal(o.Hazard)
+		like := strings.NewReplacer(`\`, `\\`, `%`, `\%`, `_`, `\_`).Replace(`"code":` + string(code))
+		where = append(where, `q.hazards LIKE ? ESCAPE '\' AND EXISTS (SELECT 1 FROM json_each(q.hazards) j
+			WHERE json_extract(j.value, '$.code') = ? COLLATE NOCASE)`)
+		args = append(args, "%"+like+"%", o.Hazard)
 	}
 	if len(o.HazardAny) > 0 {
 		marks := strings.TrimSuffix(strings.Repeat("?, ", len(o.HazardAny)), ", ")
-		where = append(where, `q.id IN (SELECT query_id FROM query_hazards WHERE code COLLATE NOCASE IN (`+marks+`))`)
+		where = append(where, `EXISTS (SELECT 1 FROM json_each(q.hazards) j WHERE json_extract(j.value, '$.code') COLLATE NOCASE IN (`+marks+`))`)
 		for _, c := range o.HazardAny {
 			args = append(args, c)
 		}
 	}
-	cols := "q." + strings.ReplaceAll(strings.ReplaceAll(rowColumns, "\n\t", " "), ", ", ", q.")
-	var stmt string
-	if len(phrases) == 0 {
-		stmt = `SELECT ` + cols + ` FROM queries q WHERE ` + strings.Join(where, " AND ") +
-			` ORDER BY q.id DESC LIMIT ? OFFSET ?`
-	} else {
-		// The index drives (CROSS JOIN keeps it outermost) newest first, so
-		// the scan stops once the page is full. The time window also bounds
-		// the docids (ids grow with time; min/max keep it exact even if
-		// they did not).
-		lo, hi, empty, err := idRange(ctx, tx, o.Since, o.Until)
-		if err != nil {
-			return page, fmt.Errorf("search: %w", err)
-		}
-		if empty {
-			return page, nil
-		}
-		fts := []string{`f.query_fts MATCH ?`}
-		ftsArgs := []any{MatchExpr(phrases)}
-		if lo > 0 {
-			fts = append(fts, `f.docid >= ?`)
-			ftsArgs = append(ftsArgs, lo)
-		}
-		if hi > 0 {
-			fts = append(fts, `f.docid <= ?`)
-			ftsArgs = append(ftsArgs, hi)
-		}
-		args = append(ftsArgs, args...)
-		stmt = `SELECT ` + cols + ` FROM query_fts f CROSS JOIN queries q ON q.id = f.docid WHERE ` +
-			strings.Join(append(fts, where...), " AND ") + ` ORDER BY f.docid DESC LIMIT ? OFFSET ?`
-	}
-	args = append(args, page.Limit+1, page.Offset)
+	return where, args
+}
+
+// readPage runs stmt and appends its rows to page, up to page.Limit, noting
+// whether there are more.
+func readPage(ctx context.Context, tx *sql.Tx, page *SearchPage, stmt string, args []any) error {
 	rows, err := tx.QueryContext(ctx, stmt, args...)
 	if err != nil {
-		return page, fmt.Errorf("search: %w", err)
+		return fmt.Errorf("search: %w", err)
 	}
 	defer rows.Close()
-	for rows.Next() {
+	for len(page.Queries) <= page.Limit && rows.Next() {
 		var r row
 		if err := rows.Scan(r.scanDest()...); err != nil {
-			return page, fmt.Errorf("search: %w", err)
-		}
-		if len(page.Queries) == page.Limit {
-			page.HasMore = true
-			page.NextOffset = page.Offset + page.Limit
-			break
+			return fmt.Errorf("search: %w", err)
 		}
 		q, err := decodeQuery(&r)
 		if err != nil {
-			return page, fmt.Errorf("search: %w", err)
+			return fmt.Errorf("search: %w", err)
 		}
 		page.Queries = append(page.Queries, q)
 	}
 	if err := rows.Err(); err != nil {
-		return page, fmt.Errorf("search: %w", err)
+		return fmt.Errorf("search: %w", err)
 	}
-	return page, nil
+	if len(page.Queries) > page.Limit {
+		page.Queries = page.Queries[:page.Limit]
+		page.HasMore = true
+		page.NextOffset = page.Offset + page.Limit
+	}
+	return nil
+}
+
+// searchTail indexes the query rows after search_state.indexed_upto in a
+// temporary table of this connection (a read-only connection may write
+// only there) and returns those matching match and the filters, newest
+// first, with the indexed mark.
+func searchTail(ctx context.Context, tx *sql.Tx, cols string, where []string, args []any, match string) ([]*Query, int64, error) {
+	var done int64
+	if err := tx.QueryRowContext(ctx, `SELECT indexed_upto FROM search_state`).Scan(&done); err != nil {
+		return nil, 0, err
+	}
+	var pending bool
+	if err := tx.QueryRowContext(ctx, `SELECT EXISTS (SELECT 1 FROM queries WHERE id > ?)`, done).Scan(&pending); err != nil || !pending {
+		return nil, done, err
+	}
+	for _, s := range []string{
+		`DROP TABLE IF EXISTS temp.search_tail`,
+		`CREATE VIRTUAL TABLE temp.search_tail USING fts4(request, species, hazards, tokenize=unicode61)`,
+	} {
+		if _, err := tx.ExecContext(ctx, s); err != nil {
+			return nil, 0, err
+		}
+	}
+	defer tx.ExecContext(ctx, `DROP TABLE IF EXISTS temp.search_tail`)
+	if _, err := tx.ExecContext(ctx, `INSERT INTO temp.search_tail (docid, request, species, hazards)
+		SELECT `+ftsDocColumns+` FROM queries q WHERE q.kind = 'query' AND q.id > ?`, done); err != nil {
+		return nil, 0, err
+	}
+	page := SearchPage{Limit: math.MaxInt32}
+	stmt := `SELECT ` + cols + ` FROM temp.search_tail t CROSS JOIN queries q ON q.id = t.docid WHERE t.search_tail MATCH ? AND ` +
+		strings.Join(where, " AND ") + ` ORDER BY t.docid DESC`
+	if err := readPage(ctx, tx, &page, stmt, append([]any{match}, args...)); err != nil {
+		return nil, 0, err
+	}
+	return page.Queries, done, nil
+}
+
+// MaxSearchTerms and MaxSearchWords bound one search: each term is one
+// more look-up in the index, and SQLite refuses a match expression of 4,096
+// terms (its expression tree is at most 12 deep).
+const (
+	MaxSearchTerms = 64
+	MaxSearchWords = 256
+)
+
+func wordCount(phrases []string) int {
+	n := 0
+	for _, p := range phrases {
+		n += len(strings.Fields(p))
+	}
+	return n
 }
 
 // idRange returns the id bounds of rows in [since, until); 0 means open.
@@ -207,8 +299,9 @@ func idRange(ctx context.Context, tx *sql.Tx, since, until time.Time) (lo, hi in
 	return lo, hi, lo > 0 && hi > 0 && lo > hi, nil
 }
 
-// Phrases splits search terms into phrases of words. Whitespace separates
-// phrases except inside double quotes (an unclosed quote runs to the end).
+// Phrases splits search terms into phrases of words, each once, in the
+// order first given. Whitespace separates phrases except inside double
+// quotes (an unclosed quote runs to the end).
 // Within a phrase every character that is not a letter, digit or mark
 // (or a combining mark that follows no letter) separates words and is dropped, so the words hold nothing the FTS query
 // language could read as an operator. Words are lower-cased.
@@ -224,10 +317,10 @@ func Phrases(terms string) []string {
 	}
 	flushPhrase := func() {
 		flushWord()
-		if len(cur) > 0 {
-			out = append(out, strings.Join(cur, " "))
-			cur = nil
+		if p := strings.Join(cur, " "); p != "" && !contains(out, p) {
+			out = append(out, p)
 		}
+		cur = nil
 	}
 	inQuote := false
 	for _, c := range terms {

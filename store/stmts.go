@@ -28,6 +28,12 @@ func (st *stmt) queryRow(ctx context.Context, tx *sql.Tx, args ...any) *sql.Row 
 	return tx.QueryRowContext(ctx, st.sql, args...)
 }
 
+// insertV3 inserts a row into a file of schema version 1–3 (tests build
+// them), which has no chain columns.
+const insertV3 = `INSERT INTO queries (id, kind, time, user_id, user_name, channel, event_id, request, resolved, verdict,
+	error, species, oxidizer, reducer, e_cell_v, e_cell_standard_v, hazards, streams, result, engine_version, data_hash,
+	prev_hash, hash) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`
+
 // writeStmts are the statements of LogQuery.
 type writeStmts struct {
 	head, insert, hazard, index, event, indexed, setIndexed, timeBroken stmt
@@ -42,14 +48,10 @@ func newWriteStmts() *writeStmts {
 			coalesce((SELECT time FROM queries ORDER BY id DESC LIMIT 1), '')`},
 		timeBroken: stmt{sql: `UPDATE search_state SET time_order_broken = 1 WHERE time_order_broken = 0`},
 		insert: stmt{sql: `INSERT INTO queries (` + rowColumns + `)
-			VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`},
+			VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`},
 		hazard: stmt{sql: `INSERT INTO query_hazards (query_id, pos, code, severity, message) VALUES (?, ?, ?, ?, ?)`},
-		// The same expression migration 0002 uses to index older rows.
 		index: stmt{sql: `INSERT INTO query_fts (docid, request, species, hazards)
-			SELECT q.id, q.request || ' ' || q.resolved, q.species,
-			       coalesce((SELECT group_concat(h.code || ' ' || h.message, ' ')
-			                   FROM query_hazards h WHERE h.query_id = q.id), '')
-			  FROM queries q WHERE q.kind = 'query' AND q.id > ? AND q.id <= ?`},
+			SELECT ` + ftsDocColumns + ` FROM queries q WHERE q.kind = 'query' AND q.id > ? AND q.id <= ?`},
 		indexed:    stmt{sql: `SELECT indexed_upto FROM search_state`},
 		setIndexed: stmt{sql: `UPDATE search_state SET indexed_upto = ?`},
 		event:      stmt{sql: `SELECT id FROM queries WHERE event_id = ?`},

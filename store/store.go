@@ -11,7 +11,11 @@
 //
 // Two connection pools are kept: one writer (a single connection whose
 // transactions begin IMMEDIATE, so writers queue instead of deadlocking) and
-// a small read-only pool for search, export and digests.
+// a small read-only pool for search, export and digests. OpenReadOnly opens
+// only the read-only pool, for tools that must not change the file.
+//
+// Files are created with mode 0600 (the database, and so its WAL and
+// shared-memory files, which SQLite gives the database file's mode).
 package store
 
 import (
@@ -19,6 +23,7 @@ import (
 	"database/sql"
 	"errors"
 	"fmt"
+	"os"
 	"strings"
 	"time"
 
@@ -38,17 +43,26 @@ type Options struct {
 	// killed; a power cut or kernel crash may lose the last commits before
 	// it, but never corrupts the file or the chain.
 	FullSync bool
+	// ChainKey, when set, makes every new row of the log keyed
+	// (HMAC-SHA256) and lets Verify check keyed rows. A log whose newest
+	// row is keyed cannot be opened for writing without its key.
+	ChainKey *ChainKey
+	// OlderSchema lets OpenReadOnly read a file of an older schema version
+	// as it is; only Verify may then be used on it.
+	OlderSchema bool
 }
 
 // DB is an open mixward database. It is safe for concurrent use.
 type DB struct {
 	path string
 	w    *sql.DB // writer: one connection, BEGIN IMMEDIATE
-	r    *sql.DB // readers: query_only
+	r    *sql.DB // readers: mode=ro (temporary tables allowed)
 	ws   *writeStmts
-	ver  int // schema version applied by Open
+	ver  int // schema version applied by Open (as found, for OpenReadOnly)
 	now  func() time.Time
 	loc  *time.Location
+	key  *ChainKey
+	ro   bool // opened by OpenReadOnly: w is nil
 }
 
 // Sentinel errors. Wrapped errors match with errors.Is.
@@ -64,6 +78,13 @@ var (
 	// ErrInvalid is wrapped by errors about bad arguments (a bad tag, an
 	// unknown verdict, a non-finite potential).
 	ErrInvalid = errors.New("invalid argument")
+	// ErrNoDatabase is returned by OpenReadOnly when the file does not exist.
+	ErrNoDatabase = errors.New("no database file")
+	// ErrSchemaTooOld is returned by OpenReadOnly when the file has an
+	// older schema; a writing command (mixward log migrate) upgrades it.
+	ErrSchemaTooOld = errors.New("database schema is older than this mixward")
+	// ErrReadOnly is returned by writing methods of a DB opened read-only.
+	ErrReadOnly = errors.New("database opened read-only")
 )
 
 // busyTimeout is how long a connection waits for another writer (ms).
@@ -85,12 +106,10 @@ func openAt(ctx context.Context, path string, opt Options, upto int) (*DB, error
 	if path == ":memory:" || strings.HasPrefix(path, "file:") {
 		return nil, fmt.Errorf("open database %q: %w: give a plain file path", path, ErrInvalid)
 	}
-	db := &DB{path: path, now: opt.Now, loc: opt.Location, ws: newWriteStmts()}
-	if db.now == nil {
-		db.now = time.Now
-	}
-	if db.loc == nil {
-		db.loc = time.UTC
+	db := newDB(path, opt)
+	db.ws = newWriteStmts()
+	if err := createPrivate(path); err != nil {
+		return nil, fmt.Errorf("open database %s: %w (check the directory exists and is writable)", path, err)
 	}
 	var err error
 	sync := "_synchronous=NORMAL"
@@ -112,14 +131,66 @@ func openAt(ctx context.Context, path string, opt Options, upto int) (*DB, error
 		return nil, err
 	}
 	db.ver = upto
+	if err := db.checkKey(ctx, db.w); err != nil {
+		db.w.Close()
+		return nil, err
+	}
 	db.ws.prepare(ctx, db.w)
-	db.r, err = sql.Open("sqlite3", dsn(path, "_query_only=1", "_txlock=deferred"))
+	db.r, err = sql.Open("sqlite3", dsn(path, "mode=ro", "_txlock=deferred"))
 	if err != nil {
 		db.w.Close()
 		return nil, fmt.Errorf("open database %s for reading: %w", path, err)
 	}
 	db.r.SetMaxOpenConns(4)
 	return db, nil
+}
+
+func newDB(path string, opt Options) *DB {
+	db := &DB{path: path, now: opt.Now, loc: opt.Location, key: opt.ChainKey}
+	if db.now == nil {
+		db.now = time.Now
+	}
+	if db.loc == nil {
+		db.loc = time.UTC
+	}
+	return db
+}
+
+// createPrivate creates path with mode 0600 if it does not exist, so that
+// SQLite (which would use 0644) and its WAL and shared-memory files, which
+// take the database file's mode, are private to the owner.
+func createPrivate(path string) error {
+	f, err := os.OpenFile(path, os.O_RDWR|os.O_CREATE|os.O_EXCL, 0o600)
+	if errors.Is(err, os.ErrExist) {
+		return nil
+	}
+	if err != nil {
+		return err
+	}
+	return f.Close()
+}
+
+// checkKey refuses to write to a keyed log without its key: a plain row
+// after a keyed one would read as a forgery.
+func (db *DB) checkKey(ctx context.Context, q queryer) error {
+	if db.ver < 4 {
+		return nil
+	}
+	var chain, keyID string
+	err := q.QueryRowContext(ctx, `SELECT chain, key_id FROM queries ORDER BY id DESC LIMIT 1`).Scan(&chain, &keyID)
+	switch {
+	case errors.Is(err, sql.ErrNoRows) || (err == nil && chain != ChainKeyed):
+		return nil
+	case err != nil:
+		return fmt.Errorf("open database %s: read the chain kind: %w", db.path, err)
+	case db.key == nil:
+		return fmt.Errorf("open database %s: %w: the log is keyed (HMAC-SHA256, key id %s); set MIXWARD_CHAIN_KEY_FILE to the file holding that key",
+			db.path, ErrChainKey, keyID)
+	case db.key.id != keyID:
+		return fmt.Errorf("open database %s: %w: the log is keyed with key id %s but the key given has id %s; give the key it was written with",
+			db.path, ErrChainKey, keyID, db.key.id)
+	}
+	return nil
 }
 
 // dsn builds a go-sqlite3 URI for path with the common pragmas plus extra.

@@ -106,7 +106,7 @@ func TestOpenPragmas(t *testing.T) {
 		{db.w, "busy_timeout", "5000"},
 		{db.w, "synchronous", "1"}, // NORMAL (FULL with Options.FullSync)
 		{db.w, "foreign_keys", "1"},
-		{db.r, "query_only", "1"},
+		{db.r, "query_only", "0"}, // mode=ro instead, so that temporary tables work
 		{db.r, "busy_timeout", "5000"},
 	} {
 		var got string

@@ -89,6 +89,9 @@ func (db *DB) SetStream(ctx context.Context, tag, stream, note, by string) error
 	if by, err = checkText("changed-by name", by, 200, true); err != nil {
 		return fmt.Errorf("set stream %s: %w", t, err)
 	}
+	if err := db.writable("set stream " + t); err != nil {
+		return err
+	}
 	tx, err := db.w.BeginTx(ctx, nil)
 	if err != nil {
 		return fmt.Errorf("set stream %s: %w", t, err)
@@ -113,6 +116,9 @@ func (db *DB) RemoveStream(ctx context.Context, tag, by string) error {
 	}
 	if by, err = checkText("changed-by name", by, 200, true); err != nil {
 		return fmt.Errorf("remove stream %s: %w", t, err)
+	}
+	if err := db.writable("remove stream " + t); err != nil {
+		return err
 	}
 	tx, err := db.w.BeginTx(ctx, nil)
 	if err != nil {

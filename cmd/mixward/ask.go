@@ -8,6 +8,7 @@ import (
 	"fmt"
 	"io"
 	"strings"
+	"unicode/utf8"
 
 	"mixward/data"
 	"mixward/engine"
@@ -42,11 +43,16 @@ func (a *app) newFlags(name, usage string) *flag.FlagSet {
 	fs.Usage = func() {
 		fmt.Fprintf(a.stderr, "usage: mixward %s\n", usage)
 		fs.PrintDefaults()
+		fmt.Fprintln(a.stderr, endOfFlags)
 	}
 	return fs
 }
 
-// parseFlags parses args, allowing flags after positional arguments.
+// endOfFlags closes every usage text.
+const endOfFlags = "A -- ends the flags: every argument after it is read as text, even one starting with -."
+
+// parseFlags parses args, allowing flags after positional arguments. A --
+// ends the flags: every argument after it is positional.
 func parseFlags(fs *flag.FlagSet, args []string) ([]string, error) {
 	var pos []string
 	for {
@@ -56,12 +62,16 @@ func parseFlags(fs *flag.FlagSet, args []string) ([]string, error) {
 			}
 			return nil, &exitError{exitUsage, errors.New("")}
 		}
-		args = fs.Args()
-		if len(args) == 0 {
+		rest := fs.Args()
+		if len(rest) == 0 {
 			return pos, nil
 		}
-		pos = append(pos, args[0])
-		args = args[1:]
+		// The flag package consumes a "--" and stops after it.
+		if used := len(args) - len(rest); used > 0 && args[used-1] == "--" {
+			return append(pos, rest...), nil
+		}
+		pos = append(pos, rest[0])
+		args = rest[1:]
 	}
 }
 
@@ -115,8 +125,8 @@ func (a *app) cmdAsk(ctx context.Context, args []string) error {
 		if *format == "json" {
 			writeJSON(a.stdout, map[string]any{"error": pe})
 		} else {
-			fmt.Fprintf(a.stderr, "mixward: cannot read the request: %s\n", pe.Error())
-			fmt.Fprintf(a.stderr, "  %s\n  %s^\n", text, strings.Repeat(" ", max(pe.Position-1, 0)))
+			fmt.Fprintf(a.stderr, "mixward: cannot read the request: %s\n", safe(pe.Error()))
+			fmt.Fprintf(a.stderr, "  %s\n  %s^\n", safe(text), strings.Repeat(" ", caretColumn(text, pe.Position)))
 			fmt.Fprintf(a.stderr, "example: mixward ask %q\n", "mix 200 L NaOCl 12.5 % + 50 L HCl 10 %")
 		}
 		return &exitError{exitUsage, errors.New("")}
@@ -128,7 +138,7 @@ func (a *app) cmdAsk(ctx context.Context, args []string) error {
 	if *details {
 		render = advice.RenderDetails
 	}
-	_, err = io.WriteString(a.stdout, render(res))
+	_, err = io.WriteString(a.stdout, safeLines(render(res)))
 	return err
 }
 
@@ -140,6 +150,16 @@ func loadAdvisor(eng *engine.Engine) (*advice.Advisor, error) {
 		return nil, fmt.Errorf("loading the embedded gas table: %w", err)
 	}
 	return adv, nil
+}
+
+// caretColumn is how many columns precede the character at 1-based rune
+// position pos of text once text is printed with safe (escapes are wider).
+func caretColumn(text string, pos int) int {
+	if pos <= 1 {
+		return 0
+	}
+	r := []rune(text)
+	return utf8.RuneCountInString(safe(string(r[:min(pos-1, len(r))])))
 }
 
 func writeJSON(w io.Writer, v any) error {
@@ -235,7 +255,7 @@ usage:
   mixward table                   list the half-reaction table (--format text|json; --check validates every table)
   mixward plot "<request>" -o mix.png   draw the E–pH picture of the predicted couples (--db for tags)
   mixward streams set|list|show|rm      the site stream catalogue (tags such as T-101)
-  mixward log verify|search|export|prune|backup   the query log
+  mixward log verify|search|show|export|prune|backup|restore|migrate|reindex   the query log
   mixward digest                  shift digest (--since, --until, --format text|json)
   mixward console                 the local console, reading stdin
   mixward serve                   the Slack bot (Socket Mode, or --http ADDR for the Events API)
@@ -247,6 +267,9 @@ request language:
   amount:    L, mL, m3, gal (US), US gal, imp gal (liquids); kg, g, t, lb (solids)
   units:     M, mol/L, mmol/L, %, % w/w, % w/v, g/L, mg/L, ppm;  pH <number>;  12,5 % = 12.5 %
   example:   mixward ask "mix 200 L NaOCl 12.5 % + 50 L HCl 10 % at 20 C"
+
+A -- ends the flags of any subcommand: what follows is read as text even if it starts with -
+(mixward log search -- -5 L).
 
 Answers are advisory, never a permit: confirm with the safety data sheets, site procedures,
 management-of-change, local codes and licensed practice.

@@ -22,16 +22,20 @@ func (a *app) askOnce(ctx context.Context, eng *engine.Engine, adv *advice.Advis
 			res, askErr = adv.Ask(text, engine.AskOptions{})
 			return res, 0, askErr, nil
 		}
+		// Only the catalogue is read: the file is not changed or upgraded.
+		db, _, err := openReadDB(ctx, a, o, true)
+		if err != nil {
+			return nil, 0, nil, err
+		}
+		defer db.Close()
+		res, askErr = adv.Ask(text, catalogueOptions(ctx, db))
+		return res, 0, askErr, nil
 	}
 	db, loc, err := openDB(ctx, a, o)
 	if err != nil {
 		return nil, 0, nil, err
 	}
 	defer db.Close()
-	if noLog {
-		res, askErr = adv.Ask(text, catalogueOptions(ctx, db))
-		return res, 0, askErr, nil
-	}
 	b := &bot.Bot{
 		Engine: adv, Log: db, Catalogue: db, Location: loc,
 		EngineVersion: engine.Version, DataHash: eng.Tables.Hash,

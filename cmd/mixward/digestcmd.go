@@ -22,6 +22,9 @@ the shift that ended last, by the shift changes in --shifts (a 5-field cron
 spec in the site time zone). With --since alone the period runs to now.
 This prints the digest; it does not record or post it (the bot and the
 console do that at each shift change). --sent lists the digests they sent.
+The file is only read, never created or changed. The digest ends with the
+log's head hash at the end of the period: keep it, and check it later with
+'mixward log verify --expect HASH'.
 
 `+dateHelp)
 	o := storeFlags(a, fs)
@@ -63,7 +66,7 @@ console do that at each shift change). --sent lists the digests they sent.
 			return usageErr("digest: --since %s is not before the end %s", local(from, loc), local(to, loc))
 		}
 	}
-	db, loc, err := openDB(ctx, a, o)
+	db, loc, err := openReadDB(ctx, a, o, false)
 	if err != nil {
 		return err
 	}
@@ -107,7 +110,7 @@ func (a *app) digestsSent(ctx context.Context, db *store.DB, loc *time.Location,
 			status = "unknown (stopped while sending)"
 		}
 		fmt.Fprintf(tw, "%s – %s\t%s\t%d\t%s\t%s\n", local(r.Since, loc), r.Slot.In(loc).Format("15:04 MST"), status,
-			r.Attempts, local(r.ClaimedAt, loc), cut(r.Detail, 60))
+			r.Attempts, local(r.ClaimedAt, loc), safeCut(r.Detail, 60))
 	}
 	return tw.Flush()
 }

@@ -6,6 +6,8 @@ import (
 	"database/sql"
 	"encoding/csv"
 	"encoding/json"
+	"errors"
+	"os"
 	"path/filepath"
 	"strings"
 	"testing"
@@ -74,8 +76,11 @@ func sqlExec(t *testing.T, path, stmt string) {
 func TestLogVerifyCLI(t *testing.T) {
 	env, path := storeEnv(t)
 	code, out, errOut := storeCLI(t, env, "log", "verify")
-	if code != 0 || !strings.Contains(out, "chain intact: 0 rows") || !strings.Contains(errOut, "created a new, empty log at "+path) {
-		t.Fatalf("verify on a fresh db: %d %q %q", code, out, errOut)
+	if code != exitUsage || out != "" || !strings.Contains(errOut, "no database file") || !strings.Contains(errOut, "never creates") {
+		t.Fatalf("verify on a missing db: %d %q %q", code, out, errOut)
+	}
+	if _, err := os.Stat(path); !errors.Is(err, os.ErrNotExist) {
+		t.Fatalf("verify on a missing db created %s (%v)", path, err)
 	}
 	seedLog(t, path)
 	code, out, _ = storeCLI(t, env, "log", "verify")

@@ -51,24 +51,6 @@ func siteLocation(name string) (*time.Location, error) {
 	return loc, nil
 }
 
-// openDB opens the store named by o (creating and migrating it as needed)
-// in the site time zone.
-func openDB(ctx context.Context, a *app, o *storeOpts) (*store.DB, *time.Location, error) {
-	loc, err := siteLocation(o.tz)
-	if err != nil {
-		return nil, nil, err
-	}
-	_, statErr := os.Stat(o.db)
-	db, err := store.Open(ctx, o.db, store.Options{Location: loc})
-	if err != nil {
-		return nil, nil, err
-	}
-	if errors.Is(statErr, os.ErrNotExist) {
-		fmt.Fprintf(a.stderr, "mixward: created a new, empty log at %s (set --db or MIXWARD_DB to use another)\n", o.db)
-	}
-	return db, loc, nil
-}
-
 // shiftSpec is the shift-change schedule, env MIXWARD_SHIFTS.
 func shiftSpec(a *app) string { return envOr(a.getenv, "MIXWARD_SHIFTS", store.DefaultShifts) }
 
@@ -106,6 +88,7 @@ func subFlags(a *app, name, synopsis, about string) *flag.FlagSet {
 		w := fs.Output()
 		fmt.Fprintf(w, "usage: mixward %s\n\n%s\n\nflags:\n", synopsis, strings.TrimSpace(about))
 		fs.PrintDefaults()
+		fmt.Fprintf(w, "\n%s\n", endOfFlags)
 	}
 	return fs
 }
@@ -134,7 +117,8 @@ The query log: every request the bot or the command line answered, chained
 by SHA-256 so that edits show.
 
 commands:
-  verify               walk the hash chain; exit status 1 if it is broken
+  verify               walk the hash chain and check the tables derived from it;
+                       exit status 1 if it is broken (--expect HASH, --anchors FILE)
   search "<terms>"     full-text search, newest first (--since, --until, --user,
                        --verdict, --hazard, --limit, --offset, --format)
   export               every row of a period for audits (--format csv|json)
@@ -142,9 +126,16 @@ commands:
   prune --before DATE --confirm   delete the oldest queries (recorded in the log)
   backup <file>        copy the live log with SQLite's online backup, then verify the copy
   restore <file>       replace the log with a verified backup
+  migrate              upgrade the file to this mixward's schema (back it up first)
+  reindex              rebuild the hazard rows and the search index from the hashed rows
+
+verify, search, export, show and backup only read the file: they never
+create, upgrade or change it, and fail on a path where no log exists.
 
 Every command takes --db (env MIXWARD_DB, default ./mixward.db) and --tz
 (env MIXWARD_TZ, default UTC). Run 'mixward log <command> -h' for its flags.
+A -- ends the flags: what follows is read as text even if it starts with -
+(mixward log search -- -5 L).
 `
 
 func (a *app) cmdLog(ctx context.Context, args []string) error {
@@ -167,6 +158,10 @@ func (a *app) cmdLog(ctx context.Context, args []string) error {
 		return a.logBackup(ctx, args[1:])
 	case "restore":
 		return a.logRestore(ctx, args[1:])
+	case "migrate":
+		return a.logMigrate(ctx, args[1:])
+	case "reindex":
+		return a.logReindex(ctx, args[1:])
 	case "-h", "-help", "--help", "help":
 		fmt.Fprint(a.stdout, logUsage)
 		return nil
@@ -198,52 +193,127 @@ func noArgs(pos []string, cmd string) error {
 // --- verify -----------------------------------------------------------------
 
 func (a *app) logVerify(ctx context.Context, args []string) error {
-	fs := subFlags(a, "log verify", "log verify [--db FILE] [--format text|json]", `
+	fs := subFlags(a, "log verify", "log verify [--db FILE] [--expect HASH] [--anchors FILE] [--format text|json]", `
 Walk the hash chain of the query log from the oldest row to the newest,
 recomputing each row's hash, and report the first row that was edited,
-removed or inserted outside mixward. Exit status 0: intact; 1: broken.
-Note the head hash in the shift report: a later verify that shows the same
-hash proves nothing up to it was rewritten.`)
+removed or inserted outside mixward, and any table derived from the rows
+(hazard rows, the search index) that differs from them. The file is only
+read: never created, migrated or changed. Exit status 0: intact; 1: broken
+(or an expected hash is not on the chain); 2: bad input, such as a --db
+file that does not exist.
+
+The head hash printed at the end (and carried in every digest) is the
+proof to keep: --expect HASH, or --anchors with a file of "ID HASH" lines
+noted earlier, fails when any row up to it was rewritten and re-hashed or
+the newest rows were cut off.
+
+Rows written with MIXWARD_CHAIN_KEY_FILE set are keyed (HMAC-SHA256):
+without the key their content cannot be checked, and this says so.`)
 	o := storeFlags(a, fs)
 	format := fs.String("format", "text", "output `format`: text or json")
+	expect := fs.String("expect", "", "a head `hash` noted earlier (from a digest or an earlier verify) that must still be on the chain")
+	anchorsFile := fs.String("anchors", "", "a `file` of anchors, one \"ID HASH\" per line (# comments), that must still be on the chain")
 	if err := parseNoArgs(fs, args, "log verify", "text", "json"); err != nil {
 		return err
 	}
-	db, _, err := openDB(ctx, a, o)
+	anchors, err := readAnchors(*expect, *anchorsFile)
+	if err != nil {
+		return err
+	}
+	db, _, err := openReadDB(ctx, a, o, true)
 	if err != nil {
 		return err
 	}
 	defer db.Close()
-	rep, err := db.Verify(ctx)
+	rep, err := db.Verify(ctx, anchors...)
 	if err != nil {
 		return err
 	}
 	return a.printVerify(rep, *format, o.db)
 }
 
+// readAnchors gathers the anchors of --expect and --anchors.
+func readAnchors(expect, file string) ([]store.Anchor, error) {
+	var out []store.Anchor
+	if expect != "" {
+		an, err := store.ParseAnchor(expect)
+		if err != nil {
+			return nil, usageErr("--expect: %v", err)
+		}
+		out = append(out, an)
+	}
+	if file != "" {
+		f, err := os.Open(file)
+		if err != nil {
+			return nil, usageErr("--anchors: %v", err)
+		}
+		defer f.Close()
+		an, err := store.ParseAnchors(f)
+		if err != nil {
+			return nil, usageErr("--anchors %s: %v", safe(file), err)
+		}
+		if len(an) == 0 {
+			return nil, usageErr("--anchors %s: no anchors in the file (want one \"ID HASH\" per line)", safe(file))
+		}
+		out = append(out, an...)
+	}
+	return out, nil
+}
+
 func (a *app) printVerify(rep store.VerifyReport, format, what string) error {
+	what = safe(what)
 	if format == "json" {
 		if err := writeJSON(a.stdout, rep); err != nil {
 			return err
 		}
-	} else if rep.OK {
-		fmt.Fprintf(a.stdout, "%s: chain intact: %d rows (%d queries, %d prune records)", what, rep.Rows, rep.Queries, rep.Prunes)
-		if rep.Rows > 0 {
-			fmt.Fprintf(a.stdout, ", ids %d–%d\nhead hash %s\n", rep.FirstID, rep.LastID, rep.HeadHash)
-		} else {
-			fmt.Fprintln(a.stdout)
-		}
-		if rep.AnchorID > 0 {
-			fmt.Fprintf(a.stdout, "rows up to %d were pruned; the oldest kept row follows their anchor %s\n", rep.AnchorID, rep.AnchorHash)
-		}
 	} else {
-		fmt.Fprintf(a.stdout, "%s: CHAIN BROKEN at row %d\n  %s\n  %d rows before it verified\n", what, rep.BrokenID, rep.Problem, rep.Rows)
-		fmt.Fprintln(a.stdout, "  Keep this file as evidence; compare with the latest backup (mixward log verify --db BACKUP).")
+		a.printVerifyText(rep, what)
 	}
 	if !rep.OK {
 		return &exitError{exitFail, fmt.Errorf("hash chain of %s is broken at row %d", what, rep.BrokenID)}
 	}
 	return nil
+}
+
+func (a *app) printVerifyText(rep store.VerifyReport, what string) {
+	w := a.stdout
+	if !rep.OK {
+		fmt.Fprintf(w, "%s: CHAIN BROKEN at row %d\n  %s\n  %d rows before it verified\n", what, rep.BrokenID, safe(rep.Problem), rep.Rows)
+		fmt.Fprintln(w, "  Keep this file as evidence; compare with the latest backup (mixward log verify --db BACKUP).")
+		return
+	}
+	fmt.Fprintf(w, "%s: chain intact: %d rows (%d queries, %d prune records)", what, rep.Rows, rep.Queries, rep.Prunes)
+	if rep.Rows > 0 {
+		fmt.Fprintf(w, ", ids %d–%d\nhead hash %s (row %d)\n", rep.FirstID, rep.LastID, rep.HeadHash, rep.LastID)
+	} else {
+		fmt.Fprintln(w)
+	}
+	if rep.AnchorID > 0 {
+		fmt.Fprintf(w, "rows up to %d were pruned; the oldest kept row follows their anchor %s\n", rep.AnchorID, rep.AnchorHash)
+	}
+	switch {
+	case rep.KeyedRows == 0:
+		fmt.Fprintln(w, "chain: plain SHA-256 (no key): someone with the file could re-hash it; compare the head hash with one noted elsewhere")
+	case rep.UncheckedRows > 0:
+		fmt.Fprintf(w, "NOT CHECKED: %d keyed rows (from row %d, key id %s) are HMAC-SHA256 rows whose content cannot be checked without the key; "+
+			"only their links were. Set MIXWARD_CHAIN_KEY_FILE to the key file to check them.\n", rep.UncheckedRows, rep.FirstKeyedID, rep.KeyID)
+	default:
+		fmt.Fprintf(w, "chain: keyed (HMAC-SHA256, key id %s) from row %d; all %d keyed rows checked with the key\n", rep.KeyID, rep.FirstKeyedID, rep.KeyedRows)
+	}
+	if rep.DerivedChecked {
+		fmt.Fprintln(w, "derived tables (hazard rows, search index, search state) match the rows")
+	}
+	if rep.DigestAnchors > 0 {
+		fmt.Fprintf(w, "the log heads carried by %d digests sent are on the chain\n", rep.DigestAnchors)
+	}
+	for _, an := range rep.Anchors {
+		switch an.Status {
+		case "ok":
+			fmt.Fprintf(w, "anchor %s: on the chain at row %d\n", an.Hash, an.FoundID)
+		case "pruned":
+			fmt.Fprintf(w, "anchor row %d: pruned (recorded), cannot be checked\n", an.ID)
+		}
+	}
 }
 
 // --- search -----------------------------------------------------------------
@@ -255,8 +325,10 @@ the request (as typed or with stream tags resolved), its species, or its
 hazard codes and messages; text in double quotes must appear as a phrase.
 Case and accents are ignored and punctuation splits words, so "Fe^2+" finds
 Fe 2+. Every character is literal: AND, OR, NOT, NEAR, *, -, parentheses
-and quotes are never operators. The terms may be left out to list by the
-filters alone.
+and quotes are never operators. At most 64 different terms (a quoted phrase
+counts as one) of 256 words in all; more is refused (exit 2). The terms may
+be left out to list by the filters alone. A first term starting with - needs
+-- before it: mixward log search -- -40 L. The file is only read.
 
 `+dateHelp)
 	o := storeFlags(a, fs)
@@ -306,14 +378,14 @@ filters alone.
 	if !so.Since.IsZero() && !so.Until.IsZero() && !so.Since.Before(so.Until) {
 		return usageErr("--since %s is not before --until %s", local(so.Since, loc), local(so.Until, loc))
 	}
-	db, loc, err := openDB(ctx, a, o)
+	db, loc, err := openReadDB(ctx, a, o, false)
 	if err != nil {
 		return err
 	}
 	defer db.Close()
 	page, err := db.Search(ctx, so)
 	if err != nil {
-		return err
+		return storeErr(err)
 	}
 	switch *format {
 	case "json":
@@ -326,7 +398,7 @@ filters alone.
 		return cw.flush()
 	}
 	if strings.TrimSpace(so.Terms) != "" && len(page.Phrases) == 0 {
-		fmt.Fprintf(a.stdout, "The terms %q hold no letters or digits, so nothing can match.\n", so.Terms)
+		fmt.Fprintf(a.stdout, "The terms %q hold no letters or digits, so nothing can match.\n", safe(so.Terms))
 		return nil
 	}
 	if len(page.Queries) == 0 {
@@ -348,8 +420,8 @@ filters alone.
 		if q.Verdict == store.VerdictError {
 			req += "  [" + q.Error + "]"
 		}
-		fmt.Fprintf(tw, "%d\t%s\t%s\t%s\t%s\t%s\t%s\n", q.ID, local(q.Time, loc), cut(orDash(q.UserName, q.UserID), 24),
-			cut(q.Channel, 16), q.Verdict, cut(req, 70), strings.Join(hz, ","))
+		fmt.Fprintf(tw, "%d\t%s\t%s\t%s\t%s\t%s\t%s\n", q.ID, local(q.Time, loc), safeCut(orDash(q.UserName, q.UserID), 24),
+			safeCut(q.Channel, 16), q.Verdict, safeCut(req, 70), safe(strings.Join(hz, ",")))
 	}
 	tw.Flush()
 	first := so.Offset + 1
@@ -381,7 +453,7 @@ type queryCSV struct {
 
 var csvHeader = []string{"id", "kind", "time", "user_id", "user_name", "channel", "event_id", "request", "resolved",
 	"verdict", "error", "species", "oxidizer", "reducer", "e_cell_v", "e_cell_standard_v", "hazards", "streams",
-	"engine_version", "data_hash", "prev_hash", "hash"}
+	"engine_version", "data_hash", "prev_hash", "hash", "chain", "key_id"}
 
 func newQueryCSV(w io.Writer, export bool) *queryCSV {
 	c := &queryCSV{w: csv.NewWriter(w), export: export}
@@ -389,15 +461,17 @@ func newQueryCSV(w io.Writer, export bool) *queryCSV {
 	return c
 }
 
-// csvText guards a text cell of a CSV export against spreadsheet formula
-// injection: a cell that starts with =, +, -, @, tab or carriage return gets
-// a leading apostrophe, so a spreadsheet shows it as text instead of running
-// it (OWASP, "CSV Injection"; common practice). The JSON export is verbatim.
+// csvText makes a text cell of a CSV export safe: control and escape
+// characters are shown escaped (safe), and a cell that starts with =, +, -,
+// @, tab or carriage return gets a leading apostrophe, so a spreadsheet
+// shows it as text instead of running it as a formula (OWASP, "CSV
+// Injection"; common practice). The JSON export is verbatim (JSON escapes
+// control characters itself).
 func csvText(s string) string {
 	if s != "" && strings.ContainsRune("=+-@\t\r", rune(s[0])) {
-		return "'" + s
+		return "'" + safe(s)
 	}
-	return s
+	return safe(s)
 }
 
 func (c *queryCSV) write(kind string, q *store.Query) {
@@ -415,7 +489,7 @@ func (c *queryCSV) write(kind string, q *store.Query) {
 	c.w.Write([]string{strconv.FormatInt(q.ID, 10), kind, q.Time.UTC().Format(time.RFC3339Nano), s(q.UserID), s(q.UserName),
 		s(q.Channel), s(q.EventID), s(q.Request), s(q.Resolved), q.Verdict, s(q.Error), s(strings.Join(q.Species, "; ")), s(q.Oxidizer),
 		s(q.Reducer), f(q.ECellV), f(q.ECellStandardV), s(strings.Join(hz, "; ")), s(strings.Join(q.Streams, "; ")),
-		q.EngineVersion, q.DataHash, q.PrevHash, q.Hash})
+		s(q.EngineVersion), s(q.DataHash), q.PrevHash, q.Hash, q.Chain, q.KeyID})
 	c.n++
 }
 
@@ -460,7 +534,7 @@ apostrophe so that spreadsheets do not run it as a formula; JSON is verbatim.
 			return err
 		}
 	}
-	db, _, err := openDB(ctx, a, o)
+	db, _, err := openReadDB(ctx, a, o, false)
 	if err != nil {
 		return err
 	}
@@ -536,14 +610,14 @@ data hash, its hashes, and whether the answer was posted.`)
 	if err != nil || id < 1 {
 		return usageErr("log show: %q is not a query id (a whole number from 'log search')", pos[0])
 	}
-	db, loc, err := openDB(ctx, a, o)
+	db, loc, err := openReadDB(ctx, a, o, false)
 	if err != nil {
 		return err
 	}
 	defer db.Close()
 	q, err := db.Get(ctx, id)
 	if errors.Is(err, store.ErrNotFound) {
-		return &exitError{exitFail, fmt.Errorf("no query %d in %s", id, o.db)}
+		return &exitError{exitFail, fmt.Errorf("no query %d in %s", id, safe(o.db))}
 	}
 	if err != nil {
 		return err
@@ -561,13 +635,19 @@ data hash, its hashes, and whether the answer was posted.`)
 			Deliveries []store.Delivery `json:"deliveries"`
 		}{q, ds})
 	}
-	tw := tabwriter.NewWriter(a.stdout, 0, 4, 2, ' ', 0)
+	return printQuery(a.stdout, q, ds, loc)
+}
+
+// printQuery writes one query in full for people, every stored text made
+// safe to print.
+func printQuery(w io.Writer, q *store.Query, ds []store.Delivery, loc *time.Location) error {
+	tw := tabwriter.NewWriter(w, 0, 4, 2, ' ', 0)
 	row := func(k, v string) {
 		if v != "" {
-			fmt.Fprintf(tw, "%s\t%s\n", k, v)
+			fmt.Fprintf(tw, "%s\t%s\n", k, safe(v))
 		}
 	}
-	fmt.Fprintf(a.stdout, "Query %d\n", q.ID)
+	fmt.Fprintf(w, "Query %d\n", q.ID)
 	row("time", local(q.Time, loc)+"  ("+q.Time.Format(time.RFC3339Nano)+")")
 	row("who", orDash(q.UserName, q.UserID)+" "+paren(q.UserID, q.UserName))
 	row("where", q.Channel)
@@ -591,12 +671,15 @@ data hash, its hashes, and whether the answer was posted.`)
 		if i == 0 {
 			k = "hazards"
 		}
-		fmt.Fprintf(tw, "%s\t%s %s: %s\n", k, h.Severity, h.Code, h.Message)
+		fmt.Fprintf(tw, "%s\t%s\n", k, safe(h.Severity+" "+h.Code+": "+h.Message))
 	}
 	row("streams", strings.Join(q.Streams, "  |  "))
 	row("engine", strings.TrimSpace(q.EngineVersion+"  data "+q.DataHash))
 	row("hash", q.Hash)
 	row("prev hash", orDash(q.PrevHash, "(first row)"))
+	if q.Chain == store.ChainKeyed {
+		row("chain", "keyed, HMAC-SHA256 (key id "+q.KeyID+")")
+	}
 	if len(ds) == 0 {
 		row("posted", "no delivery recorded")
 	}
@@ -609,7 +692,7 @@ data hash, its hashes, and whether the answer was posted.`)
 		if d.OK {
 			ok = "ok"
 		}
-		fmt.Fprintf(tw, "%s\t%s %s %s\n", k, local(d.Time, loc), ok, d.Detail)
+		fmt.Fprintf(tw, "%s\t%s %s %s\n", k, local(d.Time, loc), ok, safe(d.Detail))
 	}
 	return tw.Flush()
 }
@@ -704,7 +787,7 @@ The file must not exist yet. Restore with 'mixward log restore <file>'.`)
 		fs.Usage()
 		return usageErr("log backup: give one destination file")
 	}
-	db, _, err := openDB(ctx, a, o)
+	db, _, err := openReadDB(ctx, a, o, true)
 	if err != nil {
 		return err
 	}
@@ -712,11 +795,15 @@ The file must not exist yet. Restore with 'mixward log restore <file>'.`)
 	if err := db.Backup(ctx, pos[0]); err != nil {
 		return err
 	}
-	rep, err := store.VerifyFile(ctx, pos[0])
+	key, err := chainKey(a.getenv)
 	if err != nil {
 		return err
 	}
-	fmt.Fprintf(a.stdout, "Backed up %s to %s.\n", o.db, pos[0])
+	rep, err := store.VerifyFileWith(ctx, pos[0], key)
+	if err != nil {
+		return err
+	}
+	fmt.Fprintf(a.stdout, "Backed up %s to %s (mode 0600).\n", safe(o.db), safe(pos[0]))
 	return a.printVerify(rep, "text", pos[0])
 }
 
@@ -760,6 +847,83 @@ with --replace (back it up first).`)
 	if err != nil {
 		return err
 	}
-	fmt.Fprintf(a.stdout, "Restored %s from %s.\n", o.db, pos[0])
+	fmt.Fprintf(a.stdout, "Restored %s from %s.\n", safe(o.db), safe(pos[0]))
+	return a.printVerify(rep, "text", o.db)
+}
+
+// --- migrate ----------------------------------------------------------------
+
+func (a *app) logMigrate(ctx context.Context, args []string) error {
+	fs := subFlags(a, "log migrate", "log migrate [--db FILE]", `
+Upgrade the log file to the schema of this mixward, in place. The tools
+that only read (verify, search, show, export, digest) refuse an older file
+instead of changing it; 'log verify' reads an older file as it is. The
+hashes of the rows are not changed. Make a backup first
+('mixward log backup'); the bot and the console upgrade the file
+themselves when they start.`)
+	o := storeFlags(a, fs)
+	pos, err := parseFlags(fs, args)
+	if err != nil {
+		return err
+	}
+	if err := noArgs(pos, "log migrate"); err != nil {
+		return err
+	}
+	old, _, err := openReadDB(ctx, a, o, true)
+	if err != nil {
+		return err
+	}
+	from, err := old.Version(ctx)
+	old.Close()
+	if err != nil {
+		return err
+	}
+	db, _, err := openDB(ctx, a, o)
+	if err != nil {
+		return err
+	}
+	defer db.Close()
+	to, err := db.Version(ctx)
+	if err != nil {
+		return err
+	}
+	if from == to {
+		fmt.Fprintf(a.stdout, "%s is already at schema version %d; nothing to do.\n", safe(o.db), to)
+		return nil
+	}
+	fmt.Fprintf(a.stdout, "Upgraded %s from schema version %d to %d.\n", safe(o.db), from, to)
+	return nil
+}
+
+// --- reindex ----------------------------------------------------------------
+
+func (a *app) logReindex(ctx context.Context, args []string) error {
+	fs := subFlags(a, "log reindex", "log reindex [--db FILE]", `
+Rebuild the tables derived from the hashed rows (the per-hazard rows, the
+search index and its state) from those rows, then verify. Use it when
+'log verify' reports that a derived table differs from the rows, after
+keeping a copy of the file as evidence ('mixward log backup'). No hashed
+row is changed, so a broken chain stays broken.`)
+	o := storeFlags(a, fs)
+	pos, err := parseFlags(fs, args)
+	if err != nil {
+		return err
+	}
+	if err := noArgs(pos, "log reindex"); err != nil {
+		return err
+	}
+	db, _, err := openDB(ctx, a, o)
+	if err != nil {
+		return err
+	}
+	defer db.Close()
+	if err := db.RebuildDerived(ctx); err != nil {
+		return err
+	}
+	fmt.Fprintf(a.stdout, "Rebuilt the hazard rows and the search index of %s from the hashed rows.\n", safe(o.db))
+	rep, err := db.Verify(ctx)
+	if err != nil {
+		return err
+	}
 	return a.printVerify(rep, "text", o.db)
 }

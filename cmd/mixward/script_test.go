@@ -13,6 +13,7 @@ import (
 func TestMain(m *testing.M) {
 	testscript.Main(m, map[string]func(){
 		"mixward": func() {
+			restrictUmask()
 			os.Exit(run(context.Background(), os.Args[1:], os.Getenv, os.Stdin, os.Stdout, os.Stderr))
 		},
 	})
@@ -34,7 +35,7 @@ func TestScripts(t *testing.T) {
 func TestCSVText(t *testing.T) {
 	for in, want := range map[string]string{
 		"=HYPERLINK(\"x\")": "'=HYPERLINK(\"x\")", "+1": "'+1", "-5 L NaOCl": "'-5 L NaOCl", "@SUM(A1)": "'@SUM(A1)",
-		"\tx": "'\tx", "mix T-102 + T-204": "mix T-102 + T-204", "": "",
+		"\tx": `'\tx`, "\x1b[2J=1": `\x1b[2J=1`, "=\x1b]0;x\x07": `'=\x1b]0;x\x07`, "mix T-102 + T-204": "mix T-102 + T-204", "": "",
 	} {
 		if got := csvText(in); got != want {
 			t.Errorf("csvText(%q) = %q, want %q", in, got, want)

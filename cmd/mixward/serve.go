@@ -31,9 +31,11 @@ type siteFlags struct {
 	db     string
 	tz     string
 	shifts string
+	getenv func(string) string // for MIXWARD_CHAIN_KEY_FILE
 }
 
 func (s *siteFlags) register(fs *flag.FlagSet, getenv func(string) string) {
+	s.getenv = getenv
 	fs.StringVar(&s.db, "db", envOr(getenv, "MIXWARD_DB", "mixward.db"), "SQLite query log and stream catalogue (env MIXWARD_DB)")
 	fs.StringVar(&s.tz, "tz", getenv("MIXWARD_TZ"), "site time zone for digests and dates, e.g. Europe/London; empty means UTC (env MIXWARD_TZ)")
 	fs.StringVar(&s.shifts, "shifts", envOr(getenv, "MIXWARD_SHIFTS", store.DefaultShifts), "shift changes as a 5-field cron spec in the site zone; a digest is made at each (env MIXWARD_SHIFTS)")
@@ -71,7 +73,11 @@ func openSite(ctx context.Context, s siteFlags) (*site, error) {
 	if err != nil {
 		return nil, err
 	}
-	db, err := store.Open(ctx, s.db, store.Options{Location: loc})
+	key, err := chainKey(s.getenv)
+	if err != nil {
+		return nil, err
+	}
+	db, err := store.Open(ctx, s.db, store.Options{Location: loc, ChainKey: key})
 	if err != nil {
 		return nil, err
 	}
@@ -171,6 +177,8 @@ type serveConfig struct {
 	postRate      float64
 	postBurst     int
 	queueSize     int
+	workers       int
+	picWorkers    int
 	drainTimeout  time.Duration
 	logLevel      string
 	logFormat     string
@@ -219,6 +227,8 @@ func (a *app) cmdServe(ctx context.Context, args []string) error {
 	fs.Float64Var(&c.postRate, "post-rate", envFloat(g, "MIXWARD_POST_RATE", 1), "messages per second per channel (env MIXWARD_POST_RATE)")
 	fs.IntVar(&c.postBurst, "post-burst", envInt(g, "MIXWARD_POST_BURST", 3), "messages a channel may take at once before the rate applies (env MIXWARD_POST_BURST)")
 	fs.IntVar(&c.queueSize, "queue-size", envInt(g, "MIXWARD_QUEUE_SIZE", 2048), "messages held at once; beyond it intake waits (env MIXWARD_QUEUE_SIZE)")
+	fs.IntVar(&c.workers, "workers", envInt(g, "MIXWARD_WORKERS", bot.DefaultWorkers), "answer workers: messages worked on at once; one thread's messages always go to the same worker, in order (env MIXWARD_WORKERS)")
+	fs.IntVar(&c.picWorkers, "picture-workers", envInt(g, "MIXWARD_PICTURE_WORKERS", 1), "E–pH pictures drawn and uploaded at once, after the answers; 0 turns pictures off (env MIXWARD_PICTURE_WORKERS)")
 	fs.DurationVar(&c.drainTimeout, "drain-timeout", envDuration(g, "MIXWARD_DRAIN_TIMEOUT", 30*time.Second), "on SIGTERM, how long to finish queued answers (env MIXWARD_DRAIN_TIMEOUT)")
 	fs.StringVar(&c.logLevel, "log-level", envOr(g, "MIXWARD_LOG_LEVEL", "info"), "debug, info, warn or error (env MIXWARD_LOG_LEVEL)")
 	fs.StringVar(&c.logFormat, "log-format", envOr(g, "MIXWARD_LOG_FORMAT", "json"), "json or text (env MIXWARD_LOG_FORMAT)")
@@ -258,6 +268,12 @@ func (c *serveConfig) check() error {
 	if c.queueSize < 1 {
 		return usage("--queue-size must be at least 1")
 	}
+	if c.workers < 1 || c.workers > 1024 {
+		return usage("--workers must be from 1 to 1024")
+	}
+	if c.picWorkers < 0 || c.picWorkers > 16 {
+		return usage("--picture-workers must be from 0 (no pictures) to 16")
+	}
 	if !strings.HasSuffix(c.apiURL, "/") {
 		c.apiURL += "/"
 	}
@@ -280,28 +296,26 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 	}
 	api := slack.New(c.botToken, opts...)
 
-	access := &bot.Access{
-		Supervisors: bot.ParseIDList(c.supervisors),
-		Reviewers:   bot.ParseIDList(c.reviewers),
-		Groups:      bot.SlackGroups{API: api},
-		Log:         logger,
+	sl := newSlack(c, st, api, logger, metrics, health)
+	queue := sl.Queue
+	defer func() {
+		// On an early return (a listener that cannot bind): stop the
+		// workers the resume below started; what they leave stays owed.
+		ctx, cancel := context.WithTimeout(context.Background(), 5*time.Second)
+		defer cancel()
+		_ = sl.Close(ctx)
+	}()
+
+	// Answers owed by the process before this one go first, so that each
+	// thread keeps its order.
+	owed, err := sl.Resume(ctx)
+	if err != nil {
+		return err
 	}
-	b := st.newBot(logger, metrics, access)
-	queue := bot.NewQueue(c.queueSize, metrics.QueueDepth)
-	queue.OnPanic = func(key string, v any) { logger.Error("answer failed with a panic", "thread", key, "panic", v) }
-	health.Depth = queue.Depth
-	sl := &bot.Slack{
-		Bot: b,
-		Poster: &bot.Poster{
-			API: api, Rate: rate.Limit(c.postRate), Burst: c.postBurst, Metrics: metrics, Log: logger,
-		},
-		Queue:         queue,
-		Plot:          plotterFor(st.eng),
-		DigestChannel: c.digestChannel,
-		Health:        health,
-		Logger:        logger,
-		Metrics:       metrics,
+	if owed > 0 {
+		logger.Info("answering messages owed from before the last stop", "messages", owed)
 	}
+	pruneInbox(ctx, st.db, logger)
 
 	runCtx, stopRun := context.WithCancel(ctx)
 	defer stopRun()
@@ -323,7 +337,7 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 	}
 	if adminLn != nil {
 		ln := adminLn
-		admin = &http.Server{Handler: bot.AdminHandler(metrics, health), ReadHeaderTimeout: 10 * time.Second}
+		admin = newAdminServer(bot.AdminHandler(metrics, health))
 		logger.Info("admin listening", "addr", ln.Addr().String(), "paths", "/healthz /metrics")
 		wg.Go(func() {
 			if err := admin.Serve(ln); err != nil && !errors.Is(err, http.ErrServerClosed) {
@@ -344,6 +358,7 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 			ReadTimeout:       30 * time.Second,
 			WriteTimeout:      30 * time.Second,
 		}
+		health.SetTransport("http", "listening")
 		logger.Info("events API listening", "addr", ln.Addr().String(), "paths", "POST /slack/events, POST /slack/commands")
 		wg.Go(func() {
 			if err := events.Serve(ln); err != nil && !errors.Is(err, http.ErrServerClosed) {
@@ -353,6 +368,7 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 	}
 
 	if c.appToken != "" {
+		health.Expect("socket") // not ready until Socket Mode has connected
 		sm := socketmode.New(api)
 		wg.Go(func() {
 			if err := sl.RunSocket(runCtx, sm); err != nil {
@@ -373,6 +389,8 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 	} else {
 		logger.Info("no digest channel: scheduled digests are off (set MIXWARD_DIGEST_CHANNEL)")
 	}
+
+	wg.Go(func() { keepInbox(runCtx, sl, st.db, logger) })
 
 	// Who am I: used to tell the bot's own messages and mentions apart. It
 	// is not needed to answer, so the transports do not wait for it.
@@ -408,8 +426,9 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 		_ = events.Shutdown(shutdownCtx)
 	}
 	stopRun()
-	if err := queue.Close(shutdownCtx); err != nil {
-		logger.Error("drain timed out; unfinished answers are in the log without a delivery record", "err", err)
+	if err := sl.Close(shutdownCtx); err != nil {
+		logger.Error("drain timed out; the answers not posted stay owed in the inbox and are posted at the next start",
+			"err", err, "queued", queue.Depth())
 	}
 	if admin != nil {
 		_ = admin.Shutdown(shutdownCtx)
@@ -423,6 +442,82 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 		return runErr
 	}
 	return nil
+}
+
+// newSlack wires the bot, its worker pool, poster, pictures and inbox for
+// `mixward serve`.
+func newSlack(c serveConfig, st *site, api *slack.Client, logger *slog.Logger, metrics *bot.Metrics, health *bot.Health) *bot.Slack {
+	access := &bot.Access{
+		Supervisors: bot.ParseIDList(c.supervisors),
+		Reviewers:   bot.ParseIDList(c.reviewers),
+		Groups:      bot.SlackGroups{API: api},
+		Log:         logger,
+	}
+	queue := bot.NewPool(c.workers, c.queueSize, metrics.QueueDepth)
+	queue.OnPanic = func(key string, v any) { logger.Error("answer failed with a panic", "thread", key, "panic", v) }
+	health.Depth = queue.Depth
+	poster := &bot.Poster{API: api, Rate: rate.Limit(c.postRate), Burst: c.postBurst, Metrics: metrics, Log: logger}
+	var pics *bot.Pictures
+	if c.picWorkers > 0 {
+		pics = &bot.Pictures{Plot: plotterFor(st.eng), Poster: poster, Workers: c.picWorkers, Logger: logger, Metrics: metrics}
+	}
+	return &bot.Slack{
+		Bot:           st.newBot(logger, metrics, access),
+		Poster:        poster,
+		Queue:         queue,
+		Pictures:      pics,
+		Journal:       st.db,
+		DigestChannel: c.digestChannel,
+		Health:        health,
+		Logger:        logger,
+		Metrics:       metrics,
+	}
+}
+
+// keepInbox prunes the inbox hourly and queues again the answers still
+// owed after an hour (Slack was down past the poster's retries), until ctx
+// ends.
+func keepInbox(ctx context.Context, sl *bot.Slack, db *store.DB, logger *slog.Logger) {
+	t := time.NewTicker(time.Hour)
+	defer t.Stop()
+	for {
+		select {
+		case <-ctx.Done():
+			return
+		case <-t.C:
+			pruneInbox(ctx, db, logger)
+			if n, err := sl.Resume(ctx); err != nil && ctx.Err() == nil {
+				logger.Warn("owed answers not queued again", "err", err)
+			} else if n > 0 {
+				logger.Info("answering messages still owed", "messages", n)
+			}
+		}
+	}
+}
+
+// newAdminServer serves /healthz and /metrics with timeouts, so that slow
+// or idle clients cannot hold connections open.
+func newAdminServer(h http.Handler) *http.Server {
+	return &http.Server{
+		Handler:           h,
+		ReadHeaderTimeout: 5 * time.Second,
+		ReadTimeout:       10 * time.Second,
+		WriteTimeout:      30 * time.Second,
+		IdleTimeout:       60 * time.Second,
+		MaxHeaderBytes:    16 << 10,
+	}
+}
+
+// pruneInbox (at start and hourly) drops inbox entries answered more than
+// a day ago: Slack redelivers within the hour, so they are no longer
+// needed to tell a redelivery from a new message.
+func pruneInbox(ctx context.Context, db *store.DB, logger *slog.Logger) {
+	n, err := db.PruneInbox(ctx, time.Now().Add(-24*time.Hour))
+	if err != nil {
+		logger.Warn("inbox not pruned", "err", err)
+	} else if n > 0 {
+		logger.Info("inbox pruned", "entries", n)
+	}
 }
 
 func shortHash(h string) string {

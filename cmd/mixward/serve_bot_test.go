@@ -478,3 +478,43 @@ func TestServeSocketMode(t *testing.T) {
 		t.Error("a token appears in the logs")
 	}
 }
+
+func TestAdminServerTimeouts(t *testing.T) {
+	s := newAdminServer(http.NotFoundHandler())
+	if s.ReadHeaderTimeout <= 0 || s.ReadTimeout <= 0 || s.WriteTimeout <= 0 || s.IdleTimeout <= 0 || s.MaxHeaderBytes <= 0 {
+		t.Errorf("admin server read-header %v, read %v, write %v, idle %v, max header %d: want every one set",
+			s.ReadHeaderTimeout, s.ReadTimeout, s.WriteTimeout, s.IdleTimeout, s.MaxHeaderBytes)
+	}
+}
+
+// TestHealthNotReadyUntilSocketConnects: with Socket Mode configured but
+// Slack refusing to open a connection, /healthz answers 503 and names the
+// socket as down, while the HTTP transport is up.
+func TestHealthNotReadyUntilSocketConnects(t *testing.T) {
+	refusing := httptest.NewServer(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		w.Header().Set("Content-Type", "application/json")
+		io.WriteString(w, `{"ok":false,"error":"internal_error"}`)
+	}))
+	defer refusing.Close()
+	env := map[string]string{
+		"SLACK_BOT_TOKEN": testBotToken, "SLACK_APP_TOKEN": "xapp-1-test", "SLACK_SIGNING_SECRET": testSecret,
+		"MIXWARD_SLACK_API_URL": refusing.URL + "/api/", "MIXWARD_DB": filepath.Join(t.TempDir(), "h.db"),
+	}
+	s := startServe(t, env, "--http", "127.0.0.1:0", "--admin-addr", "127.0.0.1:0")
+	resp, err := http.Get(s.admin + "/healthz")
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer resp.Body.Close()
+	var body struct {
+		Ready      bool              `json:"ready"`
+		Down       []string          `json:"down"`
+		Transports map[string]string `json:"transports"`
+	}
+	if err := json.NewDecoder(resp.Body).Decode(&body); err != nil {
+		t.Fatal(err)
+	}
+	if resp.StatusCode != 503 || body.Ready || strings.Join(body.Down, ",") != "socket" || body.Transports["http"] != "listening" {
+		t.Errorf("/healthz = %d %+v; want 503, not ready, socket down, http listening", resp.StatusCode, body)
+	}
+}

@@ -39,7 +39,9 @@ commands:
 
 Tags: 1–32 letters, digits, '-' or '_', starting with a letter or digit;
 case does not matter. Every command takes --db (env MIXWARD_DB) and --tz
-(env MIXWARD_TZ). Run 'mixward streams <command> -h' for its flags.
+(env MIXWARD_TZ). Run 'mixward streams <command> -h' for its flags. A --
+ends the flags: what follows is read as text even if it starts with -.
+list and show only read the file, and fail where no log exists.
 `
 
 func (a *app) cmdStreams(ctx context.Context, args []string) error {
@@ -102,7 +104,7 @@ the earlier definition in its history.`)
 	}
 	text := strings.TrimSpace(strings.Join(pos[1:], " "))
 	if err := streamValidator(text); err != nil {
-		return usageErr("streams set %s: %q is not a stream in the request language: %v", tag, text, err)
+		return usageErr("streams set %s: %q is not a stream in the request language: %s", tag, text, safe(err.Error()))
 	}
 	db, _, err := openDB(ctx, a, o)
 	if err != nil {
@@ -114,9 +116,9 @@ the earlier definition in its history.`)
 		return storeErr(err)
 	}
 	if perr == nil {
-		fmt.Fprintf(a.stdout, "%s changed: %s  (was %s)\n", tag, text, prev.Stream)
+		fmt.Fprintf(a.stdout, "%s changed: %s  (was %s)\n", safe(tag), safe(text), safe(prev.Stream))
 	} else {
-		fmt.Fprintf(a.stdout, "%s set: %s\n", tag, text)
+		fmt.Fprintf(a.stdout, "%s set: %s\n", safe(tag), safe(text))
 	}
 	return nil
 }
@@ -130,7 +132,7 @@ and when.`)
 	if err := parseNoArgs(fs, args, "streams list", "text", "json"); err != nil {
 		return err
 	}
-	db, loc, err := openDB(ctx, a, o)
+	db, loc, err := openReadDB(ctx, a, o, false)
 	if err != nil {
 		return err
 	}
@@ -149,7 +151,7 @@ and when.`)
 	tw := tabwriter.NewWriter(a.stdout, 0, 4, 2, ' ', 0)
 	fmt.Fprintf(tw, "TAG\tSTREAM\tNOTE\tCHANGED BY\tCHANGED (%s)\n", loc)
 	for _, s := range ss {
-		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\n", s.Tag, s.Stream, cut(s.Note, 40), s.By, local(s.Time, loc))
+		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\n", safe(s.Tag), safe(s.Stream), safeCut(s.Note, 40), safe(s.By), local(s.Time, loc))
 	}
 	return tw.Flush()
 }
@@ -175,7 +177,7 @@ when, what it was set to, the note, and removals.`)
 	if err != nil {
 		return storeErr(err)
 	}
-	db, loc, err := openDB(ctx, a, o)
+	db, loc, err := openReadDB(ctx, a, o, false)
 	if err != nil {
 		return err
 	}
@@ -201,11 +203,11 @@ when, what it was set to, the note, and removals.`)
 		return writeJSON(a.stdout, out)
 	}
 	if removed {
-		fmt.Fprintf(a.stdout, "%s is not in the catalogue now (removed).\n", tag)
+		fmt.Fprintf(a.stdout, "%s is not in the catalogue now (removed).\n", safe(tag))
 	} else {
-		fmt.Fprintf(a.stdout, "%s = %s\n", tag, cur.Stream)
+		fmt.Fprintf(a.stdout, "%s = %s\n", safe(tag), safe(cur.Stream))
 		if cur.Note != "" {
-			fmt.Fprintf(a.stdout, "note: %s\n", cur.Note)
+			fmt.Fprintf(a.stdout, "note: %s\n", safe(cur.Note))
 		}
 	}
 	fmt.Fprintf(a.stdout, "\nHistory (%s)\n", loc)
@@ -216,7 +218,7 @@ when, what it was set to, the note, and removals.`)
 		if c.Action == "remove" {
 			change = "removed"
 		}
-		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\n", local(c.Time, loc), c.By, change, c.Note)
+		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\n", local(c.Time, loc), safe(c.By), safe(change), safe(c.Note))
 	}
 	return tw.Flush()
 }

