@@ -79,7 +79,7 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 
 // evaluate judges one point of a pour.
 func (a *Advisor) evaluate(req *engine.Request) ([]engine.Hazard, error) {
-	res, err := a.Engine.Predict(req)
+	res, err := a.Engine.PredictBrief(req)
 	if err != nil {
 		return nil, err
 	}
