@@ -58,6 +58,9 @@ func sampleFeeds(t testing.TB, m *Model) map[string]Feed {
 		"zinc-strong-caustic": f(
 			Stream{Label: "T-13", Items: []Item{{Species: get(t, m, "Zn(s)"), Excess: true}}},
 			Stream{Label: "T-14", Items: []Item{item(t, m, "Na+", 20.3), item(t, m, "OH-", 20.3)}, WaterMol: water(0.6), VolumeL: 1}),
+		"zinc-acid-hot": {TempK: 423.15, PressureBar: 1.01325, Streams: []Stream{
+			{Label: "T-15", Items: []Item{{Species: get(t, m, "Zn(s)"), Excess: true}}},
+			{Label: "T-16", Items: []Item{item(t, m, "H+", 1), item(t, m, "Cl-", 1)}, WaterMol: water(1), VolumeL: 1}}},
 		"bleach-acid": f(
 			Stream{Label: "T-4", Items: []Item{item(t, m, "Na+", 3.8), item(t, m, "OCl-", 3.8)}, WaterMol: water(2), VolumeL: 2},
 			Stream{Label: "T-5", Items: []Item{item(t, m, "H+", 1.4), item(t, m, "Cl-", 1.4)}, WaterMol: water(0.5), VolumeL: 0.5}),
