@@ -98,13 +98,24 @@ func (s *system) jacobian(pt *point, w *newtonWork, d int) {
 // falls back to a least-squares SVD solve when the matrix is singular.
 func solveLinear(w *newtonWork, d int, useSVD bool) error {
 	jac := w.jac[:d*d]
+	for _, v := range jac {
+		if !finite(v) {
+			// (gonum's SVD does not return on NaN input.)
+			return fmt.Errorf("Newton matrix is not finite")
+		}
+	}
+	for _, v := range w.f[:d] {
+		if !finite(v) {
+			return fmt.Errorf("residual is not finite")
+		}
+	}
 	rs, cs := w.rs[:d], w.cs[:d]
 	for r := 0; r < d; r++ {
 		m := 0.0
 		for c := 0; c < d; c++ {
 			m = math.Max(m, math.Abs(jac[r*d+c]))
 		}
-		rs[r] = 1 / math.Max(m, 1e-300)
+		rs[r] = scaleOf(m)
 		cs[r] = 0
 	}
 	for r := 0; r < d; r++ {
@@ -113,7 +124,7 @@ func solveLinear(w *newtonWork, d int, useSVD bool) error {
 		}
 	}
 	for c := range cs {
-		cs[c] = 1 / math.Max(cs[c], 1e-300)
+		cs[c] = scaleOf(cs[c])
 	}
 	for r := 0; r < d; r++ {
 		for c := 0; c < d; c++ {
@@ -139,6 +150,15 @@ func solveLinear(w *newtonWork, d int, useSVD bool) error {
 		}
 	}
 	return nil
+}
+
+// scaleOf is the equilibration factor for a row or column whose largest
+// entry is m: 1/m, and 1 for an empty one (so that 0·∞ cannot arise).
+func scaleOf(m float64) float64 {
+	if !(m > 1e-280) {
+		return 1
+	}
+	return 1 / m
 }
 
 // luSolve solves the equilibrated system in w by LU with partial pivoting

@@ -22,10 +22,14 @@ import (
 )
 
 // usesUpWater lists plant problems whose totals have no aqueous
-// equilibrium: 70 mol of zinc against 55 mol of water, with nothing locking
-// hydrogen evolution, turns all the water into Zn(OH)2(s) and H2(g). The
-// solver must say so (ErrInfeasible, naming the solvent), not return a state.
-var usesUpWater = map[string]bool{"zinc-copper-12-frozenfalse.json": true}
+// equilibrium: 70 mol of zinc against 55 mol of water (zinc-copper-12), or
+// 619 mol against 33 (zinc-strong-caustic-8), with nothing locking hydrogen
+// evolution, turn all the water into Zn(OH)2(s) and H2(g). The solver must
+// say so (ErrInfeasible, naming the solvent), not return a state.
+var usesUpWater = map[string]bool{
+	"zinc-copper-12-frozenfalse.json":        true,
+	"zinc-strong-caustic-8-frozenfalse.json": true,
+}
 
 func TestPlantProblems(t *testing.T) {
 	files, _ := filepath.Glob("testdata/plant/*.json")

@@ -169,6 +169,11 @@ func (ls *lockSolver) solveRound(prevPt *point, prevRows []balanceRow) (*point, 
 		ls.tr.note("warm start failed: %v", err)
 	}
 	n, tight, err := s.lpStartTight()
+	var used *solventUsedUp
+	if errors.As(err, &used) {
+		return nil, err
+	}
+	var lpErr error // the linear program's verdict of infeasibility, checked below
 	if err == nil && len(tight) > 0 {
 		// Locks the dominant-species composition meets with equality are
 		// taken as active from the start; the active-set loop corrects.
@@ -182,15 +187,20 @@ func (ls *lockSolver) solveRound(prevPt *point, prevRows []balanceRow) (*point, 
 	}
 	if err != nil {
 		if errors.Is(err, ErrInfeasible) {
-			return nil, ls.blame(err)
+			lpErr = err
 		}
 		ls.tr.note("linear-programming start failed: %v", err)
 		n = s.crudeStart()
 	}
 	pt = s.startFrom(n)
 	if err := s.solveGamma(pt, &ls.w, ls.tr); err != nil {
+		if lpErr != nil {
+			// Two independent verdicts: the linear program found no
+			// composition and Newton from a plain start found none.
+			return nil, ls.blame(lpErr)
+		}
 		if errors.Is(err, ErrNoConvergence) || errors.Is(err, ErrInfeasible) {
-			return nil, fmt.Errorf("equilibrium: %v", err)
+			return nil, fmt.Errorf("equilibrium: %w", err)
 		}
 		return nil, fmt.Errorf("equilibrium: %v (cold start from the dominant species): %w", err, ErrNoConvergence)
 	}
@@ -204,7 +214,9 @@ func (ls *lockSolver) blame(err error) error {
 	}
 	rows := ls.s.rows
 	ls.s.setRows(ls.base)
+	ls.s.lpNoLocks = true
 	_, err2 := ls.s.lpStart()
+	ls.s.lpNoLocks = false
 	ls.s.setRows(rows)
 	if err2 != nil {
 		return err

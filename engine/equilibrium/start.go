@@ -6,7 +6,6 @@ import (
 	"math"
 
 	"gonum.org/v1/gonum/mat"
-	"gonum.org/v1/gonum/optimize/convex/lp"
 )
 
 // traceMolality is where the start places species the starting
@@ -40,7 +39,7 @@ func (s *system) lpStartTight() ([]float64, []int, error) {
 		}
 	}
 	for k, c := range s.p.Constraints {
-		if !active[k] && c.Rel != Exactly {
+		if !active[k] && c.Rel != Exactly && !s.lpNoLocks {
 			extra = append(extra, k)
 		}
 	}
@@ -54,6 +53,9 @@ func (s *system) lpStartTight() ([]float64, []int, error) {
 	b := make([]float64, q)
 	for k, r := range s.rows {
 		b[k] = r.rhs
+		if math.Abs(r.rhs) <= 10*r.noise {
+			b[k] = 0 // rounding only: the start need not honour it
+		}
 		for j, i := range cols {
 			a.Set(k, j, r.coef[i])
 		}
@@ -76,9 +78,9 @@ func (s *system) lpStartTight() ([]float64, []int, error) {
 	for j, i := range cols {
 		c[j] = s.p.Species[i].Mu0
 	}
-	_, x, err := lp.Simplex(c, a, b, 1e-10, nil)
+	x, err := solveLP(c, a, b, s, cols)
 	if err != nil {
-		if errors.Is(err, lp.ErrInfeasible) {
+		if errors.Is(err, errLPInfeasible) {
 			return nil, nil, fmt.Errorf("equilibrium: no composition with amounts ≥ 0 meets the balances [%s]: %w", names(s.rows), ErrInfeasible)
 		}
 		return nil, nil, err
@@ -88,8 +90,7 @@ func (s *system) lpStartTight() ([]float64, []int, error) {
 		n[i] = math.Max(x[j], 0)
 	}
 	if n[s.solvent] <= 1e-9*math.Exp(s.logBig) {
-		return nil, nil, fmt.Errorf("equilibrium: the reactions would use up the solvent %q (with no mixing terms the least-Gibbs-energy composition keeps %.3g mol of it); "+
-			"there is no aqueous phase left to solve for: give more water or lock the reaction that consumes it: %w", s.p.Species[s.solvent].Name, n[s.solvent], ErrInfeasible)
+		return nil, nil, &solventUsedUp{name: s.p.Species[s.solvent].Name, left: n[s.solvent]}
 	}
 	var tight []int
 	for e, k := range extra {
@@ -224,3 +225,61 @@ func solveNormal(ata *mat.SymDense, atb, theta []float64) {
 		}
 	}
 }
+
+// solveLP scales the program (columns by the species' upper bounds, rows
+// by their largest entry) and solves it with minimize.
+func solveLP(c []float64, a *mat.Dense, b []float64, s *system, cols []int) ([]float64, error) {
+	m, n := a.Dims()
+	cs := make([]float64, n)
+	for j := range cs {
+		cs[j] = 1
+		if j < len(cols) && s.ub[cols[j]] > 0 && !math.IsInf(s.ub[cols[j]], 0) {
+			cs[j] = s.ub[cols[j]]
+		}
+	}
+	rows := make([][]float64, m)
+	bs := make([]float64, m)
+	for i := range rows {
+		rows[i] = make([]float64, n)
+		mx := 0.0
+		for j := 0; j < n; j++ {
+			rows[i][j] = a.At(i, j) * cs[j]
+			mx = math.Max(mx, math.Abs(rows[i][j]))
+		}
+		f := scaleOf(mx)
+		for j := range rows[i] {
+			rows[i][j] *= f
+		}
+		bs[i] = b[i] * f
+	}
+	cc := make([]float64, n)
+	cmax := 0.0
+	for j := range cc {
+		cc[j] = c[j] * cs[j]
+		cmax = math.Max(cmax, math.Abs(cc[j]))
+	}
+	for j := range cc {
+		cc[j] *= scaleOf(cmax)
+	}
+	x, err := minimize(cc, rows, bs)
+	if err != nil {
+		return nil, err
+	}
+	for j := range x {
+		x[j] *= cs[j]
+	}
+	return x, nil
+}
+
+// solventUsedUp reports totals whose reactions would consume all the water.
+type solventUsedUp struct {
+	name string
+	left float64
+}
+
+func (e *solventUsedUp) Error() string {
+	return fmt.Sprintf("equilibrium: the reactions would use up the solvent %q (with no mixing terms the least-Gibbs-energy composition keeps %.3g mol of it); "+
+		"there is no aqueous phase left to solve for: give more water or lock the reaction that consumes it: %v", e.name, e.left, ErrInfeasible)
+}
+
+func (e *solventUsedUp) Unwrap() error { return ErrInfeasible }

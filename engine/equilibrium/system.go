@@ -21,6 +21,8 @@ type system struct {
 
 	rows  []balanceRow
 	noise float64 // largest rounding carried by a row's right-hand side
+	// lpNoLocks leaves the inequality constraints out of the linear program.
+	lpNoLocks bool
 	// Sparse columns over rows: colIdx[i], colVal[i] list the nonzero rows
 	// of species i.
 	colIdx [][]int
