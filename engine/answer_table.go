@@ -68,7 +68,7 @@ type candidate struct {
 // not positive, or a change held back at plant conditions).
 func (e *Engine) noChange(res *Result, mx *state.Mix) {
 	ox, red := e.strongest(mx)
-	if ox == nil || red == nil || (isWaterCouple(ox.row.h) && isWaterCouple(red.row.h)) {
+	if ox == nil || red == nil || solventOnly(ox, mx.Combined.PH) || solventOnly(red, mx.Combined.PH) {
 		res.Verdict = NoReaction
 		return
 	}
@@ -90,6 +90,21 @@ func (e *Engine) noChange(res *Result, mx *state.Mix) {
 	}
 }
 
+// solventOnly reports whether a couple is water itself acting: a water
+// couple other than the H+ of an acid (below pH 3) taking electrons. A mix
+// whose strongest agent is water itself holds no pair stronger than water.
+func solventOnly(c *candidate, pH float64) bool {
+	if !isWaterCouple(c.row.h) {
+		return false
+	}
+	for _, t := range c.row.r.Terms {
+		if t.Nu < 0 && t.Species.Text == "H+" && pH < 3 {
+			return false
+		}
+	}
+	return true
+}
+
 func isWaterCouple(h *HalfReaction) bool {
 	for _, ts := range [][]Term{h.Reactants, h.Products} {
 		for _, t := range ts {
@@ -103,7 +118,12 @@ func isWaterCouple(h *HalfReaction) bool {
 
 // strongest finds, among the table couples in the mix's medium whose
 // oxidized (reduced) forms are present as combined, the one with the highest
-// (lowest) potential at the mix's conditions.
+// (lowest) potential at the mix's conditions. A couple that would form a
+// species a lock keeps from forming (oxygen from water, iodate from iodine)
+// does not stand; water taking electrons always competes, as the solvent
+// does, so that no sodium ion is ever the strongest oxidizing agent.
+// The reducing agent's couple shares no species with the oxidizing agent's
+// (iodine with iodide is not a pair).
 func (e *Engine) strongest(mx *state.Mix) (ox, red *candidate) {
 	med := Medium(explain.MediumAt(e.Tables.Thermo, mx.Combined.PH, mx.TempK))
 	present := map[*thermo.Species]bool{}
@@ -113,22 +133,41 @@ func (e *Engine) strongest(mx *state.Mix) (ox, red *candidate) {
 			present[sp] = true
 		}
 	}
+	var reds []candidate
 	for _, row := range e.tableRows() {
 		if row.h.Medium != Any && row.h.Medium != med {
 			continue
 		}
 		c := candidate{row: row, e0: row.r.E0(mx.TempK)}
 		c.e = c.e0 - thermo.R*mx.TempK/(float64(row.r.Electrons)*thermo.F)*lnQAt(mx, row.r)
-		if sidePresent(row.r, -1, present) && (ox == nil || c.e > ox.e) {
+		water := isWaterCouple(row.h)
+		if sidePresent(row.r, -1, present) && (water || !formsShut(row.r, 1, mx.Final.Shut)) && (ox == nil || c.e > ox.e) {
 			cc := c
 			ox = &cc
 		}
-		if sidePresent(row.r, 1, present) && (red == nil || c.e < red.e) {
-			cc := c
-			red = &cc
+		if sidePresent(row.r, 1, present) && !formsShut(row.r, -1, mx.Final.Shut) {
+			reds = append(reds, c)
+		}
+	}
+	for i := range reds {
+		if (ox == nil || !shareSpecies(ox.row.r, reds[i].row.r)) && (red == nil || reds[i].e < red.e) {
+			red = &reds[i]
 		}
 	}
 	return ox, red
+}
+
+// shareSpecies reports whether two half-reactions name a species in common
+// other than water, H+ and OH-.
+func shareSpecies(a, b thermo.Reaction) bool {
+	for _, x := range a.Terms {
+		for _, y := range b.Terms {
+			if x.Species == y.Species && !isSolvent(x.Species.Species) {
+				return true
+			}
+		}
+	}
+	return false
 }
 
 // sidePresent reports whether every species on one side (sign −1: the
@@ -144,6 +183,19 @@ func sidePresent(r thermo.Reaction, sign float64, present map[*thermo.Species]bo
 		}
 	}
 	return true // water itself is always there
+}
+
+// formsShut reports whether acting in a role would form a species that a
+// lock keeps from forming (sign +1: the reduced side, as an oxidizing agent;
+// −1: the oxidized side, as a reducing agent): such a couple is held back
+// and does not stand for the mix on the table.
+func formsShut(r thermo.Reaction, sign float64, shut map[*thermo.Species]bool) bool {
+	for _, t := range r.Terms {
+		if t.Nu*sign > 0 && shut[t.Species] {
+			return true
+		}
+	}
+	return false
 }
 
 // lnQAt is ln Q of a reaction as the mix is combined (explain.LnQ).

@@ -42,7 +42,7 @@ type Step struct {
 // most electrons first. A mix without any redox change gives none.
 func Steps(db *thermo.DB, mx *state.Mix) ([]Step, error) {
 	ts := Transfers(mx.Species, mx.Combined.Amount, mx.Final.Amount)
-	matches := Pairs(ts, 1e-4)
+	matches := significant(mx, Pairs(ts, 1e-4))
 	if len(matches) == 0 {
 		return nil, nil
 	}
@@ -59,6 +59,41 @@ func Steps(db *thermo.DB, mx *state.Mix) ([]Step, error) {
 		out = append(out, st)
 	}
 	return out, nil
+}
+
+// Negligible is the share below which a change does not count as
+// proceeding: when it turns over less than 1 % of the larger of the two
+// agents' amounts as combined, the equilibrium lies far to the left (copper
+// in hydrochloric acid gives a trace of hydrogen in a closed vessel, not a
+// reaction) or it only moves a trace left by a stream's own equilibrium.
+const Negligible = 1e-2
+
+// significant keeps the matches that turn over at least Negligible of the
+// larger agent; water itself is left out of the amounts, so that hydrogen
+// from acid is weighed against the acid.
+func significant(mx *state.Mix, ms []Match) []Match {
+	var out []Match
+	for _, m := range ms {
+		red, ox := agentPool(mx, m.Red), agentPool(mx, m.Ox)
+		movedRed := m.Electrons / math.Abs(m.Red.From-m.Red.To)
+		movedOx := m.Electrons / math.Abs(m.Ox.From-m.Ox.To)
+		if math.Max(movedRed, movedOx) >= Negligible*math.Max(red, ox) {
+			out = append(out, m)
+		}
+	}
+	return out
+}
+
+// agentPool is the mol of an element's atoms in state t.From as combined, outside
+// water.
+func agentPool(mx *state.Mix, t Transfer) float64 {
+	total := 0.0
+	for i, sp := range mx.Species {
+		if n := sp.Atoms[t.Element]; n > 0 && sp.Text != "H2O" && redoxElement(sp, t.Element) && roundOx(sp.Ox[t.Element]) == t.From {
+			total += mx.Combined.Amount[i] * float64(n)
+		}
+	}
+	return total
 }
 
 type explainer struct {

@@ -40,8 +40,12 @@ type Rule struct {
 	Group Group
 	// AcidTo, when set, lets a no-gain group grow by the strong acid the mix
 	// as combined holds above that pH (one atom per proton): hydrogen from
-	// metals in acid until the acid is spent, not beyond.
-	AcidTo *float64
+	// metals in acid until the acid is spent, not beyond. BaseTo is the
+	// same for the strong base held below that pH, counted Per atoms per
+	// hydroxide (aluminium in caustic gives up to three hydrogen atoms per
+	// hydroxide it takes up).
+	AcidTo, BaseTo *float64
+	Per            float64
 }
 
 // Group selects atoms: of an element within an oxidation-state range, of an
@@ -192,20 +196,47 @@ func parseRule(s string) (Rule, error) {
 	default:
 		return Rule{}, fmt.Errorf("rule %q: %q is not no-gain, no-loss or fixed", s, dir)
 	}
-	rest, acid, hasAcid := strings.Cut(strings.TrimSpace(rest), " + acid to ph ")
+	rest, allowance, hasAllowance := strings.Cut(strings.TrimSpace(rest), " + ")
 	g, err := parseGroup(strings.TrimSpace(rest))
 	if err != nil {
 		return Rule{}, err
 	}
 	r.Group = g
-	if hasAcid {
-		v, err := strconv.ParseFloat(acid, 64)
-		if err != nil || r.Dir != NoGain || v < 0 || v > 14 {
-			return Rule{}, fmt.Errorf("rule %q: \"+ acid to ph N\" goes with no-gain and a pH from 0 to 14", s)
+	if hasAllowance {
+		if err := r.parseAllowance(allowance); err != nil {
+			return Rule{}, fmt.Errorf("rule %q: %v", s, err)
 		}
-		r.AcidTo = &v
 	}
 	return r, nil
+}
+
+// parseAllowance reads "acid to ph N" or "base to ph N [x K]".
+func (r *Rule) parseAllowance(s string) error {
+	bad := fmt.Errorf(`want "+ acid to ph N" or "+ base to ph N [x K]" after a no-gain group`)
+	if r.Dir != NoGain {
+		return bad
+	}
+	kind, rest, ok := strings.Cut(s, " to ph ")
+	if !ok || (kind != "acid" && kind != "base") {
+		return bad
+	}
+	ph, per, hasPer := strings.Cut(rest, " x ")
+	v, err := strconv.ParseFloat(ph, 64)
+	if err != nil || v < 0 || v > 14 {
+		return bad
+	}
+	r.Per = 1
+	if hasPer {
+		if r.Per, err = strconv.ParseFloat(per, 64); err != nil || r.Per <= 0 || r.Per > 10 || kind == "acid" {
+			return bad
+		}
+	}
+	if kind == "acid" {
+		r.AcidTo = &v
+	} else {
+		r.BaseTo = &v
+	}
+	return nil
 }
 
 // parseGroup reads X(a), X(a..b), X(organic) or {A, B}.

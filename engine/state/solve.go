@@ -125,24 +125,37 @@ func (m *Model) solveSets(mx *Mix, n0 []float64, applied []*Lock, volL float64, 
 	return best, nil
 }
 
-// acidAllowances titrates the mix as combined for each "+ acid to ph N"
-// rule that held something back; nil when none did.
+// acidAllowances titrates the mix as combined for each "+ acid to ph N" or
+// "+ base to ph N" rule that held something back; nil when none did.
 func (m *Model) acidAllowances(mx *Mix, applied []*Lock, st *State, n0 []float64, combined *State, volL float64) map[string]float64 {
 	var out map[string]float64
 	for _, l := range applied {
 		for k, r := range l.Rules {
 			name := l.ID + "#" + strconv.Itoa(k)
-			if r.AcidTo == nil || combined.PH >= *r.AcidTo || !contains(st.Eq.Active, name) {
+			if !contains(st.Eq.Active, name) {
 				continue
 			}
-			x, err := m.titrate(mx, n0, volL, *r.AcidTo)
-			if err != nil || x >= 0 {
+			var spend float64
+			switch {
+			case r.AcidTo != nil && combined.PH < *r.AcidTo:
+				x, err := m.titrate(mx, n0, volL, *r.AcidTo)
+				if err != nil || x >= 0 {
+					continue
+				}
+				spend = -x // the base it takes to reach the pH: the acid that can be spent
+			case r.BaseTo != nil && combined.PH > *r.BaseTo:
+				x, err := m.titrate(mx, n0, volL, *r.BaseTo)
+				if err != nil || x <= 0 {
+					continue
+				}
+				spend = x * r.Per // the acid it takes: the base that can be spent
+			default:
 				continue
 			}
 			if out == nil {
 				out = map[string]float64{}
 			}
-			out[name] = -x // the base it takes to reach the pH: the acid that can be spent
+			out[name] = spend
 		}
 	}
 	return out
@@ -234,11 +247,23 @@ func heldLocks(applied []*Lock, active []string) []*Lock {
 // element in each oxidation state is a component of its own, so only
 // acid–base, complex and solid changes can happen.
 func (m *Model) solve(mx *Mix, n0 []float64, frozen bool, cons []lockRule, volL float64, start []float64) (*State, error) {
+	// A lock that fixes organic carbon is met by giving each organic
+	// compound its own component (see components), not by a constraint.
+	organicLocked := frozen
+	left := cons[:0:0]
+	for _, lr := range cons {
+		if lr.g.Organic && lr.c.Rel == equilibrium.Exactly {
+			organicLocked = true
+			continue
+		}
+		left = append(left, lr)
+	}
+	cons = left
 	comps := map[string]int{}
 	var names []string
 	rows := make([]map[string]float64, len(mx.Species))
 	for i, sp := range mx.Species {
-		rows[i] = components(sp, frozen)
+		rows[i] = components(sp, frozen, organicLocked)
 		for k := range rows[i] {
 			if _, ok := comps[k]; !ok {
 				comps[k] = len(names)
@@ -317,7 +342,11 @@ func (m *Model) solve(mx *Mix, n0 []float64, frozen bool, cons []lockRule, volL 
 		return nil, err
 	}
 	eq.Active = append(eq.Active, pinnedHeld(mx, p, eq, rows, comps, cons)...)
-	st := &State{Amount: make([]float64, len(mx.Species)), LnA: make([]float64, len(mx.Species)), Eq: eq, VolumeL: volL}
+	shutSpecies := map[*thermo.Species]bool{}
+	for i := range shut {
+		shutSpecies[mx.Species[i]] = true
+	}
+	st := &State{Amount: make([]float64, len(mx.Species)), LnA: make([]float64, len(mx.Species)), Eq: eq, VolumeL: volL, Shut: shutSpecies}
 	for i := range st.LnA {
 		st.LnA[i] = math.NaN()
 	}
@@ -366,19 +395,41 @@ func problemSpecies(sp *thermo.Species, row map[string]float64, comps map[string
 // components is the component make-up of one formula unit. Elements of an
 // inert species other than H, O and metals are components of their own, so
 // that it never takes part in a redox change.
-func components(sp *thermo.Species, frozen bool) map[string]float64 {
+//
+// The non-metal skeleton of an inert species, and of an organic species
+// while organic carbon is locked (and always in a frozen solve), is one
+// component of its own ({C2O2} for acetic acid and acetate, {C10N2O8} for
+// EDTA and its complexes): such a compound keeps its skeleton, gaining or
+// losing only H+ and metal ions, and never turns into another compound.
+func components(sp *thermo.Species, frozen, organicLocked bool) map[string]float64 {
 	row := make(map[string]float64, len(sp.Atoms))
+	whole := sp.Inert || (organicLocked && IsOrganic(sp.Atoms, sp.Ion()))
+	if whole {
+		row[skeleton(sp.Atoms)] = 1
+	}
 	for el, n := range sp.Atoms {
 		key := el
 		switch {
-		case sp.Inert && el != "H" && el != "O" && !chem.IsMetal(el):
-			key = el + "*"
+		case whole && el != "H" && !chem.IsMetal(el):
+			continue
 		case frozen:
 			key = el + "@" + strconv.FormatFloat(math.Round(sp.Ox[el]*100)/100, 'f', -1, 64)
 		}
 		row[key] += float64(n)
 	}
 	return row
+}
+
+// skeleton names the non-metal atoms of a formula other than hydrogen, in
+// Hill order: "{C2O2}".
+func skeleton(a chem.Atoms) string {
+	k := chem.Atoms{}
+	for el, n := range a {
+		if el != "H" && !chem.IsMetal(el) {
+			k[el] = n
+		}
+	}
+	return "{" + k.String() + "}"
 }
 
 // lnActivity is ln a of problem species j in a solved state: γm for a

@@ -75,6 +75,9 @@ type State struct {
 	VolumeL float64
 	Applied []*Lock // locks whose conditions held
 	Held    []*Lock // locks that held something back (active at the solution)
+	// Shut are the species a lock kept from forming at all (no O2 where
+	// oxygen evolution is locked, no iodate from iodine).
+	Shut map[*thermo.Species]bool
 
 	combined *State // the same amounts as combined, before any redox change
 }
