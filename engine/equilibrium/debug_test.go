@@ -65,7 +65,7 @@ func TestDebugStart(t *testing.T) {
 	}
 	n, err := s.lpStart()
 	t.Logf("lp %v %v", n, err)
-	pt := s.startFrom(n)
+	pt := s.startFrom(n, false)
 	s.evaluate(pt)
 	t.Logf("theta %v", pt.theta)
 	for i := range pt.amt {
@@ -107,7 +107,7 @@ func TestDebugCond(t *testing.T) {
 	s := newSystem(&p, solvent, off)
 	s.setRows(base)
 	n, _ := s.lpStart()
-	pt := s.startFrom(n)
+	pt := s.startFrom(n, false)
 	var w newtonWork
 	err = s.solveGamma(pt, &w, nil)
 	t.Logf("err %v svd %d iters %d", err, w.svdUsed, w.iter)
@@ -127,7 +127,7 @@ func TestDebugNull(t *testing.T) {
 	s := newSystem(&p, solvent, off)
 	s.setRows(base)
 	n, _ := s.lpStart()
-	pt := s.startFrom(n)
+	pt := s.startFrom(n, false)
 	var w newtonWork
 	err = s.solveGamma(pt, &w, nil)
 	q := len(s.rows)

@@ -105,7 +105,7 @@ func (s *system) lpStartTight() ([]float64, []int, error) {
 // reproduce the chemical potentials of the species present (weighted least
 // squares with a small ridge for directions the composition leaves free),
 // the pure phases present in it, and the gas phase when a gas is present.
-func (s *system) startFrom(n []float64) *point {
+func (s *system) startFrom(n []float64, warm bool) *point {
 	q := len(s.rows)
 	pt := newPoint(s.ns, q)
 	scale := math.Exp(s.logBig)
@@ -144,7 +144,13 @@ func (s *system) startFrom(n []float64) *point {
 	// towards a trace molality, which settles the directions the
 	// composition leaves free without pushing any species far from the
 	// scale of the totals.
+	// (From the linear program, tiny positive amounts are degenerate
+	// vertices, not information; from a warm start every amount counts.)
 	tiny := 1e-12 * scale
+	ridge := 1e-8 // relative; it settles the directions a vertex leaves free
+	if warm {
+		tiny, ridge = 0, 1e-14
+	}
 	for _, i := range s.aq {
 		if n[i] > tiny {
 			addEq(i, s.p.Species[i].Mu0+s.z2[i]*gamma+math.Log(n[i]/(nw*MolarMassWater)), 1)
@@ -169,7 +175,7 @@ func (s *system) startFrom(n []float64) *point {
 	// an equation holding it at a thousandth of its bound, and the fit is
 	// repeated (a few rounds at most).
 	for round := 0; ; round++ {
-		solveNormal(ata, atb, pt.theta)
+		solveNormal(ata, atb, pt.theta, ridge)
 		if round == 3 {
 			break
 		}
@@ -199,7 +205,7 @@ func (s *system) startFrom(n []float64) *point {
 
 // solveNormal solves the normal equations with a small ridge; theta is left
 // at zero when they cannot be solved.
-func solveNormal(ata *mat.SymDense, atb, theta []float64) {
+func solveNormal(ata *mat.SymDense, atb, theta []float64, rel float64) {
 	q := len(theta)
 	a := mat.NewSymDense(q, nil)
 	a.CopySym(ata)
@@ -208,7 +214,7 @@ func solveNormal(ata *mat.SymDense, atb, theta []float64) {
 		ridge = math.Max(ridge, a.At(k, k))
 	}
 	for k := 0; k < q; k++ {
-		a.SetSym(k, k, a.At(k, k)+1e-8*ridge+1e-300)
+		a.SetSym(k, k, a.At(k, k)+rel*ridge+1e-300)
 	}
 	var ch mat.Cholesky
 	x := mat.NewVecDense(q, theta)
