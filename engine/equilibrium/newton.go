@@ -19,8 +19,9 @@ const (
 	tolLog      = 1e-10 // saturation and gas residuals (natural-log units)
 	armijo      = 1e-4
 	maxBacktrak = 50
-	maxExtend   = 256 // longest extrapolated step, in Newton steps
-	stepGrow    = 2.0 // a species may rise this much (ln units) above the totals' scale per step
+	maxExtend   = 256  // longest extrapolated step, in Newton steps
+	stepGrow    = 2.0  // a species may rise this much (ln units) above the totals' scale per step
+	stepFall    = 30.0 // the main carrier of a balance may fall this much (ln units) per step
 )
 
 var errStall = errors.New("line search found no decrease")
@@ -31,6 +32,8 @@ type newtonWork struct {
 	f, sc    []float64
 	fix      []float64 // merit scales, fixed for one Newton solve
 	noisy    []bool    // rows whose right-hand side carries rounding
+	carrier  []int     // main aqueous carrier of each row (maxStep)
+	most     []float64
 	jac, fac []float64
 	ipiv     []int
 	ref      []float64
@@ -376,14 +379,36 @@ func (s *system) maxStep(pt *point, w *newtonWork) float64 {
 	if dnw < 0 {
 		alpha = math.Min(alpha, 0.9*nw/(-dnw))
 	}
+	// The main aqueous carrier of each balance may fall by at most
+	// stepFall ln units per step: if every carrier of a component
+	// underflowed to zero its column would vanish and Newton could not
+	// bring it back.
+	carrier, most := w.carrier[:0], w.most[:0]
+	for range s.rows {
+		carrier, most = append(carrier, -1), append(most, 0)
+	}
 	for _, i := range s.aq {
 		rate := s.potential(i, w.dx[:q]) + dnw/nw
+		for a, r := range s.colIdx[i] {
+			if v := s.colVal[i][a] * pt.amt[i]; v > most[r] {
+				carrier[r], most[r] = i, v
+			}
+		}
 		if rate <= 0 {
 			continue
 		}
 		room := math.Max(math.Log(s.ub[i])-pt.logAmt[i], 0) + stepGrow
 		alpha = math.Min(alpha, room/rate)
 	}
+	for r, i := range carrier {
+		if i < 0 || s.rows[r].rhs <= 0 {
+			continue
+		}
+		if rate := s.potential(i, w.dx[:q]) + dnw/nw; rate < -stepFall {
+			alpha = math.Min(alpha, stepFall/-rate)
+		}
+	}
+	w.carrier, w.most = carrier, most
 	for _, g := range s.gas {
 		rate := s.potential(g, w.dx[:q])
 		if rate <= 0 {
