@@ -33,22 +33,60 @@
 // # Method
 //
 // The element-potential (dual) formulation: the unknowns are the component
-// potentials λ (one per independent balance row, the charge row included
-// when it is independent of the others, and one per active constraint), the
-// amounts of the pure phases present and the amount of the gas phase when it
-// is present. Aqueous amounts follow from the potentials in closed form,
+// potentials λ (one per independent balance row — the charge row, the
+// components, and one per active constraint), the amounts of the pure phases
+// present and the amount of the gas phase when it is present. Aqueous
+// amounts follow from the potentials in closed form,
 // nᵢ = W·exp(aᵢ·λ − μ°ᵢ/RT − ln γᵢ), so concentrations spanning hundreds of
-// orders of magnitude are represented without loss. Newton–Raphson on the
-// balance, saturation and gas equations is damped by a step limit (no species
-// may jump far above the scale of the totals) and a backtracking line search
-// on a scaled residual merit. The pure-phase and gas assemblage is updated
+// orders of magnitude are represented without loss; the gas phase enters as
+// ln Σ pᵢ/P = 0 and each pure phase as aₚ·λ = μ°ₚ/RT.
+//
+// Before solving, the balance rows are recombined so that only one row
+// carries the solvent (for water "H" becomes "H beyond what water carries",
+// H − 2·O): acidity and oxidation state are then balanced to their own
+// scale instead of to 1e-12 of 111 mol of hydrogen. Dependent rows are
+// dropped after checking that their totals agree (the charge row is kept
+// first, so neutrality is enforced directly); totals that contradict each
+// other or neutrality, negative totals, and components no species can carry
+// are reported as ErrInfeasible before any iteration.
+//
+// Newton–Raphson on the balance, saturation and gas equations (gonum LAPACK
+// LU with row and column equilibration and one step of refinement; a
+// least-squares SVD step when the matrix is numerically singular) is damped
+// by a step limit — no species may rise more than e² above what the totals
+// allow in one step — and a backtracking (Armijo) line search on a scaled
+// residual merit, whose scales are fixed for one Newton solve so that the
+// merit is one function along it. When a full step only shrinks the merit
+// linearly (a species being driven towards zero, where Newton on an
+// exponential gains one ln unit per step) longer steps are tried while they
+// keep paying. Activity coefficients follow the ionic strength inside the
+// Newton loop once the balances are nearly met; an outer fixed-point loop
+// on ln γ confirms them. The pure-phase and gas assemblage is updated
 // between Newton solves (most negative phase removed, most supersaturated
-// phase added); the activity coefficients are updated in an outer fixed-point
-// loop on the ionic strength; inequality constraints by an active set. Every
-// loop has a cap; exceeding it returns ErrNoConvergence with what was tried.
-// The cold start is the linear program "least Σ nᵢ μ°ᵢ under the balances"
-// (gonum's simplex), which places the dominant species even when log K
-// reaches ±200; a Start composition replaces it.
+// phase added; an assemblage may be revisited at most three times).
+// Inequality constraints use an active set (violated ones added, the one
+// whose multiplier has the wrong sign dropped). Every loop has a cap;
+// exceeding it returns ErrNoConvergence saying what was tried.
+//
+// Directions in which only vanishing species move (an oxidation state with
+// nothing to oxidise or reduce it) have no curvature; there the balances
+// are met to the rounding carried in the totals (about 1e-15 of the largest
+// total), not beyond, and amounts below that level are rounding.
+//
+// Cold start: the linear program "least Σ nᵢ μ°ᵢ/RT under the balances and
+// the locks" gives the dominant species even when log K reaches ±200; its
+// tight locks start active. It is solved by a small dense simplex method
+// with Bland's rule and an iteration cap (lp.go says why not gonum's). The
+// potentials are then fitted to it by weighted least squares, species it
+// leaves out being pulled weakly towards 1e-10 mol/kg. A Start composition
+// (for example the state of the previous point of a pour) replaces the
+// linear program and is fitted exactly; if it fails the cold start is run.
+//
+// The iterates of a dual method are not balanced compositions, so their
+// Gibbs energy is not a descent quantity: what never rises along the
+// accepted iterations is the merit. The final state is checked in the tests
+// to be the minimum of G (no reaction vector and no random feasible move
+// lowers it).
 package equilibrium
 
 import "errors"

@@ -325,3 +325,71 @@ func reactionGap(p Problem, st State, nu map[string]float64) float64 {
 	}
 	return gap
 }
+
+func TestWarmStart(t *testing.T) {
+	for _, n := range []int{20, 80} {
+		p := complexProblem(n, 3)
+		cold, err := Solve(p)
+		if err != nil {
+			t.Fatal(err)
+		}
+		q := p
+		q.Start = cold.Amount
+		warm, err := Solve(q)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for i := range cold.Amount {
+			a, b := cold.Amount[i], warm.Amount[i]
+			if math.Abs(a-b) > 1e-8*math.Max(a, b)+1e-20 {
+				t.Errorf("%d species: %s cold %.10g, warm %.10g", n, p.Species[i].Name, a, b)
+			}
+		}
+		if warm.Iterations > 2 {
+			t.Errorf("%d species: warm start from the solution took %d iterations", n, warm.Iterations)
+		}
+		// A nearby problem (1 % more chloride) from the old state.
+		r := nearby(p)
+		r.Start = cold.Amount
+		near, err := Solve(r)
+		if err != nil {
+			t.Fatal(err)
+		}
+		checkTotals(t, r, near)
+		if near.Iterations >= cold.Iterations {
+			t.Errorf("%d species: warm %d iterations, cold %d", n, near.Iterations, cold.Iterations)
+		}
+	}
+}
+
+func TestNotesAndExactly(t *testing.T) {
+	// 2 mol/kg NaCl is beyond the Davies range: the state says so.
+	p := build([]string{"H2O", "H+", "OH-", "Na+", "Cl-"}, map[string]float64{"H2O": water, "Na+": 2, "Cl-": 2})
+	st, err := Solve(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(st.Notes) < 2 || math.Abs(st.IonicStrength-2) > 1e-6 {
+		t.Errorf("I = %g, notes %q; want 2 mol/kg with the Davies-range notes", st.IonicStrength, st.Notes)
+	}
+	// An Exactly lock pins the iron(III) formed by permanganate at 0.01 mol.
+	species := append([]string{"Fe^2+", "Fe^3+", "MnO4-", "Mn^2+"}, sulfateAcid...)
+	p = build(species, map[string]float64{"H2O": water, "K+": 0.01, "MnO4-": 0.01, "Fe^2+": 0.04, "SO4^2-": 0.14, "H+": 0.2})
+	coef := make([]float64, len(p.Species))
+	coef[index(p, "Fe^3+")] = 1
+	p.Constraints = []Constraint{{Name: "iron(III) fixed", Coef: coef, Rel: Exactly, Bound: 0.01}}
+	st, err = Solve(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	checkTotals(t, p, st)
+	if got := st.Amount[index(p, "Fe^3+")]; math.Abs(got-0.01) > 1e-12 {
+		t.Errorf("Fe^3+ = %.12g, want 0.01 (Exactly)", got)
+	}
+	if got := st.Amount[index(p, "MnO4-")]; math.Abs(got-0.008) > 1e-9 {
+		t.Errorf("MnO4- = %.12g, want 0.008 (one fifth of the iron oxidised)", got)
+	}
+	if len(st.Active) != 1 {
+		t.Errorf("active %q, want the Exactly lock", st.Active)
+	}
+}

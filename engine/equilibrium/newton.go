@@ -19,8 +19,9 @@ const (
 	tolLog      = 1e-10 // saturation and gas residuals (natural-log units)
 	armijo      = 1e-4
 	maxBacktrak = 50
-	maxExtend   = 256 // longest extrapolated step, in Newton steps
-	stepGrow    = 2.0 // a species may rise this much (ln units) above the totals' scale per step
+	maxExtend   = 256  // longest extrapolated step, in Newton steps
+	stepGrow    = 2.0  // a species may rise this much (ln units) above the totals' scale per step
+	stepFall    = 30.0 // the main carrier of a balance may fall this much (ln units) per step
 )
 
 var errStall = errors.New("line search found no decrease")
@@ -30,6 +31,9 @@ type newtonWork struct {
 	pures    []int
 	f, sc    []float64
 	fix      []float64 // merit scales, fixed for one Newton solve
+	noisy    []bool    // rows whose right-hand side carries rounding
+	carrier  []int     // main aqueous carrier of each row (maxStep)
+	most     []float64
 	jac, fac []float64
 	ipiv     []int
 	ref      []float64
@@ -138,6 +142,18 @@ func solveLinear(w *newtonWork, d int, useSVD bool) error {
 	}
 	if useSVD {
 		w.svdUsed++
+		// Rows whose totals carry rounding (those recombined with the
+		// solvent row) are weighted down, so that the least-squares step
+		// leaves an inconsistency that cannot be removed in them rather
+		// than in the balance of a trace component.
+		for r := 0; r < d && r < len(w.noisy); r++ {
+			if w.noisy[r] {
+				for c := 0; c < d; c++ {
+					jac[r*d+c] *= 1e-6
+				}
+				w.rhs[r] *= 1e-6
+			}
+		}
 		a := mat.NewDense(d, d, jac)
 		if err := solveSVD(a, mat.NewVecDense(d, w.rhs[:d]), mat.NewVecDense(d, x)); err != nil {
 			return err
@@ -254,9 +270,10 @@ func (s *system) updateGamma(pt *point) bool {
 // balance may also miss by the rounding carried in the totals (noise), which
 // a direction of the equations with vanishing curvature — species forced to
 // zero, such as an oxidation state with nothing to reduce it — cannot absorb.
-func closeEnough(f, sc []float64, q int, noise float64) bool {
+func (s *system) closeEnough(f, sc []float64) bool {
+	q := len(s.rows)
 	for k, v := range f {
-		if k < q && math.Abs(v) > tolStalled*sc[k]+noise+1e-300 || k >= q && math.Abs(v) > 1e3*tolLog {
+		if k < q && math.Abs(v) > tolStalled*sc[k]+s.noise+1e-300 || k >= q && math.Abs(v) > 1e3*tolLog {
 			return false
 		}
 	}
@@ -277,6 +294,10 @@ func (s *system) newton(pt *point, w *newtonWork, tr *trace) error {
 	}
 	w.grow(d, s.ns, q)
 	w.fix = s.meritScales(pt, d, w.fix)
+	w.noisy = w.noisy[:0]
+	for _, r := range s.rows {
+		w.noisy = append(w.noisy, r.noise > 0)
+	}
 	nearby := false
 	for it := 0; ; it++ {
 		// Once the balances are nearly met, the activity coefficients
@@ -314,7 +335,7 @@ func (s *system) newton(pt *point, w *newtonWork, tr *trace) error {
 			}
 			alpha, after, err = s.lineSearch(pt, w, d, phi)
 		}
-		if err != nil && closeEnough(w.f[:d], w.sc[:d], q, s.noise) {
+		if err != nil && s.closeEnough(w.f[:d], w.sc[:d]) {
 			return nil
 		}
 		if err != nil {
@@ -322,7 +343,7 @@ func (s *system) newton(pt *point, w *newtonWork, tr *trace) error {
 			tr.dump(s, pt, w.f[:d], w.sc[:d])
 			return err
 		}
-		if (alpha < 1e-10 || after > 0.99*phi) && closeEnough(w.f[:d], w.sc[:d], q, s.noise) {
+		if (alpha < 1e-10 || after > 0.99*phi) && s.closeEnough(w.f[:d], w.sc[:d]) {
 			return nil
 		}
 		w.iter++
@@ -358,14 +379,36 @@ func (s *system) maxStep(pt *point, w *newtonWork) float64 {
 	if dnw < 0 {
 		alpha = math.Min(alpha, 0.9*nw/(-dnw))
 	}
+	// The main aqueous carrier of each balance may fall by at most
+	// stepFall ln units per step: if every carrier of a component
+	// underflowed to zero its column would vanish and Newton could not
+	// bring it back.
+	carrier, most := w.carrier[:0], w.most[:0]
+	for range s.rows {
+		carrier, most = append(carrier, -1), append(most, 0)
+	}
 	for _, i := range s.aq {
 		rate := s.potential(i, w.dx[:q]) + dnw/nw
+		for a, r := range s.colIdx[i] {
+			if v := s.colVal[i][a] * pt.amt[i]; v > most[r] {
+				carrier[r], most[r] = i, v
+			}
+		}
 		if rate <= 0 {
 			continue
 		}
 		room := math.Max(math.Log(s.ub[i])-pt.logAmt[i], 0) + stepGrow
 		alpha = math.Min(alpha, room/rate)
 	}
+	for r, i := range carrier {
+		if i < 0 || s.rows[r].rhs <= 0 {
+			continue
+		}
+		if rate := s.potential(i, w.dx[:q]) + dnw/nw; rate < -stepFall {
+			alpha = math.Min(alpha, stepFall/-rate)
+		}
+	}
+	w.carrier, w.most = carrier, most
 	for _, g := range s.gas {
 		rate := s.potential(g, w.dx[:q])
 		if rate <= 0 {

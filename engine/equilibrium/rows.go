@@ -138,12 +138,21 @@ func balanceRows(p *Problem, off []bool, set *rowSet, solvent int) ([]balanceRow
 	comps := componentRows(p, off, solvent)
 	// The charge row goes first and the components follow by increasing
 	// total, so that a dependent row, which is only conserved through the
-	// others, is a large one: neutrality and trace components are then
-	// enforced directly, each to its own relative tolerance.
+	// others, is a large or a rounded one: neutrality and trace components
+	// are then enforced directly, each to its own relative tolerance.
 	var rows []balanceRow
 	set.add(charge, 0, 0)
 	rows = append(rows, balanceRow{name: "charge", coef: charge, lock: -1})
-	sort.SliceStable(comps, func(a, b int) bool { return comps[a].scale < comps[b].scale })
+	// Exact rows before rows that carry rounding (recombined with the
+	// solvent row), so that when a row is implied by others it is a
+	// rounded one that is dropped; by total within each group.
+	sort.SliceStable(comps, func(a, b int) bool {
+		na, nb := comps[a].noise > 0, comps[b].noise > 0
+		if na != nb {
+			return !na
+		}
+		return comps[a].scale < comps[b].scale
+	})
 	for _, r := range comps {
 		indep, implied, tol := set.add(r.coef, r.rhs, r.noise)
 		if !indep {

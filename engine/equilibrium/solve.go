@@ -159,7 +159,7 @@ func (ls *lockSolver) solveRound(prevPt *point, prevRows []balanceRow) (*point, 
 	case prevPt != nil:
 		pt = remap(prevPt, prevRows, s.rows)
 	case len(s.p.Start) > 0:
-		pt = s.startFrom(s.p.Start)
+		pt = s.startFrom(s.p.Start, true)
 	}
 	if pt != nil {
 		err := s.solveGamma(pt, &ls.w, ls.tr)
@@ -192,7 +192,7 @@ func (ls *lockSolver) solveRound(prevPt *point, prevRows []balanceRow) (*point, 
 		ls.tr.note("linear-programming start failed: %v", err)
 		n = s.crudeStart()
 	}
-	pt = s.startFrom(n)
+	pt = s.startFrom(n, false)
 	if err := s.solveGamma(pt, &ls.w, ls.tr); err != nil {
 		if lpErr != nil {
 			// Two independent verdicts: the linear program found no

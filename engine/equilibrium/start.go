@@ -105,7 +105,7 @@ func (s *system) lpStartTight() ([]float64, []int, error) {
 // reproduce the chemical potentials of the species present (weighted least
 // squares with a small ridge for directions the composition leaves free),
 // the pure phases present in it, and the gas phase when a gas is present.
-func (s *system) startFrom(n []float64) *point {
+func (s *system) startFrom(n []float64, warm bool) *point {
 	q := len(s.rows)
 	pt := newPoint(s.ns, q)
 	scale := math.Exp(s.logBig)
@@ -114,92 +114,111 @@ func (s *system) startFrom(n []float64) *point {
 	for _, i := range s.aq {
 		pt.amt[i] = n[i]
 	}
-	gamma := daviesLn(s.daviesA, s.ionic(pt))
-	pt.gamma = gamma
+	pt.gamma = daviesLn(s.daviesA, s.ionic(pt))
 	ng := 0.0
 	for _, g := range s.gas {
 		ng += n[g]
 	}
-	ata := mat.NewSymDense(q, nil) // normal equations of the fit
-	atb := make([]float64, q)
-	addEq := func(i int, target, weight float64) {
-		idx, val := s.colIdx[i], s.colVal[i]
-		for a, r := range idx {
-			atb[r] += weight * val[a] * target
-			for bb, c := range idx {
-				if c >= r {
-					ata.SetSym(r, c, ata.At(r, c)+weight*val[a]*val[bb])
-				}
-			}
-		}
-	}
-	addEq(s.solvent, s.p.Species[s.solvent].Mu0, 100)
+	f := &fit{s: s, ata: mat.NewSymDense(q, nil), atb: make([]float64, q), lnW: math.Log(nw * MolarMassWater), gamma: pt.gamma}
+	f.add(s.solvent, s.p.Species[s.solvent].Mu0, 100)
 	for _, i := range s.pure {
 		if n[i] > 0 {
 			pt.present[i], pt.amt[i] = true, n[i]
-			addEq(i, s.p.Species[i].Mu0, 100)
+			f.add(i, s.p.Species[i].Mu0, 100)
 		}
 	}
 	// Species in the composition are fitted; the others get a weak pull
 	// towards a trace molality, which settles the directions the
 	// composition leaves free without pushing any species far from the
-	// scale of the totals.
-	tiny := 1e-12 * scale
+	// scale of the totals. (From the linear program, tiny positive amounts
+	// are degenerate vertices, not information; from a warm start every
+	// amount counts.)
+	f.tiny, f.ridge = 1e-12*scale, 1e-8
+	if warm {
+		f.tiny, f.ridge = 0, 1e-14
+	}
 	for _, i := range s.aq {
-		if n[i] > tiny {
-			addEq(i, s.p.Species[i].Mu0+s.z2[i]*gamma+math.Log(n[i]/(nw*MolarMassWater)), 1)
+		if n[i] > f.tiny {
+			f.add(i, s.p.Species[i].Mu0+s.z2[i]*pt.gamma+math.Log(n[i]/(nw*MolarMassWater)), 1)
 		} else {
-			addEq(i, s.p.Species[i].Mu0+s.z2[i]*gamma+math.Log(traceMolality), 1e-4)
+			f.add(i, s.p.Species[i].Mu0+s.z2[i]*pt.gamma+math.Log(traceMolality), 1e-4)
 		}
 	}
 	if ng > 1e-9*scale {
 		pt.gasOn, pt.ng = true, ng
 		for _, g := range s.gas {
 			if n[g] > 0 {
-				addEq(g, s.p.Species[g].Mu0+s.lnP+math.Log(n[g]/ng), 1)
+				f.add(g, s.p.Species[g].Mu0+s.lnP+math.Log(n[g]/ng), 1)
+			}
+		}
+	} else {
+		for _, g := range s.gas {
+			f.add(g, s.p.Species[g].Mu0+math.Log(traceMolality), 1e-4)
+		}
+	}
+	f.solve(pt, n)
+	return pt
+}
+
+// fit holds the weighted least-squares fit of the potentials to a
+// composition (normal equations).
+type fit struct {
+	s           *system
+	ata         *mat.SymDense
+	atb         []float64
+	lnW, gamma  float64
+	tiny, ridge float64
+}
+
+// add asks that species i have aᵢ·θ = target, with a weight.
+func (f *fit) add(i int, target, weight float64) {
+	idx, val := f.s.colIdx[i], f.s.colVal[i]
+	for a, r := range idx {
+		f.atb[r] += weight * val[a] * target
+		for b, c := range idx {
+			if c >= r {
+				f.ata.SetSym(r, c, f.ata.At(r, c)+weight*val[a]*val[b])
 			}
 		}
 	}
-	if !pt.gasOn {
-		for _, g := range s.gas {
-			addEq(g, s.p.Species[g].Mu0+math.Log(traceMolality), 1e-4)
-		}
-	}
-	// Repair: a species the fit puts far above what the totals allow gets
-	// an equation holding it at a thousandth of its bound, and the fit is
-	// repeated (a few rounds at most).
+}
+
+// solve fits pt.theta, then repairs: a species the fit puts far above what
+// the totals allow gets an equation holding it at a thousandth of its
+// bound, and the fit is repeated (three rounds at most).
+func (f *fit) solve(pt *point, n []float64) {
+	s := f.s
 	for round := 0; ; round++ {
-		solveNormal(ata, atb, pt.theta)
+		solveNormal(f.ata, f.atb, pt.theta, f.ridge)
 		if round == 3 {
-			break
+			return
 		}
 		repaired := false
 		for _, i := range append(s.aq, s.gas...) {
-			if n[i] > tiny || (pt.gasOn && s.p.Species[i].Phase == Gas) {
+			if n[i] > f.tiny || (pt.gasOn && s.p.Species[i].Phase == Gas) {
 				continue
 			}
 			lnBound := math.Log(s.ub[i] * 1e-3)
 			ln := s.potential(i, pt.theta) - s.p.Species[i].Mu0
 			if s.p.Species[i].Phase == Aqueous {
-				ln += math.Log(nw*MolarMassWater) - s.z2[i]*gamma
+				ln += f.lnW - s.z2[i]*f.gamma
 			} else {
-				ln += math.Log(math.Max(ng, s.ub[i])) - s.lnP
+				ln += math.Log(s.ub[i]) - s.lnP
 			}
 			if ln > lnBound+1 {
-				addEq(i, s.potential(i, pt.theta)-(ln-lnBound), 1)
+				f.add(i, s.potential(i, pt.theta)-(ln-lnBound), 1)
 				repaired = true
 			}
 		}
 		if !repaired {
-			break
+			return
 		}
 	}
-	return pt
 }
 
 // solveNormal solves the normal equations with a small ridge; theta is left
 // at zero when they cannot be solved.
-func solveNormal(ata *mat.SymDense, atb, theta []float64) {
+func solveNormal(ata *mat.SymDense, atb, theta []float64, rel float64) {
 	q := len(theta)
 	a := mat.NewSymDense(q, nil)
 	a.CopySym(ata)
@@ -208,7 +227,7 @@ func solveNormal(ata *mat.SymDense, atb, theta []float64) {
 		ridge = math.Max(ridge, a.At(k, k))
 	}
 	for k := 0; k < q; k++ {
-		a.SetSym(k, k, a.At(k, k)+1e-8*ridge+1e-300)
+		a.SetSym(k, k, a.At(k, k)+rel*ridge+1e-300)
 	}
 	var ch mat.Cholesky
 	x := mat.NewVecDense(q, theta)
