@@ -162,18 +162,19 @@ func amountsOf(mx *state.Mix, st explain.Step) *Amounts {
 }
 
 // exhausted reports whether an agent's element left its oxidation state
-// almost entirely.
+// all but entirely (99 %; water itself not counted, so that an acid spent
+// down to pH 4 is the limiting reagent).
 func exhausted(mx *state.Mix, c explain.Couple) bool {
 	before, after := 0.0, 0.0
 	for i, sp := range mx.Species {
 		n := sp.Atoms[c.Element]
-		if n == 0 || math.Round(sp.Ox[c.Element]*100)/100 != c.From {
+		if n == 0 || sp.Text == "H2O" || math.Round(sp.Ox[c.Element]*100)/100 != c.From {
 			continue
 		}
 		before += mx.Combined.Amount[i] * float64(n)
 		after += mx.Final.Amount[i] * float64(n)
 	}
-	return before > 0 && after < 1e-4*before
+	return before > 0 && after < 1e-2*before
 }
 
 // compositionOut lists the mix at equilibrium above trace, largest first.

@@ -20,7 +20,7 @@ func gasesOut(mx *state.Mix, formed func(*thermo.Species) bool, kPa float64) []G
 			continue
 		}
 		p := partialOf(mx, f, i) // bar
-		if !(p > 0) { // absent, or never formable (NaN)
+		if !(p > 0) {            // absent, or never formable (NaN)
 			continue
 		}
 		g := GasReleaseOf(sp.Species.Text(), f.Amount[i], mx.TempK, kPa)
@@ -30,10 +30,10 @@ func gasesOut(mx *state.Mix, formed func(*thermo.Species) bool, kPa float64) []G
 		}
 		g.PartialKPa = sigDigits(p*100, 4)
 		g.HeadspacePPM = sigDigits(p/(kPa/100)*1e6, 4)
+		if g.HeadspacePPM < 1 && f.Amount[i] < 1e-6*mx.VolumeL {
+			continue // a trace: below 1 ppm in the headspace and 1 µmol per litre
+		}
 		if f.Amount[i] <= 0 {
-			if g.HeadspacePPM < 1 {
-				continue
-			}
 			// Dissolved: what a closed headspace of the liquid's volume holds.
 			g.Kind = "headspace"
 			g.Mol = p * 100 * mx.VolumeL / (MolarGasConstant() * mx.TempK) // kPa·L / (J/mol) = mol

@@ -9,6 +9,7 @@ import (
 	"strings"
 	"sync"
 
+	"mixward/engine/equilibrium"
 	"mixward/engine/explain"
 	"mixward/engine/state"
 	"mixward/engine/thermo"
@@ -210,13 +211,13 @@ func (e *Engine) predict(req *Request, full bool) (*Result, error) {
 	}
 	mx, err := e.Model.Solve(feed)
 	if err != nil {
-		return nil, fmt.Errorf("engine: %w", err)
+		return nil, unsolved(err)
 	}
 	steps, err := explain.Steps(e.Tables.Thermo, mx)
 	if err != nil {
 		return nil, err
 	}
-	res.Notes = append(res.Notes, mx.Final.Eq.Notes...)
+	res.Notes = append(append(res.Notes, mx.Notes...), mx.Final.Eq.Notes...)
 	res.Conditions.PH = roundDec(mx.Combined.PH, 2)
 	res.Conditions.PHFinal = ptr(roundDec(mx.Final.PH, 2))
 	res.Conditions.Medium = Medium(explain.MediumAt(e.Tables.Thermo, mx.Combined.PH, mx.TempK))
@@ -420,4 +421,16 @@ func hydroxideIon(t *Tables, s Species) (Species, bool) {
 		return Species{}, false
 	}
 	return Species{Formula: metal, Charge: z, Phase: Aqueous}, true
+}
+
+// unsolved turns a mix the equilibrium cannot be found for into an answer
+// withheld with its reason: too little water for a solution, or a solve
+// that did not converge.
+func unsolved(err error) error {
+	code := "no-convergence"
+	if errors.Is(err, equilibrium.ErrInfeasible) {
+		code = "not-a-solution"
+	}
+	return &ParseError{Code: code, Suggestions: []string{},
+		Message: "no answer for this mix: " + err.Error() + "; the answer is withheld rather than guessed: check the safety data sheets and ask a chemist before combining"}
 }

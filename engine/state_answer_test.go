@@ -16,7 +16,7 @@ func TestWithheldChemical(t *testing.T) {
 	if !errors.As(err, &pe) || pe.Code != "withheld" {
 		t.Fatalf("Ask = %v, want a withheld error", err)
 	}
-	if pe.Token != "ethylene glycol" || pe.Position != 10 {
-		t.Errorf("withheld error points at %q (position %d), want the chemical's name at 10", pe.Token, pe.Position)
+	if pe.Token != "ethylene glycol" || pe.Position != 9 {
+		t.Errorf("withheld error points at %q (position %d), want the chemical's name at 9", pe.Token, pe.Position)
 	}
 }

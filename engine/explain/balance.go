@@ -118,7 +118,7 @@ func solveCoefficients(terms []*thermo.Species, perOx float64) ([]int, int, erro
 	if !fullRank(terms, names, els) {
 		rows++ // and the electrons per ox, when the rest leaves a choice
 	}
-	cols := len(terms)     // terms 1.. plus the electron column
+	cols := len(terms) // terms 1.. plus the electron column
 	a := mat.NewDense(rows, cols, nil)
 	rhs := mat.NewVecDense(rows, nil)
 	for j, sp := range terms {

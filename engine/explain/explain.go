@@ -19,9 +19,9 @@ type Couple struct {
 	// Ereached is E with what is not yet there taken at the level the
 	// change brings it to (its activity in the mixed state).
 	Ereached float64
-	Element string
-	From    float64 // oxidation state of Element in Agent
-	To      float64 // in Product
+	Element  string
+	From     float64 // oxidation state of Element in Agent
+	To       float64 // in Product
 }
 
 // Step is one redox change between the mix as combined and the mix at
@@ -61,23 +61,28 @@ func Steps(db *thermo.DB, mx *state.Mix) ([]Step, error) {
 	return out, nil
 }
 
-// Negligible is the share below which a change does not count as
-// proceeding: when it turns over less than 1 % of the larger of the two
-// agents' amounts as combined, the equilibrium lies far to the left (copper
-// in hydrochloric acid gives a trace of hydrogen in a closed vessel, not a
-// reaction) or it only moves a trace left by a stream's own equilibrium.
+// Negligible is the share of an agent below which a change does not count
+// as proceeding: when it turns over less than 1 % of each agent's amount as
+// combined, the equilibrium lies far to the left (copper in hydrochloric
+// acid gives a trace of hydrogen in a closed vessel, not a reaction). An
+// agent present only as a trace (below 1 µmol/L, such as chlorine left by a
+// stream's own equilibrium) does not count either way.
 const Negligible = 1e-2
 
-// significant keeps the matches that turn over at least Negligible of the
-// larger agent; water itself is left out of the amounts, so that hydrogen
-// from acid is weighed against the acid.
+// significant keeps the matches that turn over at least Negligible of an
+// agent present above trace; water itself is left out of the amounts, so
+// that hydrogen from acid is weighed against the acid.
 func significant(mx *state.Mix, ms []Match) []Match {
+	trace := 1e-6 * mx.VolumeL
 	var out []Match
 	for _, m := range ms {
-		red, ox := agentPool(mx, m.Red), agentPool(mx, m.Ox)
-		movedRed := m.Electrons / math.Abs(m.Red.From-m.Red.To)
-		movedOx := m.Electrons / math.Abs(m.Ox.From-m.Ox.To)
-		if math.Max(movedRed, movedOx) >= Negligible*math.Max(red, ox) {
+		keep := false
+		for _, t := range []Transfer{m.Red, m.Ox} {
+			p := agentPool(mx, t)
+			moved := m.Electrons / math.Abs(t.From-t.To)
+			keep = keep || (p >= trace && moved >= Negligible*p)
+		}
+		if keep {
 			out = append(out, m)
 		}
 	}

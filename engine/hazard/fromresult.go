@@ -53,7 +53,38 @@ func FromResult(r *engine.Result, t *engine.Tables) *Outcome {
 		o.gasesOf(r)
 	}
 	o.heatOf(r, headRuns)
+	o.measured(r, t)
 	return o
+}
+
+// measured records the gases the equilibrium state of the mix covers: every
+// gas of the species data made only of elements the mix holds, at the
+// amount and headspace concentration of the answer's gases (zero when the
+// answer lists none).
+func (o *Outcome) measured(r *engine.Result, t *engine.Tables) {
+	if t.Thermo == nil || r.Conditions.PHFinal == nil {
+		return // not an answer from the equilibrium state
+	}
+	els := map[string]bool{"H": true, "O": true}
+	for _, s := range r.Species {
+		if a, err := engine.ParseFormula(s.Formula); err == nil {
+			for el := range a {
+				els[el] = true
+			}
+		}
+	}
+	o.Measured = map[string]MeasuredGas{}
+	for _, sp := range t.Thermo.Within(els) {
+		if sp.Phase == engine.Gas {
+			o.Measured[sp.Formula] = MeasuredGas{}
+		}
+	}
+	for _, g := range r.Gases {
+		f := strings.TrimSuffix(g.Text, "(g)")
+		if _, ok := o.Measured[f]; ok && g.PartialKPa > 0 {
+			o.Measured[f] = MeasuredGas{Mol: g.Mol, PPM: g.HeadspacePPM}
+		}
+	}
 }
 
 // reactions sorts the engine's reactions into those that proceed and those

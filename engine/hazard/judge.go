@@ -51,10 +51,17 @@ func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 	var out []engine.Hazard
 	for _, f := range d.order {
 		g, p := d.Gases[f], ps[f]
-		if p.mol <= 0 {
+		var hs Headspace
+		if m, ok := o.Measured[f]; ok {
+			// The mixed state has this gas: its numbers, not an estimate.
+			p = &pool{mol: m.Mol, molecular: 1, origins: []string{"the mix at equilibrium"}}
+			hs = Headspace{PPM: math.Min(m.PPM, 1e6), Vents: m.PPM >= 1e6}
+		} else {
+			hs = Share(p.mol, p.molecular, g.KH, o.VolumeL, o.HeadspaceL, o.TemperatureK(), o.PressureKPa)
+		}
+		if p.mol <= 0 && hs.PPM <= 0 {
 			continue
 		}
-		hs := Share(p.mol, p.molecular, g.KH, o.VolumeL, o.HeadspaceL, o.TemperatureK(), o.PressureKPa)
 		ratio := hs.PPM / g.LimitPPM
 		if !(ratio >= WarningRatio) {
 			continue

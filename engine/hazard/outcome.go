@@ -95,6 +95,17 @@ type Outcome struct {
 	HeldBack        []HeldBack
 	Gases           []Gas
 	Heat            Heat
+	// Measured holds, by gas formula, what the equilibrium state of the mix
+	// says of a gas it can form: the amount given off or held by the
+	// headspace and the headspace concentration. A measured gas is judged
+	// on these numbers, not estimated from its dissolved pool.
+	Measured map[string]MeasuredGas
+}
+
+// MeasuredGas is a gas as the mixed state has it.
+type MeasuredGas struct {
+	Mol float64 // given off, or held by the headspace when none is given off
+	PPM float64 // equilibrium headspace concentration by volume
 }
 
 // TemperatureK is the mix temperature in kelvin before it reacts.

@@ -61,6 +61,9 @@ func sampleFeeds(t testing.TB, m *Model) map[string]Feed {
 		"zinc-acid-hot": {TempK: 423.15, PressureBar: 1.01325, Streams: []Stream{
 			{Label: "T-15", Items: []Item{{Species: get(t, m, "Zn(s)"), Excess: true}}},
 			{Label: "T-16", Items: []Item{item(t, m, "H+", 1), item(t, m, "Cl-", 1)}, WaterMol: water(1), VolumeL: 1}}},
+		"cyanide-strike": f(
+			Stream{Label: "T-17", Items: []Item{item(t, m, "Na+", 122.4), item(t, m, "CN-", 122.4)}, WaterMol: water(300), VolumeL: 300},
+			Stream{Label: "T-18", Items: []Item{item(t, m, "H+", 143.6), item(t, m, "Cl-", 143.6)}, WaterMol: water(50), VolumeL: 50}),
 		"bleach-acid": f(
 			Stream{Label: "T-4", Items: []Item{item(t, m, "Na+", 3.8), item(t, m, "OCl-", 3.8)}, WaterMol: water(2), VolumeL: 2},
 			Stream{Label: "T-5", Items: []Item{item(t, m, "H+", 1.4), item(t, m, "Cl-", 1.4)}, WaterMol: water(0.5), VolumeL: 0.5}),

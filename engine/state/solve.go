@@ -1,6 +1,7 @@
 package state
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"sort"
@@ -594,7 +595,17 @@ func potentials(p equilibrium.Problem, eq equilibrium.State) ([]float64, bool) {
 // solveSafely runs the solver and turns a panic inside it (a linear-algebra
 // routine refusing a singular basis) into an error, so that no request can
 // take the process down.
+// A warm start that leads nowhere is dropped for a cold start.
 func solveSafely(p equilibrium.Problem) (st equilibrium.State, err error) {
+	st, err = solveRecovered(p)
+	if err != nil && p.Start != nil && !errors.Is(err, equilibrium.ErrInfeasible) {
+		p.Start = nil
+		st, err = solveRecovered(p)
+	}
+	return st, err
+}
+
+func solveRecovered(p equilibrium.Problem) (st equilibrium.State, err error) {
 	defer func() {
 		if r := recover(); r != nil {
 			err = fmt.Errorf("%w: the solver failed (%v)", equilibrium.ErrNoConvergence, r)

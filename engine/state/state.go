@@ -86,6 +86,7 @@ type State struct {
 type Mix struct {
 	Species  []*thermo.Species
 	Initial  []float64 // what the streams' states bring together, mol per species
+	Notes    []string  // assumptions the solve made (a stated pH out of reach, a solid counted in part)
 	Streams  []*State  // each stream alone (nil for a solid stream)
 	Combined *State    // the mix as combined: acid–base, complexes and solids, no redox change
 	Final    *State    // the mix at equilibrium under the locks
@@ -116,11 +117,18 @@ func (m *Model) Solve(f Feed) (*Mix, error) {
 	if water <= 0 {
 		return nil, ErrNoLiquid
 	}
+	// A solid in excess is counted as ten times what everything else could
+	// take from it, but never as more than a fifth of the water in mol, so
+	// that a metal reacting with water itself cannot use the solvent up.
 	excess := 10.0
 	for _, st := range f.Streams {
 		for _, it := range st.Items {
 			excess += 10 * it.Mol * float64(atomCount(it.Species))
 		}
+	}
+	if excess > water/5 {
+		excess = water / 5
+		mx.Notes = append(mx.Notes, fmt.Sprintf("a solid in excess is counted as %.3g mol (a fifth of the water), enough for anything else in the mix to react with", excess))
 	}
 	mx.Initial = make([]float64, len(mx.Species))
 	mx.Streams = make([]*State, len(f.Streams))

@@ -1,6 +1,7 @@
 package state
 
 import (
+	"errors"
 	"fmt"
 	"math"
 
@@ -29,13 +30,30 @@ func IsStandIn(sp *thermo.Species) bool { return sp == standInAnion || sp == sta
 
 // fitPH adds to n0 the stand-in strong acid (x > 0 mol) or base (x < 0) that
 // brings the solution as combined to pH target.
+// A pH beyond what 20 mol/L of acid or base gives (with activities capped
+// where the Davies equation stops) is taken at that end, and the mix's notes
+// say so.
 func (m *Model) fitPH(mx *Mix, n0 []float64, volL, target float64) ([]float64, error) {
 	x, err := m.titrate(mx, n0, volL, target)
+	if errors.Is(err, errUnreachable) {
+		limit := 20 * volL
+		if target > 7 {
+			limit = -limit
+		}
+		n := m.withAcid(mx, n0, limit)
+		if s, err := m.solve(mx, n, true, nil, volL, n); err == nil {
+			mx.Notes = append(mx.Notes, fmt.Sprintf("the stated pH %g is beyond what the model reaches with 20 mol/L of acid or base: pH %.2f is used", target, s.PH))
+		}
+		return n, nil
+	}
 	if err != nil {
 		return nil, err
 	}
 	return m.withAcid(mx, n0, x), nil
 }
+
+// errUnreachable is a pH outside what 20 mol/L of acid or base gives.
+var errUnreachable = errors.New("pH cannot be reached with up to 20 mol/L of acid or base")
 
 // withAcid is n0 with x mol of the stand-in strong acid (x > 0) or base
 // (x < 0) added.
@@ -75,7 +93,7 @@ func (m *Model) titrate(mx *Mix, n0 []float64, volL, target float64) (float64, e
 		return 0, err
 	}
 	if flo < 0 || fhi > 0 {
-		return 0, fmt.Errorf("pH %g cannot be reached with up to 20 mol/L of acid or base", target)
+		return 0, fmt.Errorf("pH %g: %w", target, errUnreachable)
 	}
 	side := 0
 	for it := 0; it < 60; it++ {
