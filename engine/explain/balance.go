@@ -25,10 +25,10 @@ type balancer struct {
 	water   *thermo.Species
 	proton  *thermo.Species
 	hydrox  *thermo.Species
-	partner func(el string, not ...*thermo.Species) *thermo.Species // main carrier of an element
+	partner func(el, key string, not ...*thermo.Species) *thermo.Species // main carrier of an element, without the key element
 }
 
-func newBalancer(db *thermo.DB, partner func(string, ...*thermo.Species) *thermo.Species) (*balancer, error) {
+func newBalancer(db *thermo.DB, partner func(string, string, ...*thermo.Species) *thermo.Species) (*balancer, error) {
 	b := &balancer{db: db, partner: partner}
 	var ok1, ok2, ok3 bool
 	b.water, ok1 = db.Get("H2O")
@@ -52,7 +52,10 @@ const maxScale = 60
 func (b *balancer) Reduction(ox, red *thermo.Species, key string, med Medium) (thermo.Reaction, error) {
 	terms := []*thermo.Species{ox, red}
 	for _, el := range b.unmatched(ox, red) {
-		p := b.partner(el, ox, red)
+		p := b.partner(el, key, terms...)
+		if p != nil && contains(terms, p) {
+			continue // one partner carries two elements (CN- for CuCN)
+		}
 		if p == nil {
 			return thermo.Reaction{}, fmt.Errorf("no species carries %s to balance %s → %s", el, ox.Text, red.Text)
 		}

@@ -23,7 +23,7 @@ func loadDB(t testing.TB) *thermo.DB {
 func TestReductionBalances(t *testing.T) {
 	db := loadDB(t)
 	partners := map[string]string{"Cl": "Cl-", "N": "NH3", "S": "SO4^2-"}
-	b, err := newBalancer(db, func(el string, _ ...*thermo.Species) *thermo.Species {
+	b, err := newBalancer(db, func(el, _ string, _ ...*thermo.Species) *thermo.Species {
 		sp, _ := db.Get(partners[el])
 		return sp
 	})

@@ -148,15 +148,12 @@ func NeutralPH(db *thermo.DB, tempK float64) float64 {
 }
 
 // partner is the main carrier of an element in the mix at equilibrium (or as
-// combined) other than the given species and free of their key elements.
-func (x *explainer) partner(el string, not ...*thermo.Species) *thermo.Species {
+// combined) other than the given species and free of the couple's key
+// element.
+func (x *explainer) partner(el, key string, not ...*thermo.Species) *thermo.Species {
 	skip := map[string]bool{}
-	for _, sp := range not {
-		for e := range sp.Atoms {
-			if e != el && e != "H" && e != "O" {
-				skip[e] = true
-			}
-		}
+	if key != "H" && key != "O" { // hydrogen and oxygen are in nearly every carrier
+		skip[key] = true
 	}
 	for _, amount := range [][]float64{x.mx.Final.Amount, x.mx.Combined.Amount} {
 		var best *thermo.Species

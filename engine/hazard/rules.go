@@ -57,7 +57,8 @@ func nitrogenTrichloride(o *Outcome) (engine.Hazard, bool) {
 // silverAmmonia: ammoniacal silver solutions deposit silver nitride
 // ("fulminating silver") on standing, which explodes when touched.
 func silverAmmonia(o *Outcome) (engine.Hazard, bool) {
-	ag := math.Max(o.MolarBefore("Ag+", "Ag2O"), o.Molar("Ag+"))
+	// In the mix the silver is mostly the ammine complex.
+	ag := math.Max(o.MolarBefore("Ag+", "Ag2O", "Ag(NH3)2+", "AgNH3+"), o.Molar("Ag+", "Ag(NH3)2+", "AgNH3+"))
 	if ag < TraceMolar || o.Molar("NH3") < TraceMolar && o.MolarBefore("NH3") < TraceMolar {
 		return engine.Hazard{}, false
 	}
