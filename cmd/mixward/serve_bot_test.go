@@ -247,7 +247,7 @@ func TestServeHTTPEndToEnd(t *testing.T) {
 
 	// A mention, signed: answered in its thread.
 	resp := signedPost(t, s.events+"/slack/events", "application/json", testSecret,
-		mentionBody("Ev1", "CPLANT", "1700000000.000100", "<@UBOT> mix 200 L NaOCl 12.5 % + 50 L HCl 10 %"), now)
+		mentionBody("Ev1", "CPLANT", "1700000000.000100", "<@UBOT> mix 100 L NaOCl 12.5 % + 100 L HCl 10 %"), now)
 	if resp.StatusCode != 200 {
 		t.Fatalf("signed mention: %s", resp.Status)
 	}
@@ -442,7 +442,7 @@ func TestServeSocketMode(t *testing.T) {
 	slack.acks = make(chan string, 8)
 	ev, _ := json.Marshal(map[string]any{
 		"type": "events_api", "envelope_id": "env-1",
-		"payload": json.RawMessage(mentionBody("EvS1", "CPLANT", "1700000000.000500", "<@UBOT> mix 200 L NaOCl 12.5 % + 50 L HCl 10 %")),
+		"payload": json.RawMessage(mentionBody("EvS1", "CPLANT", "1700000000.000500", "<@UBOT> mix 100 L NaOCl 12.5 % + 100 L HCl 10 %")),
 	})
 	slack.envelopes = []string{string(ev)}
 	db := filepath.Join(t.TempDir(), "socket.db")
