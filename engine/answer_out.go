@@ -2,7 +2,6 @@ package engine
 
 import (
 	"math"
-	"strings"
 
 	"mixward/engine/explain"
 	"mixward/engine/state"
@@ -213,13 +212,4 @@ func formedBy(steps []explain.Step) func(*thermo.Species) bool {
 		}
 		return false
 	}
-}
-
-// joinTexts is a comma list of species texts.
-func joinTexts(sps []*thermo.Species) string {
-	parts := make([]string, len(sps))
-	for i, s := range sps {
-		parts[i] = s.Species.Text()
-	}
-	return strings.Join(parts, ", ")
 }

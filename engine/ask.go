@@ -281,69 +281,6 @@ func (e *Engine) headline(res *Result, mx *state.Mix, steps []explain.Step) {
 	}
 }
 
-func isWaterText(s SpeciesInfo) bool { return s.Formula == "H2O" && s.Charge == 0 }
-
-func allowanceOut(a *KineticRule) *Allowance {
-	return &Allowance{ID: a.ID, Volts: a.Volts, Reason: a.Reason, Source: a.Source}
-}
-
-// speciesInfo lists the species of the mix with their roles.
-func speciesInfo(m *mixture, ox, red []*side) []SpeciesInfo {
-	roles := map[string][]Role{}
-	partners := map[string][]string{}
-	mark := func(s *side) {
-		k := s.main.Ion()
-		for _, r := range roles[k] {
-			if r == s.role {
-				goto partnersOnly
-			}
-		}
-		roles[k] = append(roles[k], s.role)
-	partnersOnly:
-		for _, p := range s.partners {
-			t := p.Text()
-			dup := false
-			for _, x := range partners[k] {
-				dup = dup || x == t
-			}
-			if !dup {
-				partners[k] = append(partners[k], t)
-			}
-		}
-	}
-	for _, s := range ox {
-		mark(s)
-	}
-	for _, s := range red {
-		mark(s)
-	}
-	var out []SpeciesInfo
-	for _, p := range m.list() {
-		si := SpeciesInfo{
-			Text: p.sp.Text(), Formula: p.sp.Formula, Charge: p.sp.Charge, Phase: p.sp.Phase,
-			Roles: []Role{}, Mol: roundDec(p.mol, 9), Excess: p.excess,
-		}
-		if p.sp.Phase == Aqueous && m.volumeL > 0 {
-			si.Molar = sigDigits(p.mol/m.volumeL, 4)
-		}
-		if p.sp.IsWater() {
-			si.Mol = 0
-		}
-		k := p.sp.Ion()
-		// Keep the order oxidizer, reducer.
-		for _, r := range []Role{OxidizerRole, ReducerRole} {
-			for _, x := range roles[k] {
-				if x == r {
-					si.Roles = append(si.Roles, r)
-				}
-			}
-		}
-		si.Partners = partners[k]
-		out = append(out, si)
-	}
-	return out
-}
-
 // sig rounds x to d significant digits.
 func sigDigits(x float64, d int) float64 {
 	if x == 0 || math.IsInf(x, 0) || math.IsNaN(x) {
@@ -352,16 +289,6 @@ func sigDigits(x float64, d int) float64 {
 	e := math.Floor(math.Log10(math.Abs(x)))
 	p := math.Pow(10, float64(d-1)-e)
 	return math.Round(x*p) / p
-}
-
-// checkBalance is the last check on every equation reported: it must
-// conserve every element and charge. Combining balanced half-reactions
-// cannot fail it, so a failure is a bug, reported rather than shown.
-func (t *Tables) checkBalance(rx *netReaction) error {
-	if err := balanceErrorWith(t.atomsOf, rx.reactants, rx.products, 0); err != nil {
-		return fmt.Errorf("engine: %s does not balance: %w", rx.text(), err)
-	}
-	return nil
 }
 
 // atomsOf counts the atoms of a formula, from the cache built by New for

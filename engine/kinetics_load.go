@@ -4,7 +4,6 @@ import (
 	"errors"
 	"fmt"
 	"io/fs"
-	"slices"
 	"strconv"
 	"strings"
 )
@@ -189,36 +188,6 @@ func signature(h *HalfReaction) string {
 	return form(h.Reactants) + "/" + form(h.Products)
 }
 
-// applyKinetics sets the kinetic allowance of a side, the largest that applies.
-func (e *Engine) applyKinetics(m *mixture, s *side) {
-	for _, r := range e.Tables.Kinetics {
-		if r.Side != s.role || !r.matches(s) {
-			continue
-		}
-		if !r.when(m.pH, m.tempK-273.15, m.molarKey(s.mainKey)) {
-			continue
-		}
-		if r.Volts > s.discount {
-			s.discount = r.Volts
-			s.allowance = r
-		}
-	}
-}
-
-func (r *KineticRule) matches(s *side) bool {
-	if len(r.Couples) > 0 {
-		sig := s.row.sig
-		for _, c := range r.Couples {
-			if c == sig {
-				return true
-			}
-		}
-		return false
-	}
-
-	return slices.Contains(r.Species, s.mainKey)
-}
-
 // ionList reads "A, B, C" as species in their Ion form.
 func ionList(s string) ([]string, error) {
 	var out []string
@@ -230,22 +199,4 @@ func ionList(s string) ([]string, error) {
 		out = append(out, sp.Ion())
 	}
 	return out, nil
-}
-
-// pairAllowance is the largest pair allowance on oxidizer ox with reducer
-// red, if any applies.
-func (e *Engine) pairAllowance(m *mixture, ox, red Species) *KineticRule {
-	var best *KineticRule
-	for _, r := range e.Tables.Kinetics {
-		if r.Side != PairRole || (best != nil && r.Volts <= best.Volts) {
-			continue
-		}
-		if !slices.Contains(r.Species, ox.Ion()) || !slices.Contains(r.Reducers, red.Ion()) {
-			continue
-		}
-		if r.when(m.pH, m.tempK-273.15, m.molar(ox)) {
-			best = r
-		}
-	}
-	return best
 }

@@ -73,15 +73,6 @@ func (m *mixture) get(s Species) *inMix {
 	return m.species[mixKey(s)]
 }
 
-// molarKey is molar for the species with mixture key k.
-func (m *mixture) molarKey(k string) float64 {
-	p := m.species[k]
-	if p == nil || m.volumeL <= 0 {
-		return 0
-	}
-	return p.mol / m.volumeL
-}
-
 // molar is the concentration of an aqueous species in mol/L, 0 when absent.
 func (m *mixture) molar(s Species) float64 {
 	p := m.get(s)
@@ -89,34 +80,6 @@ func (m *mixture) molar(s Species) float64 {
 		return 0
 	}
 	return p.mol / m.volumeL
-}
-
-// lookup finds the species with mixture key k, present and not minor. In a
-// basic mix a metal hydroxide or oxide solid that a couple names (Cr(OH)3)
-// is found as its dissolved ion (Cr^3+): in base that ion is the hydroxide.
-func (m *mixture) lookup(k string, t *Tables) *inMix {
-	if p := m.species[k]; p != nil && !p.minor && (p.mol > 0 || p.excess) {
-		return p
-	}
-	if m.pH < 7 {
-		return nil
-	}
-	if ion, ok := t.standIn[k]; ok {
-		if p := m.species[ion]; p != nil && !p.minor && p.mol > 0 {
-			return p
-		}
-	}
-	return nil
-}
-
-// has reports whether a species is in the mix. Water, H+ and OH- are always
-// there in an aqueous mix.
-func (m *mixture) has(s Species) bool {
-	if s.IsWater() || s.IsProton() || s.IsHydroxide() {
-		return m.aqueous
-	}
-	p := m.get(s)
-	return p != nil && !p.minor && (p.mol > 0 || p.excess)
 }
 
 // pKw is the ionic product of water at temperature T, from its value at
