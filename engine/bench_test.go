@@ -38,6 +38,19 @@ func BenchmarkAskWithAmounts(b *testing.B) {
 	}
 }
 
+// BenchmarkAskEightStreams is an eight-stream request: the solve must not
+// grow worse than quadratically with the species it brings.
+func BenchmarkAskEightStreams(b *testing.B) {
+	e := mustEngine(b)
+	const req = "mix 100 L NaOH 5 % + 50 L HCl 10 % + 20 L FeCl3 10 % + 30 L CuSO4 5 % + 10 L H2O2 3 % + 40 L Na2CO3 5 % + 25 L NiSO4 5 % + 100 L water"
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := e.Ask(req, engine.AskOptions{}); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
 // BenchmarkParseRequest measures the parser alone.
 func BenchmarkParseRequest(b *testing.B) {
 	e := mustEngine(b)
