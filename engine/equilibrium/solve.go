@@ -61,8 +61,15 @@ type lockSolver struct {
 	s      *system
 	base   []balanceRow
 	active []int // constraint indices treated as equalities
-	w      newtonWork
-	tr     *trace
+	// dropped marks the constraints the active set has dropped once. A
+	// constraint that comes back after being dropped is kept from then on
+	// (anti-cycling): this happens when it holds at a bound the problem
+	// pins exactly, e.g. two locks of opposite sense on the same amount
+	// with the same bound, where the multiplier of the one kept in the rows
+	// may have either sign.
+	dropped map[int]bool
+	w       newtonWork
+	tr      *trace
 }
 
 func (ls *lockSolver) activeNames() []string {
@@ -293,6 +300,9 @@ func (ls *lockSolver) update(pt *point) string {
 	}
 	worst, drop := 1e-9, -1
 	for k, row := range isActive {
+		if ls.dropped[k] {
+			continue
+		}
 		eta := pt.theta[row]
 		switch p.Constraints[k].Rel {
 		case AtMost:
@@ -315,6 +325,10 @@ func (ls *lockSolver) update(pt *point) string {
 		}
 	}
 	ls.active = kept
+	if ls.dropped == nil {
+		ls.dropped = map[int]bool{}
+	}
+	ls.dropped[drop] = true
 	return p.Constraints[drop].Name + " dropped"
 }
 
