@@ -200,7 +200,18 @@ func (ls *lockSolver) solveRound(prevPt *point, prevRows []balanceRow) (*point, 
 		n = s.crudeStart()
 	}
 	pt = s.startFrom(n, false)
-	if err := s.solveGamma(pt, &ls.w, ls.tr); err != nil {
+	err = s.solveGamma(pt, &ls.w, ls.tr)
+	if err != nil && lpErr == nil && !errors.As(err, &used) {
+		// The weak pull of the species the linear program leaves out
+		// can put the start where the merit has a local minimum (a
+		// species that must grow by tens of ln units along a direction
+		// of nearly no curvature): retry with the potentials fitted to
+		// the dominant species alone.
+		ls.tr.note("cold start failed: %v; retried with the exact fit", err)
+		pt = s.startFrom(n, true)
+		err = s.solveGamma(pt, &ls.w, ls.tr)
+	}
+	if err != nil {
 		if lpErr != nil {
 			// Two independent verdicts: the linear program found no
 			// composition and Newton from a plain start found none.
