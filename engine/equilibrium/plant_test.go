@@ -81,6 +81,7 @@ func TestPlantProblems(t *testing.T) {
 			t.Errorf("%s: %v", filepath.Base(f), err)
 			continue
 		}
+		t.Run(filepath.Base(f), func(t *testing.T) { checkTotals(t, p, st) })
 		t.Logf("%s: %d iterations, I = %.3g", filepath.Base(f), st.Iterations, st.IonicStrength)
 	}
 }

@@ -61,8 +61,15 @@ type lockSolver struct {
 	s      *system
 	base   []balanceRow
 	active []int // constraint indices treated as equalities
-	w      newtonWork
-	tr     *trace
+	// dropped marks the constraints the active set has dropped once. A
+	// constraint that comes back after being dropped is kept from then on
+	// (anti-cycling): this happens when it holds at a bound the problem
+	// pins exactly, e.g. two locks of opposite sense on the same amount
+	// with the same bound, where the multiplier of the one kept in the rows
+	// may have either sign.
+	dropped map[int]bool
+	w       newtonWork
+	tr      *trace
 }
 
 func (ls *lockSolver) activeNames() []string {
@@ -193,7 +200,18 @@ func (ls *lockSolver) solveRound(prevPt *point, prevRows []balanceRow) (*point, 
 		n = s.crudeStart()
 	}
 	pt = s.startFrom(n, false)
-	if err := s.solveGamma(pt, &ls.w, ls.tr); err != nil {
+	err = s.solveGamma(pt, &ls.w, ls.tr)
+	if err != nil && lpErr == nil && !errors.As(err, &used) {
+		// The weak pull of the species the linear program leaves out
+		// can put the start where the merit has a local minimum (a
+		// species that must grow by tens of ln units along a direction
+		// of nearly no curvature): retry with the potentials fitted to
+		// the dominant species alone.
+		ls.tr.note("cold start failed: %v; retried with the exact fit", err)
+		pt = s.startFrom(n, true)
+		err = s.solveGamma(pt, &ls.w, ls.tr)
+	}
+	if err != nil {
 		if lpErr != nil {
 			// Two independent verdicts: the linear program found no
 			// composition and Newton from a plain start found none.
@@ -293,6 +311,9 @@ func (ls *lockSolver) update(pt *point) string {
 	}
 	worst, drop := 1e-9, -1
 	for k, row := range isActive {
+		if ls.dropped[k] {
+			continue
+		}
 		eta := pt.theta[row]
 		switch p.Constraints[k].Rel {
 		case AtMost:
@@ -315,6 +336,10 @@ func (ls *lockSolver) update(pt *point) string {
 		}
 	}
 	ls.active = kept
+	if ls.dropped == nil {
+		ls.dropped = map[int]bool{}
+	}
+	ls.dropped[drop] = true
 	return p.Constraints[drop].Name + " dropped"
 }
 

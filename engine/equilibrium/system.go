@@ -15,6 +15,8 @@ type system struct {
 	aq, gas []int     // aqueous and gas species that are not off
 	pure    []int     // pure species that are not off (solvent excluded)
 	logBig  float64   // ln of the largest amount scale of the problem
+	// smallTotal is the smallest nonzero |total| (floor of the merit scales).
+	smallTotal float64
 	// ub is an upper bound on each species amount from the totals of the
 	// components that every species carries with a coefficient ≥ 0.
 	ub []float64
@@ -38,6 +40,12 @@ func newSystem(p *Problem, solvent int, off []bool) *system {
 		big = math.Max(big, math.Abs(t))
 	}
 	s.logBig = math.Log(big)
+	s.smallTotal = big
+	for _, t := range p.Totals {
+		if t != 0 {
+			s.smallTotal = math.Min(s.smallTotal, math.Abs(t))
+		}
+	}
 	s.ub = upperBounds(p, off, big)
 	for i, sp := range p.Species {
 		if off[i] {
@@ -251,6 +259,14 @@ func (s *system) meritScales(pt *point, d int, fix []float64) []float64 {
 		for k, r := range s.colIdx[i] {
 			fix[r] += math.Abs(s.colVal[i][k] * n)
 		}
+	}
+	// A row whose carriers are all trace species (the charge row when the
+	// ions are trace, a recombined row near zero) would otherwise weigh
+	// its residual against a collapsing scale and veto every step that
+	// moves a vanishing species by a factor e, as Newton does: its merit
+	// scale is floored at the smallest nonzero component total.
+	for k := range fix {
+		fix[k] = math.Max(fix[k], s.smallTotal)
 	}
 	for len(fix) < d {
 		fix = append(fix, 1)
