@@ -87,10 +87,14 @@ func SortHazards(hz []engine.Hazard) []engine.Hazard {
 	return out
 }
 
-// esc escapes text for Slack mrkdwn (Slack's "escaping text" rules).
+// esc escapes text for Slack mrkdwn (Slack's "escaping text" rules), with
+// control, escape and bidi characters shown escaped (chatText), so
+// that no stored or echoed text can reorder or hide what a message says.
 func esc(s string) string {
-	return strings.NewReplacer("&", "&amp;", "<", "&lt;", ">", "&gt;").Replace(s)
+	return mrkdwnEscaper.Replace(chatText(s))
 }
+
+var mrkdwnEscaper = strings.NewReplacer("&", "&amp;", "<", "&lt;", ">", "&gt;")
 
 func volts(v float64) string { return fmt.Sprintf("%+.3f V", v) }
 

@@ -283,3 +283,24 @@ func TestDecisionIsTheFirstBlock(t *testing.T) {
 		}
 	}
 }
+
+// TestEscapeControls: control, escape and bidi characters in user text are
+// shown escaped in chat, and mrkdwn specials cannot ping a channel.
+func TestEscapeControls(t *testing.T) {
+	got := esc("mix \x1b[2J<!here> & \u202eevil")
+	for _, bad := range []string{"\x1b", "<!here>", "\u202e"} {
+		if strings.Contains(got, bad) {
+			t.Errorf("esc left %q in %q", bad, got)
+		}
+	}
+	if !strings.Contains(got, `\x1b`) || !strings.Contains(got, "&lt;!here&gt;") {
+		t.Errorf("esc = %q, want the escape shown and the mention escaped", got)
+	}
+}
+
+func TestChatTextKeepsLines(t *testing.T) {
+	got := chatText("Request: mix \x1b[31mX\nnext line\u202e")
+	if got != "Request: mix \\x1b[31mX\nnext line\\u202e" {
+		t.Errorf("chatText = %q", got)
+	}
+}

@@ -7,7 +7,9 @@ import (
 	"fmt"
 	"io"
 	"log/slog"
+	"mixward/store"
 	"net"
+	"strings"
 	"sync"
 	"time"
 
@@ -233,7 +235,7 @@ func Retryable(err error) bool {
 // Post sends msg to channel, in the thread threadTS when not empty, and
 // returns the timestamp of the posted message.
 func (p *Poster) Post(ctx context.Context, channel, threadTS string, msg Message) (string, error) {
-	opts := []slack.MsgOption{slack.MsgOptionText(msg.Text, false)}
+	opts := []slack.MsgOption{slack.MsgOptionText(chatText(msg.Text), false)}
 	if len(msg.Blocks) > 0 {
 		opts = append(opts, slack.MsgOptionBlocks(msg.Blocks...))
 	}
@@ -255,7 +257,7 @@ func (p *Poster) Post(ctx context.Context, channel, threadTS string, msg Message
 // Ephemeral shows msg in channel (in thread threadTS when not empty) to
 // user alone.
 func (p *Poster) Ephemeral(ctx context.Context, channel, user, threadTS string, msg Message) error {
-	opts := []slack.MsgOption{slack.MsgOptionText(msg.Text, false)}
+	opts := []slack.MsgOption{slack.MsgOptionText(chatText(msg.Text), false)}
 	if len(msg.Blocks) > 0 {
 		opts = append(opts, slack.MsgOptionBlocks(msg.Blocks...))
 	}
@@ -384,4 +386,14 @@ func (p *Poster) PostedRequest(ctx context.Context, channel, eventID string, sin
 		params.Cursor = resp.ResponseMetaData.NextCursor
 	}
 	return "", nil
+}
+
+// chatText shows control, escape and bidi characters of a message's plain
+// text escaped, line by line, keeping its line breaks.
+func chatText(s string) string {
+	lines := strings.Split(s, "\n")
+	for i, l := range lines {
+		lines[i] = store.Printable(l)
+	}
+	return strings.Join(lines, "\n")
 }
