@@ -686,7 +686,10 @@ func EvaluateHazards(rules []*HazardRule, in HazardInput) []Hazard {
 	return hs
 }
 
-func severityRank(s Severity) int {
+func severityRank(s Severity) int { return s.Rank() }
+
+// Rank orders severities: 3 danger, 2 warning, 1 info, 0 anything else.
+func (s Severity) Rank() int {
 	switch s {
 	case Danger:
 		return 3

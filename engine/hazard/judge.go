@@ -140,17 +140,7 @@ func ratioOf(h engine.Hazard) float64 {
 	return 0
 }
 
-func rank(s engine.Severity) int {
-	switch s {
-	case engine.Danger:
-		return 3
-	case engine.Warning:
-		return 2
-	case engine.Info:
-		return 1
-	}
-	return 0
-}
+func rank(s engine.Severity) int { return s.Rank() }
 
 // fmtNum writes a number for an operator: d significant digits, no
 // exponent, thousands as plain digits.
