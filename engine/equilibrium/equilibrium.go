@@ -56,7 +56,12 @@
 // by a step limit — no species may rise more than e² above what the totals
 // allow in one step — and a backtracking (Armijo) line search on a scaled
 // residual merit, whose scales are fixed for one Newton solve so that the
-// merit is one function along it. When a full step only shrinks the merit
+// merit is one function along it and are floored at the smallest nonzero
+// total (a row whose carriers are all trace, such as the charge row beside
+// a metal with nothing to oxidise it, would otherwise veto the steps that
+// drive vanishing species down). A step that stalls short of the
+// tolerances is retried as the least-squares step and then as the plain LU
+// step whatever its pivots. When a full step only shrinks the merit
 // linearly (a species being driven towards zero, where Newton on an
 // exponential gains one ln unit per step) longer steps are tried while they
 // keep paying. Activity coefficients follow the ionic strength inside the
@@ -65,7 +70,9 @@
 // between Newton solves (most negative phase removed, most supersaturated
 // phase added; an assemblage may be revisited at most three times).
 // Inequality constraints use an active set (violated ones added, the one
-// whose multiplier has the wrong sign dropped). Every loop has a cap;
+// whose multiplier has the wrong sign dropped; one that comes back after
+// being dropped is kept, so that two locks pinning one amount at the same
+// bound cannot cycle). Every loop has a cap;
 // exceeding it returns ErrNoConvergence saying what was tried.
 //
 // Directions in which only vanishing species move (an oxidation state with
@@ -80,7 +87,9 @@
 // potentials are then fitted to it by weighted least squares, species it
 // leaves out being pulled weakly towards 1e-10 mol/kg. A Start composition
 // (for example the state of the previous point of a pour) replaces the
-// linear program and is fitted exactly; if it fails the cold start is run.
+// linear program and is fitted exactly; if it fails the cold start is run,
+// and if that fails it is retried with the potentials fitted exactly to the
+// dominant species, without the pull of the others.
 //
 // The iterates of a dual method are not balanced compositions, so their
 // Gibbs energy is not a descent quantity: what never rises along the

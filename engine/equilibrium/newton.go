@@ -24,6 +24,21 @@ const (
 	stepFall    = 30.0 // the main carrier of a balance may fall this much (ln units) per step
 )
 
+// linearMode selects how solveLinear solves the Newton equations.
+type linearMode int
+
+const (
+	// luOrSVD: LU, or the least-squares SVD step when the pivot ratio is
+	// below 1e-15.
+	luOrSVD linearMode = iota
+	// leastSquares: the SVD step, singular values below 1e-12 of the
+	// largest cut off.
+	leastSquares
+	// luAnyPivot: LU with refinement whatever the pivot ratio (SVD only
+	// when the factorisation breaks down or is not finite).
+	luAnyPivot
+)
+
 var errStall = errors.New("line search found no decrease")
 
 // newtonWork holds the buffers of one Newton solve.
@@ -100,7 +115,11 @@ func (s *system) jacobian(pt *point, w *newtonWork, d int) {
 
 // solveLinear solves jac·dx = −f with row and column equilibration; it
 // falls back to a least-squares SVD solve when the matrix is singular.
-func solveLinear(w *newtonWork, d int, useSVD bool) error {
+func solveLinear(w *newtonWork, d int, mode linearMode) error {
+	useSVD, pivot := mode == leastSquares, 1e-15
+	if mode == luAnyPivot {
+		pivot = 0
+	}
 	jac := w.jac[:d*d]
 	for _, v := range jac {
 		if !finite(v) {
@@ -138,7 +157,7 @@ func solveLinear(w *newtonWork, d int, useSVD bool) error {
 	}
 	x := w.dx[:d]
 	if !useSVD {
-		useSVD = !luSolve(w, d)
+		useSVD = !luSolve(w, d, pivot)
 	}
 	if useSVD {
 		w.svdUsed++
@@ -179,9 +198,9 @@ func scaleOf(m float64) float64 {
 
 // luSolve solves the equilibrated system in w by LU with partial pivoting
 // and one step of iterative refinement. It reports false when the matrix is
-// numerically singular (pivot ratio below 1e-15), leaving the choice of a
+// numerically singular (pivot ratio below pivot), leaving the choice of a
 // least-squares step to the caller.
-func luSolve(w *newtonWork, d int) bool {
+func luSolve(w *newtonWork, d int, pivot float64) bool {
 	fac := w.fac[:d*d]
 	copy(fac, w.jac[:d*d])
 	g := blas64.General{Rows: d, Cols: d, Stride: d, Data: fac}
@@ -194,7 +213,7 @@ func luSolve(w *newtonWork, d int) bool {
 		v := math.Abs(fac[i*d+i])
 		lo, hi = math.Min(lo, v), math.Max(hi, v)
 	}
-	if !(lo > 1e-15*hi) {
+	if !(lo > pivot*hi) {
 		return false
 	}
 	x := w.dx[:d]
@@ -321,19 +340,35 @@ func (s *system) newton(pt *point, w *newtonWork, tr *trace) error {
 			return fmt.Errorf("%d Newton iterations (merit %.3g)", maxNewton, phi)
 		}
 		s.jacobian(pt, w, d)
-		if err := solveLinear(w, d, false); err != nil {
+		if err := solveLinear(w, d, luOrSVD); err != nil {
 			return err
 		}
 		alpha, after, err := s.lineSearch(pt, w, d, phi)
-		if err != nil {
+		if err != nil || alpha < 1e-10 && !s.closeEnough(w.f[:d], w.sc[:d]) {
 			// The matrix may be too ill-conditioned for the plain solve:
-			// retry with the least-squares step.
-			s.residual(pt, w.pures, w.f[:d], w.sc[:d])
-			s.jacobian(pt, w, d)
-			if err := solveLinear(w, d, true); err != nil {
-				return err
+			// retry with the least-squares step. When that stalls too,
+			// the direction it cuts off may be the one the residual
+			// needs (a balance whose only moving carrier is a trace
+			// species, a curvature 1e-12 of the largest, such as a
+			// dissolved metal beside its solid with nothing to oxidise
+			// it): retry with the plain LU step whatever its pivots.
+			for _, mode := range []linearMode{leastSquares, luAnyPivot} {
+				s.residual(pt, w.pures, w.f[:d], w.sc[:d])
+				s.jacobian(pt, w, d)
+				if lerr := solveLinear(w, d, mode); lerr != nil {
+					if err == nil {
+						break // keep the step already taken
+					}
+					return lerr
+				}
+				a2, after2, err2 := s.lineSearch(pt, w, d, phi)
+				if err2 == nil || err != nil {
+					alpha, after, err = a2, after2, err2
+				}
+				if err == nil && after < phi || s.closeEnough(w.f[:d], w.sc[:d]) {
+					break
+				}
 			}
-			alpha, after, err = s.lineSearch(pt, w, d, phi)
 		}
 		if err != nil && s.closeEnough(w.f[:d], w.sc[:d]) {
 			return nil

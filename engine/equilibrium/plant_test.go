@@ -16,6 +16,7 @@ package equilibrium
 import (
 	"encoding/json"
 	"errors"
+	"math"
 	"os"
 	"path/filepath"
 	"strings"
@@ -81,7 +82,33 @@ func TestPlantProblems(t *testing.T) {
 			t.Errorf("%s: %v", filepath.Base(f), err)
 			continue
 		}
-		t.Run(filepath.Base(f), func(t *testing.T) { checkTotals(t, p, st) })
+		t.Run(filepath.Base(f), func(t *testing.T) {
+			checkTotals(t, p, st)
+			checkConstraints(t, p, st)
+		})
 		t.Logf("%s: %d iterations, I = %.3g", filepath.Base(f), st.Iterations, st.IonicStrength)
+	}
+}
+
+// checkConstraints asserts that every lock holds to 1e-9 of the terms in it
+// or to the rounding carried in the totals (1e-15 of the largest, the
+// accuracy the package documents for directions without curvature; a lock
+// such as "at most 1e-14 mol of O2" beside 6000 mol of oxygen is met only
+// to that).
+func checkConstraints(t *testing.T, p Problem, st State) {
+	t.Helper()
+	big := 0.0
+	for _, b := range p.Totals {
+		big = math.Max(big, math.Abs(b))
+	}
+	for _, c := range p.Constraints {
+		v, scale := 0.0, math.Abs(c.Bound)
+		for i, a := range c.Coef {
+			v += a * st.Amount[i]
+			scale += math.Abs(a * st.Amount[i])
+		}
+		if !holds(c.Rel, v, c.Bound, 1e-9*scale+roundoff*big) {
+			t.Errorf("constraint %s: %.15g against the bound %.15g", c.Name, v, c.Bound)
+		}
 	}
 }
