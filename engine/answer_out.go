@@ -97,8 +97,9 @@ func heatOut(mx *state.Mix, m *mixture, t *Tables) *Heat {
 	return h
 }
 
-// enthalpies is ΔfH° of each species of the mix: its own, or for a species
-// without one (a complex, an ion pair, a hydrolysis form) the sum over the
+// enthalpies is ΔfH° of each species of the mix: its own; for a molecule
+// without one, that of the same compound in another phase; or for a minor
+// species without one (a complex, an ion pair, a hydrolysis form) the sum over the
 // main species of the same oxidation states it is made of, as if forming it
 // from them took no heat (complexation enthalpies are tens of kJ/mol at
 // most); NaN when neither is known.
@@ -113,11 +114,24 @@ func enthalpies(mx *state.Mix) []float64 {
 			proton = sp
 		}
 	}
+	byFormula := map[string]*thermo.Species{}
+	for _, sp := range mx.Species {
+		if sp.HasDfH && sp.Charge == 0 {
+			byFormula[sp.Formula] = sp
+		}
+	}
 	for i, sp := range mx.Species {
+		other, samePhaseless := byFormula[sp.Formula]
 		switch {
 		case sp.HasDfH:
 			out[i] = sp.DfH
-		case water == nil || proton == nil:
+		case samePhaseless && sp.Charge == 0:
+			// The same compound in another phase: its heat of solution
+			// (tens of kJ/mol at most) is left out.
+			out[i] = other.DfH
+		case water == nil || proton == nil || !sp.Minor:
+			// Only complexes, ion pairs and hydrolysis forms (minor
+			// species) are estimated from their main species.
 			out[i] = math.NaN()
 		default:
 			out[i] = estimateDfH(mx, sp, water, proton)

@@ -56,6 +56,14 @@ func streamFeed(st *Stream, t *Tables, db *thermo.DB, m *mixture) (state.Stream,
 		if liquid {
 			solutes += mol * c.Chemical.MolarMass / 1000
 		}
+		// A solid stream whose chemical has a solid species brings that
+		// solid: the mix dissolves it (or not) and the state counts the
+		// heat, instead of the table of heats of solution.
+		if solid, ok := db.Get(c.Chemical.Formula + "(s)"); ok && !liquid && st.MassKg > 0 {
+			out.Items = append(out.Items, state.Item{Species: solid, Mol: mol, Excess: excess})
+			m.undissolve(c.Chemical)
+			continue
+		}
 		for _, g := range c.Chemical.Gives {
 			sp, ok := db.Get(g.Species.Text())
 			if !ok {
@@ -115,4 +123,16 @@ func streamHas(st *Stream, formula string) bool {
 		}
 	}
 	return false
+}
+
+// undissolve takes a chemical off the solids whose heat of solution the
+// tables count: the state dissolves it and counts the heat itself.
+func (m *mixture) undissolve(ch *Chemical) {
+	keep := m.dissolved[:0]
+	for _, d := range m.dissolved {
+		if d.chem != ch {
+			keep = append(keep, d)
+		}
+	}
+	m.dissolved = keep
 }

@@ -318,15 +318,14 @@ func TestSolutionHeat(t *testing.T) {
 		{"5 kg NaCl + 100 L water", 58.443, 5, 3.88},
 		{"5 kg KCl + 100 L water", 74.551, 5, 17.22},
 	}
+	// Nothing else happens in these mixes: the heat released is the heat
+	// of solution, whether the state dissolves a solid species (NaOH(s)
+	// has one) or the tables add it (salts without a solid row).
 	for _, tc := range cases {
 		r := ask(t, tc.req)
 		want := -tc.dHsol * tc.kg * 1000 / tc.molMass
-		if math.Abs(r.Heat.DissolutionkJ-want) > 0.10*math.Abs(want) {
-			t.Errorf("%s: heat of solution %.1f kJ, want %.1f (CRC ΔsolH %+.2f kJ/mol)", tc.req, r.Heat.DissolutionkJ, want, tc.dHsol)
-		}
-		// The equilibrium adds the small heat of ammonium hydrolysis and the like.
-		if r.Heat.HeatReleasedkJ == nil || math.Abs(*r.Heat.HeatReleasedkJ-r.Heat.DissolutionkJ) > 0.01*math.Abs(r.Heat.DissolutionkJ)+0.5 {
-			t.Errorf("%s: heat released %v does not carry the heat of solution %.1f", tc.req, r.Heat.HeatReleasedkJ, r.Heat.DissolutionkJ)
+		if r.Heat.HeatReleasedkJ == nil || math.Abs(*r.Heat.HeatReleasedkJ-want) > 0.10*math.Abs(want) {
+			t.Errorf("%s: heat released %v kJ, want %.1f (CRC ΔsolH %+.2f kJ/mol)", tc.req, fmtPtr(r.Heat.HeatReleasedkJ), want, tc.dHsol)
 		}
 	}
 }
