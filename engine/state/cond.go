@@ -13,6 +13,7 @@ type Env struct {
 	TempC float64
 	PH    float64
 	Has   func(Group) bool // any of the group above the presence threshold
+	Molar func(Group) float64 // mol/L of the group (formula units, or atoms of an element group)
 }
 
 // Cond is a parsed condition of data/locks.txt.
@@ -31,7 +32,31 @@ type (
 		v    float64
 	}
 	hasCond []Group
+	// concCond is conc(G[, G...])>=N: the groups together at N mol/L or more.
+	concCond struct {
+		gs []Group
+		v  float64
+	}
 )
+
+func (c concCond) Holds(e Env) bool {
+	if e.Molar == nil {
+		return false
+	}
+	tot := 0.0
+	for _, g := range c.gs {
+		tot += e.Molar(g)
+	}
+	return tot >= c.v
+}
+
+func (c concCond) String() string {
+	parts := make([]string, len(c.gs))
+	for i, g := range c.gs {
+		parts[i] = g.text
+	}
+	return "conc(" + strings.Join(parts, ", ") + ")>=" + strconv.FormatFloat(c.v, 'g', -1, 64)
+}
 
 func (c andCond) Holds(e Env) bool {
 	for _, x := range c {
@@ -261,6 +286,26 @@ func parseHasItem(s string) (Group, error) {
 }
 
 func parseCmp(t string) (Cond, error) {
+	if rest, ok := strings.CutPrefix(t, "conc("); ok {
+		list, v, ok := strings.Cut(rest, ")>=")
+		if !ok {
+			return nil, fmt.Errorf("%q: write conc(SPECIES[, SPECIES])>=N", t)
+		}
+		c := concCond{}
+		for _, item := range strings.Split(list, ",") {
+			g, err := parseHasItem(strings.TrimSpace(item))
+			if err != nil {
+				return nil, err
+			}
+			c.gs = append(c.gs, g)
+		}
+		x, err := strconv.ParseFloat(v, 64)
+		if err != nil || math.IsNaN(x) || math.IsInf(x, 0) {
+			return nil, fmt.Errorf("%q: %q is not a number", t, v)
+		}
+		c.v = x
+		return c, nil
+	}
 	for _, what := range []string{"ph", "t"} {
 		rest, ok := strings.CutPrefix(t, what)
 		if !ok {

@@ -309,6 +309,8 @@ func condGroups(c Cond) []Group {
 		return condGroups(c.c)
 	case hasCond:
 		return c
+	case concCond:
+		return c.gs
 	}
 	return nil
 }

@@ -159,3 +159,26 @@ func FuzzParseLocks(f *testing.F) {
 		}
 	})
 }
+
+func TestConcCondition(t *testing.T) {
+	c, err := parseCond("conc(N(5))>=8 and t<60")
+	if err != nil {
+		t.Fatal(err)
+	}
+	env := Env{TempC: 25, Molar: func(g Group) float64 {
+		if g.Element == "N" {
+			return 14.4 // 65 % nitric acid (CRC, Concentrative properties; from memory)
+		}
+		return 0
+	}}
+	if !c.Holds(env) {
+		t.Errorf("%s does not hold at 14.4 mol/L", c)
+	}
+	env.Molar = func(Group) float64 { return 3 }
+	if c.Holds(env) {
+		t.Errorf("%s holds at 3 mol/L", c)
+	}
+	if _, err := parseCond("conc(N(5)>=8"); err == nil {
+		t.Error("a conc condition without its closing parenthesis parsed")
+	}
+}

@@ -92,9 +92,22 @@ func (m *Model) solveFrom(mx *Mix, n0 []float64, combined *State, volL float64, 
 
 // env is what lock conditions are judged against.
 func (m *Model) env(mx *Mix, s *State, volL float64) Env {
+	molar := func(g Group) float64 {
+		tot := 0.0
+		for i, sp := range mx.Species {
+			if w := g.Weight(sp); w > 0 {
+				tot += w * s.Amount[i]
+			}
+		}
+		if volL <= 0 {
+			return 0
+		}
+		return tot / volL
+	}
 	return Env{
 		TempC: mx.TempK - 273.15,
 		PH:    s.PH,
+		Molar: molar,
 		Has: func(g Group) bool {
 			tot := 0.0
 			for i, sp := range mx.Species {
