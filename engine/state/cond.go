@@ -12,7 +12,7 @@ import (
 type Env struct {
 	TempC float64
 	PH    float64
-	Has   func(Group) bool // any of the group above the presence threshold
+	Has   func(Group) bool    // any of the group above the presence threshold
 	Molar func(Group) float64 // mol/L of the group (formula units, or atoms of an element group)
 }
 
