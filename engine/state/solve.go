@@ -272,109 +272,122 @@ func (m *Model) solve(mx *Mix, n0 []float64, frozen bool, cons []lockRule, volL 
 		}
 		left = append(left, lr)
 	}
-	cons = left
-	comps := map[string]int{}
-	var names []string
 	rows := make([]map[string]float64, len(mx.Species))
 	for i, sp := range mx.Species {
 		rows[i] = components(sp, frozen, organicLocked)
-		for k := range rows[i] {
-			if _, ok := comps[k]; !ok {
-				comps[k] = len(names)
-				names = append(names, k)
-			}
-		}
 	}
-	sort.Strings(names)
-	for i, k := range names {
-		comps[k] = i
+	b := newProblem(mx, n0, rows)
+	cons, shut := presolve(mx, n0, left)
+	b.addSpecies(mx, rows, shut)
+	b.addConstraints(cons, start)
+	if dump != nil {
+		dumpN++
+		dump(fmt.Sprintf("%s-%d-frozen%v", dumpPrefix, dumpN, frozen), b.p)
 	}
-	totals := make([]float64, len(names))
+	eq, err := solveSafely(b.p)
+	if err != nil {
+		return nil, err
+	}
+	eq.Active = append(eq.Active, pinnedHeld(mx, b.p, eq, rows, b.comps, cons)...)
+	return b.state(mx, eq, shut, volL), nil
+}
+
+// problemBuilder holds an equilibrium problem while it is built from a mix:
+// its components, and which mix species its species are.
+type problemBuilder struct {
+	p     equilibrium.Problem
+	comps map[string]int // component → index
+	keep  []int          // problem species → mix species
+}
+
+// newProblem sets up the components the amounts n0 bring. Components the
+// feed does not bring leave the problem with every species that holds them;
+// so do traces left by an earlier solve (a stream's own equilibrium), below
+// 1e-14 of the largest total.
+func newProblem(mx *Mix, n0 []float64, rows []map[string]float64) *problemBuilder {
+	totals := map[string]float64{}
 	for i, n := range n0 {
 		for k, a := range rows[i] {
-			totals[comps[k]] += n * a
+			totals[k] += n * a
 		}
 	}
-	// Components the feed does not bring leave the problem with every
-	// species that holds them; so do traces left by an earlier solve (a
-	// stream's own equilibrium), below 1e-14 of the largest total.
 	most := 0.0
 	for _, t := range totals {
 		most = math.Max(most, t)
 	}
-	kept := names[:0:0]
-	var keptTotals []float64
-	for i, k := range names {
-		if totals[i] > 1e-14*most {
-			kept = append(kept, k)
-			keptTotals = append(keptTotals, totals[i])
+	var names []string
+	for k, t := range totals {
+		if t > 1e-14*most {
+			names = append(names, k)
 		}
 	}
-	names, totals = kept, keptTotals
-	comps = map[string]int{}
+	sort.Strings(names)
+	b := &problemBuilder{comps: map[string]int{}}
+	b.p = equilibrium.Problem{Components: names, Totals: make([]float64, len(names)), TemperatureK: mx.TempK, PressureBar: mx.Pressure}
 	for i, k := range names {
-		comps[k] = i
+		b.comps[k] = i
+		b.p.Totals[i] = totals[k]
 	}
-	p := equilibrium.Problem{Components: names, Totals: totals, TemperatureK: mx.TempK, PressureBar: mx.Pressure}
-	cons, shut := presolve(mx, n0, cons)
-	var keep []int // problem species → mix species
+	return b
+}
+
+// addSpecies takes in every species the components can form and no lock
+// shut out.
+func (b *problemBuilder) addSpecies(mx *Mix, rows []map[string]float64, shut map[int]bool) {
 	for i, sp := range mx.Species {
-		if !formable(rows[i], totals, comps) || shut[i] {
+		if !formable(rows[i], b.p.Totals, b.comps) || shut[i] {
 			continue
 		}
-		p.Species = append(p.Species, problemSpecies(sp, rows[i], comps, len(names), mx.TempK))
-		keep = append(keep, i)
+		b.p.Species = append(b.p.Species, problemSpecies(sp, rows[i], b.comps, len(b.p.Components), mx.TempK))
+		b.keep = append(b.keep, i)
 	}
+}
+
+// addConstraints maps the lock rules left after presolve, and the warm
+// start, onto the problem's species.
+func (b *problemBuilder) addConstraints(cons []lockRule, start []float64) {
 	for _, lr := range cons {
 		c := lr.c
 		if strings.HasSuffix(c.Name, "=pinned") {
 			continue
 		}
 		pc := c
-		pc.Coef = make([]float64, len(keep))
+		pc.Coef = make([]float64, len(b.keep))
 		any := false
-		for j, i := range keep {
+		for j, i := range b.keep {
 			pc.Coef[j] = c.Coef[i]
 			any = any || pc.Coef[j] != 0
 		}
 		if any { // a lock on a group the mix cannot hold has nothing to keep
-			p.Constraints = append(p.Constraints, pc)
+			b.p.Constraints = append(b.p.Constraints, pc)
 		}
 	}
 	if start != nil {
-		p.Start = make([]float64, len(keep))
-		for j, i := range keep {
-			p.Start[j] = start[i]
+		b.p.Start = make([]float64, len(b.keep))
+		for j, i := range b.keep {
+			b.p.Start[j] = start[i]
 		}
 	}
-	if dump != nil {
-		dumpN++
-		dump(fmt.Sprintf("%s-%d-frozen%v", dumpPrefix, dumpN, frozen), p)
-	}
-	eq, err := solveSafely(p)
-	if err != nil {
-		return nil, err
-	}
-	eq.Active = append(eq.Active, pinnedHeld(mx, p, eq, rows, comps, cons)...)
-	shutSpecies := map[*thermo.Species]bool{}
+}
+
+// state maps a solved problem back onto the mix's species.
+func (b *problemBuilder) state(mx *Mix, eq equilibrium.State, shut map[int]bool, volL float64) *State {
+	st := &State{Amount: make([]float64, len(mx.Species)), LnA: make([]float64, len(mx.Species)), Eq: eq,
+		VolumeL: volL, Shut: map[*thermo.Species]bool{}, PH: math.NaN()}
 	for i := range shut {
-		shutSpecies[mx.Species[i]] = true
+		st.Shut[mx.Species[i]] = true
 	}
-	st := &State{Amount: make([]float64, len(mx.Species)), LnA: make([]float64, len(mx.Species)), Eq: eq, VolumeL: volL, Shut: shutSpecies}
 	for i := range st.LnA {
 		st.LnA[i] = math.NaN()
 	}
-	for j, i := range keep {
+	for j, i := range b.keep {
 		st.Amount[i] = eq.Amount[j]
-		st.LnA[i] = lnActivity(p.Species[j].Phase, eq, j)
-	}
-	st.PH = math.NaN()
-	for j, i := range keep {
+		st.LnA[i] = lnActivity(b.p.Species[j].Phase, eq, j)
 		if mx.Species[i].Text == "H+" {
 			st.PH = -(math.Log(eq.Molality[j]) + eq.LogGamma[j]) / math.Ln10
 		}
 	}
-	return st, nil
+	return st
 }
 
 // formable reports whether every component of a species is brought by the
