@@ -76,7 +76,10 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 	// Oxygen enrichment is a fire precaution, never a reason on its own
 	// not to combine (OSHA 1910.146 treats it as a hazardous atmosphere to
 	// ventilate).
-	if ratio >= DangerRatio && g.LimitName != "O2" {
+	// Carbon dioxide from neutralising carbonate is a foaming and
+	// confined-space hazard to ventilate, not a reason never to neutralise
+	// (common practice, no source): a warning at most, like oxygen.
+	if ratio >= DangerRatio && g.LimitName != "O2" && g.Formula != "CO2" {
 		sev, act = engine.Danger, gasActions[g.Formula][0]
 	}
 	code := gasCodes[g.Formula]
