@@ -75,7 +75,11 @@ func (b *balancer) Reduction(ox, red *thermo.Species, key string, med Medium) (t
 	if err != nil {
 		return thermo.Reaction{}, fmt.Errorf("%s → %s: %v", ox.Text, red.Text, err)
 	}
-	if e <= 0 || nu[1] <= 0 {
+	formed := nu[1] > 0 // the reduced form, or a partner when it carries the change (S2O8^2- → SO4^2-)
+	for i := 2; i < len(terms); i++ {
+		formed = formed || (nu[i] > 0 && terms[i] != b.water && terms[i] != ion)
+	}
+	if e <= 0 || nu[1] < 0 || !formed {
 		return thermo.Reaction{}, fmt.Errorf("%s is not reduced to %s", ox.Text, red.Text)
 	}
 	r := thermo.Reaction{Electrons: e}

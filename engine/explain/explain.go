@@ -51,12 +51,19 @@ func Steps(db *thermo.DB, mx *state.Mix) ([]Step, error) {
 		return nil, err
 	}
 	var out []Step
+	var firstErr error
 	for _, m := range matches {
 		st, err := x.step(m)
 		if err != nil {
-			return nil, err
+			if firstErr == nil {
+				firstErr = err
+			}
+			continue // a change the species at hand cannot write out is left unexplained
 		}
 		out = append(out, st)
+	}
+	if len(out) == 0 && firstErr != nil {
+		return nil, firstErr
 	}
 	return out, nil
 }
@@ -213,7 +220,7 @@ func (x *explainer) couple(t Transfer) (Couple, error) {
 	if err != nil {
 		return Couple{}, fmt.Errorf("explain: %w", err)
 	}
-	c := Couple{Agent: agent, Product: product, Half: half, Element: t.Element, From: t.From, To: t.To}
+	c := Couple{Agent: agent, Product: mainProduct(half, agent, product), Half: half, Element: t.Element, From: t.From, To: t.To}
 	c.E0 = half.E0(x.mx.TempK)
 	c.E = c.E0 - thermo.R*x.mx.TempK/(float64(half.Electrons)*thermo.F)*x.lnQ(half)
 	// Ereached: what the change formed counted at the level it reaches
@@ -240,6 +247,27 @@ func (x *explainer) medium(el string, ox float64) *thermo.Species {
 	}
 	sp, _ := x.db.Get(text)
 	return sp
+}
+
+// mainProduct is what the agent turns into: product when the half-reaction
+// forms it, else the first species it forms other than water, H+ and OH-
+// (persulfate's peroxo oxygen ends as sulfate's, not as water).
+func mainProduct(half thermo.Reaction, agent, product *thermo.Species) *thermo.Species {
+	for _, t := range half.Terms {
+		if t.Species == product && t.Nu != 0 {
+			return product
+		}
+	}
+	for _, t := range half.Terms {
+		switch t.Species.Text {
+		case "H2O", "H+", "OH-":
+			continue
+		}
+		if t.Species != agent && t.Species != product {
+			return t.Species
+		}
+	}
+	return product
 }
 
 // lnQ is ln of the reaction quotient as combined.
