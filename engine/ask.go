@@ -214,7 +214,10 @@ func (e *Engine) predict(req *Request, full bool) (*Result, error) {
 		return nil, unsolved(err)
 	}
 	steps, err := explain.Steps(e.Tables.Thermo, mx)
-	if err != nil {
+	switch {
+	case errors.Is(err, explain.ErrUnexplained):
+		res.Notes = append(res.Notes, fmt.Sprintf("the mixed state changes oxidation states in a way the table method cannot write out (%v); see the final composition", err))
+	case err != nil:
 		return nil, err
 	}
 	res.Notes = append(append(res.Notes, mx.Notes...), mx.Final.Eq.Notes...)

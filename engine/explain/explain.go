@@ -1,6 +1,7 @@
 package explain
 
 import (
+	"errors"
 	"fmt"
 	"math"
 
@@ -63,10 +64,15 @@ func Steps(db *thermo.DB, mx *state.Mix) ([]Step, error) {
 		out = append(out, st)
 	}
 	if len(out) == 0 && firstErr != nil {
-		return nil, firstErr
+		return nil, fmt.Errorf("%w: %v", ErrUnexplained, firstErr)
 	}
 	return out, nil
 }
+
+// ErrUnexplained is a mixed state whose changes of oxidation state cannot
+// be written out as half-reactions of the species at hand (average states of
+// peroxo and mixed-valence species can pair up in ways no equation shows).
+var ErrUnexplained = errors.New("the changes of oxidation state cannot be written as half-reactions")
 
 // Negligible is the share of an agent below which a change does not count
 // as proceeding: when it turns over less than 1 % of each agent's amount as
