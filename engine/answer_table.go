@@ -1,6 +1,8 @@
 package engine
 
 import (
+	"math"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -122,8 +124,7 @@ func isWaterCouple(h *HalfReaction) bool {
 // species a lock keeps from forming (oxygen from water, iodate from iodine)
 // does not stand; water taking electrons always competes, as the solvent
 // does, so that no sodium ion is ever the strongest oxidizing agent.
-// The reducing agent's couple shares no species with the oxidizing agent's
-// (iodine with iodide is not a pair).
+// Couples of minor species (triiodide, ion pairs) stand for no agent.
 func (e *Engine) strongest(mx *state.Mix) (ox, red *candidate) {
 	med := Medium(explain.MediumAt(e.Tables.Thermo, mx.Combined.PH, mx.TempK))
 	present := map[*thermo.Species]bool{}
@@ -135,7 +136,7 @@ func (e *Engine) strongest(mx *state.Mix) (ox, red *candidate) {
 	}
 	var reds []candidate
 	for _, row := range e.tableRows() {
-		if row.h.Medium != Any && row.h.Medium != med {
+		if (row.h.Medium != Any && row.h.Medium != med) || hasMinor(row.r) {
 			continue
 		}
 		c := candidate{row: row, e0: row.r.E0(mx.TempK)}
@@ -150,21 +151,44 @@ func (e *Engine) strongest(mx *state.Mix) (ox, red *candidate) {
 		}
 	}
 	for i := range reds {
-		if (ox == nil || !shareSpecies(ox.row.r, reds[i].row.r)) && (red == nil || reds[i].e < red.e) {
+		if (ox == nil || !sameChange(ox.row.r, reds[i].row.r)) && (red == nil || reds[i].e < red.e) {
 			red = &reds[i]
 		}
 	}
 	return ox, red
 }
 
-// shareSpecies reports whether two half-reactions name a species in common
-// other than water, H+ and OH-.
-func shareSpecies(a, b thermo.Reaction) bool {
-	for _, x := range a.Terms {
-		for _, y := range b.Terms {
-			if x.Species == y.Species && !isSolvent(x.Species.Species) {
-				return true
+// sameChange reports whether two half-reactions are one change of oxidation
+// state written with other forms (I2(s)/I- and I2/I-): the same element
+// states on both sides. Such couples do not make a pair.
+func sameChange(a, b thermo.Reaction) bool {
+	return sideStates(a, -1) == sideStates(b, -1) && sideStates(a, 1) == sideStates(b, 1)
+}
+
+// sideStates lists the element states of one side's species other than
+// water, H+ and OH- ("I0" for iodine), sorted.
+func sideStates(r thermo.Reaction, sign float64) string {
+	var out []string
+	for _, t := range r.Terms {
+		if t.Nu*sign <= 0 || isSolvent(t.Species.Species) {
+			continue
+		}
+		for el, ox := range t.Species.Ox {
+			if el != "H" && el != "O" {
+				out = append(out, el+strconv.FormatFloat(math.Round(ox*100)/100, 'f', -1, 64))
 			}
+		}
+	}
+	sort.Strings(out)
+	return strings.Join(slices.Compact(out), " ")
+}
+
+// hasMinor reports whether a half-reaction names a minor species (an ion
+// pair, a hydrolysis form, triiodide): such a couple stands for no agent.
+func hasMinor(r thermo.Reaction) bool {
+	for _, t := range r.Terms {
+		if t.Species.Minor {
+			return true
 		}
 	}
 	return false
