@@ -69,17 +69,8 @@ func (l *ceilingLoader) ceiling(f []string, line int) {
 		l.fail("formula", formula, "already has a row at line %d; keep one row per chemical", prev)
 		return
 	}
-	pct, ok1 := l.number("% w/w", f[1])
-	rho, ok2 := l.number("density", f[2])
-	if !ok1 || !ok2 {
-		return
-	}
-	if pct <= 0 || pct > 100 {
-		l.fail("% w/w", f[1], "must be above 0 and at most 100")
-		return
-	}
-	if rho < minDensity || rho > maxDensity {
-		l.fail("density", f[2], "must lie between %g and %g g/mL", minDensity, maxDensity)
+	pct, rho, ok := l.strengthDensity(f[1], f[2])
+	if !ok {
 		return
 	}
 	var pure bool

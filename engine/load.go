@@ -316,6 +316,25 @@ func splitFields(dst []string, text string) []string {
 }
 
 // number parses a finite decimal number.
+// strengthDensity reads a % w/w and a density in g/mL, both in range (the
+// density and ceiling tables share them).
+func (l *loader) strengthDensity(pctText, rhoText string) (pct, rho float64, ok bool) {
+	pct, ok1 := l.number("% w/w", pctText)
+	rho, ok2 := l.number("density", rhoText)
+	if !ok1 || !ok2 {
+		return 0, 0, false
+	}
+	if pct <= 0 || pct > 100 {
+		l.fail("% w/w", pctText, "must be above 0 and at most 100")
+		return 0, 0, false
+	}
+	if rho < minDensity || rho > maxDensity {
+		l.fail("density", rhoText, "must lie between %g and %g g/mL", minDensity, maxDensity)
+		return 0, 0, false
+	}
+	return pct, rho, true
+}
+
 func (l *loader) number(field, s string) (float64, bool) {
 	v, err := strconv.ParseFloat(s, 64)
 	if err != nil || math.IsNaN(v) || math.IsInf(v, 0) {
@@ -833,17 +852,8 @@ func (l *loader) density(f []string, line int) {
 		l.fail("formula", formula, "is not a chemical of %s%s; add the chemical there first or fix the formula", tableDir, ChemicalsFile)
 		return
 	}
-	pct, ok1 := l.number("% w/w", f[1])
-	rho, ok2 := l.number("density", f[2])
-	if !ok1 || !ok2 {
-		return
-	}
-	if pct <= 0 || pct > 100 {
-		l.fail("% w/w", f[1], "must be above 0 and at most 100")
-		return
-	}
-	if rho < minDensity || rho > maxDensity {
-		l.fail("density", f[2], "must lie between %g and %g g/mL", minDensity, maxDensity)
+	pct, rho, ok := l.strengthDensity(f[1], f[2])
+	if !ok {
 		return
 	}
 	l.t.Densities[formula] = append(l.t.Densities[formula], DensityPoint{PercentWW: pct, GPerML: rho})
