@@ -122,7 +122,26 @@ func reactionLine(r *engine.Result) string {
 		}
 		return s + ")"
 	}
+	if formsGas(r) {
+		// The mixed state still gives off a product of the pair, below the
+		// share that counts as a reaction: say so rather than "does not run".
+		return "Redox: " + r.Reaction.Text + " runs only to a trace at the final ratio (the gas it gives is counted above)"
+	}
 	return "Redox: no spontaneous reaction (" + r.Reaction.Text + " does not run)"
+}
+
+// formsGas reports whether a gas of the answer's gas list is a product of
+// its equation.
+func formsGas(r *engine.Result) bool {
+	for _, g := range r.Gases {
+		f := strings.TrimSuffix(g.Text, "(g)")
+		for _, p := range r.Reaction.Products {
+			if p.Formula == f && g.HeadspacePPM >= 1 {
+				return true
+			}
+		}
+	}
+	return false
 }
 
 func num(x float64) string { return hazardNum(x) }
