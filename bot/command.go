@@ -179,7 +179,7 @@ func parseStreams(text, rest string) (Command, error) {
 			}
 		}
 		c.Tag = strings.ToUpper(tag)
-		if i := strings.Index(strings.ToLower(stream), "note:"); i >= 0 {
+		if i := indexFoldASCII(stream, "note:"); i >= 0 {
 			c.Note = strings.TrimSpace(stream[i+len("note:"):])
 			stream = strings.TrimSpace(stream[:i])
 		}
@@ -267,4 +267,16 @@ func parseDay(s string, loc *time.Location, end bool) (time.Time, error) {
 		return t, nil
 	}
 	return time.Time{}, fmt.Errorf("%q is not a date like 2026-11-30 or 2026-11-30T14:00", s)
+}
+
+// indexFoldASCII is the byte offset of the first match of the ASCII word
+// sub in s, ignoring ASCII case, or -1. Lower-casing s first would move
+// offsets: some runes and invalid bytes change length under ToLower.
+func indexFoldASCII(s, sub string) int {
+	for i := 0; i+len(sub) <= len(s); i++ {
+		if strings.EqualFold(s[i:i+len(sub)], sub) {
+			return i
+		}
+	}
+	return -1
 }

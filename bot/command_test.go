@@ -102,7 +102,8 @@ func TestParseIDList(t *testing.T) {
 }
 
 func FuzzParseCommand(f *testing.F) {
-	for _, s := range []string{"help", "mix 1 L NaOCl 12.5 %", "streams set T-101 NaOH note: x", "search a since:2026-01-01 page:3", "digest 12h", "streams show"} {
+	for _, s := range []string{"help", "mix 1 L NaOCl 12.5 %", "streams set T-101 NaOH note: x", "search a since:2026-01-01 page:3", "digest 12h", "streams show",
+		"streams set T-101 \xff\xffNaOH note: x", "streams set T-101 İİ NaOH NOTE:"} {
 		f.Add(s)
 	}
 	f.Fuzz(func(t *testing.T, s string) {
