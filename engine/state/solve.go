@@ -31,11 +31,20 @@ const presence = 1e-5
 // A lock of two alternatives is solved both ways and the lower Gibbs energy
 // kept.
 func (m *Model) solveLocked(mx *Mix, n0 []float64, volL float64) (*State, error) {
-	combined, err := m.solve(mx, n0, true, m.formationRules(mx, n0), volL, n0)
+	combined, err := m.solveCombined(mx, n0, volL)
 	if err != nil {
 		return nil, fmt.Errorf("as combined: %w", err)
 	}
 	return m.solveFrom(mx, n0, combined, volL, "")
+}
+
+// solveCombined is n0 as combined: acid–base and complexing only, every
+// element in its oxidation state, under the locks that keep listed species
+// from forming. A stated pH is fitted on this same state, so that the acid
+// or base it stands for is what the stream then holds (without the
+// formation locks cyanide would fit its pH as carbon monoxide and ammonia).
+func (m *Model) solveCombined(mx *Mix, n0 []float64, volL float64) (*State, error) {
+	return m.solve(mx, n0, true, m.formationRules(mx, n0), volL, n0)
 }
 
 // formationRules are the rules of the locks that only keep listed species

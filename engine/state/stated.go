@@ -41,7 +41,7 @@ func (m *Model) fitPH(mx *Mix, n0 []float64, volL, target float64) ([]float64, e
 			limit = -limit
 		}
 		n := m.withAcid(mx, n0, limit)
-		if s, err := m.solve(mx, n, true, nil, volL, n); err == nil {
+		if s, err := m.solveCombined(mx, n, volL); err == nil {
 			mx.Notes = append(mx.Notes, fmt.Sprintf("the stated pH %g is beyond what the model reaches with 20 mol/L of acid or base: pH %.2f is used", target, s.PH))
 		}
 		return n, nil
@@ -76,7 +76,7 @@ func (m *Model) withAcid(mx *Mix, n0 []float64, x float64) []float64 {
 func (m *Model) titrate(mx *Mix, n0 []float64, volL, target float64) (float64, error) {
 	f := func(u float64) (float64, error) {
 		n := m.withAcid(mx, n0, math.Sinh(u))
-		s, err := m.solve(mx, n, true, nil, volL, n)
+		s, err := m.solveCombined(mx, n, volL)
 		if err != nil {
 			return 0, fmt.Errorf("fitting pH %g: %w", target, err)
 		}

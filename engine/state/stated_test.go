@@ -1,0 +1,49 @@
+package state
+
+import (
+	"math"
+	"testing"
+)
+
+// A stream with a stated pH holds that pH in the state the mix starts from:
+// the acid or base the pH stands for is fitted on the same chemistry the
+// stream is then solved with. (Cyanide once fitted its pH as carbon monoxide
+// and ammonia, and a cyanide liquor stated at pH 11 became hydrogen cyanide
+// at pH 2.6.)
+func TestStatedPHHolds(t *testing.T) {
+	m, err := NewModel(loadDB(t), dataFS())
+	if err != nil {
+		t.Fatal(err)
+	}
+	type sp struct {
+		text string
+		mol  float64
+	}
+	cases := []struct {
+		name  string
+		items []sp
+		ph    []float64
+	}{
+		{"cyanide", []sp{{"Na+", 0.2}, {"CN-", 0.2}}, []float64{9, 10.5, 11, 12}},
+		{"ammonia", []sp{{"NH3", 0.5}}, []float64{8, 10, 11.5}},
+		{"carbonate", []sp{{"Na+", 0.4}, {"CO3^2-", 0.2}}, []float64{8.5, 10, 11.8}},
+		{"sulfide", []sp{{"Na+", 0.2}, {"HS-", 0.1}, {"OH-", 0.1}}, []float64{9.5, 12.5}},
+		{"hypochlorite", []sp{{"Na+", 1}, {"OCl-", 0.5}, {"Cl-", 0.5}}, []float64{9, 11, 12.5}},
+	}
+	for _, c := range cases {
+		for _, ph := range c.ph {
+			p := ph
+			st := Stream{Label: c.name, WaterMol: water(1), VolumeL: 1, PH: &p}
+			for _, it := range c.items {
+				st.Items = append(st.Items, item(t, m, it.text, it.mol))
+			}
+			mx, err := m.Solve(Feed{TempK: 298.15, PressureBar: 1.01325, Streams: []Stream{st}})
+			if err != nil {
+				t.Fatalf("%s at pH %g: %v", c.name, ph, err)
+			}
+			if got := mx.Streams[0].PH; math.Abs(got-ph) > 0.05 {
+				t.Errorf("%s stated at pH %g holds pH %.2f", c.name, ph, got)
+			}
+		}
+	}
+}
