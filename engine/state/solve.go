@@ -3,7 +3,9 @@ package state
 import (
 	"errors"
 	"fmt"
+	"maps"
 	"math"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -441,7 +443,7 @@ func components(sp *thermo.Species, frozen, organicLocked bool) map[string]float
 	row := make(map[string]float64, len(sp.Atoms))
 	whole := sp.Inert || (organicLocked && IsOrganic(sp.Atoms, sp.Ion()))
 	if whole {
-		row[skeleton(sp.Atoms)] = 1
+		row[skeleton(sp)] = 1
 	}
 	for el, n := range sp.Atoms {
 		key := el
@@ -456,16 +458,23 @@ func components(sp *thermo.Species, frozen, organicLocked bool) map[string]float
 	return row
 }
 
-// skeleton names the non-metal atoms of a formula other than hydrogen, in
-// Hill order: "{C2O2}".
-func skeleton(a chem.Atoms) string {
+// skeleton names the non-metal atoms of a species other than hydrogen, in
+// Hill order, with their average oxidation states: "{C2O2 C@3 O@-2}".
+// Acid and base forms of one compound share it; isomers in other oxidation
+// states do not (peracetic acid, its peroxide oxygen at −1, is not glycolic
+// acid, though both are C2H4O3).
+func skeleton(sp *thermo.Species) string {
 	k := chem.Atoms{}
-	for el, n := range a {
+	for el, n := range sp.Atoms {
 		if el != "H" && !chem.IsMetal(el) {
 			k[el] = n
 		}
 	}
-	return "{" + k.String() + "}"
+	key := "{" + k.String()
+	for _, el := range slices.Sorted(maps.Keys(k)) {
+		key += " " + el + "@" + strconv.FormatFloat(math.Round(sp.Ox[el]*100)/100, 'f', -1, 64)
+	}
+	return key + "}"
 }
 
 // lnActivity is ln a of problem species j in a solved state: γm for a
