@@ -39,6 +39,9 @@ func FromResult(r *engine.Result, t *engine.Tables) *Outcome {
 	}
 	for _, s := range r.Streams {
 		o.Chemicals = append(o.Chemicals, s.Components...)
+		if s.MassKg > 0 && s.VolumeL == 0 {
+			o.SolidChemicals = append(o.SolidChemicals, s.Components...)
+		}
 		for _, f := range s.Components {
 			if ch, ok := t.Lookup(f); ok {
 				o.StrongAcid = o.StrongAcid || ch.Class == engine.StrongAcid

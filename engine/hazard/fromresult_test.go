@@ -20,7 +20,7 @@ func TestMarginPairRaisesNothing(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	ecell, heat, rise := 0.001, 500.0, 60.0
+	ecell, heat, rise := 0.001, 500.0, 45.0
 	mk := func(e float64) *engine.Result {
 		return &engine.Result{
 			Conditions: engine.Conditions{PH: 6, TemperatureC: 25, PressureKPa: 101.325, VolumeL: 10},

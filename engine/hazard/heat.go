@@ -6,9 +6,10 @@ import "mixward/engine"
 // 60 °C; a rise of 10 °C is worth dosing slowly for; a stated temperature
 // alone never raises a heat hazard (MinRiseC).
 const (
-	ScaldC   = 60.0
-	WarmRise = 10.0
-	MinRiseC = 5.0
+	ScaldC    = 60.0
+	NearBoilC = 80.0
+	WarmRise  = 10.0
+	MinRiseC  = 5.0
 )
 
 // judgeHeat judges the heat by the temperature the mix reaches.
@@ -24,6 +25,13 @@ func judgeHeat(o *Outcome) []engine.Hazard {
 	case h.Boils:
 		z = mk("boils", engine.Danger,
 			"The mix releases "+fmtNum(h.ReleasedkJ, 3)+" kJ and would reach about "+fmtNum(h.ReachedC, 3)+" °C: it boils and spits hot liquid and mist.",
+			"Do not mix in one go: add the concentrated liquid slowly into the larger, cooled and stirred volume, or dilute first; wear a face shield.", src)
+	case h.ReachedC >= NearBoilC && h.RiseC >= 2*WarmRise:
+		// Where the streams meet the liquid runs well above the mean: a mix
+		// whose mean reaches 80 °C boils and spits locally when poured in one
+		// go (Bretherick's Handbook, acids with bases, from memory).
+		z = mk("near-boiling", engine.Danger,
+			"The mix releases "+fmtNum(h.ReleasedkJ, 3)+" kJ and reaches about "+fmtNum(h.ReachedC, 3)+" °C on average: where the streams meet it boils and spits.",
 			"Do not mix in one go: add the concentrated liquid slowly into the larger, cooled and stirred volume, or dilute first; wear a face shield.", src)
 	case h.ReachedC >= ScaldC:
 		z = mk("scalding-heat", engine.Warning,

@@ -89,6 +89,7 @@ type Outcome struct {
 	Before          []Amount // species after mixing and acid–base speciation, before any redox reaction
 	After           []Amount // species after the reactions that proceed
 	Chemicals       []string // formulas named in the streams
+	SolidChemicals  []string // formulas of streams given as solids (a mass, no liquid)
 	StrongAcid      bool     // a stream holds a strong acid
 	StrongBase      bool     // a stream holds a strong base
 	Reactions       []Proceeding
@@ -127,6 +128,19 @@ func (o *Outcome) Present(species ...string) bool {
 // Named reports whether a stream names one of the chemicals (formulas).
 func (o *Outcome) Named(formulas ...string) bool {
 	for _, c := range o.Chemicals {
+		for _, f := range formulas {
+			if c == f {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// SolidStream reports whether a stream given as a solid names one of the
+// chemicals (formulas).
+func (o *Outcome) SolidStream(formulas ...string) bool {
+	for _, c := range o.SolidChemicals {
 		for _, f := range formulas {
 			if c == f {
 				return true
