@@ -259,6 +259,10 @@ func baseResult(req *Request, m *mixture) *Result {
 	}
 	for _, st := range req.Streams {
 		so := StreamOut{Text: st.Text, Label: st.Label(), Tag: st.Tag, VolumeL: st.VolumeL, MassKg: st.MassKg, PH: st.PH, Components: []string{}}
+		if st.TemperatureK != nil {
+			c := roundDec(*st.TemperatureK-273.15, 2)
+			so.TemperatureC = &c
+		}
 		for _, c := range st.Components {
 			so.Components = append(so.Components, c.Chemical.Formula)
 		}

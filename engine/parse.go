@@ -30,6 +30,10 @@ type Stream struct {
 	MassKg     float64
 	Components []Component
 	PH         *float64
+	// TemperatureK is the stream's own temperature ("NaOH 2 %, 75 C"), nil
+	// when not stated. The mix starts at the streams' temperatures averaged
+	// by amount unless the whole mix has one ("at 40 C").
+	TemperatureK *float64
 }
 
 // Label names the stream for counting: its catalogue tag, or what it
@@ -378,6 +382,7 @@ func (p *parser) request() (*Request, error) {
 		}
 		return nil, p.errAt(tk, "unexpected-token", "did not expect %q here; separate streams with \"+\" or \"and\", and components with \",\"", tk.text)
 	}
+	p.startTemperature(req)
 	if len(req.Streams) > 20 {
 		return nil, &ParseError{Code: "too-many-streams", Message: fmt.Sprintf("%d streams: mixward takes at most 20 in one request", len(req.Streams)), Position: req.Streams[20].Pos, Suggestions: []string{}}
 	}
@@ -416,6 +421,33 @@ func (p *parser) conditions(req *Request) error {
 			return err
 		}
 	}
+}
+
+// startTemperature sets the mix's starting temperature from the streams'
+// own when the whole mix has none: their average weighted by volume (or mass
+// for a solid), as if each had the heat capacity of water, a stream without
+// one counted at 25 °C.
+func (p *parser) startTemperature(req *Request) {
+	if req.TempStated {
+		return
+	}
+	sum, w, any := 0.0, 0.0, false
+	for _, st := range req.Streams {
+		k := StandardTemperatureK
+		if st.TemperatureK != nil {
+			k, any = *st.TemperatureK, true
+		}
+		x := st.VolumeL + st.MassKg
+		if x <= 0 {
+			x = 1
+		}
+		sum, w = sum+k*x, w+x
+	}
+	if !any {
+		return
+	}
+	req.TemperatureK, req.TempStated = sum/w, true
+	p.note("the streams' own temperatures give the mix a starting temperature of about %s °C (averaged by amount, as water; a stream without one at 25 °C)", fmtNum(math.Round((sum/w-273.15)*10)/10))
 }
 
 // temperatureUnits convert a stated temperature to kelvin.

@@ -124,6 +124,13 @@ func (p *parser) components(st *Stream, start *token) error {
 				return err
 			}
 			st.PH = &v
+		} else if u := p.peekAt(1); tk.kind == tNumber && u != nil && u.kind == tWord && temperatureUnits[strings.ToLower(u.text)] != nil {
+			p.i += 2
+			k := temperatureUnits[strings.ToLower(u.text)](tk.num)
+			if err := p.checkTemperature(tk, u, k); err != nil {
+				return err
+			}
+			st.TemperatureK = &k
 		} else {
 			c, err := p.component()
 			if err != nil {
@@ -142,7 +149,7 @@ func (p *parser) components(st *Stream, start *token) error {
 		return p.errAt(tk, "unexpected-token", "did not expect %q here; separate components of a stream with \",\" and streams with \"+\" or \"and\"", tk.text)
 	}
 	if len(st.Components) == 0 {
-		return p.errAt(start, "missing-chemical", "the stream has a pH but no chemical; name what it contains, e.g. \"200 L water, pH 11\"")
+		return p.errAt(start, "missing-chemical", "the stream has a pH or a temperature but no chemical; name what it contains, e.g. \"200 L water, pH 11\" or \"200 L water, 60 C\"")
 	}
 	return nil
 }

@@ -35,6 +35,23 @@ func TestParseRequest(t *testing.T) {
 				t.Errorf("component = %+v", c)
 			}
 		}},
+		{"a stream's own temperature", "mix 100 L NaOH 2 %, 75 C + 300 L water", 2, func(t *testing.T, r *engine.Request) {
+			if st := r.Streams[0]; st.TemperatureK == nil || math.Abs(*st.TemperatureK-348.15) > 1e-9 {
+				t.Errorf("stream temperature = %v, want 348.15 K", st.TemperatureK)
+			}
+			// (100 L at 75 °C + 300 L at 25 °C) / 400 L = 37.5 °C.
+			if math.Abs(r.TemperatureK-310.65) > 1e-9 || !r.TempStated {
+				t.Errorf("mix starts at %g K (stated %v), want 310.65", r.TemperatureK, r.TempStated)
+			}
+			if len(r.Notes) == 0 || !strings.Contains(r.Notes[0], "37.5 °C") {
+				t.Errorf("notes %q do not give the starting temperature", r.Notes)
+			}
+		}},
+		{"the whole mix's temperature wins", "mix 100 L NaOH 2 %, 75 C + 100 L water, 10 C at 30 C", 2, func(t *testing.T, r *engine.Request) {
+			if math.Abs(r.TemperatureK-303.15) > 1e-9 || r.Streams[1].TemperatureK == nil {
+				t.Errorf("mix at %g K, water stream %v; want 303.15 K and the stream's own kept", r.TemperatureK, r.Streams[1].TemperatureK)
+			}
+		}},
 		{"fahrenheit", "Zn + HCl 1 M at 77 F", 2, func(t *testing.T, r *engine.Request) {
 			if math.Abs(r.TemperatureK-298.15) > 1e-9 {
 				t.Errorf("77 F = %g K, want 298.15", r.TemperatureK)
@@ -121,6 +138,8 @@ func TestParseErrors(t *testing.T) {
 		{"NaOCl 120 %", "bad-concentration", 7, ""},
 		{"Zn + HCl 1 M at 25 Q", "unknown-unit", 20, ""},
 		{"Zn + HCl 1 M at 900 C", "bad-temperature", 17, ""},
+		{"Zn + HCl 1 M, 900 C", "bad-temperature", 15, ""},
+		{"200 L 60 C + HCl 1 M", "missing-chemical", 1, ""},
 		{"Zn + HCl 1 M at pH", "bad-ph", 19, ""},
 		{"Zn HCl", "unknown-word", 4, ""},
 		{"NaOCl 12.5 % HCl", "unexpected-token", 14, ""},
@@ -394,7 +413,7 @@ func FuzzParseRequest(f *testing.F) {
 		"55 US gal bleach + 10 imp gal HCl 10 % + 3 gallons NaOH 2 %", "40 L T-101 + 2 kg T-101 + T102 + T-110",
 		"Zn + HCl 1e308 g/L at 1e-320 kPa", "HCl 40 M + NaOH 50 M at pH 17", "NaOH 10 wt% + HCl 42 % at 10 MPa",
 		"10 kg NaOH 99 % + 10 L NaOH 99 %", "Zn at 1e308 F", "1e308 m3 HCl", "0,0001 mL HCl",
-		"mix 200 L NaOCl 12.5 % + 50 L HCl 10 % at 20 C",
+		"mix 200 L NaOCl 12.5 % + 50 L HCl 10 % at 20 C", "100 L NaOH 2 %, 75 C + 100 L water, 10 F", "1 L 5 K",
 		"Zn + CuSO4 1 M", "T-101 + 40 L HCl 1 M", "500 L water, NaOH 2 %, pH 12 + 20 L H2O2 30 %",
 		"55 gal bleach + 10 lb Na2S2O5 at 2 bar, pH 3", "1e3 mL Fe2(SO4)3 2 g/L", "-5 C", "mix mix + + , ,",
 		"NaOCl 12.5 % w/v + iron(II) sulfate 3 mg/L at 77 F",

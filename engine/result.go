@@ -318,11 +318,13 @@ type Allowance struct {
 
 // StreamOut describes one stream of the request as the engine understood it.
 type StreamOut struct {
-	Text       string   `json:"text"`
-	Label      string   `json:"label"`         // the tag, or what is in the stream without its amount: counts "most-asked pairs"
-	Tag        string   `json:"tag,omitempty"` // catalogue tag the stream came from
-	VolumeL    float64  `json:"volume_l,omitempty"`
-	MassKg     float64  `json:"mass_kg,omitempty"`
-	PH         *float64 `json:"ph,omitempty"`
-	Components []string `json:"components"`
+	Text    string   `json:"text"`
+	Label   string   `json:"label"`         // the tag, or what is in the stream without its amount: counts "most-asked pairs"
+	Tag     string   `json:"tag,omitempty"` // catalogue tag the stream came from
+	VolumeL float64  `json:"volume_l,omitempty"`
+	MassKg  float64  `json:"mass_kg,omitempty"`
+	PH      *float64 `json:"ph,omitempty"`
+	// TemperatureC is the stream's own temperature when the request states one.
+	TemperatureC *float64 `json:"temperature_c,omitempty"`
+	Components   []string `json:"components"`
 }
