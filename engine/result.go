@@ -89,6 +89,17 @@ type Addition struct {
 	Orders []PourOrder `json:"orders"`
 	Advice string      `json:"advice"`
 	Points int         `json:"points"` // mixes evaluated along the pour, all orders
+	// Sequences are, for three or four streams, every order of running the
+	// streams one after another into one tank, best first: the first stream
+	// is the tank, each step runs the next stream into what is there.
+	Sequences []PourSequence `json:"sequences,omitempty"`
+}
+
+// PourSequence is one order of running three or more streams into one tank.
+type PourSequence struct {
+	Streams []string    `json:"streams"` // in the order they go in; the first is the tank
+	Steps   []PourOrder `json:"steps"`   // each stream after the first run into what is there
+	Worst   Severity    `json:"worst,omitempty"`
 }
 
 // PourOrder is one order of addition: Added is run into Into.

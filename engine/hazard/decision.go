@@ -25,6 +25,9 @@ func Decide(final []engine.Hazard, add *engine.Addition) engine.Decision {
 	if finalW >= 2 {
 		d.Title = titleOf(final)
 	}
+	if add != nil && len(add.Sequences) > 0 {
+		return decideSequence(d, finalW, final, add)
+	}
 	best, bestOrder, allW, choice := pourLevels(add)
 	level := max(finalW, best)
 	switch {
@@ -44,6 +47,10 @@ func Decide(final []engine.Hazard, add *engine.Addition) engine.Decision {
 	if add != nil && add.Advice != "" && allW >= 2 {
 		d.Actions = appendNew(d.Actions, add.Advice)
 	}
+	return withLevel(d, level)
+}
+
+func withLevel(d engine.Decision, level int) engine.Decision {
 	switch {
 	case level >= 3:
 		d.Level = engine.DoNotMix
@@ -51,6 +58,42 @@ func Decide(final []engine.Hazard, add *engine.Addition) engine.Decision {
 		d.Level = engine.WithPrecautions
 	}
 	return d
+}
+
+// decideSequence decides a mix of three or four streams by its best
+// sequence of addition: the streams run one after another into one tank, in
+// the order the operator can choose. A pair that is unsafe on its own (bleach
+// and acid) may never meet neat in a good sequence (acid into caustic first).
+func decideSequence(d engine.Decision, finalW int, final []engine.Hazard, add *engine.Addition) engine.Decision {
+	best := add.Sequences[0]
+	bestW, allW := rank(best.Worst), 0
+	for _, s := range add.Sequences {
+		allW = max(allW, rank(s.Worst))
+	}
+	level := max(finalW, bestW)
+	seqText := strings.Join(best.Streams, ", then ")
+	switch {
+	case bestW > finalW:
+		for _, st := range best.Steps {
+			for _, ph := range st.Hazards {
+				if rank(ph.Worst) == bestW && d.Title == NoConcernTitle || rank(ph.Worst) == bestW && finalW < 2 && !strings.Contains(d.Title, "in every sequence") {
+					d.Title = codeTitle(ph.Code) + " in every sequence of addition"
+				}
+				d.Reasons = append(d.Reasons, "while "+st.Added+" runs into "+st.Into+": "+codeTitle(ph.Code)+
+					" from "+pct(ph.FromFraction)+" to "+pct(ph.ToFraction)+" of the addition")
+			}
+		}
+	case allW > bestW:
+		level = max(level, 2)
+		if finalW < 2 {
+			d.Title = "hazard along the pour in other sequences"
+		}
+		d.Title += "; order of addition matters: " + seqText
+	}
+	if add.Advice != "" && allW >= 2 {
+		d.Actions = appendNew(d.Actions, add.Advice)
+	}
+	return withLevel(d, level)
 }
 
 // worseOrderTitle names the worst hazard met in the other order(s).

@@ -35,16 +35,27 @@ func Analyse(req *engine.Request, eval Evaluate) *engine.Addition {
 		return nil
 	}
 	add := &engine.Addition{Orders: []engine.PourOrder{}}
+	byPair := map[[2]int]engine.PourOrder{} // (added, into) → order
 	for i := 0; i < n; i++ {
 		for j := i + 1; j < n; j++ {
 			for _, ord := range [][2]int{{j, i}, {i, j}} {
-				o, pts := order(req, ord[0], ord[1], eval)
+				sa, sb := withAmount(req.Streams[ord[0]]), withAmount(req.Streams[ord[1]])
+				o, pts := order(req, ord[0], ord[1], eval, func(f float64) []engine.Stream {
+					return []engine.Stream{sb, scaled(sa, f)}
+				})
 				add.Orders = append(add.Orders, o)
 				add.Points += pts
+				byPair[ord] = o
 			}
 		}
 	}
+	var pts int
+	add.Sequences, pts = sequences(req, eval, byPair)
+	add.Points += pts
 	add.Advice = advice(add)
+	if s := sequenceAdvice(add.Sequences); s != "" {
+		add.Advice = s + " " + add.Advice
+	}
 	return add
 }
 
@@ -59,9 +70,9 @@ func Name(s *engine.Stream) string {
 	return strings.TrimSpace(s.Text)
 }
 
-// order runs stream a into stream b and records the hazards met.
-func order(req *engine.Request, a, b int, eval Evaluate) (engine.PourOrder, int) {
-	sa, sb := withAmount(req.Streams[a]), withAmount(req.Streams[b])
+// order runs stream a into stream b and records the hazards met; streams
+// gives the streams in the tank when the share f of a has gone in.
+func order(req *engine.Request, a, b int, eval Evaluate, streams func(f float64) []engine.Stream) (engine.PourOrder, int) {
 	po := engine.PourOrder{Added: Name(&req.Streams[a]), Into: Name(&req.Streams[b]), Hazards: []engine.PourHazard{}}
 	open := map[string]*engine.PourHazard{}
 	worstRatio := map[string]float64{} // the message kept is that of the worst point
@@ -69,7 +80,7 @@ func order(req *engine.Request, a, b int, eval Evaluate) (engine.PourOrder, int)
 	pts := 0
 	for _, f := range fractions {
 		r := *req
-		r.Streams = []engine.Stream{sb, scaled(sa, f)}
+		r.Streams = streams(f)
 		hs, err := eval(&r)
 		if err != nil {
 			continue

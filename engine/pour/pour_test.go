@@ -1,6 +1,7 @@
 package pour
 
 import (
+	"slices"
 	"strings"
 	"testing"
 
@@ -92,5 +93,50 @@ func TestFractionsDenserAtTheEnds(t *testing.T) {
 		if Fractions[i] <= Fractions[i-1] {
 			t.Errorf("fractions not increasing at %d", i)
 		}
+	}
+}
+
+// TestSequencesFindTheSafeOne: caustic, acid and bleach. Chlorine comes off
+// only while bleach meets more acid than caustic; run the acid into the
+// caustic first and the bleach last and nothing is met, although the pair
+// bleach–acid is unsafe either way on its own (common practice, no source:
+// neutralise first, then add the hypochlorite).
+func TestSequencesFindTheSafeOne(t *testing.T) {
+	eval := func(req *engine.Request) ([]engine.Hazard, error) {
+		vol := map[string]float64{}
+		for _, s := range req.Streams {
+			vol[s.Text] += s.VolumeL
+		}
+		if vol["bleach"] > 0 && vol["acid"] > vol["base"]+1e-9 {
+			return []engine.Hazard{{Code: "chlorine", Severity: engine.Danger}}, nil
+		}
+		return nil, nil
+	}
+	req := &engine.Request{Streams: []engine.Stream{{Text: "bleach", VolumeL: 1}, {Text: "base", VolumeL: 1.2}, {Text: "acid", VolumeL: 1}}}
+	add := Analyse(req, eval)
+	if len(add.Sequences) != 6 {
+		t.Fatalf("%d sequences, want 6", len(add.Sequences))
+	}
+	best := add.Sequences[0]
+	if best.Worst != "" {
+		t.Fatalf("best sequence %v meets %s", best.Streams, best.Worst)
+	}
+	if best.Streams[0] != "base" && !(best.Streams[0] == "bleach" && best.Streams[1] == "base") {
+		t.Errorf("best sequence %v does not start from the caustic", best.Streams)
+	}
+	if last := add.Sequences[5]; last.Worst != engine.Danger {
+		t.Errorf("worst sequence %v meets %q, want danger", last.Streams, last.Worst)
+	}
+	if !strings.HasPrefix(add.Advice, "In sequence: start with ") || !strings.Contains(add.Advice, "nothing of concern appears along that sequence") {
+		t.Errorf("advice %q", add.Advice)
+	}
+	// Each distinct step is judged once: 6 pair orders and 3 second steps.
+	if want := 9 * len(fractions); add.Points != want {
+		t.Errorf("points %d, want %d", add.Points, want)
+	}
+	// Five streams are not searched.
+	five := &engine.Request{Streams: append(slices.Clone(req.Streams), engine.Stream{Text: "d"}, engine.Stream{Text: "e"})}
+	if s := Analyse(five, eval).Sequences; s != nil {
+		t.Errorf("five streams gave %d sequences", len(s))
 	}
 }

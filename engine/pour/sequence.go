@@ -1,0 +1,162 @@
+package pour
+
+import (
+	"slices"
+	"sort"
+	"strings"
+
+	"mixward/engine"
+)
+
+// MaxSequenceStreams is the most streams whose sequences are searched: four
+// streams have 24 sequences of 16 distinct steps; five would have 120.
+const MaxSequenceStreams = 4
+
+// sequences judges every order of running the streams one after another into
+// one tank. A step (what the tank holds, the stream run in) is evaluated once
+// however many sequences share it; the first step of each is a pair's order
+// already judged (orders, by added and into stream).
+func sequences(req *engine.Request, eval Evaluate, orders map[[2]int]engine.PourOrder) ([]engine.PourSequence, int) {
+	n := len(req.Streams)
+	if n < 3 || n > MaxSequenceStreams {
+		return nil, 0
+	}
+	steps := map[string]engine.PourOrder{}
+	pts := 0
+	var out []engine.PourSequence
+	for _, perm := range permutations(n) {
+		seq := engine.PourSequence{Streams: make([]string, n), Steps: []engine.PourOrder{}}
+		for i, k := range perm {
+			seq.Streams[i] = Name(&req.Streams[k])
+		}
+		for k := 1; k < n; k++ {
+			tank, added := perm[:k], perm[k]
+			key := stepKey(tank, added)
+			st, ok := steps[key]
+			if !ok && k == 1 {
+				st, ok = orders[[2]int{added, tank[0]}]
+			}
+			if !ok {
+				var p int
+				st, p = into(req, tank, added, eval)
+				pts += p
+			}
+			steps[key] = st
+			seq.Steps = append(seq.Steps, st)
+			if w := worst(st); w > rank(seq.Worst) {
+				seq.Worst = severityOf(w)
+			}
+		}
+		out = append(out, seq)
+	}
+	sort.SliceStable(out, func(i, j int) bool {
+		wi, wj := rank(out[i].Worst), rank(out[j].Worst)
+		if wi != wj {
+			return wi < wj
+		}
+		return seqSpan(out[i]) < seqSpan(out[j])
+	})
+	return out, pts
+}
+
+// into runs stream added into a tank holding the streams of tank.
+func into(req *engine.Request, tank []int, added int, eval Evaluate) (engine.PourOrder, int) {
+	r := *req
+	r.Streams = make([]engine.Stream, 0, len(tank)+1)
+	names := make([]string, 0, len(tank))
+	for _, k := range tank {
+		r.Streams = append(r.Streams, req.Streams[k])
+		names = append(names, Name(&req.Streams[k]))
+	}
+	r.Streams = append(r.Streams, req.Streams[added])
+	po, pts := order(&r, len(tank), 0, eval, func(f float64) []engine.Stream {
+		sts := make([]engine.Stream, 0, len(tank)+1)
+		for i := range tank {
+			sts = append(sts, withAmount(r.Streams[i]))
+		}
+		return append(sts, scaled(withAmount(r.Streams[len(tank)]), f))
+	})
+	po.Into = strings.Join(names, " + ")
+	return po, pts
+}
+
+// stepKey names a step by the set of streams in the tank and the one added.
+func stepKey(tank []int, added int) string {
+	s := slices.Clone(tank)
+	slices.Sort(s)
+	var b strings.Builder
+	for _, k := range s {
+		b.WriteByte(byte('a' + k))
+	}
+	return b.String() + ">" + string(rune('a'+added))
+}
+
+func permutations(n int) [][]int {
+	var out [][]int
+	var rec func(p []int, used []bool)
+	rec = func(p []int, used []bool) {
+		if len(p) == n {
+			out = append(out, slices.Clone(p))
+			return
+		}
+		for k := 0; k < n; k++ {
+			if !used[k] {
+				used[k] = true
+				rec(append(p, k), used)
+				used[k] = false
+			}
+		}
+	}
+	rec(nil, make([]bool, n))
+	return out
+}
+
+func seqSpan(s engine.PourSequence) float64 {
+	t := 0.0
+	for _, st := range s.Steps {
+		if worst(st) == rank(s.Worst) {
+			t += span(st)
+		}
+	}
+	return t
+}
+
+func severityOf(r int) engine.Severity {
+	for _, s := range []engine.Severity{engine.Info, engine.Warning, engine.Danger} {
+		if s.Rank() == r {
+			return s
+		}
+	}
+	return ""
+}
+
+// sequenceAdvice names the best sequence when it avoids what others meet.
+func sequenceAdvice(seqs []engine.PourSequence) string {
+	if len(seqs) == 0 {
+		return ""
+	}
+	best, worstAll := seqs[0], 0
+	for _, s := range seqs {
+		worstAll = max(worstAll, rank(s.Worst))
+	}
+	if worstAll == rank(best.Worst) {
+		return ""
+	}
+	s := "In sequence: start with " + best.Streams[0]
+	for _, n := range best.Streams[1:] {
+		s += ", then run in " + n
+	}
+	s += ", slowly"
+	if rank(best.Worst) > 0 {
+		var cs []string
+		for _, st := range best.Steps {
+			for _, h := range st.Hazards {
+				if !slices.Contains(cs, h.Code) {
+					cs = append(cs, h.Code)
+				}
+			}
+		}
+		return s + "; that sequence still meets " + strings.Join(cs, ", ") + "."
+	}
+	return s + ": nothing of concern appears along that sequence."
+}
