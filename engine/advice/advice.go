@@ -54,7 +54,7 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 	}
 	res.Notes = append(res.Notes, fmt.Sprintf("gas concentrations are for a closed headspace equal to the liquid volume (%s L), at equilibrium", trim(o.HeadspaceL)))
 	res.Addition = pour.Analyse(req, func(r *engine.Request) ([]engine.Hazard, error) {
-		hs, err := a.evaluate(r)
+		hs, err := a.evaluateIn(r, o.HeadspaceL)
 		return hazard.Relative(hs, pick(alone, r.Streams)), err
 	})
 	if res.Addition == nil {
@@ -77,13 +77,21 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 	return res, nil
 }
 
-// evaluate judges one point of a pour.
+// evaluate judges one stream or mix by itself.
 func (a *Advisor) evaluate(req *engine.Request) ([]engine.Hazard, error) {
+	return a.evaluateIn(req, 0)
+}
+
+// evaluateIn judges one point of a pour in a tank whose headspace is
+// headspaceL (see hazard.Outcome.InTank).
+func (a *Advisor) evaluateIn(req *engine.Request, headspaceL float64) ([]engine.Hazard, error) {
 	res, err := a.Engine.PredictBrief(req)
 	if err != nil {
 		return nil, err
 	}
-	return hazard.Judge(hazard.FromResult(res, a.Engine.Tables), a.Gases), nil
+	o := hazard.FromResult(res, a.Engine.Tables)
+	o.InTank(headspaceL)
+	return hazard.Judge(o, a.Gases), nil
 }
 
 // alone judges each stream by itself, keyed by streamKey.

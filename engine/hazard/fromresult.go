@@ -90,13 +90,46 @@ func (o *Outcome) measured(r *engine.Result, t *engine.Tables) {
 	}
 	for _, g := range r.Gases {
 		f := strings.TrimSuffix(g.Text, "(g)")
-		if kineticGas[f] && g.PartialKPa > 0 {
-			o.Measured[f] = MeasuredGas{Mol: g.Mol, PPM: g.HeadspacePPM}
-		}
-		if _, ok := o.Measured[f]; ok && g.PartialKPa > 0 {
-			o.Measured[f] = MeasuredGas{Mol: g.Mol, PPM: g.HeadspacePPM}
+		if _, ok := o.Measured[f]; (ok || kineticGas[f]) && g.PartialKPa > 0 {
+			o.Measured[f] = MeasuredGas{Mol: g.Mol, PPM: g.HeadspacePPM, Dissolved: dissolvedAs(r.FinalComposition, f)}
 		}
 	}
+}
+
+// dissolvedAs is the mol of a gas left dissolved as its neutral molecule:
+// the same formula in solution, or the formula with water (dissolved sulfur
+// and carbon dioxide are written H2SO3 and H2CO3 in the NBS tables).
+func dissolvedAs(comp []engine.AmountOf, gas string) float64 {
+	ga, err := engine.ParseFormula(gas)
+	if err != nil {
+		return 0
+	}
+	n := 0.0
+	for _, a := range comp {
+		if a.Phase != engine.Aqueous && a.Phase != "" || strings.ContainsAny(a.Text, "+-^") {
+			continue
+		}
+		aa, err := engine.ParseFormula(a.Text)
+		if err != nil {
+			continue
+		}
+		w := aa["O"] - ga["O"] // waters added
+		same := w >= 0 && aa["H"]-ga["H"] == 2*w
+		for el, k := range aa {
+			if el != "H" && el != "O" && ga[el] != k {
+				same = false
+			}
+		}
+		for el := range ga {
+			if aa[el] == 0 {
+				same = false
+			}
+		}
+		if same {
+			n += a.Mol
+		}
+	}
+	return n
 }
 
 // reactions sorts the engine's reactions into those that proceed and those
