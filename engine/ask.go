@@ -53,31 +53,6 @@ func New(fsys fs.FS) (*Engine, error) {
 			t.famOf[s.Ion()] = i
 		}
 	}
-	t.pairRules = map[string]bool{}
-	for _, k := range t.Kinetics {
-		if k.Side == PairRole {
-			for _, s := range k.Species {
-				t.pairRules[s] = true
-			}
-		}
-	}
-	t.rows = map[Medium]mediumRows{}
-	for _, med := range []Medium{Acid, Base} {
-		var r mediumRows
-		fits := map[string]bool{}
-		for i, h := range t.Half {
-			if h.Medium == Any || h.Medium == med {
-				r.fitting = append(r.fitting, i)
-				fits[h.sig] = true
-			}
-		}
-		for i, h := range t.Half {
-			if h.Medium != Any && h.Medium != med && !fits[h.sig] {
-				r.fallback = append(r.fallback, i)
-			}
-		}
-		t.rows[med] = r
-	}
 	t.standIn = map[string]string{}
 	for _, h := range t.Half {
 		h.canon = canonical(t, h)
@@ -108,7 +83,6 @@ func (t *Tables) indexHalf(h *HalfReaction) {
 			}
 		}
 	}
-	h.sig = signature(h)
 	h.textRed, h.textOx = halfText(h, false), halfText(h, true)
 	h.oxKeys, h.redKeys = nil, nil
 	for _, r := range h.Reactants {
@@ -124,24 +98,22 @@ func (t *Tables) indexHalf(h *HalfReaction) {
 }
 
 // loadAll reads every table of fsys. The tables of Load are parsed on the
-// calling goroutine while a second one reads the species data, the kinetic
-// allowances, the hazard rules and the enthalpies: they share nothing until
-// both are done. The first error in the order loadFast, species, kinetics,
-// hazards, enthalpies is returned.
+// calling goroutine while a second one reads the species data, the hazard
+// rules and the enthalpies: they share nothing until both are done. The
+// first error in the order loadFast, species, hazards, enthalpies is
+// returned.
 func loadAll(fsys fs.FS) (*Tables, error) {
 	var (
 		db     *thermo.DB
-		kin    []*KineticRule
 		haz    []*HazardRule
 		enth   map[string]Enthalpy
-		errs   [4]error
+		errs   [3]error
 		others sync.WaitGroup
 	)
 	others.Go(func() {
 		db, errs[0] = thermo.Load(fsys)
-		kin, errs[1] = loadKinetics(fsys)
-		haz, errs[2] = LoadHazardRules(fsys)
-		enth, errs[3] = LoadEnthalpies(fsys)
+		haz, errs[1] = LoadHazardRules(fsys)
+		enth, errs[2] = LoadEnthalpies(fsys)
 	})
 	t, err := loadFast(fsys)
 	others.Wait()
@@ -153,7 +125,7 @@ func loadAll(fsys fs.FS) (*Tables, error) {
 			return nil, err
 		}
 	}
-	t.Thermo, t.Kinetics, t.Hazards, t.Enthalpies = db, kin, haz, enth
+	t.Thermo, t.Hazards, t.Enthalpies = db, haz, enth
 	return t, nil
 }
 

@@ -18,9 +18,6 @@ func CheckTables(fsys fs.FS) error {
 	if _, err := Load(fsys); err != nil {
 		errs = append(errs, err)
 	}
-	if _, err := loadKinetics(fsys); err != nil {
-		errs = append(errs, err)
-	}
 	if _, err := LoadHazardRules(fsys); err != nil {
 		errs = append(errs, err)
 	}

@@ -319,7 +319,9 @@ type Conditions struct {
 	Medium       Medium   `json:"medium"` // acid or base: which table form applies
 }
 
-// Allowance is a kinetic allowance (data/kinetics.txt) applied when ranking.
+// Allowance was a kinetic allowance of the earlier pair ranking. The field
+// stays in the JSON answer (always null) for integrations that read it; the
+// kinetic locks of data/locks.txt replaced the allowances.
 type Allowance struct {
 	ID     string  `json:"id"`
 	Volts  float64 `json:"volts"`
