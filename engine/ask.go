@@ -99,21 +99,23 @@ func (t *Tables) indexHalf(h *HalfReaction) {
 
 // loadAll reads every table of fsys. The tables of Load are parsed on the
 // calling goroutine while a second one reads the species data, the hazard
-// rules and the enthalpies: they share nothing until both are done. The
-// first error in the order loadFast, species, hazards, enthalpies is
-// returned.
+// rules, the enthalpies and the dilution heats: they share nothing until
+// both are done. The first error in the order loadFast, species, hazards,
+// enthalpies, dilution is returned.
 func loadAll(fsys fs.FS) (*Tables, error) {
 	var (
 		db     *thermo.DB
 		haz    []*HazardRule
 		enth   map[string]Enthalpy
-		errs   [3]error
+		dil    *Dilution
+		errs   [4]error
 		others sync.WaitGroup
 	)
 	others.Go(func() {
 		db, errs[0] = thermo.Load(fsys)
 		haz, errs[1] = LoadHazardRules(fsys)
 		enth, errs[2] = LoadEnthalpies(fsys)
+		dil, errs[3] = loadDilution(fsys)
 	})
 	t, err := loadFast(fsys)
 	others.Wait()
@@ -125,7 +127,7 @@ func loadAll(fsys fs.FS) (*Tables, error) {
 			return nil, err
 		}
 	}
-	t.Thermo, t.Hazards, t.Enthalpies = db, haz, enth
+	t.Thermo, t.Hazards, t.Enthalpies, t.Dilution = db, haz, enth, dil
 	return t, nil
 }
 

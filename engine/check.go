@@ -24,6 +24,9 @@ func CheckTables(fsys fs.FS) error {
 	if _, err := LoadEnthalpies(fsys); err != nil {
 		errs = append(errs, err)
 	}
+	if _, err := loadDilution(fsys); err != nil {
+		errs = append(errs, err)
+	}
 	db, err := thermo.Load(fsys)
 	if err != nil {
 		errs = append(errs, err)

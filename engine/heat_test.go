@@ -272,3 +272,21 @@ func FuzzLoadEnthalpies(f *testing.F) {
 		}
 	})
 }
+
+// TestHeatNotWithheldForATrace: a trace of a complex without ΔfH° (CuCl2-
+// over copper in concentrated hydrochloric acid, where nothing reacts) does
+// not withhold the heat figure; a real share does (Cr(III) once did, see
+// the dilution tests).
+func TestHeatNotWithheldForATrace(t *testing.T) {
+	e := loadForTest(t)
+	r, err := e.Ask("mix 1 kg Cu + 1 L HCl 37 %", AskOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.Heat == nil || r.Heat.HeatReleasedkJ == nil || len(r.Heat.Missing) != 0 {
+		t.Fatalf("heat withheld for a trace: %+v", r.Heat)
+	}
+	if q := *r.Heat.HeatReleasedkJ; q < -5 || q > 5 {
+		t.Errorf("copper in hydrochloric acid releases %g kJ, want about nothing (no reaction)", q)
+	}
+}

@@ -36,6 +36,7 @@ type mixture struct {
 	massKg      float64     // total mass of the mixed liquid and dissolved solids, for heat
 	fict        float64     // charge standing in for streams with a stated pH (see buildMixture)
 	dissolved   []dissolved // solids and near-pure liquids that dissolve into the mix
+	solutes     []soluteIn  // solutes with heats of concentrated solution (data/dilution.txt)
 }
 
 func (m *mixture) note(format string, args ...any) {

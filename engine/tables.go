@@ -17,6 +17,7 @@ type Tables struct {
 
 	Hazards    []*HazardRule
 	Enthalpies map[string]Enthalpy // standard enthalpy of formation by Species.Key
+	Dilution   *Dilution           // heats of concentrated solutions (data/dilution.txt)
 	Thermo     *thermo.DB          // species data (data/species.txt), loaded by New
 
 	families []family       // acid–base chains, built by New

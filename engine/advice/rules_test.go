@@ -113,7 +113,7 @@ func TestHazardsAdded(t *testing.T) {
 			"alkaline cyanide treatment: common practice, no source"},
 		{"bicarbonate turns alkaline cyanide into hydrogen cyanide", "mix 100 L NaCN 1 %, pH 10.5 + 100 L NaHCO3 5 %", "hcn-release", engine.Danger,
 			"pKa HCN 9.2 and HCO3- 10.3, CRC Handbook, Dissociation Constants; NIOSH IDLH hydrogen cyanide 50 ppm"},
-		{"strong caustic with strong acid in one go", "mix 100 L NaOH 50 % + 100 L HCl 36 %", "near-boiling", engine.Danger,
+		{"strong caustic with strong acid in one go", "mix 100 L KOH 30 % + 100 L HCl 25 %", "near-boiling", engine.Danger,
 			"NBS Tables 1982 neutralisation heat; Bretherick's Handbook, acids with bases"},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
@@ -160,7 +160,7 @@ func TestFalseAlarmsRemoved(t *testing.T) {
 			"chlorine does not persist above pH 5"},
 		{"no chlorine from alkaline cyanide destruction", "mix 1 L NaCN 1 g/L, NaOH 1 g/L + 1 L NaOCl 1 %", []string{"chlorine-release", "cyanogen-chloride-release", "hcn-release"},
 			"pH 12: chlorine hydrolysed, cyanogen chloride hydrolysed, cyanide held as CN-"},
-		{"no hydrogen from copper in hydrochloric acid", "mix 1 L Cu + 1 L HCl 37 %", []string{"hydrogen-release"},
+		{"no hydrogen from copper in hydrochloric acid", "mix 1 kg Cu + 1 L HCl 37 %", []string{"hydrogen-release"},
 			"copper with hydrochloric acid is not spontaneous"},
 		{"dilute CIP nitric acid with citric acid is no runaway", "mix 1000 L HNO3 1.5 % + 100 L citric acid 10 %", []string{"nitric-organic-runaway"},
 			"nitric acid below about 2 mol/L does not run away with organic acids (common practice, no source)"},

@@ -113,7 +113,7 @@ func worseOrderTitle(add *engine.Addition, good *engine.PourOrder) string {
 	if t == "" {
 		return "hazard along the pour"
 	}
-	if t == codeTitle("boils") {
+	if t == codeTitle("boils") || t == codeTitle("near-boiling") {
 		t = "boils locally"
 	}
 	return t + " if poured the other way"
