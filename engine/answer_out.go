@@ -1,6 +1,7 @@
 package engine
 
 import (
+	"fmt"
 	"math"
 
 	"mixward/engine/chem"
@@ -83,6 +84,10 @@ func heatOut(mx *state.Mix, m *mixture, t *Tables) *Heat {
 	}
 	h := &Heat{Assumption: heatAssumption, Missing: missing}
 	if n := unknownNetChange(mx, dfh); n > missingShare*big && n > floor {
+		return h
+	}
+	if why := tooLittleWater(mx, m, t); why != "" {
+		h.Withheld = why
 		return h
 	}
 	released := -dh
@@ -277,4 +282,37 @@ func formedBy(steps []explain.Step) func(*thermo.Species) bool {
 		}
 		return false
 	}
+}
+
+// minWaterPerSolid is the least water, mol per mol of solid dissolved, for
+// which the heat of solution at infinite dilution is used: about 6 mol/kg,
+// near saturation for most salts. Beyond it (a kilogram of permanganate in a
+// litre of 98 % sulfuric acid) the solids do not dissolve as written and the
+// figure would mislead, even in sign.
+const minWaterPerSolid = 9
+
+// tooLittleWater says why the heat of dissolving the mix's solids cannot be
+// estimated, or "" when it can. Solids with their own heats of concentrated
+// solution (data/dilution.txt: sodium and potassium hydroxide) are exempt.
+func tooLittleWater(mx *state.Mix, m *mixture, t *Tables) string {
+	solids := 0.0
+	for _, d := range m.dissolved {
+		if t.Dilution != nil && len(t.Dilution.Points[d.chem.Formula]) > 0 {
+			continue
+		}
+		solids += d.mol
+	}
+	if solids <= 0 {
+		return ""
+	}
+	water := 0.0
+	for i, sp := range mx.Species {
+		if sp.Text == "H2O" {
+			water += mx.Final.Amount[i]
+		}
+	}
+	if water >= minWaterPerSolid*solids {
+		return ""
+	}
+	return fmt.Sprintf("too little water to dissolve the solids as written: %.2g mol water per mol of solid, below %d", water/solids, minWaterPerSolid)
 }

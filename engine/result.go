@@ -288,6 +288,9 @@ type Heat struct {
 	DilutionkJ float64  `json:"dilution_kj,omitempty"`
 	Assumption string   `json:"assumption"`
 	Missing    []string `json:"missing,omitempty"` // species without formation-enthalpy data
+	// Withheld says why no figure is given when it is not missing data:
+	// a solid dissolved into too little water for the solution model.
+	Withheld string `json:"withheld,omitempty"`
 	// TemperatureReachedC is the start temperature plus the rise; Boils says
 	// the estimate passed the boiling point, where the rise stops and
 	// WaterFlashedKg of water boils off.

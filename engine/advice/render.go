@@ -95,6 +95,9 @@ func formsLine(r *engine.Result) string {
 
 func heatLine(r *engine.Result) string {
 	if r.Decision == nil || r.Decision.Heat == nil {
+		if r.Heat != nil && r.Heat.Withheld != "" {
+			return "Heat: no estimate (" + r.Heat.Withheld + ")"
+		}
 		return "Heat: no estimate (formation enthalpies missing)"
 	}
 	h := r.Decision.Heat
