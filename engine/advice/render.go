@@ -130,7 +130,9 @@ func reactionLine(r *engine.Result) string {
 		// share that counts as a reaction: say so rather than "does not run".
 		return "Redox: " + r.Reaction.Text + " runs only to a trace at the final ratio (the gas it gives is counted above)"
 	}
-	return "Redox: no spontaneous reaction (" + r.Reaction.Text + " does not run)"
+	// The strongest pair on paper that does not run is for the details:
+	// in the short answer it read as a reaction that happens.
+	return "Redox: no redox reaction runs at these conditions (the pairs are in the details)"
 }
 
 // formsGas reports whether a gas of the answer's gas list is a product of
