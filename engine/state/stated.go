@@ -41,7 +41,7 @@ func (m *Model) fitPH(mx *Mix, n0 []float64, volL, target float64) ([]float64, e
 			limit = -limit
 		}
 		n := m.withAcid(mx, n0, limit)
-		if s, err := m.solve(mx, n, true, nil, volL, n); err == nil {
+		if s, err := m.solve(mx, n, true, m.formationRules(mx, n), volL, n); err == nil {
 			mx.Notes = append(mx.Notes, fmt.Sprintf("the stated pH %g is beyond what the model reaches with 20 mol/L of acid or base: pH %.2f is used", target, s.PH))
 		}
 		return n, nil
@@ -75,8 +75,12 @@ func (m *Model) withAcid(mx *Mix, n0 []float64, x float64) []float64 {
 // (Illinois) on u = asinh(x), where the pH is smooth and monotone.
 func (m *Model) titrate(mx *Mix, n0 []float64, volL, target float64) (float64, error) {
 	f := func(u float64) (float64, error) {
+		// The same solve as the mix as combined, with the locks that keep
+		// listed species from forming: without them cyanide "hydrolyses" to
+		// carbon monoxide and ammonia here and the fit adds a mole of acid
+		// per mole of cyanide.
 		n := m.withAcid(mx, n0, math.Sinh(u))
-		s, err := m.solve(mx, n, true, nil, volL, n)
+		s, err := m.solve(mx, n, true, m.formationRules(mx, n), volL, n)
 		if err != nil {
 			return 0, fmt.Errorf("fitting pH %g: %w", target, err)
 		}
