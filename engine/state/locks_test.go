@@ -62,6 +62,11 @@ func TestGroupWeights(t *testing.T) {
 		{"C(organic)", "HCO3-", 0},
 		{"C(organic)", "CN-", 0},
 		{"{OCN-, HOCN}", "OCN-", 1},
+		// copper(I) cyanide: read by the average-state rule as Cu(II) and
+		// C(+1) until its row said otherwise, which let plating liquor
+		// "reduce" its copper to metal with its own cyanide
+		{"Cu(1)", "CuCN(s)", 1},
+		{"C(2)", "CuCN(s)", 1},
 	}
 	for _, c := range cases {
 		g, err := parseGroup(c.group)
