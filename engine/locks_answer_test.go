@@ -86,3 +86,36 @@ func TestStatedPHKeepsCyanide(t *testing.T) {
 		t.Run(c.req, func(t *testing.T) { checkOutcome(t, c.req, c.want) })
 	}
 }
+
+// TestPeroxideDecomposition: hydrogen peroxide falls apart into oxygen with
+// a catalyst (iron, copper, manganese), when the mix gets hot by its own
+// heat, and when concentrated peroxide is made strongly alkaline; clean,
+// dilute, cool peroxide keeps (Bretherick's Handbook of Reactive Chemical
+// Hazards, hydrogen peroxide; from memory). Bulk metal in neutral peroxide
+// is attacked only at its surface while the peroxide decomposes on it
+// (common practice, no source).
+func TestPeroxideDecomposition(t *testing.T) {
+	cases := []struct {
+		req  string
+		want mixOutcome
+	}{
+		// 50 % peroxide into 98 % sulfuric acid boils by the heat of dilution: the peroxide then decomposes.
+		{"mix 10 L H2O2 50 % + 10 L H2SO4 98 %", mixOutcome{atLeast: map[string]float64{"O2(g)": 40}}},
+		// Copper metal catalyses; 116 mol H2O2 gives up to 58 mol O2, and the bulk metal stays.
+		{"mix 10 L H2O2 35 % + 1 kg Cu", mixOutcome{atLeast: map[string]float64{"O2(g)": 50, "Cu(s)": 15}, atMost: map[string]float64{"Cu(OH)2(s)": 0.1}}},
+		{"mix 10 L H2O2 35 % + 1 kg Fe", mixOutcome{atLeast: map[string]float64{"O2(g)": 50, "Fe(s)": 17}}},
+		{"mix 10 L H2O2 5 % + 1 kg Fe", mixOutcome{atLeast: map[string]float64{"O2(g)": 7, "Fe(s)": 17}, atMost: map[string]float64{"Fe(OH)2(s)|Fe(OH)3(s)": 0.1}}},
+		// Sulfide oxidation heats the mix to about 90 °C, where the excess peroxide goes.
+		{"mix 100 L Na2S 2 % + 20 L H2O2 35 %", mixOutcome{atLeast: map[string]float64{"O2(g)": 30}, atMost: map[string]float64{"H2O2|HO2-": 1}}},
+		// Concentrated peroxide in strong caustic: about 580 mol O2 from 1160 mol H2O2.
+		{"mix 100 L H2O2 35 % + 100 L NaOH 50 %", mixOutcome{atLeast: map[string]float64{"O2(g)": 500}}},
+		// Permanganate is reduced to manganese dioxide, which catalyses the rest.
+		{"mix 10 L H2O2 3 % + 10 L KMnO4 0.2 M", mixOutcome{atLeast: map[string]float64{"MnO2(s)": 1.9}, atMost: map[string]float64{"H2O2|HO2-": 0.1, "Mn(OH)2(s)": 0.01}}},
+		// Clean peroxide diluted with water keeps.
+		{"mix 10 L H2O2 35 % + 90 L water", mixOutcome{atLeast: map[string]float64{"H2O2": 110}, atMost: map[string]float64{"O2(g)": 0}, held: []string{"peroxide-self-decomposition"}}},
+		{"mix 10 L H2O2 35 % + 10 L NaOH 0.4 %", mixOutcome{atLeast: map[string]float64{"H2O2|HO2-": 110}, atMost: map[string]float64{"O2(g)": 0}}},
+	}
+	for _, c := range cases {
+		t.Run(c.req, func(t *testing.T) { checkOutcome(t, c.req, c.want) })
+	}
+}

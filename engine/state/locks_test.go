@@ -187,3 +187,28 @@ func TestConcCondition(t *testing.T) {
 		t.Error("a conc condition without its closing parenthesis parsed")
 	}
 }
+
+// TestReachCondition: "reach" is the temperature the mix reaches by its own
+// heat, never below the starting temperature.
+func TestReachCondition(t *testing.T) {
+	cases := []struct {
+		tempC, reachC float64
+		cond          string
+		want          bool
+	}{
+		{25, 0, "reach<60", true},
+		{25, 90, "reach<60", false},
+		{70, 0, "reach>=60", true},
+		{25, 59, "reach>=60", false},
+		{25, 90, "t<60 and reach>=60", true},
+	}
+	for _, c := range cases {
+		got, err := parseCond(c.cond)
+		if err != nil {
+			t.Fatalf("parseCond(%q): %v", c.cond, err)
+		}
+		if h := got.Holds(Env{TempC: c.tempC, ReachC: c.reachC}); h != c.want {
+			t.Errorf("%q at %g °C reaching %g °C = %v, want %v", c.cond, c.tempC, c.reachC, h, c.want)
+		}
+	}
+}
