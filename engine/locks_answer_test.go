@@ -119,3 +119,25 @@ func TestPeroxideDecomposition(t *testing.T) {
 		t.Run(c.req, func(t *testing.T) { checkOutcome(t, c.req, c.want) })
 	}
 }
+
+// TestThiosulfateLocks: thiosulfate gives sulfur and bisulfite or sulfur
+// dioxide in acid, as far as the acid goes, and tetrathionate only with an
+// oxidizing agent; in neutral or alkaline solution neither it nor dithionite
+// splits into sulfur and sulfate (Vogel's Textbook of Macro and Semimicro
+// Qualitative Inorganic Analysis, thiosulfate; from memory).
+func TestThiosulfateLocks(t *testing.T) {
+	cases := []struct {
+		req  string
+		want mixOutcome
+	}{
+		{"mix 100 L sodium thiosulfate 10 % + 20 L HCl 10 %", mixOutcome{
+			atLeast: map[string]float64{"S(s)": 10, "H2SO3|HSO3-|SO2(g)": 10},
+			atMost:  map[string]float64{"S4O6^2-": 0.01, "SO4^2-|HSO4-|NaSO4-": 0.01}}},
+		{"mix 100 L Na2S2O3 10 % + 20 L NaOCl 12.5 %", mixOutcome{atLeast: map[string]float64{"SO4^2-|HSO4-|NaSO4-": 10}, atMost: map[string]float64{"S(s)": 0.01}}},
+		{"mix 100 L Na2S2O3 10 % + 1000 L NaOCl 200 ppm", mixOutcome{atMost: map[string]float64{"S(s)": 0.01, "OCl-|HOCl": 0.01}}},
+		{"mix 100 L Na2S2O4 5 % + 10 L NaOCl 12.5 %", mixOutcome{atMost: map[string]float64{"S(s)": 0.01}}},
+	}
+	for _, c := range cases {
+		t.Run(c.req, func(t *testing.T) { checkOutcome(t, c.req, c.want) })
+	}
+}
