@@ -141,3 +141,33 @@ func TestThiosulfateLocks(t *testing.T) {
 		t.Run(c.req, func(t *testing.T) { checkOutcome(t, c.req, c.want) })
 	}
 }
+
+// TestNitrateLocks: dilute nitric acid does not oxidize peroxide; iron and
+// aluminium are passivated by concentrated nitric acid; metals reduce
+// nitric acid only while the acid lasts, to nitric oxide rather than
+// nitrite (Vogel's Textbook of Macro and Semimicro Qualitative Inorganic
+// Analysis, copper with nitric acid: 3 Cu + 8 H+ + 2 NO3- → 3 Cu2+ + 2 NO +
+// 4 H2O; Greenwood & Earnshaw, passivation; from memory).
+func TestNitrateLocks(t *testing.T) {
+	cases := []struct {
+		req  string
+		want mixOutcome
+	}{
+		{"mix 1000 L HNO3 1 % + 10 L H2O2 35 %", mixOutcome{
+			atLeast: map[string]float64{"H2O2": 110, "NO3-": 150},
+			atMost:  map[string]float64{"NO(g)|NO|NO2(g)|HNO2": 0.01, "O2(g)": 0},
+			held:    []string{"nitrate-needs-strong-reducer"}}},
+		{"mix 1 kg Fe + 10 L HNO3 68 %", mixOutcome{atLeast: map[string]float64{"Fe(s)": 17.9}, atMost: map[string]float64{"NO(g)|NO2(g)|N2O4(g)": 0}, held: []string{"nitric-passivation-iron"}}},
+		{"mix 1 kg Al + 10 L HNO3 68 %", mixOutcome{atLeast: map[string]float64{"Al(s)": 37}, atMost: map[string]float64{"NO(g)|NO2(g)|N2O4(g)": 0}, held: []string{"nitric-passivation-aluminium"}}},
+		// 16.3 mol HNO3 dissolve about 6.1 mol Cu and give about 4.1 mol NO; no copper hydroxide with acid left.
+		{"mix 1 kg Cu + 10 L HNO3 10 %", mixOutcome{
+			atLeast: map[string]float64{"NO(g)": 3.8, "Cu^2+": 5.5},
+			atMost:  map[string]float64{"NO(g)": 4.5, "Cu(OH)2(s)": 0.01}}},
+		{"mix 1 kg Zn + 100 L HNO3 2 %", mixOutcome{atMost: map[string]float64{"NO2-|HNO2": 0.01}}},
+		// Concentrated nitric acid still gives nitrogen dioxide with copper.
+		{"mix 1 kg Cu + 10 L HNO3 68 %", mixOutcome{atLeast: map[string]float64{"NO2(g)|N2O4(g)": 15}}},
+	}
+	for _, c := range cases {
+		t.Run(c.req, func(t *testing.T) { checkOutcome(t, c.req, c.want) })
+	}
+}

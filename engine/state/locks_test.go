@@ -212,3 +212,17 @@ func TestReachCondition(t *testing.T) {
 		}
 	}
 }
+
+// TestAcidAllowancePer: an acid allowance may count K atoms per proton.
+func TestAcidAllowancePer(t *testing.T) {
+	r, err := parseRule("no-gain N(-3..4) + acid to ph 3 x 0.25")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.AcidTo == nil || *r.AcidTo != 3 || r.Per != 0.25 {
+		t.Errorf("parsed %+v, want acid to pH 3 at 0.25 per proton", r)
+	}
+	if _, err := parseRule("no-gain N(-3..4) + acid to ph 3 x 0"); err == nil {
+		t.Error("x 0 accepted")
+	}
+}

@@ -186,7 +186,7 @@ func (m *Model) acidAllowances(mx *Mix, applied []*Lock, st *State, n0 []float64
 				if err != nil || x >= 0 {
 					continue
 				}
-				spend = -x // the base it takes to reach the pH: the acid that can be spent
+				spend = -x * r.Per // the base it takes to reach the pH: the acid that can be spent
 			case r.BaseTo != nil && combined.PH > *r.BaseTo:
 				x, err := m.titrate(mx, n0, volL, *r.BaseTo)
 				if err != nil || x <= 0 {
