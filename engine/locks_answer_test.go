@@ -188,3 +188,21 @@ func TestChlorateHeldBack(t *testing.T) {
 		t.Run(c.req, func(t *testing.T) { checkOutcome(t, c.req, c.want) })
 	}
 }
+
+// TestCyanideStopsAtCyanate: at pH 10 and above, hypochlorite and peroxide
+// take cyanide to cyanate (alkaline chlorination, first stage) and no
+// cyanogen chloride survives (it hydrolyses to cyanate above pH 10); common
+// practice, no source; Vogel, cyanide reactions, from memory.
+func TestCyanideStopsAtCyanate(t *testing.T) {
+	cases := []struct {
+		req  string
+		want mixOutcome
+	}{
+		{"mix 1000 L NaCN 1 g/L, pH 11 + 50 L NaOCl 12.5 %", mixOutcome{phMin: 10, atLeast: map[string]float64{"OCN-": 19}, atMost: map[string]float64{"CNCl(g)|CNCl": 0, "N2(g)|N2": 0, "HCN|CN-": 0.1}}},
+		{"mix 100 L NaCN 0.5 %, pH 12 + 10 L H2O2 35 %", mixOutcome{phMin: 9.5, atLeast: map[string]float64{"OCN-": 9.5}, atMost: map[string]float64{"HCN|CN-": 0.1}}},
+		{"mix 100 L NaCN 0.5 %, pH 11 + 5 L H2O2 10 %", mixOutcome{phMin: 10, atLeast: map[string]float64{"OCN-": 9.5}, atMost: map[string]float64{"HCN|CN-": 0.1}}},
+	}
+	for _, c := range cases {
+		t.Run(c.req, func(t *testing.T) { checkOutcome(t, c.req, c.want) })
+	}
+}
