@@ -206,3 +206,14 @@ func TestCyanideStopsAtCyanate(t *testing.T) {
 		t.Run(c.req, func(t *testing.T) { checkOutcome(t, c.req, c.want) })
 	}
 }
+
+// TestHotMixStreamsStayCold: the temperature a mix reaches by its own heat
+// undoes locks in the mix, never in a stream alone before it is poured.
+func TestHotMixStreamsStayCold(t *testing.T) {
+	r := ask(t, "mix 100 L Na2S 2 % + 20 L H2O2 35 %")
+	for _, s := range r.Species {
+		if s.Text == "O2(g)" && s.Mol > 0 {
+			t.Errorf("the mix as combined already holds %.3g mol O2(g): the peroxide stream decomposed by itself", s.Mol)
+		}
+	}
+}

@@ -108,7 +108,9 @@ func (m *Model) Solve(f Feed) (*Mix, error) {
 	if f.TempK <= 0 || f.PressureBar <= 0 {
 		return nil, fmt.Errorf("state: temperature %g K and pressure %g bar must be positive", f.TempK, f.PressureBar)
 	}
-	mx := &Mix{TempK: f.TempK, Pressure: f.PressureBar, ReachedC: f.ReachedC}
+	// Each stream alone stays at the starting temperature: only the mix
+	// is judged at the temperature its own heat takes it to.
+	mx := &Mix{TempK: f.TempK, Pressure: f.PressureBar}
 	mx.Species = m.candidates(f)
 	index := map[*thermo.Species]int{}
 	for i, sp := range mx.Species {
@@ -156,6 +158,7 @@ func (m *Model) Solve(f Feed) (*Mix, error) {
 		mx.Streams[si] = s
 		addTo(mx.Initial, s.Amount)
 	}
+	mx.ReachedC = f.ReachedC
 	if f.PH != nil {
 		n, err := m.fitPH(mx, mx.Initial, mx.VolumeL, *f.PH)
 		if err != nil {
