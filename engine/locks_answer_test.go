@@ -217,3 +217,25 @@ func TestHotMixStreamsStayCold(t *testing.T) {
 		}
 	}
 }
+
+// TestProductsAtFinalPH: products that cannot stand at the mix's pH or do
+// not form in a tank: aluminate, not aluminium hydroxide, in strong caustic
+// (Pourbaix, Atlas of Electrochemical Equilibria 1974, aluminium); tin(II),
+// not cassiterite, from tin in hydrochloric acid (Vogel, tin); sulfur, not
+// sulfate, from sulfide with iron(III) (Vogel, sulfides); all from memory.
+func TestProductsAtFinalPH(t *testing.T) {
+	cases := []struct {
+		req  string
+		want mixOutcome
+	}{
+		{"mix 1 kg Al + 20 L NaOH 20 %", mixOutcome{atLeast: map[string]float64{"Al(OH)4-": 36}, atMost: map[string]float64{"Al(OH)3(s)": 0.01}}},
+		// 1 kg Sn is 8.4 mol: at most 8.4 mol H2.
+		{"mix 1 kg Sn + 20 L HCl 10 %", mixOutcome{atLeast: map[string]float64{"Sn^2+|SnOH+": 8}, atMost: map[string]float64{"SnO2(s)": 0, "H2(g)": 8.6}}},
+		{"mix 100 L Na2S 5 % + 100 L FeCl3 40 %", mixOutcome{atLeast: map[string]float64{"S(s)": 50}, atMost: map[string]float64{"SO4^2-|HSO4-|NaSO4-|H2SO3|HSO3-|S4O6^2-|S2O3^2-": 0.01}}},
+		// A strong oxidizing agent still takes sulfide to sulfate.
+		{"mix 100 L Na2S 2 % + 20 L H2O2 35 %", mixOutcome{atLeast: map[string]float64{"SO4^2-|HSO4-|NaSO4-": 20}}},
+	}
+	for _, c := range cases {
+		t.Run(c.req, func(t *testing.T) { checkOutcome(t, c.req, c.want) })
+	}
+}
