@@ -166,6 +166,8 @@ func TestNitrateLocks(t *testing.T) {
 		{"mix 1 kg Zn + 100 L HNO3 2 %", mixOutcome{atMost: map[string]float64{"NO2-|HNO2": 0.01}}},
 		// Concentrated nitric acid still gives nitrogen dioxide with copper.
 		{"mix 1 kg Cu + 10 L HNO3 68 %", mixOutcome{atLeast: map[string]float64{"NO2(g)|N2O4(g)": 15}}},
+		// Copper in excess: 720 mol HNO3 at four per copper give about 180 mol Cu^2+ and 360 N as NO2/N2O4; copper(I) oxide (60 mol before) at most a trace.
+		{"Cu + 50 L HNO3 65 %", mixOutcome{atLeast: map[string]float64{"Cu^2+": 170}, atMost: map[string]float64{"Cu2O(s)|CuO(s)|Cu(OH)2(s)": 1, "Cu^2+": 190}}},
 	}
 	for _, c := range cases {
 		t.Run(c.req, func(t *testing.T) { checkOutcome(t, c.req, c.want) })
