@@ -164,6 +164,8 @@ func TestNitrateLocks(t *testing.T) {
 			atLeast: map[string]float64{"NO(g)": 3.8, "Cu^2+": 5.5},
 			atMost:  map[string]float64{"NO(g)": 4.5, "Cu(OH)2(s)": 0.01}}},
 		{"mix 1 kg Zn + 100 L HNO3 2 %", mixOutcome{atMost: map[string]float64{"NO2-|HNO2": 0.01}}},
+		// A little nitric acid in concentrated hydrochloric acid still oxidizes chloride (aqua regia).
+		{"mix 10 L HCl 37 % + 0.5 L HNO3 65 %", mixOutcome{atLeast: map[string]float64{"Cl2|Cl2(g)": 1e-6, "NO2|NO2(g)|N2O4(g)|NO(g)|NO": 1e-6}, notHeld: []string{"nitrate-needs-strong-reducer"}}},
 		// Concentrated nitric acid still gives nitrogen dioxide with copper.
 		{"mix 1 kg Cu + 10 L HNO3 68 %", mixOutcome{atLeast: map[string]float64{"NO2(g)|N2O4(g)": 15}}},
 		// Copper in excess: 720 mol HNO3 at four per copper give about 180 mol Cu^2+ and 360 N as NO2/N2O4; copper(I) oxide (60 mol before) at most a trace.
