@@ -183,7 +183,7 @@ func (e *Engine) predict(req *Request, full bool) (*Result, error) {
 	if err != nil {
 		return nil, err
 	}
-	mx, err := e.Model.Solve(feed)
+	mx, err := e.solveHot(feed, m)
 	if err != nil {
 		return nil, unsolved(err)
 	}
@@ -215,6 +215,28 @@ func (e *Engine) predict(req *Request, full bool) (*Result, error) {
 	res.Heat = heatOut(mx, m, e.Tables)
 	e.finish(res, m, mx)
 	return res, nil
+}
+
+// solveHot solves the feed, and once more when the mix's own heat takes it
+// past a temperature that decides a lock (peroxide that a hot mix
+// decomposes): the locks are then judged at the temperature reached, the
+// equilibrium constants still at the starting temperature.
+func (e *Engine) solveHot(feed state.Feed, m *mixture) (*state.Mix, error) {
+	mx, err := e.Model.Solve(feed)
+	if err != nil {
+		return nil, err
+	}
+	h := heatOut(mx, m, e.Tables)
+	if h.TemperatureReachedC == nil || !e.Model.HeatDecides(mx, *h.TemperatureReachedC) {
+		return mx, nil
+	}
+	feed.ReachedC = h.TemperatureReachedC
+	hot, err := e.Model.Solve(feed)
+	if err != nil {
+		return nil, err
+	}
+	hot.Notes = append(hot.Notes, fmt.Sprintf("the mix's own heat takes it to about %.0f °C, hot enough to undo a kinetic lock; the mix is judged with the locks as they stand at that temperature", *h.TemperatureReachedC))
+	return hot, nil
 }
 
 // baseResult holds what every answer carries before any chemistry.

@@ -173,8 +173,11 @@ func TestFalseAlarmsRemoved(t *testing.T) {
 		{"no boiling from a stated bath temperature", "mix 1 L HCl 10 % + 1 L water at 90 C", []string{"boils", "scalding-heat", "warms"},
 			"a stated temperature alone never raises a heat hazard"},
 		{"no acid-cyanide alarm when peroxide destroys cyanide at pH 10.6, no acid present",
-			"mix 600 L CuCN 22 g/L, NaCN 30 g/L, NaOH 5 g/L + 1000 L H2O2 3 %", []string{"hcn-release", "oxygen-release"},
-			"the cyanide is oxidised to cyanate; no acid is present; peroxide does not decompose without a catalyst"},
+			"mix 600 L CuCN 22 g/L, NaCN 30 g/L, NaOH 5 g/L + 1000 L H2O2 3 %", []string{"hcn-release"},
+			"the cyanide is oxidised to cyanate; no acid is present (copper does catalyse the decomposition of the excess peroxide, so oxygen is expected here)"},
+		{"no oxygen alarm when peroxide destroys cyanide without a catalyst",
+			"mix 600 L NaCN 30 g/L, NaOH 5 g/L + 1000 L H2O2 3 %", []string{"hcn-release", "oxygen-release"},
+			"the cyanide is oxidised to cyanate; peroxide does not decompose without a catalyst"},
 		{"no acid-cyanide alarm in alkaline cyanide without acid", "mix 10 L NaCN 0.01 M, NaOH 0.01 M + 10 L water", []string{"hcn-release"},
 			"pH above 11: a trace of HCN in the headspace, below a tenth of the IDLH"},
 	} {

@@ -39,6 +39,10 @@ type Feed struct {
 	TempK       float64
 	PressureBar float64
 	PH          *float64 // a pH stated for the whole mix as combined
+	// ReachedC, when set, is the temperature (°C) the mix reaches by its
+	// own heat, found from an earlier solve: lock conditions on "reach"
+	// are judged against it (peroxide that a hot mix decomposes).
+	ReachedC *float64
 }
 
 // Model holds the species data and the locks. It is safe for concurrent use.
@@ -92,7 +96,8 @@ type Mix struct {
 	Final    *State    // the mix at equilibrium under the locks
 	VolumeL  float64
 	TempK    float64
-	Pressure float64 // bar
+	Pressure float64  // bar
+	ReachedC *float64 // the temperature the mix reaches by its own heat, when given (Feed.ReachedC)
 }
 
 // ErrNoLiquid is returned for a feed with no water at all: nothing dissolves.
@@ -103,6 +108,8 @@ func (m *Model) Solve(f Feed) (*Mix, error) {
 	if f.TempK <= 0 || f.PressureBar <= 0 {
 		return nil, fmt.Errorf("state: temperature %g K and pressure %g bar must be positive", f.TempK, f.PressureBar)
 	}
+	// Each stream alone stays at the starting temperature: only the mix
+	// is judged at the temperature its own heat takes it to.
 	mx := &Mix{TempK: f.TempK, Pressure: f.PressureBar}
 	mx.Species = m.candidates(f)
 	index := map[*thermo.Species]int{}
@@ -151,6 +158,7 @@ func (m *Model) Solve(f Feed) (*Mix, error) {
 		mx.Streams[si] = s
 		addTo(mx.Initial, s.Amount)
 	}
+	mx.ReachedC = f.ReachedC
 	if f.PH != nil {
 		n, err := m.fitPH(mx, mx.Initial, mx.VolumeL, *f.PH)
 		if err != nil {

@@ -75,6 +75,10 @@ func (m *Model) withAcid(mx *Mix, n0 []float64, x float64) []float64 {
 // (Illinois) on u = asinh(x), where the pH is smooth and monotone.
 func (m *Model) titrate(mx *Mix, n0 []float64, volL, target float64) (float64, error) {
 	f := func(u float64) (float64, error) {
+		// The same solve as the mix as combined, with the locks that keep
+		// listed species from forming: without them cyanide "hydrolyses" to
+		// carbon monoxide and ammonia here and the fit adds a mole of acid
+		// per mole of cyanide.
 		n := m.withAcid(mx, n0, math.Sinh(u))
 		s, err := m.solveCombined(mx, n, volL)
 		if err != nil {
