@@ -114,6 +114,10 @@ func heatLine(r *engine.Result) string {
 
 func reactionLine(r *engine.Result) string {
 	switch {
+	case r.Reaction == nil && len(r.HeldBack) > 0 && r.HeldBack[0].Reaction != nil:
+		hb := r.HeldBack[0]
+		reason, _, _ := strings.Cut(hb.Reason, ":")
+		return "Redox: " + hb.Reaction.Text + " possible on paper, held back: " + reason
 	case r.Reaction == nil:
 		return "Redox: no oxidizing and reducing agent pair"
 	case r.Verdict == engine.Spontaneous && r.Decision != nil && held(r.Decision.Held, r.Reaction.Text):

@@ -49,6 +49,7 @@ func FromResult(r *engine.Result, t *engine.Tables) *Outcome {
 			}
 		}
 	}
+	o.fromState = r.Conditions.PHFinal != nil
 	headRuns := o.reactions(r)
 	o.After = o.Before
 	if headRuns {
@@ -179,9 +180,12 @@ func (o *Outcome) consider(lbl string, rx *engine.Reaction, eCell float64, hinde
 		reason = "E cell within the uncertainty of the potential table (not above +0.05 V): not counted as proceeding"
 	case hindered:
 		reason = "kinetically hindered at these conditions"
-	case o.uncatalysedOxygen(p):
+	case !o.fromState && o.uncatalysedOxygen(p):
+		// An answer from the equilibrium state has its kinetic locks
+		// applied already (a hot or catalysed peroxide does give oxygen);
+		// this rule is for answers of the table method alone.
 		reason = "oxygen from hypochlorite or peroxide alone needs a catalyst (Cu, Ni, Co, Fe, Mn ions) or heat; none is present, so it is slow at plant temperature"
-	case producesGas(p, "H2") && hasReactant(p, "BH4-") && o.PH >= 10:
+	case !o.fromState && producesGas(p, "H2") && hasReactant(p, "BH4-") && o.PH >= 10:
 		reason = "borohydride hydrolyses only slowly above about pH 10 (it is stored in caustic for that reason: Bretherick's Handbook, sodium tetrahydroborate, from memory)"
 	case producesGas(p, "Cl2") && o.PH >= 5:
 		reason = "chlorine does not persist above about pH 5 (it hydrolyses to hypochlorous acid and chloride); chlorine is judged from that equilibrium instead"

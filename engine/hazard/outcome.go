@@ -101,6 +101,8 @@ type Outcome struct {
 	// headspace and the headspace concentration. A measured gas is judged
 	// on these numbers, not estimated from its dissolved pool.
 	Measured map[string]MeasuredGas
+
+	fromState bool // filled from the equilibrium state, whose kinetic locks are applied
 }
 
 // MeasuredGas is a gas as the mixed state has it.
