@@ -49,6 +49,8 @@ type Feed struct {
 type Model struct {
 	DB    *thermo.DB
 	Locks []Lock
+
+	streams *streamCache // each stream alone per litre (see streamCache)
 }
 
 // NewModel reads data/locks.txt from fsys.
@@ -67,7 +69,7 @@ func NewModel(db *thermo.DB, fsys fs.FS) (*Model, error) {
 			return nil, err
 		}
 	}
-	return &Model{DB: db, Locks: locks}, nil
+	return &Model{DB: db, Locks: locks, streams: newStreamCache()}, nil
 }
 
 // State is one solved state.
@@ -140,18 +142,11 @@ func (m *Model) Solve(f Feed) (*Mix, error) {
 	mx.Initial = make([]float64, len(mx.Species))
 	mx.Streams = make([]*State, len(f.Streams))
 	for si, st := range f.Streams {
-		n0 := m.feedVector(mx, index, st, excess)
 		if st.WaterMol <= 0 {
-			addTo(mx.Initial, n0)
+			addTo(mx.Initial, m.feedVector(mx, index, st, excess))
 			continue
 		}
-		if st.PH != nil {
-			var err error
-			if n0, err = m.fitPH(mx, n0, st.VolumeL, *st.PH); err != nil {
-				return nil, fmt.Errorf("stream %d (%s): %w", si+1, st.Label, err)
-			}
-		}
-		s, err := m.solveLocked(mx, n0, st.VolumeL)
+		s, err := m.streamAlone(mx, index, st, excess)
 		if err != nil {
 			return nil, fmt.Errorf("stream %d (%s): %w", si+1, st.Label, err)
 		}
@@ -173,6 +168,56 @@ func (m *Model) Solve(f Feed) (*Mix, error) {
 	mx.Final = final
 	mx.Combined = final.combined
 	return mx, nil
+}
+
+// streamAlone is a stream's own state, fitted to its stated pH, from the
+// cache when the same stream per litre was solved before.
+//
+// A stream that can be kept is always solved for one litre and scaled, so
+// that its state does not depend on which volume of it was asked first.
+func (m *Model) streamAlone(mx *Mix, index map[*thermo.Species]int, st Stream, excess float64) (*State, error) {
+	key, unit := "", st
+	if st.VolumeL > 0 {
+		unit = st.perLitre()
+		key = m.streams.key(mx, unit)
+	}
+	if s, notes, ok := m.streams.get(key, st.VolumeL); ok {
+		mx.Notes = append(mx.Notes, notes...)
+		return s, nil
+	}
+	vol, n0 := 1.0, m.feedVector(mx, index, unit, excess)
+	if key == "" {
+		vol, n0 = st.VolumeL, m.feedVector(mx, index, st, excess)
+	}
+	before := len(mx.Notes)
+	if st.PH != nil {
+		var err error
+		if n0, err = m.fitPH(mx, n0, vol, *st.PH); err != nil {
+			return nil, err
+		}
+	}
+	s, err := m.solveLocked(mx, n0, vol)
+	if err != nil {
+		return nil, err
+	}
+	if key == "" {
+		return s, nil
+	}
+	m.streams.put(key, s, 1, mx.Notes[before:])
+	return s.scaled(st.VolumeL), nil
+}
+
+// perLitre is the stream scaled to one litre: the key of the cache and the
+// input of its solve are made from the same numbers.
+func (st Stream) perLitre() Stream {
+	u := st
+	u.VolumeL, u.WaterMol = 1, st.WaterMol/st.VolumeL
+	u.Items = make([]Item, len(st.Items))
+	for i, it := range st.Items {
+		it.Mol /= st.VolumeL
+		u.Items[i] = it
+	}
+	return u
 }
 
 func addTo(dst, src []float64) {

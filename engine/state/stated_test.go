@@ -47,3 +47,38 @@ func TestStatedPHHolds(t *testing.T) {
 		}
 	}
 }
+
+// A stream alone is solved for one litre and scaled: its state per litre is
+// the same whatever volume of it was solved first, so an answer does not
+// depend on what was asked before it (the cache of streams alone).
+func TestStreamAloneDoesNotDependOnHistory(t *testing.T) {
+	solve := func(m *Model, volL float64) []float64 {
+		ph := 11.0
+		st := Stream{Label: "cyanide", WaterMol: water(volL), VolumeL: volL, PH: &ph,
+			Items: []Item{item(t, m, "Na+", 0.2*volL), item(t, m, "CN-", 0.2*volL)}}
+		mx, err := m.Solve(Feed{TempK: 298.15, PressureBar: 1.01325, Streams: []Stream{st}})
+		if err != nil {
+			t.Fatal(err)
+		}
+		return scaleAll(mx.Streams[0].Amount, 1/volL)
+	}
+	fresh := func() *Model {
+		m, err := NewModel(loadDB(t), dataFS())
+		if err != nil {
+			t.Fatal(err)
+		}
+		return m
+	}
+	a := fresh()
+	first := solve(a, 600)
+	solve(a, 0.6)
+	again := solve(a, 600)
+	b := fresh()
+	solve(b, 0.6)
+	other := solve(b, 600)
+	for i := range first {
+		if first[i] != again[i] || math.Abs(first[i]-other[i]) > 1e-9*math.Abs(first[i]) {
+			t.Fatalf("species %d per litre: %g, then %g, after another volume first %g", i, first[i], again[i], other[i])
+		}
+	}
+}
