@@ -53,7 +53,16 @@ func Steps(db *thermo.DB, mx *state.Mix) ([]Step, error) {
 	}
 	var out []Step
 	var firstErr error
-	for _, m := range matches {
+	// The largest change is written in the medium of the mix as combined,
+	// where its E is worked out; the smaller ones happen on the way to the
+	// mixed state and are written in its medium (chlorine formed as a
+	// falling pH passes neutral is not written beside hydroxide).
+	combinedMed, finalMed := x.med, MediumAt(db, mx.Final.PH, mx.TempK)
+	for k, m := range matches {
+		x.med = combinedMed
+		if k > 0 {
+			x.med = finalMed
+		}
 		st, err := x.step(m)
 		if err != nil {
 			if firstErr == nil {
