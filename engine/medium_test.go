@@ -32,3 +32,26 @@ func TestStepsWrittenInTheirMedium(t *testing.T) {
 		}
 	}
 }
+
+// TestCrossReactionHeadsTheAnswer: iron(II) with an excess of strong
+// peroxide oxidizes the iron first (Fenton; Vogel's Textbook, iron(II) with
+// hydrogen peroxide, from memory); the iron then catalyses the peroxide's
+// own breakdown, which moves more electrons but is not what reacts with
+// what. The headline is the iron oxidation; the breakdown follows.
+func TestCrossReactionHeadsTheAnswer(t *testing.T) {
+	e := mustEngine(t)
+	r, err := e.Ask("mix 100 L FeSO4 0.5 M + 100 L H2O2 35 %", engine.AskOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.Reducer == nil || r.Reducer.Species != "Fe^2+" {
+		t.Fatalf("headline %v, reducer %+v; want iron(II) oxidized", r.Reaction, r.Reducer)
+	}
+	found := false
+	for _, a := range r.Alternatives {
+		found = found || a.Oxidizer != nil && a.Reducer != nil && a.Oxidizer.Species == "H2O2" && a.Reducer.Species == "H2O2"
+	}
+	if !found {
+		t.Errorf("the peroxide's own breakdown is not among the other changes: %+v", r.Alternatives)
+	}
+}

@@ -43,7 +43,7 @@ type Step struct {
 // most electrons first. A mix without any redox change gives none.
 func Steps(db *thermo.DB, mx *state.Mix) ([]Step, error) {
 	ts := Transfers(mx.Species, mx.Combined.Amount, mx.Final.Amount)
-	matches := significant(mx, Pairs(ts, 1e-4))
+	matches := crossFirst(significant(mx, Pairs(ts, 1e-4)))
 	if len(matches) == 0 {
 		return nil, nil
 	}
@@ -76,6 +76,30 @@ func Steps(db *thermo.DB, mx *state.Mix) ([]Step, error) {
 		return nil, fmt.Errorf("%w: %v", ErrUnexplained, firstErr)
 	}
 	return out, nil
+}
+
+// crossFirst puts first the largest change between two different agents
+// when the largest of all is an agent reacting with itself (peroxide or
+// hypochlorite falling apart, sulfur species disproportionating): what
+// reacts with what is the answer's headline; the self-reaction follows as
+// the next change, with its amounts. The order is otherwise kept.
+func crossFirst(ms []Match) []Match {
+	if len(ms) < 2 || !selfReaction(ms[0]) {
+		return ms
+	}
+	for i := 1; i < len(ms); i++ {
+		if !selfReaction(ms[i]) {
+			out := append([]Match{ms[i]}, ms[:i]...)
+			return append(out, ms[i+1:]...)
+		}
+	}
+	return ms
+}
+
+// selfReaction reports whether one element in one oxidation state is both
+// reduced and oxidized (2 H2O2 → 2 H2O + O2).
+func selfReaction(m Match) bool {
+	return m.Red.Element == m.Ox.Element && m.Red.From == m.Ox.From
 }
 
 // ErrUnexplained is a mixed state whose changes of oxidation state cannot
