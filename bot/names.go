@@ -1,0 +1,126 @@
+package bot
+
+import (
+	"context"
+	"log/slog"
+	"strings"
+	"sync"
+	"time"
+
+	"github.com/slack-go/slack"
+)
+
+// NameAPI is the part of the Slack Web API that names people and
+// channels (users:read, channels:read and groups:read). *slack.Client
+// implements it.
+type NameAPI interface {
+	GetUserInfoContext(ctx context.Context, user string, options ...slack.GetUserInfoOption) (*slack.User, error)
+	GetConversationInfoContext(ctx context.Context, input *slack.GetConversationInfoInput) (*slack.Channel, error)
+}
+
+// NameNoter records the name seen for an id at a time. *store.DB
+// implements it (the log keeps ids; this labels them).
+type NameNoter interface {
+	NoteName(ctx context.Context, id, name string, at time.Time) error
+}
+
+// Names resolves Slack user and channel ids to the names people see,
+// caching each answer for TTL (Slack rate-limits these methods) and noting
+// every name it learns in Note. A failed lookup leaves the id as it is
+// and serves an older cached name when there is one.
+type Names struct {
+	API  NameAPI
+	Note NameNoter // may be nil
+	TTL  time.Duration
+	Now  func() time.Time
+	Log  *slog.Logger
+
+	mu    sync.Mutex
+	cache map[string]nameEntry
+}
+
+type nameEntry struct {
+	name string
+	at   time.Time
+}
+
+// DefaultNameTTL is how long a looked-up name is used before asking again.
+const DefaultNameTTL = time.Hour
+
+func (n *Names) now() time.Time {
+	if n.Now != nil {
+		return n.Now()
+	}
+	return time.Now()
+}
+
+// User is the display name of a user id ("" when it cannot be found).
+func (n *Names) User(ctx context.Context, id string) string {
+	return n.lookup(ctx, id, func(ctx context.Context) (string, error) {
+		u, err := n.API.GetUserInfoContext(ctx, id)
+		if err != nil {
+			return "", err
+		}
+		for _, s := range []string{u.Profile.DisplayName, u.Profile.RealName, u.RealName, u.Name} {
+			if s = strings.TrimSpace(s); s != "" {
+				return s, nil
+			}
+		}
+		return "", nil
+	})
+}
+
+// Channel is "#name" for a channel id, "direct message" for a DM ("" when
+// it cannot be found).
+func (n *Names) Channel(ctx context.Context, id string) string {
+	return n.lookup(ctx, id, func(ctx context.Context) (string, error) {
+		c, err := n.API.GetConversationInfoContext(ctx, &slack.GetConversationInfoInput{ChannelID: id})
+		switch {
+		case err != nil:
+			return "", err
+		case c.IsIM:
+			return "direct message", nil
+		case c.Name != "":
+			return "#" + c.Name, nil
+		}
+		return "", nil
+	})
+}
+
+func (n *Names) lookup(ctx context.Context, id string, ask func(context.Context) (string, error)) string {
+	if n == nil || n.API == nil || id == "" || id == ConsoleUser {
+		return ""
+	}
+	ttl := n.TTL
+	if ttl <= 0 {
+		ttl = DefaultNameTTL
+	}
+	now := n.now()
+	n.mu.Lock()
+	e, ok := n.cache[id]
+	n.mu.Unlock()
+	if ok && now.Sub(e.at) < ttl {
+		return e.name
+	}
+	ctx, cancel := context.WithTimeout(ctx, 5*time.Second)
+	defer cancel()
+	name, err := ask(ctx)
+	if err != nil {
+		if n.Log != nil {
+			n.Log.Warn("name lookup failed", "id", id, "err", err, "stale_cache", ok)
+		}
+		return e.name
+	}
+	n.mu.Lock()
+	if n.cache == nil || len(n.cache) > 10000 {
+		n.cache = map[string]nameEntry{}
+	}
+	n.cache[id] = nameEntry{name: name, at: now}
+	n.mu.Unlock()
+	if n.Note != nil && name != "" {
+		if err := n.Note.NoteName(ctx, id, name, now); err != nil && n.Log != nil {
+			n.Log.Warn("name not noted", "id", id, "err", err)
+		}
+	}
+	return name
+}
