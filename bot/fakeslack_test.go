@@ -274,21 +274,32 @@ func (f *fakeSlack) serve(w http.ResponseWriter, r *http.Request) {
 		f.mu.Unlock()
 		f.reply(w, map[string]any{"ok": true, "files": []map[string]any{{"id": "F1", "title": title}}})
 	case "views.open", "views.update":
-		var view map[string]any
-		if err := json.Unmarshal([]byte(r.Form.Get("view")), &view); err != nil {
+		// slack-go posts these as JSON.
+		var req struct {
+			TriggerID string         `json:"trigger_id"`
+			ViewID    string         `json:"view_id"`
+			Hash      string         `json:"hash"`
+			View      map[string]any `json:"view"`
+		}
+		if err := json.NewDecoder(r.Body).Decode(&req); err != nil || req.View == nil {
 			f.reply(w, map[string]any{"ok": false, "error": "invalid_arguments"})
 			return
 		}
-		if method == "views.open" && r.Form.Get("trigger_id") == "" {
+		if method == "views.open" && req.TriggerID == "" {
 			f.reply(w, map[string]any{"ok": false, "error": "invalid_trigger_id"})
 			return
 		}
+		if method == "views.update" && req.Hash != "h-"+req.ViewID {
+			f.reply(w, map[string]any{"ok": false, "error": "hash_conflict"})
+			return
+		}
+		view := req.View
 		f.mu.Lock()
-		id := r.Form.Get("view_id")
+		id := req.ViewID
 		if id == "" {
 			id = fmt.Sprintf("V%03d", len(f.views)+1)
 		}
-		f.views = append(f.views, fakeView{Method: method, TriggerID: r.Form.Get("trigger_id"), ViewID: id, View: view})
+		f.views = append(f.views, fakeView{Method: method, TriggerID: req.TriggerID, ViewID: id, View: view})
 		f.mu.Unlock()
 		view["id"], view["hash"] = id, "h-"+id
 		f.reply(w, map[string]any{"ok": true, "view": view})
