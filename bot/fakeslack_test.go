@@ -32,9 +32,9 @@ type fakeSlack struct {
 	calls   map[string]int
 	nextTS  int
 	groups  map[string][]string
-	views   []fakeView         // views.open and views.update calls, in order
-	users   map[string]string  // users.info: id → display name
-	chans   map[string]string  // conversations.info: id → name
+	views   []fakeView                            // views.open and views.update calls, in order
+	users   map[string]string                     // users.info: id → display name
+	chans   map[string]string                     // conversations.info: id → name
 	fault   func(method string, n int) *fakeFault // n counts calls of method, from 1
 	postHit chan fakePost                         // each stored post, if not nil
 

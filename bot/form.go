@@ -178,7 +178,9 @@ func FormInputFromState(st *slack.ViewState) FormInput {
 // from (the first formMaxOptions); askChannel adds a field for where to
 // answer (a global shortcut knows no channel).
 func FormView(streams []store.Stream, meta formMeta, askChannel bool) slack.ModalViewRequest {
-	pt := func(s string) *slack.TextBlockObject { return slack.NewTextBlockObject(slack.PlainTextType, s, false, false) }
+	pt := func(s string) *slack.TextBlockObject {
+		return slack.NewTextBlockObject(slack.PlainTextType, s, false, false)
+	}
 	input := func(id, label, hint, placeholder string, multiline bool) *slack.InputBlock {
 		el := slack.NewPlainTextInputBlockElement(pt(placeholder), id)
 		el.Multiline = multiline
@@ -220,7 +222,9 @@ func FormView(streams []store.Stream, meta formMeta, askChannel bool) slack.Moda
 // (a trigger is good for about 3 s; views.update fills the form in after).
 func loadingView(meta formMeta) slack.ModalViewRequest {
 	md, _ := json.Marshal(meta)
-	pt := func(s string) *slack.TextBlockObject { return slack.NewTextBlockObject(slack.PlainTextType, s, false, false) }
+	pt := func(s string) *slack.TextBlockObject {
+		return slack.NewTextBlockObject(slack.PlainTextType, s, false, false)
+	}
 	return slack.ModalViewRequest{
 		Type: slack.VTModal, CallbackID: FormCallback, PrivateMetadata: string(md), Title: pt("New mix"), Close: pt("Cancel"),
 		Blocks: slack.Blocks{BlockSet: []slack.Block{section("Reading the stream catalogue…")}},
