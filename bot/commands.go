@@ -19,6 +19,12 @@ type Digester interface {
 	Digest(ctx context.Context, since, until time.Time) (*store.Digest, error)
 }
 
+// nameReader reads the name an id was seen under at a time (store.DB has
+// it); search results name channels with it.
+type nameReader interface {
+	NameAt(ctx context.Context, id string, at time.Time) (string, error)
+}
+
 // searchPageSize is how many queries one search reply lists.
 const searchPageSize = 10
 
@@ -230,7 +236,13 @@ func (b *Bot) search(ctx context.Context, in Incoming, q SearchQuery) Reply {
 		if who == "" {
 			who = lq.UserID
 		}
-		fmt.Fprintf(&s, "#%d  %s  %s  %s  %s", lq.ID, lq.Time.In(b.loc()).Format("2006-01-02 15:04"), who, lq.Verdict, truncate(lq.Request, 120))
+		where := lq.Channel
+		if nr, ok := b.Searcher.(nameReader); ok {
+			if n, err := nr.NameAt(ctx, lq.Channel, lq.Time); err == nil && n != "" {
+				where = n
+			}
+		}
+		fmt.Fprintf(&s, "#%d  %s  %s in %s  %s  %s", lq.ID, lq.Time.In(b.loc()).Format("2006-01-02 15:04"), who, where, lq.Verdict, truncate(lq.Request, 120))
 		for _, h := range lq.Hazards {
 			if h.Severity == "danger" {
 				fmt.Fprintf(&s, "  [DANGER %s]", h.Code)

@@ -44,6 +44,9 @@ type nameEntry struct {
 	at   time.Time
 }
 
+// failTTL is how long a failed lookup waits before asking again.
+const failTTL = 5 * time.Minute
+
 // DefaultNameTTL is how long a looked-up name is used before asking again.
 const DefaultNameTTL = time.Hour
 
@@ -109,6 +112,14 @@ func (n *Names) lookup(ctx context.Context, id string, ask func(context.Context)
 		if n.Log != nil {
 			n.Log.Warn("name lookup failed", "id", id, "err", err, "stale_cache", ok)
 		}
+		// Ask again after failTTL, not at every message (a missing scope
+		// or a rate limit would fail every time).
+		n.mu.Lock()
+		if n.cache == nil {
+			n.cache = map[string]nameEntry{}
+		}
+		n.cache[id] = nameEntry{name: e.name, at: now.Add(-ttl + min(ttl, failTTL))}
+		n.mu.Unlock()
 		return e.name
 	}
 	n.mu.Lock()

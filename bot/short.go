@@ -191,9 +191,9 @@ func escLines(xs []string) []string {
 	return out
 }
 
-// blockChars counts the characters a person reads in blocks: every text
-// of every block, buttons included.
-func blockChars(bl []slack.Block) int {
+// BlockChars counts the characters a person reads in blocks: every text
+// of every block, buttons included (what ShortMaxChars bounds).
+func BlockChars(bl []slack.Block) int {
 	n := 0
 	add := func(t *slack.TextBlockObject) {
 		if t != nil {

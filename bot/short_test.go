@@ -39,7 +39,7 @@ func checkShort(t *testing.T, bl []slack.Block) {
 	if len(bl) > ShortMaxBlocks {
 		t.Errorf("short answer has %d blocks, want at most %d", len(bl), ShortMaxBlocks)
 	}
-	if n := blockChars(bl); n > ShortMaxChars {
+	if n := BlockChars(bl); n > ShortMaxChars {
 		t.Errorf("short answer has %d characters, want at most %d", n, ShortMaxChars)
 	}
 	if err := checkLimits(SplitMessages("fallback", bl)); err != nil {

@@ -323,8 +323,8 @@ func TestDigestCLI(t *testing.T) {
 	env, path := storeEnv(t)
 	seedLog(t, path)
 	code, out, errOut := storeCLI(t, env, "digest", "--since", "2026-12-01T06:00", "--until", "2026-12-01T18:00")
-	for _, w := range []string{"Shift digest Tue 01 Dec 2026 06:00 GMT – 18:00 GMT (Europe/London)", "Queries   4 from 2 people",
-		"spontaneous 2", "06:30", "CL2-GAS", "Requests that did not parse: 1", "HCl 1 M  +  NaOCl 12.5 %", "advisory, never a permit"} {
+	for _, w := range []string{"Shift digest Tue 01 Dec 2026 06:00 GMT – 18:00 GMT (Europe/London)", "4 queries from 2 people",
+		"do not mix 1", "DO NOT MIX       ×1   HCl 1 M + NaOCl 12.5 %  CL2-GAS  #1", "Requests that did not parse (1)", "advisory, never a permit"} {
 		if code != 0 || !strings.Contains(out, w) {
 			t.Errorf("digest lacks %q (exit %d, %s):\n%s", w, code, errOut, out)
 		}
