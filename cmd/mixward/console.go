@@ -89,7 +89,7 @@ func (a *app) cmdConsole(ctx context.Context, args []string) error {
 		"Reads standard input, so `echo \"mix ...\" | mixward console` works too.")
 	var s siteFlags
 	s.register(fs, a.getenv)
-	picDir := fs.String("picture-dir", envOr(a.getenv, "MIXWARD_PICTURE_DIR", "."), "where `picture` writes the E–pH picture PNG (env MIXWARD_PICTURE_DIR)")
+	picDir := fs.String("picture-dir", ".", "where `picture` writes the E–pH picture PNG")
 	noDemo := fs.Bool("no-demo", false, "do not seed the invented demo site's streams into an empty catalogue")
 	digests := fs.Bool("digests", isTerminal(a.stdin), "print shift digests here when they fall due (default: on for a terminal)")
 	rest, err := parseFlags(fs, args)

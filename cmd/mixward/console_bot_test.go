@@ -240,9 +240,9 @@ func TestDemoPairsRenderWithinBlockKitLimits(t *testing.T) {
 func TestConsolePourPictureRecorded(t *testing.T) {
 	dir := t.TempDir()
 	db := filepath.Join(dir, "site.db")
-	env := map[string]string{"MIXWARD_DB": db, "MIXWARD_TZ": "UTC", "MIXWARD_PICTURE_DIR": dir}
+	env := map[string]string{"MIXWARD_DB": db, "MIXWARD_TZ": "UTC"}
 	input := "mix 200 L NaOCl 12.5 % + 50 L HCl 10 %\npour\npicture\ndetails 1\npour 9\n"
-	stdout, stderr, code := runConsole(t, env, input, "console", "--no-demo")
+	stdout, stderr, code := runConsole(t, env, input, "console", "--no-demo", "--picture-dir", dir)
 	if code != 0 {
 		t.Fatalf("exit %d\nstderr: %s", code, stderr)
 	}
