@@ -120,9 +120,10 @@ type press struct {
 // answerPress records a press against its query and posts what it asks
 // for: the full answer or the pour order in the thread, or the picture.
 func (s *Slack) answerPress(ctx context.Context, p press) {
-	if n := s.Names.User(ctx, p.UserID); n != "" {
+	if n := s.Names.Known(p.UserID); n != "" {
 		p.UserName = n
 	}
+	s.Names.Refresh(p.UserID, true)
 	r, err := s.pressedResult(ctx, p)
 	if err != nil {
 		s.tellPresser(ctx, p, err.Error())

@@ -35,8 +35,9 @@ type Names struct {
 	Now  func() time.Time
 	Log  *slog.Logger
 
-	mu    sync.Mutex
-	cache map[string]nameEntry
+	mu       sync.Mutex
+	cache    map[string]nameEntry
+	inflight map[string]bool // ids being looked up in the background
 }
 
 type nameEntry struct {
@@ -90,14 +91,65 @@ func (n *Names) Channel(ctx context.Context, id string) string {
 	})
 }
 
+// Known is the name cached for id, "" when none; it never asks Slack.
+func (n *Names) Known(id string) string {
+	if n == nil {
+		return ""
+	}
+	n.mu.Lock()
+	defer n.mu.Unlock()
+	return n.cache[id].name
+}
+
+// Refresh looks a user's (user true) or channel's name up in the
+// background when the cached one is missing or stale, at most one lookup
+// per id at a time; it never blocks. Names label records and are not
+// needed to answer, so a slow or rate-limited users.info never holds up an
+// answer; the name is noted (Note) with the time it was seen.
+func (n *Names) Refresh(id string, user bool) {
+	if n == nil || n.API == nil || id == "" || id == ConsoleUser {
+		return
+	}
+	n.mu.Lock()
+	e, ok := n.cache[id]
+	fresh := ok && n.now().Sub(e.at) < n.ttl()
+	busy := n.inflight[id]
+	if !fresh && !busy {
+		if n.inflight == nil {
+			n.inflight = map[string]bool{}
+		}
+		n.inflight[id] = true
+	}
+	n.mu.Unlock()
+	if fresh || busy {
+		return
+	}
+	go func() {
+		defer func() {
+			n.mu.Lock()
+			delete(n.inflight, id)
+			n.mu.Unlock()
+		}()
+		if user {
+			n.User(context.Background(), id)
+		} else {
+			n.Channel(context.Background(), id)
+		}
+	}()
+}
+
+func (n *Names) ttl() time.Duration {
+	if n.TTL <= 0 {
+		return DefaultNameTTL
+	}
+	return n.TTL
+}
+
 func (n *Names) lookup(ctx context.Context, id string, ask func(context.Context) (string, error)) string {
 	if n == nil || n.API == nil || id == "" || id == ConsoleUser {
 		return ""
 	}
-	ttl := n.TTL
-	if ttl <= 0 {
-		ttl = DefaultNameTTL
-	}
+	ttl := n.ttl()
 	now := n.now()
 	n.mu.Lock()
 	e, ok := n.cache[id]

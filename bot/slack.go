@@ -272,7 +272,7 @@ func (s *Slack) process(ctx context.Context, in Incoming, gate <-chan intake) {
 		// the next start answers it.
 		return
 	}
-	s.nameSender(ctx, &in)
+	s.nameSender(&in)
 	reply := s.Bot.Answer(ctx, in)
 	if ctx.Err() != nil {
 		return
@@ -314,17 +314,19 @@ func (s *Slack) process(ctx context.Context, in Incoming, gate <-chan intake) {
 	s.outcome(in, o)
 }
 
-// nameSender puts the display name of the sender into in (the log keeps
-// the id and the name seen at the time) and notes the channel's name.
-func (s *Slack) nameSender(ctx context.Context, in *Incoming) {
+// nameSender puts the display name of the sender, when known, into in (the
+// log keeps the id and the name seen at the time) and refreshes the
+// sender's and the channel's names in the background.
+func (s *Slack) nameSender(in *Incoming) {
 	if s.Names == nil {
 		return
 	}
-	if n := s.Names.User(ctx, in.UserID); n != "" {
+	if n := s.Names.Known(in.UserID); n != "" {
 		in.UserName = n
 	}
+	s.Names.Refresh(in.UserID, true)
 	if !strings.HasPrefix(in.Channel, "D") {
-		s.Names.Channel(ctx, in.Channel)
+		s.Names.Refresh(in.Channel, false)
 	}
 }
 
