@@ -53,10 +53,10 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 		res.Notes = append(res.Notes, fmt.Sprintf("heat counted for the hazards: %.0f kJ, about %+.1f °C (reactions that do not proceed left out)", o.Heat.ReleasedkJ, o.Heat.RiseC))
 	}
 	res.Notes = append(res.Notes, fmt.Sprintf("gas concentrations are for a closed headspace equal to the liquid volume (%s L), at equilibrium", trim(o.HeadspaceL)))
-	res.Addition = pour.Analyse(req, func(r *engine.Request) ([]engine.Hazard, error) {
+	res.Addition = pour.AnalyseLocal(req, func(r *engine.Request) ([]engine.Hazard, error) {
 		hs, err := a.evaluateIn(r, o.HeadspaceL)
 		return hazard.Relative(hs, pick(alone, r.Streams)), err
-	})
+	}, landing(a.concentrates(req)))
 	if res.Addition == nil {
 		res.Addition = &engine.Addition{Orders: []engine.PourOrder{}, Advice: "One stream: nothing is poured into anything."}
 	}

@@ -295,3 +295,37 @@ func TestPourGasInTankHeadspace(t *testing.T) {
 		}
 	}
 }
+
+// TestConcentrateIntoWater: a concentrated acid or caustic always goes into
+// the water, whatever the volumes: water run onto it boils where it lands
+// (common practice, no source; Bretherick's Handbook of Reactive Chemical
+// Hazards, sulfuric acid, from memory). With too little water neither order
+// is safe and the answer says to use more water.
+func TestConcentrateIntoWater(t *testing.T) {
+	a := mustAdvisor(t)
+	for _, tc := range []struct {
+		req, want string
+	}{
+		{"mix 10 L water + 1 L H2SO4 98 %", "Add H2SO4 98 % into H2O"},
+		{"mix 2 L water + 10 L NaOH 50 %", "Add NaOH 50 % into H2O"},
+		{"mix 100 L water + 10 L HCl 36 %", "Add HCl 36 % into H2O"},
+		{"mix 1 L water + 10 L H2SO4 98 %", "use more water"},
+	} {
+		r := ask(t, a, tc.req)
+		adv := r.Addition.Advice
+		if !strings.Contains(adv, tc.want) {
+			t.Errorf("%s: advice %q lacks %q", tc.req, adv, tc.want)
+		}
+		if strings.Contains(adv, "Add H2O into") {
+			t.Errorf("%s: advice %q runs water into the concentrate", tc.req, adv)
+		}
+		for _, o := range r.Addition.Orders {
+			if o.Added != "H2O" {
+				continue
+			}
+			if len(o.Hazards) == 0 || o.Hazards[0].FromFraction > 0.001 {
+				t.Errorf("%s: water into %s meets nothing from the first drop: %+v", tc.req, o.Into, o.Hazards)
+			}
+		}
+	}
+}
