@@ -73,6 +73,8 @@ func TestHazardsAdded(t *testing.T) {
 			"Bretherick's Handbook, sodium hypochlorite with metal salts"},
 		{"hypochlorite with cobalt", "mix 1 L CoSO4 5 % + 1 L NaOCl 12.5 %", "oxygen-surge", engine.Warning,
 			"Bretherick's Handbook, sodium hypochlorite with metal salts"},
+		{"hypochlorite with manganese", "mix 100 L NaOCl 12.5 % + 100 L MnSO4 0.2 M", "oxygen-surge", engine.Warning,
+			"Bretherick's Handbook, sodium hypochlorite with metal salts (manganese dioxide)"},
 		{"hypochlorite with urea in acid", "mix 1 L NaOCl 5 % + 1 L urea 5 %, H2SO4 5 %", "nitrogen-trichloride", engine.Danger,
 			"Bretherick's Handbook, nitrogen trichloride; White's Handbook of Chlorination"},
 		{"hypochlorite with ammonium in acid", "mix 1 L NaOCl 5 % + 1 L NH4Cl 5 %, HCl 5 %", "nitrogen-trichloride", engine.Danger,
