@@ -49,8 +49,19 @@ func (m *Model) fitPH(mx *Mix, n0 []float64, volL, target float64) ([]float64, e
 	if err != nil {
 		return nil, err
 	}
+	if c := math.Abs(x) / volL; c >= statedPHNote {
+		what := "strong acid"
+		if x < 0 {
+			what = "strong base"
+		}
+		mx.Notes = append(mx.Notes, fmt.Sprintf("the stated pH %g stands for about %.2g mol/L of %s that the request does not name: check the pH, or name the acid or base", target, c, what))
+	}
 	return m.withAcid(mx, n0, x), nil
 }
+
+// statedPHNote (mol/L) is the stand-in acid or base above which the answer
+// says that a stated pH adds what the request does not name.
+const statedPHNote = 0.01
 
 // errUnreachable is a pH outside what 20 mol/L of acid or base gives.
 var errUnreachable = errors.New("pH cannot be reached with up to 20 mol/L of acid or base")

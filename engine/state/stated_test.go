@@ -2,6 +2,7 @@ package state
 
 import (
 	"math"
+	"strings"
 	"testing"
 )
 
@@ -80,5 +81,30 @@ func TestStreamAloneDoesNotDependOnHistory(t *testing.T) {
 		if first[i] != again[i] || math.Abs(first[i]-other[i]) > 1e-9*math.Abs(first[i]) {
 			t.Fatalf("species %d per litre: %g, then %g, after another volume first %g", i, first[i], again[i], other[i])
 		}
+	}
+}
+
+// A stated pH that stands for acid or base the request does not name (rinse
+// water "at pH 12" holds about 0.01 mol/L of hydroxide) is said in the notes;
+// a cyanide liquor brought from its own pH 11.3 to 11 by a trace of acid is
+// not (pH arithmetic: 10^-2 mol/L of OH- at pH 12, 25 °C).
+func TestStatedPHNamesWhatItAdds(t *testing.T) {
+	m, err := NewModel(loadDB(t), dataFS())
+	if err != nil {
+		t.Fatal(err)
+	}
+	notes := func(ph float64, items ...Item) string {
+		st := Stream{Label: "s", WaterMol: water(1), VolumeL: 1, PH: &ph, Items: items}
+		mx, err := m.Solve(Feed{TempK: 298.15, PressureBar: 1.01325, Streams: []Stream{st}})
+		if err != nil {
+			t.Fatal(err)
+		}
+		return strings.Join(mx.Notes, "; ")
+	}
+	if n := notes(12); !strings.Contains(n, "strong base that the request does not name") {
+		t.Errorf("water at pH 12: notes %q", n)
+	}
+	if n := notes(11, item(t, m, "Na+", 0.2), item(t, m, "CN-", 0.2)); strings.Contains(n, "does not name") {
+		t.Errorf("cyanide at pH 11: notes %q", n)
 	}
 }
