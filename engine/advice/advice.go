@@ -18,6 +18,8 @@ import (
 type Advisor struct {
 	Engine *engine.Engine
 	Gases  *hazard.Data
+
+	water *engine.Stream // one litre of water, parsed once (see concentrates)
 }
 
 // New builds an Advisor on a loaded engine, reading the gas table from fsys
@@ -27,7 +29,11 @@ func New(e *engine.Engine, fsys fs.FS) (*Advisor, error) {
 	if err != nil {
 		return nil, err
 	}
-	return &Advisor{Engine: e, Gases: d}, nil
+	a := &Advisor{Engine: e, Gases: d}
+	if w, err := engine.Parse("mix 1 L water", e.Tables, engine.AskOptions{}); err == nil && len(w.Streams) == 1 {
+		a.water = &w.Streams[0]
+	}
+	return a, nil
 }
 
 // Ask parses and answers a request: the engine's prediction with the

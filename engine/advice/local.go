@@ -25,8 +25,7 @@ const (
 // judged).
 func (a *Advisor) concentrates(req *engine.Request) map[string]float64 {
 	out := map[string]float64{}
-	water, err := engine.Parse("mix 1 L water", a.Engine.Tables, engine.AskOptions{})
-	if err != nil || len(water.Streams) != 1 {
+	if a.water == nil {
 		return out
 	}
 	for _, s := range req.Streams {
@@ -34,7 +33,7 @@ func (a *Advisor) concentrates(req *engine.Request) map[string]float64 {
 		if amount <= 0 {
 			amount = 1
 		}
-		w := water.Streams[0]
+		w := *a.water
 		w.VolumeL = amount
 		r := *req
 		r.Streams = []engine.Stream{s, w}
