@@ -129,14 +129,17 @@ func (m *Model) Solve(f Feed) (*Mix, error) {
 	// A solid in excess is counted as ten times what everything else could
 	// take from it, but never as more than a fifth of the water in mol, so
 	// that a metal reacting with water itself cannot use the solvent up.
-	excess := 10.0
+	excess, anyExcess := 10.0, false
 	for _, st := range f.Streams {
 		for _, it := range st.Items {
 			excess += 10 * it.Mol * float64(atomCount(it.Species))
+			anyExcess = anyExcess || it.Excess
 		}
 	}
 	if excess > water/5 {
 		excess = water / 5
+	}
+	if anyExcess && excess == water/5 {
 		mx.Notes = append(mx.Notes, fmt.Sprintf("a solid in excess is counted as %.3g mol (a fifth of the water), enough for anything else in the mix to react with", excess))
 	}
 	mx.Initial = make([]float64, len(mx.Species))

@@ -108,3 +108,30 @@ func TestStatedPHNamesWhatItAdds(t *testing.T) {
 		t.Errorf("cyanide at pH 11: notes %q", n)
 	}
 }
+
+// The note on how much a solid in excess is counted as belongs only to mixes
+// that hold such a solid: two dissolved salts never print it, zinc given
+// without an amount into a small volume of acid does.
+func TestExcessNoteOnlyWithExcessSolid(t *testing.T) {
+	m, err := NewModel(loadDB(t), dataFS())
+	if err != nil {
+		t.Fatal(err)
+	}
+	notes := func(items ...Item) string {
+		st := Stream{Label: "s", WaterMol: water(0.01), VolumeL: 0.01, Items: items}
+		mx, err := m.Solve(Feed{TempK: 298.15, PressureBar: 1.01325, Streams: []Stream{st}})
+		if err != nil {
+			t.Fatal(err)
+		}
+		return strings.Join(mx.Notes, "; ")
+	}
+	const note = "a solid in excess is counted"
+	if n := notes(item(t, m, "Na+", 5), item(t, m, "HCO3-", 5)); strings.Contains(n, note) {
+		t.Errorf("dissolved salts: notes %q", n)
+	}
+	zn := item(t, m, "Zn(s)", 0)
+	zn.Excess = true
+	if n := notes(zn, item(t, m, "H+", 0.01), item(t, m, "Cl-", 0.01)); !strings.Contains(n, note) {
+		t.Errorf("zinc in excess: notes %q", n)
+	}
+}
