@@ -127,7 +127,45 @@ func silentLosses(db *thermo.DB, feed map[string]float64, r *engine.Result) []st
 
 // conservationSkips are silent losses outside this check's reach, each with
 // its reason; a request listed here must still be answered.
-var conservationSkips = map[string]string{}
+var conservationSkips = map[string]string{
+	// Outside the oxyhalogen, peroxysulfur and nitrogen work: copper(I) in
+	// cyanide plating liquor oxidized to copper(II) by the peroxide; the
+	// explanation cannot write CuCN(s) → Cu(OH)2(s) with its cyanide partner
+	// and drops the change (explain.Steps leaves unbalanced changes out).
+	"mix 600 L CuCN 22 g/L, NaCN 30 g/L, NaOH 5 g/L + 1000 L H2O2 3 %": "copper(I) cyanide oxidation not written out",
+}
+
+// reviewPours are plant pours of the oxyhalogen, peroxysulfur and nitrogen
+// families (chlorite, persulfate, nitrite, dithionite) run through the
+// check beside the golden requests.
+var reviewPours = []string{
+	"mix 100 L NaClO2 25 % + 100 L HCl 10 %",
+	"mix 100 L NaClO2 25 % + 100 L NaOCl 12.5 %",
+	"mix 100 L NaClO2 25 % + 100 L NaOCl 12.5 % + 100 L HCl 10 %",
+	"mix 100 L NaClO2 7.5 % + 100 L citric acid 10 %",
+	"mix 100 L NaClO2 7.5 % + 100 L FeSO4 0.5 M",
+	"mix 100 L NaClO2 7.5 % + 100 L Na2SO3 10 %",
+	"mix 100 L sodium persulfate 20 % + 100 L FeSO4 0.5 M",
+	"mix 10 kg ammonium persulfate + 100 L NaOH 10 %",
+	"mix 100 L sodium persulfate 20 % + 100 L KI 10 %",
+	"mix 100 L sodium persulfate 20 % + 100 L Na2SO3 10 %",
+	"mix 100 L NaNO2 10 % + 100 L sulfamic acid 10 %",
+	"mix 100 L NaNO2 20 % + 100 L NH4Cl 20 % at 60 C",
+	"mix 100 L NaNO2 20 % + 100 L NH4Cl 20 %",
+	"mix 100 L NaNO2 10 % + 100 L HCl 10 %",
+	"mix 100 L sodium dithionite 5 % + 10 L H2O2 35 %",
+	"mix 100 L Na2S2O4 5 % + 20 L HCl 10 %",
+	"mix 100 L Na2S2O4 5 % + 100 L NaOCl 12.5 %",
+	"mix 100 L Na2S2O4 5 % + 100 L water",
+}
+
+// TestSpeciesConservationReview runs the check over reviewPours.
+func TestSpeciesConservationReview(t *testing.T) {
+	e := mustEngine(t)
+	for _, req := range reviewPours {
+		checkConservation(t, e, req)
+	}
+}
 
 func checkConservation(t *testing.T, e *engine.Engine, req string) {
 	t.Helper()
