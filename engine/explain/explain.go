@@ -238,22 +238,33 @@ func (x *explainer) partner(el, key string, not ...*thermo.Species) *thermo.Spec
 	if key != "H" && key != "O" { // hydrogen and oxygen are in nearly every carrier
 		skip[key] = true
 	}
-	for _, amount := range [][]float64{x.mx.Final.Amount, x.mx.Combined.Amount} {
-		var best *thermo.Species
-		bestMol := 0.0
-		for i, sp := range x.mx.Species {
-			if sp.Atoms[el] == 0 || contains(not, sp) || hasAny(sp, skip) {
-				continue
+	// Main species first: an ion pair (FeSO4+, NaSO4-) would drag a metal
+	// into a half-reaction that does not concern it.
+	for _, minor := range []bool{false, true} {
+		for _, amount := range [][]float64{x.mx.Final.Amount, x.mx.Combined.Amount} {
+			if best := x.carrier(el, amount, minor, skip, not); best != nil {
+				return best
 			}
-			if m := amount[i] * float64(sp.Atoms[el]); m > bestMol {
-				best, bestMol = sp, m
-			}
-		}
-		if best != nil {
-			return best
 		}
 	}
 	return nil
+}
+
+// carrier is the species holding the most atoms of el in a state, of the
+// main species (minor false) or of all of them, other than those listed or
+// holding a skipped element.
+func (x *explainer) carrier(el string, amount []float64, minor bool, skip map[string]bool, not []*thermo.Species) *thermo.Species {
+	var best *thermo.Species
+	bestMol := 0.0
+	for i, sp := range x.mx.Species {
+		if sp.Atoms[el] == 0 || (sp.Minor && !minor) || contains(not, sp) || hasAny(sp, skip) {
+			continue
+		}
+		if m := amount[i] * float64(sp.Atoms[el]); m > bestMol {
+			best, bestMol = sp, m
+		}
+	}
+	return best
 }
 
 func contains(list []*thermo.Species, sp *thermo.Species) bool {

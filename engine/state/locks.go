@@ -57,7 +57,11 @@ type Group struct {
 	Above   bool // X(>a): atoms above state a, each counted at most once per unit of state (see Weight)
 	Organic bool
 	Species []string // species texts; when set, Element is unused
-	text    string
+	// Per is the count of each listed species (1 unless the list writes a
+	// number before it: {N2, 2 CO(NH2)2} counts a urea as two units, the
+	// two nitrogen molecules it can give).
+	Per  []float64
+	text string
 }
 
 func (g Group) String() string { return g.text }
@@ -66,9 +70,9 @@ func (g Group) String() string { return g.text }
 // of sp holds.
 func (g Group) Weight(sp *thermo.Species) float64 {
 	if len(g.Species) > 0 {
-		for _, s := range g.Species {
+		for i, s := range g.Species {
 			if s == sp.Text || s == sp.Ion() {
-				return 1
+				return g.Per[i]
 			}
 		}
 		return 0
@@ -249,10 +253,19 @@ func parseGroup(s string) (Group, error) {
 		}
 		for _, sp := range strings.Split(s[1:len(s)-1], ",") {
 			sp = strings.TrimSpace(sp)
+			per := 1.0
+			if n, rest, ok := strings.Cut(sp, " "); ok {
+				v, err := strconv.ParseFloat(n, 64)
+				if err != nil || !(v > 0 && v <= 10) {
+					return g, fmt.Errorf("group %q: %q: a count before a species is a number from 0 to 10, like 2 CO(NH2)2", s, sp)
+				}
+				per, sp = v, strings.TrimSpace(rest)
+			}
 			if _, err := chem.ParseSpecies(sp); err != nil {
 				return g, fmt.Errorf("group %q: %v", s, err)
 			}
 			g.Species = append(g.Species, sp)
+			g.Per = append(g.Per, per)
 		}
 		return g, nil
 	}

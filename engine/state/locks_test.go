@@ -62,6 +62,17 @@ func TestGroupWeights(t *testing.T) {
 		{"C(organic)", "HCO3-", 0},
 		{"C(organic)", "CN-", 0},
 		{"{OCN-, HOCN}", "OCN-", 1},
+		// a count before a species: a urea stands for two nitrogen molecules
+		{"{N2(g), 2 CO(NH2)2}", "CO(NH2)2", 2},
+		{"{N2(g), 2 CO(NH2)2}", "N2(g)", 1},
+		{"{N2(g), 2 CO(NH2)2}", "NH4+", 0},
+		// persulfate: sulfur stays +6, two peroxo oxygens above −II
+		{"S(6)", "S2O8^2-", 2},
+		// sulfamate: nitrogen −III and sulfur +VI (species.txt overrides)
+		{"N(-3)", "NH2SO3-", 1},
+		{"S(6)", "NH2SO3H", 1},
+		{"Cl(3)", "ClO2-", 1},
+		{"Cl(3)", "HClO2", 1},
 		// copper(I) cyanide: read by the average-state rule as Cu(II) and
 		// C(+1) until its row said otherwise, which let plating liquor
 		// "reduce" its copper to metal with its own cyanide
@@ -120,6 +131,8 @@ func TestLockErrors(t *testing.T) {
 		{"x | no-gain S(6) | t<<60 | why | src", "not a number"},
 		{"two words | no-gain S(6) | t<60 | why | src", "one word"},
 		{"x | no-gain S(6) | (t<60 | why | src", "missing )"},
+		{"x | no-gain {N2, 0 NH3} | t<60 | why | src", "a count before a species"},
+		{"x | no-gain {N2, two NH3} | t<60 | why | src", "a count before a species"},
 	}
 	for _, c := range cases {
 		_, err := parseLocks("locks.txt", []byte(c.row+"\n"))
