@@ -64,7 +64,13 @@
 // step whatever its pivots. When a full step only shrinks the merit
 // linearly (a species being driven towards zero, where Newton on an
 // exponential gains one ln unit per step) longer steps are tried while they
-// keep paying. Activity coefficients follow the ionic strength inside the
+// keep paying. From a warm start (or the point of the previous round of
+// the active set), a Newton solve whose accepted steps lower the merit by
+// less than 1e-8 of itself ten times in a row has stalled (steps of 1e-12
+// that the line search accepts but that lead nowhere) and gives up at once
+// instead of running to its iteration cap: the cold start is the fallback.
+// From the cold start, which has no fallback, such a solve runs on.
+// Activity coefficients follow the ionic strength inside the
 // Newton loop once the balances are nearly met; an outer fixed-point loop
 // on ln γ confirms them. The pure-phase and gas assemblage is updated
 // between Newton solves (most negative phase removed, most supersaturated

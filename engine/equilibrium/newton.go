@@ -14,6 +14,8 @@ import (
 // Newton solve limits and tolerances.
 const (
 	maxNewton   = 200   // iterations per Newton solve
+	maxFlat     = 10    // accepted steps in a row that do not lower the merit
+	flatGain    = 1e-8  // by more than this fraction
 	tolBalance  = 1e-12 // balance residual relative to the row's scale
 	tolStalled  = 1e-10 // accepted when the line search can do no better
 	tolLog      = 1e-10 // saturation and gas residuals (natural-log units)
@@ -58,6 +60,9 @@ type newtonWork struct {
 	iter     int
 	svdUsed  int
 	lastStep float64
+	// quitFlat lets a stalled solve give up (see maxFlat): set while a
+	// start is tried that has a fallback.
+	quitFlat bool
 }
 
 // jacobian fills w.jac (d×d, row-major) at pt.
@@ -318,6 +323,7 @@ func (s *system) newton(pt *point, w *newtonWork, tr *trace) error {
 		w.noisy = append(w.noisy, r.noise > 0)
 	}
 	nearby := false
+	flat := 0 // accepted steps in a row that left the merit where it was
 	for it := 0; ; it++ {
 		// Once the balances are nearly met, the activity coefficients
 		// follow the ionic strength at every iteration (a fixed point
@@ -380,6 +386,12 @@ func (s *system) newton(pt *point, w *newtonWork, tr *trace) error {
 		}
 		if (alpha < 1e-10 || after > 0.99*phi) && s.closeEnough(w.f[:d], w.sc[:d]) {
 			return nil
+		}
+		if after < (1-flatGain)*phi {
+			flat = 0
+		} else if flat++; flat == maxFlat && w.quitFlat {
+			tr.dump(s, pt, w.f[:d], w.sc[:d])
+			return fmt.Errorf("%w: %d steps in a row left the merit at %.3g", errStall, maxFlat, phi)
 		}
 		w.iter++
 		w.lastStep = alpha

@@ -169,7 +169,11 @@ func (ls *lockSolver) solveRound(prevPt *point, prevRows []balanceRow) (*point, 
 		pt = s.startFrom(s.p.Start, true)
 	}
 	if pt != nil {
+		// The cold start below is the fallback: a stalled solve from
+		// here gives up early.
+		ls.w.quitFlat = true
 		err := s.solveGamma(pt, &ls.w, ls.tr)
+		ls.w.quitFlat = false
 		if err == nil {
 			return pt, nil
 		}

@@ -105,13 +105,17 @@ func (m *Model) solveFrom(mx *Mix, n0 []float64, combined *State, volL float64, 
 
 // env is what lock conditions are judged against.
 func (m *Model) env(mx *Mix, s *State, volL float64) Env {
-	molar := func(g Group) float64 {
+	total := func(g Group) float64 {
 		tot := 0.0
-		for i, sp := range mx.Species {
-			if w := g.Weight(sp); w > 0 {
+		for i, w := range mx.weightsOf(g) {
+			if w > 0 {
 				tot += w * s.Amount[i]
 			}
 		}
+		return tot
+	}
+	molar := func(g Group) float64 {
+		tot := total(g)
 		if volL <= 0 {
 			return 0
 		}
@@ -123,12 +127,7 @@ func (m *Model) env(mx *Mix, s *State, volL float64) Env {
 		PH:     s.PH,
 		Molar:  molar,
 		Has: func(g Group) bool {
-			tot := 0.0
-			for i, sp := range mx.Species {
-				if w := g.Weight(sp); w > 0 {
-					tot += w * s.Amount[i]
-				}
-			}
+			tot := total(g)
 			return volL > 0 && tot/volL >= presence
 		},
 	}
@@ -271,10 +270,9 @@ type lockRule struct {
 }
 
 func ruleConstraint(mx *Mix, name string, r Rule, n0 []float64) equilibrium.Constraint {
-	c := equilibrium.Constraint{Name: name, Coef: make([]float64, len(mx.Species))}
-	for i, sp := range mx.Species {
-		c.Coef[i] = r.Group.Weight(sp)
-		c.Bound += c.Coef[i] * n0[i]
+	c := equilibrium.Constraint{Name: name, Coef: append([]float64(nil), mx.weightsOf(r.Group)...)}
+	for i, w := range c.Coef {
+		c.Bound += w * n0[i]
 	}
 	switch r.Dir {
 	case NoGain:

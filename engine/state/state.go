@@ -9,8 +9,13 @@ import (
 	"errors"
 	"fmt"
 	"io/fs"
+	"maps"
 	"math"
+	"slices"
 	"sort"
+	"strings"
+
+	lru "github.com/hashicorp/golang-lru/v2"
 
 	"mixward/engine/chem"
 	"mixward/engine/equilibrium"
@@ -51,6 +56,9 @@ type Model struct {
 	Locks []Lock
 
 	streams *streamCache // each stream alone per litre (see streamCache)
+	// species are the candidate species of a feed by its elements
+	// (candidates); a few kilobytes each.
+	species *lru.Cache[string, *speciesSet]
 }
 
 // NewModel reads data/locks.txt from fsys.
@@ -69,7 +77,11 @@ func NewModel(db *thermo.DB, fsys fs.FS) (*Model, error) {
 			return nil, err
 		}
 	}
-	return &Model{DB: db, Locks: locks, streams: newStreamCache()}, nil
+	species, err := lru.New[string, *speciesSet](speciesCacheSize)
+	if err != nil {
+		return nil, err
+	}
+	return &Model{DB: db, Locks: locks, streams: newStreamCache(), species: species}, nil
 }
 
 // State is one solved state.
@@ -100,7 +112,13 @@ type Mix struct {
 	TempK    float64
 	Pressure float64  // bar
 	ReachedC *float64 // the temperature the mix reaches by its own heat, when given (Feed.ReachedC)
+
+	weights    *weights    // lock group weights per species (shared by the mixes of one species list)
+	titrations *titrations // the titrations of this mix's amounts, for solving it again
 }
+
+// speciesCacheSize bounds the element sets whose candidate species are kept.
+const speciesCacheSize = 1024
 
 // ErrNoLiquid is returned for a feed with no water at all: nothing dissolves.
 var ErrNoLiquid = errors.New("state: no liquid in the mix")
@@ -112,8 +130,9 @@ func (m *Model) Solve(f Feed) (*Mix, error) {
 	}
 	// Each stream alone stays at the starting temperature: only the mix
 	// is judged at the temperature its own heat takes it to.
-	mx := &Mix{TempK: f.TempK, Pressure: f.PressureBar}
-	mx.Species = m.candidates(f)
+	mx := &Mix{TempK: f.TempK, Pressure: f.PressureBar, titrations: &titrations{}}
+	set := m.candidates(f)
+	mx.Species, mx.weights = set.list, &set.w
 	index := map[*thermo.Species]int{}
 	for i, sp := range mx.Species {
 		index[sp] = i
@@ -229,8 +248,11 @@ func addTo(dst, src []float64) {
 	}
 }
 
-// candidates are the species made only of the elements the feed brings.
-func (m *Model) candidates(f Feed) []*thermo.Species {
+// candidates are the species made only of the elements the feed brings,
+// from the model's cache when a feed of the same elements was solved before
+// (the points of a pour, the held-back changes and every repeat of a
+// request). The slice is shared: it must not be written.
+func (m *Model) candidates(f Feed) *speciesSet {
 	els := map[string]bool{"H": true, "O": true}
 	for _, st := range f.Streams {
 		for _, it := range st.Items {
@@ -239,6 +261,30 @@ func (m *Model) candidates(f Feed) []*thermo.Species {
 			}
 		}
 	}
+	key := strings.Join(slices.Sorted(maps.Keys(els)), " ")
+	if m.species != nil {
+		if set, ok := m.species.Get(key); ok {
+			return set
+		}
+	}
+	set := &speciesSet{list: m.within(els)}
+	if m.species != nil {
+		m.species.Add(key, set)
+	}
+	return set
+}
+
+// speciesSet is the candidate species of an element set, with the weights
+// of the lock groups in them (filled as read, shared by every mix of the
+// set).
+type speciesSet struct {
+	list []*thermo.Species
+	w    weights
+}
+
+// within lists the species of the data made only of els, in the order of
+// their texts, the stand-in ions last.
+func (m *Model) within(els map[string]bool) []*thermo.Species {
 	var out []*thermo.Species
 	for _, sp := range m.DB.Within(els) {
 		// Water vapour is the solvent's own (boiling is judged from the
@@ -250,7 +296,7 @@ func (m *Model) candidates(f Feed) []*thermo.Species {
 		out = append(out, sp)
 	}
 	sort.SliceStable(out, func(i, j int) bool { return out[i].Text < out[j].Text })
-	return append(out, standInAnion, standInCation)
+	return slices.Clip(append(out, standInAnion, standInCation))
 }
 
 // feedVector is the as-given composition of a stream, per species of mx. A

@@ -4,6 +4,8 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strconv"
+	"sync"
 
 	"mixward/engine/chem"
 	"mixward/engine/thermo"
@@ -85,6 +87,64 @@ func (m *Model) withAcid(mx *Mix, n0 []float64, x float64) []float64 {
 // brings the solution as combined to pH target: a bracketing secant
 // (Illinois) on u = asinh(x), where the pH is smooth and monotone.
 func (m *Model) titrate(mx *Mix, n0 []float64, volL, target float64) (float64, error) {
+	key := titrationKey(n0, volL, target, mx.reachC())
+	if x, err, ok := mx.titrations.get(key); ok {
+		return x, err
+	}
+	x, err := m.titrateOnce(mx, n0, volL, target)
+	mx.titrations.put(key, x, err)
+	return x, err
+}
+
+// titrations keeps the titrations of one mix: the held-back changes solve
+// the mix again with one lock lifted, and titrate the same amounts to the
+// same pH for the lock allowances as the mix's own solve did.
+type titrations struct {
+	mu   sync.Mutex
+	done map[string]titration
+}
+
+type titration struct {
+	x   float64
+	err error
+}
+
+// titrationKey names a titration by its exact inputs: the amounts, the
+// volume, the pH and the temperature the formation locks are judged at (the
+// species and the starting temperature are those of the mix).
+func titrationKey(n0 []float64, volL, target, reachC float64) string {
+	b := make([]byte, 0, 24*(len(n0)+3))
+	for _, v := range append([]float64{volL, target, reachC}, n0...) {
+		b = strconv.AppendFloat(b, v, 'g', -1, 64)
+		b = append(b, '|')
+	}
+	return string(b)
+}
+
+func (t *titrations) get(key string) (float64, error, bool) {
+	if t == nil {
+		return 0, nil, false
+	}
+	t.mu.Lock()
+	defer t.mu.Unlock()
+	r, ok := t.done[key]
+	return r.x, r.err, ok
+}
+
+func (t *titrations) put(key string, x float64, err error) {
+	if t == nil {
+		return
+	}
+	t.mu.Lock()
+	defer t.mu.Unlock()
+	if t.done == nil {
+		t.done = map[string]titration{}
+	}
+	t.done[key] = titration{x, err}
+}
+
+// titrateOnce is titrate without the memory.
+func (m *Model) titrateOnce(mx *Mix, n0 []float64, volL, target float64) (float64, error) {
 	f := func(u float64) (float64, error) {
 		// The same solve as the mix as combined, with the locks that keep
 		// listed species from forming: without them cyanide "hydrolyses" to

@@ -68,6 +68,7 @@ type Species struct {
 // DB is the loaded species table.
 type DB struct {
 	list   []*Species
+	others [][]string                // elements of list[i] other than H and O (for Within)
 	byKey  map[chem.Species]*Species // by formula, charge and phase
 	byText map[string]*Species       // by Text as written
 	atomic map[string]float64        // atomic weights, for Check
@@ -145,6 +146,7 @@ func parseTable(file, text string, atomic map[string]float64) (*DB, error) {
 			continue
 		}
 		db.list = append(db.list, sp)
+		db.others = append(db.others, othersOf(sp.Atoms))
 		db.byKey[sp.Species] = sp
 		db.byText[sp.Text] = sp
 	}
@@ -279,16 +281,27 @@ func (db *DB) All() []*Species { return append([]*Species(nil), db.list...) }
 // always allowed (water is the solvent), in the order of the file.
 func (db *DB) Within(elements map[string]bool) []*Species {
 	var out []*Species
-	for _, sp := range db.list {
+	for i, sp := range db.list {
 		ok := true
-		for el := range sp.Atoms {
-			if el != "H" && el != "O" && !elements[el] {
+		for _, el := range db.others[i] {
+			if !elements[el] {
 				ok = false
 				break
 			}
 		}
 		if ok {
 			out = append(out, sp)
+		}
+	}
+	return out
+}
+
+// othersOf lists the elements of a formula other than H and O.
+func othersOf(a chem.Atoms) []string {
+	var out []string
+	for el := range a {
+		if el != "H" && el != "O" {
+			out = append(out, el)
 		}
 	}
 	return out

@@ -1,0 +1,40 @@
+package state
+
+import "sync"
+
+// weights caches, for one list of species, the weight of each lock group in each of its
+// species (Group.Weight per species of Mix.Species): lock conditions and
+// constraints read them for every solve of the mix (the mix, its streams,
+// the titrations of a stated pH, the held-back changes), and Weight looks
+// species texts and atoms up in maps.
+type weights struct {
+	mu  sync.Mutex
+	set map[string][]float64 // group text → weight per species
+}
+
+// weightsOf returns the weight of g in each species of mx (read only).
+func (mx *Mix) weightsOf(g Group) []float64 {
+	c := mx.weights
+	if c == nil || g.text == "" {
+		return groupWeights(mx, g)
+	}
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	if w, ok := c.set[g.text]; ok {
+		return w
+	}
+	w := groupWeights(mx, g)
+	if c.set == nil {
+		c.set = map[string][]float64{}
+	}
+	c.set[g.text] = w
+	return w
+}
+
+func groupWeights(mx *Mix, g Group) []float64 {
+	w := make([]float64, len(mx.Species))
+	for i, sp := range mx.Species {
+		w[i] = g.Weight(sp)
+	}
+	return w
+}
