@@ -128,6 +128,12 @@ type strongOxidizer struct {
 	solution  float64  // mol/L in the mix from which the solution counts (0: only as a solid)
 	acidPH    float64  // the solution counts only below this pH (0: any pH)
 	organic   float64  // mol/L of organic liquid from which it counts
+	// landsNeat: the concentrated solution is a danger with any organic
+	// liquid above its threshold, whatever the heat of the whole mix: the
+	// solvent poured in meets it neat where it lands (concentrated chromic
+	// acid ignites alcohols: Bretherick's Handbook, chromium trioxide, from
+	// memory).
+	landsNeat bool
 }
 
 var strongOxidizers = []strongOxidizer{
@@ -135,7 +141,7 @@ var strongOxidizers = []strongOxidizer{
 		solution: 0.2, organic: OrganicLiquidMolar},
 	{name: "Chromic acid", species: []string{"HCrO4-", "H2CrO4", "CrO4^2-", "Cr2O7^2-", "Cr2O7^2-"},
 		solids: []string{"CrO3", "K2Cr2O7", "Na2Cr2O7", "Na2Cr2O7.2H2O"}, electrons: 3, solution: 1, acidPH: 1,
-		organic: 5 * FamilyTraceMolar},
+		organic: 5 * FamilyTraceMolar, landsNeat: true},
 	{name: "Hypochlorite", species: []string{"OCl-", "HOCl"}, solids: []string{"Ca(OCl)2", "C3Cl3N3O3", "NaC3Cl2N3O3", "C5H6BrClN2O2", "LiOCl"},
 		electrons: 2, solution: 0.5, organic: OrganicLiquidMolar},
 }
@@ -162,7 +168,7 @@ func oxidizerOrganic(o *Outcome) (engine.Hazard, bool) {
 		kJ := math.Min(ox*x.electrons, orgE) * o.VolumeL * ThorntonKJPerElectron
 		heat, hot := heatEstimate(o, kJ)
 		sev := engine.Warning
-		if solid || hot || org >= OrganicNeatMolar {
+		if solid || hot || org >= OrganicNeatMolar || conc && x.landsNeat {
 			sev = engine.Danger
 		}
 		how := "A concentrated solution"

@@ -28,7 +28,9 @@ func TestFamilyHeats(t *testing.T) {
 // TestFamilyThresholds: each family on an Outcome built by hand, at the
 // review's concentrations and at a routine neighbour's.
 func TestFamilyThresholds(t *testing.T) {
-	sp := func(f string, ch int) engine.Species { return engine.Species{Formula: f, Charge: ch, Phase: engine.Aqueous} }
+	sp := func(f string, ch int) engine.Species {
+		return engine.Species{Formula: f, Charge: ch, Phase: engine.Aqueous}
+	}
 	out := func(ph float64, solids []string, xs ...Amount) *Outcome {
 		return &Outcome{VolumeL: 200, HeadspaceL: 200, TemperatureC: 25, PressureKPa: 101.325, PH: ph, Before: xs, After: xs, SolidChemicals: solids}
 	}
@@ -51,6 +53,7 @@ func TestFamilyThresholds(t *testing.T) {
 		{"perchloric 0.5 M with ethanol", perchlorateEsters, out(0.3, nil, am("ClO4", -1, 0.5), am("C2H5OH", 0, 0.5)), ""},
 		// Bretherick's Handbook, chromium trioxide with ethanol: heat by Thornton's rule.
 		{"chromic acid with a little ethanol", oxidizerOrganic, out(-0.5, nil, am("HCrO4", -1, 2.3), am("C2H5OH", 0, 0.02)), ""},
+		{"chromic acid with 10 L ethanol in 110 L", oxidizerOrganic, out(-0.5, nil, am("HCrO4", -1, 2.3), am("C2H5OH", 0, 0.09)), engine.Danger},
 		{"chromic acid with neat ethanol", oxidizerOrganic, out(-0.5, nil, am("HCrO4", -1, 2.3), am("C2H5OH", 0, 1.5)), engine.Danger},
 		// Bretherick's Handbook, calcium hypochlorite with alcohols: a dilute rinse is quiet.
 		{"cal hypo solid on 1 % ethanol", oxidizerOrganic, out(11, []string{"Ca(OCl)2"}, am("OCl", -1, 0.3), am("C2H5OH", 0, 0.17)), ""},
