@@ -16,6 +16,9 @@ import (
 var familyRules = []func(o *Outcome) (engine.Hazard, bool){
 	chloroAmines, nitricOrganic, ammoniumNitrite, permanganateSulfuric, volatileAcid,
 	solidHypochlorite, peracidOxidant, magnesiumWater, cyanideOxidation,
+	// organic, azide and solid-chlorinator families (organic.go)
+	organicPeroxides, perchlorateEsters, oxidizerOrganic, bisChloromethylEther,
+	cannizzaro, hexamine, formaldehydeHypochlorite, haloform, heavyMetalAzide, mixedChlorinators,
 }
 
 // organicN is the mol/L of organic nitrogen compounds with nitrogen at −3
@@ -34,10 +37,22 @@ func organicN(xs []Amount) float64 {
 		if strings.Contains(a.Species.Formula, "NO") || strings.Contains(a.Species.Formula, "CN") && !strings.Contains(a.Species.Formula, "NH") {
 			continue // nitro compounds, nitriles and cyanide are not amines
 		}
+		if stabiliserCarrier[a.key()] {
+			continue
+		}
 		t += a.Molar * float64(at["N"])
 	}
 	return t
 }
+
+// stabiliserCarrier are the carriers of stabilised chlorine: cyanuric acid
+// (left by trichloroisocyanuric acid and dichloroisocyanurate, or dosed as
+// stabiliser) and dimethylhydantoin (left by BCDMH). Their N-chloro forms
+// are the chlorinating products themselves, in a fast reversible
+// equilibrium with hypochlorous acid in water: meeting hypochlorite they
+// form nothing new (White's Handbook of Chlorination, chlorinated
+// isocyanurates, from memory).
+var stabiliserCarrier = map[string]bool{"C3H3N3O3": true, "C3H2N3O3-": true, "C5H8N2O2": true}
 
 // organicC is the mol/L of organic carbon among the species before reaction.
 func organicC(xs []Amount) float64 {
@@ -167,13 +182,18 @@ func volatileAcid(o *Outcome) (engine.Hazard, bool) {
 // solids heat up with a little water or organic matter and can ignite or
 // give off chlorine; they go into plenty of water, never water onto them.
 func solidHypochlorite(o *Outcome) (engine.Hazard, bool) {
-	if !o.SolidStream("Ca(OCl)2", "C3Cl3N3O3", "NaC3Cl2N3O3") {
+	if !o.SolidStream("Ca(OCl)2", "C3Cl3N3O3", "NaC3Cl2N3O3", "C5H6BrClN2O2") {
 		return engine.Hazard{}, false
 	}
+	note, noteSrc := undissolved(o)
+	src := "Bretherick's Handbook of Reactive Chemical Hazards, calcium hypochlorite and trichloroisocyanuric acid (from memory); White's Handbook of Chlorination, handling of calcium hypochlorite (from memory); erosion feeders: common practice, no source"
+	if noteSrc != "" {
+		src += "; solubility: " + noteSrc
+	}
 	return mk("solid-oxidizer-heating", engine.Warning,
-		"Solid calcium hypochlorite or chloroisocyanurate: a little water, acid or organic matter on the solid heats it and can set it alight or release chlorine.",
-		"Add the solid a little at a time to plenty of water, never water onto the solid; use clean, dry scoops; keep acids, oils and other chlorinating products away.",
-		"Bretherick's Handbook of Reactive Chemical Hazards, calcium hypochlorite (from memory); White's Handbook of Chlorination, handling of calcium hypochlorite (from memory)"), true
+		"Solid calcium hypochlorite, chloroisocyanurate or halogenated hydantoin: a little water, acid or organic matter on the solid heats it and can set it alight or release chlorine (with little water, nitrogen trichloride)."+note,
+		"Add the solid a little at a time to plenty of water, or dose it through a feeder, never water onto the solid; use clean, dry scoops; keep acids, ammonia and amines, oils and other chlorinating products away.",
+		src), true
 }
 
 // peracidOxidant: peracids, like hydrogen peroxide, reduce hypochlorite and

@@ -41,6 +41,12 @@ func FromResult(r *engine.Result, t *engine.Tables) *Outcome {
 		o.Chemicals = append(o.Chemicals, s.Components...)
 		if s.MassKg > 0 && s.VolumeL == 0 {
 			o.SolidChemicals = append(o.SolidChemicals, s.Components...)
+			if len(s.Components) == 1 {
+				if o.SolidKg == nil {
+					o.SolidKg = map[string]float64{}
+				}
+				o.SolidKg[s.Components[0]] += s.MassKg
+			}
 		}
 		for _, f := range s.Components {
 			if ch, ok := t.Lookup(f); ok {
@@ -65,7 +71,10 @@ func FromResult(r *engine.Result, t *engine.Tables) *Outcome {
 // equilibrium does not hold them (chlorine dioxide from chlorate and
 // hydrochloric acid ends as chlorine at equilibrium): when the mixed state
 // shows none, the pool rules still estimate them.
-var kineticGas = map[string]bool{"ClO2": true, "CNCl": true}
+var kineticGas = map[string]bool{"ClO2": true, "CNCl": true,
+	// carbon monoxide from formic or oxalic acid in concentrated sulfuric
+	// acid: the carbon-monoxide lock keeps it out of the cold state
+	"CO": true}
 
 // measured records the gases the equilibrium state of the mix covers: every
 // gas of the species data made only of elements the mix holds, at the

@@ -25,6 +25,8 @@ var gasCodes = map[string]string{
 	"ClO2": "clo2-release", "NH3": "ammonia-release", "CO2": "co2-release", "NO2": "no2-release",
 	"NO": "no-release", "Br2": "bromine-release", "CNCl": "cyanogen-chloride-release",
 	"H2": "hydrogen-release", "O2": "oxygen-release",
+	// organic and azide families
+	"CO": "co-release", "HN3": "hn3-release",
 }
 
 // gasActions is what to do, by gas, for a danger and for a warning.
@@ -42,6 +44,9 @@ var gasActions = map[string][2]string{
 	"CNCl": {"Do not combine below pH 10. For cyanide destruction raise the pH to 10.5 or more before any hypochlorite goes in.", "Raise the pH to 10.5 before dosing hypochlorite."},
 	"H2":   {"Do not combine in a closed vessel. Vent the headspace, keep sparks and hot work away.", "Vent the headspace and keep sparks and hot work away."},
 	"O2":   {"Keep oil, grease and flames away and vent the headspace.", "Vent the headspace; keep oil and grease away."},
+	// organic and azide families
+	"CO":  {"Do not combine. Carbon monoxide has no smell: if it has happened, leave the area, ventilate and return only with a CO detector.", "Work only with extraction and a CO detector."},
+	"HN3": {"Do not combine. Never acidify azide: hydrazoic acid is very toxic and explosive; if it has happened, leave the area and ventilate.", "Keep azide solutions alkaline (above pH 9) and work only with extraction."},
 }
 
 // judgeGas turns each gas pool into a hazard when its headspace

@@ -90,12 +90,15 @@ type Outcome struct {
 	After           []Amount // species after the reactions that proceed
 	Chemicals       []string // formulas named in the streams
 	SolidChemicals  []string // formulas of streams given as solids (a mass, no liquid)
-	StrongAcid      bool     // a stream holds a strong acid
-	StrongBase      bool     // a stream holds a strong base
-	Reactions       []Proceeding
-	HeldBack        []HeldBack
-	Gases           []Gas
-	Heat            Heat
+	// SolidKg is the mass (kg) of each chemical poured as a solid stream
+	// of that chemical alone.
+	SolidKg    map[string]float64
+	StrongAcid bool // a stream holds a strong acid
+	StrongBase bool // a stream holds a strong base
+	Reactions  []Proceeding
+	HeldBack   []HeldBack
+	Gases      []Gas
+	Heat       Heat
 	// Measured holds, by gas formula, what the equilibrium state of the mix
 	// says of a gas it can form: the amount given off or held by the
 	// headspace and the headspace concentration. A measured gas is judged

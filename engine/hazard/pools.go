@@ -79,6 +79,8 @@ func addTo(ps map[string]*pool, gas string, mol, molecular float64, origin, sour
 var poolRules = []func(o *Outcome, ps map[string]*pool){
 	chlorineFromHypochlorite, aquaRegia, chlorateWithHydrochloric, bromateWithAcid,
 	cyanogenChloride, borohydrideInAcid, dithioniteInAcid, alkaliMetalInWater,
+	// organic families (organic.go)
+	carbonMonoxideFromAcids,
 }
 
 // hypochloriteMolar is HOCl + OCl- after the reactions that run.

@@ -66,7 +66,7 @@ func pairAdvice(x, y engine.PourOrder) string {
 	case span(y) < span(x):
 		return lessens(y, x)
 	}
-	return "Both orders meet the same hazards (" + codes(x) + "); add slowly either way."
+	return "Both orders meet the same hazards (" + codes(x) + "); no order of addition avoids them: follow the actions above."
 }
 
 func better(good, bad engine.PourOrder) string {

@@ -67,7 +67,7 @@ func AnalyseLocal(req *engine.Request, eval Evaluate, local Local) *engine.Addit
 	add.Sequences, pts = sequences(req, eval, byPair, local)
 	add.Points += pts
 	add.Advice = advice(add)
-	if s := sequenceAdvice(add.Sequences); s != "" {
+	if s := sequenceAdvice(add.Sequences, add.Orders); s != "" {
 		add.Advice = s + " " + add.Advice
 	}
 	return add

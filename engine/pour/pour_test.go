@@ -127,7 +127,7 @@ func TestSequencesFindTheSafeOne(t *testing.T) {
 	if last := add.Sequences[5]; last.Worst != engine.Danger {
 		t.Errorf("worst sequence %v meets %q, want danger", last.Streams, last.Worst)
 	}
-	if !strings.HasPrefix(add.Advice, "In sequence: start with ") || !strings.Contains(add.Advice, "nothing of concern appears along that sequence") {
+	if !strings.HasPrefix(add.Advice, "In sequence: start with ") || !strings.Contains(add.Advice, "that sequence keeps apart the streams that meet chlorine") {
 		t.Errorf("advice %q", add.Advice)
 	}
 	// Each distinct step is judged once: 6 pair orders and 3 second steps.

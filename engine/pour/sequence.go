@@ -132,7 +132,10 @@ func severityOf(r int) engine.Severity {
 }
 
 // sequenceAdvice names the best sequence when it avoids what others meet.
-func sequenceAdvice(seqs []engine.PourSequence) string {
+// When a pair of the streams meets a hazard run directly into each other
+// (orders), the advice names it rather than saying nothing is of concern:
+// the sequence only keeps that pair apart.
+func sequenceAdvice(seqs []engine.PourSequence, orders []engine.PourOrder) string {
 	if len(seqs) == 0 {
 		return ""
 	}
@@ -158,6 +161,17 @@ func sequenceAdvice(seqs []engine.PourSequence) string {
 			}
 		}
 		return s + "; that sequence still meets " + strings.Join(cs, ", ") + "."
+	}
+	var pair []string
+	for _, o := range orders {
+		for _, h := range o.Hazards {
+			if rank(h.Worst) >= engine.Warning.Rank() && !slices.Contains(pair, h.Code) {
+				pair = append(pair, h.Code)
+			}
+		}
+	}
+	if len(pair) > 0 {
+		return s + ": that sequence keeps apart the streams that meet " + strings.Join(pair, ", ") + " when run directly into each other."
 	}
 	return s + ": nothing of concern appears along that sequence."
 }

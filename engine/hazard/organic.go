@@ -1,0 +1,433 @@
+package hazard
+
+import (
+	"math"
+
+	"mixward/engine"
+	"mixward/engine/chem"
+)
+
+// Reaction families of organic matter with oxidizing agents, acids and
+// bases that are fast and dangerous in a tank but that the equilibrium
+// state does not hold (their products have no species data, or the
+// organic-carbon lock keeps organic matter as it is). Each is judged from
+// what the streams bring together, with a threshold that keeps routine
+// pours (dilute CIP detergents with traces of organics, 200 ppm peracid, a
+// dilute ethanol rinse) quiet, and its source beside it. Where formation
+// enthalpies allow, the heat is estimated and says so.
+//
+// They are listed in familyRules (families.go).
+
+// Thresholds of the organic families (mol/L in the mix), common practice,
+// no source: below them the organic is a trace or a rinse, not a reagent.
+const (
+	// OrganicLiquidMolar is the organic liquid (alcohol, ketone, glycerol)
+	// that makes a strong oxidizer's mix a fire hazard: about 3 % by volume
+	// of ethanol. A dilute ethanol rinse (1 %, 0.17 mol/L) stays below it.
+	OrganicLiquidMolar = 0.5
+	// OrganicNeatMolar is the organic liquid from which the mix is mostly
+	// organic (about 12 % by volume of ethanol and more): the oxidizer
+	// meets it neat where it lands.
+	OrganicNeatMolar = 2.0
+	// FamilyTraceMolar is the least amount of each partner that an organic
+	// family counts: about 0.05 % formaldehyde or 0.06 % acetone.
+	FamilyTraceMolar = 0.01
+)
+
+// DangerRiseC is the estimated temperature rise from which a family's heat
+// alone makes it a reason not to combine (common practice, no source: the
+// mix then runs far above any safe handling temperature, and faster as it
+// warms).
+const DangerRiseC = 30.0
+
+// heatEstimate turns an estimated reaction heat (kJ) into words and tells
+// whether it alone is a danger (boils, or rises by DangerRiseC or more).
+func heatEstimate(o *Outcome, kJ float64) (string, bool) {
+	rise := engine.TemperatureRise(kJ, o.VolumeL) // about 1 kg per litre
+	reached := o.TemperatureC + rise
+	s := "heat estimate about " + fmtNum(kJ, 2) + " kJ"
+	if kJ >= 1e4 {
+		s = "heat estimate about " + fmtNum(kJ/1000, 2) + " MJ"
+	}
+	if reached >= BoilingC {
+		return s + ", enough to boil the mix", true
+	}
+	return s + ", about +" + fmtNum(rise, 2) + " °C", rise >= DangerRiseC
+}
+
+// ketones are the ketones of the dictionary, as dissolved species.
+var ketones = []string{"CH3COCH3"}
+
+// organicLiquids are the organic liquids of the dictionary with species
+// data, with the electrons one molecule gives up when a strong oxidizing
+// agent takes it to the usual product (methanol to formic acid, ethanol to
+// acetic acid, isopropanol to acetone, glycerol to carbon dioxide,
+// formaldehyde to formic acid). Acetone has its own families (peroxides,
+// haloform).
+var organicLiquids = []struct {
+	species   string
+	electrons float64
+}{
+	{"CH3OH", 4}, {"C2H5OH", 4}, {"(CH3)2CHOH", 2}, {"C3H5(OH)3", 14},
+}
+
+// organicLiquid is the mol/L of organic liquids and the mol/L of
+// electrons they can give up.
+func organicLiquid(o *Outcome) (molar, electrons float64) {
+	for _, l := range organicLiquids {
+		m := o.MolarBefore(l.species)
+		molar += m
+		electrons += m * l.electrons
+	}
+	return molar, electrons
+}
+
+// organicPeroxides: ketones with hydrogen peroxide form cyclic ketone
+// peroxides (acetone peroxide), primary explosives that crystallise out of
+// the mix; acid catalyses it.
+func organicPeroxides(o *Outcome) (engine.Hazard, bool) {
+	k, p := o.MolarBefore(ketones...), o.MolarBefore("H2O2", "HO2-")
+	if k < 5*FamilyTraceMolar || p < 0.1 {
+		return engine.Hazard{}, false
+	}
+	why := ""
+	if o.PH < 3 {
+		why = " The acid in the mix speeds it up: crystals can form within hours."
+	}
+	return mk("organic-peroxides", engine.Danger,
+		"A ketone ("+fmtNum(k, 2)+" mol/L) with hydrogen peroxide ("+fmtNum(p, 2)+" mol/L) forms ketone peroxides (acetone peroxide): primary explosives that crystallise out of the mix and go off on friction, shock or warming."+why,
+		"Do not combine. Never add acid to a peroxide and ketone mix; keep solvents away from peroxide, and peroxide out of solvent waste.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, hydrogen peroxide with ketones and acetone with hydrogen peroxide (from memory); thresholds 0.05 mol/L ketone and 0.1 mol/L peroxide: common practice, no source"), true
+}
+
+// perchlorateEsters: concentrated perchloric acid with alcohols and other
+// organic matter forms alkyl perchlorates, extremely shock-sensitive, and
+// the mix can explode when warmed or left to concentrate.
+func perchlorateEsters(o *Outcome) (engine.Hazard, bool) {
+	hclo4 := o.MolarBefore("ClO4-", "HClO4")
+	c := organicC(o.Before)
+	if hclo4 < 1 || o.PH >= 0.5 || c < 5*FamilyTraceMolar {
+		return engine.Hazard{}, false
+	}
+	sev, msg := engine.Warning, "Perchloric acid ("+fmtNum(hclo4, 2)+" mol/L in the mix) with organic matter ("+fmtNum(c, 2)+" mol/L of carbon): warmed or left to concentrate it forms explosive perchlorate esters and can explode."
+	if hclo4 >= 3 {
+		sev, msg = engine.Danger, "Concentrated perchloric acid ("+fmtNum(hclo4, 2)+" mol/L in the mix) with alcohols or other organic matter ("+fmtNum(c, 2)+" mol/L of carbon) forms alkyl perchlorates, which explode on shock, and the mix can explode on warming; it is also a strong oxidizer with fuel."
+	}
+	return mk("perchlorate-esters", sev, msg,
+		"Do not combine. Keep alcohols, solvents and other organic matter away from perchloric acid; use it only in a perchloric-acid fume hood with wash-down.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, perchloric acid with alcohols (from memory); perchloric-acid fume hoods with no organics: common practice, no source; 3 mol/L (about 28 %) danger and 1 mol/L warning thresholds: common practice, no source"), true
+}
+
+// strongOxidizer is a strong oxidizing agent that sets organic liquids
+// alight or boiling: as a solid stream, or as a concentrated solution.
+type strongOxidizer struct {
+	name      string
+	species   []string // dissolved forms, one oxidizing atom each (dichromate counted twice below)
+	solids    []string // chemicals that, poured as a solid, meet the liquid neat
+	electrons float64  // taken up per oxidizing atom
+	solution  float64  // mol/L in the mix from which the solution counts (0: only as a solid)
+	acidPH    float64  // the solution counts only below this pH (0: any pH)
+	organic   float64  // mol/L of organic liquid from which it counts
+	// landsNeat: the concentrated solution is a danger with any organic
+	// liquid above its threshold, whatever the heat of the whole mix: the
+	// solvent poured in meets it neat where it lands (concentrated chromic
+	// acid ignites alcohols: Bretherick's Handbook, chromium trioxide, from
+	// memory).
+	landsNeat bool
+}
+
+var strongOxidizers = []strongOxidizer{
+	{name: "Permanganate", species: []string{"MnO4-", "HMnO4"}, solids: []string{"KMnO4", "NaMnO4"}, electrons: 3,
+		solution: 0.2, organic: OrganicLiquidMolar},
+	{name: "Chromic acid", species: []string{"HCrO4-", "H2CrO4", "CrO4^2-", "Cr2O7^2-", "Cr2O7^2-"},
+		solids: []string{"CrO3", "K2Cr2O7", "Na2Cr2O7", "Na2Cr2O7.2H2O"}, electrons: 3, solution: 1, acidPH: 1,
+		organic: 5 * FamilyTraceMolar, landsNeat: true},
+	{name: "Hypochlorite", species: []string{"OCl-", "HOCl"}, solids: []string{"Ca(OCl)2", "C3Cl3N3O3", "NaC3Cl2N3O3", "C5H6BrClN2O2", "LiOCl"},
+		electrons: 2, solution: 0.5, organic: OrganicLiquidMolar},
+}
+
+// ThorntonKJPerElectron is the heat of oxidizing organic matter per
+// electron taken up: about 418 kJ per mol of O2 consumed, whatever the
+// compound (Thornton's rule; W. M. Thornton, Phil. Mag. 33, 196 (1917),
+// from memory), a quarter per electron. Used with other oxidizing agents it
+// is an estimate only.
+const ThorntonKJPerElectron = 418.0 / 4
+
+// oxidizerOrganic: solid permanganate, chromic acid, calcium hypochlorite
+// or a chloroisocyanurate on an organic liquid ignites, often after a short
+// delay; concentrated chromic acid oxidizes alcohols fast, to the boil.
+func oxidizerOrganic(o *Outcome) (engine.Hazard, bool) {
+	org, orgE := organicLiquid(o)
+	for _, x := range strongOxidizers {
+		ox := o.MolarBefore(x.species...)
+		solid := o.SolidStream(x.solids...)
+		conc := x.solution > 0 && ox >= x.solution && (x.acidPH == 0 || o.PH < x.acidPH)
+		if !(solid && org >= OrganicLiquidMolar) && !(conc && org >= x.organic) {
+			continue
+		}
+		kJ := math.Min(ox*x.electrons, orgE) * o.VolumeL * ThorntonKJPerElectron
+		heat, hot := heatEstimate(o, kJ)
+		sev := engine.Warning
+		if solid || hot || org >= OrganicNeatMolar || conc && x.landsNeat {
+			sev = engine.Danger
+		}
+		how := "A concentrated solution"
+		if solid {
+			how = "The solid"
+		}
+		return mk("oxidizer-organic-fire", sev,
+			x.name+" with an organic liquid ("+fmtNum(org, 2)+" mol/L of alcohol, ketone or glycerol): "+lowerFirst(how)+" oxidizes it violently and can set it alight, often after a short delay ("+heat+" from Thornton's rule).",
+			"Do not combine. Keep strong oxidizers (permanganate, chromic acid, hypochlorite and chlorinating granules) away from solvents, alcohols and glycerol; dispose of each separately.",
+			"Bretherick's Handbook of Reactive Chemical Hazards, potassium permanganate with glycerol, chromium trioxide with ethanol, calcium hypochlorite with alcohols (from memory); heat by Thornton's rule, 418 kJ per mol O2 (from memory); thresholds: common practice, no source"), true
+	}
+	return engine.Hazard{}, false
+}
+
+func lowerFirst(s string) string {
+	if s == "" {
+		return s
+	}
+	return string(s[0]|0x20) + s[1:]
+}
+
+// bisChloromethylEther: formaldehyde with concentrated hydrochloric acid
+// forms bis(chloromethyl) ether, a potent human carcinogen, in the liquid
+// and the vapour above it.
+func bisChloromethylEther(o *Outcome) (engine.Hazard, bool) {
+	f, cl := o.MolarBefore("HCHO"), o.MolarBefore("Cl-", "HCl")
+	if f < FamilyTraceMolar || cl < 1 || o.PH >= 0.5 {
+		return engine.Hazard{}, false
+	}
+	return mk("bis-chloromethyl-ether", engine.Danger,
+		"Formaldehyde ("+fmtNum(f, 2)+" mol/L) with concentrated hydrochloric acid ("+fmtNum(cl, 2)+" mol/L chloride, pH "+fmtNum(o.PH, 2)+") forms bis(chloromethyl) ether, a regulated human carcinogen, in the liquid and the vapour.",
+		"Do not combine. Keep formaldehyde products and hydrochloric acid in separate lines and drains.",
+		"NIOSH Pocket Guide, bis(chloromethyl) ether (from memory); OSHA 29 CFR 1910.1008 (from memory); 1 mol/L chloride below pH 0.5: common practice, no source"), true
+}
+
+// Formation enthalpies for the formaldehyde estimates (kJ/mol, 298 K):
+// NBS Tables 1982 (from memory), except dissolved formaldehyde, which the
+// species data lacks: the gas (−108.57) with its heat of solution to the
+// hydrate, about −150 in all (from memory, less firm).
+const (
+	dfHFormaldehydeAq = -150.0
+	dfHFormate        = -425.55
+	dfHMethanolAq     = -245.931
+	dfHHydroxide      = -229.994
+	dfHHypochlorite   = -107.1
+	dfHChloride       = -167.159
+	dfHWater          = -285.83
+)
+
+// cannizzaroKJ is the heat of 2 HCHO + OH- → HCOO- + CH3OH per mol of
+// formaldehyde (−70.7 kJ).
+var cannizzaroKJ = -(dfHFormate + dfHMethanolAq - 2*dfHFormaldehydeAq - dfHHydroxide) / 2
+
+// cannizzaro: formaldehyde in strong caustic disproportionates to formate
+// and methanol, fast and strongly exothermic.
+func cannizzaro(o *Outcome) (engine.Hazard, bool) {
+	f, oh := o.MolarBefore("HCHO"), o.MolarBefore("OH-")
+	if f < 5*FamilyTraceMolar || oh < 0.1 {
+		return engine.Hazard{}, false
+	}
+	kJ := math.Min(f, 2*oh) * o.VolumeL * cannizzaroKJ
+	heat, hot := heatEstimate(o, kJ)
+	sev := engine.Warning
+	if hot || f >= 1 {
+		sev = engine.Danger
+	}
+	return mk("formaldehyde-caustic-heat", sev,
+		"Formaldehyde ("+fmtNum(f, 2)+" mol/L) in strong caustic ("+fmtNum(oh, 2)+" mol/L hydroxide) turns into formate and methanol (2 HCHO + OH- → HCOO- + CH3OH) quickly, with heat that speeds it up ("+heat+").",
+		"Do not combine. If formaldehyde must be neutralised, do it dilute, cold and slowly, with cooling and venting.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, formaldehyde with alkalis (from memory); heat estimate from ΔfH° of formate, methanol and hydroxide (NBS Tables 1982, from memory) and dissolved formaldehyde about −150 kJ/mol (from memory); thresholds: common practice, no source"), true
+}
+
+// hexamine: formaldehyde with ammonia gives hexamethylenetetramine
+// (6 HCHO + 4 NH3 → C6H12N4 + 6 H2O), fast and strongly exothermic; the heat
+// drives ammonia out of the mix.
+func hexamine(o *Outcome) (engine.Hazard, bool) {
+	f, n := o.MolarBefore("HCHO"), o.MolarBefore("NH3", "NH4+")
+	if f < 5*FamilyTraceMolar || n < 5*FamilyTraceMolar || o.PH < 7 {
+		return engine.Hazard{}, false
+	}
+	sev := engine.Warning
+	if f >= 1 && n >= 1 {
+		sev = engine.Danger
+	}
+	return mk("formaldehyde-ammonia-heat", sev,
+		"Formaldehyde ("+fmtNum(f, 2)+" mol/L) with ammonia ("+fmtNum(n, 2)+" mol/L) forms hexamine (6 HCHO + 4 NH3 → C6H12N4 + 6 H2O) quickly and with strong heat, which boils ammonia out of the mix (no heat estimate: the product has no formation enthalpy in the tables).",
+		"Do not combine in one go. If it must be done, run one dilute stream slowly into the other with cooling and extraction.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, formaldehyde with ammonia (from memory); Vogel's Textbook of Practical Organic Chemistry, hexamine (from memory); thresholds: common practice, no source"), true
+}
+
+// formaldehydeOCl is the heat of HCHO + OCl- + OH- → HCOO- + Cl- + H2O per
+// mol (−391 kJ).
+var formaldehydeOCl = -(dfHFormate + dfHChloride + dfHWater - dfHFormaldehydeAq - dfHHypochlorite - dfHHydroxide)
+
+// formaldehydeHypochlorite: hypochlorite oxidizes formaldehyde to formate
+// quickly and with much heat.
+func formaldehydeHypochlorite(o *Outcome) (engine.Hazard, bool) {
+	n := math.Min(o.MolarBefore("HCHO"), hypochloriteAny(o))
+	if n < FamilyTraceMolar {
+		return engine.Hazard{}, false
+	}
+	heat, hot := heatEstimate(o, n*o.VolumeL*formaldehydeOCl)
+	sev := engine.Warning
+	if hot || n >= 0.5 {
+		sev = engine.Danger
+	}
+	return mk("formaldehyde-oxidation", sev,
+		"Hypochlorite oxidizes formaldehyde ("+fmtNum(n, 2)+" mol/L of each can meet) to formate quickly (HCHO + OCl- + OH- → HCOO- + Cl- + H2O), "+heat+".",
+		"Do not combine. Keep formaldehyde products and hypochlorite in separate lines, rinsed between uses.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, sodium hypochlorite with formaldehyde (from memory); heat estimate from ΔfH° (NBS Tables 1982, from memory; dissolved formaldehyde about −150 kJ/mol, from memory); thresholds: common practice, no source"), true
+}
+
+// haloformKJ is the heat of CH3COCH3 + 3 OCl- → CHCl3 + CH3COO- + 2 OH- per
+// mol of hypochlorite: ΔfH° acetone(aq) about −258 (the liquid −248.4 with
+// about −10 heat of solution), CHCl3 −134.5, acetate −486.0, OH- −230.0,
+// OCl- −107.1 (NBS Tables 1982, from memory) give about −167 kJ.
+const haloformKJ = 167.0
+
+// haloform: hypochlorite chlorinates methyl ketones to chloroform and
+// acetate (the haloform reaction), with heat.
+func haloform(o *Outcome) (engine.Hazard, bool) {
+	k, ocl := o.MolarBefore(ketones...), hypochloriteAny(o)
+	if k < FamilyTraceMolar || ocl < FamilyTraceMolar {
+		return engine.Hazard{}, false
+	}
+	n := math.Min(ocl, 3*k) // hypochlorite used
+	heat, hot := heatEstimate(o, n*o.VolumeL*haloformKJ)
+	sev := engine.Warning
+	if hot || n/3 >= 0.05 {
+		sev = engine.Danger
+	}
+	return mk("chloroform-formation", sev,
+		"Hypochlorite with a ketone ("+fmtNum(k, 2)+" mol/L acetone) runs the haloform reaction (CH3COCH3 + 3 OCl- → CHCl3 + CH3COO- + 2 OH-): up to "+fmtNum(n/3*o.VolumeL, 2)+" mol chloroform, toxic and a suspected carcinogen, in the liquid and the vapour; "+heat+".",
+		"Do not combine. Keep solvents out of bleach and bleach out of solvent waste.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, sodium hypochlorite with acetone (from memory); Vogel's Textbook of Practical Organic Chemistry, haloform reaction (from memory); heat estimate from ΔfH° (NBS Tables 1982, from memory); thresholds: common practice, no source"), true
+}
+
+// heavyMetals are the metals whose azides are primary explosives.
+var heavyMetals = []string{"Cu", "Pb", "Ag", "Hg", "Zn", "Cd"}
+
+// heavyMetalAzide: azide with copper, lead, silver, mercury, zinc or
+// cadmium (ions or the metal: brass and copper drains) forms their azides,
+// primary explosives that go off on friction or shock.
+func heavyMetalAzide(o *Outcome) (engine.Hazard, bool) {
+	az := math.Max(o.MolarBefore("N3-", "HN3"), o.Molar("N3-", "HN3"))
+	if az < 1e-4 {
+		return engine.Hazard{}, false
+	}
+	metal := ""
+	for i := range o.Before {
+		a := &o.Before[i]
+		solidMetal := a.Species.Phase == engine.Solid && a.Mol > 0
+		if a.Molar < 1e-5 && !solidMetal {
+			continue
+		}
+		at, err := chem.ParseFormula(a.Species.Formula)
+		if err != nil {
+			continue
+		}
+		for _, m := range heavyMetals {
+			if at[m] > 0 {
+				metal = m
+			}
+		}
+		if metal != "" {
+			break
+		}
+	}
+	if metal == "" {
+		return engine.Hazard{}, false
+	}
+	return mk("heavy-metal-azide", engine.Danger,
+		"Azide ("+fmtNum(az, 2)+" mol/L) with "+metal+" forms the heavy-metal azide: a primary explosive that settles out and goes off on friction, shock or drying; this is why azide never goes down copper, brass or lead drains.",
+		"Do not combine. Keep azide solutions away from copper, lead, brass, silver, mercury and zinc and their salts; destroy azide by the site's procedure before it reaches a drain.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, sodium azide with heavy metals (from memory); NIOSH Pocket Guide, sodium azide (from memory); 1e-4 mol/L azide threshold: common practice, no source"), true
+}
+
+// chlorinatorFamilies are the kinds of chlorinating product: different
+// kinds must never meet, dry or wet (calcium hypochlorite with
+// trichloroisocyanuric acid is the classic fire and nitrogen trichloride
+// explosion).
+var chlorinatorFamilies = []struct {
+	name      string
+	chemicals []string
+}{
+	{"hypochlorite", []string{"Ca(OCl)2", "NaOCl", "LiOCl", "KOCl"}},
+	{"chloroisocyanurate", []string{"C3Cl3N3O3", "NaC3Cl2N3O3"}},
+	{"halogenated hydantoin", []string{"C5H6BrClN2O2"}},
+}
+
+// mixedChlorinators: two different kinds of chlorinating product, at least
+// one of them poured as a solid.
+func mixedChlorinators(o *Outcome) (engine.Hazard, bool) {
+	var kinds []string
+	solid := false
+	for _, f := range chlorinatorFamilies {
+		if o.Named(f.chemicals...) {
+			kinds = append(kinds, f.name)
+			solid = solid || o.SolidStream(f.chemicals...)
+		}
+	}
+	if len(kinds) < 2 || !solid {
+		return engine.Hazard{}, false
+	}
+	return mk("mixed-chlorinators", engine.Danger,
+		"Two different chlorinating products ("+kinds[0]+" and "+kinds[1]+") react with each other, dry or damp: heat, chlorine and explosive nitrogen trichloride, and the heap can catch fire.",
+		"Never combine different chlorinating products, dry or wet: store, scoop and dose each separately, with its own feeder and clean, dry tools.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, calcium hypochlorite with trichloroisocyanuric acid (from memory); pool-chemical storage rules: common practice, no source"), true
+}
+
+// chlorinatorSolubility is how much of a solid chlorinating product
+// dissolves in water at about 20 °C (g/L) and its molar mass (g/mol).
+var chlorinatorSolubility = map[string]struct {
+	name   string
+	gPerL  float64
+	source string
+}{
+	"C3Cl3N3O3":    {"trichloroisocyanuric acid", 12, "trichloroisocyanuric acid about 12 g/L at 25 °C (from memory)"},
+	"C5H6BrClN2O2": {"BCDMH", 1.5, "BCDMH about 1.5 g/L at 25 °C (from memory)"},
+}
+
+// undissolved says how much of a slowly soluble chlorinator stays solid
+// in the mix, or "" when it all dissolves.
+func undissolved(o *Outcome) (string, string) {
+	for f, kg := range o.SolidKg {
+		s, ok := chlorinatorSolubility[f]
+		if !ok || o.VolumeL <= 0 {
+			continue
+		}
+		dis := s.gPerL * o.VolumeL / 1000
+		if dis >= kg {
+			continue
+		}
+		return " Only about " + fmtNum(dis, 2) + " kg of the " + fmtNum(kg, 3) + " kg of " + s.name + " dissolves in " + fmtNum(o.VolumeL, 3) +
+			" L (solubility about " + fmtNum(s.gPerL, 2) + " g/L); the rest stays as solid, and the figures of this answer count it all as dissolved.", s.source
+	}
+	return "", ""
+}
+
+// SulfuricDehydratingMolar is the sulfuric acid in the mix (mol/L, about
+// 60 %) from which it dehydrates formic and oxalic acid to carbon monoxide
+// (common practice, no source; the laboratory preparation uses the
+// concentrated acid).
+const SulfuricDehydratingMolar = 8
+
+// carbonMonoxideFromAcids: concentrated sulfuric acid takes the water out
+// of formic acid (HCOOH → CO + H2O) and oxalic acid (H2C2O4 → CO + CO2 +
+// H2O): the laboratory way of making carbon monoxide. All the formic and
+// oxalic acid is counted (an upper bound).
+func carbonMonoxideFromAcids(o *Outcome, ps map[string]*pool) {
+	if sulfuric(o) < SulfuricDehydratingMolar {
+		return
+	}
+	formic := o.MolarBefore("HCOOH", "HCOO-")
+	oxalic := o.MolarBefore("H2C2O4", "HC2O4-", "C2O4^2-")
+	if formic+oxalic < FamilyTraceMolar {
+		return
+	}
+	addTo(ps, "CO", (formic+oxalic)*o.VolumeL, 1,
+		"formic or oxalic acid dehydrated by concentrated sulfuric acid (HCOOH → CO + H2O)",
+		"Vogel's Textbook of Practical Organic Chemistry and Vogel's Qualitative Inorganic Analysis, carbon monoxide from formic or oxalic acid and concentrated sulfuric acid (from memory)")
+}
