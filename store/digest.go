@@ -94,7 +94,7 @@ func (db *DB) Digest(ctx context.Context, since, until time.Time) (*Digest, erro
 	}
 	d := &Digest{Since: since.UTC(), Until: until.UTC(), TimeZone: db.loc.String(), Location: db.loc,
 		Askers: []AskerCount{}, Flagged: []FlaggedMix{}, ParseErrors: []ParseFailure{}, TopPairs: []PairCount{}}
-	tx, err := db.r.BeginTx(ctx, nil)
+	tx, err := db.readTx(ctx)
 	if err != nil {
 		return nil, fmt.Errorf("digest: %w", err)
 	}

@@ -277,31 +277,20 @@ func (db *DB) claimDigest(ctx context.Context, slot, since time.Time) (bool, err
 	if err := db.writable("claim digest"); err != nil {
 		return false, err
 	}
-	tx, err := db.w.BeginTx(ctx, nil)
+	// One statement: a new slot is inserted, a failed one taken again, any
+	// other left alone. Under concurrent replicas the primary key makes the
+	// second claimant wait for the first and then find the slot taken.
+	res, err := db.w.ExecContext(ctx, `INSERT INTO digests (slot, since, claimed_at, status, attempts) VALUES (?, ?, ?, 'claimed', 1)
+		ON CONFLICT (slot) DO UPDATE SET status = 'claimed', claimed_at = excluded.claimed_at, attempts = digests.attempts + 1
+		WHERE digests.status = 'failed'`, formatTime(slot), formatTime(since), formatTime(db.now()))
 	if err != nil {
 		return false, fmt.Errorf("claim digest: %w", err)
 	}
-	defer tx.Rollback()
-	var status string
-	err = tx.QueryRowContext(ctx, `SELECT status FROM digests WHERE slot = ?`, formatTime(slot)).Scan(&status)
-	switch {
-	case errors.Is(err, sql.ErrNoRows):
-		_, err = tx.ExecContext(ctx, `INSERT INTO digests (slot, since, claimed_at, status, attempts) VALUES (?, ?, ?, 'claimed', 1)`,
-			formatTime(slot), formatTime(since), formatTime(db.now()))
-	case err != nil:
-	case status == "failed":
-		_, err = tx.ExecContext(ctx, `UPDATE digests SET status = 'claimed', claimed_at = ?, attempts = attempts + 1 WHERE slot = ?`,
-			formatTime(db.now()), formatTime(slot))
-	default:
-		return false, nil
-	}
+	n, err := res.RowsAffected()
 	if err != nil {
 		return false, fmt.Errorf("claim digest: %w", err)
 	}
-	if err := tx.Commit(); err != nil {
-		return false, fmt.Errorf("claim digest: %w", err)
-	}
-	return true, nil
+	return n == 1, nil
 }
 
 func (db *DB) finishDigest(ctx context.Context, slot time.Time, status, detail string, d *Digest) error {

@@ -144,7 +144,7 @@ func (db *DB) Stream(ctx context.Context, tag string) (Stream, error) {
 	if err != nil {
 		return Stream{}, fmt.Errorf("stream: %w", err)
 	}
-	tx, err := db.r.BeginTx(ctx, nil)
+	tx, err := db.readTx(ctx)
 	if err != nil {
 		return Stream{}, fmt.Errorf("stream %s: %w", t, err)
 	}

@@ -73,12 +73,12 @@ type pruneRecord struct {
 // sqlite_sequence, and the derived rows with them) is not caught: compare
 // HeadHash with a copy kept elsewhere (a digest, a backup, an anchors file).
 func (db *DB) Verify(ctx context.Context, anchors ...Anchor) (VerifyReport, error) {
-	tx, err := db.r.BeginTx(ctx, nil)
+	tx, err := db.readTx(ctx)
 	if err != nil {
 		return VerifyReport{}, fmt.Errorf("verify: %w", err)
 	}
 	defer tx.Rollback()
-	return verifyTx(ctx, tx, db.ver, db.key, anchors)
+	return verifyTx(ctx, tx, db.ver, db.key, anchors, db.pg)
 }
 
 // queryer is what verifyTx needs: a *sql.Tx, or a *sql.DB.
@@ -107,7 +107,7 @@ type walk struct {
 	derivedProblem string
 }
 
-func verifyTx(ctx context.Context, tx queryer, ver int, key *ChainKey, anchors []Anchor) (VerifyReport, error) {
+func verifyTx(ctx context.Context, tx queryer, ver int, key *ChainKey, anchors []Anchor, pg bool) (VerifyReport, error) {
 	rep := VerifyReport{}
 	given := func(int) string { return "an anchor" }
 	w := &walk{ctx: ctx, tx: tx, ver: ver, key: key, rep: &rep, first: true, anchors: newAnchorCheck(anchors, given)}
@@ -121,11 +121,15 @@ func verifyTx(ctx context.Context, tx queryer, ver int, key *ChainKey, anchors [
 	w.recorded = newAnchorCheck(recorded, func(i int) string { return from[i] })
 	rep.DigestAnchors = len(recorded)
 	var seq int64
-	err = tx.QueryRowContext(ctx, `SELECT seq FROM sqlite_sequence WHERE name = 'queries'`).Scan(&seq)
+	seqSQL := `SELECT seq FROM sqlite_sequence WHERE name = 'queries'`
+	if pg {
+		seqSQL = `SELECT seq FROM chain_state`
+	}
+	err = tx.QueryRowContext(ctx, seqSQL).Scan(&seq)
 	if err != nil && !errors.Is(err, sql.ErrNoRows) {
 		return rep, fmt.Errorf("verify: %w", err)
 	}
-	w.derived, err = newDerivedCheck(ctx, tx, ver)
+	w.derived, err = newDerivedCheck(ctx, tx, ver, pg)
 	defer w.derived.close() // also the cursors opened before an error
 	if err != nil {
 		return rep, fmt.Errorf("verify: %w", err)
