@@ -2,10 +2,10 @@ package store
 
 import (
 	"context"
-	"math"
 	"database/sql"
 	"encoding/json"
 	"fmt"
+	"math"
 	"strconv"
 	"strings"
 )

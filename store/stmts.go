@@ -37,7 +37,7 @@ const insertV3 = `INSERT INTO queries (id, kind, time, user_id, user_name, chann
 // writeStmts are the statements of LogQuery.
 type writeStmts struct {
 	head, insert, hazard, index, event, indexed, setIndexed, timeBroken stmt
-	seq                                                                stmt // PostgreSQL: chain_state.seq
+	seq                                                                 stmt // PostgreSQL: chain_state.seq
 }
 
 func newWriteStmts(pg bool) *writeStmts {
