@@ -2,7 +2,6 @@ package store
 
 import (
 	"context"
-	"database/sql"
 	"encoding/json"
 	"fmt"
 	"math"
@@ -54,14 +53,14 @@ type derivedCheck struct {
 
 // cursor is one derived table read in id order; cur holds the row ahead.
 type cursor struct {
-	rows *sql.Rows
+	rows rowSource
 	ok   bool
 	id   int64
 	cols []string
 }
 
-func openCursor(ctx context.Context, tx queryer, n int, q string) (*cursor, error) {
-	rows, err := tx.QueryContext(ctx, q)
+func openCursor(ctx context.Context, tx queryer, pg bool, n int, q string) (*cursor, error) {
+	rows, err := openRows(ctx, tx, pg, q)
 	if err != nil {
 		return nil, err
 	}
@@ -84,7 +83,7 @@ func (c *cursor) next() error {
 func newDerivedCheck(ctx context.Context, tx queryer, ver int, pg bool) (*derivedCheck, error) {
 	d := &derivedCheck{ctx: ctx, tx: tx, enabled: ver >= 2, pg: pg}
 	var err error
-	d.hz, err = openCursor(ctx, tx, 4, `SELECT query_id, pos, code, severity, message FROM query_hazards ORDER BY query_id, pos`)
+	d.hz, err = openCursor(ctx, tx, pg, 4, `SELECT query_id, pos, code, severity, message FROM query_hazards ORDER BY query_id, pos`)
 	if err != nil || !d.enabled {
 		return d, err
 	}
@@ -96,10 +95,10 @@ func newDerivedCheck(ctx context.Context, tx queryer, ver int, pg bool) (*derive
 		// The index is generated from search_doc by the server; every row
 		// is indexed as it is written.
 		d.indexedUpto = math.MaxInt64
-		d.fts, err = openCursor(ctx, tx, 1, `SELECT id, search_doc FROM queries WHERE kind = 'query' ORDER BY id`)
+		d.fts, err = openCursor(ctx, tx, pg, 1, `SELECT id, search_doc FROM queries WHERE kind = 'query' ORDER BY id`)
 		return d, err
 	}
-	d.fts, err = openCursor(ctx, tx, 3, `SELECT docid, c0request, c1species, c2hazards FROM query_fts_content ORDER BY docid`)
+	d.fts, err = openCursor(ctx, tx, pg, 3, `SELECT docid, c0request, c1species, c2hazards FROM query_fts_content ORDER BY docid`)
 	return d, err
 }
 

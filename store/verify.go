@@ -93,6 +93,7 @@ type walk struct {
 	ctx      context.Context
 	tx       queryer
 	ver      int
+	pg       bool
 	key      *ChainKey
 	rep      *VerifyReport
 	prev     row
@@ -110,7 +111,7 @@ type walk struct {
 func verifyTx(ctx context.Context, tx queryer, ver int, key *ChainKey, anchors []Anchor, pg bool) (VerifyReport, error) {
 	rep := VerifyReport{}
 	given := func(int) string { return "an anchor" }
-	w := &walk{ctx: ctx, tx: tx, ver: ver, key: key, rep: &rep, first: true, anchors: newAnchorCheck(anchors, given)}
+	w := &walk{ctx: ctx, tx: tx, ver: ver, pg: pg, key: key, rep: &rep, first: true, anchors: newAnchorCheck(anchors, given)}
 	if ok, err := w.readPruneAnchor(); err != nil || !ok {
 		return rep, err
 	}
@@ -205,7 +206,7 @@ func (w *walk) readPruneAnchor() (bool, error) {
 
 // walkRows checks every row, oldest first, stopping at the first problem.
 func (w *walk) walkRows() error {
-	rows, err := w.tx.QueryContext(w.ctx, `SELECT `+rowColumnsFor(w.ver)+` FROM queries ORDER BY id`)
+	rows, err := openRows(w.ctx, w.tx, w.pg, `SELECT `+rowColumnsFor(w.ver)+` FROM queries ORDER BY id`)
 	if err != nil {
 		return fmt.Errorf("verify: %w", err)
 	}
