@@ -276,3 +276,12 @@ func (db *DB) pgRebuildDerived(ctx context.Context) error {
 	}
 	return nil
 }
+
+// DisplayName is dsn fit for messages: a PostgreSQL URL without its
+// password, a SQLite path as it is.
+func DisplayName(dsn string) string {
+	if IsPostgres(dsn) {
+		return redact(dsn)
+	}
+	return dsn
+}

@@ -54,6 +54,10 @@ type Options struct {
 	OlderSchema bool
 	// Pool tunes the connection pool of a PostgreSQL database.
 	Pool Pool
+	// Site is the site this process serves: the stream catalogue it
+	// resolves tags in, the site its queries are logged under and its
+	// digests cover. "" means DefaultSite.
+	Site string
 	// Replica names this process among several sharing one database (the
 	// owner of inbox leases); "" means host name and process id.
 	Replica string

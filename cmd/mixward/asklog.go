@@ -3,7 +3,6 @@ package main
 import (
 	"context"
 	"errors"
-	"os"
 
 	"mixward/bot"
 	"mixward/engine"
@@ -18,7 +17,7 @@ import (
 // stream catalogue, so that tags resolve.
 func (a *app) askOnce(ctx context.Context, eng *engine.Engine, adv *advice.Advisor, o *storeOpts, text string, noLog bool) (res *engine.Result, id int64, askErr error, err error) {
 	if noLog {
-		if _, statErr := os.Stat(o.db); statErr != nil {
+		if !dbExists(o.db) {
 			res, askErr = adv.Ask(text, engine.AskOptions{})
 			return res, 0, askErr, nil
 		}

@@ -34,7 +34,7 @@ type storeOpts struct {
 // storeFlags registers --db and --tz on fs with their environment defaults.
 func storeFlags(a *app, fs *flag.FlagSet) *storeOpts {
 	o := &storeOpts{}
-	fs.StringVar(&o.db, "db", envOr(a.getenv, "MIXWARD_DB", "mixward.db"), "SQLite `file` of the query log and stream catalogue (env MIXWARD_DB)")
+	fs.StringVar(&o.db, "db", envOr(a.getenv, "MIXWARD_DB", "mixward.db"), "query log and stream catalogue: a SQLite `file`, or a postgres:// URL (env MIXWARD_DB)")
 	fs.StringVar(&o.tz, "tz", envOr(a.getenv, "MIXWARD_TZ", "UTC"), "site time `zone` for dates given and times shown, e.g. Europe/London (env MIXWARD_TZ)")
 	return o
 }
@@ -617,7 +617,7 @@ data hash, its hashes, and whether the answer was posted.`)
 	defer db.Close()
 	q, err := db.Get(ctx, id)
 	if errors.Is(err, store.ErrNotFound) {
-		return &exitError{exitFail, fmt.Errorf("no query %d in %s", id, safe(o.db))}
+		return &exitError{exitFail, fmt.Errorf("no query %d in %s", id, dbName(o.db))}
 	}
 	if err != nil {
 		return err
@@ -803,7 +803,7 @@ The file must not exist yet. Restore with 'mixward log restore <file>'.`)
 	if err != nil {
 		return err
 	}
-	fmt.Fprintf(a.stdout, "Backed up %s to %s (mode 0600).\n", safe(o.db), safe(pos[0]))
+	fmt.Fprintf(a.stdout, "Backed up %s to %s (mode 0600).\n", dbName(o.db), safe(pos[0]))
 	return a.printVerify(rep, "text", pos[0])
 }
 
@@ -847,7 +847,7 @@ with --replace (back it up first).`)
 	if err != nil {
 		return err
 	}
-	fmt.Fprintf(a.stdout, "Restored %s from %s.\n", safe(o.db), safe(pos[0]))
+	fmt.Fprintf(a.stdout, "Restored %s from %s.\n", dbName(o.db), safe(pos[0]))
 	return a.printVerify(rep, "text", o.db)
 }
 
@@ -888,10 +888,10 @@ themselves when they start.`)
 		return err
 	}
 	if from == to {
-		fmt.Fprintf(a.stdout, "%s is already at schema version %d; nothing to do.\n", safe(o.db), to)
+		fmt.Fprintf(a.stdout, "%s is already at schema version %d; nothing to do.\n", dbName(o.db), to)
 		return nil
 	}
-	fmt.Fprintf(a.stdout, "Upgraded %s from schema version %d to %d.\n", safe(o.db), from, to)
+	fmt.Fprintf(a.stdout, "Upgraded %s from schema version %d to %d.\n", dbName(o.db), from, to)
 	return nil
 }
 
@@ -920,7 +920,7 @@ row is changed, so a broken chain stays broken.`)
 	if err := db.RebuildDerived(ctx); err != nil {
 		return err
 	}
-	fmt.Fprintf(a.stdout, "Rebuilt the hazard rows and the search index of %s from the hashed rows.\n", safe(o.db))
+	fmt.Fprintf(a.stdout, "Rebuilt the hazard rows and the search index of %s from the hashed rows.\n", dbName(o.db))
 	rep, err := db.Verify(ctx)
 	if err != nil {
 		return err

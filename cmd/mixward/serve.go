@@ -36,7 +36,7 @@ type siteFlags struct {
 
 func (s *siteFlags) register(fs *flag.FlagSet, getenv func(string) string) {
 	s.getenv = getenv
-	fs.StringVar(&s.db, "db", envOr(getenv, "MIXWARD_DB", "mixward.db"), "SQLite query log and stream catalogue (env MIXWARD_DB)")
+	fs.StringVar(&s.db, "db", envOr(getenv, "MIXWARD_DB", "mixward.db"), "query log and stream catalogue: a SQLite file, or a postgres:// URL (env MIXWARD_DB)")
 	fs.StringVar(&s.tz, "tz", getenv("MIXWARD_TZ"), "site time zone for digests and dates, e.g. Europe/London; empty means UTC (env MIXWARD_TZ)")
 	fs.StringVar(&s.shifts, "shifts", envOr(getenv, "MIXWARD_SHIFTS", store.DefaultShifts), "shift changes as a 5-field cron spec in the site zone; a digest is made at each (env MIXWARD_SHIFTS)")
 }
@@ -77,7 +77,12 @@ func openSite(ctx context.Context, s siteFlags) (*site, error) {
 	if err != nil {
 		return nil, err
 	}
-	db, err := store.Open(ctx, s.db, store.Options{Location: loc, ChainKey: key})
+	opt, err := storeOptions(s.getenv, s.db)
+	if err != nil {
+		return nil, err
+	}
+	opt.Location, opt.ChainKey = loc, key
+	db, err := store.Open(ctx, s.db, opt)
 	if err != nil {
 		return nil, err
 	}
