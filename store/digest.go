@@ -17,6 +17,7 @@ import (
 // has stable snake_case fields; times are UTC, TimeZone names the site zone
 // Text renders them in.
 type Digest struct {
+	Site        string         `json:"site"`
 	Since       time.Time      `json:"since"`
 	Until       time.Time      `json:"until"`
 	TimeZone    string         `json:"time_zone"`
@@ -92,20 +93,20 @@ func (db *DB) Digest(ctx context.Context, since, until time.Time) (*Digest, erro
 		return nil, fmt.Errorf("digest: %w: period %s to %s is empty; the start must be before the end",
 			ErrInvalid, since.Format(time.RFC3339), until.Format(time.RFC3339))
 	}
-	d := &Digest{Since: since.UTC(), Until: until.UTC(), TimeZone: db.loc.String(), Location: db.loc,
+	d := &Digest{Site: db.site, Since: since.UTC(), Until: until.UTC(), TimeZone: db.loc.String(), Location: db.loc,
 		Askers: []AskerCount{}, Flagged: []FlaggedMix{}, ParseErrors: []ParseFailure{}, TopPairs: []PairCount{}}
 	tx, err := db.readTx(ctx)
 	if err != nil {
 		return nil, fmt.Errorf("digest: %w", err)
 	}
 	defer tx.Rollback()
-	window := `q.kind = 'query' AND q.time >= ? AND q.time < ?`
-	lo, hi := formatTime(since), formatTime(until)
+	window := `q.site = ? AND q.kind = 'query' AND q.time >= ? AND q.time < ?`
+	w := []any{db.site, formatTime(since), formatTime(until)}
 	for _, step := range []func() error{
-		func() error { return digestCounts(ctx, tx, d, window, lo, hi) },
-		func() error { return digestFlagged(ctx, tx, d, window, lo, hi) },
-		func() error { return digestErrors(ctx, tx, d, window, lo, hi) },
-		func() error { return digestPairs(ctx, tx, d, window, lo, hi) },
+		func() error { return digestCounts(ctx, tx, d, window, w) },
+		func() error { return digestFlagged(ctx, tx, d, window, w) },
+		func() error { return digestErrors(ctx, tx, d, window, w) },
+		func() error { return digestPairs(ctx, tx, d, window, w) },
 		func() error { return digestHead(ctx, tx, d, until) },
 	} {
 		if err := step(); err != nil {
@@ -116,9 +117,9 @@ func (db *DB) Digest(ctx context.Context, since, until time.Time) (*Digest, erro
 }
 
 // digestCounts counts verdicts and askers in one pass over the time index.
-func digestCounts(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi string) error {
+func digestCounts(ctx context.Context, tx *sql.Tx, d *Digest, window string, w []any) error {
 	rows, err := tx.QueryContext(ctx, `SELECT q.user_id, q.user_name, q.verdict, count(*) FROM queries q WHERE `+window+`
-		GROUP BY q.user_id, q.user_name, q.verdict`, lo, hi)
+		GROUP BY q.user_id, q.user_name, q.verdict`, w...)
 	if err != nil {
 		return err
 	}
@@ -166,13 +167,13 @@ func digestCounts(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi str
 	return nil
 }
 
-func digestFlagged(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi string) error {
+func digestFlagged(ctx context.Context, tx *sql.Tx, d *Digest, window string, w []any) error {
 	// The time index (which holds the verdict) drives; the hazards are the
 	// hashed JSON of each row, so editing a derived table cannot hide one.
 	rows, err := tx.QueryContext(ctx, `SELECT q.id, q.time, q.user_id, q.user_name, q.channel, q.request, q.resolved, q.hazards
 		  FROM queries q
 		 WHERE `+window+` AND q.verdict = 'spontaneous' AND (q.hazards LIKE '%"danger"%' OR q.hazards LIKE '%"warning"%')
-		 ORDER BY q.time, q.id`, lo, hi)
+		 ORDER BY q.time, q.id`, w...)
 	if err != nil {
 		return err
 	}
@@ -213,9 +214,9 @@ func digestHead(ctx context.Context, tx *sql.Tx, d *Digest, until time.Time) err
 	return tx.QueryRowContext(ctx, `SELECT id, hash FROM queries WHERE id = ?`, hi).Scan(&d.HeadID, &d.HeadHash)
 }
 
-func digestErrors(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi string) error {
+func digestErrors(ctx context.Context, tx *sql.Tx, d *Digest, window string, w []any) error {
 	rows, err := tx.QueryContext(ctx, `SELECT q.id, q.time, q.user_id, q.user_name, q.channel, q.request, q.error
-		  FROM queries q WHERE `+window+` AND q.verdict = 'error' ORDER BY q.time, q.id`, lo, hi)
+		  FROM queries q WHERE `+window+` AND q.verdict = 'error' ORDER BY q.time, q.id`, w...)
 	if err != nil {
 		return err
 	}
@@ -234,11 +235,11 @@ func digestErrors(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi str
 	return rows.Err()
 }
 
-func digestPairs(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi string) error {
+func digestPairs(ctx context.Context, tx *sql.Tx, d *Digest, window string, w []any) error {
 	// Operators ask the same mixes again and again: group first, decode
 	// each distinct stream list once.
 	rows, err := tx.QueryContext(ctx, `SELECT q.streams, count(*) FROM queries q WHERE `+window+` AND q.streams <> '[]'
-		GROUP BY q.streams`, lo, hi)
+		GROUP BY q.streams`, w...)
 	if err != nil {
 		return err
 	}
@@ -334,6 +335,9 @@ func (d *Digest) Text() string {
 	}
 	var b strings.Builder
 	fmt.Fprintf(&b, "Shift digest %s – %s", since.Format("Mon 02 Jan 2006 15:04 MST"), untilHeader(since, until))
+	if d.Site != "" && d.Site != DefaultSite {
+		fmt.Fprintf(&b, ", site %s", Printable(d.Site))
+	}
 	if name := loc.String(); name != until.Format("MST") {
 		fmt.Fprintf(&b, " (%s)", name)
 	}

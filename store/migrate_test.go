@@ -94,6 +94,9 @@ func TestMigrateFromEachOlderVersion(t *testing.T) {
 			if got, _ := db.Version(ctx); got != SchemaVersion() {
 				t.Errorf("Version after upgrade = %d, want %d", got, SchemaVersion())
 			}
+			if q, err := db.Get(ctx, 1); err != nil || q.Site != DefaultSite {
+				t.Errorf("row logged before sites: Get = %+v, %v; want site %q", q, err, DefaultSite)
+			}
 			mustLog(t, db, demoQuery())
 			rep, err := db.Verify(ctx)
 			if err != nil || !rep.OK || rep.Queries != 2 {

@@ -101,10 +101,14 @@ func openPostgres(ctx context.Context, dsn string, opt Options, readOnly bool, u
 
 // pgVersion maps a PostgreSQL schema version to the SQLite schema version
 // whose features it has (the code branches on the SQLite numbering):
-// PostgreSQL's version 1 holds everything of SQLite's versions 1–5.
+// PostgreSQL's version 1 holds everything of SQLite's versions 1–8, its
+// version 2 adds sites (SQLite's 9).
 func pgVersion(v int) int {
-	if v >= 1 {
-		return len(migrations)
+	switch {
+	case v >= 2:
+		return siteVersion
+	case v == 1:
+		return siteVersion - 1
 	}
 	return 0
 }

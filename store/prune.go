@@ -116,7 +116,7 @@ func (db *DB) prune(ctx context.Context, conn *sql.Conn, before time.Time, by st
 	r := &row{
 		Kind: kindPrune, Time: formatTime(now), UserName: by,
 		Request: fmt.Sprintf("prune before %s: %d rows deleted", rec.Before, deleted),
-		Species: "[]", Hazards: "[]", Streams: "[]",
+		Species: "[]", Hazards: "[]", Streams: "[]", Site: DefaultSite,
 		Result: sql.NullString{String: string(b), Valid: true},
 	}
 	if err := db.appendRow(ctx, tx, r, anchor.AnchorHash); err != nil {

@@ -53,6 +53,10 @@ type Query struct {
 	PrevHash string `json:"prev_hash"` // set by LogQuery
 	Chain    string `json:"chain"`     // ChainPlain or ChainKeyed; set by LogQuery
 	KeyID    string `json:"key_id"`    // the key's id when keyed; set by LogQuery
+
+	// Site is the site the query was asked at; LogQuery sets the DB's
+	// site when it is empty.
+	Site string `json:"site"`
 }
 
 // The verdicts a query can carry.
@@ -98,6 +102,9 @@ func (db *DB) LogQuery(ctx context.Context, q *Query) (int64, error) {
 		q.Time = db.now()
 	}
 	q.Time = q.Time.UTC()
+	if q.Site == "" {
+		q.Site = db.site
+	}
 	r, err := encodeQuery(q)
 	if err != nil {
 		return 0, err
@@ -161,6 +168,11 @@ func encodeQuery(q *Query) (*row, error) {
 	if !ValidVerdict(q.Verdict) {
 		return nil, fmt.Errorf("log query: %w: verdict %q is not one of %s", ErrInvalid, q.Verdict, strings.Join(Verdicts, ", "))
 	}
+	site, err := NormalizeSite(q.Site)
+	if err != nil {
+		return nil, fmt.Errorf("log query: %w", err)
+	}
+	q.Site = site
 	if q.Verdict == VerdictError && strings.TrimSpace(q.Error) == "" {
 		return nil, fmt.Errorf("log query: %w: verdict error needs the parse error message in Error", ErrInvalid)
 	}
@@ -198,7 +210,7 @@ func encodeQuery(q *Query) (*row, error) {
 		Species: mustJSON(q.Species), Oxidizer: q.Oxidizer, Reducer: q.Reducer,
 		ECellV: nullFloat(q.ECellV), ECellStandardV: nullFloat(q.ECellStandardV),
 		Hazards: mustJSON(q.Hazards), Streams: mustJSON(q.Streams),
-		EngineVersion: q.EngineVersion, DataHash: q.DataHash,
+		EngineVersion: q.EngineVersion, DataHash: q.DataHash, Site: q.Site,
 	}
 	if q.Result != nil {
 		var buf bytes.Buffer
@@ -260,18 +272,24 @@ func (db *DB) appendRow(ctx context.Context, tx *sql.Tx, r *row, emptyPrev strin
 		r.Error, r.Species, r.Oxidizer, r.Reducer, r.ECellV, r.ECellStandardV, r.Hazards, r.Streams, r.Result,
 		r.EngineVersion, r.DataHash, r.PrevHash}
 	var err error
+	if db.ver < siteVersion {
+		r.Site = DefaultSite
+	}
 	if db.pg {
 		seal(r, db.key)
-		_, err = db.ws.insert.exec(ctx, tx, append(args, r.Hash, r.Chain, r.KeyID, searchDoc(r))...)
+		_, err = db.ws.insert.exec(ctx, tx, append(args, r.Hash, r.Chain, r.KeyID, r.Site, searchDoc(r))...)
 		if err == nil {
 			_, err = db.ws.seq.exec(ctx, tx, r.ID, r.ID)
 		}
 	} else if db.ver < 4 { // a file of an older schema (tests build them): plain rows without the chain columns
 		seal(r, nil)
 		_, err = tx.ExecContext(ctx, insertV3, append(args, r.Hash)...)
+	} else if db.ver < siteVersion {
+		seal(r, db.key)
+		_, err = tx.ExecContext(ctx, insertV8, append(args, r.Hash, r.Chain, r.KeyID)...)
 	} else {
 		seal(r, db.key)
-		_, err = db.ws.insert.exec(ctx, tx, append(args, r.Hash, r.Chain, r.KeyID)...)
+		_, err = db.ws.insert.exec(ctx, tx, append(args, r.Hash, r.Chain, r.KeyID, r.Site)...)
 	}
 	if isUnique(err) {
 		return fmt.Errorf("%w: event id %q already logged", ErrDuplicate, r.EventID)
@@ -346,7 +364,7 @@ func decodeQuery(r *row) (*Query, error) {
 		ID: r.ID, Time: t, UserID: r.UserID, UserName: r.UserName, Channel: r.Channel, EventID: r.EventID,
 		Request: r.Request, Resolved: r.Resolved, Verdict: r.Verdict, Error: r.Error,
 		Oxidizer: r.Oxidizer, Reducer: r.Reducer, EngineVersion: r.EngineVersion, DataHash: r.DataHash,
-		Hash: r.Hash, PrevHash: r.PrevHash, Chain: r.Chain, KeyID: r.KeyID,
+		Hash: r.Hash, PrevHash: r.PrevHash, Chain: r.Chain, KeyID: r.KeyID, Site: r.Site,
 	}
 	if r.ECellV.Valid {
 		q.ECellV = &r.ECellV.Float64

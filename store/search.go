@@ -28,8 +28,10 @@ type SearchOptions struct {
 	// HazardAny matches a query with any of these codes (any case); with
 	// Hazard it finds a code together with its older aliases.
 	HazardAny []string
-	Limit     int // page size; 0 means 50, at most 1000
-	Offset    int // rows to skip, for paging
+	// Site limits the search to one site; "" searches every site.
+	Site   string
+	Limit  int // page size; 0 means 50, at most 1000
+	Offset int // rows to skip, for paging
 }
 
 // SearchPage is one page of results, newest first.
@@ -60,6 +62,13 @@ func (db *DB) Search(ctx context.Context, o SearchOptions) (SearchPage, error) {
 	page.Limit = min(page.Limit, MaxLimit)
 	if page.Offset < 0 {
 		return page, fmt.Errorf("search: %w: negative offset %d", ErrInvalid, page.Offset)
+	}
+	if o.Site != "" {
+		site, err := NormalizeSite(o.Site)
+		if err != nil {
+			return page, fmt.Errorf("search: %w", err)
+		}
+		o.Site = site
 	}
 	if o.Verdict != "" && !ValidVerdict(o.Verdict) {
 		return page, fmt.Errorf("search: %w: verdict %q is not one of %s", ErrInvalid, o.Verdict, strings.Join(Verdicts, ", "))
@@ -170,6 +179,10 @@ func searchFilters(o SearchOptions, pg bool) ([]string, []any) {
 		where = append(where, `q.verdict = ?`)
 		args = append(args, o.Verdict)
 	}
+	if o.Site != "" {
+		where = append(where, `q.site = ?`)
+		args = append(args, o.Site)
+	}
 	if o.Hazard != "" {
 		// A quick test on the JSON text, then the exact one.
 		code, _ := json.Marshal(o.Hazard)
@@ -209,6 +222,10 @@ func pgSearchFilters(o SearchOptions) ([]string, []any) {
 	if o.Verdict != "" {
 		where = append(where, `q.verdict = ?`)
 		args = append(args, o.Verdict)
+	}
+	if o.Site != "" {
+		where = append(where, `q.site = ?`)
+		args = append(args, o.Site)
 	}
 	if o.Hazard != "" {
 		code, _ := json.Marshal(o.Hazard)

@@ -34,6 +34,12 @@ const insertV3 = `INSERT INTO queries (id, kind, time, user_id, user_name, chann
 	error, species, oxidizer, reducer, e_cell_v, e_cell_standard_v, hazards, streams, result, engine_version, data_hash,
 	prev_hash, hash) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`
 
+// insertV8 inserts a row into a file of schema version 4–8 (tests build
+// them), which has no site column.
+const insertV8 = `INSERT INTO queries (id, kind, time, user_id, user_name, channel, event_id, request, resolved, verdict,
+	error, species, oxidizer, reducer, e_cell_v, e_cell_standard_v, hazards, streams, result, engine_version, data_hash,
+	prev_hash, hash, chain, key_id) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`
+
 // writeStmts are the statements of LogQuery.
 type writeStmts struct {
 	head, insert, hazard, index, event, indexed, setIndexed, timeBroken stmt
@@ -49,7 +55,7 @@ func newWriteStmts(pg bool) *writeStmts {
 				coalesce((SELECT time FROM queries ORDER BY id DESC LIMIT 1), '')`},
 			timeBroken: stmt{sql: `UPDATE search_state SET time_order_broken = true WHERE NOT time_order_broken`},
 			insert: stmt{sql: `INSERT INTO queries (` + rowColumns + `, search_doc)
-				VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`},
+				VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`},
 			hazard:  stmt{sql: `INSERT INTO query_hazards (query_id, pos, code, severity, message) VALUES (?, ?, ?, ?, ?)`},
 			event:   stmt{sql: `SELECT id FROM queries WHERE event_id = ?`},
 			seq:     stmt{sql: `UPDATE chain_state SET seq = ? WHERE seq < ?`},
@@ -64,7 +70,7 @@ func newWriteStmts(pg bool) *writeStmts {
 			coalesce((SELECT time FROM queries ORDER BY id DESC LIMIT 1), '')`},
 		timeBroken: stmt{sql: `UPDATE search_state SET time_order_broken = 1 WHERE time_order_broken = 0`},
 		insert: stmt{sql: `INSERT INTO queries (` + rowColumns + `)
-			VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`},
+			VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`},
 		hazard: stmt{sql: `INSERT INTO query_hazards (query_id, pos, code, severity, message) VALUES (?, ?, ?, ?, ?)`},
 		index: stmt{sql: `INSERT INTO query_fts (docid, request, species, hazards)
 			SELECT ` + ftsDocColumns + ` FROM queries q WHERE q.kind = 'query' AND q.id > ? AND q.id <= ?`},

@@ -83,6 +83,7 @@ type DB struct {
 
 	replica string
 	lease   time.Duration
+	site    string
 }
 
 // Sentinel errors. Wrapped errors match with errors.Is.
@@ -116,6 +117,9 @@ const busyTimeout = 5000
 // exist; the tables are created in it. ":memory:" is refused because each
 // pooled connection would see its own empty database.
 func Open(ctx context.Context, path string, opt Options) (*DB, error) {
+	if _, err := NormalizeSite(opt.Site); err != nil {
+		return nil, fmt.Errorf("open database: %w (MIXWARD_SITE or --site)", err)
+	}
 	if IsPostgres(path) {
 		return openPostgres(ctx, path, opt, false, len(pgMigrations))
 	}
@@ -179,6 +183,7 @@ func newDB(path string, opt Options) *DB {
 		db.loc = time.UTC
 	}
 	db.replica, db.lease = opt.Replica, opt.InboxLease
+	db.site, _ = NormalizeSite(opt.Site) // checked by Open
 	if db.replica == "" {
 		host, _ := os.Hostname()
 		db.replica = fmt.Sprintf("%s-%d-%d", host, os.Getpid(), time.Now().UnixNano()%1e6)

@@ -70,10 +70,10 @@ func forgeAppend(t *testing.T, raw *sql.DB, key *ChainKey, madeUpHash bool) {
 	if madeUpHash {
 		r.Hash = strings.Repeat("ab", 32)
 	}
-	_, err := raw.Exec(`INSERT INTO queries (`+rowColumns+`) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
+	_, err := raw.Exec(`INSERT INTO queries (`+rowColumns+`) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
 		r.ID, r.Kind, r.Time, r.UserID, r.UserName, r.Channel, r.EventID, r.Request, r.Resolved, r.Verdict, r.Error,
 		r.Species, r.Oxidizer, r.Reducer, r.ECellV, r.ECellStandardV, r.Hazards, r.Streams, r.Result, r.EngineVersion,
-		r.DataHash, r.PrevHash, r.Hash, r.Chain, r.KeyID)
+		r.DataHash, r.PrevHash, r.Hash, r.Chain, r.KeyID, r.Site)
 	if err != nil {
 		t.Fatal(err)
 	}
