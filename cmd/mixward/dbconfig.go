@@ -61,7 +61,6 @@ func storeOptions(getenv func(string) string, dsn string) (store.Options, error)
 		o.InboxLease = defaultInboxLease
 	}
 	dur(envInboxLease, &o.InboxLease)
-	o.Site = strings.TrimSpace(getenv(envSite))
 	if len(errs) > 0 {
 		return o, &exitError{exitUsage, fmt.Errorf("%s", strings.Join(errs, "; "))}
 	}

@@ -27,8 +27,9 @@ import (
 
 // storeOpts are the flags every store-backed subcommand takes.
 type storeOpts struct {
-	db string // --db, env MIXWARD_DB, default ./mixward.db
-	tz string // --tz, env MIXWARD_TZ, default UTC
+	db   string // --db, env MIXWARD_DB, default ./mixward.db
+	tz   string // --tz, env MIXWARD_TZ, default UTC
+	site string // --site, env MIXWARD_SITE, default main
 }
 
 // storeFlags registers --db and --tz on fs with their environment defaults.
@@ -36,6 +37,7 @@ func storeFlags(a *app, fs *flag.FlagSet) *storeOpts {
 	o := &storeOpts{}
 	fs.StringVar(&o.db, "db", envOr(a.getenv, "MIXWARD_DB", "mixward.db"), "query log and stream catalogue: a SQLite `file`, or a postgres:// URL (env MIXWARD_DB)")
 	fs.StringVar(&o.tz, "tz", envOr(a.getenv, "MIXWARD_TZ", "UTC"), "site time `zone` for dates given and times shown, e.g. Europe/London (env MIXWARD_TZ)")
+	fs.StringVar(&o.site, "site", envOr(a.getenv, envSite, store.DefaultSite), "the `site` whose stream tags, queries and digests are meant (env MIXWARD_SITE)")
 	return o
 }
 
@@ -328,7 +330,8 @@ Fe 2+. Every character is literal: AND, OR, NOT, NEAR, *, -, parentheses
 and quotes are never operators. At most 64 different terms (a quoted phrase
 counts as one) of 256 words in all; more is refused (exit 2). The terms may
 be left out to list by the filters alone. A first term starting with - needs
--- before it: mixward log search -- -40 L. The file is only read.
+-- before it: mixward log search -- -40 L. Every site is searched unless
+--site is given (MIXWARD_SITE does not narrow a search). The file is only read.
 
 `+dateHelp)
 	o := storeFlags(a, fs)
@@ -361,6 +364,11 @@ be left out to list by the filters alone. A first term starting with - needs
 		return err
 	}
 	so := store.SearchOptions{Terms: strings.Join(pos, " "), User: *user, Verdict: *verdict, Limit: *limit, Offset: *offset}
+	fs.Visit(func(f *flag.Flag) {
+		if f.Name == "site" {
+			so.Site = o.site // only when asked for: reviewers search across sites
+		}
+	})
 	if *hazardCode != "" {
 		// Renamed codes keep their old names as aliases: either finds both.
 		so.HazardAny = hazard.Equivalent(*hazardCode)
@@ -420,8 +428,12 @@ be left out to list by the filters alone. A first term starting with - needs
 		if q.Verdict == store.VerdictError {
 			req += "  [" + q.Error + "]"
 		}
+		where := q.Channel
+		if q.Site != store.DefaultSite {
+			where = q.Site + "/" + q.Channel
+		}
 		fmt.Fprintf(tw, "%d\t%s\t%s\t%s\t%s\t%s\t%s\n", q.ID, local(q.Time, loc), safeCut(orDash(q.UserName, q.UserID), 24),
-			safeCut(q.Channel, 16), q.Verdict, safeCut(req, 70), safe(strings.Join(hz, ",")))
+			safeCut(where, 32), q.Verdict, safeCut(req, 70), safe(strings.Join(hz, ",")))
 	}
 	tw.Flush()
 	first := so.Offset + 1

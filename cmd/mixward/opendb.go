@@ -42,10 +42,13 @@ func openDB(ctx context.Context, a *app, o *storeOpts) (*store.DB, *time.Locatio
 	if err != nil {
 		return nil, nil, err
 	}
-	opt.Location, opt.ChainKey = loc, key
+	opt.Location, opt.ChainKey, opt.Site = loc, key, o.site
 	existed := dbExists(o.db)
 	db, err := store.Open(ctx, o.db, opt)
 	if errors.Is(err, store.ErrChainKey) {
+		return nil, nil, &exitError{exitUsage, err}
+	}
+	if errors.Is(err, store.ErrInvalid) {
 		return nil, nil, &exitError{exitUsage, err}
 	}
 	if err != nil {
@@ -75,7 +78,7 @@ func openReadDB(ctx context.Context, a *app, o *storeOpts, olderSchema bool) (*s
 	if err != nil {
 		return nil, nil, err
 	}
-	opt.Location, opt.ChainKey, opt.OlderSchema = loc, key, olderSchema
+	opt.Location, opt.ChainKey, opt.OlderSchema, opt.Site = loc, key, olderSchema, o.site
 	db, err := store.OpenReadOnly(ctx, o.db, opt)
 	switch {
 	case errors.Is(err, store.ErrNoDatabase), errors.Is(err, store.ErrInvalid):

@@ -29,6 +29,7 @@ import (
 // siteFlags are the settings the console and the bot share.
 type siteFlags struct {
 	db     string
+	site   string
 	tz     string
 	shifts string
 	getenv func(string) string // for MIXWARD_CHAIN_KEY_FILE
@@ -37,6 +38,7 @@ type siteFlags struct {
 func (s *siteFlags) register(fs *flag.FlagSet, getenv func(string) string) {
 	s.getenv = getenv
 	fs.StringVar(&s.db, "db", envOr(getenv, "MIXWARD_DB", "mixward.db"), "query log and stream catalogue: a SQLite file, or a postgres:// URL (env MIXWARD_DB)")
+	fs.StringVar(&s.site, "site", envOr(getenv, envSite, store.DefaultSite), "the site (plant) this process serves: its stream tags, queries and digests (env MIXWARD_SITE)")
 	fs.StringVar(&s.tz, "tz", getenv("MIXWARD_TZ"), "site time zone for digests and dates, e.g. Europe/London; empty means UTC (env MIXWARD_TZ)")
 	fs.StringVar(&s.shifts, "shifts", envOr(getenv, "MIXWARD_SHIFTS", store.DefaultShifts), "shift changes as a 5-field cron spec in the site zone; a digest is made at each (env MIXWARD_SHIFTS)")
 }
@@ -81,7 +83,7 @@ func openSite(ctx context.Context, s siteFlags) (*site, error) {
 	if err != nil {
 		return nil, err
 	}
-	opt.Location, opt.ChainKey = loc, key
+	opt.Location, opt.ChainKey, opt.Site = loc, key, s.site
 	db, err := store.Open(ctx, s.db, opt)
 	if err != nil {
 		return nil, err
