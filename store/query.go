@@ -268,31 +268,40 @@ func (db *DB) appendRow(ctx context.Context, tx *sql.Tx, r *row, emptyPrev strin
 	}
 	r.ID = max(seq, lastID) + 1
 	r.PrevHash = prev
-	args := []any{r.ID, r.Kind, r.Time, r.UserID, r.UserName, r.Channel, r.EventID, r.Request, r.Resolved, r.Verdict,
-		r.Error, r.Species, r.Oxidizer, r.Reducer, r.ECellV, r.ECellStandardV, r.Hazards, r.Streams, r.Result,
-		r.EngineVersion, r.DataHash, r.PrevHash}
-	var err error
 	if db.ver < siteVersion {
 		r.Site = DefaultSite
 	}
-	if db.pg {
+	if db.ver < 4 { // a file of an older schema (tests build them): plain rows only
+		seal(r, nil)
+	} else {
 		seal(r, db.key)
-		_, err = db.ws.insert.exec(ctx, tx, append(args, r.Hash, r.Chain, r.KeyID, r.Site, searchDoc(r))...)
+	}
+	err := db.insertRow(ctx, tx, r)
+	if isUnique(err) {
+		return fmt.Errorf("%w: event id %q already logged", ErrDuplicate, r.EventID)
+	}
+	return err
+}
+
+// insertRow inserts r, already sealed, as it is (LogQuery after sealing
+// it; CopyLog to keep a row's id and hash).
+func (db *DB) insertRow(ctx context.Context, tx *sql.Tx, r *row) error {
+	args := []any{r.ID, r.Kind, r.Time, r.UserID, r.UserName, r.Channel, r.EventID, r.Request, r.Resolved, r.Verdict,
+		r.Error, r.Species, r.Oxidizer, r.Reducer, r.ECellV, r.ECellStandardV, r.Hazards, r.Streams, r.Result,
+		r.EngineVersion, r.DataHash, r.PrevHash, r.Hash}
+	var err error
+	switch {
+	case db.pg:
+		_, err = db.ws.insert.exec(ctx, tx, append(args, r.Chain, r.KeyID, r.Site, searchDoc(r))...)
 		if err == nil {
 			_, err = db.ws.seq.exec(ctx, tx, r.ID, r.ID)
 		}
-	} else if db.ver < 4 { // a file of an older schema (tests build them): plain rows without the chain columns
-		seal(r, nil)
-		_, err = tx.ExecContext(ctx, insertV3, append(args, r.Hash)...)
-	} else if db.ver < siteVersion {
-		seal(r, db.key)
-		_, err = tx.ExecContext(ctx, insertV8, append(args, r.Hash, r.Chain, r.KeyID)...)
-	} else {
-		seal(r, db.key)
-		_, err = db.ws.insert.exec(ctx, tx, append(args, r.Hash, r.Chain, r.KeyID, r.Site)...)
-	}
-	if isUnique(err) {
-		return fmt.Errorf("%w: event id %q already logged", ErrDuplicate, r.EventID)
+	case db.ver < 4:
+		_, err = tx.ExecContext(ctx, insertV3, args...)
+	case db.ver < siteVersion:
+		_, err = tx.ExecContext(ctx, insertV8, append(args, r.Chain, r.KeyID)...)
+	default:
+		_, err = db.ws.insert.exec(ctx, tx, append(args, r.Chain, r.KeyID, r.Site)...)
 	}
 	return err
 }

@@ -130,6 +130,8 @@ commands:
   restore <file>       replace the log with a verified backup
   migrate              upgrade the file to this mixward's schema (back it up first)
   reindex              rebuild the hazard rows and the search index from the hashed rows
+  copy --from DB --to DB   copy a whole log into a new, empty one, SQLite to
+                       PostgreSQL or back, keeping ids and hashes; the copy is verified
 
 verify, search, export, show and backup only read the file: they never
 create, upgrade or change it, and fail on a path where no log exists.
@@ -164,6 +166,8 @@ func (a *app) cmdLog(ctx context.Context, args []string) error {
 		return a.logMigrate(ctx, args[1:])
 	case "reindex":
 		return a.logReindex(ctx, args[1:])
+	case "copy":
+		return a.logCopy(ctx, args[1:])
 	case "-h", "-help", "--help", "help":
 		fmt.Fprint(a.stdout, logUsage)
 		return nil
@@ -817,6 +821,63 @@ The file must not exist yet. Restore with 'mixward log restore <file>'.`)
 	}
 	fmt.Fprintf(a.stdout, "Backed up %s to %s (mode 0600).\n", dbName(o.db), safe(pos[0]))
 	return a.printVerify(rep, "text", pos[0])
+}
+
+func (a *app) logCopy(ctx context.Context, args []string) error {
+	fs := subFlags(a, "log copy", "log copy --from DB --to DB", `
+Copy a whole log into a new, empty one: a SQLite file into PostgreSQL
+(moving a site onto the shared database) or back, or between two of a kind.
+Every row of the chain keeps its id, hash and site; the hazard rows and the
+search index are rebuilt from them; delivery outcomes, the stream catalogue
+of every site and the digests recorded come along. The source must verify
+(with MIXWARD_CHAIN_KEY_FILE for a keyed chain) and is only read; the
+target is created (a SQLite file) or migrated (a PostgreSQL database, which
+must exist) and must hold nothing yet. The copy is one transaction and is
+verified after. Stop the bot writing to the source first, or rows logged
+meanwhile stay behind. Each of --from and --to is a file path or a
+postgres:// URL.`)
+	from := fs.String("from", "", "the log to copy: a SQLite `file` or a postgres:// URL")
+	to := fs.String("to", "", "the new, empty log: a SQLite `file` or a postgres:// URL")
+	format := fs.String("format", "text", "output `format`: text or json")
+	if err := parseNoArgs(fs, args, "log copy", "text", "json"); err != nil {
+		return err
+	}
+	if *from == "" || *to == "" {
+		fs.Usage()
+		return usageErr("log copy: give both --from and --to")
+	}
+	src, _, err := openReadDB(ctx, a, &storeOpts{db: *from}, false)
+	if err != nil {
+		return err
+	}
+	defer src.Close()
+	if !store.IsPostgres(*to) && dbExists(*to) {
+		return usageErr("log copy: %s already exists; copy into a new file (nothing was copied)", safe(*to))
+	}
+	dst, _, err := openDB(ctx, a, &storeOpts{db: *to})
+	if err != nil {
+		return err
+	}
+	defer dst.Close()
+	rep, err := store.CopyLog(ctx, src, dst)
+	switch {
+	case errors.Is(err, store.ErrInvalid):
+		return &exitError{exitUsage, err}
+	case err != nil:
+		return &exitError{exitFail, err}
+	}
+	if *format == "json" {
+		if err := writeJSON(a.stdout, rep); err != nil {
+			return err
+		}
+		if !rep.Verify.OK {
+			return &exitError{exitFail, errors.New("the copy does not verify")}
+		}
+		return nil
+	}
+	fmt.Fprintf(a.stdout, "Copied %d rows of the chain, %d delivery records, %d catalogue changes and %d digest records from %s to %s.\n",
+		rep.Rows, rep.Deliveries, rep.StreamChanges, rep.Digests, dbName(*from), dbName(*to))
+	return a.printVerify(rep.Verify, "text", store.DisplayName(*to))
 }
 
 func (a *app) logRestore(ctx context.Context, args []string) error {
