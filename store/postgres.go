@@ -289,3 +289,20 @@ func DisplayName(dsn string) string {
 	}
 	return dsn
 }
+
+// Ping checks that the database answers (for health checks).
+func (db *DB) Ping(ctx context.Context) error {
+	var one int
+	if err := db.r.QueryRowContext(ctx, `SELECT 1`).Scan(&one); err != nil {
+		return fmt.Errorf("database %s: %w", db.path, err)
+	}
+	return nil
+}
+
+// Backend names the kind of database: "sqlite" or "postgres".
+func (db *DB) Backend() string {
+	if db.pg {
+		return "postgres"
+	}
+	return "sqlite"
+}

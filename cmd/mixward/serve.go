@@ -296,7 +296,7 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 	defer st.db.Close()
 
 	metrics := bot.NewMetrics()
-	health := &bot.Health{}
+	health := &bot.Health{Database: st.db.Ping, DatabaseKind: st.db.Backend()}
 	opts := []slack.Option{slack.OptionAPIURL(c.apiURL)}
 	if c.appToken != "" {
 		opts = append(opts, slack.OptionAppLevelToken(c.appToken))
