@@ -317,3 +317,64 @@ func BenchmarkVerify(b *testing.B) {
 	b.StopTimer()
 	b.ReportMetric(float64(rows)/(b.Elapsed().Seconds()/float64(b.N)), "rows/s")
 }
+
+// BenchmarkLogQueryPostgres logs queries on PostgreSQL (MIXWARD_TEST_POSTGRES)
+// one after another and from 8 goroutines (replicas' workers), beside a
+// plain INSERT of the same row's columns into a table without the chain,
+// as the baseline.
+func BenchmarkLogQueryPostgres(b *testing.B) {
+	requirePostgres(b)
+	ctx := context.Background()
+	b.Run("chain", func(b *testing.B) {
+		db, _ := postgresBackend.mustOpenWith(b, Options{})
+		q := demoQuery()
+		start := time.Now()
+		for i := 0; i < b.N; i++ {
+			qq := *q
+			qq.Time = time.Time{}
+			if _, err := db.LogQuery(ctx, &qq); err != nil {
+				b.Fatal(err)
+			}
+		}
+		b.ReportMetric(float64(b.N)/time.Since(start).Seconds(), "queries/s")
+	})
+	b.Run("chain-8-writers", func(b *testing.B) {
+		db, _ := postgresBackend.mustOpenWith(b, Options{})
+		q := demoQuery()
+		start := time.Now()
+		b.SetParallelism(8)
+		b.RunParallel(func(pb *testing.PB) {
+			for pb.Next() {
+				qq := *q
+				qq.Time = time.Time{}
+				if _, err := db.LogQuery(ctx, &qq); err != nil {
+					b.Error(err)
+					return
+				}
+			}
+		})
+		b.ReportMetric(float64(b.N)/time.Since(start).Seconds(), "queries/s")
+	})
+	b.Run("plain-insert", func(b *testing.B) {
+		db, dsn := postgresBackend.mustOpenWith(b, Options{})
+		raw := postgresBackend.raw(b, dsn)
+		if _, err := raw.Exec(`CREATE TABLE plain (LIKE queries INCLUDING DEFAULTS)`); err != nil {
+			b.Fatal(err)
+		}
+		_ = db
+		q := demoQuery()
+		r, err := encodeQuery(q)
+		if err != nil {
+			b.Fatal(err)
+		}
+		start := time.Now()
+		for i := 0; i < b.N; i++ {
+			if _, err := raw.Exec(`INSERT INTO plain (id, kind, time, user_id, user_name, channel, request, verdict, species, hazards, streams, result, prev_hash, hash)
+				VALUES (?, 'query', ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, '', '')`, i+1, r.Time, r.UserID, r.UserName, r.Channel, r.Request, r.Verdict,
+				r.Species, r.Hazards, r.Streams, r.Result); err != nil {
+				b.Fatal(err)
+			}
+		}
+		b.ReportMetric(float64(b.N)/time.Since(start).Seconds(), "rows/s")
+	})
+}

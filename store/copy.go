@@ -99,8 +99,10 @@ func copyRows(ctx context.Context, src, dst *DB, in, out *sql.Tx, rep *CopyRepor
 		if err := json.Unmarshal([]byte(r.Hazards), &hz); err != nil {
 			return fmt.Errorf("row %d: stored hazards are not a JSON array: %v", r.ID, err)
 		}
-		if err := dst.insertHazards(ctx, out, r.ID, hz); err != nil {
-			return fmt.Errorf("row %d: %w", r.ID, err)
+		if !dst.pg { // PostgreSQL's insertRow wrote them
+			if err := dst.insertHazards(ctx, out, r.ID, hz); err != nil {
+				return fmt.Errorf("row %d: %w", r.ID, err)
+			}
 		}
 		broken = broken || (lastTime != "" && r.Time < lastTime)
 		lastID, lastTime = r.ID, r.Time
@@ -115,7 +117,7 @@ func copyRows(ctx context.Context, src, dst *DB, in, out *sql.Tx, rep *CopyRepor
 	}
 	seq = max(seq, lastID)
 	if dst.pg {
-		_, err = out.ExecContext(ctx, `UPDATE chain_state SET seq = ?`, seq)
+		_, err = out.ExecContext(ctx, `UPDATE chain_state SET seq = greatest(seq, ?)`, seq)
 	} else {
 		_, err = out.ExecContext(ctx, `INSERT INTO sqlite_sequence (name, seq) SELECT 'queries', 0
 			WHERE NOT EXISTS (SELECT 1 FROM sqlite_sequence WHERE name = 'queries')`)
@@ -126,7 +128,7 @@ func copyRows(ctx context.Context, src, dst *DB, in, out *sql.Tx, rep *CopyRepor
 	if err != nil {
 		return fmt.Errorf("carry over the highest id issued: %w", err)
 	}
-	if broken {
+	if broken && !dst.pg {
 		if _, err := dst.ws.timeBroken.exec(ctx, out); err != nil {
 			return err
 		}

@@ -4,6 +4,7 @@ import (
 	"encoding/json"
 	"strings"
 	"unicode"
+	"unicode/utf8"
 
 	"golang.org/x/text/runes"
 	"golang.org/x/text/transform"
@@ -40,6 +41,16 @@ func searchDoc(r *row) string {
 // foldWord lower-cases w and removes its accents (combining marks after
 // canonical decomposition), as SQLite's unicode61 tokenizer does.
 func foldWord(w string) string {
+	ascii := true
+	for i := 0; i < len(w); i++ {
+		if w[i] >= utf8.RuneSelf {
+			ascii = false
+			break
+		}
+	}
+	if ascii {
+		return strings.ToLower(w)
+	}
 	t := transform.Chain(norm.NFD, runes.Remove(runes.In(unicode.Mn)), norm.NFC)
 	s, _, err := transform.String(t, w)
 	if err != nil || s == "" {

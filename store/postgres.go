@@ -134,15 +134,14 @@ func pgUnique(err error) bool {
 }
 
 // lockChain serialises appends to the chain across every process writing
-// to this PostgreSQL database: a transaction-level advisory lock, keyed by
-// the schema the tables live in, held until the transaction ends. On SQLite
-// the write transaction (BEGIN IMMEDIATE) already does this.
+// to this PostgreSQL database: the row lock on chain_state (see pgchain.go),
+// held until the transaction ends. On SQLite the write transaction (BEGIN
+// IMMEDIATE) already does this.
 func (db *DB) lockChain(ctx context.Context, tx *sql.Tx) error {
 	if !db.pg {
 		return nil
 	}
-	_, err := tx.ExecContext(ctx, `SELECT pg_advisory_xact_lock(hashtextextended('mixward chain ' || current_schema(), 0))`)
-	if err != nil {
+	if _, err := tx.ExecContext(ctx, `SELECT 1 FROM chain_state FOR UPDATE`); err != nil {
 		return fmt.Errorf("lock the chain: %w", err)
 	}
 	return nil

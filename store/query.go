@@ -109,14 +109,19 @@ func (db *DB) LogQuery(ctx context.Context, q *Query) (int64, error) {
 	if err != nil {
 		return 0, err
 	}
+	if db.pg {
+		id, err := db.pgLogQuery(ctx, r)
+		if err != nil {
+			return id, err
+		}
+		q.ID, q.Hash, q.PrevHash, q.Chain, q.KeyID = r.ID, r.Hash, r.PrevHash, r.Chain, r.KeyID
+		return r.ID, nil
+	}
 	tx, err := db.w.BeginTx(ctx, nil)
 	if err != nil {
 		return 0, fmt.Errorf("log query: %w", err)
 	}
 	defer tx.Rollback()
-	if err := db.lockChain(ctx, tx); err != nil {
-		return 0, fmt.Errorf("log query: %w", err)
-	}
 	if q.EventID != "" {
 		var id int64
 		err := db.ws.event.queryRow(ctx, tx, q.EventID).Scan(&id)
@@ -256,6 +261,15 @@ func nullFloat(f *float64) sql.NullFloat64 {
 // write transaction. Ids are contiguous: the next id is one more than the
 // highest ever issued, and a rolled-back transaction takes its id back.
 func (db *DB) appendRow(ctx context.Context, tx *sql.Tx, r *row, emptyPrev string) error {
+	if db.pg {
+		seq, lastID, prev, _, err := pgHead(ctx, tx, emptyPrev, "")
+		if err != nil {
+			return err
+		}
+		r.ID, r.PrevHash = max(seq, lastID)+1, prev
+		seal(r, db.key)
+		return db.insertRow(ctx, tx, r)
+	}
 	var seq, lastID int64
 	var prev, lastTime string
 	if err := db.ws.head.queryRow(ctx, tx, emptyPrev).Scan(&seq, &lastID, &prev, &lastTime); err != nil {
@@ -284,18 +298,16 @@ func (db *DB) appendRow(ctx context.Context, tx *sql.Tx, r *row, emptyPrev strin
 }
 
 // insertRow inserts r, already sealed, as it is (LogQuery after sealing
-// it; CopyLog to keep a row's id and hash).
+// it; CopyLog to keep a row's id and hash). On PostgreSQL it writes the
+// row's hazard rows too.
 func (db *DB) insertRow(ctx context.Context, tx *sql.Tx, r *row) error {
 	args := []any{r.ID, r.Kind, r.Time, r.UserID, r.UserName, r.Channel, r.EventID, r.Request, r.Resolved, r.Verdict,
 		r.Error, r.Species, r.Oxidizer, r.Reducer, r.ECellV, r.ECellStandardV, r.Hazards, r.Streams, r.Result,
 		r.EngineVersion, r.DataHash, r.PrevHash, r.Hash}
 	var err error
 	switch {
-	case db.pg:
-		_, err = db.ws.insert.exec(ctx, tx, append(args, r.Chain, r.KeyID, r.Site, searchDoc(r))...)
-		if err == nil {
-			_, err = db.ws.seq.exec(ctx, tx, r.ID, r.ID)
-		}
+	case db.pg: // with its hazard rows and the new head
+		err = pgInsert(ctx, tx, r)
 	case db.ver < 4:
 		_, err = tx.ExecContext(ctx, insertV3, args...)
 	case db.ver < siteVersion:

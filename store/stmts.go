@@ -48,19 +48,7 @@ type writeStmts struct {
 
 func newWriteStmts(pg bool) *writeStmts {
 	if pg {
-		return &writeStmts{
-			head: stmt{sql: `SELECT (SELECT seq FROM chain_state),
-				coalesce((SELECT max(id) FROM queries), 0),
-				coalesce((SELECT hash FROM queries ORDER BY id DESC LIMIT 1), ?),
-				coalesce((SELECT time FROM queries ORDER BY id DESC LIMIT 1), '')`},
-			timeBroken: stmt{sql: `UPDATE search_state SET time_order_broken = true WHERE NOT time_order_broken`},
-			insert: stmt{sql: `INSERT INTO queries (` + rowColumns + `, search_doc)
-				VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`},
-			hazard:  stmt{sql: `INSERT INTO query_hazards (query_id, pos, code, severity, message) VALUES (?, ?, ?, ?, ?)`},
-			event:   stmt{sql: `SELECT id FROM queries WHERE event_id = ?`},
-			seq:     stmt{sql: `UPDATE chain_state SET seq = ? WHERE seq < ?`},
-			indexed: stmt{sql: `SELECT indexed_upto FROM search_state`},
-		}
+		return &writeStmts{} // PostgreSQL writes through pgchain.go
 	}
 	return &writeStmts{
 		// The highest id ever issued, the newest row's id and its hash.
@@ -99,5 +87,5 @@ func (ws *writeStmts) close() {
 }
 
 func (ws *writeStmts) all() []*stmt {
-	return []*stmt{&ws.head, &ws.insert, &ws.hazard, &ws.index, &ws.event, &ws.indexed, &ws.setIndexed, &ws.timeBroken, &ws.seq}
+	return []*stmt{&ws.head, &ws.insert, &ws.hazard, &ws.index, &ws.event, &ws.indexed, &ws.setIndexed, &ws.timeBroken}
 }

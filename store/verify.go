@@ -173,6 +173,12 @@ func (w *walk) finish(seq int64) (int64, string, error) {
 	if w.derivedProblem != "" {
 		return w.derivedID, w.derivedProblem, nil
 	}
+	if w.pg {
+		p, err := pgChainStateProblem(w.ctx, w.tx, rep.LastID, rep.HeadHash)
+		if err != nil || p != "" {
+			return rep.LastID, p, err
+		}
+	}
 	id, p, err := w.derived.finish(rep.LastID)
 	if err != nil || p != "" {
 		return id, p, err

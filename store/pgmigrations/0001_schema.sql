@@ -5,7 +5,7 @@
 -- locale.
 
 -- The query log and its hash chain. Ids are issued by the writer under the
--- chain lock (store/postgres.go), so no sequence: chain_state.seq is the
+-- chain lock (store/pgchain.go), so no sequence: chain_state.seq is the
 -- highest id ever issued (SQLite's sqlite_sequence), which lets Verify see
 -- rows cut off the end.
 CREATE TABLE queries (
@@ -49,9 +49,14 @@ CREATE INDEX queries_user_name ON queries (lower(user_name));
 CREATE INDEX queries_user_id ON queries (user_id);
 CREATE INDEX queries_fts ON queries USING gin (fts);
 
+-- The head of the chain, one row: writers lock it (SELECT ... FOR UPDATE)
+-- to append, which serialises appends across replicas (store/pgchain.go).
 CREATE TABLE chain_state (
-    id  integer PRIMARY KEY CHECK (id = 1),
-    seq bigint NOT NULL
+    id        integer PRIMARY KEY CHECK (id = 1),
+    seq       bigint NOT NULL,
+    last_id   bigint NOT NULL DEFAULT 0,
+    last_hash text NOT NULL DEFAULT '',
+    last_time text COLLATE "C" NOT NULL DEFAULT ''
 );
 INSERT INTO chain_state (id, seq) VALUES (1, 0);
 
