@@ -7,7 +7,6 @@ import (
 	"mixward/bot"
 	"mixward/engine"
 	"mixward/engine/advice"
-	"mixward/store"
 )
 
 // askOnce answers one request for `mixward ask`. With logging it goes
@@ -45,7 +44,7 @@ func (a *app) askOnce(ctx context.Context, eng *engine.Engine, adv *advice.Advis
 }
 
 // catalogueResolver resolves stream tags from the site catalogue.
-func catalogueResolver(ctx context.Context, db *store.DB) engine.Resolver {
+func catalogueResolver(ctx context.Context, db streamReader) engine.Resolver {
 	return func(tag string) (string, bool) {
 		s, err := db.Stream(ctx, tag)
 		if err != nil {
@@ -57,7 +56,7 @@ func catalogueResolver(ctx context.Context, db *store.DB) engine.Resolver {
 
 // catalogueTags lists the catalogue's tags, for "did you mean" on a tag
 // that is not there; nil when the catalogue cannot be read.
-func catalogueTags(ctx context.Context, db *store.DB) func() []string {
+func catalogueTags(ctx context.Context, db streamReader) func() []string {
 	return func() []string {
 		ss, err := db.Streams(ctx)
 		if err != nil {
@@ -73,7 +72,7 @@ func catalogueTags(ctx context.Context, db *store.DB) func() []string {
 
 // catalogueOptions resolves tags from the site catalogue in db and suggests
 // its tags for near misses.
-func catalogueOptions(ctx context.Context, db *store.DB) engine.AskOptions {
+func catalogueOptions(ctx context.Context, db streamReader) engine.AskOptions {
 	return engine.AskOptions{Resolve: catalogueResolver(ctx, db), Tags: catalogueTags(ctx, db)}
 }
 

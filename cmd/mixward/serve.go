@@ -296,7 +296,7 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 	defer st.db.Close()
 
 	metrics := bot.NewMetrics()
-	health := &bot.Health{Database: st.db.Ping, DatabaseKind: st.db.Backend()}
+	health := newHealth(st.db)
 	opts := []slack.Option{slack.OptionAPIURL(c.apiURL)}
 	if c.appToken != "" {
 		opts = append(opts, slack.OptionAppLevelToken(c.appToken))
@@ -484,7 +484,7 @@ func newSlack(c serveConfig, st *site, api *slack.Client, logger *slog.Logger, m
 // keepInbox prunes the inbox hourly and queues again the answers still
 // owed after an hour (Slack was down past the poster's retries), until ctx
 // ends.
-func keepInbox(ctx context.Context, sl *bot.Slack, db *store.DB, logger *slog.Logger) {
+func keepInbox(ctx context.Context, sl *bot.Slack, db inboxPruner, logger *slog.Logger) {
 	t := time.NewTicker(time.Hour)
 	defer t.Stop()
 	for {
@@ -518,7 +518,7 @@ func newAdminServer(h http.Handler) *http.Server {
 // pruneInbox (at start and hourly) drops inbox entries answered more than
 // a day ago: Slack redelivers within the hour, so they are no longer
 // needed to tell a redelivery from a new message.
-func pruneInbox(ctx context.Context, db *store.DB, logger *slog.Logger) {
+func pruneInbox(ctx context.Context, db inboxPruner, logger *slog.Logger) {
 	n, err := db.PruneInbox(ctx, time.Now().Add(-24*time.Hour))
 	if err != nil {
 		logger.Warn("inbox not pruned", "err", err)
