@@ -25,6 +25,10 @@ type InboxEntry struct {
 	State    string    // InboxPending, InboxPosted or InboxFailed
 	Attempts int       // outcomes recorded so far
 	Detail   string    // what the last outcome said
+	// LeasedElsewhere is true (from InboxEntryFor) when the entry is
+	// pending and another replica holds its lease: that replica is
+	// answering it (Options.InboxLease).
+	LeasedElsewhere bool
 }
 
 // Outcome is what came of posting the answer to an inbox entry.
@@ -137,9 +141,14 @@ func scanInbox(rows *sql.Rows) ([]InboxEntry, error) {
 // InboxEntryFor returns the inbox entry of eventID, or ErrNotFound.
 func (db *DB) InboxEntryFor(ctx context.Context, eventID string) (InboxEntry, error) {
 	var e InboxEntry
-	var at, msg string
-	err := db.r.QueryRowContext(ctx, `SELECT seq, event_id, received, thread, message, state, attempts, detail
-		FROM inbox WHERE event_id = ?`, eventID).Scan(&e.Seq, &e.EventID, &at, &e.Thread, &msg, &e.State, &e.Attempts, &e.Detail)
+	var at, msg, owner, until string
+	cols := `seq, event_id, received, thread, message, state, attempts, detail, '', ''`
+	if db.lease > 0 {
+		cols = `seq, event_id, received, thread, message, state, attempts, detail, lease_owner, lease_until`
+	}
+	err := db.r.QueryRowContext(ctx, `SELECT `+cols+`
+		FROM inbox WHERE event_id = ?`, eventID).Scan(&e.Seq, &e.EventID, &at, &e.Thread, &msg, &e.State, &e.Attempts, &e.Detail, &owner, &until)
+	e.LeasedElsewhere = e.State == InboxPending && owner != "" && owner != db.replica && until > formatTime(db.now())
 	if err == sql.ErrNoRows {
 		return e, fmt.Errorf("inbox entry %q: %w", eventID, ErrNotFound)
 	}
@@ -203,3 +212,7 @@ func (db *DB) PruneInbox(ctx context.Context, before time.Time) (int64, error) {
 	}
 	return res.RowsAffected()
 }
+
+// InboxLease is how long a pending entry stays with the replica that took
+// it (Options.InboxLease); 0 when there are no leases.
+func (db *DB) InboxLease() time.Duration { return db.lease }

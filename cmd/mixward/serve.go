@@ -397,7 +397,7 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 		logger.Info("no digest channel: scheduled digests are off (set MIXWARD_DIGEST_CHANNEL)")
 	}
 
-	wg.Go(func() { keepInbox(runCtx, sl, st.db, logger) })
+	wg.Go(func() { keepInbox(runCtx, sl, st.db, sweepEvery(st.db.InboxLease()), logger) })
 
 	// Who am I: used to tell the bot's own messages and mentions apart. It
 	// is not needed to answer, so the transports do not wait for it.
@@ -481,11 +481,11 @@ func newSlack(c serveConfig, st *site, api *slack.Client, logger *slog.Logger, m
 	}
 }
 
-// keepInbox prunes the inbox hourly and queues again the answers still
-// owed after an hour (Slack was down past the poster's retries), until ctx
-// ends.
-func keepInbox(ctx context.Context, sl *bot.Slack, db inboxPruner, logger *slog.Logger) {
-	t := time.NewTicker(time.Hour)
+// keepInbox prunes the inbox and queues again the answers still owed
+// (Slack was down past the poster's retries, or another replica stopped
+// while answering) every interval, until ctx ends.
+func keepInbox(ctx context.Context, sl *bot.Slack, db inboxPruner, every time.Duration, logger *slog.Logger) {
+	t := time.NewTicker(every)
 	defer t.Stop()
 	for {
 		select {
@@ -532,4 +532,14 @@ func shortHash(h string) string {
 		return h[:12]
 	}
 	return h
+}
+
+// sweepEvery is how often a serving process looks for owed answers: hourly,
+// or with inbox leases (several replicas) once a lease, so that the answers
+// a stopped replica held are taken over soon after its lease runs out.
+func sweepEvery(lease time.Duration) time.Duration {
+	if lease > 0 && lease < time.Hour {
+		return lease
+	}
+	return time.Hour
 }
