@@ -111,7 +111,7 @@ func TestServeTwoReplicasPostgres(t *testing.T) {
 		}
 	}
 	rep, err := db.Verify(context.Background())
-	if err != nil || !rep.OK || rep.Queries != total || rep.LastID != total {
+	if err != nil || !rep.OK || rep.Queries != int64(total) || rep.LastID != int64(total) {
 		t.Errorf("Verify = %+v, %v; want %d queries, ids 1–%d", rep, err, total, total)
 	}
 	recs, err := db.DigestRecords(context.Background(), 0)
