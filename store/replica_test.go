@@ -205,6 +205,13 @@ func TestReplicasSweepOwedAnswers(t *testing.T) {
 		if _, err := dbs[0].AcceptMessages(ctx, entries); err != nil {
 			t.Fatal(err)
 		}
+		// Another replica receiving the same event sees it is being answered.
+		if e, err := dbs[1].InboxEntryFor(ctx, "Ev007"); err != nil || !e.LeasedElsewhere {
+			t.Errorf("replica 1: InboxEntryFor = %+v, %v; want leased elsewhere", e, err)
+		}
+		if e, err := dbs[0].InboxEntryFor(ctx, "Ev007"); err != nil || e.LeasedElsewhere {
+			t.Errorf("replica 0: InboxEntryFor = %+v, %v; want its own", e, err)
+		}
 		// Replica 0 stops before answering. Its lease still runs.
 		if p, err := dbs[1].PendingMessages(ctx, 0, 1000); err != nil || len(p) != 0 {
 			t.Fatalf("sweep during the lease = %d entries, %v; want none", len(p), err)
@@ -214,6 +221,9 @@ func TestReplicasSweepOwedAnswers(t *testing.T) {
 			t.Fatalf("own sweep = %+v, %v; want Ev000–Ev004 in order", p, err)
 		}
 		c.Add(2 * time.Minute) // the lease has run out
+		if e, err := dbs[1].InboxEntryFor(ctx, "Ev007"); err != nil || e.LeasedElsewhere {
+			t.Errorf("replica 1 after the lease: InboxEntryFor = %+v, %v; want free", e, err)
+		}
 		var wg sync.WaitGroup
 		var mu sync.Mutex
 		owner := map[string]int{}
