@@ -26,6 +26,9 @@ func OpenReadOnly(ctx context.Context, path string, opt Options) (*DB, error) {
 	if path == "" {
 		return nil, fmt.Errorf("open database: %w: empty path (set --db or MIXWARD_DB)", ErrInvalid)
 	}
+	if _, err := NormalizeSite(opt.Site); err != nil {
+		return nil, fmt.Errorf("open database: %w (MIXWARD_SITE or --site)", err)
+	}
 	if IsPostgres(path) {
 		return openPostgres(ctx, path, opt, true, 0)
 	}
