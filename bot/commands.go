@@ -220,6 +220,9 @@ func (b *Bot) search(ctx context.Context, in Incoming, q SearchQuery) Reply {
 		if who == "" {
 			who = lq.UserID
 		}
+		if lq.Site != "" && lq.Site != store.DefaultSite {
+			who += " at " + lq.Site // the search covers every site
+		}
 		fmt.Fprintf(&s, "#%d  %s  %s  %s  %s", lq.ID, lq.Time.In(b.loc()).Format("2006-01-02 15:04"), who, lq.Verdict, truncate(lq.Request, 120))
 		for _, h := range lq.Hazards {
 			if h.Severity == "danger" {
