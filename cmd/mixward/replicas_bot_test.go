@@ -21,12 +21,12 @@ import (
 // retrying through a load balancer might: every event is answered once and
 // logged once, the chain verifies, no answer is left owed, and the shift
 // digest due at start-up is sent by one of them. MIXWARD_REPLICA_EVENTS
-// sets the burst: 200 by default (CI runs it with -race), 500 for the full
+// sets the burst: 100 by default (CI runs it with -race), 500 for the full
 // figure.
 func TestServeTwoReplicasPostgres(t *testing.T) {
 	url := testPostgresURL(t)
 	bin := mixwardBinary(t)
-	total := envInt(os.Getenv, "MIXWARD_REPLICA_EVENTS", 200)
+	total := envInt(os.Getenv, "MIXWARD_REPLICA_EVENTS", 100)
 	const channels = 50
 	slack := newLoopSlack(t)
 	env := func(name string) map[string]string {
