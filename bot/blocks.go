@@ -416,8 +416,10 @@ func truncate(s string, limit int) string {
 
 // SplitMessages groups blocks into messages of at most MaxBlocks blocks.
 // Every message carries fallback text; continuation messages say so.
+// The fallback is plain text made safe for Slack (esc): a mention typed in
+// a request (<!here>) never pings from it.
 func SplitMessages(fallback string, blocks []slack.Block) []Message {
-	fallback = truncate(fallback, MaxFallback)
+	fallback = truncate(esc(fallback), MaxFallback)
 	if len(blocks) == 0 {
 		return []Message{{Text: fallback}}
 	}

@@ -100,12 +100,20 @@ func (in Incoming) Key() string {
 type Reply struct {
 	Kind      Kind
 	Text      string         // the whole answer as plain text: console output, Slack fallback
+	Fallback  string         // Slack's notification text when not Text ("" means Text)
 	Blocks    []slack.Block  // Block Kit form for Slack; nil means Text as sections
 	Result    *engine.Result // the mix answer, for the picture; nil otherwise
 	QueryID   int64          // id in the query log; 0 when nothing was logged
 	Duplicate bool           // the event was already answered: post nothing
 	Again     bool           // the query was logged before under this event id and may have been posted
-	Private   bool           // in a channel, show only to the person who asked (search results)
+	Private   bool           // in a channel, show only to the person who asked (search results, help, refusals)
+	File      *File          // a text file posted after the message in Slack (the full digest); nil when none
+}
+
+// File is a text file attached to a reply.
+type File struct {
+	Name, Title string
+	Content     []byte
 }
 
 // Bot answers messages. Its fields are set once before use; it is safe for
@@ -392,7 +400,7 @@ func (b *Bot) mix(ctx context.Context, in Incoming, text string) Reply {
 	var r Reply
 	switch {
 	case res != nil:
-		r = Reply{Kind: KindMix, Text: b.render(res), Blocks: ResultBlocks(res, id), Result: res, QueryID: id}
+		r = Reply{Kind: KindMix, Text: b.render(res), Blocks: ShortBlocks(res, id), Result: res, QueryID: id}
 	case pe != nil:
 		b.Metrics.failed("request")
 		r = parseErrorReply(text, pe, id)
@@ -402,6 +410,25 @@ func (b *Bot) mix(ctx context.Context, in Incoming, text string) Reply {
 	}
 	r.Again = again
 	return r
+}
+
+// checkRequest reads a request as the answer would (stream tags resolved
+// from the catalogue) and returns the engine's parse error, if any; other
+// failures are left to the answer.
+func (b *Bot) checkRequest(ctx context.Context, text string) *engine.ParseError {
+	resolve := func(tag string) (string, bool) {
+		if b.Catalogue == nil {
+			return "", false
+		}
+		s, err := b.Catalogue.Stream(ctx, tag)
+		return s.Stream, err == nil
+	}
+	_, err := b.ask(text, engine.AskOptions{Resolve: resolve})
+	var pe *engine.ParseError
+	if errors.As(err, &pe) {
+		return pe
+	}
+	return nil
 }
 
 // ask calls the engine, turning a panic into an error so one bad request
@@ -480,7 +507,7 @@ func parseErrorReply(text string, pe *engine.ParseError, id int64) Reply {
 		plain.WriteString(t)
 		md.WriteString(esc(t))
 	}
-	both("I couldn't read that mix request: %s", pe.Message)
+	both("I couldn't read that mix request: %s", chatHints(pe.Message))
 	if pe.Position > 0 {
 		both(" (at character %d", pe.Position)
 		if pe.Token != "" {

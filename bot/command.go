@@ -183,6 +183,7 @@ func parseStreams(text, rest string) (Command, error) {
 			c.Note = strings.TrimSpace(stream[i+len("note:"):])
 			stream = strings.TrimSpace(stream[:i])
 		}
+		stream, c.Note = unquote(stream), unquote(c.Note)
 		if stream == "" {
 			return c, &UsageError{
 				Message: fmt.Sprintf("`streams set %s` needs the stream written as in a mix request after the tag.", c.Tag),
@@ -267,6 +268,18 @@ func parseDay(s string, loc *time.Location, end bool) (time.Time, error) {
 		return t, nil
 	}
 	return time.Time{}, fmt.Errorf("%q is not a date like 2026-11-30 or 2026-11-30T14:00", s)
+}
+
+// unquote drops one pair of matching quotes around s ("…", '…', “…”,
+// ‘…’ or `…`), as people write a stream text in chat.
+func unquote(s string) string {
+	s = strings.TrimSpace(s)
+	for _, q := range [][2]string{{`"`, `"`}, {"'", "'"}, {"“", "”"}, {"‘", "’"}, {"`", "`"}, {"„", "“"}} {
+		if len(s) >= len(q[0])+len(q[1]) && strings.HasPrefix(s, q[0]) && strings.HasSuffix(s, q[1]) {
+			return strings.TrimSpace(s[len(q[0]) : len(s)-len(q[1])])
+		}
+	}
+	return s
 }
 
 // indexFoldASCII is the byte offset of the first match of the ASCII word

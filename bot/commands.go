@@ -19,14 +19,21 @@ type Digester interface {
 	Digest(ctx context.Context, since, until time.Time) (*store.Digest, error)
 }
 
+// nameReader reads the name an id was seen under at a time (store.DB has
+// it); search results name channels with it.
+type nameReader interface {
+	NameAt(ctx context.Context, id string, at time.Time) (string, error)
+}
+
 // searchPageSize is how many queries one search reply lists.
 const searchPageSize = 10
 
-// refuse is the polite refusal for a missing right.
-func (b *Bot) refuse(k Kind, right, what string) Reply {
+// refuse is the polite refusal for a missing right, shown to the person
+// alone. right is the metrics label; allowed names the roles that have it.
+func (b *Bot) refuse(k Kind, right, allowed, what string) Reply {
 	b.Metrics.refusal(right)
-	return Reply{Kind: k, Text: fmt.Sprintf("Sorry, %s is open to %ss only, and you are not on that list. "+
-		"If you need it, ask whoever runs mixward on site to add you (by Slack user id or user group).", what, right)}
+	return Reply{Kind: k, Private: true, Text: fmt.Sprintf("Sorry, %s is open to %s only, and you are not on those lists. "+
+		"If you need it, ask whoever runs mixward on site to add you (by Slack user id or user group).", what, allowed)}
 }
 
 func (b *Bot) help() Reply {
@@ -49,15 +56,24 @@ func (b *Bot) help() Reply {
 	s.WriteString("  digest [12h]                     shift summary so far, or for the last hours (supervisors and reviewers)\n")
 	s.WriteString("  help                             this text\n\n")
 	if b.ConsoleHelp {
-		s.WriteString("At the console also: details (the full answer to the last request), details 12 (logged query #12).\n\n")
+		s.WriteString("At the console also: details, pour, picture (the full answer, the pour order and the E–pH picture of the last request; " +
+			"details 12 for logged query #12).\n\n")
 		s.WriteString("This is the local console: you are the operator at this terminal, so every command is open to you, " +
 			"and your requests are logged as user \"console\".\n\n")
 	} else {
-		s.WriteString("Mention me in a channel, write to me directly, or use /mixward. I answer in a thread. Every request is logged.\n\n")
+		s.WriteString("Mention me in a channel, write to me directly, or use /mixward. I answer in a thread with a short answer and buttons: " +
+			"Details (the full answer), E–pH picture and Pour order. /mixward on its own (or New mix) opens a form to pick tanks. " +
+			"Every request and every button press is logged.\n\n")
 	}
 	s.WriteString(Advisory)
 	text := s.String()
-	return Reply{Kind: KindHelp, Text: text, Blocks: helpBlocks(text)}
+	bl := helpBlocks(text)
+	if !b.ConsoleHelp {
+		bl = append(bl, slack.NewActionBlock("mixward_help", slack.NewButtonBlockElement(ActionNewMix, "new",
+			slack.NewTextBlockObject(slack.PlainTextType, "New mix (form)", false, false))))
+	}
+	// Help is for the person who asked: shown to them alone in a channel.
+	return Reply{Kind: KindHelp, Text: text, Blocks: bl, Private: true}
 }
 
 // helpBlocks shows the help with its syntax lines in a code block.
@@ -147,7 +163,7 @@ func (b *Bot) streams(ctx context.Context, in Incoming, c Command) Reply {
 		return codeReply(KindStreams, strings.TrimRight(s.String(), "\n"))
 	case "set", "remove":
 		if !b.Access.IsSupervisor(ctx, in.UserID) {
-			return b.refuse(KindStreams, "supervisor", "changing the stream catalogue")
+			return b.refuse(KindStreams, "supervisor", "supervisors", "changing the stream catalogue")
 		}
 		by := in.UserID
 		if in.UserName != "" && in.UserName != in.UserID {
@@ -179,7 +195,7 @@ func codeReply(k Kind, text string) Reply {
 
 func (b *Bot) search(ctx context.Context, in Incoming, q SearchQuery) Reply {
 	if !b.Access.IsReviewer(ctx, in.UserID) {
-		return b.refuse(KindSearch, "reviewer", "searching the query log")
+		return b.refuse(KindSearch, "reviewer", "reviewers", "searching the query log")
 	}
 	if b.Searcher == nil {
 		return Reply{Kind: KindSearch, Text: "The query log cannot be searched here."}
@@ -223,7 +239,13 @@ func (b *Bot) search(ctx context.Context, in Incoming, q SearchQuery) Reply {
 		if lq.Site != "" && lq.Site != store.DefaultSite {
 			who += " at " + lq.Site // the search covers every site
 		}
-		fmt.Fprintf(&s, "#%d  %s  %s  %s  %s", lq.ID, lq.Time.In(b.loc()).Format("2006-01-02 15:04"), who, lq.Verdict, truncate(lq.Request, 120))
+		where := lq.Channel
+		if nr, ok := b.Searcher.(nameReader); ok {
+			if n, err := nr.NameAt(ctx, lq.Channel, lq.Time); err == nil && n != "" {
+				where = n
+			}
+		}
+		fmt.Fprintf(&s, "#%d  %s  %s in %s  %s  %s", lq.ID, lq.Time.In(b.loc()).Format("2006-01-02 15:04"), who, where, lq.Verdict, truncate(lq.Request, 120))
 		for _, h := range lq.Hazards {
 			if h.Severity == "danger" {
 				fmt.Fprintf(&s, "  [DANGER %s]", h.Code)
@@ -243,7 +265,7 @@ func (b *Bot) search(ctx context.Context, in Incoming, q SearchQuery) Reply {
 
 func (b *Bot) digest(ctx context.Context, in Incoming, hours int) Reply {
 	if !b.Access.IsSupervisor(ctx, in.UserID) && !b.Access.IsReviewer(ctx, in.UserID) {
-		return b.refuse(KindDigest, "supervisor", "the shift digest")
+		return b.refuse(KindDigest, "supervisor", "supervisors and reviewers", "the shift digest")
 	}
 	if b.Digests == nil {
 		return Reply{Kind: KindDigest, Text: "Digests are not available here."}
@@ -268,15 +290,50 @@ func (b *Bot) digest(ctx context.Context, in Incoming, hours int) Reply {
 	return DigestReply(d)
 }
 
-// DigestReply renders a digest for the console (plain text) and Slack (a
-// code block, split to fit).
+// DigestReply renders a digest: the whole text for the console, and for
+// Slack a compact summary (totals, the danger-first entries that fit, the
+// log head) with the whole text attached as a file, so no entry is ever
+// split between messages.
 func DigestReply(d *store.Digest) Reply {
 	text := d.Text()
-	var bl []slack.Block
-	for _, part := range splitText(esc(text), MaxSectionText-6) {
-		bl = append(bl, section("```"+part+"```"))
+	return Reply{Kind: KindDigest, Text: text, Fallback: d.Heading() + " · " + d.Totals(), Blocks: DigestSummaryBlocks(d),
+		File: &File{Name: "mixward-digest-" + d.Until.UTC().Format("2006-01-02-1504") + "Z.txt", Title: d.Heading(), Content: []byte(text)}}
+}
+
+// digestSummaryLines is how many flagged entries the summary shows before
+// pointing at the file.
+const digestSummaryLines = 8
+
+// DigestSummaryBlocks is the digest's Slack summary.
+func DigestSummaryBlocks(d *store.Digest) []slack.Block {
+	bl := []slack.Block{section("*" + esc(d.Heading()) + "*\n" + esc(d.Totals()))}
+	var lines []string
+	flagged := 0
+	for _, m := range d.Mixes {
+		if m.Level == store.LevelNoConcern {
+			continue
+		}
+		flagged++
+		if len(lines) < digestSummaryLines {
+			lines = append(lines, esc(m.Line()))
+		}
 	}
-	return Reply{Kind: KindDigest, Text: text, Blocks: bl}
+	switch {
+	case flagged == 0:
+		bl = append(bl, section("No mix in this period was judged do-not-mix or with-precautions."))
+	default:
+		more := ""
+		if flagged > len(lines) {
+			more = fmt.Sprintf("\n… and %d more in the attached file.", flagged-len(lines))
+		}
+		bl = append(bl, section("*Do not mix / with precautions*, danger first:\n```"+strings.Join(lines, "\n")+"```"+more))
+	}
+	head := "Log head: none (nothing was logged before the end of the period)"
+	if d.HeadHash != "" {
+		head = fmt.Sprintf("Log head at the end of the period: row %d, hash `%s`", d.HeadID, d.HeadHash)
+	}
+	bl = append(bl, contextBlock(head+" · the full digest is attached as a text file"), contextBlock(esc(store.Advisory)))
+	return bl
 }
 
 // Reviewer judges every pair of a catalogue's streams. *advice.Advisor

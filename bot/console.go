@@ -8,6 +8,8 @@ import (
 	"encoding/json"
 	"fmt"
 	"io"
+	"os"
+	"path/filepath"
 	"strconv"
 	"strings"
 	"sync"
@@ -35,9 +37,17 @@ type Console struct {
 	// Query reads a logged query by id, for `details <id>`; nil means
 	// only the last answer can be shown in full.
 	Query func(ctx context.Context, id int64) (*store.Query, error)
+	// Press records details, pour and picture against the query they show
+	// (as button presses are in Slack); nil records nothing.
+	Press func(ctx context.Context, p store.Press) error
+	// Plot draws the E–pH picture for `picture`; PictureDir is where the
+	// PNG is written ("" means the working directory).
+	Plot       Plotter
+	PictureDir string
 
-	mu   sync.Mutex     // serialises writes to Out (answers and digests)
-	last *engine.Result // the last mix answer, for `details`
+	mu     sync.Mutex     // serialises writes to Out (answers and digests)
+	last   *engine.Result // the last mix answer, for details, pour and picture
+	lastID int64          // its query id, 0 when not logged
 }
 
 // Prompt is shown before each line in interactive mode.
@@ -57,7 +67,7 @@ func (c *Console) Run(ctx context.Context) error {
 	go func() { readErr <- readLines(ctx, c.In, lines) }()
 	if c.Interactive {
 		c.print("mixward console. Type a mix request such as\n  " + RequestExample +
-			"\nor help, details, review, streams, search, digest. quit or Ctrl-D leaves.\n" + Advisory + "\n\n" + Prompt)
+			"\nor help, details, pour, picture, review, streams, search, digest. quit or Ctrl-D leaves.\n" + Advisory + "\n\n" + Prompt)
 	}
 	for {
 		select {
@@ -85,8 +95,8 @@ func (c *Console) Run(ctx context.Context) error {
 			if c.Interactive && (text == "quit" || text == "exit") {
 				return nil
 			}
-			if word, rest, _ := strings.Cut(text, " "); strings.EqualFold(word, "details") {
-				c.print(c.details(ctx, strings.TrimSpace(rest)) + "\n")
+			if word, rest, _ := strings.Cut(text, " "); isShowWord(word) {
+				c.print(c.show(ctx, strings.ToLower(word), strings.TrimSpace(rest)) + "\n")
 				if c.Interactive {
 					c.print(Prompt)
 				}
@@ -111,42 +121,97 @@ func (c *Console) Run(ctx context.Context) error {
 	}
 }
 
-// details is the full answer of the last request, or of a logged query.
-func (c *Console) details(ctx context.Context, arg string) string {
+// isShowWord reports whether word is one of the console's commands that
+// show more of an answer (the buttons under an answer in Slack).
+func isShowWord(word string) bool {
+	switch strings.ToLower(word) {
+	case store.PressDetails, store.PressPour, store.PressPicture:
+		return true
+	}
+	return false
+}
+
+// show answers details, pour or picture for the last answer, or for a
+// logged query, and records it against the query.
+func (c *Console) show(ctx context.Context, what, arg string) string {
+	r, id, head, msg := c.resultFor(ctx, what, arg)
+	if r == nil {
+		return msg
+	}
+	if c.Press != nil && id > 0 {
+		err := c.Press(ctx, store.Press{QueryID: id, Action: what, UserID: ConsoleUser, UserName: ConsoleUser, Channel: ConsoleUser, Transport: "console"})
+		if err != nil {
+			return fmt.Sprintf("I could not record this in the query log, so I am not showing it: %v.", err)
+		}
+	}
+	switch what {
+	case store.PressPour:
+		return head + PourText(r)
+	case store.PressPicture:
+		return head + c.picture(r, id)
+	}
+	return head + advice.RenderDetails(r)
+}
+
+// resultFor finds the answer a show command is about: the last one, or
+// logged query arg. msg explains when there is none.
+func (c *Console) resultFor(ctx context.Context, what, arg string) (r *engine.Result, id int64, head, msg string) {
 	if arg == "" {
 		c.mu.Lock()
-		r := c.last
+		r, id = c.last, c.lastID
 		c.mu.Unlock()
 		if r == nil {
-			return "No mix answer yet: ask a mix request first, or say `details 12` for logged query #12."
+			return nil, 0, "", fmt.Sprintf("No mix answer yet: ask a mix request first, or say `%s 12` for logged query #12.", what)
 		}
-		return advice.RenderDetails(r)
+		return r, id, "", ""
 	}
 	id, err := strconv.ParseInt(strings.TrimPrefix(arg, "#"), 10, 64)
 	if err != nil || id <= 0 {
-		return fmt.Sprintf("`details` takes nothing (the last answer) or a query number like `details 12`; got %q.", arg)
+		return nil, 0, "", fmt.Sprintf("`%s` takes nothing (the last answer) or a query number like `%s 12`; got %q.", what, what, arg)
 	}
 	if c.Query == nil {
-		return "The query log cannot be read here."
+		return nil, 0, "", "The query log cannot be read here."
 	}
 	q, err := c.Query(ctx, id)
 	if err != nil {
-		return fmt.Sprintf("I could not read query #%d from the log: %v.", id, err)
+		return nil, 0, "", fmt.Sprintf("I could not read query #%d from the log: %v.", id, err)
 	}
 	if len(q.Result) == 0 {
-		return fmt.Sprintf("Query #%d has no answer on record (%s): %s", id, q.Verdict, q.Error)
+		return nil, 0, "", fmt.Sprintf("Query #%d has no answer on record (%s): %s", id, q.Verdict, q.Error)
 	}
-	var r engine.Result
-	if err := json.Unmarshal(q.Result, &r); err != nil {
-		return fmt.Sprintf("Query #%d's answer on record could not be read: %v.", id, err)
+	r = new(engine.Result)
+	if err := json.Unmarshal(q.Result, r); err != nil {
+		return nil, 0, "", fmt.Sprintf("Query #%d's answer on record could not be read: %v.", id, err)
 	}
-	return fmt.Sprintf("Query #%d, asked %s by %s:\n", id, q.Time.Format("2006-01-02 15:04 MST"), q.UserName) + advice.RenderDetails(&r)
+	return r, id, fmt.Sprintf("Query #%d, asked %s by %s:\n", id, q.Time.Format("2006-01-02 15:04 MST"), q.UserName), ""
+}
+
+// picture draws the E–pH picture of r into PictureDir and says where.
+func (c *Console) picture(r *engine.Result, id int64) string {
+	if c.Plot == nil {
+		return "Pictures are not available here."
+	}
+	png, ok, err := c.Plot.Plot(r)
+	switch {
+	case err != nil:
+		return fmt.Sprintf("The E–pH picture could not be drawn: %v.", err)
+	case !ok:
+		return "This answer has no oxidizing and reducing agent pair to draw."
+	}
+	name := filepath.Join(c.PictureDir, fmt.Sprintf("mixward-eph-%d.png", id))
+	if id == 0 {
+		name = filepath.Join(c.PictureDir, "mixward-eph.png")
+	}
+	if err := os.WriteFile(name, png, 0o644); err != nil {
+		return fmt.Sprintf("The E–pH picture could not be written: %v.", err)
+	}
+	return fmt.Sprintf("E–pH picture written to %s (%d bytes).", name, len(png))
 }
 
 func (c *Console) answer(r Reply) {
 	if r.Result != nil {
 		c.mu.Lock()
-		c.last = r.Result
+		c.last, c.lastID = r.Result, r.QueryID
 		c.mu.Unlock()
 	}
 	var b strings.Builder

@@ -32,6 +32,9 @@ type fakeSlack struct {
 	calls   map[string]int
 	nextTS  int
 	groups  map[string][]string
+	views   []fakeView                            // views.open and views.update calls, in order
+	users   map[string]string                     // users.info: id → display name
+	chans   map[string]string                     // conversations.info: id → name
 	fault   func(method string, n int) *fakeFault // n counts calls of method, from 1
 	postHit chan fakePost                         // each stored post, if not nil
 
@@ -82,6 +85,14 @@ func (p fakePost) blockText() string {
 	return b.String()
 }
 
+// fakeView is one views.open or views.update call.
+type fakeView struct {
+	Method    string
+	TriggerID string
+	ViewID    string
+	View      map[string]any
+}
+
 type fakeUpload struct {
 	Channel, ThreadTS, Title, Filename string
 	Size                               int
@@ -104,6 +115,8 @@ func newFakeSlack(t *testing.T) *fakeSlack {
 		t:        t,
 		calls:    map[string]int{},
 		groups:   map[string][]string{},
+		users:    map[string]string{},
+		chans:    map[string]string{},
 		connCh:   make(chan int, 16),
 		acks:     make(chan fakeAck, 1024),
 		upgrader: websocket.Upgrader{CheckOrigin: func(*http.Request) bool { return true }},
@@ -239,8 +252,12 @@ func (f *fakeSlack) serve(w http.ResponseWriter, r *http.Request) {
 		f.mu.Unlock()
 		f.reply(w, map[string]any{"ok": true, "messages": msgs, "has_more": false})
 	case "chat.postEphemeral":
+		p := fakePost{Channel: r.Form.Get("channel"), ThreadTS: r.Form.Get("thread_ts"), Text: r.Form.Get("text"), User: r.Form.Get("user")}
+		if b := r.Form.Get("blocks"); b != "" {
+			_ = json.Unmarshal([]byte(b), &p.Blocks)
+		}
 		f.mu.Lock()
-		f.ephemerals = append(f.ephemerals, fakePost{Channel: r.Form.Get("channel"), ThreadTS: r.Form.Get("thread_ts"), Text: r.Form.Get("text"), User: r.Form.Get("user")})
+		f.ephemerals = append(f.ephemerals, p)
 		f.mu.Unlock()
 		f.reply(w, map[string]any{"ok": true, "message_ts": "1700000000.999999"})
 	case "files.getUploadURLExternal":
@@ -256,6 +273,55 @@ func (f *fakeSlack) serve(w http.ResponseWriter, r *http.Request) {
 		f.uploads = append(f.uploads, fakeUpload{Channel: r.Form.Get("channel_id"), ThreadTS: r.Form.Get("thread_ts"), Title: title})
 		f.mu.Unlock()
 		f.reply(w, map[string]any{"ok": true, "files": []map[string]any{{"id": "F1", "title": title}}})
+	case "views.open", "views.update":
+		// slack-go posts these as JSON.
+		var req struct {
+			TriggerID string         `json:"trigger_id"`
+			ViewID    string         `json:"view_id"`
+			Hash      string         `json:"hash"`
+			View      map[string]any `json:"view"`
+		}
+		if err := json.NewDecoder(r.Body).Decode(&req); err != nil || req.View == nil {
+			f.reply(w, map[string]any{"ok": false, "error": "invalid_arguments"})
+			return
+		}
+		if method == "views.open" && req.TriggerID == "" {
+			f.reply(w, map[string]any{"ok": false, "error": "invalid_trigger_id"})
+			return
+		}
+		if method == "views.update" && req.Hash != "h-"+req.ViewID {
+			f.reply(w, map[string]any{"ok": false, "error": "hash_conflict"})
+			return
+		}
+		view := req.View
+		f.mu.Lock()
+		id := req.ViewID
+		if id == "" {
+			id = fmt.Sprintf("V%03d", len(f.views)+1)
+		}
+		f.views = append(f.views, fakeView{Method: method, TriggerID: req.TriggerID, ViewID: id, View: view})
+		f.mu.Unlock()
+		view["id"], view["hash"] = id, "h-"+id
+		f.reply(w, map[string]any{"ok": true, "view": view})
+	case "users.info":
+		f.mu.Lock()
+		name, ok := f.users[r.Form.Get("user")]
+		f.mu.Unlock()
+		if !ok {
+			f.reply(w, map[string]any{"ok": false, "error": "user_not_found"})
+			return
+		}
+		f.reply(w, map[string]any{"ok": true, "user": map[string]any{"id": r.Form.Get("user"), "name": strings.ToLower(name),
+			"profile": map[string]any{"display_name": name, "real_name": name + " (real)"}}})
+	case "conversations.info":
+		f.mu.Lock()
+		name, ok := f.chans[r.Form.Get("channel")]
+		f.mu.Unlock()
+		if !ok {
+			f.reply(w, map[string]any{"ok": false, "error": "channel_not_found"})
+			return
+		}
+		f.reply(w, map[string]any{"ok": true, "channel": map[string]any{"id": r.Form.Get("channel"), "name": name, "is_channel": true}})
 	case "usergroups.users.list":
 		f.mu.Lock()
 		users, ok := f.groups[r.Form.Get("usergroup")]
@@ -424,6 +490,63 @@ func (f *fakeSlack) waitUploads(n int) []fakeUpload {
 			f.t.Fatalf("fake slack: %d files uploaded, want %d", len(f.uploadsNow()), n)
 		}
 		time.Sleep(5 * time.Millisecond)
+	}
+}
+
+func (f *fakeSlack) viewsNow() []fakeView {
+	f.mu.Lock()
+	defer f.mu.Unlock()
+	return append([]fakeView(nil), f.views...)
+}
+
+func (f *fakeSlack) ephemeralsNow() []fakePost {
+	f.mu.Lock()
+	defer f.mu.Unlock()
+	return append([]fakePost(nil), f.ephemerals...)
+}
+
+// interactiveEnvelope is a Socket Mode envelope carrying an interaction.
+func interactiveEnvelope(envID string, payload any) string {
+	b, _ := json.Marshal(map[string]any{"type": "interactive", "envelope_id": envID, "accepts_response_payload": true, "payload": payload})
+	return string(b)
+}
+
+// buttonPayload is a block_actions interaction: user pressed the button
+// actionID (value) under the message ts in thread of channel.
+func buttonPayload(actionID, value, channel, thread, ts, user, actionTS string) map[string]any {
+	return map[string]any{
+		"type": "block_actions", "trigger_id": "trig-" + actionTS, "api_app_id": "A1",
+		"user":      map[string]any{"id": user, "name": "op"},
+		"channel":   map[string]any{"id": channel},
+		"container": map[string]any{"type": "message", "message_ts": ts, "channel_id": channel, "thread_ts": thread},
+		"message":   map[string]any{"ts": ts, "thread_ts": thread},
+		"actions":   []any{map[string]any{"action_id": actionID, "block_id": "mixward_answer", "value": value, "type": "button", "action_ts": actionTS}},
+	}
+}
+
+// formPayload is a view_submission of the request form with the given
+// values (block id → value; "tags" takes a comma-separated list).
+func formPayload(viewID, user, meta string, values map[string]string) map[string]any {
+	state := map[string]any{}
+	for k, v := range values {
+		var action map[string]any
+		switch k {
+		case "tags":
+			var opts []any
+			for _, t := range strings.Split(v, ",") {
+				opts = append(opts, map[string]any{"value": t, "text": map[string]any{"type": "plain_text", "text": t}})
+			}
+			action = map[string]any{"type": "multi_static_select", "selected_options": opts}
+		case "channel":
+			action = map[string]any{"type": "conversations_select", "selected_conversation": v}
+		default:
+			action = map[string]any{"type": "plain_text_input", "value": v}
+		}
+		state[k] = map[string]any{k: action}
+	}
+	return map[string]any{
+		"type": "view_submission", "api_app_id": "A1", "user": map[string]any{"id": user, "name": "op"},
+		"view": map[string]any{"id": viewID, "callback_id": "mixward_form", "private_metadata": meta, "state": map[string]any{"values": state}},
 	}
 }
 

@@ -149,6 +149,12 @@ type env struct {
 
 type envOption func(*env)
 
+// withNames makes the bot name people and channels through the fake's
+// users.info and conversations.info, noting the names in the store.
+func withNames(e *env) {
+	e.sl.Names = &bot.Names{API: e.api, Note: e.db, Now: e.clock.Now}
+}
+
 func newEnv(t *testing.T, opts ...envOption) *env {
 	t.Helper()
 	e := &env{t: t, slack: newFakeSlack(t), clock: newClock(), secret: "8f742231b10e8888abcd99yyyzzz85a5"}
@@ -181,6 +187,7 @@ func newEnv(t *testing.T, opts ...envOption) *env {
 			Backoff: bot.Backoff{Attempts: 6}},
 		Queue:   bot.NewQueue(64, nil),
 		Plot:    fakePlotter{},
+		Views:   e.api,
 		Health:  &bot.Health{},
 		Now:     e.clock.Now,
 		Logger:  logger,

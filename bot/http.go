@@ -8,6 +8,7 @@ import (
 	"net/http"
 	"net/url"
 	"strconv"
+	"strings"
 	"time"
 
 	"github.com/slack-go/slack"
@@ -17,8 +18,10 @@ import (
 // maxBody bounds a Slack request body; Slack's own are a few KB.
 const maxBody = 1 << 20
 
-// HTTPHandler serves the Slack HTTP Events API (POST /slack/events) and the
-// slash command (POST /slack/commands), plus GET /healthz. Every Slack
+// HTTPHandler serves the Slack HTTP Events API (POST /slack/events), the
+// slash command (POST /slack/commands) and interactivity (POST
+// /slack/interactive: buttons, the request form, the shortcut), plus GET
+// /healthz. Every Slack
 // request must carry a valid signature (v); an unsigned, forged or stale
 // request gets 401 and is neither processed nor logged. Requests are
 // answered as soon as they are queued; the answer is posted later.
@@ -26,6 +29,7 @@ func (s *Slack) HTTPHandler(v *Verifier) http.Handler {
 	mux := http.NewServeMux()
 	mux.HandleFunc("POST /slack/events", func(w http.ResponseWriter, r *http.Request) { s.serveEvents(w, r, v) })
 	mux.HandleFunc("POST /slack/commands", func(w http.ResponseWriter, r *http.Request) { s.serveCommand(w, r, v) })
+	mux.HandleFunc("POST /slack/interactive", func(w http.ResponseWriter, r *http.Request) { s.serveInteractive(w, r, v) })
 	if s.Health != nil {
 		mux.Handle("GET /healthz", s.Health)
 	}
@@ -128,9 +132,37 @@ func (s *Slack) serveCommand(w http.ResponseWriter, r *http.Request, v *Verifier
 		http.Error(w, "slash command without channel_id or user_id", http.StatusBadRequest)
 		return
 	}
+	if strings.TrimSpace(c.Text) == "" && s.openFormLogged(r.Context(), c.TriggerID, formMeta{Channel: c.ChannelID}, false) {
+		w.WriteHeader(http.StatusOK) // the form is the answer
+		return
+	}
 	in := s.FromCommand(c, "http")
 	ack := commandAck(in)
 	s.accept(w, r, in, ack)
+}
+
+// serveInteractive takes a button press, a form submission or a shortcut.
+// Field errors of a form go back in the response body; everything else is
+// answered with an empty 200 and handled after.
+func (s *Slack) serveInteractive(w http.ResponseWriter, r *http.Request, v *Verifier) {
+	body, ok := s.readVerified(w, r, v)
+	if !ok {
+		return
+	}
+	cb, err := ParseInteraction(body)
+	if err != nil {
+		http.Error(w, err.Error(), http.StatusBadRequest)
+		return
+	}
+	ctx, cancel := context.WithTimeout(r.Context(), s.ackWait())
+	defer cancel()
+	resp := s.Interact(ctx, cb, "http")
+	if resp == nil {
+		w.WriteHeader(http.StatusOK)
+		return
+	}
+	w.Header().Set("Content-Type", "application/json")
+	_ = json.NewEncoder(w).Encode(resp)
 }
 
 // accept queues in and acknowledges the request; if the queue stays full

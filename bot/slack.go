@@ -32,6 +32,8 @@ type Slack struct {
 	Journal       Journal   // durable inbox; nil keeps taken messages in memory only
 	BotUserID     string    // the bot's own user id (auth.test), if known before start; see SetBotUser
 	DigestChannel string    // where scheduled digests go
+	Views         ViewsAPI  // opens the request form; nil means no form (help instead)
+	Names         *Names    // names people and channels; nil keeps the ids
 	AckWait       time.Duration
 	Health        *Health
 	Now           func() time.Time
@@ -278,6 +280,7 @@ func (s *Slack) process(ctx context.Context, in Incoming, gate <-chan intake) {
 		// the next start answers it.
 		return
 	}
+	s.nameSender(&in)
 	reply := s.Bot.Answer(ctx, in)
 	if ctx.Err() != nil {
 		return
@@ -307,9 +310,6 @@ func (s *Slack) process(ctx context.Context, in Incoming, gate <-chan intake) {
 		s.Metrics.observeReply(took)
 		s.logger().Info("answered", "kind", reply.Kind, "query_id", reply.QueryID, "transport", in.Transport,
 			"channel", in.Channel, "user", in.UserID, "event_id", in.EventID, "retry", in.Retry, "took", took)
-		if reply.Result != nil && thread != "" && !reply.Private {
-			s.pictures().Offer(in.Channel, thread, reply.QueryID, reply.Result)
-		}
 	case ctx.Err() != nil || Retryable(err):
 		o.State = store.InboxPending
 		s.Metrics.failed("post")
@@ -320,6 +320,22 @@ func (s *Slack) process(ctx context.Context, in Incoming, gate <-chan intake) {
 		s.logger().Error("answer not posted", "channel", in.Channel, "thread", in.ThreadTS, "query_id", reply.QueryID, "err", err)
 	}
 	s.outcome(in, o)
+}
+
+// nameSender puts the display name of the sender, when known, into in (the
+// log keeps the id and the name seen at the time) and refreshes the
+// sender's and the channel's names in the background.
+func (s *Slack) nameSender(in *Incoming) {
+	if s.Names == nil {
+		return
+	}
+	if n := s.Names.Known(in.UserID); n != "" {
+		in.UserName = n
+	}
+	s.Names.Refresh(in.UserID, true)
+	if !strings.HasPrefix(in.Channel, "D") {
+		s.Names.Refresh(in.Channel, false)
+	}
 }
 
 // outcome records what came of an answer: in the inbox (with its delivery)
@@ -406,7 +422,7 @@ func (s *Slack) post(ctx context.Context, in Incoming, thread string, reply Repl
 		thread = ts
 	}
 	blocks := replyBlocks(reply)
-	msgs := SplitMessages(reply.Text, blocks)
+	msgs := SplitMessages(orDefault(reply.Fallback, reply.Text), blocks)
 	var parts []string
 	for i, m := range msgs {
 		if done[i+1] {
@@ -419,6 +435,13 @@ func (s *Slack) post(ctx context.Context, in Incoming, thread string, reply Repl
 			return thread, fmt.Sprintf("part %d of %d not posted: %s", i+1, len(msgs), errText(err)), err
 		}
 		parts = append(parts, ts)
+	}
+	if f := reply.File; f != nil && !done[len(msgs)+1] {
+		if err := s.Poster.Upload(ctx, in.Channel, thread, f.Name, f.Title, "", f.Content); err != nil {
+			return thread, fmt.Sprintf("posted in %s thread %s as %s; file %s not uploaded: %s", in.Channel, thread,
+				strings.Join(parts, ","), f.Name, errText(err)), err
+		}
+		parts = append(parts, "file "+f.Name)
 	}
 	return thread, fmt.Sprintf("posted in %s thread %s as %s", in.Channel, thread, strings.Join(parts, ",")), nil
 }
@@ -517,26 +540,38 @@ func commandSum(c slack.SlashCommand, at time.Time) (id, prev string) {
 	return fmt.Sprintf("cmd-sum:%s@%d", sum, slot), fmt.Sprintf("cmd-sum:%s@%d", sum, slot-1)
 }
 
-// commandAck is the immediate, private answer to a slash command.
+// commandAck is the immediate, private answer to a slash command: it says
+// where the answer will appear, truthfully for each kind of command.
 func commandAck(in Incoming) map[string]string {
-	text := "Working on it; the answer will appear in a thread in this channel."
-	if strings.TrimSpace(in.Text) == "" {
-		text = "Asking for help; the answer will appear in a thread in this channel."
+	cmd, _ := ParseCommand(in.Text, nil)
+	text := "Working on it: I will post your request in this channel and answer in its thread " +
+		"(if I am not a member of this channel, only you will see the answer)."
+	switch {
+	case cmd.Kind == KindHelp || cmd.Kind == KindSearch:
+		text = "Working on it: only you will see the answer, here in a moment."
+	case strings.HasPrefix(in.Channel, "D"):
+		text = "Working on it: the answer will appear here in a moment."
+	case cmd.Kind == KindDigest || (cmd.Kind == KindStreams && (cmd.Action == "set" || cmd.Action == "remove")):
+		text = "Working on it: I will post your request in this channel and answer in its thread; " +
+			"if the command is not open to you, only you will see my reply."
 	}
 	return map[string]string{"response_type": "ephemeral", "text": text}
 }
 
-// PublishDigest posts a scheduled digest to the supervisors' channel. It
+// PublishDigest posts a scheduled digest to the supervisors' channel: the
+// summary message, then the whole digest as a text file in its thread. It
 // implements store.Publisher.
 func (s *Slack) PublishDigest(ctx context.Context, d *store.Digest) error {
 	if s.DigestChannel == "" {
 		return errors.New("no digest channel configured (set MIXWARD_DIGEST_CHANNEL)")
 	}
 	r := DigestReply(d)
-	for _, m := range SplitMessages(truncate(strings.SplitN(r.Text, "\n", 2)[0], 200), r.Blocks) {
-		if _, err := s.Poster.Post(ctx, s.DigestChannel, "", m); err != nil {
-			return fmt.Errorf("post digest to %s: %w", s.DigestChannel, err)
-		}
+	ts, err := s.Poster.Post(ctx, s.DigestChannel, "", SplitMessages(r.Fallback, r.Blocks)[0])
+	if err != nil {
+		return fmt.Errorf("post digest to %s: %w", s.DigestChannel, err)
+	}
+	if err := s.Poster.Upload(ctx, s.DigestChannel, ts, r.File.Name, r.File.Title, "", r.File.Content); err != nil {
+		return fmt.Errorf("attach the digest file in %s: %w", s.DigestChannel, err)
 	}
 	return nil
 }

@@ -17,7 +17,7 @@ import (
 	"mixward/store"
 )
 
-func TestMentionGetsThreadedBlockKitReply(t *testing.T) {
+func TestMentionGetsShortAnswerThenDetailsOnDemand(t *testing.T) {
 	e := newEnv(t)
 	e.sl.BotUserID = "UBOT"
 	e.runSocket()
@@ -32,52 +32,78 @@ func TestMentionGetsThreadedBlockKitReply(t *testing.T) {
 	if p.Channel != "CPLANT" || p.ThreadTS != "1700000100.000100" {
 		t.Errorf("reply went to channel %q thread %q, want CPLANT thread 1700000100.000100", p.Channel, p.ThreadTS)
 	}
-	if len(p.Blocks) == 0 || p.Blocks[0]["type"] != "header" {
-		t.Fatalf("first block is not a header: %v", p.Blocks)
+	if len(p.Blocks) == 0 || p.Blocks[0]["type"] != "header" || len(p.Blocks) > bot.ShortMaxBlocks {
+		t.Fatalf("short answer: %d blocks, first %v; want a header first and at most %d", len(p.Blocks), p.Blocks[0], bot.ShortMaxBlocks)
 	}
 	text := p.blockText()
-	for _, want := range []string{
-		"SPONTANEOUS", // verdict in the header
-		"Species present", "HOCl(aq)", "oxidizing agent", "reducing agent",
-		"Half-reactions", "2 Cl- → Cl2(g) + 2 e-",
-		"Net ionic equation", "HOCl + H+ + Cl- → Cl2(g) + H2O",
-		"E°cell = +0.270 V", "Ecell = +0.150 V",
-		"Gas: Cl2(g)", "Heat released",
-		"Hazards", "Caveats", "rates are not predicted",
-		"not a permit", // the caution
-	} {
+	for _, want := range []string{"SPONTANEOUS", "DANGER", "chlorine gas is released", "HOCl + H+ + Cl- → Cl2(g) + H2O",
+		"Query #1", "Details", "E–pH picture", "Pour order", "not a permit"} {
 		if !strings.Contains(text, want) {
-			t.Errorf("reply blocks lack %q\n%s", want, text)
+			t.Errorf("short answer lacks %q\n%s", want, text)
 		}
 	}
-	if d, w := strings.Index(text, "DANGER"), strings.Index(text, "*warning*"); d < 0 || w < 0 || d > w {
-		t.Errorf("danger hazard not listed before the warning:\n%s", text)
-	}
-	if !strings.Contains(p.Text, "Request: mix 200 L NaOCl") {
-		t.Errorf("fallback text %q is not the plain-text answer", p.Text)
+	for _, notYet := range []string{"Species present", "Half-reactions"} {
+		if strings.Contains(text, notYet) {
+			t.Errorf("short answer already holds %q, which belongs under Details", notYet)
+		}
 	}
 	if strings.Contains(text, "<@UBOT>") {
 		t.Errorf("the mention was passed on as part of the request:\n%s", text)
 	}
+	// No picture on the answer path.
+	time.Sleep(50 * time.Millisecond)
+	if ups := e.slack.uploadsNow(); len(ups) != 0 {
+		t.Errorf("a picture was uploaded with the answer: %+v", ups)
+	}
 
-	// The picture follows the answer, from its own pool.
+	// Details: the full answer in the same thread.
+	e.slack.send(interactiveEnvelope("env-d", buttonPayload(bot.ActionDetails, "1", "CPLANT", p.ThreadTS, p.TS, "UOP2", "1700000200.1")))
+	if a := e.slack.waitAck("env-d"); len(a.Payload) > 0 && string(a.Payload) != "null" {
+		t.Errorf("button ack carries %s, want nothing", a.Payload)
+	}
+	posts = e.slack.waitPosts(2)
+	e.drain()
+	full := posts[1]
+	if full.ThreadTS != p.ThreadTS {
+		t.Errorf("details went to thread %q, want %q", full.ThreadTS, p.ThreadTS)
+	}
+	ftext := full.blockText()
+	for _, want := range []string{"Species present", "HOCl(aq)", "Half-reactions", "2 Cl- → Cl2(g) + 2 e-", "Net ionic equation",
+		"E°cell = +0.270 V", "Gas: Cl2(g)", "Heat released", "Hazards", "Caveats", "rates are not predicted", "not a permit"} {
+		if !strings.Contains(ftext, want) {
+			t.Errorf("details lack %q\n%s", want, ftext)
+		}
+	}
+	if d, w := strings.Index(ftext, "DANGER"), strings.Index(ftext, "*warning*"); d < 0 || w < 0 || d > w {
+		t.Errorf("danger hazard not listed before the warning:\n%s", ftext)
+	}
+
+	// E–pH picture: one upload into the thread, drawn on request.
+	e.slack.send(interactiveEnvelope("env-p", buttonPayload(bot.ActionPicture, "1", "CPLANT", p.ThreadTS, p.TS, "UOP", "1700000201.1")))
+	e.slack.waitAck("env-p")
 	ups := e.slack.waitUploads(1)
-	if len(ups) != 1 || ups[0].Channel != "CPLANT" || ups[0].ThreadTS != "1700000100.000100" {
+	e.drain()
+	if len(ups) != 1 || ups[0].Channel != "CPLANT" || ups[0].ThreadTS != p.ThreadTS {
 		t.Errorf("uploads = %+v, want one E–pH picture in the thread", ups)
 	}
+	// The same press delivered again is answered once.
+	e.slack.send(interactiveEnvelope("env-p2", buttonPayload(bot.ActionPicture, "1", "CPLANT", p.ThreadTS, p.TS, "UOP", "1700000201.1")))
+	e.slack.waitAck("env-p2")
+	e.drain()
 
-	qs := e.queries()
-	if len(qs) != 1 {
-		t.Fatalf("%d queries logged, want 1", len(qs))
+	q := e.queries()
+	if len(q) != 1 || q[0].EventID != "Ev1" || q[0].UserID != "UOP" || q[0].Verdict != "spontaneous" {
+		t.Fatalf("logged queries = %+v, want the one request", q)
 	}
-	q := qs[0]
-	if q.EventID != "Ev1" || q.UserID != "UOP" || q.Channel != "CPLANT" || q.Verdict != "spontaneous" || q.Request != "mix 200 L NaOCl 12.5 % + 50 L HCl 10 %" {
-		t.Errorf("logged query = %+v", q)
+	ps, err := e.db.Presses(context.Background(), q[0].ID)
+	if err != nil || len(ps) != 2 || ps[0].Action != "details" || ps[0].UserID != "UOP2" || ps[1].Action != "picture" || ps[0].Transport != "socket" {
+		t.Errorf("presses = %+v, %v; want details by UOP2 then picture by UOP, over socket", ps, err)
 	}
-	if q.Oxidizer != "HOCl(aq)" || q.Reducer != "Cl-(aq)" || len(q.Hazards) != 3 || q.EngineVersion != "test" || q.DataHash != "feedface" {
-		t.Errorf("logged summary = oxidizer %q reducer %q hazards %v engine %q data %q", q.Oxidizer, q.Reducer, q.Hazards, q.EngineVersion, q.DataHash)
+	time.Sleep(50 * time.Millisecond)
+	if n := len(e.slack.uploadsNow()); n != 1 {
+		t.Errorf("%d uploads after the press was delivered twice, want 1", n)
 	}
-	ds, err := e.db.Deliveries(context.Background(), q.ID)
+	ds, err := e.db.Deliveries(context.Background(), q[0].ID)
 	if err != nil || len(ds) != 1 || !ds[0].OK || !strings.Contains(ds[0].Detail, "posted in CPLANT thread 1700000100.000100") {
 		t.Errorf("deliveries = %+v, %v; want one ok in the thread", ds, err)
 	}

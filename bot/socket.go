@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
+	"strings"
 
 	"github.com/slack-go/slack"
 	"github.com/slack-go/slack/slackevents"
@@ -106,14 +107,26 @@ func (s *Slack) socketEvent(ctx context.Context, sm *socketmode.Client, ev socke
 			s.ack(ctx, sm, ev.Request, nil)
 			return nil
 		}
+		if strings.TrimSpace(c.Text) == "" && s.openFormLogged(ctx, c.TriggerID, formMeta{Channel: c.ChannelID}, false) {
+			s.ack(ctx, sm, ev.Request, nil) // the form is the answer
+			return nil
+		}
 		in := s.FromCommand(c, "socket")
 		if s.submitBlocking(ctx, in) {
 			s.ack(ctx, sm, ev.Request, commandAck(in))
 		}
 	case socketmode.EventTypeInteractive:
-		if ev.Request != nil {
-			_ = sm.AckCtx(ctx, ev.Request.EnvelopeID, nil)
+		if ev.Request == nil {
+			return nil
 		}
+		cb, ok := ev.Data.(slack.InteractionCallback)
+		var resp any
+		if ok {
+			actx, cancel := context.WithTimeout(ctx, s.ackWait())
+			resp = s.Interact(actx, cb, "socket")
+			cancel()
+		}
+		s.ack(ctx, sm, ev.Request, resp)
 	}
 	return nil
 }

@@ -136,12 +136,14 @@ func TestManifests(t *testing.T) {
 		return out
 	}
 	sock, http := read(t, "slack-manifest.socket.yaml"), read(t, "slack-manifest.http.yaml")
-	want := []string{"app_mentions:read", "channels:history", "chat:write", "commands", "files:write", "groups:history", "im:history", "mpim:history", "usergroups:read"}
+	want := []string{"app_mentions:read", "channels:history", "channels:read", "chat:write", "commands", "files:write", "groups:history",
+		"groups:read", "im:history", "mpim:history", "usergroups:read", "users:read"}
 	for name, m := range map[string]string{"socket": sock, "http": http} {
 		if got := scopes(m); strings.Join(got, ",") != strings.Join(want, ",") {
 			t.Errorf("%s manifest scopes = %v, want %v", name, got, want)
 		}
-		for _, ev := range []string{"- app_mention", "- message.im", "command: /mixward"} {
+		for _, ev := range []string{"- app_mention", "- message.im", "command: /mixward", "interactivity:\n    is_enabled: true",
+			"callback_id: mixward_new", "type: global"} {
 			if !strings.Contains(m, ev) {
 				t.Errorf("%s manifest lacks %q", name, ev)
 			}
@@ -153,8 +155,9 @@ func TestManifests(t *testing.T) {
 	if !strings.Contains(sock, "socket_mode_enabled: true") || strings.Contains(sock, "request_url") {
 		t.Errorf("socket manifest must enable Socket Mode and name no request URL")
 	}
-	if !strings.Contains(http, "socket_mode_enabled: false") || !strings.Contains(http, "/slack/events") || !strings.Contains(http, "/slack/commands") {
-		t.Errorf("http manifest must point events at /slack/events and the command at /slack/commands")
+	if !strings.Contains(http, "socket_mode_enabled: false") || !strings.Contains(http, "/slack/events") || !strings.Contains(http, "/slack/commands") ||
+		!strings.Contains(http, "request_url: https://mixward.example.internal/slack/interactive") {
+		t.Errorf("http manifest must point events at /slack/events, the command at /slack/commands and interactivity at /slack/interactive")
 	}
 }
 

@@ -1,8 +1,10 @@
 package engine
 
 import (
+	"fmt"
 	"math"
 
+	"mixward/engine/chem"
 	"mixward/engine/explain"
 	"mixward/engine/state"
 	"mixward/engine/thermo"
@@ -56,12 +58,13 @@ func partialOf(mx *state.Mix, s *state.State, i int) float64 {
 
 // heatOut is ΔH from the streams' states to the mix at equilibrium, from ΔfH°
 // of every species that changed, plus the heat of dissolving solids and
-// near-pure reagents; the temperature reached over the mixed mass, and
-// boiling when it passes the boiling point.
+// near-pure reagents and the heat of concentrated solutions (dilution.txt);
+// the temperature reached over the mixed mass, and boiling when it passes
+// the boiling point. When a species without ΔfH° takes a real share of the
+// change the sum would mislead (even in sign), so no figure is given.
 func heatOut(mx *state.Mix, m *mixture, t *Tables) *Heat {
 	dfh := enthalpies(mx)
 	dh, big := 0.0, 0.0
-	var missing []string
 	for i := range mx.Species {
 		d := mx.Final.Amount[i] - mx.Initial[i]
 		big = math.Max(big, math.Abs(d))
@@ -69,25 +72,44 @@ func heatOut(mx *state.Mix, m *mixture, t *Tables) *Heat {
 			dh += d * dfh[i]
 		}
 	}
+	// A change below a trace of the mix (missingFloor mol per litre) never
+	// withholds the figure: when nothing else happens, a trace of a complex
+	// is still most of the "largest change".
+	floor := missingFloor * mx.VolumeL
+	var missing []string
 	for i, sp := range mx.Species {
-		if d := mx.Final.Amount[i] - mx.Initial[i]; math.IsNaN(dfh[i]) && math.Abs(d) > 1e-3*big {
+		if d := math.Abs(mx.Final.Amount[i] - mx.Initial[i]); math.IsNaN(dfh[i]) && d > 1e-3*big && d > floor {
 			missing = append(missing, sp.Species.Text())
 		}
 	}
-	released := -dh
 	h := &Heat{Assumption: heatAssumption, Missing: missing}
+	if n := unknownNetChange(mx, dfh); n > missingShare*big && n > floor {
+		return h
+	}
+	if why := tooLittleWater(mx, m, t); why != "" {
+		h.Withheld = why
+		return h
+	}
+	released := -dh
 	if q, ok := m.solutionHeat(t); ok && q != 0 {
-		h.DissolutionkJ = roundDec(q, 1)
+		h.DissolutionkJ = q
 		released += q
 	}
+	if q := dilutionHeat(mx, m.solutes, t); q != 0 {
+		h.DilutionkJ = roundDec(q, 1)
+		h.DissolutionkJ += q
+		released += q
+	}
+	h.DissolutionkJ = roundDec(h.DissolutionkJ, 1)
 	h.HeatReleasedkJ = ptr(roundDec(released, 1))
 	if m.massKg > 0 {
-		rise := TemperatureRise(released, m.massKg)
+		cp := heatCapacityOf(m.massKg, m.solutes, t)
+		rise := released / (m.massKg * cp)
 		boilC := boilingPointC(m.pressureKPa)
 		startC := mx.TempK - 273.15
 		if startC+rise > boilC {
 			h.Boils = true
-			excess := released - m.massKg*heatCapacity*(boilC-startC)
+			excess := released - m.massKg*cp*(boilC-startC)
 			h.WaterFlashedKg = ptr(roundDec(math.Max(excess, 0)/vaporisationKJPerKg, 2))
 			rise = boilC - startC
 		}
@@ -95,6 +117,40 @@ func heatOut(mx *state.Mix, m *mixture, t *Tables) *Heat {
 		h.TemperatureReachedC = ptr(roundDec(startC+rise, 1))
 	}
 	return h
+}
+
+// missingShare: when species without ΔfH° are made or used up, net, by
+// more than this share of the largest change, the heat has no figure.
+const missingShare = 0.01
+
+// missingFloor (mol/L) is a trace: a species without ΔfH° changed by less
+// withholds nothing (its heat is below a joule per litre at 10 kJ/mol).
+const missingFloor = 1e-4
+
+// unknownNetChange is the largest net change (mol) among species without
+// ΔfH° that share a skeleton (their atoms other than H and O). Acid–base
+// forms of one organic ion only trade protons among themselves (net zero,
+// a small heat); a skeleton made or used up on the whole, such as Cr(III)
+// formed from Cr(VI), would leave a sum that misleads even in sign.
+func unknownNetChange(mx *state.Mix, dfh []float64) float64 {
+	net := map[string]float64{}
+	for i, sp := range mx.Species {
+		if !math.IsNaN(dfh[i]) {
+			continue
+		}
+		skel := chem.Atoms{}
+		for el, n := range sp.Atoms {
+			if el != "H" && el != "O" {
+				skel[el] = n
+			}
+		}
+		net[skel.String()] += mx.Final.Amount[i] - mx.Initial[i]
+	}
+	worst := 0.0
+	for _, d := range net {
+		worst = math.Max(worst, math.Abs(d))
+	}
+	return worst
 }
 
 // enthalpies is ΔfH° of each species of the mix: its own; for a molecule
@@ -187,7 +243,7 @@ func basisSpecies(mx *state.Mix, el string, ox float64) *thermo.Species {
 }
 
 // heatAssumption is stated with every heat estimate.
-const heatAssumption = "ΔH from ΔfH° (data/species.txt) of every species that changes between the streams and the mixed state, at infinite dilution (complexes and ion pairs without a value counted as their main species), plus the heat of dissolving solids and near-pure reagents; adiabatic, over the mixed mass with the heat capacity of water (4.18 J/(g·K))"
+const heatAssumption = "ΔH from ΔfH° (data/species.txt) of every species that changes between the streams and the mixed state, at infinite dilution (complexes and ion pairs without a value counted as their main species), plus the heat of dissolving solids and near-pure reagents and, for concentrated acids and bases, their heat of dilution from each stream's strength to the mix's (data/dilution.txt; several such solutes in one mix counted at their common water ratio); adiabatic, over the mixed mass with the heat capacity of water (4.18 J/(g·K)), less for the mass of concentrated acids and bases (data/dilution.txt)"
 
 // heatCapacity is kJ/(kg·K) of water at 25 °C (CRC Handbook, Properties of
 // water; from memory), used for the whole mix.
@@ -226,4 +282,37 @@ func formedBy(steps []explain.Step) func(*thermo.Species) bool {
 		}
 		return false
 	}
+}
+
+// minWaterPerSolid is the least water, mol per mol of solid dissolved, for
+// which the heat of solution at infinite dilution is used: about 6 mol/kg,
+// near saturation for most salts. Beyond it (a kilogram of permanganate in a
+// litre of 98 % sulfuric acid) the solids do not dissolve as written and the
+// figure would mislead, even in sign.
+const minWaterPerSolid = 9
+
+// tooLittleWater says why the heat of dissolving the mix's solids cannot be
+// estimated, or "" when it can. Solids with their own heats of concentrated
+// solution (data/dilution.txt: sodium and potassium hydroxide) are exempt.
+func tooLittleWater(mx *state.Mix, m *mixture, t *Tables) string {
+	solids := 0.0
+	for _, d := range m.dissolved {
+		if t.Dilution != nil && len(t.Dilution.Points[d.chem.Formula]) > 0 {
+			continue
+		}
+		solids += d.mol
+	}
+	if solids <= 0 {
+		return ""
+	}
+	water := 0.0
+	for i, sp := range mx.Species {
+		if sp.Text == "H2O" {
+			water += mx.Final.Amount[i]
+		}
+	}
+	if water >= minWaterPerSolid*solids {
+		return ""
+	}
+	return fmt.Sprintf("too little water to dissolve the solids as written: %.2g mol water per mol of solid, below %d", water/solids, minWaterPerSolid)
 }

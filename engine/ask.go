@@ -53,31 +53,6 @@ func New(fsys fs.FS) (*Engine, error) {
 			t.famOf[s.Ion()] = i
 		}
 	}
-	t.pairRules = map[string]bool{}
-	for _, k := range t.Kinetics {
-		if k.Side == PairRole {
-			for _, s := range k.Species {
-				t.pairRules[s] = true
-			}
-		}
-	}
-	t.rows = map[Medium]mediumRows{}
-	for _, med := range []Medium{Acid, Base} {
-		var r mediumRows
-		fits := map[string]bool{}
-		for i, h := range t.Half {
-			if h.Medium == Any || h.Medium == med {
-				r.fitting = append(r.fitting, i)
-				fits[h.sig] = true
-			}
-		}
-		for i, h := range t.Half {
-			if h.Medium != Any && h.Medium != med && !fits[h.sig] {
-				r.fallback = append(r.fallback, i)
-			}
-		}
-		t.rows[med] = r
-	}
 	t.standIn = map[string]string{}
 	for _, h := range t.Half {
 		h.canon = canonical(t, h)
@@ -108,7 +83,6 @@ func (t *Tables) indexHalf(h *HalfReaction) {
 			}
 		}
 	}
-	h.sig = signature(h)
 	h.textRed, h.textOx = halfText(h, false), halfText(h, true)
 	h.oxKeys, h.redKeys = nil, nil
 	for _, r := range h.Reactants {
@@ -124,24 +98,24 @@ func (t *Tables) indexHalf(h *HalfReaction) {
 }
 
 // loadAll reads every table of fsys. The tables of Load are parsed on the
-// calling goroutine while a second one reads the species data, the kinetic
-// allowances, the hazard rules and the enthalpies: they share nothing until
-// both are done. The first error in the order loadFast, species, kinetics,
-// hazards, enthalpies is returned.
+// calling goroutine while a second one reads the species data, the hazard
+// rules, the enthalpies and the dilution heats: they share nothing until
+// both are done. The first error in the order loadFast, species, hazards,
+// enthalpies, dilution is returned.
 func loadAll(fsys fs.FS) (*Tables, error) {
 	var (
 		db     *thermo.DB
-		kin    []*KineticRule
 		haz    []*HazardRule
 		enth   map[string]Enthalpy
+		dil    *Dilution
 		errs   [4]error
 		others sync.WaitGroup
 	)
 	others.Go(func() {
 		db, errs[0] = thermo.Load(fsys)
-		kin, errs[1] = loadKinetics(fsys)
-		haz, errs[2] = LoadHazardRules(fsys)
-		enth, errs[3] = LoadEnthalpies(fsys)
+		haz, errs[1] = LoadHazardRules(fsys)
+		enth, errs[2] = LoadEnthalpies(fsys)
+		dil, errs[3] = loadDilution(fsys)
 	})
 	t, err := loadFast(fsys)
 	others.Wait()
@@ -153,7 +127,7 @@ func loadAll(fsys fs.FS) (*Tables, error) {
 			return nil, err
 		}
 	}
-	t.Thermo, t.Kinetics, t.Hazards, t.Enthalpies = db, kin, haz, enth
+	t.Thermo, t.Hazards, t.Enthalpies, t.Dilution = db, haz, enth, dil
 	return t, nil
 }
 
@@ -209,7 +183,7 @@ func (e *Engine) predict(req *Request, full bool) (*Result, error) {
 	if err != nil {
 		return nil, err
 	}
-	mx, err := e.Model.Solve(feed)
+	mx, err := e.solveHot(feed, m)
 	if err != nil {
 		return nil, unsolved(err)
 	}
@@ -241,6 +215,28 @@ func (e *Engine) predict(req *Request, full bool) (*Result, error) {
 	res.Heat = heatOut(mx, m, e.Tables)
 	e.finish(res, m, mx)
 	return res, nil
+}
+
+// solveHot solves the feed, and once more when the mix's own heat takes it
+// past a temperature that decides a lock (peroxide that a hot mix
+// decomposes): the locks are then judged at the temperature reached, the
+// equilibrium constants still at the starting temperature.
+func (e *Engine) solveHot(feed state.Feed, m *mixture) (*state.Mix, error) {
+	mx, err := e.Model.Solve(feed)
+	if err != nil {
+		return nil, err
+	}
+	h := heatOut(mx, m, e.Tables)
+	if h.TemperatureReachedC == nil || !e.Model.HeatDecides(mx, *h.TemperatureReachedC) {
+		return mx, nil
+	}
+	feed.ReachedC = h.TemperatureReachedC
+	hot, err := e.Model.Solve(feed)
+	if err != nil {
+		return nil, err
+	}
+	hot.Notes = append(hot.Notes, fmt.Sprintf("the mix's own heat takes it to about %.0f °C, hot enough to undo a kinetic lock; the mix is judged with the locks as they stand at that temperature", *h.TemperatureReachedC))
+	return hot, nil
 }
 
 // baseResult holds what every answer carries before any chemistry.

@@ -19,7 +19,6 @@ type CaveatInput struct {
 	HasECell     bool
 	PH           float64
 	Alternatives []Alternative
-	AllowanceIDs []string // kinetic allowances applied when the headline pair was ranked
 }
 
 // Caveats lists, in plain words and in a fixed order, what the table method
@@ -35,7 +34,6 @@ func Caveats(in CaveatInput) []string {
 	for _, f := range []func() []string{
 		c.nearZero,
 		c.sourceSpread,
-		c.allowance,
 		c.oxygenOverpotential,
 		c.hydrogenFromWater,
 		c.passivation,
@@ -199,16 +197,6 @@ func (c *caveatCtx) sourceSpread() []string {
 			"At this cell potential the choice can change the verdict."}
 	}
 	return nil
-}
-
-func (c *caveatCtx) allowance() []string {
-	if len(c.in.AllowanceIDs) == 0 {
-		return nil
-	}
-	ids := append([]string(nil), c.in.AllowanceIDs...)
-	sort.Strings(ids)
-	return []string{"A kinetic allowance (" + strings.Join(ids, ", ") + ") was applied when ranking: the pair the bare table ranks first " +
-		"is known to be slow in practice, so the pair shown is the one plants usually see."}
 }
 
 func (c *caveatCtx) oxygenOverpotential() []string {

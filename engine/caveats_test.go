@@ -133,11 +133,6 @@ func TestCaveats(t *testing.T) {
 			want: []string{"1.232 V", "1.33 V"},
 		},
 		{
-			name: "kinetic allowance applied",
-			in:   CaveatInput{AllowanceIDs: []string{"oxygen-overpotential"}, ECell: 0.3, HasECell: true},
-			want: []string{"kinetic allowance (oxygen-overpotential)"},
-		},
-		{
 			name: "close alternative",
 			in: CaveatInput{ECell: 0.5, HasECell: true, Alternatives: []Alternative{
 				{Oxidizer: &Couple{Species: "OCl-"}, Reducer: &Couple{Species: "Cl-"}, ECell: 0.45},
@@ -175,10 +170,9 @@ func TestCaveatsOrder(t *testing.T) {
 	in := CaveatInput{
 		Oxidizer: &Couple{Species: "NO3-"}, Reducer: &Couple{Species: "Al(s)"},
 		Present: cvPresent(t, 10, "NO3-", "H+", "Al(s)", "Au(s)"), ECell: 0.05, HasECell: true, PH: 0,
-		AllowanceIDs: []string{"b", "a"},
 	}
 	got := Caveats(in)
-	order := []string{"uncertain", "kinetic allowance (a, b)", "Passivation", "Nitrate gives", "Complex formation: gold"}
+	order := []string{"uncertain", "Passivation", "Nitrate gives", "Complex formation: gold"}
 	last := -1
 	for _, w := range order {
 		idx := -1

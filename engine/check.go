@@ -18,13 +18,13 @@ func CheckTables(fsys fs.FS) error {
 	if _, err := Load(fsys); err != nil {
 		errs = append(errs, err)
 	}
-	if _, err := loadKinetics(fsys); err != nil {
-		errs = append(errs, err)
-	}
 	if _, err := LoadHazardRules(fsys); err != nil {
 		errs = append(errs, err)
 	}
 	if _, err := LoadEnthalpies(fsys); err != nil {
+		errs = append(errs, err)
+	}
+	if _, err := loadDilution(fsys); err != nil {
 		errs = append(errs, err)
 	}
 	db, err := thermo.Load(fsys)

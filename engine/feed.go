@@ -24,7 +24,7 @@ const waterMolarMass = 18.015
 func feedOf(req *Request, t *Tables, db *thermo.DB, m *mixture) (state.Feed, error) {
 	f := state.Feed{TempK: req.TemperatureK, PressureBar: req.PressureKPa / 100, PH: req.PH}
 	for si := range req.Streams {
-		st, err := streamFeed(&req.Streams[si], t, db, m)
+		st, err := streamFeed(si, &req.Streams[si], t, db, m)
 		if err != nil {
 			return state.Feed{}, err
 		}
@@ -33,7 +33,7 @@ func feedOf(req *Request, t *Tables, db *thermo.DB, m *mixture) (state.Feed, err
 	return f, nil
 }
 
-func streamFeed(st *Stream, t *Tables, db *thermo.DB, m *mixture) (state.Stream, error) {
+func streamFeed(si int, st *Stream, t *Tables, db *thermo.DB, m *mixture) (state.Stream, error) {
 	vol := st.VolumeL
 	liquid := vol > 0
 	if vol == 0 && st.MassKg == 0 && streamIsSolution(st) {
@@ -41,6 +41,7 @@ func streamFeed(st *Stream, t *Tables, db *thermo.DB, m *mixture) (state.Stream,
 	}
 	out := state.Stream{Label: st.Label()}
 	solutes := 0.0 // kg of dissolved chemicals
+	var found []soluteIn
 	for ci := range st.Components {
 		c := &st.Components[ci]
 		if c.Chemical.Formula == "H2O" {
@@ -56,6 +57,7 @@ func streamFeed(st *Stream, t *Tables, db *thermo.DB, m *mixture) (state.Stream,
 		if liquid {
 			solutes += mol * c.Chemical.MolarMass / 1000
 		}
+		found = append(found, soluteIn{chem: c.Chemical, stream: si, mol: mol})
 		// A solid stream whose chemical has a solid species brings that
 		// solid: the mix dissolves it (or not) and the state counts the
 		// heat, instead of the table of heats of solution.
@@ -85,6 +87,7 @@ func streamFeed(st *Stream, t *Tables, db *thermo.DB, m *mixture) (state.Stream,
 		}
 		out.WaterMol += water * 1000 / waterMolarMass
 	}
+	m.recordSolutes(t, found, out.WaterMol, liquid)
 	return out, nil
 }
 

@@ -178,40 +178,8 @@ func parseHazardRules(name string, b []byte) ([]*HazardRule, error) {
 			return nil, fmt.Errorf("%s:%d: field %q appears twice in rule %s; keep one", name, line, key, cur.ID)
 		}
 		seen[key] = true
-		switch key {
-		case "code":
-			cur.Code = val
-		case "severity":
-			cur.Severity = Severity(val)
-		case "when":
-			c, err := parseHzCond(val)
-			if err != nil {
-				return nil, fmt.Errorf("%s:%d: rule %s: when: %w", name, line, cur.ID, err)
-			}
-			cur.When, cur.cond = val, c
-		case "message":
-			cur.Message = joinField(cur.Message, val)
-		case "source":
-			cur.Source = joinField(cur.Source, val)
-		case "releases":
-			for _, g := range strings.Split(val, ",") {
-				f, err := gasFormula(strings.TrimSpace(g))
-				if err != nil {
-					return nil, fmt.Errorf("%s:%d: rule %s: releases: %w", name, line, cur.ID, err)
-				}
-				cur.Releases = append(cur.Releases, f)
-			}
-		case "limit":
-			l, err := parseLimit(val)
-			if err != nil {
-				return nil, fmt.Errorf("%s:%d: rule %s: %w", name, line, cur.ID, err)
-			}
-			if _, dup := cur.Limit(l.Name); dup {
-				return nil, fmt.Errorf("%s:%d: rule %s: limit %s is given twice", name, line, cur.ID, l.Name)
-			}
-			cur.Limits = append(cur.Limits, l)
-		default:
-			return nil, fmt.Errorf("%s:%d: unknown field %q in rule %s; fields are code, severity, when, releases, limit, message, source", name, line, key, cur.ID)
+		if err := cur.setField(key, val); err != nil {
+			return nil, fmt.Errorf("%s:%d: rule %s: %w", name, line, cur.ID, err)
 		}
 	}
 	if err := sc.Err(); err != nil {
@@ -224,6 +192,46 @@ func parseHazardRules(name string, b []byte) ([]*HazardRule, error) {
 		return nil, fmt.Errorf("%s: no rules found; each rule starts with `rule NAME`", name)
 	}
 	return rules, nil
+}
+
+// setField sets one field of a hazard rule from its text.
+func (r *HazardRule) setField(key, val string) error {
+	switch key {
+	case "code":
+		r.Code = val
+	case "severity":
+		r.Severity = Severity(val)
+	case "when":
+		c, err := parseHzCond(val)
+		if err != nil {
+			return fmt.Errorf("when: %w", err)
+		}
+		r.When, r.cond = val, c
+	case "message":
+		r.Message = joinField(r.Message, val)
+	case "source":
+		r.Source = joinField(r.Source, val)
+	case "releases":
+		for _, g := range strings.Split(val, ",") {
+			f, err := gasFormula(strings.TrimSpace(g))
+			if err != nil {
+				return fmt.Errorf("releases: %w", err)
+			}
+			r.Releases = append(r.Releases, f)
+		}
+	case "limit":
+		l, err := parseLimit(val)
+		if err != nil {
+			return err
+		}
+		if _, dup := r.Limit(l.Name); dup {
+			return fmt.Errorf("limit %s is given twice", l.Name)
+		}
+		r.Limits = append(r.Limits, l)
+	default:
+		return fmt.Errorf("unknown field %q; fields are code, severity, when, releases, limit, message, source", key)
+	}
+	return nil
 }
 
 func joinField(have, more string) string {

@@ -373,7 +373,7 @@ func TestLoadHazardRulesErrors(t *testing.T) {
 		{"missing when", strings.Replace(good, "  when gas Cl2\n", "", 1), "missing `when`"},
 		{"missing message", strings.Replace(good, "  message Chlorine.\n", "", 1), "missing `message`"},
 		{"bad code", strings.Replace(good, "toxic-gas", "Toxic Gas", 1), "code \"Toxic Gas\""},
-		{"unknown field", good + "  colour red\n", "hazards.txt:7: unknown field \"colour\""},
+		{"unknown field", good + "  colour red\n", "hazards.txt:7: rule a: unknown field \"colour\""},
 		{"twice", good + "  code other\n", "hazards.txt:7: field \"code\" appears twice"},
 		{"bad term", strings.Replace(good, "gas Cl2", "smells bad", 1), "hazards.txt:4: rule a: when: condition \"smells bad\": unknown term \"smells\""},
 		{"bad species", strings.Replace(good, "gas Cl2", "present Fe^3", 1), "hazards.txt:4"},

@@ -272,3 +272,45 @@ func FuzzLoadEnthalpies(f *testing.F) {
 		}
 	})
 }
+
+// TestHeatNotWithheldForATrace: a trace of a complex without ΔfH° (CuCl2-
+// over copper in concentrated hydrochloric acid, where nothing reacts) does
+// not withhold the heat figure; a real share does (Cr(III) once did, see
+// the dilution tests).
+func TestHeatNotWithheldForATrace(t *testing.T) {
+	e := loadForTest(t)
+	r, err := e.Ask("mix 1 kg Cu + 1 L HCl 37 %", AskOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.Heat == nil || r.Heat.HeatReleasedkJ == nil || len(r.Heat.Missing) != 0 {
+		t.Fatalf("heat withheld for a trace: %+v", r.Heat)
+	}
+	if q := *r.Heat.HeatReleasedkJ; q < -5 || q > 5 {
+		t.Errorf("copper in hydrochloric acid releases %g kJ, want about nothing (no reaction)", q)
+	}
+}
+
+// TestHeatWithheldWithTooLittleWater: a kilogram of permanganate stirred
+// into a litre of 98 % sulfuric acid has about a third of a mol of water per
+// mol of solid; its heat of solution at infinite dilution (endothermic) would
+// print a mix that cools to −15 °C. No figure is given, and why; the same
+// solid in 100 L of water keeps its figure (KMnO4 dissolves endothermically,
+// NBS Tables 1982 ΔfH° of KMnO4(s), K+ and MnO4-, from memory).
+func TestHeatWithheldWithTooLittleWater(t *testing.T) {
+	e := loadForTest(t)
+	r, err := e.Ask("mix 1 kg KMnO4 + 1 L H2SO4 98 %", AskOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.Heat == nil || r.Heat.HeatReleasedkJ != nil || !strings.Contains(r.Heat.Withheld, "too little water") {
+		t.Fatalf("heat %+v, want withheld for too little water", r.Heat)
+	}
+	r, err = e.Ask("mix 1 kg KMnO4 + 100 L water", AskOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.Heat == nil || r.Heat.HeatReleasedkJ == nil || *r.Heat.HeatReleasedkJ >= 0 || r.Heat.Withheld != "" {
+		t.Fatalf("heat %+v, want a figure taken up", r.Heat)
+	}
+}

@@ -77,7 +77,7 @@ func TestNewLoadsSpeciesData(t *testing.T) {
 		t.Errorf("Thermo.Get(H2O) = %+v, %v; want the water row, ΔfG° about -237.13 kJ/mol", w, ok)
 	}
 	m := dtTableFS()
-	for _, name := range []string{"kinetics.txt", "hazards.txt", "enthalpies.txt"} {
+	for _, name := range []string{"hazards.txt", "enthalpies.txt"} {
 		b, err := data.FS.ReadFile(name)
 		if err != nil {
 			t.Fatal(err)

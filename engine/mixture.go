@@ -36,6 +36,7 @@ type mixture struct {
 	massKg      float64     // total mass of the mixed liquid and dissolved solids, for heat
 	fict        float64     // charge standing in for streams with a stated pH (see buildMixture)
 	dissolved   []dissolved // solids and near-pure liquids that dissolve into the mix
+	solutes     []soluteIn  // solutes with heats of concentrated solution (data/dilution.txt)
 }
 
 func (m *mixture) note(format string, args ...any) {
@@ -106,82 +107,22 @@ const pureLiquidPct = 90
 // buildMixture combines the streams of a request.
 func buildMixture(req *Request, t *Tables) (*mixture, error) {
 	m := &mixture{species: map[string]*inMix{}, tempK: req.TemperatureK, pressureKPa: req.PressureKPa}
-	anyVolume := false
+	anyVolume, assumedVol := false, false
 	for i := range req.Streams {
-		if req.Streams[i].VolumeL > 0 {
-			anyVolume = true
-		}
+		anyVolume = anyVolume || req.Streams[i].VolumeL > 0
 	}
-	assumedVol := false
 	// fict is the charge (mol) of an imagined spectator ion that makes the
 	// streams with a stated pH come out at that pH: their own strong acid or
 	// base is set aside and the stated H+/OH- excess used instead.
 	fict := 0.0
 	seenChem := map[string]bool{}
 	for si := range req.Streams {
-		st := &req.Streams[si]
-		vol := st.VolumeL
-		liquid := vol > 0
-		if vol == 0 && st.MassKg == 0 && streamIsSolution(st) {
-			vol = 1
-			liquid = true
-			assumedVol = true
+		f, assumed, err := m.addStream(&req.Streams[si], si, t, seenChem)
+		if err != nil {
+			return nil, err
 		}
-		if st.MassKg > 0 {
-			m.massKg += st.MassKg
-		}
-		if liquid {
-			m.volumeL += vol
-			m.aqueous = true
-			m.massKg += vol * streamDensity(st, t)
-		}
-		var streamH, streamOH float64
-		for ci := range st.Components {
-			c := &st.Components[ci]
-			ch := c.Chemical
-			if !seenChem[ch.Formula] {
-				seenChem[ch.Formula] = true
-				m.chemicals = append(m.chemicals, ch.Formula)
-			}
-			if ch.Formula == "H2O" {
-				continue
-			}
-			mol, excess, err := componentMoles(st, c, vol, liquid, t, m)
-			if err != nil {
-				return nil, err
-			}
-			switch {
-			case !liquid && st.MassKg > 0 && ch.Class != Metal && ch.Class != SparingSalt:
-				m.dissolved = append(m.dissolved, dissolved{chem: ch, mol: mol, phase: Solid})
-			case liquid && c.Unit == PctWW && c.Value >= pureLiquidPct:
-				m.dissolved = append(m.dissolved, dissolved{chem: ch, mol: mol, phase: Liquid})
-			}
-			for _, g := range ch.Gives {
-				n := mol * float64(g.Coef)
-				switch {
-				case g.IsProton():
-					streamH += n
-					continue
-				case g.IsHydroxide():
-					streamOH += n
-					continue
-				case g.IsWater():
-					continue
-				}
-				m.add(g.Species, n, excess)
-			}
-		}
-		if st.PH != nil && liquid {
-			h := math.Pow(10, -*st.PH) * vol
-			oh := math.Pow(10, *st.PH-pKw(m.tempK)) * vol
-			fict += (streamH - streamOH) - (h - oh)
-			if streamH > 0 || streamOH > 0 {
-				m.note("the stated pH %.4g of stream %d replaces the acid or base content computed from its components", *st.PH, si+1)
-			}
-		} else {
-			m.strongAcid += streamH
-			m.strongBase += streamOH
-		}
+		fict += f
+		assumedVol = assumedVol || assumed
 	}
 	if assumedVol {
 		if anyVolume {
@@ -213,7 +154,72 @@ func buildMixture(req *Request, t *Tables) (*mixture, error) {
 	m.distribute(t)
 	m.setSolvent()
 	return m, nil
+}
 
+// addStream adds one stream (number si) to the mixture: its volume and
+// mass, its species, the solids and near-pure liquids it dissolves, and its
+// strong acid and base. It returns the stand-in charge of a stated pH (see
+// buildMixture) and whether the stream's volume was assumed.
+func (m *mixture) addStream(st *Stream, si int, t *Tables, seenChem map[string]bool) (fict float64, assumed bool, err error) {
+	vol := st.VolumeL
+	liquid := vol > 0
+	if vol == 0 && st.MassKg == 0 && streamIsSolution(st) {
+		vol, liquid, assumed = 1, true, true
+	}
+	if st.MassKg > 0 {
+		m.massKg += st.MassKg
+	}
+	if liquid {
+		m.volumeL += vol
+		m.aqueous = true
+		m.massKg += vol * streamDensity(st, t)
+	}
+	var streamH, streamOH float64
+	for ci := range st.Components {
+		c := &st.Components[ci]
+		ch := c.Chemical
+		if !seenChem[ch.Formula] {
+			seenChem[ch.Formula] = true
+			m.chemicals = append(m.chemicals, ch.Formula)
+		}
+		if ch.Formula == "H2O" {
+			continue
+		}
+		mol, excess, err := componentMoles(st, c, vol, liquid, t, m)
+		if err != nil {
+			return 0, false, err
+		}
+		switch {
+		case !liquid && st.MassKg > 0 && ch.Class != Metal && ch.Class != SparingSalt:
+			m.dissolved = append(m.dissolved, dissolved{chem: ch, mol: mol, phase: Solid})
+		case liquid && c.Unit == PctWW && c.Value >= pureLiquidPct:
+			m.dissolved = append(m.dissolved, dissolved{chem: ch, mol: mol, phase: Liquid})
+		}
+		for _, g := range ch.Gives {
+			n := mol * float64(g.Coef)
+			switch {
+			case g.IsProton():
+				streamH += n
+			case g.IsHydroxide():
+				streamOH += n
+			case g.IsWater():
+			default:
+				m.add(g.Species, n, excess)
+			}
+		}
+	}
+	if st.PH != nil && liquid {
+		h := math.Pow(10, -*st.PH) * vol
+		oh := math.Pow(10, *st.PH-pKw(m.tempK)) * vol
+		fict = (streamH - streamOH) - (h - oh)
+		if streamH > 0 || streamOH > 0 {
+			m.note("the stated pH %.4g of stream %d replaces the acid or base content computed from its components", *st.PH, si+1)
+		}
+	} else {
+		m.strongAcid += streamH
+		m.strongBase += streamOH
+	}
+	return fict, assumed, nil
 }
 
 // streamIsSolution reports whether a stream without an amount is a liquid:

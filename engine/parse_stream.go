@@ -106,8 +106,22 @@ func (p *parser) stream() (Stream, error) {
 	if err := p.checkStream(&st); err != nil {
 		return st, err
 	}
+	if st.VolumeL > 0 && onlyMetals(&st) {
+		m := st.Components[0].Name
+		return st, p.errAt(start, "metal-by-volume", "%s is a metal: a volume of it says nothing of how much there is; give its mass (\"1 kg %s\") or leave the amount out", m, m)
+	}
 	st.Text = p.sourceText(start)
 	return st, nil
+}
+
+// onlyMetals reports whether every component of a stream is a metal.
+func onlyMetals(st *Stream) bool {
+	for _, c := range st.Components {
+		if c.Chemical == nil || c.Chemical.Class != Metal {
+			return false
+		}
+	}
+	return len(st.Components) > 0
 }
 
 // components reads the components of a stream, up to its end.

@@ -140,6 +140,7 @@ func TestParseErrors(t *testing.T) {
 		{"Zn + HCl 1 M at 900 C", "bad-temperature", 17, ""},
 		{"Zn + HCl 1 M, 900 C", "bad-temperature", 15, ""},
 		{"200 L 60 C + HCl 1 M", "missing-chemical", 1, ""},
+		{"mix 1 L Cu + 1 L HCl 37 %", "metal-by-volume", 5, ""},
 		{"Zn + HCl 1 M at pH", "bad-ph", 19, ""},
 		{"Zn HCl", "unknown-word", 4, ""},
 		{"NaOCl 12.5 % HCl", "unexpected-token", 14, ""},

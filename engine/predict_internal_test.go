@@ -2,6 +2,7 @@ package engine
 
 import (
 	"math"
+	"strings"
 	"testing"
 
 	"mixward/data"
@@ -139,4 +140,22 @@ func TestPKw(t *testing.T) {
 			t.Errorf("pKw(%g °C) = %.3f, want %.2f ±%.2f", tc.c, got, tc.want, tc.tol)
 		}
 	}
+}
+
+// signature writes a half-reaction's couple as OX/RED without water, H+ and
+// OH- ("O2/H2O" for both forms of the oxygen couple).
+func signature(h *HalfReaction) string {
+	form := func(ts []Term) string {
+		var parts []string
+		for _, t := range ts {
+			if !isSolvent(t.Species) {
+				parts = append(parts, t.Species.Ion())
+			}
+		}
+		if len(parts) == 0 {
+			return "H2O"
+		}
+		return strings.Join(parts, "+")
+	}
+	return form(h.Reactants) + "/" + form(h.Products)
 }

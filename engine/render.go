@@ -235,6 +235,8 @@ func renderAmounts(b *strings.Builder, r *Result) {
 				w("  ΔH of the headline reaction %s kJ per mol as written\n", trimFloat(*h.DeltaHkJPerMol, 1))
 			}
 			w("  %s\n", h.Assumption)
+		case h.Withheld != "":
+			w("\nHeat: no estimate, %s\n", h.Withheld)
 		case len(h.Missing) > 0:
 			w("\nHeat: no estimate, the formation-enthalpy table lacks %s\n", strings.Join(h.Missing, ", "))
 		}

@@ -282,9 +282,15 @@ type Heat struct {
 	HeatReleasedkJ   *float64 `json:"heat_released_kj"`
 	TemperatureRiseC *float64 `json:"temperature_rise_c"`
 	NeutralisationkJ float64  `json:"neutralisation_kj"`
-	DissolutionkJ    float64  `json:"dissolution_kj"` // heat of dissolving solid or near-pure reagents, included in HeatReleasedkJ
-	Assumption       string   `json:"assumption"`
-	Missing          []string `json:"missing,omitempty"` // species without formation-enthalpy data
+	DissolutionkJ    float64  `json:"dissolution_kj"` // heat of dissolving solid or near-pure reagents and of diluting concentrated ones, included in HeatReleasedkJ
+	// DilutionkJ is the part of DissolutionkJ from the heats of concentrated
+	// solutions (data/dilution.txt): each stream's strength against the mix's.
+	DilutionkJ float64  `json:"dilution_kj,omitempty"`
+	Assumption string   `json:"assumption"`
+	Missing    []string `json:"missing,omitempty"` // species without formation-enthalpy data
+	// Withheld says why no figure is given when it is not missing data:
+	// a solid dissolved into too little water for the solution model.
+	Withheld string `json:"withheld,omitempty"`
 	// TemperatureReachedC is the start temperature plus the rise; Boils says
 	// the estimate passed the boiling point, where the rise stops and
 	// WaterFlashedKg of water boils off.
@@ -319,7 +325,9 @@ type Conditions struct {
 	Medium       Medium   `json:"medium"` // acid or base: which table form applies
 }
 
-// Allowance is a kinetic allowance (data/kinetics.txt) applied when ranking.
+// Allowance was a kinetic allowance of the earlier pair ranking. The field
+// stays in the JSON answer (always null) for integrations that read it; the
+// kinetic locks of data/locks.txt replaced the allowances.
 type Allowance struct {
 	ID     string  `json:"id"`
 	Volts  float64 `json:"volts"`

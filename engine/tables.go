@@ -15,9 +15,9 @@ type Tables struct {
 	Ceilings  map[string]Ceiling        // most concentrated solution, by chemical formula
 	Hash      string                    // SHA-256 over every table file, hex
 
-	Kinetics   []*KineticRule
 	Hazards    []*HazardRule
 	Enthalpies map[string]Enthalpy // standard enthalpy of formation by Species.Key
+	Dilution   *Dilution           // heats of concentrated solutions (data/dilution.txt)
 	Thermo     *thermo.DB          // species data (data/species.txt), loaded by New
 
 	families []family       // acid–base chains, built by New
@@ -30,15 +30,4 @@ type Tables struct {
 	// standIn maps a metal hydroxide or oxide solid of a base couple
 	// (Cr(OH)3(s)) to the ion that stands for it in a basic mix (Cr^3+).
 	standIn map[string]string
-	// rows lists, for a mix in acid and in base, the half-reactions written
-	// for that medium (or for any) and the fallback couples written only for
-	// the other medium, by index into Half.
-	rows map[Medium]mediumRows
-	// pairRules holds the oxidizing species that some pair allowance names.
-	pairRules map[string]bool
-}
-
-// mediumRows are the half-reactions that apply in one medium.
-type mediumRows struct {
-	fitting, fallback []int
 }

@@ -49,12 +49,10 @@ type HalfReaction struct {
 	Source    string
 
 	// Filled by New: the mixture keys of the oxidized-side and
-	// reduced-side species other than water, H+ and OH-, and the couple's
-	// signature (see signature).
+	// reduced-side species other than water, H+ and OH-.
 	oxKeys, redKeys []string
-	sig             string
 	textRed, textOx string // HalfText as a reduction and reversed
-	canon           string // sig with each species replaced by its acid–base family's first member
+	canon           string // the couple OX/RED with each species replaced by its acid–base family's first member
 }
 
 // AcidBasePair is one conjugate acid–base pair (data/acidbase.txt).

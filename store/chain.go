@@ -64,14 +64,18 @@ const rowColumns = `id, kind, time, user_id, user_name, channel, event_id, reque
 	species, oxidizer, reducer, e_cell_v, e_cell_standard_v, hazards, streams, result, engine_version, data_hash,
 	prev_hash, hash, chain, key_id, site`
 
-// rowColumnsV8 reads a file of schema version 4–8 (before sites): every
+// rowColumnsV7 reads a file of schema version 4–7 (before sites): every
 // row of such a file belongs to the default site.
-const rowColumnsV8 = `id, kind, time, user_id, user_name, channel, event_id, request, resolved, verdict, error,
+const rowColumnsV7 = `id, kind, time, user_id, user_name, channel, event_id, request, resolved, verdict, error,
 	species, oxidizer, reducer, e_cell_v, e_cell_standard_v, hazards, streams, result, engine_version, data_hash,
 	prev_hash, hash, chain, key_id, 'main'`
 
 // siteVersion is the SQLite schema version that brought sites.
-const siteVersion = 9
+const siteVersion = 8
+
+// namesVersion is the SQLite schema version that brought the presses and
+// names tables.
+const namesVersion = 6
 
 // rowColumnsV3 reads a file of schema version 1–3 (before chain kinds) into
 // the same fields: every row of such a file is plain.
@@ -85,7 +89,7 @@ func rowColumnsFor(ver int) string {
 	case ver < 4:
 		return rowColumnsV3
 	case ver < siteVersion:
-		return rowColumnsV8
+		return rowColumnsV7
 	}
 	return rowColumns
 }

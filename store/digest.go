@@ -7,9 +7,7 @@ import (
 	"fmt"
 	"sort"
 	"strings"
-	"text/tabwriter"
 	"time"
-	"unicode/utf8"
 )
 
 // Digest summarises the queries logged in [Since, Until): the shift
@@ -27,6 +25,11 @@ type Digest struct {
 	Flagged     []FlaggedMix   `json:"flagged_mixes"` // spontaneous mixes with a danger or warning hazard
 	ParseErrors []ParseFailure `json:"parse_errors"`
 	TopPairs    []PairCount    `json:"top_stream_pairs"`
+	// Levels counts the answered queries by the operator's decision, and
+	// Mixes lists every mix asked, grouped (one line per mix and decision,
+	// with a count), do-not-mix first, whatever the redox verdict.
+	Levels LevelCounts `json:"levels"`
+	Mixes  []MixLine   `json:"mixes"`
 	// HeadID and HeadHash are the newest row of the log logged before
 	// Until, as read when the digest was made (0 and "" for an empty log).
 	// Noted outside the database, they let `mixward log verify --expect`
@@ -94,7 +97,7 @@ func (db *DB) Digest(ctx context.Context, since, until time.Time) (*Digest, erro
 			ErrInvalid, since.Format(time.RFC3339), until.Format(time.RFC3339))
 	}
 	d := &Digest{Site: db.site, Since: since.UTC(), Until: until.UTC(), TimeZone: db.loc.String(), Location: db.loc,
-		Askers: []AskerCount{}, Flagged: []FlaggedMix{}, ParseErrors: []ParseFailure{}, TopPairs: []PairCount{}}
+		Askers: []AskerCount{}, Flagged: []FlaggedMix{}, ParseErrors: []ParseFailure{}, TopPairs: []PairCount{}, Mixes: []MixLine{}}
 	tx, err := db.readTx(ctx)
 	if err != nil {
 		return nil, fmt.Errorf("digest: %w", err)
@@ -104,6 +107,8 @@ func (db *DB) Digest(ctx context.Context, since, until time.Time) (*Digest, erro
 	w := []any{db.site, formatTime(since), formatTime(until)}
 	for _, step := range []func() error{
 		func() error { return digestCounts(ctx, tx, d, window, w) },
+		func() error { return digestNames(ctx, tx, d, db.hasNames()) },
+		func() error { return digestMixes(ctx, tx, d, window, w, db.pg) },
 		func() error { return digestFlagged(ctx, tx, d, window, w) },
 		func() error { return digestErrors(ctx, tx, d, window, w) },
 		func() error { return digestPairs(ctx, tx, d, window, w) },
@@ -117,18 +122,19 @@ func (db *DB) Digest(ctx context.Context, since, until time.Time) (*Digest, erro
 }
 
 // digestCounts counts verdicts and askers in one pass over the time index.
+// An asker is a user id: rows of one id under several names are one person.
 func digestCounts(ctx context.Context, tx *sql.Tx, d *Digest, window string, w []any) error {
-	rows, err := tx.QueryContext(ctx, `SELECT q.user_id, q.user_name, q.verdict, count(*) FROM queries q WHERE `+window+`
+	rows, err := tx.QueryContext(ctx, `SELECT q.user_id, q.user_name, q.verdict, count(*), max(q.time) FROM queries q WHERE `+window+`
 		GROUP BY q.user_id, q.user_name, q.verdict`, w...)
 	if err != nil {
 		return err
 	}
 	defer rows.Close()
-	idx := map[[2]string]int{}
+	var ars []askerRow
 	for rows.Next() {
-		var id, name, v string
+		var id, name, v, last string
 		var n int
-		if err := rows.Scan(&id, &name, &v, &n); err != nil {
+		if err := rows.Scan(&id, &name, &v, &n, &last); err != nil {
 			return err
 		}
 		d.Queries += n
@@ -142,20 +148,24 @@ func digestCounts(ctx context.Context, tx *sql.Tx, d *Digest, window string, w [
 		case VerdictError:
 			d.Verdicts.Error += n
 		}
-		k := [2]string{id, name}
-		i, ok := idx[k]
-		if !ok {
-			i = len(d.Askers)
-			idx[k] = i
-			d.Askers = append(d.Askers, AskerCount{UserID: id, UserName: name})
+		t, err := parseTime(last)
+		if err != nil {
+			return err
 		}
-		d.Askers[i].Queries += n
+		ars = append(ars, askerRow{id: id, name: name, n: n, last: t})
 	}
 	if err := rows.Err(); err != nil {
 		return err
 	}
-	sort.Slice(d.Askers, func(i, j int) bool {
-		a, b := d.Askers[i], d.Askers[j]
+	d.Askers = mergeAskers(ars)
+	sortAskers(d.Askers)
+	return nil
+}
+
+// sortAskers orders askers by queries asked, then name, then id.
+func sortAskers(as []AskerCount) {
+	sort.Slice(as, func(i, j int) bool {
+		a, b := as[i], as[j]
 		if a.Queries != b.Queries {
 			return a.Queries > b.Queries
 		}
@@ -164,7 +174,6 @@ func digestCounts(ctx context.Context, tx *sql.Tx, d *Digest, window string, w [
 		}
 		return a.UserID < b.UserID
 	})
-	return nil
 }
 
 func digestFlagged(ctx context.Context, tx *sql.Tx, d *Digest, window string, w []any) error {
@@ -317,114 +326,6 @@ const Advisory = "Verdicts are advisory, never a permit: safety data sheets, sit
 // maxTextRequest caps requests in the text form (the JSON form has them whole).
 const maxTextRequest = 72
 
-// Text renders the digest for people: aligned columns, times in the site
-// zone.
-func (d *Digest) Text() string {
-	loc := d.Location
-	if loc == nil {
-		loc = time.UTC
-	}
-	since, until := d.Since.In(loc), d.Until.In(loc)
-	sameDay := since.Format("2006-01-02") == until.Add(-time.Nanosecond).Format("2006-01-02")
-	at := func(t time.Time) string {
-		t = t.In(loc)
-		if sameDay {
-			return t.Format("15:04")
-		}
-		return t.Format("Mon 02 Jan 15:04")
-	}
-	var b strings.Builder
-	fmt.Fprintf(&b, "Shift digest %s – %s", since.Format("Mon 02 Jan 2006 15:04 MST"), untilHeader(since, until))
-	if d.Site != "" && d.Site != DefaultSite {
-		fmt.Fprintf(&b, ", site %s", Printable(d.Site))
-	}
-	if name := loc.String(); name != until.Format("MST") {
-		fmt.Fprintf(&b, " (%s)", name)
-	}
-	b.WriteString("\n\n")
-
-	tw := tabwriter.NewWriter(&b, 0, 4, 2, ' ', 0)
-	fmt.Fprintf(tw, "Queries\t%d from %d %s\n", d.Queries, len(d.Askers), plural(len(d.Askers), "person", "people"))
-	fmt.Fprintf(tw, "Verdicts\tspontaneous %d · non-spontaneous %d · no-reaction %d · error %d\n",
-		d.Verdicts.Spontaneous, d.Verdicts.NonSpontaneous, d.Verdicts.NoReaction, d.Verdicts.Error)
-	tw.Flush()
-
-	fmt.Fprintf(&b, "\nSpontaneous mixes with danger or warning hazards: %d\n", len(d.Flagged))
-	if len(d.Flagged) > 0 {
-		tw = tabwriter.NewWriter(&b, 0, 4, 2, ' ', 0)
-		fmt.Fprintln(tw, "  TIME\tID\tWHO\tREQUEST\tHAZARD")
-		for _, f := range d.Flagged {
-			req := []string{shorten(f.Request, maxTextRequest)}
-			if f.Resolved != "" && f.Resolved != f.Request {
-				req = append(req, "= "+shorten(f.Resolved, maxTextRequest-2))
-			}
-			for i := 0; i < max(len(req), len(f.Hazards)); i++ {
-				var r, hz string
-				if i < len(req) {
-					r = req[i]
-				}
-				if i < len(f.Hazards) {
-					h := f.Hazards[i]
-					hz = Printable(fmt.Sprintf("%s %s: %s", h.Severity, h.Code, h.Message))
-				}
-				if i == 0 {
-					fmt.Fprintf(tw, "  %s\t%d\t%s\t%s\t%s\n", at(f.Time), f.ID, who(f.UserName, f.UserID), r, hz)
-				} else {
-					fmt.Fprintf(tw, "  \t\t\t%s\t%s\n", r, hz)
-				}
-			}
-		}
-		tw.Flush()
-	}
-
-	fmt.Fprintf(&b, "\nRequests that did not parse: %d\n", len(d.ParseErrors))
-	if len(d.ParseErrors) > 0 {
-		tw = tabwriter.NewWriter(&b, 0, 4, 2, ' ', 0)
-		fmt.Fprintln(tw, "  TIME\tID\tWHO\tREQUEST\tERROR")
-		for _, p := range d.ParseErrors {
-			fmt.Fprintf(tw, "  %s\t%d\t%s\t%s\t%s\n", at(p.Time), p.ID, who(p.UserName, p.UserID),
-				shorten(p.Request, maxTextRequest), Printable(p.Error))
-		}
-		tw.Flush()
-	}
-
-	b.WriteString("\nMost-asked stream pairs\n")
-	if len(d.TopPairs) == 0 {
-		b.WriteString("  none\n")
-	} else {
-		tw = tabwriter.NewWriter(&b, 0, 4, 2, ' ', 0)
-		fmt.Fprintln(tw, "  TIMES\tSTREAMS")
-		for _, p := range d.TopPairs {
-			fmt.Fprintf(tw, "  %d\t%s  +  %s\n", p.Count, Printable(p.Streams[0]), Printable(p.Streams[1]))
-		}
-		tw.Flush()
-	}
-
-	b.WriteString("\nWho asked\n")
-	if len(d.Askers) == 0 {
-		b.WriteString("  nobody\n")
-	} else {
-		tw = tabwriter.NewWriter(&b, 0, 4, 2, ' ', 0)
-		fmt.Fprintln(tw, "  QUERIES\tWHO")
-		for _, a := range d.Askers {
-			fmt.Fprintf(tw, "  %d\t%s\n", a.Queries, who(a.UserName, a.UserID))
-		}
-		tw.Flush()
-	}
-	if d.HeadHash != "" {
-		fmt.Fprintf(&b, "\nLog head at the end of the period: row %d, hash %s\n", d.HeadID, d.HeadHash)
-		fmt.Fprintf(&b, "To check later that nothing up to it was rewritten or cut off: mixward log verify --expect %s\n", d.HeadHash)
-	} else {
-		b.WriteString("\nLog head at the end of the period: none (nothing was logged before it)\n")
-	}
-	b.WriteString("\n" + Advisory + "\n")
-	lines := strings.Split(b.String(), "\n")
-	for i, l := range lines {
-		lines[i] = strings.TrimRight(l, " ")
-	}
-	return strings.Join(lines, "\n")
-}
-
 func untilHeader(since, until time.Time) string {
 	if since.Format("2006-01-02") == until.Format("2006-01-02") {
 		return until.Format("15:04 MST")
@@ -432,12 +333,11 @@ func untilHeader(since, until time.Time) string {
 	return until.Format("Mon 02 Jan 2006 15:04 MST")
 }
 
-// who names the asker, safe to print.
+// who names a person by the name seen, by the id when no name was seen,
+// safe to print.
 func who(name, id string) string {
 	name, id = Printable(name), Printable(id)
 	switch {
-	case name != "" && id != "" && id != name:
-		return name + " (" + id + ")"
 	case name != "":
 		return name
 	case id != "":
@@ -451,14 +351,4 @@ func plural(n int, one, many string) string {
 		return one
 	}
 	return many
-}
-
-// shorten cuts s to n runes with an ellipsis, on one line, safe to print
-// (the escapes may make it longer).
-func shorten(s string, n int) string {
-	s = strings.Join(strings.Fields(s), " ")
-	if utf8.RuneCountInString(s) > n {
-		s = string([]rune(s)[:n-1]) + "…"
-	}
-	return Printable(s)
 }

@@ -82,7 +82,7 @@ func openPostgres(ctx context.Context, dsn string, opt Options, readOnly bool, u
 			return nil, fmt.Errorf("open database %s: %w: it has schema version %d, this mixward reads version %d; upgrade it with 'mixward log migrate'",
 				name, ErrSchemaTooOld, v, len(pgMigrations))
 		}
-		db.ver = pgVersion(db.ver)
+		db.pgv, db.ver = v, pgVersion(v)
 		return db, nil
 	}
 	db.w = pool
@@ -91,7 +91,7 @@ func openPostgres(ctx context.Context, dsn string, opt Options, readOnly bool, u
 		pool.Close()
 		return nil, err
 	}
-	db.ver = pgVersion(upto)
+	db.pgv, db.ver = upto, pgVersion(upto)
 	if err := db.checkKey(ctx, db.w); err != nil {
 		pool.Close()
 		return nil, err
@@ -101,8 +101,11 @@ func openPostgres(ctx context.Context, dsn string, opt Options, readOnly bool, u
 
 // pgVersion maps a PostgreSQL schema version to the SQLite schema version
 // whose features it has (the code branches on the SQLite numbering):
-// PostgreSQL's version 1 holds everything of SQLite's versions 1–8, its
-// version 2 adds sites (SQLite's 9).
+// PostgreSQL's version 1 holds SQLite's versions 1–5 and the inbox leases
+// (SQLite's 7), its version 2 adds sites (SQLite's 8), its version 3 the
+// presses and names (SQLite's 6). The presses and names came in a
+// different order on the two backends, so DB.hasNames asks for them by
+// each backend's own number.
 func pgVersion(v int) int {
 	switch {
 	case v >= 2:
@@ -111,6 +114,18 @@ func pgVersion(v int) int {
 		return siteVersion - 1
 	}
 	return 0
+}
+
+// pgNamesVersion is the PostgreSQL schema version that brought the presses
+// and names tables.
+const pgNamesVersion = 3
+
+// hasNames reports whether the database has the presses and names tables.
+func (db *DB) hasNames() bool {
+	if db.pg {
+		return db.pgv >= pgNamesVersion
+	}
+	return db.ver >= namesVersion
 }
 
 func orDefault(v, d int) int {

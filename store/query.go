@@ -311,7 +311,7 @@ func (db *DB) insertRow(ctx context.Context, tx *sql.Tx, r *row) error {
 	case db.ver < 4:
 		_, err = tx.ExecContext(ctx, insertV3, args...)
 	case db.ver < siteVersion:
-		_, err = tx.ExecContext(ctx, insertV8, append(args, r.Chain, r.KeyID)...)
+		_, err = tx.ExecContext(ctx, insertV7, append(args, r.Chain, r.KeyID)...)
 	default:
 		_, err = db.ws.insert.exec(ctx, tx, append(args, r.Chain, r.KeyID, r.Site)...)
 	}

@@ -34,9 +34,9 @@ const insertV3 = `INSERT INTO queries (id, kind, time, user_id, user_name, chann
 	error, species, oxidizer, reducer, e_cell_v, e_cell_standard_v, hazards, streams, result, engine_version, data_hash,
 	prev_hash, hash) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`
 
-// insertV8 inserts a row into a file of schema version 4–8 (tests build
+// insertV7 inserts a row into a file of schema version 4–7 (tests build
 // them), which has no site column.
-const insertV8 = `INSERT INTO queries (id, kind, time, user_id, user_name, channel, event_id, request, resolved, verdict,
+const insertV7 = `INSERT INTO queries (id, kind, time, user_id, user_name, channel, event_id, request, resolved, verdict,
 	error, species, oxidizer, reducer, e_cell_v, e_cell_standard_v, hazards, streams, result, engine_version, data_hash,
 	prev_hash, hash, chain, key_id) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`
 

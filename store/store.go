@@ -74,7 +74,8 @@ type DB struct {
 	w    *sql.DB // writer: one connection, BEGIN IMMEDIATE
 	r    *sql.DB // readers: mode=ro (temporary tables allowed)
 	ws   *writeStmts
-	ver  int // schema version applied by Open (as found, for OpenReadOnly)
+	ver  int // schema version applied by Open (as found, for OpenReadOnly), in SQLite's numbering
+	pgv  int // PostgreSQL: the schema version in pgmigrations' numbering
 	now  func() time.Time
 	loc  *time.Location
 	key  *ChainKey

@@ -83,12 +83,13 @@ func isTerminal(r any) bool {
 }
 
 func (a *app) cmdConsole(ctx context.Context, args []string) error {
-	fs := a.newFlags("console", "console [--db PATH] [--tz ZONE] [--shifts SPEC] [--no-demo] [--digests]\n\n"+
+	fs := a.newFlags("console", "console [--db PATH] [--tz ZONE] [--shifts SPEC] [--no-demo] [--digests] [--picture-dir DIR]\n\n"+
 		"The local console: type the same messages as in the Slack channel (a mix request, streams,\n"+
-		"search, digest, help) and read the answers here. Requests are logged as user \"console\".\n"+
+		"search, digest, help; details, pour and picture for the last answer) and read the answers here. Requests are logged as user \"console\".\n"+
 		"Reads standard input, so `echo \"mix ...\" | mixward console` works too.")
 	var s siteFlags
 	s.register(fs, a.getenv)
+	picDir := fs.String("picture-dir", ".", "where `picture` writes the E–pH picture PNG")
 	noDemo := fs.Bool("no-demo", false, "do not seed the invented demo site's streams into an empty catalogue")
 	digests := fs.Bool("digests", isTerminal(a.stdin), "print shift digests here when they fall due (default: on for a terminal)")
 	rest, err := parseFlags(fs, args)
@@ -120,7 +121,8 @@ func (a *app) cmdConsole(ctx context.Context, args []string) error {
 	}
 	b := st.newBot(logger, nil, &bot.Access{Everyone: true})
 	b.ConsoleHelp = true
-	con := &bot.Console{Bot: b, In: a.stdin, Out: a.stdout, Interactive: interactive, Query: st.db.Get}
+	con := &bot.Console{Bot: b, In: a.stdin, Out: a.stdout, Interactive: interactive, Query: st.db.Get,
+		Press: st.db.RecordPress, Plot: plotterFor(st.eng), PictureDir: *picDir}
 
 	if *digests {
 		sched, err := store.NewScheduler(st.db, s.shifts, st.loc, con, nil)

@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"context"
 	"encoding/json"
+	"os"
 	"path/filepath"
 	"strings"
 	"testing"
@@ -230,5 +231,38 @@ func TestDemoPairsRenderWithinBlockKitLimits(t *testing.T) {
 				}
 			}
 		}
+	}
+}
+
+// TestConsolePourPictureRecorded: the console's details, pour and picture
+// show the last answer (or a logged one), the picture is written as a PNG,
+// and each is recorded against its query like a button press.
+func TestConsolePourPictureRecorded(t *testing.T) {
+	dir := t.TempDir()
+	db := filepath.Join(dir, "site.db")
+	env := map[string]string{"MIXWARD_DB": db, "MIXWARD_TZ": "UTC"}
+	input := "mix 200 L NaOCl 12.5 % + 50 L HCl 10 %\npour\npicture\ndetails 1\npour 9\n"
+	stdout, stderr, code := runConsole(t, env, input, "console", "--no-demo", "--picture-dir", dir)
+	if code != 0 {
+		t.Fatalf("exit %d\nstderr: %s", code, stderr)
+	}
+	for _, want := range []string{"Along the pour", "into", "E–pH picture written to " + filepath.Join(dir, "mixward-eph-1.png"),
+		"Query #1, asked", "I could not read query #9"} {
+		if !strings.Contains(stdout, want) {
+			t.Errorf("console output lacks %q:\n%s", want, stdout)
+		}
+	}
+	png, err := os.ReadFile(filepath.Join(dir, "mixward-eph-1.png"))
+	if err != nil || !bytes.HasPrefix(png, []byte("\x89PNG")) {
+		t.Errorf("picture file: %d bytes, %v", len(png), err)
+	}
+	s, err := store.OpenReadOnly(context.Background(), db, store.Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer s.Close()
+	ps, err := s.Presses(context.Background(), 1)
+	if err != nil || len(ps) != 3 || ps[0].Action != "pour" || ps[1].Action != "picture" || ps[2].Action != "details" || ps[0].Transport != "console" {
+		t.Errorf("presses = %+v, %v; want pour, picture, details from the console", ps, err)
 	}
 }

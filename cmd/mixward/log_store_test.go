@@ -323,8 +323,8 @@ func TestDigestCLI(t *testing.T) {
 	env, path := storeEnv(t)
 	seedLog(t, path)
 	code, out, errOut := storeCLI(t, env, "digest", "--since", "2026-12-01T06:00", "--until", "2026-12-01T18:00")
-	for _, w := range []string{"Shift digest Tue 01 Dec 2026 06:00 GMT – 18:00 GMT (Europe/London)", "Queries   4 from 2 people",
-		"spontaneous 2", "06:30", "CL2-GAS", "Requests that did not parse: 1", "HCl 1 M  +  NaOCl 12.5 %", "advisory, never a permit"} {
+	for _, w := range []string{"Shift digest Tue 01 Dec 2026 06:00 GMT – 18:00 GMT (Europe/London)", "4 queries from 2 people",
+		"do not mix 1", "DO NOT MIX       ×1   HCl 1 M + NaOCl 12.5 %  CL2-GAS  #1", "Requests that did not parse (1)", "advisory, never a permit"} {
 		if code != 0 || !strings.Contains(out, w) {
 			t.Errorf("digest lacks %q (exit %d, %s):\n%s", w, code, errOut, out)
 		}
@@ -388,5 +388,43 @@ func TestStoreSubcommandHelp(t *testing.T) {
 		if code, _, errOut := storeCLI(t, env, args...); code != exitUsage || !strings.Contains(errOut, "verify") {
 			t.Errorf("%v: exit %d %s", args, code, errOut)
 		}
+	}
+}
+
+// TestLogShowPressesAndNames: log show names the channel as it was called
+// at the time and lists the buttons pressed on the answer; log search names
+// the channel too.
+func TestLogShowPressesAndNames(t *testing.T) {
+	env, path := storeEnv(t)
+	seedLog(t, path)
+	db, err := store.Open(context.Background(), path, store.Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	ctx := context.Background()
+	at := time.Date(2026, 12, 1, 6, 0, 0, 0, time.UTC)
+	if err := db.NoteName(ctx, "C0SHIFT", "#finishing", at); err != nil {
+		t.Fatal(err)
+	}
+	if err := db.RecordPress(ctx, store.Press{QueryID: 1, Action: store.PressDetails, UserID: "U02", UserName: "op.south", Channel: "C0SHIFT", Transport: "socket", Time: at.Add(time.Hour)}); err != nil {
+		t.Fatal(err)
+	}
+	db.Close()
+	code, out, errOut := storeCLI(t, env, "log", "show", "1")
+	for _, want := range []string{"where", "#finishing (C0SHIFT)", "pressed", "details by op.south (U02) over socket"} {
+		if code != 0 || !strings.Contains(out, want) {
+			t.Errorf("log show lacks %q (exit %d %s):\n%s", want, code, errOut, out)
+		}
+	}
+	code, out, _ = storeCLI(t, env, "log", "show", "1", "--format", "json")
+	var js struct {
+		ChannelName string        `json:"channel_name"`
+		Presses     []store.Press `json:"presses"`
+	}
+	if code != 0 || json.Unmarshal([]byte(out), &js) != nil || js.ChannelName != "#finishing" || len(js.Presses) != 1 {
+		t.Errorf("log show json: %d %s", code, out)
+	}
+	if code, out, _ = storeCLI(t, env, "log", "search", "HCl"); code != 0 || !strings.Contains(out, "#finishing") {
+		t.Errorf("log search does not name the channel: %d\n%s", code, out)
 	}
 }

@@ -424,6 +424,10 @@ be left out to list by the filters alone. A first term starting with - needs
 	tw := tabwriter.NewWriter(a.stdout, 0, 4, 2, ' ', 0)
 	fmt.Fprintf(tw, "ID\tTIME (%s)\tWHO\tWHERE\tVERDICT\tREQUEST\tHAZARDS\n", loc)
 	for _, q := range page.Queries {
+		name, err := db.NameAt(ctx, q.Channel, q.Time)
+		if err != nil {
+			return err
+		}
 		var hz []string
 		for _, h := range q.Hazards {
 			hz = append(hz, h.Code)
@@ -432,9 +436,9 @@ be left out to list by the filters alone. A first term starting with - needs
 		if q.Verdict == store.VerdictError {
 			req += "  [" + q.Error + "]"
 		}
-		where := q.Channel
+		where := orDash(name, q.Channel)
 		if q.Site != store.DefaultSite {
-			where = q.Site + "/" + q.Channel
+			where = q.Site + "/" + where
 		}
 		fmt.Fprintf(tw, "%d\t%s\t%s\t%s\t%s\t%s\t%s\n", q.ID, local(q.Time, loc), safeCut(orDash(q.UserName, q.UserID), 24),
 			safeCut(where, 32), q.Verdict, safeCut(req, 70), safe(strings.Join(hz, ",")))
@@ -642,21 +646,54 @@ data hash, its hashes, and whether the answer was posted.`)
 	if err != nil {
 		return err
 	}
+	ps, err := db.Presses(ctx, id)
+	if err != nil {
+		return err
+	}
+	where, err := db.NameAt(ctx, q.Channel, q.Time)
+	if err != nil {
+		return err
+	}
 	if *format == "json" {
 		if ds == nil {
 			ds = []store.Delivery{}
 		}
+		if ps == nil {
+			ps = []store.Press{}
+		}
 		return writeJSON(a.stdout, struct {
-			Query      *store.Query     `json:"query"`
-			Deliveries []store.Delivery `json:"deliveries"`
-		}{q, ds})
+			Query       *store.Query     `json:"query"`
+			ChannelName string           `json:"channel_name"`
+			Deliveries  []store.Delivery `json:"deliveries"`
+			Presses     []store.Press    `json:"presses"`
+		}{q, where, ds, ps})
 	}
-	return printQuery(a.stdout, q, ds, loc)
+	if err := printQuery(a.stdout, q, ds, loc, where); err != nil {
+		return err
+	}
+	return printPresses(a.stdout, ps, loc)
+}
+
+// printPresses lists the buttons pressed on a query's answer (and the
+// console's details, pour and picture).
+func printPresses(w io.Writer, ps []store.Press, loc *time.Location) error {
+	tw := tabwriter.NewWriter(w, 0, 4, 2, ' ', 0)
+	if len(ps) == 0 {
+		fmt.Fprintf(tw, "pressed\tnothing (no Details, E–pH picture or Pour order asked for)\n")
+	}
+	for i, p := range ps {
+		k := ""
+		if i == 0 {
+			k = "pressed"
+		}
+		fmt.Fprintf(tw, "%s\t%s %s by %s over %s\n", k, local(p.Time, loc), p.Action, safe(orDash(p.UserName, p.UserID)+" "+paren(p.UserID, p.UserName)), safe(p.Transport))
+	}
+	return tw.Flush()
 }
 
 // printQuery writes one query in full for people, every stored text made
 // safe to print.
-func printQuery(w io.Writer, q *store.Query, ds []store.Delivery, loc *time.Location) error {
+func printQuery(w io.Writer, q *store.Query, ds []store.Delivery, loc *time.Location, where string) error {
 	tw := tabwriter.NewWriter(w, 0, 4, 2, ' ', 0)
 	row := func(k, v string) {
 		if v != "" {
@@ -666,7 +703,7 @@ func printQuery(w io.Writer, q *store.Query, ds []store.Delivery, loc *time.Loca
 	fmt.Fprintf(w, "Query %d\n", q.ID)
 	row("time", local(q.Time, loc)+"  ("+q.Time.Format(time.RFC3339Nano)+")")
 	row("who", orDash(q.UserName, q.UserID)+" "+paren(q.UserID, q.UserName))
-	row("where", q.Channel)
+	row("where", orDash(where, q.Channel)+" "+paren(q.Channel, where))
 	row("event id", q.EventID)
 	row("request", q.Request)
 	row("resolved", q.Resolved)

@@ -9,14 +9,40 @@ import (
 	"os"
 	"os/signal"
 	"syscall"
+	"time"
 )
 
 func main() {
 	restrictUmask()
 	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
+	go func() {
+		<-ctx.Done()
+		stop() // a second signal ends the process at once
+		if g := signalGrace(os.Args[1:]); g > 0 {
+			// A computation does not watch ctx: give the command time to
+			// finish a write (SQLite rolls back what it does not), then stop.
+			time.Sleep(g)
+			fmt.Fprintln(os.Stderr, "mixward: stopped by a signal")
+			os.Exit(exitSignal)
+		}
+	}()
 	code := run(ctx, os.Args[1:], os.Getenv, os.Stdin, os.Stdout, os.Stderr)
 	stop()
 	os.Exit(code)
+}
+
+// exitSignal is the exit code of a command stopped by SIGTERM or SIGINT
+// after its grace period (128 + SIGTERM, as shells report it).
+const exitSignal = 128 + 15
+
+// signalGrace is how long a command may go on after SIGTERM or SIGINT
+// before it is stopped: serve drains on its own (--drain-timeout) and is
+// never cut short; every other command gets a few seconds.
+func signalGrace(args []string) time.Duration {
+	if len(args) > 0 && args[0] == "serve" {
+		return 0
+	}
+	return 5 * time.Second
 }
 
 // app carries what every subcommand needs; nothing in it is global.

@@ -366,7 +366,7 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 			WriteTimeout:      30 * time.Second,
 		}
 		health.SetTransport("http", "listening")
-		logger.Info("events API listening", "addr", ln.Addr().String(), "paths", "POST /slack/events, POST /slack/commands")
+		logger.Info("events API listening", "addr", ln.Addr().String(), "paths", "POST /slack/events, POST /slack/commands, POST /slack/interactive")
 		wg.Go(func() {
 			if err := events.Serve(ln); err != nil && !errors.Is(err, http.ErrServerClosed) {
 				errc <- fmt.Errorf("events server: %w", err)
@@ -475,6 +475,8 @@ func newSlack(c serveConfig, st *site, api *slack.Client, logger *slog.Logger, m
 		Pictures:      pics,
 		Journal:       st.db,
 		DigestChannel: c.digestChannel,
+		Views:         api,
+		Names:         &bot.Names{API: api, Note: st.db, Log: logger},
 		Health:        health,
 		Logger:        logger,
 		Metrics:       metrics,

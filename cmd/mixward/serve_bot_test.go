@@ -71,6 +71,14 @@ func (m *miniSlack) serve(w http.ResponseWriter, r *http.Request) {
 			hit <- r.PostForm.Get("thread_ts")
 		}
 		fmt.Fprintf(w, `{"ok":true,"channel":%q,"ts":%q}`, r.PostForm.Get("channel"), ts)
+	case "chat.postEphemeral":
+		// Recorded with the posts, marked: help and refusals go this way.
+		m.mu.Lock()
+		f := r.PostForm
+		f.Set("ephemeral", "true")
+		m.posts = append(m.posts, f)
+		m.mu.Unlock()
+		io.WriteString(w, `{"ok":true,"message_ts":"1800000000.999999"}`)
 	case "files.getUploadURLExternal":
 		fmt.Fprintf(w, `{"ok":true,"upload_url":%q,"file_id":"F1"}`, m.srv.URL+"/upload")
 	case "upload":
@@ -255,10 +263,13 @@ func TestServeHTTPEndToEnd(t *testing.T) {
 	if p.Get("channel") != "CPLANT" || p.Get("thread_ts") != "1700000000.000100" {
 		t.Errorf("reply in channel %q thread %q", p.Get("channel"), p.Get("thread_ts"))
 	}
-	for _, want := range []string{`"type":"header"`, "SPONTANEOUS", "Half-reactions", "Hazards", "not a permit"} {
+	for _, want := range []string{`"type":"header"`, "DO NOT MIX", "Forms:", "Net:", "not a permit", `"action_id":"mixward_details"`} {
 		if !strings.Contains(p.Get("blocks"), want) {
-			t.Errorf("reply blocks lack %q", want)
+			t.Errorf("short answer blocks lack %q", want)
 		}
+	}
+	if strings.Contains(p.Get("blocks"), "Half-reactions") {
+		t.Errorf("the short answer holds the half-reactions, which belong under Details")
 	}
 
 	// Forged and stale requests: 401, nothing posted or logged.
@@ -281,10 +292,35 @@ func TestServeHTTPEndToEnd(t *testing.T) {
 		t.Errorf("slash answer = %v, want it in the thread of the request message", posts[2])
 	}
 
-	// A search from a non-reviewer: refused politely.
+	// A search from a non-reviewer: refused politely, to them alone.
 	signedPost(t, s.events+"/slack/events", "application/json", testSecret, mentionBody("Ev4", "CPLANT", "1700000000.000400", "<@UBOT> search chlorine"), now)
-	if p := slack.waitPosts(t, 4)[3]; !strings.Contains(p.Get("text"), "reviewers only") {
-		t.Errorf("search by a non-reviewer answered %q", p.Get("text"))
+	if p := slack.waitPosts(t, 4)[3]; !strings.Contains(p.Get("text"), "reviewers only") || p.Get("ephemeral") != "true" {
+		t.Errorf("search by a non-reviewer answered %v", p)
+	}
+
+	// Details under the first answer, over the interactivity endpoint; a
+	// forged press is refused and changes nothing.
+	pressBody := func(action string) []byte {
+		b, _ := json.Marshal(map[string]any{"type": "block_actions", "user": map[string]any{"id": "UOP"},
+			"channel": map[string]any{"id": "CPLANT"}, "container": map[string]any{"type": "message", "channel_id": "CPLANT",
+				"message_ts": "1800000000.000001", "thread_ts": "1700000000.000100"},
+			"actions": []any{map[string]any{"action_id": action, "block_id": "mixward_answer", "value": "1", "type": "button", "action_ts": "1700000001.1"}}})
+		return []byte(url.Values{"payload": {string(b)}}.Encode())
+	}
+	if r := signedPost(t, s.events+"/slack/interactive", "application/x-www-form-urlencoded", "wrong-secret", pressBody("mixward_details"), now); r.StatusCode != 401 {
+		t.Errorf("forged press: %s, want 401", r.Status)
+	}
+	if r := signedPost(t, s.events+"/slack/interactive", "application/x-www-form-urlencoded", testSecret, pressBody("mixward_details"), now); r.StatusCode != 200 {
+		t.Errorf("press: %s", r.Status)
+	}
+	for end := time.Now().Add(20 * time.Second); len(slack.postsNow()) < 5 && time.Now().Before(end); {
+		time.Sleep(10 * time.Millisecond)
+	}
+	if len(slack.postsNow()) < 5 {
+		t.Fatalf("no answer to the Details press:\n%s", s.stderr.String())
+	}
+	if p := slack.postsNow()[4]; p.Get("thread_ts") != "1700000000.000100" || !strings.Contains(p.Get("blocks"), "Half-reactions") {
+		t.Errorf("details = %v, want the full answer in the first thread\n%s", p, s.stderr.String())
 	}
 
 	// Operations endpoints.
@@ -311,7 +347,7 @@ func TestServeHTTPEndToEnd(t *testing.T) {
 		time.Sleep(10 * time.Millisecond)
 	}
 	for _, want := range []string{`mixward_requests_total{kind="mix",transport="http"} 2`, `mixward_verdicts_total{verdict="spontaneous"} 1`,
-		`mixward_errors_total{stage="verify"} 2`, "mixward_slack_post_seconds_bucket", "mixward_queue_depth 0"} {
+		`mixward_errors_total{stage="verify"} 3`, "mixward_slack_post_seconds_bucket", "mixward_queue_depth 0"} {
 		if !strings.Contains(string(metrics), want) {
 			t.Errorf("/metrics lacks %q", want)
 		}
@@ -467,7 +503,7 @@ func TestServeSocketMode(t *testing.T) {
 		t.Fatalf("envelope never acknowledged: %s", errb.String())
 	}
 	p := slack.waitPosts(t, 1)[0]
-	if p.Get("thread_ts") != "1700000000.000500" || !strings.Contains(p.Get("blocks"), "SPONTANEOUS") {
+	if p.Get("thread_ts") != "1700000000.000500" || !strings.Contains(p.Get("blocks"), "DO NOT MIX") || !strings.Contains(p.Get("blocks"), "mixward_picture") {
 		t.Errorf("socket reply = %v", p)
 	}
 	cancel()

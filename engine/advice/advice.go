@@ -18,6 +18,8 @@ import (
 type Advisor struct {
 	Engine *engine.Engine
 	Gases  *hazard.Data
+
+	water *engine.Stream // one litre of water, parsed once (see concentrates)
 }
 
 // New builds an Advisor on a loaded engine, reading the gas table from fsys
@@ -27,7 +29,11 @@ func New(e *engine.Engine, fsys fs.FS) (*Advisor, error) {
 	if err != nil {
 		return nil, err
 	}
-	return &Advisor{Engine: e, Gases: d}, nil
+	a := &Advisor{Engine: e, Gases: d}
+	if w, err := engine.Parse("mix 1 L water", e.Tables, engine.AskOptions{}); err == nil && len(w.Streams) == 1 {
+		a.water = &w.Streams[0]
+	}
+	return a, nil
 }
 
 // Ask parses and answers a request: the engine's prediction with the
@@ -53,10 +59,10 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 		res.Notes = append(res.Notes, fmt.Sprintf("heat counted for the hazards: %.0f kJ, about %+.1f °C (reactions that do not proceed left out)", o.Heat.ReleasedkJ, o.Heat.RiseC))
 	}
 	res.Notes = append(res.Notes, fmt.Sprintf("gas concentrations are for a closed headspace equal to the liquid volume (%s L), at equilibrium", trim(o.HeadspaceL)))
-	res.Addition = pour.Analyse(req, func(r *engine.Request) ([]engine.Hazard, error) {
-		hs, err := a.evaluate(r)
+	res.Addition = pour.AnalyseLocal(req, func(r *engine.Request) ([]engine.Hazard, error) {
+		hs, err := a.evaluateIn(r, o.HeadspaceL)
 		return hazard.Relative(hs, pick(alone, r.Streams)), err
-	})
+	}, landing(a.concentrates(req)))
 	if res.Addition == nil {
 		res.Addition = &engine.Addition{Orders: []engine.PourOrder{}, Advice: "One stream: nothing is poured into anything."}
 	}
@@ -77,13 +83,21 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 	return res, nil
 }
 
-// evaluate judges one point of a pour.
+// evaluate judges one stream or mix by itself.
 func (a *Advisor) evaluate(req *engine.Request) ([]engine.Hazard, error) {
+	return a.evaluateIn(req, 0)
+}
+
+// evaluateIn judges one point of a pour in a tank whose headspace is
+// headspaceL (see hazard.Outcome.InTank).
+func (a *Advisor) evaluateIn(req *engine.Request, headspaceL float64) ([]engine.Hazard, error) {
 	res, err := a.Engine.PredictBrief(req)
 	if err != nil {
 		return nil, err
 	}
-	return hazard.Judge(hazard.FromResult(res, a.Engine.Tables), a.Gases), nil
+	o := hazard.FromResult(res, a.Engine.Tables)
+	o.InTank(headspaceL)
+	return hazard.Judge(o, a.Gases), nil
 }
 
 // alone judges each stream by itself, keyed by streamKey.

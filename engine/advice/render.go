@@ -95,6 +95,9 @@ func formsLine(r *engine.Result) string {
 
 func heatLine(r *engine.Result) string {
 	if r.Decision == nil || r.Decision.Heat == nil {
+		if r.Heat != nil && r.Heat.Withheld != "" {
+			return "Heat: no estimate (" + r.Heat.Withheld + ")"
+		}
 		return "Heat: no estimate (formation enthalpies missing)"
 	}
 	h := r.Decision.Heat
@@ -111,6 +114,10 @@ func heatLine(r *engine.Result) string {
 
 func reactionLine(r *engine.Result) string {
 	switch {
+	case r.Reaction == nil && len(r.HeldBack) > 0 && r.HeldBack[0].Reaction != nil:
+		hb := r.HeldBack[0]
+		reason, _, _ := strings.Cut(hb.Reason, ":")
+		return "Redox: " + hb.Reaction.Text + " possible on paper, held back: " + reason
 	case r.Reaction == nil:
 		return "Redox: no oxidizing and reducing agent pair"
 	case r.Verdict == engine.Spontaneous && r.Decision != nil && held(r.Decision.Held, r.Reaction.Text):
@@ -127,7 +134,9 @@ func reactionLine(r *engine.Result) string {
 		// share that counts as a reaction: say so rather than "does not run".
 		return "Redox: " + r.Reaction.Text + " runs only to a trace at the final ratio (the gas it gives is counted above)"
 	}
-	return "Redox: no spontaneous reaction (" + r.Reaction.Text + " does not run)"
+	// The strongest pair on paper that does not run is for the details:
+	// in the short answer it read as a reaction that happens.
+	return "Redox: no redox reaction runs at these conditions (the pairs are in the details)"
 }
 
 // formsGas reports whether a gas of the answer's gas list is a product of

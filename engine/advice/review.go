@@ -1,9 +1,11 @@
 package advice
 
 import (
+	"runtime"
 	"sort"
 	"strconv"
 	"strings"
+	"sync"
 
 	"mixward/engine"
 )
@@ -38,12 +40,25 @@ func (a *Advisor) Review(streams []Tagged) []Pair {
 		s, ok := byTag[strings.ToUpper(tag)]
 		return s, ok
 	}
-	var out []Pair
+	var pairs [][2]string
 	for i := range streams {
 		for j := i + 1; j < len(streams); j++ {
-			out = append(out, a.pair(streams[i].Tag, streams[j].Tag, resolve))
+			pairs = append(pairs, [2]string{streams[i].Tag, streams[j].Tag})
 		}
 	}
+	// Each pair is a full answer with its pour (about fifty mixes): the pairs
+	// are judged side by side, one per processor.
+	out := make([]Pair, len(pairs))
+	sem := make(chan struct{}, runtime.GOMAXPROCS(0))
+	var wg sync.WaitGroup
+	for k, xy := range pairs {
+		sem <- struct{}{}
+		wg.Go(func() {
+			defer func() { <-sem }()
+			out[k] = a.pair(xy[0], xy[1], resolve)
+		})
+	}
+	wg.Wait()
 	sort.SliceStable(out, func(i, j int) bool {
 		if li, lj := levelRank(out[i].Level), levelRank(out[j].Level); li != lj {
 			return li > lj

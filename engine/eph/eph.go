@@ -199,11 +199,30 @@ func Draw(w io.Writer, ox, red Curve, mixPH float64, title string) error {
 		return err
 	}
 	ymin, ymax := yRange(oxXY, redXY)
+	p := frame(title, lo, hi, ymin, ymax)
+	// Shading first, so that the grid and the curves lie on top.
+	if err := shade(p, ox, red, lo, hi, ymin, ymax); err != nil {
+		return err
+	}
+	grid := plotter.NewGrid()
+	grid.Vertical.Color = color.Gray{Y: 215}
+	grid.Horizontal.Color = color.Gray{Y: 215}
+	p.Add(grid)
 	// Colour-blind-safe orange and blue for the two couples.
-	oxColour := color.RGBA{R: 213, G: 94, B: 0, A: 255}
-	redColour := color.RGBA{R: 0, G: 114, B: 178, A: 255}
-	markColour := color.RGBA{R: 60, G: 60, B: 60, A: 255}
+	if err := curve(p, ox, oxXY, color.RGBA{R: 213, G: 94, B: 0, A: 255}, "oxidizer"); err != nil {
+		return err
+	}
+	if err := curve(p, red, redXY, color.RGBA{R: 0, G: 114, B: 178, A: 255}, "reducer"); err != nil {
+		return err
+	}
+	if err := markPH(p, ox, red, mixPH, ymin, ymax); err != nil {
+		return err
+	}
+	return encode(w, p)
+}
 
+// frame is the empty plot: title, axes, ticks and legend placement.
+func frame(title string, lo, hi, ymin, ymax float64) *plot.Plot {
 	p := plot.New()
 	sans := font.Font{Typeface: "Liberation", Variant: "Sans"}
 	style := func(s *font.Font, pt float64) { *s = sans; s.Size = vg.Points(pt) }
@@ -226,8 +245,11 @@ func Draw(w io.Writer, ox, red Curve, mixPH float64, title string) error {
 	p.Legend.YOffs = -vg.Points(4)
 	p.Legend.ThumbnailWidth = vg.Points(24)
 	p.Legend.Padding = vg.Points(2)
+	return p
+}
 
-	// Shading first, so that the grid and the curves lie on top.
+// shade fills the pH ranges where the pair is spontaneous.
+func shade(p *plot.Plot, ox, red Curve, lo, hi, ymin, ymax float64) error {
 	shaded := false
 	for _, r := range Spontaneous(ox, red, lo, hi) {
 		poly, err := plotter.NewPolygon(plotter.XYs{{X: r.From, Y: ymin}, {X: r.To, Y: ymin}, {X: r.To, Y: ymax}, {X: r.From, Y: ymax}})
@@ -242,45 +264,46 @@ func Draw(w io.Writer, ox, red Curve, mixPH float64, title string) error {
 			shaded = true
 		}
 	}
-	grid := plotter.NewGrid()
-	grid.Vertical.Color = color.Gray{Y: 215}
-	grid.Horizontal.Color = color.Gray{Y: 215}
-	p.Add(grid)
+	return nil
+}
 
-	for _, c := range []struct {
-		curve Curve
-		xy    []plotter.XYs
-		col   color.Color
-		role  string
-	}{{ox, oxXY, oxColour, "oxidizer"}, {red, redXY, redColour, "reducer"}} {
-		for i, seg := range c.xy {
-			l, err := plotter.NewLine(seg)
-			if err != nil {
-				return fmt.Errorf("eph: %s curve: %w", c.role, err)
-			}
-			l.Color = c.col
-			l.Width = vg.Points(2.5)
-			p.Add(l)
-			if i == 0 {
-				p.Legend.Add(legendLabel(c.role, c.curve.Label), l)
-			}
+// curve draws one couple's potential, segment by segment, in col.
+func curve(p *plot.Plot, c Curve, xy []plotter.XYs, col color.Color, role string) error {
+	for i, seg := range xy {
+		l, err := plotter.NewLine(seg)
+		if err != nil {
+			return fmt.Errorf("eph: %s curve: %w", role, err)
+		}
+		l.Color = col
+		l.Width = vg.Points(2.5)
+		p.Add(l)
+		if i == 0 {
+			p.Legend.Add(legendLabel(role, c.Label), l)
 		}
 	}
+	return nil
+}
 
+// markPH draws the mix's pH as a dashed line with the cell potential there.
+func markPH(p *plot.Plot, ox, red Curve, mixPH, ymin, ymax float64) error {
 	mark, err := plotter.NewLine(plotter.XYs{{X: mixPH, Y: ymin}, {X: mixPH, Y: ymax}})
 	if err != nil {
 		return fmt.Errorf("eph: mix pH marker: %w", err)
 	}
-	mark.Color = markColour
+	mark.Color = color.RGBA{R: 60, G: 60, B: 60, A: 255}
 	mark.Width = vg.Points(1.5)
 	mark.Dashes = []vg.Length{vg.Points(6), vg.Points(4)}
 	p.Add(mark)
-	markLabel := "mix pH " + num(mixPH)
+	label := "mix pH " + num(mixPH)
 	if eo, er := ox.E(mixPH), red.E(mixPH); !math.IsNaN(eo-er) && !math.IsInf(eo-er, 0) {
-		markLabel += fmt.Sprintf(" (E cell %+.2f V)", eo-er)
+		label += fmt.Sprintf(" (E cell %+.2f V)", eo-er)
 	}
-	p.Legend.Add(markLabel, mark)
+	p.Legend.Add(label, mark)
+	return nil
+}
 
+// encode renders the plot at WidthPx × HeightPx and writes it as PNG.
+func encode(w io.Writer, p *plot.Plot) error {
 	cv := vgimg.NewWith(vgimg.UseWH(vg.Length(WidthPx)*vg.Inch/dpi, vg.Length(HeightPx)*vg.Inch/dpi), vgimg.UseDPI(dpi))
 	// Margins so that tick labels and the legend keep clear of the edges.
 	p.Draw(draw.Crop(draw.New(cv), vg.Points(8), -vg.Points(18), vg.Points(4), -vg.Points(6)))

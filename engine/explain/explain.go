@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 
+	"mixward/engine/chem"
 	"mixward/engine/state"
 	"mixward/engine/thermo"
 )
@@ -51,7 +52,10 @@ func Steps(db *thermo.DB, mx *state.Mix) ([]Step, error) {
 	if err != nil {
 		return nil, err
 	}
+	// Every change is first written in the medium of the mix as combined,
+	// where its E is worked out.
 	var out []Step
+	var done []Match
 	var firstErr error
 	for _, m := range matches {
 		st, err := x.step(m)
@@ -61,12 +65,78 @@ func Steps(db *thermo.DB, mx *state.Mix) ([]Step, error) {
 			}
 			continue // a change the species at hand cannot write out is left unexplained
 		}
-		out = append(out, st)
+		out, done = append(out, st), append(done, m)
 	}
 	if len(out) == 0 && firstErr != nil {
 		return nil, fmt.Errorf("%w: %v", ErrUnexplained, firstErr)
 	}
-	return out, nil
+	order := crossFirst(out)
+	// The smaller changes happen on the way to the mixed state and are
+	// written in its medium (chlorine formed as a falling pH passes neutral
+	// is not written beside hydroxide).
+	x.med = MediumAt(db, mx.Final.PH, mx.TempK)
+	final := make([]Step, len(order))
+	for k, i := range order {
+		final[k] = out[i]
+		if k > 0 {
+			if st, err := x.step(done[i]); err == nil {
+				final[k] = st
+			}
+		}
+	}
+	return final, nil
+}
+
+// crossFirst is the order of the steps with, first, the largest change
+// between two different agents when the largest of all is an agent reacting
+// with itself (peroxide or hypochlorite falling apart, sulfur species
+// disproportionating): what reacts with what is the answer's headline; the
+// self-reaction follows, with its amounts. The order is otherwise kept.
+func crossFirst(sts []Step) []int {
+	idx := make([]int, len(sts))
+	for i := range idx {
+		idx[i] = i
+	}
+	if len(sts) < 2 || !selfReaction(sts[0]) {
+		return idx
+	}
+	for i := 1; i < len(sts); i++ {
+		if !selfReaction(sts[i]) {
+			out := append([]int{i}, idx[:i]...)
+			return append(out, idx[i+1:]...)
+		}
+	}
+	return idx
+}
+
+// selfReaction reports whether one species, or two forms of one compound
+// (H2O2 and HO2-, HOCl and OCl-), is both the oxidizing and the reducing
+// agent (2 H2O2 → 2 H2O + O2; 2 OCl- → 2 Cl- + O2).
+//
+// Oxygen from water or hydroxide counts as such a breakdown too: it is how
+// the table writes hypochlorite or peroxide falling apart (OCl- oxidizing
+// OH- to O2).
+func selfReaction(st Step) bool {
+	a, b := st.Oxidizer.Agent, st.Reducer.Agent
+	if a == nil || b == nil {
+		return false
+	}
+	if b.Text == "H2O" || b.Text == "OH-" {
+		return true
+	}
+	return a == b || skeletonOf(a) == skeletonOf(b)
+}
+
+// skeletonOf is a species' atoms other than hydrogen with its charge left
+// out: acid and base forms of one compound share it.
+func skeletonOf(sp *thermo.Species) string {
+	k := chem.Atoms{}
+	for el, n := range sp.Atoms {
+		if el != "H" {
+			k[el] = n
+		}
+	}
+	return k.String()
 }
 
 // ErrUnexplained is a mixed state whose changes of oxidation state cannot

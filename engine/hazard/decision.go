@@ -113,7 +113,7 @@ func worseOrderTitle(add *engine.Addition, good *engine.PourOrder) string {
 	if t == "" {
 		return "hazard along the pour"
 	}
-	if t == codeTitle("boils") {
+	if t == codeTitle("boils") || t == codeTitle("near-boiling") {
 		t = "boils locally"
 	}
 	return t + " if poured the other way"
@@ -156,7 +156,13 @@ func orderRank(o *engine.PourOrder) int {
 }
 
 func pourTitle(add *engine.Addition, o *engine.PourOrder) string {
-	t := codeTitle(o.Hazards[0].Code)
+	worst := o.Hazards[0]
+	for _, h := range o.Hazards[1:] {
+		if rank(h.Worst) > rank(worst.Worst) {
+			worst = h
+		}
+	}
+	t := codeTitle(worst.Code)
 	if len(add.Orders) == 2 {
 		return t + " in either order of addition"
 	}

@@ -49,6 +49,7 @@ func FromResult(r *engine.Result, t *engine.Tables) *Outcome {
 			}
 		}
 	}
+	o.fromState = r.Conditions.PHFinal != nil
 	headRuns := o.reactions(r)
 	o.After = o.Before
 	if headRuns {
@@ -90,13 +91,46 @@ func (o *Outcome) measured(r *engine.Result, t *engine.Tables) {
 	}
 	for _, g := range r.Gases {
 		f := strings.TrimSuffix(g.Text, "(g)")
-		if kineticGas[f] && g.PartialKPa > 0 {
-			o.Measured[f] = MeasuredGas{Mol: g.Mol, PPM: g.HeadspacePPM}
-		}
-		if _, ok := o.Measured[f]; ok && g.PartialKPa > 0 {
-			o.Measured[f] = MeasuredGas{Mol: g.Mol, PPM: g.HeadspacePPM}
+		if _, ok := o.Measured[f]; (ok || kineticGas[f]) && g.PartialKPa > 0 {
+			o.Measured[f] = MeasuredGas{Mol: g.Mol, PPM: g.HeadspacePPM, Dissolved: dissolvedAs(r.FinalComposition, f)}
 		}
 	}
+}
+
+// dissolvedAs is the mol of a gas left dissolved as its neutral molecule:
+// the same formula in solution, or the formula with water (dissolved sulfur
+// and carbon dioxide are written H2SO3 and H2CO3 in the NBS tables).
+func dissolvedAs(comp []engine.AmountOf, gas string) float64 {
+	ga, err := engine.ParseFormula(gas)
+	if err != nil {
+		return 0
+	}
+	n := 0.0
+	for _, a := range comp {
+		if a.Phase != engine.Aqueous && a.Phase != "" || strings.ContainsAny(a.Text, "+-^") {
+			continue
+		}
+		aa, err := engine.ParseFormula(a.Text)
+		if err != nil {
+			continue
+		}
+		w := aa["O"] - ga["O"] // waters added
+		same := w >= 0 && aa["H"]-ga["H"] == 2*w
+		for el, k := range aa {
+			if el != "H" && el != "O" && ga[el] != k {
+				same = false
+			}
+		}
+		for el := range ga {
+			if aa[el] == 0 {
+				same = false
+			}
+		}
+		if same {
+			n += a.Mol
+		}
+	}
+	return n
 }
 
 // reactions sorts the engine's reactions into those that proceed and those
@@ -146,9 +180,12 @@ func (o *Outcome) consider(lbl string, rx *engine.Reaction, eCell float64, hinde
 		reason = "E cell within the uncertainty of the potential table (not above +0.05 V): not counted as proceeding"
 	case hindered:
 		reason = "kinetically hindered at these conditions"
-	case o.uncatalysedOxygen(p):
+	case !o.fromState && o.uncatalysedOxygen(p):
+		// An answer from the equilibrium state has its kinetic locks
+		// applied already (a hot or catalysed peroxide does give oxygen);
+		// this rule is for answers of the table method alone.
 		reason = "oxygen from hypochlorite or peroxide alone needs a catalyst (Cu, Ni, Co, Fe, Mn ions) or heat; none is present, so it is slow at plant temperature"
-	case producesGas(p, "H2") && hasReactant(p, "BH4-") && o.PH >= 10:
+	case !o.fromState && producesGas(p, "H2") && hasReactant(p, "BH4-") && o.PH >= 10:
 		reason = "borohydride hydrolyses only slowly above about pH 10 (it is stored in caustic for that reason: Bretherick's Handbook, sodium tetrahydroborate, from memory)"
 	case producesGas(p, "Cl2") && o.PH >= 5:
 		reason = "chlorine does not persist above about pH 5 (it hydrolyses to hypochlorous acid and chloride); chlorine is judged from that equilibrium instead"

@@ -25,14 +25,14 @@ func judgeHeat(o *Outcome) []engine.Hazard {
 	case h.Boils:
 		z = mk("boils", engine.Danger,
 			"The mix releases "+fmtNum(h.ReleasedkJ, 3)+" kJ and would reach about "+fmtNum(h.ReachedC, 3)+" °C: it boils and spits hot liquid and mist.",
-			"Do not mix in one go: add the concentrated liquid slowly into the larger, cooled and stirred volume, or dilute first; wear a face shield.", src)
+			"Do not mix in one go: use more water, run the concentrated liquid slowly into the water with cooling and stirring; wear a face shield.", src)
 	case h.ReachedC >= NearBoilC && h.RiseC >= 2*WarmRise:
 		// Where the streams meet the liquid runs well above the mean: a mix
 		// whose mean reaches 80 °C boils and spits locally when poured in one
 		// go (Bretherick's Handbook, acids with bases, from memory).
 		z = mk("near-boiling", engine.Danger,
 			"The mix releases "+fmtNum(h.ReleasedkJ, 3)+" kJ and reaches about "+fmtNum(h.ReachedC, 3)+" °C on average: where the streams meet it boils and spits.",
-			"Do not mix in one go: add the concentrated liquid slowly into the larger, cooled and stirred volume, or dilute first; wear a face shield.", src)
+			"Do not mix in one go: use more water, run the concentrated liquid slowly into the water with cooling and stirring; wear a face shield.", src)
 	case h.ReachedC >= ScaldC:
 		z = mk("scalding-heat", engine.Warning,
 			"The mix releases "+fmtNum(h.ReleasedkJ, 3)+" kJ and reaches about "+fmtNum(h.ReachedC, 3)+" °C: hot enough to scald.",

@@ -101,12 +101,38 @@ type Outcome struct {
 	// headspace and the headspace concentration. A measured gas is judged
 	// on these numbers, not estimated from its dissolved pool.
 	Measured map[string]MeasuredGas
+
+	fromState bool // filled from the equilibrium state, whose kinetic locks are applied
 }
 
 // MeasuredGas is a gas as the mixed state has it.
 type MeasuredGas struct {
-	Mol float64 // given off, or held by the headspace when none is given off
-	PPM float64 // equilibrium headspace concentration by volume
+	Mol       float64 // given off, or held by the headspace when none is given off
+	PPM       float64 // equilibrium headspace concentration by volume
+	Dissolved float64 // mol of the molecule left dissolved in the liquid
+}
+
+// InTank is the outcome judged with the gas space of the tank it happens
+// in: a point of a pour holds less liquid than the final mix, but its gas
+// goes into the headspace of the tank sized for the whole (headspaceL). A
+// gas cannot fill that space beyond what the liquid holds of it, given off
+// and dissolved: a few drops of water on a heap of solid give off no
+// headspace-filling gas however high their equilibrium pressure. Only a
+// point with less than a fifth of the tank's headspace in liquid is so
+// bounded: a larger liquid resupplies the gas from its other forms
+// (hypochlorous acid behind chlorine), which the bound does not count.
+func (o *Outcome) InTank(headspaceL float64) {
+	if !(headspaceL > 5*o.VolumeL) {
+		return
+	}
+	o.HeadspaceL = headspaceL
+	for f, m := range o.Measured {
+		l := (m.Mol + m.Dissolved) * litreBarPerMolK() * o.TemperatureK() / (o.PressureKPa / 100)
+		if ppm := l / headspaceL * 1e6; ppm < m.PPM {
+			m.PPM = ppm
+			o.Measured[f] = m
+		}
+	}
 }
 
 // TemperatureK is the mix temperature in kelvin before it reacts.

@@ -68,20 +68,21 @@ func silverAmmonia(o *Outcome) (engine.Hazard, bool) {
 		"Bretherick's Handbook of Reactive Chemical Hazards, silver nitrate with ammonia (from memory)"), true
 }
 
-// hypochloriteCatalysed: copper, nickel and cobalt salts set hypochlorite
-// decomposing to oxygen and heat.
+// hypochloriteCatalysed: copper, nickel and cobalt salts, and manganese
+// (oxidized to manganese dioxide at once), set hypochlorite decomposing to
+// oxygen and heat.
 func hypochloriteCatalysed(o *Outcome) (engine.Hazard, bool) {
 	if hypochloriteAny(o) < 1e-3 {
 		return engine.Hazard{}, false
 	}
-	cat := o.MolarBefore("Cu^2+", "Ni^2+", "Co^2+") + o.MolarBefore("Cu(OH)2", "Ni(OH)2", "Co(OH)2", "CuO", "NiO")
-	if cat < TraceMolar && !o.Named("CuSO4", "CuSO4.5H2O", "CuCl2", "NiSO4", "NiSO4.6H2O", "NiCl2", "CoCl2", "CoSO4") {
+	cat := o.MolarBefore("Cu^2+", "Ni^2+", "Co^2+", "Mn^2+") + o.MolarBefore("Cu(OH)2", "Ni(OH)2", "Co(OH)2", "CuO", "NiO", "MnO2", "Mn(OH)2")
+	if cat < TraceMolar && !o.Named("CuSO4", "CuSO4.5H2O", "CuCl2", "NiSO4", "NiSO4.6H2O", "NiCl2", "CoCl2", "CoSO4", "MnSO4", "MnCl2", "MnO2") {
 		return engine.Hazard{}, false
 	}
 	o2 := hypochloriteAny(o) / 2 * o.VolumeL
 	l := o2 * litreBarPerMolK() * o.TemperatureK() / (o.PressureKPa / 100)
 	return mk("oxygen-surge", engine.Warning,
-		"Copper, nickel or cobalt salts make hypochlorite decompose: up to "+fmtNum(o2, 3)+" mol oxygen ("+fmtNum(l, 3)+" L), with heat, can come off quickly.",
+		"Copper, nickel, cobalt or manganese salts make hypochlorite decompose: up to "+fmtNum(o2, 3)+" mol oxygen ("+fmtNum(l, 3)+" L), with heat, can come off quickly.",
 		"Do not combine in a closed vessel; add the metal liquor slowly to a vented tank, away from oil and grease.",
 		"Bretherick's Handbook of Reactive Chemical Hazards, sodium hypochlorite with metal salts (from memory)"), true
 }

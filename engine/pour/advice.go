@@ -52,6 +52,9 @@ func pairAdvice(x, y engine.PourOrder) string {
 	switch {
 	case wx == 0 && wy == 0:
 		return "Either order: nothing of concern appears along the pour of " + x.Added + " and " + x.Into + "."
+	case wx >= 3 && wy >= 3 && heatOnly(x) && heatOnly(y):
+		return "Neither order is safe with this little water: use more water and run the concentrate into it slowly, with cooling and stirring (" +
+			codes(x) + " while " + x.Added + " runs into " + x.Into + ", " + codes(y) + " the other way)."
 	case wx >= 3 && wy >= 3:
 		return "Neither order is safe: " + codes(x) + " while " + x.Added + " runs into " + x.Into + ", " + codes(y) + " the other way."
 	case wx < wy:
@@ -106,3 +109,16 @@ func pct(f float64) string {
 }
 
 func strconvF(x float64) string { return strconv.FormatFloat(x, 'f', 1, 64) }
+
+// heatCodes are the hazards of heat alone.
+var heatCodes = map[string]bool{"boils": true, "near-boiling": true, "scalding-heat": true, "warms": true}
+
+// heatOnly reports whether every hazard of an order is one of heat.
+func heatOnly(o engine.PourOrder) bool {
+	for _, h := range o.Hazards {
+		if !heatCodes[h.Code] {
+			return false
+		}
+	}
+	return len(o.Hazards) > 0
+}

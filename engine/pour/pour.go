@@ -27,9 +27,22 @@ func Fractions() []float64 { return append([]float64(nil), fractions[:]...) }
 // Evaluate judges one mix and returns its hazards.
 type Evaluate func(req *engine.Request) ([]engine.Hazard, error)
 
+// Local gives the hazards an order of addition meets where the added
+// stream lands, whatever the share poured, which the mix judged as a whole
+// at each point cannot show: water run onto concentrated sulfuric acid boils
+// where it lands although the tank on average stays cool. tank holds the
+// streams already in the tank.
+type Local func(added engine.Stream, tank []engine.Stream) []engine.PourHazard
+
 // Analyse judges the pour of a request's streams. With fewer than two
 // streams there is no pour and it returns nil.
 func Analyse(req *engine.Request, eval Evaluate) *engine.Addition {
+	return AnalyseLocal(req, eval, nil)
+}
+
+// AnalyseLocal is Analyse with the hazards where the added stream lands
+// (nil for none).
+func AnalyseLocal(req *engine.Request, eval Evaluate, local Local) *engine.Addition {
 	n := len(req.Streams)
 	if n < 2 {
 		return nil
@@ -43,6 +56,7 @@ func Analyse(req *engine.Request, eval Evaluate) *engine.Addition {
 				o, pts := order(req, ord[0], ord[1], eval, func(f float64) []engine.Stream {
 					return []engine.Stream{sb, scaled(sa, f)}
 				})
+				o.Hazards = withLocal(o.Hazards, local, req.Streams[ord[0]], req.Streams[ord[1]:ord[1]+1])
 				add.Orders = append(add.Orders, o)
 				add.Points += pts
 				byPair[ord] = o
@@ -50,7 +64,7 @@ func Analyse(req *engine.Request, eval Evaluate) *engine.Addition {
 		}
 	}
 	var pts int
-	add.Sequences, pts = sequences(req, eval, byPair)
+	add.Sequences, pts = sequences(req, eval, byPair, local)
 	add.Points += pts
 	add.Advice = advice(add)
 	if s := sequenceAdvice(add.Sequences); s != "" {
@@ -119,6 +133,19 @@ func order(req *engine.Request, a, b int, eval Evaluate, streams func(f float64)
 		}
 	}
 	return po, pts
+}
+
+// withLocal puts the hazards where the added stream lands before those of
+// the mix along the pour.
+func withLocal(hs []engine.PourHazard, local Local, added engine.Stream, tank []engine.Stream) []engine.PourHazard {
+	if local == nil {
+		return hs
+	}
+	lh := local(added, tank)
+	if len(lh) == 0 {
+		return hs
+	}
+	return append(lh, hs...)
 }
 
 // withAmount gives a stream without an amount the 1 L the engine assumes

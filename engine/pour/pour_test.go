@@ -140,3 +140,30 @@ func TestSequencesFindTheSafeOne(t *testing.T) {
 		t.Errorf("five streams gave %d sequences", len(s))
 	}
 }
+
+// TestLocalHazardsLeadTheOrder: the hazards where the added stream lands
+// come first in its order from the first drop, and steer the advice, even
+// when the mix as a whole meets nothing.
+func TestLocalHazardsLeadTheOrder(t *testing.T) {
+	quiet := func(*engine.Request) ([]engine.Hazard, error) { return nil, nil }
+	local := func(added engine.Stream, tank []engine.Stream) []engine.PourHazard {
+		if added.Text == "water" && len(tank) == 1 && tank[0].Text == "oleum" {
+			return []engine.PourHazard{{Code: "boils", FromFraction: fractions[0], ToFraction: 1, Worst: engine.Danger}}
+		}
+		return nil
+	}
+	req := &engine.Request{Streams: []engine.Stream{{Text: "water", VolumeL: 10}, {Text: "oleum", VolumeL: 1}}}
+	add := AnalyseLocal(req, quiet, local)
+	var got []string
+	for _, o := range add.Orders {
+		if len(o.Hazards) > 0 {
+			got = append(got, o.Added+">"+o.Into+":"+o.Hazards[0].Code)
+		}
+	}
+	if len(got) != 1 || got[0] != "water>oleum:boils" {
+		t.Errorf("orders with hazards %v, want only water into oleum boiling", got)
+	}
+	if !strings.HasPrefix(add.Advice, "Add oleum into water, slowly; never water into oleum") {
+		t.Errorf("advice %q", add.Advice)
+	}
+}

@@ -16,7 +16,7 @@ const MaxSequenceStreams = 4
 // one tank. A step (what the tank holds, the stream run in) is evaluated once
 // however many sequences share it; the first step of each is a pair's order
 // already judged (orders, by added and into stream).
-func sequences(req *engine.Request, eval Evaluate, orders map[[2]int]engine.PourOrder) ([]engine.PourSequence, int) {
+func sequences(req *engine.Request, eval Evaluate, orders map[[2]int]engine.PourOrder, local Local) ([]engine.PourSequence, int) {
 	n := len(req.Streams)
 	if n < 3 || n > MaxSequenceStreams {
 		return nil, 0
@@ -38,7 +38,7 @@ func sequences(req *engine.Request, eval Evaluate, orders map[[2]int]engine.Pour
 			}
 			if !ok {
 				var p int
-				st, p = into(req, tank, added, eval)
+				st, p = into(req, tank, added, eval, local)
 				pts += p
 			}
 			steps[key] = st
@@ -60,7 +60,7 @@ func sequences(req *engine.Request, eval Evaluate, orders map[[2]int]engine.Pour
 }
 
 // into runs stream added into a tank holding the streams of tank.
-func into(req *engine.Request, tank []int, added int, eval Evaluate) (engine.PourOrder, int) {
+func into(req *engine.Request, tank []int, added int, eval Evaluate, local Local) (engine.PourOrder, int) {
 	r := *req
 	r.Streams = make([]engine.Stream, 0, len(tank)+1)
 	names := make([]string, 0, len(tank))
@@ -77,6 +77,7 @@ func into(req *engine.Request, tank []int, added int, eval Evaluate) (engine.Pou
 		return append(sts, scaled(withAmount(r.Streams[len(tank)]), f))
 	})
 	po.Into = strings.Join(names, " + ")
+	po.Hazards = withLocal(po.Hazards, local, req.Streams[added], r.Streams[:len(tank)])
 	return po, pts
 }
 

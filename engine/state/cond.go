@@ -11,9 +11,12 @@ import (
 // before any redox change.
 type Env struct {
 	TempC float64
-	PH    float64
-	Has   func(Group) bool    // any of the group above the presence threshold
-	Molar func(Group) float64 // mol/L of the group (formula units, or atoms of an element group)
+	// ReachC is the temperature the mix reaches by its own heat when that
+	// is known (the caller solves again with it), else TempC.
+	ReachC float64
+	PH     float64
+	Has    func(Group) bool    // any of the group above the presence threshold
+	Molar  func(Group) float64 // mol/L of the group (formula units, or atoms of an element group)
 }
 
 // Cond is a parsed condition of data/locks.txt.
@@ -27,7 +30,7 @@ type (
 	orCond  []Cond
 	notCond struct{ c Cond }
 	cmpCond struct {
-		what string // "t" or "ph"
+		what string // "t", "reach" or "ph"
 		less bool   // < when true, >= when false
 		v    float64
 	}
@@ -80,8 +83,11 @@ func (c notCond) Holds(e Env) bool { return !c.c.Holds(e) }
 
 func (c cmpCond) Holds(e Env) bool {
 	v := e.TempC
-	if c.what == "ph" {
+	switch c.what {
+	case "ph":
 		v = e.PH
+	case "reach":
+		v = math.Max(e.ReachC, e.TempC)
 	}
 	if c.less {
 		return v < c.v
@@ -127,7 +133,8 @@ func join[T Cond](cs []T, sep string) string {
 	return strings.Join(parts, sep)
 }
 
-// parseCond reads a condition: atoms t<N, t>=N, ph<N, ph>=N, has G[, G...];
+// parseCond reads a condition: atoms t<N, t>=N, reach<N, reach>=N, ph<N,
+// ph>=N, has G[, G...], conc(G[, G...])>=N;
 // "not" before an atom or a parenthesised condition; "and" binds before "or".
 func parseCond(s string) (Cond, error) {
 	p := &condParser{toks: condTokens(s)}
@@ -306,7 +313,7 @@ func parseCmp(t string) (Cond, error) {
 		c.v = x
 		return c, nil
 	}
-	for _, what := range []string{"ph", "t"} {
+	for _, what := range []string{"ph", "reach", "t"} {
 		rest, ok := strings.CutPrefix(t, what)
 		if !ok {
 			continue
@@ -328,5 +335,5 @@ func parseCmp(t string) (Cond, error) {
 		c.v = v
 		return c, nil
 	}
-	return nil, fmt.Errorf("%q is not a condition (t<N, t>=N, ph<N, ph>=N, has GROUP, not, and, or)", t)
+	return nil, fmt.Errorf("%q is not a condition (t<N, t>=N, reach<N, reach>=N, ph<N, ph>=N, has GROUP, conc(GROUP)>=N, not, and, or)", t)
 }

@@ -40,9 +40,10 @@ type Rule struct {
 	Group Group
 	// AcidTo, when set, lets a no-gain group grow by the strong acid the mix
 	// as combined holds above that pH (one atom per proton): hydrogen from
-	// metals in acid until the acid is spent, not beyond. BaseTo is the
-	// same for the strong base held below that pH, counted Per atoms per
-	// hydroxide (aluminium in caustic gives up to three hydrogen atoms per
+	// metals in acid until the acid is spent, not beyond; counted Per atoms
+	// per proton (a quarter of a nitrogen per proton for nitric acid taken
+	// to nitric oxide). BaseTo is the same for the strong base held below
+	// that pH, counted Per atoms per hydroxide (aluminium in caustic gives up to three hydrogen atoms per
 	// hydroxide it takes up).
 	AcidTo, BaseTo *float64
 	Per            float64
@@ -210,9 +211,9 @@ func parseRule(s string) (Rule, error) {
 	return r, nil
 }
 
-// parseAllowance reads "acid to ph N" or "base to ph N [x K]".
+// parseAllowance reads "acid to ph N [x K]" or "base to ph N [x K]".
 func (r *Rule) parseAllowance(s string) error {
-	bad := fmt.Errorf(`want "+ acid to ph N" or "+ base to ph N [x K]" after a no-gain group`)
+	bad := fmt.Errorf(`want "+ acid to ph N [x K]" or "+ base to ph N [x K]" after a no-gain group`)
 	if r.Dir != NoGain {
 		return bad
 	}
@@ -227,7 +228,7 @@ func (r *Rule) parseAllowance(s string) error {
 	}
 	r.Per = 1
 	if hasPer {
-		if r.Per, err = strconv.ParseFloat(per, 64); err != nil || r.Per <= 0 || r.Per > 10 || kind == "acid" {
+		if r.Per, err = strconv.ParseFloat(per, 64); err != nil || r.Per <= 0 || r.Per > 10 {
 			return bad
 		}
 	}

@@ -62,6 +62,11 @@ func TestGroupWeights(t *testing.T) {
 		{"C(organic)", "HCO3-", 0},
 		{"C(organic)", "CN-", 0},
 		{"{OCN-, HOCN}", "OCN-", 1},
+		// copper(I) cyanide: read by the average-state rule as Cu(II) and
+		// C(+1) until its row said otherwise, which let plating liquor
+		// "reduce" its copper to metal with its own cyanide
+		{"Cu(1)", "CuCN(s)", 1},
+		{"C(2)", "CuCN(s)", 1},
 	}
 	for _, c := range cases {
 		g, err := parseGroup(c.group)
@@ -180,5 +185,44 @@ func TestConcCondition(t *testing.T) {
 	}
 	if _, err := parseCond("conc(N(5)>=8"); err == nil {
 		t.Error("a conc condition without its closing parenthesis parsed")
+	}
+}
+
+// TestReachCondition: "reach" is the temperature the mix reaches by its own
+// heat, never below the starting temperature.
+func TestReachCondition(t *testing.T) {
+	cases := []struct {
+		tempC, reachC float64
+		cond          string
+		want          bool
+	}{
+		{25, 0, "reach<60", true},
+		{25, 90, "reach<60", false},
+		{70, 0, "reach>=60", true},
+		{25, 59, "reach>=60", false},
+		{25, 90, "t<60 and reach>=60", true},
+	}
+	for _, c := range cases {
+		got, err := parseCond(c.cond)
+		if err != nil {
+			t.Fatalf("parseCond(%q): %v", c.cond, err)
+		}
+		if h := got.Holds(Env{TempC: c.tempC, ReachC: c.reachC}); h != c.want {
+			t.Errorf("%q at %g °C reaching %g °C = %v, want %v", c.cond, c.tempC, c.reachC, h, c.want)
+		}
+	}
+}
+
+// TestAcidAllowancePer: an acid allowance may count K atoms per proton.
+func TestAcidAllowancePer(t *testing.T) {
+	r, err := parseRule("no-gain N(-3..4) + acid to ph 3 x 0.25")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.AcidTo == nil || *r.AcidTo != 3 || r.Per != 0.25 {
+		t.Errorf("parsed %+v, want acid to pH 3 at 0.25 per proton", r)
+	}
+	if _, err := parseRule("no-gain N(-3..4) + acid to ph 3 x 0"); err == nil {
+		t.Error("x 0 accepted")
 	}
 }

@@ -53,7 +53,7 @@ func (m *Model) solveCombined(mx *Mix, n0 []float64, volL float64) (*State, erro
 // from forming (crystalline oxides): they hold for the mix as combined too,
 // judged on the temperature alone.
 func (m *Model) formationRules(mx *Mix, n0 []float64) []lockRule {
-	env := Env{TempC: mx.TempK - 273.15, PH: math.NaN()}
+	env := Env{TempC: mx.TempK - 273.15, ReachC: mx.reachC(), PH: math.NaN()}
 	var out []lockRule
 	for i := range m.Locks {
 		l := &m.Locks[i]
@@ -116,9 +116,10 @@ func (m *Model) env(mx *Mix, s *State, volL float64) Env {
 		return tot / volL
 	}
 	return Env{
-		TempC: mx.TempK - 273.15,
-		PH:    s.PH,
-		Molar: molar,
+		TempC:  mx.TempK - 273.15,
+		ReachC: mx.reachC(),
+		PH:     s.PH,
+		Molar:  molar,
 		Has: func(g Group) bool {
 			tot := 0.0
 			for i, sp := range mx.Species {
@@ -129,6 +130,35 @@ func (m *Model) env(mx *Mix, s *State, volL float64) Env {
 			return volL > 0 && tot/volL >= presence
 		},
 	}
+}
+
+// reachC is the temperature the mix reaches by its own heat: as given, or
+// its starting temperature.
+func (mx *Mix) reachC() float64 {
+	if mx.ReachedC != nil {
+		return *mx.ReachedC
+	}
+	return mx.TempK - 273.15
+}
+
+// HeatDecides reports whether the mix's own heat, taking it to reachedC,
+// changes which locks apply to it (a lock that can hold nothing back in this
+// mix does not count): the mix must then be solved again with
+// Feed.ReachedC set.
+func (m *Model) HeatDecides(mx *Mix, reachedC float64) bool {
+	if mx.Combined == nil || math.IsNaN(reachedC) {
+		return false
+	}
+	now := m.env(mx, mx.Combined, mx.VolumeL)
+	hot := now
+	hot.ReachC = reachedC
+	for i := range m.Locks {
+		l := &m.Locks[i]
+		if l.When != nil && l.When.Holds(now) != l.When.Holds(hot) && !vacuous(mx, l, mx.Initial) {
+			return true
+		}
+	}
+	return false
 }
 
 // constraintSets lists the constraint sets to try: every combination of the
@@ -167,7 +197,7 @@ func (m *Model) acidAllowances(mx *Mix, applied []*Lock, st *State, n0 []float64
 				if err != nil || x >= 0 {
 					continue
 				}
-				spend = -x // the base it takes to reach the pH: the acid that can be spent
+				spend = -x * r.Per // the base it takes to reach the pH: the acid that can be spent
 			case r.BaseTo != nil && combined.PH > *r.BaseTo:
 				x, err := m.titrate(mx, n0, volL, *r.BaseTo)
 				if err != nil || x <= 0 {

@@ -39,12 +39,18 @@ type Feed struct {
 	TempK       float64
 	PressureBar float64
 	PH          *float64 // a pH stated for the whole mix as combined
+	// ReachedC, when set, is the temperature (°C) the mix reaches by its
+	// own heat, found from an earlier solve: lock conditions on "reach"
+	// are judged against it (peroxide that a hot mix decomposes).
+	ReachedC *float64
 }
 
 // Model holds the species data and the locks. It is safe for concurrent use.
 type Model struct {
 	DB    *thermo.DB
 	Locks []Lock
+
+	streams *streamCache // each stream alone per litre (see streamCache)
 }
 
 // NewModel reads data/locks.txt from fsys.
@@ -63,7 +69,7 @@ func NewModel(db *thermo.DB, fsys fs.FS) (*Model, error) {
 			return nil, err
 		}
 	}
-	return &Model{DB: db, Locks: locks}, nil
+	return &Model{DB: db, Locks: locks, streams: newStreamCache()}, nil
 }
 
 // State is one solved state.
@@ -92,7 +98,8 @@ type Mix struct {
 	Final    *State    // the mix at equilibrium under the locks
 	VolumeL  float64
 	TempK    float64
-	Pressure float64 // bar
+	Pressure float64  // bar
+	ReachedC *float64 // the temperature the mix reaches by its own heat, when given (Feed.ReachedC)
 }
 
 // ErrNoLiquid is returned for a feed with no water at all: nothing dissolves.
@@ -103,6 +110,8 @@ func (m *Model) Solve(f Feed) (*Mix, error) {
 	if f.TempK <= 0 || f.PressureBar <= 0 {
 		return nil, fmt.Errorf("state: temperature %g K and pressure %g bar must be positive", f.TempK, f.PressureBar)
 	}
+	// Each stream alone stays at the starting temperature: only the mix
+	// is judged at the temperature its own heat takes it to.
 	mx := &Mix{TempK: f.TempK, Pressure: f.PressureBar}
 	mx.Species = m.candidates(f)
 	index := map[*thermo.Species]int{}
@@ -120,37 +129,34 @@ func (m *Model) Solve(f Feed) (*Mix, error) {
 	// A solid in excess is counted as ten times what everything else could
 	// take from it, but never as more than a fifth of the water in mol, so
 	// that a metal reacting with water itself cannot use the solvent up.
-	excess := 10.0
+	excess, anyExcess := 10.0, false
 	for _, st := range f.Streams {
 		for _, it := range st.Items {
 			excess += 10 * it.Mol * float64(atomCount(it.Species))
+			anyExcess = anyExcess || it.Excess
 		}
 	}
 	if excess > water/5 {
 		excess = water / 5
+	}
+	if anyExcess && excess == water/5 {
 		mx.Notes = append(mx.Notes, fmt.Sprintf("a solid in excess is counted as %.3g mol (a fifth of the water), enough for anything else in the mix to react with", excess))
 	}
 	mx.Initial = make([]float64, len(mx.Species))
 	mx.Streams = make([]*State, len(f.Streams))
 	for si, st := range f.Streams {
-		n0 := m.feedVector(mx, index, st, excess)
 		if st.WaterMol <= 0 {
-			addTo(mx.Initial, n0)
+			addTo(mx.Initial, m.feedVector(mx, index, st, excess))
 			continue
 		}
-		if st.PH != nil {
-			var err error
-			if n0, err = m.fitPH(mx, n0, st.VolumeL, *st.PH); err != nil {
-				return nil, fmt.Errorf("stream %d (%s): %w", si+1, st.Label, err)
-			}
-		}
-		s, err := m.solveLocked(mx, n0, st.VolumeL)
+		s, err := m.streamAlone(mx, index, st, excess)
 		if err != nil {
 			return nil, fmt.Errorf("stream %d (%s): %w", si+1, st.Label, err)
 		}
 		mx.Streams[si] = s
 		addTo(mx.Initial, s.Amount)
 	}
+	mx.ReachedC = f.ReachedC
 	if f.PH != nil {
 		n, err := m.fitPH(mx, mx.Initial, mx.VolumeL, *f.PH)
 		if err != nil {
@@ -165,6 +171,56 @@ func (m *Model) Solve(f Feed) (*Mix, error) {
 	mx.Final = final
 	mx.Combined = final.combined
 	return mx, nil
+}
+
+// streamAlone is a stream's own state, fitted to its stated pH, from the
+// cache when the same stream per litre was solved before.
+//
+// A stream that can be kept is always solved for one litre and scaled, so
+// that its state does not depend on which volume of it was asked first.
+func (m *Model) streamAlone(mx *Mix, index map[*thermo.Species]int, st Stream, excess float64) (*State, error) {
+	key, unit := "", st
+	if st.VolumeL > 0 {
+		unit = st.perLitre()
+		key = m.streams.key(mx, unit)
+	}
+	if s, notes, ok := m.streams.get(key, st.VolumeL); ok {
+		mx.Notes = append(mx.Notes, notes...)
+		return s, nil
+	}
+	vol, n0 := 1.0, m.feedVector(mx, index, unit, excess)
+	if key == "" {
+		vol, n0 = st.VolumeL, m.feedVector(mx, index, st, excess)
+	}
+	before := len(mx.Notes)
+	if st.PH != nil {
+		var err error
+		if n0, err = m.fitPH(mx, n0, vol, *st.PH); err != nil {
+			return nil, err
+		}
+	}
+	s, err := m.solveLocked(mx, n0, vol)
+	if err != nil {
+		return nil, err
+	}
+	if key == "" {
+		return s, nil
+	}
+	m.streams.put(key, s, 1, mx.Notes[before:])
+	return s.scaled(st.VolumeL), nil
+}
+
+// perLitre is the stream scaled to one litre: the key of the cache and the
+// input of its solve are made from the same numbers.
+func (st Stream) perLitre() Stream {
+	u := st
+	u.VolumeL, u.WaterMol = 1, st.WaterMol/st.VolumeL
+	u.Items = make([]Item, len(st.Items))
+	for i, it := range st.Items {
+		it.Mol /= st.VolumeL
+		u.Items[i] = it
+	}
+	return u
 }
 
 func addTo(dst, src []float64) {

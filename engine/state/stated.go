@@ -49,8 +49,19 @@ func (m *Model) fitPH(mx *Mix, n0 []float64, volL, target float64) ([]float64, e
 	if err != nil {
 		return nil, err
 	}
+	if c := math.Abs(x) / volL; c >= statedPHNote {
+		what := "strong acid"
+		if x < 0 {
+			what = "strong base"
+		}
+		mx.Notes = append(mx.Notes, fmt.Sprintf("the stated pH %g stands for about %.2g mol/L of %s that the request does not name: check the pH, or name the acid or base", target, c, what))
+	}
 	return m.withAcid(mx, n0, x), nil
 }
+
+// statedPHNote (mol/L) is the stand-in acid or base above which the answer
+// says that a stated pH adds what the request does not name.
+const statedPHNote = 0.01
 
 // errUnreachable is a pH outside what 20 mol/L of acid or base gives.
 var errUnreachable = errors.New("pH cannot be reached with up to 20 mol/L of acid or base")
@@ -75,6 +86,10 @@ func (m *Model) withAcid(mx *Mix, n0 []float64, x float64) []float64 {
 // (Illinois) on u = asinh(x), where the pH is smooth and monotone.
 func (m *Model) titrate(mx *Mix, n0 []float64, volL, target float64) (float64, error) {
 	f := func(u float64) (float64, error) {
+		// The same solve as the mix as combined, with the locks that keep
+		// listed species from forming: without them cyanide "hydrolyses" to
+		// carbon monoxide and ammonia here and the fit adds a mole of acid
+		// per mole of cyanide.
 		n := m.withAcid(mx, n0, math.Sinh(u))
 		s, err := m.solveCombined(mx, n, volL)
 		if err != nil {

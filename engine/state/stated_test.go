@@ -2,6 +2,7 @@ package state
 
 import (
 	"math"
+	"strings"
 	"testing"
 )
 
@@ -45,5 +46,92 @@ func TestStatedPHHolds(t *testing.T) {
 				t.Errorf("%s stated at pH %g holds pH %.2f", c.name, ph, got)
 			}
 		}
+	}
+}
+
+// A stream alone is solved for one litre and scaled: its state per litre is
+// the same whatever volume of it was solved first, so an answer does not
+// depend on what was asked before it (the cache of streams alone).
+func TestStreamAloneDoesNotDependOnHistory(t *testing.T) {
+	solve := func(m *Model, volL float64) []float64 {
+		ph := 11.0
+		st := Stream{Label: "cyanide", WaterMol: water(volL), VolumeL: volL, PH: &ph,
+			Items: []Item{item(t, m, "Na+", 0.2*volL), item(t, m, "CN-", 0.2*volL)}}
+		mx, err := m.Solve(Feed{TempK: 298.15, PressureBar: 1.01325, Streams: []Stream{st}})
+		if err != nil {
+			t.Fatal(err)
+		}
+		return scaleAll(mx.Streams[0].Amount, 1/volL)
+	}
+	fresh := func() *Model {
+		m, err := NewModel(loadDB(t), dataFS())
+		if err != nil {
+			t.Fatal(err)
+		}
+		return m
+	}
+	a := fresh()
+	first := solve(a, 600)
+	solve(a, 0.6)
+	again := solve(a, 600)
+	b := fresh()
+	solve(b, 0.6)
+	other := solve(b, 600)
+	for i := range first {
+		if first[i] != again[i] || math.Abs(first[i]-other[i]) > 1e-9*math.Abs(first[i]) {
+			t.Fatalf("species %d per litre: %g, then %g, after another volume first %g", i, first[i], again[i], other[i])
+		}
+	}
+}
+
+// A stated pH that stands for acid or base the request does not name (rinse
+// water "at pH 12" holds about 0.01 mol/L of hydroxide) is said in the notes;
+// a cyanide liquor brought from its own pH 11.3 to 11 by a trace of acid is
+// not (pH arithmetic: 10^-2 mol/L of OH- at pH 12, 25 °C).
+func TestStatedPHNamesWhatItAdds(t *testing.T) {
+	m, err := NewModel(loadDB(t), dataFS())
+	if err != nil {
+		t.Fatal(err)
+	}
+	notes := func(ph float64, items ...Item) string {
+		st := Stream{Label: "s", WaterMol: water(1), VolumeL: 1, PH: &ph, Items: items}
+		mx, err := m.Solve(Feed{TempK: 298.15, PressureBar: 1.01325, Streams: []Stream{st}})
+		if err != nil {
+			t.Fatal(err)
+		}
+		return strings.Join(mx.Notes, "; ")
+	}
+	if n := notes(12); !strings.Contains(n, "strong base that the request does not name") {
+		t.Errorf("water at pH 12: notes %q", n)
+	}
+	if n := notes(11, item(t, m, "Na+", 0.2), item(t, m, "CN-", 0.2)); strings.Contains(n, "does not name") {
+		t.Errorf("cyanide at pH 11: notes %q", n)
+	}
+}
+
+// The note on how much a solid in excess is counted as belongs only to mixes
+// that hold such a solid: two dissolved salts never print it, zinc given
+// without an amount into a small volume of acid does.
+func TestExcessNoteOnlyWithExcessSolid(t *testing.T) {
+	m, err := NewModel(loadDB(t), dataFS())
+	if err != nil {
+		t.Fatal(err)
+	}
+	notes := func(items ...Item) string {
+		st := Stream{Label: "s", WaterMol: water(0.01), VolumeL: 0.01, Items: items}
+		mx, err := m.Solve(Feed{TempK: 298.15, PressureBar: 1.01325, Streams: []Stream{st}})
+		if err != nil {
+			t.Fatal(err)
+		}
+		return strings.Join(mx.Notes, "; ")
+	}
+	const note = "a solid in excess is counted"
+	if n := notes(item(t, m, "Na+", 5), item(t, m, "HCO3-", 5)); strings.Contains(n, note) {
+		t.Errorf("dissolved salts: notes %q", n)
+	}
+	zn := item(t, m, "Zn(s)", 0)
+	zn.Excess = true
+	if n := notes(zn, item(t, m, "H+", 0.01), item(t, m, "Cl-", 0.01)); !strings.Contains(n, note) {
+		t.Errorf("zinc in excess: notes %q", n)
 	}
 }

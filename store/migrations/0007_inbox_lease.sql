@@ -1,4 +1,4 @@
--- Version 8: inbox leases, for several processes sharing one database.
+-- Version 7: inbox leases, for several processes sharing one database.
 --
 -- lease_owner names the process answering a pending entry and lease_until
 -- (UTC text, as every time here) how long the entry stays its own: another

@@ -1,4 +1,4 @@
--- Version 9: sites. One database may hold the log, catalogue and digests of
+-- Version 8: sites. One database may hold the log, catalogue and digests of
 -- several sites (plants); every row says which. Rows from before belong to
 -- the site 'main'.
 --

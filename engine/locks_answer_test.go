@@ -1,0 +1,245 @@
+package engine_test
+
+import (
+	"strings"
+	"testing"
+
+	"mixward/engine"
+)
+
+// mixOutcome is what a kinetic-lock case asserts about an answer: amounts in
+// the final composition (summed over the listed species texts), gases, the
+// pH as combined and the locks listed as held back.
+type mixOutcome struct {
+	atLeast map[string]float64 // species text list ("A|B") → at least this many mol
+	atMost  map[string]float64 // species text list → at most this many mol
+	phMin   float64            // pH as combined at least this (0: not checked)
+	held    []string           // locks that must be listed as held back
+	notHeld []string           // locks that must not be listed
+}
+
+// finalMol sums the final composition over a "|"-separated list of species
+// texts; a gas counts both in the final composition and the gas list.
+func finalMol(r *engine.Result, list string) float64 {
+	tot := 0.0
+	for _, text := range strings.Split(list, "|") {
+		for _, a := range r.FinalComposition {
+			if a.Text == text {
+				tot += a.Mol
+			}
+		}
+	}
+	return tot
+}
+
+func heldIDs(r *engine.Result) []string {
+	var out []string
+	for _, h := range r.HeldBack {
+		out = append(out, h.Lock)
+	}
+	return out
+}
+
+func checkOutcome(t *testing.T, req string, want mixOutcome) {
+	t.Helper()
+	r := ask(t, req)
+	for list, min := range want.atLeast {
+		if got := finalMol(r, list); got < min {
+			t.Errorf("%s: %s = %.4g mol, want at least %g", req, list, got, min)
+		}
+	}
+	for list, max := range want.atMost {
+		if got := finalMol(r, list); got > max {
+			t.Errorf("%s: %s = %.4g mol, want at most %g", req, list, got, max)
+		}
+	}
+	if want.phMin != 0 && r.Conditions.PH < want.phMin {
+		t.Errorf("%s: pH as combined %.2f, want at least %g", req, r.Conditions.PH, want.phMin)
+	}
+	held := strings.Join(heldIDs(r), " ")
+	for _, id := range want.held {
+		if !strings.Contains(" "+held+" ", " "+id+" ") {
+			t.Errorf("%s: held back [%s], want %s listed", req, held, id)
+		}
+	}
+	for _, id := range want.notHeld {
+		if strings.Contains(" "+held+" ", " "+id+" ") {
+			t.Errorf("%s: held back [%s], want %s not listed", req, held, id)
+		}
+	}
+}
+
+// TestStatedPHKeepsCyanide: a stream of cyanide at a stated alkaline pH is
+// fitted with the same locks as the mix as combined, so the fit does not
+// "hydrolyse" cyanide to carbon monoxide and ammonia and add a mole of acid
+// per mole of cyanide (pKa of HCN 9.2, CRC Dissociation constants of
+// inorganic acids and bases; from memory).
+func TestStatedPHKeepsCyanide(t *testing.T) {
+	cases := []struct {
+		req  string
+		want mixOutcome
+	}{
+		{"mix 100 L NaCN 0.5 %, pH 11 + 100 L water", mixOutcome{phMin: 10.5, atLeast: map[string]float64{"CN-": 8}, atMost: map[string]float64{"HCN": 2}}},
+		{"mix 100 L NaCN 0.5 %, pH 12 + 100 L water", mixOutcome{phMin: 11.5, atLeast: map[string]float64{"CN-": 9.5}}},
+	}
+	for _, c := range cases {
+		t.Run(c.req, func(t *testing.T) { checkOutcome(t, c.req, c.want) })
+	}
+}
+
+// TestPeroxideDecomposition: hydrogen peroxide falls apart into oxygen with
+// a catalyst (iron, copper, manganese), when the mix gets hot by its own
+// heat, and when concentrated peroxide is made strongly alkaline; clean,
+// dilute, cool peroxide keeps (Bretherick's Handbook of Reactive Chemical
+// Hazards, hydrogen peroxide; from memory). Bulk metal in neutral peroxide
+// is attacked only at its surface while the peroxide decomposes on it
+// (common practice, no source).
+func TestPeroxideDecomposition(t *testing.T) {
+	cases := []struct {
+		req  string
+		want mixOutcome
+	}{
+		// 50 % peroxide into 98 % sulfuric acid boils by the heat of dilution: the peroxide then decomposes.
+		{"mix 10 L H2O2 50 % + 10 L H2SO4 98 %", mixOutcome{atLeast: map[string]float64{"O2(g)": 40}}},
+		// Copper metal catalyses; 116 mol H2O2 gives up to 58 mol O2, and the bulk metal stays.
+		{"mix 10 L H2O2 35 % + 1 kg Cu", mixOutcome{atLeast: map[string]float64{"O2(g)": 50, "Cu(s)": 15}, atMost: map[string]float64{"Cu(OH)2(s)": 0.1}}},
+		{"mix 10 L H2O2 35 % + 1 kg Fe", mixOutcome{atLeast: map[string]float64{"O2(g)": 50, "Fe(s)": 17}}},
+		{"mix 10 L H2O2 5 % + 1 kg Fe", mixOutcome{atLeast: map[string]float64{"O2(g)": 7, "Fe(s)": 17}, atMost: map[string]float64{"Fe(OH)2(s)|Fe(OH)3(s)": 0.1}}},
+		// Sulfide oxidation heats the mix to about 90 °C, where the excess peroxide goes.
+		{"mix 100 L Na2S 2 % + 20 L H2O2 35 %", mixOutcome{atLeast: map[string]float64{"O2(g)": 30}, atMost: map[string]float64{"H2O2|HO2-": 1}}},
+		// Concentrated peroxide in strong caustic: about 580 mol O2 from 1160 mol H2O2.
+		{"mix 100 L H2O2 35 % + 100 L NaOH 50 %", mixOutcome{atLeast: map[string]float64{"O2(g)": 500}}},
+		// Permanganate is reduced to manganese dioxide, which catalyses the rest.
+		{"mix 10 L H2O2 3 % + 10 L KMnO4 0.2 M", mixOutcome{atLeast: map[string]float64{"MnO2(s)": 1.9}, atMost: map[string]float64{"H2O2|HO2-": 0.1, "Mn(OH)2(s)": 0.01}}},
+		// Clean peroxide diluted with water keeps.
+		{"mix 10 L H2O2 35 % + 90 L water", mixOutcome{atLeast: map[string]float64{"H2O2": 110}, atMost: map[string]float64{"O2(g)": 0}, held: []string{"peroxide-self-decomposition"}}},
+		{"mix 10 L H2O2 35 % + 10 L NaOH 0.4 %", mixOutcome{atLeast: map[string]float64{"H2O2|HO2-": 110}, atMost: map[string]float64{"O2(g)": 0}}},
+	}
+	for _, c := range cases {
+		t.Run(c.req, func(t *testing.T) { checkOutcome(t, c.req, c.want) })
+	}
+}
+
+// TestThiosulfateLocks: thiosulfate gives sulfur and bisulfite or sulfur
+// dioxide in acid, as far as the acid goes, and tetrathionate only with an
+// oxidizing agent; in neutral or alkaline solution neither it nor dithionite
+// splits into sulfur and sulfate (Vogel's Textbook of Macro and Semimicro
+// Qualitative Inorganic Analysis, thiosulfate; from memory).
+func TestThiosulfateLocks(t *testing.T) {
+	cases := []struct {
+		req  string
+		want mixOutcome
+	}{
+		{"mix 100 L sodium thiosulfate 10 % + 20 L HCl 10 %", mixOutcome{
+			atLeast: map[string]float64{"S(s)": 10, "H2SO3|HSO3-|SO2(g)": 10},
+			atMost:  map[string]float64{"S4O6^2-": 0.01, "SO4^2-|HSO4-|NaSO4-": 0.01}}},
+		{"mix 100 L Na2S2O3 10 % + 20 L NaOCl 12.5 %", mixOutcome{atLeast: map[string]float64{"SO4^2-|HSO4-|NaSO4-": 10}, atMost: map[string]float64{"S(s)": 0.01}}},
+		{"mix 100 L Na2S2O3 10 % + 1000 L NaOCl 200 ppm", mixOutcome{atMost: map[string]float64{"S(s)": 0.01, "OCl-|HOCl": 0.01}}},
+		{"mix 100 L Na2S2O4 5 % + 10 L NaOCl 12.5 %", mixOutcome{atMost: map[string]float64{"S(s)": 0.01}}},
+	}
+	for _, c := range cases {
+		t.Run(c.req, func(t *testing.T) { checkOutcome(t, c.req, c.want) })
+	}
+}
+
+// TestNitrateLocks: dilute nitric acid does not oxidize peroxide; iron and
+// aluminium are passivated by concentrated nitric acid; metals reduce
+// nitric acid only while the acid lasts, to nitric oxide rather than
+// nitrite (Vogel's Textbook of Macro and Semimicro Qualitative Inorganic
+// Analysis, copper with nitric acid: 3 Cu + 8 H+ + 2 NO3- → 3 Cu2+ + 2 NO +
+// 4 H2O; Greenwood & Earnshaw, passivation; from memory).
+func TestNitrateLocks(t *testing.T) {
+	cases := []struct {
+		req  string
+		want mixOutcome
+	}{
+		{"mix 1000 L HNO3 1 % + 10 L H2O2 35 %", mixOutcome{
+			atLeast: map[string]float64{"H2O2": 110, "NO3-": 150},
+			atMost:  map[string]float64{"NO(g)|NO|NO2(g)|HNO2": 0.01, "O2(g)": 0},
+			held:    []string{"nitrate-needs-strong-reducer"}}},
+		{"mix 1 kg Fe + 10 L HNO3 68 %", mixOutcome{atLeast: map[string]float64{"Fe(s)": 17.9}, atMost: map[string]float64{"NO(g)|NO2(g)|N2O4(g)": 0}, held: []string{"nitric-passivation-iron"}}},
+		{"mix 1 kg Al + 10 L HNO3 68 %", mixOutcome{atLeast: map[string]float64{"Al(s)": 37}, atMost: map[string]float64{"NO(g)|NO2(g)|N2O4(g)": 0}, held: []string{"nitric-passivation-aluminium"}}},
+		// 16.3 mol HNO3 dissolve about 6.1 mol Cu and give about 4.1 mol NO; no copper hydroxide with acid left.
+		{"mix 1 kg Cu + 10 L HNO3 10 %", mixOutcome{
+			atLeast: map[string]float64{"NO(g)": 3.8, "Cu^2+": 5.5},
+			atMost:  map[string]float64{"NO(g)": 4.5, "Cu(OH)2(s)": 0.01}}},
+		{"mix 1 kg Zn + 100 L HNO3 2 %", mixOutcome{atMost: map[string]float64{"NO2-|HNO2": 0.01}}},
+		// A little nitric acid in concentrated hydrochloric acid still oxidizes chloride (aqua regia).
+		{"mix 10 L HCl 37 % + 0.5 L HNO3 65 %", mixOutcome{atLeast: map[string]float64{"Cl2|Cl2(g)": 1e-6, "NO2|NO2(g)|N2O4(g)|NO(g)|NO": 1e-6}, notHeld: []string{"nitrate-needs-strong-reducer"}}},
+		// Concentrated nitric acid still gives nitrogen dioxide with copper.
+		{"mix 1 kg Cu + 10 L HNO3 68 %", mixOutcome{atLeast: map[string]float64{"NO2(g)|N2O4(g)": 15}}},
+		// Copper in excess: 720 mol HNO3 at four per copper give about 180 mol Cu^2+ and 360 N as NO2/N2O4; copper(I) oxide (60 mol before) at most a trace.
+		{"Cu + 50 L HNO3 65 %", mixOutcome{atLeast: map[string]float64{"Cu^2+": 170}, atMost: map[string]float64{"Cu2O(s)|CuO(s)|Cu(OH)2(s)": 1, "Cu^2+": 190}}},
+	}
+	for _, c := range cases {
+		t.Run(c.req, func(t *testing.T) { checkOutcome(t, c.req, c.want) })
+	}
+}
+
+// TestChlorateHeldBack: hypochlorite turns into chlorate over hours to days
+// even when hot, so the answer for the mix as made keeps it and lists the
+// change as held back (White's Handbook of Chlorination, hypochlorite
+// stability; from memory).
+func TestChlorateHeldBack(t *testing.T) {
+	cases := []struct {
+		req  string
+		want mixOutcome
+	}{
+		{"mix 100 L NaOCl 12.5 % + 100 L water at 60 C", mixOutcome{atLeast: map[string]float64{"OCl-|HOCl": 190}, atMost: map[string]float64{"ClO3-|ClO2-": 0}, held: []string{"chlorate-formation"}}},
+		{"mix 100 L NaOCl 12.5 % + 100 L water at 80 C", mixOutcome{atMost: map[string]float64{"ClO3-|ClO2-": 0}}},
+	}
+	for _, c := range cases {
+		t.Run(c.req, func(t *testing.T) { checkOutcome(t, c.req, c.want) })
+	}
+}
+
+// TestCyanideStopsAtCyanate: at pH 10 and above, hypochlorite and peroxide
+// take cyanide to cyanate (alkaline chlorination, first stage) and no
+// cyanogen chloride survives (it hydrolyses to cyanate above pH 10); common
+// practice, no source; Vogel, cyanide reactions, from memory.
+func TestCyanideStopsAtCyanate(t *testing.T) {
+	cases := []struct {
+		req  string
+		want mixOutcome
+	}{
+		{"mix 1000 L NaCN 1 g/L, pH 11 + 50 L NaOCl 12.5 %", mixOutcome{phMin: 10, atLeast: map[string]float64{"OCN-": 19}, atMost: map[string]float64{"CNCl(g)|CNCl": 0, "N2(g)|N2": 0, "HCN|CN-": 0.1}}},
+		{"mix 100 L NaCN 0.5 %, pH 12 + 10 L H2O2 35 %", mixOutcome{phMin: 9.5, atLeast: map[string]float64{"OCN-": 9.5}, atMost: map[string]float64{"HCN|CN-": 0.1}}},
+		{"mix 100 L NaCN 0.5 %, pH 11 + 5 L H2O2 10 %", mixOutcome{phMin: 10, atLeast: map[string]float64{"OCN-": 9.5}, atMost: map[string]float64{"HCN|CN-": 0.1}}},
+	}
+	for _, c := range cases {
+		t.Run(c.req, func(t *testing.T) { checkOutcome(t, c.req, c.want) })
+	}
+}
+
+// TestHotMixStreamsStayCold: the temperature a mix reaches by its own heat
+// undoes locks in the mix, never in a stream alone before it is poured.
+func TestHotMixStreamsStayCold(t *testing.T) {
+	r := ask(t, "mix 100 L Na2S 2 % + 20 L H2O2 35 %")
+	for _, s := range r.Species {
+		if s.Text == "O2(g)" && s.Mol > 0 {
+			t.Errorf("the mix as combined already holds %.3g mol O2(g): the peroxide stream decomposed by itself", s.Mol)
+		}
+	}
+}
+
+// TestProductsAtFinalPH: products that cannot stand at the mix's pH or do
+// not form in a tank: aluminate, not aluminium hydroxide, in strong caustic
+// (Pourbaix, Atlas of Electrochemical Equilibria 1974, aluminium); tin(II),
+// not cassiterite, from tin in hydrochloric acid (Vogel, tin); sulfur, not
+// sulfate, from sulfide with iron(III) (Vogel, sulfides); all from memory.
+func TestProductsAtFinalPH(t *testing.T) {
+	cases := []struct {
+		req  string
+		want mixOutcome
+	}{
+		{"mix 1 kg Al + 20 L NaOH 20 %", mixOutcome{atLeast: map[string]float64{"Al(OH)4-": 36}, atMost: map[string]float64{"Al(OH)3(s)": 0.01}}},
+		// 1 kg Sn is 8.4 mol: at most 8.4 mol H2.
+		{"mix 1 kg Sn + 20 L HCl 10 %", mixOutcome{atLeast: map[string]float64{"Sn^2+|SnOH+": 8}, atMost: map[string]float64{"SnO2(s)": 0, "H2(g)": 8.6}}},
+		{"mix 100 L Na2S 5 % + 100 L FeCl3 40 %", mixOutcome{atLeast: map[string]float64{"S(s)": 50}, atMost: map[string]float64{"SO4^2-|HSO4-|NaSO4-|H2SO3|HSO3-|S4O6^2-|S2O3^2-": 0.01}}},
+		// A strong oxidizing agent still takes sulfide to sulfate.
+		{"mix 100 L Na2S 2 % + 20 L H2O2 35 %", mixOutcome{atLeast: map[string]float64{"SO4^2-|HSO4-|NaSO4-": 20}}},
+	}
+	for _, c := range cases {
+		t.Run(c.req, func(t *testing.T) { checkOutcome(t, c.req, c.want) })
+	}
+}
