@@ -14,6 +14,8 @@ type CopyReport struct {
 	Deliveries    int64        `json:"deliveries"`
 	StreamChanges int64        `json:"stream_changes"`
 	Digests       int64        `json:"digests"`
+	Presses       int64        `json:"presses"`
+	Names         int64        `json:"names"`
 	Verify        VerifyReport `json:"verify"` // of the copy
 }
 
@@ -21,7 +23,8 @@ type CopyReport struct {
 // PostgreSQL or back (or between two of a kind): every row of the chain
 // with its id, hash and site as they are, the hazard rows and search words
 // derived from them, the delivery outcomes, the stream catalogue's history
-// of every site and the digests recorded (whose log heads Verify checks).
+// of every site, the digests recorded (whose log heads Verify checks), the
+// buttons pressed on answers and the names seen for Slack ids.
 // The inbox, which is only a process's work in hand, is not copied.
 //
 // src must verify (with dst's key, if the chain is keyed) and dst must be
@@ -64,6 +67,7 @@ func CopyLog(ctx context.Context, src, dst *DB) (CopyReport, error) {
 		func() error { return copyTable(ctx, src, in, out, &rep.Deliveries, deliveriesCopy) },
 		func() error { return copyTable(ctx, src, in, out, &rep.StreamChanges, streamChangesCopy) },
 		func() error { return copyTable(ctx, src, in, out, &rep.Digests, digestsCopy) },
+		func() error { return copyNames(ctx, src, dst, in, out, &rep) },
 	} {
 		if err := step(); err != nil {
 			return rep, fmt.Errorf("copy the log from %s to %s: %w", src.path, dst.path, err)
@@ -172,7 +176,30 @@ var (
 		var n int64
 		return []any{&v[0], &v[1], &v[2], &v[3], &v[4], &n, &v[5], &v[6]}
 	}}
+	pressesCopy = tableCopy{"presses", "query_id, time, action, user_id, user_name, channel, transport, press_key", "id", func() []any {
+		var id int64
+		v := make([]string, 7)
+		return []any{&id, &v[0], &v[1], &v[2], &v[3], &v[4], &v[5], &v[6]}
+	}}
+	namesCopy = tableCopy{"names", "slack_id, name, first_seen, last_seen", "slack_id, name", func() []any {
+		v := make([]string, 4)
+		return []any{&v[0], &v[1], &v[2], &v[3]}
+	}}
 )
+
+// copyNames copies the presses and the names seen, when src has them.
+func copyNames(ctx context.Context, src, dst *DB, in, out *sql.Tx, rep *CopyReport) error {
+	if !src.hasNames() {
+		return nil
+	}
+	if !dst.hasNames() {
+		return fmt.Errorf("the target's schema has no presses or names; upgrade it first")
+	}
+	if err := copyTable(ctx, src, in, out, &rep.Presses, pressesCopy); err != nil {
+		return err
+	}
+	return copyTable(ctx, src, in, out, &rep.Names, namesCopy)
+}
 
 func copyTable(ctx context.Context, src *DB, in, out *sql.Tx, count *int64, tc tableCopy) error {
 	rows, err := openRows(ctx, in, src.pg, `SELECT `+tc.cols+` FROM `+tc.name+` ORDER BY `+tc.order)

@@ -8,7 +8,7 @@ import (
 )
 
 // copyFixture fills db with rows of two sites, a prune, deliveries,
-// catalogue changes and a digest sent.
+// catalogue changes, a digest sent, a button press and a channel name.
 func copyFixture(t *testing.T, db *DB, other *DB, c *clock) {
 	t.Helper()
 	ctx := context.Background()
@@ -20,6 +20,12 @@ func copyFixture(t *testing.T, db *DB, other *DB, c *clock) {
 		mustLog(t, other, q)
 	}
 	mustRecord(t, db, 7)
+	if err := db.RecordPress(ctx, Press{QueryID: 7, Action: PressPour, UserID: "U02", Channel: "C1", Transport: "http", Key: "9.1/U02"}); err != nil {
+		t.Fatal(err)
+	}
+	if err := db.NoteName(ctx, "C1", "#tank-farm", t0); err != nil {
+		t.Fatal(err)
+	}
 	if _, err := db.Prune(ctx, t0.Add(2*time.Minute), "safety.lead"); err != nil {
 		t.Fatal(err)
 	}
@@ -38,7 +44,7 @@ func copyFixture(t *testing.T, db *DB, other *DB, c *clock) {
 }
 
 // TestCopyLog copies a log to the other backend and back: ids, hashes,
-// sites, prune anchor, catalogue and digests survive, each copy verifies,
+// sites, prune anchor, catalogue, digests, presses and names survive, each copy verifies,
 // and a copy into a log that holds rows is refused.
 func TestCopyLog(t *testing.T) {
 	eachBackend(t, func(t *testing.T, there backend) {
@@ -55,7 +61,8 @@ func TestCopyLog(t *testing.T) {
 
 		mid, _ := there.mustOpenWith(t, Options{Now: c.Now})
 		rep, err := CopyLog(ctx, src, mid)
-		if err != nil || !rep.Verify.OK || rep.Verify.DigestAnchors != 1 || rep.Deliveries != 1 || rep.StreamChanges != 3 || rep.Digests != 1 {
+		if err != nil || !rep.Verify.OK || rep.Verify.DigestAnchors != 1 || rep.Deliveries != 1 || rep.StreamChanges != 3 || rep.Digests != 1 ||
+			rep.Presses != 1 || rep.Names != 1 {
 			t.Fatalf("CopyLog sqlite → %s = %+v, %v", there.name, rep, err)
 		}
 		back, _ := sqliteBackend.mustOpenWith(t, Options{Now: c.Now})
@@ -77,6 +84,12 @@ func TestCopyLog(t *testing.T) {
 			}
 			if ds, err := db.Deliveries(ctx, 7); err != nil || len(ds) != 1 {
 				t.Errorf("copy: deliveries of 7 = %+v, %v", ds, err)
+			}
+			if ps, err := db.Presses(ctx, 7); err != nil || len(ps) != 1 || ps[0].Action != PressPour {
+				t.Errorf("copy: presses of 7 = %+v, %v", ps, err)
+			}
+			if n, err := db.NameAt(ctx, "C1", t0.Add(time.Hour)); err != nil || n != "#tank-farm" {
+				t.Errorf("copy: name of C1 = %q, %v", n, err)
 			}
 			page, err := db.Search(ctx, SearchOptions{Terms: "other site", Site: "north"})
 			if err != nil || len(page.Queries) != 3 {

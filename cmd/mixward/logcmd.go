@@ -912,8 +912,8 @@ postgres:// URL.`)
 		}
 		return nil
 	}
-	fmt.Fprintf(a.stdout, "Copied %d rows of the chain, %d delivery records, %d catalogue changes and %d digest records from %s to %s.\n",
-		rep.Rows, rep.Deliveries, rep.StreamChanges, rep.Digests, dbName(*from), dbName(*to))
+	fmt.Fprintf(a.stdout, "Copied %d rows of the chain, %d delivery records, %d catalogue changes, %d digest records, %d button presses and %d names from %s to %s.\n",
+		rep.Rows, rep.Deliveries, rep.StreamChanges, rep.Digests, rep.Presses, rep.Names, dbName(*from), dbName(*to))
 	return a.printVerify(rep.Verify, "text", store.DisplayName(*to))
 }
 
