@@ -2,7 +2,9 @@ package store
 
 import (
 	"context"
+	"encoding/json"
 	"errors"
+	"fmt"
 	"strings"
 	"testing"
 	"time"
@@ -148,4 +150,58 @@ func TestNormalizeSite(t *testing.T) {
 			t.Errorf("NormalizeSite(%q) error %v does not wrap ErrInvalid", tc.in, err)
 		}
 	}
+}
+
+// TestDigestMixesPerSite: the digest's mix lines, decision counts and
+// askers of one site hold only that site's queries, on both backends, and
+// its heading names the site.
+func TestDigestMixesPerSite(t *testing.T) {
+	eachBackend(t, func(t *testing.T, b backend) {
+		ctx := context.Background()
+		c := newClock(t0)
+		north, dsn := b.mustOpenWith(t, Options{Now: c.Now, Site: "north"})
+		south, err := Open(ctx, dsn, Options{Now: c.Now, Site: "south"})
+		if err != nil {
+			t.Fatal(err)
+		}
+		defer south.Close()
+		decided := func(level string) json.RawMessage {
+			return json.RawMessage(`{"decision":{"level":"` + level + `"}}`)
+		}
+		for i, q := range []struct {
+			db      *DB
+			user    string
+			streams []string
+			level   string
+		}{
+			{north, "UN1", []string{"NaOCl 12.5 %", "HCl 10 %"}, LevelDoNotMix},
+			{north, "UN2", []string{"HCl 10 %", "NaOCl 12.5 %"}, LevelDoNotMix},
+			{south, "US1", []string{"NaOH 50 %", "water"}, LevelWithPrecautions},
+			{south, "US1", []string{"NaCl 3 %", "water"}, LevelNoConcern},
+			{south, "US2", []string{"NaCl 3 %", "water"}, LevelNoConcern},
+		} {
+			c.Add(time.Minute)
+			mustLog(t, q.db, &Query{UserID: q.user, Request: fmt.Sprint("mix ", i), Verdict: VerdictNoReaction,
+				Streams: q.streams, Result: decided(q.level)})
+		}
+		dn, err := north.Digest(ctx, t0, t0.Add(time.Hour))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if dn.Levels != (LevelCounts{DoNotMix: 2}) || len(dn.Mixes) != 1 || dn.Mixes[0].Count != 2 || dn.Mixes[0].People != 2 ||
+			dn.Mixes[0].Mix != "HCl 10 % + NaOCl 12.5 %" || len(dn.Askers) != 2 {
+			t.Errorf("north digest: levels %+v, mixes %+v, askers %+v; want one do-not-mix line asked twice by two", dn.Levels, dn.Mixes, dn.Askers)
+		}
+		if !strings.Contains(dn.Heading(), "site north") {
+			t.Errorf("north heading %q does not name the site", dn.Heading())
+		}
+		ds, err := south.Digest(ctx, t0, t0.Add(time.Hour))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if ds.Levels != (LevelCounts{WithPrecautions: 1, NoConcern: 2}) || len(ds.Mixes) != 2 ||
+			ds.Mixes[0].Level != LevelWithPrecautions || ds.Mixes[1].Count != 2 || ds.Mixes[1].People != 2 {
+			t.Errorf("south digest: levels %+v, mixes %+v; want with-precautions first, then the brine asked twice", ds.Levels, ds.Mixes)
+		}
+	})
 }
