@@ -101,6 +101,8 @@ func (db *DB) Search(ctx context.Context, o SearchOptions) (SearchPage, error) {
 		stmt := `SELECT ` + cols + ` FROM queries q WHERE ` + strings.Join(append(where, match), " AND ") +
 			` ORDER BY q.id DESC LIMIT ? OFFSET ?`
 		err = readPage(ctx, tx, &page, stmt, append(append(args, margs...), page.Limit+1, page.Offset))
+	} else if len(phrases) == 0 && (o.Hazard != "" || len(o.HazardAny) > 0) {
+		err = db.searchHazards(ctx, tx, o, &page, cols, where, args)
 	} else if len(phrases) == 0 {
 		stmt := `SELECT ` + cols + ` FROM queries q WHERE ` + strings.Join(where, " AND ") +
 			` ORDER BY q.id DESC LIMIT ? OFFSET ?`
