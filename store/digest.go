@@ -111,7 +111,6 @@ func (db *DB) Digest(ctx context.Context, since, until time.Time) (*Digest, erro
 		func() error { return digestMixes(ctx, tx, d, window, w, db.pg) },
 		func() error { return digestFlagged(ctx, tx, d, window, w) },
 		func() error { return digestErrors(ctx, tx, d, window, w) },
-		func() error { return digestPairs(ctx, tx, d, window, w) },
 		func() error { return digestHead(ctx, tx, d, until) },
 	} {
 		if err := step(); err != nil {
@@ -121,44 +120,83 @@ func (db *DB) Digest(ctx context.Context, since, until time.Time) (*Digest, erro
 	return d, nil
 }
 
-// digestCounts counts verdicts and askers in one pass over the time index.
-// An asker is a user id: rows of one id under several names are one person.
+// digestCounts counts verdicts, askers and stream pairs in one pass over
+// the site-and-time index, which holds every column it reads (on SQLite;
+// PostgreSQL reads the rows beside it), adding up in Go instead of
+// sorting for two GROUP BYs. An asker is a user id: rows of one id under
+// several names are one person.
 func digestCounts(ctx context.Context, tx *sql.Tx, d *Digest, window string, w []any) error {
-	rows, err := tx.QueryContext(ctx, `SELECT q.user_id, q.user_name, q.verdict, count(*), max(q.time) FROM queries q WHERE `+window+`
-		GROUP BY q.user_id, q.user_name, q.verdict`, w...)
+	rows, err := tx.QueryContext(ctx, `SELECT q.user_id, q.user_name, q.verdict, q.time, q.streams FROM queries q WHERE `+window, w...)
 	if err != nil {
 		return err
 	}
 	defer rows.Close()
-	var ars []askerRow
+	type asker struct{ id, name string }
+	byAsker := map[asker]*askerRow{}
+	pairsOf := map[string][][2]string{} // a stored stream list → its pairs, decoded once
+	counts := map[[2]string]int{}
+	var id, name, v, last, streams string
 	for rows.Next() {
-		var id, name, v, last string
-		var n int
-		if err := rows.Scan(&id, &name, &v, &n, &last); err != nil {
+		if err := rows.Scan(&id, &name, &v, &last, &streams); err != nil {
 			return err
 		}
-		d.Queries += n
+		d.Queries++
 		switch v {
 		case VerdictSpontaneous:
-			d.Verdicts.Spontaneous += n
+			d.Verdicts.Spontaneous++
 		case VerdictNonSpontaneous:
-			d.Verdicts.NonSpontaneous += n
+			d.Verdicts.NonSpontaneous++
 		case VerdictNoReaction:
-			d.Verdicts.NoReaction += n
+			d.Verdicts.NoReaction++
 		case VerdictError:
-			d.Verdicts.Error += n
+			d.Verdicts.Error++
 		}
-		t, err := parseTime(last)
-		if err != nil {
-			return err
+		a := byAsker[asker{id, name}]
+		if a == nil {
+			a = &askerRow{id: id, name: name}
+			byAsker[asker{id, name}] = a
 		}
-		ars = append(ars, askerRow{id: id, name: name, n: n, last: t})
+		a.n++
+		if last > a.lastText {
+			a.lastText = last
+		}
+		if streams == "[]" {
+			continue
+		}
+		ps, ok := pairsOf[streams]
+		if !ok {
+			var ss []string
+			if err := json.Unmarshal([]byte(streams), &ss); err != nil {
+				return fmt.Errorf("stored streams %q: %v", streams, err)
+			}
+			ps = streamPairs(ss)
+			pairsOf[streams] = ps
+		}
+		for _, p := range ps {
+			counts[p]++
+		}
 	}
 	if err := rows.Err(); err != nil {
 		return err
 	}
+	ars := make([]askerRow, 0, len(byAsker))
+	for _, a := range byAsker {
+		t, err := parseTime(a.lastText)
+		if err != nil {
+			return err
+		}
+		a.last = t
+		ars = append(ars, *a)
+	}
+	sort.Slice(ars, func(i, j int) bool {
+		if ars[i].id != ars[j].id {
+			return ars[i].id < ars[j].id
+		}
+		return ars[i].name < ars[j].name
+	})
 	d.Askers = mergeAskers(ars)
 	sortAskers(d.Askers)
+	topPairs(d, counts)
 	return nil
 }
 
@@ -244,33 +282,8 @@ func digestErrors(ctx context.Context, tx *sql.Tx, d *Digest, window string, w [
 	return rows.Err()
 }
 
-func digestPairs(ctx context.Context, tx *sql.Tx, d *Digest, window string, w []any) error {
-	// Operators ask the same mixes again and again: group first, decode
-	// each distinct stream list once.
-	rows, err := tx.QueryContext(ctx, `SELECT q.streams, count(*) FROM queries q WHERE `+window+` AND q.streams <> '[]'
-		GROUP BY q.streams`, w...)
-	if err != nil {
-		return err
-	}
-	defer rows.Close()
-	counts := map[[2]string]int{}
-	var raw []byte
-	var n int
-	for rows.Next() {
-		if err := rows.Scan(&raw, &n); err != nil {
-			return err
-		}
-		var streams []string
-		if err := json.Unmarshal(raw, &streams); err != nil {
-			return fmt.Errorf("stored streams %q: %v", raw, err)
-		}
-		for _, p := range streamPairs(streams) {
-			counts[p] += n
-		}
-	}
-	if err := rows.Err(); err != nil {
-		return err
-	}
+// topPairs keeps the TopPairsN most-asked stream pairs.
+func topPairs(d *Digest, counts map[[2]string]int) {
 	for p, n := range counts {
 		d.TopPairs = append(d.TopPairs, PairCount{Streams: p, Count: n})
 	}
@@ -287,7 +300,6 @@ func digestPairs(ctx context.Context, tx *sql.Tx, d *Digest, window string, w []
 	if len(d.TopPairs) > TopPairsN {
 		d.TopPairs = d.TopPairs[:TopPairsN]
 	}
-	return nil
 }
 
 // streamPairs returns each unordered pair of distinct streams in one

@@ -219,4 +219,5 @@ type askerRow struct {
 	id, name string
 	n        int
 	last     time.Time
+	lastText string // the newest time as stored, while counting
 }
