@@ -106,11 +106,8 @@ func (db *DB) Digest(ctx context.Context, since, until time.Time) (*Digest, erro
 	window := `q.site = ? AND q.kind = 'query' AND q.time >= ? AND q.time < ?`
 	w := []any{db.site, formatTime(since), formatTime(until)}
 	for _, step := range []func() error{
-		func() error { return digestCounts(ctx, tx, d, window, w) },
+		func() error { return digestScan(ctx, tx, d, window, w, db.pg) },
 		func() error { return digestNames(ctx, tx, d, db.hasNames()) },
-		func() error { return digestMixes(ctx, tx, d, window, w, db.pg) },
-		func() error { return digestFlagged(ctx, tx, d, window, w) },
-		func() error { return digestErrors(ctx, tx, d, window, w) },
 		func() error { return digestHead(ctx, tx, d, until) },
 	} {
 		if err := step(); err != nil {
@@ -118,86 +115,6 @@ func (db *DB) Digest(ctx context.Context, since, until time.Time) (*Digest, erro
 		}
 	}
 	return d, nil
-}
-
-// digestCounts counts verdicts, askers and stream pairs in one pass over
-// the site-and-time index, which holds every column it reads (on SQLite;
-// PostgreSQL reads the rows beside it), adding up in Go instead of
-// sorting for two GROUP BYs. An asker is a user id: rows of one id under
-// several names are one person.
-func digestCounts(ctx context.Context, tx *sql.Tx, d *Digest, window string, w []any) error {
-	rows, err := tx.QueryContext(ctx, `SELECT q.user_id, q.user_name, q.verdict, q.time, q.streams FROM queries q WHERE `+window, w...)
-	if err != nil {
-		return err
-	}
-	defer rows.Close()
-	type asker struct{ id, name string }
-	byAsker := map[asker]*askerRow{}
-	pairsOf := map[string][][2]string{} // a stored stream list → its pairs, decoded once
-	counts := map[[2]string]int{}
-	var id, name, v, last, streams string
-	for rows.Next() {
-		if err := rows.Scan(&id, &name, &v, &last, &streams); err != nil {
-			return err
-		}
-		d.Queries++
-		switch v {
-		case VerdictSpontaneous:
-			d.Verdicts.Spontaneous++
-		case VerdictNonSpontaneous:
-			d.Verdicts.NonSpontaneous++
-		case VerdictNoReaction:
-			d.Verdicts.NoReaction++
-		case VerdictError:
-			d.Verdicts.Error++
-		}
-		a := byAsker[asker{id, name}]
-		if a == nil {
-			a = &askerRow{id: id, name: name}
-			byAsker[asker{id, name}] = a
-		}
-		a.n++
-		if last > a.lastText {
-			a.lastText = last
-		}
-		if streams == "[]" {
-			continue
-		}
-		ps, ok := pairsOf[streams]
-		if !ok {
-			var ss []string
-			if err := json.Unmarshal([]byte(streams), &ss); err != nil {
-				return fmt.Errorf("stored streams %q: %v", streams, err)
-			}
-			ps = streamPairs(ss)
-			pairsOf[streams] = ps
-		}
-		for _, p := range ps {
-			counts[p]++
-		}
-	}
-	if err := rows.Err(); err != nil {
-		return err
-	}
-	ars := make([]askerRow, 0, len(byAsker))
-	for _, a := range byAsker {
-		t, err := parseTime(a.lastText)
-		if err != nil {
-			return err
-		}
-		a.last = t
-		ars = append(ars, *a)
-	}
-	sort.Slice(ars, func(i, j int) bool {
-		if ars[i].id != ars[j].id {
-			return ars[i].id < ars[j].id
-		}
-		return ars[i].name < ars[j].name
-	})
-	d.Askers = mergeAskers(ars)
-	sortAskers(d.Askers)
-	topPairs(d, counts)
-	return nil
 }
 
 // sortAskers orders askers by queries asked, then name, then id.
@@ -214,43 +131,6 @@ func sortAskers(as []AskerCount) {
 	})
 }
 
-func digestFlagged(ctx context.Context, tx *sql.Tx, d *Digest, window string, w []any) error {
-	// The time index (which holds the verdict) drives; the hazards are the
-	// hashed JSON of each row, so editing a derived table cannot hide one.
-	rows, err := tx.QueryContext(ctx, `SELECT q.id, q.time, q.user_id, q.user_name, q.channel, q.request, q.resolved, q.hazards
-		  FROM queries q
-		 WHERE `+window+` AND q.verdict = 'spontaneous' AND (q.hazards LIKE '%"danger"%' OR q.hazards LIKE '%"warning"%')
-		 ORDER BY q.time, q.id`, w...)
-	if err != nil {
-		return err
-	}
-	defer rows.Close()
-	for rows.Next() {
-		var f FlaggedMix
-		var ts, raw string
-		if err := rows.Scan(&f.ID, &ts, &f.UserID, &f.UserName, &f.Channel, &f.Request, &f.Resolved, &raw); err != nil {
-			return err
-		}
-		var hz []Hazard
-		if err := json.Unmarshal([]byte(raw), &hz); err != nil {
-			return fmt.Errorf("query %d: stored hazards are not a JSON array: %v", f.ID, err)
-		}
-		for _, h := range hz {
-			if h.Severity == "danger" || h.Severity == "warning" {
-				f.Hazards = append(f.Hazards, h)
-			}
-		}
-		if len(f.Hazards) == 0 {
-			continue
-		}
-		if f.Time, err = parseTime(ts); err != nil {
-			return err
-		}
-		d.Flagged = append(d.Flagged, f)
-	}
-	return rows.Err()
-}
-
 // digestHead finds the newest row logged before until (by id among the
 // rows before it) and its hash.
 func digestHead(ctx context.Context, tx *sql.Tx, d *Digest, until time.Time) error {
@@ -259,27 +139,6 @@ func digestHead(ctx context.Context, tx *sql.Tx, d *Digest, until time.Time) err
 		return err
 	}
 	return tx.QueryRowContext(ctx, `SELECT id, hash FROM queries WHERE id = ?`, hi).Scan(&d.HeadID, &d.HeadHash)
-}
-
-func digestErrors(ctx context.Context, tx *sql.Tx, d *Digest, window string, w []any) error {
-	rows, err := tx.QueryContext(ctx, `SELECT q.id, q.time, q.user_id, q.user_name, q.channel, q.request, q.error
-		  FROM queries q WHERE `+window+` AND q.verdict = 'error' ORDER BY q.time, q.id`, w...)
-	if err != nil {
-		return err
-	}
-	defer rows.Close()
-	for rows.Next() {
-		var p ParseFailure
-		var ts string
-		if err := rows.Scan(&p.ID, &ts, &p.UserID, &p.UserName, &p.Channel, &p.Request, &p.Error); err != nil {
-			return err
-		}
-		if p.Time, err = parseTime(ts); err != nil {
-			return err
-		}
-		d.ParseErrors = append(d.ParseErrors, p)
-	}
-	return rows.Err()
 }
 
 // topPairs keeps the TopPairsN most-asked stream pairs.
