@@ -17,8 +17,8 @@ type digestRow struct {
 	streams, hazards                       string
 }
 
-// digestScan reads every query of the window once, by the site-and-time
-// index, and fills the counts, askers, stream pairs, mix lines, flagged
+// digestScan reads every query of the window once, in the order of the
+// site-and-time index, and fills the counts, askers, stream pairs, mix lines, flagged
 // mixes and parse failures from it in Go: one pass over the rows instead
 // of a GROUP BY sort for the askers, another for the pairs and three more
 // scans. The hazards and decision level are the hashed JSON of each row,
@@ -36,26 +36,20 @@ func digestScan(ctx context.Context, tx *sql.Tx, d *Digest, window string, w []a
 	if err != nil {
 		return err
 	}
-	var all []digestRow
+	defer rows.Close()
+	a := newDigestAdder(d)
+	var r digestRow
 	for rows.Next() {
-		var r digestRow
 		if err := rows.Scan(&r.id, &r.time, &r.user, &r.name, &r.channel, &r.request, &r.resolved, &r.verdict,
 			&r.err, &r.streams, &r.hazards, &r.level); err != nil {
-			rows.Close()
 			return err
 		}
-		all = append(all, r)
+		if err := a.add(&r); err != nil {
+			return err
+		}
 	}
-	rows.Close()
 	if err := rows.Err(); err != nil {
 		return err
-	}
-	sort.Slice(all, func(i, j int) bool { return all[i].id < all[j].id })
-	a := newDigestAdder(d)
-	for i := range all {
-		if err := a.add(&all[i]); err != nil {
-			return err
-		}
 	}
 	return a.finish()
 }
@@ -212,6 +206,10 @@ func (a *digestAdder) finish() error {
 	d.Askers = mergeAskers(ars)
 	sortAskers(d.Askers)
 	topPairs(d, a.counts)
+	for i := range d.Mixes {
+		ids := d.Mixes[i].QueryIDs
+		sort.Slice(ids, func(i, j int) bool { return ids[i] < ids[j] }) // rows come in index order
+	}
 	sortMixes(d.Mixes)
 	byTime := func(ti, tj time.Time, ii, ij int64) bool {
 		if !ti.Equal(tj) {
