@@ -60,6 +60,7 @@ type digestAdder struct {
 	askers  map[[2]string]*askerRow
 	streams map[string][]string
 	pairs   map[string][][2]string
+	names   map[string]string // a stored stream list → its mix name
 	hazards map[string][]Hazard
 	counts  map[[2]string]int
 	mixes   map[[2]string]int
@@ -67,7 +68,7 @@ type digestAdder struct {
 }
 
 func newDigestAdder(d *Digest) *digestAdder {
-	return &digestAdder{d: d, askers: map[[2]string]*askerRow{}, streams: map[string][]string{}, pairs: map[string][][2]string{},
+	return &digestAdder{d: d, askers: map[[2]string]*askerRow{}, streams: map[string][]string{}, pairs: map[string][][2]string{}, names: map[string]string{},
 		hazards: map[string][]Hazard{}, counts: map[[2]string]int{}, mixes: map[[2]string]int{}}
 }
 
@@ -132,6 +133,9 @@ func (a *digestAdder) streamList(raw string) ([]string, [][2]string, error) {
 		return nil, nil, fmt.Errorf("stored streams %q: %v", raw, err)
 	}
 	a.streams[raw], a.pairs[raw] = ss, streamPairs(ss)
+	if len(ss) > 0 {
+		a.names[raw] = mixName(ss, "")
+	}
 	return ss, a.pairs[raw], nil
 }
 
@@ -161,7 +165,11 @@ func (a *digestAdder) flag(r *digestRow, hz []Hazard) error {
 func (a *digestAdder) mix(r *digestRow, ss []string, hz []Hazard) {
 	d := a.d
 	level := judgedLevel(r.level, hz)
-	k := [2]string{level, mixName(ss, r.request)}
+	name, ok := a.names[r.streams]
+	if !ok || name == "" {
+		name = mixName(ss, r.request)
+	}
+	k := [2]string{level, name}
 	i, ok := a.mixes[k]
 	if !ok {
 		i = len(d.Mixes)
@@ -174,7 +182,12 @@ func (a *digestAdder) mix(r *digestRow, ss []string, hz []Hazard) {
 	m.QueryIDs = append(m.QueryIDs, r.id)
 	a.people[i][r.user] = true
 	m.People = len(a.people[i])
-	m.Codes = addCodes(m.Codes, hz)
+	for _, h := range hz {
+		if (h.Severity == "danger" || h.Severity == "warning") && !contains(m.Codes, h.Code) {
+			m.Codes = addCodes(m.Codes, hz)
+			break
+		}
+	}
 	switch level {
 	case LevelDoNotMix:
 		d.Levels.DoNotMix++
