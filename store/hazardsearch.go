@@ -26,7 +26,7 @@ func (db *DB) searchHazards(ctx context.Context, tx *sql.Tx, o SearchOptions, pa
 		codeSQL = `SELECT query_id FROM query_hazards WHERE lower(code) = lower(?) AND query_id < ? ORDER BY query_id DESC LIMIT ?`
 	}
 	need := page.Offset + page.Limit + 1
-	step := min(max(2*need, 256), 4096)
+	step := min(max(need, 64), 4096) // doubled each round: most pages need one
 	cursor := int64(math.MaxInt64)
 	var found []*Query
 	for len(found) < need {
@@ -44,7 +44,7 @@ func (db *DB) searchHazards(ctx context.Context, tx *sql.Tx, o SearchOptions, pa
 		if done {
 			break
 		}
-		cursor = floor
+		cursor, step = floor, min(2*step, 4096)
 	}
 	if page.Offset < len(found) {
 		page.Queries = append(page.Queries, found[page.Offset:min(len(found), need)]...)
