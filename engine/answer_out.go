@@ -293,11 +293,13 @@ const minWaterPerSolid = 9
 
 // tooLittleWater says why the heat of dissolving the mix's solids cannot be
 // estimated, or "" when it can. Solids with their own heats of concentrated
-// solution (data/dilution.txt: sodium and potassium hydroxide) are exempt.
+// solution (data/dilution.txt: sodium and potassium hydroxide) are exempt, and
+// so are near-pure liquids: they mix with water in any ratio (ethanol,
+// glycols, peroxide), so no saturation limits them.
 func tooLittleWater(mx *state.Mix, m *mixture, t *Tables) string {
 	solids := 0.0
 	for _, d := range m.dissolved {
-		if t.Dilution != nil && len(t.Dilution.Points[d.chem.Formula]) > 0 {
+		if d.phase == Liquid || t.Dilution != nil && len(t.Dilution.Points[d.chem.Formula]) > 0 {
 			continue
 		}
 		solids += d.mol

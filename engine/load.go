@@ -872,9 +872,9 @@ func (l *loader) checkDensityOrder() {
 	for _, f := range formulas {
 		pts := l.t.Densities[f]
 		lines := l.densityLines[f]
-		if len(pts) < 2 {
+		if len(pts) < 2 && pts[0].PercentWW != 100 {
 			l.line = lines[0]
-			l.fail("formula", f, "has one density row; give at least two so that concentrations between them can be interpolated")
+			l.fail("formula", f, "has one density row; give at least two so that concentrations between them can be interpolated (a single row is allowed only at 100 %%, for a liquid sold neat)")
 			continue
 		}
 		for i := 1; i < len(pts); i++ {

@@ -192,7 +192,7 @@ func (m *mixture) addStream(st *Stream, si int, t *Tables, seenChem map[string]b
 		switch {
 		case !liquid && st.MassKg > 0 && ch.Class != Metal && ch.Class != SparingSalt:
 			m.dissolved = append(m.dissolved, dissolved{chem: ch, mol: mol, phase: Solid})
-		case liquid && c.Unit == PctWW && c.Value >= pureLiquidPct:
+		case liquid && isNeat(c, t):
 			m.dissolved = append(m.dissolved, dissolved{chem: ch, mol: mol, phase: Liquid})
 		}
 		for _, g := range ch.Gives {
@@ -222,6 +222,27 @@ func (m *mixture) addStream(st *Stream, si int, t *Tables, seenChem map[string]b
 	return fict, assumed, nil
 }
 
+// neatDensity is the density of a liquid sold neat (a molecular chemical
+// with a 100 % row in data/densities.txt: alcohols, glycols, ketones,
+// amines, solvents): a stream naming it without a concentration is that
+// liquid, not a 1 mol/L solution of it.
+func neatDensity(ch *Chemical, t *Tables) (float64, bool) {
+	if ch.Class != Molecular {
+		return 0, false
+	}
+	return t.Density(ch.Formula, 100)
+}
+
+// isNeat reports whether a component is a liquid sold neat named without a
+// concentration, or given at 90 % w/w or more.
+func isNeat(c *Component, t *Tables) bool {
+	if c.Unit == NoConc {
+		_, ok := neatDensity(c.Chemical, t)
+		return ok
+	}
+	return c.Unit == PctWW && c.Value >= pureLiquidPct
+}
+
 // streamIsSolution reports whether a stream without an amount is a liquid:
 // anything but metals and sparingly soluble solids alone.
 func streamIsSolution(st *Stream) bool {
@@ -239,8 +260,13 @@ func streamIsSolution(st *Stream) bool {
 // table of its main component where there is one, else 1.
 func streamDensity(st *Stream, t *Tables) float64 {
 	for _, c := range st.Components {
-		if c.Unit == PctWW {
+		switch c.Unit {
+		case PctWW:
 			if d, ok := t.Density(c.Chemical.Formula, c.Value); ok {
+				return d
+			}
+		case NoConc:
+			if d, ok := neatDensity(c.Chemical, t); ok {
 				return d
 			}
 		}
@@ -280,6 +306,11 @@ func componentMoles(st *Stream, c *Component, vol float64, liquid bool, t *Table
 			}
 			m.note("%s given without an amount: present in excess", ch.Formula)
 			return 0, true, nil
+		}
+		if d, ok := neatDensity(ch, t); ok {
+			molar = d * 1000 / mm
+			m.note("no concentration given for %s: read as the neat liquid (%.4g kg/L, %.3g mol/L)", ch.Formula, d, molar)
+			break
 		}
 		molar = 1
 		m.note("no concentration given for %s: 1 mol/L assumed", ch.Formula)

@@ -54,7 +54,7 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 	}
 	o := hazard.FromResult(res, a.Engine.Tables)
 	alone := a.alone(req)
-	res.Hazards = hazard.Relative(hazard.Judge(o, a.Gases), pick(alone, req.Streams))
+	res.Hazards = hazard.RelativeFinal(hazard.Judge(o, a.Gases), pick(alone, req.Streams))
 	if o.Heat.Known && o.Heat.RiseC != rise(res) {
 		res.Notes = append(res.Notes, fmt.Sprintf("heat counted for the hazards: %.0f kJ, about %+.1f °C (reactions that do not proceed left out)", o.Heat.ReleasedkJ, o.Heat.RiseC))
 	}

@@ -1,6 +1,11 @@
 package hazard
 
-import "mixward/engine"
+import (
+	"sort"
+	"strings"
+
+	"mixward/engine"
+)
 
 // Relative judges a mix against its streams alone: a hazard a stream
 // already carries before anything is mixed (the ammonia over strong ammonia
@@ -8,17 +13,39 @@ import "mixward/engine"
 // own, handled by its data sheet, and mixing is not the cause. Such a
 // hazard is kept as info, unless mixing makes it worse: a gas whose
 // headspace concentration rises above the stream's own, or a hazard whose
-// severity rises.
+// severity rises. Relative judges the points of a pour, where a stream's
+// own gas is the same whichever way it runs; RelativeFinal the final mix.
 func Relative(mix []engine.Hazard, alone []Alone) []engine.Hazard {
+	return relative(mix, alone, false)
+}
+
+// RelativeFinal is Relative for the final mix, with one difference: a toxic
+// gas that stays above its exposure limit over the mix is a warning with the
+// stream's own precautions, not info, even when the stream alone had more:
+// the operator at the tank breathes it whatever its source, so the decision
+// never reads "no concern" beside a gas above its limit.
+func RelativeFinal(mix []engine.Hazard, alone []Alone) []engine.Hazard {
+	return relative(mix, alone, true)
+}
+
+func relative(mix []engine.Hazard, alone []Alone, final bool) []engine.Hazard {
 	out := make([]engine.Hazard, 0, len(mix))
 	for _, h := range mix {
 		if b, ok := ownHazard(h, alone); ok {
-			h.Severity = engine.Info
 			h.Message = "Already in " + b + " before mixing, and mixing does not make it worse: " + h.Message
-			h.Action = "Handle it as that stream's own hazard (its safety data sheet)."
+			if final && h.Gas != nil && h.Severity == engine.Danger {
+				h.Severity = engine.Warning
+				h.Title = strings.TrimPrefix(h.Title, "releases ") + " over the mix above its limit, as over " + b + " alone"
+				h.Action = "Work with extraction running and the precautions of " + b + " itself (its safety data sheet); keep the tank covered."
+			} else {
+				h.Severity = engine.Info
+				h.Action = "Handle it as that stream's own hazard (its safety data sheet)."
+			}
 		}
 		out = append(out, h)
 	}
+	// Danger first, as Judge orders them.
+	sort.SliceStable(out, func(i, j int) bool { return rank(out[i].Severity) > rank(out[j].Severity) })
 	return out
 }
 
