@@ -491,7 +491,7 @@ func fillQuery(q *store.Query, r *engine.Result) {
 		q.Streams = append(q.Streams, s.Label)
 	}
 	if js, err := json.Marshal(r); err == nil {
-		q.Result = js
+		q.Result, q.ResultCompact = js, true
 	}
 }
 

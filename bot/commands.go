@@ -236,6 +236,9 @@ func (b *Bot) search(ctx context.Context, in Incoming, q SearchQuery) Reply {
 		if who == "" {
 			who = lq.UserID
 		}
+		if lq.Site != "" && lq.Site != store.DefaultSite {
+			who += " at " + lq.Site // the search covers every site
+		}
 		where := lq.Channel
 		if nr, ok := b.Searcher.(nameReader); ok {
 			if n, err := nr.NameAt(ctx, lq.Channel, lq.Time); err == nil && n != "" {

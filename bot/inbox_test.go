@@ -406,3 +406,32 @@ func TestInboxOwedAnswerRetriedLaterInTheSameProcess(t *testing.T) {
 		t.Errorf("%d answers, want 1", got)
 	}
 }
+
+// TestHealthReportsDatabase: /healthz names the database and is 503 with
+// "database" down while it does not answer.
+func TestHealthReportsDatabase(t *testing.T) {
+	var dbErr error
+	h := &bot.Health{DatabaseKind: "postgres", Database: func(context.Context) error { return dbErr }}
+	h.SetReady(true)
+	h.SetTransport("http", "listening")
+	get := func() (int, map[string]any) {
+		w := httptest.NewRecorder()
+		h.ServeHTTP(w, httptest.NewRequest("GET", "/healthz", nil))
+		var body map[string]any
+		if err := json.Unmarshal(w.Body.Bytes(), &body); err != nil {
+			t.Fatal(err)
+		}
+		return w.Code, body
+	}
+	code, body := get()
+	db, _ := body["database"].(map[string]any)
+	if code != 200 || db["kind"] != "postgres" || db["ok"] != true {
+		t.Errorf("/healthz with the database up = %d %v", code, body)
+	}
+	dbErr = errors.New("connection refused")
+	code, body = get()
+	db, _ = body["database"].(map[string]any)
+	if code != 503 || body["ready"] != false || db["ok"] != false || db["error"] != "connection refused" || fmt.Sprint(body["down"]) != "[database]" {
+		t.Errorf("/healthz with the database down = %d %v", code, body)
+	}
+}

@@ -1,6 +1,7 @@
 package bot
 
 import (
+	"context"
 	"encoding/json"
 	"net/http"
 	"slices"
@@ -130,6 +131,11 @@ type Health struct {
 
 	// Depth, if set, reports the queue depth in the health answer.
 	Depth func() int
+	// Database, if set, checks the database at each health check: the bot
+	// is not ready while it fails. DatabaseKind names it ("sqlite",
+	// "postgres") in the answer.
+	Database     func(ctx context.Context) error
+	DatabaseKind string
 }
 
 // SetReady marks the bot as serving (true) or draining (false).
@@ -188,6 +194,20 @@ func AdminHandler(m *Metrics, h *Health) http.Handler {
 func (h *Health) ServeHTTP(w http.ResponseWriter, r *http.Request) {
 	ready, states, down := h.Status()
 	body := map[string]any{"ready": ready, "serving": h.ready.Load(), "transports": states, "down": down}
+	if h.Database != nil {
+		ctx, cancel := context.WithTimeout(r.Context(), 2*time.Second)
+		start := time.Now()
+		err := h.Database(ctx)
+		cancel()
+		db := map[string]any{"kind": h.DatabaseKind, "ok": err == nil, "latency_ms": time.Since(start).Milliseconds()}
+		if err != nil {
+			db["error"] = err.Error()
+			down = append(down, "database")
+			ready = false
+			body["ready"], body["down"] = false, down
+		}
+		body["database"] = db
+	}
 	if down == nil {
 		body["down"] = []string{}
 	}

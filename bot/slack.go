@@ -210,6 +210,14 @@ func (s *Slack) record(ctx context.Context, in Incoming) (intake, error) {
 		s.logger().Info("redelivery of an answered event ignored", "event_id", in.EventID)
 		return intakeSkip, nil
 	}
+	if e.LeasedElsewhere {
+		// Another replica took it and is answering it now; if that
+		// replica stops first, the sweep of owed answers (Resume) takes
+		// it over once its lease runs out.
+		s.Metrics.duplicate()
+		s.logger().Info("event taken by another replica", "event_id", in.EventID)
+		return intakeSkip, nil
+	}
 	// Pending (owed from an earlier process) or failed (Slack refused the
 	// post, e.g. the bot was not in the channel): this delivery is the
 	// chance to answer.

@@ -238,3 +238,27 @@ func TestDynamicUserAdvice(t *testing.T) {
 		t.Errorf("mixward.env.example does not say to install the file root-owned, mode 0600")
 	}
 }
+
+// TestReplicasExample: the two-replica example runs two replicas of one
+// site on one PostgreSQL URL without a password in it, under different
+// replica names, and sets only documented variables.
+func TestReplicasExample(t *testing.T) {
+	text := read(t, "compose.replicas.yaml")
+	readme := read(t, "../README.md")
+	set := map[string][]string{}
+	for _, m := range regexp.MustCompile(`(?m)^\s+(MIXWARD_[A-Z_]+): (.+)$`).FindAllStringSubmatch(text, -1) {
+		set[m[1]] = append(set[m[1]], strings.TrimSpace(m[2]))
+	}
+	if dbs := set["MIXWARD_DB"]; len(dbs) != 2 || dbs[0] != dbs[1] || !strings.HasPrefix(dbs[0], "postgres://") || strings.Contains(dbs[0], ":@") ||
+		regexp.MustCompile(`//[^/@]*:[^/@]*@`).MatchString(dbs[0]) {
+		t.Errorf("MIXWARD_DB = %q; want one postgres:// URL without a password, twice", dbs)
+	}
+	if r := set["MIXWARD_REPLICA"]; len(r) != 2 || r[0] == r[1] {
+		t.Errorf("MIXWARD_REPLICA = %q; want two different names", r)
+	}
+	for k := range set {
+		if !strings.Contains(readme, "`"+k+"`") {
+			t.Errorf("compose.replicas.yaml sets %s, which README.md does not document", k)
+		}
+	}
+}

@@ -21,6 +21,9 @@ func (db *DB) Backup(ctx context.Context, dest string) error {
 	if dest == "" {
 		return fmt.Errorf("backup: %w: no destination file", ErrInvalid)
 	}
+	if db.pg {
+		return fmt.Errorf("backup: %w: the log is in PostgreSQL; back it up with pg_dump, or copy it into a SQLite file with 'mixward log copy --from %s --to FILE'", ErrInvalid, db.path)
+	}
 	if _, err := os.Stat(dest); err == nil {
 		return fmt.Errorf("backup: %s already exists; choose a new file name (backups never overwrite)", dest)
 	} else if !errors.Is(err, os.ErrNotExist) {
@@ -105,6 +108,9 @@ func VerifyFileWith(ctx context.Context, path string, key *ChainKey, anchors ...
 func (db *DB) Restore(ctx context.Context, src string) (VerifyReport, error) {
 	if err := db.writable("restore"); err != nil {
 		return VerifyReport{}, err
+	}
+	if db.pg {
+		return VerifyReport{}, fmt.Errorf("restore: %w: the log is in PostgreSQL; restore it with pg_restore, or copy a SQLite backup in with 'mixward log copy --from FILE --to URL'", ErrInvalid)
 	}
 	rep, err := VerifyFileWith(ctx, src, db.key)
 	if err != nil {

@@ -56,23 +56,40 @@ type row struct {
 	Hash           string
 	Chain          string // ChainPlain or ChainKeyed
 	KeyID          string // the key's id for ChainKeyed, else ""
+	Site           string // the site the row belongs to (schema 9)
 }
 
 // rowColumns lists the queries columns in the order of row's fields.
 const rowColumns = `id, kind, time, user_id, user_name, channel, event_id, request, resolved, verdict, error,
 	species, oxidizer, reducer, e_cell_v, e_cell_standard_v, hazards, streams, result, engine_version, data_hash,
-	prev_hash, hash, chain, key_id`
+	prev_hash, hash, chain, key_id, site`
+
+// rowColumnsV7 reads a file of schema version 4–7 (before sites): every
+// row of such a file belongs to the default site.
+const rowColumnsV7 = `id, kind, time, user_id, user_name, channel, event_id, request, resolved, verdict, error,
+	species, oxidizer, reducer, e_cell_v, e_cell_standard_v, hazards, streams, result, engine_version, data_hash,
+	prev_hash, hash, chain, key_id, 'main'`
+
+// siteVersion is the SQLite schema version that brought sites.
+const siteVersion = 8
+
+// namesVersion is the SQLite schema version that brought the presses and
+// names tables.
+const namesVersion = 6
 
 // rowColumnsV3 reads a file of schema version 1–3 (before chain kinds) into
 // the same fields: every row of such a file is plain.
 const rowColumnsV3 = `id, kind, time, user_id, user_name, channel, event_id, request, resolved, verdict, error,
 	species, oxidizer, reducer, e_cell_v, e_cell_standard_v, hazards, streams, result, engine_version, data_hash,
-	prev_hash, hash, 'sha256', ''`
+	prev_hash, hash, 'sha256', '', 'main'`
 
 // rowColumnsFor returns the column list for a file of schema version ver.
 func rowColumnsFor(ver int) string {
-	if ver < 4 {
+	switch {
+	case ver < 4:
 		return rowColumnsV3
+	case ver < siteVersion:
+		return rowColumnsV7
 	}
 	return rowColumns
 }
@@ -81,7 +98,7 @@ func rowColumnsFor(ver int) string {
 func (r *row) scanDest() []any {
 	return []any{&r.ID, &r.Kind, &r.Time, &r.UserID, &r.UserName, &r.Channel, &r.EventID, &r.Request, &r.Resolved,
 		&r.Verdict, &r.Error, &r.Species, &r.Oxidizer, &r.Reducer, &r.ECellV, &r.ECellStandardV, &r.Hazards,
-		&r.Streams, &r.Result, &r.EngineVersion, &r.DataHash, &r.PrevHash, &r.Hash, &r.Chain, &r.KeyID}
+		&r.Streams, &r.Result, &r.EngineVersion, &r.DataHash, &r.PrevHash, &r.Hash, &r.Chain, &r.KeyID, &r.Site}
 }
 
 // Content encodings. A change to an encoding is a new version, so rows
@@ -142,6 +159,11 @@ func encodeContent(e encoder, r *row) {
 	}
 	e.str("engine_version", r.EngineVersion)
 	e.str("data_hash", r.DataHash)
+	if r.Site != DefaultSite && r.Site != "" {
+		// Rows of the default site (every row written before sites) hash
+		// as they always did; a row moved to or from it no longer matches.
+		e.str("site", r.Site)
+	}
 	e.str("prev_hash", r.PrevHash)
 }
 

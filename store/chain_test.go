@@ -24,22 +24,24 @@ func logN(t testing.TB, db *DB, c *clock, n int) []int64 {
 }
 
 func TestVerifyIntact(t *testing.T) {
-	c := newClock(t0)
-	db, _ := mustOpen(t, c.Now)
-	ctx := context.Background()
-	rep, err := db.Verify(ctx)
-	if err != nil || !rep.OK || rep.Rows != 0 {
-		t.Fatalf("Verify(empty) = %+v, %v; want OK with 0 rows", rep, err)
-	}
-	logN(t, db, c, 5)
-	rep, err = db.Verify(ctx)
-	if err != nil || !rep.OK || rep.Rows != 5 || rep.FirstID != 1 || rep.LastID != 5 {
-		t.Fatalf("Verify = %+v, %v; want OK, rows 1–5", rep, err)
-	}
-	last, _ := db.Get(ctx, 5)
-	if rep.HeadHash != last.Hash {
-		t.Errorf("HeadHash = %s, want row 5 hash %s", rep.HeadHash, last.Hash)
-	}
+	eachBackend(t, func(t *testing.T, b backend) {
+		c := newClock(t0)
+		db, _ := b.mustOpen(t, c.Now)
+		ctx := context.Background()
+		rep, err := db.Verify(ctx)
+		if err != nil || !rep.OK || rep.Rows != 0 {
+			t.Fatalf("Verify(empty) = %+v, %v; want OK with 0 rows", rep, err)
+		}
+		logN(t, db, c, 5)
+		rep, err = db.Verify(ctx)
+		if err != nil || !rep.OK || rep.Rows != 5 || rep.FirstID != 1 || rep.LastID != 5 {
+			t.Fatalf("Verify = %+v, %v; want OK, rows 1–5", rep, err)
+		}
+		last, _ := db.Get(ctx, 5)
+		if rep.HeadHash != last.Hash {
+			t.Errorf("HeadHash = %s, want row 5 hash %s", rep.HeadHash, last.Hash)
+		}
+	})
 }
 
 // TestVerifyDetectsEdits edits one row with plain SQL, column by column, as
@@ -103,73 +105,77 @@ func TestVerifyDetectsEdits(t *testing.T) {
 // TestVerifyTailDeletedThenLogged deletes the newest rows by hand, then logs
 // on: the gap in ids gives it away.
 func TestVerifyTailDeletedThenLogged(t *testing.T) {
-	c := newClock(t0)
-	db, path := mustOpen(t, c.Now)
-	ctx := context.Background()
-	logN(t, db, c, 5)
-	if _, err := rawDB(t, path).Exec(`DELETE FROM queries WHERE id >= 4`); err != nil {
-		t.Fatal(err)
-	}
-	logN(t, db, c, 1)
-	rep, _ := db.Verify(ctx)
-	if rep.OK || rep.BrokenID != 6 || !strings.Contains(rep.Problem, "rows 4–5 are missing") {
-		t.Errorf("Verify = %+v; want rows 4–5 reported missing at row 6", rep)
-	}
+	eachBackend(t, func(t *testing.T, b backend) {
+		c := newClock(t0)
+		db, path := b.mustOpen(t, c.Now)
+		ctx := context.Background()
+		logN(t, db, c, 5)
+		if _, err := b.raw(t, path).Exec(`DELETE FROM queries WHERE id >= 4`); err != nil {
+			t.Fatal(err)
+		}
+		logN(t, db, c, 1)
+		rep, _ := db.Verify(ctx)
+		if rep.OK || rep.BrokenID != 6 || !strings.Contains(rep.Problem, "rows 4–5 are missing") {
+			t.Errorf("Verify = %+v; want rows 4–5 reported missing at row 6", rep)
+		}
+	})
 }
 
 func TestPruneKeepsChain(t *testing.T) {
-	c := newClock(t0)
-	db, path := mustOpen(t, c.Now)
-	ctx := context.Background()
-	logN(t, db, c, 10) // 06:00 … 06:09
-	mustRecord(t, db, 2)
+	eachBackend(t, func(t *testing.T, b backend) {
+		c := newClock(t0)
+		db, path := b.mustOpen(t, c.Now)
+		ctx := context.Background()
+		logN(t, db, c, 10) // 06:00 … 06:09
+		mustRecord(t, db, 2)
 
-	n, err := db.Prune(ctx, t0.Add(4*time.Minute), "safety.lead")
-	if err != nil || n != 4 {
-		t.Fatalf("Prune = %d, %v; want 4 deleted", n, err)
-	}
-	rep, err := db.Verify(ctx)
-	if err != nil || !rep.OK {
-		t.Fatalf("Verify after prune = %+v, %v", rep, err)
-	}
-	if rep.FirstID != 5 || rep.LastID != 11 || rep.Queries != 6 || rep.Prunes != 1 || rep.AnchorID != 4 {
-		t.Errorf("Verify = %+v; want rows 5–11, 6 queries, 1 prune, anchor 4", rep)
-	}
-	ps, err := db.Prunes(ctx)
-	if err != nil || len(ps) != 1 || ps[0].By != "safety.lead" || ps[0].Deleted != 4 || !ps[0].Before.Equal(t0.Add(4*time.Minute)) {
-		t.Fatalf("Prunes = %+v, %v", ps, err)
-	}
-	var fts, hz, del int
-	raw := rawDB(t, path)
-	raw.QueryRow(`SELECT count(*) FROM query_fts WHERE docid <= 4`).Scan(&fts)
-	raw.QueryRow(`SELECT count(*) FROM query_hazards WHERE query_id <= 4`).Scan(&hz)
-	raw.QueryRow(`SELECT count(*) FROM deliveries WHERE query_id <= 4`).Scan(&del)
-	if fts+hz+del != 0 {
-		t.Errorf("pruned rows left %d index, %d hazard and %d delivery rows", fts, hz, del)
-	}
+		n, err := db.Prune(ctx, t0.Add(4*time.Minute), "safety.lead")
+		if err != nil || n != 4 {
+			t.Fatalf("Prune = %d, %v; want 4 deleted", n, err)
+		}
+		rep, err := db.Verify(ctx)
+		if err != nil || !rep.OK {
+			t.Fatalf("Verify after prune = %+v, %v", rep, err)
+		}
+		if rep.FirstID != 5 || rep.LastID != 11 || rep.Queries != 6 || rep.Prunes != 1 || rep.AnchorID != 4 {
+			t.Errorf("Verify = %+v; want rows 5–11, 6 queries, 1 prune, anchor 4", rep)
+		}
+		ps, err := db.Prunes(ctx)
+		if err != nil || len(ps) != 1 || ps[0].By != "safety.lead" || ps[0].Deleted != 4 || !ps[0].Before.Equal(t0.Add(4*time.Minute)) {
+			t.Fatalf("Prunes = %+v, %v", ps, err)
+		}
+		var fts, hz, del int
+		raw := b.raw(t, path)
+		raw.QueryRow(`SELECT count(*) FROM query_fts WHERE docid <= 4`).Scan(&fts)
+		raw.QueryRow(`SELECT count(*) FROM query_hazards WHERE query_id <= 4`).Scan(&hz)
+		raw.QueryRow(`SELECT count(*) FROM deliveries WHERE query_id <= 4`).Scan(&del)
+		if fts+hz+del != 0 {
+			t.Errorf("pruned rows left %d index, %d hazard and %d delivery rows", fts, hz, del)
+		}
 
-	// A prune that deletes nothing is recorded and keeps the anchor.
-	if n, err := db.Prune(ctx, t0, "safety.lead"); err != nil || n != 0 {
-		t.Fatalf("second Prune = %d, %v", n, err)
-	}
-	// Logging goes on after a prune.
-	logN(t, db, c, 2)
-	if n, err := db.Prune(ctx, t0.Add(8*time.Minute), "safety.lead"); err != nil || n != 4 {
-		t.Fatalf("third Prune = %d, %v; want rows 5–8 deleted", n, err)
-	}
-	rep, err = db.Verify(ctx)
-	if err != nil || !rep.OK || rep.FirstID != 9 || rep.Prunes != 3 || rep.AnchorID != 8 {
-		t.Fatalf("Verify after three prunes = %+v, %v", rep, err)
-	}
+		// A prune that deletes nothing is recorded and keeps the anchor.
+		if n, err := db.Prune(ctx, t0, "safety.lead"); err != nil || n != 0 {
+			t.Fatalf("second Prune = %d, %v", n, err)
+		}
+		// Logging goes on after a prune.
+		logN(t, db, c, 2)
+		if n, err := db.Prune(ctx, t0.Add(8*time.Minute), "safety.lead"); err != nil || n != 4 {
+			t.Fatalf("third Prune = %d, %v; want rows 5–8 deleted", n, err)
+		}
+		rep, err = db.Verify(ctx)
+		if err != nil || !rep.OK || rep.FirstID != 9 || rep.Prunes != 3 || rep.AnchorID != 8 {
+			t.Fatalf("Verify after three prunes = %+v, %v", rep, err)
+		}
 
-	// Deleting a remaining row by hand is still caught.
-	if _, err := raw.Exec(`DELETE FROM queries WHERE id = 9`); err != nil {
-		t.Fatal(err)
-	}
-	rep, _ = db.Verify(ctx)
-	if rep.OK || rep.BrokenID != 10 {
-		t.Errorf("Verify after deleting the oldest kept row = %+v; want broken at 10", rep)
-	}
+		// Deleting a remaining row by hand is still caught.
+		if _, err := raw.Exec(`DELETE FROM queries WHERE id = 9`); err != nil {
+			t.Fatal(err)
+		}
+		rep, _ = db.Verify(ctx)
+		if rep.OK || rep.BrokenID != 10 {
+			t.Errorf("Verify after deleting the oldest kept row = %+v; want broken at 10", rep)
+		}
+	})
 }
 
 func TestPruneAnchorTampered(t *testing.T) {
@@ -196,30 +202,32 @@ func TestPruneAnchorTampered(t *testing.T) {
 }
 
 func TestPruneEverything(t *testing.T) {
-	c := newClock(t0)
-	db, _ := mustOpen(t, c.Now)
-	ctx := context.Background()
-	logN(t, db, c, 3)
-	if n, err := db.Prune(ctx, t0.Add(time.Hour), "safety.lead"); err != nil || n != 3 {
-		t.Fatalf("Prune = %d, %v", n, err)
-	}
-	rep, err := db.Verify(ctx)
-	if err != nil || !rep.OK || rep.Rows != 1 || rep.Prunes != 1 || rep.AnchorID != 3 {
-		t.Fatalf("Verify = %+v, %v; want just the prune record, anchored at 3", rep, err)
-	}
-	// Pruning everything again removes the first prune record as well.
-	c.Add(2 * time.Hour)
-	logN(t, db, c, 2)
-	if n, err := db.Prune(ctx, c.Now().Add(time.Hour), "safety.lead"); err != nil || n != 3 {
-		t.Fatalf("second Prune = %d, %v; want the 2 queries and the first prune record", n, err)
-	}
-	rep, err = db.Verify(ctx)
-	if err != nil || !rep.OK || rep.Rows != 1 || rep.FirstID != 7 || rep.AnchorID != 6 {
-		t.Fatalf("Verify = %+v, %v; want only prune record 7, anchored at 6", rep, err)
-	}
-	if _, err := db.Prune(ctx, t0, ""); !errors.Is(err, ErrInvalid) {
-		t.Errorf("Prune without a name = %v, want ErrInvalid", err)
-	}
+	eachBackend(t, func(t *testing.T, b backend) {
+		c := newClock(t0)
+		db, _ := b.mustOpen(t, c.Now)
+		ctx := context.Background()
+		logN(t, db, c, 3)
+		if n, err := db.Prune(ctx, t0.Add(time.Hour), "safety.lead"); err != nil || n != 3 {
+			t.Fatalf("Prune = %d, %v", n, err)
+		}
+		rep, err := db.Verify(ctx)
+		if err != nil || !rep.OK || rep.Rows != 1 || rep.Prunes != 1 || rep.AnchorID != 3 {
+			t.Fatalf("Verify = %+v, %v; want just the prune record, anchored at 3", rep, err)
+		}
+		// Pruning everything again removes the first prune record as well.
+		c.Add(2 * time.Hour)
+		logN(t, db, c, 2)
+		if n, err := db.Prune(ctx, c.Now().Add(time.Hour), "safety.lead"); err != nil || n != 3 {
+			t.Fatalf("second Prune = %d, %v; want the 2 queries and the first prune record", n, err)
+		}
+		rep, err = db.Verify(ctx)
+		if err != nil || !rep.OK || rep.Rows != 1 || rep.FirstID != 7 || rep.AnchorID != 6 {
+			t.Fatalf("Verify = %+v, %v; want only prune record 7, anchored at 6", rep, err)
+		}
+		if _, err := db.Prune(ctx, t0, ""); !errors.Is(err, ErrInvalid) {
+			t.Errorf("Prune without a name = %v, want ErrInvalid", err)
+		}
+	})
 }
 
 func mustRecord(t *testing.T, db *DB, id int64) {
@@ -230,28 +238,30 @@ func mustRecord(t *testing.T, db *DB, id int64) {
 }
 
 func TestRecordDelivery(t *testing.T) {
-	c := newClock(t0)
-	db, _ := mustOpen(t, c.Now)
-	ctx := context.Background()
-	id := mustLog(t, db, demoQuery())
-	if err := db.RecordDelivery(ctx, id, false, "rate limited"); err != nil {
-		t.Fatal(err)
-	}
-	c.Add(time.Second)
-	if err := db.RecordDelivery(ctx, id, true, ""); err != nil {
-		t.Fatal(err)
-	}
-	ds, err := db.Deliveries(ctx, id)
-	if err != nil || len(ds) != 2 || ds[0].OK || ds[0].Detail != "rate limited" || !ds[1].OK || !ds[1].Time.Equal(t0.Add(time.Second)) {
-		t.Errorf("Deliveries = %+v, %v", ds, err)
-	}
-	if err := db.RecordDelivery(ctx, 42, true, ""); !errors.Is(err, ErrNotFound) {
-		t.Errorf("RecordDelivery(unknown) = %v, want ErrNotFound", err)
-	}
-	// Deliveries are outside the chain.
-	if rep, _ := db.Verify(ctx); !rep.OK {
-		t.Errorf("Verify after deliveries = %+v", rep)
-	}
+	eachBackend(t, func(t *testing.T, b backend) {
+		c := newClock(t0)
+		db, _ := b.mustOpen(t, c.Now)
+		ctx := context.Background()
+		id := mustLog(t, db, demoQuery())
+		if err := db.RecordDelivery(ctx, id, false, "rate limited"); err != nil {
+			t.Fatal(err)
+		}
+		c.Add(time.Second)
+		if err := db.RecordDelivery(ctx, id, true, ""); err != nil {
+			t.Fatal(err)
+		}
+		ds, err := db.Deliveries(ctx, id)
+		if err != nil || len(ds) != 2 || ds[0].OK || ds[0].Detail != "rate limited" || !ds[1].OK || !ds[1].Time.Equal(t0.Add(time.Second)) {
+			t.Errorf("Deliveries = %+v, %v", ds, err)
+		}
+		if err := db.RecordDelivery(ctx, 42, true, ""); !errors.Is(err, ErrNotFound) {
+			t.Errorf("RecordDelivery(unknown) = %v, want ErrNotFound", err)
+		}
+		// Deliveries are outside the chain.
+		if rep, _ := db.Verify(ctx); !rep.OK {
+			t.Errorf("Verify after deliveries = %+v", rep)
+		}
+	})
 }
 
 func TestHashEncodingUnambiguous(t *testing.T) {

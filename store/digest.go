@@ -15,6 +15,7 @@ import (
 // has stable snake_case fields; times are UTC, TimeZone names the site zone
 // Text renders them in.
 type Digest struct {
+	Site        string         `json:"site"`
 	Since       time.Time      `json:"since"`
 	Until       time.Time      `json:"until"`
 	TimeZone    string         `json:"time_zone"`
@@ -95,22 +96,18 @@ func (db *DB) Digest(ctx context.Context, since, until time.Time) (*Digest, erro
 		return nil, fmt.Errorf("digest: %w: period %s to %s is empty; the start must be before the end",
 			ErrInvalid, since.Format(time.RFC3339), until.Format(time.RFC3339))
 	}
-	d := &Digest{Since: since.UTC(), Until: until.UTC(), TimeZone: db.loc.String(), Location: db.loc,
+	d := &Digest{Site: db.site, Since: since.UTC(), Until: until.UTC(), TimeZone: db.loc.String(), Location: db.loc,
 		Askers: []AskerCount{}, Flagged: []FlaggedMix{}, ParseErrors: []ParseFailure{}, TopPairs: []PairCount{}, Mixes: []MixLine{}}
-	tx, err := db.r.BeginTx(ctx, nil)
+	tx, err := db.readTx(ctx)
 	if err != nil {
 		return nil, fmt.Errorf("digest: %w", err)
 	}
 	defer tx.Rollback()
-	window := `q.kind = 'query' AND q.time >= ? AND q.time < ?`
-	lo, hi := formatTime(since), formatTime(until)
+	window := `q.site = ? AND q.kind = 'query' AND q.time >= ? AND q.time < ?`
+	w := []any{db.site, formatTime(since), formatTime(until)}
 	for _, step := range []func() error{
-		func() error { return digestCounts(ctx, tx, d, window, lo, hi) },
-		func() error { return digestNames(ctx, tx, d, db.ver) },
-		func() error { return digestMixes(ctx, tx, d, window, lo, hi) },
-		func() error { return digestFlagged(ctx, tx, d, window, lo, hi) },
-		func() error { return digestErrors(ctx, tx, d, window, lo, hi) },
-		func() error { return digestPairs(ctx, tx, d, window, lo, hi) },
+		func() error { return digestScan(ctx, tx, d, window, w, db.pg) },
+		func() error { return digestNames(ctx, tx, d, db.hasNames()) },
 		func() error { return digestHead(ctx, tx, d, until) },
 	} {
 		if err := step(); err != nil {
@@ -118,47 +115,6 @@ func (db *DB) Digest(ctx context.Context, since, until time.Time) (*Digest, erro
 		}
 	}
 	return d, nil
-}
-
-// digestCounts counts verdicts and askers in one pass over the time index.
-// An asker is a user id: rows of one id under several names are one person.
-func digestCounts(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi string) error {
-	rows, err := tx.QueryContext(ctx, `SELECT q.user_id, q.user_name, q.verdict, count(*), max(q.time) FROM queries q WHERE `+window+`
-		GROUP BY q.user_id, q.user_name, q.verdict`, lo, hi)
-	if err != nil {
-		return err
-	}
-	defer rows.Close()
-	var ars []askerRow
-	for rows.Next() {
-		var id, name, v, last string
-		var n int
-		if err := rows.Scan(&id, &name, &v, &n, &last); err != nil {
-			return err
-		}
-		d.Queries += n
-		switch v {
-		case VerdictSpontaneous:
-			d.Verdicts.Spontaneous += n
-		case VerdictNonSpontaneous:
-			d.Verdicts.NonSpontaneous += n
-		case VerdictNoReaction:
-			d.Verdicts.NoReaction += n
-		case VerdictError:
-			d.Verdicts.Error += n
-		}
-		t, err := parseTime(last)
-		if err != nil {
-			return err
-		}
-		ars = append(ars, askerRow{id: id, name: name, n: n, last: t})
-	}
-	if err := rows.Err(); err != nil {
-		return err
-	}
-	d.Askers = mergeAskers(ars)
-	sortAskers(d.Askers)
-	return nil
 }
 
 // sortAskers orders askers by queries asked, then name, then id.
@@ -175,43 +131,6 @@ func sortAskers(as []AskerCount) {
 	})
 }
 
-func digestFlagged(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi string) error {
-	// The time index (which holds the verdict) drives; the hazards are the
-	// hashed JSON of each row, so editing a derived table cannot hide one.
-	rows, err := tx.QueryContext(ctx, `SELECT q.id, q.time, q.user_id, q.user_name, q.channel, q.request, q.resolved, q.hazards
-		  FROM queries q
-		 WHERE `+window+` AND q.verdict = 'spontaneous' AND (q.hazards LIKE '%"danger"%' OR q.hazards LIKE '%"warning"%')
-		 ORDER BY q.time, q.id`, lo, hi)
-	if err != nil {
-		return err
-	}
-	defer rows.Close()
-	for rows.Next() {
-		var f FlaggedMix
-		var ts, raw string
-		if err := rows.Scan(&f.ID, &ts, &f.UserID, &f.UserName, &f.Channel, &f.Request, &f.Resolved, &raw); err != nil {
-			return err
-		}
-		var hz []Hazard
-		if err := json.Unmarshal([]byte(raw), &hz); err != nil {
-			return fmt.Errorf("query %d: stored hazards are not a JSON array: %v", f.ID, err)
-		}
-		for _, h := range hz {
-			if h.Severity == "danger" || h.Severity == "warning" {
-				f.Hazards = append(f.Hazards, h)
-			}
-		}
-		if len(f.Hazards) == 0 {
-			continue
-		}
-		if f.Time, err = parseTime(ts); err != nil {
-			return err
-		}
-		d.Flagged = append(d.Flagged, f)
-	}
-	return rows.Err()
-}
-
 // digestHead finds the newest row logged before until (by id among the
 // rows before it) and its hash.
 func digestHead(ctx context.Context, tx *sql.Tx, d *Digest, until time.Time) error {
@@ -222,54 +141,8 @@ func digestHead(ctx context.Context, tx *sql.Tx, d *Digest, until time.Time) err
 	return tx.QueryRowContext(ctx, `SELECT id, hash FROM queries WHERE id = ?`, hi).Scan(&d.HeadID, &d.HeadHash)
 }
 
-func digestErrors(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi string) error {
-	rows, err := tx.QueryContext(ctx, `SELECT q.id, q.time, q.user_id, q.user_name, q.channel, q.request, q.error
-		  FROM queries q WHERE `+window+` AND q.verdict = 'error' ORDER BY q.time, q.id`, lo, hi)
-	if err != nil {
-		return err
-	}
-	defer rows.Close()
-	for rows.Next() {
-		var p ParseFailure
-		var ts string
-		if err := rows.Scan(&p.ID, &ts, &p.UserID, &p.UserName, &p.Channel, &p.Request, &p.Error); err != nil {
-			return err
-		}
-		if p.Time, err = parseTime(ts); err != nil {
-			return err
-		}
-		d.ParseErrors = append(d.ParseErrors, p)
-	}
-	return rows.Err()
-}
-
-func digestPairs(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi string) error {
-	// Operators ask the same mixes again and again: group first, decode
-	// each distinct stream list once.
-	rows, err := tx.QueryContext(ctx, `SELECT q.streams, count(*) FROM queries q WHERE `+window+` AND q.streams <> '[]'
-		GROUP BY q.streams`, lo, hi)
-	if err != nil {
-		return err
-	}
-	defer rows.Close()
-	counts := map[[2]string]int{}
-	var raw []byte
-	var n int
-	for rows.Next() {
-		if err := rows.Scan(&raw, &n); err != nil {
-			return err
-		}
-		var streams []string
-		if err := json.Unmarshal(raw, &streams); err != nil {
-			return fmt.Errorf("stored streams %q: %v", raw, err)
-		}
-		for _, p := range streamPairs(streams) {
-			counts[p] += n
-		}
-	}
-	if err := rows.Err(); err != nil {
-		return err
-	}
+// topPairs keeps the TopPairsN most-asked stream pairs.
+func topPairs(d *Digest, counts map[[2]string]int) {
 	for p, n := range counts {
 		d.TopPairs = append(d.TopPairs, PairCount{Streams: p, Count: n})
 	}
@@ -286,7 +159,6 @@ func digestPairs(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi stri
 	if len(d.TopPairs) > TopPairsN {
 		d.TopPairs = d.TopPairs[:TopPairsN]
 	}
-	return nil
 }
 
 // streamPairs returns each unordered pair of distinct streams in one

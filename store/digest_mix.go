@@ -3,8 +3,6 @@ package store
 import (
 	"context"
 	"database/sql"
-	"encoding/json"
-	"fmt"
 	"sort"
 	"strings"
 	"time"
@@ -49,59 +47,10 @@ func levelRank(l string) int {
 	return 2
 }
 
-// digestMixes groups the answered queries of the window by mix and
-// decision, danger first, then most asked.
-func digestMixes(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi string) error {
-	rows, err := tx.QueryContext(ctx, `SELECT q.id, q.user_id, q.request, q.streams, q.hazards,
-		coalesce(json_extract(q.result, '$.decision.level'), '')
-		  FROM queries q WHERE `+window+` AND q.verdict <> 'error' ORDER BY q.id`, lo, hi)
-	if err != nil {
-		return err
-	}
-	defer rows.Close()
-	idx := map[[2]string]int{}
-	people := map[int]map[string]bool{}
-	for rows.Next() {
-		var id int64
-		var user, req, streams, hazards, level string
-		if err := rows.Scan(&id, &user, &req, &streams, &hazards, &level); err != nil {
-			return err
-		}
-		var ss []string
-		var hz []Hazard
-		if json.Unmarshal([]byte(streams), &ss) != nil || json.Unmarshal([]byte(hazards), &hz) != nil {
-			return fmt.Errorf("query %d: stored streams or hazards are not JSON arrays", id)
-		}
-		level = judgedLevel(level, hz)
-		mix := mixName(ss, req)
-		k := [2]string{level, mix}
-		i, ok := idx[k]
-		if !ok {
-			i = len(d.Mixes)
-			idx[k] = i
-			d.Mixes = append(d.Mixes, MixLine{Level: level, Mix: mix, Codes: []string{}})
-			people[i] = map[string]bool{}
-		}
-		m := &d.Mixes[i]
-		m.Count++
-		m.QueryIDs = append(m.QueryIDs, id)
-		people[i][user] = true
-		m.People = len(people[i])
-		m.Codes = addCodes(m.Codes, hz)
-		switch level {
-		case LevelDoNotMix:
-			d.Levels.DoNotMix++
-		case LevelWithPrecautions:
-			d.Levels.WithPrecautions++
-		default:
-			d.Levels.NoConcern++
-		}
-	}
-	if err := rows.Err(); err != nil {
-		return err
-	}
-	sort.SliceStable(d.Mixes, func(i, j int) bool {
-		a, b := d.Mixes[i], d.Mixes[j]
+// sortMixes orders mix lines danger first, then most asked, then by name.
+func sortMixes(ms []MixLine) {
+	sort.SliceStable(ms, func(i, j int) bool {
+		a, b := ms[i], ms[j]
 		if levelRank(a.Level) != levelRank(b.Level) {
 			return levelRank(a.Level) < levelRank(b.Level)
 		}
@@ -110,7 +59,6 @@ func digestMixes(ctx context.Context, tx *sql.Tx, d *Digest, window, lo, hi stri
 		}
 		return a.Mix < b.Mix
 	})
-	return nil
 }
 
 // judgedLevel is the stored decision level, or one judged from the hazards
@@ -174,8 +122,8 @@ func codeRank(hz []Hazard, code string) int {
 // digestNames names the askers by the newest name noted for their id up to
 // the end of the period (the names table), else the newest name their
 // queries carry; one person is one line whatever names they were seen under.
-func digestNames(ctx context.Context, tx *sql.Tx, d *Digest, ver int) error {
-	if ver < 6 {
+func digestNames(ctx context.Context, tx *sql.Tx, d *Digest, names bool) error {
+	if !names {
 		return nil
 	}
 	for i, a := range d.Askers {
@@ -216,4 +164,5 @@ type askerRow struct {
 	id, name string
 	n        int
 	last     time.Time
+	lastText string // the newest time as stored, while counting
 }

@@ -80,75 +80,79 @@ func scriptShift(t *testing.T, db *DB) {
 }
 
 func TestDigestScriptedShift(t *testing.T) {
-	loc := london(t)
-	path := filepath.Join(t.TempDir(), "mixward.db")
-	db, err := Open(context.Background(), path, Options{Location: loc})
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer db.Close()
-	scriptShift(t, db)
-	since := time.Date(2026, 12, 1, 6, 0, 0, 0, loc)
-	d, err := db.Digest(context.Background(), since, since.Add(12*time.Hour))
-	if err != nil {
-		t.Fatal(err)
-	}
-	if d.Queries != 10 {
-		t.Errorf("Queries = %d, want 10 (06:00 inclusive, 18:00 exclusive)", d.Queries)
-	}
-	if want := (VerdictCounts{Spontaneous: 5, NonSpontaneous: 2, NoReaction: 1, Error: 2}); d.Verdicts != want {
-		t.Errorf("Verdicts = %+v, want %+v", d.Verdicts, want)
-	}
-	var flagged []int64
-	for _, f := range d.Flagged {
-		flagged = append(flagged, f.ID)
-	}
-	if want := []int64{2, 7}; !reflect.DeepEqual(flagged, want) {
-		t.Errorf("flagged ids = %v, want %v (spontaneous with danger/warning only)", flagged, want)
-	}
-	if len(d.Flagged) == 2 && len(d.Flagged[0].Hazards) != 2 {
-		t.Errorf("flagged 2 hazards = %+v, want CL2-GAS and HEAT", d.Flagged[0].Hazards)
-	}
-	if len(d.ParseErrors) != 2 || d.ParseErrors[0].ID != 6 || d.ParseErrors[1].ID != 10 {
-		t.Errorf("ParseErrors = %+v", d.ParseErrors)
-	}
-	if len(d.TopPairs) == 0 || d.TopPairs[0] != (PairCount{Streams: [2]string{"CuSO4 0.5 M", "Zn"}, Count: 3}) {
-		t.Errorf("TopPairs[0] = %+v, want CuSO4 0.5 M + Zn ×3 (whitespace collapsed, repeats once)", d.TopPairs)
-	}
-	if len(d.Askers) != 4 || d.Askers[0] != (AskerCount{"U01", "op.north", 3}) {
-		t.Errorf("Askers = %+v", d.Askers)
-	}
-	golden(t, "digest_day_shift.txt.golden", []byte(d.Text()))
-	js, err := d.JSON()
-	if err != nil {
-		t.Fatal(err)
-	}
-	golden(t, "digest_day_shift.json.golden", js)
-	var back Digest
-	if err := json.Unmarshal(js, &back); err != nil || back.Queries != d.Queries || len(back.Flagged) != 2 {
-		t.Errorf("JSON does not read back: %v", err)
-	}
+	eachBackend(t, func(t *testing.T, b backend) {
+		loc := london(t)
+		path := b.fresh(t)
+		db, err := Open(context.Background(), path, Options{Location: loc})
+		if err != nil {
+			t.Fatal(err)
+		}
+		defer db.Close()
+		scriptShift(t, db)
+		since := time.Date(2026, 12, 1, 6, 0, 0, 0, loc)
+		d, err := db.Digest(context.Background(), since, since.Add(12*time.Hour))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if d.Queries != 10 {
+			t.Errorf("Queries = %d, want 10 (06:00 inclusive, 18:00 exclusive)", d.Queries)
+		}
+		if want := (VerdictCounts{Spontaneous: 5, NonSpontaneous: 2, NoReaction: 1, Error: 2}); d.Verdicts != want {
+			t.Errorf("Verdicts = %+v, want %+v", d.Verdicts, want)
+		}
+		var flagged []int64
+		for _, f := range d.Flagged {
+			flagged = append(flagged, f.ID)
+		}
+		if want := []int64{2, 7}; !reflect.DeepEqual(flagged, want) {
+			t.Errorf("flagged ids = %v, want %v (spontaneous with danger/warning only)", flagged, want)
+		}
+		if len(d.Flagged) == 2 && len(d.Flagged[0].Hazards) != 2 {
+			t.Errorf("flagged 2 hazards = %+v, want CL2-GAS and HEAT", d.Flagged[0].Hazards)
+		}
+		if len(d.ParseErrors) != 2 || d.ParseErrors[0].ID != 6 || d.ParseErrors[1].ID != 10 {
+			t.Errorf("ParseErrors = %+v", d.ParseErrors)
+		}
+		if len(d.TopPairs) == 0 || d.TopPairs[0] != (PairCount{Streams: [2]string{"CuSO4 0.5 M", "Zn"}, Count: 3}) {
+			t.Errorf("TopPairs[0] = %+v, want CuSO4 0.5 M + Zn ×3 (whitespace collapsed, repeats once)", d.TopPairs)
+		}
+		if len(d.Askers) != 4 || d.Askers[0] != (AskerCount{"U01", "op.north", 3}) {
+			t.Errorf("Askers = %+v", d.Askers)
+		}
+		golden(t, "digest_day_shift.txt.golden", []byte(d.Text()))
+		js, err := d.JSON()
+		if err != nil {
+			t.Fatal(err)
+		}
+		golden(t, "digest_day_shift.json.golden", js)
+		var back Digest
+		if err := json.Unmarshal(js, &back); err != nil || back.Queries != d.Queries || len(back.Flagged) != 2 {
+			t.Errorf("JSON does not read back: %v", err)
+		}
+	})
 }
 
 func TestDigestEmptyNightShift(t *testing.T) {
-	loc := london(t)
-	path := filepath.Join(t.TempDir(), "mixward.db")
-	db, err := Open(context.Background(), path, Options{Location: loc})
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer db.Close()
-	since := time.Date(2026, 12, 1, 18, 0, 0, 0, loc)
-	d, err := db.Digest(context.Background(), since, since.Add(12*time.Hour))
-	if err != nil {
-		t.Fatal(err)
-	}
-	golden(t, "digest_empty_night.txt.golden", []byte(d.Text()))
-	js, _ := d.JSON()
-	golden(t, "digest_empty_night.json.golden", js)
-	if _, err := db.Digest(context.Background(), since, since); err == nil {
-		t.Error("Digest over an empty period succeeded")
-	}
+	eachBackend(t, func(t *testing.T, b backend) {
+		loc := london(t)
+		path := b.fresh(t)
+		db, err := Open(context.Background(), path, Options{Location: loc})
+		if err != nil {
+			t.Fatal(err)
+		}
+		defer db.Close()
+		since := time.Date(2026, 12, 1, 18, 0, 0, 0, loc)
+		d, err := db.Digest(context.Background(), since, since.Add(12*time.Hour))
+		if err != nil {
+			t.Fatal(err)
+		}
+		golden(t, "digest_empty_night.txt.golden", []byte(d.Text()))
+		js, _ := d.JSON()
+		golden(t, "digest_empty_night.json.golden", js)
+		if _, err := db.Digest(context.Background(), since, since); err == nil {
+			t.Error("Digest over an empty period succeeded")
+		}
+	})
 }
 
 func TestStreamPairs(t *testing.T) {

@@ -53,6 +53,9 @@ func (d *Digest) Heading() string {
 	loc := d.loc()
 	since, until := d.Since.In(loc), d.Until.In(loc)
 	h := fmt.Sprintf("Shift digest %s – %s", since.Format("Mon 02 Jan 2006 15:04 MST"), untilHeader(since, until))
+	if d.Site != "" && d.Site != DefaultSite {
+		h += ", site " + Printable(d.Site)
+	}
 	if name := loc.String(); name != until.Format("MST") {
 		h += " (" + name + ")"
 	}

@@ -20,7 +20,7 @@ type Entry struct {
 // (zero times do not bound), oldest first, including prune records, so an
 // auditor can re-check the hashes.
 func (db *DB) Export(ctx context.Context, since, until time.Time, fn func(*Entry) error) error {
-	where, args := `1`, []any{}
+	where, args := `TRUE`, []any{}
 	if !since.IsZero() {
 		where += ` AND time >= ?`
 		args = append(args, formatTime(since))
@@ -29,7 +29,7 @@ func (db *DB) Export(ctx context.Context, since, until time.Time, fn func(*Entry
 		where += ` AND time < ?`
 		args = append(args, formatTime(until))
 	}
-	tx, err := db.r.BeginTx(ctx, nil)
+	tx, err := db.readTx(ctx)
 	if err != nil {
 		return fmt.Errorf("export: %w", err)
 	}

@@ -4,6 +4,7 @@ import (
 	"context"
 	"database/sql"
 	"fmt"
+	"sort"
 	"time"
 )
 
@@ -24,6 +25,10 @@ type InboxEntry struct {
 	State    string    // InboxPending, InboxPosted or InboxFailed
 	Attempts int       // outcomes recorded so far
 	Detail   string    // what the last outcome said
+	// LeasedElsewhere is true (from InboxEntryFor) when the entry is
+	// pending and another replica holds its lease: that replica is
+	// answering it (Options.InboxLease).
+	LeasedElsewhere bool
 }
 
 // Outcome is what came of posting the answer to an inbox entry.
@@ -51,8 +56,14 @@ func (db *DB) AcceptMessages(ctx context.Context, entries []InboxEntry) ([]bool,
 		if e.Received.IsZero() {
 			e.Received = db.now()
 		}
-		res, err := tx.ExecContext(ctx, `INSERT INTO inbox (event_id, received, thread, message) VALUES (?, ?, ?, ?)
-			ON CONFLICT (event_id) DO NOTHING`, clean(e.EventID), formatTime(e.Received), clean(e.Thread), string(e.Message))
+		ins, args := `INSERT INTO inbox (event_id, received, thread, message) VALUES (?, ?, ?, ?)
+			ON CONFLICT (event_id) DO NOTHING`, []any{clean(e.EventID), formatTime(e.Received), clean(e.Thread), string(e.Message)}
+		if db.lease > 0 {
+			ins = `INSERT INTO inbox (event_id, received, thread, message, lease_owner, lease_until) VALUES (?, ?, ?, ?, ?, ?)
+			ON CONFLICT (event_id) DO NOTHING`
+			args = append(args, db.replica, formatTime(db.now().Add(db.lease)))
+		}
+		res, err := tx.ExecContext(ctx, ins, args...)
 		if err != nil {
 			return nil, fmt.Errorf("accept messages: event %q: %w", e.EventID, err)
 		}
@@ -70,13 +81,46 @@ func (db *DB) AcceptMessages(ctx context.Context, entries []InboxEntry) ([]bool,
 
 // PendingMessages lists up to limit pending entries with seq above
 // afterSeq, oldest first.
+//
+// With an inbox lease (Options.InboxLease) it lists only the entries this
+// replica holds or whose lease ran out, and takes them, leased anew: of
+// several replicas sweeping at once, each entry goes to one (on
+// PostgreSQL the rows are locked FOR UPDATE SKIP LOCKED; SQLite has one
+// writer at a time).
 func (db *DB) PendingMessages(ctx context.Context, afterSeq int64, limit int) ([]InboxEntry, error) {
+	if db.lease > 0 {
+		return db.claimPending(ctx, afterSeq, limit)
+	}
 	rows, err := db.r.QueryContext(ctx, `SELECT seq, event_id, received, thread, message, state, attempts, detail
 		FROM inbox WHERE state = 'pending' AND seq > ? ORDER BY seq LIMIT ?`, afterSeq, limit)
 	if err != nil {
 		return nil, fmt.Errorf("pending messages: %w", err)
 	}
 	defer rows.Close()
+	return scanInbox(rows)
+}
+
+func (db *DB) claimPending(ctx context.Context, afterSeq int64, limit int) ([]InboxEntry, error) {
+	lock := ""
+	if db.pg {
+		lock = " FOR UPDATE SKIP LOCKED"
+	}
+	now := db.now()
+	rows, err := db.w.QueryContext(ctx, `UPDATE inbox SET lease_owner = ?, lease_until = ?
+		WHERE seq IN (SELECT seq FROM inbox WHERE state = 'pending' AND seq > ? AND (lease_owner = ? OR lease_until < ?)
+		              ORDER BY seq LIMIT ?`+lock+`)
+		RETURNING seq, event_id, received, thread, message, state, attempts, detail`,
+		db.replica, formatTime(now.Add(db.lease)), afterSeq, db.replica, formatTime(now), limit)
+	if err != nil {
+		return nil, fmt.Errorf("pending messages: %w", err)
+	}
+	defer rows.Close()
+	out, err := scanInbox(rows)
+	sort.Slice(out, func(i, j int) bool { return out[i].Seq < out[j].Seq })
+	return out, err
+}
+
+func scanInbox(rows *sql.Rows) ([]InboxEntry, error) {
 	var out []InboxEntry
 	for rows.Next() {
 		var e InboxEntry
@@ -84,6 +128,7 @@ func (db *DB) PendingMessages(ctx context.Context, afterSeq int64, limit int) ([
 		if err := rows.Scan(&e.Seq, &e.EventID, &at, &e.Thread, &msg, &e.State, &e.Attempts, &e.Detail); err != nil {
 			return nil, fmt.Errorf("pending messages: %w", err)
 		}
+		var err error
 		if e.Received, err = parseTime(at); err != nil {
 			return nil, fmt.Errorf("pending messages: inbox %d: %w", e.Seq, err)
 		}
@@ -96,9 +141,14 @@ func (db *DB) PendingMessages(ctx context.Context, afterSeq int64, limit int) ([
 // InboxEntryFor returns the inbox entry of eventID, or ErrNotFound.
 func (db *DB) InboxEntryFor(ctx context.Context, eventID string) (InboxEntry, error) {
 	var e InboxEntry
-	var at, msg string
-	err := db.r.QueryRowContext(ctx, `SELECT seq, event_id, received, thread, message, state, attempts, detail
-		FROM inbox WHERE event_id = ?`, eventID).Scan(&e.Seq, &e.EventID, &at, &e.Thread, &msg, &e.State, &e.Attempts, &e.Detail)
+	var at, msg, owner, until string
+	cols := `seq, event_id, received, thread, message, state, attempts, detail, '', ''`
+	if db.lease > 0 {
+		cols = `seq, event_id, received, thread, message, state, attempts, detail, lease_owner, lease_until`
+	}
+	err := db.r.QueryRowContext(ctx, `SELECT `+cols+`
+		FROM inbox WHERE event_id = ?`, eventID).Scan(&e.Seq, &e.EventID, &at, &e.Thread, &msg, &e.State, &e.Attempts, &e.Detail, &owner, &until)
+	e.LeasedElsewhere = e.State == InboxPending && owner != "" && owner != db.replica && until > formatTime(db.now())
 	if err == sql.ErrNoRows {
 		return e, fmt.Errorf("inbox entry %q: %w", eventID, ErrNotFound)
 	}
@@ -140,8 +190,8 @@ func (db *DB) FinishMessages(ctx context.Context, outs []Outcome) error {
 		}
 		if o.QueryID > 0 {
 			if _, err := tx.ExecContext(ctx, `INSERT INTO deliveries (query_id, time, ok, detail)
-				SELECT ?, ?, ?, ? WHERE EXISTS (SELECT 1 FROM queries WHERE id = ? AND kind = 'query')`,
-				o.QueryID, now, o.State == InboxPosted, clean(o.Detail), o.QueryID); err != nil {
+				SELECT id, CAST(? AS TEXT), CAST(? AS BOOLEAN), CAST(? AS TEXT) FROM queries WHERE id = ? AND kind = 'query'`,
+				now, o.State == InboxPosted, clean(o.Detail), o.QueryID); err != nil {
 				return fmt.Errorf("finish messages: delivery of query %d: %w", o.QueryID, err)
 			}
 		}
@@ -162,3 +212,7 @@ func (db *DB) PruneInbox(ctx context.Context, before time.Time) (int64, error) {
 	}
 	return res.RowsAffected()
 }
+
+// InboxLease is how long a pending entry stays with the replica that took
+// it (Options.InboxLease); 0 when there are no leases.
+func (db *DB) InboxLease() time.Duration { return db.lease }

@@ -14,6 +14,9 @@ import (
 //go:embed migrations/*.sql
 var migrationFS embed.FS
 
+//go:embed pgmigrations/*.sql
+var pgMigrationFS embed.FS
+
 // migration is one schema step; version n is migrations[n-1].
 type migration struct {
 	version int
@@ -23,10 +26,14 @@ type migration struct {
 
 // migrations are the embedded schema steps in order. Their file names are
 // NNNN_name.sql with NNNN = 1, 2, 3 … without gaps.
-var migrations = loadMigrations()
+var migrations = loadMigrations(migrationFS, "migrations")
 
-func loadMigrations() []migration {
-	names, err := fs.Glob(migrationFS, "migrations/*.sql")
+// pgMigrations are PostgreSQL's schema steps, in the same scheme, in
+// pgmigrations/.
+var pgMigrations = loadMigrations(pgMigrationFS, "pgmigrations")
+
+func loadMigrations(fsys embed.FS, dir string) []migration {
+	names, err := fs.Glob(fsys, dir+"/*.sql")
 	if err != nil {
 		panic("store: " + err.Error())
 	}
@@ -39,7 +46,7 @@ func loadMigrations() []migration {
 		if !ok || err != nil || v != i+1 {
 			panic(fmt.Sprintf("store: migration %s: want version %d as NNNN_name.sql", base, i+1))
 		}
-		b, err := migrationFS.ReadFile(n)
+		b, err := fsys.ReadFile(n)
 		if err != nil {
 			panic("store: " + err.Error())
 		}
@@ -55,6 +62,19 @@ func SchemaVersion() int { return len(migrations) }
 // Each step re-reads the version under the write lock, so two processes
 // opening the same new file do not apply a step twice.
 func (db *DB) migrate(ctx context.Context, upto int) error {
+	if db.pg {
+		// Two replicas starting at once: one migrates, the other waits.
+		conn, err := db.w.Conn(ctx)
+		if err != nil {
+			return fmt.Errorf("open database %s: %w", db.path, err)
+		}
+		defer conn.Close()
+		const key = `hashtextextended('mixward migrate ' || current_schema(), 0)`
+		if _, err := conn.ExecContext(ctx, `SELECT pg_advisory_lock(`+key+`)`); err != nil {
+			return fmt.Errorf("open database %s: lock for migrations: %w", db.path, err)
+		}
+		defer conn.ExecContext(context.Background(), `SELECT pg_advisory_unlock(`+key+`)`)
+	}
 	if _, err := db.w.ExecContext(ctx, `CREATE TABLE IF NOT EXISTS schema_version (
 		version    INTEGER PRIMARY KEY,
 		name       TEXT NOT NULL,
@@ -79,15 +99,16 @@ func (db *DB) migrateStep(ctx context.Context, upto int) (done bool, err error) 
 	if err := tx.QueryRowContext(ctx, `SELECT coalesce(max(version), 0) FROM schema_version`).Scan(&cur); err != nil {
 		return false, fmt.Errorf("open database %s: read schema version: %w", db.path, err)
 	}
-	if cur > len(migrations) {
+	ms := db.migrations()
+	if cur > len(ms) {
 		return false, fmt.Errorf("open database %s: %w: the file has schema version %d, this mixward knows up to %d; "+
 			"use the mixward release that wrote it (or a newer one), or restore a backup made by this release",
-			db.path, ErrSchemaTooNew, cur, len(migrations))
+			db.path, ErrSchemaTooNew, cur, len(ms))
 	}
 	if cur >= upto {
 		return true, nil
 	}
-	m := migrations[cur]
+	m := ms[cur]
 	if _, err := tx.ExecContext(ctx, m.sql); err != nil {
 		return false, fmt.Errorf("open database %s: apply migration %s: %w", db.path, m.name, err)
 	}
@@ -99,6 +120,14 @@ func (db *DB) migrateStep(ctx context.Context, upto int) (done bool, err error) 
 		return false, fmt.Errorf("open database %s: commit migration %s: %w", db.path, m.name, err)
 	}
 	return false, nil
+}
+
+// migrations returns the schema steps of db's backend.
+func (db *DB) migrations() []migration {
+	if db.pg {
+		return pgMigrations
+	}
+	return migrations
 }
 
 // Version reports the schema version of the open file.

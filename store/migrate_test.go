@@ -2,12 +2,15 @@ package store
 
 import (
 	"context"
+	"crypto/sha256"
+	"encoding/hex"
 	"errors"
 	"fmt"
 	"path/filepath"
 	"strings"
 	"sync"
 	"testing"
+	"time"
 )
 
 // logAsVersion logs q the way a binary of schema version v did: the search
@@ -94,6 +97,9 @@ func TestMigrateFromEachOlderVersion(t *testing.T) {
 			if got, _ := db.Version(ctx); got != SchemaVersion() {
 				t.Errorf("Version after upgrade = %d, want %d", got, SchemaVersion())
 			}
+			if q, err := db.Get(ctx, 1); err != nil || q.Site != DefaultSite {
+				t.Errorf("row logged before sites: Get = %+v, %v; want site %q", q, err, DefaultSite)
+			}
 			mustLog(t, db, demoQuery())
 			rep, err := db.Verify(ctx)
 			if err != nil || !rep.OK || rep.Queries != 2 {
@@ -172,5 +178,113 @@ func TestMigrationFilesNumbered(t *testing.T) {
 		if strings.TrimSpace(m.sql) == "" {
 			t.Errorf("migration %s is empty", m.name)
 		}
+	}
+}
+
+// mainV6 are the migrations of the release before sites and inbox leases
+// (schema version 6), by name and the start of their SHA-256, so the test
+// below builds exactly the file that release wrote.
+var mainV6 = []struct{ name, sum string }{
+	{"0001_query_log", "833964163fc21848"},
+	{"0002_search", "5ddba0e95e4a3303"},
+	{"0003_catalogue_digests", "c9d317cee3adf543"},
+	{"0004_chain_kind", "40e27f74cc7c4765"},
+	{"0005_inbox", "430bd6a694739428"},
+	{"0006_presses_names", "62aec4ff6c326c37"},
+}
+
+// TestMigrateFromReleaseVersion6: a file written by the release of schema
+// version 6 (presses and names, no inbox leases, no sites) opens with this
+// code: its rows, press, name, digest record and pending inbox entry
+// survive, the rows belong to the main site, and the chain verifies.
+func TestMigrateFromReleaseVersion6(t *testing.T) {
+	for i, m := range mainV6 {
+		sum := sha256.Sum256([]byte(migrations[i].sql))
+		if migrations[i].name != m.name || hex.EncodeToString(sum[:])[:16] != m.sum {
+			t.Fatalf("migration %d is %s (%x), want the released %s (%s): released migrations never change",
+				i+1, migrations[i].name, sum[:8], m.name, m.sum)
+		}
+	}
+	ctx := context.Background()
+	c := newClock(t0)
+	path := filepath.Join(t.TempDir(), "v6.db")
+	old, err := openAt(ctx, path, Options{Now: c.Now}, len(mainV6))
+	if err != nil {
+		t.Fatal(err)
+	}
+	id := mustLog(t, old, demoQuery())
+	if err := old.RecordPress(ctx, Press{QueryID: id, Action: PressDetails, UserID: "U02", Transport: "socket", Key: "1.5/U02"}); err != nil {
+		t.Fatal(err)
+	}
+	if err := old.NoteName(ctx, "C1", "#tank-farm", t0); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := old.AcceptMessages(ctx, []InboxEntry{{EventID: "Ev6", Received: t0, Thread: "C1/1.1", Message: []byte("{}")}}); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := old.w.Exec(`INSERT INTO digests (slot, since, claimed_at, status, attempts) VALUES (?, ?, ?, 'sent', 1)`,
+		formatTime(t0.Add(6*time.Hour)), formatTime(t0.Add(-6*time.Hour)), formatTime(t0.Add(6*time.Hour))); err != nil {
+		t.Fatal(err)
+	}
+	old.Close()
+
+	db, err := Open(ctx, path, Options{Now: c.Now})
+	if err != nil {
+		t.Fatalf("Open a version-6 file: %v", err)
+	}
+	defer db.Close()
+	if v, _ := db.Version(ctx); v != SchemaVersion() || v != siteVersion {
+		t.Errorf("version after upgrade = %d, want %d", v, SchemaVersion())
+	}
+	if q, err := db.Get(ctx, id); err != nil || q.Site != DefaultSite {
+		t.Errorf("row of the version-6 file = %+v, %v; want site %q", q, err, DefaultSite)
+	}
+	if ps, err := db.Presses(ctx, id); err != nil || len(ps) != 1 || ps[0].Action != PressDetails {
+		t.Errorf("presses after upgrade = %+v, %v", ps, err)
+	}
+	if n, err := db.NameAt(ctx, "C1", t0.Add(time.Hour)); err != nil || n != "#tank-farm" {
+		t.Errorf("name after upgrade = %q, %v", n, err)
+	}
+	if recs, err := db.DigestRecords(ctx, 0); err != nil || len(recs) != 1 || recs[0].Status != "sent" {
+		t.Errorf("digest records after upgrade = %+v, %v; want the sent one, now of site main", recs, err)
+	}
+	if e, err := db.InboxEntryFor(ctx, "Ev6"); err != nil || e.State != "pending" {
+		t.Errorf("inbox entry after upgrade = %+v, %v; want pending", e, err)
+	}
+	mustLog(t, db, demoQuery())
+	if rep, err := db.Verify(ctx); err != nil || !rep.OK || rep.Queries != 2 {
+		t.Errorf("Verify after upgrade = %+v, %v", rep, err)
+	}
+}
+
+// TestPostgresMigrateFromVersion2: a PostgreSQL database of version 2
+// (sites, before presses and names) is upgraded on open; until then it has
+// no names to read.
+func TestPostgresMigrateFromVersion2(t *testing.T) {
+	requirePostgres(t)
+	ctx := context.Background()
+	dsn := postgresBackend.fresh(t)
+	old, err := openPostgres(ctx, dsn, Options{}, false, 2)
+	if err != nil {
+		t.Fatal(err)
+	}
+	id := mustLog(t, old, demoQuery())
+	if n, err := old.NameAt(ctx, "C1", t0); err != nil || n != "" || old.hasNames() {
+		t.Errorf("version 2: NameAt = %q, %v; hasNames %v", n, err, old.hasNames())
+	}
+	old.Close()
+	db, err := Open(ctx, dsn, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer db.Close()
+	if v, _ := db.Version(ctx); v != len(pgMigrations) || !db.hasNames() {
+		t.Errorf("version after upgrade = %d, want %d", v, len(pgMigrations))
+	}
+	if err := db.RecordPress(ctx, Press{QueryID: id, Action: PressPour}); err != nil {
+		t.Errorf("RecordPress after upgrade: %v", err)
+	}
+	if rep, err := db.Verify(ctx); err != nil || !rep.OK {
+		t.Errorf("Verify after upgrade = %+v, %v", rep, err)
 	}
 }

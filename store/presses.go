@@ -111,7 +111,8 @@ func (db *DB) NoteName(ctx context.Context, id, name string, at time.Time) error
 	t := formatTime(at)
 	_, err := db.w.ExecContext(ctx, `INSERT INTO names (slack_id, name, first_seen, last_seen) VALUES (?, ?, ?, ?)
 		ON CONFLICT (slack_id, name) DO UPDATE SET
-			first_seen = min(first_seen, excluded.first_seen), last_seen = max(last_seen, excluded.last_seen)`, id, name, t, t)
+			first_seen = CASE WHEN excluded.first_seen < names.first_seen THEN excluded.first_seen ELSE names.first_seen END,
+			last_seen = CASE WHEN excluded.last_seen > names.last_seen THEN excluded.last_seen ELSE names.last_seen END`, id, name, t, t)
 	if err != nil {
 		return fmt.Errorf("note name of %s: %w", id, err)
 	}
@@ -121,7 +122,7 @@ func (db *DB) NoteName(ctx context.Context, id, name string, at time.Time) error
 // NameAt is the name id was last seen under at or before at; when it was
 // only seen later, the earliest name; "" (and no error) when never seen.
 func (db *DB) NameAt(ctx context.Context, id string, at time.Time) (string, error) {
-	if db.ver < 6 {
+	if !db.hasNames() {
 		return "", nil // a file of an older schema, read as it is
 	}
 	return nameAt(ctx, db.r, id, at)
@@ -130,7 +131,7 @@ func (db *DB) NameAt(ctx context.Context, id string, at time.Time) (string, erro
 func nameAt(ctx context.Context, q queryer, id string, at time.Time) (string, error) {
 	var name string
 	err := q.QueryRowContext(ctx, `SELECT name FROM names WHERE slack_id = ?
-		ORDER BY first_seen <= ? DESC, CASE WHEN first_seen <= ? THEN last_seen END DESC, first_seen LIMIT 1`,
+		ORDER BY first_seen <= ? DESC, CASE WHEN first_seen <= ? THEN last_seen END DESC NULLS LAST, first_seen LIMIT 1`,
 		id, formatTime(at), formatTime(at)).Scan(&name)
 	if errors.Is(err, sql.ErrNoRows) {
 		return "", nil

@@ -30,6 +30,14 @@ func (db *DB) Prune(ctx context.Context, before time.Time, by string) (int64, er
 	if err := db.writable("prune"); err != nil {
 		return 0, err
 	}
+	if db.pg {
+		conn, err := db.w.Conn(ctx)
+		if err != nil {
+			return 0, fmt.Errorf("prune: %w", err)
+		}
+		defer conn.Close()
+		return db.prune(ctx, conn, before.UTC(), by, db.now().UTC())
+	}
 	conn, err := db.w.Conn(ctx)
 	if err != nil {
 		return 0, fmt.Errorf("prune: %w", err)
@@ -60,6 +68,9 @@ func (db *DB) prune(ctx context.Context, conn *sql.Conn, before time.Time, by st
 		return 0, fmt.Errorf("prune: %w", err)
 	}
 	defer tx.Rollback()
+	if err := db.lockChain(ctx, tx); err != nil {
+		return 0, fmt.Errorf("prune: %w", err)
+	}
 
 	// The previous anchor carries forward when nothing is deleted.
 	var anchor pruneRecord
@@ -80,7 +91,7 @@ func (db *DB) prune(ctx context.Context, conn *sql.Conn, before time.Time, by st
 	}
 	cond, args := `id < ?`, []any{cut.Int64}
 	if !cut.Valid { // every row precedes the cut-off
-		cond, args = `1`, nil
+		cond, args = `TRUE`, nil
 	}
 	var lastID int64
 	var lastHash string
@@ -105,7 +116,7 @@ func (db *DB) prune(ctx context.Context, conn *sql.Conn, before time.Time, by st
 	r := &row{
 		Kind: kindPrune, Time: formatTime(now), UserName: by,
 		Request: fmt.Sprintf("prune before %s: %d rows deleted", rec.Before, deleted),
-		Species: "[]", Hazards: "[]", Streams: "[]",
+		Species: "[]", Hazards: "[]", Streams: "[]", Site: DefaultSite,
 		Result: sql.NullString{String: string(b), Valid: true},
 	}
 	if err := db.appendRow(ctx, tx, r, anchor.AnchorHash); err != nil {

@@ -45,6 +45,11 @@ type Query struct {
 	Streams        []string `json:"streams"` // stream texts as parsed, tags resolved
 
 	Result json.RawMessage `json:"result"` // the full engine result JSON (nil for errors)
+	// ResultCompact says Result is valid JSON without insignificant
+	// whitespace, as json.Marshal writes it: LogQuery then stores it as it
+	// is instead of scanning it again. Otherwise LogQuery checks it and
+	// compacts it only when it has whitespace outside strings.
+	ResultCompact bool `json:"-"`
 
 	EngineVersion string `json:"engine_version"`
 	DataHash      string `json:"data_hash"`
@@ -53,6 +58,10 @@ type Query struct {
 	PrevHash string `json:"prev_hash"` // set by LogQuery
 	Chain    string `json:"chain"`     // ChainPlain or ChainKeyed; set by LogQuery
 	KeyID    string `json:"key_id"`    // the key's id when keyed; set by LogQuery
+
+	// Site is the site the query was asked at; LogQuery sets the DB's
+	// site when it is empty.
+	Site string `json:"site"`
 }
 
 // The verdicts a query can carry.
@@ -98,9 +107,20 @@ func (db *DB) LogQuery(ctx context.Context, q *Query) (int64, error) {
 		q.Time = db.now()
 	}
 	q.Time = q.Time.UTC()
+	if q.Site == "" {
+		q.Site = db.site
+	}
 	r, err := encodeQuery(q)
 	if err != nil {
 		return 0, err
+	}
+	if db.pg {
+		id, err := db.pgLogQuery(ctx, r)
+		if err != nil {
+			return id, err
+		}
+		q.ID, q.Hash, q.PrevHash, q.Chain, q.KeyID = r.ID, r.Hash, r.PrevHash, r.Chain, r.KeyID
+		return r.ID, nil
 	}
 	tx, err := db.w.BeginTx(ctx, nil)
 	if err != nil {
@@ -158,6 +178,11 @@ func encodeQuery(q *Query) (*row, error) {
 	if !ValidVerdict(q.Verdict) {
 		return nil, fmt.Errorf("log query: %w: verdict %q is not one of %s", ErrInvalid, q.Verdict, strings.Join(Verdicts, ", "))
 	}
+	site, err := NormalizeSite(q.Site)
+	if err != nil {
+		return nil, fmt.Errorf("log query: %w", err)
+	}
+	q.Site = site
 	if q.Verdict == VerdictError && strings.TrimSpace(q.Error) == "" {
 		return nil, fmt.Errorf("log query: %w: verdict error needs the parse error message in Error", ErrInvalid)
 	}
@@ -195,17 +220,57 @@ func encodeQuery(q *Query) (*row, error) {
 		Species: mustJSON(q.Species), Oxidizer: q.Oxidizer, Reducer: q.Reducer,
 		ECellV: nullFloat(q.ECellV), ECellStandardV: nullFloat(q.ECellStandardV),
 		Hazards: mustJSON(q.Hazards), Streams: mustJSON(q.Streams),
-		EngineVersion: q.EngineVersion, DataHash: q.DataHash,
+		EngineVersion: q.EngineVersion, DataHash: q.DataHash, Site: q.Site,
 	}
 	if q.Result != nil {
-		var buf bytes.Buffer
-		if err := json.Compact(&buf, q.Result); err != nil {
-			return nil, fmt.Errorf("log query: %w: result is not valid JSON: %v", ErrInvalid, err)
+		res, err := compactResult(q.Result, q.ResultCompact)
+		if err != nil {
+			return nil, err
 		}
-		q.Result = json.RawMessage(buf.Bytes())
-		r.Result = sql.NullString{String: buf.String(), Valid: true}
+		q.Result = res
+		r.Result = sql.NullString{String: string(res), Valid: true}
 	}
 	return r, nil
+}
+
+// compactResult returns the result JSON without insignificant whitespace.
+// Trusted bytes (Query.ResultCompact) are returned as they are; others are
+// checked with json.Valid and compacted only when they hold whitespace
+// outside strings (re-compacting compact JSON cost a third of LogQuery).
+func compactResult(b json.RawMessage, trusted bool) (json.RawMessage, error) {
+	if trusted {
+		return b, nil
+	}
+	if !json.Valid(b) {
+		return nil, fmt.Errorf("log query: %w: result is not valid JSON", ErrInvalid)
+	}
+	if !spaceOutsideStrings(b) {
+		return b, nil
+	}
+	var buf bytes.Buffer
+	if err := json.Compact(&buf, b); err != nil {
+		return nil, fmt.Errorf("log query: %w: result is not valid JSON: %v", ErrInvalid, err)
+	}
+	return buf.Bytes(), nil
+}
+
+// spaceOutsideStrings reports whether the valid JSON b has a space, tab or
+// line break outside its strings.
+func spaceOutsideStrings(b []byte) bool {
+	in, esc := false, false
+	for _, c := range b {
+		switch {
+		case esc:
+			esc = false
+		case in && c == '\\':
+			esc = true
+		case c == '"':
+			in = !in
+		case !in && (c == ' ' || c == '\t' || c == '\n' || c == '\r'):
+			return true
+		}
+	}
+	return false
 }
 
 func contains(list []string, s string) bool {
@@ -241,6 +306,15 @@ func nullFloat(f *float64) sql.NullFloat64 {
 // write transaction. Ids are contiguous: the next id is one more than the
 // highest ever issued, and a rolled-back transaction takes its id back.
 func (db *DB) appendRow(ctx context.Context, tx *sql.Tx, r *row, emptyPrev string) error {
+	if db.pg {
+		seq, lastID, prev, _, err := pgHead(ctx, tx, emptyPrev, "")
+		if err != nil {
+			return err
+		}
+		r.ID, r.PrevHash = max(seq, lastID)+1, prev
+		seal(r, db.key)
+		return db.insertRow(ctx, tx, r)
+	}
 	var seq, lastID int64
 	var prev, lastTime string
 	if err := db.ws.head.queryRow(ctx, tx, emptyPrev).Scan(&seq, &lastID, &prev, &lastTime); err != nil {
@@ -253,19 +327,38 @@ func (db *DB) appendRow(ctx context.Context, tx *sql.Tx, r *row, emptyPrev strin
 	}
 	r.ID = max(seq, lastID) + 1
 	r.PrevHash = prev
-	args := []any{r.ID, r.Kind, r.Time, r.UserID, r.UserName, r.Channel, r.EventID, r.Request, r.Resolved, r.Verdict,
-		r.Error, r.Species, r.Oxidizer, r.Reducer, r.ECellV, r.ECellStandardV, r.Hazards, r.Streams, r.Result,
-		r.EngineVersion, r.DataHash, r.PrevHash}
-	var err error
-	if db.ver < 4 { // a file of an older schema (tests build them): plain rows without the chain columns
+	if db.ver < siteVersion {
+		r.Site = DefaultSite
+	}
+	if db.ver < 4 { // a file of an older schema (tests build them): plain rows only
 		seal(r, nil)
-		_, err = tx.ExecContext(ctx, insertV3, append(args, r.Hash)...)
 	} else {
 		seal(r, db.key)
-		_, err = db.ws.insert.exec(ctx, tx, append(args, r.Hash, r.Chain, r.KeyID)...)
 	}
+	err := db.insertRow(ctx, tx, r)
 	if isUnique(err) {
 		return fmt.Errorf("%w: event id %q already logged", ErrDuplicate, r.EventID)
+	}
+	return err
+}
+
+// insertRow inserts r, already sealed, as it is (LogQuery after sealing
+// it; CopyLog to keep a row's id and hash). On PostgreSQL it writes the
+// row's hazard rows too.
+func (db *DB) insertRow(ctx context.Context, tx *sql.Tx, r *row) error {
+	args := []any{r.ID, r.Kind, r.Time, r.UserID, r.UserName, r.Channel, r.EventID, r.Request, r.Resolved, r.Verdict,
+		r.Error, r.Species, r.Oxidizer, r.Reducer, r.ECellV, r.ECellStandardV, r.Hazards, r.Streams, r.Result,
+		r.EngineVersion, r.DataHash, r.PrevHash, r.Hash}
+	var err error
+	switch {
+	case db.pg: // with its hazard rows and the new head
+		err = pgInsert(ctx, tx, r)
+	case db.ver < 4:
+		_, err = tx.ExecContext(ctx, insertV3, args...)
+	case db.ver < siteVersion:
+		_, err = tx.ExecContext(ctx, insertV7, append(args, r.Chain, r.KeyID)...)
+	default:
+		_, err = db.ws.insert.exec(ctx, tx, append(args, r.Chain, r.KeyID, r.Site)...)
 	}
 	return err
 }
@@ -286,6 +379,9 @@ const indexBatch = 64
 // indexUpTo indexes every query row with id in (indexed_upto, upto] and
 // moves the mark; force indexes even a short backlog.
 func (db *DB) indexUpTo(ctx context.Context, tx *sql.Tx, upto int64, force bool) error {
+	if db.pg {
+		return nil // the search column is generated with the row
+	}
 	var done int64
 	if err := db.ws.indexed.queryRow(ctx, tx).Scan(&done); err != nil {
 		return err
@@ -302,6 +398,9 @@ func (db *DB) indexUpTo(ctx context.Context, tx *sql.Tx, upto int64, force bool)
 
 // syncIndex indexes every row not yet in the search index.
 func (db *DB) syncIndex(ctx context.Context) error {
+	if db.pg {
+		return nil
+	}
 	var done, last int64
 	err := db.r.QueryRowContext(ctx, `SELECT (SELECT indexed_upto FROM search_state), coalesce((SELECT max(id) FROM queries), 0)`).Scan(&done, &last)
 	if err != nil || done >= last {
@@ -331,7 +430,7 @@ func decodeQuery(r *row) (*Query, error) {
 		ID: r.ID, Time: t, UserID: r.UserID, UserName: r.UserName, Channel: r.Channel, EventID: r.EventID,
 		Request: r.Request, Resolved: r.Resolved, Verdict: r.Verdict, Error: r.Error,
 		Oxidizer: r.Oxidizer, Reducer: r.Reducer, EngineVersion: r.EngineVersion, DataHash: r.DataHash,
-		Hash: r.Hash, PrevHash: r.PrevHash, Chain: r.Chain, KeyID: r.KeyID,
+		Hash: r.Hash, PrevHash: r.PrevHash, Chain: r.Chain, KeyID: r.KeyID, Site: r.Site,
 	}
 	if r.ECellV.Valid {
 		q.ECellV = &r.ECellV.Float64

@@ -26,6 +26,12 @@ func OpenReadOnly(ctx context.Context, path string, opt Options) (*DB, error) {
 	if path == "" {
 		return nil, fmt.Errorf("open database: %w: empty path (set --db or MIXWARD_DB)", ErrInvalid)
 	}
+	if _, err := NormalizeSite(opt.Site); err != nil {
+		return nil, fmt.Errorf("open database: %w (MIXWARD_SITE or --site)", err)
+	}
+	if IsPostgres(path) {
+		return openPostgres(ctx, path, opt, true, 0)
+	}
 	st, err := os.Stat(path)
 	if errors.Is(err, os.ErrNotExist) {
 		return nil, fmt.Errorf("open database %s: %w: nothing exists at that path (check --db or MIXWARD_DB; this command never creates a log)", path, ErrNoDatabase)
@@ -43,7 +49,7 @@ func OpenReadOnly(ctx context.Context, path string, opt Options) (*DB, error) {
 		return nil, fmt.Errorf("open database %s: %w", path, err)
 	}
 	db.r.SetMaxOpenConns(4)
-	v, err := fileVersion(ctx, db.r, path)
+	v, err := fileVersion(ctx, db.r, path, len(migrations))
 	if err != nil {
 		db.r.Close()
 		return nil, err
@@ -74,15 +80,15 @@ func dirWritable(dir string) bool { return unix.Access(dir, unix.W_OK) == nil }
 
 // fileVersion reads the schema version of an open file and refuses files
 // that are not mixward databases or are newer than this binary.
-func fileVersion(ctx context.Context, r *sql.DB, path string) (int, error) {
+func fileVersion(ctx context.Context, r *sql.DB, path string, known int) (int, error) {
 	var v int
 	err := r.QueryRowContext(ctx, `SELECT coalesce(max(version), 0) FROM schema_version`).Scan(&v)
 	if err != nil {
 		return 0, fmt.Errorf("open %s: not a mixward database (%v)", path, err)
 	}
-	if v > len(migrations) {
+	if v > known {
 		return 0, fmt.Errorf("open %s: %w: the file has schema version %d, this mixward knows up to %d",
-			path, ErrSchemaTooNew, v, len(migrations))
+			path, ErrSchemaTooNew, v, known)
 	}
 	return v, nil
 }

@@ -130,7 +130,7 @@ func (s *Scheduler) dueSlots(ctx context.Context, now time.Time) ([]time.Time, e
 		return nil, err
 	}
 	var last sql.NullString
-	if err := s.db.r.QueryRowContext(ctx, `SELECT max(slot) FROM digests`).Scan(&last); err != nil {
+	if err := s.db.r.QueryRowContext(ctx, `SELECT max(slot) FROM digests WHERE site = ?`, s.db.site).Scan(&last); err != nil {
 		return nil, fmt.Errorf("digest schedule: %w", err)
 	}
 	var slots []time.Time
@@ -151,7 +151,7 @@ func (s *Scheduler) dueSlots(ctx context.Context, now time.Time) ([]time.Time, e
 		slots = []time.Time{latest} // first run: only the shift just ended
 	}
 	// Failed slots are retried.
-	rows, err := s.db.r.QueryContext(ctx, `SELECT slot FROM digests WHERE status = 'failed' ORDER BY slot`)
+	rows, err := s.db.r.QueryContext(ctx, `SELECT slot FROM digests WHERE site = ? AND status = 'failed' ORDER BY slot`, s.db.site)
 	if err != nil {
 		return nil, fmt.Errorf("digest schedule: %w", err)
 	}
@@ -277,31 +277,20 @@ func (db *DB) claimDigest(ctx context.Context, slot, since time.Time) (bool, err
 	if err := db.writable("claim digest"); err != nil {
 		return false, err
 	}
-	tx, err := db.w.BeginTx(ctx, nil)
+	// One statement: a new slot is inserted, a failed one taken again, any
+	// other left alone. Under concurrent replicas the primary key makes the
+	// second claimant wait for the first and then find the slot taken.
+	res, err := db.w.ExecContext(ctx, `INSERT INTO digests (site, slot, since, claimed_at, status, attempts) VALUES (?, ?, ?, ?, 'claimed', 1)
+		ON CONFLICT (site, slot) DO UPDATE SET status = 'claimed', claimed_at = excluded.claimed_at, attempts = digests.attempts + 1
+		WHERE digests.status = 'failed'`, db.site, formatTime(slot), formatTime(since), formatTime(db.now()))
 	if err != nil {
 		return false, fmt.Errorf("claim digest: %w", err)
 	}
-	defer tx.Rollback()
-	var status string
-	err = tx.QueryRowContext(ctx, `SELECT status FROM digests WHERE slot = ?`, formatTime(slot)).Scan(&status)
-	switch {
-	case errors.Is(err, sql.ErrNoRows):
-		_, err = tx.ExecContext(ctx, `INSERT INTO digests (slot, since, claimed_at, status, attempts) VALUES (?, ?, ?, 'claimed', 1)`,
-			formatTime(slot), formatTime(since), formatTime(db.now()))
-	case err != nil:
-	case status == "failed":
-		_, err = tx.ExecContext(ctx, `UPDATE digests SET status = 'claimed', claimed_at = ?, attempts = attempts + 1 WHERE slot = ?`,
-			formatTime(db.now()), formatTime(slot))
-	default:
-		return false, nil
-	}
+	n, err := res.RowsAffected()
 	if err != nil {
 		return false, fmt.Errorf("claim digest: %w", err)
 	}
-	if err := tx.Commit(); err != nil {
-		return false, fmt.Errorf("claim digest: %w", err)
-	}
-	return true, nil
+	return n == 1, nil
 }
 
 func (db *DB) finishDigest(ctx context.Context, slot time.Time, status, detail string, d *Digest) error {
@@ -316,8 +305,8 @@ func (db *DB) finishDigest(ctx context.Context, slot time.Time, status, detail s
 		}
 		body = string(b)
 	}
-	_, err := db.w.ExecContext(ctx, `UPDATE digests SET status = ?, detail = ?, body = ? WHERE slot = ?`,
-		status, clean(detail), body, formatTime(slot))
+	_, err := db.w.ExecContext(ctx, `UPDATE digests SET status = ?, detail = ?, body = ? WHERE site = ? AND slot = ?`,
+		status, clean(detail), body, db.site, formatTime(slot))
 	if err != nil {
 		return fmt.Errorf("record digest: %w", err)
 	}
@@ -334,12 +323,12 @@ type DigestRecord struct {
 	Detail    string    `json:"detail"`
 }
 
-// DigestRecords lists recorded digests, newest first, at most limit (0 = 50).
+// DigestRecords lists the digests recorded for the DB's site, newest first, at most limit (0 = 50).
 func (db *DB) DigestRecords(ctx context.Context, limit int) ([]DigestRecord, error) {
 	if limit <= 0 {
 		limit = 50
 	}
-	rows, err := db.r.QueryContext(ctx, `SELECT slot, since, claimed_at, status, attempts, detail FROM digests ORDER BY slot DESC LIMIT ?`, limit)
+	rows, err := db.r.QueryContext(ctx, `SELECT slot, since, claimed_at, status, attempts, detail FROM digests WHERE site = ? ORDER BY slot DESC LIMIT ?`, db.site, limit)
 	if err != nil {
 		return nil, fmt.Errorf("list digests: %w", err)
 	}

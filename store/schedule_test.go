@@ -112,176 +112,197 @@ func equalStrings(a, b []string) bool {
 }
 
 func TestSchedulerCatchUpAfterDowntime(t *testing.T) {
-	c := newClock(time.Date(2026, 12, 1, 18, 0, 5, 0, time.UTC))
-	db, _ := mustOpen(t, c.Now)
-	ctx, cancel := context.WithCancel(context.Background())
-	defer cancel()
+	eachBackend(t, func(t *testing.T, b backend) {
+		c := newClock(time.Date(2026, 12, 1, 18, 0, 5, 0, time.UTC))
+		db, _ := b.mustOpen(t, c.Now)
+		ctx, cancel := context.WithCancel(context.Background())
+		defer cancel()
 
-	// Queries during the day shift.
-	for _, h := range []int{7, 9, 16} {
-		q := demoQuery()
-		q.Time = time.Date(2026, 12, 1, h, 0, 0, 0, time.UTC)
-		mustLog(t, db, q)
-	}
-	// The service runs at 18:00:05 and sends the day-shift digest.
-	pub := &recorder{}
-	s := newSched(t, db, c, pub)
-	if err := s.Start(ctx); err != nil {
-		t.Fatal(err)
-	}
-	s.Stop()
-	if got := pub.periods(); !equalStrings(got, []string{"01 06:00–01 18:00"}) {
-		t.Fatalf("first start published %v, want the day shift just ended", got)
-	}
-	if pub.got[0].Queries != 3 {
-		t.Errorf("day-shift digest has %d queries, want 3", pub.got[0].Queries)
-	}
-
-	// It is down from 18:01 until 07:30 on the 3rd: three shifts missed.
-	c.Set(time.Date(2026, 12, 3, 7, 30, 0, 0, time.UTC))
-	pub2 := &recorder{}
-	s2 := newSched(t, db, c, pub2)
-	if err := s2.Start(ctx); err != nil {
-		t.Fatal(err)
-	}
-	s2.Stop()
-	want := []string{"01 18:00–02 06:00", "02 06:00–02 18:00", "02 18:00–03 06:00"}
-	if got := pub2.periods(); !equalStrings(got, want) {
-		t.Errorf("catch-up published %v, want %v", got, want)
-	}
-	if next := s2.Next(); !next.Equal(time.Date(2026, 12, 3, 18, 0, 0, 0, time.UTC)) {
-		t.Errorf("Next = %v, want 18:00 on the 3rd", next)
-	}
-
-	// A restart at the same time sends nothing again.
-	pub3 := &recorder{}
-	s3 := newSched(t, db, c, pub3)
-	if err := s3.Start(ctx); err != nil {
-		t.Fatal(err)
-	}
-	s3.Stop()
-	if len(pub3.got) != 0 {
-		t.Errorf("restart re-sent %v", pub3.periods())
-	}
-	recs, err := db.DigestRecords(ctx, 0)
-	if err != nil || len(recs) != 4 {
-		t.Fatalf("DigestRecords = %+v, %v; want 4", recs, err)
-	}
-	for _, r := range recs {
-		if r.Status != "sent" || r.Attempts != 1 {
-			t.Errorf("record %v: status %s attempts %d, want sent once", r.Slot, r.Status, r.Attempts)
+		// Queries during the day shift.
+		for _, h := range []int{7, 9, 16} {
+			q := demoQuery()
+			q.Time = time.Date(2026, 12, 1, h, 0, 0, 0, time.UTC)
+			mustLog(t, db, q)
 		}
-	}
+		// The service runs at 18:00:05 and sends the day-shift digest.
+		pub := &recorder{}
+		s := newSched(t, db, c, pub)
+		if err := s.Start(ctx); err != nil {
+			t.Fatal(err)
+		}
+		s.Stop()
+		if got := pub.periods(); !equalStrings(got, []string{"01 06:00–01 18:00"}) {
+			t.Fatalf("first start published %v, want the day shift just ended", got)
+		}
+		if pub.got[0].Queries != 3 {
+			t.Errorf("day-shift digest has %d queries, want 3", pub.got[0].Queries)
+		}
+
+		// It is down from 18:01 until 07:30 on the 3rd: three shifts missed.
+		c.Set(time.Date(2026, 12, 3, 7, 30, 0, 0, time.UTC))
+		pub2 := &recorder{}
+		s2 := newSched(t, db, c, pub2)
+		if err := s2.Start(ctx); err != nil {
+			t.Fatal(err)
+		}
+		s2.Stop()
+		want := []string{"01 18:00–02 06:00", "02 06:00–02 18:00", "02 18:00–03 06:00"}
+		if got := pub2.periods(); !equalStrings(got, want) {
+			t.Errorf("catch-up published %v, want %v", got, want)
+		}
+		if next := s2.Next(); !next.Equal(time.Date(2026, 12, 3, 18, 0, 0, 0, time.UTC)) {
+			t.Errorf("Next = %v, want 18:00 on the 3rd", next)
+		}
+
+		// A restart at the same time sends nothing again.
+		pub3 := &recorder{}
+		s3 := newSched(t, db, c, pub3)
+		if err := s3.Start(ctx); err != nil {
+			t.Fatal(err)
+		}
+		s3.Stop()
+		if len(pub3.got) != 0 {
+			t.Errorf("restart re-sent %v", pub3.periods())
+		}
+		recs, err := db.DigestRecords(ctx, 0)
+		if err != nil || len(recs) != 4 {
+			t.Fatalf("DigestRecords = %+v, %v; want 4", recs, err)
+		}
+		for _, r := range recs {
+			if r.Status != "sent" || r.Attempts != 1 {
+				t.Errorf("record %v: status %s attempts %d, want sent once", r.Slot, r.Status, r.Attempts)
+			}
+		}
+	})
 }
 
 func TestSchedulerCatchUpCapped(t *testing.T) {
-	c := newClock(time.Date(2026, 12, 1, 6, 0, 0, 0, time.UTC))
-	db, _ := mustOpen(t, c.Now)
-	ctx := context.Background()
-	s := newSched(t, db, c, &recorder{})
-	if _, err := s.RunDue(ctx); err != nil {
-		t.Fatal(err)
-	}
-	c.Set(time.Date(2026, 12, 31, 6, 0, 0, 0, time.UTC)) // 60 shifts later
-	pub := &recorder{}
-	s2 := newSched(t, db, c, pub)
-	s2.MaxCatchUp = 3
-	n, err := s2.RunDue(ctx)
-	if err != nil || n != 3 {
-		t.Fatalf("RunDue = %d, %v; want the 3 newest", n, err)
-	}
-	want := []string{"30 06:00–30 18:00", "30 18:00–31 06:00"}
-	if got := pub.periods(); !equalStrings(got[1:], want) {
-		t.Errorf("published %v, want …%v", got, want)
-	}
+	eachBackend(t, func(t *testing.T, b backend) {
+		c := newClock(time.Date(2026, 12, 1, 6, 0, 0, 0, time.UTC))
+		db, _ := b.mustOpen(t, c.Now)
+		ctx := context.Background()
+		s := newSched(t, db, c, &recorder{})
+		if _, err := s.RunDue(ctx); err != nil {
+			t.Fatal(err)
+		}
+		c.Set(time.Date(2026, 12, 31, 6, 0, 0, 0, time.UTC)) // 60 shifts later
+		pub := &recorder{}
+		s2 := newSched(t, db, c, pub)
+		s2.MaxCatchUp = 3
+		n, err := s2.RunDue(ctx)
+		if err != nil || n != 3 {
+			t.Fatalf("RunDue = %d, %v; want the 3 newest", n, err)
+		}
+		want := []string{"30 06:00–30 18:00", "30 18:00–31 06:00"}
+		if got := pub.periods(); !equalStrings(got[1:], want) {
+			t.Errorf("published %v, want …%v", got, want)
+		}
+	})
 }
 
 func TestSchedulerRetriesFailedPublish(t *testing.T) {
-	c := newClock(time.Date(2026, 12, 1, 18, 0, 0, 0, time.UTC))
-	db, _ := mustOpen(t, c.Now)
-	ctx := context.Background()
-	pub := &recorder{fail: 1}
-	s := newSched(t, db, c, pub)
-	if n, err := s.RunDue(ctx); err == nil || n != 0 {
-		t.Fatalf("RunDue with the chat down = %d, %v; want 0 and an error", n, err)
-	}
-	recs, _ := db.DigestRecords(ctx, 0)
-	if len(recs) != 1 || recs[0].Status != "failed" || recs[0].Detail != "chat is down" {
-		t.Fatalf("records = %+v", recs)
-	}
-	c.Add(time.Hour)
-	if n, err := s.RunDue(ctx); err != nil || n != 1 {
-		t.Fatalf("retry = %d, %v", n, err)
-	}
-	if n, err := s.RunDue(ctx); err != nil || n != 0 {
-		t.Fatalf("third run = %d, %v; want nothing more", n, err)
-	}
-	recs, _ = db.DigestRecords(ctx, 0)
-	if len(recs) != 1 || recs[0].Status != "sent" || recs[0].Attempts != 2 || len(pub.got) != 1 {
-		t.Errorf("records = %+v, published %d", recs, len(pub.got))
-	}
+	eachBackend(t, func(t *testing.T, b backend) {
+		c := newClock(time.Date(2026, 12, 1, 18, 0, 0, 0, time.UTC))
+		db, _ := b.mustOpen(t, c.Now)
+		ctx := context.Background()
+		pub := &recorder{fail: 1}
+		s := newSched(t, db, c, pub)
+		if n, err := s.RunDue(ctx); err == nil || n != 0 {
+			t.Fatalf("RunDue with the chat down = %d, %v; want 0 and an error", n, err)
+		}
+		recs, _ := db.DigestRecords(ctx, 0)
+		if len(recs) != 1 || recs[0].Status != "failed" || recs[0].Detail != "chat is down" {
+			t.Fatalf("records = %+v", recs)
+		}
+		c.Add(time.Hour)
+		if n, err := s.RunDue(ctx); err != nil || n != 1 {
+			t.Fatalf("retry = %d, %v", n, err)
+		}
+		if n, err := s.RunDue(ctx); err != nil || n != 0 {
+			t.Fatalf("third run = %d, %v; want nothing more", n, err)
+		}
+		recs, _ = db.DigestRecords(ctx, 0)
+		if len(recs) != 1 || recs[0].Status != "sent" || recs[0].Attempts != 2 || len(pub.got) != 1 {
+			t.Errorf("records = %+v, published %d", recs, len(pub.got))
+		}
+	})
 }
 
 func TestSchedulerNeverSendsTwice(t *testing.T) {
-	c := newClock(time.Date(2026, 12, 1, 18, 0, 0, 0, time.UTC))
-	ctx := context.Background()
-	db, path := mustOpen(t, c.Now)
-	// Two processes sharing the file, started together.
-	db2, err := Open(ctx, filepath.Clean(path), Options{Now: c.Now})
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer db2.Close()
-	pub := &recorder{}
-	var wg sync.WaitGroup
-	for _, d := range []*DB{db, db2, db, db2} {
-		s := newSched(t, d, c, pub)
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			if _, err := s.RunDue(ctx); err != nil {
-				t.Error(err)
-			}
-		}()
-	}
-	wg.Wait()
-	if len(pub.got) != 1 {
-		t.Errorf("published %d times, want once: %v", len(pub.got), pub.periods())
-	}
+	eachBackend(t, func(t *testing.T, b backend) {
+		c := newClock(time.Date(2026, 12, 1, 18, 0, 0, 0, time.UTC))
+		ctx := context.Background()
+		db, path := b.mustOpen(t, c.Now)
+		// Two processes sharing the file, started together.
+		db2, err := Open(ctx, cleanPath(b, path), Options{Now: c.Now})
+		if err != nil {
+			t.Fatal(err)
+		}
+		defer db2.Close()
+		pub := &recorder{}
+		var wg sync.WaitGroup
+		for _, d := range []*DB{db, db2, db, db2} {
+			s := newSched(t, d, c, pub)
+			wg.Add(1)
+			go func() {
+				defer wg.Done()
+				if _, err := s.RunDue(ctx); err != nil {
+					t.Error(err)
+				}
+			}()
+		}
+		wg.Wait()
+		if len(pub.got) != 1 {
+			t.Errorf("published %d times, want once: %v", len(pub.got), pub.periods())
+		}
+	})
 }
 
 func TestSchedulerUnknownOutcomeNotResent(t *testing.T) {
-	c := newClock(time.Date(2026, 12, 1, 18, 0, 0, 0, time.UTC))
-	db, _ := mustOpen(t, c.Now)
-	ctx := context.Background()
-	// The process died after claiming the slot, maybe after posting it.
-	slot := time.Date(2026, 12, 1, 18, 0, 0, 0, time.UTC)
-	if ok, err := db.claimDigest(ctx, slot, slot.Add(-12*time.Hour)); err != nil || !ok {
-		t.Fatal(ok, err)
-	}
-	pub := &recorder{}
-	if n, err := newSched(t, db, c, pub).RunDue(ctx); err != nil || n != 0 || len(pub.got) != 0 {
-		t.Errorf("RunDue = %d, %v, published %d; want nothing (at most once)", n, err, len(pub.got))
-	}
+	eachBackend(t, func(t *testing.T, b backend) {
+		c := newClock(time.Date(2026, 12, 1, 18, 0, 0, 0, time.UTC))
+		db, _ := b.mustOpen(t, c.Now)
+		ctx := context.Background()
+		// The process died after claiming the slot, maybe after posting it.
+		slot := time.Date(2026, 12, 1, 18, 0, 0, 0, time.UTC)
+		if ok, err := db.claimDigest(ctx, slot, slot.Add(-12*time.Hour)); err != nil || !ok {
+			t.Fatal(ok, err)
+		}
+		pub := &recorder{}
+		if n, err := newSched(t, db, c, pub).RunDue(ctx); err != nil || n != 0 || len(pub.got) != 0 {
+			t.Errorf("RunDue = %d, %v, published %d; want nothing (at most once)", n, err, len(pub.got))
+		}
+	})
 }
 
 func TestSchedulerLocalZone(t *testing.T) {
-	ldn := london(t)
-	// 18:00 in London in July is 17:00 UTC.
-	c := newClock(time.Date(2026, 7, 1, 17, 0, 1, 0, time.UTC))
-	db, _ := mustOpen(t, c.Now)
-	pub := &recorder{}
-	s, err := NewScheduler(db, DefaultShifts, ldn, pub, c.Now)
-	if err != nil {
-		t.Fatal(err)
+	eachBackend(t, func(t *testing.T, b backend) {
+		ldn := london(t)
+		// 18:00 in London in July is 17:00 UTC.
+		c := newClock(time.Date(2026, 7, 1, 17, 0, 1, 0, time.UTC))
+		db, _ := b.mustOpen(t, c.Now)
+		pub := &recorder{}
+		s, err := NewScheduler(db, DefaultShifts, ldn, pub, c.Now)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if _, err := s.RunDue(context.Background()); err != nil {
+			t.Fatal(err)
+		}
+		if len(pub.got) != 1 || !pub.got[0].Until.Equal(time.Date(2026, 7, 1, 17, 0, 0, 0, time.UTC)) || pub.got[0].TimeZone != "Europe/London" {
+			t.Errorf("published %+v", pub.got)
+		}
+		if _, err := NewScheduler(db, DefaultShifts, ldn, nil, c.Now); err == nil {
+			t.Error("NewScheduler without a publisher succeeded")
+		}
+	})
+}
+
+// cleanPath spells a SQLite path another way (a second process may); a
+// PostgreSQL URL stays as it is.
+func cleanPath(b backend, dsn string) string {
+	if b.name == "sqlite" {
+		return filepath.Clean(dsn)
 	}
-	if _, err := s.RunDue(context.Background()); err != nil {
-		t.Fatal(err)
-	}
-	if len(pub.got) != 1 || !pub.got[0].Until.Equal(time.Date(2026, 7, 1, 17, 0, 0, 0, time.UTC)) || pub.got[0].TimeZone != "Europe/London" {
-		t.Errorf("published %+v", pub.got)
-	}
-	if _, err := NewScheduler(db, DefaultShifts, ldn, nil, c.Now); err == nil {
-		t.Error("NewScheduler without a publisher succeeded")
-	}
+	return dsn
 }

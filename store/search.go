@@ -28,8 +28,10 @@ type SearchOptions struct {
 	// HazardAny matches a query with any of these codes (any case); with
 	// Hazard it finds a code together with its older aliases.
 	HazardAny []string
-	Limit     int // page size; 0 means 50, at most 1000
-	Offset    int // rows to skip, for paging
+	// Site limits the search to one site; "" searches every site.
+	Site   string
+	Limit  int // page size; 0 means 50, at most 1000
+	Offset int // rows to skip, for paging
 }
 
 // SearchPage is one page of results, newest first.
@@ -61,6 +63,13 @@ func (db *DB) Search(ctx context.Context, o SearchOptions) (SearchPage, error) {
 	if page.Offset < 0 {
 		return page, fmt.Errorf("search: %w: negative offset %d", ErrInvalid, page.Offset)
 	}
+	if o.Site != "" {
+		site, err := NormalizeSite(o.Site)
+		if err != nil {
+			return page, fmt.Errorf("search: %w", err)
+		}
+		o.Site = site
+	}
 	if o.Verdict != "" && !ValidVerdict(o.Verdict) {
 		return page, fmt.Errorf("search: %w: verdict %q is not one of %s", ErrInvalid, o.Verdict, strings.Join(Verdicts, ", "))
 	}
@@ -80,14 +89,21 @@ func (db *DB) Search(ctx context.Context, o SearchOptions) (SearchPage, error) {
 			return page, fmt.Errorf("search: bring the index up to date: %w", err)
 		}
 	}
-	tx, err := db.r.BeginTx(ctx, nil)
+	tx, err := db.readTx(ctx)
 	if err != nil {
 		return page, fmt.Errorf("search: %w", err)
 	}
 	defer tx.Rollback()
-	where, args := searchFilters(o)
+	where, args := searchFilters(o, db.pg)
 	cols := "q." + strings.ReplaceAll(strings.ReplaceAll(rowColumns, "\n\t", " "), ", ", ", q.")
-	if len(phrases) == 0 {
+	if len(phrases) > 0 && db.pg {
+		match, margs := pgMatch(phrases)
+		stmt := `SELECT ` + cols + ` FROM queries q WHERE ` + strings.Join(append(where, match), " AND ") +
+			` ORDER BY q.id DESC LIMIT ? OFFSET ?`
+		err = readPage(ctx, tx, &page, stmt, append(append(args, margs...), page.Limit+1, page.Offset))
+	} else if len(phrases) == 0 && (o.Hazard != "" || len(o.HazardAny) > 0) {
+		err = db.searchHazards(ctx, tx, o, &page, cols, where, args)
+	} else if len(phrases) == 0 {
 		stmt := `SELECT ` + cols + ` FROM queries q WHERE ` + strings.Join(where, " AND ") +
 			` ORDER BY q.id DESC LIMIT ? OFFSET ?`
 		err = readPage(ctx, tx, &page, stmt, append(args, page.Limit+1, page.Offset))
@@ -143,7 +159,10 @@ func (db *DB) searchTerms(ctx context.Context, tx *sql.Tx, o SearchOptions, page
 
 // searchFilters turns the filters of o other than the terms into SQL over
 // queries q. The hazard filter reads the hashed hazards of each row.
-func searchFilters(o SearchOptions) ([]string, []any) {
+func searchFilters(o SearchOptions, pg bool) ([]string, []any) {
+	if pg {
+		return pgSearchFilters(o)
+	}
 	where := []string{`q.kind = 'query'`}
 	var args []any
 	if !o.Since.IsZero() {
@@ -162,6 +181,10 @@ func searchFilters(o SearchOptions) ([]string, []any) {
 		where = append(where, `q.verdict = ?`)
 		args = append(args, o.Verdict)
 	}
+	if o.Site != "" {
+		where = append(where, `q.site = ?`)
+		args = append(args, o.Site)
+	}
 	if o.Hazard != "" {
 		// A quick test on the JSON text, then the exact one.
 		code, _ := json.Marshal(o.Hazard)
@@ -173,6 +196,49 @@ func searchFilters(o SearchOptions) ([]string, []any) {
 	if len(o.HazardAny) > 0 {
 		marks := strings.TrimSuffix(strings.Repeat("?, ", len(o.HazardAny)), ", ")
 		where = append(where, `EXISTS (SELECT 1 FROM json_each(q.hazards) j WHERE json_extract(j.value, '$.code') COLLATE NOCASE IN (`+marks+`))`)
+		for _, c := range o.HazardAny {
+			args = append(args, c)
+		}
+	}
+	return where, args
+}
+
+// pgSearchFilters is searchFilters in PostgreSQL's terms: SQLite's NOCASE
+// and LIKE fold ASCII letters only, as lower() and ILIKE do under the "C"
+// collation the columns compare in.
+func pgSearchFilters(o SearchOptions) ([]string, []any) {
+	where := []string{`q.kind = 'query'`}
+	var args []any
+	if !o.Since.IsZero() {
+		where = append(where, `q.time >= ?`)
+		args = append(args, formatTime(o.Since))
+	}
+	if !o.Until.IsZero() {
+		where = append(where, `q.time < ?`)
+		args = append(args, formatTime(o.Until))
+	}
+	if o.User != "" {
+		where = append(where, `(lower(q.user_name) = lower(?) OR q.user_id = ?)`)
+		args = append(args, o.User, o.User)
+	}
+	if o.Verdict != "" {
+		where = append(where, `q.verdict = ?`)
+		args = append(args, o.Verdict)
+	}
+	if o.Site != "" {
+		where = append(where, `q.site = ?`)
+		args = append(args, o.Site)
+	}
+	if o.Hazard != "" {
+		code, _ := json.Marshal(o.Hazard)
+		like := strings.NewReplacer(`\`, `\\`, `%`, `\%`, `_`, `\_`).Replace(`"code":` + string(code))
+		where = append(where, `q.hazards ILIKE ? ESCAPE '\' AND EXISTS (SELECT 1 FROM jsonb_array_elements(q.hazards::jsonb) j
+			WHERE lower(j->>'code') = lower(?))`)
+		args = append(args, "%"+like+"%", o.Hazard)
+	}
+	if len(o.HazardAny) > 0 {
+		marks := strings.TrimSuffix(strings.Repeat("lower(?), ", len(o.HazardAny)), ", ")
+		where = append(where, `EXISTS (SELECT 1 FROM jsonb_array_elements(q.hazards::jsonb) j WHERE lower(j->>'code') IN (`+marks+`))`)
 		for _, c := range o.HazardAny {
 			args = append(args, c)
 		}

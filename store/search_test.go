@@ -12,10 +12,10 @@ import (
 )
 
 // searchFixture logs nine queries ten minutes apart from t0 (ids 1–9).
-func searchFixture(t *testing.T) *DB {
+func searchFixture(t *testing.T, b backend) *DB {
 	t.Helper()
 	c := newClock(t0)
-	db, _ := mustOpen(t, c.Now)
+	db, _ := b.mustOpen(t, c.Now)
 	mk := func(user, req, verdict, errText string, species []string, hz ...Hazard) *Query {
 		return &Query{UserID: "U-" + user, UserName: user, Channel: "C0SHIFT", Request: req, Verdict: verdict,
 			Error: errText, Species: species, Hazards: hz}
@@ -49,168 +49,176 @@ func ids(qs []*Query) []int64 {
 }
 
 func TestSearchHostileTerms(t *testing.T) {
-	db := searchFixture(t)
-	ctx := context.Background()
-	none := []int64{}
-	for _, tc := range []struct {
-		terms string
-		want  []int64
-	}{
-		{"NaOCl", []int64{9, 8, 7, 1}}, // 9 through its resolved text
-		{"naocl", []int64{9, 8, 7, 1}},
-		{`"NaOCl`, []int64{9, 8, 7, 1}}, // unclosed quote
-		{`NaOCl"`, []int64{9, 8, 7, 1}},
-		{`'NaOCl'`, []int64{9, 8, 7, 1}},
-		{`NaOCl*`, []int64{9, 8, 7, 1}},
-		{`NaO*`, none},         // * is not a prefix operator: no row has the word "nao"
-		{`Na*`, []int64{9, 6}}, // the word "na" (from Na+), not NaOCl or NaOH
-		{`NEAR`, []int64{2}},
-		{`tank NEAR HCl`, []int64{2}},   // all three words, not a NEAR query
-		{`NEAR/3`, none},                // "near" and "3": no row has both
-		{`-HCl`, []int64{9, 5, 2, 1}},   // not a negation
-		{`HCl -tank`, []int64{5, 2}},    // both words required
-		{`HCl OR CuSO4`, none},          // OR is a word, not an operator
-		{`NaOCl NOT HCl`, none},         // likewise NOT
-		{`HCl AND NaOCl`, none},         // and AND
-		{`(HCl)`, []int64{9, 5, 2, 1}},  // parentheses dropped
-		{`((`, none},                    // nothing searchable
-		{`)`, none},                     //
-		{`*`, none},                     //
-		{`"`, none},                     //
-		{`""`, none},                    //
-		{`-`, none},                     //
-		{`^`, none},                     //
-		{`request:NaOCl`, none},         // not a column filter
-		{`species:MnO4`, none},          //
-		{`Fe^2+`, []int64{4}},           // phrase "fe 2"
-		{`MnO4-`, []int64{4}},           //
-		{`Zn(s)`, []int64{3}},           // phrase "zn s"
-		{`Cu(s)`, none},                 // Cu^2+ and Zn(s) are in row 3 but "cu s" is not a phrase there
-		{`café`, []int64{6}},            //
-		{`CAFÉ`, []int64{6}},            //
-		{`cafe`, []int64{6}},            // accents folded
-		{`opérateur`, none},             // user names are filtered, not searched
-		{`水処理`, []int64{7}},             //
-		{`混合 NaOCl`, []int64{7}},        //
-		{`chlorine gas`, []int64{9, 1}}, // hazard message
-		{`"released chlorine"`, none},   // a phrase keeps its order
-		{`"chlorine gas"`, []int64{9, 1}},
-		{`CL2-GAS`, []int64{9, 1}}, // hazard code
-		{`gas`, []int64{9, 8, 1}},
-		{`T-101`, []int64{9, 2}},
-		{`'; DROP TABLE queries; --`, none},
-		{`%`, none},
-		{`_`, none},
-		{"NaOCl\x00", []int64{9, 8, 7, 1}},
-		{"\xff\xfeNaOCl", []int64{9, 8, 7, 1}},
-		{"💥", none},
-		{strings.Repeat("HCl ", 2000), []int64{9, 5, 2, 1}},
-		{strings.Repeat("x", 10000), none},
-		{strings.Repeat("(", 500) + "HCl" + strings.Repeat(")", 500), []int64{9, 5, 2, 1}},
-	} {
-		name := tc.terms
-		if len(name) > 40 {
-			name = name[:40]
+	eachBackend(t, func(t *testing.T, b backend) {
+		db := searchFixture(t, b)
+		ctx := context.Background()
+		none := []int64{}
+		for _, tc := range []struct {
+			terms string
+			want  []int64
+		}{
+			{"NaOCl", []int64{9, 8, 7, 1}}, // 9 through its resolved text
+			{"naocl", []int64{9, 8, 7, 1}},
+			{`"NaOCl`, []int64{9, 8, 7, 1}}, // unclosed quote
+			{`NaOCl"`, []int64{9, 8, 7, 1}},
+			{`'NaOCl'`, []int64{9, 8, 7, 1}},
+			{`NaOCl*`, []int64{9, 8, 7, 1}},
+			{`NaO*`, none},         // * is not a prefix operator: no row has the word "nao"
+			{`Na*`, []int64{9, 6}}, // the word "na" (from Na+), not NaOCl or NaOH
+			{`NEAR`, []int64{2}},
+			{`tank NEAR HCl`, []int64{2}},   // all three words, not a NEAR query
+			{`NEAR/3`, none},                // "near" and "3": no row has both
+			{`-HCl`, []int64{9, 5, 2, 1}},   // not a negation
+			{`HCl -tank`, []int64{5, 2}},    // both words required
+			{`HCl OR CuSO4`, none},          // OR is a word, not an operator
+			{`NaOCl NOT HCl`, none},         // likewise NOT
+			{`HCl AND NaOCl`, none},         // and AND
+			{`(HCl)`, []int64{9, 5, 2, 1}},  // parentheses dropped
+			{`((`, none},                    // nothing searchable
+			{`)`, none},                     //
+			{`*`, none},                     //
+			{`"`, none},                     //
+			{`""`, none},                    //
+			{`-`, none},                     //
+			{`^`, none},                     //
+			{`request:NaOCl`, none},         // not a column filter
+			{`species:MnO4`, none},          //
+			{`Fe^2+`, []int64{4}},           // phrase "fe 2"
+			{`MnO4-`, []int64{4}},           //
+			{`Zn(s)`, []int64{3}},           // phrase "zn s"
+			{`Cu(s)`, none},                 // Cu^2+ and Zn(s) are in row 3 but "cu s" is not a phrase there
+			{`café`, []int64{6}},            //
+			{`CAFÉ`, []int64{6}},            //
+			{`cafe`, []int64{6}},            // accents folded
+			{`opérateur`, none},             // user names are filtered, not searched
+			{`水処理`, []int64{7}},             //
+			{`混合 NaOCl`, []int64{7}},        //
+			{`chlorine gas`, []int64{9, 1}}, // hazard message
+			{`"released chlorine"`, none},   // a phrase keeps its order
+			{`"chlorine gas"`, []int64{9, 1}},
+			{`CL2-GAS`, []int64{9, 1}}, // hazard code
+			{`gas`, []int64{9, 8, 1}},
+			{`T-101`, []int64{9, 2}},
+			{`'; DROP TABLE queries; --`, none},
+			{`%`, none},
+			{`_`, none},
+			{"NaOCl\x00", []int64{9, 8, 7, 1}},
+			{"\xff\xfeNaOCl", []int64{9, 8, 7, 1}},
+			{"💥", none},
+			{strings.Repeat("HCl ", 2000), []int64{9, 5, 2, 1}},
+			{strings.Repeat("x", 10000), none},
+			{strings.Repeat("(", 500) + "HCl" + strings.Repeat(")", 500), []int64{9, 5, 2, 1}},
+		} {
+			name := tc.terms
+			if len(name) > 40 {
+				name = name[:40]
+			}
+			t.Run(name, func(t *testing.T) {
+				page, err := db.Search(ctx, SearchOptions{Terms: tc.terms})
+				if err != nil {
+					t.Fatalf("Search(%q): %v", tc.terms, err)
+				}
+				if got := ids(page.Queries); !reflect.DeepEqual(got, tc.want) {
+					t.Errorf("Search(%q) = %v, want %v (phrases %q)", tc.terms, got, tc.want, page.Phrases)
+				}
+			})
 		}
-		t.Run(name, func(t *testing.T) {
-			page, err := db.Search(ctx, SearchOptions{Terms: tc.terms})
-			if err != nil {
-				t.Fatalf("Search(%q): %v", tc.terms, err)
-			}
-			if got := ids(page.Queries); !reflect.DeepEqual(got, tc.want) {
-				t.Errorf("Search(%q) = %v, want %v (phrases %q)", tc.terms, got, tc.want, page.Phrases)
-			}
-		})
-	}
-	if n, err := db.Count(ctx); err != nil || n != 9 {
-		t.Errorf("after hostile searches Count = %d, %v", n, err)
-	}
+		if n, err := db.Count(ctx); err != nil || n != 9 {
+			t.Errorf("after hostile searches Count = %d, %v", n, err)
+		}
+	})
 }
 
 func TestSearchFilters(t *testing.T) {
-	db := searchFixture(t)
-	ctx := context.Background()
-	for _, tc := range []struct {
-		name string
-		o    SearchOptions
-		want []int64
-	}{
-		{"all", SearchOptions{}, []int64{9, 8, 7, 6, 5, 4, 3, 2, 1}},
-		{"verdict error", SearchOptions{Verdict: VerdictError}, []int64{5, 2}},
-		{"verdict no-reaction", SearchOptions{Verdict: VerdictNoReaction}, []int64{7, 6}},
-		{"user name any case", SearchOptions{User: "OP.NORTH"}, []int64{9, 4, 3, 1}},
-		{"user id", SearchOptions{User: "U0TK1"}, []int64{9}},
-		{"unicode user", SearchOptions{User: "opérateur.é"}, []int64{6}},
-		{"hazard code any case", SearchOptions{Hazard: "cl2-gas"}, []int64{9, 1}},
-		{"hazard HEAT", SearchOptions{Hazard: "HEAT"}, []int64{9, 4}},
-		{"hazard unknown", SearchOptions{Hazard: "NOPE"}, []int64{}},
-		{"any of several hazard codes", SearchOptions{HazardAny: []string{"nope", "Cl2-gas", "heat"}}, []int64{9, 4, 1}},
-		{"any of no known codes", SearchOptions{HazardAny: []string{"nope"}}, []int64{}},
-		{"since", SearchOptions{Since: t0.Add(60 * time.Minute)}, []int64{9, 8, 7}},
-		{"until", SearchOptions{Until: t0.Add(20 * time.Minute)}, []int64{2, 1}},
-		{"window and terms", SearchOptions{Terms: "HCl", Since: t0.Add(30 * time.Minute), Until: t0.Add(60 * time.Minute)}, []int64{5}},
-		{"window before all", SearchOptions{Terms: "HCl", Until: t0}, []int64{}},
-		{"window after all", SearchOptions{Terms: "HCl", Since: t0.Add(24 * time.Hour)}, []int64{}},
-		{"terms and user", SearchOptions{Terms: "NaOCl", User: "op.east"}, []int64{8, 7}},
-		{"terms, verdict, hazard", SearchOptions{Terms: "gas", Verdict: VerdictSpontaneous, Hazard: "O2-GAS"}, []int64{8}},
-	} {
-		t.Run(tc.name, func(t *testing.T) {
-			page, err := db.Search(ctx, tc.o)
-			if err != nil {
-				t.Fatal(err)
-			}
-			if got := ids(page.Queries); !reflect.DeepEqual(got, tc.want) {
-				t.Errorf("Search(%+v) = %v, want %v", tc.o, got, tc.want)
-			}
-		})
-	}
+	eachBackend(t, func(t *testing.T, b backend) {
+		db := searchFixture(t, b)
+		ctx := context.Background()
+		for _, tc := range []struct {
+			name string
+			o    SearchOptions
+			want []int64
+		}{
+			{"all", SearchOptions{}, []int64{9, 8, 7, 6, 5, 4, 3, 2, 1}},
+			{"verdict error", SearchOptions{Verdict: VerdictError}, []int64{5, 2}},
+			{"verdict no-reaction", SearchOptions{Verdict: VerdictNoReaction}, []int64{7, 6}},
+			{"user name any case", SearchOptions{User: "OP.NORTH"}, []int64{9, 4, 3, 1}},
+			{"user id", SearchOptions{User: "U0TK1"}, []int64{9}},
+			{"unicode user", SearchOptions{User: "opérateur.é"}, []int64{6}},
+			{"hazard code any case", SearchOptions{Hazard: "cl2-gas"}, []int64{9, 1}},
+			{"hazard HEAT", SearchOptions{Hazard: "HEAT"}, []int64{9, 4}},
+			{"hazard unknown", SearchOptions{Hazard: "NOPE"}, []int64{}},
+			{"any of several hazard codes", SearchOptions{HazardAny: []string{"nope", "Cl2-gas", "heat"}}, []int64{9, 4, 1}},
+			{"any of no known codes", SearchOptions{HazardAny: []string{"nope"}}, []int64{}},
+			{"since", SearchOptions{Since: t0.Add(60 * time.Minute)}, []int64{9, 8, 7}},
+			{"until", SearchOptions{Until: t0.Add(20 * time.Minute)}, []int64{2, 1}},
+			{"window and terms", SearchOptions{Terms: "HCl", Since: t0.Add(30 * time.Minute), Until: t0.Add(60 * time.Minute)}, []int64{5}},
+			{"window before all", SearchOptions{Terms: "HCl", Until: t0}, []int64{}},
+			{"window after all", SearchOptions{Terms: "HCl", Since: t0.Add(24 * time.Hour)}, []int64{}},
+			{"terms and user", SearchOptions{Terms: "NaOCl", User: "op.east"}, []int64{8, 7}},
+			{"terms, verdict, hazard", SearchOptions{Terms: "gas", Verdict: VerdictSpontaneous, Hazard: "O2-GAS"}, []int64{8}},
+		} {
+			t.Run(tc.name, func(t *testing.T) {
+				page, err := db.Search(ctx, tc.o)
+				if err != nil {
+					t.Fatal(err)
+				}
+				if got := ids(page.Queries); !reflect.DeepEqual(got, tc.want) {
+					t.Errorf("Search(%+v) = %v, want %v", tc.o, got, tc.want)
+				}
+			})
+		}
+	})
 }
 
 func TestSearchPaging(t *testing.T) {
-	db := searchFixture(t)
-	ctx := context.Background()
-	var all []int64
-	o := SearchOptions{Limit: 4}
-	for pages := 0; ; pages++ {
-		if pages > 5 {
-			t.Fatal("paging does not end")
-		}
-		page, err := db.Search(ctx, o)
-		if err != nil {
-			t.Fatal(err)
-		}
-		all = append(all, ids(page.Queries)...)
-		if !page.HasMore {
-			if len(page.Queries) != 1 || page.NextOffset != 0 {
-				t.Errorf("last page = %v next %d, want one row and no next offset", ids(page.Queries), page.NextOffset)
+	eachBackend(t, func(t *testing.T, b backend) {
+		db := searchFixture(t, b)
+		ctx := context.Background()
+		var all []int64
+		o := SearchOptions{Limit: 4}
+		for pages := 0; ; pages++ {
+			if pages > 5 {
+				t.Fatal("paging does not end")
 			}
-			break
+			page, err := db.Search(ctx, o)
+			if err != nil {
+				t.Fatal(err)
+			}
+			all = append(all, ids(page.Queries)...)
+			if !page.HasMore {
+				if len(page.Queries) != 1 || page.NextOffset != 0 {
+					t.Errorf("last page = %v next %d, want one row and no next offset", ids(page.Queries), page.NextOffset)
+				}
+				break
+			}
+			if len(page.Queries) != 4 || page.NextOffset != o.Offset+4 {
+				t.Errorf("page at %d = %v next %d", o.Offset, ids(page.Queries), page.NextOffset)
+			}
+			o.Offset = page.NextOffset
 		}
-		if len(page.Queries) != 4 || page.NextOffset != o.Offset+4 {
-			t.Errorf("page at %d = %v next %d", o.Offset, ids(page.Queries), page.NextOffset)
+		if want := []int64{9, 8, 7, 6, 5, 4, 3, 2, 1}; !reflect.DeepEqual(all, want) {
+			t.Errorf("pages = %v, want %v", all, want)
 		}
-		o.Offset = page.NextOffset
-	}
-	if want := []int64{9, 8, 7, 6, 5, 4, 3, 2, 1}; !reflect.DeepEqual(all, want) {
-		t.Errorf("pages = %v, want %v", all, want)
-	}
-	page, _ := db.Search(ctx, SearchOptions{Limit: 1, Offset: 9})
-	if len(page.Queries) != 0 || page.HasMore {
-		t.Errorf("page past the end = %+v", page)
-	}
-	page, _ = db.Search(ctx, SearchOptions{Limit: 5000})
-	if page.Limit != MaxLimit {
-		t.Errorf("Limit 5000 used as %d, want %d", page.Limit, MaxLimit)
-	}
+		page, _ := db.Search(ctx, SearchOptions{Limit: 1, Offset: 9})
+		if len(page.Queries) != 0 || page.HasMore {
+			t.Errorf("page past the end = %+v", page)
+		}
+		page, _ = db.Search(ctx, SearchOptions{Limit: 5000})
+		if page.Limit != MaxLimit {
+			t.Errorf("Limit 5000 used as %d, want %d", page.Limit, MaxLimit)
+		}
+	})
 }
 
 func TestSearchInvalid(t *testing.T) {
-	db := searchFixture(t)
-	for _, o := range []SearchOptions{{Verdict: "dangerous"}, {Offset: -1}} {
-		if _, err := db.Search(context.Background(), o); !errors.Is(err, ErrInvalid) {
-			t.Errorf("Search(%+v) = %v, want ErrInvalid", o, err)
+	eachBackend(t, func(t *testing.T, b backend) {
+		db := searchFixture(t, b)
+		for _, o := range []SearchOptions{{Verdict: "dangerous"}, {Offset: -1}} {
+			if _, err := db.Search(context.Background(), o); !errors.Is(err, ErrInvalid) {
+				t.Errorf("Search(%+v) = %v, want ErrInvalid", o, err)
+			}
 		}
-	}
+	})
 }
 
 func TestPhrases(t *testing.T) {
@@ -322,44 +330,48 @@ func TestSearchIndexCatchesUp(t *testing.T) {
 // TestSearchWindowClockStepBack logs rows whose times go backwards (a clock
 // stepped back) and checks that time windows still find every row.
 func TestSearchWindowClockStepBack(t *testing.T) {
-	db, _ := mustOpen(t, nil)
-	ctx := context.Background()
-	for i, min := range []int{0, 10, 20, 5, 30} { // the fourth row is earlier than the third
-		q := demoQuery()
-		q.Time = t0.Add(time.Duration(min) * time.Minute)
-		q.Request = fmt.Sprintf("mix T-%d + HCl", 101+i)
-		mustLog(t, db, q)
-	}
-	var broken bool
-	db.r.QueryRowContext(ctx, `SELECT time_order_broken FROM search_state`).Scan(&broken)
-	if !broken {
-		t.Error("time_order_broken not set after a row earlier than the one before it")
-	}
-	for _, tc := range []struct {
-		since, until int
-		want         []int64
-	}{
-		{0, 8, []int64{4, 1}},
-		{4, 6, []int64{4}},
-		{5, 25, []int64{4, 3, 2}},
-		{25, 60, []int64{5}},
-	} {
-		o := SearchOptions{Terms: "HCl", Since: t0.Add(time.Duration(tc.since) * time.Minute), Until: t0.Add(time.Duration(tc.until) * time.Minute)}
-		page, err := db.Search(ctx, o)
-		if err != nil || !reflect.DeepEqual(ids(page.Queries), tc.want) {
-			t.Errorf("window %d–%d min: %v, %v; want %v", tc.since, tc.until, ids(page.Queries), err, tc.want)
+	eachBackend(t, func(t *testing.T, b backend) {
+		db, _ := b.mustOpen(t, nil)
+		ctx := context.Background()
+		for i, min := range []int{0, 10, 20, 5, 30} { // the fourth row is earlier than the third
+			q := demoQuery()
+			q.Time = t0.Add(time.Duration(min) * time.Minute)
+			q.Request = fmt.Sprintf("mix T-%d + HCl", 101+i)
+			mustLog(t, db, q)
 		}
-	}
+		var broken bool
+		db.r.QueryRowContext(ctx, `SELECT time_order_broken FROM search_state`).Scan(&broken)
+		if !broken {
+			t.Error("time_order_broken not set after a row earlier than the one before it")
+		}
+		for _, tc := range []struct {
+			since, until int
+			want         []int64
+		}{
+			{0, 8, []int64{4, 1}},
+			{4, 6, []int64{4}},
+			{5, 25, []int64{4, 3, 2}},
+			{25, 60, []int64{5}},
+		} {
+			o := SearchOptions{Terms: "HCl", Since: t0.Add(time.Duration(tc.since) * time.Minute), Until: t0.Add(time.Duration(tc.until) * time.Minute)}
+			page, err := db.Search(ctx, o)
+			if err != nil || !reflect.DeepEqual(ids(page.Queries), tc.want) {
+				t.Errorf("window %d–%d min: %v, %v; want %v", tc.since, tc.until, ids(page.Queries), err, tc.want)
+			}
+		}
+	})
 }
 
 func TestSearchWindowEqualTimes(t *testing.T) {
-	db, _ := mustOpen(t, newClock(t0).Now) // every row at the same instant
-	ctx := context.Background()
-	for i := 0; i < 5; i++ {
-		mustLog(t, db, demoQuery())
-	}
-	page, err := db.Search(ctx, SearchOptions{Terms: "HCl", Since: t0, Until: t0.Add(time.Second)})
-	if err != nil || !reflect.DeepEqual(ids(page.Queries), []int64{5, 4, 3, 2, 1}) {
-		t.Errorf("equal times: %v, %v", ids(page.Queries), err)
-	}
+	eachBackend(t, func(t *testing.T, b backend) {
+		db, _ := b.mustOpen(t, newClock(t0).Now) // every row at the same instant
+		ctx := context.Background()
+		for i := 0; i < 5; i++ {
+			mustLog(t, db, demoQuery())
+		}
+		page, err := db.Search(ctx, SearchOptions{Terms: "HCl", Since: t0, Until: t0.Add(time.Second)})
+		if err != nil || !reflect.DeepEqual(ids(page.Queries), []int64{5, 4, 3, 2, 1}) {
+			t.Errorf("equal times: %v, %v", ids(page.Queries), err)
+		}
+	})
 }

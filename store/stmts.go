@@ -34,12 +34,22 @@ const insertV3 = `INSERT INTO queries (id, kind, time, user_id, user_name, chann
 	error, species, oxidizer, reducer, e_cell_v, e_cell_standard_v, hazards, streams, result, engine_version, data_hash,
 	prev_hash, hash) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`
 
+// insertV7 inserts a row into a file of schema version 4–7 (tests build
+// them), which has no site column.
+const insertV7 = `INSERT INTO queries (id, kind, time, user_id, user_name, channel, event_id, request, resolved, verdict,
+	error, species, oxidizer, reducer, e_cell_v, e_cell_standard_v, hazards, streams, result, engine_version, data_hash,
+	prev_hash, hash, chain, key_id) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`
+
 // writeStmts are the statements of LogQuery.
 type writeStmts struct {
 	head, insert, hazard, index, event, indexed, setIndexed, timeBroken stmt
+	seq                                                                 stmt // PostgreSQL: chain_state.seq
 }
 
-func newWriteStmts() *writeStmts {
+func newWriteStmts(pg bool) *writeStmts {
+	if pg {
+		return &writeStmts{} // PostgreSQL writes through pgchain.go
+	}
 	return &writeStmts{
 		// The highest id ever issued, the newest row's id and its hash.
 		head: stmt{sql: `SELECT coalesce((SELECT seq FROM sqlite_sequence WHERE name = 'queries'), 0),
@@ -48,7 +58,7 @@ func newWriteStmts() *writeStmts {
 			coalesce((SELECT time FROM queries ORDER BY id DESC LIMIT 1), '')`},
 		timeBroken: stmt{sql: `UPDATE search_state SET time_order_broken = 1 WHERE time_order_broken = 0`},
 		insert: stmt{sql: `INSERT INTO queries (` + rowColumns + `)
-			VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`},
+			VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`},
 		hazard: stmt{sql: `INSERT INTO query_hazards (query_id, pos, code, severity, message) VALUES (?, ?, ?, ?, ?)`},
 		index: stmt{sql: `INSERT INTO query_fts (docid, request, species, hazards)
 			SELECT ` + ftsDocColumns + ` FROM queries q WHERE q.kind = 'query' AND q.id > ? AND q.id <= ?`},

@@ -1,5 +1,7 @@
 // Package store keeps mixward's query log, site stream catalogue and digest
-// records in one SQLite file (github.com/mattn/go-sqlite3).
+// records in one SQLite file (github.com/mattn/go-sqlite3), or in a
+// PostgreSQL database (github.com/jackc/pgx/v5) shared by several replicas
+// (see postgres.go).
 //
 // Every answer the bot gives is a safety record: LogQuery writes it in one
 // transaction, chained by SHA-256 to the row before it, before the answer is
@@ -50,6 +52,20 @@ type Options struct {
 	// OlderSchema lets OpenReadOnly read a file of an older schema version
 	// as it is; only Verify may then be used on it.
 	OlderSchema bool
+	// Pool tunes the connection pool of a PostgreSQL database.
+	Pool Pool
+	// Site is the site this process serves: the stream catalogue it
+	// resolves tags in, the site its queries are logged under and its
+	// digests cover. "" means DefaultSite.
+	Site string
+	// Replica names this process among several sharing one database (the
+	// owner of inbox leases); "" means host name and process id.
+	Replica string
+	// InboxLease, when positive, makes each pending inbox entry belong to
+	// the replica that accepted or swept it for this long: another
+	// replica's PendingMessages skips it until the lease runs out. Zero
+	// (the default for SQLite) lists every pending entry.
+	InboxLease time.Duration
 }
 
 // DB is an open mixward database. It is safe for concurrent use.
@@ -58,11 +74,17 @@ type DB struct {
 	w    *sql.DB // writer: one connection, BEGIN IMMEDIATE
 	r    *sql.DB // readers: mode=ro (temporary tables allowed)
 	ws   *writeStmts
-	ver  int // schema version applied by Open (as found, for OpenReadOnly)
+	ver  int // schema version applied by Open (as found, for OpenReadOnly), in SQLite's numbering
+	pgv  int // PostgreSQL: the schema version in pgmigrations' numbering
 	now  func() time.Time
 	loc  *time.Location
 	key  *ChainKey
-	ro   bool // opened by OpenReadOnly: w is nil
+	ro   bool // opened by OpenReadOnly: w is nil (SQLite) or refuses writes (PostgreSQL)
+	pg   bool // PostgreSQL: w and r are one pool
+
+	replica string
+	lease   time.Duration
+	site    string
 }
 
 // Sentinel errors. Wrapped errors match with errors.Is.
@@ -90,10 +112,18 @@ var (
 // busyTimeout is how long a connection waits for another writer (ms).
 const busyTimeout = 5000
 
-// Open opens (creating if needed) the database file at path and applies any
-// pending migrations. path is a file name; ":memory:" is refused because each
+// Open opens (creating if needed) the database at path and applies any
+// pending migrations. path is a SQLite file name, or a PostgreSQL URL
+// (postgres://… or postgresql://…, see IsPostgres) whose database must
+// exist; the tables are created in it. ":memory:" is refused because each
 // pooled connection would see its own empty database.
 func Open(ctx context.Context, path string, opt Options) (*DB, error) {
+	if _, err := NormalizeSite(opt.Site); err != nil {
+		return nil, fmt.Errorf("open database: %w (MIXWARD_SITE or --site)", err)
+	}
+	if IsPostgres(path) {
+		return openPostgres(ctx, path, opt, false, len(pgMigrations))
+	}
 	return openAt(ctx, path, opt, len(migrations))
 }
 
@@ -107,7 +137,7 @@ func openAt(ctx context.Context, path string, opt Options, upto int) (*DB, error
 		return nil, fmt.Errorf("open database %q: %w: give a plain file path", path, ErrInvalid)
 	}
 	db := newDB(path, opt)
-	db.ws = newWriteStmts()
+	db.ws = newWriteStmts(false)
 	if err := createPrivate(path); err != nil {
 		return nil, fmt.Errorf("open database %s: %w (check the directory exists and is writable)", path, err)
 	}
@@ -152,6 +182,12 @@ func newDB(path string, opt Options) *DB {
 	}
 	if db.loc == nil {
 		db.loc = time.UTC
+	}
+	db.replica, db.lease = opt.Replica, opt.InboxLease
+	db.site, _ = NormalizeSite(opt.Site) // checked by Open
+	if db.replica == "" {
+		host, _ := os.Hostname()
+		db.replica = fmt.Sprintf("%s-%d-%d", host, os.Getpid(), time.Now().UnixNano()%1e6)
 	}
 	return db
 }
@@ -205,6 +241,9 @@ func dsn(path string, extra ...string) string {
 // Close closes the database.
 func (db *DB) Close() error {
 	var errs []error
+	if db.pg {
+		return db.r.Close()
+	}
 	if db.w != nil && db.r != nil && db.ver >= 2 {
 		// Leave the search index complete.
 		if err := db.syncIndex(context.Background()); err != nil {
@@ -226,7 +265,8 @@ func (db *DB) Close() error {
 	return errors.Join(errs...)
 }
 
-// Path is the database file name.
+// Path is the database file name (for PostgreSQL, its URL without the
+// password).
 func (db *DB) Path() string { return db.path }
 
 // Location is the site time zone the database renders times in.
@@ -250,6 +290,9 @@ func parseTime(s string) (time.Time, error) {
 
 // isUnique reports whether err is a UNIQUE or PRIMARY KEY constraint failure.
 func isUnique(err error) bool {
+	if pgUnique(err) {
+		return true
+	}
 	var se sqlite3.Error
 	return errors.As(err, &se) && (se.ExtendedCode == sqlite3.ErrConstraintUnique || se.ExtendedCode == sqlite3.ErrConstraintPrimaryKey)
 }

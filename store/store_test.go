@@ -159,168 +159,180 @@ func TestOpenPaths(t *testing.T) {
 }
 
 func TestLogQueryRoundTrip(t *testing.T) {
-	c := newClock(t0.Add(90 * time.Minute))
-	db, _ := mustOpen(t, c.Now)
-	ctx := context.Background()
-	q := demoQuery()
-	id := mustLog(t, db, q)
-	if id != 1 || q.ID != 1 {
-		t.Fatalf("first id = %d (q.ID %d), want 1", id, q.ID)
-	}
-	if !q.Time.Equal(c.Now()) || q.Time.Location() != time.UTC {
-		t.Errorf("Time = %v, want the clock %v in UTC", q.Time, c.Now())
-	}
-	if q.PrevHash != "" || len(q.Hash) != 64 {
-		t.Errorf("hashes = %q / %q, want genesis \"\" and a 64-hex hash", q.PrevHash, q.Hash)
-	}
-	got, err := db.Get(ctx, id)
-	if err != nil {
-		t.Fatal(err)
-	}
-	q.Result = json.RawMessage(`{"verdict":"spontaneous","e_cell_v":0.12}`) // stored compacted
-	if !reflect.DeepEqual(got, q) {
-		t.Errorf("Get = %+v\nwant %+v", got, q)
-	}
+	eachBackend(t, func(t *testing.T, b backend) {
+		c := newClock(t0.Add(90 * time.Minute))
+		db, _ := b.mustOpen(t, c.Now)
+		ctx := context.Background()
+		q := demoQuery()
+		id := mustLog(t, db, q)
+		if id != 1 || q.ID != 1 {
+			t.Fatalf("first id = %d (q.ID %d), want 1", id, q.ID)
+		}
+		if !q.Time.Equal(c.Now()) || q.Time.Location() != time.UTC {
+			t.Errorf("Time = %v, want the clock %v in UTC", q.Time, c.Now())
+		}
+		if q.PrevHash != "" || len(q.Hash) != 64 {
+			t.Errorf("hashes = %q / %q, want genesis \"\" and a 64-hex hash", q.PrevHash, q.Hash)
+		}
+		got, err := db.Get(ctx, id)
+		if err != nil {
+			t.Fatal(err)
+		}
+		q.Result = json.RawMessage(`{"verdict":"spontaneous","e_cell_v":0.12}`) // stored compacted
+		if !reflect.DeepEqual(got, q) {
+			t.Errorf("Get = %+v\nwant %+v", got, q)
+		}
 
-	// The second row links to the first; a caller-set time is kept.
-	q2 := demoQuery()
-	q2.Time = time.Date(2026, 12, 1, 9, 30, 0, 123456789, time.FixedZone("X", 3600))
-	mustLog(t, db, q2)
-	if q2.PrevHash != q.Hash {
-		t.Errorf("row 2 prev_hash = %s, want row 1 hash %s", q2.PrevHash, q.Hash)
-	}
-	g2, err := db.Get(ctx, q2.ID)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if !g2.Time.Equal(q2.Time) || g2.Time.Nanosecond() != 123456789 {
-		t.Errorf("stored time = %v, want %v to the nanosecond", g2.Time, q2.Time)
-	}
-	if _, err := db.Get(ctx, 99); !errors.Is(err, ErrNotFound) {
-		t.Errorf("Get(99) = %v, want ErrNotFound", err)
-	}
+		// The second row links to the first; a caller-set time is kept.
+		q2 := demoQuery()
+		q2.Time = time.Date(2026, 12, 1, 9, 30, 0, 123456789, time.FixedZone("X", 3600))
+		mustLog(t, db, q2)
+		if q2.PrevHash != q.Hash {
+			t.Errorf("row 2 prev_hash = %s, want row 1 hash %s", q2.PrevHash, q.Hash)
+		}
+		g2, err := db.Get(ctx, q2.ID)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !g2.Time.Equal(q2.Time) || g2.Time.Nanosecond() != 123456789 {
+			t.Errorf("stored time = %v, want %v to the nanosecond", g2.Time, q2.Time)
+		}
+		if _, err := db.Get(ctx, 99); !errors.Is(err, ErrNotFound) {
+			t.Errorf("Get(99) = %v, want ErrNotFound", err)
+		}
+	})
 }
 
 func TestLogQueryParseError(t *testing.T) {
-	db, _ := mustOpen(t, newClock(t0).Now)
-	ctx := context.Background()
-	q := &Query{UserName: "op.south", Channel: "console", Request: "mix 200 L Bleech + acid",
-		Verdict: VerdictError, Error: `at position 11: unknown chemical "Bleech"`}
-	id := mustLog(t, db, q)
-	got, err := db.Get(ctx, id)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if got.Error != q.Error || got.Result != nil || len(got.Species) != 0 || got.Species == nil {
-		t.Errorf("parse-error row = %+v; want error text kept, nil result, empty species", got)
-	}
+	eachBackend(t, func(t *testing.T, b backend) {
+		db, _ := b.mustOpen(t, newClock(t0).Now)
+		ctx := context.Background()
+		q := &Query{UserName: "op.south", Channel: "console", Request: "mix 200 L Bleech + acid",
+			Verdict: VerdictError, Error: `at position 11: unknown chemical "Bleech"`}
+		id := mustLog(t, db, q)
+		got, err := db.Get(ctx, id)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got.Error != q.Error || got.Result != nil || len(got.Species) != 0 || got.Species == nil {
+			t.Errorf("parse-error row = %+v; want error text kept, nil result, empty species", got)
+		}
+	})
 }
 
 func TestLogQueryInvalid(t *testing.T) {
-	db, path := mustOpen(t, newClock(t0).Now)
-	nan := 0.0
-	nan = nan / nan
-	for _, tc := range []struct {
-		name string
-		edit func(q *Query)
-		want string
-	}{
-		{"unknown verdict", func(q *Query) { q.Verdict = "maybe" }, "verdict"},
-		{"empty verdict", func(q *Query) { q.Verdict = "" }, "verdict"},
-		{"error without message", func(q *Query) { q.Verdict = VerdictError; q.Error = " " }, "parse error message"},
-		{"NaN potential", func(q *Query) { q.ECellV = &nan }, "e_cell_v"},
-		{"hazard without code", func(q *Query) { q.Hazards = []Hazard{{Severity: "danger"}} }, "no code"},
-		{"bad severity", func(q *Query) { q.Hazards = []Hazard{{Code: "X", Severity: "fatal"}} }, "severity"},
-		{"bad result JSON", func(q *Query) { q.Result = json.RawMessage(`{"a":`) }, "not valid JSON"},
-	} {
-		t.Run(tc.name, func(t *testing.T) {
-			q := demoQuery()
-			tc.edit(q)
-			_, err := db.LogQuery(context.Background(), q)
-			if !errors.Is(err, ErrInvalid) || !strings.Contains(err.Error(), tc.want) {
-				t.Errorf("LogQuery = %v, want ErrInvalid mentioning %q", err, tc.want)
-			}
-		})
-	}
-	var n int
-	rawDB(t, path).QueryRow(`SELECT count(*) FROM queries`).Scan(&n)
-	if n != 0 {
-		t.Errorf("%d rows written by invalid queries, want 0", n)
-	}
+	eachBackend(t, func(t *testing.T, b backend) {
+		db, path := b.mustOpen(t, newClock(t0).Now)
+		nan := 0.0
+		nan = nan / nan
+		for _, tc := range []struct {
+			name string
+			edit func(q *Query)
+			want string
+		}{
+			{"unknown verdict", func(q *Query) { q.Verdict = "maybe" }, "verdict"},
+			{"empty verdict", func(q *Query) { q.Verdict = "" }, "verdict"},
+			{"error without message", func(q *Query) { q.Verdict = VerdictError; q.Error = " " }, "parse error message"},
+			{"NaN potential", func(q *Query) { q.ECellV = &nan }, "e_cell_v"},
+			{"hazard without code", func(q *Query) { q.Hazards = []Hazard{{Severity: "danger"}} }, "no code"},
+			{"bad severity", func(q *Query) { q.Hazards = []Hazard{{Code: "X", Severity: "fatal"}} }, "severity"},
+			{"bad result JSON", func(q *Query) { q.Result = json.RawMessage(`{"a":`) }, "not valid JSON"},
+		} {
+			t.Run(tc.name, func(t *testing.T) {
+				q := demoQuery()
+				tc.edit(q)
+				_, err := db.LogQuery(context.Background(), q)
+				if !errors.Is(err, ErrInvalid) || !strings.Contains(err.Error(), tc.want) {
+					t.Errorf("LogQuery = %v, want ErrInvalid mentioning %q", err, tc.want)
+				}
+			})
+		}
+		var n int
+		b.raw(t, path).QueryRow(`SELECT count(*) FROM queries`).Scan(&n)
+		if n != 0 {
+			t.Errorf("%d rows written by invalid queries, want 0", n)
+		}
+	})
 }
 
 func TestLogQueryDuplicateEvent(t *testing.T) {
-	db, _ := mustOpen(t, newClock(t0).Now)
-	ctx := context.Background()
-	q := demoQuery()
-	q.EventID = "Ev0TANK101"
-	id := mustLog(t, db, q)
-	again := demoQuery()
-	again.EventID = "Ev0TANK101"
-	got, err := db.LogQuery(ctx, again)
-	if !errors.Is(err, ErrDuplicate) || got != id {
-		t.Fatalf("second LogQuery = %d, %v; want %d, ErrDuplicate", got, err, id)
-	}
-	if n, _ := db.Count(ctx); n != 1 {
-		t.Errorf("Count = %d, want 1", n)
-	}
-	// Queries without an event id are never duplicates of each other.
-	mustLog(t, db, demoQuery())
-	mustLog(t, db, demoQuery())
-	if n, _ := db.Count(ctx); n != 3 {
-		t.Errorf("Count = %d, want 3", n)
-	}
+	eachBackend(t, func(t *testing.T, b backend) {
+		db, _ := b.mustOpen(t, newClock(t0).Now)
+		ctx := context.Background()
+		q := demoQuery()
+		q.EventID = "Ev0TANK101"
+		id := mustLog(t, db, q)
+		again := demoQuery()
+		again.EventID = "Ev0TANK101"
+		got, err := db.LogQuery(ctx, again)
+		if !errors.Is(err, ErrDuplicate) || got != id {
+			t.Fatalf("second LogQuery = %d, %v; want %d, ErrDuplicate", got, err, id)
+		}
+		if n, _ := db.Count(ctx); n != 1 {
+			t.Errorf("Count = %d, want 1", n)
+		}
+		// Queries without an event id are never duplicates of each other.
+		mustLog(t, db, demoQuery())
+		mustLog(t, db, demoQuery())
+		if n, _ := db.Count(ctx); n != 3 {
+			t.Errorf("Count = %d, want 3", n)
+		}
+	})
 }
 
 func TestLogQueryCleansText(t *testing.T) {
-	db, _ := mustOpen(t, newClock(t0).Now)
-	q := demoQuery()
-	q.Request = "mix \x00T-101\xff + acid"
-	id := mustLog(t, db, q)
-	got, err := db.Get(context.Background(), id)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if want := "mix \uFFFDT-101\uFFFD + acid"; got.Request != want || q.Request != want {
-		t.Errorf("stored request %q (caller sees %q), want %q", got.Request, q.Request, want)
-	}
-	if rep, err := db.Verify(context.Background()); err != nil || !rep.OK {
-		t.Errorf("Verify = %+v, %v", rep, err)
-	}
+	eachBackend(t, func(t *testing.T, b backend) {
+		db, _ := b.mustOpen(t, newClock(t0).Now)
+		q := demoQuery()
+		q.Request = "mix \x00T-101\xff + acid"
+		id := mustLog(t, db, q)
+		got, err := db.Get(context.Background(), id)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if want := "mix \uFFFDT-101\uFFFD + acid"; got.Request != want || q.Request != want {
+			t.Errorf("stored request %q (caller sees %q), want %q", got.Request, q.Request, want)
+		}
+		if rep, err := db.Verify(context.Background()); err != nil || !rep.OK {
+			t.Errorf("Verify = %+v, %v", rep, err)
+		}
+	})
 }
 
 func TestConcurrentWriters(t *testing.T) {
-	ctx := context.Background()
-	db, path := mustOpen(t, nil)
-	// A second handle on the same file, as `mixward ask` beside the bot.
-	db2, err := Open(ctx, path, Options{})
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer db2.Close()
-	var wg sync.WaitGroup
-	errs := make(chan error, 100)
-	for w, d := range []*DB{db, db2, db, db2} {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for i := 0; i < 25; i++ {
-				q := demoQuery()
-				q.UserName = "writer" + string(rune('A'+w))
-				if _, err := d.LogQuery(ctx, q); err != nil {
-					errs <- err
-					return
+	eachBackend(t, func(t *testing.T, b backend) {
+		ctx := context.Background()
+		db, path := b.mustOpen(t, nil)
+		// A second handle on the same file, as `mixward ask` beside the bot.
+		db2, err := Open(ctx, path, Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		defer db2.Close()
+		var wg sync.WaitGroup
+		errs := make(chan error, 100)
+		for w, d := range []*DB{db, db2, db, db2} {
+			wg.Add(1)
+			go func() {
+				defer wg.Done()
+				for i := 0; i < 25; i++ {
+					q := demoQuery()
+					q.UserName = "writer" + string(rune('A'+w))
+					if _, err := d.LogQuery(ctx, q); err != nil {
+						errs <- err
+						return
+					}
 				}
-			}
-		}()
-	}
-	wg.Wait()
-	close(errs)
-	for err := range errs {
-		t.Error(err)
-	}
-	rep, err := db.Verify(ctx)
-	if err != nil || !rep.OK || rep.Queries != 100 {
-		t.Errorf("Verify = %+v, %v; want OK with 100 queries", rep, err)
-	}
+			}()
+		}
+		wg.Wait()
+		close(errs)
+		for err := range errs {
+			t.Error(err)
+		}
+		rep, err := db.Verify(ctx)
+		if err != nil || !rep.OK || rep.Queries != 100 {
+			t.Errorf("Verify = %+v, %v; want OK with 100 queries", rep, err)
+		}
+	})
 }

@@ -97,8 +97,8 @@ func (db *DB) SetStream(ctx context.Context, tag, stream, note, by string) error
 		return fmt.Errorf("set stream %s: %w", t, err)
 	}
 	defer tx.Rollback()
-	if _, err := tx.ExecContext(ctx, `INSERT INTO stream_changes (tag, action, stream, note, changed_by, time)
-		VALUES (?, 'set', ?, ?, ?, ?)`, t, stream, note, by, formatTime(db.now())); err != nil {
+	if _, err := tx.ExecContext(ctx, `INSERT INTO stream_changes (site, tag, action, stream, note, changed_by, time)
+		VALUES (?, ?, 'set', ?, ?, ?, ?)`, db.site, t, stream, note, by, formatTime(db.now())); err != nil {
 		return fmt.Errorf("set stream %s: %w", t, err)
 	}
 	if err := tx.Commit(); err != nil {
@@ -125,11 +125,11 @@ func (db *DB) RemoveStream(ctx context.Context, tag, by string) error {
 		return fmt.Errorf("remove stream %s: %w", t, err)
 	}
 	defer tx.Rollback()
-	if _, err := currentStream(ctx, tx, t); err != nil {
+	if _, err := currentStream(ctx, tx, db.site, t); err != nil {
 		return fmt.Errorf("remove stream: %w", err)
 	}
-	if _, err := tx.ExecContext(ctx, `INSERT INTO stream_changes (tag, action, stream, note, changed_by, time)
-		VALUES (?, 'remove', '', '', ?, ?)`, t, by, formatTime(db.now())); err != nil {
+	if _, err := tx.ExecContext(ctx, `INSERT INTO stream_changes (site, tag, action, stream, note, changed_by, time)
+		VALUES (?, ?, 'remove', '', '', ?, ?)`, db.site, t, by, formatTime(db.now())); err != nil {
 		return fmt.Errorf("remove stream %s: %w", t, err)
 	}
 	if err := tx.Commit(); err != nil {
@@ -144,24 +144,25 @@ func (db *DB) Stream(ctx context.Context, tag string) (Stream, error) {
 	if err != nil {
 		return Stream{}, fmt.Errorf("stream: %w", err)
 	}
-	tx, err := db.r.BeginTx(ctx, nil)
+	tx, err := db.readTx(ctx)
 	if err != nil {
 		return Stream{}, fmt.Errorf("stream %s: %w", t, err)
 	}
 	defer tx.Rollback()
-	return currentStream(ctx, tx, t)
+	return currentStream(ctx, tx, db.site, t)
 }
 
-// currentStreamsSQL selects the newest change of each tag and how many
-// times each was set.
+// currentStreamsSQL selects the newest change of each tag of one site (the
+// parameter) and how many times each was set. Tags are the site's own:
+// T-101 at one site is not T-101 at another.
 const currentStreamsSQL = `
 SELECT c.tag, c.action, c.stream, c.note, c.changed_by, c.time,
-       (SELECT count(*) FROM stream_changes s WHERE s.tag = c.tag AND s.action = 'set')
+       (SELECT count(*) FROM stream_changes s WHERE s.site = c.site AND s.tag = c.tag AND s.action = 'set')
   FROM stream_changes c
- WHERE c.id = (SELECT max(id) FROM stream_changes m WHERE m.tag = c.tag)`
+ WHERE c.site = ? AND c.id = (SELECT max(id) FROM stream_changes m WHERE m.site = c.site AND m.tag = c.tag)`
 
-func currentStream(ctx context.Context, tx *sql.Tx, tag string) (Stream, error) {
-	s, action, err := scanStream(tx.QueryRowContext(ctx, currentStreamsSQL+` AND c.tag = ?`, tag))
+func currentStream(ctx context.Context, tx *sql.Tx, site, tag string) (Stream, error) {
+	s, action, err := scanStream(tx.QueryRowContext(ctx, currentStreamsSQL+` AND c.tag = ?`, site, tag))
 	if errors.Is(err, sql.ErrNoRows) || (err == nil && action == "remove") {
 		return Stream{}, fmt.Errorf("stream tag %s: %w", tag, ErrNotFound)
 	}
@@ -186,7 +187,7 @@ func scanStream(sc scanner) (Stream, string, error) {
 
 // Streams lists the current catalogue, by tag.
 func (db *DB) Streams(ctx context.Context) ([]Stream, error) {
-	rows, err := db.r.QueryContext(ctx, currentStreamsSQL+` AND c.action = 'set' ORDER BY c.tag`)
+	rows, err := db.r.QueryContext(ctx, currentStreamsSQL+` AND c.action = 'set' ORDER BY c.tag`, db.site)
 	if err != nil {
 		return nil, fmt.Errorf("list streams: %w", err)
 	}
@@ -210,7 +211,7 @@ func (db *DB) StreamHistory(ctx context.Context, tag string) ([]StreamChange, er
 		return nil, fmt.Errorf("stream history: %w", err)
 	}
 	rows, err := db.r.QueryContext(ctx, `SELECT id, tag, action, stream, note, changed_by, time
-		FROM stream_changes WHERE tag = ? ORDER BY id`, t)
+		FROM stream_changes WHERE site = ? AND tag = ? ORDER BY id`, db.site, t)
 	if err != nil {
 		return nil, fmt.Errorf("stream history %s: %w", t, err)
 	}

@@ -73,12 +73,12 @@ type pruneRecord struct {
 // sqlite_sequence, and the derived rows with them) is not caught: compare
 // HeadHash with a copy kept elsewhere (a digest, a backup, an anchors file).
 func (db *DB) Verify(ctx context.Context, anchors ...Anchor) (VerifyReport, error) {
-	tx, err := db.r.BeginTx(ctx, nil)
+	tx, err := db.readTx(ctx)
 	if err != nil {
 		return VerifyReport{}, fmt.Errorf("verify: %w", err)
 	}
 	defer tx.Rollback()
-	return verifyTx(ctx, tx, db.ver, db.key, anchors)
+	return verifyTx(ctx, tx, db.ver, db.key, anchors, db.pg)
 }
 
 // queryer is what verifyTx needs: a *sql.Tx, or a *sql.DB.
@@ -93,6 +93,7 @@ type walk struct {
 	ctx      context.Context
 	tx       queryer
 	ver      int
+	pg       bool
 	key      *ChainKey
 	rep      *VerifyReport
 	prev     row
@@ -107,10 +108,10 @@ type walk struct {
 	derivedProblem string
 }
 
-func verifyTx(ctx context.Context, tx queryer, ver int, key *ChainKey, anchors []Anchor) (VerifyReport, error) {
+func verifyTx(ctx context.Context, tx queryer, ver int, key *ChainKey, anchors []Anchor, pg bool) (VerifyReport, error) {
 	rep := VerifyReport{}
 	given := func(int) string { return "an anchor" }
-	w := &walk{ctx: ctx, tx: tx, ver: ver, key: key, rep: &rep, first: true, anchors: newAnchorCheck(anchors, given)}
+	w := &walk{ctx: ctx, tx: tx, ver: ver, pg: pg, key: key, rep: &rep, first: true, anchors: newAnchorCheck(anchors, given)}
 	if ok, err := w.readPruneAnchor(); err != nil || !ok {
 		return rep, err
 	}
@@ -121,11 +122,15 @@ func verifyTx(ctx context.Context, tx queryer, ver int, key *ChainKey, anchors [
 	w.recorded = newAnchorCheck(recorded, func(i int) string { return from[i] })
 	rep.DigestAnchors = len(recorded)
 	var seq int64
-	err = tx.QueryRowContext(ctx, `SELECT seq FROM sqlite_sequence WHERE name = 'queries'`).Scan(&seq)
+	seqSQL := `SELECT seq FROM sqlite_sequence WHERE name = 'queries'`
+	if pg {
+		seqSQL = `SELECT seq FROM chain_state`
+	}
+	err = tx.QueryRowContext(ctx, seqSQL).Scan(&seq)
 	if err != nil && !errors.Is(err, sql.ErrNoRows) {
 		return rep, fmt.Errorf("verify: %w", err)
 	}
-	w.derived, err = newDerivedCheck(ctx, tx, ver)
+	w.derived, err = newDerivedCheck(ctx, tx, ver, pg)
 	defer w.derived.close() // also the cursors opened before an error
 	if err != nil {
 		return rep, fmt.Errorf("verify: %w", err)
@@ -168,6 +173,12 @@ func (w *walk) finish(seq int64) (int64, string, error) {
 	if w.derivedProblem != "" {
 		return w.derivedID, w.derivedProblem, nil
 	}
+	if w.pg {
+		p, err := pgChainStateProblem(w.ctx, w.tx, rep.LastID, rep.HeadHash)
+		if err != nil || p != "" {
+			return rep.LastID, p, err
+		}
+	}
 	id, p, err := w.derived.finish(rep.LastID)
 	if err != nil || p != "" {
 		return id, p, err
@@ -201,7 +212,7 @@ func (w *walk) readPruneAnchor() (bool, error) {
 
 // walkRows checks every row, oldest first, stopping at the first problem.
 func (w *walk) walkRows() error {
-	rows, err := w.tx.QueryContext(w.ctx, `SELECT `+rowColumnsFor(w.ver)+` FROM queries ORDER BY id`)
+	rows, err := openRows(w.ctx, w.tx, w.pg, `SELECT `+rowColumnsFor(w.ver)+` FROM queries ORDER BY id`)
 	if err != nil {
 		return fmt.Errorf("verify: %w", err)
 	}

@@ -3,12 +3,10 @@ package main
 import (
 	"context"
 	"errors"
-	"os"
 
 	"mixward/bot"
 	"mixward/engine"
 	"mixward/engine/advice"
-	"mixward/store"
 )
 
 // askOnce answers one request for `mixward ask`. With logging it goes
@@ -18,7 +16,7 @@ import (
 // stream catalogue, so that tags resolve.
 func (a *app) askOnce(ctx context.Context, eng *engine.Engine, adv *advice.Advisor, o *storeOpts, text string, noLog bool) (res *engine.Result, id int64, askErr error, err error) {
 	if noLog {
-		if _, statErr := os.Stat(o.db); statErr != nil {
+		if !dbExists(o.db) {
 			res, askErr = adv.Ask(text, engine.AskOptions{})
 			return res, 0, askErr, nil
 		}
@@ -46,7 +44,7 @@ func (a *app) askOnce(ctx context.Context, eng *engine.Engine, adv *advice.Advis
 }
 
 // catalogueResolver resolves stream tags from the site catalogue.
-func catalogueResolver(ctx context.Context, db *store.DB) engine.Resolver {
+func catalogueResolver(ctx context.Context, db streamReader) engine.Resolver {
 	return func(tag string) (string, bool) {
 		s, err := db.Stream(ctx, tag)
 		if err != nil {
@@ -58,7 +56,7 @@ func catalogueResolver(ctx context.Context, db *store.DB) engine.Resolver {
 
 // catalogueTags lists the catalogue's tags, for "did you mean" on a tag
 // that is not there; nil when the catalogue cannot be read.
-func catalogueTags(ctx context.Context, db *store.DB) func() []string {
+func catalogueTags(ctx context.Context, db streamReader) func() []string {
 	return func() []string {
 		ss, err := db.Streams(ctx)
 		if err != nil {
@@ -74,7 +72,7 @@ func catalogueTags(ctx context.Context, db *store.DB) func() []string {
 
 // catalogueOptions resolves tags from the site catalogue in db and suggests
 // its tags for near misses.
-func catalogueOptions(ctx context.Context, db *store.DB) engine.AskOptions {
+func catalogueOptions(ctx context.Context, db streamReader) engine.AskOptions {
 	return engine.AskOptions{Resolve: catalogueResolver(ctx, db), Tags: catalogueTags(ctx, db)}
 }
 

@@ -48,7 +48,7 @@ const demoSeedBy = "demo seed"
 
 // seedDemo fills a never-used catalogue with the demo site. It reports how
 // many streams it added (0 when the catalogue was already in use).
-func seedDemo(ctx context.Context, db *store.DB) (int, error) {
+func seedDemo(ctx context.Context, db seedCatalogue) (int, error) {
 	ss, err := db.Streams(ctx)
 	if err != nil {
 		return 0, err

@@ -90,7 +90,7 @@ log's head hash at the end of the period: keep it, and check it later with
 	return err
 }
 
-func (a *app) digestsSent(ctx context.Context, db *store.DB, loc *time.Location, format string) error {
+func (a *app) digestsSent(ctx context.Context, db digestRecords, loc *time.Location, format string) error {
 	recs, err := db.DigestRecords(ctx, 100)
 	if err != nil {
 		return err

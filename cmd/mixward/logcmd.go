@@ -27,15 +27,17 @@ import (
 
 // storeOpts are the flags every store-backed subcommand takes.
 type storeOpts struct {
-	db string // --db, env MIXWARD_DB, default ./mixward.db
-	tz string // --tz, env MIXWARD_TZ, default UTC
+	db   string // --db, env MIXWARD_DB, default ./mixward.db
+	tz   string // --tz, env MIXWARD_TZ, default UTC
+	site string // --site, env MIXWARD_SITE, default main
 }
 
 // storeFlags registers --db and --tz on fs with their environment defaults.
 func storeFlags(a *app, fs *flag.FlagSet) *storeOpts {
 	o := &storeOpts{}
-	fs.StringVar(&o.db, "db", envOr(a.getenv, "MIXWARD_DB", "mixward.db"), "SQLite `file` of the query log and stream catalogue (env MIXWARD_DB)")
+	fs.StringVar(&o.db, "db", envOr(a.getenv, "MIXWARD_DB", "mixward.db"), "query log and stream catalogue: a SQLite `file`, or a postgres:// URL (env MIXWARD_DB)")
 	fs.StringVar(&o.tz, "tz", envOr(a.getenv, "MIXWARD_TZ", "UTC"), "site time `zone` for dates given and times shown, e.g. Europe/London (env MIXWARD_TZ)")
+	fs.StringVar(&o.site, "site", envOr(a.getenv, envSite, store.DefaultSite), "the `site` whose stream tags, queries and digests are meant (env MIXWARD_SITE)")
 	return o
 }
 
@@ -128,6 +130,8 @@ commands:
   restore <file>       replace the log with a verified backup
   migrate              upgrade the file to this mixward's schema (back it up first)
   reindex              rebuild the hazard rows and the search index from the hashed rows
+  copy --from DB --to DB   copy a whole log into a new, empty one, SQLite to
+                       PostgreSQL or back, keeping ids and hashes; the copy is verified
 
 verify, search, export, show and backup only read the file: they never
 create, upgrade or change it, and fail on a path where no log exists.
@@ -162,6 +166,8 @@ func (a *app) cmdLog(ctx context.Context, args []string) error {
 		return a.logMigrate(ctx, args[1:])
 	case "reindex":
 		return a.logReindex(ctx, args[1:])
+	case "copy":
+		return a.logCopy(ctx, args[1:])
 	case "-h", "-help", "--help", "help":
 		fmt.Fprint(a.stdout, logUsage)
 		return nil
@@ -328,7 +334,8 @@ Fe 2+. Every character is literal: AND, OR, NOT, NEAR, *, -, parentheses
 and quotes are never operators. At most 64 different terms (a quoted phrase
 counts as one) of 256 words in all; more is refused (exit 2). The terms may
 be left out to list by the filters alone. A first term starting with - needs
--- before it: mixward log search -- -40 L. The file is only read.
+-- before it: mixward log search -- -40 L. Every site is searched unless
+--site is given (MIXWARD_SITE does not narrow a search). The file is only read.
 
 `+dateHelp)
 	o := storeFlags(a, fs)
@@ -361,6 +368,11 @@ be left out to list by the filters alone. A first term starting with - needs
 		return err
 	}
 	so := store.SearchOptions{Terms: strings.Join(pos, " "), User: *user, Verdict: *verdict, Limit: *limit, Offset: *offset}
+	fs.Visit(func(f *flag.Flag) {
+		if f.Name == "site" {
+			so.Site = o.site // only when asked for: reviewers search across sites
+		}
+	})
 	if *hazardCode != "" {
 		// Renamed codes keep their old names as aliases: either finds both.
 		so.HazardAny = hazard.Equivalent(*hazardCode)
@@ -412,7 +424,7 @@ be left out to list by the filters alone. A first term starting with - needs
 	tw := tabwriter.NewWriter(a.stdout, 0, 4, 2, ' ', 0)
 	fmt.Fprintf(tw, "ID\tTIME (%s)\tWHO\tWHERE\tVERDICT\tREQUEST\tHAZARDS\n", loc)
 	for _, q := range page.Queries {
-		where, err := db.NameAt(ctx, q.Channel, q.Time)
+		name, err := db.NameAt(ctx, q.Channel, q.Time)
 		if err != nil {
 			return err
 		}
@@ -424,8 +436,12 @@ be left out to list by the filters alone. A first term starting with - needs
 		if q.Verdict == store.VerdictError {
 			req += "  [" + q.Error + "]"
 		}
+		where := orDash(name, q.Channel)
+		if q.Site != store.DefaultSite {
+			where = q.Site + "/" + where
+		}
 		fmt.Fprintf(tw, "%d\t%s\t%s\t%s\t%s\t%s\t%s\n", q.ID, local(q.Time, loc), safeCut(orDash(q.UserName, q.UserID), 24),
-			safeCut(orDash(where, q.Channel), 16), q.Verdict, safeCut(req, 70), safe(strings.Join(hz, ",")))
+			safeCut(where, 32), q.Verdict, safeCut(req, 70), safe(strings.Join(hz, ",")))
 	}
 	tw.Flush()
 	first := so.Offset + 1
@@ -621,7 +637,7 @@ data hash, its hashes, and whether the answer was posted.`)
 	defer db.Close()
 	q, err := db.Get(ctx, id)
 	if errors.Is(err, store.ErrNotFound) {
-		return &exitError{exitFail, fmt.Errorf("no query %d in %s", id, safe(o.db))}
+		return &exitError{exitFail, fmt.Errorf("no query %d in %s", id, dbName(o.db))}
 	}
 	if err != nil {
 		return err
@@ -840,8 +856,65 @@ The file must not exist yet. Restore with 'mixward log restore <file>'.`)
 	if err != nil {
 		return err
 	}
-	fmt.Fprintf(a.stdout, "Backed up %s to %s (mode 0600).\n", safe(o.db), safe(pos[0]))
+	fmt.Fprintf(a.stdout, "Backed up %s to %s (mode 0600).\n", dbName(o.db), safe(pos[0]))
 	return a.printVerify(rep, "text", pos[0])
+}
+
+func (a *app) logCopy(ctx context.Context, args []string) error {
+	fs := subFlags(a, "log copy", "log copy --from DB --to DB", `
+Copy a whole log into a new, empty one: a SQLite file into PostgreSQL
+(moving a site onto the shared database) or back, or between two of a kind.
+Every row of the chain keeps its id, hash and site; the hazard rows and the
+search index are rebuilt from them; delivery outcomes, the stream catalogue
+of every site and the digests recorded come along. The source must verify
+(with MIXWARD_CHAIN_KEY_FILE for a keyed chain) and is only read; the
+target is created (a SQLite file) or migrated (a PostgreSQL database, which
+must exist) and must hold nothing yet. The copy is one transaction and is
+verified after. Stop the bot writing to the source first, or rows logged
+meanwhile stay behind. Each of --from and --to is a file path or a
+postgres:// URL.`)
+	from := fs.String("from", "", "the log to copy: a SQLite `file` or a postgres:// URL")
+	to := fs.String("to", "", "the new, empty log: a SQLite `file` or a postgres:// URL")
+	format := fs.String("format", "text", "output `format`: text or json")
+	if err := parseNoArgs(fs, args, "log copy", "text", "json"); err != nil {
+		return err
+	}
+	if *from == "" || *to == "" {
+		fs.Usage()
+		return usageErr("log copy: give both --from and --to")
+	}
+	src, _, err := openReadDB(ctx, a, &storeOpts{db: *from}, false)
+	if err != nil {
+		return err
+	}
+	defer src.Close()
+	if !store.IsPostgres(*to) && dbExists(*to) {
+		return usageErr("log copy: %s already exists; copy into a new file (nothing was copied)", safe(*to))
+	}
+	dst, _, err := openDB(ctx, a, &storeOpts{db: *to})
+	if err != nil {
+		return err
+	}
+	defer dst.Close()
+	rep, err := store.CopyLog(ctx, src, dst)
+	switch {
+	case errors.Is(err, store.ErrInvalid):
+		return &exitError{exitUsage, err}
+	case err != nil:
+		return &exitError{exitFail, err}
+	}
+	if *format == "json" {
+		if err := writeJSON(a.stdout, rep); err != nil {
+			return err
+		}
+		if !rep.Verify.OK {
+			return &exitError{exitFail, errors.New("the copy does not verify")}
+		}
+		return nil
+	}
+	fmt.Fprintf(a.stdout, "Copied %d rows of the chain, %d delivery records, %d catalogue changes, %d digest records, %d button presses and %d names from %s to %s.\n",
+		rep.Rows, rep.Deliveries, rep.StreamChanges, rep.Digests, rep.Presses, rep.Names, dbName(*from), dbName(*to))
+	return a.printVerify(rep.Verify, "text", store.DisplayName(*to))
 }
 
 func (a *app) logRestore(ctx context.Context, args []string) error {
@@ -884,7 +957,7 @@ with --replace (back it up first).`)
 	if err != nil {
 		return err
 	}
-	fmt.Fprintf(a.stdout, "Restored %s from %s.\n", safe(o.db), safe(pos[0]))
+	fmt.Fprintf(a.stdout, "Restored %s from %s.\n", dbName(o.db), safe(pos[0]))
 	return a.printVerify(rep, "text", o.db)
 }
 
@@ -925,10 +998,10 @@ themselves when they start.`)
 		return err
 	}
 	if from == to {
-		fmt.Fprintf(a.stdout, "%s is already at schema version %d; nothing to do.\n", safe(o.db), to)
+		fmt.Fprintf(a.stdout, "%s is already at schema version %d; nothing to do.\n", dbName(o.db), to)
 		return nil
 	}
-	fmt.Fprintf(a.stdout, "Upgraded %s from schema version %d to %d.\n", safe(o.db), from, to)
+	fmt.Fprintf(a.stdout, "Upgraded %s from schema version %d to %d.\n", dbName(o.db), from, to)
 	return nil
 }
 
@@ -957,7 +1030,7 @@ row is changed, so a broken chain stays broken.`)
 	if err := db.RebuildDerived(ctx); err != nil {
 		return err
 	}
-	fmt.Fprintf(a.stdout, "Rebuilt the hazard rows and the search index of %s from the hashed rows.\n", safe(o.db))
+	fmt.Fprintf(a.stdout, "Rebuilt the hazard rows and the search index of %s from the hashed rows.\n", dbName(o.db))
 	rep, err := db.Verify(ctx)
 	if err != nil {
 		return err

@@ -4,7 +4,6 @@ import (
 	"context"
 	"errors"
 	"fmt"
-	"os"
 	"strings"
 	"time"
 
@@ -39,16 +38,24 @@ func openDB(ctx context.Context, a *app, o *storeOpts) (*store.DB, *time.Locatio
 	if err != nil {
 		return nil, nil, err
 	}
-	_, statErr := os.Stat(o.db)
-	db, err := store.Open(ctx, o.db, store.Options{Location: loc, ChainKey: key})
+	opt, err := storeOptions(a.getenv, o.db)
+	if err != nil {
+		return nil, nil, err
+	}
+	opt.Location, opt.ChainKey, opt.Site = loc, key, o.site
+	existed := dbExists(o.db)
+	db, err := store.Open(ctx, o.db, opt)
 	if errors.Is(err, store.ErrChainKey) {
+		return nil, nil, &exitError{exitUsage, err}
+	}
+	if errors.Is(err, store.ErrInvalid) {
 		return nil, nil, &exitError{exitUsage, err}
 	}
 	if err != nil {
 		return nil, nil, err
 	}
-	if errors.Is(statErr, os.ErrNotExist) {
-		fmt.Fprintf(a.stderr, "mixward: created a new, empty log at %s (set --db or MIXWARD_DB to use another)\n", safe(o.db))
+	if !existed {
+		fmt.Fprintf(a.stderr, "mixward: created a new, empty log at %s (set --db or MIXWARD_DB to use another)\n", dbName(o.db))
 	}
 	return db, loc, nil
 }
@@ -67,7 +74,12 @@ func openReadDB(ctx context.Context, a *app, o *storeOpts, olderSchema bool) (*s
 	if err != nil {
 		return nil, nil, err
 	}
-	db, err := store.OpenReadOnly(ctx, o.db, store.Options{Location: loc, ChainKey: key, OlderSchema: olderSchema})
+	opt, err := storeOptions(a.getenv, o.db)
+	if err != nil {
+		return nil, nil, err
+	}
+	opt.Location, opt.ChainKey, opt.OlderSchema, opt.Site = loc, key, olderSchema, o.site
+	db, err := store.OpenReadOnly(ctx, o.db, opt)
 	switch {
 	case errors.Is(err, store.ErrNoDatabase), errors.Is(err, store.ErrInvalid):
 		return nil, nil, &exitError{exitUsage, err}

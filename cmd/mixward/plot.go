@@ -16,8 +16,8 @@ import (
 func (a *app) cmdPlot(ctx context.Context, args []string) error {
 	fs := a.newFlags("plot", `plot [--db PATH] "<request>" -o mix.png`)
 	out := fs.String("o", "mix.png", "PNG file to write")
-	o := &storeOpts{}
-	fs.StringVar(&o.db, "db", envOr(a.getenv, "MIXWARD_DB", "mixward.db"), "SQLite `file` whose stream catalogue resolves tags (env MIXWARD_DB); read only when it exists")
+	o := &storeOpts{site: envOr(a.getenv, envSite, "main")}
+	fs.StringVar(&o.db, "db", envOr(a.getenv, "MIXWARD_DB", "mixward.db"), "SQLite `file` or postgres:// URL whose stream catalogue resolves tags (env MIXWARD_DB); read only when it exists")
 	pos, err := parseFlags(fs, args)
 	if err != nil {
 		return err
@@ -32,7 +32,7 @@ func (a *app) cmdPlot(ctx context.Context, args []string) error {
 		return err
 	}
 	opt := engine.AskOptions{}
-	if _, statErr := os.Stat(o.db); statErr == nil {
+	if dbExists(o.db) {
 		db, _, err := openDB(ctx, a, o)
 		if err != nil {
 			return err

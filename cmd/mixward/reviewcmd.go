@@ -8,7 +8,6 @@ import (
 	"strings"
 
 	"mixward/engine/advice"
-	"mixward/store"
 )
 
 // cmdReview judges every pair of the site's tagged streams.
@@ -59,7 +58,7 @@ func (a *app) cmdReview(ctx context.Context, args []string) error {
 }
 
 // reviewSite reads the catalogue and judges each pair of its streams.
-func reviewSite(ctx context.Context, db *store.DB, adv *advice.Advisor) ([]advice.Pair, error) {
+func reviewSite(ctx context.Context, db streamReader, adv *advice.Advisor) ([]advice.Pair, error) {
 	ss, err := db.Streams(ctx)
 	if err != nil {
 		return nil, err

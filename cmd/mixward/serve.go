@@ -29,6 +29,7 @@ import (
 // siteFlags are the settings the console and the bot share.
 type siteFlags struct {
 	db     string
+	site   string
 	tz     string
 	shifts string
 	getenv func(string) string // for MIXWARD_CHAIN_KEY_FILE
@@ -36,7 +37,8 @@ type siteFlags struct {
 
 func (s *siteFlags) register(fs *flag.FlagSet, getenv func(string) string) {
 	s.getenv = getenv
-	fs.StringVar(&s.db, "db", envOr(getenv, "MIXWARD_DB", "mixward.db"), "SQLite query log and stream catalogue (env MIXWARD_DB)")
+	fs.StringVar(&s.db, "db", envOr(getenv, "MIXWARD_DB", "mixward.db"), "query log and stream catalogue: a SQLite file, or a postgres:// URL (env MIXWARD_DB)")
+	fs.StringVar(&s.site, "site", envOr(getenv, envSite, store.DefaultSite), "the site (plant) this process serves: its stream tags, queries and digests (env MIXWARD_SITE)")
 	fs.StringVar(&s.tz, "tz", getenv("MIXWARD_TZ"), "site time zone for digests and dates, e.g. Europe/London; empty means UTC (env MIXWARD_TZ)")
 	fs.StringVar(&s.shifts, "shifts", envOr(getenv, "MIXWARD_SHIFTS", store.DefaultShifts), "shift changes as a 5-field cron spec in the site zone; a digest is made at each (env MIXWARD_SHIFTS)")
 }
@@ -77,7 +79,12 @@ func openSite(ctx context.Context, s siteFlags) (*site, error) {
 	if err != nil {
 		return nil, err
 	}
-	db, err := store.Open(ctx, s.db, store.Options{Location: loc, ChainKey: key})
+	opt, err := storeOptions(s.getenv, s.db)
+	if err != nil {
+		return nil, err
+	}
+	opt.Location, opt.ChainKey, opt.Site = loc, key, s.site
+	db, err := store.Open(ctx, s.db, opt)
 	if err != nil {
 		return nil, err
 	}
@@ -289,7 +296,7 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 	defer st.db.Close()
 
 	metrics := bot.NewMetrics()
-	health := &bot.Health{}
+	health := newHealth(st.db)
 	opts := []slack.Option{slack.OptionAPIURL(c.apiURL)}
 	if c.appToken != "" {
 		opts = append(opts, slack.OptionAppLevelToken(c.appToken))
@@ -390,7 +397,7 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 		logger.Info("no digest channel: scheduled digests are off (set MIXWARD_DIGEST_CHANNEL)")
 	}
 
-	wg.Go(func() { keepInbox(runCtx, sl, st.db, logger) })
+	wg.Go(func() { keepInbox(runCtx, sl, st.db, sweepEvery(st.db.InboxLease()), logger) })
 
 	// Who am I: used to tell the bot's own messages and mentions apart. It
 	// is not needed to answer, so the transports do not wait for it.
@@ -476,11 +483,11 @@ func newSlack(c serveConfig, st *site, api *slack.Client, logger *slog.Logger, m
 	}
 }
 
-// keepInbox prunes the inbox hourly and queues again the answers still
-// owed after an hour (Slack was down past the poster's retries), until ctx
-// ends.
-func keepInbox(ctx context.Context, sl *bot.Slack, db *store.DB, logger *slog.Logger) {
-	t := time.NewTicker(time.Hour)
+// keepInbox prunes the inbox and queues again the answers still owed
+// (Slack was down past the poster's retries, or another replica stopped
+// while answering) every interval, until ctx ends.
+func keepInbox(ctx context.Context, sl *bot.Slack, db inboxPruner, every time.Duration, logger *slog.Logger) {
+	t := time.NewTicker(every)
 	defer t.Stop()
 	for {
 		select {
@@ -513,7 +520,7 @@ func newAdminServer(h http.Handler) *http.Server {
 // pruneInbox (at start and hourly) drops inbox entries answered more than
 // a day ago: Slack redelivers within the hour, so they are no longer
 // needed to tell a redelivery from a new message.
-func pruneInbox(ctx context.Context, db *store.DB, logger *slog.Logger) {
+func pruneInbox(ctx context.Context, db inboxPruner, logger *slog.Logger) {
 	n, err := db.PruneInbox(ctx, time.Now().Add(-24*time.Hour))
 	if err != nil {
 		logger.Warn("inbox not pruned", "err", err)
@@ -527,4 +534,14 @@ func shortHash(h string) string {
 		return h[:12]
 	}
 	return h
+}
+
+// sweepEvery is how often a serving process looks for owed answers: hourly,
+// or with inbox leases (several replicas) once a lease, so that the answers
+// a stopped replica held are taken over soon after its lease runs out.
+func sweepEvery(lease time.Duration) time.Duration {
+	if lease > 0 && lease < time.Hour {
+		return lease
+	}
+	return time.Hour
 }
