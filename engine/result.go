@@ -47,6 +47,12 @@ type Result struct {
 	// HeldBack lists the changes that are downhill on paper but held back
 	// at plant conditions (data/locks.txt), each with its reason.
 	HeldBack []HeldBack `json:"held_back"`
+
+	// NotAssessed lists the chemicals of the request the answer leaves out
+	// for want of thermodynamic data (data/withheld.txt, rows with a role):
+	// the answer is for the rest of the mix. Absent when every chemical is
+	// assessed.
+	NotAssessed []NotAssessed `json:"not_assessed,omitempty"`
 }
 
 // HeldBack is a kinetic lock that held something back in this mix.
