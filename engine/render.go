@@ -237,6 +237,9 @@ func renderAmounts(b *strings.Builder, r *Result) {
 			}
 
 			w("\n")
+			if h.LeftOutBoundkJ != nil {
+				w("  %s counted as a related form with ΔfH° plus hydroxide and water; the heat of forming it from that form is left out (at most about %s kJ in all)\n", strings.Join(h.Missing, ", "), sigText(*h.LeftOutBoundkJ))
+			}
 			if h.DeltaHkJPerMol != nil {
 				w("  ΔH of the headline reaction %s kJ per mol as written\n", trimFloat(*h.DeltaHkJPerMol, 1))
 			}

@@ -110,6 +110,14 @@ func formsLine(r *engine.Result) string {
 }
 
 func heatLine(r *engine.Result) string {
+	line := heatFigure(r)
+	if h := r.Heat; h != nil && h.LeftOutBoundkJ != nil && r.Decision != nil && r.Decision.Heat != nil {
+		line += fmt.Sprintf(" (%s estimated from a related form; within ±%s kJ)", strings.Join(h.Missing, ", "), num(*h.LeftOutBoundkJ))
+	}
+	return line
+}
+
+func heatFigure(r *engine.Result) string {
 	if r.Decision == nil || r.Decision.Heat == nil {
 		if r.Heat != nil && r.Heat.Withheld != "" {
 			return "Heat: no estimate (" + r.Heat.Withheld + ")"
