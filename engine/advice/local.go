@@ -71,7 +71,7 @@ func (a *Advisor) landing(req *engine.Request, conc map[string]float64) pour.Loc
 				k := [2]string{streamKey(added), streamKey(t)}
 				p, seen := pairs[k]
 				if !seen {
-					p = a.pairRise(req, added, t)
+					p = a.pairRise(req, added, t, r)
 					pairs[k] = p
 				}
 				if r = p; r < concentrateRiseC {
@@ -114,8 +114,11 @@ func isWater(s engine.Stream) bool {
 }
 
 // pairRise is the temperature rise of equal volumes of added and the
-// concentrate t mixed alone (0 when it cannot be judged).
-func (a *Advisor) pairRise(req *engine.Request, added, t engine.Stream) float64 {
+// concentrate t mixed alone; when the pair cannot be judged (no heat
+// figure: a solid in too little water, a species without data) it is
+// withWater, the concentrate's rise with water, so that no warning is lost
+// for want of a figure.
+func (a *Advisor) pairRise(req *engine.Request, added, t engine.Stream, withWater float64) float64 {
 	amount := t.VolumeL + t.MassKg
 	if amount <= 0 {
 		amount = 1
@@ -127,7 +130,7 @@ func (a *Advisor) pairRise(req *engine.Request, added, t engine.Stream) float64 
 	r.PH = nil
 	res, err := a.Engine.PredictBrief(&r)
 	if err != nil || res.Heat == nil || res.Heat.TemperatureRiseC == nil {
-		return 0
+		return withWater
 	}
 	return *res.Heat.TemperatureRiseC
 }
