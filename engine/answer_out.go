@@ -167,52 +167,67 @@ func estimateLeftOut(mx *state.Mix, dfh []float64, limit float64) (boundKJ float
 }
 
 // formEstimate is ΔfH° of sp taken as a form of the same element in the
-// same oxidation state that has ΔfH° (an ion, or a hydroxide or oxide
-// solid), plus hydroxide and water: zincate Zn(OH)4^2- as Zn(OH)2(s) +
-// 2 OH-, stannate Sn(OH)6^2- as SnO2(s) + 2 OH- + 2 H2O. Of the forms that
-// fit, the one closest in Gibbs energy is taken; dG is the Gibbs energy of
-// forming sp from it, kJ/mol.
+// same oxidation state that has ΔfH° (an ion, or a hydroxide, oxide or
+// cyanide solid), plus hydroxide, water and, for a cyanide complex, free
+// cyanide: zincate Zn(OH)4^2- as Zn(OH)2(s) + 2 OH-, stannate Sn(OH)6^2-
+// as SnO2(s) + 2 OH- + 2 H2O, Cu(CN)3^2- as CuCN(s) + 2 CN-. Of the forms
+// that fit, the one closest in Gibbs energy is taken; dG is the Gibbs
+// energy of forming sp from it, kJ/mol.
 func formEstimate(mx *state.Mix, sp *thermo.Species) (est, dG float64, ok bool) {
-	var el string
-	for e := range sp.Atoms {
-		if e == "H" || e == "O" {
-			continue
-		}
-		if el != "" {
-			return 0, 0, false // two skeleton elements: no simple form
-		}
-		el = e
-	}
-	oh, water := speciesByText(mx, "OH-"), speciesByText(mx, "H2O")
+	el := metalOf(sp)
+	oh, water, cn := speciesByText(mx, "OH-"), speciesByText(mx, "H2O"), speciesByText(mx, "CN-")
 	if el == "" || oh == nil || water == nil || !oh.HasDfH || !water.HasDfH {
 		return 0, 0, false
 	}
 	best := math.Inf(1)
 	for _, b := range mx.Species {
-		if b == sp || !b.HasDfH || b.Minor || b.Atoms[el] == 0 || math.Abs(b.Ox[el]-sp.Ox[el]) > 0.01 || (b.Phase != Aqueous && b.Phase != Solid) {
-			continue
-		}
-		if len(b.Atoms) > 3 || (len(b.Atoms) > 1 && b.Atoms["H"] == 0 && b.Atoms["O"] == 0) {
+		if b == sp || !b.HasDfH || b.Minor || b.Atoms[el] == 0 || metalOf(b) != el || math.Abs(b.Ox[el]-sp.Ox[el]) > 0.01 || (b.Phase != Aqueous && b.Phase != Solid) {
 			continue
 		}
 		x := float64(sp.Atoms[el]) / float64(b.Atoms[el])
+		k := float64(sp.Atoms["C"]) - x*float64(b.Atoms["C"]) // free cyanide taken up
+		if k < -1e-9 || (k > 1e-9 && (cn == nil || !cn.HasDfH)) {
+			continue
+		}
 		hl := float64(sp.Atoms["H"]) - x*float64(b.Atoms["H"])
 		o := float64(sp.Atoms["O"]) - x*float64(b.Atoms["O"])
-		z := float64(sp.Charge) - x*float64(b.Charge)
+		z := float64(sp.Charge) - x*float64(b.Charge) + k
 		nOH, nW := -z, o+z // a OH- + b H2O: O a+b, H a+2b, charge -a
 		if math.Abs(hl-(nOH+2*nW)) > 1e-9 {
 			continue // oxygen not all at −II, or not a hydroxo form
 		}
 		g := sp.DfG - (x*b.DfG + nOH*oh.DfG + nW*water.DfG)
+		h := x*b.DfH + nOH*oh.DfH + nW*water.DfH
+		if k > 1e-9 {
+			g -= k * cn.DfG
+			h += k * cn.DfH
+		}
 		if math.Abs(g) < math.Abs(best) {
-			best = g
-			est = x*b.DfH + nOH*oh.DfH + nW*water.DfH
+			best, est = g, h
 		}
 	}
 	if math.IsInf(best, 1) {
 		return 0, 0, false
 	}
 	return est, best, true
+}
+
+// metalOf is the one element of sp other than H and O, or for a cyanide
+// complex (as many C as N) the one element other than H, O, C and N; ""
+// when there is none or more than one.
+func metalOf(sp *thermo.Species) string {
+	cyanide := sp.Atoms["C"] > 0 && sp.Atoms["C"] == sp.Atoms["N"]
+	el := ""
+	for e := range sp.Atoms {
+		if e == "H" || e == "O" || (cyanide && (e == "C" || e == "N")) {
+			continue
+		}
+		if el != "" {
+			return ""
+		}
+		el = e
+	}
+	return el
 }
 
 func speciesByText(mx *state.Mix, text string) *thermo.Species {
