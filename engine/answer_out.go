@@ -153,15 +153,16 @@ const leftOutFloorKJ = 60.0
 func estimateLeftOut(mx *state.Mix, dfh []float64, limit float64) (boundKJ float64, ok bool) {
 	net := skeletonChanges(mx, dfh)
 	for i, sp := range mx.Species {
-		if !math.IsNaN(dfh[i]) || math.Abs(net[skeletonOf(sp)]) <= limit {
-			continue
+		d := math.Abs(mx.Final.Amount[i] - mx.Initial[i])
+		if !math.IsNaN(dfh[i]) || math.Abs(net[skeletonOf(sp)]) <= limit || d <= 1e-3*limit {
+			continue // a species of the skeleton that hardly changes adds nothing
 		}
 		est, dG, found := formEstimate(mx, sp)
 		if !found {
 			return 0, false
 		}
 		dfh[i] = est
-		boundKJ += math.Abs(mx.Final.Amount[i]-mx.Initial[i]) * math.Max(leftOutFloorKJ, math.Abs(dG))
+		boundKJ += d * math.Max(leftOutFloorKJ, math.Abs(dG))
 	}
 	return boundKJ, true
 }
@@ -172,7 +173,8 @@ func estimateLeftOut(mx *state.Mix, dfh []float64, limit float64) (boundKJ float
 // cyanide: zincate Zn(OH)4^2- as Zn(OH)2(s) + 2 OH-, stannate Sn(OH)6^2-
 // as SnO2(s) + 2 OH- + 2 H2O, Cu(CN)3^2- as CuCN(s) + 2 CN-. Of the forms
 // that fit, the one closest in Gibbs energy is taken; dG is the Gibbs
-// energy of forming sp from it, kJ/mol.
+// energy of forming sp from it, kJ/mol. A protonated form is taken as its
+// conjugate base plus H+ (oxalic acid as HC2O4- + H+).
 func formEstimate(mx *state.Mix, sp *thermo.Species) (est, dG float64, ok bool) {
 	el := metalOf(sp)
 	oh, water, cn := speciesByText(mx, "OH-"), speciesByText(mx, "H2O"), speciesByText(mx, "CN-")
@@ -198,6 +200,13 @@ func formEstimate(mx *state.Mix, sp *thermo.Species) (est, dG float64, ok bool) 
 		}
 		g := sp.DfG - (x*b.DfG + nOH*oh.DfG + nW*water.DfG)
 		h := x*b.DfH + nOH*oh.DfH + nW*water.DfH
+		if nOH < 0 {
+			// A protonated form: H+ (zero by convention) rather than
+			// water less hydroxide, which would count a neutralisation.
+			nH := -nOH
+			g = sp.DfG - x*b.DfG - (nW-nH)*water.DfG
+			h = x*b.DfH + (nW-nH)*water.DfH
+		}
 		if k > 1e-9 {
 			g -= k * cn.DfG
 			h += k * cn.DfH
