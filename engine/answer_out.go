@@ -60,17 +60,17 @@ func partialOf(mx *state.Mix, s *state.State, i int) float64 {
 // of every species that changed, plus the heat of dissolving solids and
 // near-pure reagents and the heat of concentrated solutions (dilution.txt);
 // the temperature reached over the mixed mass, and boiling when it passes
-// the boiling point. When a species without ΔfH° takes a real share of the
-// change the sum would mislead (even in sign), so no figure is given.
+// the boiling point. A species without ΔfH° that is made or used up on the
+// whole (its skeleton, see unknownNetChange) is counted as its nearest form
+// with ΔfH° plus hydroxide and water (see formEstimate); what that leaves
+// out is bounded (LeftOutBoundkJ) and the species named (Missing). When no
+// such form exists the sum would mislead, even in sign, and no figure is
+// given.
 func heatOut(mx *state.Mix, m *mixture, t *Tables) *Heat {
 	dfh := enthalpies(mx)
-	dh, big := 0.0, 0.0
+	big := 0.0
 	for i := range mx.Species {
-		d := mx.Final.Amount[i] - mx.Initial[i]
-		big = math.Max(big, math.Abs(d))
-		if !math.IsNaN(dfh[i]) {
-			dh += d * dfh[i]
-		}
+		big = math.Max(big, math.Abs(mx.Final.Amount[i]-mx.Initial[i]))
 	}
 	// A change below a trace of the mix (missingFloor mol per litre) never
 	// withholds the figure: when nothing else happens, a trace of a complex
@@ -83,8 +83,18 @@ func heatOut(mx *state.Mix, m *mixture, t *Tables) *Heat {
 		}
 	}
 	h := &Heat{Assumption: heatAssumption, Missing: missing}
-	if n := unknownNetChange(mx, dfh); n > missingShare*big && n > floor {
+	bound, ok := estimateLeftOut(mx, dfh, math.Max(missingShare*big, floor))
+	if !ok {
 		return h
+	}
+	if bound > 0 {
+		h.LeftOutBoundkJ = ptr(roundDec(bound, 0))
+	}
+	dh := 0.0
+	for i := range mx.Species {
+		if d := mx.Final.Amount[i] - mx.Initial[i]; !math.IsNaN(dfh[i]) {
+			dh += d * dfh[i]
+		}
 	}
 	if why := tooLittleWater(mx, m, t); why != "" {
 		h.Withheld = why
@@ -127,27 +137,148 @@ const missingShare = 0.01
 // withholds nothing (its heat is below a joule per litre at 10 kJ/mol).
 const missingFloor = 1e-4
 
+// leftOutFloorKJ is the least bound per mole put on the heat an estimated
+// species leaves out: heats of forming a hydroxo complex from the ion and
+// hydroxide, or of dissolving a hydroxide in caustic, are tens of kJ/mol
+// (Baes & Mesmer, The Hydrolysis of Cations, 1976, hydrolysis enthalpies;
+// from memory).
+const leftOutFloorKJ = 60.0
+
+// estimateLeftOut fills dfh for each species without ΔfH° whose skeleton
+// changes, net, by more than limit (mol), from formEstimate, and returns
+// the bound (kJ) on what the estimates leave out: per mole the larger of
+// leftOutFloorKJ and the Gibbs energy of forming the species from that
+// form, whose enthalpy is the part not counted. ok is false when a species
+// has no such form: then no figure can be given.
+func estimateLeftOut(mx *state.Mix, dfh []float64, limit float64) (boundKJ float64, ok bool) {
+	net := skeletonChanges(mx, dfh)
+	for i, sp := range mx.Species {
+		d := math.Abs(mx.Final.Amount[i] - mx.Initial[i])
+		if !math.IsNaN(dfh[i]) || math.Abs(net[skeletonOf(sp)]) <= limit || d <= 1e-3*limit {
+			continue // a species of the skeleton that hardly changes adds nothing
+		}
+		est, dG, found := formEstimate(mx, sp)
+		if !found {
+			return 0, false
+		}
+		dfh[i] = est
+		boundKJ += d * math.Max(leftOutFloorKJ, math.Abs(dG))
+	}
+	return boundKJ, true
+}
+
+// formEstimate is ΔfH° of sp taken as a form of the same element in the
+// same oxidation state that has ΔfH° (an ion, or a hydroxide, oxide or
+// cyanide solid), plus hydroxide, water and, for a cyanide complex, free
+// cyanide: zincate Zn(OH)4^2- as Zn(OH)2(s) + 2 OH-, stannate Sn(OH)6^2-
+// as SnO2(s) + 2 OH- + 2 H2O, Cu(CN)3^2- as CuCN(s) + 2 CN-. Of the forms
+// that fit, the one closest in Gibbs energy is taken; dG is the Gibbs
+// energy of forming sp from it, kJ/mol. A protonated form is taken as its
+// conjugate base plus H+ (oxalic acid as HC2O4- + H+).
+func formEstimate(mx *state.Mix, sp *thermo.Species) (est, dG float64, ok bool) {
+	el := metalOf(sp)
+	oh, water, cn := speciesByText(mx, "OH-"), speciesByText(mx, "H2O"), speciesByText(mx, "CN-")
+	if el == "" || oh == nil || water == nil || !oh.HasDfH || !water.HasDfH {
+		return 0, 0, false
+	}
+	best := math.Inf(1)
+	for _, b := range mx.Species {
+		if b == sp || !b.HasDfH || b.Minor || b.Atoms[el] == 0 || metalOf(b) != el || math.Abs(b.Ox[el]-sp.Ox[el]) > 0.01 || (b.Phase != Aqueous && b.Phase != Solid) {
+			continue
+		}
+		x := float64(sp.Atoms[el]) / float64(b.Atoms[el])
+		k := float64(sp.Atoms["C"]) - x*float64(b.Atoms["C"]) // free cyanide taken up
+		if k < -1e-9 || (k > 1e-9 && (cn == nil || !cn.HasDfH)) {
+			continue
+		}
+		hl := float64(sp.Atoms["H"]) - x*float64(b.Atoms["H"])
+		o := float64(sp.Atoms["O"]) - x*float64(b.Atoms["O"])
+		z := float64(sp.Charge) - x*float64(b.Charge) + k
+		nOH, nW := -z, o+z // a OH- + b H2O: O a+b, H a+2b, charge -a
+		if math.Abs(hl-(nOH+2*nW)) > 1e-9 {
+			continue // oxygen not all at −II, or not a hydroxo form
+		}
+		g := sp.DfG - (x*b.DfG + nOH*oh.DfG + nW*water.DfG)
+		h := x*b.DfH + nOH*oh.DfH + nW*water.DfH
+		if nOH < 0 {
+			// A protonated form: H+ (zero by convention) rather than
+			// water less hydroxide, which would count a neutralisation.
+			nH := -nOH
+			g = sp.DfG - x*b.DfG - (nW-nH)*water.DfG
+			h = x*b.DfH + (nW-nH)*water.DfH
+		}
+		if k > 1e-9 {
+			g -= k * cn.DfG
+			h += k * cn.DfH
+		}
+		if math.Abs(g) < math.Abs(best) {
+			best, est = g, h
+		}
+	}
+	if math.IsInf(best, 1) {
+		return 0, 0, false
+	}
+	return est, best, true
+}
+
+// metalOf is the one element of sp other than H and O, or for a cyanide
+// complex (as many C as N) the one element other than H, O, C and N; ""
+// when there is none or more than one.
+func metalOf(sp *thermo.Species) string {
+	cyanide := sp.Atoms["C"] > 0 && sp.Atoms["C"] == sp.Atoms["N"]
+	el := ""
+	for e := range sp.Atoms {
+		if e == "H" || e == "O" || (cyanide && (e == "C" || e == "N")) {
+			continue
+		}
+		if el != "" {
+			return ""
+		}
+		el = e
+	}
+	return el
+}
+
+func speciesByText(mx *state.Mix, text string) *thermo.Species {
+	for _, sp := range mx.Species {
+		if sp.Text == text {
+			return sp
+		}
+	}
+	return nil
+}
+
+// skeletonOf is a species' atoms other than H and O.
+func skeletonOf(sp *thermo.Species) string {
+	skel := chem.Atoms{}
+	for el, n := range sp.Atoms {
+		if el != "H" && el != "O" {
+			skel[el] = n
+		}
+	}
+	return skel.String()
+}
+
+// skeletonChanges is the net change (mol) of each skeleton among species
+// without ΔfH°.
+func skeletonChanges(mx *state.Mix, dfh []float64) map[string]float64 {
+	net := map[string]float64{}
+	for i, sp := range mx.Species {
+		if math.IsNaN(dfh[i]) {
+			net[skeletonOf(sp)] += mx.Final.Amount[i] - mx.Initial[i]
+		}
+	}
+	return net
+}
+
 // unknownNetChange is the largest net change (mol) among species without
 // ΔfH° that share a skeleton (their atoms other than H and O). Acid–base
 // forms of one organic ion only trade protons among themselves (net zero,
 // a small heat); a skeleton made or used up on the whole, such as Cr(III)
 // formed from Cr(VI), would leave a sum that misleads even in sign.
 func unknownNetChange(mx *state.Mix, dfh []float64) float64 {
-	net := map[string]float64{}
-	for i, sp := range mx.Species {
-		if !math.IsNaN(dfh[i]) {
-			continue
-		}
-		skel := chem.Atoms{}
-		for el, n := range sp.Atoms {
-			if el != "H" && el != "O" {
-				skel[el] = n
-			}
-		}
-		net[skel.String()] += mx.Final.Amount[i] - mx.Initial[i]
-	}
 	worst := 0.0
-	for _, d := range net {
+	for _, d := range skeletonChanges(mx, dfh) {
 		worst = math.Max(worst, math.Abs(d))
 	}
 	return worst

@@ -183,6 +183,7 @@ func (e *Engine) predict(req *Request, full bool) (*Result, error) {
 	if err != nil {
 		return nil, err
 	}
+	res.NotAssessed = m.notAssessed
 	mx, err := e.solveHot(feed, m)
 	if err != nil {
 		return nil, unsolved(err)

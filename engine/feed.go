@@ -30,6 +30,9 @@ func feedOf(req *Request, t *Tables, db *thermo.DB, m *mixture) (state.Feed, err
 		}
 		f.Streams = append(f.Streams, st)
 	}
+	if err := refuseAgentOfConcern(req, t, db); err != nil {
+		return state.Feed{}, err
+	}
 	return f, nil
 }
 
@@ -45,6 +48,10 @@ func streamFeed(si int, st *Stream, t *Tables, db *thermo.DB, m *mixture) (state
 	for ci := range st.Components {
 		c := &st.Components[ci]
 		if c.Chemical.Formula == "H2O" {
+			continue
+		}
+		if w, ok := db.Withheld(c.Chemical.Formula); ok && w.Role != "" {
+			m.notAssess(c, w, st.Label())
 			continue
 		}
 		if err := db.WithheldError(c.Chemical.Formula); err != nil {

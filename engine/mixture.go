@@ -37,6 +37,7 @@ type mixture struct {
 	fict        float64     // charge standing in for streams with a stated pH (see buildMixture)
 	dissolved   []dissolved // solids and near-pure liquids that dissolve into the mix
 	solutes     []soluteIn  // solutes with heats of concentrated solution (data/dilution.txt)
+	notAssessed []NotAssessed
 }
 
 func (m *mixture) note(format string, args ...any) {

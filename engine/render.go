@@ -200,6 +200,12 @@ func renderAmounts(b *strings.Builder, r *Result) {
 			w("     %s (%s)\n", h.Reason, h.Lock)
 		}
 	}
+	if len(r.NotAssessed) > 0 {
+		w("\nNot assessed (answered for the rest of the mix; neither the chemical nor its counter-ions are counted):\n")
+		for _, n := range r.NotAssessed {
+			w("  %s (%s, in %s): %s\n", n.Name, n.Formula, n.Stream, n.Reason)
+		}
+	}
 	if len(r.Gases) > 0 {
 		w("\nGas released (%.0f °C, %s kPa):\n", r.Conditions.TemperatureC, trimFloat(r.Conditions.PressureKPa, 3))
 		for _, g := range r.Gases {
@@ -231,6 +237,9 @@ func renderAmounts(b *strings.Builder, r *Result) {
 			}
 
 			w("\n")
+			if h.LeftOutBoundkJ != nil {
+				w("  %s counted as a related form with ΔfH° plus hydroxide and water; the heat of forming it from that form is left out (at most about %s kJ in all)\n", strings.Join(h.Missing, ", "), sigText(*h.LeftOutBoundkJ))
+			}
 			if h.DeltaHkJPerMol != nil {
 				w("  ΔH of the headline reaction %s kJ per mol as written\n", trimFloat(*h.DeltaHkJPerMol, 1))
 			}

@@ -47,6 +47,12 @@ type Result struct {
 	// HeldBack lists the changes that are downhill on paper but held back
 	// at plant conditions (data/locks.txt), each with its reason.
 	HeldBack []HeldBack `json:"held_back"`
+
+	// NotAssessed lists the chemicals of the request the answer leaves out
+	// for want of thermodynamic data (data/withheld.txt, rows with a role):
+	// the answer is for the rest of the mix. Absent when every chemical is
+	// assessed.
+	NotAssessed []NotAssessed `json:"not_assessed,omitempty"`
 }
 
 // HeldBack is a kinetic lock that held something back in this mix.
@@ -288,6 +294,11 @@ type Heat struct {
 	DilutionkJ float64  `json:"dilution_kj,omitempty"`
 	Assumption string   `json:"assumption"`
 	Missing    []string `json:"missing,omitempty"` // species without formation-enthalpy data
+	// LeftOutBoundkJ bounds what the figure leaves out when a species of
+	// Missing is made or used up on the whole: it is counted as its nearest
+	// form with ΔfH° plus hydroxide and water, and the heat of forming it
+	// from that form (at most this many kJ in all) is not counted.
+	LeftOutBoundkJ *float64 `json:"left_out_bound_kj,omitempty"`
 	// Withheld says why no figure is given when it is not missing data:
 	// a solid dissolved into too little water for the solution model.
 	Withheld string `json:"withheld,omitempty"`

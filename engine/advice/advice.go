@@ -62,7 +62,7 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 	res.Addition = pour.AnalyseLocal(req, func(r *engine.Request) ([]engine.Hazard, error) {
 		hs, err := a.evaluateIn(r, o.HeadspaceL)
 		return hazard.Relative(hs, pick(alone, r.Streams)), err
-	}, landing(a.concentrates(req)))
+	}, a.landing(req, a.concentrates(req)))
 	if res.Addition == nil {
 		res.Addition = &engine.Addition{Orders: []engine.PourOrder{}, Advice: "One stream: nothing is poured into anything."}
 	}

@@ -47,32 +47,90 @@ func (a *Advisor) concentrates(req *engine.Request) map[string]float64 {
 	return out
 }
 
-// landing is the pour.Local of a request: water-bearing streams run into a
-// tank that holds only concentrates.
-func landing(conc map[string]float64) pour.Local {
+// landing is the pour.Local of a request: water, or a dilute aqueous
+// stream (one that is not itself a concentrate), run into a tank that holds
+// only concentrates. The heat is judged on the real pair where it lands:
+// equal volumes of the added stream and each concentrate of the tank (for
+// plain water that is the concentrate's own figure), so a second
+// concentrated acid, which gives little heat with the first, is not taken
+// for water.
+func (a *Advisor) landing(req *engine.Request, conc map[string]float64) pour.Local {
+	pairs := map[[2]string]float64{}
 	return func(added engine.Stream, tank []engine.Stream) []engine.PourHazard {
 		if added.VolumeL <= 0 || conc[streamKey(added)] >= concentrateRiseC || len(tank) == 0 {
 			return nil
 		}
+		water := isWater(added)
 		least := -1.0
 		for _, t := range tank {
 			r, ok := conc[streamKey(t)]
 			if !ok || r < concentrateRiseC {
 				return nil
 			}
+			if !water {
+				k := [2]string{streamKey(added), streamKey(t)}
+				p, seen := pairs[k]
+				if !seen {
+					p = a.pairRise(req, added, t, r)
+					pairs[k] = p
+				}
+				if r = p; r < concentrateRiseC {
+					return nil
+				}
+			}
 			if least < 0 || r < least {
 				least = r
 			}
 		}
-		code, sev, what := "scalding-heat", engine.Warning, "spits and fumes"
-		if least >= concentrateDangerC {
-			code, sev, what = "boils", engine.Danger, "boils and throws the concentrate out"
-		}
-		into := pour.Name(&tank[0])
-		return []engine.PourHazard{{
-			Code: code, FromFraction: pour.Fractions()[0], ToFraction: 1, Worst: sev,
-			Message: fmt.Sprintf("%s run into %s %s where it lands (equal volumes of %s and water warm by about %.0f °C): always run the concentrate into the water, slowly, with stirring.",
-				pour.Name(&added), into, what, into, least),
-		}}
+		return landingHazard(added, tank, least, water)
 	}
+}
+
+func landingHazard(added engine.Stream, tank []engine.Stream, least float64, water bool) []engine.PourHazard {
+	code, sev, what := "scalding-heat", engine.Warning, "spits and fumes"
+	if least >= concentrateDangerC {
+		code, sev, what = "boils", engine.Danger, "boils and throws the concentrate out"
+	}
+	into := pour.Name(&tank[0])
+	with := "water"
+	if !water {
+		with = pour.Name(&added)
+	}
+	return []engine.PourHazard{{
+		Code: code, FromFraction: pour.Fractions()[0], ToFraction: 1, Worst: sev,
+		Message: fmt.Sprintf("%s run into %s %s where it lands (equal volumes of %s and %s warm by about %.0f °C): always run the concentrate into the water, slowly, with stirring.",
+			pour.Name(&added), into, what, into, with, least),
+	}}
+}
+
+// isWater: a stream of water alone.
+func isWater(s engine.Stream) bool {
+	for _, c := range s.Components {
+		if c.Chemical == nil || c.Chemical.Formula != "H2O" {
+			return false
+		}
+	}
+	return len(s.Components) > 0
+}
+
+// pairRise is the temperature rise of equal volumes of added and the
+// concentrate t mixed alone; when the pair cannot be judged (no heat
+// figure: a solid in too little water, a species without data) it is
+// withWater, the concentrate's rise with water, so that no warning is lost
+// for want of a figure.
+func (a *Advisor) pairRise(req *engine.Request, added, t engine.Stream, withWater float64) float64 {
+	amount := t.VolumeL + t.MassKg
+	if amount <= 0 {
+		amount = 1
+	}
+	x := added
+	x.VolumeL, x.MassKg = amount, 0
+	r := *req
+	r.Streams = []engine.Stream{t, x}
+	r.PH = nil
+	res, err := a.Engine.PredictBrief(&r)
+	if err != nil || res.Heat == nil || res.Heat.TemperatureRiseC == nil {
+		return withWater
+	}
+	return *res.Heat.TemperatureRiseC
 }

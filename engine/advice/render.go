@@ -49,6 +49,9 @@ func RenderShort(r *engine.Result) string {
 	for _, n := range r.ReadAs {
 		w("  %s\n", n)
 	}
+	if line := NotAssessedLine(r); line != "" {
+		w("%s\n", line)
+	}
 	w("%s\n", formsLine(r))
 	w("%s\n", heatLine(r))
 	w("%s\n", reactionLine(r))
@@ -67,6 +70,19 @@ func RenderShort(r *engine.Result) string {
 	}
 	w("Gas figures: closed headspace equal to the liquid volume (%s L), at equilibrium. %s\n", trim(hs), shortCaution)
 	return b.String()
+}
+
+// NotAssessedLine names the chemicals the answer leaves out for want of
+// thermodynamic data (empty when there are none).
+func NotAssessedLine(r *engine.Result) string {
+	if len(r.NotAssessed) == 0 {
+		return ""
+	}
+	var names []string
+	for _, n := range r.NotAssessed {
+		names = append(names, n.Name)
+	}
+	return "Not assessed: " + strings.Join(names, ", ") + " (no thermodynamic data): the answer is for the rest of the mix; check its SDS"
 }
 
 // formsLine lists the gases of concern in numbers, else the gases formed.
@@ -94,6 +110,14 @@ func formsLine(r *engine.Result) string {
 }
 
 func heatLine(r *engine.Result) string {
+	line := heatFigure(r)
+	if h := r.Heat; h != nil && h.LeftOutBoundkJ != nil && r.Decision != nil && r.Decision.Heat != nil {
+		line += fmt.Sprintf(" (%s estimated from a related form; within ±%s kJ)", strings.Join(h.Missing, ", "), num(*h.LeftOutBoundkJ))
+	}
+	return line
+}
+
+func heatFigure(r *engine.Result) string {
 	if r.Decision == nil || r.Decision.Heat == nil {
 		if r.Heat != nil && r.Heat.Withheld != "" {
 			return "Heat: no estimate (" + r.Heat.Withheld + ")"

@@ -61,6 +61,14 @@ func (b *balancer) Reduction(ox, red *thermo.Species, key string, med Medium) (t
 		}
 		terms = append(terms, p)
 	}
+	// A partner may bring an element of its own (AgCl(s) for the silver of
+	// Ag(CN)2- brings chloride): one more round of partners for elements
+	// that only one term holds.
+	for _, el := range lonely(terms) {
+		if p := b.partner(el, key, terms...); p != nil && !contains(terms, p) {
+			terms = append(terms, p)
+		}
+	}
 	ion := b.proton
 	if med == Base {
 		ion = b.hydrox
@@ -89,6 +97,25 @@ func (b *balancer) Reduction(ox, red *thermo.Species, key string, med Medium) (t
 		}
 	}
 	return r, nil
+}
+
+// lonely lists the elements other than H and O, beyond the first two terms,
+// that only one of terms holds.
+func lonely(terms []*thermo.Species) []string {
+	count := map[string]int{}
+	for _, t := range terms {
+		for el := range t.Atoms {
+			count[el]++
+		}
+	}
+	var out []string
+	for el, n := range count {
+		if n == 1 && el != "H" && el != "O" && terms[0].Atoms[el] == 0 && terms[1].Atoms[el] == 0 {
+			out = append(out, el)
+		}
+	}
+	sort.Strings(out)
+	return out
 }
 
 // unmatched lists the elements other than H and O found in only one of the

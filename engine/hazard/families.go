@@ -15,7 +15,7 @@ import (
 // Each is judged from what the streams bring together, with its source.
 var familyRules = []func(o *Outcome) (engine.Hazard, bool){
 	chloroAmines, nitricOrganic, ammoniumNitrite, permanganateSulfuric, volatileAcid,
-	solidHypochlorite, peracidOxidant, magnesiumWater, cyanideOxidation,
+	solidHypochlorite, peracidOxidant, magnesiumWater, cyanideOxidation, halideSulfuric,
 	// organic, azide and solid-chlorinator families (organic.go)
 	organicPeroxides, perchlorateEsters, oxidizerOrganic, bisChloromethylEther,
 	cannizzaro, hexamine, formaldehydeHypochlorite, haloform, heavyMetalAzide, mixedChlorinators,
@@ -235,7 +235,7 @@ func magnesiumWater(o *Outcome) (engine.Hazard, bool) {
 // slow, the tank vented (excess peroxide gives off oxygen, a falling pH gives
 // off hydrogen cyanide or cyanogen chloride).
 func cyanideOxidation(o *Outcome) (engine.Hazard, bool) {
-	cn := o.MolarBefore("CN-", "HCN")
+	cn := o.MolarBefore("CN-", "HCN") + labileCyanideMolar(o)
 	ox := math.Max(hypochloriteAny(o), o.MolarBefore("H2O2", "HO2-", "S2O8^2-", "HSO5-", "SO5^2-", "O3", "MnO4-"))
 	if cn < TraceMolar || ox < TraceMolar {
 		return engine.Hazard{}, false
@@ -244,4 +244,40 @@ func cyanideOxidation(o *Outcome) (engine.Hazard, bool) {
 		"This is a cyanide oxidation ("+fmtNum(cn, 2)+" mol/L cyanide): it is safe only as a controlled treatment step.",
 		"Hold the pH at 10.5 or more before and during dosing, dose the oxidant slowly with ORP control and stirring, vent the tank and check for hydrogen cyanide.",
 		"alkaline cyanide treatment, pH 10.5 and ORP control: common practice, no source"), true
+}
+
+// labileCyanideMolar is the mol/L of cyanide held in the complexes that
+// hypochlorite oxidizes as it does free cyanide (silver, copper, zinc,
+// cadmium, nickel; see state.IsOrganic), before reaction.
+func labileCyanideMolar(o *Outcome) float64 {
+	return 2*o.MolarBefore("Ag(CN)2-", "Cu(CN)2-") + 3*o.MolarBefore("Cu(CN)3^2-") +
+		4*o.MolarBefore("Cu(CN)4^3-", "Zn(CN)4^2-", "Cd(CN)4^2-", "Ni(CN)4^2-")
+}
+
+// halideSulfuric: concentrated sulfuric acid drives hydrogen bromide or
+// iodide out of their salts and oxidizes it: 2 HBr + H2SO4 → Br2 + SO2 +
+// 2 H2O; iodide goes further, to iodine with sulfur dioxide and hydrogen
+// sulfide (8 HI + H2SO4 → 4 I2 + H2S + 4 H2O). The equilibrium state keeps
+// sulfate from being reduced (the sulfate-inert lock, right for dilute
+// acid), so this is judged as a family.
+func halideSulfuric(o *Outcome) (engine.Hazard, bool) {
+	h2so4 := sulfuric(o)
+	if h2so4 < 8 {
+		return engine.Hazard{}, false
+	}
+	br, io := o.MolarBefore("Br-", "HBr"), o.MolarBefore("I-", "HI")
+	if br < 0.1 && io < 0.1 {
+		return engine.Hazard{}, false
+	}
+	var what []string
+	if br >= 0.1 {
+		what = append(what, "hydrogen bromide fumes, bromine and sulfur dioxide (2 HBr + H2SO4 → Br2 + SO2 + 2 H2O: up to "+fmtNum(br/2*o.VolumeL, 3)+" mol Br2 and as much SO2)")
+	}
+	if io >= 0.1 {
+		what = append(what, "iodine, sulfur dioxide and hydrogen sulfide (8 HI + H2SO4 → 4 I2 + H2S + 4 H2O: up to "+fmtNum(io/2*o.VolumeL, 3)+" mol I2)")
+	}
+	return mk("halogen-fumes", engine.Danger,
+		"Concentrated sulfuric acid ("+fmtNum(h2so4, 2)+" mol/L in the mix) oxidizes bromide and iodide: it gives off "+strings.Join(what, "; ")+", with heat.",
+		"Do not combine. Keep bromide and iodide salts and brines away from concentrated sulfuric acid; if it has happened, leave the area and return only with breathing apparatus.",
+		"Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, bromides and iodides with concentrated sulfuric acid (from memory); NIOSH Pocket Guide, bromine IDLH 3 ppm, sulfur dioxide IDLH 100 ppm (from memory); 8 mol/L threshold: common practice, no source"), true
 }

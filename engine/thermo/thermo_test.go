@@ -213,11 +213,23 @@ func TestWithheld(t *testing.T) {
 	if db.WithheldError("NaCl") != nil {
 		t.Error("NaCl reported as withheld")
 	}
+	if w.Role != "" {
+		t.Errorf("a three-column row has role %q, want none", w.Role)
+	}
+	fsys["withheld.txt"] = &fstest.MapFile{Data: []byte("NaBH4 | no reliable ΔfG° | reductant | test\n")}
+	if db, err = Load(fsys); err != nil {
+		t.Fatal(err)
+	}
+	if w, ok := db.Withheld("NaBH4"); !ok || w.Role != RoleReductant || w.Source != "test" || w.Missing != "no reliable ΔfG°" {
+		t.Errorf("four-column row read as %+v", w)
+	}
 	for _, bad := range []struct{ row, want string }{
 		{"NaBH4 | x", "data/withheld.txt:1: has 2 fields"},
 		{"NaBH4 |  | src", "neither may be empty"},
 		{"nabh4 | x | src", "write the formula as in chemicals.txt"},
 		{"NaBH4 | x | s\nNaBH4 | y | s", "data/withheld.txt:2: NaBH4 is already listed at line 1"},
+		{"NaBH4 | x | maybe | s", "role \"maybe\": write reductant, oxidant or inert"},
+		{"NaBH4 | x | reductant | s | extra", "has 5 fields"},
 	} {
 		fsys["withheld.txt"] = &fstest.MapFile{Data: []byte(bad.row + "\n")}
 		if _, err := Load(fsys); err == nil || !strings.Contains(err.Error(), bad.want) {

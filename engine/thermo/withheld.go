@@ -21,9 +21,24 @@ var ErrWithheld = errors.New("answer withheld")
 type Withheld struct {
 	Formula string // as in chemicals.txt
 	Missing string // what data is missing or unreliable
-	Source  string
-	Line    int
+	// Role is what the chemical may do in a mix when the row gives it
+	// (the optional column): RoleReductant, RoleOxidant or RoleInert. A
+	// row without a role withholds every answer that names the chemical;
+	// one with a role lets the engine answer for the rest of the mix and
+	// mark the chemical not assessed, unless it may be the agent of
+	// concern (engine.notAssessed decides).
+	Role   string
+	Source string
+	Line   int
 }
+
+// Roles a withheld chemical may be given (withheld.txt, third column of a
+// four-column row).
+const (
+	RoleReductant = "reductant" // can be oxidized: an oxygen scavenger, an aldehyde
+	RoleOxidant   = "oxidant"   // can be reduced: combined chlorine
+	RoleInert     = "inert"     // takes part in no redox or acid–base change of concern: a surfactant
+)
 
 // WithheldError is the answer to a request naming a withheld chemical.
 type WithheldError struct {
@@ -92,12 +107,21 @@ func loadWithheld(fsys fs.FS) (map[string]*Withheld, error) {
 			errs = append(errs, &RowError{File: file, Line: i + 1, Msg: fmt.Sprintf(format, args...)})
 		}
 		f := strings.Split(row, "|")
-		if len(f) != 3 {
-			bad("has %d fields, want 3 (formula | what is missing | source) separated by \" | \"", len(f))
+		if len(f) != 3 && len(f) != 4 {
+			bad("has %d fields, want 3 (formula | what is missing | source) or 4 (formula | what is missing | role | source) separated by \" | \"", len(f))
 			continue
 		}
 		for k := range f {
 			f[k] = strings.TrimSpace(f[k])
+		}
+		role := ""
+		if len(f) == 4 {
+			role = f[2]
+			f = []string{f[0], f[1], f[3]}
+			if role != RoleReductant && role != RoleOxidant && role != RoleInert {
+				bad("role %q: write %s, %s or %s", role, RoleReductant, RoleOxidant, RoleInert)
+				continue
+			}
 		}
 		if f[1] == "" || f[2] == "" {
 			bad("say what is missing and name the source; neither may be empty")
@@ -111,7 +135,7 @@ func loadWithheld(fsys fs.FS) (map[string]*Withheld, error) {
 			bad("%s is already listed at line %d; keep one row", f[0], prev.Line)
 			continue
 		}
-		out[f[0]] = &Withheld{Formula: f[0], Missing: f[1], Source: f[2], Line: i + 1}
+		out[f[0]] = &Withheld{Formula: f[0], Missing: f[1], Role: role, Source: f[2], Line: i + 1}
 	}
 	return out, errors.Join(errs...)
 }

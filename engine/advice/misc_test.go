@@ -1,0 +1,87 @@
+package advice_test
+
+import (
+	"strings"
+	"testing"
+
+	"mixward/engine"
+)
+
+// TestMiscPours checks the decision and the hazard codes of pours whose
+// chemistry was missing: each case names its source.
+func TestMiscPours(t *testing.T) {
+	a := mustAdvisor(t)
+	for _, tc := range []struct {
+		name, req string
+		level     engine.Level
+		want      []string // codes that must be raised
+		never     []string // codes that must not appear, in the mix or along the pour
+	}{
+		{
+			// Two concentrated acids give little heat (the whole mix 28 kJ;
+			// NBS Tables 1982, heat of mixing small): no landing warning.
+			name: "two concentrated acids", req: "mix 100 L HNO3 60 % + 100 L H3PO4 75 %",
+			level: engine.NoConcern, never: []string{"scalding-heat", "boils"},
+		},
+		{
+			// 2 HBr + H2SO4 → Br2 + SO2 + 2 H2O (Vogel, bromides with
+			// concentrated sulfuric acid).
+			name: "bromide with concentrated sulfuric", req: "mix 100 L NaBr 40 % + 100 L H2SO4 98 %",
+			level: engine.DoNotMix, want: []string{"halogen-fumes"},
+		},
+		{
+			// Iodide goes on to I2, SO2 and H2S (Vogel, iodides).
+			name: "iodide with concentrated sulfuric", req: "mix 10 L KI 10 % + 10 L H2SO4 98 %",
+			level: engine.DoNotMix, want: []string{"halogen-fumes"},
+		},
+		{
+			// Dilute sulfuric acid does not oxidize bromide (Vogel).
+			name: "bromide with dilute sulfuric", req: "mix 100 L NaBr 10 % + 100 L H2SO4 10 %",
+			level: engine.NoConcern, never: []string{"halogen-fumes"},
+		},
+		{
+			// Alkaline chlorination of a silver cyanide rinse: the labile
+			// complex is oxidized as free cyanide is (common practice, no
+			// source); a controlled step at pH 10.5 or more.
+			name: "silver cyanide rinse with bleach", req: "mix 100 L KAg(CN)2 0.2 M, NaOH 1 % + 100 L NaOCl 12.5 %",
+			level: engine.WithPrecautions, want: []string{"cyanide-oxidation"},
+		},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			r := ask(t, a, tc.req)
+			if r.Decision == nil || r.Decision.Level != tc.level {
+				t.Fatalf("decision %+v, want %s", r.Decision, tc.level)
+			}
+			codes := map[string]bool{}
+			for _, h := range r.Hazards {
+				codes[h.Code] = true
+			}
+			for _, o := range r.Addition.Orders {
+				for _, h := range o.Hazards {
+					codes[h.Code] = true
+				}
+			}
+			for _, c := range tc.want {
+				if !codes[c] {
+					t.Errorf("no %s among %v", c, codes)
+				}
+			}
+			for _, c := range tc.never {
+				if codes[c] {
+					t.Errorf("%s raised: %v", c, codes)
+				}
+			}
+		})
+	}
+}
+
+// TestSilverCyanideOxidized: the equation of the silver cyanide rinse is
+// hypochlorite taking the complexed cyanide to cyanate, silver to the
+// chloride (NBS Tables 1982 ΔfG° of Ag(CN)2-, OCN-, AgCl: ΔG about
+// -670 kJ per mol of complex; from memory).
+func TestSilverCyanideOxidized(t *testing.T) {
+	r := ask(t, mustAdvisor(t), "mix 100 L KAg(CN)2 0.2 M, NaOH 1 % + 100 L NaOCl 12.5 %")
+	if r.Reaction == nil || !strings.Contains(r.Reaction.Text, "Ag(CN)2-") || !strings.Contains(r.Reaction.Text, "OCN-") || !r.Spontaneous {
+		t.Errorf("reaction %+v, want Ag(CN)2- oxidized to OCN-", r.Reaction)
+	}
+}

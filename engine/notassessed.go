@@ -1,0 +1,118 @@
+package engine
+
+import (
+	"fmt"
+
+	"mixward/engine/thermo"
+)
+
+// NotAssessed is a chemical of the request that the answer leaves out: the
+// dictionary knows it by name, but its species have no thermodynamic data
+// (data/withheld.txt, a row with a role), and it is not the agent of concern
+// of the rest of the mix (see refuseAgentOfConcern). Neither the chemical
+// nor its counter-ions are counted in the state, the gases or the heat.
+type NotAssessed struct {
+	Name    string `json:"name"`
+	Formula string `json:"formula"`
+	Stream  string `json:"stream"`
+	Reason  string `json:"reason"`
+	Role    string `json:"role"` // reductant, oxidant or inert (data/withheld.txt)
+}
+
+// oxidizerOfConcernV is the standard potential (V) from which a species the
+// rest of the mix brings counts as an oxidizing agent that could act on an
+// unassessed reducing agent: ferric iron (+0.77 V, CRC Handbook,
+// Electrochemical Series) and every stronger one, such as nitrate,
+// hypochlorite, peroxide, chlorite, chromate, permanganate and persulfate.
+const oxidizerOfConcernV = 0.7
+
+// notAssess records c as not assessed.
+func (m *mixture) notAssess(c *Component, w *thermo.Withheld, stream string) {
+	for _, n := range m.notAssessed {
+		if n.Formula == w.Formula {
+			return
+		}
+	}
+	m.notAssessed = append(m.notAssessed, NotAssessed{
+		Name: c.Name, Formula: w.Formula, Role: w.Role, Stream: stream,
+		Reason: "no thermodynamic data (" + w.Missing + "); the answer is for the rest of the mix",
+	})
+}
+
+// refuseAgentOfConcern withholds the whole answer when a chemical that
+// would be marked not assessed may be the oxidizing or reducing agent of
+// concern:
+//   - an unassessed reducing agent (an oxygen scavenger, an aldehyde) meets
+//     an oxidizing agent of the table with E° of oxidizerOfConcernV or more
+//     brought by another chemical of the request;
+//   - an unassessed oxidizing agent meets any chemical that the tables list
+//     as a reducing agent (the reduced side of a half-reaction);
+//   - an inert one (a surfactant) is never refused for this.
+//
+// Water alone never makes it the agent of concern.
+func refuseAgentOfConcern(req *Request, t *Tables, db *thermo.DB) error {
+	for si := range req.Streams {
+		for ci := range req.Streams[si].Components {
+			c := &req.Streams[si].Components[ci]
+			w, ok := db.Withheld(c.Chemical.Formula)
+			if !ok || w.Role == "" || w.Role == thermo.RoleInert {
+				continue
+			}
+			if other := partnerOf(req, t, db, w.Role); other != "" {
+				return withheld(c, fmt.Sprintf("no thermodynamic data for %s (%s); answer withheld: it may be the %s that %s acts on",
+					c.Name, w.Missing, agentWord(w.Role), other))
+			}
+		}
+	}
+	return nil
+}
+
+func agentWord(role string) string {
+	if role == thermo.RoleOxidant {
+		return "oxidizing agent"
+	}
+	return "reducing agent"
+}
+
+// partnerOf names the first chemical of the request (not withheld, not
+// water) that could be the redox partner of an unassessed agent of role.
+func partnerOf(req *Request, t *Tables, db *thermo.DB, role string) string {
+	for si := range req.Streams {
+		for ci := range req.Streams[si].Components {
+			c := &req.Streams[si].Components[ci]
+			if c.Chemical == nil || c.Chemical.Formula == "H2O" {
+				continue
+			}
+			if _, ok := db.Withheld(c.Chemical.Formula); ok {
+				continue
+			}
+			for _, g := range c.Chemical.Gives {
+				if partnerSpecies(t, mixKey(g.Species), role) {
+					return c.Name
+				}
+			}
+		}
+	}
+	return ""
+}
+
+// partnerSpecies: for an unassessed reducing agent, key is the oxidized
+// side of a half-reaction with E° ≥ oxidizerOfConcernV; for an unassessed
+// oxidizing agent, the reduced side of any half-reaction.
+func partnerSpecies(t *Tables, key, role string) bool {
+	for _, h := range t.Half {
+		keys := h.redKeys
+		if role == thermo.RoleReductant {
+			if h.E0 < oxidizerOfConcernV {
+				continue
+			}
+			keys = h.oxKeys
+		}
+		for _, k := range keys {
+			if k == key {
+				return true
+			}
+		}
+	}
+	return false
+}
