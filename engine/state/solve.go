@@ -46,14 +46,18 @@ func (m *Model) solveLocked(mx *Mix, n0 []float64, volL float64) (*State, error)
 // or base it stands for is what the stream then holds (without the
 // formation locks cyanide would fit its pH as carbon monoxide and ammonia).
 func (m *Model) solveCombined(mx *Mix, n0 []float64, volL float64) (*State, error) {
-	return m.solve(mx, n0, true, m.formationRules(mx, n0), volL, n0)
+	return m.solve(mx, n0, true, m.formationRules(mx, n0, volL), volL, n0)
 }
 
 // formationRules are the rules of the locks that only keep listed species
-// from forming (crystalline oxides): they hold for the mix as combined too,
-// judged on the temperature alone.
-func (m *Model) formationRules(mx *Mix, n0 []float64) []lockRule {
-	env := Env{TempC: mx.TempK - 273.15, ReachC: mx.reachC(), PH: math.NaN()}
+// from forming (crystalline oxides, hydrogen sulfide from thiocyanate): they
+// hold for the mix as combined too, judged on the temperature and on what
+// the streams bring (the pH of the mix as combined is not known yet, so a
+// pH condition does not hold). Without them a change that is not a redox
+// change (thiocyanate hydrolysed to sulfide, ammonium and bicarbonate) would
+// run in the mix as combined, before any lock could keep the reagent.
+func (m *Model) formationRules(mx *Mix, n0 []float64, volL float64) []lockRule {
+	env := m.env(mx, &State{Amount: n0, PH: math.NaN()}, volL)
 	var out []lockRule
 	for i := range m.Locks {
 		l := &m.Locks[i]
