@@ -120,6 +120,8 @@ func TestLockErrors(t *testing.T) {
 		{"x | no-gain S(6) | t<<60 | why | src", "not a number"},
 		{"two words | no-gain S(6) | t<60 | why | src", "one word"},
 		{"x | no-gain S(6) | (t<60 | why | src", "missing )"},
+		{"x | one-way N(3) | t<60 | why | src", "one-way takes an element alone"},
+		{"x | one-way N or no-gain S(6) | t<60 | why | src", "stands alone"},
 	}
 	for _, c := range cases {
 		_, err := parseLocks("locks.txt", []byte(c.row+"\n"))
