@@ -15,7 +15,7 @@ import (
 // Each is judged from what the streams bring together, with its source.
 var familyRules = []func(o *Outcome) (engine.Hazard, bool){
 	chloroAmines, nitricOrganic, ammoniumNitrite, permanganateSulfuric, volatileAcid,
-	solidHypochlorite, peracidOxidant, magnesiumWater, cyanideOxidation,
+	solidHypochlorite, peracidOxidant, magnesiumWater, cyanideOxidation, hotElectrolessNickel,
 }
 
 // organicN is the mol/L of organic nitrogen compounds with nitrogen at −3
@@ -224,4 +224,32 @@ func cyanideOxidation(o *Outcome) (engine.Hazard, bool) {
 		"This is a cyanide oxidation ("+fmtNum(cn, 2)+" mol/L cyanide): it is safe only as a controlled treatment step.",
 		"Hold the pH at 10.5 or more before and during dosing, dose the oxidant slowly with ORP control and stirring, vent the tank and check for hydrogen cyanide.",
 		"alkaline cyanide treatment, pH 10.5 and ORP control: common practice, no source"), true
+}
+
+// hotElectrolessNickel: nickel(II) with hypophosphite at 60 °C and more is
+// an electroless-nickel bath at work. It is run that way on purpose, but a
+// bath that is overheated, over-adjusted with caustic or seeded with
+// particles "crashes": nickel plates out as black powder throughout the tank
+// with a surge of hydrogen. Cold, the same solution keeps (the
+// hypophosphite-cold lock holds the plating back).
+func hotElectrolessNickel(o *Outcome) (engine.Hazard, bool) {
+	if o.TemperatureC < 60 || o.MolarBefore("H2PO2-", "H3PO2") < TraceMolar {
+		return engine.Hazard{}, false
+	}
+	ni := 0.0
+	for _, a := range o.Before {
+		if at, err := chem.ParseFormula(a.Species.Formula); err == nil && at["Ni"] > 0 {
+			ni += a.Mol * float64(at["Ni"]) // nickel(II), or nickel a hot stream has already plated
+		}
+	}
+	if o.VolumeL > 0 {
+		ni /= o.VolumeL
+	}
+	if ni < TraceMolar {
+		return engine.Hazard{}, false
+	}
+	return mk("hot-electroless-bath", engine.Warning,
+		"A hot nickel–hypophosphite bath ("+fmtNum(ni, 2)+" mol/L nickel) plates wherever it finds a catalytic surface; overheated, adjusted with strong caustic or seeded with particles it crashes: black nickel throughout the tank and a surge of hydrogen.",
+		"Adjust pH with dilute caustic or ammonia, slowly and with stirring, below the operating temperature; vent the tank, keep sparks away and filter out particles.",
+		"electroless nickel operation (about 85–90 °C, catalytic surface; bath decomposition with hydrogen): common practice, no source"), true
 }
