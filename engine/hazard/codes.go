@@ -45,6 +45,7 @@ var codes = []Code{
 	{"solid-oxidizer-heating", "solid chlorinating agent: heats and ignites with little water", nil},
 	{"slow-hydrogen", "slow release of flammable hydrogen", []string{"flammable-gas"}},
 	{"cyanide-oxidation", "cyanide oxidation: only as a controlled step", []string{"cyanide-present"}},
+	{"hot-electroless-bath", "hot electroless-nickel bath: can crash with hydrogen", []string{"flammable-gas"}},
 	{"explosive-residue", "leaves explosive residues on standing", nil},
 	{"hf-burns", "hydrofluoric acid: deep burns and fumes", nil},
 	{"self-heating", "self-heating decomposition", nil},

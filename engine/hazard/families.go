@@ -15,7 +15,7 @@ import (
 // Each is judged from what the streams bring together, with its source.
 var familyRules = []func(o *Outcome) (engine.Hazard, bool){
 	chloroAmines, nitricOrganic, ammoniumNitrite, permanganateSulfuric, volatileAcid,
-	solidHypochlorite, peracidOxidant, magnesiumWater, cyanideOxidation, halideSulfuric,
+	solidHypochlorite, peracidOxidant, magnesiumWater, cyanideOxidation, halideSulfuric, hotElectrolessNickel,
 	// organic, azide and solid-chlorinator families (organic.go)
 	organicPeroxides, perchlorateEsters, oxidizerOrganic, bisChloromethylEther,
 	cannizzaro, hexamine, formaldehydeHypochlorite, haloform, heavyMetalAzide, mixedChlorinators,
@@ -280,4 +280,31 @@ func halideSulfuric(o *Outcome) (engine.Hazard, bool) {
 		"Concentrated sulfuric acid ("+fmtNum(h2so4, 2)+" mol/L in the mix) oxidizes bromide and iodide: it gives off "+strings.Join(what, "; ")+", with heat.",
 		"Do not combine. Keep bromide and iodide salts and brines away from concentrated sulfuric acid; if it has happened, leave the area and return only with breathing apparatus.",
 		"Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, bromides and iodides with concentrated sulfuric acid (from memory); NIOSH Pocket Guide, bromine IDLH 3 ppm, sulfur dioxide IDLH 100 ppm (from memory); 8 mol/L threshold: common practice, no source"), true
+
+// hotElectrolessNickel: nickel(II) with hypophosphite at 60 °C and more is
+// an electroless-nickel bath at work. It is run that way on purpose, but a
+// bath that is overheated, over-adjusted with caustic or seeded with
+// particles "crashes": nickel plates out as black powder throughout the tank
+// with a surge of hydrogen. Cold, the same solution keeps (the
+// hypophosphite-cold lock holds the plating back).
+func hotElectrolessNickel(o *Outcome) (engine.Hazard, bool) {
+	if o.TemperatureC < 60 || o.MolarBefore("H2PO2-", "H3PO2") < TraceMolar {
+		return engine.Hazard{}, false
+	}
+	ni := 0.0
+	for _, a := range o.Before {
+		if at, err := chem.ParseFormula(a.Species.Formula); err == nil && at["Ni"] > 0 {
+			ni += a.Mol * float64(at["Ni"]) // nickel(II), or nickel a hot stream has already plated
+		}
+	}
+	if o.VolumeL > 0 {
+		ni /= o.VolumeL
+	}
+	if ni < TraceMolar {
+		return engine.Hazard{}, false
+	}
+	return mk("hot-electroless-bath", engine.Warning,
+		"A hot nickel–hypophosphite bath ("+fmtNum(ni, 2)+" mol/L nickel) plates wherever it finds a catalytic surface; overheated, adjusted with strong caustic or seeded with particles it crashes: black nickel throughout the tank and a surge of hydrogen.",
+		"Adjust pH with dilute caustic or ammonia, slowly and with stirring, below the operating temperature; vent the tank, keep sparks away and filter out particles.",
+		"electroless nickel operation (about 85–90 °C, catalytic surface; bath decomposition with hydrogen): common practice, no source"), true
 }

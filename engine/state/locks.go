@@ -32,6 +32,10 @@ const (
 	NoGain Direction = iota // the group may not grow
 	NoLoss                  // the group may not shrink
 	Fixed                   // neither
+	// OneWay keeps an element from rising and falling at once out of any
+	// oxidation state the mix as combined holds it in: a species acts as
+	// oxidizing agent or as reducing agent, not on itself (see oneWayRules).
+	OneWay
 )
 
 // Rule keeps one group of atoms from growing, shrinking or both.
@@ -198,6 +202,11 @@ func parseLockRow(line string) (Lock, error) {
 	if len(l.Rules) > 2 {
 		return Lock{}, fmt.Errorf("lock %s: at most two rules may be joined by \"or\"", l.ID)
 	}
+	for _, r := range l.Rules {
+		if r.Dir == OneWay && len(l.Rules) > 1 {
+			return Lock{}, fmt.Errorf("lock %s: a one-way rule stands alone, not joined by \"or\"", l.ID)
+		}
+	}
 	if f[2] != "always" {
 		c, err := parseCond(f[2])
 		if err != nil {
@@ -222,8 +231,14 @@ func parseRule(s string) (Rule, error) {
 		r.Dir = NoLoss
 	case "fixed":
 		r.Dir = Fixed
+	case "one-way":
+		el := strings.TrimSpace(rest)
+		if !chem.IsElementSymbol(el) {
+			return Rule{}, fmt.Errorf("rule %q: one-way takes an element alone, like one-way N", s)
+		}
+		return Rule{Dir: OneWay, Group: Group{Element: el, Lo: -8, Hi: 8, text: el}}, nil
 	default:
-		return Rule{}, fmt.Errorf("rule %q: %q is not no-gain, no-loss or fixed", s, dir)
+		return Rule{}, fmt.Errorf("rule %q: %q is not no-gain, no-loss, fixed or one-way", s, dir)
 	}
 	rest, allowance, hasAllowance := strings.Cut(strings.TrimSpace(rest), " + ")
 	g, err := parseGroup(strings.TrimSpace(rest))

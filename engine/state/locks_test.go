@@ -133,6 +133,8 @@ func TestLockErrors(t *testing.T) {
 		{"x | no-gain S(6) | (t<60 | why | src", "missing )"},
 		{"x | no-gain {N2, 0 NH3} | t<60 | why | src", "a count before a species"},
 		{"x | no-gain {N2, two NH3} | t<60 | why | src", "a count before a species"},
+		{"x | one-way N(3) | t<60 | why | src", "one-way takes an element alone"},
+		{"x | one-way N or no-gain S(6) | t<60 | why | src", "stands alone"},
 	}
 	for _, c := range cases {
 		_, err := parseLocks("locks.txt", []byte(c.row+"\n"))

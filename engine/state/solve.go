@@ -50,9 +50,12 @@ func (m *Model) solveCombined(mx *Mix, n0 []float64, volL float64) (*State, erro
 }
 
 // formationRules are the rules of the locks that only keep listed species
-// from forming (crystalline oxides, ammonium from sulfamate): they hold for
-// the mix as combined too, judged on the temperature and on what the streams
-// bring (no pH yet: a pH condition does not hold).
+// from forming (crystalline oxides, hydrogen sulfide from thiocyanate): they
+// hold for the mix as combined too, judged on the temperature and on what
+// the streams bring (the pH of the mix as combined is not known yet, so a
+// pH condition does not hold). Without them a change that is not a redox
+// change (thiocyanate hydrolysed to sulfide, ammonium and bicarbonate) would
+// run in the mix as combined, before any lock could keep the reagent.
 func (m *Model) formationRules(mx *Mix, n0 []float64, volL float64) []lockRule {
 	env := m.env(mx, &State{Amount: n0, PH: math.NaN()}, volL)
 	env.Molar = nil
@@ -228,22 +231,83 @@ func contains(list []string, s string) bool {
 
 func constraintSets(mx *Mix, locks []*Lock, n0 []float64, allow map[string]float64) [][]lockRule {
 	sets := [][]lockRule{nil}
-	for _, l := range locks {
-		if vacuous(mx, l, n0) {
-			continue
-		}
+	fork := func(alts []lockRule) {
 		var next [][]lockRule
-		for k, r := range l.Rules {
-			name := l.ID + "#" + strconv.Itoa(k)
-			c := lockRule{c: ruleConstraint(mx, name, r, n0), g: r.Group}
-			c.c.Bound += allow[name]
+		for _, c := range alts {
 			for _, s := range sets {
 				next = append(next, append(append([]lockRule(nil), s...), c))
 			}
 		}
 		sets = next
 	}
+	for _, l := range locks {
+		if len(l.Rules) == 1 && l.Rules[0].Dir == OneWay {
+			for k, pair := range oneWayRules(mx, l.Rules[0].Group.Element, n0) {
+				var alts []lockRule
+				for j, r := range pair {
+					name := l.ID + "#" + strconv.Itoa(k) + "ab"[j:j+1]
+					alts = append(alts, lockRule{c: ruleConstraint(mx, name, r, n0), g: r.Group})
+				}
+				fork(alts)
+			}
+			continue
+		}
+		if vacuous(mx, l, n0) {
+			continue
+		}
+		var alts []lockRule
+		for k, r := range l.Rules {
+			name := l.ID + "#" + strconv.Itoa(k)
+			c := lockRule{c: ruleConstraint(mx, name, r, n0), g: r.Group}
+			c.c.Bound += allow[name]
+			alts = append(alts, c)
+		}
+		fork(alts)
+	}
 	return sets
+}
+
+// oneWayRules spells out a one-way rule on element el for the amounts n0:
+// for every oxidation state s the element is brought in (at least a
+// millionth of its atoms) with species of the mix both below and above it,
+// the pair "no-gain el below s" or "no-gain el above s". Atoms in state s
+// may then be reduced or oxidized, not both: a reagent does not fall apart
+// into a more reduced and a more oxidized product by itself (hydrazine into
+// ammonia and azide, nitrite into nitric oxide and nitrate), while the same
+// element brought in two states may still meet in between (nitrite and
+// ammonium to nitrogen).
+func oneWayRules(mx *Mix, el string, n0 []float64) [][2]Rule {
+	const gap = 0.05 // states closer than this are one state
+	total := elementTotal(mx, n0, el)
+	if total <= 0 {
+		return nil
+	}
+	atState := map[float64]float64{}
+	var lows, highs []float64
+	for i, sp := range mx.Species {
+		n := sp.Atoms[el]
+		if n == 0 {
+			continue
+		}
+		ox := math.Round(sp.Ox[el]*100) / 100
+		atState[ox] += n0[i] * float64(n)
+		lows, highs = append(lows, ox), append(highs, ox)
+	}
+	var states []float64
+	for s, n := range atState {
+		if n >= 1e-6*total && slices.ContainsFunc(lows, func(x float64) bool { return x < s-gap }) &&
+			slices.ContainsFunc(highs, func(x float64) bool { return x > s+gap }) {
+			states = append(states, s)
+		}
+	}
+	sort.Float64s(states)
+	out := make([][2]Rule, 0, len(states))
+	for _, s := range states {
+		below := Group{Element: el, Lo: -8, Hi: s - gap, text: fmt.Sprintf("%s(<%g)", el, s)}
+		above := Group{Element: el, Lo: s + gap, Hi: 8, text: fmt.Sprintf("%s(>%g)", el, s)}
+		out = append(out, [2]Rule{{Dir: NoGain, Group: below}, {Dir: NoGain, Group: above}})
+	}
+	return out
 }
 
 // vacuous reports whether a lock cannot hold anything back in n0: a single
@@ -251,6 +315,9 @@ func constraintSets(mx *Mix, locks []*Lock, n0 []float64, allow map[string]float
 // may hold, so the lock as a whole asks nothing).
 func vacuous(mx *Mix, l *Lock, n0 []float64) bool {
 	for _, r := range l.Rules {
+		if r.Dir == OneWay {
+			return len(oneWayRules(mx, r.Group.Element, n0)) == 0
+		}
 		c := ruleConstraint(mx, "", r, n0)
 		switch {
 		case r.Dir == NoLoss && c.Bound <= 0:
