@@ -280,6 +280,7 @@ func halideSulfuric(o *Outcome) (engine.Hazard, bool) {
 		"Concentrated sulfuric acid ("+fmtNum(h2so4, 2)+" mol/L in the mix) oxidizes bromide and iodide: it gives off "+strings.Join(what, "; ")+", with heat.",
 		"Do not combine. Keep bromide and iodide salts and brines away from concentrated sulfuric acid; if it has happened, leave the area and return only with breathing apparatus.",
 		"Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, bromides and iodides with concentrated sulfuric acid (from memory); NIOSH Pocket Guide, bromine IDLH 3 ppm, sulfur dioxide IDLH 100 ppm (from memory); 8 mol/L threshold: common practice, no source"), true
+}
 
 // hotElectrolessNickel: nickel(II) with hypophosphite at 60 °C and more is
 // an electroless-nickel bath at work. It is run that way on purpose, but a
