@@ -117,7 +117,9 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 // info; within a severity the worse gas ratio first, then table order.
 func Judge(o *Outcome, d *Data) []engine.Hazard {
 	out := judgeGas(o, d)
-	for _, r := range append(presenceRules[:len(presenceRules):len(presenceRules)], familyRules...) {
+	rules := append(presenceRules[:len(presenceRules):len(presenceRules)], familyRules...)
+	rules = append(append(rules, slowRules...), oxygenSurge)
+	for _, r := range rules {
 		if h, ok := r(o); ok {
 			out = append(out, h)
 		}

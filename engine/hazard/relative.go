@@ -26,7 +26,7 @@ func Relative(mix []engine.Hazard, alone []Alone) []engine.Hazard {
 // the mixing itself, a solid chlorinating agent heats when water meets it,
 // and hydrofluoric acid and hexavalent chromium are handled during the
 // mixing whatever their source (common practice, no source).
-var alwaysOwnToMix = map[string]bool{"boils": true, "near-boiling": true, "solid-oxidizer-heating": true, "scalding-heat": true, "warms": true, "hf-burns": true, "chromium-vi-exposure": true}
+var alwaysOwnToMix = map[string]bool{"boils": true, "near-boiling": true, "solid-oxidizer-heating": true, "scalding-heat": true, "warms": true, "hf-burns": true, "chromium-vi-exposure": true, "warm-bleach": true}
 
 // Alone is one stream judged by itself.
 type Alone struct {

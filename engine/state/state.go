@@ -81,11 +81,17 @@ type State struct {
 	VolumeL float64
 	Applied []*Lock // locks whose conditions held
 	Held    []*Lock // locks that held something back (active at the solution)
+	// Undecided are locks that kept a whole element in one range of
+	// oxidation states (all chromium as chromium(VI)) where the state's
+	// potentials cannot tell whether they held anything back; a caller
+	// that lists what was held back lifts each (Model.Without) to see.
+	Undecided []*Lock
 	// Shut are the species a lock kept from forming at all (no O2 where
 	// oxygen evolution is locked, no iodate from iodine).
 	Shut map[*thermo.Species]bool
 
-	combined *State // the same amounts as combined, before any redox change
+	combined *State   // the same amounts as combined, before any redox change
+	maybe    []string // names of the rules behind Undecided
 }
 
 // Mix is the solved tank.
