@@ -61,7 +61,7 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 	res.Notes = append(res.Notes, fmt.Sprintf("gas concentrations are for a closed headspace equal to the liquid volume (%s L), at equilibrium", trim(o.HeadspaceL)))
 	res.Addition = pour.AnalyseLocal(req, func(r *engine.Request) ([]engine.Hazard, error) {
 		hs, err := a.evaluateIn(r, o.HeadspaceL)
-		return hazard.Relative(hs, pick(alone, r.Streams)), err
+		return hazard.Relative(hazard.AlongPour(hs), pick(alone, r.Streams)), err
 	}, landing(a.concentrates(req)))
 	if res.Addition == nil {
 		res.Addition = &engine.Addition{Orders: []engine.PourOrder{}, Advice: "One stream: nothing is poured into anything."}

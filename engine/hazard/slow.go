@@ -15,6 +15,23 @@ var slowRules = []func(o *Outcome) (engine.Hazard, bool){
 	chromiumVILeft, chlorateKept, peracidForming, warmHypochlorite,
 }
 
+// standingCodes are hazards of the mix as it stands (it changes over hours:
+// warm bleach, peracid forming) that do not depend on the order of
+// addition; the pour does not judge by them.
+var standingCodes = map[string]bool{"warm-bleach": true, "peracid-forming": true, "chromium-vi-not-reduced": true, "chlorate-reducer-acid": true}
+
+// AlongPour drops from the hazards of one point of a pour those of the mix
+// as it stands, which the final mix reports.
+func AlongPour(hs []engine.Hazard) []engine.Hazard {
+	out := hs[:0:0]
+	for _, h := range hs {
+		if !standingCodes[h.Code] {
+			out = append(out, h)
+		}
+	}
+	return out
+}
+
 // heldBy reports whether the lock id held something back in the mix.
 func heldBy(o *Outcome, id string) bool {
 	for _, h := range o.HeldBack {

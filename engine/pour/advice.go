@@ -39,6 +39,12 @@ func advice(add *engine.Addition) string {
 				continue // with three or more streams only the pairs that matter are named
 			}
 		}
+		if len(add.Orders) > 2 && worst(x) >= 3 && worst(y) >= 3 && !heatOnly(x) && !heatOnly(y) {
+			// With three or more streams such a pair meets only in the
+			// sequence named before this advice, never neat.
+			parts = append(parts, "Never let "+x.Added+" and "+x.Into+" meet neat ("+codes(x)+" while "+x.Added+" runs into "+x.Into+", "+codes(y)+" the other way).")
+			continue
+		}
 		parts = append(parts, pairAdvice(x, y))
 	}
 	if len(add.Orders) > 2 && quiet*2 == len(add.Orders) {
