@@ -49,6 +49,15 @@ func (m *Model) fitPH(mx *Mix, n0 []float64, volL, target float64) ([]float64, e
 	if err != nil {
 		return nil, err
 	}
+	if named := namedStrong(mx, n0); named/volL >= statedPHNote && math.Abs(x)/volL >= statedPHNote && math.Abs(x) > conflictShare*named {
+		// The stream names its strong acid or base, which fixes its pH: a
+		// stated pH that needs much more (or the opposite) would add ions
+		// that are not there. Keep the composition and say so.
+		if s, err := m.solveCombined(mx, n0, volL); err == nil {
+			mx.Notes = append(mx.Notes, fmt.Sprintf("the stated pH %g conflicts with the composition, which gives pH %.2f at %.0f °C (water's pKw depends on temperature): the composition is kept and the stated pH ignored; check the pH or the concentration", target, s.PH, mx.TempK-273.15))
+			return n0, nil
+		}
+	}
 	if c := math.Abs(x) / volL; c >= statedPHNote {
 		what := "strong acid"
 		if x < 0 {
@@ -57,6 +66,28 @@ func (m *Model) fitPH(mx *Mix, n0 []float64, volL, target float64) ([]float64, e
 		mx.Notes = append(mx.Notes, fmt.Sprintf("the stated pH %g stands for about %.2g mol/L of %s that the request does not name: check the pH, or name the acid or base", target, c, what))
 	}
 	return m.withAcid(mx, n0, x), nil
+}
+
+// conflictShare is the share of a named strong acid or base beyond which the
+// acid or base a stated pH stands for conflicts with the composition: a
+// stream of 2 % caustic said to be at pH 13 at 75 °C (where its own pH is
+// about 12.4, pKw 12.7: CRC Handbook, ionization constant of water, from
+// memory) would need four times the caustic it names.
+const conflictShare = 0.25
+
+// namedStrong is the strong acid or base (mol of H+ or OH-) that n0 holds
+// as such: what the streams name, before any speciation.
+func namedStrong(mx *Mix, n0 []float64) float64 {
+	h, oh := 0.0, 0.0
+	for i, sp := range mx.Species {
+		switch sp.Text {
+		case "H+":
+			h += n0[i]
+		case "OH-":
+			oh += n0[i]
+		}
+	}
+	return math.Max(h, oh)
 }
 
 // statedPHNote (mol/L) is the stand-in acid or base above which the answer
