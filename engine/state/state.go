@@ -31,6 +31,10 @@ type Stream struct {
 	WaterMol float64  // liquid water the stream brings
 	VolumeL  float64  // liquid volume; 0 for a solid
 	PH       *float64 // a measured pH stated for the stream
+	// Strong is the mol of H+ or OH- of the strong acids and bases the
+	// stream names (HCl, NaOH): they fix its pH, and a stated pH that
+	// conflicts with them is not met (fitPH).
+	Strong float64
 }
 
 // Feed is everything poured into the tank.
@@ -161,7 +165,11 @@ func (m *Model) Solve(f Feed) (*Mix, error) {
 	}
 	mx.ReachedC = f.ReachedC
 	if f.PH != nil {
-		n, err := m.fitPH(mx, mx.Initial, mx.VolumeL, *f.PH)
+		strong := 0.0
+		for _, st := range f.Streams {
+			strong += st.Strong
+		}
+		n, err := m.fitPH(mx, mx.Initial, mx.VolumeL, *f.PH, strong)
 		if err != nil {
 			return nil, fmt.Errorf("the mix: %w", err)
 		}
@@ -198,7 +206,11 @@ func (m *Model) streamAlone(mx *Mix, index map[*thermo.Species]int, st Stream, e
 	before := len(mx.Notes)
 	if st.PH != nil {
 		var err error
-		if n0, err = m.fitPH(mx, n0, vol, *st.PH); err != nil {
+		strong := st.Strong
+		if key != "" && st.VolumeL > 0 {
+			strong /= st.VolumeL // solved for one litre
+		}
+		if n0, err = m.fitPH(mx, n0, vol, *st.PH, strong); err != nil {
 			return nil, err
 		}
 	}

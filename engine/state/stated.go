@@ -33,7 +33,11 @@ func IsStandIn(sp *thermo.Species) bool { return sp == standInAnion || sp == sta
 // A pH beyond what 20 mol/L of acid or base gives (with activities capped
 // where the Davies equation stops) is taken at that end, and the mix's notes
 // say so.
-func (m *Model) fitPH(mx *Mix, n0 []float64, volL, target float64) ([]float64, error) {
+//
+// strong is the mol of H+ or OH- of the strong acids and bases named in
+// n0: a stated pH that needs more than conflictShare of it (either way) is
+// not met; the composition is kept and the notes say so.
+func (m *Model) fitPH(mx *Mix, n0 []float64, volL, target, strong float64) ([]float64, error) {
 	x, err := m.titrate(mx, n0, volL, target)
 	if errors.Is(err, errUnreachable) {
 		limit := 20 * volL
@@ -49,7 +53,7 @@ func (m *Model) fitPH(mx *Mix, n0 []float64, volL, target float64) ([]float64, e
 	if err != nil {
 		return nil, err
 	}
-	if named := namedStrong(mx, n0); named/volL >= statedPHNote && math.Abs(x)/volL >= statedPHNote && math.Abs(x) > conflictShare*named {
+	if strong/volL >= statedPHNote && math.Abs(x)/volL >= statedPHNote && math.Abs(x) > conflictShare*strong {
 		// The stream names its strong acid or base, which fixes its pH: a
 		// stated pH that needs much more (or the opposite) would add ions
 		// that are not there. Keep the composition and say so.
@@ -74,21 +78,6 @@ func (m *Model) fitPH(mx *Mix, n0 []float64, volL, target float64) ([]float64, e
 // about 12.4, pKw 12.7: CRC Handbook, ionization constant of water, from
 // memory) would need four times the caustic it names.
 const conflictShare = 0.25
-
-// namedStrong is the strong acid or base (mol of H+ or OH-) that n0 holds
-// as such: what the streams name, before any speciation.
-func namedStrong(mx *Mix, n0 []float64) float64 {
-	h, oh := 0.0, 0.0
-	for i, sp := range mx.Species {
-		switch sp.Text {
-		case "H+":
-			h += n0[i]
-		case "OH-":
-			oh += n0[i]
-		}
-	}
-	return math.Max(h, oh)
-}
 
 // statedPHNote (mol/L) is the stand-in acid or base above which the answer
 // says that a stated pH adds what the request does not name.
