@@ -243,7 +243,7 @@ func (e *Engine) tableCouple(c *candidate, reducer bool) *Couple {
 // heldBack lists the locks that held something back in the mix.
 func (e *Engine) heldBack(mx *state.Mix) []HeldBack {
 	out := []HeldBack{}
-	for _, l := range mx.Final.Held {
+	for _, l := range append(mx.Final.Held[:len(mx.Final.Held):len(mx.Final.Held)], mx.Final.Undecided...) {
 		st, err := e.Model.Without(mx, l.ID)
 		if err != nil {
 			continue

@@ -83,6 +83,9 @@ func streamFeed(si int, st *Stream, t *Tables, db *thermo.DB, m *mixture) (state
 				continue
 			}
 			out.Items = append(out.Items, state.Item{Species: sp, Mol: mol * float64(g.Coef), Excess: excess})
+			if (c.Chemical.Class == StrongAcid && sp.Text == "H+") || (c.Chemical.Class == StrongBase && sp.Text == "OH-") {
+				out.Strong += mol * float64(g.Coef)
+			}
 		}
 	}
 	addBleachSalt(st, &out, db, m)

@@ -213,7 +213,11 @@ func (m *mixture) addStream(st *Stream, si int, t *Tables, seenChem map[string]b
 		h := math.Pow(10, -*st.PH) * vol
 		oh := math.Pow(10, *st.PH-pKw(m.tempK)) * vol
 		fict = (streamH - streamOH) - (h - oh)
-		if streamH > 0 || streamOH > 0 {
+		// A stated pH that conflicts with a named strong acid or base is
+		// ignored by the state (engine/state, fitPH), which says so.
+		named := math.Max(streamH, streamOH)
+		conflict := named/vol >= 0.01 && math.Abs(fict)/vol >= 0.01 && math.Abs(fict) > 0.25*named
+		if (streamH > 0 || streamOH > 0) && !conflict {
 			m.note("the stated pH %.4g of stream %d replaces the acid or base content computed from its components", *st.PH, si+1)
 		}
 	} else {

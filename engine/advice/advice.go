@@ -58,10 +58,13 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 	if o.Heat.Known && o.Heat.RiseC != rise(res) {
 		res.Notes = append(res.Notes, fmt.Sprintf("heat counted for the hazards: %.0f kJ, about %+.1f °C (reactions that do not proceed left out)", o.Heat.ReleasedkJ, o.Heat.RiseC))
 	}
+	if o.Named("NaOCl") && !o.Named("NaOH") {
+		res.Notes = append(res.Notes, BleachCausticNote)
+	}
 	res.Notes = append(res.Notes, fmt.Sprintf("gas concentrations are for a closed headspace equal to the liquid volume (%s L), at equilibrium", trim(o.HeadspaceL)))
 	res.Addition = pour.AnalyseLocal(req, func(r *engine.Request) ([]engine.Hazard, error) {
 		hs, err := a.evaluateIn(r, o.HeadspaceL)
-		return hazard.Relative(hs, pick(alone, r.Streams)), err
+		return hazard.Relative(hazard.AlongPour(hs), pick(alone, r.Streams)), err
 	}, a.landing(req, a.concentrates(req)))
 	if res.Addition == nil {
 		res.Addition = &engine.Addition{Orders: []engine.PourOrder{}, Advice: "One stream: nothing is poured into anything."}
@@ -82,6 +85,15 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 	res.Decision = &d
 	return res, nil
 }
+
+// BleachCausticNote says how sodium hypochlorite is read. Commercial bleach
+// carries 0.2–1 % NaOH as a stabiliser (common practice, no source), which
+// varies by supplier and age; "NaOCl x %" is taken as the hypochlorite
+// named, without it. That errs towards more chlorine when bleach meets acid
+// (the dangerous side) and towards a more acid end after dechlorination; an
+// operator who knows the caustic names it ("NaOCl 12.5 %, NaOH 0.5 %") or
+// states the stream's pH.
+const BleachCausticNote = "sodium hypochlorite is taken as named, without the 0.2–1 % NaOH that commercial bleach carries as a stabiliser (common practice): name it (\"NaOCl 12.5 %, NaOH 0.5 %\") or state the stream's pH to count it"
 
 // evaluate judges one stream or mix by itself.
 func (a *Advisor) evaluate(req *engine.Request) ([]engine.Hazard, error) {

@@ -2,6 +2,7 @@ package advice
 
 import (
 	"fmt"
+	"strconv"
 	"strings"
 
 	"mixward/engine"
@@ -137,6 +138,12 @@ func heatFigure(r *engine.Result) string {
 }
 
 func reactionLine(r *engine.Result) string {
+	if hb := pairHeld(r); hb != nil && (r.Reaction == nil || agents(r.Reaction) < 2) {
+		// The streams meeting is what the operator asks about: a pair held
+		// back heads the line before one agent's own change held back.
+		reason, _, _ := strings.Cut(hb.Reason, ":")
+		return "Redox: " + hb.Reaction.Text + " possible on paper, held back: " + reason
+	}
 	switch {
 	case r.Reaction == nil && len(r.HeldBack) > 0 && r.HeldBack[0].Reaction != nil:
 		hb := r.HeldBack[0]
@@ -161,6 +168,33 @@ func reactionLine(r *engine.Result) string {
 	// The strongest pair on paper that does not run is for the details:
 	// in the short answer it read as a reaction that happens.
 	return "Redox: no redox reaction runs at these conditions (the pairs are in the details)"
+}
+
+// agents counts the distinct reactants of a reaction other than water, H+
+// and OH-.
+func agents(x *engine.Reaction) int {
+	seen := map[string]bool{}
+	for _, t := range x.Reactants {
+		if t.Formula == "H2O" || t.Formula == "H" && t.Charge == 1 || t.Formula == "OH" && t.Charge == -1 {
+			continue
+		}
+		seen[t.Formula+strconv.Itoa(t.Charge)] = true
+	}
+	return len(seen)
+}
+
+// pairHeld is the first change held back between two agents, when the
+// answer's own reaction does not run.
+func pairHeld(r *engine.Result) *engine.HeldBack {
+	if r.Reaction != nil && r.Verdict == engine.Spontaneous && !r.Hindered && (r.Decision == nil || !held(r.Decision.Held, r.Reaction.Text)) {
+		return nil
+	}
+	for i := range r.HeldBack {
+		if hb := &r.HeldBack[i]; hb.Reaction != nil && agents(hb.Reaction) >= 2 {
+			return hb
+		}
+	}
+	return nil
 }
 
 // formsGas reports whether a gas of the answer's gas list is a product of

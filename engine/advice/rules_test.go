@@ -107,8 +107,13 @@ func TestHazardsAdded(t *testing.T) {
 			"Vogel, chlorides with concentrated sulfuric acid"},
 		{"calcium hypochlorite granules into water", "mix 10 kg calcium hypochlorite + 100 L water", "solid-oxidizer-heating", engine.Warning,
 			"Bretherick's Handbook, calcium hypochlorite; White's Handbook of Chlorination"},
-		{"peracetic acid with hypochlorite", "mix 10 L peracetic acid 15 % + 10 L NaOCl 12.5 %", "oxygen-surge", engine.Warning,
-			"Bretherick's Handbook, peroxyacetic acid"},
+		// 15 % peracid (about 2 mol/L) meets 12.5 % bleach (about 2 mol/L): about 1 mol O2 per litre of mix,
+		// above the 0.5 mol/L from which a fast oxygen surge is do-not-mix in one go (hazard.SurgeMolPerL).
+		{"peracetic acid with hypochlorite", "mix 10 L peracetic acid 15 % + 10 L NaOCl 12.5 %", "oxygen-surge", engine.Danger,
+			"Bretherick's Handbook, peroxyacetic acid; 0.5 mol O2 per litre: common practice, no source"},
+		// 1 % peracid, 10 L into 100 L of 1 % bleach: about 1.3 mol O2 in 110 L (0.012 mol/L), a precaution.
+		{"dilute peracetic acid with dilute hypochlorite", "mix 10 L peracetic acid 1 % + 100 L NaOCl 1 %", "oxygen-surge", engine.Warning,
+			"Bretherick's Handbook, peroxyacetic acid; 0.5 mol O2 per litre: common practice, no source"},
 		{"magnesium in water", "mix 1 kg Mg + 20 L water", "slow-hydrogen", engine.Warning,
 			"Bretherick's Handbook, magnesium"},
 		{"peroxide into alkaline cyanide", "mix 100 L NaCN 0.5 %, pH 12 + 10 L H2O2 35 %", "cyanide-oxidation", engine.Warning,

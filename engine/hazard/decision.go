@@ -9,6 +9,11 @@ import (
 // NoConcernTitle is the decision's title when nothing of concern forms.
 const NoConcernTitle = "no redox or acid–base reaction of concern"
 
+// noteCodes are info hazards whose action the decision still carries: a
+// mix that is of no concern as made but turns dangerous by one wrong step
+// (chlorate with a reducing agent, acidified).
+var noteCodes = map[string]bool{"chlorate-reducer-acid": true}
+
 // Decide derives the operator's decision from the hazards of the final mix
 // and of the pour. The final mix counts as it is; of the orders of
 // addition the better one counts, since the operator can choose it. The
@@ -19,6 +24,11 @@ func Decide(final []engine.Hazard, add *engine.Addition) engine.Decision {
 	for _, h := range final {
 		if h.Severity != engine.Info {
 			d.Reasons = append(d.Reasons, Reason(h))
+			d.Actions = appendNew(d.Actions, h.Action)
+		}
+	}
+	for _, h := range final {
+		if h.Severity == engine.Info && noteCodes[h.Code] {
 			d.Actions = appendNew(d.Actions, h.Action)
 		}
 	}

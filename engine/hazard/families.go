@@ -15,7 +15,7 @@ import (
 // Each is judged from what the streams bring together, with its source.
 var familyRules = []func(o *Outcome) (engine.Hazard, bool){
 	chloroAmines, nitricOrganic, ammoniumNitrite, permanganateSulfuric, volatileAcid,
-	solidHypochlorite, peracidOxidant, magnesiumWater, cyanideOxidation, halideSulfuric, hotElectrolessNickel,
+	solidHypochlorite, magnesiumWater, cyanideOxidation, halideSulfuric, hotElectrolessNickel,
 	// organic, azide and solid-chlorinator families (organic.go)
 	organicPeroxides, perchlorateEsters, oxidizerOrganic, bisChloromethylEther,
 	cannizzaro, hexamine, formaldehydeHypochlorite, haloform, heavyMetalAzide, mixedChlorinators,
@@ -194,23 +194,6 @@ func solidHypochlorite(o *Outcome) (engine.Hazard, bool) {
 		"Solid calcium hypochlorite, chloroisocyanurate or halogenated hydantoin: a little water, acid or organic matter on the solid heats it and can set it alight or release chlorine (with little water, nitrogen trichloride)."+note,
 		"Add the solid a little at a time to plenty of water, or dose it through a feeder, never water onto the solid; use clean, dry scoops; keep acids, ammonia and amines, oils and other chlorinating products away.",
 		src), true
-}
-
-// peracidOxidant: peracids, like hydrogen peroxide, reduce hypochlorite and
-// permanganate with a surge of oxygen and heat.
-func peracidOxidant(o *Outcome) (engine.Hazard, bool) {
-	pa := o.MolarBefore("CH3CO3H", "CH3CO3-")
-	ox := math.Max(hypochloriteAny(o), o.MolarBefore("MnO4-"))
-	n := math.Min(pa, ox)
-	if n < 1e-3 {
-		return engine.Hazard{}, false
-	}
-	mol := n * o.VolumeL
-	l := mol * litreBarPerMolK() * o.TemperatureK() / (o.PressureKPa / 100)
-	return mk("oxygen-surge", engine.Warning,
-		"Peracetic acid with hypochlorite or permanganate gives off oxygen quickly ("+fmtNum(mol, 3)+" mol, "+fmtNum(l, 3)+" L), with heat.",
-		"Do not combine in a closed vessel; keep the two sanitisers in separate lines, rinsed between uses.",
-		"Bretherick's Handbook of Reactive Chemical Hazards, peroxyacetic acid (from memory)"), true
 }
 
 // magnesiumWater: magnesium corrodes in water and neutral salt solutions

@@ -163,7 +163,7 @@ func (o *Outcome) reactions(r *engine.Result) bool {
 		if h.Reaction != nil {
 			text = h.Reaction.Text
 		}
-		o.HeldBack = append(o.HeldBack, HeldBack{Text: text, Reason: "held back at plant conditions: " + h.Reason})
+		o.HeldBack = append(o.HeldBack, HeldBack{Text: text, Reason: "held back at plant conditions: " + h.Reason, Lock: h.Lock})
 	}
 	return head
 }

@@ -64,7 +64,7 @@ func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 		} else {
 			hs = Share(p.mol, p.molecular, g.KH, o.VolumeL, o.HeadspaceL, o.TemperatureK(), o.PressureKPa)
 		}
-		if p.mol <= 0 && hs.PPM <= 0 {
+		if p.mol <= 0 && hs.PPM <= 0 || f == "Cl2" && diluteHypochlorite(o) {
 			continue
 		}
 		ratio := hs.PPM / g.LimitPPM
@@ -74,6 +74,27 @@ func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 		out = append(out, gasHazard(o, g, p, hs, ratio))
 	}
 	return out
+}
+
+// DiluteHypochloriteMolar is the hypochlorite (all forms, mol/L of the mix
+// before reaction) at or below which a mix that holds no acid gives no
+// chlorine of concern: the only acid is what the hypochlorite's own
+// reactions make (dechlorination with thiosulfate or sulfite gives at most
+// half a proton per hypochlorite), so hypochlorous acid, acid and chloride
+// are each a few mmol/L at most and chlorine (Cl2 hydrolysis constant
+// 3.9e-4 mol²/L², Connick and Chia 1959, from memory) at most a few µmol/L,
+// under 0.1 mL of gas per litre of liquid; bleach stabilised with caustic
+// and real dilution water hold it nearer neutral still (White's Handbook of
+// Chlorination, dechlorination, from memory). 3 mmol/L is about 200 mg/L of
+// available chlorine. Threshold: common practice, no source.
+const DiluteHypochloriteMolar = 0.003
+
+// diluteHypochlorite reports whether the mix holds hypochlorite at or below
+// DiluteHypochloriteMolar with no acid: no strong acid named and the mix as
+// combined not acid.
+func diluteHypochlorite(o *Outcome) bool {
+	h := o.MolarBefore("HOCl", "OCl-", "Cl2")
+	return h > 0 && h <= DiluteHypochloriteMolar && !o.StrongAcid && o.PH >= 7
 }
 
 func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) engine.Hazard {
@@ -122,7 +143,9 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 // info; within a severity the worse gas ratio first, then table order.
 func Judge(o *Outcome, d *Data) []engine.Hazard {
 	out := judgeGas(o, d)
-	for _, r := range append(presenceRules[:len(presenceRules):len(presenceRules)], familyRules...) {
+	rules := append(presenceRules[:len(presenceRules):len(presenceRules)], familyRules...)
+	rules = append(append(rules, slowRules...), oxygenSurge)
+	for _, r := range rules {
 		if h, ok := r(o); ok {
 			out = append(out, h)
 		}

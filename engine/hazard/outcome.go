@@ -57,6 +57,7 @@ type Proceeding struct {
 type HeldBack struct {
 	Text   string
 	Reason string
+	Lock   string // the lock of data/locks.txt that held it, when one did
 }
 
 // Gas is a gas formed by a reaction that proceeds and given off.

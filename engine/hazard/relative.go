@@ -52,9 +52,10 @@ func relative(mix []engine.Hazard, alone []Alone, final bool) []engine.Hazard {
 // alwaysOwnToMix are codes never left to a stream alone: heat comes from
 // the mixing itself, a solid chlorinating agent heats when water meets it,
 // hydrofluoric acid and hexavalent chromium are handled during the mixing
-// whatever their source, and a hot electroless-nickel bath crashes when
+// whatever their source, bleach left warm keeps making chlorate, and a
+// hot electroless-nickel bath crashes when
 // something is added to it (caustic, particles) (common practice, no source).
-var alwaysOwnToMix = map[string]bool{"boils": true, "near-boiling": true, "solid-oxidizer-heating": true, "scalding-heat": true, "warms": true, "hf-burns": true, "chromium-vi-exposure": true, "hot-electroless-bath": true}
+var alwaysOwnToMix = map[string]bool{"boils": true, "near-boiling": true, "solid-oxidizer-heating": true, "scalding-heat": true, "warms": true, "hf-burns": true, "chromium-vi-exposure": true, "hot-electroless-bath": true, "warm-bleach": true}
 
 // Alone is one stream judged by itself.
 type Alone struct {

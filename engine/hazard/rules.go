@@ -9,7 +9,7 @@ import (
 // presenceRules are hazards that follow from what is present together,
 // each with its source beside it.
 var presenceRules = []func(o *Outcome) (engine.Hazard, bool){
-	chloramines, nitrogenTrichloride, silverAmmonia, hypochloriteCatalysed, hydrofluoric,
+	chloramines, nitrogenTrichloride, silverAmmonia, hydrofluoric,
 	alkaliMetalFire, dithioniteSelfHeating, ammoniaWithStrongAcid, cyanideAlkaline,
 	chromiumVI, carbonateFizz,
 }
@@ -66,25 +66,6 @@ func silverAmmonia(o *Outcome) (engine.Hazard, bool) {
 		"Silver with ammonia leaves explosive silver nitride on standing (hours to days): dried residues go off when touched.",
 		"Do not combine in plant. If it has happened, do not store it: acidify at once with dilute nitric acid and rinse out.",
 		"Bretherick's Handbook of Reactive Chemical Hazards, silver nitrate with ammonia (from memory)"), true
-}
-
-// hypochloriteCatalysed: copper, nickel and cobalt salts, and manganese
-// (oxidized to manganese dioxide at once), set hypochlorite decomposing to
-// oxygen and heat.
-func hypochloriteCatalysed(o *Outcome) (engine.Hazard, bool) {
-	if hypochloriteAny(o) < 1e-3 {
-		return engine.Hazard{}, false
-	}
-	cat := o.MolarBefore("Cu^2+", "Ni^2+", "Co^2+", "Mn^2+") + o.MolarBefore("Cu(OH)2", "Ni(OH)2", "Co(OH)2", "CuO", "NiO", "MnO2", "Mn(OH)2")
-	if cat < TraceMolar && !o.Named("CuSO4", "CuSO4.5H2O", "CuCl2", "NiSO4", "NiSO4.6H2O", "NiCl2", "CoCl2", "CoSO4", "MnSO4", "MnCl2", "MnO2") {
-		return engine.Hazard{}, false
-	}
-	o2 := hypochloriteAny(o) / 2 * o.VolumeL
-	l := o2 * litreBarPerMolK() * o.TemperatureK() / (o.PressureKPa / 100)
-	return mk("oxygen-surge", engine.Warning,
-		"Copper, nickel, cobalt or manganese salts make hypochlorite decompose: up to "+fmtNum(o2, 3)+" mol oxygen ("+fmtNum(l, 3)+" L), with heat, can come off quickly.",
-		"Do not combine in a closed vessel; add the metal liquor slowly to a vented tank, away from oil and grease.",
-		"Bretherick's Handbook of Reactive Chemical Hazards, sodium hypochlorite with metal salts (from memory)"), true
 }
 
 // hydrofluoric: HF burns penetrate and poison through the skin; the vapour

@@ -31,6 +31,9 @@ func span(o engine.PourOrder) float64 {
 func advice(add *engine.Addition) string {
 	var parts []string
 	quiet := 0
+	// A sequence of three or more streams that meets no danger keeps the
+	// unsafe pairs apart.
+	safeSeq := len(add.Sequences) > 0 && rank(add.Sequences[0].Worst) < 3
 	for i := 0; i+1 < len(add.Orders); i += 2 {
 		x, y := add.Orders[i], add.Orders[i+1]
 		if worst(x) == 0 && worst(y) == 0 {
@@ -38,6 +41,12 @@ func advice(add *engine.Addition) string {
 			if len(add.Orders) > 2 {
 				continue // with three or more streams only the pairs that matter are named
 			}
+		}
+		if safeSeq && worst(x) >= 3 && worst(y) >= 3 && !heatOnly(x) && !heatOnly(y) {
+			// With three or more streams such a pair meets only in the
+			// sequence named before this advice, never neat.
+			parts = append(parts, "Never let "+x.Added+" and "+x.Into+" meet neat ("+codes(x)+" while "+x.Added+" runs into "+x.Into+", "+codes(y)+" the other way).")
+			continue
 		}
 		parts = append(parts, pairAdvice(x, y))
 	}

@@ -121,8 +121,16 @@ func TestSequencesFindTheSafeOne(t *testing.T) {
 	if best.Worst != "" {
 		t.Fatalf("best sequence %v meets %s", best.Streams, best.Worst)
 	}
-	if best.Streams[0] != "base" && !(best.Streams[0] == "bleach" && best.Streams[1] == "base") {
-		t.Errorf("best sequence %v does not start from the caustic", best.Streams)
+	// The bleach goes in last: acid run into a tank holding bleach and
+	// caustic meets the bleach where it lands, before the caustic (common
+	// practice, no source: never add acid to a tank containing hypochlorite).
+	if best.Streams[2] != "bleach" {
+		t.Errorf("best sequence %v does not end with the bleach", best.Streams)
+	}
+	for _, s := range add.Sequences {
+		if s.Streams[0] == "bleach" && s.Streams[1] == "base" && s.Worst != engine.Danger {
+			t.Errorf("sequence %v (acid last, into bleach and caustic) meets %q, want danger where the acid lands", s.Streams, s.Worst)
+		}
 	}
 	if last := add.Sequences[5]; last.Worst != engine.Danger {
 		t.Errorf("worst sequence %v meets %q, want danger", last.Streams, last.Worst)
@@ -130,8 +138,9 @@ func TestSequencesFindTheSafeOne(t *testing.T) {
 	if !strings.HasPrefix(add.Advice, "In sequence: start with ") || !strings.Contains(add.Advice, "that sequence keeps apart the streams that meet chlorine") {
 		t.Errorf("advice %q", add.Advice)
 	}
-	// Each distinct step is judged once: 6 pair orders and 3 second steps.
-	if want := 9 * len(fractions); add.Points != want {
+	// Each distinct step is judged once: 6 pair orders and 3 second steps,
+	// each second step also where the added stream lands.
+	if want := 9*len(fractions) + 3*len(inletShares); add.Points != want {
 		t.Errorf("points %d, want %d", add.Points, want)
 	}
 	// Five streams are not searched.

@@ -78,7 +78,55 @@ func into(req *engine.Request, tank []int, added int, eval Evaluate, local Local
 	})
 	po.Into = strings.Join(names, " + ")
 	po.Hazards = withLocal(po.Hazards, local, req.Streams[added], r.Streams[:len(tank)])
-	return po, pts
+	inlet, p := atInlet(&r, eval)
+	po.Hazards = append(inlet, po.Hazards...)
+	return po, pts + p
+}
+
+// inletShares are the shares of the tank's liquid that meet the whole of
+// the added stream where it lands, before the tank's other streams can act
+// on it.
+var inletShares = [...]float64{0.01, 0.05}
+
+// atInlet judges where the added stream (the last of r's streams) lands in a
+// tank that holds two or more streams: there the added stream is in excess
+// over a little of the tank's liquid, so acid run into a tank that holds
+// hypochlorite and caustic meets the hypochlorite before the caustic
+// (common practice, no source: never add acid to a tank containing
+// hypochlorite; neutralise the acid and the base with each other before any
+// hypochlorite, cyanide or sulfide stream goes in). The mix as a whole at
+// each point of the pour cannot show it.
+func atInlet(r *engine.Request, eval Evaluate) ([]engine.PourHazard, int) {
+	n := len(r.Streams)
+	if n < 3 {
+		return nil, 0
+	}
+	added := withAmount(r.Streams[n-1])
+	var out []engine.PourHazard
+	seen := map[string]bool{}
+	pts := 0
+	for _, f := range inletShares {
+		q := *r
+		q.Streams = make([]engine.Stream, 0, n)
+		for _, s := range r.Streams[:n-1] {
+			q.Streams = append(q.Streams, scaled(withAmount(s), f))
+		}
+		q.Streams = append(q.Streams, added)
+		hs, err := eval(&q)
+		if err != nil {
+			continue
+		}
+		pts++
+		for _, h := range hs {
+			if h.Severity != engine.Danger || seen[h.Code] {
+				continue
+			}
+			seen[h.Code] = true
+			out = append(out, engine.PourHazard{Code: h.Code, FromFraction: fractions[0], ToFraction: fractions[0], Worst: h.Severity,
+				Message: "where " + Name(&r.Streams[n-1]) + " lands, in excess over the tank's liquid: " + h.Message})
+		}
+	}
+	return out, pts
 }
 
 // stepKey names a step by the set of streams in the tank and the one added.

@@ -102,6 +102,11 @@ func (m *Model) solveFrom(mx *Mix, n0 []float64, combined *State, volL float64, 
 	}
 	best.Applied = applied
 	best.Held = heldLocks(applied, best.Eq.Active)
+	for _, l := range heldLocks(applied, best.maybe) {
+		if !slices.Contains(best.Held, l) {
+			best.Undecided = append(best.Undecided, l)
+		}
+	}
 	best.combined = combined
 	return best, nil
 }
@@ -334,6 +339,11 @@ type lockRule struct {
 	c    equilibrium.Constraint
 	g    Group
 	shut []int // species a pinned rule shut out of the problem
+	// whole: the rule pinned every atom of its element in the group (all
+	// chromium is chromium(VI)); whether it held anything back cannot
+	// always be read from the potentials of the state, which then leave the
+	// electron's potential undetermined.
+	whole bool
 }
 
 func ruleConstraint(mx *Mix, name string, r Rule, n0 []float64) equilibrium.Constraint {
@@ -396,8 +406,11 @@ func (m *Model) solve(mx *Mix, n0 []float64, frozen bool, cons []lockRule, volL 
 	if err != nil {
 		return nil, err
 	}
-	eq.Active = append(eq.Active, pinnedHeld(mx, b.p, eq, rows, b.comps, cons)...)
-	return b.state(mx, eq, shut, volL), nil
+	held, maybe := pinnedHeld(mx, b.p, eq, rows, b.comps, cons)
+	eq.Active = append(eq.Active, held...)
+	st := b.state(mx, eq, shut, volL)
+	st.maybe = maybe
+	return st, nil
 }
 
 // problemBuilder holds an equilibrium problem while it is built from a mix:
@@ -612,6 +625,7 @@ func presolve(mx *Mix, n0 []float64, cons []lockRule) ([]lockRule, map[int]bool)
 	for _, lr := range cons {
 		c, g := lr.c, lr.g
 		var list []int
+		whole := false
 		switch {
 		case c.Rel != equilibrium.AtLeast && c.Bound <= 1e-300:
 			for i, w := range c.Coef {
@@ -622,6 +636,7 @@ func presolve(mx *Mix, n0 []float64, cons []lockRule) ([]lockRule, map[int]bool)
 		case c.Rel == equilibrium.AtMost && len(g.Species) == 0 && !g.Above && c.Bound >= (1-1e-12)*elementTotal(mx, n0, g.Element):
 			continue // the group cannot grow beyond every atom of its element
 		case c.Rel != equilibrium.AtMost && len(g.Species) == 0 && !g.Above && c.Bound >= (1-1e-12)*elementTotal(mx, n0, g.Element):
+			whole = true
 			for i, sp := range mx.Species {
 				if sp.Atoms[g.Element] > 0 && c.Coef[i] == 0 {
 					list = append(list, i)
@@ -634,7 +649,7 @@ func presolve(mx *Mix, n0 []float64, cons []lockRule) ([]lockRule, map[int]bool)
 		for _, i := range list {
 			shut[i] = true
 		}
-		left = append(left, lockRule{c: equilibrium.Constraint{Name: c.Name + "=pinned"}, g: g, shut: list})
+		left = append(left, lockRule{c: equilibrium.Constraint{Name: c.Name + "=pinned"}, g: g, shut: list, whole: whole})
 	}
 	return left, shut
 }
@@ -649,8 +664,10 @@ func elementTotal(mx *Mix, n0 []float64, el string) float64 {
 
 // pinnedHeld names the pinned rules that held something back: a species they
 // shut out would be present at the potentials of the solved state (a solute
-// or gas above 1e-6, a solid supersaturated).
-func pinnedHeld(mx *Mix, p equilibrium.Problem, eq equilibrium.State, rows []map[string]float64, comps map[string]int, cons []lockRule) []string {
+// or gas above 1e-6, a solid supersaturated). maybe names the rules that
+// pinned a whole element and were not found so: the caller judges those by
+// lifting the lock (Model.Without).
+func pinnedHeld(mx *Mix, p equilibrium.Problem, eq equilibrium.State, rows []map[string]float64, comps map[string]int, cons []lockRule) (held, maybe []string) {
 	var pinned []lockRule
 	for _, lr := range cons {
 		if strings.HasSuffix(lr.c.Name, "=pinned") {
@@ -658,11 +675,16 @@ func pinnedHeld(mx *Mix, p equilibrium.Problem, eq equilibrium.State, rows []map
 		}
 	}
 	if len(pinned) == 0 {
-		return nil
+		return nil, nil
+	}
+	for _, lr := range pinned {
+		if lr.whole {
+			maybe = append(maybe, strings.TrimSuffix(lr.c.Name, "=pinned"))
+		}
 	}
 	lam, ok := potentials(p, eq)
 	if !ok {
-		return nil
+		return nil, maybe
 	}
 	var out []string
 	for _, lr := range pinned {
@@ -686,7 +708,7 @@ func pinnedHeld(mx *Mix, p equilibrium.Problem, eq equilibrium.State, rows []map
 			}
 		}
 	}
-	return out
+	return out, maybe
 }
 
 // potentials recovers the component potentials (and, last, the charge

@@ -36,6 +36,10 @@ type Stream struct {
 	WaterMol float64  // liquid water the stream brings
 	VolumeL  float64  // liquid volume; 0 for a solid
 	PH       *float64 // a measured pH stated for the stream
+	// Strong is the mol of H+ or OH- of the strong acids and bases the
+	// stream names (HCl, NaOH): they fix its pH, and a stated pH that
+	// conflicts with them is not met (fitPH).
+	Strong float64
 }
 
 // Feed is everything poured into the tank.
@@ -93,11 +97,17 @@ type State struct {
 	VolumeL float64
 	Applied []*Lock // locks whose conditions held
 	Held    []*Lock // locks that held something back (active at the solution)
+	// Undecided are locks that kept a whole element in one range of
+	// oxidation states (all chromium as chromium(VI)) where the state's
+	// potentials cannot tell whether they held anything back; a caller
+	// that lists what was held back lifts each (Model.Without) to see.
+	Undecided []*Lock
 	// Shut are the species a lock kept from forming at all (no O2 where
 	// oxygen evolution is locked, no iodate from iodine).
 	Shut map[*thermo.Species]bool
 
-	combined *State // the same amounts as combined, before any redox change
+	combined *State   // the same amounts as combined, before any redox change
+	maybe    []string // names of the rules behind Undecided
 }
 
 // Mix is the solved tank.
@@ -177,7 +187,11 @@ func (m *Model) Solve(f Feed) (*Mix, error) {
 	}
 	mx.ReachedC = f.ReachedC
 	if f.PH != nil {
-		n, err := m.fitPH(mx, mx.Initial, mx.VolumeL, *f.PH)
+		strong := 0.0
+		for _, st := range f.Streams {
+			strong += st.Strong
+		}
+		n, err := m.fitPH(mx, mx.Initial, mx.VolumeL, *f.PH, strong)
 		if err != nil {
 			return nil, fmt.Errorf("the mix: %w", err)
 		}
@@ -214,7 +228,11 @@ func (m *Model) streamAlone(mx *Mix, index map[*thermo.Species]int, st Stream, e
 	before := len(mx.Notes)
 	if st.PH != nil {
 		var err error
-		if n0, err = m.fitPH(mx, n0, vol, *st.PH); err != nil {
+		strong := st.Strong
+		if key != "" && st.VolumeL > 0 {
+			strong /= st.VolumeL // solved for one litre
+		}
+		if n0, err = m.fitPH(mx, n0, vol, *st.PH, strong); err != nil {
 			return nil, err
 		}
 	}

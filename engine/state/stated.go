@@ -35,7 +35,11 @@ func IsStandIn(sp *thermo.Species) bool { return sp == standInAnion || sp == sta
 // A pH beyond what 20 mol/L of acid or base gives (with activities capped
 // where the Davies equation stops) is taken at that end, and the mix's notes
 // say so.
-func (m *Model) fitPH(mx *Mix, n0 []float64, volL, target float64) ([]float64, error) {
+//
+// strong is the mol of H+ or OH- of the strong acids and bases named in
+// n0: a stated pH that needs more than conflictShare of it (either way) is
+// not met; the composition is kept and the notes say so.
+func (m *Model) fitPH(mx *Mix, n0 []float64, volL, target, strong float64) ([]float64, error) {
 	x, err := m.titrate(mx, n0, volL, target)
 	if errors.Is(err, errUnreachable) {
 		limit := 20 * volL
@@ -51,6 +55,15 @@ func (m *Model) fitPH(mx *Mix, n0 []float64, volL, target float64) ([]float64, e
 	if err != nil {
 		return nil, err
 	}
+	if strong/volL >= statedPHNote && math.Abs(x)/volL >= statedPHNote && math.Abs(x) > conflictShare*strong {
+		// The stream names its strong acid or base, which fixes its pH: a
+		// stated pH that needs much more (or the opposite) would add ions
+		// that are not there. Keep the composition and say so.
+		if s, err := m.solveCombined(mx, n0, volL); err == nil {
+			mx.Notes = append(mx.Notes, fmt.Sprintf("the stated pH %g conflicts with the composition, which gives pH %.2f at %.0f °C (water's pKw depends on temperature): the composition is kept and the stated pH ignored; check the pH or the concentration", target, s.PH, mx.TempK-273.15))
+			return n0, nil
+		}
+	}
 	if c := math.Abs(x) / volL; c >= statedPHNote {
 		what := "strong acid"
 		if x < 0 {
@@ -60,6 +73,13 @@ func (m *Model) fitPH(mx *Mix, n0 []float64, volL, target float64) ([]float64, e
 	}
 	return m.withAcid(mx, n0, x), nil
 }
+
+// conflictShare is the share of a named strong acid or base beyond which the
+// acid or base a stated pH stands for conflicts with the composition: a
+// stream of 2 % caustic said to be at pH 13 at 75 °C (where its own pH is
+// about 12.4, pKw 12.7: CRC Handbook, ionization constant of water, from
+// memory) would need four times the caustic it names.
+const conflictShare = 0.25
 
 // statedPHNote (mol/L) is the stand-in acid or base above which the answer
 // says that a stated pH adds what the request does not name.

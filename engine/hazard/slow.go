@@ -1,0 +1,113 @@
+package hazard
+
+import (
+	"math"
+
+	"mixward/engine"
+)
+
+// Slow chemistry the operator must hear about: a change the equilibrium
+// state holds back (data/locks.txt) that leaves a hazard in the tank, and
+// slow changes the state cannot hold as species (peracid formed from
+// peroxide and acetic acid, peracid breaking down in alkali). Each rule
+// names its source.
+var slowRules = []func(o *Outcome) (engine.Hazard, bool){
+	chromiumVILeft, chlorateKept, peracidForming, warmHypochlorite,
+}
+
+// standingCodes are hazards of the mix as it stands (it changes over hours:
+// warm bleach, peracid forming) that do not depend on the order of
+// addition; the pour does not judge by them.
+var standingCodes = map[string]bool{"warm-bleach": true, "peracid-forming": true, "chromium-vi-not-reduced": true, "chlorate-reducer-acid": true}
+
+// AlongPour drops from the hazards of one point of a pour those of the mix
+// as it stands, which the final mix reports.
+func AlongPour(hs []engine.Hazard) []engine.Hazard {
+	out := hs[:0:0]
+	for _, h := range hs {
+		if !standingCodes[h.Code] {
+			out = append(out, h)
+		}
+	}
+	return out
+}
+
+// heldBy reports whether the lock id held something back in the mix.
+func heldBy(o *Outcome, id string) bool {
+	for _, h := range o.HeldBack {
+		if h.Lock == id {
+			return true
+		}
+	}
+	return false
+}
+
+// chromiumVILeft: sulfite and bisulfite reduce chromium(VI) fast only at pH
+// 2–3; above about pH 4 the state keeps the chromium(VI) (lock
+// chromium-vi-sulfite-slow), and the operator must not send it on as
+// treated.
+func chromiumVILeft(o *Outcome) (engine.Hazard, bool) {
+	if !heldBy(o, "chromium-vi-sulfite-slow") {
+		return engine.Hazard{}, false
+	}
+	cr := o.Molar("Cr2O7^2-", "CrO4^2-", "HCrO4-", "H2CrO4")
+	return mk("chromium-vi-not-reduced", engine.Warning,
+		"Sulfite reduces chromium(VI) only slowly and incompletely at pH "+fmtNum(o.PH, 3)+" (above about 4): "+fmtNum(cr*o.VolumeL, 3)+" mol chromium(VI) stays, not destroyed as mixed.",
+		"Reduce at pH 2–3 under ORP control, then raise the pH to precipitate chromium(III) hydroxide; never send this mix to the clarifier as treated.",
+		"common practice, no source; Pourbaix, Atlas of Electrochemical Equilibria (1974), chromium (from memory)"), true
+}
+
+// chlorateKept: chlorate with sulfite, bisulfite or iron(II) keeps in
+// neutral and alkaline solution (lock chlorate-sluggish) but reacts fast in
+// strong acid, with chlorine dioxide: a note, not a reason not to mix.
+func chlorateKept(o *Outcome) (engine.Hazard, bool) {
+	if !heldBy(o, "chlorate-sluggish") {
+		return engine.Hazard{}, false
+	}
+	return mk("chlorate-reducer-acid", engine.Info,
+		"Chlorate with a reducing agent keeps as mixed (pH "+fmtNum(o.PH, 3)+"), but in strong acid it reacts fast, with heat, chlorine dioxide and chlorine.",
+		"Never acidify this mix; keep acids out of its tank and drain.",
+		"common practice, no source; Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, chlorates (from memory)"), true
+}
+
+// peracidForming: hydrogen peroxide with acetic acid forms peracetic acid
+// over hours to days (acid-catalysed) and gives off gas on standing; the
+// answer counts none formed (lock peracid-formation), the operator still
+// needs the precautions. Thresholds 0.5 mol/L of each (about 2 % peroxide
+// and 3 % acetic acid): common practice, no source.
+func peracidForming(o *Outcome) (engine.Hazard, bool) {
+	h2o2 := o.MolarBefore("H2O2", "HO2-")
+	acid := o.MolarBefore("CH3COOH")
+	if h2o2 < 0.5 || acid < 0.5 {
+		return engine.Hazard{}, false
+	}
+	return mk("peracid-forming", engine.Warning,
+		"Hydrogen peroxide ("+fmtNum(h2o2, 2)+" mol/L) with acetic acid ("+fmtNum(acid, 2)+" mol/L) forms peracetic acid slowly, over hours to days (faster with a strong acid): not counted here, but the mix gives off oxygen as it stands and concentrated mixes can run away when heated or contaminated.",
+		"Use vented containers only, keep the mix cool and free of metals and dirt, and do not store it in a closed drum.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, hydrogen peroxide with acetic acid (from memory); thresholds: common practice, no source"), true
+}
+
+// WarmBleachC is the temperature from which hypochlorite left in a mix
+// loses strength and builds up chlorate fast enough to matter within a
+// shift (common practice, no source; White's Handbook of Chlorination,
+// hypochlorite stability, from memory: weeks at room temperature, hours to
+// days at 50–60 °C).
+const WarmBleachC = 40
+
+// warmHypochlorite: hypochlorite left in a mix at 40 °C or more turns into
+// chlorate and chloride (with some oxygen) over hours; the answer is for the
+// mix as first made (lock chlorate-formation), the operator needs the note.
+func warmHypochlorite(o *Outcome) (engine.Hazard, bool) {
+	left := o.Molar("OCl-", "HOCl")
+	t := o.TemperatureC
+	if o.Heat.Known {
+		t = math.Max(t, o.Heat.ReachedC)
+	}
+	if left < 0.01 || t < WarmBleachC {
+		return engine.Hazard{}, false
+	}
+	return mk("warm-bleach", engine.Warning,
+		"Hypochlorite ("+fmtNum(left, 2)+" mol/L) at about "+fmtNum(t, 3)+" °C loses available chlorine and builds up chlorate over hours (days at 50–60 °C, weeks at room temperature), with some oxygen and heat.",
+		"Use a warm batch promptly and vent its tank; keep bleach stock below about 30 °C.",
+		"White's Handbook of Chlorination, hypochlorite stability (from memory); 40 °C threshold: common practice, no source"), true
+}
