@@ -28,6 +28,7 @@ var codes = []Code{
 	{"so2-release", "releases sulfur dioxide", []string{"acid-sulfite", "sulfite-acidic", "toxic-gas"}},
 	{"no2-release", "releases nitrogen dioxide", []string{"toxic-gas"}},
 	{"no-release", "releases nitric oxide", []string{"toxic-gas"}},
+	{"nocl-release", "releases nitrosyl chloride", []string{"toxic-gas"}},
 	{"ammonia-release", "releases ammonia", []string{"ammonium-base", "toxic-gas"}},
 	{"ammonium-salt-fumes", "fumes of ammonium salt and heat", nil},
 	{"co2-release", "releases carbon dioxide", []string{"acid-carbonate", "toxic-gas"}},

@@ -59,7 +59,7 @@ func organicC(xs []Amount) float64 {
 // are toxic and irritant, some unstable, and acid takes urea on to nitrogen
 // trichloride. Ammonia and ammonium have their own rule (chloramines).
 func chloroAmines(o *Outcome) (engine.Hazard, bool) {
-	n := math.Min(hypochloriteAny(o), organicN(o.Before))
+	n := math.Min(activeChlorine(o), organicN(o.Before))
 	if n < 1e-4 {
 		return engine.Hazard{}, false
 	}

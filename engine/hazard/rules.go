@@ -24,10 +24,25 @@ func hypochloriteAny(o *Outcome) float64 {
 	return math.Max(o.Molar("HOCl", "OCl-"), o.MolarBefore("HOCl", "OCl-"))
 }
 
+// activeChlorine is hypochlorite and the chlorine monochloramine carries
+// (combined chlorine), before or after the reactions, in mol/L: the state
+// takes hypochlorite onto ammonia as NH2Cl as soon as the two meet.
+func activeChlorine(o *Outcome) float64 {
+	return math.Max(o.Molar("HOCl", "OCl-", "NH2Cl"), o.MolarBefore("HOCl", "OCl-", "NH2Cl"))
+}
+
+// ammoniaAny is ammonia, ammonium and the ammonia carried as chloramine,
+// before or after the reactions, in mol/L.
+func ammoniaAny(o *Outcome) float64 {
+	return math.Max(o.Molar("NH3", "NH4+", "NH2Cl"), o.MolarBefore("NH3", "NH4+", "NH2Cl"))
+}
+
 // chloramines: hypochlorite with ammonia or ammonium forms chloramines
-// (mono- above about pH 7.5, di- between 4.5 and 7.5).
+// (mono- above about pH 7.5, di- between 4.5 and 7.5). The amount that can
+// meet is the smaller of the two; the monochloramine the state holds is
+// named beside it.
 func chloramines(o *Outcome) (engine.Hazard, bool) {
-	n := math.Min(hypochloriteAny(o), math.Max(o.Molar("NH3", "NH4+"), o.MolarBefore("NH3", "NH4+")))
+	n := math.Min(activeChlorine(o), ammoniaAny(o))
 	if n < 1e-4 || o.PH < 4.5 {
 		return engine.Hazard{}, false
 	}
@@ -35,8 +50,12 @@ func chloramines(o *Outcome) (engine.Hazard, bool) {
 	if n >= 0.01 {
 		sev = engine.Danger
 	}
+	formed := ""
+	if nh2cl := math.Max(o.Molar("NH2Cl"), o.MolarBefore("NH2Cl")); nh2cl >= 1e-4 {
+		formed = " The mix holds " + fmtNum(nh2cl, 2) + " mol/L monochloramine (NH2Cl)."
+	}
 	return mk("chloramine-release", sev,
-		"Hypochlorite with ammonia or ammonium forms chloramines ("+fmtNum(n, 2)+" mol/L of each can meet): toxic, choking gases.",
+		"Hypochlorite with ammonia or ammonium forms chloramines ("+fmtNum(n, 2)+" mol/L of each can meet): toxic, choking gases."+formed,
 		"Do not combine; rinse lines between chlorinated and ammoniated products. If it has happened, leave and ventilate.",
 		"chloramine formation by pH: White's Handbook of Chlorination and Alternative Disinfectants (from memory); 0.01 mol/L threshold for danger: common practice, no source"), true
 }
@@ -44,7 +63,7 @@ func chloramines(o *Outcome) (engine.Hazard, bool) {
 // nitrogenTrichloride: hypochlorite with ammonium or urea below about pH 4.5
 // forms nitrogen trichloride, an explosive oil and toxic vapour.
 func nitrogenTrichloride(o *Outcome) (engine.Hazard, bool) {
-	n := math.Min(hypochloriteAny(o), math.Max(o.MolarBefore("NH3", "NH4+", "CO(NH2)2"), o.Molar("NH3", "NH4+", "CO(NH2)2")))
+	n := math.Min(activeChlorine(o), math.Max(o.MolarBefore("NH3", "NH4+", "NH2Cl", "CO(NH2)2"), o.Molar("NH3", "NH4+", "NH2Cl", "CO(NH2)2")))
 	if n < TraceMolar || o.PH >= 4.5 {
 		return engine.Hazard{}, false
 	}
