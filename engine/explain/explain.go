@@ -279,7 +279,7 @@ func hasAny(sp *thermo.Species, els map[string]bool) bool {
 func (x *explainer) couple(t Transfer) (Couple, error) {
 	agent := x.medium(t.Element, t.From)
 	if agent == nil {
-		agent = dominant(x.mx, x.mx.Combined.Amount, t.Element, t.From)
+		agent = x.agentOf(t.Element, t.From)
 	}
 	product := x.medium(t.Element, t.To)
 	if product == nil {
@@ -303,6 +303,54 @@ func (x *explainer) couple(t Transfer) (Couple, error) {
 	// rather than at its standard state.
 	c.Ereached = c.E0 - thermo.R*x.mx.TempK/(float64(half.Electrons)*thermo.F)*LnQ(x.mx.Species, x.lnReached, half)
 	return c, nil
+}
+
+// agentOf is the species that stands for an agent (el in state ox): its
+// main carrier as combined, unless that is a solid or a gas the mix at
+// equilibrium does not hold. Such a phase belongs to the moment of
+// combining, not to the mix: iron(III) hydroxide that a rising pH throws down
+// as the streams meet, but which redissolves as the reaction takes the pH
+// back down, or hydrogen sulfide above its saturation before it reacts. The
+// agent is then written as what it is in solution: the same compound
+// dissolved (H2S), else the main carrier left at equilibrium (Fe^3+), else
+// the main dissolved carrier as combined. A solid the mix still holds
+// (metal in excess, iron(III) hydroxide at pH 8) stays as it is.
+func (x *explainer) agentOf(el string, ox float64) *thermo.Species {
+	agent := dominant(x.mx, x.mx.Combined.Amount, el, ox)
+	if agent == nil || agent.Phase == chem.Aqueous || x.held(agent) {
+		return agent
+	}
+	if sp := x.dissolvedForm(agent); sp != nil {
+		return sp
+	}
+	if sp := dominant(x.mx, x.mx.Final.Amount, el, ox); sp != nil && sp.Phase == chem.Aqueous {
+		return sp
+	}
+	if sp := dominantIn(x.mx, x.mx.Combined.Amount, el, ox, chem.Aqueous); sp != nil {
+		return sp
+	}
+	return agent
+}
+
+// held reports whether the mix at equilibrium still holds a species.
+func (x *explainer) held(sp *thermo.Species) bool {
+	for i, s := range x.mx.Species {
+		if s == sp {
+			return x.mx.Final.Amount[i] > 0
+		}
+	}
+	return false
+}
+
+// dissolvedForm is the aqueous species of the same formula and charge as a
+// gas or solid, present in the mix as combined (nil when none is).
+func (x *explainer) dissolvedForm(sp *thermo.Species) *thermo.Species {
+	for i, s := range x.mx.Species {
+		if s != sp && s.Phase == chem.Aqueous && s.Formula == sp.Formula && s.Charge == sp.Charge && x.mx.Combined.Amount[i] > 0 {
+			return s
+		}
+	}
+	return nil
 }
 
 // medium is the species that stands for hydrogen(I) or oxygen(−II) of the
