@@ -117,6 +117,10 @@ func TestHazardsAdded(t *testing.T) {
 			"pKa HCN 9.2 and HCO3- 10.3, CRC Handbook, Dissociation Constants; NIOSH IDLH hydrogen cyanide 50 ppm"},
 		{"strong caustic with strong acid in one go", "mix 100 L KOH 30 % + 100 L HCl 25 %", "near-boiling", engine.Danger,
 			"NBS Tables 1982 neutralisation heat; Bretherick's Handbook, acids with bases"},
+		{"aqua regia gives nitrosyl chloride", "mix 3 L HCl 37 % + 1 L HNO3 65 %", "nocl-release", engine.Danger,
+			"Vogel, aqua regia; no published limit recalled: chlorine's NIOSH IDLH 10 ppm as a stand-in"},
+		{"cyanide bound by ferrous sulfate", "mix 100 L NaCN 1 %, pH 11 + 100 L FeSO4 0.5 M", "cyanide-complexed", engine.Warning,
+			"Vogel, cyanide with iron(II); Smith & Martell, ferrocyanide log β6 35"},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			r := ask(t, a, tc.req)

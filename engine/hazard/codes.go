@@ -19,6 +19,7 @@ var codes = []Code{
 	{"hcn-release", "releases hydrogen cyanide", []string{"acid-cyanide", "cyanide-low-ph", "toxic-gas"}},
 	{"cyanogen-chloride-release", "releases cyanogen chloride", []string{"toxic-gas"}},
 	{"cyanide-kept-alkaline", "cyanide present: keep it alkaline", []string{"cyanide-present"}},
+	{"cyanide-complexed", "binds cyanide as iron complexes: still cyanide waste", []string{"cyanide-present"}},
 	{"chlorine-release", "releases chlorine", []string{"hypochlorite-acid", "toxic-gas"}},
 	{"chloramine-release", "forms chloramines", []string{"hypochlorite-ammonia"}},
 	{"nitrogen-trichloride", "forms explosive nitrogen trichloride", []string{"hypochlorite-ammonia"}},

@@ -11,7 +11,7 @@ import (
 var presenceRules = []func(o *Outcome) (engine.Hazard, bool){
 	chloramines, nitrogenTrichloride, silverAmmonia, hypochloriteCatalysed, hydrofluoric,
 	alkaliMetalFire, dithioniteSelfHeating, ammoniaWithStrongAcid, cyanideAlkaline,
-	chromiumVI, carbonateFizz,
+	chromiumVI, carbonateFizz, cyanideComplexed,
 }
 
 func mk(code string, sev engine.Severity, msg, action, source string) engine.Hazard {
@@ -171,6 +171,22 @@ func cyanideAlkaline(o *Outcome) (engine.Hazard, bool) {
 	return mk("cyanide-kept-alkaline", engine.Info,
 		"Cyanide is present at pH "+fmtNum(o.PH, 3)+".", "Keep it above pH 10.5 and keep acids away.",
 		"pH 10.5 for cyanide liquors: common practice, no source"), true
+}
+
+// cyanideComplexed: free cyanide poured together with iron(II) or iron(III)
+// is bound as hexacyanoferrate (ferrocyanide, log β6 about 35): the free
+// hydrogen cyanide falls, but the liquor stays a cyanide waste. With excess
+// iron it throws down Prussian-blue-type solids, and in acid, light or heat
+// the complexes give hydrogen cyanide off again slowly.
+func cyanideComplexed(o *Outcome) (engine.Hazard, bool) {
+	fe := math.Max(o.Molar("Fe(CN)6^4-", "Fe(CN)6^3-"), o.MolarBefore("Fe(CN)6^4-", "Fe(CN)6^3-"))
+	if fe < TraceMolar || !o.Named("NaCN", "KCN", "HCN", "CuCN", "Zn(CN)2", "AgCN") {
+		return engine.Hazard{}, false
+	}
+	return mk("cyanide-complexed", engine.Warning,
+		"Iron binds the cyanide as hexacyanoferrate ("+fmtNum(fe, 2)+" mol/L): free hydrogen cyanide drops, but the liquor and any blue sludge (Prussian-blue-type solids with excess iron) are still cyanide waste, and acid, light or heat give hydrogen cyanide off again slowly.",
+		"Treat as cyanide waste: keep it alkaline, covered and out of sunlight, and send it to cyanide treatment, not to the drain.",
+		"Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, cyanide with iron(II) and iron(III) (from memory); ferrocyanide log β6 35, Smith & Martell Critical Stability Constants (from memory); release of cyanide from iron complexes in light and acid: common practice, no source"), true
 }
 
 // chromiumVI: hexavalent chromium is a human carcinogen.
