@@ -312,9 +312,11 @@ func (x *explainer) couple(t Transfer) (Couple, error) {
 // as the streams meet, but which redissolves as the reaction takes the pH
 // back down, or hydrogen sulfide above its saturation before it reacts. The
 // agent is then written as what it is in solution: the same compound
-// dissolved (H2S), else the main carrier left at equilibrium (Fe^3+), else
-// the main dissolved carrier as combined. A solid the mix still holds
-// (metal in excess, iron(III) hydroxide at pH 8) stays as it is.
+// dissolved (H2S), or the main dissolved carrier at equilibrium (Fe^3+) when
+// the equilibrium still holds a tenth or more of the agent dissolved. A
+// solid the mix still holds (metal in excess, iron(III) hydroxide at pH 8)
+// or that reacts away whole (chromium(III) hydroxide taken to chromate)
+// stays as it is.
 func (x *explainer) agentOf(el string, ox float64) *thermo.Species {
 	agent := dominant(x.mx, x.mx.Combined.Amount, el, ox)
 	if agent == nil || agent.Phase == chem.Aqueous || x.held(agent) {
@@ -323,13 +325,25 @@ func (x *explainer) agentOf(el string, ox float64) *thermo.Species {
 	if sp := x.dissolvedForm(agent); sp != nil {
 		return sp
 	}
-	if sp := dominant(x.mx, x.mx.Final.Amount, el, ox); sp != nil && sp.Phase == chem.Aqueous {
-		return sp
-	}
-	if sp := dominantIn(x.mx, x.mx.Combined.Amount, el, ox, chem.Aqueous); sp != nil {
-		return sp
+	left := atomsIn(x.mx, x.mx.Final.Amount, el, ox, chem.Aqueous)
+	if left >= 0.1*atomsIn(x.mx, x.mx.Combined.Amount, el, ox, "") {
+		if sp := dominantIn(x.mx, x.mx.Final.Amount, el, ox, chem.Aqueous); sp != nil {
+			return sp
+		}
 	}
 	return agent
+}
+
+// atomsIn is the mol of el atoms in state ox held by the species of one
+// phase ("" for any) in a state.
+func atomsIn(mx *state.Mix, amount []float64, el string, ox float64, phase chem.Phase) float64 {
+	tot := 0.0
+	for i, sp := range mx.Species {
+		if n := sp.Atoms[el]; n > 0 && redoxElement(sp, el) && roundOx(sp.Ox[el]) == ox && (phase == "" || sp.Phase == phase) {
+			tot += amount[i] * float64(n)
+		}
+	}
+	return tot
 }
 
 // held reports whether the mix at equilibrium still holds a species.
