@@ -119,6 +119,8 @@ func TestHazardsAdded(t *testing.T) {
 			"NBS Tables 1982 neutralisation heat; Bretherick's Handbook, acids with bases"},
 		{"aqua regia gives nitrosyl chloride", "mix 3 L HCl 37 % + 1 L HNO3 65 %", "nocl-release", engine.Danger,
 			"Vogel, aqua regia; no published limit recalled: chlorine's NIOSH IDLH 10 ppm as a stand-in"},
+		{"zinc in very dilute nitric acid", "mix 1 kg Zn + 100 L HNO3 2 %", "nitrous-fumes", engine.Warning,
+			"Vogel, nitric acid with zinc"},
 		{"cyanide bound by ferrous sulfate", "mix 100 L NaCN 1 %, pH 11 + 100 L FeSO4 0.5 M", "cyanide-complexed", engine.Warning,
 			"Vogel, cyanide with iron(II); Smith & Martell, ferrocyanide log β6 35"},
 	} {

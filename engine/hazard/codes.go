@@ -30,6 +30,7 @@ var codes = []Code{
 	{"no2-release", "releases nitrogen dioxide", []string{"toxic-gas"}},
 	{"no-release", "releases nitric oxide", []string{"toxic-gas"}},
 	{"nocl-release", "releases nitrosyl chloride", []string{"toxic-gas"}},
+	{"nitrous-fumes", "gives off some nitrogen oxides: work with extraction", []string{"toxic-gas"}},
 	{"ammonia-release", "releases ammonia", []string{"ammonium-base", "toxic-gas"}},
 	{"ammonium-salt-fumes", "fumes of ammonium salt and heat", nil},
 	{"co2-release", "releases carbon dioxide", []string{"acid-carbonate", "toxic-gas"}},

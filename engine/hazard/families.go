@@ -15,7 +15,7 @@ import (
 // Each is judged from what the streams bring together, with its source.
 var familyRules = []func(o *Outcome) (engine.Hazard, bool){
 	chloroAmines, nitricOrganic, ammoniumNitrite, permanganateSulfuric, volatileAcid,
-	solidHypochlorite, peracidOxidant, magnesiumWater, cyanideOxidation,
+	solidHypochlorite, peracidOxidant, magnesiumWater, cyanideOxidation, nitricMetalFumes,
 }
 
 // organicN is the mol/L of organic nitrogen compounds with nitrogen at −3
@@ -224,4 +224,25 @@ func cyanideOxidation(o *Outcome) (engine.Hazard, bool) {
 		"This is a cyanide oxidation ("+fmtNum(cn, 2)+" mol/L cyanide): it is safe only as a controlled treatment step.",
 		"Hold the pH at 10.5 or more before and during dosing, dose the oxidant slowly with ORP control and stirring, vent the tank and check for hydrogen cyanide.",
 		"alkaline cyanide treatment, pH 10.5 and ORP control: common practice, no source"), true
+}
+
+// nitricMetalFumes: active metals take very dilute nitric acid mainly to
+// ammonium nitrate, which the state shows; some nitrous oxide and nitric
+// oxide still come off beside it, which it does not count.
+func nitricMetalFumes(o *Outcome) (engine.Hazard, bool) {
+	if o.VolumeL <= 0 || o.MolarBefore("NO3-", "HNO3") < TraceMolar || o.Molar("NH4+", "NH3") < o.MolarBefore("NH4+", "NH3")+TraceMolar {
+		return engine.Hazard{}, false
+	}
+	if o.Measured["NO"].Mol > 0 || o.GasMol("NO") > 0 {
+		return engine.Hazard{}, false // the nitric oxide is counted as a gas
+	}
+	for _, a := range o.Before {
+		if s := a.Species; s.Charge == 0 && s.Phase == engine.Solid && strings.Contains(" Zn Mg Al Fe Sn Mn Cd ", " "+s.Formula+" ") {
+			return mk("nitrous-fumes", engine.Warning,
+				"Very dilute nitric acid with "+s.Formula+" gives mainly ammonium nitrate (for zinc 4 Zn + 10 H+ + NO3- → 4 Zn2+ + NH4+ + 3 H2O), but some nitrous oxide and nitric oxide come off beside it (not counted here).",
+				"Work with extraction and add the metal slowly.",
+				"Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, nitric acid with zinc (from memory)"), true
+		}
+	}
+	return engine.Hazard{}, false
 }
