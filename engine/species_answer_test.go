@@ -23,6 +23,29 @@ func TestCyanideBoundByIron(t *testing.T) {
 	})
 }
 
+// TestHexacyanoferrateHoldsCyanide: ferrocyanide gives hydrogen cyanide off
+// dilute acid only when warmed (Vogel's Textbook of Macro and Semimicro
+// Qualitative Inorganic Analysis, hexacyanoferrates; from memory), though
+// by its stability constant (log β6 35 against 6 × pKa 9.21 = 55) it would
+// fall apart in acid at equilibrium: the hexacyanoferrate-inert lock holds
+// it, in the mix as combined too. A silver cyanide complex is no organic compound and does give HCN.
+func TestHexacyanoferrateHoldsCyanide(t *testing.T) {
+	checkOutcome(t, "mix 10 L K4Fe(CN)6 5 % + 10 L HCl 10 %", mixOutcome{
+		atLeast: map[string]float64{"Fe(CN)6^4-": 1.1},
+		atMost:  map[string]float64{"HCN|HCN(g)": 1e-3},
+	})
+	if r := ask(t, "mix 10 L K4Fe(CN)6 5 % + 10 L HCl 10 %"); len(r.Gases) > 0 {
+		for _, g := range r.Gases {
+			if g.Text == "HCN(g)" && g.Mol > 1e-3 {
+				t.Errorf("ferrocyanide with cold dilute acid gives %.3g mol HCN(g)", g.Mol)
+			}
+		}
+	}
+	checkOutcome(t, "mix 10 L KAg(CN)2 5 % + 10 L HCl 10 %", mixOutcome{
+		atLeast: map[string]float64{"HCN|HCN(g)": 1},
+	})
+}
+
 // TestDiluteNitricWithZinc: zinc in very dilute nitric acid gives mainly
 // ammonium nitrate, 4 Zn + 10 H+ + NO3- → 4 Zn2+ + NH4+ + 3 H2O (Vogel's
 // Textbook of Macro and Semimicro Qualitative Inorganic Analysis, nitric

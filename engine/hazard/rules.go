@@ -177,14 +177,16 @@ func cyanideAlkaline(o *Outcome) (engine.Hazard, bool) {
 // is bound as hexacyanoferrate (ferrocyanide, log β6 about 35): the free
 // hydrogen cyanide falls, but the liquor stays a cyanide waste. With excess
 // iron it throws down Prussian-blue-type solids, and in acid, light or heat
-// the complexes give hydrogen cyanide off again slowly.
+// the complexes give hydrogen cyanide off again slowly; the rule fires too
+// for a hexacyanoferrate in acid below pH 4 (safety data sheets of potassium
+// ferrocyanide: contact with acids liberates very toxic gas).
 func cyanideComplexed(o *Outcome) (engine.Hazard, bool) {
 	fe := math.Max(o.Molar("Fe(CN)6^4-", "Fe(CN)6^3-"), o.MolarBefore("Fe(CN)6^4-", "Fe(CN)6^3-"))
-	if fe < TraceMolar || !o.Named("NaCN", "KCN", "HCN", "CuCN", "Zn(CN)2", "AgCN") {
+	if fe < TraceMolar || !o.Named("NaCN", "KCN", "HCN", "CuCN", "Zn(CN)2", "AgCN") && o.PH >= 4 {
 		return engine.Hazard{}, false
 	}
 	return mk("cyanide-complexed", engine.Warning,
-		"Iron binds the cyanide as hexacyanoferrate ("+fmtNum(fe, 2)+" mol/L): free hydrogen cyanide drops, but the liquor and any blue sludge (Prussian-blue-type solids with excess iron) are still cyanide waste, and acid, light or heat give hydrogen cyanide off again slowly.",
+		"Iron holds cyanide as hexacyanoferrate ("+fmtNum(fe, 2)+" mol/L): free hydrogen cyanide stays low in the cold, but the liquor and any blue sludge (Prussian-blue-type solids with excess iron) are still cyanide waste, and acid with warmth or light gives hydrogen cyanide off again slowly.",
 		"Treat as cyanide waste: keep it alkaline, covered and out of sunlight, and send it to cyanide treatment, not to the drain.",
 		"Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, cyanide with iron(II) and iron(III) (from memory); ferrocyanide log β6 35, Smith & Martell Critical Stability Constants (from memory); release of cyanide from iron complexes in light and acid: common practice, no source"), true
 }

@@ -50,14 +50,15 @@ func (m *Model) solveCombined(mx *Mix, n0 []float64, volL float64) (*State, erro
 }
 
 // formationRules are the rules of the locks that only keep listed species
-// from forming (crystalline oxides): they hold for the mix as combined too,
-// judged on the temperature alone.
+// from forming (crystalline oxides) or from falling apart (hexacyanoferrates
+// in acid): they hold for the mix as combined too, judged on the
+// temperature alone.
 func (m *Model) formationRules(mx *Mix, n0 []float64) []lockRule {
 	env := Env{TempC: mx.TempK - 273.15, ReachC: mx.reachC(), PH: math.NaN()}
 	var out []lockRule
 	for i := range m.Locks {
 		l := &m.Locks[i]
-		if len(l.Rules) != 1 || l.Rules[0].Dir != NoGain || len(l.Rules[0].Group.Species) == 0 {
+		if len(l.Rules) != 1 || l.Rules[0].Dir == Fixed || len(l.Rules[0].Group.Species) == 0 {
 			continue
 		}
 		if l.When == nil || l.When.Holds(env) {
