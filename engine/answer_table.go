@@ -235,6 +235,14 @@ func (e *Engine) tableCouple(c *candidate, reducer bool) *Couple {
 			break
 		}
 	}
+	if species == "" { // water itself acting: name H+ (an acid) or H2O, never a blank
+		species = "H2O"
+		for _, t := range c.row.r.Terms {
+			if (t.Nu < 0) != reducer && t.Species.Text == "H+" {
+				species = "H+"
+			}
+		}
+	}
 	return &Couple{Species: species, HalfReaction: halfOut(c.row.r, reducer), EStandard: roundDec(c.e0, 4),
 		E: roundDec(c.e, 4), ID: c.row.h.ID, Medium: c.row.h.Medium, Electrons: c.row.r.Electrons,
 		Source: "E° derived from ΔfG° of data/species.txt; published " + strconv.FormatFloat(c.row.h.E0, 'g', 4, 64) + " V, " + c.row.h.Source}

@@ -37,13 +37,22 @@ func RenderText(r *Result) string {
 			w("  %-*s  %s\n", width, s.Text, speciesRole(s))
 		}
 	}
+	// A pair that does not run (the table method's strongest pair in a mix
+	// where nothing changes) is shown as on paper only, never as a reaction.
+	onPaper := r.Verdict == NonSpontaneous || r.Verdict == Spontaneous && r.Hindered
+	if r.Oxidizer != nil && r.Reducer != nil && onPaper {
+		w("\nOn paper only, not running at these conditions: the strongest pair on the table\n")
+	}
 	if r.Oxidizer != nil && r.Reducer != nil {
 		w("\nOxidizing agent: %s   E° %+.3f V, E here %+.3f V\n", r.Oxidizer.Species, r.Oxidizer.EStandard, r.Oxidizer.E)
 		w("  reduction: %s\n", r.Oxidizer.HalfReaction)
 		w("Reducing agent:  %s   E° %+.3f V, E here %+.3f V\n", r.Reducer.Species, r.Reducer.EStandard, r.Reducer.E)
 		w("  oxidation: %s\n", r.Reducer.HalfReaction)
 	}
-	if r.Reaction != nil {
+	switch {
+	case r.Reaction != nil && onPaper:
+		w("\nNet ionic equation on paper (%d e-), does not run:\n  %s\n", r.Reaction.Electrons, r.Reaction.Text)
+	case r.Reaction != nil:
 		w("\nNet ionic equation (%d e- transferred):\n  %s\n", r.Reaction.Electrons, r.Reaction.Text)
 	}
 	if r.ECell != nil {

@@ -122,6 +122,16 @@ func TestHazardsAdded(t *testing.T) {
 			"pKa HCN 9.2 and HCO3- 10.3, CRC Handbook, Dissociation Constants; NIOSH IDLH hydrogen cyanide 50 ppm"},
 		{"strong caustic with strong acid in one go", "mix 100 L KOH 30 % + 100 L HCl 25 %", "near-boiling", engine.Danger,
 			"NBS Tables 1982 neutralisation heat; Bretherick's Handbook, acids with bases"},
+		{"aqua regia gives nitrosyl chloride", "mix 3 L HCl 37 % + 1 L HNO3 65 %", "nocl-release", engine.Danger,
+			"Vogel, aqua regia; no published limit recalled: chlorine's NIOSH IDLH 10 ppm as a stand-in"},
+		{"zinc in very dilute nitric acid", "mix 1 kg Zn + 100 L HNO3 2 %", "nitrous-fumes", engine.Warning,
+			"Vogel, nitric acid with zinc"},
+		{"silver cyanide bath into acid", "mix 10 L KAg(CN)2 5 % + 10 L HCl 10 %", "hcn-release", engine.Danger,
+			"Bretherick's Handbook, cyanides with acids; NIOSH IDLH hydrogen cyanide 50 ppm"},
+		{"ferrocyanide with acid", "mix 10 L K4Fe(CN)6 5 % + 10 L HCl 10 %", "cyanide-complexed", engine.Warning,
+			"Vogel, hexacyanoferrates with dilute acid (hydrogen cyanide on warming)"},
+		{"cyanide bound by ferrous sulfate", "mix 100 L NaCN 1 %, pH 11 + 100 L FeSO4 0.5 M", "cyanide-complexed", engine.Warning,
+			"Vogel, cyanide with iron(II); Smith & Martell, ferrocyanide log β6 35"},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			r := ask(t, a, tc.req)

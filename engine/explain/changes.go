@@ -193,14 +193,38 @@ func Pairs(ts []Transfer, frac float64) []Match {
 
 // dominant is the species holding the most atoms of el in oxidation state ox
 // in a state (nil when none does). Minor species (ion pairs, hydrolysis
-// forms) stand in only when no main species holds any.
+// forms) stand in only when no main species holds any, but they count for
+// their phase: iron(III) carried mostly as sulfato complexes is written as
+// the dissolved ion Fe^3+, not as the smaller amount of hydroxide that
+// precipitated beside it.
 func dominant(mx *state.Mix, amount []float64, el string, ox float64) *thermo.Species {
+	byPhase := map[chem.Phase]float64{}
+	for i, sp := range mx.Species {
+		if n := sp.Atoms[el]; n > 0 && redoxElement(sp, el) && roundOx(sp.Ox[el]) == ox {
+			byPhase[sp.Phase] += amount[i] * float64(n)
+		}
+	}
+	var phase chem.Phase
+	most := 0.0
+	for _, ph := range []chem.Phase{chem.Aqueous, chem.Solid, chem.Gas, chem.Liquid} {
+		if byPhase[ph] > most {
+			phase, most = ph, byPhase[ph]
+		}
+	}
+	if sp := dominantIn(mx, amount, el, ox, phase); sp != nil {
+		return sp
+	}
+	return dominantIn(mx, amount, el, ox, "")
+}
+
+// dominantIn is dominant among the species of one phase ("" for any).
+func dominantIn(mx *state.Mix, amount []float64, el string, ox float64, phase chem.Phase) *thermo.Species {
 	for _, minor := range []bool{false, true} {
 		var best *thermo.Species
 		bestMol := 0.0
 		for i, sp := range mx.Species {
 			n := sp.Atoms[el]
-			if n == 0 || sp.Minor != minor || !redoxElement(sp, el) || roundOx(sp.Ox[el]) != ox {
+			if n == 0 || sp.Minor != minor || !redoxElement(sp, el) || roundOx(sp.Ox[el]) != ox || phase != "" && sp.Phase != phase {
 				continue
 			}
 			if m := amount[i] * float64(n); m > bestMol {

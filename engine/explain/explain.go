@@ -290,7 +290,7 @@ func hasAny(sp *thermo.Species, els map[string]bool) bool {
 func (x *explainer) couple(t Transfer) (Couple, error) {
 	agent := x.medium(t.Element, t.From)
 	if agent == nil {
-		agent = dominant(x.mx, x.mx.Combined.Amount, t.Element, t.From)
+		agent = x.agentOf(t.Element, t.From)
 	}
 	product := x.medium(t.Element, t.To)
 	if product == nil {
@@ -314,6 +314,68 @@ func (x *explainer) couple(t Transfer) (Couple, error) {
 	// rather than at its standard state.
 	c.Ereached = c.E0 - thermo.R*x.mx.TempK/(float64(half.Electrons)*thermo.F)*LnQ(x.mx.Species, x.lnReached, half)
 	return c, nil
+}
+
+// agentOf is the species that stands for an agent (el in state ox): its
+// main carrier as combined, unless that is a solid or a gas the mix at
+// equilibrium does not hold. Such a phase belongs to the moment of
+// combining, not to the mix: iron(III) hydroxide that a rising pH throws down
+// as the streams meet, but which redissolves as the reaction takes the pH
+// back down, or hydrogen sulfide above its saturation before it reacts. The
+// agent is then written as what it is in solution: the same compound
+// dissolved (H2S), or the main dissolved carrier at equilibrium (Fe^3+) when
+// the equilibrium still holds a tenth or more of the agent dissolved. A
+// solid the mix still holds (metal in excess, iron(III) hydroxide at pH 8)
+// or that reacts away whole (chromium(III) hydroxide taken to chromate)
+// stays as it is.
+func (x *explainer) agentOf(el string, ox float64) *thermo.Species {
+	agent := dominant(x.mx, x.mx.Combined.Amount, el, ox)
+	if agent == nil || agent.Phase == chem.Aqueous || x.held(agent) {
+		return agent
+	}
+	if sp := x.dissolvedForm(agent); sp != nil {
+		return sp
+	}
+	left := atomsIn(x.mx, x.mx.Final.Amount, el, ox, chem.Aqueous)
+	if left >= 0.1*atomsIn(x.mx, x.mx.Combined.Amount, el, ox, "") {
+		if sp := dominantIn(x.mx, x.mx.Final.Amount, el, ox, chem.Aqueous); sp != nil {
+			return sp
+		}
+	}
+	return agent
+}
+
+// atomsIn is the mol of el atoms in state ox held by the species of one
+// phase ("" for any) in a state.
+func atomsIn(mx *state.Mix, amount []float64, el string, ox float64, phase chem.Phase) float64 {
+	tot := 0.0
+	for i, sp := range mx.Species {
+		if n := sp.Atoms[el]; n > 0 && redoxElement(sp, el) && roundOx(sp.Ox[el]) == ox && (phase == "" || sp.Phase == phase) {
+			tot += amount[i] * float64(n)
+		}
+	}
+	return tot
+}
+
+// held reports whether the mix at equilibrium still holds a species.
+func (x *explainer) held(sp *thermo.Species) bool {
+	for i, s := range x.mx.Species {
+		if s == sp {
+			return x.mx.Final.Amount[i] > 0
+		}
+	}
+	return false
+}
+
+// dissolvedForm is the aqueous species of the same formula and charge as a
+// gas or solid, present in the mix as combined (nil when none is).
+func (x *explainer) dissolvedForm(sp *thermo.Species) *thermo.Species {
+	for i, s := range x.mx.Species {
+		if s != sp && s.Phase == chem.Aqueous && s.Formula == sp.Formula && s.Charge == sp.Charge && x.mx.Combined.Amount[i] > 0 {
+			return s
+		}
+	}
+	return nil
 }
 
 // medium is the species that stands for hydrogen(I) or oxygen(−II) of the

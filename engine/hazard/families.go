@@ -15,7 +15,7 @@ import (
 // Each is judged from what the streams bring together, with its source.
 var familyRules = []func(o *Outcome) (engine.Hazard, bool){
 	chloroAmines, nitricOrganic, ammoniumNitrite, permanganateSulfuric, volatileAcid,
-	solidHypochlorite, magnesiumWater, cyanideOxidation, halideSulfuric, hotElectrolessNickel,
+	solidHypochlorite, magnesiumWater, cyanideOxidation, halideSulfuric, hotElectrolessNickel, nitricMetalFumes,
 	// organic, azide and solid-chlorinator families (organic.go)
 	organicPeroxides, perchlorateEsters, oxidizerOrganic, bisChloromethylEther,
 	cannizzaro, hexamine, formaldehydeHypochlorite, haloform, heavyMetalAzide, mixedChlorinators,
@@ -74,7 +74,7 @@ func organicC(xs []Amount) float64 {
 // are toxic and irritant, some unstable, and acid takes urea on to nitrogen
 // trichloride. Ammonia and ammonium have their own rule (chloramines).
 func chloroAmines(o *Outcome) (engine.Hazard, bool) {
-	n := math.Min(hypochloriteAny(o), organicN(o.Before))
+	n := math.Min(activeChlorine(o), organicN(o.Before))
 	if n < 1e-4 {
 		return engine.Hazard{}, false
 	}
@@ -291,4 +291,25 @@ func hotElectrolessNickel(o *Outcome) (engine.Hazard, bool) {
 		"A hot nickel–hypophosphite bath ("+fmtNum(ni, 2)+" mol/L nickel) plates wherever it finds a catalytic surface; overheated, adjusted with strong caustic or seeded with particles it crashes: black nickel throughout the tank and a surge of hydrogen.",
 		"Adjust pH with dilute caustic or ammonia, slowly and with stirring, below the operating temperature; vent the tank, keep sparks away and filter out particles.",
 		"electroless nickel operation (about 85–90 °C, catalytic surface; bath decomposition with hydrogen): common practice, no source"), true
+}
+
+// nitricMetalFumes: active metals take very dilute nitric acid mainly to
+// ammonium nitrate, which the state shows; some nitrous oxide and nitric
+// oxide still come off beside it, which it does not count.
+func nitricMetalFumes(o *Outcome) (engine.Hazard, bool) {
+	if o.VolumeL <= 0 || o.MolarBefore("NO3-", "HNO3") < TraceMolar || o.Molar("NH4+", "NH3") < o.MolarBefore("NH4+", "NH3")+TraceMolar {
+		return engine.Hazard{}, false
+	}
+	if o.Measured["NO"].Mol > 0 || o.GasMol("NO") > 0 {
+		return engine.Hazard{}, false // the nitric oxide is counted as a gas
+	}
+	for _, a := range o.Before {
+		if s := a.Species; s.Charge == 0 && s.Phase == engine.Solid && strings.Contains(" Zn Mg Al Fe Sn Mn Cd ", " "+s.Formula+" ") {
+			return mk("nitrous-fumes", engine.Warning,
+				"Very dilute nitric acid with "+s.Formula+" gives mainly ammonium nitrate (for zinc 4 Zn + 10 H+ + NO3- → 4 Zn2+ + NH4+ + 3 H2O), but some nitrous oxide and nitric oxide come off beside it (not counted here).",
+				"Work with extraction and add the metal slowly.",
+				"Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, nitric acid with zinc (from memory)"), true
+		}
+	}
+	return engine.Hazard{}, false
 }

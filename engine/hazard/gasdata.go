@@ -22,7 +22,7 @@ type GasData struct {
 	Dissolved   string   // neutral dissolved form ("" when the tables have none)
 	Pool        []string // dissolved species that turn into the gas
 	KH          float64  // mol/(L·bar) at 25 °C
-	LimitName   string   // IDLH, ceiling, LFL, O2
+	LimitName   string   // IDLH, ceiling, LFL, O2, or stand-in (no published limit: another gas's, named in the source)
 	LimitPPM    float64
 	LimitSource string
 	HenrySource string
@@ -103,9 +103,9 @@ func parseGasRow(line string) (*GasData, error) {
 		return nil, fmt.Errorf("gas %s: limit %q is not a positive number of ppm", g.Formula, f[5])
 	}
 	switch g.LimitName {
-	case "IDLH", "ceiling", "LFL", "O2":
+	case "IDLH", "ceiling", "LFL", "O2", "stand-in":
 	default:
-		return nil, fmt.Errorf("gas %s: limit %q: use IDLH, ceiling, LFL or O2", g.Formula, g.LimitName)
+		return nil, fmt.Errorf("gas %s: limit %q: use IDLH, ceiling, LFL, O2 or stand-in", g.Formula, g.LimitName)
 	}
 	if g.LimitSource == "" || g.HenrySource == "" {
 		return nil, fmt.Errorf("gas %s: name the sources of the limit and of the Henry's constant", g.Formula)

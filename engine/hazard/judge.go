@@ -24,7 +24,7 @@ var gasCodes = map[string]string{
 	"Cl2": "chlorine-release", "HCN": "hcn-release", "H2S": "h2s-release", "SO2": "so2-release",
 	"ClO2": "clo2-release", "NH3": "ammonia-release", "CO2": "co2-release", "NO2": "no2-release",
 	"NO": "no-release", "Br2": "bromine-release", "CNCl": "cyanogen-chloride-release",
-	"H2": "hydrogen-release", "O2": "oxygen-release",
+	"H2": "hydrogen-release", "O2": "oxygen-release", "NOCl": "nocl-release",
 	// organic and azide families
 	"CO": "co-release", "HN3": "hn3-release",
 }
@@ -41,6 +41,7 @@ var gasActions = map[string][2]string{
 	"NO2":  {"Do not combine outside a fume extraction; anyone exposed sees a doctor (lung damage shows hours later).", "Work only with extraction."},
 	"NO":   {"Do not combine outside a fume extraction (it turns to brown nitrogen dioxide in air).", "Work only with extraction."},
 	"Br2":  {"Do not combine. Work only with extraction, goggles and gloves.", "Work only with extraction, goggles and gloves."},
+	"NOCl": {"Make aqua regia only in a fume cupboard or under extraction, in small amounts, fresh; never store it in a closed container (the gas bursts it).", "Work only with extraction; never close the container."},
 	"CNCl": {"Do not combine below pH 10. For cyanide destruction raise the pH to 10.5 or more before any hypochlorite goes in.", "Raise the pH to 10.5 before dosing hypochlorite."},
 	"H2":   {"Do not combine in a closed vessel. Vent the headspace, keep sparks and hot work away.", "Vent the headspace and keep sparks and hot work away."},
 	"O2":   {"Keep oil, grease and flames away and vent the headspace.", "Vent the headspace; keep oil and grease away."},
@@ -57,7 +58,7 @@ func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 	for _, f := range d.order {
 		g, p := d.Gases[f], ps[f]
 		var hs Headspace
-		if m, ok := o.Measured[f]; ok {
+		if m, ok := o.Measured[f]; ok && !(p.beyond > m.Mol) {
 			// The mixed state has this gas: its numbers, not an estimate.
 			p = &pool{mol: m.Mol, molecular: 1, origins: []string{"the mix at equilibrium"}}
 			hs = Headspace{PPM: math.Min(m.PPM, 1e6), Vents: m.PPM >= 1e6}

@@ -19,8 +19,13 @@ const ChlorineHydrolysisK = 3.9e-4
 type pool struct {
 	mol       float64
 	molecular float64 // 0..1; 1 when the gas has no acid–base forms
-	origins   []string
-	sources   []string
+	// beyond is the part of mol that a fast reaction gives off beyond what
+	// the equilibrium state holds (aqua regia, whose activities the
+	// state's Davies model cannot reach); when it exceeds the state's own
+	// amount of the gas, the estimate is judged instead.
+	beyond  float64
+	origins []string
+	sources []string
 }
 
 // pools works out, for each gas of the table, what in the mix can become
@@ -119,15 +124,36 @@ func chlorineFromHypochlorite(o *Outcome, ps map[string]*pool) {
 		"chlorine hydrolysis constant 3.9e-4 (mol/L)² at 25 °C, Connick and Chia 1959, from memory")
 }
 
-// aquaRegia: HNO3 + 3 HCl → NOCl + Cl2 + 2 H2O in concentrated acid.
+// aquaRegia: HNO3 + 3 HCl → NOCl + Cl2 + 2 H2O in concentrated acid. The
+// mix gives both gases off for as long as it stands (it loses strength
+// within hours), so the whole amount the smaller of nitrate and a third of
+// the chloride allows is counted. The equilibrium state holds only traces:
+// in acid this strong the activities of H+ and Cl- are many times their
+// molalities (mean activity coefficient of HCl about 10 at 10 mol/kg, CRC
+// Handbook, from memory), which the Davies model cannot reach.
 func aquaRegia(o *Outcome, ps map[string]*pool) {
 	no3, cl := o.Molar("NO3-"), o.Molar("Cl-")
 	if no3 < 1 || cl < 3 || o.PH > 0 {
 		return
 	}
-	addTo(ps, "Cl2", math.Min(no3, cl/3)*o.VolumeL, 1,
-		"concentrated nitric and hydrochloric acid (aqua regia: chlorine and nitrosyl chloride)",
-		"aqua regia gives nitrosyl chloride and chlorine: CRC Handbook and Bretherick's Handbook of Reactive Chemical Hazards, from memory")
+	const (
+		origin = "concentrated nitric and hydrochloric acid (aqua regia: 3 HCl + HNO3 → NOCl + Cl2 + 2 H2O, given off as long as it stands)"
+		src    = "aqua regia gives nitrosyl chloride and chlorine: Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis and Bretherick's Handbook of Reactive Chemical Hazards, from memory"
+	)
+	n := math.Min(no3, cl/3) * o.VolumeL
+	addBeyond(ps, "Cl2", n, origin, src)
+	addBeyond(ps, "NOCl", n, origin, src)
+}
+
+// addBeyond adds a gas that a fast reaction gives off beyond the
+// equilibrium state (see pool.beyond), all of it as the molecule.
+func addBeyond(ps map[string]*pool, gas string, mol float64, origin, source string) {
+	p := ps[gas]
+	if p == nil || !(mol > 0) || !finite(mol) {
+		return
+	}
+	addTo(ps, gas, mol, 1, origin, source)
+	p.beyond += mol
 }
 
 // chlorateWithHydrochloric: 2 ClO3- + 4 H+ + 2 Cl- → 2 ClO2 + Cl2 + 2 H2O.

@@ -11,7 +11,7 @@ import (
 var presenceRules = []func(o *Outcome) (engine.Hazard, bool){
 	chloramines, nitrogenTrichloride, silverAmmonia, hydrofluoric,
 	alkaliMetalFire, dithioniteSelfHeating, ammoniaWithStrongAcid, cyanideAlkaline,
-	chromiumVI, carbonateFizz,
+	chromiumVI, carbonateFizz, cyanideComplexed,
 }
 
 func mk(code string, sev engine.Severity, msg, action, source string) engine.Hazard {
@@ -24,10 +24,25 @@ func hypochloriteAny(o *Outcome) float64 {
 	return math.Max(o.Molar("HOCl", "OCl-"), o.MolarBefore("HOCl", "OCl-"))
 }
 
+// activeChlorine is hypochlorite and the chlorine monochloramine carries
+// (combined chlorine), before or after the reactions, in mol/L: the state
+// takes hypochlorite onto ammonia as NH2Cl as soon as the two meet.
+func activeChlorine(o *Outcome) float64 {
+	return math.Max(o.Molar("HOCl", "OCl-", "NH2Cl"), o.MolarBefore("HOCl", "OCl-", "NH2Cl"))
+}
+
+// ammoniaAny is ammonia, ammonium and the ammonia carried as chloramine,
+// before or after the reactions, in mol/L.
+func ammoniaAny(o *Outcome) float64 {
+	return math.Max(o.Molar("NH3", "NH4+", "NH2Cl"), o.MolarBefore("NH3", "NH4+", "NH2Cl"))
+}
+
 // chloramines: hypochlorite with ammonia or ammonium forms chloramines
-// (mono- above about pH 7.5, di- between 4.5 and 7.5).
+// (mono- above about pH 7.5, di- between 4.5 and 7.5). The amount that can
+// meet is the smaller of the two; the monochloramine the state holds is
+// named beside it.
 func chloramines(o *Outcome) (engine.Hazard, bool) {
-	n := math.Min(hypochloriteAny(o), math.Max(o.Molar("NH3", "NH4+"), o.MolarBefore("NH3", "NH4+")))
+	n := math.Min(activeChlorine(o), ammoniaAny(o))
 	if n < 1e-4 || o.PH < 4.5 {
 		return engine.Hazard{}, false
 	}
@@ -35,8 +50,12 @@ func chloramines(o *Outcome) (engine.Hazard, bool) {
 	if n >= 0.01 {
 		sev = engine.Danger
 	}
+	formed := ""
+	if nh2cl := math.Max(o.Molar("NH2Cl"), o.MolarBefore("NH2Cl")); nh2cl >= 1e-4 {
+		formed = " The mix holds " + fmtNum(nh2cl, 2) + " mol/L monochloramine (NH2Cl)."
+	}
 	return mk("chloramine-release", sev,
-		"Hypochlorite with ammonia or ammonium forms chloramines ("+fmtNum(n, 2)+" mol/L of each can meet): toxic, choking gases.",
+		"Hypochlorite with ammonia or ammonium forms chloramines ("+fmtNum(n, 2)+" mol/L of each can meet): toxic, choking gases."+formed,
 		"Do not combine; rinse lines between chlorinated and ammoniated products. If it has happened, leave and ventilate.",
 		"chloramine formation by pH: White's Handbook of Chlorination and Alternative Disinfectants (from memory); 0.01 mol/L threshold for danger: common practice, no source"), true
 }
@@ -44,7 +63,7 @@ func chloramines(o *Outcome) (engine.Hazard, bool) {
 // nitrogenTrichloride: hypochlorite with ammonium or urea below about pH 4.5
 // forms nitrogen trichloride, an explosive oil and toxic vapour.
 func nitrogenTrichloride(o *Outcome) (engine.Hazard, bool) {
-	n := math.Min(hypochloriteAny(o), math.Max(o.MolarBefore("NH3", "NH4+", "CO(NH2)2"), o.Molar("NH3", "NH4+", "CO(NH2)2")))
+	n := math.Min(activeChlorine(o), math.Max(o.MolarBefore("NH3", "NH4+", "NH2Cl", "CO(NH2)2"), o.Molar("NH3", "NH4+", "NH2Cl", "CO(NH2)2")))
 	if n < TraceMolar || o.PH >= 4.5 {
 		return engine.Hazard{}, false
 	}
@@ -133,6 +152,24 @@ func cyanideAlkaline(o *Outcome) (engine.Hazard, bool) {
 	return mk("cyanide-kept-alkaline", engine.Info,
 		"Cyanide is present at pH "+fmtNum(o.PH, 3)+".", "Keep it above pH 10.5 and keep acids away.",
 		"pH 10.5 for cyanide liquors: common practice, no source"), true
+}
+
+// cyanideComplexed: free cyanide poured together with iron(II) or iron(III)
+// is bound as hexacyanoferrate (ferrocyanide, log β6 about 35): the free
+// hydrogen cyanide falls, but the liquor stays a cyanide waste. With excess
+// iron it throws down Prussian-blue-type solids, and in acid, light or heat
+// the complexes give hydrogen cyanide off again slowly; the rule fires too
+// for a hexacyanoferrate in acid below pH 4 (safety data sheets of potassium
+// ferrocyanide: contact with acids liberates very toxic gas).
+func cyanideComplexed(o *Outcome) (engine.Hazard, bool) {
+	fe := math.Max(o.Molar("Fe(CN)6^4-", "Fe(CN)6^3-"), o.MolarBefore("Fe(CN)6^4-", "Fe(CN)6^3-"))
+	if fe < TraceMolar || !o.Named("NaCN", "KCN", "HCN", "CuCN", "Zn(CN)2", "AgCN") && o.PH >= 4 {
+		return engine.Hazard{}, false
+	}
+	return mk("cyanide-complexed", engine.Warning,
+		"Iron holds cyanide as hexacyanoferrate ("+fmtNum(fe, 2)+" mol/L): free hydrogen cyanide stays low in the cold, but the liquor and any blue sludge (Prussian-blue-type solids with excess iron) are still cyanide waste, and acid with warmth or light gives hydrogen cyanide off again slowly.",
+		"Treat as cyanide waste: keep it alkaline, covered and out of sunlight, and send it to cyanide treatment, not to the drain.",
+		"Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, cyanide with iron(II) and iron(III) (from memory); ferrocyanide log β6 35, Smith & Martell Critical Stability Constants (from memory); release of cyanide from iron complexes in light and acid: common practice, no source"), true
 }
 
 // chromiumVI: hexavalent chromium is a human carcinogen.

@@ -35,6 +35,15 @@ type (
 		v    float64
 	}
 	hasCond []Group
+	// ratioCond is ratio(G[, G...] / G[, G...])<N or >=N: the mol/L of the
+	// first groups together over that of the second (infinite when the
+	// second are absent), such as hypochlorite chlorine over ammonia
+	// nitrogen on either side of breakpoint.
+	ratioCond struct {
+		num, den []Group
+		less     bool
+		v        float64
+	}
 	// concCond is conc(G[, G...])>=N: the groups together at N mol/L or more.
 	concCond struct {
 		gs []Group
@@ -59,6 +68,42 @@ func (c concCond) String() string {
 		parts[i] = g.text
 	}
 	return "conc(" + strings.Join(parts, ", ") + ")>=" + strconv.FormatFloat(c.v, 'g', -1, 64)
+}
+
+func (c ratioCond) Holds(e Env) bool {
+	if e.Molar == nil {
+		return false
+	}
+	sum := func(gs []Group) float64 {
+		t := 0.0
+		for _, g := range gs {
+			t += e.Molar(g)
+		}
+		return t
+	}
+	r := math.Inf(1)
+	if d := sum(c.den); d > 0 {
+		r = sum(c.num) / d
+	}
+	if c.less {
+		return r < c.v
+	}
+	return r >= c.v
+}
+
+func (c ratioCond) String() string {
+	names := func(gs []Group) string {
+		parts := make([]string, len(gs))
+		for i, g := range gs {
+			parts[i] = g.text
+		}
+		return strings.Join(parts, ", ")
+	}
+	op := ">="
+	if c.less {
+		op = "<"
+	}
+	return "ratio(" + names(c.num) + " / " + names(c.den) + ")" + op + strconv.FormatFloat(c.v, 'g', -1, 64)
 }
 
 func (c andCond) Holds(e Env) bool {
@@ -134,7 +179,8 @@ func join[T Cond](cs []T, sep string) string {
 }
 
 // parseCond reads a condition: atoms t<N, t>=N, reach<N, reach>=N, ph<N,
-// ph>=N, has G[, G...], conc(G[, G...])>=N;
+// ph>=N, has G[, G...], conc(G[, G...])>=N, ratio(G[, G...] / G[, G...])<N
+// or >=N;
 // "not" before an atom or a parenthesised condition; "and" binds before "or".
 func parseCond(s string) (Cond, error) {
 	p := &condParser{toks: condTokens(s)}
@@ -292,7 +338,58 @@ func parseHasItem(s string) (Group, error) {
 	return parseGroup("{" + s + "}")
 }
 
+// parseGroupList reads "G[, G...]" as groups.
+func parseGroupList(list string) ([]Group, error) {
+	var gs []Group
+	for _, item := range strings.Split(list, ",") {
+		g, err := parseHasItem(strings.TrimSpace(item))
+		if err != nil {
+			return nil, err
+		}
+		gs = append(gs, g)
+	}
+	return gs, nil
+}
+
+// parseRatio reads ratio(G[, G...] / G[, G...])<N or >=N.
+func parseRatio(t, rest string) (Cond, error) {
+	c := ratioCond{}
+	i := strings.LastIndex(rest, ")")
+	if i < 0 {
+		return nil, fmt.Errorf("%q: write ratio(GROUPS / GROUPS)<N or >=N", t)
+	}
+	inner, tail := rest[:i], rest[i+1:]
+	num, den, ok := strings.Cut(inner, " / ")
+	if !ok {
+		return nil, fmt.Errorf("%q: write ratio(GROUPS / GROUPS)<N or >=N, with spaces around /", t)
+	}
+	var err error
+	if c.num, err = parseGroupList(num); err != nil {
+		return nil, err
+	}
+	if c.den, err = parseGroupList(den); err != nil {
+		return nil, err
+	}
+	switch {
+	case strings.HasPrefix(tail, ">="):
+		tail = tail[2:]
+	case strings.HasPrefix(tail, "<"):
+		c.less, tail = true, tail[1:]
+	default:
+		return nil, fmt.Errorf("%q: write ratio(GROUPS / GROUPS)<N or >=N", t)
+	}
+	v, err := strconv.ParseFloat(tail, 64)
+	if err != nil || math.IsNaN(v) || math.IsInf(v, 0) || v < 0 {
+		return nil, fmt.Errorf("%q: %q is not a number of zero or more", t, tail)
+	}
+	c.v = v
+	return c, nil
+}
+
 func parseCmp(t string) (Cond, error) {
+	if rest, ok := strings.CutPrefix(t, "ratio("); ok {
+		return parseRatio(t, rest)
+	}
 	if rest, ok := strings.CutPrefix(t, "conc("); ok {
 		list, v, ok := strings.Cut(rest, ")>=")
 		if !ok {
@@ -335,5 +432,5 @@ func parseCmp(t string) (Cond, error) {
 		c.v = v
 		return c, nil
 	}
-	return nil, fmt.Errorf("%q is not a condition (t<N, t>=N, reach<N, reach>=N, ph<N, ph>=N, has GROUP, conc(GROUP)>=N, not, and, or)", t)
+	return nil, fmt.Errorf("%q is not a condition (t<N, t>=N, reach<N, reach>=N, ph<N, ph>=N, has GROUP, conc(GROUP)>=N, ratio(GROUP / GROUP)<N or >=N, not, and, or)", t)
 }

@@ -138,12 +138,13 @@ func labileCyanide(a chem.Atoms) bool {
 
 // IsOrganic reports whether a species counts as organic: two or more carbon
 // atoms, or carbon together with hydrogen other than in bicarbonate, carbonic
-// acid, HCN, HOCN and HSCN. The cyanide complexes of the labile metals
-// (labileCyanide) are inorganic.
+// acid, HCN, HOCN and HSCN. Cyanide complexes of metals (Fe(CN)6^4-,
+// Ag(CN)2-, Cu(CN)3^2-) and cyanogen are inorganic, as the usual convention
+// has it: their carbon is cyanide's, which they take up and give back.
 func IsOrganic(a chem.Atoms, ion string) bool {
 	c := a["C"]
 	switch {
-	case labileCyanide(a):
+	case cyanoOnly(a):
 		return false
 	case c >= 2:
 		return true
@@ -151,6 +152,21 @@ func IsOrganic(a chem.Atoms, ion string) bool {
 		return !inorganicCarbon[ion]
 	}
 	return false
+}
+
+// cyanoOnly reports whether a species' non-metal atoms are cyanide groups
+// and nothing else: carbon and nitrogen in equal numbers, no hydrogen, no
+// other non-metal.
+func cyanoOnly(a chem.Atoms) bool {
+	if a["C"] == 0 || a["C"] != a["N"] {
+		return false
+	}
+	for el := range a {
+		if el != "C" && el != "N" && !chem.IsMetal(el) {
+			return false
+		}
+	}
+	return true
 }
 
 // parseLocks reads data/locks.txt.
@@ -364,6 +380,8 @@ func condGroups(c Cond) []Group {
 		return c
 	case concCond:
 		return c.gs
+	case ratioCond:
+		return append(append([]Group{}, c.num...), c.den...)
 	}
 	return nil
 }

@@ -50,19 +50,20 @@ func (m *Model) solveCombined(mx *Mix, n0 []float64, volL float64) (*State, erro
 }
 
 // formationRules are the rules of the locks that only keep listed species
-// from forming (crystalline oxides, hydrogen sulfide from thiocyanate): they
-// hold for the mix as combined too, judged on the temperature and on what
-// the streams bring (the pH of the mix as combined is not known yet, so a
-// pH condition does not hold). Without them a change that is not a redox
-// change (thiocyanate hydrolysed to sulfide, ammonium and bicarbonate) would
-// run in the mix as combined, before any lock could keep the reagent.
+// from forming (crystalline oxides, hydrogen sulfide from thiocyanate) or
+// from falling apart (hexacyanoferrates in acid): they hold for the mix as
+// combined too, judged on the temperature and on what the streams bring (the
+// pH of the mix as combined is not known yet, so a pH condition does not
+// hold). Without them a change that is not a redox change (thiocyanate
+// hydrolysed to sulfide, ammonium and bicarbonate) would run in the mix as
+// combined, before any lock could keep the reagent.
 func (m *Model) formationRules(mx *Mix, n0 []float64, volL float64) []lockRule {
 	env := m.env(mx, &State{Amount: n0, PH: math.NaN()}, volL)
 	env.Molar = nil
 	var out []lockRule
 	for i := range m.Locks {
 		l := &m.Locks[i]
-		if len(l.Rules) != 1 || l.Rules[0].Dir != NoGain || len(l.Rules[0].Group.Species) == 0 {
+		if len(l.Rules) != 1 || l.Rules[0].Dir == Fixed || len(l.Rules[0].Group.Species) == 0 {
 			continue
 		}
 		if l.When == nil || l.When.Holds(env) {
