@@ -115,27 +115,6 @@ func (g Group) Weight(sp *thermo.Species) float64 {
 // organic by the usual convention.
 var inorganicCarbon = map[string]bool{"HCO3-": true, "H2CO3": true, "HCN": true, "HOCN": true, "HSCN": true}
 
-// labileCyanoMetals are the metals whose cyanide complexes hypochlorite
-// and peroxide oxidize as they do free cyanide (the complexes are labile:
-// alkaline chlorination of silver, copper, zinc, cadmium and nickel
-// cyanide rinses; common practice, no source). Iron and cobalt cyanides are
-// inert and stay under the organic-carbon lock.
-var labileCyanoMetals = map[string]bool{"Ag": true, "Cu": true, "Zn": true, "Cd": true, "Ni": true}
-
-// labileCyanide: a cyanide complex of one labile metal and nothing else,
-// such as Ag(CN)2- or Zn(CN)4^2-.
-func labileCyanide(a chem.Atoms) bool {
-	if a["C"] == 0 || a["C"] != a["N"] || len(a) != 3 {
-		return false
-	}
-	for el := range a {
-		if el != "C" && el != "N" && !labileCyanoMetals[el] {
-			return false
-		}
-	}
-	return true
-}
-
 // IsOrganic reports whether a species counts as organic: two or more carbon
 // atoms, or carbon together with hydrogen other than in bicarbonate, carbonic
 // acid, HCN, HOCN and HSCN. Cyanide complexes of metals (Fe(CN)6^4-,
