@@ -48,7 +48,10 @@ type loopPost struct {
 
 func newLoopSlack(t testing.TB) *loopSlack {
 	s := &loopSlack{}
-	s.srv = httptest.NewServer(http.HandlerFunc(s.serve))
+	// Assigned before the server starts, so that the handler's read of
+	// s.srv (the upload URL) happens after the write.
+	s.srv = httptest.NewUnstartedServer(http.HandlerFunc(s.serve))
+	s.srv.Start()
 	t.Cleanup(s.srv.Close)
 	return s
 }
