@@ -3,6 +3,8 @@ package engine
 import (
 	"fmt"
 
+	"mixward/engine/chem"
+
 	"mixward/engine/thermo"
 )
 
@@ -47,7 +49,13 @@ func (m *mixture) notAssess(c *Component, w *thermo.Withheld, stream string) {
 //     brought by another chemical of the request;
 //   - an unassessed oxidizing agent meets any chemical that the tables list
 //     as a reducing agent (the reduced side of a half-reaction);
-//   - an inert one (a surfactant) is never refused for this.
+//   - an inert one (a surfactant) is not refused for a redox partner, but
+//     if it is organic it is still fuel: it is refused beside an oxidizing
+//     agent of E° organicFuelV or more (concentrated nitric acid,
+//     permanganate, dichromate, peroxide), whose families of runaway and
+//     fire with organic matter cannot be judged without it (Bretherick's
+//     Handbook of Reactive Chemical Hazards, nitric acid and permanganate
+//     with organic materials, from memory).
 //
 // Water alone never makes it the agent of concern.
 func refuseAgentOfConcern(req *Request, t *Tables, db *thermo.DB) error {
@@ -55,7 +63,17 @@ func refuseAgentOfConcern(req *Request, t *Tables, db *thermo.DB) error {
 		for ci := range req.Streams[si].Components {
 			c := &req.Streams[si].Components[ci]
 			w, ok := db.Withheld(c.Chemical.Formula)
-			if !ok || w.Role == "" || w.Role == thermo.RoleInert {
+			if !ok || w.Role == "" {
+				continue
+			}
+			if w.Role == thermo.RoleInert {
+				if !organicFormula(w.Formula) {
+					continue
+				}
+				if other := partnerAbove(req, t, db, organicFuelV); other != "" {
+					return withheld(c, fmt.Sprintf("no thermodynamic data for %s (%s); answer withheld: it is organic matter, and %s is a strong oxidizing agent that can take organic matter into a runaway or a fire",
+						c.Name, w.Missing, other))
+				}
 				continue
 			}
 			if other := partnerOf(req, t, db, w.Role); other != "" {
@@ -65,6 +83,79 @@ func refuseAgentOfConcern(req *Request, t *Tables, db *thermo.DB) error {
 		}
 	}
 	return nil
+}
+
+// organicFuelV is the standard potential (V) from which an oxidizing agent
+// is taken to attack unassessed organic matter: above hypochlorite (0.89 V
+// in base), which is dosed beside quaternary ammonium sanitisers, and below
+// nitric acid (0.96 V). Common practice, no source.
+const organicFuelV = 0.95
+
+// fuelOxidizerMolar is the strength (mol/L in its own stream) from which a
+// liquid oxidizing agent counts against unassessed organic matter; solids
+// always count. Common practice, no source.
+const fuelOxidizerMolar = 1.0
+
+// roughMolar is a component's strength in its stream in mol/L, taking a
+// % w/w solution at 1 kg/L (a lower bound for acids and salts); a chemical
+// named without a strength counts as strong.
+func roughMolar(c *Component) float64 {
+	mm := c.Chemical.MolarMass
+	if mm <= 0 {
+		return 0
+	}
+	switch c.Unit {
+	case Molar:
+		return c.Value
+	case MilliM:
+		return c.Value / 1000
+	case PctWW, PctWV:
+		return c.Value * 10 / mm
+	case GPerL:
+		return c.Value / mm
+	case MgPerL, PPM:
+		return c.Value / 1000 / mm
+	}
+	return fuelOxidizerMolar
+}
+
+// organicFormula: a formula with carbon and hydrogen.
+func organicFormula(f string) bool {
+	a, err := chem.ParseFormula(f)
+	return err == nil && a["C"] > 0 && a["H"] > 0
+}
+
+// partnerAbove names the first chemical of the request (not withheld, not
+// water) that brings the oxidized side of a half-reaction with E° ≥ v.
+func partnerAbove(req *Request, t *Tables, db *thermo.DB, v float64) string {
+	for si := range req.Streams {
+		for ci := range req.Streams[si].Components {
+			c := &req.Streams[si].Components[ci]
+			if c.Chemical == nil || c.Chemical.Formula == "H2O" {
+				continue
+			}
+			if _, ok := db.Withheld(c.Chemical.Formula); ok {
+				continue
+			}
+			if st := &req.Streams[si]; st.VolumeL > 0 && roughMolar(c) < fuelOxidizerMolar {
+				continue // dilute: a 1 % nitric acid rinse beside a quat sanitiser
+			}
+			for _, g := range c.Chemical.Gives {
+				key := mixKey(g.Species)
+				for _, h := range t.Half {
+					if h.E0 < v {
+						continue
+					}
+					for _, k := range h.oxKeys {
+						if k == key {
+							return c.Name
+						}
+					}
+				}
+			}
+		}
+	}
+	return ""
 }
 
 func agentWord(role string) string {

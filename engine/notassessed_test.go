@@ -28,9 +28,23 @@ func TestNotAssessed(t *testing.T) {
 		{"scavenger with bleach is refused", "mix 100 L DEHA 15 % + 100 L NaOCl 12.5 %", ""},
 		{"scavenger with ferric is refused", "mix 10 L DEHA 15 % + 100 L FeCl3 10 %", ""},
 		{"aldehyde with peroxide is refused", "mix 10 L glutaraldehyde 50 % + 10 L H2O2 35 %", ""},
+		// A quat is organic matter: concentrated nitric acid or solid
+		// permanganate with it is the runaway or fire of oxidizers with
+		// organic materials (Bretherick's Handbook, from memory), which
+		// cannot be judged without it; a 1 % nitric rinse beside it can.
+		{"quat with concentrated nitric is refused", "mix 100 L benzalkonium chloride 50 % + 100 L HNO3 68 %", "-organic"},
+		{"quat with solid permanganate is refused", "mix 100 L benzalkonium chloride 50 % + 10 kg KMnO4", "-organic"},
+		{"quat with a dilute nitric rinse is answered", "mix 100 L quat 10 % + 100 L HNO3 1 %", "quat"},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			r, err := mustEngine(t).Ask(tc.req, engine.AskOptions{})
+			if tc.want == "-organic" {
+				var pe *engine.ParseError
+				if !errors.As(err, &pe) || pe.Code != "withheld" || !strings.Contains(pe.Message, "it is organic matter") {
+					t.Fatalf("want a withheld answer naming organic matter, got %v", err)
+				}
+				return
+			}
 			if tc.want == "" {
 				var pe *engine.ParseError
 				if !errors.As(err, &pe) || pe.Code != "withheld" || !strings.Contains(pe.Message, "may be the reducing agent") {
