@@ -75,6 +75,7 @@ var reactsWithWater = map[string]string{
 	"HNO2":  "nitrous acid falls apart into nitric oxide and nitric acid in solution; it is made where it is used, never kept (Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, nitrous acid, from memory)",
 	"Na2O2": "sodium peroxide gives caustic and peroxide with water, which then gives off oxygen with heat (Bretherick's Handbook of Reactive Chemical Hazards, sodium peroxide, from memory)",
 	"CaO2":  "calcium peroxide gives off oxygen slowly in water, which is what it is used for in soil and pond treatment (common practice, no source)",
+	"MgO2":  "magnesium peroxide, like calcium peroxide, gives off oxygen slowly in water (oxygen-release compounds for soil and groundwater; common practice, no source); its slurry is alkaline enough to lift the peroxide lock",
 	"Na2S4": "a polysulfide solution is an equilibrium of chains of two to five sulfur atoms and sulfide, whatever formula it is sold under (Greenwood & Earnshaw, polysulfides, from memory)",
 	"CaS4":  "a polysulfide solution (lime sulfur) is an equilibrium of chains of two to five sulfur atoms and sulfide (Greenwood & Earnshaw, polysulfides, from memory)",
 	"CuCl":  "the copper(I) that dissolves falls apart into copper and copper(II) at once unless chloride is in excess (Greenwood & Earnshaw, copper(I), from memory); the few per cent found is the dissolved share",

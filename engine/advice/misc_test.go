@@ -35,6 +35,25 @@ func TestMiscPours(t *testing.T) {
 			level: engine.DoNotMix, want: []string{"halogen-fumes"},
 		},
 		{
+			// 3 HClO3 → 2 ClO2 + HClO4 + H2O in concentrated sulfuric acid
+			// (Bretherick's Handbook, sodium chlorate: sulfuric acid, from
+			// memory); dilute acid leaves chlorate alone above pH 3.
+			name: "chlorate with concentrated sulfuric", req: "mix 100 L NaClO3 40 % + 100 L H2SO4 98 %",
+			level: engine.DoNotMix, want: []string{"clo2-release"},
+		},
+		{
+			name: "chlorate with dilute sulfuric", req: "mix 100 L NaClO3 10 % + 100 L H2SO4 1 %",
+			level: engine.NoConcern, never: []string{"clo2-release"},
+		},
+		{
+			// Borohydride's half-life at 25 °C is about two months at pH 10
+			// (log t½ in days = pH − (0.034 T − 1.92): Kreevoy and Jacobson
+			// 1979, from memory): its caustic concentrate goes into the
+			// water like any caustic, never water onto it (common practice).
+			name: "borohydride concentrate into water", req: "mix 10 L NaBH4 12 %, NaOH 40 % + 100 L water",
+			level: engine.WithPrecautions, never: []string{"hydrogen-release"},
+		},
+		{
 			// Dilute sulfuric acid does not oxidize bromide (Vogel).
 			name: "bromide with dilute sulfuric", req: "mix 100 L NaBr 10 % + 100 L H2SO4 10 %",
 			level: engine.NoConcern, never: []string{"halogen-fumes"},
