@@ -349,3 +349,27 @@ func TestDigestLevelAfterUpgrade(t *testing.T) {
 		check(t, db)
 	})
 }
+
+// TestLevelOfUnusualResult: a result that is valid JSON but holds a NUL
+// escape (json.Marshal writes one for a NUL in a string) is logged on both
+// backends and counted by its decision level; one without a decision by
+// the level judged from its hazards.
+func TestLevelOfUnusualResult(t *testing.T) {
+	eachBackend(t, func(t *testing.T, be backend) {
+		ctx := context.Background()
+		db, _ := be.mustOpen(t, newClock(t0).Now)
+		for _, res := range []string{`{"request":"a\u0000b \\u0000","decision":{"level":"no-concern"}}`, `{"verdict":"spontaneous"}`} {
+			q := demoQuery()
+			q.Result = json.RawMessage(res)
+			mustLog(t, db, q)
+		}
+		d, err := db.Digest(ctx, t0.Add(-time.Hour), t0.Add(time.Hour))
+		if err != nil {
+			t.Fatal(err)
+		}
+		// demoQuery's hazards hold a danger: the second is judged do-not-mix.
+		if d.Levels != (LevelCounts{DoNotMix: 1, NoConcern: 1}) {
+			t.Errorf("levels = %+v, want one no-concern (stored) and one do-not-mix (judged from its hazards)", d.Levels)
+		}
+	})
+}

@@ -7,6 +7,12 @@
 -- drift from the row. The digest keeps walking queries_site_time; an index
 -- covering the digest's columns (INCLUDE the texts) cost 18 % of the
 -- logging rate for no gain measured here, so there is none.
+--
+-- jsonb refuses the escape \u0000 that json.Marshal writes for a NUL in a
+-- string (valid JSON, stored as text): the level is read from the result
+-- with that sequence read as \ufffd, which keeps the text valid JSON
+-- wherever the six characters stand, so such a row is logged and gets its
+-- level as on SQLite.
 ALTER TABLE queries ADD COLUMN level text GENERATED ALWAYS AS (
     CASE WHEN verdict <> 'error' AND result IS NOT NULL
-         THEN coalesce(result::jsonb #>> '{decision,level}', '') ELSE '' END) STORED;
+         THEN coalesce(replace(result, '\u0000', '\ufffd')::jsonb #>> '{decision,level}', '') ELSE '' END) STORED;
