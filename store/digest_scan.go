@@ -26,12 +26,8 @@ type digestRow struct {
 // decoded once per distinct text (operators ask the same mixes again and
 // again).
 func digestScan(ctx context.Context, tx *sql.Tx, d *Digest, window string, w []any, pg bool) error {
-	level := `json_extract(q.result, '$.decision.level')`
-	if pg {
-		level = `q.result::jsonb #>> '{decision,level}'`
-	}
 	rows, err := tx.QueryContext(ctx, `SELECT q.id, q.time, q.user_id, q.user_name, q.channel, q.request, q.resolved, q.verdict,
-		q.error, q.streams, q.hazards, CASE WHEN q.verdict <> 'error' THEN coalesce(`+level+`, '') ELSE '' END
+		q.error, q.streams, q.hazards, q.level
 		  FROM queries q WHERE `+window, w...)
 	if err != nil {
 		return err

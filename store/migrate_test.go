@@ -4,6 +4,7 @@ import (
 	"context"
 	"crypto/sha256"
 	"encoding/hex"
+	"encoding/json"
 	"errors"
 	"fmt"
 	"path/filepath"
@@ -233,7 +234,7 @@ func TestMigrateFromReleaseVersion6(t *testing.T) {
 		t.Fatalf("Open a version-6 file: %v", err)
 	}
 	defer db.Close()
-	if v, _ := db.Version(ctx); v != SchemaVersion() || v != siteVersion {
+	if v, _ := db.Version(ctx); v != SchemaVersion() || v < siteVersion {
 		t.Errorf("version after upgrade = %d, want %d", v, SchemaVersion())
 	}
 	if q, err := db.Get(ctx, id); err != nil || q.Site != DefaultSite {
@@ -287,4 +288,88 @@ func TestPostgresMigrateFromVersion2(t *testing.T) {
 	if rep, err := db.Verify(ctx); err != nil || !rep.OK {
 		t.Errorf("Verify after upgrade = %+v, %v", rep, err)
 	}
+}
+
+// TestDigestLevelAfterUpgrade: a row logged before the level column
+// (SQLite version 8, PostgreSQL version 3) is counted by its decision level
+// after the upgrade, from the column the migration derived, and the chain
+// still verifies.
+func TestDigestLevelAfterUpgrade(t *testing.T) {
+	ctx := context.Background()
+	withLevel := func(level string) *Query {
+		q := demoQuery()
+		q.Result = json.RawMessage(`{"decision":{"level":"` + level + `"}}`)
+		return q
+	}
+	check := func(t *testing.T, db *DB) {
+		t.Helper()
+		mustLog(t, db, withLevel(LevelWithPrecautions))
+		d, err := db.Digest(ctx, t0.Add(-time.Hour), t0.Add(time.Hour))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if d.Levels != (LevelCounts{DoNotMix: 1, WithPrecautions: 1}) {
+			t.Errorf("levels after upgrade = %+v, want one do-not-mix (logged before) and one with-precautions", d.Levels)
+		}
+		if rep, err := db.Verify(ctx); err != nil || !rep.OK || rep.Queries != 2 {
+			t.Errorf("Verify after upgrade = %+v, %v", rep, err)
+		}
+	}
+	t.Run("sqlite", func(t *testing.T) {
+		c := newClock(t0)
+		path := filepath.Join(t.TempDir(), "v8.db")
+		old, err := openAt(ctx, path, Options{Now: c.Now}, 8)
+		if err != nil {
+			t.Fatal(err)
+		}
+		mustLog(t, old, withLevel(LevelDoNotMix))
+		old.Close()
+		db, err := Open(ctx, path, Options{Now: c.Now})
+		if err != nil {
+			t.Fatal(err)
+		}
+		defer db.Close()
+		check(t, db)
+	})
+	t.Run("postgres", func(t *testing.T) {
+		requirePostgres(t)
+		c := newClock(t0)
+		dsn := postgresBackend.fresh(t)
+		old, err := openPostgres(ctx, dsn, Options{Now: c.Now}, false, 3)
+		if err != nil {
+			t.Fatal(err)
+		}
+		mustLog(t, old, withLevel(LevelDoNotMix))
+		old.Close()
+		db, err := Open(ctx, dsn, Options{Now: c.Now})
+		if err != nil {
+			t.Fatal(err)
+		}
+		defer db.Close()
+		check(t, db)
+	})
+}
+
+// TestLevelOfUnusualResult: a result that is valid JSON but holds a NUL
+// escape (json.Marshal writes one for a NUL in a string) is logged on both
+// backends and counted by its decision level; one without a decision by
+// the level judged from its hazards.
+func TestLevelOfUnusualResult(t *testing.T) {
+	eachBackend(t, func(t *testing.T, be backend) {
+		ctx := context.Background()
+		db, _ := be.mustOpen(t, newClock(t0).Now)
+		for _, res := range []string{`{"request":"a\u0000b \\u0000","decision":{"level":"no-concern"}}`, `{"verdict":"spontaneous"}`} {
+			q := demoQuery()
+			q.Result = json.RawMessage(res)
+			mustLog(t, db, q)
+		}
+		d, err := db.Digest(ctx, t0.Add(-time.Hour), t0.Add(time.Hour))
+		if err != nil {
+			t.Fatal(err)
+		}
+		// demoQuery's hazards hold a danger: the second is judged do-not-mix.
+		if d.Levels != (LevelCounts{DoNotMix: 1, NoConcern: 1}) {
+			t.Errorf("levels = %+v, want one no-concern (stored) and one do-not-mix (judged from its hazards)", d.Levels)
+		}
+	})
 }

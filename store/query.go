@@ -127,17 +127,13 @@ func (db *DB) LogQuery(ctx context.Context, q *Query) (int64, error) {
 		return 0, fmt.Errorf("log query: %w", err)
 	}
 	defer tx.Rollback()
-	if q.EventID != "" {
-		var id int64
-		err := db.ws.event.queryRow(ctx, tx, q.EventID).Scan(&id)
-		if err == nil {
-			return id, fmt.Errorf("log query: event %q is query %d: %w", q.EventID, id, ErrDuplicate)
-		}
-		if !errors.Is(err, sql.ErrNoRows) {
-			return 0, fmt.Errorf("log query: %w", err)
-		}
-	}
+	// A repeated event id is refused by the unique index on event_id (no
+	// look-up before every insert); only then is the logged id read.
 	if err := db.appendRow(ctx, tx, r, ""); err != nil {
+		if errors.Is(err, ErrDuplicate) && q.EventID != "" {
+			tx.Rollback()
+			return db.loggedEvent(ctx, q.EventID, err)
+		}
 		return 0, fmt.Errorf("log query: %w", err)
 	}
 	if err := db.insertHazards(ctx, tx, r.ID, q.Hazards); err != nil {
@@ -151,6 +147,16 @@ func (db *DB) LogQuery(ctx context.Context, q *Query) (int64, error) {
 	}
 	q.ID, q.Hash, q.PrevHash, q.Chain, q.KeyID = r.ID, r.Hash, r.PrevHash, r.Chain, r.KeyID
 	return r.ID, nil
+}
+
+// loggedEvent returns the id of the query already logged for eventID with
+// ErrDuplicate (dupErr when it cannot be read).
+func (db *DB) loggedEvent(ctx context.Context, eventID string, dupErr error) (int64, error) {
+	var id int64
+	if err := db.w.QueryRowContext(ctx, db.ws.event.sql, eventID).Scan(&id); err != nil {
+		return 0, fmt.Errorf("log query: %w", dupErr)
+	}
+	return id, fmt.Errorf("log query: event %q is query %d: %w", eventID, id, ErrDuplicate)
 }
 
 // clean makes s storable text: valid UTF-8 without NUL bytes.
