@@ -5,6 +5,7 @@ import (
 	"testing"
 
 	"mixward/engine"
+	"mixward/engine/advice"
 )
 
 // TestMiscPours checks the decision and the hazard codes of pours whose
@@ -102,5 +103,21 @@ func TestSilverCyanideOxidized(t *testing.T) {
 	r := ask(t, mustAdvisor(t), "mix 100 L KAg(CN)2 0.2 M, NaOH 1 % + 100 L NaOCl 12.5 %")
 	if r.Reaction == nil || !strings.Contains(r.Reaction.Text, "Ag(CN)2-") || !strings.Contains(r.Reaction.Text, "OCN-") || !r.Spontaneous {
 		t.Errorf("reaction %+v, want Ag(CN)2- oxidized to OCN-", r.Reaction)
+	}
+}
+
+// TestHeatLineNamesFamilyHeat: when a reaction judged as a family carries
+// its own heat estimate (Cannizzaro: about 71 kJ per formaldehyde, NBS
+// Tables 1982 ΔfH°, from memory), the Heat line says that its figure leaves
+// that reaction out, so "to about 50 °C" does not read as the whole story; a
+// neutralisation, counted in full, says nothing of the kind.
+func TestHeatLineNamesFamilyHeat(t *testing.T) {
+	a := mustAdvisor(t)
+	const note = "not counting the reaction named above"
+	if sh := advice.RenderShort(ask(t, a, "mix 100 L HCHO 37 % + 100 L NaOH 50 %")); !strings.Contains(sh, note) {
+		t.Errorf("formaldehyde with caustic:\n%s", sh)
+	}
+	if sh := advice.RenderShort(ask(t, a, "mix 100 L NaOH 10 % + 100 L HCl 10 %")); strings.Contains(sh, note) {
+		t.Errorf("neutralisation:\n%s", sh)
 	}
 }
