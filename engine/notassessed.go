@@ -96,66 +96,10 @@ const organicFuelV = 0.95
 // always count. Common practice, no source.
 const fuelOxidizerMolar = 1.0
 
-// roughMolar is a component's strength in its stream in mol/L, taking a
-// % w/w solution at 1 kg/L (a lower bound for acids and salts); a chemical
-// named without a strength counts as strong.
-func roughMolar(c *Component) float64 {
-	mm := c.Chemical.MolarMass
-	if mm <= 0 {
-		return 0
-	}
-	switch c.Unit {
-	case Molar:
-		return c.Value
-	case MilliM:
-		return c.Value / 1000
-	case PctWW, PctWV:
-		return c.Value * 10 / mm
-	case GPerL:
-		return c.Value / mm
-	case MgPerL, PPM:
-		return c.Value / 1000 / mm
-	}
-	return fuelOxidizerMolar
-}
-
 // organicFormula: a formula with carbon and hydrogen.
 func organicFormula(f string) bool {
 	a, err := chem.ParseFormula(f)
 	return err == nil && a["C"] > 0 && a["H"] > 0
-}
-
-// partnerAbove names the first chemical of the request (not withheld, not
-// water) that brings the oxidized side of a half-reaction with E° ≥ v.
-func partnerAbove(req *Request, t *Tables, db *thermo.DB, v float64) string {
-	for si := range req.Streams {
-		for ci := range req.Streams[si].Components {
-			c := &req.Streams[si].Components[ci]
-			if c.Chemical == nil || c.Chemical.Formula == "H2O" {
-				continue
-			}
-			if _, ok := db.Withheld(c.Chemical.Formula); ok {
-				continue
-			}
-			if st := &req.Streams[si]; st.VolumeL > 0 && roughMolar(c) < fuelOxidizerMolar {
-				continue // dilute: a 1 % nitric acid rinse beside a quat sanitiser
-			}
-			for _, g := range c.Chemical.Gives {
-				key := mixKey(g.Species)
-				for _, h := range t.Half {
-					if h.E0 < v {
-						continue
-					}
-					for _, k := range h.oxKeys {
-						if k == key {
-							return c.Name
-						}
-					}
-				}
-			}
-		}
-	}
-	return ""
 }
 
 func agentWord(role string) string {
@@ -168,9 +112,34 @@ func agentWord(role string) string {
 // partnerOf names the first chemical of the request (not withheld, not
 // water) that could be the redox partner of an unassessed agent of role.
 func partnerOf(req *Request, t *Tables, db *thermo.DB, role string) string {
+	return firstPartner(req, db, func(_ *Stream, c *Component, key string) bool {
+		return partnerSpecies(t, key, role)
+	})
+}
+
+// partnerAbove names the first chemical of the request (not withheld, not
+// water) that brings the oxidized side of a half-reaction with E° ≥ v, as a
+// solid or at fuelOxidizerMolar or more in its own stream (a 1 % nitric
+// acid rinse beside a quat sanitiser does not count).
+func partnerAbove(req *Request, t *Tables, db *thermo.DB, v float64) string {
+	return firstPartner(req, db, func(st *Stream, c *Component, key string) bool {
+		if st.VolumeL > 0 {
+			mol, _, err := componentMoles(st, c, 1, true, t, &mixture{})
+			if err != nil || mol < fuelOxidizerMolar {
+				return false
+			}
+		}
+		return oxidizerAbove(t, key, v)
+	})
+}
+
+// firstPartner names the first chemical of the request, water and withheld
+// chemicals aside, one of whose species (by mixKey) passes match.
+func firstPartner(req *Request, db *thermo.DB, match func(st *Stream, c *Component, key string) bool) string {
 	for si := range req.Streams {
-		for ci := range req.Streams[si].Components {
-			c := &req.Streams[si].Components[ci]
+		st := &req.Streams[si]
+		for ci := range st.Components {
+			c := &st.Components[ci]
 			if c.Chemical == nil || c.Chemical.Formula == "H2O" {
 				continue
 			}
@@ -178,7 +147,7 @@ func partnerOf(req *Request, t *Tables, db *thermo.DB, role string) string {
 				continue
 			}
 			for _, g := range c.Chemical.Gives {
-				if partnerSpecies(t, mixKey(g.Species), role) {
+				if match(st, c, mixKey(g.Species)) {
 					return c.Name
 				}
 			}
@@ -191,15 +160,26 @@ func partnerOf(req *Request, t *Tables, db *thermo.DB, role string) string {
 // side of a half-reaction with E° ≥ oxidizerOfConcernV; for an unassessed
 // oxidizing agent, the reduced side of any half-reaction.
 func partnerSpecies(t *Tables, key, role string) bool {
+	if role == thermo.RoleReductant {
+		return oxidizerAbove(t, key, oxidizerOfConcernV)
+	}
 	for _, h := range t.Half {
-		keys := h.redKeys
-		if role == thermo.RoleReductant {
-			if h.E0 < oxidizerOfConcernV {
-				continue
+		for _, k := range h.redKeys {
+			if k == key {
+				return true
 			}
-			keys = h.oxKeys
 		}
-		for _, k := range keys {
+	}
+	return false
+}
+
+// oxidizerAbove: key is the oxidized side of a half-reaction with E° ≥ v.
+func oxidizerAbove(t *Tables, key string, v float64) bool {
+	for _, h := range t.Half {
+		if h.E0 < v {
+			continue
+		}
+		for _, k := range h.oxKeys {
 			if k == key {
 				return true
 			}
