@@ -158,11 +158,11 @@ func (db *DB) searchTerms(ctx context.Context, tx *sql.Tx, o SearchOptions, page
 }
 
 // searchFilters turns the filters of o other than the terms into SQL over
-// queries q. The hazard filter reads the hashed hazards of each row.
+// queries q. The hazard filter reads the hashed hazards of each row (a quick
+// test on the JSON text, then the exact one). On PostgreSQL lower() and
+// ILIKE stand for SQLite's NOCASE and LIKE: both fold ASCII letters only,
+// under the "C" collation the columns compare in.
 func searchFilters(o SearchOptions, pg bool) ([]string, []any) {
-	if pg {
-		return pgSearchFilters(o)
-	}
 	where := []string{`q.kind = 'query'`}
 	var args []any
 	if !o.Since.IsZero() {
@@ -174,51 +174,11 @@ func searchFilters(o SearchOptions, pg bool) ([]string, []any) {
 		args = append(args, formatTime(o.Until))
 	}
 	if o.User != "" {
-		where = append(where, `(q.user_name = ? COLLATE NOCASE OR q.user_id = ?)`)
-		args = append(args, o.User, o.User)
-	}
-	if o.Verdict != "" {
-		where = append(where, `q.verdict = ?`)
-		args = append(args, o.Verdict)
-	}
-	if o.Site != "" {
-		where = append(where, `q.site = ?`)
-		args = append(args, o.Site)
-	}
-	if o.Hazard != "" {
-		// A quick test on the JSON text, then the exact one.
-		code, _ := json.Marshal(o.Hazard)
-		like := strings.NewReplacer(`\`, `\\`, `%`, `\%`, `_`, `\_`).Replace(`"code":` + string(code))
-		where = append(where, `q.hazards LIKE ? ESCAPE '\' AND EXISTS (SELECT 1 FROM json_each(q.hazards) j
-			WHERE json_extract(j.value, '$.code') = ? COLLATE NOCASE)`)
-		args = append(args, "%"+like+"%", o.Hazard)
-	}
-	if len(o.HazardAny) > 0 {
-		marks := strings.TrimSuffix(strings.Repeat("?, ", len(o.HazardAny)), ", ")
-		where = append(where, `EXISTS (SELECT 1 FROM json_each(q.hazards) j WHERE json_extract(j.value, '$.code') COLLATE NOCASE IN (`+marks+`))`)
-		for _, c := range o.HazardAny {
-			args = append(args, c)
+		if pg {
+			where = append(where, `(lower(q.user_name) = lower(?) OR q.user_id = ?)`)
+		} else {
+			where = append(where, `(q.user_name = ? COLLATE NOCASE OR q.user_id = ?)`)
 		}
-	}
-	return where, args
-}
-
-// pgSearchFilters is searchFilters in PostgreSQL's terms: SQLite's NOCASE
-// and LIKE fold ASCII letters only, as lower() and ILIKE do under the "C"
-// collation the columns compare in.
-func pgSearchFilters(o SearchOptions) ([]string, []any) {
-	where := []string{`q.kind = 'query'`}
-	var args []any
-	if !o.Since.IsZero() {
-		where = append(where, `q.time >= ?`)
-		args = append(args, formatTime(o.Since))
-	}
-	if !o.Until.IsZero() {
-		where = append(where, `q.time < ?`)
-		args = append(args, formatTime(o.Until))
-	}
-	if o.User != "" {
-		where = append(where, `(lower(q.user_name) = lower(?) OR q.user_id = ?)`)
 		args = append(args, o.User, o.User)
 	}
 	if o.Verdict != "" {
@@ -232,13 +192,23 @@ func pgSearchFilters(o SearchOptions) ([]string, []any) {
 	if o.Hazard != "" {
 		code, _ := json.Marshal(o.Hazard)
 		like := strings.NewReplacer(`\`, `\\`, `%`, `\%`, `_`, `\_`).Replace(`"code":` + string(code))
-		where = append(where, `q.hazards ILIKE ? ESCAPE '\' AND EXISTS (SELECT 1 FROM jsonb_array_elements(q.hazards::jsonb) j
+		if pg {
+			where = append(where, `q.hazards ILIKE ? ESCAPE '\' AND EXISTS (SELECT 1 FROM jsonb_array_elements(q.hazards::jsonb) j
 			WHERE lower(j->>'code') = lower(?))`)
+		} else {
+			where = append(where, `q.hazards LIKE ? ESCAPE '\' AND EXISTS (SELECT 1 FROM json_each(q.hazards) j
+			WHERE json_extract(j.value, '$.code') = ? COLLATE NOCASE)`)
+		}
 		args = append(args, "%"+like+"%", o.Hazard)
 	}
 	if len(o.HazardAny) > 0 {
-		marks := strings.TrimSuffix(strings.Repeat("lower(?), ", len(o.HazardAny)), ", ")
-		where = append(where, `EXISTS (SELECT 1 FROM jsonb_array_elements(q.hazards::jsonb) j WHERE lower(j->>'code') IN (`+marks+`))`)
+		if pg {
+			marks := strings.TrimSuffix(strings.Repeat("lower(?), ", len(o.HazardAny)), ", ")
+			where = append(where, `EXISTS (SELECT 1 FROM jsonb_array_elements(q.hazards::jsonb) j WHERE lower(j->>'code') IN (`+marks+`))`)
+		} else {
+			marks := strings.TrimSuffix(strings.Repeat("?, ", len(o.HazardAny)), ", ")
+			where = append(where, `EXISTS (SELECT 1 FROM json_each(q.hazards) j WHERE json_extract(j.value, '$.code') COLLATE NOCASE IN (`+marks+`))`)
+		}
 		for _, c := range o.HazardAny {
 			args = append(args, c)
 		}
