@@ -409,6 +409,12 @@ be left out to list by the filters alone. A first term starting with - needs
 		}
 		return cw.flush()
 	}
+	return a.searchText(ctx, db, so, page, loc)
+}
+
+// searchText prints a page of search results as a table, newest first, with
+// the channel's name at the time and the site of rows outside main.
+func (a *app) searchText(ctx context.Context, db *store.DB, so store.SearchOptions, page store.SearchPage, loc *time.Location) error {
 	if strings.TrimSpace(so.Terms) != "" && len(page.Phrases) == 0 {
 		fmt.Fprintf(a.stdout, "The terms %q hold no letters or digits, so nothing can match.\n", safe(so.Terms))
 		return nil

@@ -329,89 +329,33 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 	errc := make(chan error, 4)
 	var wg sync.WaitGroup
 
-	var admin *http.Server
-	var adminLn net.Listener
-	if c.adminAddr != "" && c.adminAddr != "off" {
-		adminLn, err = net.Listen("tcp", c.adminAddr)
-		switch {
-		case err != nil && c.adminAddr == defaultAdminAddr:
-			// The default port is taken (another instance, a test): run
-			// without the admin endpoints rather than not at all.
-			logger.Warn("admin endpoints off: default address in use; set --admin-addr", "addr", c.adminAddr, "err", err)
-		case err != nil:
-			return fmt.Errorf("--admin-addr %s: %w", c.adminAddr, err)
-		}
+	admin, err := startAdmin(c, metrics, health, logger, &wg, errc)
+	if err != nil {
+		return err
 	}
-	if adminLn != nil {
-		ln := adminLn
-		admin = newAdminServer(bot.AdminHandler(metrics, health))
-		logger.Info("admin listening", "addr", ln.Addr().String(), "paths", "/healthz /metrics")
-		wg.Go(func() {
-			if err := admin.Serve(ln); err != nil && !errors.Is(err, http.ErrServerClosed) {
-				errc <- fmt.Errorf("admin server: %w", err)
-			}
-		})
-	}
-
-	var events *http.Server
-	if c.httpAddr != "" {
-		ln, err := net.Listen("tcp", c.httpAddr)
-		if err != nil {
-			return fmt.Errorf("--http %s: %w", c.httpAddr, err)
-		}
-		events = &http.Server{
-			Handler:           sl.HTTPHandler(bot.NewVerifier(c.signingSecret, nil)),
-			ReadHeaderTimeout: 10 * time.Second,
-			ReadTimeout:       30 * time.Second,
-			WriteTimeout:      30 * time.Second,
-		}
-		health.SetTransport("http", "listening")
-		logger.Info("events API listening", "addr", ln.Addr().String(), "paths", "POST /slack/events, POST /slack/commands, POST /slack/interactive")
-		wg.Go(func() {
-			if err := events.Serve(ln); err != nil && !errors.Is(err, http.ErrServerClosed) {
-				errc <- fmt.Errorf("events server: %w", err)
-			}
-		})
+	events, err := startEvents(c, sl, health, logger, &wg, errc)
+	if err != nil {
+		return err
 	}
 
 	if c.appToken != "" {
 		health.Expect("socket") // not ready until Socket Mode has connected
-		sm := socketmode.New(api)
 		wg.Go(func() {
-			if err := sl.RunSocket(runCtx, sm); err != nil {
+			if err := sl.RunSocket(runCtx, socketmode.New(api)); err != nil {
 				errc <- err
 			}
 		})
 	}
 
-	var sched *store.Scheduler
-	if c.digestChannel != "" {
-		sched, err = store.NewScheduler(st.db, c.site.shifts, st.loc, sl, nil)
-		if err != nil {
-			return &exitError{exitUsage, err}
-		}
-		sched.Log = logger
-		wg.Go(func() { _ = sched.Start(runCtx) })
-		logger.Info("digests scheduled", "channel", c.digestChannel, "shifts", c.site.shifts, "zone", st.loc.String(), "next", sched.Next())
-	} else {
-		logger.Info("no digest channel: scheduled digests are off (set MIXWARD_DIGEST_CHANNEL)")
+	sched, err := startDigests(runCtx, c, st, sl, logger, &wg)
+	if err != nil {
+		return err
 	}
 
 	wg.Go(func() { keepInbox(runCtx, sl, st.db, sweepEvery(st.db.InboxLease()), logger) })
 
-	// Who am I: used to tell the bot's own messages and mentions apart. It
-	// is not needed to answer, so the transports do not wait for it.
-	wg.Go(func() {
-		actx, cancel := context.WithTimeout(runCtx, 10*time.Second)
-		defer cancel()
-		at, err := api.AuthTestContext(actx)
-		if err != nil {
-			logger.Warn("auth.test failed; carrying on without knowing the bot's user id", "err", err)
-			return
-		}
-		sl.SetBotUser(at.UserID)
-		logger.Info("slack identity", "user_id", at.UserID, "bot_id", at.BotID, "team", at.Team)
-	})
+	// Who am I: not needed to answer, so the transports do not wait for it.
+	wg.Go(func() { learnIdentity(runCtx, api, sl, logger) })
 
 	health.SetReady(true)
 	logger.Info("mixward serving", "engine", engine.Version, "data", shortHash(st.eng.Tables.Hash),
@@ -426,8 +370,17 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 	}
 	health.SetReady(false)
 
-	// Stop intake first, then let the queue drain, then the rest.
-	shutdownCtx, cancelShutdown := context.WithTimeout(context.WithoutCancel(ctx), c.drainTimeout)
+	drain(ctx, c.drainTimeout, events, admin, sl, stopRun, &wg, sched, logger)
+	if runErr != nil {
+		return runErr
+	}
+	return nil
+}
+
+// drain stops a serving bot: intake first, then the queue within timeout
+// (what is not posted stays owed in the inbox), then the rest.
+func drain(ctx context.Context, timeout time.Duration, events, admin *http.Server, sl *bot.Slack, stopRun func(), wg *sync.WaitGroup, sched *store.Scheduler, logger *slog.Logger) {
+	shutdownCtx, cancelShutdown := context.WithTimeout(context.WithoutCancel(ctx), timeout)
 	defer cancelShutdown()
 	if events != nil {
 		_ = events.Shutdown(shutdownCtx)
@@ -435,7 +388,7 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 	stopRun()
 	if err := sl.Close(shutdownCtx); err != nil {
 		logger.Error("drain timed out; the answers not posted stay owed in the inbox and are posted at the next start",
-			"err", err, "queued", queue.Depth())
+			"err", err, "queued", sl.Queue.Depth())
 	}
 	if admin != nil {
 		_ = admin.Shutdown(shutdownCtx)
@@ -445,10 +398,86 @@ func serve(ctx context.Context, c serveConfig, logger *slog.Logger) error {
 		sched.Stop() // Start has returned (wg), so its cron is set
 	}
 	logger.Info("mixward stopped")
-	if runErr != nil {
-		return runErr
+}
+
+// learnIdentity asks Slack who the bot is, to tell its own messages and
+// mentions apart; without it the bot carries on.
+func learnIdentity(ctx context.Context, api *slack.Client, sl *bot.Slack, logger *slog.Logger) {
+	actx, cancel := context.WithTimeout(ctx, 10*time.Second)
+	defer cancel()
+	at, err := api.AuthTestContext(actx)
+	if err != nil {
+		logger.Warn("auth.test failed; carrying on without knowing the bot's user id", "err", err)
+		return
 	}
-	return nil
+	sl.SetBotUser(at.UserID)
+	logger.Info("slack identity", "user_id", at.UserID, "bot_id", at.BotID, "team", at.Team)
+}
+
+// startAdmin serves /healthz and /metrics on --admin-addr, unless it is off;
+// the default address taken (another instance, a test) runs without them.
+func startAdmin(c serveConfig, metrics *bot.Metrics, health *bot.Health, logger *slog.Logger, wg *sync.WaitGroup, errc chan<- error) (*http.Server, error) {
+	if c.adminAddr == "" || c.adminAddr == "off" {
+		return nil, nil
+	}
+	ln, err := net.Listen("tcp", c.adminAddr)
+	switch {
+	case err != nil && c.adminAddr == defaultAdminAddr:
+		logger.Warn("admin endpoints off: default address in use; set --admin-addr", "addr", c.adminAddr, "err", err)
+		return nil, nil
+	case err != nil:
+		return nil, fmt.Errorf("--admin-addr %s: %w", c.adminAddr, err)
+	}
+	admin := newAdminServer(bot.AdminHandler(metrics, health))
+	logger.Info("admin listening", "addr", ln.Addr().String(), "paths", "/healthz /metrics")
+	wg.Go(func() {
+		if err := admin.Serve(ln); err != nil && !errors.Is(err, http.ErrServerClosed) {
+			errc <- fmt.Errorf("admin server: %w", err)
+		}
+	})
+	return admin, nil
+}
+
+// startEvents serves the Events API, slash commands and interactivity on
+// --http, when it is set.
+func startEvents(c serveConfig, sl *bot.Slack, health *bot.Health, logger *slog.Logger, wg *sync.WaitGroup, errc chan<- error) (*http.Server, error) {
+	if c.httpAddr == "" {
+		return nil, nil
+	}
+	ln, err := net.Listen("tcp", c.httpAddr)
+	if err != nil {
+		return nil, fmt.Errorf("--http %s: %w", c.httpAddr, err)
+	}
+	events := &http.Server{
+		Handler:           sl.HTTPHandler(bot.NewVerifier(c.signingSecret, nil)),
+		ReadHeaderTimeout: 10 * time.Second,
+		ReadTimeout:       30 * time.Second,
+		WriteTimeout:      30 * time.Second,
+	}
+	health.SetTransport("http", "listening")
+	logger.Info("events API listening", "addr", ln.Addr().String(), "paths", "POST /slack/events, POST /slack/commands, POST /slack/interactive")
+	wg.Go(func() {
+		if err := events.Serve(ln); err != nil && !errors.Is(err, http.ErrServerClosed) {
+			errc <- fmt.Errorf("events server: %w", err)
+		}
+	})
+	return events, nil
+}
+
+// startDigests schedules the shift digests when a digest channel is set.
+func startDigests(ctx context.Context, c serveConfig, st *site, sl *bot.Slack, logger *slog.Logger, wg *sync.WaitGroup) (*store.Scheduler, error) {
+	if c.digestChannel == "" {
+		logger.Info("no digest channel: scheduled digests are off (set MIXWARD_DIGEST_CHANNEL)")
+		return nil, nil
+	}
+	sched, err := store.NewScheduler(st.db, c.site.shifts, st.loc, sl, nil)
+	if err != nil {
+		return nil, &exitError{exitUsage, err}
+	}
+	sched.Log = logger
+	wg.Go(func() { _ = sched.Start(ctx) })
+	logger.Info("digests scheduled", "channel", c.digestChannel, "shifts", c.site.shifts, "zone", st.loc.String(), "next", sched.Next())
+	return sched, nil
 }
 
 // newSlack wires the bot, its worker pool, poster, pictures and inbox for
