@@ -62,6 +62,12 @@ func TestGroupWeights(t *testing.T) {
 		{"C(organic)", "HCO3-", 0},
 		{"C(organic)", "CN-", 0},
 		{"{OCN-, HOCN}", "OCN-", 1},
+		// ammonia nitrogen, not the C–N of cyanide, cyanate, thiocyanate or urea
+		{"N(-3..-1 without C)", "NH4+", 1},
+		{"N(-3..-1 without C)", "Zn(NH3)4^2+", 4},
+		{"N(-3..-1 without C)", "OCN-", 0},
+		{"N(-3..-1 without C)", "SCN-", 0},
+		{"N(-3..-1 without C)", "CO(NH2)2", 0},
 		// a count before a species: a urea stands for two nitrogen molecules
 		{"{N2(g), 2 CO(NH2)2}", "CO(NH2)2", 2},
 		{"{N2(g), 2 CO(NH2)2}", "N2(g)", 1},

@@ -50,7 +50,9 @@ func (m *Model) solveCombined(mx *Mix, n0 []float64, volL float64) (*State, erro
 }
 
 // formationRules are the rules of the locks that only keep listed species
-// from forming (crystalline oxides, hydrogen sulfide from thiocyanate) or
+// (or an element's atoms outside some compounds: ammonia nitrogen, not
+// cyanate's) from forming (crystalline oxides, hydrogen sulfide from
+// thiocyanate, ammonia from cyanate) or
 // from falling apart (hexacyanoferrates in acid): they hold for the mix as
 // combined too, judged on the temperature and on what the streams bring (the
 // pH of the mix as combined is not known yet, so a pH condition does not
@@ -63,7 +65,7 @@ func (m *Model) formationRules(mx *Mix, n0 []float64, volL float64) []lockRule {
 	var out []lockRule
 	for i := range m.Locks {
 		l := &m.Locks[i]
-		if len(l.Rules) != 1 || l.Rules[0].Dir == Fixed || len(l.Rules[0].Group.Species) == 0 {
+		if g := l.Rules[0].Group; len(l.Rules) != 1 || l.Rules[0].Dir == Fixed || (len(g.Species) == 0 && g.Without == "") {
 			continue
 		}
 		if l.When == nil || l.When.Holds(env) {
