@@ -391,7 +391,10 @@ var chlorinatorSolubility = map[string]struct {
 }
 
 // undissolved says how much of a slowly soluble chlorinator stays solid
-// in the mix, or "" when it all dissolves.
+// in the mix, or "" when it all dissolves. The state caps the dissolved
+// part by the solid's own row in species.txt (derived from the same
+// solubility), so the amounts and pH of the answer are those of the
+// saturated solution over the rest.
 func undissolved(o *Outcome) (string, string) {
 	for f, kg := range o.SolidKg {
 		s, ok := chlorinatorSolubility[f]
@@ -403,9 +406,20 @@ func undissolved(o *Outcome) (string, string) {
 			continue
 		}
 		return " Only about " + fmtNum(dis, 2) + " kg of the " + fmtNum(kg, 3) + " kg of " + s.name + " dissolves in " + fmtNum(o.VolumeL, 3) +
-			" L (solubility about " + fmtNum(s.gPerL, 2) + " g/L); the rest stays as solid, and the figures of this answer count it all as dissolved.", s.source
+			" L (solubility about " + fmtNum(s.gPerL, 2) + " g/L); the rest stays as solid" + solidLeft(o, f) + ", and the figures of this answer count only what dissolves.", s.source
 	}
 	return "", ""
+}
+
+// solidLeft is " (N mol in the mixed state)" for the solid f the mixed state
+// still holds, or "".
+func solidLeft(o *Outcome, f string) string {
+	for _, a := range o.After {
+		if a.Species.Text() == f+"(s)" && a.Mol > 0 {
+			return " (" + fmtNum(a.Mol, 3) + " mol in the mixed state)"
+		}
+	}
+	return ""
 }
 
 // SulfuricDehydratingMolar is the sulfuric acid in the mix (mol/L, about

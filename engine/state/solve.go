@@ -552,6 +552,9 @@ func problemSpecies(sp *thermo.Species, row map[string]float64, comps map[string
 // component of its own ({C2O2} for acetic acid and acetate, {C10N2O8} for
 // EDTA and its complexes): such a compound keeps its skeleton, gaining or
 // losing only H+ and metal ions, and never turns into another compound.
+// The free elements of an inert species (free=Cl) are outside its skeleton:
+// trichloroisocyanuric acid shares cyanuric acid's skeleton and gives up
+// its chlorine as hypochlorous acid.
 func components(sp *thermo.Species, frozen, organicLocked bool) map[string]float64 {
 	row := make(map[string]float64, len(sp.Atoms))
 	whole := sp.Inert || (organicLocked && IsOrganic(sp.Atoms, sp.Ion()))
@@ -561,7 +564,7 @@ func components(sp *thermo.Species, frozen, organicLocked bool) map[string]float
 	for el, n := range sp.Atoms {
 		key := el
 		switch {
-		case whole && el != "H" && !chem.IsMetal(el):
+		case whole && el != "H" && !chem.IsMetal(el) && !sp.Free[el]:
 			continue
 		case frozen:
 			key = el + "@" + strconv.FormatFloat(math.Round(sp.Ox[el]*100)/100, 'f', -1, 64)
@@ -579,7 +582,7 @@ func components(sp *thermo.Species, frozen, organicLocked bool) map[string]float
 func skeleton(sp *thermo.Species) string {
 	k := chem.Atoms{}
 	for el, n := range sp.Atoms {
-		if el != "H" && !chem.IsMetal(el) {
+		if el != "H" && !chem.IsMetal(el) && !sp.Free[el] {
 			k[el] = n
 		}
 	}
