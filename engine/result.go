@@ -31,6 +31,11 @@ type Result struct {
 	Conditions Conditions `json:"conditions"`
 	Allowance  *Allowance `json:"allowance"`            // kinetic allowance that moved the headline pair, if any
 	Hindered   bool       `json:"kinetically_hindered"` // the headline is spontaneous but kinetically hindered
+	// OutsideAqueous, when set, says what happens instead of the headline
+	// equation: the mix has no water phase (a solid oxidizer in a neat
+	// organic liquid), so the aqueous equation is the model's, not the
+	// tank's.
+	OutsideAqueous string `json:"outside_aqueous,omitempty"`
 
 	Streams []StreamOut `json:"streams"` // the streams as understood, tags resolved
 	Notes   []string    `json:"notes"`   // assumptions made (equal volumes, excess metal, ...)

@@ -154,6 +154,9 @@ func heatFigure(r *engine.Result) string {
 }
 
 func reactionLine(r *engine.Result) string {
+	if r.OutsideAqueous != "" {
+		return "Redox: " + r.OutsideAqueous
+	}
 	if hb := pairHeld(r); hb != nil && (r.Reaction == nil || agents(r.Reaction) < 2) {
 		// The streams meeting is what the operator asks about: a pair held
 		// back heads the line before one agent's own change held back.
