@@ -688,7 +688,7 @@ func pinnedHeld(mx *Mix, p equilibrium.Problem, eq equilibrium.State, rows []map
 			maybe = append(maybe, strings.TrimSuffix(lr.c.Name, "=pinned"))
 		}
 	}
-	lam, ok := potentials(p, eq)
+	lam, fixed, ok := potentials(p, eq)
 	if !ok {
 		return nil, maybe
 	}
@@ -698,6 +698,8 @@ func pinnedHeld(mx *Mix, p equilibrium.Problem, eq equilibrium.State, rows []map
 			sp := mx.Species[i]
 			lnA := lam[len(lam)-1] * float64(sp.Charge)
 			okRow := true
+			vec := make([]float64, len(lam))
+			vec[len(vec)-1] = float64(sp.Charge)
 			for k, a := range rows[i] {
 				j, found := comps[k]
 				if !found {
@@ -705,7 +707,9 @@ func pinnedHeld(mx *Mix, p equilibrium.Problem, eq equilibrium.State, rows []map
 					break
 				}
 				lnA += a * lam[j]
+				vec[j] = a
 			}
+			okRow = okRow && fixed(vec)
 			lnA -= sp.GibbsRT(mx.TempK)
 			pure := sp.Phase == chem.Solid || sp.Phase == chem.Liquid
 			if okRow && (pure && lnA > 0 || !pure && lnA > math.Log(1e-6)) {
@@ -719,8 +723,13 @@ func pinnedHeld(mx *Mix, p equilibrium.Problem, eq equilibrium.State, rows []map
 
 // potentials recovers the component potentials (and, last, the charge
 // potential) of a solved state from the species present: for each,
-// ln a + μ°/RT = Σ A·λ + z·ψ, solved in the least-squares sense.
-func potentials(p equilibrium.Problem, eq equilibrium.State) ([]float64, bool) {
+// ln a + μ°/RT = Σ A·λ + z·ψ, solved in the least-squares sense, with the
+// least norm where the species present do not fix every potential (the
+// carbon and nitrogen of cyanate when cyanate is their only carrier). fixed
+// reports whether a combination of the potentials (a species' row) is
+// settled by the species present, so that a species shut out is judged
+// only where its potential is known.
+func potentials(p equilibrium.Problem, eq equilibrium.State) (lam []float64, fixed func([]float64) bool, ok bool) {
 	nc := len(p.Components) + 1
 	var rowsA [][]float64
 	var rhs []float64
@@ -747,18 +756,40 @@ func potentials(p equilibrium.Problem, eq equilibrium.State) ([]float64, bool) {
 		rowsA = append(rowsA, row)
 		rhs = append(rhs, lnA+sp.Mu0)
 	}
-	if len(rowsA) < nc {
-		return nil, false
+	if len(rowsA) == 0 {
+		return nil, nil, false
 	}
 	a := mat.NewDense(len(rowsA), nc, nil)
 	for i, r := range rowsA {
 		a.SetRow(i, r)
 	}
-	var x mat.VecDense
-	if err := x.SolveVec(a, mat.NewVecDense(len(rhs), rhs)); err != nil {
-		return nil, false
+	var svd mat.SVD
+	if !svd.Factorize(a, mat.SVDThin) {
+		return nil, nil, false
 	}
-	return x.RawVector().Data, true
+	vals := svd.Values(nil)
+	rank := 0
+	for _, v := range vals {
+		if v > 1e-10*vals[0] {
+			rank++
+		}
+	}
+	var x mat.Dense
+	svd.SolveTo(&x, mat.NewDense(len(rhs), 1, rhs), rank)
+	var v mat.Dense
+	svd.VTo(&v)
+	basis := v.Slice(0, nc, 0, rank)
+	fixed = func(r []float64) bool {
+		// r lies in the row space when its projection on the right
+		// singular vectors kept gives it back.
+		rv := mat.NewVecDense(len(r), r)
+		var c, back mat.VecDense
+		c.MulVec(basis.T(), rv)
+		back.MulVec(basis, &c)
+		back.SubVec(&back, rv)
+		return mat.Norm(&back, 2) <= 1e-8*math.Max(1, mat.Norm(rv, 2))
+	}
+	return mat.Col(nil, 0, &x), fixed, true
 }
 
 // solveSafely runs the solver and turns a panic inside it (a linear-algebra
