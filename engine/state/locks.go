@@ -397,6 +397,9 @@ func checkGroups(l *Lock, db *thermo.DB, elements map[string]bool) error {
 		if len(g.Species) == 0 && !elements[g.Element] {
 			return fmt.Errorf("locks.txt:%d: lock %s names element %s, which no species in species.txt holds", l.Line, l.ID, g.Element)
 		}
+		if g.Without != "" && !elements[g.Without] {
+			return fmt.Errorf("locks.txt:%d: lock %s: \"without %s\" names an element no species in species.txt holds", l.Line, l.ID, g.Without)
+		}
 	}
 	return nil
 }

@@ -247,3 +247,15 @@ func TestAcidAllowancePer(t *testing.T) {
 		t.Error("x 0 accepted")
 	}
 }
+
+// TestGroupWithoutRejectsBadElement: "without" takes another element.
+func TestGroupWithoutRejectsBadElement(t *testing.T) {
+	for _, s := range []string{"N(-3 without N)", "N(-3 without c)", "N(-3 without )"} {
+		if _, err := parseGroup(s); err == nil {
+			t.Errorf("parseGroup(%q): no error", s)
+		}
+	}
+	if g, err := parseGroup("N(-3..-1 without C)"); err != nil || g.Without != "C" || g.Lo != -3 || g.Hi != -1 {
+		t.Errorf("parseGroup(N(-3..-1 without C)) = %+v, %v", g, err)
+	}
+}
