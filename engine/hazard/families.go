@@ -19,6 +19,8 @@ var familyRules = []func(o *Outcome) (engine.Hazard, bool){
 	// organic, azide and solid-chlorinator families (organic.go)
 	organicPeroxides, perchlorateEsters, oxidizerOrganic, bisChloromethylEther,
 	cannizzaro, hexamine, formaldehydeHypochlorite, haloform, heavyMetalAzide, mixedChlorinators,
+	// silicate with acid (silica.go)
+	silicaGel,
 }
 
 // organicN is the mol/L of organic nitrogen compounds with nitrogen at −3
