@@ -75,6 +75,10 @@ type Heat struct {
 	ReachedC   float64 // starting temperature plus the rise
 	Boils      bool    // reached the boiling point of the liquid
 	Reactions  bool    // the heat includes reactions (not only neutralisation and dissolving)
+	// Families are the reactions judged as families whose heat is added to
+	// ReleasedkJ; StatekJ is what the state gave before them.
+	Families []engine.ReactionHeat
+	StatekJ  float64
 }
 
 // Outcome is what forms when the streams are combined: the view the hazard
