@@ -21,6 +21,8 @@ var familyRules = []func(o *Outcome) (engine.Hazard, bool){
 	cannizzaro, hexamine, formaldehydeHypochlorite, haloform, heavyMetalAzide, mixedChlorinators,
 	// silicate with acid (silica.go)
 	silicaGel,
+	// concentrated peroxide made alkaline (peroxide.go)
+	alkalinePeroxide,
 }
 
 // organicN is the mol/L of organic nitrogen compounds with nitrogen at −3
