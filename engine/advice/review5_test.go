@@ -11,7 +11,8 @@ import (
 // plant chemist's fifth review, each with its basis:
 //   - baking soda dissolved in water gives about 2 mol CO2 (0.05 m³): in
 //     a 25 m³ room about 1,800 ppm, under a tenth of the NIOSH IDLH
-//     (40,000 ppm): no hazard; acid on soda ash gives about 100 mol
+//     (40,000 ppm), and the mix stays at bicarbonate's pH (8.3), where no
+//     acid drives the gas out: no concern; acid on soda ash gives about 100 mol
 //     (2.4 m³): a warning.
 //   - chloramination at Cl2:NH3-N about 1.5:1 by weight, ammonia first, is
 //     routine below 5:1 (White's Handbook of Chlorination): with
@@ -29,7 +30,7 @@ func TestReview5Levels(t *testing.T) {
 		hasNot string // a hazard code that must not be raised by the final mix
 		action string // text one action must hold
 	}{
-		{"mix 1000 L water + 10 kg NaHCO3", "", "", "co2-release", ""},
+		{"mix 1000 L water + 10 kg NaHCO3", engine.NoConcern, "", "co2-release", ""},
 		{"mix 100 L Na2CO3 10 % + 100 L HCl 10 %", engine.WithPrecautions, "co2-release", "", ""},
 		{"mix 1000 L water + 0.5 L NH3 25 % + 1 L NaOCl 12.5 %", engine.WithPrecautions, "chloramine-release", "", "Dose the ammonia first"},
 		{"mix 100 L Na2SiO3 30 % + 100 L H2SO4 10 %", engine.WithPrecautions, "silica-gel", "", ""},

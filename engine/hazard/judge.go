@@ -73,6 +73,9 @@ func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 			// An asphyxiant, not toxic at low level: judged also by the
 			// amount, spread over a small plant room.
 			ratio = math.Min(ratio, roomPPM(o, p.mol)/g.LimitPPM)
+			if o.PH >= BicarbonatePH {
+				continue
+			}
 		}
 		if !(ratio >= WarningRatio) {
 			continue
@@ -112,6 +115,13 @@ func diluteHypochlorite(o *Outcome) bool {
 // (about 2 mol, 0.05 m³) stays quiet, acid on soda ash (about 100 mol,
 // 2.5 m³) does not.
 const RoomM3 = 25.0
+
+// BicarbonatePH is the pH from which carbon dioxide is not judged: a mix
+// that stays as alkaline as bicarbonate itself (pH about 8.3) holds its
+// carbon as bicarbonate and carbonate, and no acid drives the gas out; what
+// its equilibrium pressure gives off is the slow degassing of dissolving
+// baking soda or soda ash, not a release (common practice, no source).
+const BicarbonatePH = 8.0
 
 // roomPPM is the concentration (ppm by volume) mol of gas makes when it
 // all leaves into a room of RoomM3.
