@@ -29,6 +29,9 @@ func New(e *engine.Engine, fsys fs.FS) (*Advisor, error) {
 	if err != nil {
 		return nil, err
 	}
+	if err := d.UseSpecies(e.Tables.Thermo); err != nil {
+		return nil, err
+	}
 	a := &Advisor{Engine: e, Gases: d}
 	if w, err := engine.Parse("mix 1 L water", e.Tables, engine.AskOptions{}); err == nil && len(w.Streams) == 1 {
 		a.water = &w.Streams[0]

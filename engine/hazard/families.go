@@ -105,11 +105,11 @@ func nitricOrganic(o *Outcome) (engine.Hazard, bool) {
 		sev = engine.Danger
 	}
 	_, orgE := organicLiquid(o)
-	rh := nitricEthanolReaction.heat(reagent{"organic liquid", orgE / 4 * o.VolumeL, 1}, reagent{"HNO3", hno3 * o.VolumeL, 4})
+	rh := o.familyHeat("nitric-organic-runaway", reagent{"organic liquid", orgE / 4 * o.VolumeL, 1}, reagent{"HNO3", hno3 * o.VolumeL, 4})
 	return withHeat(mk("nitric-organic-runaway", sev,
 		"Nitric acid at "+fmtNum(hno3, 2)+" mol/L with organic matter ("+fmtNum(c, 2)+" mol/L of carbon) oxidizes it after a delay, then runs away with heat and brown nitrogen dioxide fumes; closed containers burst.",
 		"Do not combine. Keep organic products, solvents and rags away from nitric acid; never put them in the same waste drum.",
-		"Bretherick's Handbook of Reactive Chemical Hazards, nitric acid with organic compounds (from memory); heat counted for alcohols, glycerol and the like as ethanol equivalents (4 electrons each): "+nitricEthanolReaction.source+"; 2 and 4 mol/L thresholds: common practice, no source"), rh), true
+		"Bretherick's Handbook of Reactive Chemical Hazards, nitric acid with organic compounds (from memory); heat counted for alcohols, glycerol and the like as ethanol equivalents (4 electrons each), from data/familyheats.txt; 2 and 4 mol/L thresholds: common practice, no source"), rh), true
 }
 
 // ammoniumNitrite: ammonium with nitrite decomposes to nitrogen and water,

@@ -10,7 +10,8 @@ import (
 // The reactions the families name are not run by the equilibrium state
 // (organic carbon is locked), so their heat is not in the state's figure.
 // Each family that names one carries it here: the reaction as written, its
-// enthalpy per mole of reaction and the source, and the reagents it uses
+// enthalpy per mole of reaction and the source (data/familyheats.txt, from
+// the species data where they have every ΔfH°), and the reagents it uses
 // up; the heat is counted as far as the reagent that runs out first allows
 // and added to the heat the decision judges.
 
@@ -30,56 +31,20 @@ type reagent struct {
 	per  float64
 }
 
-// Hexamine's formation enthalpy (kJ/mol): the solid +124.9 (NIST Chemistry
-// WebBook, hexamethylenetetramine, from memory, less firm) with its heat of
-// solution about −20 (it dissolves with heat and less so when warm; from
-// memory): about +105 dissolved. Ammonia dissolved −80.29 (NBS Tables 1982,
-// from memory).
-const (
-	dfHHexamineAq = 105.0
-	dfHAmmoniaAq  = -80.29
-	dfHChloroform = -134.47 // CHCl3(l), NBS Tables 1982, from memory
-	dfHAcetoneAq  = -258.0  // the liquid −248.4 with about −10 heat of solution, from memory
-	dfHAcetate    = -486.01
-	dfHEthanolAq  = -288.3
-	dfHAceticAq   = -485.76
-	dfHNitricAq   = -207.36 // H+ + NO3-, NBS Tables 1982, from memory
-	dfHNO2Gas     = 33.18
-)
-
-var (
-	cannizzaroReaction = familyReaction{"formaldehyde-caustic-heat", "2 HCHO + OH- → HCOO- + CH3OH",
-		dfHFormate + dfHMethanolAq - 2*dfHFormaldehydeAq - dfHHydroxide,
-		"ΔfH° of formate, methanol and hydroxide (NBS Tables 1982, from memory), dissolved formaldehyde about −150 kJ/mol (from memory)"}
-	hexamineReaction = familyReaction{"formaldehyde-ammonia-heat", "6 HCHO + 4 NH3 → C6H12N4 + 6 H2O",
-		dfHHexamineAq + 6*dfHWater - 6*dfHFormaldehydeAq - 4*dfHAmmoniaAq,
-		"ΔfH° of ammonia and water (NBS Tables 1982, from memory), dissolved formaldehyde about −150 kJ/mol and dissolved hexamine about +105 kJ/mol (solid +124.9, NIST Chemistry WebBook, less heat of solution about −20; from memory, uncertain by about 30 kJ/mol)"}
-	// Written with hydroxide: bleach carries caustic, and the acid the
-	// H+ form would make meets the mix's alkalinity (without base the
-	// reaction gives off −335.6 kJ/mol).
-	formaldehydeOClReaction = familyReaction{"formaldehyde-oxidation", "HCHO + OCl- + OH- → HCOO- + Cl- + H2O",
-		-formaldehydeOCl,
-		"ΔfH° of formate, chloride, water, hypochlorite and hydroxide (NBS Tables 1982, from memory), dissolved formaldehyde about −150 kJ/mol (from memory)"}
-	haloformReaction = familyReaction{"chloroform-formation", "CH3COCH3 + 3 OCl- → CHCl3 + CH3COO- + 2 OH-",
-		dfHChloroform + dfHAcetate + 2*dfHHydroxide - dfHAcetoneAq - 3*dfHHypochlorite,
-		"ΔfH° of chloroform (liquid), acetate, hydroxide and hypochlorite (NBS Tables 1982, from memory), dissolved acetone about −258 kJ/mol (from memory)"}
-	// Ethanol to acetic acid with the nitrogen dioxide of concentrated
-	// nitric acid; further oxidation (to carbon dioxide) and the nitration
-	// side reactions of the runaway add more.
-	nitricEthanolReaction = familyReaction{"nitric-organic-runaway", "C2H5OH + 4 HNO3 → CH3COOH + 4 NO2(g) + 3 H2O",
-		dfHAceticAq + 4*dfHNO2Gas + 3*dfHWater - dfHEthanolAq - 4*dfHNitricAq,
-		"ΔfH° of ethanol, acetic acid, nitric acid, nitrogen dioxide and water (NBS Tables 1982, from memory); first step only: oxidation on to carbon dioxide adds more"}
-)
-
-// thorntonReaction is an oxidizer with organic liquid, per mol of
-// electrons the organic gives up (see ThorntonKJPerElectron).
-var thorntonReaction = familyReaction{"oxidizer-organic-fire", "organic liquid oxidized, per mol of electrons taken up (Thornton's rule)",
-	-ThorntonKJPerElectron, "Thornton's rule, 418 kJ per mol O2 consumed (W. M. Thornton, Phil. Mag. 33, 196 (1917), from memory); with Cr(VI) the ΔfH° route (4 HCrO4- + 3 C2H5OH + 4 H+ → 4 Cr(OH)3(s) + 3 CH3COOH + H2O, data/species.txt) gives about 446 kJ per ethanol against 418 here"}
-
 // withHeat attaches a family's reaction heat to its hazard.
 func withHeat(h engine.Hazard, rh *engine.ReactionHeat) engine.Hazard {
 	h.ReactionHeat = rh
 	return h
+}
+
+// familyHeat is the ReactionHeat of the family code over the reagents, nil
+// when the data give no enthalpy for it.
+func (o *Outcome) familyHeat(code string, rs ...reagent) *engine.ReactionHeat {
+	f, ok := o.family(code)
+	if !ok {
+		return nil
+	}
+	return f.heat(rs...)
 }
 
 // heat is the ReactionHeat of f over the reagents: the extent is the least

@@ -178,6 +178,7 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 // Judge lists the hazards of an outcome, danger first, then warning, then
 // info; within a severity the worse gas ratio first, then table order.
 func Judge(o *Outcome, d *Data) []engine.Hazard {
+	o.families = d.Families
 	out := judgeGas(o, d)
 	rules := append(presenceRules[:len(presenceRules):len(presenceRules)], familyRules...)
 	rules = append(append(rules, slowRules...), oxygenSurge)

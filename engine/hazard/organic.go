@@ -166,7 +166,7 @@ func oxidizerOrganic(o *Outcome) (engine.Hazard, bool) {
 		if !(solid && org >= OrganicLiquidMolar) && !(conc && org >= x.organic) {
 			continue
 		}
-		rh := thorntonReaction.heat(reagent{x.reagent, ox * x.electrons * o.VolumeL, 1}, reagent{"organic liquid", orgE * o.VolumeL, 1})
+		rh := o.familyHeat("oxidizer-organic-fire", reagent{x.reagent, ox * x.electrons * o.VolumeL, 1}, reagent{"organic liquid", orgE * o.VolumeL, 1})
 		if rh != nil {
 			rh.Reaction = lowerFirst(x.name) + " oxidizing the organic liquid (Thornton's rule, about 104.5 kJ per mol of electrons)"
 		}
@@ -236,7 +236,7 @@ func cannizzaro(o *Outcome) (engine.Hazard, bool) {
 	}
 	kJ := math.Min(f, 2*oh) * o.VolumeL * cannizzaroKJ
 	heat, hot := heatEstimate(o, kJ)
-	rh := cannizzaroReaction.heat(reagent{"HCHO", f * o.VolumeL, 2}, reagent{"OH-", oh * o.VolumeL, 1})
+	rh := o.familyHeat("formaldehyde-caustic-heat", reagent{"HCHO", f * o.VolumeL, 2}, reagent{"OH-", oh * o.VolumeL, 1})
 	sev := engine.Warning
 	if hot || f >= 1 {
 		sev = engine.Danger
@@ -255,7 +255,7 @@ func hexamine(o *Outcome) (engine.Hazard, bool) {
 	if f < 5*FamilyTraceMolar || n < 5*FamilyTraceMolar || o.PH < 7 {
 		return engine.Hazard{}, false
 	}
-	rh := hexamineReaction.heat(reagent{"HCHO", f * o.VolumeL, 6}, reagent{"NH3", n * o.VolumeL, 4})
+	rh := o.familyHeat("formaldehyde-ammonia-heat", reagent{"HCHO", f * o.VolumeL, 6}, reagent{"NH3", n * o.VolumeL, 4})
 	heat, hot := "", false
 	if rh != nil {
 		heat, hot = heatEstimate(o, rh.ReleasedkJ)
@@ -268,7 +268,7 @@ func hexamine(o *Outcome) (engine.Hazard, bool) {
 	return withHeat(mk("formaldehyde-ammonia-heat", sev,
 		"Formaldehyde ("+fmtNum(f, 2)+" mol/L) with ammonia ("+fmtNum(n, 2)+" mol/L) forms hexamine (6 HCHO + 4 NH3 → C6H12N4 + 6 H2O) quickly and with strong heat, which boils ammonia out of the mix"+heat+".",
 		"Do not combine in one go. If it must be done, run one dilute stream slowly into the other with cooling and extraction.",
-		"Bretherick's Handbook of Reactive Chemical Hazards, formaldehyde with ammonia (from memory); Vogel's Textbook of Practical Organic Chemistry, hexamine (from memory); heat: "+hexamineReaction.source+"; thresholds: common practice, no source"), rh), true
+		"Bretherick's Handbook of Reactive Chemical Hazards, formaldehyde with ammonia (from memory); Vogel's Textbook of Practical Organic Chemistry, hexamine (from memory); heat: data/familyheats.txt; thresholds: common practice, no source"), rh), true
 }
 
 // formaldehydeOCl is the heat of HCHO + OCl- + OH- → HCOO- + Cl- + H2O per
@@ -283,7 +283,7 @@ func formaldehydeHypochlorite(o *Outcome) (engine.Hazard, bool) {
 		return engine.Hazard{}, false
 	}
 	heat, hot := heatEstimate(o, n*o.VolumeL*formaldehydeOCl)
-	rh := formaldehydeOClReaction.heat(reagent{"HCHO", o.MolarBefore("HCHO") * o.VolumeL, 1}, reagent{"OCl-", hypochloriteAny(o) * o.VolumeL, 1})
+	rh := o.familyHeat("formaldehyde-oxidation", reagent{"HCHO", o.MolarBefore("HCHO") * o.VolumeL, 1}, reagent{"OCl-", hypochloriteAny(o) * o.VolumeL, 1})
 	sev := engine.Warning
 	if hot || n >= 0.5 {
 		sev = engine.Danger
@@ -309,7 +309,7 @@ func haloform(o *Outcome) (engine.Hazard, bool) {
 	}
 	n := math.Min(ocl, 3*k) // hypochlorite used
 	heat, hot := heatEstimate(o, n*o.VolumeL*haloformKJ)
-	rh := haloformReaction.heat(reagent{"CH3COCH3", k * o.VolumeL, 1}, reagent{"OCl-", ocl * o.VolumeL, 3})
+	rh := o.familyHeat("chloroform-formation", reagent{"CH3COCH3", k * o.VolumeL, 1}, reagent{"OCl-", ocl * o.VolumeL, 3})
 	sev := engine.Warning
 	if hot || n/3 >= 0.05 {
 		sev = engine.Danger

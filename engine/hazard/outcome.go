@@ -111,6 +111,9 @@ type Outcome struct {
 	Measured map[string]MeasuredGas
 
 	fromState bool // filled from the equilibrium state, whose kinetic locks are applied
+	// families are the reaction enthalpies of the families (Data.Families),
+	// set by Judge.
+	families map[string]*FamilyHeat
 }
 
 // MeasuredGas is a gas as the mixed state has it.

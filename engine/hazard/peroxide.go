@@ -7,15 +7,6 @@ import "mixward/engine"
 // mol/L at 1.0 g/mL). Common practice, no source.
 const AlkalinePeroxideMolar = 2.9
 
-// dfHPeroxideAq is ΔfH° of dissolved hydrogen peroxide and dfHWater of
-// liquid water (NBS Tables 1982, from memory): 2 H2O2 → 2 H2O + O2(g)
-// gives off 2 × 94.7 kJ.
-const dfHPeroxideAq = -191.17
-
-var peroxideDecomposition = familyReaction{"alkaline-peroxide", "2 H2O2 → 2 H2O + O2(g)",
-	2*dfHWater - 2*dfHPeroxideAq,
-	"ΔfH° of dissolved hydrogen peroxide and water (NBS Tables 1982, from memory); all of it counted: the decomposition speeds itself up as it warms"}
-
 // alkalinePeroxide: concentrated hydrogen peroxide made alkaline by a
 // strong base or ammonia (even a little, which takes away the acid that
 // stabilises it, and meets it at high pH where it lands) decomposes to
@@ -31,7 +22,7 @@ func alkalinePeroxide(o *Outcome) (engine.Hazard, bool) {
 	var rh *engine.ReactionHeat
 	for _, h := range o.HeldBack {
 		if h.Lock == "peroxide-self-decomposition" {
-			rh = peroxideDecomposition.heat(reagent{"H2O2", p * o.VolumeL, 2})
+			rh = o.familyHeat("alkaline-peroxide", reagent{"H2O2", p * o.VolumeL, 2})
 		}
 	}
 	o2 := p * o.VolumeL / 2
