@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"mixward/data"
+	"mixward/engine"
 	"mixward/engine/thermo"
 )
 
@@ -82,5 +83,31 @@ func TestFamilyHeatRowsRejected(t *testing.T) {
 	d := &Data{Families: map[string]*FamilyHeat{"x": {Code: "x", Reaction: "C6H12N4 -> C6H12N4", DeltaH: math.NaN(), Stated: math.NaN()}}}
 	if err := d.UseSpecies(nil); err == nil {
 		t.Error("a row neither stated nor given by the species data was accepted")
+	}
+}
+
+// TestFamilyHeatNotTwice: when the mixed state already runs the oxidation
+// of the organic matter (permanganate lifts the organic-carbon lock), the
+// family's heat is not added to the state's again.
+func TestFamilyHeatNotTwice(t *testing.T) {
+	mk := func(runs bool) *Outcome {
+		o := &Outcome{VolumeL: 100, TemperatureC: 25, Heat: Heat{Known: true, ReleasedkJ: 1000, RiseC: 2.4, ReachedC: 27.4}}
+		if runs {
+			o.Reactions = []Proceeding{{Reactants: []engine.Species{{Formula: "MnO4", Charge: -1}, {Formula: "C2H5OH"}}}}
+		}
+		return o
+	}
+	hs := func() []engine.Hazard {
+		return []engine.Hazard{{Code: "oxidizer-organic-fire", ReactionHeat: &engine.ReactionHeat{ReleasedkJ: 5000, Reagents: []string{"MnO4-", "organic liquid"}}}}
+	}
+	o := mk(false)
+	addFamilyHeat(o, hs())
+	if o.Heat.ReleasedkJ != 6000 {
+		t.Errorf("locked organic: released %.0f kJ, want 6000 (1000 + 5000)", o.Heat.ReleasedkJ)
+	}
+	o = mk(true)
+	addFamilyHeat(o, hs())
+	if o.Heat.ReleasedkJ != 1000 || len(o.Heat.Families) != 0 {
+		t.Errorf("state runs the oxidation: released %.0f kJ, families %v; want 1000 and none", o.Heat.ReleasedkJ, o.Heat.Families)
 	}
 }

@@ -5,6 +5,8 @@ import (
 	"sort"
 
 	"mixward/engine"
+	"mixward/engine/chem"
+	"mixward/engine/state"
 )
 
 // The reactions the families name are not run by the equilibrium state
@@ -81,6 +83,13 @@ func addFamilyHeat(o *Outcome, hs []engine.Hazard) {
 	}
 	sort.SliceStable(rh, func(i, j int) bool { return rh[i].ReleasedkJ > rh[j].ReleasedkJ })
 	used := map[string]bool{}
+	if o.runsOrganic() {
+		// The state already oxidizes the organic matter (permanganate
+		// lifts the organic-carbon lock): its heat is in the state's figure.
+		for n := range organicReagents {
+			used[n] = true
+		}
+	}
 	sum := 0.0
 	for _, r := range rh {
 		shared := false
@@ -97,6 +106,9 @@ func addFamilyHeat(o *Outcome, hs []engine.Hazard) {
 		sum += r.ReleasedkJ
 		o.Heat.Families = append(o.Heat.Families, *r)
 	}
+	if len(o.Heat.Families) == 0 {
+		return
+	}
 	h := &o.Heat
 	h.StatekJ = h.ReleasedkJ
 	h.ReleasedkJ += sum
@@ -108,4 +120,21 @@ func addFamilyHeat(o *Outcome, hs []engine.Hazard) {
 		h.RiseC, h.ReachedC = BoilingC-o.TemperatureC, BoilingC
 	}
 	h.Reactions = true
+}
+
+// organicReagents are the reagent names of the families that stand for
+// organic matter.
+var organicReagents = map[string]bool{"organic liquid": true, "HCHO": true, "CH3COCH3": true}
+
+// runsOrganic reports whether a reaction that proceeds in the mixed state
+// uses up an organic compound.
+func (o *Outcome) runsOrganic() bool {
+	for _, r := range o.Reactions {
+		for _, x := range r.Reactants {
+			if at, err := chem.ParseFormula(x.Formula); err == nil && state.IsOrganic(at, x.Ion()) {
+				return true
+			}
+		}
+	}
+	return false
 }
