@@ -122,6 +122,7 @@ func perchlorateEsters(o *Outcome) (engine.Hazard, bool) {
 // alight or boiling: as a solid stream, or as a concentrated solution.
 type strongOxidizer struct {
 	name      string
+	reagent   string   // what it is called when families share it
 	species   []string // dissolved forms, one oxidizing atom each (dichromate counted twice below)
 	solids    []string // chemicals that, poured as a solid, meet the liquid neat
 	electrons float64  // taken up per oxidizing atom
@@ -137,12 +138,12 @@ type strongOxidizer struct {
 }
 
 var strongOxidizers = []strongOxidizer{
-	{name: "Permanganate", species: []string{"MnO4-", "HMnO4"}, solids: []string{"KMnO4", "NaMnO4"}, electrons: 3,
+	{name: "Permanganate", reagent: "MnO4-", species: []string{"MnO4-", "HMnO4"}, solids: []string{"KMnO4", "NaMnO4"}, electrons: 3,
 		solution: 0.2, organic: OrganicLiquidMolar},
-	{name: "Chromic acid", species: []string{"HCrO4-", "H2CrO4", "CrO4^2-", "Cr2O7^2-", "Cr2O7^2-"},
+	{name: "Chromic acid", reagent: "Cr(VI)", species: []string{"HCrO4-", "H2CrO4", "CrO4^2-", "Cr2O7^2-", "Cr2O7^2-"},
 		solids: []string{"CrO3", "K2Cr2O7", "Na2Cr2O7", "Na2Cr2O7.2H2O"}, electrons: 3, solution: 1, acidPH: 1,
 		organic: 5 * FamilyTraceMolar, landsNeat: true},
-	{name: "Hypochlorite", species: []string{"OCl-", "HOCl"}, solids: []string{"Ca(OCl)2", "C3Cl3N3O3", "NaC3Cl2N3O3", "C5H6BrClN2O2", "LiOCl"},
+	{name: "Hypochlorite", reagent: "OCl-", species: []string{"OCl-", "HOCl"}, solids: []string{"Ca(OCl)2", "C3Cl3N3O3", "NaC3Cl2N3O3", "C5H6BrClN2O2", "LiOCl"},
 		electrons: 2, solution: 0.5, organic: OrganicLiquidMolar},
 }
 
@@ -165,6 +166,10 @@ func oxidizerOrganic(o *Outcome) (engine.Hazard, bool) {
 		if !(solid && org >= OrganicLiquidMolar) && !(conc && org >= x.organic) {
 			continue
 		}
+		rh := o.familyHeat("oxidizer-organic-fire", reagent{x.reagent, ox * x.electrons * o.VolumeL, 1}, reagent{"organic liquid", orgE * o.VolumeL, 1})
+		if rh != nil {
+			rh.Reaction = lowerFirst(x.name) + " oxidizing the organic liquid (Thornton's rule, about 104.5 kJ per mol of electrons)"
+		}
 		kJ := math.Min(ox*x.electrons, orgE) * o.VolumeL * ThorntonKJPerElectron
 		heat, hot := heatEstimate(o, kJ)
 		sev := engine.Warning
@@ -175,10 +180,10 @@ func oxidizerOrganic(o *Outcome) (engine.Hazard, bool) {
 		if solid {
 			how = "The solid"
 		}
-		return mk("oxidizer-organic-fire", sev,
+		return withHeat(mk("oxidizer-organic-fire", sev,
 			x.name+" with an organic liquid ("+fmtNum(org, 2)+" mol/L of alcohol, ketone or glycerol): "+lowerFirst(how)+" oxidizes it violently and can set it alight, often after a short delay ("+heat+" from Thornton's rule).",
 			"Do not combine. Keep strong oxidizers (permanganate, chromic acid, hypochlorite and chlorinating granules) away from solvents, alcohols and glycerol; dispose of each separately.",
-			"Bretherick's Handbook of Reactive Chemical Hazards, potassium permanganate with glycerol, chromium trioxide with ethanol, calcium hypochlorite with alcohols (from memory); heat by Thornton's rule, 418 kJ per mol O2 (from memory); thresholds: common practice, no source"), true
+			"Bretherick's Handbook of Reactive Chemical Hazards, potassium permanganate with glycerol, chromium trioxide with ethanol, calcium hypochlorite with alcohols (from memory); heat by Thornton's rule, 418 kJ per mol O2 (from memory); thresholds: common practice, no source"), rh), true
 	}
 	return engine.Hazard{}, false
 }
@@ -231,14 +236,15 @@ func cannizzaro(o *Outcome) (engine.Hazard, bool) {
 	}
 	kJ := math.Min(f, 2*oh) * o.VolumeL * cannizzaroKJ
 	heat, hot := heatEstimate(o, kJ)
+	rh := o.familyHeat("formaldehyde-caustic-heat", reagent{"HCHO", f * o.VolumeL, 2}, reagent{"OH-", oh * o.VolumeL, 1})
 	sev := engine.Warning
 	if hot || f >= 1 {
 		sev = engine.Danger
 	}
-	return mk("formaldehyde-caustic-heat", sev,
+	return withHeat(mk("formaldehyde-caustic-heat", sev,
 		"Formaldehyde ("+fmtNum(f, 2)+" mol/L) in strong caustic ("+fmtNum(oh, 2)+" mol/L hydroxide) turns into formate and methanol (2 HCHO + OH- → HCOO- + CH3OH) quickly, with heat that speeds it up ("+heat+").",
 		"Do not combine. If formaldehyde must be neutralised, do it dilute, cold and slowly, with cooling and venting.",
-		"Bretherick's Handbook of Reactive Chemical Hazards, formaldehyde with alkalis (from memory); heat estimate from ΔfH° of formate, methanol and hydroxide (NBS Tables 1982, from memory) and dissolved formaldehyde about −150 kJ/mol (from memory); thresholds: common practice, no source"), true
+		"Bretherick's Handbook of Reactive Chemical Hazards, formaldehyde with alkalis (from memory); heat estimate from ΔfH° of formate, methanol and hydroxide (NBS Tables 1982, from memory) and dissolved formaldehyde about −150 kJ/mol (from memory); thresholds: common practice, no source"), rh), true
 }
 
 // hexamine: formaldehyde with ammonia gives hexamethylenetetramine
@@ -249,14 +255,20 @@ func hexamine(o *Outcome) (engine.Hazard, bool) {
 	if f < 5*FamilyTraceMolar || n < 5*FamilyTraceMolar || o.PH < 7 {
 		return engine.Hazard{}, false
 	}
+	rh := o.familyHeat("formaldehyde-ammonia-heat", reagent{"HCHO", f * o.VolumeL, 6}, reagent{"NH3", n * o.VolumeL, 4})
+	heat, hot := "", false
+	if rh != nil {
+		heat, hot = heatEstimate(o, rh.ReleasedkJ)
+		heat = "; " + heat
+	}
 	sev := engine.Warning
-	if f >= 1 && n >= 1 {
+	if hot || f >= 1 && n >= 1 {
 		sev = engine.Danger
 	}
-	return mk("formaldehyde-ammonia-heat", sev,
-		"Formaldehyde ("+fmtNum(f, 2)+" mol/L) with ammonia ("+fmtNum(n, 2)+" mol/L) forms hexamine (6 HCHO + 4 NH3 → C6H12N4 + 6 H2O) quickly and with strong heat, which boils ammonia out of the mix (no heat estimate: the product has no formation enthalpy in the tables).",
+	return withHeat(mk("formaldehyde-ammonia-heat", sev,
+		"Formaldehyde ("+fmtNum(f, 2)+" mol/L) with ammonia ("+fmtNum(n, 2)+" mol/L) forms hexamine (6 HCHO + 4 NH3 → C6H12N4 + 6 H2O) quickly and with strong heat, which boils ammonia out of the mix"+heat+".",
 		"Do not combine in one go. If it must be done, run one dilute stream slowly into the other with cooling and extraction.",
-		"Bretherick's Handbook of Reactive Chemical Hazards, formaldehyde with ammonia (from memory); Vogel's Textbook of Practical Organic Chemistry, hexamine (from memory); thresholds: common practice, no source"), true
+		"Bretherick's Handbook of Reactive Chemical Hazards, formaldehyde with ammonia (from memory); Vogel's Textbook of Practical Organic Chemistry, hexamine (from memory); heat: data/familyheats.txt; thresholds: common practice, no source"), rh), true
 }
 
 // formaldehydeOCl is the heat of HCHO + OCl- + OH- → HCOO- + Cl- + H2O per
@@ -271,14 +283,15 @@ func formaldehydeHypochlorite(o *Outcome) (engine.Hazard, bool) {
 		return engine.Hazard{}, false
 	}
 	heat, hot := heatEstimate(o, n*o.VolumeL*formaldehydeOCl)
+	rh := o.familyHeat("formaldehyde-oxidation", reagent{"HCHO", o.MolarBefore("HCHO") * o.VolumeL, 1}, reagent{"OCl-", hypochloriteAny(o) * o.VolumeL, 1})
 	sev := engine.Warning
 	if hot || n >= 0.5 {
 		sev = engine.Danger
 	}
-	return mk("formaldehyde-oxidation", sev,
+	return withHeat(mk("formaldehyde-oxidation", sev,
 		"Hypochlorite oxidizes formaldehyde ("+fmtNum(n, 2)+" mol/L of each can meet) to formate quickly (HCHO + OCl- + OH- → HCOO- + Cl- + H2O), "+heat+".",
 		"Do not combine. Keep formaldehyde products and hypochlorite in separate lines, rinsed between uses.",
-		"Bretherick's Handbook of Reactive Chemical Hazards, sodium hypochlorite with formaldehyde (from memory); heat estimate from ΔfH° (NBS Tables 1982, from memory; dissolved formaldehyde about −150 kJ/mol, from memory); thresholds: common practice, no source"), true
+		"Bretherick's Handbook of Reactive Chemical Hazards, sodium hypochlorite with formaldehyde (from memory); heat estimate from ΔfH° (NBS Tables 1982, from memory; dissolved formaldehyde about −150 kJ/mol, from memory); thresholds: common practice, no source"), rh), true
 }
 
 // haloformKJ is the heat of CH3COCH3 + 3 OCl- → CHCl3 + CH3COO- + 2 OH- per
@@ -296,14 +309,15 @@ func haloform(o *Outcome) (engine.Hazard, bool) {
 	}
 	n := math.Min(ocl, 3*k) // hypochlorite used
 	heat, hot := heatEstimate(o, n*o.VolumeL*haloformKJ)
+	rh := o.familyHeat("chloroform-formation", reagent{"CH3COCH3", k * o.VolumeL, 1}, reagent{"OCl-", ocl * o.VolumeL, 3})
 	sev := engine.Warning
 	if hot || n/3 >= 0.05 {
 		sev = engine.Danger
 	}
-	return mk("chloroform-formation", sev,
+	return withHeat(mk("chloroform-formation", sev,
 		"Hypochlorite with a ketone ("+fmtNum(k, 2)+" mol/L acetone) runs the haloform reaction (CH3COCH3 + 3 OCl- → CHCl3 + CH3COO- + 2 OH-): up to "+fmtNum(n/3*o.VolumeL, 2)+" mol chloroform, toxic and a suspected carcinogen, in the liquid and the vapour; "+heat+".",
 		"Do not combine. Keep solvents out of bleach and bleach out of solvent waste.",
-		"Bretherick's Handbook of Reactive Chemical Hazards, sodium hypochlorite with acetone (from memory); Vogel's Textbook of Practical Organic Chemistry, haloform reaction (from memory); heat estimate from ΔfH° (NBS Tables 1982, from memory); thresholds: common practice, no source"), true
+		"Bretherick's Handbook of Reactive Chemical Hazards, sodium hypochlorite with acetone (from memory); Vogel's Textbook of Practical Organic Chemistry, haloform reaction (from memory); heat estimate from ΔfH° (NBS Tables 1982, from memory); thresholds: common practice, no source"), rh), true
 }
 
 // heavyMetals are the metals whose azides are primary explosives.
