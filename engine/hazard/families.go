@@ -104,8 +104,11 @@ func nitricOrganic(o *Outcome) (engine.Hazard, bool) {
 	if hno3 >= 4 {
 		sev = engine.Danger
 	}
-	_, orgE := organicLiquid(o)
+	_, orgE := organicLiquid(o, true)
 	rh := o.familyHeat("nitric-organic-runaway", reagent{"organic liquid", orgE / 4 * o.VolumeL, 1}, reagent{"HNO3", hno3 * o.VolumeL, 4})
+	if rh != nil && o.MolarBefore("C2H5OH") < orgE/4 {
+		rh.Reaction = "nitric acid oxidizing the organic matter, counted as ethanol equivalents (C2H5OH + 4 H+ + 4 NO3- → CH3COOH + 4 NO2(g) + 3 H2O)"
+	}
 	return withHeat(mk("nitric-organic-runaway", sev,
 		"Nitric acid at "+fmtNum(hno3, 2)+" mol/L with organic matter ("+fmtNum(c, 2)+" mol/L of carbon) oxidizes it after a delay, then runs away with heat and brown nitrogen dioxide fumes; closed containers burst.",
 		"Do not combine. Keep organic products, solvents and rags away from nitric acid; never put them in the same waste drum.",

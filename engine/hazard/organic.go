@@ -5,6 +5,7 @@ import (
 
 	"mixward/engine"
 	"mixward/engine/chem"
+	"mixward/engine/state"
 )
 
 // Reaction families of organic matter with oxidizing agents, acids and
@@ -58,28 +59,63 @@ func heatEstimate(o *Outcome, kJ float64) (string, bool) {
 // ketones are the ketones of the dictionary, as dissolved species.
 var ketones = []string{"CH3COCH3"}
 
-// organicLiquids are the organic liquids of the dictionary with species
-// data, with the electrons one molecule gives up when a strong oxidizing
-// agent takes it to the usual product (methanol to formic acid, ethanol to
-// acetic acid, isopropanol to acetone, glycerol to carbon dioxide,
-// formaldehyde to formic acid). Acetone has its own families (peroxides,
-// haloform).
-var organicLiquids = []struct {
-	species   string
-	electrons float64
-}{
-	{"CH3OH", 4}, {"C2H5OH", 4}, {"(CH3)2CHOH", 2}, {"C3H5(OH)3", 14},
+// organicLiquids are the organic liquids whose usual product with a strong
+// oxidizing agent is known, with the electrons one molecule gives up to it
+// (methanol to formic acid, ethanol to acetic acid, isopropanol to acetone,
+// glycerol to carbon dioxide).
+var organicLiquids = map[string]float64{
+	"CH3OH": 4, "C2H5OH": 4, "(CH3)2CHOH": 2, "C3H5(OH)3": 14,
 }
 
-// organicLiquid is the mol/L of organic liquids and the mol/L of
-// electrons they can give up.
-func organicLiquid(o *Outcome) (molar, electrons float64) {
-	for _, l := range organicLiquids {
-		m := o.MolarBefore(l.species)
-		molar += m
-		electrons += m * l.electrons
+// organicLiquid is the mol/L of organic fuel that a strong oxidizing agent
+// meets (neutral organic molecules and organic cations: solvents, alcohols,
+// glycols, ketones, amines, glycerol; not the anions of organic acids and
+// chelants, which are salts in solution) and the mol/L of electrons they
+// can give up: those of organicLiquids to their usual product, any other
+// burnt right through to carbon dioxide, water and nitrogen (an upper
+// bound). With any false it counts only organicLiquids: a strong oxidizer
+// in solution meets acetone, formaldehyde and urea in their own families
+// (haloform, formaldehyde oxidation, N-chloro compounds).
+func organicLiquid(o *Outcome, any bool) (molar, electrons float64) {
+	for i := range o.Before {
+		a := &o.Before[i]
+		if a.Molar < TraceMolar || a.Species.Charge < 0 {
+			continue
+		}
+		e, ok := organicLiquids[a.key()]
+		if !ok && !any {
+			continue
+		}
+		if !ok {
+			at, err := chem.ParseFormula(a.Species.Formula)
+			if err != nil || !state.IsOrganic(at, a.key()) {
+				continue
+			}
+			e = fuelElectrons(at, a.Species.Charge)
+		}
+		if e <= 0 {
+			continue
+		}
+		molar += a.Molar
+		electrons += a.Molar * e
 	}
 	return molar, electrons
+}
+
+// fuelElectrons is the electrons a species gives up burnt to CO2, H2O,
+// N2, sulfate and halide: the sum of the final oxidation states of its
+// atoms less its charge.
+func fuelElectrons(at chem.Atoms, charge int) float64 {
+	final := map[string]int{"C": 4, "H": 1, "O": -2, "N": 0, "S": 6, "P": 5, "Cl": -1, "Br": -1, "I": -1, "F": -1, "Na": 1, "K": 1}
+	e := -charge
+	for el, n := range at {
+		f, ok := final[el]
+		if !ok {
+			return 0
+		}
+		e += f * n
+	}
+	return float64(e)
 }
 
 // organicPeroxides: ketones with hydrogen peroxide form cyclic ketone
@@ -135,6 +171,10 @@ type strongOxidizer struct {
 	// acid ignites alcohols: Bretherick's Handbook, chromium trioxide, from
 	// memory).
 	landsNeat bool
+	// slow: the oxidizer does not attack the liquid at once in the cold,
+	// but makes a mixture that burns fiercely or explodes once warmed,
+	// dried out (a soaked rag, a crust on the drum) or lit.
+	slow bool
 }
 
 var strongOxidizers = []strongOxidizer{
@@ -145,6 +185,21 @@ var strongOxidizers = []strongOxidizer{
 		organic: 5 * FamilyTraceMolar, landsNeat: true},
 	{name: "Hypochlorite", reagent: "OCl-", species: []string{"OCl-", "HOCl"}, solids: []string{"Ca(OCl)2", "C3Cl3N3O3", "NaC3Cl2N3O3", "C5H6BrClN2O2", "LiOCl"},
 		electrons: 2, solution: 0.5, organic: OrganicLiquidMolar},
+	// Chlorates with organic matter are the classic incendiary mixtures;
+	// a concentrated solution soaks into rags and organic residues that
+	// dry to the same.
+	{name: "Chlorate", reagent: "ClO3-", species: []string{"ClO3-", "HClO3"}, solids: []string{"NaClO3", "KClO3"},
+		electrons: 6, solution: 1, organic: OrganicLiquidMolar, landsNeat: true, slow: true},
+	{name: "Bromate", reagent: "BrO3-", species: []string{"BrO3-"}, solids: []string{"NaBrO3", "KBrO3"},
+		electrons: 6, organic: OrganicLiquidMolar, slow: true},
+	{name: "Perchlorate", reagent: "ClO4-", species: []string{"ClO4-"}, solids: []string{"NaClO4", "KClO4", "NH4ClO4"},
+		electrons: 8, organic: OrganicLiquidMolar, slow: true},
+	{name: "Nitrate", reagent: "NO3-", species: []string{"NO3-"}, solids: []string{"NaNO3", "KNO3", "NH4NO3", "Ca(NO3)2"},
+		electrons: 5, organic: OrganicLiquidMolar, slow: true},
+	{name: "Persulfate", reagent: "S2O8^2-", species: []string{"S2O8^2-"}, solids: []string{"Na2S2O8", "K2S2O8", "(NH4)2S2O8"},
+		electrons: 2, organic: OrganicLiquidMolar, slow: true},
+	{name: "Sodium peroxide", reagent: "O2^2-", species: []string{"HO2-"}, solids: []string{"Na2O2"},
+		electrons: 2, organic: OrganicLiquidMolar},
 }
 
 // ThorntonKJPerElectron is the heat of oxidizing organic matter per
@@ -158,11 +213,11 @@ const ThorntonKJPerElectron = 418.0 / 4
 // or a chloroisocyanurate on an organic liquid ignites, often after a short
 // delay; concentrated chromic acid oxidizes alcohols fast, to the boil.
 func oxidizerOrganic(o *Outcome) (engine.Hazard, bool) {
-	org, orgE := organicLiquid(o)
 	for _, x := range strongOxidizers {
 		ox := o.MolarBefore(x.species...)
 		solid := o.SolidStream(x.solids...)
 		conc := x.solution > 0 && ox >= x.solution && (x.acidPH == 0 || o.PH < x.acidPH)
+		org, orgE := organicLiquid(o, solid || x.slow)
 		if !(solid && org >= OrganicLiquidMolar) && !(conc && org >= x.organic) {
 			continue
 		}
@@ -172,18 +227,28 @@ func oxidizerOrganic(o *Outcome) (engine.Hazard, bool) {
 		}
 		kJ := math.Min(ox*x.electrons, orgE) * o.VolumeL * ThorntonKJPerElectron
 		heat, hot := heatEstimate(o, kJ)
+		if x.slow {
+			// Nothing burns until the mixture is lit or dries out: the
+			// heat is what a fire would give, not what the mix does.
+			rh, hot = nil, false
+			heat = "if it burns, " + heat
+		}
 		sev := engine.Warning
 		if solid || hot || org >= OrganicNeatMolar || conc && x.landsNeat {
 			sev = engine.Danger
 		}
-		how := "A concentrated solution"
+		how := "a concentrated solution"
 		if solid {
-			how = "The solid"
+			how = "the solid"
+		}
+		what := how + " oxidizes it violently and can set it alight, often after a short delay"
+		if x.slow {
+			what = how + " makes with it a mixture that burns fiercely or explodes once warmed, dried out (a soaked rag, a crust on a drum) or lit"
 		}
 		return withHeat(mk("oxidizer-organic-fire", sev,
-			x.name+" with an organic liquid ("+fmtNum(org, 2)+" mol/L of alcohol, ketone or glycerol): "+lowerFirst(how)+" oxidizes it violently and can set it alight, often after a short delay ("+heat+" from Thornton's rule).",
-			"Do not combine. Keep strong oxidizers (permanganate, chromic acid, hypochlorite and chlorinating granules) away from solvents, alcohols and glycerol; dispose of each separately.",
-			"Bretherick's Handbook of Reactive Chemical Hazards, potassium permanganate with glycerol, chromium trioxide with ethanol, calcium hypochlorite with alcohols (from memory); heat by Thornton's rule, 418 kJ per mol O2 (from memory); thresholds: common practice, no source"), rh), true
+			x.name+" with an organic liquid ("+fmtNum(org, 2)+" mol/L of alcohol, solvent, glycol, amine or glycerol): "+what+" ("+heat+" from Thornton's rule).",
+			"Do not combine. Keep strong oxidizers (permanganate, chromic acid, hypochlorite and chlorinating granules, chlorates, bromates, perchlorates, nitrates, persulfates, peroxides) away from solvents, alcohols, amines and glycerol; dispose of each separately.",
+			"Bretherick's Handbook of Reactive Chemical Hazards, potassium permanganate with glycerol, chromium trioxide with ethanol, calcium hypochlorite with alcohols, sodium chlorate with organic matter, nitrates and perchlorates with organic materials, sodium peroxide with organic matter (from memory); heat by Thornton's rule, 418 kJ per mol O2 (from memory); thresholds: common practice, no source"), rh), true
 	}
 	return engine.Hazard{}, false
 }
