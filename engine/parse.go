@@ -34,6 +34,10 @@ type Stream struct {
 	// when not stated. The mix starts at the streams' temperatures averaged
 	// by amount unless the whole mix has one ("at 40 C").
 	TemperatureK *float64
+
+	// shown is the stream as written when the engine has read its amount
+	// differently (readAmounts): the label it keeps.
+	shown string
 }
 
 // Label names the stream for counting: its catalogue tag, or what it
@@ -42,6 +46,9 @@ type Stream struct {
 func (s *Stream) Label() string {
 	if s.Tag != "" {
 		return s.Tag
+	}
+	if s.shown != "" {
+		return s.shown
 	}
 	return s.contents()
 }
