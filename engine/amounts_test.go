@@ -110,6 +110,11 @@ func TestSolutionByMass(t *testing.T) {
 	if notes := strings.Join(byMass.ReadAs, "; "); !strings.Contains(notes, "152 kg of NaOH 50 % read as 99.65 L") {
 		t.Errorf("read-as notes %q do not say how the mass was read", notes)
 	}
+	// 1 t of the lye into 5 m³ of water: 12,500 mol at about 20 kJ/mol.
+	big := ask(t, "mix 1 t NaOH 50 % + 5 m3 water")
+	if perMol := *big.Heat.HeatReleasedkJ / 12500; perMol < 17 || perMol > 23 {
+		t.Errorf("1 t of 50 %% lye: %.1f kJ per mol NaOH, want about 20", perMol)
+	}
 	// A solid with no density table is still a solid.
 	solid := ask(t, "mix 25 kg NaOH + 200 L water")
 	if q := *solid.Heat.HeatReleasedkJ / (25000 / 39.997); q < 40 {
