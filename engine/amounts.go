@@ -100,17 +100,25 @@ func pureIsLiquid(ch *Chemical, t *Tables) bool {
 
 // readSolutionMass turns a mass of a named solution into its volume: a
 // stream given in kg whose chemicals all carry a strength, one of them a
-// % w/w with a density row at that strength. A mass of a solid, or of a
-// chemical without a density table ("20 kg FeSO4 10 %", a share of a solid
-// blend), is left as it is.
+// % w/w with a density row at that strength. A mass of a solid, of a
+// chemical without a density table ("20 kg FeSO4 10 %"), or of a solid blend
+// whose shares leave no water ("NaOH 50 %, Na2CO3 50 %") is left as it is;
+// a liquid sold neat ("10 kg Br2") is read by its volume.
 func readSolutionMass(st *Stream, t *Tables, note func(string, ...any)) {
 	if st.MassKg <= 0 || st.VolumeL > 0 {
 		return
 	}
+	share := 0.0 // % w/w named
 	for _, c := range st.Components {
 		if c.Unit == NoConc && c.Chemical.Formula != "H2O" {
 			return
 		}
+		if c.Unit == PctWW {
+			share += c.Value
+		}
+	}
+	if share >= pureLiquidPct && !(len(st.Components) == 1 && isSoldLiquid(st.Components[0].Chemical, t)) {
+		return // shares of a solid blend ("NaOH 50 %, Na2CO3 50 %"), no water
 	}
 	d, ok := solutionDensity(st, t)
 	if !ok {
@@ -118,6 +126,12 @@ func readSolutionMass(st *Stream, t *Tables, note func(string, ...any)) {
 	}
 	st.VolumeL, st.MassKg = st.MassKg/d, 0
 	note("%s kg of %s read as %s L of it (%.4g kg/L)", trimNum(st.VolumeL*d), st.shown, trimNum(st.VolumeL), d)
+}
+
+// isSoldLiquid reports whether a chemical is read as a liquid as sold.
+func isSoldLiquid(ch *Chemical, t *Tables) bool {
+	_, _, ok := soldStrength(ch, t)
+	return ok
 }
 
 // solutionDensity is the density of the first % w/w component that has a

@@ -115,6 +115,11 @@ func TestSolutionByMass(t *testing.T) {
 	if perMol := *big.Heat.HeatReleasedkJ / 12500; perMol < 17 || perMol > 23 {
 		t.Errorf("1 t of 50 %% lye: %.1f kJ per mol NaOH, want about 20", perMol)
 	}
+	// A solid blend by shares is still a solid: no solution water.
+	blend := ask(t, "mix 100 kg NaOH 50 %, Na2CO3 50 % + 1000 L water")
+	if v := blend.Conditions.VolumeL; math.Abs(v-1000) > 0.5 {
+		t.Errorf("solid blend: mix volume %.1f L, want 1000 (the blend is not a solution)", v)
+	}
 	// A solid with no density table is still a solid.
 	solid := ask(t, "mix 25 kg NaOH + 200 L water")
 	if q := *solid.Heat.HeatReleasedkJ / (25000 / 39.997); q < 40 {
