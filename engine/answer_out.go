@@ -334,7 +334,7 @@ func estimateDfH(mx *state.Mix, sp, water, proton *thermo.Species) float64 {
 		if el == "H" || el == "O" {
 			continue
 		}
-		b := basisSpecies(mx, el, sp.Ox[el])
+		b := basisSpecies(mx, el, sp.Ox[el], sp.Atoms["H"])
 		if b == nil {
 			return math.NaN()
 		}
@@ -354,7 +354,7 @@ func estimateDfH(mx *state.Mix, sp, water, proton *thermo.Species) float64 {
 
 // basisSpecies is the main species with ΔfH° that holds el in state ox and
 // nothing else but H and O (Fe^3+ for iron(III), SO4^2- for sulfur(VI)).
-func basisSpecies(mx *state.Mix, el string, ox float64) *thermo.Species {
+func basisSpecies(mx *state.Mix, el string, ox float64, maxH int) *thermo.Species {
 	var best *thermo.Species
 	for _, sp := range mx.Species {
 		if !sp.HasDfH || sp.Minor || sp.Atoms[el] == 0 || math.Abs(sp.Ox[el]-ox) > 0.01 || len(sp.Atoms) > 3 {
@@ -366,11 +366,33 @@ func basisSpecies(mx *state.Mix, el string, ox float64) *thermo.Species {
 				only = false
 			}
 		}
-		if only && sp.Phase == Aqueous && (best == nil || sp.Atoms.String() < best.Atoms.String()) {
+		if only && sp.Phase == Aqueous && betterBasis(sp, best, maxH) {
 			best = sp
 		}
 	}
 	return best
+}
+
+// betterBasis reports whether sp is a better main species than best for a
+// complex holding maxH hydrogens: the most protonated form that does not
+// hold more hydrogen than the complex (NaSO4- is Na+ + SO4^2-, not
+// Na+ + HSO4- less H+, which would count the heat of taking a proton off
+// HSO4-, about 22 kJ/mol, as the heat of forming the ion pair), ties broken
+// by formula so that the choice does not depend on the species order.
+func betterBasis(sp, best *thermo.Species, maxH int) bool {
+	if best == nil {
+		return true
+	}
+	h, bh := sp.Atoms["H"], best.Atoms["H"]
+	switch {
+	case (h <= maxH) != (bh <= maxH):
+		return h <= maxH
+	case h != bh && h <= maxH:
+		return h > bh
+	case h != bh:
+		return h < bh
+	}
+	return sp.Atoms.String() < best.Atoms.String()
 }
 
 // heatAssumption is stated with every heat estimate.

@@ -162,7 +162,8 @@ func (e *Engine) Predict(req *Request) (*Result, error) { return e.predict(req, 
 // what forms is judged.
 func (e *Engine) PredictBrief(req *Request) (*Result, error) { return e.predict(req, false) }
 
-func (e *Engine) predict(req *Request, full bool) (*Result, error) {
+func (e *Engine) predict(asked *Request, full bool) (*Result, error) {
+	req := readAmounts(asked, e.Tables)
 	m, err := buildMixture(req, e.Tables)
 	if err != nil {
 		var pe *ParseError
@@ -242,13 +243,15 @@ func (e *Engine) solveHot(feed state.Feed, m *mixture) (*state.Mix, error) {
 }
 
 // baseResult holds what every answer carries before any chemistry.
+// req is the request with its amounts read (readAmounts): a mass of a
+// solution is echoed as its volume, and the notes say so.
 func baseResult(req *Request, m *mixture) *Result {
 	res := &Result{
 		Request: req.Text, Alternatives: []Alternative{}, Hazards: []Hazard{}, Cautions: Cautions(),
 		Gases: []GasRelease{}, Steps: []Step{}, Caveats: []string{}, HeldBack: []HeldBack{},
 		FinalComposition: []AmountOf{}, Species: []SpeciesInfo{},
 		Amounts: &Amounts{Consumed: []AmountOf{}, Formed: []AmountOf{}},
-		Notes:   append(append([]string{}, req.Notes...), m.notes...), ReadAs: append([]string{}, req.Notes...),
+		Notes:   append(append([]string{}, req.Notes...), m.notes...), ReadAs: append(append([]string{}, req.Notes...), m.assumed...),
 		Conditions: Conditions{
 			PH: roundDec(m.pH, 2), PHStated: m.pHStated,
 			TemperatureK: roundDec(m.tempK, 2), TemperatureC: roundDec(m.tempK-273.15, 2),

@@ -8,6 +8,7 @@ func FeedOf(e *Engine, text string) (map[string]float64, error) {
 	if err != nil {
 		return nil, err
 	}
+	req = readAmounts(req, e.Tables)
 	m, err := buildMixture(req, e.Tables)
 	if err != nil {
 		return nil, err
@@ -26,4 +27,14 @@ func FeedOf(e *Engine, text string) (map[string]float64, error) {
 		}
 	}
 	return out, nil
+}
+
+// ReadNotes is what readAmounts says of a request: how it read the streams'
+// amounts, before anything is solved.
+func ReadNotes(e *Engine, text string) ([]string, error) {
+	req, err := Parse(text, e.Tables, AskOptions{})
+	if err != nil {
+		return nil, err
+	}
+	return readAmounts(req, e.Tables).Notes[len(req.Notes):], nil
 }

@@ -36,6 +36,10 @@ const (
 	maxPKa     = 25.0
 	minDensity = 0.5 // g/mL; aqueous solutions lie well inside 0.5…2.5
 	maxDensity = 2.5
+	// maxNeatDensity bounds a 100 % row, a liquid sold neat: bromine is
+	// 3.12 g/mL (CRC Handbook, Physical Constants of Inorganic Compounds;
+	// from memory).
+	maxNeatDensity = 3.5
 	// maxDensitySlope bounds the change of density per % w/w between two
 	// neighbouring rows; the steepest real table (sulfuric acid) changes by
 	// about 0.012 g/mL per %, so a larger step is a typing error.
@@ -328,8 +332,12 @@ func (l *loader) strengthDensity(pctText, rhoText string) (pct, rho float64, ok 
 		l.fail("% w/w", pctText, "must be above 0 and at most 100")
 		return 0, 0, false
 	}
-	if rho < minDensity || rho > maxDensity {
-		l.fail("density", rhoText, "must lie between %g and %g g/mL", minDensity, maxDensity)
+	top := maxDensity
+	if pct == 100 {
+		top = maxNeatDensity
+	}
+	if rho < minDensity || rho > top {
+		l.fail("density", rhoText, "must lie between %g and %g g/mL (%g for a neat liquid at 100 %%)", minDensity, maxDensity, maxNeatDensity)
 		return 0, 0, false
 	}
 	return pct, rho, true

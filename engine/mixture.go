@@ -33,6 +33,7 @@ type mixture struct {
 	strongBase  float64 // mol OH- from strong bases before neutralisation
 	neutralised float64 // mol H+ + OH- → H2O
 	notes       []string
+	assumed     []string    // strengths assumed, also in notes: shown in the short answer
 	massKg      float64     // total mass of the mixed liquid and dissolved solids, for heat
 	fict        float64     // charge standing in for streams with a stated pH (see buildMixture)
 	dissolved   []dissolved // solids and near-pure liquids that dissolve into the mix
@@ -52,6 +53,19 @@ func (m *mixture) note(format string, args ...any) {
 		}
 	}
 	m.notes = append(m.notes, n)
+}
+
+// assume notes a strength the engine assumed: the short answer shows it
+// with the request's own readings (Result.ReadAs).
+func (m *mixture) assume(format string, args ...any) {
+	n := fmt.Sprintf(format, args...)
+	for _, x := range m.assumed {
+		if x == n {
+			return
+		}
+	}
+	m.assumed = append(m.assumed, n)
+	m.note("%s", n)
 }
 
 // key indexes the mixture. Dissolved and gaseous forms of one neutral
@@ -238,15 +252,13 @@ func (m *mixture) addStream(st *Stream, si int, t *Tables, seenChem map[string]b
 	return fict, assumed, nil
 }
 
-// neatDensity is the density of a liquid sold neat (a molecular chemical
-// with a 100 % row in data/densities.txt: alcohols, glycols, ketones,
-// amines, solvents): a stream naming it without a concentration is that
-// liquid, not a 1 mol/L solution of it.
+// neatDensity is the density of a liquid sold neat (a 100 % row in
+// data/densities.txt: alcohols, glycols, ketones, amines, solvents, bromine,
+// hydrazine): a stream naming it without a concentration is that liquid, not
+// a 1 mol/L solution of it (see soldStrength).
 func neatDensity(ch *Chemical, t *Tables) (float64, bool) {
-	if ch.Class != Molecular {
-		return 0, false
-	}
-	return t.Density(ch.Formula, 100)
+	pct, d, ok := soldStrength(ch, t)
+	return d, ok && pct >= 100
 }
 
 // isNeat reports whether a component is a liquid sold neat named without a
@@ -323,13 +335,14 @@ func componentMoles(st *Stream, c *Component, vol float64, liquid bool, t *Table
 			m.note("%s given without an amount: present in excess", ch.Formula)
 			return 0, true, nil
 		}
-		if d, ok := neatDensity(ch, t); ok {
-			molar = d * 1000 / mm
-			m.note("no concentration given for %s: read as the neat liquid (%.4g kg/L, %.3g mol/L)", ch.Formula, d, molar)
+		if pct, d, ok := soldStrength(ch, t); ok {
+			// Requests read through readAmounts carry this strength already.
+			molar = pct / 100 * d * 1000 / mm
+			m.note("no concentration given for %s: read as %g %% w/w (%.4g kg/L, %.3g mol/L)", ch.Formula, pct, d, molar)
 			break
 		}
 		molar = 1
-		m.note("no concentration given for %s: 1 mol/L assumed", ch.Formula)
+		m.assume("no concentration given for %s: 1 mol/L assumed; state the strength", ch.Formula)
 	case Molar:
 		molar = c.Value
 	case MilliM:

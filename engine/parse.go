@@ -34,6 +34,10 @@ type Stream struct {
 	// when not stated. The mix starts at the streams' temperatures averaged
 	// by amount unless the whole mix has one ("at 40 C").
 	TemperatureK *float64
+
+	// shown is the stream as written when the engine has read its amount
+	// differently (readAmounts): the label it keeps.
+	shown string
 }
 
 // Label names the stream for counting: its catalogue tag, or what it
@@ -42,6 +46,9 @@ type Stream struct {
 func (s *Stream) Label() string {
 	if s.Tag != "" {
 		return s.Tag
+	}
+	if s.shown != "" {
+		return s.shown
 	}
 	return s.contents()
 }
@@ -390,6 +397,7 @@ func (p *parser) request() (*Request, error) {
 }
 
 func (p *parser) conditions(req *Request) error {
+	start := p.i // at "at"
 	for {
 		tk := p.peek()
 		if tk == nil {
@@ -408,6 +416,9 @@ func (p *parser) conditions(req *Request) error {
 			req.PH = &v
 			continue
 		}
+		if tk.kind != tNumber && isSeparator(tk) && p.i > start+1 {
+			return p.streamAfterConditions(tk, start)
+		}
 		if tk.kind != tNumber {
 			return p.errAt(tk, "bad-condition", "expected a temperature (25 C, 77 F, 298 K), a pressure (2 bar, 150 kPa) or a pH (pH 3) after \"at\", not %q", tk.text)
 		}
@@ -421,6 +432,39 @@ func (p *parser) conditions(req *Request) error {
 			return err
 		}
 	}
+}
+
+// streamAfterConditions is the error for a stream after the whole mix's
+// conditions ("mix 1000 L water at 80 C + 20 kg NaOH"): the grammar keeps
+// "at" for the whole mix, and the error shows the stream form that gives a
+// stream its own temperature ("mix 1000 L water, 80 C + 20 kg NaOH").
+func (p *parser) streamAfterConditions(sep *token, start int) error {
+	runes := []rune(p.text)
+	at, cond := p.toks[start], []string{}
+	toks := p.toks[start+1 : p.i]
+	for k := 0; k+1 < len(toks); k++ {
+		a, b := &toks[k], &toks[k+1]
+		switch {
+		case isWord(a, "ph") && b.kind == tNumber:
+			cond = append(cond, a.text+" "+b.text)
+		case a.kind == tNumber && b.kind == tWord && !isWord(b, "kpa", "mpa", "pa", "bar", "atm", "psi", "mbar"):
+			cond = append(cond, a.text+" "+b.text) // a temperature: a stream can have its own
+		default:
+			continue
+		}
+		k++
+	}
+	if len(cond) == 0 {
+		return p.errAt(sep, "bad-condition", "conditions after \"at\" are the whole mix's and end the request; %q cannot follow them: move \"at …\" to the end", sep.text)
+	}
+	if at.pos < 1 || sep.pos < 1 || sep.pos > len(runes) || at.pos > len(runes) {
+		return p.errAt(sep, "bad-condition", "conditions after \"at\" are the whole mix's and end the request; %q cannot follow them", sep.text)
+	}
+	cs := strings.Join(cond, ", ")
+	fix := strings.TrimSpace(string(runes[:at.pos-1])) + ", " + cs + " " + string(runes[sep.pos-1:])
+	e := p.errAt(sep, "bad-condition", "conditions after \"at\" are the whole mix's and end the request, so %q cannot follow them; for one stream's own temperature or pH put it in the stream: %q (or move the conditions after \"at\" to the end for the whole mix)", sep.text, fix)
+	e.Suggestions = []string{fix}
+	return e
 }
 
 // startTemperature sets the mix's starting temperature from the streams'

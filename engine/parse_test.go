@@ -146,6 +146,12 @@ func TestParseErrors(t *testing.T) {
 		{"NaOCl 12.5 % HCl", "unexpected-token", 14, ""},
 		{"-5 L NaOCl", "bad-amount", 1, ""},
 		{"T-999 + HCl 1 M", "unknown-tag", 1, ""},
+		// A stream after the whole mix's conditions: the stream form that
+		// gives one stream its own temperature is suggested.
+		{"mix 1000 L water at 80 C + 20 kg NaOH", "bad-condition", 26, "mix 1000 L water, 80 C + 20 kg NaOH"},
+		{"mix 1000 L water at 80 C and 2 bar + 20 kg NaOH", "bad-condition", 36, "mix 1000 L water, 80 C + 20 kg NaOH"},
+		{"mix 10 L HCl 1 M at pH 3 with 1 kg Zn", "bad-condition", 26, "mix 10 L HCl 1 M, pH 3 with 1 kg Zn"},
+		{"mix 1000 L water at 2 bar + 20 kg NaOH", "bad-condition", 27, ""},
 	}
 	for _, tc := range cases {
 		t.Run(tc.in, func(t *testing.T) {
@@ -162,6 +168,12 @@ func TestParseErrors(t *testing.T) {
 			}
 			if tc.suggestion != "" && !contains(pe.Suggestions, tc.suggestion) {
 				t.Errorf("ParseRequest(%q) suggestions = %q, want %q among them", tc.in, pe.Suggestions, tc.suggestion)
+			}
+			if pe.Code == "bad-condition" && tc.suggestion != "" {
+				// The suggested request itself parses.
+				if _, err := parse(t, tc.suggestion, func(string) (string, bool) { return "", false }); err != nil {
+					t.Errorf("suggestion %q does not parse: %v", tc.suggestion, err)
+				}
 			}
 		})
 	}

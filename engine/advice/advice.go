@@ -51,6 +51,9 @@ func (a *Advisor) Ask(text string, opt engine.AskOptions) (*engine.Result, error
 
 // Predict answers a parsed request.
 func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
+	// The pour and the concentrate checks work on the amounts as read (a
+	// mass of a solution as its volume), as the prediction does.
+	req = engine.ReadAmounts(req, a.Engine.Tables)
 	res, err := a.Engine.Predict(req)
 	if err != nil {
 		return nil, err

@@ -67,6 +67,38 @@ func TestMiscPours(t *testing.T) {
 			name: "silver cyanide rinse with bleach", req: "mix 100 L KAg(CN)2 0.2 M, NaOH 1 % + 100 L NaOCl 12.5 %",
 			level: engine.WithPrecautions, want: []string{"cyanide-oxidation"},
 		},
+		{
+			// Neat bromine (named without a strength: 10 L × 3.12 kg/L =
+			// 195 mol) into caustic: Br2 + 2 OH- → Br- + OBr- + H2O,
+			// about −41 kJ/mol (NBS Tables 1982, from memory), some 8 MJ;
+			// never "no concern" for neat bromine (NIOSH Pocket Guide,
+			// bromine: IDLH 3 ppm; Bretherick's Handbook, bromine: alkalis,
+			// from memory).
+			name: "neat bromine into caustic", req: "mix 10 L Br2 + 100 L NaOH 20 %",
+			level: engine.WithPrecautions, want: []string{"warms"},
+		},
+		{
+			// Neat hydrazine (5 L × 1.004 kg/L = 157 mol) with 198 mol
+			// hypochlorite: 2 OCl- + N2H4 → N2 + 2 Cl- + 2 H2O on 99 mol,
+			// about −726 kJ each (NBS Tables 1982, from memory), 72 MJ in
+			// 105 L: it boils (Bretherick's Handbook, hydrazine:
+			// hypochlorites, from memory).
+			name: "neat hydrazine with bleach", req: "mix 5 L N2H4 + 100 L NaOCl 12.5 %",
+			level: engine.DoNotMix, want: []string{"boils"},
+		},
+		{
+			// 1 L of neat bromine (19.5 mol) over water: its vapour, at
+			// the precautions of bromine itself.
+			name: "neat bromine into water", req: "mix 1 L Br2 + 100 L water",
+			level: engine.WithPrecautions, want: []string{"bromine-release"},
+		},
+		{
+			// Lye dosed by weight: 1 t of 50 % NaOH is 656 L of it; the
+			// heat is that of diluting it (≈ 20 kJ/mol, NBS Tables 1982),
+			// not of dissolving 12,500 mol of solid NaOH (44.5 kJ/mol).
+			name: "lye by weight into water", req: "mix 1 t NaOH 50 % + 5 m3 water",
+			level: engine.WithPrecautions, want: []string{"warms"},
+		},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			r := ask(t, a, tc.req)

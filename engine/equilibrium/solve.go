@@ -295,6 +295,14 @@ func (ls *lockSolver) update(pt *point) string {
 			isActive[r.lock] = k
 		}
 	}
+	// A violation below a millionth of a micromole per mole of the totals
+	// is rounding: a lock on a trace (1e-13 mol of an intermediate beside
+	// 30 mol of hydrazine) that the rows drop as implied by the balances
+	// would otherwise be added back every round.
+	floor := 1e-300
+	for _, x := range p.Totals {
+		floor = math.Max(floor, 1e-12*math.Abs(x))
+	}
 	var added []string
 	for k, c := range p.Constraints {
 		if _, ok := isActive[k]; ok {
@@ -305,7 +313,7 @@ func (ls *lockSolver) update(pt *point) string {
 			v += a * pt.amt[i]
 			scale += math.Abs(a * pt.amt[i])
 		}
-		if !holds(c.Rel, v, c.Bound, 1e-9*scale+1e-300) {
+		if !holds(c.Rel, v, c.Bound, 1e-9*scale+floor) {
 			ls.active = append(ls.active, k)
 			added = append(added, c.Name+" added")
 		}
