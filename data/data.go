@@ -4,7 +4,8 @@
 // solution densities (densities.txt), the species data (species.txt: standard
 // Gibbs energies and enthalpies of formation, entropies), the chemicals known
 // by name whose data are withheld (withheld.txt) and the tables other parts of
-// the engine read (kinetic locks, hazard rules, formation enthalpies).
+// the engine read (kinetic locks, hazard rules, formation enthalpies, the
+// reaction enthalpies of the hazard families in familyheats.txt).
 // Each file is plain text, one row per line with fields separated by " | "
 // (hazard rules and enthalpies have their own layout), and every row names
 // its source. The package only embeds the files; engine.New reads them,

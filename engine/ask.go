@@ -214,6 +214,7 @@ func (e *Engine) predict(req *Request, full bool) (*Result, error) {
 	res.FinalComposition = compositionOut(mx)
 	res.Gases = gasesOut(mx, formedBy(steps), m.pressureKPa)
 	res.Heat = heatOut(mx, m, e.Tables)
+	e.outsideAqueous(res, m)
 	e.finish(res, m, mx)
 	return res, nil
 }

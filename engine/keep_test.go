@@ -177,7 +177,14 @@ func keepFaults(db *thermo.DB, c *engine.Chemical, res *engine.Result) []string 
 			brought[el] = append(brought[el], ox)
 		}
 		if nonMetals(sig) >= 2 {
-			skeletons = append(skeletons, sig)
+			// the free atoms of an inert carrier (the active chlorine of
+			// trichloroisocyanuric acid) leave it as they dissolve; the
+			// carrier is what must be kept
+			skel := maps.Clone(sig)
+			for el := range sp.Free {
+				delete(skel, el)
+			}
+			skeletons = append(skeletons, skel)
 		}
 	}
 	if c.Formula == "NaOCl" { // the feed adds one NaCl per NaOCl (engine/feed.go: made from chlorine and caustic)

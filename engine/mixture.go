@@ -38,6 +38,10 @@ type mixture struct {
 	dissolved   []dissolved // solids and near-pure liquids that dissolve into the mix
 	solutes     []soluteIn  // solutes with heats of concentrated solution (data/dilution.txt)
 	notAssessed []NotAssessed
+	// water is set when a liquid stream carries water (as water or as a
+	// solution); neatOrganic when a liquid stream is a neat organic liquid.
+	water, neatOrganic bool
+	solidStream        bool // a stream poured as a solid (kg, no volume)
 }
 
 func (m *mixture) note(format string, args ...any) {
@@ -169,6 +173,7 @@ func (m *mixture) addStream(st *Stream, si int, t *Tables, seenChem map[string]b
 	}
 	if st.MassKg > 0 {
 		m.massKg += st.MassKg
+		m.solidStream = m.solidStream || !liquid
 	}
 	if liquid {
 		m.volumeL += vol
@@ -184,6 +189,7 @@ func (m *mixture) addStream(st *Stream, si int, t *Tables, seenChem map[string]b
 			m.chemicals = append(m.chemicals, ch.Formula)
 		}
 		if ch.Formula == "H2O" {
+			m.water = m.water || liquid
 			continue
 		}
 		mol, excess, err := componentMoles(st, c, vol, liquid, t, m)
@@ -195,6 +201,11 @@ func (m *mixture) addStream(st *Stream, si int, t *Tables, seenChem map[string]b
 			m.dissolved = append(m.dissolved, dissolved{chem: ch, mol: mol, phase: Solid})
 		case liquid && isNeat(c, t):
 			m.dissolved = append(m.dissolved, dissolved{chem: ch, mol: mol, phase: Liquid})
+		}
+		if liquid {
+			neat := isNeat(c, t)
+			m.water = m.water || !neat
+			m.neatOrganic = m.neatOrganic || (neat && t.organic(ch.Formula))
 		}
 		for _, g := range ch.Gives {
 			n := mol * float64(g.Coef)

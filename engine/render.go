@@ -52,6 +52,9 @@ func RenderText(r *Result) string {
 	switch {
 	case r.Reaction != nil && onPaper:
 		w("\nNet ionic equation on paper (%d e-), does not run:\n  %s\n", r.Reaction.Electrons, r.Reaction.Text)
+	case r.Reaction != nil && r.OutsideAqueous != "":
+		w("\nNet ionic equation of the aqueous model (%d e-), not what happens here:\n  %s\n", r.Reaction.Electrons, r.Reaction.Text)
+		w("What happens: %s\n", r.OutsideAqueous)
 	case r.Reaction != nil:
 		w("\nNet ionic equation (%d e- transferred):\n  %s\n", r.Reaction.Electrons, r.Reaction.Text)
 	}

@@ -31,6 +31,11 @@ type Result struct {
 	Conditions Conditions `json:"conditions"`
 	Allowance  *Allowance `json:"allowance"`            // kinetic allowance that moved the headline pair, if any
 	Hindered   bool       `json:"kinetically_hindered"` // the headline is spontaneous but kinetically hindered
+	// OutsideAqueous, when set, says what happens instead of the headline
+	// equation: the mix has no water phase (a solid oxidizer in a neat
+	// organic liquid), so the aqueous equation is the model's, not the
+	// tank's.
+	OutsideAqueous string `json:"outside_aqueous,omitempty"`
 
 	Streams []StreamOut `json:"streams"` // the streams as understood, tags resolved
 	Notes   []string    `json:"notes"`   // assumptions made (equal volumes, excess metal, ...)
@@ -225,6 +230,27 @@ type Hazard struct {
 	Action  string      `json:"action,omitempty"`  // what to do
 	Gas     *GasJudged  `json:"gas,omitempty"`     // the gas, in numbers, when the hazard is a gas
 	Heat    *HeatJudged `json:"heat,omitempty"`    // the heat, when the hazard is heat
+	// ReactionHeat is the heat of the reaction a family hazard names
+	// (Cannizzaro, the haloform reaction, an oxidizer with an organic
+	// liquid), which the equilibrium state does not run; the decision's
+	// heat adds it.
+	ReactionHeat *ReactionHeat `json:"reaction_heat,omitempty"`
+}
+
+// ReactionHeat is the heat of a reaction judged as a family: its
+// stoichiometry and reaction enthalpy, run as far as the reagent that runs
+// out first allows. Two families that use up the same reagent are not both
+// counted: the one giving off more heat is (Counted), the other listed.
+type ReactionHeat struct {
+	Code           string   `json:"code"`               // the family's hazard code
+	Reaction       string   `json:"reaction"`           // as written for DeltaHkJPerMol
+	DeltaHkJPerMol float64  `json:"delta_h_kj_per_mol"` // per mol of reaction as written
+	ExtentMol      float64  `json:"extent_mol"`         // mol of reaction as written
+	Limiting       string   `json:"limiting"`           // the reagent that runs out first
+	ReleasedkJ     float64  `json:"released_kj"`        // -DeltaHkJPerMol × ExtentMol
+	Reagents       []string `json:"reagents"`           // what it uses up, for sharing between families
+	Counted        bool     `json:"counted"`            // added to the decision's heat
+	Source         string   `json:"source"`
 }
 
 // GasJudged is a gas hazard in numbers: the amount released and the
@@ -247,6 +273,11 @@ type HeatJudged struct {
 	ReleasedkJ float64 `json:"released_kj"`
 	ReachedC   float64 `json:"reached_c"`
 	Boils      bool    `json:"boils"`
+	// StatekJ is the part of ReleasedkJ from the mixed state (reactions
+	// that proceed, neutralisation, dissolving), given when Reactions adds
+	// the heat of reactions judged as families to it.
+	StatekJ   *float64       `json:"state_kj,omitempty"`
+	Reactions []ReactionHeat `json:"reactions,omitempty"`
 }
 
 // Amounts is the stoichiometry of the headline reaction.
@@ -307,7 +338,12 @@ type Heat struct {
 	// WaterFlashedKg of water boils off.
 	TemperatureReachedC *float64 `json:"temperature_reached_c"`
 	Boils               bool     `json:"boils"`
-	WaterFlashedKg      *float64 `json:"water_flashed_kg,omitempty"`
+	// FamilyReactions are the reactions judged as families (see
+	// ReactionHeat) whose heat the decision adds to HeatReleasedkJ, which
+	// is the mixed state's alone; TotalReleasedkJ is the sum of both.
+	FamilyReactions []ReactionHeat `json:"family_reactions,omitempty"`
+	TotalReleasedkJ *float64       `json:"total_released_kj,omitempty"`
+	WaterFlashedKg  *float64       `json:"water_flashed_kg,omitempty"`
 }
 
 // Step is one follow-on reaction, predicted on what the previous one left.

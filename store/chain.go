@@ -73,6 +73,11 @@ const rowColumnsV7 = `id, kind, time, user_id, user_name, channel, event_id, req
 // siteVersion is the SQLite schema version that brought sites.
 const siteVersion = 8
 
+// hazardBatchVersion is the SQLite schema version from which hazard rows
+// are written with the search index, in batches, up to
+// search_state.indexed_upto (migrations/0010_hazards_batched.sql).
+const hazardBatchVersion = 10
+
 // namesVersion is the SQLite schema version that brought the presses and
 // names tables.
 const namesVersion = 6

@@ -103,7 +103,9 @@ func copyRows(ctx context.Context, src, dst *DB, in, out *sql.Tx, rep *CopyRepor
 		if err := json.Unmarshal([]byte(r.Hazards), &hz); err != nil {
 			return fmt.Errorf("row %d: stored hazards are not a JSON array: %v", r.ID, err)
 		}
-		if !dst.pg { // PostgreSQL's insertRow wrote them
+		// PostgreSQL's insertRow wrote them; on SQLite of schema
+		// hazardBatchVersion and later indexUpTo writes them below.
+		if !dst.pg && dst.ver < hazardBatchVersion {
 			if err := dst.insertHazards(ctx, out, r.ID, hz); err != nil {
 				return fmt.Errorf("row %d: %w", r.ID, err)
 			}

@@ -13,7 +13,9 @@ import (
 // round, and Verify checks them against the rows:
 //
 //   - query_hazards: one row per hazard of each query, in the order of the
-//     hashed hazards JSON (kept for older tools; nothing reads it now);
+//     hashed hazards JSON, read by the hazard search; from schema
+//     hazardBatchVersion on, for the rows up to search_state.indexed_upto
+//     only (written with the search index, in batches);
 //   - query_fts: the search index, whose documents are ftsDocColumns of
 //     each query row up to search_state.indexed_upto;
 //   - search_state: the indexed_upto mark and time_order_broken, which
@@ -26,6 +28,12 @@ import (
 const ftsDocColumns = `q.id, q.request || ' ' || q.resolved, q.species,
 	coalesce((SELECT group_concat(json_extract(j.value, '$.code') || ' ' || json_extract(j.value, '$.message'), ' ')
 	            FROM json_each(q.hazards) j), '')`
+
+// hazardRowColumns are the query_hazards columns (query_id, pos, code,
+// severity, message) of the hazard j of query row q, from json_each over
+// its hashed hazards.
+const hazardRowColumns = `q.id, j.key, json_extract(j.value, '$.code'), json_extract(j.value, '$.severity'),
+	json_extract(j.value, '$.message')`
 
 // ftsDoc returns the indexed text of r: request, species, hazards.
 func ftsDoc(r *row, hz []Hazard) [3]string {
@@ -45,6 +53,7 @@ type derivedCheck struct {
 	hz          *cursor
 	fts         *cursor
 	indexedUpto int64
+	hzBatched   bool // hazard rows only up to indexedUpto (hazardBatchVersion)
 	storedOrder bool // search_state.time_order_broken
 	sawBack     int64
 	lastTime    string
@@ -81,7 +90,7 @@ func (c *cursor) next() error {
 }
 
 func newDerivedCheck(ctx context.Context, tx queryer, ver int, pg bool) (*derivedCheck, error) {
-	d := &derivedCheck{ctx: ctx, tx: tx, enabled: ver >= 2, pg: pg}
+	d := &derivedCheck{ctx: ctx, tx: tx, enabled: ver >= 2, pg: pg, hzBatched: ver >= hazardBatchVersion && !pg}
 	var err error
 	d.hz, err = openCursor(ctx, tx, pg, 4, `SELECT query_id, pos, code, severity, message FROM query_hazards ORDER BY query_id, pos`)
 	if err != nil || !d.enabled {
@@ -154,6 +163,12 @@ func (d *derivedCheck) hazards(id int64, hz []Hazard) (string, error) {
 	c := d.hz
 	if c.ok && c.id < id {
 		return fmt.Sprintf("row %d: hazard rows of query %d remain, which is not in the log (rows deleted outside mixward)", id, c.id), nil
+	}
+	if d.hzBatched && id > d.indexedUpto {
+		if c.ok && c.id == id {
+			return fmt.Sprintf("row %d: has hazard rows but is not indexed yet (added outside mixward)", id), nil
+		}
+		return "", nil
 	}
 	i := 0
 	for ; c.ok && c.id == id; i++ {
@@ -282,8 +297,7 @@ func (db *DB) RebuildDerived(ctx context.Context) error {
 	for _, s := range []string{
 		`DELETE FROM query_hazards`,
 		`INSERT INTO query_hazards (query_id, pos, code, severity, message)
-		 SELECT q.id, j.key, json_extract(j.value, '$.code'), json_extract(j.value, '$.severity'), json_extract(j.value, '$.message')
-		   FROM queries q, json_each(q.hazards) j ORDER BY q.id, j.key`,
+		 SELECT ` + hazardRowColumns + ` FROM queries q, json_each(q.hazards) j ORDER BY q.id, j.key`,
 		`DELETE FROM query_fts`,
 		`INSERT INTO query_fts (docid, request, species, hazards) SELECT ` + ftsDocColumns + ` FROM queries q WHERE q.kind = 'query' ORDER BY q.id`,
 		`INSERT INTO query_fts (query_fts) VALUES ('optimize')`,

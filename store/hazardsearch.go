@@ -15,7 +15,8 @@ import (
 // first, one code at a time and a batch of ids at a time, so a page of a
 // common code reads a few hundred index entries instead of every row that
 // ever had the code; the filters (which include the exact test on the
-// hashed hazards) then run on those rows only.
+// hashed hazards) then run on those rows only. The rows not yet indexed
+// come first, read from their hashed hazards.
 func (db *DB) searchHazards(ctx context.Context, tx *sql.Tx, o SearchOptions, page *SearchPage, cols string, where []string, args []any) error {
 	codes := append([]string{}, o.HazardAny...)
 	if o.Hazard != "" {
@@ -27,8 +28,10 @@ func (db *DB) searchHazards(ctx context.Context, tx *sql.Tx, o SearchOptions, pa
 	}
 	need := page.Offset + page.Limit + 1
 	step := min(max(need, 64), 4096) // doubled each round: most pages need one
-	cursor := int64(math.MaxInt64)
-	var found []*Query
+	found, cursor, err := db.unindexedHazards(ctx, tx, cols, where, args)
+	if err != nil {
+		return err
+	}
 	for len(found) < need {
 		ids, floor, done, err := nextHazardIDs(ctx, tx, codeSQL, codes, cursor, step)
 		if err != nil {
@@ -55,6 +58,27 @@ func (db *DB) searchHazards(ctx context.Context, tx *sql.Tx, o SearchOptions, pa
 		page.NextOffset = page.Offset + page.Limit
 	}
 	return nil
+}
+
+// unindexedHazards returns the queries logged after the last indexing
+// (at most a batch, which have no hazard rows yet: hazardBatchVersion)
+// that match the filters, newest first, and the id below which the
+// hazard rows are complete. The filters hold the exact test on the hashed
+// hazards, so these rows are found as the hazard rows would find them.
+func (db *DB) unindexedHazards(ctx context.Context, tx *sql.Tx, cols string, where []string, args []any) ([]*Query, int64, error) {
+	if db.pg || db.ver < hazardBatchVersion {
+		return nil, math.MaxInt64, nil
+	}
+	var done int64
+	if err := tx.QueryRowContext(ctx, `SELECT indexed_upto FROM search_state`).Scan(&done); err != nil {
+		return nil, 0, err
+	}
+	page := SearchPage{Limit: math.MaxInt32}
+	stmt := `SELECT ` + cols + ` FROM queries q WHERE ` + strings.Join(where, " AND ") + ` AND q.id > ? ORDER BY q.id DESC`
+	if err := readPage(ctx, tx, &page, stmt, append(append([]any{}, args...), done)); err != nil {
+		return nil, 0, err
+	}
+	return page.Queries, done + 1, nil
 }
 
 // nextHazardIDs reads up to step ids below cursor for each code, newest

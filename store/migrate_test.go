@@ -173,7 +173,7 @@ func TestConcurrentOpenOfNewFile(t *testing.T) {
 
 func TestMigrationFilesNumbered(t *testing.T) {
 	for i, m := range migrations {
-		if m.version != i+1 || !strings.HasPrefix(m.name, "000") {
+		if m.version != i+1 || !strings.HasPrefix(m.name, fmt.Sprintf("%04d_", i+1)) {
 			t.Errorf("migration %d = %+v", i, m)
 		}
 		if strings.TrimSpace(m.sql) == "" {
@@ -372,4 +372,87 @@ func TestLevelOfUnusualResult(t *testing.T) {
 			t.Errorf("levels = %+v, want one no-concern (stored) and one do-not-mix (judged from its hazards)", d.Levels)
 		}
 	})
+}
+
+// TestMigrateHazardRowsBatched: a file of version 9 left by a process that
+// stopped before indexing its newest rows (their hazard rows written one
+// by one) migrates to the batched hazard rows: every row is kept, the
+// chain and the derived tables verify, the hazard search finds every row
+// before and after the next batch, and the batch writes the hazard rows of
+// the rows above the mark without clashing with the old ones.
+func TestMigrateHazardRowsBatched(t *testing.T) {
+	ctx := context.Background()
+	c := newClock(t0)
+	path := filepath.Join(t.TempDir(), "v9.db")
+	old, err := openAt(ctx, path, Options{Now: c.Now}, hazardBatchVersion-1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	logN(t, old, c, indexBatch+6)
+	// Stopped without Close, so rows 65-70 stay unindexed.
+	old.ws.close()
+	old.r.Close()
+	old.w.Close()
+	raw := rawDB(t, path)
+	count := func(q string) (n int64) {
+		t.Helper()
+		if err := raw.QueryRow(q).Scan(&n); err != nil {
+			t.Fatal(err)
+		}
+		return n
+	}
+	if n := count(`SELECT count(*) FROM query_hazards WHERE query_id > 64`); n != 12 {
+		t.Fatalf("version 9 file: %d hazard rows above the mark, want 12 (the test needs them)", n)
+	}
+
+	db, err := Open(ctx, path, Options{Now: c.Now})
+	if err != nil {
+		t.Fatalf("Open upgraded file: %v", err)
+	}
+	defer db.Close()
+	if n := count(`SELECT count(*) FROM query_hazards WHERE query_id > (SELECT indexed_upto FROM search_state)`); n != 0 {
+		t.Errorf("after migrating: %d hazard rows above the mark, want 0", n)
+	}
+	hazardSearch := func(when string, want int) {
+		t.Helper()
+		var got []int64
+		o := SearchOptions{Hazard: "cl2-gas", Limit: 50}
+		for {
+			page, err := db.Search(ctx, o)
+			if err != nil {
+				t.Fatalf("%s: Search(--hazard): %v", when, err)
+			}
+			got = append(got, ids(page.Queries)...)
+			if !page.HasMore {
+				break
+			}
+			o.Offset = page.NextOffset
+		}
+		if len(got) != want || got[0] != int64(want) || got[want-1] != 1 {
+			t.Errorf("%s: Search(--hazard) = %d rows %v…; want %d down to 1", when, len(got), got[:min(len(got), 5)], want)
+		}
+	}
+	verify := func(when string, want int) {
+		t.Helper()
+		if rep, err := db.Verify(ctx); err != nil || !rep.OK || rep.Queries != int64(want) {
+			t.Errorf("%s: Verify = %+v, %v", when, rep, err)
+		}
+	}
+	verify("after migrating", indexBatch+6)
+	hazardSearch("after migrating", indexBatch+6)
+
+	logN(t, db, c, indexBatch) // one batch: rows 65-128 get their hazard rows
+	if n := count(`SELECT count(*) FROM query_hazards`); n != 2*2*indexBatch {
+		t.Errorf("after the next batch: %d hazard rows, want %d", n, 2*2*indexBatch)
+	}
+	verify("after the next batch", 2*indexBatch+6)
+	hazardSearch("after the next batch", 2*indexBatch+6)
+
+	// A hazard row added to a row not yet indexed is reported.
+	if _, err := raw.Exec(`INSERT INTO query_hazards (query_id, pos, code, severity, message) VALUES (133, 0, 'HEAT', 'info', 'x')`); err != nil {
+		t.Fatal(err)
+	}
+	if rep, _ := db.Verify(ctx); rep.OK || rep.BrokenID != 133 || !strings.Contains(rep.Problem, "not indexed yet") {
+		t.Errorf("Verify with a hazard row added above the mark = %+v; want row 133 reported", rep)
+	}
 }

@@ -93,9 +93,10 @@ var severities = []string{"info", "warning", "danger"}
 // A query whose EventID is already logged is not written again: the
 // existing id is returned with an error wrapping ErrDuplicate. Text fields
 // are stored as given, except that invalid UTF-8 and NUL bytes become
-// U+FFFD. The full-text index, derived from the log, is brought up to date
-// every indexBatch queries inside the same transaction; Search and Close
-// index the rest first.
+// U+FFFD. The derived rows (the full-text index and the hazard rows) are
+// brought up to date every indexBatch queries inside the same
+// transaction; Search and Close index the rest first, and the hazard
+// search reads the rows not yet indexed from their hashed hazards.
 func (db *DB) LogQuery(ctx context.Context, q *Query) (int64, error) {
 	if q == nil {
 		return 0, fmt.Errorf("log query: %w: nil query", ErrInvalid)
@@ -136,8 +137,10 @@ func (db *DB) LogQuery(ctx context.Context, q *Query) (int64, error) {
 		}
 		return 0, fmt.Errorf("log query: %w", err)
 	}
-	if err := db.insertHazards(ctx, tx, r.ID, q.Hazards); err != nil {
-		return 0, fmt.Errorf("log query: %w", err)
+	if db.ver < hazardBatchVersion { // since then indexUpTo writes them
+		if err := db.insertHazards(ctx, tx, r.ID, q.Hazards); err != nil {
+			return 0, fmt.Errorf("log query: %w", err)
+		}
 	}
 	if err := db.indexUpTo(ctx, tx, r.ID, false); err != nil {
 		return 0, fmt.Errorf("log query: %w", err)
@@ -378,12 +381,14 @@ func (db *DB) insertHazards(ctx context.Context, tx *sql.Tx, id int64, hz []Haza
 	return nil
 }
 
-// indexBatch is how many logged rows may wait for the search index before
-// LogQuery indexes them (in its own transaction, one FTS segment for all).
+// indexBatch is how many logged rows may wait for the search index and
+// their hazard rows before LogQuery writes them (in its own transaction,
+// one FTS segment for all, the hazard rows in one statement).
 const indexBatch = 64
 
-// indexUpTo indexes every query row with id in (indexed_upto, upto] and
-// moves the mark; force indexes even a short backlog.
+// indexUpTo indexes every query row with id in (indexed_upto, upto], writes
+// the hazard rows of every row there (schema hazardBatchVersion and later),
+// and moves the mark; force indexes even a short backlog.
 func (db *DB) indexUpTo(ctx context.Context, tx *sql.Tx, upto int64, force bool) error {
 	if db.pg {
 		return nil // the search column is generated with the row
@@ -394,6 +399,11 @@ func (db *DB) indexUpTo(ctx context.Context, tx *sql.Tx, upto int64, force bool)
 	}
 	if upto <= done || (!force && upto-done < indexBatch) {
 		return nil
+	}
+	if db.ver >= hazardBatchVersion {
+		if _, err := db.ws.hazards.exec(ctx, tx, done, upto); err != nil {
+			return err
+		}
 	}
 	if _, err := db.ws.index.exec(ctx, tx, done, upto); err != nil {
 		return err

@@ -29,6 +29,9 @@ func New(e *engine.Engine, fsys fs.FS) (*Advisor, error) {
 	if err != nil {
 		return nil, err
 	}
+	if err := d.UseSpecies(e.Tables.Thermo); err != nil {
+		return nil, err
+	}
 	a := &Advisor{Engine: e, Gases: d}
 	if w, err := engine.Parse("mix 1 L water", e.Tables, engine.AskOptions{}); err == nil && len(w.Streams) == 1 {
 		a.water = &w.Streams[0]
@@ -55,7 +58,9 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 	o := hazard.FromResult(res, a.Engine.Tables)
 	alone := a.alone(req)
 	res.Hazards = hazard.RelativeFinal(hazard.Judge(o, a.Gases), pick(alone, req.Streams))
-	if o.Heat.Known && o.Heat.RiseC != rise(res) {
+	if o.Heat.Known && len(o.Heat.Families) > 0 {
+		res.Notes = append(res.Notes, fmt.Sprintf("heat counted for the hazards: %.0f kJ, of which %.0f kJ from reactions judged as families (their stoichiometry and reaction enthalpy, limited by the reagent that runs out first)", o.Heat.ReleasedkJ, o.Heat.ReleasedkJ-o.Heat.StatekJ))
+	} else if o.Heat.Known && o.Heat.RiseC != rise(res) {
 		res.Notes = append(res.Notes, fmt.Sprintf("heat counted for the hazards: %.0f kJ, about %+.1f °C (reactions that do not proceed left out)", o.Heat.ReleasedkJ, o.Heat.RiseC))
 	}
 	if o.Named("NaOCl") && !o.Named("NaOH") {
@@ -88,6 +93,14 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 	}
 	if o.Heat.Known {
 		d.Heat = &engine.HeatJudged{ReleasedkJ: round1(o.Heat.ReleasedkJ), ReachedC: round1(o.Heat.ReachedC), Boils: o.Heat.Boils}
+		if len(o.Heat.Families) > 0 {
+			state := round1(o.Heat.StatekJ)
+			d.Heat.StatekJ, d.Heat.Reactions = &state, o.Heat.Families
+			if res.Heat != nil {
+				total := d.Heat.ReleasedkJ
+				res.Heat.FamilyReactions, res.Heat.TotalReleasedkJ = o.Heat.Families, &total
+			}
+		}
 	}
 	res.Decision = &d
 	return res, nil

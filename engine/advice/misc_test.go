@@ -1,6 +1,7 @@
 package advice_test
 
 import (
+	"math"
 	"strings"
 	"testing"
 
@@ -106,18 +107,68 @@ func TestSilverCyanideOxidized(t *testing.T) {
 	}
 }
 
-// TestHeatLineNamesFamilyHeat: when a reaction judged as a family carries
-// its own heat estimate (Cannizzaro: about 71 kJ per formaldehyde, NBS
-// Tables 1982 ΔfH°, from memory), the Heat line says that its figure leaves
-// that reaction out, so "to about 50 °C" does not read as the whole story; a
-// neutralisation, counted in full, says nothing of the kind.
-func TestHeatLineNamesFamilyHeat(t *testing.T) {
+// TestFamilyHeatCounted: a reaction judged as a family (the equilibrium
+// state does not run it) adds its heat, from its stoichiometry and reaction
+// enthalpy limited by the reagent that runs out first, to the decision's
+// heat, so the Heat line agrees with the reason. Hand checks (NBS Tables
+// 1982 ΔfH°, from memory; the formaldehyde, acetone and hexamine values are
+// in engine/hazard/familyheat.go):
+//   - Cannizzaro −141.5 kJ per 2 HCHO: 1232 mol HCHO (37 kg in 100 L read
+//     at 1.00 g/mL) → 616 × 141.5 = 87.2 MJ, boils.
+//   - HCHO + OCl- + OH-: −391.5 kJ, 198 mol OCl- → 77.5 MJ, boils.
+//   - haloform −501 kJ per acetone, 198 mol OCl- / 3 → 33 MJ.
+//   - chromic acid with ethanol, Thornton's rule 104.5 kJ per electron,
+//     163 mol ethanol × 4 e (fewer than 250 mol Cr × 3 e) → 68 MJ, boils.
+//   - nitric acid with ethanol to acetic acid and NO2: −92.8 kJ per
+//     ethanol × 163 mol → 15 MJ.
+//
+// A neutralisation names no family and adds nothing.
+func TestFamilyHeatCounted(t *testing.T) {
 	a := mustAdvisor(t)
-	const note = "not counting the reaction named above"
-	if sh := advice.RenderShort(ask(t, a, "mix 100 L HCHO 37 % + 100 L NaOH 50 %")); !strings.Contains(sh, note) {
-		t.Errorf("formaldehyde with caustic:\n%s", sh)
+	cases := []struct {
+		req      string
+		code     string
+		min, max float64 // kJ of the family reaction
+		boils    bool
+	}{
+		{"mix 100 L HCHO 37 % + 100 L NaOH 50 %", "formaldehyde-caustic-heat", 80e3, 95e3, true},
+		{"mix 100 L HCHO 37 % + 100 L NaOCl 12.5 %", "formaldehyde-oxidation", 70e3, 85e3, true},
+		{"mix 100 L acetone + 100 L NaOCl 12.5 %", "chloroform-formation", 30e3, 37e3, false},
+		{"mix 100 L CrO3 250 g/L + 10 L ethanol", "oxidizer-organic-fire", 60e3, 80e3, true},
+		{"mix 100 L HNO3 68 % + 10 L ethanol", "nitric-organic-runaway", 12e3, 18e3, false},
+		{"mix 100 L HCHO 37 % + 100 L ammonia 25 %", "formaldehyde-ammonia-heat", 40e3, 120e3, true},
+		{"mix 100 L NaOH 10 % + 100 L HCl 10 %", "", 0, 0, false},
 	}
-	if sh := advice.RenderShort(ask(t, a, "mix 100 L NaOH 10 % + 100 L HCl 10 %")); strings.Contains(sh, note) {
-		t.Errorf("neutralisation:\n%s", sh)
+	for _, tc := range cases {
+		r := ask(t, a, tc.req)
+		h := r.Decision.Heat
+		if h == nil {
+			t.Errorf("%s: no heat", tc.req)
+			continue
+		}
+		got := 0.0
+		for _, x := range h.Reactions {
+			if x.Code == tc.code && x.Counted {
+				got += x.ReleasedkJ
+			}
+		}
+		if tc.code == "" {
+			if len(h.Reactions) > 0 {
+				t.Errorf("%s: family heat %+v, want none", tc.req, h.Reactions)
+			}
+			continue
+		}
+		if got < tc.min || got > tc.max {
+			t.Errorf("%s: %s heat %.0f kJ, want %.0f–%.0f", tc.req, tc.code, got, tc.min, tc.max)
+		}
+		if h.StatekJ == nil || math.Abs(h.ReleasedkJ-*h.StatekJ-got) > 1 {
+			t.Errorf("%s: released %.0f kJ is not the state's %v plus the family's %.0f", tc.req, h.ReleasedkJ, h.StatekJ, got)
+		}
+		if h.Boils != tc.boils {
+			t.Errorf("%s: boils %v, want %v", tc.req, h.Boils, tc.boils)
+		}
+		if sh := advice.RenderShort(r); !strings.Contains(sh, "kJ of it from") {
+			t.Errorf("%s: the Heat line does not name the family's part:\n%s", tc.req, sh)
+		}
 	}
 }

@@ -115,23 +115,12 @@ func heatLine(r *engine.Result) string {
 	if h := r.Heat; h != nil && h.LeftOutBoundkJ != nil && r.Decision != nil && r.Decision.Heat != nil {
 		line += fmt.Sprintf(" (%s estimated from a related form; within ±%s kJ)", strings.Join(h.Missing, ", "), num(*h.LeftOutBoundkJ))
 	}
-	if familyHeat(r) {
-		line += "; not counting the reaction named above, whose own heat estimate is in its hazard"
-	}
-	return line
-}
-
-// familyHeat reports whether a hazard judged as a reaction family (one the
-// equilibrium does not model: Cannizzaro, the haloform reaction, oxidizers
-// with organic liquids) carries its own heat estimate, which the counted heat
-// leaves out.
-func familyHeat(r *engine.Result) bool {
-	for _, h := range r.Hazards {
-		if h.Severity != engine.Info && strings.Contains(h.Message, "heat estimate about") {
-			return true
+	if r.Decision != nil && r.Decision.Heat != nil {
+		for _, x := range r.Decision.Heat.Reactions {
+			line += fmt.Sprintf("; %s kJ of it from %s", num(x.ReleasedkJ), x.Reaction)
 		}
 	}
-	return false
+	return line
 }
 
 func heatFigure(r *engine.Result) string {
@@ -154,6 +143,9 @@ func heatFigure(r *engine.Result) string {
 }
 
 func reactionLine(r *engine.Result) string {
+	if r.OutsideAqueous != "" {
+		return "Redox: " + r.OutsideAqueous
+	}
 	if hb := pairHeld(r); hb != nil && (r.Reaction == nil || agents(r.Reaction) < 2) {
 		// The streams meeting is what the operator asks about: a pair held
 		// back heads the line before one agent's own change held back.

@@ -52,6 +52,9 @@ const maxScale = 60
 func (b *balancer) Reduction(ox, red *thermo.Species, key string, med Medium) (thermo.Reaction, error) {
 	terms := []*thermo.Species{ox, red}
 	for _, el := range b.unmatched(ox, red) {
+		if carried(terms[2:], el) {
+			continue // the partner found for another element carries this one too (HOCN for the C and N of SCN-)
+		}
 		p := b.partner(el, key, terms...)
 		if p != nil && contains(terms, p) {
 			continue // one partner carries two elements (CN- for CuCN)
@@ -97,6 +100,16 @@ func (b *balancer) Reduction(ox, red *thermo.Species, key string, med Medium) (t
 		}
 	}
 	return r, nil
+}
+
+// carried reports whether one of terms holds el.
+func carried(terms []*thermo.Species, el string) bool {
+	for _, t := range terms {
+		if t.Atoms[el] > 0 {
+			return true
+		}
+	}
+	return false
 }
 
 // lonely lists the elements other than H and O, beyond the first two terms,

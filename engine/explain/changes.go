@@ -37,7 +37,7 @@ func roundOx(x float64) float64 { return math.Round(x*100) / 100 }
 // redoxElement reports whether the element of a species can change state in
 // the solve: an inert species' non-metals cannot.
 func redoxElement(sp *thermo.Species, el string) bool {
-	return !(sp.Inert && el != "H" && el != "O" && !chem.IsMetal(el))
+	return !(sp.Inert && el != "H" && el != "O" && !chem.IsMetal(el) && !sp.Free[el])
 }
 
 func poolOf(species []*thermo.Species, amount []float64) pool {

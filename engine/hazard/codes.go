@@ -52,6 +52,8 @@ var codes = []Code{
 	{"explosive-residue", "leaves explosive residues on standing", nil},
 	{"hf-burns", "hydrofluoric acid: deep burns and fumes", nil},
 	{"self-heating", "self-heating decomposition", nil},
+	{"silica-gel", "gels, can block lines", nil},
+	{"alkaline-peroxide", "concentrated peroxide made alkaline: oxygen and heat", []string{"oxygen-enrichment"}},
 	// organic, azide and solid-chlorinator families
 	{"co-release", "releases carbon monoxide", []string{"toxic-gas"}},
 	{"hn3-release", "releases hydrazoic acid", []string{"acid-azide", "toxic-gas"}},

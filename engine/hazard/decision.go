@@ -57,17 +57,87 @@ func Decide(final []engine.Hazard, add *engine.Addition) engine.Decision {
 	if add != nil && add.Advice != "" && allW >= 2 {
 		d.Actions = appendNew(d.Actions, add.Advice)
 	}
-	return withLevel(d, level)
+	return withLevel(d, level, final)
 }
 
-func withLevel(d engine.Decision, level int) engine.Decision {
+func withLevel(d engine.Decision, level int, final []engine.Hazard) engine.Decision {
 	switch {
 	case level >= 3:
 		d.Level = engine.DoNotMix
+		if anyRate(final) {
+			d.Actions = withoutRateActions(d.Actions, final)
+		}
 	case level == 2:
 		d.Level = engine.WithPrecautions
 	}
+	if level < 3 {
+		d.Actions = softened(d.Actions)
+	}
 	return d
+}
+
+// anyRate reports whether a danger of the final mix forbids combining the
+// streams at any rate or order of addition: its action begins "Do not
+// combine." or "Do not combine, at any rate" (not "in one go", "in a
+// closed space" or "below pH 10", which name a way that is safe).
+func anyRate(final []engine.Hazard) bool {
+	for _, h := range final {
+		if h.Severity == engine.Danger && (strings.HasPrefix(h.Action, "Do not combine.") || strings.HasPrefix(h.Action, "Do not combine, at any rate")) {
+			return true
+		}
+	}
+	return false
+}
+
+// withoutRateActions drops the actions that suggest a safe way of making
+// the mix (the heat hazards' "run it in slowly with cooling", an order of
+// addition) when a reason not to combine holds at every rate and order.
+func withoutRateActions(actions []string, final []engine.Hazard) []string {
+	drop := map[string]bool{}
+	for _, h := range final {
+		if h.Heat != nil {
+			drop[h.Action] = true
+		}
+	}
+	out := actions[:0:0]
+	for _, a := range actions {
+		if drop[a] || strings.HasPrefix(a, "Add ") || strings.HasPrefix(a, "In sequence:") {
+			continue
+		}
+		out = append(out, a)
+	}
+	return out
+}
+
+// softened rewrites, for a mix that may be combined with precautions or is
+// of no concern, an action that opens with "Do not combine" or "Do not mix":
+// that belongs to a do-not-mix decision only. A qualified clause ("in a
+// closed vessel", "in one go") becomes "Never combine in …"; an unqualified
+// one is dropped and the rest (rinse lines, keep apart, what to do if it has
+// happened) kept; an action with nothing else is dropped.
+func softened(actions []string) []string {
+	out := actions[:0:0]
+	for _, a := range actions {
+		if !strings.HasPrefix(a, "Do not combine") && !strings.HasPrefix(a, "Do not mix") {
+			out = append(out, a)
+			continue
+		}
+		if verb, rest, _ := strings.Cut(strings.TrimPrefix(a, "Do not "), " "); strings.HasPrefix(rest, "in ") || strings.HasPrefix(rest, "outside ") || strings.HasPrefix(rest, "below ") {
+			// A qualified clause names the way that is unsafe: keep it.
+			out = append(out, "Never "+verb+" "+rest)
+			continue
+		}
+		i := strings.IndexAny(a, ".;:")
+		if i < 0 {
+			continue
+		}
+		rest := strings.TrimSpace(a[i+1:])
+		if rest == "" {
+			continue
+		}
+		out = append(out, strings.ToUpper(rest[:1])+rest[1:])
+	}
+	return out
 }
 
 // decideSequence decides a mix of three or four streams by its best
@@ -103,7 +173,7 @@ func decideSequence(d engine.Decision, finalW int, final []engine.Hazard, add *e
 	if add.Advice != "" && allW >= 2 {
 		d.Actions = appendNew(d.Actions, add.Advice)
 	}
-	return withLevel(d, level)
+	return withLevel(d, level, final)
 }
 
 // worseOrderTitle names the worst hazard met in the other order(s).

@@ -19,6 +19,10 @@ var familyRules = []func(o *Outcome) (engine.Hazard, bool){
 	// organic, azide and solid-chlorinator families (organic.go)
 	organicPeroxides, perchlorateEsters, oxidizerOrganic, bisChloromethylEther,
 	cannizzaro, hexamine, formaldehydeHypochlorite, haloform, heavyMetalAzide, mixedChlorinators,
+	// silicate with acid (silica.go)
+	silicaGel,
+	// concentrated peroxide made alkaline (peroxide.go)
+	alkalinePeroxide,
 }
 
 // organicN is the mol/L of organic nitrogen compounds with nitrogen at −3
@@ -100,10 +104,15 @@ func nitricOrganic(o *Outcome) (engine.Hazard, bool) {
 	if hno3 >= 4 {
 		sev = engine.Danger
 	}
-	return mk("nitric-organic-runaway", sev,
+	_, orgE := organicLiquid(o, true)
+	rh := o.familyHeat("nitric-organic-runaway", reagent{"organic liquid", orgE / 4 * o.VolumeL, 1}, reagent{"HNO3", hno3 * o.VolumeL, 4})
+	if rh != nil && o.MolarBefore("C2H5OH") < orgE/4 {
+		rh.Reaction = "nitric acid oxidizing the organic matter, counted as ethanol equivalents (C2H5OH + 4 H+ + 4 NO3- → CH3COOH + 4 NO2(g) + 3 H2O)"
+	}
+	return withHeat(mk("nitric-organic-runaway", sev,
 		"Nitric acid at "+fmtNum(hno3, 2)+" mol/L with organic matter ("+fmtNum(c, 2)+" mol/L of carbon) oxidizes it after a delay, then runs away with heat and brown nitrogen dioxide fumes; closed containers burst.",
 		"Do not combine. Keep organic products, solvents and rags away from nitric acid; never put them in the same waste drum.",
-		"Bretherick's Handbook of Reactive Chemical Hazards, nitric acid with organic compounds (from memory); 2 and 4 mol/L thresholds: common practice, no source"), true
+		"Bretherick's Handbook of Reactive Chemical Hazards, nitric acid with organic compounds (from memory); heat counted for alcohols, glycerol and the like as ethanol equivalents (4 electrons each), from data/familyheats.txt; 2 and 4 mol/L thresholds: common practice, no source"), rh), true
 }
 
 // ammoniumNitrite: ammonium with nitrite decomposes to nitrogen and water,

@@ -33,6 +33,9 @@ type GasData struct {
 type Data struct {
 	Gases map[string]*GasData
 	order []string
+	// Families are the reaction enthalpies of the families, by hazard code
+	// (data/familyheats.txt); see UseSpecies.
+	Families map[string]*FamilyHeat
 }
 
 // Load reads the gas table from fsys (normally data.FS).
@@ -41,7 +44,14 @@ func Load(fsys fs.FS) (*Data, error) {
 	if err != nil {
 		return nil, fmt.Errorf("read gas table: %w", err)
 	}
-	return parseGases(b)
+	d, err := parseGases(b)
+	if err != nil {
+		return nil, err
+	}
+	if d.Families, err = loadFamilyHeats(fsys); err != nil {
+		return nil, err
+	}
+	return d, nil
 }
 
 func parseGases(b []byte) (*Data, error) {

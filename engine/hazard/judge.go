@@ -69,6 +69,14 @@ func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 			continue
 		}
 		ratio := hs.PPM / g.LimitPPM
+		if f == "CO2" {
+			// An asphyxiant, not toxic at low level: judged also by the
+			// amount, spread over a small plant room.
+			ratio = math.Min(ratio, roomPPM(o, p.mol)/g.LimitPPM)
+			if o.PH >= BicarbonatePH {
+				continue
+			}
+		}
 		if !(ratio >= WarningRatio) {
 			continue
 		}
@@ -96,6 +104,30 @@ const DiluteHypochloriteMolar = 0.003
 func diluteHypochlorite(o *Outcome) bool {
 	h := o.MolarBefore("HOCl", "OCl-", "Cl2")
 	return h > 0 && h <= DiluteHypochloriteMolar && !o.StrongAcid && o.PH >= 7
+}
+
+// RoomM3 is the room a gas released by the mix is spread over when its
+// amount, not only the headspace concentration, decides the warning: a
+// small plant room or pit, about 3 × 3.3 × 2.5 m (common practice, no
+// source). Carbon dioxide is judged by the smaller of its headspace ratio
+// and the concentration it would make in that room, both against its
+// NIOSH IDLH (40,000 ppm, NIOSH Pocket Guide): dissolving baking soda
+// (about 2 mol, 0.05 m³) stays quiet, acid on soda ash (about 100 mol,
+// 2.5 m³) does not.
+const RoomM3 = 25.0
+
+// BicarbonatePH is the pH from which carbon dioxide is not judged: a mix
+// that stays as alkaline as bicarbonate itself (pH about 8.3) holds its
+// carbon as bicarbonate and carbonate, and no acid drives the gas out; what
+// its equilibrium pressure gives off is the slow degassing of dissolving
+// baking soda or soda ash, not a release (common practice, no source).
+const BicarbonatePH = 8.0
+
+// roomPPM is the concentration (ppm by volume) mol of gas makes when it
+// all leaves into a room of RoomM3.
+func roomPPM(o *Outcome, mol float64) float64 {
+	l := mol * litreBarPerMolK() * o.TemperatureK() / (o.PressureKPa / 100)
+	return l / (RoomM3 * 1000) * 1e6
 }
 
 func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) engine.Hazard {
@@ -127,6 +159,9 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 	if hs.Vents {
 		msg += " It fills the headspace and the rest vents."
 	}
+	if g.Formula == "CO2" {
+		msg += " Spread over a " + fmtNum(RoomM3, 2) + " m³ room it would make " + fmtNum(roomPPM(o, p.mol), 3) + " ppm (judged by the smaller of the two; an asphyxiant, not toxic at low level)."
+	}
 	src := []string{g.LimitSource, g.HenrySource}
 	src = append(src, p.sources...)
 	return engine.Hazard{
@@ -143,6 +178,7 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 // Judge lists the hazards of an outcome, danger first, then warning, then
 // info; within a severity the worse gas ratio first, then table order.
 func Judge(o *Outcome, d *Data) []engine.Hazard {
+	o.families = d.Families
 	out := judgeGas(o, d)
 	rules := append(presenceRules[:len(presenceRules):len(presenceRules)], familyRules...)
 	rules = append(append(rules, slowRules...), oxygenSurge)
@@ -151,6 +187,7 @@ func Judge(o *Outcome, d *Data) []engine.Hazard {
 			out = append(out, h)
 		}
 	}
+	addFamilyHeat(o, out)
 	out = append(out, judgeHeat(o)...)
 	sort.SliceStable(out, func(i, j int) bool {
 		ri, rj := rank(out[i].Severity), rank(out[j].Severity)

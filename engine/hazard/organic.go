@@ -5,6 +5,7 @@ import (
 
 	"mixward/engine"
 	"mixward/engine/chem"
+	"mixward/engine/state"
 )
 
 // Reaction families of organic matter with oxidizing agents, acids and
@@ -58,28 +59,63 @@ func heatEstimate(o *Outcome, kJ float64) (string, bool) {
 // ketones are the ketones of the dictionary, as dissolved species.
 var ketones = []string{"CH3COCH3"}
 
-// organicLiquids are the organic liquids of the dictionary with species
-// data, with the electrons one molecule gives up when a strong oxidizing
-// agent takes it to the usual product (methanol to formic acid, ethanol to
-// acetic acid, isopropanol to acetone, glycerol to carbon dioxide,
-// formaldehyde to formic acid). Acetone has its own families (peroxides,
-// haloform).
-var organicLiquids = []struct {
-	species   string
-	electrons float64
-}{
-	{"CH3OH", 4}, {"C2H5OH", 4}, {"(CH3)2CHOH", 2}, {"C3H5(OH)3", 14},
+// organicLiquids are the organic liquids whose usual product with a strong
+// oxidizing agent is known, with the electrons one molecule gives up to it
+// (methanol to formic acid, ethanol to acetic acid, isopropanol to acetone,
+// glycerol to carbon dioxide).
+var organicLiquids = map[string]float64{
+	"CH3OH": 4, "C2H5OH": 4, "(CH3)2CHOH": 2, "C3H5(OH)3": 14,
 }
 
-// organicLiquid is the mol/L of organic liquids and the mol/L of
-// electrons they can give up.
-func organicLiquid(o *Outcome) (molar, electrons float64) {
-	for _, l := range organicLiquids {
-		m := o.MolarBefore(l.species)
-		molar += m
-		electrons += m * l.electrons
+// organicLiquid is the mol/L of organic fuel that a strong oxidizing agent
+// meets (neutral organic molecules and organic cations: solvents, alcohols,
+// glycols, ketones, amines, glycerol; not the anions of organic acids and
+// chelants, which are salts in solution) and the mol/L of electrons they
+// can give up: those of organicLiquids to their usual product, any other
+// burnt right through to carbon dioxide, water and nitrogen (an upper
+// bound). With any false it counts only organicLiquids: a strong oxidizer
+// in solution meets acetone, formaldehyde and urea in their own families
+// (haloform, formaldehyde oxidation, N-chloro compounds).
+func organicLiquid(o *Outcome, any bool) (molar, electrons float64) {
+	for i := range o.Before {
+		a := &o.Before[i]
+		if a.Molar < TraceMolar || a.Species.Charge < 0 {
+			continue
+		}
+		e, ok := organicLiquids[a.key()]
+		if !ok && !any {
+			continue
+		}
+		if !ok {
+			at, err := chem.ParseFormula(a.Species.Formula)
+			if err != nil || !state.IsOrganic(at, a.key()) {
+				continue
+			}
+			e = fuelElectrons(at, a.Species.Charge)
+		}
+		if e <= 0 {
+			continue
+		}
+		molar += a.Molar
+		electrons += a.Molar * e
 	}
 	return molar, electrons
+}
+
+// fuelElectrons is the electrons a species gives up burnt to CO2, H2O,
+// N2, sulfate and halide: the sum of the final oxidation states of its
+// atoms less its charge.
+func fuelElectrons(at chem.Atoms, charge int) float64 {
+	final := map[string]int{"C": 4, "H": 1, "O": -2, "N": 0, "S": 6, "P": 5, "Cl": -1, "Br": -1, "I": -1, "F": -1, "Na": 1, "K": 1}
+	e := -charge
+	for el, n := range at {
+		f, ok := final[el]
+		if !ok {
+			return 0
+		}
+		e += f * n
+	}
+	return float64(e)
 }
 
 // organicPeroxides: ketones with hydrogen peroxide form cyclic ketone
@@ -122,6 +158,7 @@ func perchlorateEsters(o *Outcome) (engine.Hazard, bool) {
 // alight or boiling: as a solid stream, or as a concentrated solution.
 type strongOxidizer struct {
 	name      string
+	reagent   string   // what it is called when families share it
 	species   []string // dissolved forms, one oxidizing atom each (dichromate counted twice below)
 	solids    []string // chemicals that, poured as a solid, meet the liquid neat
 	electrons float64  // taken up per oxidizing atom
@@ -134,16 +171,35 @@ type strongOxidizer struct {
 	// acid ignites alcohols: Bretherick's Handbook, chromium trioxide, from
 	// memory).
 	landsNeat bool
+	// slow: the oxidizer does not attack the liquid at once in the cold,
+	// but makes a mixture that burns fiercely or explodes once warmed,
+	// dried out (a soaked rag, a crust on the drum) or lit.
+	slow bool
 }
 
 var strongOxidizers = []strongOxidizer{
-	{name: "Permanganate", species: []string{"MnO4-", "HMnO4"}, solids: []string{"KMnO4", "NaMnO4"}, electrons: 3,
+	{name: "Permanganate", reagent: "MnO4-", species: []string{"MnO4-", "HMnO4"}, solids: []string{"KMnO4", "NaMnO4"}, electrons: 3,
 		solution: 0.2, organic: OrganicLiquidMolar},
-	{name: "Chromic acid", species: []string{"HCrO4-", "H2CrO4", "CrO4^2-", "Cr2O7^2-", "Cr2O7^2-"},
+	{name: "Chromic acid", reagent: "Cr(VI)", species: []string{"HCrO4-", "H2CrO4", "CrO4^2-", "Cr2O7^2-", "Cr2O7^2-"},
 		solids: []string{"CrO3", "K2Cr2O7", "Na2Cr2O7", "Na2Cr2O7.2H2O"}, electrons: 3, solution: 1, acidPH: 1,
 		organic: 5 * FamilyTraceMolar, landsNeat: true},
-	{name: "Hypochlorite", species: []string{"OCl-", "HOCl"}, solids: []string{"Ca(OCl)2", "C3Cl3N3O3", "NaC3Cl2N3O3", "C5H6BrClN2O2", "LiOCl"},
+	{name: "Hypochlorite", reagent: "OCl-", species: []string{"OCl-", "HOCl"}, solids: []string{"Ca(OCl)2", "C3Cl3N3O3", "NaC3Cl2N3O3", "C5H6BrClN2O2", "LiOCl"},
 		electrons: 2, solution: 0.5, organic: OrganicLiquidMolar},
+	// Chlorates with organic matter are the classic incendiary mixtures;
+	// a concentrated solution soaks into rags and organic residues that
+	// dry to the same.
+	{name: "Chlorate", reagent: "ClO3-", species: []string{"ClO3-", "HClO3"}, solids: []string{"NaClO3", "KClO3"},
+		electrons: 6, solution: 1, organic: OrganicLiquidMolar, landsNeat: true, slow: true},
+	{name: "Bromate", reagent: "BrO3-", species: []string{"BrO3-"}, solids: []string{"NaBrO3", "KBrO3"},
+		electrons: 6, organic: OrganicLiquidMolar, slow: true},
+	{name: "Perchlorate", reagent: "ClO4-", species: []string{"ClO4-"}, solids: []string{"NaClO4", "KClO4", "NH4ClO4"},
+		electrons: 8, organic: OrganicLiquidMolar, slow: true},
+	{name: "Nitrate", reagent: "NO3-", species: []string{"NO3-"}, solids: []string{"NaNO3", "KNO3", "NH4NO3", "Ca(NO3)2"},
+		electrons: 5, organic: OrganicLiquidMolar, slow: true},
+	{name: "Persulfate", reagent: "S2O8^2-", species: []string{"S2O8^2-"}, solids: []string{"Na2S2O8", "K2S2O8", "(NH4)2S2O8"},
+		electrons: 2, organic: OrganicLiquidMolar, slow: true},
+	{name: "Sodium peroxide", reagent: "O2^2-", species: []string{"HO2-"}, solids: []string{"Na2O2"},
+		electrons: 2, organic: OrganicLiquidMolar},
 }
 
 // ThorntonKJPerElectron is the heat of oxidizing organic matter per
@@ -157,28 +213,42 @@ const ThorntonKJPerElectron = 418.0 / 4
 // or a chloroisocyanurate on an organic liquid ignites, often after a short
 // delay; concentrated chromic acid oxidizes alcohols fast, to the boil.
 func oxidizerOrganic(o *Outcome) (engine.Hazard, bool) {
-	org, orgE := organicLiquid(o)
 	for _, x := range strongOxidizers {
 		ox := o.MolarBefore(x.species...)
 		solid := o.SolidStream(x.solids...)
 		conc := x.solution > 0 && ox >= x.solution && (x.acidPH == 0 || o.PH < x.acidPH)
+		org, orgE := organicLiquid(o, solid || x.slow)
 		if !(solid && org >= OrganicLiquidMolar) && !(conc && org >= x.organic) {
 			continue
 		}
+		rh := o.familyHeat("oxidizer-organic-fire", reagent{x.reagent, ox * x.electrons * o.VolumeL, 1}, reagent{"organic liquid", orgE * o.VolumeL, 1})
+		if rh != nil {
+			rh.Reaction = lowerFirst(x.name) + " oxidizing the organic liquid (Thornton's rule, about 104.5 kJ per mol of electrons)"
+		}
 		kJ := math.Min(ox*x.electrons, orgE) * o.VolumeL * ThorntonKJPerElectron
 		heat, hot := heatEstimate(o, kJ)
+		if x.slow {
+			// Nothing burns until the mixture is lit or dries out: the
+			// heat is what a fire would give, not what the mix does.
+			rh, hot = nil, false
+			heat = "if it burns, " + heat
+		}
 		sev := engine.Warning
 		if solid || hot || org >= OrganicNeatMolar || conc && x.landsNeat {
 			sev = engine.Danger
 		}
-		how := "A concentrated solution"
+		how := "a concentrated solution"
 		if solid {
-			how = "The solid"
+			how = "the solid"
 		}
-		return mk("oxidizer-organic-fire", sev,
-			x.name+" with an organic liquid ("+fmtNum(org, 2)+" mol/L of alcohol, ketone or glycerol): "+lowerFirst(how)+" oxidizes it violently and can set it alight, often after a short delay ("+heat+" from Thornton's rule).",
-			"Do not combine. Keep strong oxidizers (permanganate, chromic acid, hypochlorite and chlorinating granules) away from solvents, alcohols and glycerol; dispose of each separately.",
-			"Bretherick's Handbook of Reactive Chemical Hazards, potassium permanganate with glycerol, chromium trioxide with ethanol, calcium hypochlorite with alcohols (from memory); heat by Thornton's rule, 418 kJ per mol O2 (from memory); thresholds: common practice, no source"), true
+		what := how + " oxidizes it violently and can set it alight, often after a short delay"
+		if x.slow {
+			what = how + " makes with it a mixture that burns fiercely or explodes once warmed, dried out (a soaked rag, a crust on a drum) or lit"
+		}
+		return withHeat(mk("oxidizer-organic-fire", sev,
+			x.name+" with an organic liquid ("+fmtNum(org, 2)+" mol/L of alcohol, solvent, glycol, amine or glycerol): "+what+" ("+heat+" from Thornton's rule).",
+			"Do not combine. Keep strong oxidizers (permanganate, chromic acid, hypochlorite and chlorinating granules, chlorates, bromates, perchlorates, nitrates, persulfates, peroxides) away from solvents, alcohols, amines and glycerol; dispose of each separately.",
+			"Bretherick's Handbook of Reactive Chemical Hazards, potassium permanganate with glycerol, chromium trioxide with ethanol, calcium hypochlorite with alcohols, sodium chlorate with organic matter, nitrates and perchlorates with organic materials, sodium peroxide with organic matter (from memory); heat by Thornton's rule, 418 kJ per mol O2 (from memory); thresholds: common practice, no source"), rh), true
 	}
 	return engine.Hazard{}, false
 }
@@ -231,14 +301,15 @@ func cannizzaro(o *Outcome) (engine.Hazard, bool) {
 	}
 	kJ := math.Min(f, 2*oh) * o.VolumeL * cannizzaroKJ
 	heat, hot := heatEstimate(o, kJ)
+	rh := o.familyHeat("formaldehyde-caustic-heat", reagent{"HCHO", f * o.VolumeL, 2}, reagent{"OH-", oh * o.VolumeL, 1})
 	sev := engine.Warning
 	if hot || f >= 1 {
 		sev = engine.Danger
 	}
-	return mk("formaldehyde-caustic-heat", sev,
+	return withHeat(mk("formaldehyde-caustic-heat", sev,
 		"Formaldehyde ("+fmtNum(f, 2)+" mol/L) in strong caustic ("+fmtNum(oh, 2)+" mol/L hydroxide) turns into formate and methanol (2 HCHO + OH- → HCOO- + CH3OH) quickly, with heat that speeds it up ("+heat+").",
 		"Do not combine. If formaldehyde must be neutralised, do it dilute, cold and slowly, with cooling and venting.",
-		"Bretherick's Handbook of Reactive Chemical Hazards, formaldehyde with alkalis (from memory); heat estimate from ΔfH° of formate, methanol and hydroxide (NBS Tables 1982, from memory) and dissolved formaldehyde about −150 kJ/mol (from memory); thresholds: common practice, no source"), true
+		"Bretherick's Handbook of Reactive Chemical Hazards, formaldehyde with alkalis (from memory); heat estimate from ΔfH° of formate, methanol and hydroxide (NBS Tables 1982, from memory) and dissolved formaldehyde about −150 kJ/mol (from memory); thresholds: common practice, no source"), rh), true
 }
 
 // hexamine: formaldehyde with ammonia gives hexamethylenetetramine
@@ -249,14 +320,20 @@ func hexamine(o *Outcome) (engine.Hazard, bool) {
 	if f < 5*FamilyTraceMolar || n < 5*FamilyTraceMolar || o.PH < 7 {
 		return engine.Hazard{}, false
 	}
+	rh := o.familyHeat("formaldehyde-ammonia-heat", reagent{"HCHO", f * o.VolumeL, 6}, reagent{"NH3", n * o.VolumeL, 4})
+	heat, hot := "", false
+	if rh != nil {
+		heat, hot = heatEstimate(o, rh.ReleasedkJ)
+		heat = "; " + heat
+	}
 	sev := engine.Warning
-	if f >= 1 && n >= 1 {
+	if hot || f >= 1 && n >= 1 {
 		sev = engine.Danger
 	}
-	return mk("formaldehyde-ammonia-heat", sev,
-		"Formaldehyde ("+fmtNum(f, 2)+" mol/L) with ammonia ("+fmtNum(n, 2)+" mol/L) forms hexamine (6 HCHO + 4 NH3 → C6H12N4 + 6 H2O) quickly and with strong heat, which boils ammonia out of the mix (no heat estimate: the product has no formation enthalpy in the tables).",
+	return withHeat(mk("formaldehyde-ammonia-heat", sev,
+		"Formaldehyde ("+fmtNum(f, 2)+" mol/L) with ammonia ("+fmtNum(n, 2)+" mol/L) forms hexamine (6 HCHO + 4 NH3 → C6H12N4 + 6 H2O) quickly and with strong heat, which boils ammonia out of the mix"+heat+".",
 		"Do not combine in one go. If it must be done, run one dilute stream slowly into the other with cooling and extraction.",
-		"Bretherick's Handbook of Reactive Chemical Hazards, formaldehyde with ammonia (from memory); Vogel's Textbook of Practical Organic Chemistry, hexamine (from memory); thresholds: common practice, no source"), true
+		"Bretherick's Handbook of Reactive Chemical Hazards, formaldehyde with ammonia (from memory); Vogel's Textbook of Practical Organic Chemistry, hexamine (from memory); heat: data/familyheats.txt; thresholds: common practice, no source"), rh), true
 }
 
 // formaldehydeOCl is the heat of HCHO + OCl- + OH- → HCOO- + Cl- + H2O per
@@ -271,14 +348,15 @@ func formaldehydeHypochlorite(o *Outcome) (engine.Hazard, bool) {
 		return engine.Hazard{}, false
 	}
 	heat, hot := heatEstimate(o, n*o.VolumeL*formaldehydeOCl)
+	rh := o.familyHeat("formaldehyde-oxidation", reagent{"HCHO", o.MolarBefore("HCHO") * o.VolumeL, 1}, reagent{"OCl-", hypochloriteAny(o) * o.VolumeL, 1})
 	sev := engine.Warning
 	if hot || n >= 0.5 {
 		sev = engine.Danger
 	}
-	return mk("formaldehyde-oxidation", sev,
+	return withHeat(mk("formaldehyde-oxidation", sev,
 		"Hypochlorite oxidizes formaldehyde ("+fmtNum(n, 2)+" mol/L of each can meet) to formate quickly (HCHO + OCl- + OH- → HCOO- + Cl- + H2O), "+heat+".",
 		"Do not combine. Keep formaldehyde products and hypochlorite in separate lines, rinsed between uses.",
-		"Bretherick's Handbook of Reactive Chemical Hazards, sodium hypochlorite with formaldehyde (from memory); heat estimate from ΔfH° (NBS Tables 1982, from memory; dissolved formaldehyde about −150 kJ/mol, from memory); thresholds: common practice, no source"), true
+		"Bretherick's Handbook of Reactive Chemical Hazards, sodium hypochlorite with formaldehyde (from memory); heat estimate from ΔfH° (NBS Tables 1982, from memory; dissolved formaldehyde about −150 kJ/mol, from memory); thresholds: common practice, no source"), rh), true
 }
 
 // haloformKJ is the heat of CH3COCH3 + 3 OCl- → CHCl3 + CH3COO- + 2 OH- per
@@ -296,14 +374,15 @@ func haloform(o *Outcome) (engine.Hazard, bool) {
 	}
 	n := math.Min(ocl, 3*k) // hypochlorite used
 	heat, hot := heatEstimate(o, n*o.VolumeL*haloformKJ)
+	rh := o.familyHeat("chloroform-formation", reagent{"CH3COCH3", k * o.VolumeL, 1}, reagent{"OCl-", ocl * o.VolumeL, 3})
 	sev := engine.Warning
 	if hot || n/3 >= 0.05 {
 		sev = engine.Danger
 	}
-	return mk("chloroform-formation", sev,
+	return withHeat(mk("chloroform-formation", sev,
 		"Hypochlorite with a ketone ("+fmtNum(k, 2)+" mol/L acetone) runs the haloform reaction (CH3COCH3 + 3 OCl- → CHCl3 + CH3COO- + 2 OH-): up to "+fmtNum(n/3*o.VolumeL, 2)+" mol chloroform, toxic and a suspected carcinogen, in the liquid and the vapour; "+heat+".",
 		"Do not combine. Keep solvents out of bleach and bleach out of solvent waste.",
-		"Bretherick's Handbook of Reactive Chemical Hazards, sodium hypochlorite with acetone (from memory); Vogel's Textbook of Practical Organic Chemistry, haloform reaction (from memory); heat estimate from ΔfH° (NBS Tables 1982, from memory); thresholds: common practice, no source"), true
+		"Bretherick's Handbook of Reactive Chemical Hazards, sodium hypochlorite with acetone (from memory); Vogel's Textbook of Practical Organic Chemistry, haloform reaction (from memory); heat estimate from ΔfH° (NBS Tables 1982, from memory); thresholds: common practice, no source"), rh), true
 }
 
 // heavyMetals are the metals whose azides are primary explosives.
@@ -391,7 +470,10 @@ var chlorinatorSolubility = map[string]struct {
 }
 
 // undissolved says how much of a slowly soluble chlorinator stays solid
-// in the mix, or "" when it all dissolves.
+// in the mix, or "" when it all dissolves. The state caps the dissolved
+// part by the solid's own row in species.txt (derived from the same
+// solubility), so the amounts and pH of the answer are those of the
+// saturated solution over the rest.
 func undissolved(o *Outcome) (string, string) {
 	for f, kg := range o.SolidKg {
 		s, ok := chlorinatorSolubility[f]
@@ -403,9 +485,20 @@ func undissolved(o *Outcome) (string, string) {
 			continue
 		}
 		return " Only about " + fmtNum(dis, 2) + " kg of the " + fmtNum(kg, 3) + " kg of " + s.name + " dissolves in " + fmtNum(o.VolumeL, 3) +
-			" L (solubility about " + fmtNum(s.gPerL, 2) + " g/L); the rest stays as solid, and the figures of this answer count it all as dissolved.", s.source
+			" L (solubility about " + fmtNum(s.gPerL, 2) + " g/L); the rest stays as solid" + solidLeft(o, f) + ", and the figures of this answer count only what dissolves.", s.source
 	}
 	return "", ""
+}
+
+// solidLeft is " (N mol in the mixed state)" for the solid f the mixed state
+// still holds, or "".
+func solidLeft(o *Outcome, f string) string {
+	for _, a := range o.After {
+		if a.Species.Text() == f+"(s)" && a.Mol > 0 {
+			return " (" + fmtNum(a.Mol, 3) + " mol in the mixed state)"
+		}
+	}
+	return ""
 }
 
 // SulfuricDehydratingMolar is the sulfuric acid in the mix (mol/L, about

@@ -75,6 +75,10 @@ type Heat struct {
 	ReachedC   float64 // starting temperature plus the rise
 	Boils      bool    // reached the boiling point of the liquid
 	Reactions  bool    // the heat includes reactions (not only neutralisation and dissolving)
+	// Families are the reactions judged as families whose heat is added to
+	// ReleasedkJ; StatekJ is what the state gave before them.
+	Families []engine.ReactionHeat
+	StatekJ  float64
 }
 
 // Outcome is what forms when the streams are combined: the view the hazard
@@ -107,6 +111,9 @@ type Outcome struct {
 	Measured map[string]MeasuredGas
 
 	fromState bool // filled from the equilibrium state, whose kinetic locks are applied
+	// families are the reaction enthalpies of the families (Data.Families),
+	// set by Judge.
+	families map[string]*FamilyHeat
 }
 
 // MeasuredGas is a gas as the mixed state has it.

@@ -54,10 +54,34 @@ func chloramines(o *Outcome) (engine.Hazard, bool) {
 	if nh2cl := math.Max(o.Molar("NH2Cl"), o.MolarBefore("NH2Cl")); nh2cl >= 1e-4 {
 		formed = " The mix holds " + fmtNum(nh2cl, 2) + " mol/L monochloramine (NH2Cl)."
 	}
+	act := "Do not combine; rinse lines between chlorinated and ammoniated products. If it has happened, leave and ventilate."
+	ratio := ClNWeightRatio(o)
+	if sev == engine.Warning && ratio < MonochloramineRatio {
+		// Chloramination: ammonia dosed first, then chlorine below 5:1 by
+		// weight, gives monochloramine on purpose.
+		formed += " The Cl2:NH3-N weight ratio is " + fmtNum(ratio, 2) + ":1, in the monochloramine region (below 5:1)."
+		act = "Dose the ammonia first, then the hypochlorite, into the water, and keep the Cl2:N weight ratio below 5:1 (above it dichloramine and nitrogen trichloride form); never let the concentrates meet neat, and rinse lines between chlorinated and ammoniated products."
+	}
 	return mk("chloramine-release", sev,
 		"Hypochlorite with ammonia or ammonium forms chloramines ("+fmtNum(n, 2)+" mol/L of each can meet): toxic, choking gases."+formed,
-		"Do not combine; rinse lines between chlorinated and ammoniated products. If it has happened, leave and ventilate.",
-		"chloramine formation by pH: White's Handbook of Chlorination and Alternative Disinfectants (from memory); 0.01 mol/L threshold for danger: common practice, no source"), true
+		act,
+		"chloramine formation by pH and the 5:1 Cl2:N weight ratio of monochloramine: White's Handbook of Chlorination and Alternative Disinfectants, chloramination (from memory); 0.01 mol/L threshold for danger: common practice, no source"), true
+}
+
+// MonochloramineRatio is the Cl2:NH3-N weight ratio below which chlorine
+// dosed into ammoniated water forms monochloramine (White's Handbook of
+// Chlorination, chloramination and the breakpoint curve, from memory).
+const MonochloramineRatio = 5.0
+
+// ClNWeightRatio is the weight ratio of active chlorine (as Cl2, 70.90
+// g/mol) to ammonia nitrogen (14.007 g/mol) that can meet in the mix
+// (IUPAC CIAAW atomic weights); +Inf without ammonia.
+func ClNWeightRatio(o *Outcome) float64 {
+	n := ammoniaAny(o)
+	if n <= 0 {
+		return math.Inf(1)
+	}
+	return activeChlorine(o) * 70.90 / (n * 14.007)
 }
 
 // nitrogenTrichloride: hypochlorite with ammonium or urea below about pH 4.5

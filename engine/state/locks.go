@@ -60,6 +60,10 @@ type Group struct {
 	Lo, Hi  float64
 	Above   bool // X(>a): atoms above state a, each counted at most once per unit of state (see Weight)
 	Organic bool
+	// Without, when set, leaves out species holding that element: N(-3
+	// without C) is ammonia, ammonium and their complexes, not the nitrogen
+	// of cyanide, cyanate, thiocyanate or amines.
+	Without string
 	Species []string // species texts; when set, Element is unused
 	// Per is the count of each listed species (1 unless the list writes a
 	// number before it: {N2, 2 CO(NH2)2} counts a urea as two units, the
@@ -82,7 +86,7 @@ func (g Group) Weight(sp *thermo.Species) float64 {
 		return 0
 	}
 	n := sp.Atoms[g.Element]
-	if n == 0 {
+	if n == 0 || (g.Without != "" && sp.Atoms[g.Without] > 0) {
 		return 0
 	}
 	if g.Organic {
@@ -278,7 +282,8 @@ func (r *Rule) parseAllowance(s string) error {
 	return nil
 }
 
-// parseGroup reads X(a), X(a..b), X(organic) or {A, B}.
+// parseGroup reads X(a), X(a..b), X(organic) or {A, B}; a state or range may
+// end in "without Y" (N(-3..-1 without C)).
 func parseGroup(s string) (Group, error) {
 	g := Group{text: s}
 	if strings.HasPrefix(s, "{") {
@@ -309,6 +314,13 @@ func parseGroup(s string) (Group, error) {
 	}
 	g.Element = el
 	arg = strings.TrimSuffix(arg, ")")
+	if a, without, ok := strings.Cut(arg, " without "); ok {
+		without = strings.TrimSpace(without)
+		if !chem.IsElementSymbol(without) || without == el {
+			return g, fmt.Errorf("group %q: \"without\" takes another element, like N(-3 without C)", s)
+		}
+		g.Without, arg = without, strings.TrimSpace(a)
+	}
 	if arg == "organic" {
 		g.Organic = true
 		return g, nil
@@ -384,6 +396,9 @@ func checkGroups(l *Lock, db *thermo.DB, elements map[string]bool) error {
 		}
 		if len(g.Species) == 0 && !elements[g.Element] {
 			return fmt.Errorf("locks.txt:%d: lock %s names element %s, which no species in species.txt holds", l.Line, l.ID, g.Element)
+		}
+		if g.Without != "" && !elements[g.Without] {
+			return fmt.Errorf("locks.txt:%d: lock %s: \"without %s\" names an element no species in species.txt holds", l.Line, l.ID, g.Without)
 		}
 	}
 	return nil

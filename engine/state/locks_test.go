@@ -62,6 +62,12 @@ func TestGroupWeights(t *testing.T) {
 		{"C(organic)", "HCO3-", 0},
 		{"C(organic)", "CN-", 0},
 		{"{OCN-, HOCN}", "OCN-", 1},
+		// ammonia nitrogen, not the C–N of cyanide, cyanate, thiocyanate or urea
+		{"N(-3..-1 without C)", "NH4+", 1},
+		{"N(-3..-1 without C)", "Zn(NH3)4^2+", 4},
+		{"N(-3..-1 without C)", "OCN-", 0},
+		{"N(-3..-1 without C)", "SCN-", 0},
+		{"N(-3..-1 without C)", "CO(NH2)2", 0},
 		// a count before a species: a urea stands for two nitrogen molecules
 		{"{N2(g), 2 CO(NH2)2}", "CO(NH2)2", 2},
 		{"{N2(g), 2 CO(NH2)2}", "N2(g)", 1},
@@ -239,5 +245,17 @@ func TestAcidAllowancePer(t *testing.T) {
 	}
 	if _, err := parseRule("no-gain N(-3..4) + acid to ph 3 x 0"); err == nil {
 		t.Error("x 0 accepted")
+	}
+}
+
+// TestGroupWithoutRejectsBadElement: "without" takes another element.
+func TestGroupWithoutRejectsBadElement(t *testing.T) {
+	for _, s := range []string{"N(-3 without N)", "N(-3 without c)", "N(-3 without )"} {
+		if _, err := parseGroup(s); err == nil {
+			t.Errorf("parseGroup(%q): no error", s)
+		}
+	}
+	if g, err := parseGroup("N(-3..-1 without C)"); err != nil || g.Without != "C" || g.Lo != -3 || g.Hi != -1 {
+		t.Errorf("parseGroup(N(-3..-1 without C)) = %+v, %v", g, err)
 	}
 }

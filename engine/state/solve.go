@@ -50,7 +50,9 @@ func (m *Model) solveCombined(mx *Mix, n0 []float64, volL float64) (*State, erro
 }
 
 // formationRules are the rules of the locks that only keep listed species
-// from forming (crystalline oxides, hydrogen sulfide from thiocyanate) or
+// (or an element's atoms outside some compounds: ammonia nitrogen, not
+// cyanate's) from forming (crystalline oxides, hydrogen sulfide from
+// thiocyanate, ammonia from cyanate) or
 // from falling apart (hexacyanoferrates in acid): they hold for the mix as
 // combined too, judged on the temperature and on what the streams bring (the
 // pH of the mix as combined is not known yet, so a pH condition does not
@@ -63,7 +65,7 @@ func (m *Model) formationRules(mx *Mix, n0 []float64, volL float64) []lockRule {
 	var out []lockRule
 	for i := range m.Locks {
 		l := &m.Locks[i]
-		if len(l.Rules) != 1 || l.Rules[0].Dir == Fixed || len(l.Rules[0].Group.Species) == 0 {
+		if g := l.Rules[0].Group; len(l.Rules) != 1 || l.Rules[0].Dir == Fixed || (len(g.Species) == 0 && g.Without == "") {
 			continue
 		}
 		if l.When == nil || l.When.Holds(env) {
@@ -563,6 +565,9 @@ func problemSpecies(sp *thermo.Species, row map[string]float64, comps map[string
 // component of its own ({C2O2} for acetic acid and acetate, {C10N2O8} for
 // EDTA and its complexes): such a compound keeps its skeleton, gaining or
 // losing only H+ and metal ions, and never turns into another compound.
+// The free elements of an inert species (free=Cl) are outside its skeleton:
+// trichloroisocyanuric acid shares cyanuric acid's skeleton and gives up
+// its chlorine as hypochlorous acid.
 func components(sp *thermo.Species, frozen, organicLocked bool) map[string]float64 {
 	row := make(map[string]float64, len(sp.Atoms))
 	whole := sp.Inert || (organicLocked && IsOrganic(sp.Atoms, sp.Ion()))
@@ -572,7 +577,7 @@ func components(sp *thermo.Species, frozen, organicLocked bool) map[string]float
 	for el, n := range sp.Atoms {
 		key := el
 		switch {
-		case whole && el != "H" && !chem.IsMetal(el):
+		case whole && el != "H" && !chem.IsMetal(el) && !sp.Free[el]:
 			continue
 		case frozen:
 			key = el + "@" + strconv.FormatFloat(math.Round(sp.Ox[el]*100)/100, 'f', -1, 64)
@@ -590,7 +595,7 @@ func components(sp *thermo.Species, frozen, organicLocked bool) map[string]float
 func skeleton(sp *thermo.Species) string {
 	k := chem.Atoms{}
 	for el, n := range sp.Atoms {
-		if el != "H" && !chem.IsMetal(el) {
+		if el != "H" && !chem.IsMetal(el) && !sp.Free[el] {
 			k[el] = n
 		}
 	}
@@ -696,7 +701,7 @@ func pinnedHeld(mx *Mix, p equilibrium.Problem, eq equilibrium.State, rows []map
 			maybe = append(maybe, strings.TrimSuffix(lr.c.Name, "=pinned"))
 		}
 	}
-	lam, ok := potentials(p, eq)
+	lam, fixed, ok := potentials(p, eq)
 	if !ok {
 		return nil, maybe
 	}
@@ -706,6 +711,8 @@ func pinnedHeld(mx *Mix, p equilibrium.Problem, eq equilibrium.State, rows []map
 			sp := mx.Species[i]
 			lnA := lam[len(lam)-1] * float64(sp.Charge)
 			okRow := true
+			vec := make([]float64, len(lam))
+			vec[len(vec)-1] = float64(sp.Charge)
 			for k, a := range rows[i] {
 				j, found := comps[k]
 				if !found {
@@ -713,7 +720,9 @@ func pinnedHeld(mx *Mix, p equilibrium.Problem, eq equilibrium.State, rows []map
 					break
 				}
 				lnA += a * lam[j]
+				vec[j] = a
 			}
+			okRow = okRow && fixed(vec)
 			lnA -= sp.GibbsRT(mx.TempK)
 			pure := sp.Phase == chem.Solid || sp.Phase == chem.Liquid
 			if okRow && (pure && lnA > 0 || !pure && lnA > math.Log(1e-6)) {
@@ -727,8 +736,13 @@ func pinnedHeld(mx *Mix, p equilibrium.Problem, eq equilibrium.State, rows []map
 
 // potentials recovers the component potentials (and, last, the charge
 // potential) of a solved state from the species present: for each,
-// ln a + μ°/RT = Σ A·λ + z·ψ, solved in the least-squares sense.
-func potentials(p equilibrium.Problem, eq equilibrium.State) ([]float64, bool) {
+// ln a + μ°/RT = Σ A·λ + z·ψ, solved in the least-squares sense, with the
+// least norm where the species present do not fix every potential (the
+// carbon and nitrogen of cyanate when cyanate is their only carrier). fixed
+// reports whether a combination of the potentials (a species' row) is
+// settled by the species present, so that a species shut out is judged
+// only where its potential is known.
+func potentials(p equilibrium.Problem, eq equilibrium.State) (lam []float64, fixed func([]float64) bool, ok bool) {
 	nc := len(p.Components) + 1
 	var rowsA [][]float64
 	var rhs []float64
@@ -755,18 +769,40 @@ func potentials(p equilibrium.Problem, eq equilibrium.State) ([]float64, bool) {
 		rowsA = append(rowsA, row)
 		rhs = append(rhs, lnA+sp.Mu0)
 	}
-	if len(rowsA) < nc {
-		return nil, false
+	if len(rowsA) == 0 {
+		return nil, nil, false
 	}
 	a := mat.NewDense(len(rowsA), nc, nil)
 	for i, r := range rowsA {
 		a.SetRow(i, r)
 	}
-	var x mat.VecDense
-	if err := x.SolveVec(a, mat.NewVecDense(len(rhs), rhs)); err != nil {
-		return nil, false
+	var svd mat.SVD
+	if !svd.Factorize(a, mat.SVDThin) {
+		return nil, nil, false
 	}
-	return x.RawVector().Data, true
+	vals := svd.Values(nil)
+	rank := 0
+	for _, v := range vals {
+		if v > 1e-10*vals[0] {
+			rank++
+		}
+	}
+	var x mat.Dense
+	svd.SolveTo(&x, mat.NewDense(len(rhs), 1, rhs), rank)
+	var v mat.Dense
+	svd.VTo(&v)
+	basis := v.Slice(0, nc, 0, rank)
+	fixed = func(r []float64) bool {
+		// r lies in the row space when its projection on the right
+		// singular vectors kept gives it back.
+		rv := mat.NewVecDense(len(r), r)
+		var c, back mat.VecDense
+		c.MulVec(basis.T(), rv)
+		back.MulVec(basis, &c)
+		back.SubVec(&back, rv)
+		return mat.Norm(&back, 2) <= 1e-8*math.Max(1, mat.Norm(rv, 2))
+	}
+	return mat.Col(nil, 0, &x), fixed, true
 }
 
 // solveSafely runs the solver and turns a panic inside it (a linear-algebra

@@ -58,9 +58,14 @@ type Species struct {
 	Ox       map[string]float64
 	Override map[string]float64 // the X=n attributes of the row
 	Inert    bool               // anchored only for acid–base/complexation; kept out of redox
-	Minor    bool               // included in the solve, not headlined in the answer
-	Source   string
-	Line     int // line in species.txt
+	// Free lists the elements of an inert species that sit outside its
+	// anchored carrier and take part in changes as any atom does (the
+	// active chlorine of trichloroisocyanuric acid on its cyanurate
+	// carrier): attribute free=X.
+	Free   map[string]bool
+	Minor  bool // included in the solve, not headlined in the answer
+	Source string
+	Line   int // line in species.txt
 
 	oxErr error // why Ox is nil
 }
@@ -220,7 +225,7 @@ func number(field, s string, optional bool) (float64, bool, error) {
 	return v, true, nil
 }
 
-// attributes reads `-` or tokens X=n, inert, minor.
+// attributes reads `-` or tokens X=n, inert, minor, free=X.
 func (sp *Species) attributes(s string) error {
 	if s == "-" {
 		return nil
@@ -237,9 +242,19 @@ func (sp *Species) attributes(s string) error {
 			sp.Minor = true
 			continue
 		}
+		if el, ok := strings.CutPrefix(tok, "free="); ok {
+			if !chem.IsElementSymbol(el) || sp.Atoms[el] == 0 || el == "H" {
+				return fmt.Errorf("attribute %q: free= names an element of %s other than H, like free=Cl", tok, sp.Formula)
+			}
+			if sp.Free == nil {
+				sp.Free = map[string]bool{}
+			}
+			sp.Free[el] = true
+			continue
+		}
 		el, val, ok := strings.Cut(tok, "=")
 		if !ok {
-			return fmt.Errorf("attribute %q is not X=n, inert or minor; fix or remove it", tok)
+			return fmt.Errorf("attribute %q is not X=n, inert, minor or free=X; fix or remove it", tok)
 		}
 		v, err := strconv.ParseFloat(strings.Replace(val, "−", "-", 1), 64)
 		if err != nil || math.IsNaN(v) || math.IsInf(v, 0) || !chem.IsElementSymbol(el) {

@@ -1,0 +1,14 @@
+-- Version 10: hazard rows are derived in batches with the search index.
+--
+-- query_hazards, like query_fts, is derived from the hashed rows
+-- (queries.hazards). Writing its rows with every logged query cost three
+-- B-tree pages per commit (the table and one page of the code index per
+-- hazard code), a fifth of what logging wrote; from this version LogQuery
+-- writes them with the search index, every indexBatch queries, for every
+-- row up to search_state.indexed_upto. Rows above the mark have no hazard
+-- rows; the hazard search reads those few rows' hashed hazards instead.
+--
+-- Rows logged before this version above the mark lose their hazard rows
+-- here and get them back with the next batch, so the rule holds for every
+-- row. No chained row changes.
+DELETE FROM query_hazards WHERE query_id > (SELECT indexed_upto FROM search_state);
