@@ -42,7 +42,13 @@ func streamFeed(si int, st *Stream, t *Tables, db *thermo.DB, m *mixture) (state
 	if vol == 0 && st.MassKg == 0 && streamIsSolution(st) {
 		vol, liquid = 1, true
 	}
-	out := state.Stream{Label: st.Label()}
+	// A stream stands at its own stated temperature before it is poured,
+	// else at 25 °C as stored: a drum of peroxide is not judged at the
+	// temperature of the hot tank it goes into.
+	out := state.Stream{Label: st.Label(), TempK: StandardTemperatureK}
+	if st.TemperatureK != nil {
+		out.TempK = *st.TemperatureK
+	}
 	solutes := 0.0 // kg of dissolved chemicals
 	var found []soluteIn
 	for ci := range st.Components {

@@ -20,7 +20,7 @@ import (
 // hydrogen and oxide oxygen, in the same oxidation states) and gives off no
 // gas it did not bring. The chemicals that do react with water, as they do
 // in a tank, are listed with the reason in reactsWithWater; those the engine
-// still gets wrong would be listed in knownDiversions (empty: every one found
+// still gets wrong are listed in knownDiversions (one left: every other found
 // was fixed by a lock in data/locks.txt). Hot-dosed reagents are also tried
 // at 90 °C, the temperature of a deaerator or an electroless-nickel bath.
 //
@@ -82,17 +82,11 @@ var reactsWithWater = map[string]string{
 }
 
 // knownDiversions are chemicals the engine still changes by itself in water,
-// with the reason. They are left to the work on chlorite, persulfate and
-// dithionite, whose locks are being written apart from the ones in the
-// metastable-reagent block of data/locks.txt; remove a row when it passes.
+// with the reason; remove a row when it passes. Chlorine dioxide keeps by the
+// chlorine-dioxide-keeps lock, which applies to the stream alone as to the
+// mix; chlorite, persulfate and dithionite by their own locks.
 var knownDiversions = map[string]string{
-	"ClO2":       "taken to chlorate and chloride at once: chlorine dioxide solutions keep for days in the dark and cool (White's Handbook of Chlorination, from memory); the chlorine one-way lock waits for the chlorite work, since acid chlorite does give chlorine dioxide",
-	"NaClO2":     "taken to chlorate and chloride at once; chlorite solutions keep for months when alkaline (common practice, no source); left to the chlorite work",
-	"(NH4)2S2O8": "hydrolysed to peroxide and sulfate at once; persulfate solutions keep for weeks when cool (common practice, no source); left to the persulfate work",
-	"Na2S2O8":    "as (NH4)2S2O8",
-	"K2S2O8":     "as (NH4)2S2O8",
-	"KHSO5":      "hydrolysed to peroxide and sulfate at once; peroxymonosulfate solutions keep for days (common practice, no source); left to the persulfate work",
-	"Na2S2O4":    "taken to thiosulfate and bisulfite at once; dithionite keeps for hours in alkaline solution and breaks down over hours in unbuffered water (common practice, no source); left to the dithionite work",
+	"KHSO5": "hydrolysed to peroxide and sulfate at once; peroxymonosulfate solutions keep for days (common practice, no source); left to the persulfate work",
 }
 
 // askWithWater pours the chemical into as much water at a plant strength:

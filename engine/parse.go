@@ -18,7 +18,10 @@ type Request struct {
 	PressureKPa  float64 // 101.325 unless stated
 	PH           *float64
 	TempStated   bool
-	Notes        []string // how the parser read the request where the answer should say so
+	// TempFromStreams: TemperatureK is the streams' own temperatures
+	// averaged (StreamsTemperatureK), not one stated for the whole mix.
+	TempFromStreams bool
+	Notes           []string // how the parser read the request where the answer should say so
 }
 
 // Stream is one stream of a mix request.
@@ -475,8 +478,22 @@ func (p *parser) startTemperature(req *Request) {
 	if req.TempStated {
 		return
 	}
-	sum, w, any := 0.0, 0.0, false
-	for _, st := range req.Streams {
+	k, any := StreamsTemperatureK(req.Streams)
+	if !any {
+		return
+	}
+	req.TemperatureK, req.TempStated, req.TempFromStreams = k, true, true
+	p.note("the streams' own temperatures give the mix a starting temperature of about %s °C (averaged by amount, as water; a stream without one at 25 °C)", fmtNum(math.Round((k-273.15)*10)/10))
+}
+
+// StreamsTemperatureK is the starting temperature of streams poured
+// together: their own temperatures averaged by volume (or mass for a
+// solid), as if each had the heat capacity of water, a stream without one
+// counted at 25 °C; any reports whether a stream has one. A point of a pour
+// holds the streams in other shares, so it starts at its own average.
+func StreamsTemperatureK(ss []Stream) (k float64, any bool) {
+	sum, w := 0.0, 0.0
+	for _, st := range ss {
 		k := StandardTemperatureK
 		if st.TemperatureK != nil {
 			k, any = *st.TemperatureK, true
@@ -487,11 +504,10 @@ func (p *parser) startTemperature(req *Request) {
 		}
 		sum, w = sum+k*x, w+x
 	}
-	if !any {
-		return
+	if w <= 0 {
+		return StandardTemperatureK, any
 	}
-	req.TemperatureK, req.TempStated = sum/w, true
-	p.note("the streams' own temperatures give the mix a starting temperature of about %s °C (averaged by amount, as water; a stream without one at 25 °C)", fmtNum(math.Round((sum/w-273.15)*10)/10))
+	return sum / w, any
 }
 
 // temperatureUnits convert a stated temperature to kelvin.

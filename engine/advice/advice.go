@@ -71,6 +71,13 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 	}
 	res.Notes = append(res.Notes, fmt.Sprintf("gas concentrations are for a closed headspace equal to the liquid volume (%s L), at equilibrium", trim(o.HeadspaceL)))
 	res.Addition = pour.AnalyseLocal(req, func(r *engine.Request) ([]engine.Hazard, error) {
+		if r.TempFromStreams {
+			// A point of the pour starts at the temperature of the
+			// streams in it, in its own shares: the first litre of hot
+			// water in a drum of peroxide does not heat the drum to the
+			// temperature of the finished mix.
+			r.TemperatureK, _ = engine.StreamsTemperatureK(r.Streams)
+		}
 		hs, err := a.evaluateIn(r, o.HeadspaceL)
 		return hazard.Relative(hazard.AlongPour(hs), pick(alone, r.Streams)), err
 	}, a.landing(req, a.concentrates(req)))
@@ -128,12 +135,15 @@ func (a *Advisor) evaluateIn(req *engine.Request, headspaceL float64) ([]engine.
 	return hazard.Judge(o, a.Gases), nil
 }
 
-// alone judges each stream by itself, keyed by streamKey.
+// alone judges each stream by itself, keyed by streamKey: as it is stored
+// before it is poured, at its own stated temperature (25 °C when it has
+// none) and without the pH stated for the mix. A hazard is the stream's own
+// only if the stock gives it off as stored: a drum of peroxide at 25 °C
+// gives off no oxygen, whatever the hot tank it goes into makes of it.
 func (a *Advisor) alone(req *engine.Request) map[string]hazard.Alone {
 	out := map[string]hazard.Alone{}
 	for _, s := range req.Streams {
-		r := *req
-		r.Streams = []engine.Stream{s}
+		r := streamAlone(req, s)
 		hs, err := a.evaluate(&r)
 		if err != nil {
 			continue
@@ -141,6 +151,18 @@ func (a *Advisor) alone(req *engine.Request) map[string]hazard.Alone {
 		out[streamKey(s)] = hazard.Alone{Name: pour.Name(&s), Hazards: hs}
 	}
 	return out
+}
+
+// streamAlone is the request of one stream of req by itself, as stored.
+func streamAlone(req *engine.Request, s engine.Stream) engine.Request {
+	r := *req
+	r.Streams = []engine.Stream{s}
+	r.PH = nil
+	r.TemperatureK, r.TempStated = engine.StandardTemperatureK, false
+	if s.TemperatureK != nil {
+		r.TemperatureK, r.TempStated = *s.TemperatureK, true
+	}
+	return r
 }
 
 // pick returns the judgements alone of the streams given (a pour point

@@ -328,13 +328,26 @@ func vacuous(mx *Mix, l *Lock, n0 []float64) bool {
 		}
 		c := ruleConstraint(mx, "", r, n0)
 		switch {
-		case r.Dir == NoLoss && c.Bound <= 0:
+		case r.Dir == NoLoss && c.Bound <= traceLevel(n0):
 			return true
 		case r.Dir == NoGain && len(r.Group.Species) == 0 && !r.Group.Above && c.Bound >= (1-1e-12)*elementTotal(mx, n0, r.Group.Element):
 			return true
 		}
 	}
 	return false
+}
+
+// traceLevel is the amount below which what n0 brings is a trace an earlier
+// solve left (a stream's own equilibrium keeps a few 1e-14 mol of a species
+// a lock shut out): 1e-14 of the largest amount, as newProblem drops such
+// components. A lock that keeps only a trace from being lost asks nothing,
+// and as a constraint it would only stall the solve.
+func traceLevel(n0 []float64) float64 {
+	most := 0.0
+	for _, n := range n0 {
+		most = math.Max(most, n)
+	}
+	return 1e-14 * most
 }
 
 // lockRule is one rule of a lock as a constraint on the species of a mix.

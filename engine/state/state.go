@@ -40,6 +40,12 @@ type Stream struct {
 	// stream names (HCl, NaOH): they fix its pH, and a stated pH that
 	// conflicts with them is not met (fitPH).
 	Strong float64
+	// TempK is the stream's own temperature, as it stands before it is
+	// poured (a drum at 25 °C, a hot caustic tank): the stream alone is
+	// solved and its locks judged at it, so that what the stock holds as
+	// stored is not confused with what the mix makes of it. 0: the feed's
+	// temperature.
+	TempK float64
 }
 
 // Feed is everything poured into the tank.
@@ -207,15 +213,18 @@ func (m *Model) Solve(f Feed) (*Mix, error) {
 }
 
 // streamAlone is a stream's own state, fitted to its stated pH, from the
-// cache when the same stream per litre was solved before.
+// cache when the same stream per litre was solved before. It is solved at
+// the stream's own temperature (Stream.TempK), under the locks as they stand
+// there: what the stock holds as stored, not what the mix makes of it.
 //
 // A stream that can be kept is always solved for one litre and scaled, so
 // that its state does not depend on which volume of it was asked first.
 func (m *Model) streamAlone(mx *Mix, index map[*thermo.Species]int, st Stream, excess float64) (*State, error) {
+	at := mx.streamAt(st)
 	key, unit := "", st
 	if st.VolumeL > 0 {
 		unit = st.perLitre()
-		key = m.streams.key(mx, unit)
+		key = m.streams.key(at, unit)
 	}
 	if s, notes, ok := m.streams.get(key, st.VolumeL); ok {
 		mx.Notes = append(mx.Notes, notes...)
@@ -225,26 +234,40 @@ func (m *Model) streamAlone(mx *Mix, index map[*thermo.Species]int, st Stream, e
 	if key == "" {
 		vol, n0 = st.VolumeL, m.feedVector(mx, index, st, excess)
 	}
-	before := len(mx.Notes)
+	s, err := m.solveStream(at, n0, vol, st, key != "")
+	mx.Notes = append(mx.Notes, at.Notes...)
+	if err != nil || key == "" {
+		return s, err
+	}
+	m.streams.put(key, s, 1, at.Notes)
+	return s.scaled(st.VolumeL), nil
+}
+
+// streamAt is the frame a stream alone is solved in: the mix's species at
+// the stream's own temperature, with notes of its own, and never at a
+// temperature the mix reaches by its own heat.
+func (mx *Mix) streamAt(st Stream) *Mix {
+	t := st.TempK
+	if t <= 0 {
+		t = mx.TempK
+	}
+	return &Mix{Species: mx.Species, weights: mx.weights, titrations: mx.titrations, TempK: t, Pressure: mx.Pressure}
+}
+
+// solveStream solves a stream's amounts n0 (per litre when perL) in its
+// frame at, fitted to its stated pH.
+func (m *Model) solveStream(at *Mix, n0 []float64, vol float64, st Stream, perL bool) (*State, error) {
 	if st.PH != nil {
 		var err error
 		strong := st.Strong
-		if key != "" && st.VolumeL > 0 {
+		if perL && st.VolumeL > 0 {
 			strong /= st.VolumeL // solved for one litre
 		}
-		if n0, err = m.fitPH(mx, n0, vol, *st.PH, strong); err != nil {
+		if n0, err = m.fitPH(at, n0, vol, *st.PH, strong); err != nil {
 			return nil, err
 		}
 	}
-	s, err := m.solveLocked(mx, n0, vol)
-	if err != nil {
-		return nil, err
-	}
-	if key == "" {
-		return s, nil
-	}
-	m.streams.put(key, s, 1, mx.Notes[before:])
-	return s.scaled(st.VolumeL), nil
+	return m.solveLocked(at, n0, vol)
 }
 
 // perLitre is the stream scaled to one litre: the key of the cache and the

@@ -107,7 +107,7 @@ func (m *Model) withAcid(mx *Mix, n0 []float64, x float64) []float64 {
 // brings the solution as combined to pH target: a bracketing secant
 // (Illinois) on u = asinh(x), where the pH is smooth and monotone.
 func (m *Model) titrate(mx *Mix, n0 []float64, volL, target float64) (float64, error) {
-	key := titrationKey(n0, volL, target, mx.reachC())
+	key := titrationKey(n0, volL, target, mx.TempK, mx.reachC())
 	if x, err, ok := mx.titrations.get(key); ok {
 		return x, err
 	}
@@ -130,11 +130,12 @@ type titration struct {
 }
 
 // titrationKey names a titration by its exact inputs: the amounts, the
-// volume, the pH and the temperature the formation locks are judged at (the
-// species and the starting temperature are those of the mix).
-func titrationKey(n0 []float64, volL, target, reachC float64) string {
-	b := make([]byte, 0, 24*(len(n0)+3))
-	for _, v := range append([]float64{volL, target, reachC}, n0...) {
+// volume, the pH, the temperature it is solved at (a stream alone is solved
+// at its own) and the temperature the formation locks are judged at (the
+// species are those of the mix).
+func titrationKey(n0 []float64, volL, target, tempK, reachC float64) string {
+	b := make([]byte, 0, 24*(len(n0)+4))
+	for _, v := range append([]float64{volL, target, tempK, reachC}, n0...) {
 		b = strconv.AppendFloat(b, v, 'g', -1, 64)
 		b = append(b, '|')
 	}
