@@ -31,6 +31,15 @@ func TestProductPaths(t *testing.T) {
 			"common practice, no source"},
 		{"X6 sulfide into dilute nitric acid", "mix 100 L HNO3 10 % + 1 kg Na2S", engine.DoNotMix, "h2s-release", 12.8, "hydrogen sulfide",
 			"Vogel, sulfides with dilute nitric acid (from memory); NIOSH Pocket Guide, H2S IDLH 100 ppm"},
+		// Chrome reduction near the stoichiometric dose (8.4 mol S(IV) for 7.5 needed) at pH 1.3: 0.02 mol SO2
+		// in the headspace, below the 0.10 mol that brings 25 m³ of air to IDLH 100 ppm: a precaution whose
+		// action keeps the acid the reduction needs. M06, 2.8× the dose: 0.28 mol, refused.
+		{"X2 chrome reduction near stoichiometric", "mix 1000 L CrO3 0.5 g/L, H2SO4 0.5 % + 0.8 kg Na2S2O5", engine.WithPrecautions, "so2-release", 0, "ORP control at pH 2–3",
+			"common practice (chromate reduction in plating effluent), no source; NIOSH IDLH SO2 100 ppm; Sander 2015"},
+		{"M06 chrome reduction overdosed", "mix 1000 L CrO3 0.5 g/L, H2SO4 0.5 % + 2 kg Na2S2O5", engine.DoNotMix, "so2-release", 0, "ORP control at pH 2–3",
+			"common practice, no source; NIOSH IDLH SO2 100 ppm; Sander 2015"},
+		{"metabisulfite into hydrochloric acid", "mix 100 L HCl 10 % + 1 kg Na2S2O5", engine.DoNotMix, "so2-release", 0, "not strongly acidic",
+			"NIOSH IDLH SO2 100 ppm; Sander 2015"},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			r := ask(t, a, tc.req)

@@ -70,3 +70,34 @@ func TestSulfideBeforeNitric(t *testing.T) {
 		t.Errorf("with hypochlorite: H2S pool %g mol, want none counted ahead", got)
 	}
 }
+
+// TestSmallPuff: sulfur dioxide above its limit in the closed headspace is
+// a danger only when the headspace takes up enough to bring ReferenceAirL of
+// air to IDLH 100 ppm (0.10 mol at 25 °C), or stands at SevereRatio × the
+// limit. X2 (0.0195 mol, 477 ppm in 1000 L) is a precaution; M06 (0.276 mol,
+// 6753 ppm) is not; a bucket at 20000 ppm is a danger by concentration.
+func TestSmallPuff(t *testing.T) {
+	g := &GasData{Formula: "SO2", LimitPPM: 100, LimitName: "IDLH"}
+	for _, tc := range []struct {
+		name         string
+		headspaceL   float64
+		ppm          float64
+		wantSmallish bool
+	}{
+		{"X2", 1000, 477, true},
+		{"M06", 1000, 6753, false},
+		{"bucket at 200× IDLH", 10, 20000, false},
+		{"large tank at 2× IDLH", 50000, 200, false},
+	} {
+		o := &Outcome{VolumeL: tc.headspaceL, HeadspaceL: tc.headspaceL, TemperatureC: 25, PressureKPa: 101.325}
+		got := smallPuff(o, g, Headspace{PPM: tc.ppm}, tc.ppm/g.LimitPPM)
+		if got != tc.wantSmallish {
+			t.Errorf("%s: small puff %v, want %v", tc.name, got, tc.wantSmallish)
+		}
+	}
+	cl2 := &GasData{Formula: "Cl2", LimitPPM: 10, LimitName: "IDLH"}
+	o := &Outcome{VolumeL: 1000, HeadspaceL: 1000, TemperatureC: 25, PressureKPa: 101.325}
+	if smallPuff(o, cl2, Headspace{PPM: 50}, 5) {
+		t.Error("chlorine is not judged by amount")
+	}
+}
