@@ -35,9 +35,13 @@ func gasesOut(mx *state.Mix, formed func(*thermo.Species) bool, kPa float64) []G
 			continue // a trace: below 1 ppm in the headspace and 1 µmol per litre
 		}
 		if f.Amount[i] <= 0 {
-			// Dissolved: what a closed headspace of the liquid's volume holds.
+			// Dissolved: what a closed headspace of the liquid's volume
+			// holds, taken out of the liquid (see headspaceSplit).
 			g.Kind = "headspace"
-			g.Mol = p * 100 * mx.VolumeL / (MolarGasConstant() * mx.TempK) // kPa·L / (J/mol) = mol
+			gas, liquid, pSplit := headspaceSplit(mx, f, i, p, mx.VolumeL)
+			g.Mol, g.LiquidMol = gas, sigDigits(liquid, 6)
+			g.PartialKPa = sigDigits(pSplit*100, 4)
+			g.HeadspacePPM = sigDigits(pSplit/(kPa/100)*1e6, 4)
 			g.VolumeL = GasVolumeL(g.Mol, mx.TempK, kPa)
 			g.VolumeM3 = g.VolumeL / 1000
 		}
@@ -45,6 +49,127 @@ func gasesOut(mx *state.Mix, formed func(*thermo.Species) bool, kPa float64) []G
 		out = append(out, g)
 	}
 	return out
+}
+
+// headspaceSplit shares a dissolved gas between the liquid and a closed
+// headspace of headspaceL litres so that the amount is conserved. The
+// equilibrium state holds all of it in the liquid at partial pressure p
+// (bar): the neutral molecule (the same formula in solution or with water:
+// H2CO3, H2SO3), and for chlorine and bromine also the hypohalous acid with
+// its halide (X2 + H2O ⇌ HOX + H+ + X-, fast), together N mol. Their
+// solubility is kH = (N/VL)/p, and closed they part as
+//
+//	N = p'·(VL·kH + VG/(R·T))
+//
+// (Henry's law and the ideal gas; for CO2 kH is Sander 2015's 0.034
+// mol/(L·atm), from memory). It returns the mol in the headspace, the mol
+// left in the liquid and p' in bar. The acid–base forms (HCO3-, HS-, NH4+)
+// are left where they are: they give up the molecule only with acid or base
+// the mix has already spent. With nothing dissolved found, the state's own
+// pressure fills the headspace, as before.
+func headspaceSplit(mx *state.Mix, f *state.State, i int, p, headspaceL float64) (gas, liquid, pBar float64) {
+	rt := MolarGasConstant() / 100 * mx.TempK // L·bar/mol
+	n := dissolvedPool(mx, f, i)
+	if r := neatPool(mx, f, i); r > 0 && p > 0 {
+		// A pool of the neat liquid (bromine) keeps the headspace at its
+		// vapour pressure as long as it lasts.
+		if full := p * headspaceL / rt; full <= r+n {
+			return full, r + n - full, p
+		}
+		n += r
+	}
+	if !(n > 0) || !(mx.VolumeL > 0) || !(p > 0) {
+		return p * headspaceL / rt, 0, p
+	}
+	kH := n / mx.VolumeL / p
+	pBar = n / (mx.VolumeL*kH + headspaceL/rt)
+	gas = pBar * headspaceL / rt
+	return gas, n - gas, pBar
+}
+
+// dissolvedPool is the mol the liquid holds of gas species i (see
+// headspaceSplit): the neutral molecule, and for a halogen X2 the smaller
+// of its hypohalous acid (HOX + OX-) and its halide.
+func dissolvedPool(mx *state.Mix, f *state.State, i int) float64 {
+	ga := mx.Species[i].Atoms
+	n, hox, halide := 0.0, 0.0, 0.0
+	x, halogen := halogenOf(ga)
+	for j, sp := range mx.Species {
+		if sp.Phase != Aqueous || j == i {
+			continue
+		}
+		switch {
+		case onlyHO(ga) && sp.Charge == 0 && sp.Atoms["O"] == ga["O"] && sp.Atoms["H"] == ga["H"]:
+			n += f.Amount[j] // O2, H2: the dissolved molecule alone
+		case !onlyHO(ga) && sp.Charge == 0 && sameWithWater(ga, sp.Atoms):
+			n += f.Amount[j]
+		case halogen && sp.Atoms[x] == 1 && sp.Atoms["O"] == 1 && len(sp.Atoms) <= 3:
+			hox += f.Amount[j] // HOCl, OCl-
+		case halogen && sp.Atoms[x] == 1 && len(sp.Atoms) == 1 && sp.Charge == -1:
+			halide += f.Amount[j]
+		}
+	}
+	return n + math.Min(hox, halide)
+}
+
+// neatPool is the mol of gas species i present as its own neat liquid
+// (Br2(l) under a bromine solution).
+func neatPool(mx *state.Mix, f *state.State, i int) float64 {
+	ga := mx.Species[i].Atoms
+	r := 0.0
+	for j, sp := range mx.Species {
+		if sp.Phase != Liquid || j == i || len(sp.Atoms) != len(ga) {
+			continue
+		}
+		same := true
+		for el, k := range ga {
+			same = same && sp.Atoms[el] == k
+		}
+		if same && sp.Charge == 0 {
+			r += f.Amount[j]
+		}
+	}
+	return r
+}
+
+// halogenOf reports the element of a diatomic chlorine or bromine molecule.
+func halogenOf(a chem.Atoms) (string, bool) {
+	for _, x := range []string{"Cl", "Br"} {
+		if a[x] == 2 && len(a) == 1 {
+			return x, true
+		}
+	}
+	return "", false
+}
+
+// onlyHO reports whether a formula holds nothing but hydrogen and oxygen.
+func onlyHO(a chem.Atoms) bool {
+	for el := range a {
+		if el != "H" && el != "O" {
+			return false
+		}
+	}
+	return true
+}
+
+// sameWithWater reports whether b is a with whole waters added (CO2 and
+// H2CO3, SO2 and H2SO3, NH3 and NH3).
+func sameWithWater(a, b chem.Atoms) bool {
+	w := b["O"] - a["O"]
+	if w < 0 || b["H"]-a["H"] != 2*w {
+		return false
+	}
+	for el, k := range b {
+		if el != "H" && el != "O" && a[el] != k {
+			return false
+		}
+	}
+	for el, k := range a {
+		if el != "H" && el != "O" && b[el] != k {
+			return false
+		}
+	}
+	return true
 }
 
 // partialOf is a gas's partial pressure in bar at equilibrium: its share of

@@ -15,7 +15,9 @@ import (
 // run it.
 func CheckTables(fsys fs.FS) error {
 	var errs []error
-	if _, err := Load(fsys); err != nil {
+	if t, err := Load(fsys); err != nil {
+		errs = append(errs, err)
+	} else if _, err := LoadProducts(fsys, t); err != nil {
 		errs = append(errs, err)
 	}
 	if _, err := LoadHazardRules(fsys); err != nil {

@@ -103,6 +103,7 @@ func (p *parser) stream() (Stream, error) {
 	if err := p.components(&st, start); err != nil {
 		return st, err
 	}
+	p.asSold(&st)
 	if err := p.checkStream(&st); err != nil {
 		return st, err
 	}

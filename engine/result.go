@@ -311,6 +311,10 @@ type GasRelease struct {
 	// headspace as large as the liquid volume: Mol is what that holds.
 	PartialKPa   float64 `json:"partial_kpa"`
 	HeadspacePPM float64 `json:"headspace_ppm"`
+	// LiquidMol, for Kind "headspace", is what stays dissolved as the
+	// neutral molecule once the headspace holds Mol: the two add up to the
+	// molecule the mixed state holds (the headspace is not extra gas).
+	LiquidMol float64 `json:"liquid_mol,omitempty"`
 }
 
 // Heat is the heat estimate of the mix (all reactions, neutralisation included).

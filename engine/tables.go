@@ -13,6 +13,7 @@ type Tables struct {
 	AcidBase  []*AcidBasePair
 	Densities map[string][]DensityPoint // by chemical formula, sorted by PercentWW
 	Ceilings  map[string]Ceiling        // most concentrated solution, by chemical formula
+	Products  map[string][]Product      // commercial products by the formula they are named by, grades rising
 	Hash      string                    // SHA-256 over every table file, hex
 
 	Hazards    []*HazardRule

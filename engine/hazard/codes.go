@@ -59,6 +59,8 @@ var codes = []Code{
 	{"hn3-release", "releases hydrazoic acid", []string{"acid-azide", "toxic-gas"}},
 	{"organic-peroxides", "forms explosive organic peroxides", nil},
 	{"perchlorate-esters", "forms explosive perchlorate esters", nil},
+	{"nitrate-esters", "forms nitrate esters (explosive); never cool and hold", nil},
+	{"peracid-alkali", "peracid with strong alkali: violent decomposition, oxygen and boiling caustic", []string{"oxygen-enrichment"}},
 	{"oxidizer-organic-fire", "strong oxidizer with organic liquid: fire or violent reaction", nil},
 	{"bis-chloromethyl-ether", "forms bis(chloromethyl) ether (causes cancer)", nil},
 	{"formaldehyde-caustic-heat", "formaldehyde with strong caustic: runaway heat", nil},

@@ -14,10 +14,10 @@ import (
 // reliable Gibbs energies, or they are runaways rather than equilibria).
 // Each is judged from what the streams bring together, with its source.
 var familyRules = []func(o *Outcome) (engine.Hazard, bool){
-	chloroAmines, nitricOrganic, ammoniumNitrite, permanganateSulfuric, volatileAcid,
+	chloroAmines, nitrateEsters, nitricOrganic, ammoniumNitrite, permanganateSulfuric, volatileAcid,
 	solidHypochlorite, magnesiumWater, cyanideOxidation, halideSulfuric, chlorateSulfuric, hotElectrolessNickel, nitricMetalFumes,
 	// organic, azide and solid-chlorinator families (organic.go)
-	organicPeroxides, perchlorateEsters, oxidizerOrganic, bisChloromethylEther,
+	organicPeroxides, perchlorateEsters, peracidAlkali, oxidizerOrganic, bisChloromethylEther,
 	cannizzaro, hexamine, formaldehydeHypochlorite, haloform, heavyMetalAzide, mixedChlorinators,
 	// silicate with acid (silica.go)
 	silicaGel,

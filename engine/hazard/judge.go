@@ -50,6 +50,51 @@ var gasActions = map[string][2]string{
 	"HN3": {"Do not combine. Never acidify azide: hydrazoic acid is very toxic and explosive; if it has happened, leave the area and ventilate.", "Keep azide solutions alkaline (above pH 9) and work only with extraction."},
 }
 
+// Amount scaling of acid gases that a treatment step gives off in traces
+// (sulfur dioxide from a bisulfite dose in acid): above its limit in the
+// closed headspace, the gas is a reason not to combine only when the amount
+// the headspace takes up at once could bring ReferenceAirL of air to the
+// limit, or when the headspace stands at SevereRatio times the limit and
+// more (a puff that strong is dangerous at the tank's surface whatever its
+// amount). Below both it is a warning for an open tank with extraction.
+// ReferenceAirL is a small plant room, about 3 × 3 × 2.8 m; both: common
+// practice, no source.
+const (
+	ReferenceAirL = 25000.0
+	SevereRatio   = 100.0
+)
+
+// amountScaled are the gases judged by amount as well as concentration.
+var amountScaled = map[string]bool{"SO2": true}
+
+// smallPuff reports whether an amount-scaled gas above its limit comes off
+// in an amount too small to bring ReferenceAirL of air to the limit.
+func smallPuff(o *Outcome, g *GasData, hs Headspace, ratio float64) bool {
+	if !amountScaled[g.Formula] || ratio >= SevereRatio || !(o.HeadspaceL > 0) {
+		return false
+	}
+	rt := litreBarPerMolK() * o.TemperatureK()
+	amb := o.PressureKPa / 100
+	puff := hs.PPM * 1e-6 * amb * o.HeadspaceL / rt
+	limitMol := g.LimitPPM * 1e-6 * amb * ReferenceAirL / rt
+	return puff < limitMol
+}
+
+// chromiumVIReduction reports whether sulfur dioxide comes from reducing
+// chromium(VI) in acid: the reduction needs the acid (pH 2–3), so the
+// action must not say to avoid it.
+func chromiumVIReduction(o *Outcome) bool {
+	return o.MolarBefore("Cr2O7^2-", "CrO4^2-", "HCrO4-", "H2CrO4") >= TraceMolar && o.MolarBefore("H2SO3", "HSO3-", "SO3^2-", "S2O5^2-") >= TraceMolar
+}
+
+// chromeReductionActions are the warning and the danger action for sulfur
+// dioxide from a chromium(VI) reduction (common practice, no source:
+// chromate reduction in plating effluent).
+var chromeReductionActions = [2]string{
+	"Sulfur dioxide comes off if overdosed: dose the bisulfite under ORP control at pH 2–3, with extraction on.",
+	"Do not dose in one go: bisulfite beyond what the chromium(VI) needs gives off sulfur dioxide in this acid. Dose under ORP control at pH 2–3, with extraction on; if it has happened, leave the area.",
+}
+
 // judgeGas turns each gas pool into a hazard when its headspace
 // concentration reaches a tenth of its limit.
 func judgeGas(o *Outcome, d *Data) []engine.Hazard {
@@ -138,8 +183,14 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 	// Carbon dioxide from neutralising carbonate is a foaming and
 	// confined-space hazard to ventilate, not a reason never to neutralise
 	// (common practice, no source): a warning at most, like oxygen.
-	if ratio >= DangerRatio && g.LimitName != "O2" && g.Formula != "CO2" {
+	if ratio >= DangerRatio && g.LimitName != "O2" && g.Formula != "CO2" && !smallPuff(o, g, hs, ratio) {
 		sev, act = engine.Danger, gasActions[g.Formula][0]
+	}
+	if g.Formula == "SO2" && chromiumVIReduction(o) {
+		act = chromeReductionActions[0]
+		if sev == engine.Danger {
+			act = chromeReductionActions[1]
+		}
 	}
 	code := gasCodes[g.Formula]
 	litres := p.mol * litreBarPerMolK() * o.TemperatureK() / (o.PressureKPa / 100)

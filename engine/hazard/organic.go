@@ -154,6 +154,59 @@ func perchlorateEsters(o *Outcome) (engine.Hazard, bool) {
 		"Bretherick's Handbook of Reactive Chemical Hazards, perchloric acid with alcohols (from memory); perchloric-acid fume hoods with no organics: common practice, no source; 3 mol/L (about 28 %) danger and 1 mol/L warning thresholds: common practice, no source"), true
 }
 
+// polyols are the dictionary's alcohols with two or more hydroxyl groups
+// and the sugars: what mixed acid turns into nitrate esters (glyceryl
+// trinitrate, glycol dinitrate, nitrosugars). Cellulose (rags, paper) and
+// pentaerythritol nitrate the same way but are not chemicals of the
+// dictionary.
+var polyols = []string{"C3H5(OH)3", "HOCH2CH2OH", "CH3CH(OH)CH2OH", "C12H22O11"}
+
+// Mixed-acid thresholds (mol/L in the mix before reaction), common
+// practice, no source: nitration needs nitric acid of about 3 mol/L (about
+// 20 %) and more in sulfuric acid of about 5 mol/L (about 40 %) and more,
+// which takes up the water the esterification gives off. Dilute acid rinses
+// are far below both.
+const (
+	NitratingNitricMolar    = 3.0
+	NitratingSulfuricMolar  = 5.0
+	NitratingPolyolMolar    = FamilyTraceMolar
+	PeracidConcentrateMolar = 0.3 // about 2.3 % peracetic acid in the mix
+	StrongAlkaliPH          = 13  // about 0.1 mol/L of free hydroxide
+)
+
+// nitrateEsters: concentrated nitric acid with concentrated sulfuric acid
+// (mixed acid) esterifies polyols to nitrate esters, shock-sensitive
+// explosives; cooling the mix is how they are made, so the answer must not
+// suggest cooling and holding it.
+func nitrateEsters(o *Outcome) (engine.Hazard, bool) {
+	hno3 := o.MolarBefore("HNO3", "NO3-")
+	h2so4 := sulfuric(o)
+	p := o.MolarBefore(polyols...)
+	if hno3 < NitratingNitricMolar || h2so4 < NitratingSulfuricMolar || p < NitratingPolyolMolar {
+		return engine.Hazard{}, false
+	}
+	return mk("nitrate-esters", engine.Danger,
+		"Nitrating acid (nitric acid "+fmtNum(hno3, 2)+" mol/L with sulfuric acid "+fmtNum(h2so4, 2)+" mol/L in the mix) with a polyol ("+fmtNum(p, 2)+" mol/L of glycerol, glycol or sugar) forms nitrate esters (glyceryl trinitrate, glycol dinitrate): shock-sensitive explosives that separate as an oil. Cooling does not make it safe: cooled and held, it is how they are made; warm, it runs away with nitrogen dioxide.",
+		"Do not combine; never cool and hold such a mix. Keep glycols, glycerol, sugars and cellulose (rags, paper) away from mixed acid and its waste; if it has happened, leave the area and call specialists.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, glycerol: nitric acid, sulfuric acid (from memory); thresholds 3 mol/L nitric and 5 mol/L sulfuric acid: common practice, no source"), true
+}
+
+// peracidAlkali: a peracid concentrate (with the hydrogen peroxide the
+// product carries) meeting strong caustic decomposes violently: the
+// peracid and peroxide anions destroy each other, with oxygen and enough
+// heat to boil the caustic.
+func peracidAlkali(o *Outcome) (engine.Hazard, bool) {
+	pa := o.MolarBefore("CH3CO3H", "CH3CO3-")
+	if pa < PeracidConcentrateMolar || o.PH < StrongAlkaliPH {
+		return engine.Hazard{}, false
+	}
+	h2o2 := o.MolarBefore("H2O2", "HO2-")
+	return mk("peracid-alkali", engine.Danger,
+		"Peracetic acid concentrate ("+fmtNum(pa, 2)+" mol/L in the mix, with "+fmtNum(h2o2, 2)+" mol/L of hydrogen peroxide) meets strong alkali (pH "+fmtNum(o.PH, 3)+"): it decomposes violently, with oxygen and enough heat to boil and spit the caustic.",
+		"Do not combine. Rinse with water between caustic and peracid steps; dose peracid only into rinse water or a neutral line.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, peroxyacetic acid: bases (from memory); thresholds 0.3 mol/L peracid and pH 13: common practice, no source"), true
+}
+
 // strongOxidizer is a strong oxidizing agent that sets organic liquids
 // alight or boiling: as a solid stream, or as a concentrated solution.
 type strongOxidizer struct {

@@ -84,7 +84,7 @@ func addTo(ps map[string]*pool, gas string, mol, molecular float64, origin, sour
 var poolRules = []func(o *Outcome, ps map[string]*pool){
 	chlorineFromHypochlorite, aquaRegia, chlorateWithHydrochloric, bromateWithAcid,
 	cyanogenChloride, borohydrideInAcid, dithioniteInAcid, alkaliMetalInWater,
-	halideWithSulfuric,
+	halideWithSulfuric, sulfideBeforeNitric,
 	// organic families (organic.go)
 	carbonMonoxideFromAcids,
 }
@@ -258,4 +258,42 @@ func alkaliMetalInWater(o *Outcome, ps map[string]*pool) {
 	}
 	addTo(ps, "H2", n/2, 1, "alkali metal with water",
 		"alkali metals react with water to hydrogen, which the heat ignites: Bretherick's Handbook of Reactive Chemical Hazards, sodium, from memory")
+}
+
+// fastSulfideOxidizers are the oxidizing agents that take hydrogen sulfide
+// as fast as acid frees it (hypochlorite, bromine, peroxide, permanganate,
+// dichromate, iron(III)): with them no hydrogen sulfide is counted ahead of
+// the oxidation.
+var fastSulfideOxidizers = []string{"OCl-", "HOCl", "Cl2", "Br2", "HOBr", "OBr-", "H2O2", "HO2-", "MnO4-", "Cr2O7^2-", "HCrO4-", "CrO4^2-", "Fe^3+"}
+
+// sulfideBeforeNitric: sulfide meeting nitric acid is acidified at once,
+// while nitric acid takes hydrogen sulfide to sulfur (and nitric oxide)
+// over minutes: the hydrogen sulfide the mix as combined gives off comes
+// off first, though the mixed state holds none of it.
+func sulfideBeforeNitric(o *Outcome, ps map[string]*pool) {
+	if o.MolarBefore("NO3-", "HNO3") < TraceMolar || o.MolarBefore(fastSulfideOxidizers...) >= TraceMolar {
+		return
+	}
+	var dissolved, molecular, gas float64
+	for _, a := range o.Before {
+		switch a.Species.Text() {
+		case "H2S(g)":
+			gas += a.Mol
+		case "H2S", "H2S(aq)":
+			molecular += a.Mol
+			dissolved += a.Mol
+		case "HS-", "S^2-":
+			dissolved += a.Mol
+		}
+	}
+	if gas+molecular < TraceMolar*o.VolumeL || o.Molar("H2S", "HS-", "S^2-") >= TraceMolar {
+		return // no hydrogen sulfide as combined, or the mixed state has its own
+	}
+	share := 1.0
+	if dissolved > 0 {
+		share = math.Max(molecular/dissolved, 0)
+	}
+	addBeyond(ps, "H2S", gas+dissolved, "sulfide acidified by the nitric acid at once, before the slower oxidation to sulfur",
+		"dilute nitric acid takes hydrogen sulfide to sulfur more slowly than acid frees it: Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, sulfides with dilute nitric acid, from memory")
+	ps["H2S"].molecular = math.Max(share, 1e-9)
 }
