@@ -18,6 +18,9 @@ import (
 //     only (written with the search index, in batches);
 //   - query_fts: the search index, whose documents are ftsDocColumns of
 //     each query row up to search_state.indexed_upto;
+//   - query_keys (keysVersion on): the time, site, asker and decision
+//     level of every row up to search_state.indexed_upto, whose indexes
+//     the searches by time, site and asker and the digest read;
 //   - search_state: the indexed_upto mark and time_order_broken, which
 //     must be 1 once some row's time is earlier than the row before it.
 
@@ -52,6 +55,7 @@ type derivedCheck struct {
 	enabled     bool // the file has the search tables (schema 2 and later)
 	hz          *cursor
 	fts         *cursor
+	keys        *cursor // query_keys beside each row's generated level; nil before keysVersion
 	indexedUpto int64
 	hzBatched   bool // hazard rows only up to indexedUpto (hazardBatchVersion)
 	storedOrder bool // search_state.time_order_broken
@@ -100,6 +104,13 @@ func newDerivedCheck(ctx context.Context, tx queryer, ver int, pg bool) (*derive
 	if err != nil {
 		return d, fmt.Errorf("read search state: %w", err)
 	}
+	if ver >= keysVersion && !pg {
+		d.keys, err = openCursor(ctx, tx, pg, 7, `SELECT k.id, k.site, k.time, k.kind, k.user_id, k.user_name, k.level,
+			coalesce(q.level, '') FROM query_keys k LEFT JOIN queries q ON q.id = k.id ORDER BY k.id`)
+		if err != nil {
+			return d, err
+		}
+	}
 	if pg {
 		// The index is generated from search_doc by the server; every row
 		// is indexed as it is written.
@@ -112,7 +123,7 @@ func newDerivedCheck(ctx context.Context, tx queryer, ver int, pg bool) (*derive
 }
 
 func (d *derivedCheck) close() {
-	for _, c := range []*cursor{d.hz, d.fts} {
+	for _, c := range []*cursor{d.hz, d.fts, d.keys} {
 		if c != nil {
 			c.rows.Close()
 		}
@@ -135,6 +146,9 @@ func (d *derivedCheck) row(r *row) (string, error) {
 	if !d.enabled {
 		return "", nil
 	}
+	if p, err := d.key(r); p != "" || err != nil {
+		return p, err
+	}
 	if d.fts.ok && d.fts.id < r.ID {
 		return fmt.Sprintf("row %d: the search index holds a document %d that is no query of the log (added outside mixward, or its row was deleted)", r.ID, d.fts.id), nil
 	}
@@ -155,6 +169,31 @@ func (d *derivedCheck) row(r *row) (string, error) {
 		return fmt.Sprintf("row %d: its search-index text differs from the hashed row (edited outside mixward)", r.ID), nil
 	}
 	return "", d.fts.next()
+}
+
+// key compares the query_keys row of r with r: one row for every row up
+// to the indexed mark, none above it.
+func (d *derivedCheck) key(r *row) (string, error) {
+	c := d.keys
+	if c == nil {
+		return "", nil
+	}
+	if c.ok && c.id < r.ID {
+		return fmt.Sprintf("row %d: the look-up table holds row %d, which is not in the log (rows deleted outside mixward)", r.ID, c.id), nil
+	}
+	has := c.ok && c.id == r.ID
+	switch {
+	case r.ID > d.indexedUpto && has:
+		return fmt.Sprintf("row %d: has a look-up row but is not indexed yet (added outside mixward)", r.ID), nil
+	case r.ID > d.indexedUpto:
+		return "", nil
+	case !has:
+		return fmt.Sprintf("row %d: is missing from the look-up table (deleted outside mixward, hiding it from searches by date, site or user and from digests)", r.ID), nil
+	}
+	if want := [6]string{r.Site, r.Time, r.Kind, r.UserID, r.UserName, c.cols[6]}; [6]string(c.cols[:6]) != want {
+		return fmt.Sprintf("row %d: its look-up row (time, site, user or level) differs from the hashed row (edited outside mixward)", r.ID), nil
+	}
+	return "", c.next()
 }
 
 // hazards compares the query_hazards rows of query id with its hashed
@@ -200,6 +239,9 @@ func (d *derivedCheck) finish(lastID int64) (int64, string, error) {
 	}
 	if !d.enabled {
 		return 0, "", nil
+	}
+	if d.keys != nil && d.keys.ok {
+		return d.keys.id, fmt.Sprintf("the look-up table holds row %d, but the log ends at row %d (rows deleted outside mixward)", d.keys.id, lastID), nil
 	}
 	if d.fts.ok {
 		return d.fts.id, fmt.Sprintf("the search index holds document %d, but the log ends at row %d (rows deleted outside mixward)", d.fts.id, lastID), nil
@@ -279,7 +321,7 @@ func (d *derivedCheck) compareWordCounts() (string, error) {
 }
 
 // RebuildDerived rebuilds every derived table from the hashed rows, in one
-// transaction: the hazard rows, the search index and the search state. Use
+// transaction: the hazard rows, the look-up keys, the search index and the search state. Use
 // it after Verify reported a derived table that differs from the rows (keep
 // a copy of the file as evidence first); it changes no chained row.
 func (db *DB) RebuildDerived(ctx context.Context) error {
@@ -294,6 +336,14 @@ func (db *DB) RebuildDerived(ctx context.Context) error {
 		return fmt.Errorf("rebuild derived tables: %w", err)
 	}
 	defer tx.Rollback()
+	if db.ver >= keysVersion {
+		for _, s := range []string{`DELETE FROM query_keys`, `INSERT INTO query_keys (id, site, time, kind, user_id, user_name, level)
+			SELECT ` + keyColumns + ` FROM queries q ORDER BY q.id`} {
+			if _, err := tx.ExecContext(ctx, s); err != nil {
+				return fmt.Errorf("rebuild derived tables: %w", err)
+			}
+		}
+	}
 	for _, s := range []string{
 		`DELETE FROM query_hazards`,
 		`INSERT INTO query_hazards (query_id, pos, code, severity, message)

@@ -106,9 +106,9 @@ func (db *DB) Digest(ctx context.Context, since, until time.Time) (*Digest, erro
 	window := `q.site = ? AND q.kind = 'query' AND q.time >= ? AND q.time < ?`
 	w := []any{db.site, formatTime(since), formatTime(until)}
 	for _, step := range []func() error{
-		func() error { return digestScan(ctx, tx, d, window, w, db.pg) },
+		func() error { return digestScan(ctx, tx, d, window, w, db.usesKeys()) },
 		func() error { return digestNames(ctx, tx, d, db.hasNames()) },
-		func() error { return digestHead(ctx, tx, d, until) },
+		func() error { return digestHead(ctx, tx, d, until, db.usesKeys()) },
 	} {
 		if err := step(); err != nil {
 			return nil, fmt.Errorf("digest: %w", err)
@@ -133,8 +133,8 @@ func sortAskers(as []AskerCount) {
 
 // digestHead finds the newest row logged before until (by id among the
 // rows before it) and its hash.
-func digestHead(ctx context.Context, tx *sql.Tx, d *Digest, until time.Time) error {
-	_, hi, empty, err := idRange(ctx, tx, time.Time{}, until)
+func digestHead(ctx context.Context, tx *sql.Tx, d *Digest, until time.Time, keys bool) error {
+	_, hi, empty, err := idRange(ctx, tx, time.Time{}, until, keys)
 	if err != nil || empty || hi == 0 {
 		return err
 	}

@@ -6,6 +6,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"sort"
+	"strings"
 	"time"
 )
 
@@ -21,19 +22,45 @@ type digestRow struct {
 // site-and-time index, and fills the counts, askers, stream pairs, mix lines, flagged
 // mixes and parse failures from it in Go: one pass over the rows instead
 // of a GROUP BY sort for the askers, another for the pairs and three more
-// scans. The hazards and decision level are the hashed JSON of each row,
-// so editing a derived table cannot hide one. Stored JSON lists are
-// decoded once per distinct text (operators ask the same mixes again and
-// again).
-func digestScan(ctx context.Context, tx *sql.Tx, d *Digest, window string, w []any, pg bool) error {
-	rows, err := tx.QueryContext(ctx, `SELECT q.id, q.time, q.user_id, q.user_name, q.channel, q.request, q.resolved, q.verdict,
-		q.error, q.streams, q.hazards, q.level
-		  FROM queries q WHERE `+window, w...)
+// scans. The hazards are the hashed JSON of each row, so editing a derived
+// table cannot hide one. Stored JSON lists are decoded once per distinct
+// text (operators ask the same mixes again and again). With keys
+// (usesKeys) the rows up to the indexed mark are found through the
+// site-and-time index of query_keys, which also gives their decision level
+// (Verify compares it with the row's), and the rows above the mark by a
+// scan of those few rows; the window is tested on the hashed columns too.
+func digestScan(ctx context.Context, tx *sql.Tx, d *Digest, window string, w []any, keys bool) error {
+	const cols = `q.id, q.time, q.user_id, q.user_name, q.channel, q.request, q.resolved, q.verdict, q.error, q.streams, q.hazards`
+	a := newDigestAdder(d)
+	if !keys {
+		if err := digestRows(ctx, tx, a, `SELECT `+cols+`, q.level FROM queries q WHERE `+window, w); err != nil {
+			return err
+		}
+		return a.finish()
+	}
+	mark, err := indexedMark(ctx, tx)
+	if err != nil {
+		return err
+	}
+	kwin := strings.ReplaceAll(window, "q.", "k.")
+	if err := digestRows(ctx, tx, a, `SELECT `+cols+`, k.level FROM query_keys k CROSS JOIN queries q ON q.id = k.id
+		WHERE `+kwin+` AND `+window+` AND k.id <= ?`, append(append(append([]any{}, w...), w...), mark)); err != nil {
+		return err
+	}
+	if err := digestRows(ctx, tx, a, `SELECT `+cols+`, q.level FROM queries q WHERE q.id > ? AND `+window,
+		append([]any{mark}, w...)); err != nil {
+		return err
+	}
+	return a.finish()
+}
+
+// digestRows adds the rows of stmt (digestRow's columns in order).
+func digestRows(ctx context.Context, tx *sql.Tx, a *digestAdder, stmt string, args []any) error {
+	rows, err := tx.QueryContext(ctx, stmt, args...)
 	if err != nil {
 		return err
 	}
 	defer rows.Close()
-	a := newDigestAdder(d)
 	var r digestRow
 	for rows.Next() {
 		if err := rows.Scan(&r.id, &r.time, &r.user, &r.name, &r.channel, &r.request, &r.resolved, &r.verdict,
@@ -44,10 +71,7 @@ func digestScan(ctx context.Context, tx *sql.Tx, d *Digest, window string, w []a
 			return err
 		}
 	}
-	if err := rows.Err(); err != nil {
-		return err
-	}
-	return a.finish()
+	return rows.Err()
 }
 
 // digestAdder adds the rows of a digest up.

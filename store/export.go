@@ -4,6 +4,7 @@ import (
 	"context"
 	"encoding/json"
 	"fmt"
+	"math"
 	"time"
 )
 
@@ -34,6 +35,22 @@ func (db *DB) Export(ctx context.Context, since, until time.Time, fn func(*Entry
 		return fmt.Errorf("export: %w", err)
 	}
 	defer tx.Rollback()
+	if db.usesKeys() && len(args) > 0 {
+		// Bound the ids through the time index of query_keys (exact:
+		// idRange), so a short window reads only its rows.
+		lo, hi, empty, err := idRange(ctx, tx, since, until, true)
+		if err != nil {
+			return fmt.Errorf("export: %w", err)
+		}
+		where += ` AND id >= ? AND id <= ?`
+		args = append(args, lo, hi)
+		if hi == 0 {
+			args[len(args)-1] = math.MaxInt64
+		}
+		if empty {
+			return nil
+		}
+	}
 	rows, err := tx.QueryContext(ctx, `SELECT `+rowColumns+` FROM queries WHERE `+where+` ORDER BY id`, args...)
 	if err != nil {
 		return fmt.Errorf("export: %w", err)

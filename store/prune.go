@@ -85,8 +85,8 @@ func (db *DB) prune(ctx context.Context, conn *sql.Conn, before time.Time, by st
 		}
 	}
 
-	var cut sql.NullInt64
-	if err := tx.QueryRowContext(ctx, `SELECT min(id) FROM queries WHERE time >= ?`, formatTime(before)).Scan(&cut); err != nil {
+	cut, err := db.firstFrom(ctx, tx, formatTime(before))
+	if err != nil {
 		return 0, fmt.Errorf("prune: %w", err)
 	}
 	cond, args := `id < ?`, []any{cut.Int64}

@@ -387,7 +387,8 @@ func (db *DB) insertHazards(ctx context.Context, tx *sql.Tx, id int64, hz []Haza
 const indexBatch = 64
 
 // indexUpTo indexes every query row with id in (indexed_upto, upto], writes
-// the hazard rows of every row there (schema hazardBatchVersion and later),
+// the hazard rows of every row there (schema hazardBatchVersion and later)
+// and its query_keys row (keysVersion and later),
 // and moves the mark; force indexes even a short backlog.
 func (db *DB) indexUpTo(ctx context.Context, tx *sql.Tx, upto int64, force bool) error {
 	if db.pg {
@@ -402,6 +403,11 @@ func (db *DB) indexUpTo(ctx context.Context, tx *sql.Tx, upto int64, force bool)
 	}
 	if db.ver >= hazardBatchVersion {
 		if _, err := db.ws.hazards.exec(ctx, tx, done, upto); err != nil {
+			return err
+		}
+	}
+	if db.ver >= keysVersion {
+		if _, err := db.ws.keys.exec(ctx, tx, done, upto); err != nil {
 			return err
 		}
 	}

@@ -103,6 +103,8 @@ func (db *DB) Search(ctx context.Context, o SearchOptions) (SearchPage, error) {
 		err = readPage(ctx, tx, &page, stmt, append(append(args, margs...), page.Limit+1, page.Offset))
 	} else if len(phrases) == 0 && (o.Hazard != "" || len(o.HazardAny) > 0) {
 		err = db.searchHazards(ctx, tx, o, &page, cols, where, args)
+	} else if kw, kargs := keyFilters(o); len(phrases) == 0 && db.usesKeys() && kw != nil {
+		err = searchKeys(ctx, tx, &page, cols, where, args, kw, kargs)
 	} else if len(phrases) == 0 {
 		stmt := `SELECT ` + cols + ` FROM queries q WHERE ` + strings.Join(where, " AND ") +
 			` ORDER BY q.id DESC LIMIT ? OFFSET ?`
@@ -120,7 +122,7 @@ func (db *DB) searchTerms(ctx context.Context, tx *sql.Tx, o SearchOptions, page
 	// the scan stops once the page is full. The time window also bounds
 	// the docids (ids grow with time; min/max keep it exact even if they
 	// did not).
-	lo, hi, empty, err := idRange(ctx, tx, o.Since, o.Until)
+	lo, hi, empty, err := idRange(ctx, tx, o.Since, o.Until, db.usesKeys())
 	if err != nil || empty {
 		return err
 	}
@@ -300,11 +302,15 @@ func wordCount(phrases []string) int {
 // idRange returns the id bounds of rows in [since, until); 0 means open.
 // empty is true when no row can be in the window. While row times never
 // went backwards (search_state.time_order_broken = 0) the bounds come from
-// the time index; otherwise from scans, which stay exact.
-func idRange(ctx context.Context, tx *sql.Tx, since, until time.Time) (lo, hi int64, empty bool, err error) {
+// the time index; otherwise from scans, which stay exact. With keys
+// (usesKeys) the time index is query_keys' below the indexed mark.
+func idRange(ctx context.Context, tx *sql.Tx, since, until time.Time, keys bool) (lo, hi int64, empty bool, err error) {
 	var broken bool
 	if err := tx.QueryRowContext(ctx, `SELECT time_order_broken FROM search_state`).Scan(&broken); err != nil {
 		return 0, 0, false, err
+	}
+	if keys {
+		return keyRange(ctx, tx, since, until, !broken)
 	}
 	loSQL := `SELECT min(id) FROM queries WHERE time = (SELECT min(time) FROM queries WHERE time >= ?)`
 	hiSQL := `SELECT max(id) FROM queries WHERE time = (SELECT max(time) FROM queries WHERE time < ?)`

@@ -42,8 +42,8 @@ const insertV7 = `INSERT INTO queries (id, kind, time, user_id, user_name, chann
 
 // writeStmts are the statements of LogQuery.
 type writeStmts struct {
-	head, insert, hazard, hazards, index, event, indexed, setIndexed, timeBroken stmt
-	seq                                                                          stmt // PostgreSQL: chain_state.seq
+	head, insert, hazard, hazards, keys, index, event, indexed, setIndexed, timeBroken stmt
+	seq                                                                                stmt // PostgreSQL: chain_state.seq
 }
 
 func newWriteStmts(pg bool) *writeStmts {
@@ -62,6 +62,8 @@ func newWriteStmts(pg bool) *writeStmts {
 		hazard: stmt{sql: `INSERT INTO query_hazards (query_id, pos, code, severity, message) VALUES (?, ?, ?, ?, ?)`},
 		hazards: stmt{sql: `INSERT INTO query_hazards (query_id, pos, code, severity, message) SELECT ` + hazardRowColumns + `
 			FROM queries q, json_each(q.hazards) j WHERE q.id > ? AND q.id <= ? ORDER BY q.id, j.key`},
+		keys: stmt{sql: `INSERT INTO query_keys (id, site, time, kind, user_id, user_name, level)
+			SELECT ` + keyColumns + ` FROM queries q WHERE q.id > ? AND q.id <= ? ORDER BY q.id`},
 		index: stmt{sql: `INSERT INTO query_fts (docid, request, species, hazards)
 			SELECT ` + ftsDocColumns + ` FROM queries q WHERE q.kind = 'query' AND q.id > ? AND q.id <= ?`},
 		indexed:    stmt{sql: `SELECT indexed_upto FROM search_state`},
@@ -89,5 +91,5 @@ func (ws *writeStmts) close() {
 }
 
 func (ws *writeStmts) all() []*stmt {
-	return []*stmt{&ws.head, &ws.insert, &ws.hazard, &ws.hazards, &ws.index, &ws.event, &ws.indexed, &ws.setIndexed, &ws.timeBroken}
+	return []*stmt{&ws.head, &ws.insert, &ws.hazard, &ws.hazards, &ws.keys, &ws.index, &ws.event, &ws.indexed, &ws.setIndexed, &ws.timeBroken}
 }

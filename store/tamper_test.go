@@ -84,7 +84,8 @@ func forgeAppend(t *testing.T, raw *sql.DB, key *ChainKey, madeUpHash bool) {
 	_, err = raw.Exec(`INSERT INTO query_hazards (query_id, pos, code, severity, message)
 		SELECT ?, pos, code, severity, message FROM query_hazards WHERE query_id = 2;
 		INSERT INTO query_fts (docid, request, species, hazards) SELECT `+ftsDocColumns+` FROM queries q WHERE q.id = ?;
-		UPDATE search_state SET indexed_upto = ?`, r.ID, r.ID, r.ID)
+		INSERT INTO query_keys (id, site, time, kind, user_id, user_name, level) SELECT `+keyColumns+` FROM queries q WHERE q.id = ?;
+		UPDATE search_state SET indexed_upto = ?`, r.ID, r.ID, r.ID, r.ID)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -92,7 +93,7 @@ func forgeAppend(t *testing.T, raw *sql.DB, key *ChainKey, madeUpHash bool) {
 
 // cutTail deletes rows after keep with everything derived from them and
 // rewinds sqlite_sequence, as a careful attacker would.
-const cutTail = `DELETE FROM queries WHERE id > 4; DELETE FROM query_hazards WHERE query_id > 4;
+const cutTail = `DELETE FROM queries WHERE id > 4; DELETE FROM query_hazards WHERE query_id > 4; DELETE FROM query_keys WHERE id > 4;
 	UPDATE sqlite_sequence SET seq = 4 WHERE name = 'queries'; UPDATE search_state SET indexed_upto = min(indexed_upto, 4)`
 
 // TestTamperMethods tries each way of changing the log with the file (and
@@ -178,6 +179,17 @@ func TestTamperMethods(t *testing.T) {
 			detected: true, problem: "row 2: its search-index text differs"},
 		{name: "empty the search index's word lists", tamper: sqlStep(`DELETE FROM query_fts_segdir`),
 			detected: true, problem: "the search index's entries for the word"},
+		{name: "delete a look-up row", tamper: sqlStep(`DELETE FROM query_keys WHERE id = 3`),
+			detected: true, problem: "row 3: is missing from the look-up table"},
+		{name: "move a look-up row to another user", tamper: sqlStep(`UPDATE query_keys SET user_id = 'U0000', user_name = 'someone' WHERE id = 2`),
+			detected: true, problem: "row 2: its look-up row (time, site, user or level) differs"},
+		{name: "move a look-up row out of its day", tamper: sqlStep(`UPDATE query_keys SET time = '2001-01-01T00:00:00Z' WHERE id = 2`),
+			detected: true, problem: "row 2: its look-up row (time, site, user or level) differs"},
+		{name: "lower a look-up row's level", tamper: sqlStep(`UPDATE query_keys SET level = 'no-concern' WHERE id = 1`),
+			detected: true, problem: "row 1: its look-up row (time, site, user or level) differs"},
+		{name: "add a look-up row above the mark", tamper: sqlStep(`UPDATE search_state SET indexed_upto = 4; DELETE FROM query_fts WHERE docid > 4;
+			DELETE FROM query_hazards WHERE query_id > 4`),
+			detected: true, problem: "row 5: has a look-up row but is not indexed yet"},
 		{name: "raise the indexed mark", tamper: sqlStep(`UPDATE search_state SET indexed_upto = 99`),
 			detected: true, problem: "the search state says rows up to 99 are indexed"},
 	} {
