@@ -91,7 +91,7 @@ func anyRate(final []engine.Hazard) bool {
 
 // withoutRateActions drops the actions that suggest a safe way of making
 // the mix (the heat hazards' "run it in slowly with cooling", an order of
-// addition) when a reason not to combine holds at every rate and order.
+// addition, any "do not combine in one go ... dose slowly") when a reason not to combine holds at every rate and order.
 func withoutRateActions(actions []string, final []engine.Hazard) []string {
 	drop := map[string]bool{}
 	for _, h := range final {
@@ -101,7 +101,7 @@ func withoutRateActions(actions []string, final []engine.Hazard) []string {
 	}
 	out := actions[:0:0]
 	for _, a := range actions {
-		if drop[a] || strings.HasPrefix(a, "Add ") || strings.HasPrefix(a, "In sequence:") {
+		if drop[a] || strings.HasPrefix(a, "Add ") || strings.HasPrefix(a, "In sequence:") || strings.HasPrefix(a, "Do not combine in one go") {
 			continue
 		}
 		out = append(out, a)
