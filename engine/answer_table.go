@@ -6,6 +6,7 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"sync"
 
 	"mixward/engine/explain"
 	"mixward/engine/state"
@@ -250,24 +251,39 @@ func (e *Engine) tableCouple(c *candidate, reducer bool) *Couple {
 
 // heldBack lists the locks that held something back in the mix.
 func (e *Engine) heldBack(mx *state.Mix) []HeldBack {
+	locks := append(mx.Final.Held[:len(mx.Final.Held):len(mx.Final.Held)], mx.Final.Undecided...)
+	// Each lock is lifted in its own solve; the solves share nothing but
+	// the read-only mix and the model's locked caches, so they run side by
+	// side and the answer keeps the locks' order.
+	found := make([]*HeldBack, len(locks))
+	var wg sync.WaitGroup
+	for i, l := range locks {
+		wg.Go(func() { found[i] = e.liftLock(mx, l) })
+	}
+	wg.Wait()
 	out := []HeldBack{}
-	for _, l := range append(mx.Final.Held[:len(mx.Final.Held):len(mx.Final.Held)], mx.Final.Undecided...) {
-		st, err := e.Model.Without(mx, l.ID)
-		if err != nil {
-			continue
+	for _, h := range found {
+		if h != nil {
+			out = append(out, *h)
 		}
-		// What the lock prevents: the change from the state with it to the
-		// state without it. A lock whose lifting changes nothing held
-		// nothing back.
-		free := *mx
-		free.Combined, free.Final = mx.Final, st
-		steps, err := explain.Steps(e.Tables.Thermo, &free)
-		if err != nil || len(steps) == 0 {
-			continue
-		}
-		out = append(out, HeldBack{Lock: l.ID, Reason: l.Reason, Source: l.Source, Reaction: reactionOut(steps[0].Net, steps[0].N)})
 	}
 	return out
+}
+
+// liftLock is what lock l held back in mx: the first step from the state
+// with it to the state without it, or nil when lifting it changes nothing.
+func (e *Engine) liftLock(mx *state.Mix, l *state.Lock) *HeldBack {
+	st, err := e.Model.Without(mx, l.ID)
+	if err != nil {
+		return nil
+	}
+	free := *mx
+	free.Combined, free.Final = mx.Final, st
+	steps, err := explain.Steps(e.Tables.Thermo, &free)
+	if err != nil || len(steps) == 0 {
+		return nil
+	}
+	return &HeldBack{Lock: l.ID, Reason: l.Reason, Source: l.Source, Reaction: reactionOut(steps[0].Net, steps[0].N)}
 }
 
 // finish judges the hazards and caveats of an answer from its species, steps,
