@@ -50,3 +50,26 @@ func TestOxidizerWithAnyOrganicLiquid(t *testing.T) {
 		t.Errorf("chlorate solution with acetone: %.0f kJ counted as released, want the fire heat left out", h.ReleasedkJ)
 	}
 }
+
+// TestNitricWithOrganicGivesNO2: concentrated nitric acid with ethanol
+// gives nitrogen dioxide, one per electron taken from the ethanol (4 per
+// ethanol, as far as the acid goes: Bretherick's Handbook, nitric acid with
+// ethanol, from memory): 10 L ethanol (171 mol) under 100 L of 68 % acid
+// (1520 mol) gives 4 × 171 = 685 mol; a 1 % acid rinse gives none.
+func TestNitricWithOrganicGivesNO2(t *testing.T) {
+	a := mustAdvisor(t)
+	no2 := func(req string) float64 {
+		for _, h := range ask(t, a, req).Hazards {
+			if h.Code == "no2-release" && h.Gas != nil {
+				return h.Gas.Mol
+			}
+		}
+		return 0
+	}
+	if got := no2("mix 100 L HNO3 68 % + 10 L ethanol"); got < 600 || got > 760 {
+		t.Errorf("nitric 68 %% with 10 L ethanol: NO2 %.0f mol, want about 685", got)
+	}
+	if got := no2("mix 1000 L water, HNO3 1 % + 1 L ethanol"); got != 0 {
+		t.Errorf("a 1 %% nitric rinse with ethanol: NO2 %.3g mol, want none", got)
+	}
+}

@@ -84,7 +84,7 @@ func addTo(ps map[string]*pool, gas string, mol, molecular float64, origin, sour
 var poolRules = []func(o *Outcome, ps map[string]*pool){
 	chlorineFromHypochlorite, aquaRegia, chlorateWithHydrochloric, bromateWithAcid,
 	cyanogenChloride, borohydrideInAcid, dithioniteInAcid, alkaliMetalInWater,
-	halideWithSulfuric, sulfideBeforeNitric,
+	halideWithSulfuric, sulfideBeforeNitric, nitricWithOrganic,
 	// organic families (organic.go)
 	carbonMonoxideFromAcids,
 }
@@ -172,6 +172,24 @@ func halideWithSulfuric(o *Outcome, ps map[string]*pool) {
 	if io := o.MolarBefore("I-", "HI") * o.VolumeL; io >= TraceMolar*o.VolumeL {
 		addBeyond(ps, "H2S", io/8, "iodide with concentrated sulfuric acid (8 HI + H2SO4 → 4 I2 + H2S + 4 H2O; sulfur and sulfur dioxide beside it)", src)
 	}
+}
+
+// nitricWithOrganic: nitric acid above about 2 mol/L takes organic matter
+// (as ethanol equivalents: C2H5OH + 4 H+ + 4 NO3- → CH3COOH + 4 NO2 +
+// 3 H2O) to nitrogen dioxide, one NO2 per electron, as far as the organic
+// or the acid goes: the gas of the nitric-organic runaway (families.go).
+func nitricWithOrganic(o *Outcome, ps map[string]*pool) {
+	hno3 := o.MolarBefore("HNO3", "NO3-")
+	if hno3 < 2 || o.PH >= 1 || organicC(o.Before) < 0.01 {
+		return
+	}
+	if hno3 >= NitratingNitricMolar && sulfuric(o) >= NitratingSulfuricMolar && o.MolarBefore(polyols...) >= NitratingPolyolMolar {
+		return // mixed acid nitrates a polyol rather than oxidizing it (nitrate-esters leads)
+	}
+	_, orgE := organicLiquid(o, true)
+	n := math.Min(orgE, hno3) * o.VolumeL
+	addBeyond(ps, "NO2", n, "nitric acid oxidizing the organic matter (as ethanol: C2H5OH + 4 H+ + 4 NO3- → CH3COOH + 4 NO2 + 3 H2O)",
+		"Bretherick's Handbook of Reactive Chemical Hazards, nitric acid with organic compounds (from memory); one NO2 per electron taken from the organic: common practice, no source")
 }
 
 // addBeyond adds a gas that a fast reaction gives off beyond the
