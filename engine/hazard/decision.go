@@ -257,16 +257,25 @@ func worstOf(hs []engine.Hazard) int {
 	return w
 }
 
-// titleOf is the title of the worst hazards, at most two.
+// titleOf is the title of the worst hazards, at most two; among them a
+// hazard that forms an explosive comes first, whatever gas comes off
+// beside it.
 func titleOf(hs []engine.Hazard) string {
 	var ts []string
 	w := worstOf(hs)
-	for _, h := range hs {
-		if rank(h.Severity) == w && len(ts) < 2 {
-			ts = appendNew(ts, h.Title)
+	for _, first := range []bool{true, false} {
+		for _, h := range hs {
+			if rank(h.Severity) == w && len(ts) < 2 && explosive(h.Code) == first {
+				ts = appendNew(ts, h.Title)
+			}
 		}
 	}
 	return strings.Join(ts, "; ")
+}
+
+// explosive reports whether a code names an explosive product.
+func explosive(code string) bool {
+	return strings.Contains(codeTitle(code), "explosive")
 }
 
 // Reason is a hazard in a few words with its numbers.

@@ -183,9 +183,6 @@ func nitricWithOrganic(o *Outcome, ps map[string]*pool) {
 	if hno3 < 2 || o.PH >= 1 || organicC(o.Before) < 0.01 {
 		return
 	}
-	if hno3 >= NitratingNitricMolar && sulfuric(o) >= NitratingSulfuricMolar && o.MolarBefore(polyols...) >= NitratingPolyolMolar {
-		return // mixed acid nitrates a polyol rather than oxidizing it (nitrate-esters leads)
-	}
 	_, orgE := organicLiquid(o, true)
 	n := math.Min(orgE, hno3) * o.VolumeL
 	addBeyond(ps, "NO2", n, "nitric acid oxidizing the organic matter (as ethanol: C2H5OH + 4 H+ + 4 NO3- → CH3COOH + 4 NO2 + 3 H2O)",

@@ -44,8 +44,41 @@ func relative(mix []engine.Hazard, alone []Alone, final bool) []engine.Hazard {
 		}
 		out = append(out, h)
 	}
+	if final {
+		out = append(out, streamFumes(out, alone)...)
+	}
 	// Danger first, as Judge orders them.
 	sort.SliceStable(out, func(i, j int) bool { return rank(out[i].Severity) > rank(out[j].Severity) })
+	return out
+}
+
+// streamFumes are the toxic gases a stream gives off by itself above its
+// exposure limit (neat bromine, strong ammonia or hydrochloric acid) that
+// the mix takes up: the operator still handles the stream before it is in
+// the tank, so the answer says so as a warning rather than "no concern"
+// (NIOSH Pocket Guide, the gas's IDLH; common practice, no source: closed
+// transfer and extraction for fuming liquids).
+func streamFumes(mix []engine.Hazard, alone []Alone) []engine.Hazard {
+	in := map[string]bool{}
+	for _, h := range mix {
+		in[h.Code] = true
+	}
+	var out []engine.Hazard
+	for _, a := range alone {
+		for _, b := range a.Hazards {
+			if b.Gas == nil || b.Severity != engine.Danger || in[b.Code] || b.Gas.Ratio < 1 {
+				continue
+			}
+			in[b.Code] = true
+			out = append(out, engine.Hazard{
+				Code: "stream-fumes", Severity: engine.Warning, Title: "fumes of " + strings.TrimPrefix(b.Title, "releases ") + " off " + a.Name + " as poured: closed transfer",
+				Message: a.Name + " gives off " + b.Gas.Formula + " by itself (" + fmtNum(b.Gas.HeadspacePPM, 3) + " ppm over it, " +
+					fmtNum(b.Gas.Ratio, 3) + "× " + b.Gas.LimitName + " " + fmtNum(b.Gas.LimitPPM, 3) + " ppm) until it is in the mix, which takes the gas up.",
+				Action: "Transfer " + a.Name + " closed, or below the liquid surface, with extraction running and the protective equipment of its safety data sheet.",
+				Source: b.Gas.LimitSource + "; closed transfer of fuming liquids: common practice, no source",
+			})
+		}
+	}
 	return out
 }
 
