@@ -156,3 +156,26 @@ func trimNum(x float64) string {
 	}
 	return strconv.FormatFloat(x, 'g', 4, 64)
 }
+
+// GasAsSold reports whether a stream holds nothing but chemicals that are
+// gases at 25 °C and 1 atm as sold (liquefied chlorine, anhydrous ammonia,
+// sulfur dioxide: a (g) row in the species data and no liquid or solid
+// one), given by mass or without a strength: no water comes with it.
+func GasAsSold(s *Stream, t *Tables) bool {
+	if t.Thermo == nil || len(s.Components) == 0 || s.VolumeL > 0 {
+		return false
+	}
+	for _, c := range s.Components {
+		if c.Chemical == nil || c.Unit != NoConc {
+			return false
+		}
+		f := c.Chemical.Formula
+		_, gas := t.Thermo.Get(f + "(g)")
+		_, liq := t.Thermo.Get(f + "(l)")
+		_, sol := t.Thermo.Get(f + "(s)")
+		if !gas || liq || sol {
+			return false
+		}
+	}
+	return true
+}

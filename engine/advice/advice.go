@@ -144,6 +144,14 @@ func (a *Advisor) alone(req *engine.Request) map[string]hazard.Alone {
 	out := map[string]hazard.Alone{}
 	for _, s := range req.Streams {
 		r := streamAlone(req, s)
+		if a.water != nil && engine.GasAsSold(&s, a.Engine.Tables) {
+			// A liquefied gas by itself has no liquid to hold it: judged
+			// over a film of water (a litre per tonne, as it meets moist
+			// air), it gives off what it is.
+			film := *a.water
+			film.VolumeL = math.Max(s.MassKg, 0.001) * 1e-3
+			r.Streams = append(r.Streams, film)
+		}
 		hs, err := a.evaluate(&r)
 		if err != nil {
 			continue

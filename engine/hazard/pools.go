@@ -84,7 +84,7 @@ func addTo(ps map[string]*pool, gas string, mol, molecular float64, origin, sour
 var poolRules = []func(o *Outcome, ps map[string]*pool){
 	chlorineFromHypochlorite, aquaRegia, chlorateWithHydrochloric, bromateWithAcid,
 	cyanogenChloride, borohydrideInAcid, dithioniteInAcid, alkaliMetalInWater,
-	halideWithSulfuric, sulfideBeforeNitric, nitricWithOrganic,
+	halideWithSulfuric, sulfideBeforeNitric, nitricWithOrganic, chlorateWithSulfuric,
 	// organic families (organic.go)
 	carbonMonoxideFromAcids,
 }
@@ -187,6 +187,18 @@ func nitricWithOrganic(o *Outcome, ps map[string]*pool) {
 	n := math.Min(orgE, hno3) * o.VolumeL
 	addBeyond(ps, "NO2", n, "nitric acid oxidizing the organic matter (as ethanol: C2H5OH + 4 H+ + 4 NO3- → CH3COOH + 4 NO2 + 3 H2O)",
 		"Bretherick's Handbook of Reactive Chemical Hazards, nitric acid with organic compounds (from memory); one NO2 per electron taken from the organic: common practice, no source")
+}
+
+// chlorateWithSulfuric: concentrated sulfuric acid turns chlorate into
+// chloric acid, which breaks down to chlorine dioxide (3 HClO3 → 2 ClO2 +
+// HClO4 + H2O): the gas of the clo2-release family (families.go).
+func chlorateWithSulfuric(o *Outcome, ps map[string]*pool) {
+	clo3 := o.MolarBefore("ClO3-", "HClO3")
+	if sulfuric(o) < chlorateAcidMolar || clo3 < 0.01 {
+		return
+	}
+	addBeyond(ps, "ClO2", clo3*2/3*o.VolumeL, "chlorate with concentrated sulfuric acid (3 HClO3 → 2 ClO2 + HClO4 + H2O)",
+		"Bretherick's Handbook of Reactive Chemical Hazards, sodium chlorate: sulfuric acid (from memory)")
 }
 
 // addBeyond adds a gas that a fast reaction gives off beyond the

@@ -1,0 +1,34 @@
+package advice_test
+
+import (
+	"testing"
+
+	"mixward/engine"
+)
+
+// TestReview7Pours checks pours from a plant chemist's seventh review,
+// each with its basis:
+//   - chloramination with chlorine gas and ammonia gas at Cl2:NH3-N about
+//     2.4:1 by weight, ammonia first, is routine below 5:1 (White's Handbook
+//     of Chlorination, from memory): with precautions, not refused because
+//     the liquefied gases give off what they are where they land;
+//   - chlorate in concentrated sulfuric acid gives chlorine dioxide,
+//     3 HClO3 → 2 ClO2 + HClO4 + H2O (Bretherick's Handbook, sodium
+//     chlorate: sulfuric acid, from memory): 100 L of 40 % (about 500 mol)
+//     gives up to about 333 mol, and the gas figure says so.
+func TestReview7Pours(t *testing.T) {
+	a := mustAdvisor(t)
+	if r := ask(t, a, "mix 1000 L water + 0.2 kg Cl2 + 0.1 kg NH3"); r.Decision.Level != engine.WithPrecautions {
+		t.Errorf("chloramination with the gases: level %s, want with-precautions (%s)", r.Decision.Level, r.Decision.Title)
+	}
+	r := ask(t, a, "mix 100 L NaClO3 40 % + 100 L H2SO4 98 %")
+	mol := 0.0
+	for _, h := range r.Hazards {
+		if h.Code == "clo2-release" && h.Gas != nil {
+			mol = h.Gas.Mol
+		}
+	}
+	if mol < 300 || mol > 360 {
+		t.Errorf("chlorate with 98 %% sulfuric acid: ClO2 %.0f mol, want about 333", mol)
+	}
+}
