@@ -15,9 +15,19 @@ import (
 //   - chlorate in concentrated sulfuric acid gives chlorine dioxide,
 //     3 HClO3 → 2 ClO2 + HClO4 + H2O (Bretherick's Handbook, sodium
 //     chlorate: sulfuric acid, from memory): 100 L of 40 % (about 500 mol)
-//     gives up to about 333 mol, and the gas figure says so.
+//     gives up to about 333 mol, and the gas figure says so;
+//   - hydrazine with 68 % nitric acid is oxidized violently and leaves
+//     hydrazinium nitrate, explosive when dry (Bretherick's Handbook,
+//     hydrazine: nitric acid, from memory): do not mix; 200 ppm hydrazine
+//     boiler water with a little dilute acid is no concern.
 func TestReview7Pours(t *testing.T) {
 	a := mustAdvisor(t)
+	if r := ask(t, a, "mix 100 L N2H4 35 % + 10 L HNO3 68 %"); r.Decision.Level != engine.DoNotMix {
+		t.Errorf("hydrazine with nitric acid: level %s, want do-not-mix (%s)", r.Decision.Level, r.Decision.Title)
+	}
+	if r := ask(t, a, "mix 1000 L water, N2H4 200 ppm + 1 L HNO3 10 %"); r.Decision.Level != engine.NoConcern {
+		t.Errorf("hydrazine boiler water with dilute acid: level %s, want no-concern (%s)", r.Decision.Level, r.Decision.Title)
+	}
 	if r := ask(t, a, "mix 1000 L water + 0.2 kg Cl2 + 0.1 kg NH3"); r.Decision.Level != engine.WithPrecautions {
 		t.Errorf("chloramination with the gases: level %s, want with-precautions (%s)", r.Decision.Level, r.Decision.Title)
 	}

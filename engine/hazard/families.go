@@ -14,7 +14,7 @@ import (
 // reliable Gibbs energies, or they are runaways rather than equilibria).
 // Each is judged from what the streams bring together, with its source.
 var familyRules = []func(o *Outcome) (engine.Hazard, bool){
-	chloroAmines, nitrateEsters, nitricOrganic, ammoniumNitrite, permanganateSulfuric, volatileAcid,
+	chloroAmines, nitrateEsters, nitricOrganic, hydrazineNitric, ammoniumNitrite, permanganateSulfuric, volatileAcid,
 	solidHypochlorite, magnesiumWater, cyanideOxidation, halideSulfuric, chlorateSulfuric, hotElectrolessNickel, nitricMetalFumes,
 	// organic, azide and solid-chlorinator families (organic.go)
 	organicPeroxides, perchlorateEsters, peracidAlkali, oxidizerOrganic, bisChloromethylEther,
@@ -113,6 +113,30 @@ func nitricOrganic(o *Outcome) (engine.Hazard, bool) {
 		"Nitric acid at "+fmtNum(hno3, 2)+" mol/L with organic matter ("+fmtNum(c, 2)+" mol/L of carbon) oxidizes it after a delay, then runs away with heat and brown nitrogen dioxide fumes; closed containers burst.",
 		"Do not combine. Keep organic products, solvents and rags away from nitric acid; never put them in the same waste drum.",
 		"Bretherick's Handbook of Reactive Chemical Hazards, nitric acid with organic compounds (from memory); heat counted for alcohols, glycerol and the like as ethanol equivalents (4 electrons each), from data/familyheats.txt; 2 and 4 mol/L thresholds: common practice, no source"), rh), true
+}
+
+// hydrazineNitric: hydrazine meeting nitric acid stronger than about
+// 2 mol/L is oxidized violently (the pair is hypergolic when concentrated),
+// with nitrogen oxides and some hydrazoic acid; neutralised, it leaves
+// hydrazinium nitrate, an explosive when the solution dries or is heated.
+func hydrazineNitric(o *Outcome) (engine.Hazard, bool) {
+	hz := o.MolarBefore("N2H4", "N2H5+", "N2H6^2+")
+	no3 := o.MolarBefore("HNO3", "NO3-")
+	strong := no3 >= 2 && o.PH < 1
+	salt := math.Min(o.MolarBefore("N2H5+", "N2H6^2+"), no3)
+	if hz < 0.05 || !strong && salt < 0.5 {
+		return engine.Hazard{}, false
+	}
+	sev, msg := engine.Warning, "Hydrazine with nitric acid leaves hydrazinium nitrate ("+fmtNum(salt, 2)+" mol/L in the mix): stable in solution, but an explosive when the liquor dries out, crusts on a drum or is heated."
+	if strong || salt >= 1 {
+		sev = engine.Danger
+	}
+	if strong {
+		msg = "Hydrazine ("+fmtNum(hz, 2)+" mol/L) meets nitric acid at "+fmtNum(no3, 2)+" mol/L: it is oxidized violently, with heat, nitrogen oxides and some hydrazoic acid (toxic, explosive); what is left is hydrazinium nitrate, an explosive when dry."
+	}
+	return mk("hydrazine-nitric", sev, msg,
+		"Do not combine. Keep hydrazine and its solutions away from nitric acid and other oxidizing acids; never let hydrazine nitrate liquors dry out.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, hydrazine: nitric acid, and hydrazinium nitrate (from memory); thresholds 2 mol/L nitric acid, 0.5 and 1 mol/L hydrazinium nitrate: common practice, no source"), true
 }
 
 // ammoniumNitrite: ammonium with nitrite decomposes to nitrogen and water,
