@@ -132,7 +132,7 @@ func hydrazineNitric(o *Outcome) (engine.Hazard, bool) {
 		sev = engine.Danger
 	}
 	if strong {
-		msg = "Hydrazine ("+fmtNum(hz, 2)+" mol/L) meets nitric acid at "+fmtNum(no3, 2)+" mol/L: it is oxidized violently, with heat, nitrogen oxides and some hydrazoic acid (toxic, explosive); what is left is hydrazinium nitrate, an explosive when dry."
+		msg = "Hydrazine (" + fmtNum(hz, 2) + " mol/L) meets nitric acid at " + fmtNum(no3, 2) + " mol/L: it is oxidized violently, with heat, nitrogen oxides and some hydrazoic acid (toxic, explosive); what is left is hydrazinium nitrate, an explosive when dry."
 	}
 	return mk("hydrazine-nitric", sev, msg,
 		"Do not combine. Keep hydrazine and its solutions away from nitric acid and other oxidizing acids; never let hydrazine nitrate liquors dry out.",
