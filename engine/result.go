@@ -263,9 +263,13 @@ type GasJudged struct {
 	HeadspacePPM float64 `json:"headspace_ppm"`
 	LimitName    string  `json:"limit_name"` // IDLH, ceiling, LFL, O2
 	LimitPPM     float64 `json:"limit_ppm"`
-	Ratio        float64 `json:"ratio"` // headspace concentration / limit
-	LimitSource  string  `json:"limit_source"`
-	HenrySource  string  `json:"henry_source"`
+	Ratio        float64 `json:"ratio"` // headspace concentration / limit (or room concentration / limit when RoomPPM is set)
+	// RoomPPM, for an asphyxiant judged by its amount (CO2), is the
+	// concentration the gas would make spread over a small plant room,
+	// set when that, not the headspace, gives Ratio.
+	RoomPPM     float64 `json:"room_ppm,omitempty"`
+	LimitSource string  `json:"limit_source"`
+	HenrySource string  `json:"henry_source"`
 }
 
 // HeatJudged is a heat hazard in numbers.

@@ -92,6 +92,11 @@ func formsLine(r *engine.Result) string {
 	for _, h := range r.Hazards {
 		if h.Gas != nil && len(parts) < 3 {
 			g := h.Gas
+			if g.RoomPPM > 0 {
+				parts = append(parts, fmt.Sprintf("%s %s mol (%s L), headspace %s ppm; over a %s m³ room %s ppm = %s× %s %s ppm",
+					g.Formula, num(g.Mol), num(g.VolumeL), num(g.HeadspacePPM), num(hazard.RoomM3), num(g.RoomPPM), num(g.Ratio), g.LimitName, num(g.LimitPPM)))
+				continue
+			}
 			parts = append(parts, fmt.Sprintf("%s %s mol (%s L), headspace %s ppm = %s× %s %s ppm",
 				g.Formula, num(g.Mol), num(g.VolumeL), num(g.HeadspacePPM), num(g.Ratio), g.LimitName, num(g.LimitPPM)))
 		}

@@ -281,6 +281,10 @@ func explosive(code string) bool {
 // Reason is a hazard in a few words with its numbers.
 func Reason(h engine.Hazard) string {
 	switch {
+	case h.Gas != nil && h.Gas.RoomPPM > 0:
+		g := h.Gas
+		return h.Title + ": " + fmtNum(g.Mol, 3) + " mol " + g.Formula + " (" + fmtNum(g.VolumeL, 3) + " L), headspace " +
+			fmtNum(g.HeadspacePPM, 3) + " ppm; over a " + fmtNum(RoomM3, 2) + " m³ room " + fmtNum(g.RoomPPM, 3) + " ppm = " + fmtNum(g.Ratio, 2) + "× " + g.LimitName + " " + fmtNum(g.LimitPPM, 3) + " ppm"
 	case h.Gas != nil:
 		g := h.Gas
 		return h.Title + ": " + fmtNum(g.Mol, 3) + " mol " + g.Formula + " (" + fmtNum(g.VolumeL, 3) + " L), headspace " +

@@ -215,7 +215,7 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 	}
 	src := []string{g.LimitSource, g.HenrySource}
 	src = append(src, p.sources...)
-	return engine.Hazard{
+	h := engine.Hazard{
 		Code: code, Severity: sev, Title: codeOf(code).Title, Message: msg + " " + act, Action: act,
 		Source: strings.Join(src, "; "), Aliases: codeOf(code).Aliases,
 		Gas: &engine.GasJudged{
@@ -224,6 +224,12 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 			LimitSource: g.LimitSource, HenrySource: g.HenrySource,
 		},
 	}
+	if g.Formula == "CO2" {
+		if room := roomPPM(o, p.mol); room/g.LimitPPM < hs.PPM/g.LimitPPM {
+			h.Gas.RoomPPM = sig(room)
+		}
+	}
+	return h
 }
 
 // Judge lists the hazards of an outcome, danger first, then warning, then
