@@ -1,6 +1,7 @@
 package advice_test
 
 import (
+	"strings"
 	"testing"
 
 	"mixward/engine"
@@ -19,9 +20,20 @@ import (
 //   - hydrazine with 68 % nitric acid is oxidized violently and leaves
 //     hydrazinium nitrate, explosive when dry (Bretherick's Handbook,
 //     hydrazine: nitric acid, from memory): do not mix; 200 ppm hydrazine
-//     boiler water with a little dilute acid is no concern.
+//     boiler water with a little dilute acid is no concern;
+//   - solid sodium cyanide dissolved in plain water smells of HCN (pKa 9.2)
+//     but is the routine bath make-up: with precautions, the water made
+//     alkaline first (common practice, no source); cyanide with acid, or
+//     cyanide formed by a reaction, stays do-not-mix.
 func TestReview7Pours(t *testing.T) {
 	a := mustAdvisor(t)
+	r0 := ask(t, a, "mix 10 kg NaCN + 200 L water")
+	if r0.Decision.Level != engine.WithPrecautions || !strings.Contains(strings.Join(r0.Decision.Actions, "\n"), "alkaline first") {
+		t.Errorf("cyanide make-up: level %s, actions %q; want with-precautions, the water made alkaline first", r0.Decision.Level, r0.Decision.Actions)
+	}
+	if r := ask(t, a, "mix 200 L NaCN 5 % + 20 L HCl 36 %"); r.Decision.Level != engine.DoNotMix {
+		t.Errorf("cyanide with hydrochloric acid: level %s, want do-not-mix", r.Decision.Level)
+	}
 	if r := ask(t, a, "mix 100 L N2H4 35 % + 10 L HNO3 68 %"); r.Decision.Level != engine.DoNotMix {
 		t.Errorf("hydrazine with nitric acid: level %s, want do-not-mix (%s)", r.Decision.Level, r.Decision.Title)
 	}

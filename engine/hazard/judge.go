@@ -87,6 +87,13 @@ func chromiumVIReduction(o *Outcome) bool {
 	return o.MolarBefore("Cr2O7^2-", "CrO4^2-", "HCrO4-", "H2CrO4") >= TraceMolar && o.MolarBefore("H2SO3", "HSO3-", "SO3^2-", "S2O5^2-") >= TraceMolar
 }
 
+// cyanideMakeUp reports whether hydrogen cyanide comes only from cyanide
+// dissolving in water: a stream brings free cyanide, no reaction forms
+// more, no stream brings an acid, and the mix stays at pH 10 or more (common practice, no source: cyanide bath make-up).
+func cyanideMakeUp(o *Outcome) bool {
+	return !o.StrongAcid && o.PH >= 10 && o.MolarBefore("CN-", "HCN") >= TraceMolar && !o.Formed("HCN", "CN-")
+}
+
 // chromeReductionActions are the warning and the danger action for sulfur
 // dioxide from a chromium(VI) reduction (common practice, no source:
 // chromate reduction in plating effluent).
@@ -185,6 +192,12 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 	// (common practice, no source): a warning at most, like oxygen.
 	if ratio >= DangerRatio && g.LimitName != "O2" && g.Formula != "CO2" && !smallPuff(o, g, hs, ratio) {
 		sev, act = engine.Danger, gasActions[g.Formula][0]
+	}
+	if g.Formula == "HCN" && sev == engine.Danger && cyanideMakeUp(o) {
+		// Cyanide dissolving in plain water hydrolyses (CN- + H2O ⇌ HCN +
+		// OH-, pKa 9.2) and smells of HCN over the tank: the routine
+		// make-up dissolves it in water made alkaline first.
+		sev, act = engine.Warning, "Make the water alkaline first (caustic to pH 12 or more), then dissolve the cyanide in it; work with extraction and an HCN detector."
 	}
 	if g.Formula == "SO2" && chromiumVIReduction(o) {
 		act = chromeReductionActions[0]
