@@ -118,6 +118,10 @@ type PourOrder struct {
 	Added   string       `json:"added"`
 	Into    string       `json:"into"`
 	Hazards []PourHazard `json:"hazards"`
+	// AddedL and IntoL are the volumes of the two streams (0 when given by
+	// mass), so the advice can tell when an order runs a tank into a drum.
+	AddedL float64 `json:"added_l,omitempty"`
+	IntoL  float64 `json:"into_l,omitempty"`
 }
 
 // PourHazard is one hazard met along a pour, between two fractions of the

@@ -31,6 +31,13 @@ func TestReview7Pours(t *testing.T) {
 	if r0.Decision.Level != engine.WithPrecautions || !strings.Contains(strings.Join(r0.Decision.Actions, "\n"), "alkaline first") {
 		t.Errorf("cyanide make-up: level %s, actions %q; want with-precautions, the water made alkaline first", r0.Decision.Level, r0.Decision.Actions)
 	}
+	// Bleach into acidic water releases chlorine where it lands; the safe
+	// order would run 1000 L into 5 L, so the answer says to neutralise the
+	// water first (White's Handbook of Chlorination, pH of hypochlorite
+	// dosing, from memory; common practice).
+	if r := ask(t, a, "mix 1000 L water, pH 2.5 + 5 L NaOCl 12.5 %"); !strings.Contains(strings.Join(r.Decision.Actions, "\n"), "to neutral first") {
+		t.Errorf("bleach into acidic water: actions %q, want the water brought to neutral first", r.Decision.Actions)
+	}
 	if r := ask(t, a, "mix 200 L NaCN 5 % + 20 L HCl 36 %"); r.Decision.Level != engine.DoNotMix {
 		t.Errorf("cyanide with hydrochloric acid: level %s, want do-not-mix", r.Decision.Level)
 	}

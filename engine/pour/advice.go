@@ -83,7 +83,26 @@ func better(good, bad engine.PourOrder) string {
 	if worst(good) > 0 {
 		s += " That order still meets " + codes(good) + "."
 	}
+	if good.IntoL > 0 && good.AddedL >= 10*good.IntoL && acidGasOnly(bad) {
+		// Running a tank into a drum is seldom practical: the gas comes
+		// from the acid of the larger stream, which can be changed first.
+		s += " At these volumes, rather bring " + good.Added + " to neutral first (pH 7 or more), then run " + good.Into + " into it."
+	}
 	return s
+}
+
+// acidGasOnly reports whether every hazard of an order is a gas that acid
+// drives out of the added stream (chlorine from hypochlorite, HCN, H2S,
+// SO2), which neutralising the acid side first removes.
+func acidGasOnly(o engine.PourOrder) bool {
+	for _, h := range o.Hazards {
+		switch h.Code {
+		case "chlorine-release", "hcn-release", "h2s-release", "so2-release":
+		default:
+			return false
+		}
+	}
+	return len(o.Hazards) > 0
 }
 
 func lessens(good, bad engine.PourOrder) string {

@@ -87,7 +87,8 @@ func Name(s *engine.Stream) string {
 // order runs stream a into stream b and records the hazards met; streams
 // gives the streams in the tank when the share f of a has gone in.
 func order(req *engine.Request, a, b int, eval Evaluate, streams func(f float64) []engine.Stream) (engine.PourOrder, int) {
-	po := engine.PourOrder{Added: Name(&req.Streams[a]), Into: Name(&req.Streams[b]), Hazards: []engine.PourHazard{}}
+	po := engine.PourOrder{Added: Name(&req.Streams[a]), Into: Name(&req.Streams[b]), Hazards: []engine.PourHazard{},
+		AddedL: req.Streams[a].VolumeL, IntoL: req.Streams[b].VolumeL}
 	open := map[string]*engine.PourHazard{}
 	worstRatio := map[string]float64{} // the message kept is that of the worst point
 	var keys []string
