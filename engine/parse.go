@@ -347,7 +347,7 @@ func isWord(tk *token, words ...string) bool {
 // isSeparator reports whether tk separates two streams: "+", "&", "and" or
 // "with".
 func isSeparator(tk *token) bool {
-	return tk != nil && (tk.kind == tPlus || isWord(tk, "and", "with"))
+	return tk != nil && (tk.kind == tPlus || isWord(tk, "and", "with", "into"))
 }
 
 // endsStream reports whether a stream ends before tk: at the end of the
@@ -363,7 +363,8 @@ func (p *parser) request() (*Request, error) {
 	if len(p.toks) == 0 {
 		return nil, &ParseError{Code: "empty-request", Message: "the request is empty; write the streams to mix, e.g. " + example, Position: 1, Suggestions: []string{}}
 	}
-	if isWord(p.peek(), "mix") {
+	if tk := p.peek(); isWord(tk, "mix") || isWord(tk, "combine") || isWord(tk, "pour") {
+		// The verbs operators type for the same question.
 		p.i++
 	}
 	for {

@@ -492,3 +492,28 @@ func TestStreamLabel(t *testing.T) {
 		}
 	}
 }
+
+// TestOperatorVerbs: "combine" and "pour ... into ..." read as "mix", and
+// NH4OH is ammonia solution (its label name in the trade), as typed by a
+// new user.
+func TestOperatorVerbs(t *testing.T) {
+	tb := mustEngine(t).Tables
+	for _, text := range []string{
+		"combine 50 L NaOH 15 % with 2 kg Al",
+		"pour 10 L HCl 10 % into 100 L water",
+		"mix 50 L NH4OH 28 % + 50 L NaOCl 12.5 %",
+	} {
+		req, err := engine.Parse(text, tb, engine.AskOptions{})
+		if err != nil {
+			t.Errorf("Parse(%q): %v", text, err)
+			continue
+		}
+		if len(req.Streams) != 2 {
+			t.Errorf("Parse(%q): %d streams, want 2", text, len(req.Streams))
+		}
+	}
+	req, err := engine.Parse("mix 50 L NH4OH 28 % + 50 L water", tb, engine.AskOptions{})
+	if err == nil && req.Streams[0].Components[0].Chemical.Formula != "NH3" {
+		t.Errorf("NH4OH read as %s, want NH3", req.Streams[0].Components[0].Chemical.Formula)
+	}
+}
