@@ -38,6 +38,19 @@ func TestReview7Pours(t *testing.T) {
 	if r := ask(t, a, "mix 1000 L water, pH 2.5 + 5 L NaOCl 12.5 %"); !strings.Contains(strings.Join(r.Decision.Actions, "\n"), "to neutral first") {
 		t.Errorf("bleach into acidic water: actions %q, want the water brought to neutral first", r.Decision.Actions)
 	}
+	// Dichromate catalyses the decomposition of the peroxide it does not
+	// use up (Bretherick's Handbook, hydrogen peroxide: chromium compounds,
+	// from memory): 38 mol Cr2O7 take 114 mol H2O2 to O2 by reduction and
+	// about 490 mol more come off the excess, not 114 alone.
+	o2 := 0.0
+	for _, g := range ask(t, a, "mix 100 L Na2Cr2O7 10 % + 100 L H2O2 35 %").Decision.Gases {
+		if strings.HasPrefix(g.Text, "O2") {
+			o2 = g.Mol
+		}
+	}
+	if o2 < 450 {
+		t.Errorf("dichromate with 35 %% peroxide: O2 %.0f mol, want the excess decomposed too (about 600)", o2)
+	}
 	if r := ask(t, a, "mix 200 L NaCN 5 % + 20 L HCl 36 %"); r.Decision.Level != engine.DoNotMix {
 		t.Errorf("cyanide with hydrochloric acid: level %s, want do-not-mix", r.Decision.Level)
 	}
