@@ -271,9 +271,13 @@ type GasJudged struct {
 	// RoomPPM, for an asphyxiant judged by its amount (CO2), is the
 	// concentration the gas would make spread over a small plant room,
 	// set when that, not the headspace, gives Ratio.
-	RoomPPM     float64 `json:"room_ppm,omitempty"`
-	LimitSource string  `json:"limit_source"`
-	HenrySource string  `json:"henry_source"`
+	RoomPPM float64 `json:"room_ppm,omitempty"`
+	// Outside names the fast reaction that gives the gas beyond the
+	// equilibrium state (aqua regia, bromide with concentrated sulfuric
+	// acid), when one does.
+	Outside     string `json:"outside_reaction,omitempty"`
+	LimitSource string `json:"limit_source"`
+	HenrySource string `json:"henry_source"`
 }
 
 // HeatJudged is a heat hazard in numbers.

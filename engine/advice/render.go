@@ -151,6 +151,11 @@ func reactionLine(r *engine.Result) string {
 	if r.OutsideAqueous != "" {
 		return "Redox: " + r.OutsideAqueous
 	}
+	if x := outsideReaction(r); x != "" && (r.Reaction == nil || r.Verdict != engine.Spontaneous) {
+		// The gas of concern comes from a fast reaction the equilibrium
+		// does not hold: name it rather than a pair held back on paper.
+		return "Redox: " + x + ", fast in the concentrated mix (outside the equilibrium model; the gas it gives is counted above)"
+	}
 	if hb := pairHeld(r); hb != nil && (r.Reaction == nil || agents(r.Reaction) < 2) {
 		// The streams meeting is what the operator asks about: a pair held
 		// back heads the line before one agent's own change held back.
@@ -181,6 +186,17 @@ func reactionLine(r *engine.Result) string {
 	// The strongest pair on paper that does not run is for the details:
 	// in the short answer it read as a reaction that happens.
 	return "Redox: no redox reaction runs at these conditions (the pairs are in the details)"
+}
+
+// outsideReaction is the fast reaction that gives a gas of concern beyond
+// the equilibrium state, when one does.
+func outsideReaction(r *engine.Result) string {
+	for _, h := range r.Hazards {
+		if h.Gas != nil && h.Gas.Outside != "" {
+			return h.Gas.Outside
+		}
+	}
+	return ""
 }
 
 // agents counts the distinct reactants of a reaction other than water, H+

@@ -237,6 +237,9 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 			LimitSource: g.LimitSource, HenrySource: g.HenrySource,
 		},
 	}
+	if p.beyond > 0 {
+		h.Gas.Outside = p.outside
+	}
 	if g.Formula == "CO2" {
 		if room := roomPPM(o, p.mol); room/g.LimitPPM < hs.PPM/g.LimitPPM {
 			h.Gas.RoomPPM = sig(room)

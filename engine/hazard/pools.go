@@ -23,9 +23,11 @@ type pool struct {
 	// the equilibrium state holds (aqua regia, whose activities the
 	// state's Davies model cannot reach); when it exceeds the state's own
 	// amount of the gas, the estimate is judged instead.
-	beyond  float64
-	origins []string
-	sources []string
+	beyond     float64
+	outside    string  // the origin of the largest amount added beyond the state
+	outsideMol float64 // and that amount
+	origins    []string
+	sources    []string
 }
 
 // pools works out, for each gas of the table, what in the mix can become
@@ -210,6 +212,9 @@ func addBeyond(ps map[string]*pool, gas string, mol float64, origin, source stri
 	}
 	addTo(ps, gas, mol, 1, origin, source)
 	p.beyond += mol
+	if mol > p.outsideMol {
+		p.outside, p.outsideMol = origin, mol
+	}
 }
 
 // chlorateWithHydrochloric: 2 ClO3- + 4 H+ + 2 Cl- → 2 ClO2 + Cl2 + 2 H2O.
