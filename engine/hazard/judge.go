@@ -106,7 +106,12 @@ var chromeReductionActions = [2]string{
 // concentration reaches a tenth of its limit.
 func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 	ps := pools(o, d)
-	var out []engine.Hazard
+	type judged struct {
+		p  *pool
+		hs Headspace
+	}
+	js := map[string]judged{}
+	total := 0.0
 	for _, f := range d.order {
 		g, p := d.Gases[f], ps[f]
 		var hs Headspace
@@ -116,6 +121,17 @@ func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 			hs = Headspace{PPM: math.Min(m.PPM, 1e6), Vents: m.PPM >= 1e6}
 		} else {
 			hs = Share(p.mol, p.molecular, g.KH, o.VolumeL, o.HeadspaceL, o.TemperatureK(), o.PressureKPa)
+		}
+		js[f] = judged{p, hs}
+		total += hs.PPM
+	}
+	var out []engine.Hazard
+	for _, f := range d.order {
+		g, p, hs := d.Gases[f], js[f].p, js[f].hs
+		if total > 1e6 {
+			// Two gases that each fill the headspace share it: each at
+			// its part of the whole, not each at 100 %.
+			hs.PPM *= 1e6 / total
 		}
 		if p.mol <= 0 && hs.PPM <= 0 || f == "Cl2" && diluteHypochlorite(o) {
 			continue
