@@ -51,6 +51,16 @@ func TestReview7Pours(t *testing.T) {
 	if o2 < 450 {
 		t.Errorf("dichromate with 35 %% peroxide: O2 %.0f mol, want the excess decomposed too (about 600)", o2)
 	}
+	// Sodium dithionite dissolves to about 182 g/L (CRC Handbook, from
+	// memory); 50 kg in 100 L leaves about 30 kg wet, which heats itself
+	// and gives off SO2 (Bretherick's Handbook, sodium dithionite, from
+	// memory); 5 kg in 1000 L dissolves.
+	if r := ask(t, a, "mix 50 kg Na2S2O4 + 100 L water"); r.Decision.Level != engine.DoNotMix {
+		t.Errorf("50 kg dithionite in 100 L water: level %s, want do-not-mix", r.Decision.Level)
+	}
+	if r := ask(t, a, "mix 5 kg Na2S2O4 + 1000 L water"); r.Decision.Level == engine.DoNotMix {
+		t.Errorf("5 kg dithionite in 1000 L water: do-not-mix (%s)", r.Decision.Title)
+	}
 	if r := ask(t, a, "mix 200 L NaCN 5 % + 20 L HCl 36 %"); r.Decision.Level != engine.DoNotMix {
 		t.Errorf("cyanide with hydrochloric acid: level %s, want do-not-mix", r.Decision.Level)
 	}

@@ -14,7 +14,7 @@ import (
 // reliable Gibbs energies, or they are runaways rather than equilibria).
 // Each is judged from what the streams bring together, with its source.
 var familyRules = []func(o *Outcome) (engine.Hazard, bool){
-	chloroAmines, nitrateEsters, nitricOrganic, hydrazineNitric, ammoniumNitrite, permanganateSulfuric, volatileAcid,
+	chloroAmines, nitrateEsters, nitricOrganic, hydrazineNitric, dampDithionite, ammoniumNitrite, permanganateSulfuric, volatileAcid,
 	solidHypochlorite, magnesiumWater, cyanideOxidation, halideSulfuric, chlorateSulfuric, hotElectrolessNickel, nitricMetalFumes,
 	// organic, azide and solid-chlorinator families (organic.go)
 	organicPeroxides, perchlorateEsters, peracidAlkali, oxidizerOrganic, bisChloromethylEther,
@@ -137,6 +137,30 @@ func hydrazineNitric(o *Outcome) (engine.Hazard, bool) {
 	return mk("hydrazine-nitric", sev, msg,
 		"Do not combine. Keep hydrazine and its solutions away from nitric acid and other oxidizing acids; never let hydrazine nitrate liquors dry out.",
 		"Bretherick's Handbook of Reactive Chemical Hazards, hydrazine: nitric acid, and hydrazinium nitrate (from memory); thresholds 2 mol/L nitric acid, 0.5 and 1 mol/L hydrazinium nitrate: common practice, no source"), true
+}
+
+// DithioniteSolubility is the solubility of sodium dithionite, about
+// 182 g per litre of water at 20 °C (CRC Handbook, Physical Constants of
+// Inorganic Compounds, from memory).
+const DithioniteSolubility = 182.0
+
+// dampDithionite: solid sodium dithionite that water wets but cannot
+// dissolve heats itself (2 Na2S2O4 + H2O → Na2S2O3 + 2 NaHSO3, with the
+// heat speeding it up) and gives off sulfur dioxide; a damp heap can
+// smoulder or ignite. Poured slowly into enough water it dissolves.
+func dampDithionite(o *Outcome) (engine.Hazard, bool) {
+	kg := o.SolidKg["Na2S2O4"]
+	if kg <= 0 {
+		return engine.Hazard{}, false
+	}
+	dissolves := DithioniteSolubility * o.VolumeL / 1000
+	if kg <= dissolves {
+		return engine.Hazard{}, false
+	}
+	return mk("damp-dithionite", engine.Danger,
+		"Only about "+fmtNum(dissolves, 2)+" kg of the "+fmtNum(kg, 3)+" kg of sodium dithionite dissolves in "+fmtNum(o.VolumeL, 3)+" L (about "+fmtNum(DithioniteSolubility, 3)+" g/L): the rest stays as a wet solid, which heats itself, gives off sulfur dioxide and can smoulder or ignite.",
+		"Do not combine in these amounts: use at least "+fmtNum(kg/DithioniteSolubility*1000*1.5, 2)+" L of water and sprinkle the dithionite into it slowly, stirring; never add a little water to a heap or a drum of dithionite.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, sodium dithionite (self-heating when damp), from memory; solubility CRC Handbook, from memory; 1.5× margin: common practice, no source"), true
 }
 
 // ammoniumNitrite: ammonium with nitrite decomposes to nitrogen and water,

@@ -86,9 +86,9 @@ func streamFumes(mix []engine.Hazard, alone []Alone) []engine.Hazard {
 // the mixing itself, a solid chlorinating agent heats when water meets it,
 // hydrofluoric acid and hexavalent chromium are handled during the mixing
 // whatever their source, bleach left warm keeps making chlorate, and a
-// hot electroless-nickel bath crashes when
+// hot electroless-nickel bath crashes when (and damp dithionite heats only once wetted)
 // something is added to it (caustic, particles) (common practice, no source).
-var alwaysOwnToMix = map[string]bool{"boils": true, "near-boiling": true, "solid-oxidizer-heating": true, "scalding-heat": true, "warms": true, "hf-burns": true, "chromium-vi-exposure": true, "hot-electroless-bath": true, "warm-bleach": true}
+var alwaysOwnToMix = map[string]bool{"boils": true, "near-boiling": true, "solid-oxidizer-heating": true, "scalding-heat": true, "warms": true, "hf-burns": true, "chromium-vi-exposure": true, "hot-electroless-bath": true, "warm-bleach": true, "damp-dithionite": true}
 
 // Alone is one stream judged by itself.
 type Alone struct {
