@@ -61,6 +61,18 @@ func TestReview7Pours(t *testing.T) {
 	if r := ask(t, a, "mix 5 kg Na2S2O4 + 1000 L water"); r.Decision.Level == engine.DoNotMix {
 		t.Errorf("5 kg dithionite in 1000 L water: do-not-mix (%s)", r.Decision.Title)
 	}
+	// Copper in 68 % nitric acid gives two NO2 per copper (Vogel's
+	// Textbook, from memory): 5 kg (78.7 mol) gives about 157 mol, part of
+	// it paired as N2O4 in the state, counted as NO2.
+	no2 := 0.0
+	for _, h := range ask(t, a, "mix 50 L HNO3 68 % + 5 kg Cu").Hazards {
+		if h.Code == "no2-release" && h.Gas != nil {
+			no2 = h.Gas.Mol
+		}
+	}
+	if no2 < 140 || no2 > 175 {
+		t.Errorf("copper in 68 %% nitric acid: NO2 %.0f mol, want about 157 with N2O4 counted", no2)
+	}
 	if r := ask(t, a, "mix 200 L NaCN 5 % + 20 L HCl 36 %"); r.Decision.Level != engine.DoNotMix {
 		t.Errorf("cyanide with hydrochloric acid: level %s, want do-not-mix", r.Decision.Level)
 	}

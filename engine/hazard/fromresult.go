@@ -1,6 +1,7 @@
 package hazard
 
 import (
+	"math"
 	"strconv"
 	"strings"
 
@@ -103,6 +104,16 @@ func (o *Outcome) measured(r *engine.Result, t *engine.Tables) {
 		if _, ok := o.Measured[f]; (ok || kineticGas[f]) && g.PartialKPa > 0 {
 			o.Measured[f] = MeasuredGas{Mol: g.Mol, PPM: g.HeadspacePPM, Dissolved: dissolvedAs(r.FinalComposition, f)}
 		}
+	}
+	// Dinitrogen tetroxide is nitrogen dioxide paired up (N2O4 ⇌ 2 NO2,
+	// mostly NO2 again once it warms or spreads in air): the fumes are
+	// counted as NO2 (CRC Handbook, from memory).
+	if d, ok := o.Measured["N2O4"]; ok && d.Mol > 0 {
+		m := o.Measured["NO2"]
+		m.Mol += 2 * d.Mol
+		m.PPM = math.Min(m.PPM+2*d.PPM, 1e6)
+		o.Measured["NO2"] = m
+		delete(o.Measured, "N2O4")
 	}
 }
 
