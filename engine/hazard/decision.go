@@ -156,8 +156,14 @@ func decideSequence(d engine.Decision, finalW int, final []engine.Hazard, add *e
 	case bestW > finalW:
 		for _, st := range best.Steps {
 			for _, ph := range st.Hazards {
-				if rank(ph.Worst) == bestW && d.Title == NoConcernTitle || rank(ph.Worst) == bestW && finalW < 2 && !strings.Contains(d.Title, "in every sequence") {
-					d.Title = codeTitle(ph.Code) + " in every sequence of addition"
+				if rank(ph.Worst) == bestW && !strings.Contains(d.Title, "in every sequence") {
+					// The level comes from the pour: its reason leads the
+					// title, before the final mix's own.
+					t := codeTitle(ph.Code) + " in every sequence of addition"
+					if d.Title != NoConcernTitle && finalW >= 2 {
+						t += "; " + d.Title
+					}
+					d.Title = t
 				}
 				d.Reasons = append(d.Reasons, "while "+st.Added+" runs into "+st.Into+": "+codeTitle(ph.Code)+
 					" from "+pct(ph.FromFraction)+" to "+pct(ph.ToFraction)+" of the addition")

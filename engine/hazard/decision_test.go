@@ -56,3 +56,20 @@ func TestDecide(t *testing.T) {
 		})
 	}
 }
+
+// TestSequenceDangerLeadsTheTitle: when every sequence of addition meets a
+// danger and the final mix only warms, the decision is do-not-mix and its
+// title says why (the danger along the pour) before the final mix's own
+// reason, never "warms noticeably" alone beside a refusal.
+func TestSequenceDangerLeadsTheTitle(t *testing.T) {
+	final := []engine.Hazard{{Code: "warms", Severity: engine.Warning, Title: "warms noticeably", Action: "Dose slowly and watch the temperature."}}
+	step := engine.PourOrder{Added: "B", Into: "A", Hazards: []engine.PourHazard{{Code: "near-boiling", FromFraction: 0.001, ToFraction: 0.001, Worst: engine.Danger}}}
+	add := &engine.Addition{Sequences: []engine.PourSequence{{Streams: []string{"A", "B", "C"}, Steps: []engine.PourOrder{step}, Worst: engine.Danger}}}
+	d := Decide(final, add)
+	if d.Level != engine.DoNotMix {
+		t.Fatalf("level %s, want do-not-mix", d.Level)
+	}
+	if !strings.HasPrefix(d.Title, "gets near boiling") || !strings.Contains(d.Title, "in every sequence") || !strings.Contains(d.Title, "warms noticeably") {
+		t.Errorf("title %q, want the pour's danger first, then the final mix's reason", d.Title)
+	}
+}
