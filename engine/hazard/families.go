@@ -95,9 +95,8 @@ func chloroAmines(o *Outcome) (engine.Hazard, bool) {
 // nitricOrganic: nitric acid of more than about 2 mol/L oxidizes organic
 // matter with an induction period, then runs away with nitrogen dioxide.
 func nitricOrganic(o *Outcome) (engine.Hazard, bool) {
-	hno3 := o.MolarBefore("HNO3", "NO3-")
-	c := organicC(o.Before)
-	if hno3 < 2 || o.PH >= 1 || c < 0.01 {
+	hno3, c, ok := nitricMeetsOrganic(o)
+	if !ok {
 		return engine.Hazard{}, false
 	}
 	sev := engine.Warning
@@ -113,6 +112,22 @@ func nitricOrganic(o *Outcome) (engine.Hazard, bool) {
 		"Nitric acid at "+fmtNum(hno3, 2)+" mol/L with organic matter ("+fmtNum(c, 2)+" mol/L of carbon) oxidizes it after a delay, then runs away with heat and brown nitrogen dioxide fumes; closed containers burst.",
 		"Do not combine. Keep organic products, solvents and rags away from nitric acid; never put them in the same waste drum.",
 		"Bretherick's Handbook of Reactive Chemical Hazards, nitric acid with organic compounds (from memory); heat counted for alcohols, glycerol and the like as ethanol equivalents (4 electrons each), from data/familyheats.txt; 2 and 4 mol/L thresholds: common practice, no source"), rh), true
+}
+
+// nitricMeetsOrganic is the nitric acid (mol/L) and organic carbon (mol/L)
+// of a mix where nitric acid stronger than about 2 mol/L meets organic
+// matter: the condition of the nitric-organic runaway and of its NO2.
+func nitricMeetsOrganic(o *Outcome) (hno3, carbon float64, ok bool) {
+	hno3, carbon = o.MolarBefore("HNO3", "NO3-"), organicC(o.Before)
+	return hno3, carbon, hno3 >= 2 && o.PH < 1 && carbon >= 0.01
+}
+
+// chlorateMeetsSulfuric is the chlorate and sulfuric acid (mol/L) of a mix
+// where concentrated sulfuric acid meets chlorate: the condition of the
+// chlorine dioxide family and of its gas figure.
+func chlorateMeetsSulfuric(o *Outcome) (clo3, h2so4 float64, ok bool) {
+	clo3, h2so4 = o.MolarBefore("ClO3-", "HClO3"), sulfuric(o)
+	return clo3, h2so4, h2so4 >= chlorateAcidMolar && clo3 >= 0.01
 }
 
 // hydrazineNitric: hydrazine meeting nitric acid stronger than about
@@ -330,9 +345,8 @@ func halideSulfuric(o *Outcome) (engine.Hazard, bool) {
 // (the chlorate-sluggish lock holds above pH 3 only, but chloric acid's own
 // breakdown has no couple in the tables), so this is judged as a family.
 func chlorateSulfuric(o *Outcome) (engine.Hazard, bool) {
-	h2so4 := sulfuric(o)
-	clo3 := o.MolarBefore("ClO3-", "HClO3")
-	if h2so4 < chlorateAcidMolar || clo3 < 0.01 {
+	clo3, h2so4, ok := chlorateMeetsSulfuric(o)
+	if !ok {
 		return engine.Hazard{}, false
 	}
 	return mk("clo2-release", engine.Danger,

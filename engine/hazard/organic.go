@@ -102,14 +102,17 @@ func organicLiquid(o *Outcome, any bool) (molar, electrons float64) {
 	return molar, electrons
 }
 
+// burntState is the oxidation state of each element once burnt right
+// through: CO2, H2O, N2, sulfate, phosphate, halides, alkali ions.
+var burntState = map[string]int{"C": 4, "H": 1, "O": -2, "N": 0, "S": 6, "P": 5, "Cl": -1, "Br": -1, "I": -1, "F": -1, "Na": 1, "K": 1}
+
 // fuelElectrons is the electrons a species gives up burnt to CO2, H2O,
 // N2, sulfate and halide: the sum of the final oxidation states of its
 // atoms less its charge.
 func fuelElectrons(at chem.Atoms, charge int) float64 {
-	final := map[string]int{"C": 4, "H": 1, "O": -2, "N": 0, "S": 6, "P": 5, "Cl": -1, "Br": -1, "I": -1, "F": -1, "Na": 1, "K": 1}
 	e := -charge
 	for el, n := range at {
-		f, ok := final[el]
+		f, ok := burntState[el]
 		if !ok {
 			return 0
 		}

@@ -181,8 +181,8 @@ func halideWithSulfuric(o *Outcome, ps map[string]*pool) {
 // 3 H2O) to nitrogen dioxide, one NO2 per electron, as far as the organic
 // or the acid goes: the gas of the nitric-organic runaway (families.go).
 func nitricWithOrganic(o *Outcome, ps map[string]*pool) {
-	hno3 := o.MolarBefore("HNO3", "NO3-")
-	if hno3 < 2 || o.PH >= 1 || organicC(o.Before) < 0.01 {
+	hno3, _, ok := nitricMeetsOrganic(o)
+	if !ok {
 		return
 	}
 	_, orgE := organicLiquid(o, true)
@@ -195,8 +195,8 @@ func nitricWithOrganic(o *Outcome, ps map[string]*pool) {
 // chloric acid, which breaks down to chlorine dioxide (3 HClO3 → 2 ClO2 +
 // HClO4 + H2O): the gas of the clo2-release family (families.go).
 func chlorateWithSulfuric(o *Outcome, ps map[string]*pool) {
-	clo3 := o.MolarBefore("ClO3-", "HClO3")
-	if sulfuric(o) < chlorateAcidMolar || clo3 < 0.01 {
+	clo3, _, ok := chlorateMeetsSulfuric(o)
+	if !ok {
 		return
 	}
 	addBeyond(ps, "ClO2", clo3*2/3*o.VolumeL, "chlorate with concentrated sulfuric acid (3 HClO3 → 2 ClO2 + HClO4 + H2O)",
