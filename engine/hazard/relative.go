@@ -72,7 +72,7 @@ func streamFumes(mix []engine.Hazard, alone []Alone) []engine.Hazard {
 			in[b.Code] = true
 			out = append(out, engine.Hazard{
 				Code: "stream-fumes", Severity: engine.Warning, Title: "fumes of " + strings.TrimPrefix(b.Title, "releases ") + " off " + a.Name + " as poured: closed transfer",
-				Message: a.Name + " gives off " + b.Gas.Formula + " by itself (" + fmtNum(b.Gas.HeadspacePPM, 3) + " ppm over it, " +
+				Message: a.Name + " gives off " + strings.TrimPrefix(b.Title, "releases ") + " by itself (" + fmtNum(b.Gas.HeadspacePPM, 3) + " ppm over it, " +
 					fmtNum(b.Gas.Ratio, 3) + "× " + b.Gas.LimitName + " " + fmtNum(b.Gas.LimitPPM, 3) + " ppm) until it is in the mix, which takes the gas up.",
 				Action: "Transfer " + a.Name + " closed, or below the liquid surface, with extraction running and the protective equipment of its safety data sheet.",
 				Source: b.Gas.LimitSource + "; closed transfer of fuming liquids: common practice, no source",
