@@ -5,6 +5,7 @@
 // Gibbs energies and enthalpies of formation, entropies), the chemicals known
 // by name whose data are withheld (withheld.txt) and the tables other parts of
 // the engine read (kinetic locks, hazard rules, formation enthalpies, the
+// solubility of solids in solubility.txt, the
 // reaction enthalpies of the hazard families in familyheats.txt).
 // Each file is plain text, one row per line with fields separated by " | "
 // (hazard rules and enthalpies have their own layout), and every row names

@@ -19,7 +19,9 @@ func ReadAmounts(req *Request, t *Tables) *Request { return readAmounts(req, t) 
 //     1 mol/L solution;
 //   - a mass of a named solution ("152 kg NaOH 50 %") is that solution, its
 //     volume taken through the solution's density (data/densities.txt), so
-//     that it brings its water and is diluted, not dissolved as a solid.
+//     that it brings its water and is diluted, not dissolved as a solid;
+//   - a solid poured into plain water counts only as far as the water
+//     dissolves it (capSolids, data/solubility.txt).
 //
 // req itself is not changed; each stream keeps the label it was written with.
 func readAmounts(req *Request, t *Tables) *Request {
@@ -45,6 +47,7 @@ func readAmounts(req *Request, t *Tables) *Request {
 		readSolutionMass(&st, t, note)
 		out.Streams[i] = st
 	}
+	capSolids(&out, t, note)
 	return &out
 }
 

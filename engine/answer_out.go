@@ -3,6 +3,7 @@ package engine
 import (
 	"fmt"
 	"math"
+	"strings"
 
 	"mixward/engine/chem"
 	"mixward/engine/explain"
@@ -226,9 +227,13 @@ func heatOut(mx *state.Mix, m *mixture, t *Tables) *Heat {
 		return h
 	}
 	released := -dh
-	if q, ok := m.solutionHeat(t); ok && q != 0 {
+	q, leftOut := m.solutionHeat(t)
+	if q != 0 {
 		h.DissolutionkJ = q
 		released += q
+	}
+	if len(leftOut) > 0 {
+		h.Assumption += "; no heat of dissolving counted for " + strings.Join(leftOut, ", ") + " (no formation enthalpy of the solid on record)"
 	}
 	if q := dilutionHeat(mx, m.solutes, t); q != 0 {
 		h.DilutionkJ = roundDec(q, 1)

@@ -29,6 +29,9 @@ func New(fsys fs.FS) (*Engine, error) {
 	if t.Ceilings, err = LoadCeilings(fsys, t); err != nil {
 		return nil, err
 	}
+	if t.Solubility, err = LoadSolubility(fsys, t); err != nil {
+		return nil, err
+	}
 	if t.Products, err = LoadProducts(fsys, t); err != nil {
 		return nil, err
 	}

@@ -40,6 +40,8 @@ func TestDissolutionHeatOfSalts(t *testing.T) {
 		{"KI", 166.00, 20.33, "CRC Enthalpy of solution of electrolytes"},
 		{"LiCl", 42.39, -37.03, "CRC Enthalpy of solution of electrolytes"},
 		{"CH3COONa", 82.03, -17.32, "CRC Enthalpy of solution of electrolytes"},
+		{"H3BO3", 61.83, 22.0, "NBS Tables 1982: H3BO3(s) −1094.33, H3BO3(aq) −1072.32"},
+		{"NiSO4", 154.76, -90.4, "NBS Tables 1982: NiSO4(s) −872.91, Ni^2+ −54.0, SO4^2- −909.34"},
 	}
 	const mol = 2.0
 	for _, c := range cases {

@@ -53,28 +53,59 @@ var volatile = []struct {
 }
 
 // solutionHeat is the heat released (kJ) by dissolving the solid and
-// near-pure liquid reagents of the mix into it, from formation enthalpies:
-// caustic pellets, quicklime, 96 % sulfuric acid. ok is false when a reagent
-// lacks data; those are left out of the estimate.
-func (m *mixture) solutionHeat(t *Tables) (kJ float64, ok bool) {
+// near-pure liquid reagents of the mix into it, from formation enthalpies
+// (data/enthalpies.txt, and data/species.txt for the dissolved species of a
+// solid that it lacks): caustic pellets, quicklime, 96 % sulfuric acid, boric acid.
+// leftOut names the reagents without data, which the estimate leaves out.
+func (m *mixture) solutionHeat(t *Tables) (kJ float64, leftOut []string) {
 	if !m.aqueous {
-		return 0, false
+		return 0, nil
 	}
-	ok = true
 	for _, d := range m.dissolved {
 		rx, err := dissolution(d, t)
 		if err != nil {
-			ok = false
+			leftOut = append(leftOut, d.chem.Formula)
 			continue
 		}
 		dh, missing := ReactionEnthalpy(rx, t.Enthalpies)
-		if len(missing) > 0 {
-			ok = false
-			continue
+		for _, text := range missing {
+			// Only a solid's ions are taken from the species data: a neat
+			// liquid (ethanol) mixes with water with a heat that depends
+			// on the ratio, which infinite dilution overstates many times
+			// where the liquid is the bulk.
+			sp, ok := t.Thermo.Get(text)
+			if d.phase != Solid || !ok || !sp.HasDfH {
+				leftOut = append(leftOut, d.chem.Formula)
+				dh = math.NaN()
+				break
+			}
+			dh += termSign(rx, text) * termCoef(rx, text) * sp.DfH
 		}
-		kJ += -dh * d.mol
+		if !math.IsNaN(dh) {
+			kJ += -dh * d.mol
+		}
 	}
-	return kJ, ok
+	return kJ, leftOut
+}
+
+// termSign is +1 for a product of r written as text, −1 for a reactant.
+func termSign(r *Reaction, text string) float64 {
+	for _, p := range r.Products {
+		if _, tx := termKey(p); tx == text {
+			return 1
+		}
+	}
+	return -1
+}
+
+// termCoef is the coefficient of the term of r written as text.
+func termCoef(r *Reaction, text string) float64 {
+	for _, p := range append(append([]EqTerm{}, r.Products...), r.Reactants...) {
+		if _, tx := termKey(p); tx == text {
+			return float64(p.Coef)
+		}
+	}
+	return 0
 }
 
 // dissolution writes "NaOH(s) → Na+ + OH-" for a dissolving reagent, with

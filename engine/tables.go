@@ -7,14 +7,15 @@ import "mixward/engine/thermo"
 // data/ through Load and CheckTables) and adds the tables owned by the
 // prediction and hazard code and the species data.
 type Tables struct {
-	Atomic    map[string]float64 // standard atomic weights, g/mol
-	Chemicals []*Chemical
-	Half      []*HalfReaction
-	AcidBase  []*AcidBasePair
-	Densities map[string][]DensityPoint // by chemical formula, sorted by PercentWW
-	Ceilings  map[string]Ceiling        // most concentrated solution, by chemical formula
-	Products  map[string][]Product      // commercial products by the formula they are named by, grades rising
-	Hash      string                    // SHA-256 over every table file, hex
+	Atomic     map[string]float64 // standard atomic weights, g/mol
+	Chemicals  []*Chemical
+	Half       []*HalfReaction
+	AcidBase   []*AcidBasePair
+	Densities  map[string][]DensityPoint // by chemical formula, sorted by PercentWW
+	Ceilings   map[string]Ceiling        // most concentrated solution, by chemical formula
+	Solubility map[string]Solubility     // solids' solubility in water at 20 °C, by chemical formula
+	Products   map[string][]Product      // commercial products by the formula they are named by, grades rising
+	Hash       string                    // SHA-256 over every table file, hex
 
 	Hazards    []*HazardRule
 	Enthalpies map[string]Enthalpy // standard enthalpy of formation by Species.Key

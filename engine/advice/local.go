@@ -82,8 +82,49 @@ func (a *Advisor) landing(req *engine.Request, conc map[string]float64) pour.Loc
 				least = r
 			}
 		}
+		if allSolid(tank) {
+			return solidLanding(added, tank, least)
+		}
 		return landingHazard(added, tank, least, water)
 	}
+}
+
+// A liquid run onto a solid in the tank (water onto caustic flakes) heats
+// the solution it makes where it lands, which the solid's solubility
+// bounds (data/solubility.txt; the figure is that solution's): it boils
+// from solidBoilRiseC (about 100 °C from 25 °C) and scalds from
+// solidScaldRiseC (about 55 °C); it cannot throw out a concentrate floating
+// under it, as water on a dense acid does (common practice, no source:
+// dissolve solids by running them into the water).
+const (
+	solidScaldRiseC = 30.0
+	solidBoilRiseC  = 75.0
+)
+
+// allSolid: every stream of the tank is a solid given by mass.
+func allSolid(tank []engine.Stream) bool {
+	for _, t := range tank {
+		if t.VolumeL > 0 || t.MassKg <= 0 {
+			return false
+		}
+	}
+	return len(tank) > 0
+}
+
+func solidLanding(added engine.Stream, tank []engine.Stream, rise float64) []engine.PourHazard {
+	code, sev, what := "scalding-heat", engine.Warning, "heats to scalding"
+	switch {
+	case rise >= solidBoilRiseC:
+		code, sev, what = "boils", engine.Danger, "boils and spits"
+	case rise < solidScaldRiseC:
+		return nil
+	}
+	onto := pour.Name(&tank[0])
+	return []engine.PourHazard{{
+		Code: code, FromFraction: pour.Fractions()[0], ToFraction: 1, Worst: sev,
+		Message: fmt.Sprintf("%s run onto solid %s %s where it lands (the solution it makes there warms by about %.0f °C): run the solid into the liquid, slowly, with stirring.",
+			pour.Name(&added), onto, what, rise),
+	}}
 }
 
 func landingHazard(added engine.Stream, tank []engine.Stream, least float64, water bool) []engine.PourHazard {

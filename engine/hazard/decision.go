@@ -145,10 +145,16 @@ func softened(actions []string) []string {
 // the order the operator can choose. A pair that is unsafe on its own (bleach
 // and acid) may never meet neat in a good sequence (acid into caustic first).
 func decideSequence(d engine.Decision, finalW int, final []engine.Hazard, add *engine.Addition) engine.Decision {
-	best := add.Sequences[0]
-	bestW, allW := rank(best.Worst), 0
-	for _, s := range add.Sequences {
-		allW = max(allW, rank(s.Worst))
+	best := &add.Sequences[0]
+	bestW, allW := sequenceRank(best), 0
+	for i := range add.Sequences {
+		s := &add.Sequences[i]
+		if w := sequenceRank(s); w < bestW || (w == bestW && rank(s.Worst) < rank(best.Worst)) {
+			best, bestW = s, w
+		}
+	}
+	for i := range add.Sequences {
+		allW = max(allW, sequenceRank(&add.Sequences[i]))
 	}
 	level := max(finalW, bestW)
 	seqText := strings.Join(best.Streams, ", then ")
@@ -156,6 +162,9 @@ func decideSequence(d engine.Decision, finalW int, final []engine.Hazard, add *e
 	case bestW > finalW:
 		for _, st := range best.Steps {
 			for _, ph := range st.Hazards {
+				if ph.Code == "warms" {
+					continue // no hazard of the pour (orderRank)
+				}
 				if rank(ph.Worst) == bestW && !strings.Contains(d.Title, "in every sequence") {
 					// The level comes from the pour: its reason leads the
 					// title, before the final mix's own.
@@ -191,7 +200,7 @@ func worseOrderTitle(add *engine.Addition, good *engine.PourOrder) string {
 			continue
 		}
 		for _, h := range o.Hazards {
-			if rank(h.Worst) > w {
+			if rank(h.Worst) > w && h.Code != "warms" {
 				w, t = rank(h.Worst), codeTitle(h.Code)
 			}
 		}
@@ -233,10 +242,27 @@ func pourLevels(add *engine.Addition) (best int, order *engine.PourOrder, all in
 	return best, order, all, choice
 }
 
+// orderRank is the worst hazard met along an order. A mix that only warms
+// on the way (below scalding: "warms") counts for nothing: a passing warm-up
+// of part of the tank is no hazard of the pour, and a warning for it (water
+// run onto a heap of trisodium phosphate warms the first litre) teaches
+// operators to ignore warnings. The final mix's own warming still counts.
 func orderRank(o *engine.PourOrder) int {
 	w := 0
 	for _, h := range o.Hazards {
+		if h.Code == "warms" {
+			continue
+		}
 		w = max(w, rank(h.Worst))
+	}
+	return w
+}
+
+// sequenceRank is orderRank over the steps of a sequence.
+func sequenceRank(s *engine.PourSequence) int {
+	w := 0
+	for i := range s.Steps {
+		w = max(w, orderRank(&s.Steps[i]))
 	}
 	return w
 }

@@ -176,3 +176,43 @@ func TestLocalHazardsLeadTheOrder(t *testing.T) {
 		t.Errorf("advice %q", add.Advice)
 	}
 }
+
+// TestInletJudgesNoHeat: where a stream lands in a tank of two or more
+// streams, a gas met in local excess is reported, heat is not: a stream's
+// whole heat set free in a hundredth of the tank is no state the tank
+// passes through (caustic flakes, then ferrous sulfate, into water read
+// "near boiling" from the first drop).
+func TestInletJudgesNoHeat(t *testing.T) {
+	eval := func(req *engine.Request) ([]engine.Hazard, error) {
+		vol := map[string]float64{}
+		for _, s := range req.Streams {
+			vol[s.Text] += s.VolumeL + s.MassKg
+		}
+		var hs []engine.Hazard
+		if vol["salt"] > vol["water"] {
+			hs = append(hs, engine.Hazard{Code: "near-boiling", Severity: engine.Danger, Heat: &engine.HeatJudged{ReachedC: 95}})
+			hs = append(hs, engine.Hazard{Code: "fumes", Severity: engine.Danger})
+		}
+		return hs, nil
+	}
+	req := &engine.Request{Streams: []engine.Stream{{Text: "water", VolumeL: 200}, {Text: "lye", VolumeL: 20}, {Text: "salt", MassKg: 5}}}
+	add := Analyse(req, eval)
+	found := false
+	for _, s := range add.Sequences {
+		if s.Streams[2] != "salt" {
+			continue
+		}
+		last := s.Steps[1]
+		for _, h := range last.Hazards {
+			if strings.HasPrefix(h.Message, "where salt lands") {
+				if h.Code != "fumes" {
+					t.Errorf("sequence %v: inlet reports %s, a heat code", s.Streams, h.Code)
+				}
+				found = true
+			}
+		}
+	}
+	if !found {
+		t.Error("the gas where the salt lands is not reported")
+	}
+}

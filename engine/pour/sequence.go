@@ -95,7 +95,12 @@ var inletShares = [...]float64{0.01, 0.05}
 // (common practice, no source: never add acid to a tank containing
 // hypochlorite; neutralise the acid and the base with each other before any
 // hypochlorite, cyanide or sulfide stream goes in). The mix as a whole at
-// each point of the pour cannot show it.
+// each point of the pour cannot show it. Heat is not judged here: the
+// stream runs in over time and its heat spreads through the tank, which the
+// points of the pour follow (and the landing rule, water onto a
+// concentrate); the whole of a stream set free in a hundredth of the tank
+// at once (20 kg of caustic flakes in 2 L) is no state the tank passes
+// through.
 func atInlet(r *engine.Request, eval Evaluate) ([]engine.PourHazard, int) {
 	n := len(r.Streams)
 	if n < 3 {
@@ -118,7 +123,7 @@ func atInlet(r *engine.Request, eval Evaluate) ([]engine.PourHazard, int) {
 		}
 		pts++
 		for _, h := range hs {
-			if h.Severity != engine.Danger || seen[h.Code] {
+			if h.Severity != engine.Danger || h.Heat != nil || heatCodes[h.Code] || seen[h.Code] {
 				continue
 			}
 			seen[h.Code] = true
