@@ -163,7 +163,11 @@ func reactionLine(r *engine.Result) string {
 		return "Redox: " + hb.Reaction.Text + " possible on paper, held back: " + reason
 	}
 	switch {
-	case r.Reaction == nil && len(r.HeldBack) > 0 && r.HeldBack[0].Reaction != nil:
+	case r.Reaction == nil && len(r.HeldBack) > 0 && r.HeldBack[0].Reaction != nil && givesGas(r.HeldBack[0].Reaction):
+		// One agent's own change held back is worth the short line only
+		// when it would give off a gas (peroxide to oxygen): an oxide
+		// shuffled between solids (ferrous hydroxide to iron and
+		// magnetite) reads as a reaction that happens.
 		hb := r.HeldBack[0]
 		reason, _, _ := strings.Cut(hb.Reason, ":")
 		return "Redox: " + hb.Reaction.Text + " possible on paper, held back: " + reason
@@ -186,6 +190,16 @@ func reactionLine(r *engine.Result) string {
 	// The strongest pair on paper that does not run is for the details:
 	// in the short answer it read as a reaction that happens.
 	return "Redox: no redox reaction runs at these conditions (the pairs are in the details)"
+}
+
+// givesGas: a product of x is a gas.
+func givesGas(x *engine.Reaction) bool {
+	for _, p := range x.Products {
+		if p.Phase == engine.Gas {
+			return true
+		}
+	}
+	return false
 }
 
 // outsideReaction is the fast reaction that gives a gas of concern beyond
