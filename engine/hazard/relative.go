@@ -33,7 +33,7 @@ func relative(mix []engine.Hazard, alone []Alone, final bool) []engine.Hazard {
 	for _, h := range mix {
 		if b, ok := ownHazard(h, alone); ok {
 			h.Message = "Already in " + b + " before mixing, and mixing does not make it worse: " + h.Message
-			if final && h.Gas != nil && h.Severity == engine.Danger {
+			if final && h.Gas != nil && h.Gas.Ratio >= 1 && h.Gas.LimitPPM > 0 && rank(h.Severity) >= rank(engine.Warning) {
 				h.Severity = engine.Warning
 				h.Title = strings.TrimPrefix(h.Title, "releases ") + " over the mix above its limit, as over " + b + " alone"
 				h.Action = "Work with extraction running and the precautions of " + b + " itself (its safety data sheet); keep the tank covered."
