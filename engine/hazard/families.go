@@ -16,6 +16,7 @@ import (
 var familyRules = []func(o *Outcome) (engine.Hazard, bool){
 	chloroAmines, nitrateEsters, nitricOrganic, hydrazineNitric, dampDithionite, ammoniumNitrite, permanganateSulfuric, volatileAcid,
 	solidHypochlorite, magnesiumWater, cyanideOxidation, halideSulfuric, chlorateSulfuric, hotElectrolessNickel, nitricMetalFumes,
+	chlorateSulfite,
 	// organic, azide and solid-chlorinator families (organic.go)
 	organicPeroxides, perchlorateEsters, peracidAlkali, oxidizerOrganic, bisChloromethylEther,
 	cannizzaro, hexamine, formaldehydeHypochlorite, haloform, heavyMetalAzide, mixedChlorinators,
@@ -355,6 +356,37 @@ func chlorateSulfuric(o *Outcome) (engine.Hazard, bool) {
 		"Do not combine, at any rate of addition: keep chlorate away from strong acids; if it has happened, leave the area and keep sources of ignition away.",
 		"Bretherick's Handbook of Reactive Chemical Hazards, sodium chlorate: sulfuric acid (from memory); White's Handbook of Chlorination, chlorine dioxide generation (from memory); NIOSH Pocket Guide, chlorine dioxide IDLH 5 ppm (from memory); 6 mol/L threshold: common practice, no source"), true
 }
+
+// chlorateSulfite: concentrated chlorate or bromate beside concentrated
+// bisulfite or metabisulfite (or dithionite) in a mix below pH 7. Above about pH 3 the pair
+// hardly reacts at first (the chlorate-sluggish lock holds it back), but the
+// reaction makes its own acid (ClO3- + 3 HSO3- → Cl- + 3 SO4^2- + 3 H+) and
+// the acid speeds it up: after a quiet spell the tank can take off, boil and
+// give off chlorine dioxide, chlorine and sulfur dioxide. Judged while both
+// are still there after the equilibrium (held back); where the state already
+// runs the reaction, its heat and gases are judged as they form. Sulfite in
+// alkali (ClO3- + 3 SO3^2- → Cl- + 3 SO4^2-) makes no acid and stays slow:
+// not refused (its lock's "never acidify" stands).
+func chlorateSulfite(o *Outcome) (engine.Hazard, bool) {
+	ox := o.Molar("ClO3-", "HClO3", "BrO3-", "HBrO3")
+	red := o.Molar("HSO3-", "H2SO3", "S2O5^2-", "HS2O4-")
+	if ox < chlorateSulfiteMolar || red < chlorateSulfiteMolar || o.PH >= 7 {
+		return engine.Hazard{}, false
+	}
+	what := "Chlorate"
+	if o.Molar("BrO3-", "HBrO3") > o.Molar("ClO3-", "HClO3") {
+		what = "Bromate"
+	}
+	return mk("chlorate-sulfite", engine.Danger,
+		what+" ("+fmtNum(ox, 2)+" mol/L in the mix) beside sulfite or bisulfite ("+fmtNum(red, 2)+" mol/L) reacts slowly at first, but the reaction makes its own acid (ClO3- + 3 HSO3- → Cl- + 3 SO4^2- + 3 H+) and the acid speeds it up: after a quiet spell the tank can take off, boil and give off chlorine dioxide, chlorine and sulfur dioxide (about 900 kJ per mol of chlorate).",
+		"Do not combine, at any rate of addition: store and dose chlorate and sulfite or bisulfite apart, in separate lines and bunds; if it has happened, do not add acid, dilute with plenty of water and leave the area.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, chlorates: reducing agents (from memory); the chlorate–sulfite reaction is autocatalytic in acid (a known clock reaction, from memory); reaction heat from NBS Tables 1982 ΔfH° (from memory); 0.3 mol/L threshold: common practice, no source"), true
+}
+
+// chlorateSulfiteMolar: the chlorate and the sulfite, mol/L in the mix each,
+// from which the pair is refused (the chlorate of aged bleach, about
+// 0.05 mol/L, and a dechlorination dose stay below it).
+const chlorateSulfiteMolar = 0.3
 
 // chlorateAcidMolar is the sulfuric acid, mol/L in the mix, from which
 // chlorate alone gives chlorine dioxide (generators run at about 4.5–5 mol/L
