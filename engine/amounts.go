@@ -45,6 +45,11 @@ func readAmounts(req *Request, t *Tables) *Request {
 			readStrength(&st, &st.Components[ci], t, note)
 		}
 		readSolutionMass(&st, t, note)
+		if GasAsSold(&st, t) {
+			for _, c := range st.Components {
+				note("no strength given for %s: read as the anhydrous, liquefied gas as sold (no water comes with it); state the strength if it is a solution", c.Chemical.Formula)
+			}
+		}
 		out.Streams[i] = st
 	}
 	capSolids(&out, t, note)

@@ -171,6 +171,8 @@ func reactionLine(r *engine.Result) string {
 		hb := r.HeldBack[0]
 		reason, _, _ := strings.Cut(hb.Reason, ":")
 		return "Redox: " + hb.Reaction.Text + " possible on paper, held back: " + reason
+	case r.Reaction == nil && len(r.HeldBack) > 0:
+		return "Redox: no redox reaction runs at these conditions (what is held back is in the details)"
 	case r.Reaction == nil:
 		return "Redox: no oxidizing and reducing agent pair"
 	case r.Verdict == engine.Spontaneous && r.Decision != nil && held(r.Decision.Held, r.Reaction.Text):

@@ -115,17 +115,22 @@ func silverAmmonia(o *Outcome) (engine.Hazard, bool) {
 // is immediately dangerous at 30 ppm.
 func hydrofluoric(o *Outcome) (engine.Hazard, bool) {
 	hf := math.Max(o.MolarBefore("HF"), o.Molar("HF"))
+	msg := "Hydrofluoric acid (" + fmtNum(hf, 2) + " mol/L HF): burns show up late and fluoride poisons through the skin; concentrated acid fumes (IDLH 30 ppm)."
 	if hf < 1e-3 {
-		return engine.Hazard{}, false
+		// The mix takes the acid up (caustic, lime), but the operator
+		// still handles the hydrofluoric acid on its way in.
+		if !o.Named("HF", "NH4HF2") {
+			return engine.Hazard{}, false
+		}
+		msg = "Hydrofluoric acid is handled on its way into the mix, which takes it up: splashes and fumes burn late and fluoride poisons through the skin (IDLH 30 ppm)."
 	}
 	sev := engine.Warning
 	if hf >= 10 {
 		sev = engine.Danger
 	}
-	return mk("hf-burns", sev,
-		"Hydrofluoric acid ("+fmtNum(hf, 2)+" mol/L HF): burns show up late and fluoride poisons through the skin; concentrated acid fumes (IDLH 30 ppm).",
-		"Wear HF-rated gloves and face shield, keep calcium gluconate gel at hand, work with extraction.",
-		"NIOSH Pocket Guide, hydrogen fluoride, IDLH 30 ppm (from memory); 10 mol/L danger threshold: common practice, no source"), true
+	return mk("hf-burns", sev, msg,
+		"Wear HF-rated gloves and face shield, keep calcium gluconate gel at hand, work with extraction; transfer concentrated or anhydrous HF closed, or below the liquid surface.",
+		"NIOSH Pocket Guide, hydrogen fluoride, IDLH 30 ppm (from memory); calcium gluconate first aid and closed transfer: common practice, no source; 10 mol/L danger threshold: common practice, no source"), true
 }
 
 // alkaliMetalFire: sodium, potassium and lithium with water.
