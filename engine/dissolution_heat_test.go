@@ -41,6 +41,8 @@ func TestDissolutionHeatOfSalts(t *testing.T) {
 		{"LiCl", 42.39, -37.03, "CRC Enthalpy of solution of electrolytes"},
 		{"CH3COONa", 82.03, -17.32, "CRC Enthalpy of solution of electrolytes"},
 		{"H3BO3", 61.83, 22.0, "NBS Tables 1982: H3BO3(s) −1094.33, H3BO3(aq) −1072.32"},
+		{"Na2S", 78.04, -77.0, "NBS Tables 1982: Na2S(s) −364.8, Na+ −240.12, HS- −17.6, OH- −229.99, H2O(l) −285.83 (sulfide hydrolysed)"},
+		{"Al2(SO4)3", 342.15, -349.0, "NBS Tables 1982: Al2(SO4)3(s) −3440.84, Al^3+ −531, SO4^2- −909.34"},
 		{"NiSO4", 154.76, -90.4, "NBS Tables 1982: NiSO4(s) −872.91, Ni^2+ −54.0, SO4^2- −909.34"},
 	}
 	const mol = 2.0

@@ -92,14 +92,12 @@ func (a *Advisor) landing(req *engine.Request, conc map[string]float64) pour.Loc
 // A liquid run onto a solid in the tank (water onto caustic flakes) heats
 // the solution it makes where it lands, which the solid's solubility
 // bounds (data/solubility.txt; the figure is that solution's): it boils
-// from solidBoilRiseC (about 100 °C from 25 °C) and scalds from
-// solidScaldRiseC (about 55 °C); it cannot throw out a concentrate floating
-// under it, as water on a dense acid does (common practice, no source:
-// dissolve solids by running them into the water).
-const (
-	solidScaldRiseC = 30.0
-	solidBoilRiseC  = 75.0
-)
+// and spits from solidBoilRiseC (about 100 °C from 25 °C). Below that a
+// wetted heap warms but throws nothing out: it cannot throw out a
+// concentrate floating under it, as water on a dense acid does, and the
+// points of the pour judge how warm the tank gets (common practice, no
+// source: dissolve solids by running them into the water).
+const solidBoilRiseC = 75.0
 
 // allSolid: every stream of the tank is a solid given by mass.
 func allSolid(tank []engine.Stream) bool {
@@ -112,13 +110,10 @@ func allSolid(tank []engine.Stream) bool {
 }
 
 func solidLanding(added engine.Stream, tank []engine.Stream, rise float64) []engine.PourHazard {
-	code, sev, what := "scalding-heat", engine.Warning, "heats to scalding"
-	switch {
-	case rise >= solidBoilRiseC:
-		code, sev, what = "boils", engine.Danger, "boils and spits"
-	case rise < solidScaldRiseC:
+	if rise < solidBoilRiseC {
 		return nil
 	}
+	code, sev, what := "boils", engine.Danger, "boils and spits"
 	onto := pour.Name(&tank[0])
 	return []engine.PourHazard{{
 		Code: code, FromFraction: pour.Fractions()[0], ToFraction: 1, Worst: sev,
