@@ -13,8 +13,12 @@ import (
 
 // gasesOut lists what leaves the liquid: the gas phase of the mix at
 // equilibrium, and toxic gases that stay dissolved but fill the headspace
-// (a headspace as large as the liquid volume is assumed) above 1 ppm.
-func gasesOut(mx *state.Mix, formed func(*thermo.Species) bool, kPa float64) []GasRelease {
+// of headspaceL litres (the stated one, else as large as the liquid) above
+// 1 ppm.
+func gasesOut(mx *state.Mix, formed func(*thermo.Species) bool, kPa, headspaceL float64) []GasRelease {
+	if !(headspaceL > 0) {
+		headspaceL = mx.VolumeL
+	}
 	out := []GasRelease{}
 	f := mx.Final
 	for i, sp := range mx.Species {
@@ -36,10 +40,10 @@ func gasesOut(mx *state.Mix, formed func(*thermo.Species) bool, kPa float64) []G
 			continue // a trace: below 1 ppm in the headspace and 1 µmol per litre
 		}
 		if f.Amount[i] <= 0 {
-			// Dissolved: what a closed headspace of the liquid's volume
-			// holds, taken out of the liquid (see headspaceSplit).
+			// Dissolved: what the closed headspace holds, taken out of
+			// the liquid (see headspaceSplit).
 			g.Kind = "headspace"
-			gas, liquid, pSplit := headspaceSplit(mx, f, i, p, mx.VolumeL)
+			gas, liquid, pSplit := headspaceSplit(mx, f, i, p, headspaceL)
 			g.Mol, g.LiquidMol = gas, sigDigits(liquid, 6)
 			g.PartialKPa = sigDigits(pSplit*100, 4)
 			g.HeadspacePPM = sigDigits(pSplit/(kPa/100)*1e6, 4)

@@ -219,7 +219,7 @@ func (e *Engine) predict(asked *Request, full bool) (*Result, error) {
 		res.HeldBack = e.heldBack(mx)
 	}
 	res.FinalComposition = compositionOut(mx)
-	res.Gases = gasesOut(mx, formedBy(steps), m.pressureKPa)
+	res.Gases = gasesOut(mx, formedBy(steps), m.pressureKPa, res.Conditions.HeadspaceL)
 	res.Heat = heatOut(mx, m, e.Tables)
 	e.outsideAqueous(res, m)
 	e.finish(res, m, mx)
@@ -262,7 +262,11 @@ func baseResult(req *Request, m *mixture) *Result {
 			PH: roundDec(m.pH, 2), PHStated: m.pHStated,
 			TemperatureK: roundDec(m.tempK, 2), TemperatureC: roundDec(m.tempK-273.15, 2),
 			PressureKPa: m.pressureKPa, VolumeL: roundDec(m.volumeL, 6), Medium: mediumOf(m.pH),
+			HeadspaceL: roundDec(m.volumeL, 6),
 		},
+	}
+	if req.HeadspaceL > 0 {
+		res.Conditions.HeadspaceL, res.Conditions.HeadspaceStated = req.HeadspaceL, true
 	}
 	for _, st := range req.Streams {
 		so := StreamOut{Text: st.Text, Label: st.Label(), Tag: st.Tag, VolumeL: st.VolumeL, MassKg: st.MassKg, PH: st.PH, Components: []string{}}

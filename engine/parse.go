@@ -17,7 +17,11 @@ type Request struct {
 	TemperatureK float64 // 298.15 unless stated
 	PressureKPa  float64 // 101.325 unless stated
 	PH           *float64
-	TempStated   bool
+	// HeadspaceL is the closed gas space above the mix stated with
+	// "headspace 2 m3" after "at"; 0 when not stated (the answer then
+	// takes a headspace equal to the liquid volume, and says so).
+	HeadspaceL float64
+	TempStated bool
 	// TempFromStreams: TemperatureK is the streams' own temperatures
 	// averaged (StreamsTemperatureK), not one stated for the whole mix.
 	TempFromStreams bool
@@ -245,7 +249,7 @@ const maxRequestLen = 4000
 //	amount    = <number> L|mL|m3|gal|US gal|imp gal | <number> kg|g|lb|t
 //	component = <chemical> [<number> <unit>] | pH <number>
 //	unit      = M | mol/L | mmol/L | mM | % | % w/w | % w/v | g/L | mg/L | ppm
-//	condition = <number> C|F|K | <number> kPa|MPa|bar|atm | pH <number>
+//	condition = <number> C|F|K | <number> kPa|MPa|bar|atm | pH <number> | headspace <amount>
 //
 // A number may use a decimal comma ("12,5 %") where it cannot be read as a
 // thousands separator. Every number is bounded (see bounds.go): a value no
@@ -420,11 +424,20 @@ func (p *parser) conditions(req *Request) error {
 			req.PH = &v
 			continue
 		}
+		if isWord(tk, "headspace") {
+			p.i++
+			v, err := p.headspace(tk)
+			if err != nil {
+				return err
+			}
+			req.HeadspaceL = v
+			continue
+		}
 		if tk.kind != tNumber && isSeparator(tk) && p.i > start+1 {
 			return p.streamAfterConditions(tk, start)
 		}
 		if tk.kind != tNumber {
-			return p.errAt(tk, "bad-condition", "expected a temperature (25 C, 77 F, 298 K), a pressure (2 bar, 150 kPa) or a pH (pH 3) after \"at\", not %q", tk.text)
+			return p.errAt(tk, "bad-condition", "expected a temperature (25 C, 77 F, 298 K), a pressure (2 bar, 150 kPa), a pH (pH 3) or a headspace (headspace 2 m3) after \"at\", not %q", tk.text)
 		}
 		p.i++
 		u := p.peek()
@@ -540,6 +553,34 @@ func (p *parser) condition(req *Request, num, u *token) error {
 	req.TemperatureK = conv(num.num)
 	req.TempStated = true
 	return p.checkTemperature(num, u, req.TemperatureK)
+}
+
+// headspace reads the closed gas space above the mix after the word
+// "headspace": a volume in any amount unit of a liquid ("headspace 2 m3",
+// "headspace 500 L").
+func (p *parser) headspace(word *token) (float64, error) {
+	num := p.peek()
+	if num == nil || num.kind != tNumber {
+		return 0, p.errAt(num, "bad-headspace", "a volume must follow headspace, e.g. \"headspace 2 m3\" or \"headspace 500 L\"")
+	}
+	p.i++
+	u := p.peek()
+	if u == nil || u.kind != tWord {
+		return 0, p.errAt(u, "missing-unit", "a unit must follow the headspace %s: L, m3, gal, US gal or imp gal", num.text)
+	}
+	au, n, text, ok := amountUnitAt(u, p.peekAt(1))
+	if !ok || au.mass {
+		return 0, p.errAt(u, "unknown-unit", "%q is not a volume unit for the headspace; use L, m3, gal, US gal or imp gal", u.text)
+	}
+	p.i += n
+	v := num.num * au.factor
+	if err := p.checkAmount(num, &token{kind: tWord, text: text, pos: u.pos}, v, false); err != nil {
+		return 0, err
+	}
+	if au.note != "" {
+		p.note("headspace "+num.text+" "+text+" "+au.note, fmtNum(v))
+	}
+	return v, nil
 }
 
 func (p *parser) phValue(at *token) (float64, error) {

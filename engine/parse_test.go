@@ -517,3 +517,64 @@ func TestOperatorVerbs(t *testing.T) {
 		t.Errorf("NH4OH read as %s, want NH3", req.Streams[0].Components[0].Chemical.Formula)
 	}
 }
+
+// TestParseHeadspace: the closed gas space above the mix may be stated
+// after "at" in any liquid volume unit; a mass, a missing number or a
+// vessel beyond any plant's are refused with the position of the fault.
+func TestParseHeadspace(t *testing.T) {
+	tb := mustEngine(t).Tables
+	for text, want := range map[string]float64{
+		"mix 10 L HCl 1 M + 1 kg Zn at headspace 2 m3":              2000,
+		"mix 10 L HCl 1 M + 1 kg Zn at 30 C, headspace 500 L":       500,
+		"mix 10 L HCl 1 M + 1 kg Zn at headspace 100 imp gal, pH 1": 454.609,
+		"mix 10 L HCl 1 M + 1 kg Zn":                                0,
+	} {
+		req, err := engine.ParseRequest(text, tb, nil)
+		if err != nil {
+			t.Errorf("%s: %v", text, err)
+			continue
+		}
+		if math.Abs(req.HeadspaceL-want) > 1e-9 {
+			t.Errorf("%s: headspace %g L, want %g", text, req.HeadspaceL, want)
+		}
+	}
+	for text, code := range map[string]string{
+		"mix 10 L HCl 1 M + 1 kg Zn at headspace 5 kg":   "unknown-unit",
+		"mix 10 L HCl 1 M + 1 kg Zn at headspace":        "bad-headspace",
+		"mix 10 L HCl 1 M + 1 kg Zn at headspace 2":      "missing-unit",
+		"mix 10 L HCl 1 M + 1 kg Zn at headspace 1e9 m3": "bad-amount",
+		"mix 10 L HCl 1 M + 1 kg Zn at headspace -2 m3":  "bad-amount",
+	} {
+		_, err := engine.ParseRequest(text, tb, nil)
+		var pe *engine.ParseError
+		if !errors.As(err, &pe) || pe.Code != code {
+			t.Errorf("%s: error %v, want code %s", text, err, code)
+		}
+	}
+}
+
+// TestStatedHeadspace: the gas figures are for the stated headspace. A
+// dissolved gas keeps its equilibrium concentration (Henry's law) and the
+// larger space holds more of it; a gas phase given off (hydrogen from zinc
+// in acid: 1 mol per mol of zinc, 30.6 mol from 2 kg, 746 L at 25 °C)
+// fills a larger space more thinly: 746 L in 5 m³ is about 14.9 %.
+func TestStatedHeadspace(t *testing.T) {
+	small := ask(t, "mix 100 L HCl 10 % + 2 kg Zn")
+	big := ask(t, "mix 100 L HCl 10 % + 2 kg Zn at headspace 5 m3")
+	if !big.Conditions.HeadspaceStated || big.Conditions.HeadspaceL != 5000 || small.Conditions.HeadspaceStated || small.Conditions.HeadspaceL != small.Conditions.VolumeL {
+		t.Fatalf("conditions: stated %+v, default %+v", big.Conditions, small.Conditions)
+	}
+	cl := func(r *engine.Result) (mol, ppm float64) {
+		for _, g := range r.Gases {
+			if g.Text == "Cl2(g)" {
+				return g.Mol, g.HeadspacePPM
+			}
+		}
+		return 0, 0
+	}
+	m1, p1 := cl(ask(t, "mix 200 L NaOCl 12.5 % + 50 L HCl 10 %"))
+	m2, p2 := cl(ask(t, "mix 200 L NaOCl 12.5 % + 50 L HCl 10 % at headspace 20 m3"))
+	if !(m1 > 0) || m2 < 50*m1 || math.Abs(p2-p1) > 0.05*p1 {
+		t.Errorf("chlorine: %.3g mol at %.4g ppm over 250 L, %.3g mol at %.4g ppm over 20 m³; want the same ppm and 80 times the amount", m1, p1, m2, p2)
+	}
+}

@@ -88,10 +88,13 @@ type Decision struct {
 	Reasons []string `json:"reasons"`
 	Actions []string `json:"actions"`
 
-	Heat       *HeatJudged  `json:"heat,omitempty"` // the heat counted (reactions that proceed, neutralisation, dissolving)
-	HeadspaceL float64      `json:"headspace_l"`    // gas space the concentrations are for
-	Held       []string     `json:"held_back"`      // reactions possible on paper that are not counted, with the reason
-	Gases      []GasRelease `json:"gases"`          // gases counted: from reactions that proceed and what the liquid cannot hold
+	Heat       *HeatJudged `json:"heat,omitempty"` // the heat counted (reactions that proceed, neutralisation, dissolving)
+	HeadspaceL float64     `json:"headspace_l"`    // gas space the concentrations are for
+	// HeadspaceStated: HeadspaceL was stated in the request; else it is
+	// taken equal to the liquid volume.
+	HeadspaceStated bool         `json:"headspace_stated"`
+	Held            []string     `json:"held_back"` // reactions possible on paper that are not counted, with the reason
+	Gases           []GasRelease `json:"gases"`     // gases counted: from reactions that proceed and what the liquid cannot hold
 }
 
 // Addition is the pour judged along the way: each stream run into the
@@ -385,7 +388,11 @@ type Conditions struct {
 	TemperatureC float64  `json:"temperature_c"`
 	PressureKPa  float64  `json:"pressure_kpa"`
 	VolumeL      float64  `json:"volume_l"`
-	Medium       Medium   `json:"medium"` // acid or base: which table form applies
+	// HeadspaceL is the closed gas space the gas figures are for: the
+	// stated one, else the liquid volume (HeadspaceStated false).
+	HeadspaceL      float64 `json:"headspace_l"`
+	HeadspaceStated bool    `json:"headspace_stated"`
+	Medium          Medium  `json:"medium"` // acid or base: which table form applies
 }
 
 // Allowance was a kinetic allowance of the earlier pair ranking. The field

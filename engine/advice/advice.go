@@ -69,7 +69,7 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 	if o.Named("NaOCl") && !o.Named("NaOH") {
 		res.Notes = append(res.Notes, BleachCausticNote)
 	}
-	res.Notes = append(res.Notes, fmt.Sprintf("gas concentrations are for a closed headspace equal to the liquid volume (%s L), at equilibrium", trim(o.HeadspaceL)))
+	res.Notes = append(res.Notes, "gas concentrations are for "+HeadspaceBasis(o.HeadspaceL, o.HeadspaceStated)+", at equilibrium")
 	res.Addition = pour.AnalyseLocal(req, func(r *engine.Request) ([]engine.Hazard, error) {
 		if r.TempFromStreams {
 			// A point of the pour starts at the temperature of the
@@ -85,7 +85,7 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 		res.Addition = &engine.Addition{Orders: []engine.PourOrder{}, Advice: "One stream: nothing is poured into anything."}
 	}
 	d := hazard.Decide(res.Hazards, res.Addition)
-	d.HeadspaceL = o.HeadspaceL
+	d.HeadspaceL, d.HeadspaceStated = o.HeadspaceL, o.HeadspaceStated
 	d.Held = []string{}
 	d.Gases = []engine.GasRelease{}
 	for _, g := range o.Gases {

@@ -65,12 +65,31 @@ func RenderShort(r *engine.Result) string {
 			w("- %s\n", a)
 		}
 	}
-	hs := 0.0
+	hs, stated := 0.0, false
 	if r.Decision != nil {
-		hs = r.Decision.HeadspaceL
+		hs, stated = r.Decision.HeadspaceL, r.Decision.HeadspaceStated
 	}
-	w("Gas figures: closed headspace equal to the liquid volume (%s L), at equilibrium. %s\n", trim(hs), shortCaution)
+	w("Gas figures: %s, at equilibrium. %s\n", HeadspaceBasis(hs, stated), shortCaution)
 	return b.String()
+}
+
+// HeadspaceBasis says which closed headspace the gas figures are for: the
+// one stated in the request ("at headspace 2 m3"), or one equal to the
+// liquid volume.
+func HeadspaceBasis(litres float64, stated bool) string {
+	if stated {
+		return "the stated closed headspace (" + litresText(litres) + " L)"
+	}
+	return "a closed headspace equal to the liquid volume (" + litresText(litres) + " L; state another with \"at headspace 2 m3\")"
+}
+
+// litresText writes a volume with four significant digits and no exponent.
+func litresText(x float64) string {
+	s := trim(x)
+	if strings.ContainsAny(s, "e") {
+		s = fmt.Sprintf("%.0f", x)
+	}
+	return s
 }
 
 // NotAssessedLine names the chemicals the answer leaves out for want of

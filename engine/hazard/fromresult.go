@@ -35,6 +35,10 @@ func FromResult(r *engine.Result, t *engine.Tables) *Outcome {
 		VolumeL: c.VolumeL, HeadspaceL: c.VolumeL, TemperatureC: c.TemperatureC,
 		PressureKPa: c.PressureKPa, PH: c.PH, PHStated: c.PHStated,
 	}
+	if c.HeadspaceStated && c.HeadspaceL > 0 {
+		o.HeadspaceL, o.HeadspaceStated = c.HeadspaceL, true
+		defer o.boundByHeadspace()
+	}
 	for _, s := range r.Species {
 		o.Before = append(o.Before, Amount{Species: engine.Species{Formula: s.Formula, Charge: s.Charge, Phase: s.Phase}, Mol: s.Mol, Molar: s.Molar})
 	}

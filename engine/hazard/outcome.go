@@ -137,6 +137,18 @@ func (o *Outcome) InTank(headspaceL float64) {
 		return
 	}
 	o.HeadspaceL = headspaceL
+	o.boundByHeadspace()
+}
+
+// boundByHeadspace keeps each measured gas to what its amount, given off
+// and dissolved, makes in the headspace: a gas phase of 746 L of hydrogen
+// in a stated headspace of 5 m³ is about 15 %, not the pure gas the state
+// holds over the liquid.
+func (o *Outcome) boundByHeadspace() {
+	headspaceL := o.HeadspaceL
+	if !(headspaceL > 0) {
+		return
+	}
 	for f, m := range o.Measured {
 		l := (m.Mol + m.Dissolved) * litreBarPerMolK() * o.TemperatureK() / (o.PressureKPa / 100)
 		if ppm := l / headspaceL * 1e6; ppm < m.PPM {
