@@ -51,6 +51,11 @@ type Rule struct {
 	// hydroxide it takes up).
 	AcidTo, BaseTo *float64
 	Per            float64
+	// With, when set, lets a no-gain group grow only as far as this group
+	// grows beside it, atom for atom: "no-gain S(0) + with S(4)" lets sulfur
+	// come off thiosulfate together with sulfur dioxide or bisulfite (in
+	// acid), never with sulfate.
+	With *Group
 }
 
 // Group selects atoms: of an element within an oxidation-state range, of an
@@ -197,6 +202,9 @@ func parseLockRow(line string) (Lock, error) {
 		}
 		l.Rules = append(l.Rules, r)
 		l.groups = append(l.groups, r.Group)
+		if r.With != nil {
+			l.groups = append(l.groups, *r.With)
+		}
 	}
 	if len(l.Rules) > 2 {
 		return Lock{}, fmt.Errorf("lock %s: at most two rules may be joined by \"or\"", l.ID)
@@ -253,11 +261,23 @@ func parseRule(s string) (Rule, error) {
 	return r, nil
 }
 
-// parseAllowance reads "acid to ph N [x K]" or "base to ph N [x K]".
+// parseAllowance reads "acid to ph N [x K]", "base to ph N [x K]" or
+// "with GROUP".
 func (r *Rule) parseAllowance(s string) error {
-	bad := fmt.Errorf(`want "+ acid to ph N [x K]" or "+ base to ph N [x K]" after a no-gain group`)
+	bad := fmt.Errorf(`want "+ acid to ph N [x K]", "+ base to ph N [x K]" or "+ with GROUP" after a no-gain group`)
 	if r.Dir != NoGain {
 		return bad
+	}
+	if rest, ok := strings.CutPrefix(s, "with "); ok {
+		g, err := parseGroup(strings.TrimSpace(rest))
+		if err != nil {
+			return err
+		}
+		if g.Above || g.Organic || len(g.Species) > 0 || len(r.Group.Species) > 0 || r.Group.Above || r.Group.Organic || g.Element != r.Group.Element {
+			return fmt.Errorf(`"+ with" pairs two oxidation-state groups of one element, like no-gain S(0) + with S(4)`)
+		}
+		r.With = &g
+		return nil
 	}
 	kind, rest, ok := strings.Cut(s, " to ph ")
 	if !ok || (kind != "acid" && kind != "base") {

@@ -259,3 +259,42 @@ func TestGroupWithoutRejectsBadElement(t *testing.T) {
 		t.Errorf("parseGroup(N(-3..-1 without C)) = %+v, %v", g, err)
 	}
 }
+
+// TestPairedRule: "no-gain S(0) + with S(4)" counts sulfur(0) less
+// sulfur(IV), so sulfur may come off thiosulfate only beside as much sulfur
+// dioxide or bisulfite (S2O3^2- + 2 H+ → S + SO2 + H2O), never beside
+// sulfate; the pairing joins two oxidation-state groups of one element.
+func TestPairedRule(t *testing.T) {
+	r, err := parseRule("no-gain S(0) + with S(4)")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.With == nil || r.With.Element != "S" || r.With.Lo != 4 {
+		t.Fatalf("parsed %+v, want S(0) paired with S(4)", r)
+	}
+	db := loadDB(t)
+	var mx Mix
+	for _, s := range []string{"S(s)", "HSO3-", "SO2(g)", "SO4^2-", "S2O3^2-"} {
+		sp, ok := db.Get(s)
+		if !ok {
+			t.Fatalf("%s: no species data", s)
+		}
+		mx.Species = append(mx.Species, sp)
+	}
+	n0 := []float64{0.5, 0.25, 0.25, 1, 3}
+	c := ruleConstraint(&mx, "x#0", r, n0)
+	want := []float64{1, -1, -1, 0, 0}
+	for i, w := range want {
+		if c.Coef[i] != w {
+			t.Errorf("coefficient of %s = %g, want %g", mx.Species[i].Text, c.Coef[i], w)
+		}
+	}
+	if c.Bound != 0 {
+		t.Errorf("bound %g, want 0 (0.5 mol S less 0.5 mol sulfur(IV))", c.Bound)
+	}
+	for _, bad := range []string{"no-gain S(0) + with N(4)", "no-gain S(0) + with {SO2}", "no-loss S(0) + with S(4)", "no-gain {S(s)} + with S(4)"} {
+		if _, err := parseRule(bad); err == nil {
+			t.Errorf("parseRule(%q): no error", bad)
+		}
+	}
+}

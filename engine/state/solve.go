@@ -266,7 +266,7 @@ func constraintSets(mx *Mix, locks []*Lock, n0 []float64, allow map[string]float
 		var alts []lockRule
 		for k, r := range l.Rules {
 			name := l.ID + "#" + strconv.Itoa(k)
-			c := lockRule{c: ruleConstraint(mx, name, r, n0), g: r.Group}
+			c := lockRule{c: ruleConstraint(mx, name, r, n0), g: r.Group, paired: r.With != nil}
 			c.c.Bound += allow[name]
 			alts = append(alts, c)
 		}
@@ -330,7 +330,7 @@ func vacuous(mx *Mix, l *Lock, n0 []float64) bool {
 		switch {
 		case r.Dir == NoLoss && c.Bound <= traceLevel(n0):
 			return true
-		case r.Dir == NoGain && len(r.Group.Species) == 0 && !r.Group.Above && c.Bound >= (1-1e-12)*elementTotal(mx, n0, r.Group.Element):
+		case r.Dir == NoGain && r.With == nil && len(r.Group.Species) == 0 && !r.Group.Above && c.Bound >= (1-1e-12)*elementTotal(mx, n0, r.Group.Element):
 			return true
 		}
 	}
@@ -355,6 +355,9 @@ type lockRule struct {
 	c    equilibrium.Constraint
 	g    Group
 	shut []int // species a pinned rule shut out of the problem
+	// paired: the rule counts one group less another ("+ with"), so its
+	// weights may be negative and it pins nothing.
+	paired bool
 	// whole: the rule pinned every atom of its element in the group (all
 	// chromium is chromium(VI)); whether it held anything back cannot
 	// always be read from the potentials of the state, which then leave the
@@ -364,6 +367,11 @@ type lockRule struct {
 
 func ruleConstraint(mx *Mix, name string, r Rule, n0 []float64) equilibrium.Constraint {
 	c := equilibrium.Constraint{Name: name, Coef: append([]float64(nil), mx.weightsOf(r.Group)...)}
+	if r.With != nil {
+		for i, w := range mx.weightsOf(*r.With) {
+			c.Coef[i] -= w
+		}
+	}
 	for i, w := range c.Coef {
 		c.Bound += w * n0[i]
 	}
@@ -646,6 +654,9 @@ func presolve(mx *Mix, n0 []float64, cons []lockRule) ([]lockRule, map[int]bool)
 		var list []int
 		whole := false
 		switch {
+		case lr.paired:
+			left = append(left, lr) // a difference of two groups: never pinned at an end
+			continue
 		case c.Rel != equilibrium.AtLeast && c.Bound <= 1e-300:
 			for i, w := range c.Coef {
 				if w > 0 {
