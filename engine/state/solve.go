@@ -249,6 +249,16 @@ func constraintSets(mx *Mix, locks []*Lock, n0 []float64, allow map[string]float
 		sets = next
 	}
 	for _, l := range locks {
+		if len(l.Rules) == 1 && l.Rules[0].Dir == NoNewBonds {
+			for _, r := range chainRules(mx) {
+				name := l.ID + "#" + r.Group.text
+				c := lockRule{c: ruleConstraint(mx, name, r, n0), g: r.Group}
+				for i := range sets {
+					sets[i] = append(sets[i], c)
+				}
+			}
+			continue
+		}
 		if len(l.Rules) == 1 && l.Rules[0].Dir == OneWay {
 			for k, pair := range oneWayRules(mx, l.Rules[0].Group.Element, n0) {
 				var alts []lockRule
@@ -318,6 +328,42 @@ func oneWayRules(mx *Mix, el string, n0 []float64) [][2]Rule {
 	return out
 }
 
+// chainRules spells out a no-new-bonds rule for the species of mx. For
+// every carbon count k of two or more up to the largest organic species of
+// the mix, two rules: "no-gain C in organic species of k or more carbon
+// atoms" (the carbon atoms) and "no-gain blocks of k carbon atoms" (each
+// species counted as the number of whole k-carbon pieces it could be broken
+// into). Carbon may then pass from larger compounds to smaller ones
+// (ethanol to acetic acid keeps its two carbons, glycerol to oxalic acid and
+// carbon dioxide loses one) but never from smaller ones to larger: methanol
+// gives no acetic acid, acetone or isopropanol, and two glycerols give no
+// three acetic acids (a glycerol holds one two-carbon piece, not one and a
+// half). What a feed brings none of is shut out of the problem (presolve),
+// so the rules cost the solver constraints only for compounds the streams
+// bring.
+func chainRules(mx *Mix) []Rule {
+	counts := map[int]bool{}
+	most := 0
+	for _, sp := range mx.Species {
+		if n := sp.Atoms["C"]; n >= 2 && IsOrganic(sp.Atoms, sp.Ion()) {
+			counts[n] = true
+			most = max(most, n)
+		}
+	}
+	var out []Rule
+	for k := 2; k <= most; k++ {
+		if counts[k] {
+			g := Group{Element: "C", Organic: true, MinAtoms: k, text: fmt.Sprintf("C(organic, %d or more C)", k)}
+			out = append(out, Rule{Dir: NoGain, Group: g})
+		}
+		if k < most { // at the largest count the blocks are the species counted above
+			g := Group{Element: "C", Organic: true, MinAtoms: k, Blocks: true, text: fmt.Sprintf("C(organic, pieces of %d C)", k)}
+			out = append(out, Rule{Dir: NoGain, Group: g})
+		}
+	}
+	return out
+}
+
 // vacuous reports whether a lock cannot hold anything back in n0: a single
 // rule that keeps nothing, or two rules of which one keeps nothing (either
 // may hold, so the lock as a whole asks nothing).
@@ -325,6 +371,9 @@ func vacuous(mx *Mix, l *Lock, n0 []float64) bool {
 	for _, r := range l.Rules {
 		if r.Dir == OneWay {
 			return len(oneWayRules(mx, r.Group.Element, n0)) == 0
+		}
+		if r.Dir == NoNewBonds {
+			return len(chainRules(mx)) == 0
 		}
 		c := ruleConstraint(mx, "", r, n0)
 		switch {
@@ -663,7 +712,7 @@ func presolve(mx *Mix, n0 []float64, cons []lockRule) ([]lockRule, map[int]bool)
 					list = append(list, i)
 				}
 			}
-		case c.Rel == equilibrium.AtMost && len(g.Species) == 0 && !g.Above && c.Bound >= (1-1e-12)*elementTotal(mx, n0, g.Element):
+		case c.Rel == equilibrium.AtMost && len(g.Species) == 0 && !g.Above && !g.Blocks && c.Bound >= (1-1e-12)*elementTotal(mx, n0, g.Element):
 			continue // the group cannot grow beyond every atom of its element
 		case c.Rel != equilibrium.AtMost && len(g.Species) == 0 && !g.Above && c.Bound >= (1-1e-12)*elementTotal(mx, n0, g.Element):
 			whole = true
