@@ -88,7 +88,7 @@ type Group struct {
 	// blocks of MinAtoms atoms it holds, not its atoms: the most pieces of
 	// k carbon atoms a compound could be broken into.
 	Blocks bool
-	text     string
+	text   string
 }
 
 func (g Group) String() string { return g.text }
