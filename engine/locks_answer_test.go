@@ -131,6 +131,8 @@ func TestPeroxideDecomposition(t *testing.T) {
 // oxidizing agent; in neutral or alkaline solution neither it nor dithionite
 // splits into sulfur and sulfate (Vogel's Textbook of Macro and Semimicro
 // Qualitative Inorganic Analysis, thiosulfate; from memory).
+// A large dose of hypochlorite into unbuffered thiosulfate makes the acid
+// that then breaks down the thiosulfate left over.
 func TestThiosulfateLocks(t *testing.T) {
 	cases := []struct {
 		req  string
@@ -139,8 +141,20 @@ func TestThiosulfateLocks(t *testing.T) {
 		{"mix 100 L sodium thiosulfate 10 % + 20 L HCl 10 %", mixOutcome{
 			atLeast: map[string]float64{"S(s)": 10, "H2SO3|HSO3-|SO2(g)": 10},
 			atMost:  map[string]float64{"S4O6^2-": 0.01, "SO4^2-|HSO4-|NaSO4-": 0.01}}},
-		{"mix 100 L Na2S2O3 10 % + 20 L NaOCl 12.5 %", mixOutcome{atLeast: map[string]float64{"SO4^2-|HSO4-|NaSO4-": 10}, atMost: map[string]float64{"S(s)": 0.01}}},
-		{"mix 100 L Na2S2O3 10 % + 1000 L NaOCl 200 ppm", mixOutcome{atMost: map[string]float64{"S(s)": 0.01, "OCl-|HOCl": 0.01}}},
+		// Hypochlorite takes thiosulfate to sulfate with 2 H+ per
+		// thiosulfate (4 OCl- + S2O3^2- + H2O → 2 SO4^2- + 4 Cl- + 2 H+):
+		// 40 mol hypochlorite, 10 mol thiosulfate, 20 mol acid, which takes
+		// the thiosulfate left over to sulfur and bisulfite or sulfur dioxide
+		// as far as it goes (White's Handbook of Chlorination,
+		// dechlorination; Vogel, thiosulfate with acid; from memory).
+		{"mix 100 L Na2S2O3 10 % + 20 L NaOCl 12.5 %", mixOutcome{
+			atLeast: map[string]float64{"SO4^2-|HSO4-|NaSO4-": 19, "S(s)": 5, "H2SO3|HSO3-|SO2(g)": 5},
+			atMost:  map[string]float64{"S4O6^2-": 0.01, "S(s)": 10}}},
+		// The same with caustic enough for the acid: no sulfur.
+		{"mix 100 L Na2S2O3 10 %, NaOH 2 % + 20 L NaOCl 12.5 %", mixOutcome{
+			atLeast: map[string]float64{"SO4^2-|HSO4-|NaSO4-": 19},
+			atMost:  map[string]float64{"S(s)": 0.01, "S4O6^2-": 0.01}}},
+		{"mix 100 L Na2S2O3 10 % + 1000 L NaOCl 200 ppm", mixOutcome{atMost: map[string]float64{"S(s)": 0.5, "OCl-|HOCl": 0.01}}},
 		{"mix 100 L Na2S2O4 5 % + 10 L NaOCl 12.5 %", mixOutcome{atMost: map[string]float64{"S(s)": 0.01}}},
 	}
 	for _, c := range cases {
@@ -247,5 +261,64 @@ func TestProductsAtFinalPH(t *testing.T) {
 	}
 	for _, c := range cases {
 		t.Run(c.req, func(t *testing.T) { checkOutcome(t, c.req, c.want) })
+	}
+}
+
+// TestThiosulfateWithHalogens: chlorine, bromine and hypochlorite take
+// thiosulfate to sulfate (S2O3^2- + 4 Br2 + 5 H2O → 2 SO4^2- + 8 Br- +
+// 10 H+), and the acid then breaks down the thiosulfate left over into
+// sulfur and sulfur dioxide or bisulfite (S2O3^2- + 2 H+ → S + SO2 + H2O),
+// so sulfur dioxide is given off; iodine, iron(III) and copper(II) stop at
+// tetrathionate and make no acid (Vogel's Textbook of Quantitative Chemical
+// Analysis, iodometry; White's Handbook of Chlorination, dechlorination
+// with thiosulfate; both from memory). Hypochlorite dechlorinated with a
+// small excess of thiosulfate in alkaline or bicarbonate-buffered water
+// gives no sulfur dioxide.
+func TestThiosulfateWithHalogens(t *testing.T) {
+	cases := []struct {
+		req   string
+		want  mixOutcome
+		so2   bool   // more than a millimole of sulfur dioxide is given off
+		inEqn string // the headline equation holds this species
+	}{
+		// 19.5 mol Br2 take 4.9 mol thiosulfate to 9.8 mol sulfate and
+		// 39 mol H+; most of the acid then takes excess thiosulfate to sulfur.
+		{"mix 1 L bromine + 100 L Na2S2O3 10 %", mixOutcome{
+			atLeast: map[string]float64{"SO4^2-|HSO4-|NaSO4-": 9.5, "S(s)": 15, "H2SO3|HSO3-|SO2(g)": 15},
+			atMost:  map[string]float64{"S4O6^2-": 0.01}}, true, "SO4"},
+		{"mix 10 L Cl2 0.5 % + 10 L Na2S2O3 10 %", mixOutcome{
+			atLeast: map[string]float64{"S(s)": 0.3},
+			atMost:  map[string]float64{"S4O6^2-": 0.01}}, true, "SO4"},
+		{"mix 1 L iodine 0.05 M + 2 L Na2S2O3 0.1 M", mixOutcome{
+			atLeast: map[string]float64{"S4O6^2-": 0.045},
+			atMost:  map[string]float64{"SO4^2-|HSO4-|NaSO4-": 1e-4, "S(s)": 1e-4, "H2SO3|HSO3-|SO2(g)": 1e-4}}, false, "S4O6"},
+		{"mix 10 L I2 1 %, KI 10 % + 10 L Na2S2O3 10 %", mixOutcome{
+			atLeast: map[string]float64{"S4O6^2-": 0.03},
+			atMost:  map[string]float64{"SO4^2-|HSO4-|NaSO4-": 1e-4, "H2SO3|HSO3-|SO2(g)": 1e-4}}, false, "S4O6"},
+		{"mix 10 L FeCl3 10 % + 10 L Na2S2O3 10 %", mixOutcome{
+			atLeast: map[string]float64{"S4O6^2-": 1},
+			atMost:  map[string]float64{"SO4^2-|HSO4-|NaSO4-": 1e-3, "H2SO3|HSO3-|SO2(g)": 1e-3}}, false, "S4O6"},
+		{"mix 1000 L NaOCl 50 ppm, NaHCO3 1 g/L + 1 L Na2S2O3 10 %", mixOutcome{
+			atLeast: map[string]float64{"SO4^2-|HSO4-|NaSO4-": 0.3},
+			atMost:  map[string]float64{"S(s)": 1e-4, "S4O6^2-": 1e-4, "OCl-|HOCl": 1e-4}}, false, "SO4"},
+		{"mix 1000 L NaOCl 50 ppm, NaOH 0.01 % + 1 L Na2S2O3 10 %", mixOutcome{
+			atLeast: map[string]float64{"SO4^2-|HSO4-|NaSO4-": 0.3},
+			atMost:  map[string]float64{"S(s)": 1e-4, "S4O6^2-": 1e-4}}, false, "SO4"},
+	}
+	for _, c := range cases {
+		t.Run(c.req, func(t *testing.T) {
+			checkOutcome(t, c.req, c.want)
+			r := ask(t, c.req)
+			gas := false
+			for _, g := range r.Gases {
+				gas = gas || g.Text == "SO2(g)" && g.Mol > 1e-3
+			}
+			if gas != c.so2 {
+				t.Errorf("sulfur dioxide given off %v, want %v (gases %+v)", gas, c.so2, r.Gases)
+			}
+			if r.Reaction == nil || !strings.Contains(r.Reaction.Text, c.inEqn) {
+				t.Errorf("headline %v, want one with %s", r.Reaction, c.inEqn)
+			}
+		})
 	}
 }

@@ -40,6 +40,14 @@ func TestProductPaths(t *testing.T) {
 			"common practice, no source; NIOSH IDLH SO2 100 ppm; Sander 2015"},
 		{"metabisulfite into hydrochloric acid", "mix 100 L HCl 10 % + 1 kg Na2S2O5", engine.DoNotMix, "so2-release", 0, "not strongly acidic",
 			"NIOSH IDLH SO2 100 ppm; Sander 2015"},
+		// Bromine takes thiosulfate to sulfate and acid, and the acid takes the excess thiosulfate to sulfur
+		// and sulfur dioxide; iodine stops at tetrathionate, and dechlorination in buffered water makes no gas.
+		{"bromine into excess thiosulfate", "mix 1 L bromine + 100 L Na2S2O3 10 %", engine.DoNotMix, "so2-release", 0, "SO2",
+			"Vogel's Textbook of Quantitative Chemical Analysis, thiosulfate with the halogens (from memory); NIOSH IDLH SO2 100 ppm"},
+		{"iodine titrated with thiosulfate", "mix 1 L iodine 0.05 M + 2 L Na2S2O3 0.1 M", engine.NoConcern, "", 0, "S4O6",
+			"Vogel's Textbook of Quantitative Chemical Analysis, iodometry (from memory)"},
+		{"dechlorination in bicarbonate water", "mix 1000 L NaOCl 50 ppm, NaHCO3 1 g/L + 1 L Na2S2O3 10 %", engine.NoConcern, "", 0, "SO4",
+			"White's Handbook of Chlorination, dechlorination with thiosulfate (from memory)"},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			r := ask(t, a, tc.req)

@@ -36,6 +36,12 @@ const (
 	// oxidation state the mix as combined holds it in: a species acts as
 	// oxidizing agent or as reducing agent, not on itself (see oneWayRules).
 	OneWay
+	// NoNewBonds keeps carbon–carbon bonds from being made: for every
+	// carbon count k of two or more, the carbon atoms in organic species of
+	// k or more carbon atoms may not grow (see chainRules). Organic
+	// compounds may then be oxidized, and broken into smaller ones, but
+	// never built up into larger ones.
+	NoNewBonds
 )
 
 // Rule keeps one group of atoms from growing, shrinking or both.
@@ -51,6 +57,11 @@ type Rule struct {
 	// hydroxide it takes up).
 	AcidTo, BaseTo *float64
 	Per            float64
+	// With, when set, lets a no-gain group grow only as far as this group
+	// grows beside it, atom for atom: "no-gain S(0) + with S(4)" lets sulfur
+	// come off thiosulfate together with sulfur dioxide or bisulfite (in
+	// acid), never with sulfate.
+	With *Group
 }
 
 // Group selects atoms: of an element within an oxidation-state range, of an
@@ -68,8 +79,16 @@ type Group struct {
 	// Per is the count of each listed species (1 unless the list writes a
 	// number before it: {N2, 2 CO(NH2)2} counts a urea as two units, the
 	// two nitrogen molecules it can give).
-	Per  []float64
-	text string
+	Per []float64
+	// MinAtoms, when set (with Organic), counts only species holding at
+	// least that many atoms of the element: the carbon of compounds of k or
+	// more carbon atoms.
+	MinAtoms int
+	// Blocks, when set (with MinAtoms), counts in each species the whole
+	// blocks of MinAtoms atoms it holds, not its atoms: the most pieces of
+	// k carbon atoms a compound could be broken into.
+	Blocks bool
+	text   string
 }
 
 func (g Group) String() string { return g.text }
@@ -90,7 +109,10 @@ func (g Group) Weight(sp *thermo.Species) float64 {
 		return 0
 	}
 	if g.Organic {
-		if IsOrganic(sp.Atoms, sp.Ion()) {
+		if IsOrganic(sp.Atoms, sp.Ion()) && n >= g.MinAtoms {
+			if g.Blocks {
+				return float64(n / g.MinAtoms)
+			}
 			return float64(n)
 		}
 		return 0
@@ -197,13 +219,16 @@ func parseLockRow(line string) (Lock, error) {
 		}
 		l.Rules = append(l.Rules, r)
 		l.groups = append(l.groups, r.Group)
+		if r.With != nil {
+			l.groups = append(l.groups, *r.With)
+		}
 	}
 	if len(l.Rules) > 2 {
 		return Lock{}, fmt.Errorf("lock %s: at most two rules may be joined by \"or\"", l.ID)
 	}
 	for _, r := range l.Rules {
-		if r.Dir == OneWay && len(l.Rules) > 1 {
-			return Lock{}, fmt.Errorf("lock %s: a one-way rule stands alone, not joined by \"or\"", l.ID)
+		if (r.Dir == OneWay || r.Dir == NoNewBonds) && len(l.Rules) > 1 {
+			return Lock{}, fmt.Errorf("lock %s: a one-way or no-new-bonds rule stands alone, not joined by \"or\"", l.ID)
 		}
 	}
 	if f[2] != "always" {
@@ -236,8 +261,13 @@ func parseRule(s string) (Rule, error) {
 			return Rule{}, fmt.Errorf("rule %q: one-way takes an element alone, like one-way N", s)
 		}
 		return Rule{Dir: OneWay, Group: Group{Element: el, Lo: -8, Hi: 8, text: el}}, nil
+	case "no-new-bonds":
+		if strings.TrimSpace(rest) != "C" {
+			return Rule{}, fmt.Errorf("rule %q: no-new-bonds takes carbon alone: no-new-bonds C", s)
+		}
+		return Rule{Dir: NoNewBonds, Group: Group{Element: "C", Organic: true, text: "C(organic)"}}, nil
 	default:
-		return Rule{}, fmt.Errorf("rule %q: %q is not no-gain, no-loss, fixed or one-way", s, dir)
+		return Rule{}, fmt.Errorf("rule %q: %q is not no-gain, no-loss, fixed, one-way or no-new-bonds", s, dir)
 	}
 	rest, allowance, hasAllowance := strings.Cut(strings.TrimSpace(rest), " + ")
 	g, err := parseGroup(strings.TrimSpace(rest))
@@ -253,11 +283,23 @@ func parseRule(s string) (Rule, error) {
 	return r, nil
 }
 
-// parseAllowance reads "acid to ph N [x K]" or "base to ph N [x K]".
+// parseAllowance reads "acid to ph N [x K]", "base to ph N [x K]" or
+// "with GROUP".
 func (r *Rule) parseAllowance(s string) error {
-	bad := fmt.Errorf(`want "+ acid to ph N [x K]" or "+ base to ph N [x K]" after a no-gain group`)
+	bad := fmt.Errorf(`want "+ acid to ph N [x K]", "+ base to ph N [x K]" or "+ with GROUP" after a no-gain group`)
 	if r.Dir != NoGain {
 		return bad
+	}
+	if rest, ok := strings.CutPrefix(s, "with "); ok {
+		g, err := parseGroup(strings.TrimSpace(rest))
+		if err != nil {
+			return err
+		}
+		if g.Above || g.Organic || len(g.Species) > 0 || len(r.Group.Species) > 0 || r.Group.Above || r.Group.Organic || g.Element != r.Group.Element {
+			return fmt.Errorf(`"+ with" pairs two oxidation-state groups of one element, like no-gain S(0) + with S(4)`)
+		}
+		r.With = &g
+		return nil
 	}
 	kind, rest, ok := strings.Cut(s, " to ph ")
 	if !ok || (kind != "acid" && kind != "base") {
@@ -323,6 +365,14 @@ func parseGroup(s string) (Group, error) {
 	}
 	if arg == "organic" {
 		g.Organic = true
+		return g, nil
+	}
+	if rest, ok := strings.CutPrefix(arg, "organic>="); ok {
+		n, err := strconv.Atoi(rest)
+		if err != nil || n < 2 || n > 100 {
+			return g, fmt.Errorf("group %q: want a whole number of atoms from 2, like C(organic>=2)", s)
+		}
+		g.Organic, g.MinAtoms = true, n
 		return g, nil
 	}
 	if rest, ok := strings.CutPrefix(arg, ">"); ok {

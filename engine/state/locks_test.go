@@ -259,3 +259,98 @@ func TestGroupWithoutRejectsBadElement(t *testing.T) {
 		t.Errorf("parseGroup(N(-3..-1 without C)) = %+v, %v", g, err)
 	}
 }
+
+// TestPairedRule: "no-gain S(0) + with S(4)" counts sulfur(0) less
+// sulfur(IV), so sulfur may come off thiosulfate only beside as much sulfur
+// dioxide or bisulfite (S2O3^2- + 2 H+ → S + SO2 + H2O), never beside
+// sulfate; the pairing joins two oxidation-state groups of one element.
+func TestPairedRule(t *testing.T) {
+	r, err := parseRule("no-gain S(0) + with S(4)")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.With == nil || r.With.Element != "S" || r.With.Lo != 4 {
+		t.Fatalf("parsed %+v, want S(0) paired with S(4)", r)
+	}
+	db := loadDB(t)
+	var mx Mix
+	for _, s := range []string{"S(s)", "HSO3-", "SO2(g)", "SO4^2-", "S2O3^2-"} {
+		sp, ok := db.Get(s)
+		if !ok {
+			t.Fatalf("%s: no species data", s)
+		}
+		mx.Species = append(mx.Species, sp)
+	}
+	n0 := []float64{0.5, 0.25, 0.25, 1, 3}
+	c := ruleConstraint(&mx, "x#0", r, n0)
+	want := []float64{1, -1, -1, 0, 0}
+	for i, w := range want {
+		if c.Coef[i] != w {
+			t.Errorf("coefficient of %s = %g, want %g", mx.Species[i].Text, c.Coef[i], w)
+		}
+	}
+	if c.Bound != 0 {
+		t.Errorf("bound %g, want 0 (0.5 mol S less 0.5 mol sulfur(IV))", c.Bound)
+	}
+	for _, bad := range []string{"no-gain S(0) + with N(4)", "no-gain S(0) + with {SO2}", "no-loss S(0) + with S(4)", "no-gain {S(s)} + with S(4)"} {
+		if _, err := parseRule(bad); err == nil {
+			t.Errorf("parseRule(%q): no error", bad)
+		}
+	}
+}
+
+// TestNoNewBonds: "no-new-bonds C" counts, for every carbon count k, the
+// carbon of organic species of k or more carbon atoms and the whole
+// k-carbon pieces each holds, so that methanol gives no acetic acid and two
+// glycerols give no three acetic acids.
+func TestNoNewBonds(t *testing.T) {
+	r, err := parseRule("no-new-bonds C")
+	if err != nil || r.Dir != NoNewBonds {
+		t.Fatalf("parseRule(no-new-bonds C) = %+v, %v", r, err)
+	}
+	for _, bad := range []string{"no-new-bonds N", "no-new-bonds", "no-new-bonds C(organic)"} {
+		if _, err := parseRule(bad); err == nil {
+			t.Errorf("parseRule(%q): no error", bad)
+		}
+	}
+	if _, err := parseLocks("locks.txt", []byte("x | no-new-bonds C or no-gain S(6) | always | why | src\n")); err == nil {
+		t.Error("no-new-bonds joined by or: no error")
+	}
+	db := loadDB(t)
+	var mx Mix
+	for _, s := range []string{"CH3OH", "CH3COOH", "C3H5(OH)3", "H2CO3", "CN-"} {
+		sp, ok := db.Get(s)
+		if !ok {
+			t.Fatalf("%s: no species data", s)
+		}
+		mx.Species = append(mx.Species, sp)
+	}
+	// k=2 carbon, k=2 pieces, k=3 carbon (no pieces rule at the largest count)
+	want := map[string][]float64{
+		"C(organic, 2 or more C)":   {0, 2, 3, 0, 0},
+		"C(organic, pieces of 2 C)": {0, 1, 1, 0, 0},
+		"C(organic, 3 or more C)":   {0, 0, 3, 0, 0},
+	}
+	rules := chainRules(&mx)
+	if len(rules) != len(want) {
+		t.Fatalf("chainRules gave %d rules, want %d", len(rules), len(want))
+	}
+	for _, r := range rules {
+		w, ok := want[r.Group.String()]
+		if !ok {
+			t.Errorf("unexpected rule on %s", r.Group)
+			continue
+		}
+		for i, sp := range mx.Species {
+			if got := r.Group.Weight(sp); got != w[i] {
+				t.Errorf("%s.Weight(%s) = %g, want %g", r.Group, sp.Text, got, w[i])
+			}
+		}
+	}
+	if g, err := parseGroup("C(organic>=2)"); err != nil || g.MinAtoms != 2 || !g.Organic {
+		t.Errorf("parseGroup(C(organic>=2)) = %+v, %v", g, err)
+	}
+	if _, err := parseGroup("C(organic>=1)"); err == nil {
+		t.Error("C(organic>=1): no error")
+	}
+}

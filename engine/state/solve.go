@@ -249,6 +249,16 @@ func constraintSets(mx *Mix, locks []*Lock, n0 []float64, allow map[string]float
 		sets = next
 	}
 	for _, l := range locks {
+		if len(l.Rules) == 1 && l.Rules[0].Dir == NoNewBonds {
+			for _, r := range chainRules(mx) {
+				name := l.ID + "#" + r.Group.text
+				c := lockRule{c: ruleConstraint(mx, name, r, n0), g: r.Group}
+				for i := range sets {
+					sets[i] = append(sets[i], c)
+				}
+			}
+			continue
+		}
 		if len(l.Rules) == 1 && l.Rules[0].Dir == OneWay {
 			for k, pair := range oneWayRules(mx, l.Rules[0].Group.Element, n0) {
 				var alts []lockRule
@@ -266,7 +276,7 @@ func constraintSets(mx *Mix, locks []*Lock, n0 []float64, allow map[string]float
 		var alts []lockRule
 		for k, r := range l.Rules {
 			name := l.ID + "#" + strconv.Itoa(k)
-			c := lockRule{c: ruleConstraint(mx, name, r, n0), g: r.Group}
+			c := lockRule{c: ruleConstraint(mx, name, r, n0), g: r.Group, paired: r.With != nil}
 			c.c.Bound += allow[name]
 			alts = append(alts, c)
 		}
@@ -318,6 +328,42 @@ func oneWayRules(mx *Mix, el string, n0 []float64) [][2]Rule {
 	return out
 }
 
+// chainRules spells out a no-new-bonds rule for the species of mx. For
+// every carbon count k of two or more up to the largest organic species of
+// the mix, two rules: "no-gain C in organic species of k or more carbon
+// atoms" (the carbon atoms) and "no-gain blocks of k carbon atoms" (each
+// species counted as the number of whole k-carbon pieces it could be broken
+// into). Carbon may then pass from larger compounds to smaller ones
+// (ethanol to acetic acid keeps its two carbons, glycerol to oxalic acid and
+// carbon dioxide loses one) but never from smaller ones to larger: methanol
+// gives no acetic acid, acetone or isopropanol, and two glycerols give no
+// three acetic acids (a glycerol holds one two-carbon piece, not one and a
+// half). What a feed brings none of is shut out of the problem (presolve),
+// so the rules cost the solver constraints only for compounds the streams
+// bring.
+func chainRules(mx *Mix) []Rule {
+	counts := map[int]bool{}
+	most := 0
+	for _, sp := range mx.Species {
+		if n := sp.Atoms["C"]; n >= 2 && IsOrganic(sp.Atoms, sp.Ion()) {
+			counts[n] = true
+			most = max(most, n)
+		}
+	}
+	var out []Rule
+	for k := 2; k <= most; k++ {
+		if counts[k] {
+			g := Group{Element: "C", Organic: true, MinAtoms: k, text: fmt.Sprintf("C(organic, %d or more C)", k)}
+			out = append(out, Rule{Dir: NoGain, Group: g})
+		}
+		if k < most { // at the largest count the blocks are the species counted above
+			g := Group{Element: "C", Organic: true, MinAtoms: k, Blocks: true, text: fmt.Sprintf("C(organic, pieces of %d C)", k)}
+			out = append(out, Rule{Dir: NoGain, Group: g})
+		}
+	}
+	return out
+}
+
 // vacuous reports whether a lock cannot hold anything back in n0: a single
 // rule that keeps nothing, or two rules of which one keeps nothing (either
 // may hold, so the lock as a whole asks nothing).
@@ -326,11 +372,14 @@ func vacuous(mx *Mix, l *Lock, n0 []float64) bool {
 		if r.Dir == OneWay {
 			return len(oneWayRules(mx, r.Group.Element, n0)) == 0
 		}
+		if r.Dir == NoNewBonds {
+			return len(chainRules(mx)) == 0
+		}
 		c := ruleConstraint(mx, "", r, n0)
 		switch {
 		case r.Dir == NoLoss && c.Bound <= traceLevel(n0):
 			return true
-		case r.Dir == NoGain && len(r.Group.Species) == 0 && !r.Group.Above && c.Bound >= (1-1e-12)*elementTotal(mx, n0, r.Group.Element):
+		case r.Dir == NoGain && r.With == nil && len(r.Group.Species) == 0 && !r.Group.Above && c.Bound >= (1-1e-12)*elementTotal(mx, n0, r.Group.Element):
 			return true
 		}
 	}
@@ -355,6 +404,9 @@ type lockRule struct {
 	c    equilibrium.Constraint
 	g    Group
 	shut []int // species a pinned rule shut out of the problem
+	// paired: the rule counts one group less another ("+ with"), so its
+	// weights may be negative and it pins nothing.
+	paired bool
 	// whole: the rule pinned every atom of its element in the group (all
 	// chromium is chromium(VI)); whether it held anything back cannot
 	// always be read from the potentials of the state, which then leave the
@@ -364,6 +416,11 @@ type lockRule struct {
 
 func ruleConstraint(mx *Mix, name string, r Rule, n0 []float64) equilibrium.Constraint {
 	c := equilibrium.Constraint{Name: name, Coef: append([]float64(nil), mx.weightsOf(r.Group)...)}
+	if r.With != nil {
+		for i, w := range mx.weightsOf(*r.With) {
+			c.Coef[i] -= w
+		}
+	}
 	for i, w := range c.Coef {
 		c.Bound += w * n0[i]
 	}
@@ -646,13 +703,16 @@ func presolve(mx *Mix, n0 []float64, cons []lockRule) ([]lockRule, map[int]bool)
 		var list []int
 		whole := false
 		switch {
+		case lr.paired:
+			left = append(left, lr) // a difference of two groups: never pinned at an end
+			continue
 		case c.Rel != equilibrium.AtLeast && c.Bound <= 1e-300:
 			for i, w := range c.Coef {
 				if w > 0 {
 					list = append(list, i)
 				}
 			}
-		case c.Rel == equilibrium.AtMost && len(g.Species) == 0 && !g.Above && c.Bound >= (1-1e-12)*elementTotal(mx, n0, g.Element):
+		case c.Rel == equilibrium.AtMost && len(g.Species) == 0 && !g.Above && !g.Blocks && c.Bound >= (1-1e-12)*elementTotal(mx, n0, g.Element):
 			continue // the group cannot grow beyond every atom of its element
 		case c.Rel != equilibrium.AtMost && len(g.Species) == 0 && !g.Above && c.Bound >= (1-1e-12)*elementTotal(mx, n0, g.Element):
 			whole = true
