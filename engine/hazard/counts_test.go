@@ -125,3 +125,22 @@ func TestChloraminesCountedInLiquid(t *testing.T) {
 		t.Errorf("count %+v, want 187.5 mol NH2Cl in the liquid, no limit", c)
 	}
 }
+
+// TestReasonGivesCounts: a hazard that counts a gas by amount gives the
+// amount in its reason, as a gas hazard gives its headspace figure.
+func TestReasonGivesCounts(t *testing.T) {
+	for _, tc := range []struct {
+		h    engine.Hazard
+		want string
+	}{
+		{engine.Hazard{Title: "drives out acid fumes", Counts: []engine.GasCount{{Formula: "HCl", Mol: 1017, VolumeL: 24880, Beyond: true}}},
+			"drives out acid fumes: up to 1020 mol HCl (24900 L)"},
+		{engine.Hazard{Title: "forms chloramines", Counts: []engine.GasCount{{Formula: "NH2Cl", Mol: 187.5, InLiquid: true}}},
+			"forms chloramines: 188 mol NH2Cl in the liquid"},
+		{engine.Hazard{Title: "forms explosive nitrogen trichloride"}, "forms explosive nitrogen trichloride"},
+	} {
+		if got := Reason(tc.h); got != tc.want {
+			t.Errorf("Reason = %q, want %q", got, tc.want)
+		}
+	}
+}
