@@ -18,17 +18,17 @@ func RenderText(r *Result) string {
 		}
 	}
 	c := r.Conditions
-	phHow := "computed"
-	if c.PHStated {
-		phHow = "stated"
-	}
 	if c.VolumeL > 0 {
-		w("Conditions: pH %.2f (%s), %.1f °C, %s L mixed, %s medium\n", c.PH, phHow, c.TemperatureC, trimFloat(c.VolumeL, 4), c.Medium)
+		w("Conditions: %s, %.1f °C, %s L mixed, %s medium\n", conditionsPH(c), c.TemperatureC, trimFloat(c.VolumeL, 4), c.Medium)
 	} else {
 		w("Conditions: %.1f °C, no liquid\n", c.TemperatureC)
 	}
 	if len(r.Species) > 0 {
-		w("\nSpecies present:\n")
+		if reacts(c) {
+			w("\nSpecies present as combined, before any reaction:\n")
+		} else {
+			w("\nSpecies present:\n")
+		}
 		width := 0
 		for _, s := range r.Species {
 			width = max(width, len(s.Text))
@@ -272,6 +272,27 @@ func renderAmounts(b *strings.Builder, r *Result) {
 			w("  %-10s %s mol\n", c.Text, sigText(c.Mol))
 		}
 	}
+}
+
+// conditionsPH is the pH of the Conditions line: the mix at equilibrium,
+// after every change that runs, with the pH as combined (before any
+// reaction, where the species list stands) beside it when the two differ.
+// An answer without the equilibrium state has the combined pH only.
+func conditionsPH(c Conditions) string {
+	how := "computed"
+	if c.PHStated {
+		how = "stated"
+	}
+	if !reacts(c) {
+		return fmt.Sprintf("pH %.2f (%s)", c.PH, how)
+	}
+	return fmt.Sprintf("pH %.2f at equilibrium (%.2f as combined, before any reaction, %s)", *c.PHFinal, c.PH, how)
+}
+
+// reacts reports whether the equilibrium pH differs from the pH as
+// combined (to the two decimals shown).
+func reacts(c Conditions) bool {
+	return c.PHFinal != nil && fmt.Sprintf("%.2f", *c.PHFinal) != fmt.Sprintf("%.2f", c.PH)
 }
 
 func amountsText(xs []AmountOf) string {

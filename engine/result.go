@@ -242,6 +242,39 @@ type Hazard struct {
 	// liquid), which the equilibrium state does not run; the decision's
 	// heat adds it.
 	ReactionHeat *ReactionHeat `json:"reaction_heat,omitempty"`
+	// Counts are the gases a hazard counts by amount outside its Gas
+	// figure: a reaction family the equilibrium state does not run
+	// (hydrogen chloride driven out by concentrated sulfuric acid, oxygen
+	// from peroxide made alkaline), or a volatile product held in the
+	// liquid (chloramines). The short answer lists each under "Forms".
+	Counts []GasCount `json:"gas_counts,omitempty"`
+}
+
+// GasCount is a gas a hazard counts by amount: the most that can come off
+// by the reaction's stoichiometry, or (InLiquid) the amount of a volatile
+// product in the liquid whose vapour the answer does not count. The
+// headspace figure is the equilibrium state's, when the state holds the
+// gas; the limit is the gas table's or the family's own, when one is
+// listed.
+type GasCount struct {
+	Formula string  `json:"formula"`
+	Name    string  `json:"name"`
+	Mol     float64 `json:"mol"`                // up to this much comes off (InLiquid: is in the liquid)
+	VolumeL float64 `json:"volume_l,omitempty"` // Mol as gas at the mix's temperature and pressure
+	// InLiquid: Mol is in the liquid, and its vapour is not counted.
+	InLiquid bool `json:"in_liquid,omitempty"`
+	// Beyond: the gas comes from a reaction the equilibrium state does not
+	// run, so it adds to what the state gives off (a gas hazard's Mol);
+	// false when it is the state's own gas told again.
+	Beyond bool   `json:"beyond_state,omitempty"`
+	From   string `json:"from"` // what gives it, in a few words
+	// HeadspacePPM is the mixed state's equilibrium headspace figure for
+	// the gas (0 when the state holds none).
+	HeadspacePPM float64 `json:"headspace_ppm,omitempty"`
+	LimitName    string  `json:"limit_name,omitempty"` // IDLH, ceiling, LFL, O2; empty when no exposure limit is listed
+	LimitPPM     float64 `json:"limit_ppm,omitempty"`
+	Ratio        float64 `json:"ratio,omitempty"` // HeadspacePPM / LimitPPM
+	LimitSource  string  `json:"limit_source,omitempty"`
 }
 
 // ReactionHeat is the heat of a reaction judged as a family: its

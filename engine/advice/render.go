@@ -105,20 +105,16 @@ func NotAssessedLine(r *engine.Result) string {
 	return "Not assessed: " + strings.Join(names, ", ") + " (no thermodynamic data): the answer is for the rest of the mix; check its SDS"
 }
 
-// formsLine lists the gases of concern in numbers, else the gases formed.
+// formsLine lists every gas the hazards count in numbers, one entry per
+// gas: the gases judged in the headspace against their limits and the
+// gases a hazard counts by amount (engine.GasCount: a reaction family the
+// equilibrium state does not run, a volatile product in the liquid). None
+// is left out: a gas a hazard counts, or one above its limit, is never
+// hidden behind "no gas of concern". With none, the gases formed.
 func formsLine(r *engine.Result) string {
 	var parts []string
-	for _, h := range r.Hazards {
-		if h.Gas != nil && len(parts) < 3 {
-			g := h.Gas
-			if g.RoomPPM > 0 {
-				parts = append(parts, fmt.Sprintf("%s %s mol (%s L), headspace %s ppm; over a %s m³ room %s ppm = %s× %s %s ppm",
-					g.Formula, num(g.Mol), num(g.VolumeL), num(g.HeadspacePPM), num(hazard.RoomM3), num(g.RoomPPM), num(g.Ratio), g.LimitName, num(g.LimitPPM)))
-				continue
-			}
-			parts = append(parts, fmt.Sprintf("%s %s mol (%s L), headspace %s ppm = %s× %s %s ppm",
-				g.Formula, num(g.Mol), num(g.VolumeL), num(g.HeadspacePPM), num(g.Ratio), g.LimitName, num(g.LimitPPM)))
-		}
+	for _, f := range gasesFormed(r.Hazards) {
+		parts = append(parts, f.text())
 	}
 	if len(parts) == 0 && r.Decision != nil {
 		for _, g := range r.Decision.Gases {
@@ -132,6 +128,116 @@ func formsLine(r *engine.Result) string {
 		return "Forms: no gas of concern"
 	}
 	return "Forms: " + strings.Join(parts, "; ")
+}
+
+// gasFormed is one gas of the Forms line: its judged figure (a gas hazard),
+// what reactions beyond the equilibrium state add to it (summed over what
+// gives it; the larger figure where two hazards count the same source),
+// and the counts that only tell it again or hold it in the liquid.
+type gasFormed struct {
+	formula string
+	judged  *engine.GasJudged
+	beyond  map[string]float64
+	from    []string // keys of beyond, in order
+	count   *engine.GasCount
+	liquid  *engine.GasCount
+}
+
+// gasesFormed gathers the gases of the hazards: the judged gases first, in
+// the hazards' order (danger first, worse ratio first), then the gases
+// only counted.
+func gasesFormed(hs []engine.Hazard) []*gasFormed {
+	var out []*gasFormed
+	by := map[string]*gasFormed{}
+	get := func(f string) *gasFormed {
+		if g, ok := by[f]; ok {
+			return g
+		}
+		g := &gasFormed{formula: f, beyond: map[string]float64{}}
+		by[f] = g
+		out = append(out, g)
+		return g
+	}
+	for i := range hs {
+		if h := &hs[i]; h.Gas != nil && get(h.Gas.Formula).judged == nil {
+			by[h.Gas.Formula].judged = h.Gas
+		}
+	}
+	for i := range hs {
+		h := &hs[i]
+		for j := range h.Counts {
+			c := &h.Counts[j]
+			g := get(c.Formula)
+			switch {
+			case c.InLiquid:
+				if g.liquid == nil || c.Mol > g.liquid.Mol {
+					g.liquid = c
+				}
+			case c.Beyond:
+				if _, ok := g.beyond[c.From]; !ok {
+					g.from = append(g.from, c.From)
+				}
+				g.beyond[c.From] = max(g.beyond[c.From], c.Mol)
+				if g.count == nil || g.count.HeadspacePPM == 0 && c.HeadspacePPM > 0 {
+					g.count = c
+				}
+			case g.count == nil:
+				g.count = c
+			}
+		}
+	}
+	return out
+}
+
+// text writes one gas for the Forms line.
+func (g *gasFormed) text() string {
+	beyond := 0.0
+	for _, f := range g.from {
+		beyond += g.beyond[f]
+	}
+	j, c := g.judged, g.count
+	switch {
+	case j != nil && beyond > 0:
+		mol := j.Mol + beyond
+		return fmt.Sprintf("%s up to %s mol (%s L); at equilibrium headspace %s ppm = %s× %s %s ppm",
+			g.formula, num(mol), num(mol*g.litresPerMol()), num(j.HeadspacePPM), num(j.Ratio), j.LimitName, num(j.LimitPPM))
+	case j != nil && j.RoomPPM > 0:
+		return fmt.Sprintf("%s %s mol (%s L), headspace %s ppm; over a %s m³ room %s ppm = %s× %s %s ppm",
+			j.Formula, num(j.Mol), num(j.VolumeL), num(j.HeadspacePPM), num(hazard.RoomM3), num(j.RoomPPM), num(j.Ratio), j.LimitName, num(j.LimitPPM))
+	case j != nil:
+		return fmt.Sprintf("%s %s mol (%s L), headspace %s ppm = %s× %s %s ppm",
+			j.Formula, num(j.Mol), num(j.VolumeL), num(j.HeadspacePPM), num(j.Ratio), j.LimitName, num(j.LimitPPM))
+	case c != nil:
+		s := fmt.Sprintf("%s %s mol (%s L)", g.formula, num(c.Mol), num(c.VolumeL))
+		if beyond > 0 {
+			s = fmt.Sprintf("%s up to %s mol (%s L)", g.formula, num(beyond), num(beyond*g.litresPerMol()))
+		}
+		switch {
+		case c.HeadspacePPM > 0 && c.Ratio > 0:
+			s += fmt.Sprintf("; at equilibrium headspace %s ppm = %s× %s %s ppm", num(c.HeadspacePPM), num(c.Ratio), c.LimitName, num(c.LimitPPM))
+		case c.HeadspacePPM > 0:
+			s += fmt.Sprintf("; at equilibrium headspace %s ppm", num(c.HeadspacePPM))
+		}
+		return s
+	}
+	l := g.liquid
+	limit := "no exposure limit listed"
+	if l.LimitName != "" {
+		limit = fmt.Sprintf("%s %s ppm", l.LimitName, num(l.LimitPPM))
+	}
+	return fmt.Sprintf("%s (%s mol %s in the liquid, %s)", l.Name, num(l.Mol), l.Formula, limit)
+}
+
+// litresPerMol is the volume of a mol of the gas at the mix's conditions,
+// from whichever figure gives it.
+func (g *gasFormed) litresPerMol() float64 {
+	if j := g.judged; j != nil && j.Mol > 0 {
+		return j.VolumeL / j.Mol
+	}
+	if c := g.count; c != nil && c.Mol > 0 {
+		return c.VolumeL / c.Mol
+	}
+	return 0
 }
 
 func heatLine(r *engine.Result) string {

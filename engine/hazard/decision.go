@@ -325,8 +325,24 @@ func Reason(h engine.Hazard) string {
 		return h.Title + ": " + fmtNum(h.Heat.ReleasedkJ, 3) + " kJ, would reach about " + fmtNum(h.Heat.ReachedC, 3) + " °C"
 	case h.Heat != nil:
 		return h.Title + ": " + fmtNum(h.Heat.ReleasedkJ, 3) + " kJ, to about " + fmtNum(h.Heat.ReachedC, 3) + " °C"
+	case len(h.Counts) > 0:
+		return h.Title + ": " + countsText(h.Counts)
 	}
 	return h.Title
+}
+
+// countsText is the gases a hazard counts by amount, in a few words.
+func countsText(cs []engine.GasCount) string {
+	var parts []string
+	for _, c := range cs {
+		switch {
+		case c.InLiquid:
+			parts = append(parts, fmtNum(c.Mol, 3)+" mol "+c.Formula+" in the liquid")
+		default:
+			parts = append(parts, "up to "+fmtNum(c.Mol, 3)+" mol "+c.Formula+" ("+fmtNum(c.VolumeL, 3)+" L)")
+		}
+	}
+	return strings.Join(parts, ", ")
 }
 
 func codeTitle(code string) string {

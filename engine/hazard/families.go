@@ -87,10 +87,11 @@ func chloroAmines(o *Outcome) (engine.Hazard, bool) {
 	if n >= 0.01 {
 		sev = engine.Danger
 	}
-	return mk("n-chloro-compounds", sev,
+	return withCounts(mk("n-chloro-compounds", sev,
 		"Hypochlorite chlorinates amines, amides and urea to N-chloro compounds ("+fmtNum(n, 2)+" mol/L can meet): toxic, irritant vapours, some unstable; with acid, urea goes on to explosive nitrogen trichloride.",
 		"Do not combine. Keep chlorinated products and amine or urea products in separate lines, rinsed between uses.",
-		"Bretherick's Handbook of Reactive Chemical Hazards, sodium hypochlorite with amines and urea (from memory); White's Handbook of Chlorination, organic chloramines (from memory); 0.01 mol/L danger threshold: common practice, no source"), true
+		"Bretherick's Handbook of Reactive Chemical Hazards, sodium hypochlorite with amines and urea (from memory); White's Handbook of Chlorination, organic chloramines (from memory); 0.01 mol/L danger threshold: common practice, no source"),
+		engine.GasCount{Formula: "N-chloro compounds", Name: "N-chloro vapour", Mol: n * o.VolumeL, InLiquid: true, From: "hypochlorite with amines, amides or urea"}), true
 }
 
 // nitricOrganic: nitric acid of more than about 2 mol/L oxidizes organic
@@ -222,33 +223,53 @@ func sulfuric(o *Outcome) float64 {
 
 // volatileAcid: concentrated sulfuric acid takes up the water of the other
 // stream and drives out hydrogen chloride, nitric acid vapour or hydrogen
-// fluoride from their acids and salts.
+// fluoride from their acids and salts. Each acid gas it drives out is
+// counted (engine.GasCount) up to the acid and salt the mix holds, with its
+// exposure limit: these gases are not judged in the headspace of every mix
+// (gases.txt), only here, where the concentrated acid drives them out.
 func volatileAcid(o *Outcome) (engine.Hazard, bool) {
 	h2so4 := sulfuric(o)
 	if h2so4 < 8 {
 		return engine.Hazard{}, false
 	}
 	var names []string
+	var counts []engine.GasCount
 	n := 0.0
-	for _, v := range []struct {
-		name    string
-		species []string
-	}{
-		{"hydrogen chloride", []string{"Cl-", "HCl"}},
-		{"nitric acid vapour and nitrogen oxides", []string{"NO3-", "HNO3"}},
-		{"hydrogen fluoride", []string{"F-", "HF"}},
-	} {
-		if m := o.MolarBefore(v.species...); m >= 0.1 {
-			names, n = append(names, v.name), n+m
+	for _, v := range volatileAcids {
+		m := o.MolarBefore(v.species...)
+		if m < 0.1 {
+			continue
+		}
+		names, n = append(names, v.name), n+m
+		if v.formula != "" {
+			c := beyondCount(v.formula, v.name, m*o.VolumeL, "concentrated sulfuric acid driving it out")
+			c.LimitName, c.LimitPPM, c.LimitSource = "IDLH", v.idlhPPM, v.limitSource
+			counts = append(counts, c)
 		}
 	}
 	if len(names) == 0 {
 		return engine.Hazard{}, false
 	}
-	return mk("acid-fumes", engine.Danger,
+	return withCounts(mk("acid-fumes", engine.Danger,
 		"Concentrated sulfuric acid ("+fmtNum(h2so4, 2)+" mol/L in the mix) drives "+strings.Join(names, " and ")+" out of the solution ("+fmtNum(n*o.VolumeL, 3)+" mol can come off) with heat: dense, corrosive fumes.",
 		"Do not combine. If both must go to one drain, dilute each into plenty of water first, separately.",
-		"Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, chlorides and nitrates with concentrated sulfuric acid (from memory); NIOSH Pocket Guide, hydrogen chloride IDLH 50 ppm (from memory); 8 mol/L threshold: common practice, no source"), true
+		"Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, chlorides and nitrates with concentrated sulfuric acid (from memory); NIOSH Pocket Guide, hydrogen chloride IDLH 50 ppm (from memory); 8 mol/L threshold: common practice, no source"), counts...), true
+}
+
+// volatileAcids are the acids concentrated sulfuric acid drives out of a
+// mix, by the dissolved forms they come from. formula is the gas counted
+// for the short answer, with its NIOSH IDLH; hydrogen fluoride is left to
+// the hydrofluoric acid rules and counted here only in the message.
+var volatileAcids = []struct {
+	name        string
+	species     []string
+	formula     string
+	idlhPPM     float64
+	limitSource string
+}{
+	{"hydrogen chloride", []string{"Cl-", "HCl"}, "HCl", 50, "NIOSH Pocket Guide, hydrogen chloride, IDLH 50 ppm (1994), from memory"},
+	{"nitric acid vapour and nitrogen oxides", []string{"NO3-", "HNO3"}, "HNO3", 25, "NIOSH Pocket Guide, nitric acid, IDLH 25 ppm (1994), from memory"},
+	{"hydrogen fluoride", []string{"F-", "HF"}, "", 0, ""},
 }
 
 // solidHypochlorite: calcium hypochlorite and the chloroisocyanurates as

@@ -277,6 +277,7 @@ func Judge(o *Outcome, d *Data) []engine.Hazard {
 		}
 	}
 	addFamilyHeat(o, out)
+	fillCounts(o, d, out)
 	out = append(out, judgeHeat(o)...)
 	sort.SliceStable(out, func(i, j int) bool {
 		ri, rj := rank(out[i].Severity), rank(out[j].Severity)

@@ -124,16 +124,21 @@ func oxygenSurge(o *Outcome) (engine.Hazard, bool) {
 	l := best.mol * litreBarPerMolK() * o.TemperatureK() / (o.PressureKPa / 100)
 	amount := fmtNum(best.mol, 3) + " mol, " + fmtNum(l, 3) + " L, " + fmtNum(l/o.VolumeL, 2) + "× the liquid volume"
 	src := best.source + "; " + fmtNum(SurgeMolPerL, 2) + " mol O2 per litre of mix for do-not-mix-in-one-go: common practice, no source"
+	// A family's oxygen adds to the state's only when the state gives off
+	// none: where it does, the state may already run the same breakdown
+	// (hypochlorite on copper), and its figure stands.
+	c := beyondCount("O2", "oxygen", best.mol, best.what)
+	c.Beyond = !best.state && !(o.Measured["O2"].Mol > 0 || o.GasMol("O2") > 0)
 	if best.fast && per >= SurgeMolPerL {
-		return mk("oxygen-surge", engine.Danger,
+		return withCounts(mk("oxygen-surge", engine.Danger,
 			"Oxygen comes off fast from "+best.what+" ("+amount+"; "+fmtNum(per, 2)+" mol per litre of mix), with heat: the liquid foams over and a closed vessel bursts.",
 			"Do not mix in one go: dose one into the other slowly, diluted, into an open, vented tank with headroom; keep oil, grease and flames away.",
-			src), true
+			src), c), true
 	}
 	if best.state {
 		return engine.Hazard{}, false
 	}
-	return mk("oxygen-surge", engine.Warning,
+	return withCounts(mk("oxygen-surge", engine.Warning,
 		"Oxygen comes off quickly from "+best.what+" (up to "+amount+"), with heat.",
-		best.act, src), true
+		best.act, src), c), true
 }

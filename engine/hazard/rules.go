@@ -51,8 +51,14 @@ func chloramines(o *Outcome) (engine.Hazard, bool) {
 		sev = engine.Danger
 	}
 	formed := ""
+	// The chloramines stay in the liquid and give off a volatile, choking
+	// vapour the answer does not count in the headspace: NIOSH lists no
+	// exposure limit for them (NIOSH Pocket Guide, from memory). The
+	// amount in the liquid is counted, so the short answer names it.
+	c := engine.GasCount{Formula: "chloramines", Name: "chloramine vapour", Mol: n * o.VolumeL, InLiquid: true, From: "hypochlorite with ammonia or ammonium"}
 	if nh2cl := math.Max(o.Molar("NH2Cl"), o.MolarBefore("NH2Cl")); nh2cl >= 1e-4 {
 		formed = " The mix holds " + fmtNum(nh2cl, 2) + " mol/L monochloramine (NH2Cl)."
+		c.Formula, c.Mol = "NH2Cl", nh2cl*o.VolumeL
 	}
 	act := "Do not combine; rinse lines between chlorinated and ammoniated products. If it has happened, leave and ventilate."
 	ratio := ClNWeightRatio(o)
@@ -62,10 +68,10 @@ func chloramines(o *Outcome) (engine.Hazard, bool) {
 		formed += " The Cl2:NH3-N weight ratio is " + fmtNum(ratio, 2) + ":1, in the monochloramine region (below 5:1)."
 		act = "Dose the ammonia first, then the hypochlorite, into the water, and keep the Cl2:N weight ratio below 5:1 (above it dichloramine and nitrogen trichloride form); never let the concentrates meet neat, and rinse lines between chlorinated and ammoniated products."
 	}
-	return mk("chloramine-release", sev,
+	return withCounts(mk("chloramine-release", sev,
 		"Hypochlorite with ammonia or ammonium forms chloramines ("+fmtNum(n, 2)+" mol/L of each can meet): toxic, choking gases."+formed,
 		act,
-		"chloramine formation by pH and the 5:1 Cl2:N weight ratio of monochloramine: White's Handbook of Chlorination and Alternative Disinfectants, chloramination (from memory); 0.01 mol/L threshold for danger: common practice, no source"), true
+		"chloramine formation by pH and the 5:1 Cl2:N weight ratio of monochloramine: White's Handbook of Chlorination and Alternative Disinfectants, chloramination (from memory); 0.01 mol/L threshold for danger: common practice, no source; no exposure limit for chloramines: NIOSH Pocket Guide lists none (from memory)"), c), true
 }
 
 // MonochloramineRatio is the Cl2:NH3-N weight ratio below which chlorine
@@ -220,8 +226,8 @@ func carbonateFizz(o *Outcome) (engine.Hazard, bool) {
 	if o.VolumeL <= 0 || l < 0.1*o.VolumeL {
 		return engine.Hazard{}, false
 	}
-	return mk("fizzing-pressure", engine.Warning,
+	return withCounts(mk("fizzing-pressure", engine.Warning,
 		"Carbon dioxide comes off ("+fmtNum(l, 3)+" L, "+fmtNum(l/o.VolumeL, 2)+"× the liquid volume): the tank can foam over and a closed vessel builds pressure.",
 		"Add slowly to an open, vented tank with headroom.",
-		"common practice, no source"), true
+		"common practice, no source"), engine.GasCount{Formula: "CO2", Name: "carbon dioxide", Mol: n, From: "the reactions that run in the mix"}), true
 }
