@@ -2,7 +2,12 @@ package store
 
 import (
 	"context"
+	"errors"
 	"fmt"
+	"strconv"
+	"strings"
+
+	"github.com/mattn/go-sqlite3"
 )
 
 // chainHead is the newest row of a SQLite log as this process last wrote
@@ -29,18 +34,26 @@ func (db *DB) noteHead(id int64, hash string, mark int64) {
 	db.head = chainHead{ok: true, id: id, hash: hash, mark: max(mark, db.head.mark)}
 }
 
-// fastInsert appends a sealed row (parameters 1–26, time the third), the
-// parameters 27 and 28 being the head it was sealed on (id, hash): the row is inserted
-// only if the row with that id exists with that hash, is not later than
-// the new row (else time_order_broken must be set: appendRow does it), no
-// row has a higher id and sqlite_sequence issued no higher id. These are
-// the id and link appendRow would give it, read in the same write
-// transaction as the INSERT.
-const fastInsert = `INSERT INTO queries (` + rowColumns + `)
-	SELECT ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?
-	WHERE (SELECT hash = ?28 AND time <= ?3 FROM queries WHERE id = ?27)
+// fastInsert appends a sealed row (parameters 1–26 in rowColumns order:
+// id first, time third, hash 23rd), parameters 27 and 28 being the head it
+// was sealed on (id, hash). Its hash is written only if the row with that
+// id exists with that hash and is not later than the new row (else
+// time_order_broken must be set: appendRow does it), no row has a higher
+// id and sqlite_sequence issued no higher id: the id and link appendRow
+// would give it, read in the INSERT's own write transaction. Otherwise the
+// hash is NULL and the NOT NULL constraint refuses the row. (A VALUES row,
+// not INSERT … SELECT … WHERE: a SELECT that reads queries while inserting
+// into it makes SQLite copy the row through a temporary table first.)
+var fastInsert = func() string {
+	p := make([]string, 26)
+	for i := range p {
+		p[i] = "?" + strconv.Itoa(i+1)
+	}
+	p[22] = `CASE WHEN (SELECT hash = ?28 AND time <= ?3 FROM queries WHERE id = ?27)
 	  AND NOT EXISTS (SELECT 1 FROM queries WHERE id > ?27)
-	  AND coalesce((SELECT seq FROM sqlite_sequence WHERE name = 'queries'), 0) <= ?27`
+	  AND coalesce((SELECT seq FROM sqlite_sequence WHERE name = 'queries'), 0) <= ?27 THEN ?23 END`
+	return `INSERT INTO queries (` + rowColumns + `) VALUES (` + strings.Join(p, ", ") + `)`
+}()
 
 // appendFast appends r in one statement outside an explicit transaction
 // (SQLite wraps it in its own), sealed on the head this process last
@@ -62,14 +75,14 @@ func (db *DB) appendFast(ctx context.Context, r *row) (bool, error) {
 	r.ID, r.PrevHash = h.id+1, h.hash
 	seal(r, db.key)
 	args := append(r.args(), h.id, h.hash)
-	res, err := db.ws.fast.s.ExecContext(ctx, args...)
-	if isUnique(err) {
+	_, err := db.ws.fast.s.ExecContext(ctx, args...)
+	var se sqlite3.Error
+	switch {
+	case errors.As(err, &se) && se.ExtendedCode == sqlite3.ErrConstraintNotNull:
+		return false, nil // the head moved: nothing was written
+	case isUnique(err):
 		return false, fmt.Errorf("%w: event id %q already logged", ErrDuplicate, r.EventID)
-	}
-	if err != nil {
-		return false, err
-	}
-	if n, err := res.RowsAffected(); err != nil || n != 1 {
+	case err != nil:
 		return false, err
 	}
 	db.noteHead(r.ID, r.Hash, h.mark)
