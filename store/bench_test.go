@@ -228,7 +228,7 @@ func buildBenchDB(path string, rows int) error {
 				err = db.insertHazards(ctx, tx, r.ID, q.Hazards)
 			}
 			if err == nil {
-				err = db.indexUpTo(ctx, tx, r.ID, false)
+				_, err = db.indexUpTo(ctx, tx, r.ID, false)
 			}
 			if err != nil {
 				tx.Rollback()

@@ -106,6 +106,13 @@ func (r *row) scanDest() []any {
 		&r.Streams, &r.Result, &r.EngineVersion, &r.DataHash, &r.PrevHash, &r.Hash, &r.Chain, &r.KeyID, &r.Site}
 }
 
+// args returns r's fields in rowColumns order, as statement arguments.
+func (r *row) args() []any {
+	return []any{r.ID, r.Kind, r.Time, r.UserID, r.UserName, r.Channel, r.EventID, r.Request, r.Resolved, r.Verdict,
+		r.Error, r.Species, r.Oxidizer, r.Reducer, r.ECellV, r.ECellStandardV, r.Hazards, r.Streams, r.Result,
+		r.EngineVersion, r.DataHash, r.PrevHash, r.Hash, r.Chain, r.KeyID, r.Site}
+}
+
 // Content encodings. A change to an encoding is a new version, so rows
 // written before it still verify.
 const (
@@ -119,26 +126,24 @@ const (
 // numbers in Go's shortest round-trip form, so no two different rows encode
 // alike.
 func computeHash(r *row) string {
-	h := sha256.New()
-	e := encoder{h: h}
+	e := newEncoder(sha256.New())
 	e.str("v", chainVersion)
 	encodeContent(e, r)
-	return hex.EncodeToString(h.Sum(nil))
+	return e.sum()
 }
 
 // keyedHash is the keyed chain hash of r: HMAC-SHA256 under k of the same
 // encoding, headed by the keyed version, the chain kind and the key id.
 func keyedHash(r *row, k *ChainKey) string {
-	h := hmac.New(sha256.New, k.secret)
-	e := encoder{h: h}
+	e := newEncoder(hmac.New(sha256.New, k.secret))
 	e.str("v", chainVersionKeyed)
 	e.str("chain", ChainKeyed)
 	e.str("key_id", k.id)
 	encodeContent(e, r)
-	return hex.EncodeToString(h.Sum(nil))
+	return e.sum()
 }
 
-func encodeContent(e encoder, r *row) {
+func encodeContent(e *encoder, r *row) {
 	e.str("id", strconv.FormatInt(r.ID, 10))
 	e.str("kind", r.Kind)
 	e.str("time", r.Time)
@@ -183,23 +188,53 @@ func seal(r *row, k *ChainKey) {
 	r.Hash = keyedHash(r, k)
 }
 
-type encoder struct{ h hash.Hash }
-
-func (e encoder) str(name, v string) {
-	e.h.Write([]byte(name))
-	e.h.Write([]byte{' '})
-	e.h.Write(strconv.AppendInt(nil, int64(len(v)), 10))
-	e.h.Write([]byte{':'})
-	e.h.Write([]byte(v))
-	e.h.Write([]byte{'\n'})
+// encoder writes the canonical encoding into h through a fixed buffer, so
+// that a large value (the result JSON) is neither converted to a byte
+// slice of its own nor written in many small pieces. Call sum at the end.
+type encoder struct {
+	h   hash.Hash
+	buf []byte
 }
 
-func (e encoder) null(name string) {
-	e.h.Write([]byte(name))
-	e.h.Write([]byte(" -\n"))
+func newEncoder(h hash.Hash) *encoder {
+	return &encoder{h: h, buf: make([]byte, 0, 4096)}
 }
 
-func (e encoder) float(name string, f sql.NullFloat64) {
+func (e *encoder) write(s string) {
+	for len(s) > 0 {
+		if len(e.buf) == cap(e.buf) {
+			e.h.Write(e.buf)
+			e.buf = e.buf[:0]
+		}
+		n := copy(e.buf[len(e.buf):cap(e.buf)], s)
+		e.buf = e.buf[:len(e.buf)+n]
+		s = s[n:]
+	}
+}
+
+// sum writes what is buffered and returns the hash in hex.
+func (e *encoder) sum() string {
+	e.h.Write(e.buf)
+	e.buf = e.buf[:0]
+	return hex.EncodeToString(e.h.Sum(nil))
+}
+
+func (e *encoder) str(name, v string) {
+	e.write(name)
+	e.write(" ")
+	var n [20]byte
+	e.write(string(strconv.AppendInt(n[:0], int64(len(v)), 10)))
+	e.write(":")
+	e.write(v)
+	e.write("\n")
+}
+
+func (e *encoder) null(name string) {
+	e.write(name)
+	e.write(" -\n")
+}
+
+func (e *encoder) float(name string, f sql.NullFloat64) {
 	if !f.Valid {
 		e.null(name)
 		return

@@ -139,7 +139,8 @@ func copyRows(ctx context.Context, src, dst *DB, in, out *sql.Tx, rep *CopyRepor
 			return err
 		}
 	}
-	return dst.indexUpTo(ctx, out, lastID, true)
+	_, err = dst.indexUpTo(ctx, out, lastID, true)
+	return err
 }
 
 // issuedUpTo is the highest id src ever issued.

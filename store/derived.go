@@ -106,7 +106,7 @@ func newDerivedCheck(ctx context.Context, tx queryer, ver int, pg bool) (*derive
 	}
 	if ver >= keysVersion && !pg {
 		d.keys, err = openCursor(ctx, tx, pg, 7, `SELECT k.id, k.site, k.time, k.kind, k.user_id, k.user_name, k.level,
-			coalesce(q.level, '') FROM query_keys k LEFT JOIN queries q ON q.id = k.id ORDER BY k.id`)
+			coalesce(`+levelExpr+`, '') FROM query_keys k LEFT JOIN queries q ON q.id = k.id ORDER BY k.id`)
 		if err != nil {
 			return d, err
 		}

@@ -47,7 +47,7 @@ func digestScan(ctx context.Context, tx *sql.Tx, d *Digest, window string, w []a
 		WHERE `+kwin+` AND `+window+` AND k.id <= ?`, append(append(append([]any{}, w...), w...), mark)); err != nil {
 		return err
 	}
-	if err := digestRows(ctx, tx, a, `SELECT `+cols+`, q.level FROM queries q WHERE q.id > ? AND `+window,
+	if err := digestRows(ctx, tx, a, `SELECT `+cols+`, `+levelExpr+` FROM queries q WHERE q.id > ? AND `+window,
 		append([]any{mark}, w...)); err != nil {
 		return err
 	}

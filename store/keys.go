@@ -13,9 +13,14 @@ import (
 // (migrations/0011_query_keys.sql), instead of in indexes on queries.
 const keysVersion = 11
 
-// keyColumns are the query_keys columns, read from query row q (level is
-// its generated column).
-const keyColumns = `q.id, q.site, q.time, q.kind, q.user_id, q.user_name, q.level`
+// levelExpr is the decision level of query row q: result.decision.level,
+// "" for errors and results without one, as text. It is what the generated
+// column queries.level of schema 9–11 held (migrations/0012_level_unstored.sql).
+const levelExpr = `CAST(CASE WHEN q.verdict <> 'error' AND json_valid(q.result)
+	THEN coalesce(json_extract(q.result, '$.decision.level'), '') ELSE '' END AS TEXT)`
+
+// keyColumns are the query_keys columns, read from query row q.
+const keyColumns = `q.id, q.site, q.time, q.kind, q.user_id, q.user_name, ` + levelExpr
 
 // usesKeys reports whether the look-ups by time, site and asker go through
 // query_keys (SQLite from keysVersion on). Every reader that uses it reads

@@ -38,7 +38,7 @@ func logAsVersion(t *testing.T, db *DB, q *Query, v int) {
 		}
 	}
 	if v >= 2 {
-		if err := db.indexUpTo(ctx, tx, r.ID, true); err != nil {
+		if _, err := db.indexUpTo(ctx, tx, r.ID, true); err != nil {
 			t.Fatal(err)
 		}
 	}

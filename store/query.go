@@ -11,6 +11,7 @@ import (
 	"strings"
 	"time"
 	"unicode/utf8"
+	"unsafe"
 )
 
 // Hazard is one hazard found in a mix, as logged.
@@ -44,7 +45,9 @@ type Query struct {
 	Hazards        []Hazard `json:"hazards"`
 	Streams        []string `json:"streams"` // stream texts as parsed, tags resolved
 
-	Result json.RawMessage `json:"result"` // the full engine result JSON (nil for errors)
+	// Result is the full engine result JSON (nil for errors). LogQuery
+	// reads it in place: do not change its bytes while LogQuery runs.
+	Result json.RawMessage `json:"result"`
 	// ResultCompact says Result is valid JSON without insignificant
 	// whitespace, as json.Marshal writes it: LogQuery then stores it as it
 	// is instead of scanning it again. Otherwise LogQuery checks it and
@@ -123,33 +126,49 @@ func (db *DB) LogQuery(ctx context.Context, q *Query) (int64, error) {
 		q.ID, q.Hash, q.PrevHash, q.Chain, q.KeyID = r.ID, r.Hash, r.PrevHash, r.Chain, r.KeyID
 		return r.ID, nil
 	}
-	tx, err := db.w.BeginTx(ctx, nil)
+	err = db.logSQLite(ctx, r, q.Hazards)
+	if errors.Is(err, ErrDuplicate) && q.EventID != "" {
+		return db.loggedEvent(ctx, q.EventID, err)
+	}
 	if err != nil {
 		return 0, fmt.Errorf("log query: %w", err)
 	}
-	defer tx.Rollback()
-	// A repeated event id is refused by the unique index on event_id (no
-	// look-up before every insert); only then is the logged id read.
-	if err := db.appendRow(ctx, tx, r, ""); err != nil {
-		if errors.Is(err, ErrDuplicate) && q.EventID != "" {
-			tx.Rollback()
-			return db.loggedEvent(ctx, q.EventID, err)
-		}
-		return 0, fmt.Errorf("log query: %w", err)
-	}
-	if db.ver < hazardBatchVersion { // since then indexUpTo writes them
-		if err := db.insertHazards(ctx, tx, r.ID, q.Hazards); err != nil {
-			return 0, fmt.Errorf("log query: %w", err)
-		}
-	}
-	if err := db.indexUpTo(ctx, tx, r.ID, false); err != nil {
-		return 0, fmt.Errorf("log query: %w", err)
-	}
-	if err := tx.Commit(); err != nil {
-		return 0, fmt.Errorf("log query: commit: %w", err)
-	}
 	q.ID, q.Hash, q.PrevHash, q.Chain, q.KeyID = r.ID, r.Hash, r.PrevHash, r.Chain, r.KeyID
 	return r.ID, nil
+}
+
+// logSQLite appends r to a SQLite log: in one statement by appendFast when
+// the head this process last wrote is still the head and no batch of
+// derived rows is due, else in a transaction that reads the head
+// (appendRow) and brings the derived rows up to date every indexBatch
+// rows. A repeated event id is refused by the unique index on event_id (no
+// look-up before every insert) with an error wrapping ErrDuplicate.
+func (db *DB) logSQLite(ctx context.Context, r *row, hz []Hazard) error {
+	if ok, err := db.appendFast(ctx, r); ok || err != nil {
+		return err
+	}
+	tx, err := db.w.BeginTx(ctx, nil)
+	if err != nil {
+		return err
+	}
+	defer tx.Rollback()
+	if err := db.appendRow(ctx, tx, r, ""); err != nil {
+		return err
+	}
+	if db.ver < hazardBatchVersion { // since then indexUpTo writes them
+		if err := db.insertHazards(ctx, tx, r.ID, hz); err != nil {
+			return err
+		}
+	}
+	mark, err := db.indexUpTo(ctx, tx, r.ID, false)
+	if err != nil {
+		return err
+	}
+	if err := tx.Commit(); err != nil {
+		return fmt.Errorf("commit: %w", err)
+	}
+	db.noteHead(r.ID, r.Hash, mark)
+	return nil
 }
 
 // loggedEvent returns the id of the query already logged for eventID with
@@ -237,7 +256,10 @@ func encodeQuery(q *Query) (*row, error) {
 			return nil, err
 		}
 		q.Result = res
-		r.Result = sql.NullString{String: string(res), Valid: true}
+		// The row lives only while LogQuery runs, during which the caller
+		// may not change q.Result (Query.Result): the result, a third of
+		// what is hashed and written, is read in place instead of copied.
+		r.Result = sql.NullString{String: unsafe.String(unsafe.SliceData(res), len(res)), Valid: true}
 	}
 	return r, nil
 }
@@ -355,9 +377,7 @@ func (db *DB) appendRow(ctx context.Context, tx *sql.Tx, r *row, emptyPrev strin
 // it; CopyLog to keep a row's id and hash). On PostgreSQL it writes the
 // row's hazard rows too.
 func (db *DB) insertRow(ctx context.Context, tx *sql.Tx, r *row) error {
-	args := []any{r.ID, r.Kind, r.Time, r.UserID, r.UserName, r.Channel, r.EventID, r.Request, r.Resolved, r.Verdict,
-		r.Error, r.Species, r.Oxidizer, r.Reducer, r.ECellV, r.ECellStandardV, r.Hazards, r.Streams, r.Result,
-		r.EngineVersion, r.DataHash, r.PrevHash, r.Hash}
+	args := r.args()[:23] // up to hash: the columns of every schema version
 	var err error
 	switch {
 	case db.pg: // with its hazard rows and the new head
@@ -389,33 +409,36 @@ const indexBatch = 64
 // indexUpTo indexes every query row with id in (indexed_upto, upto], writes
 // the hazard rows of every row there (schema hazardBatchVersion and later)
 // and its query_keys row (keysVersion and later),
-// and moves the mark; force indexes even a short backlog.
-func (db *DB) indexUpTo(ctx context.Context, tx *sql.Tx, upto int64, force bool) error {
+// and moves the mark; force indexes even a short backlog. It returns the
+// mark as it stands after.
+func (db *DB) indexUpTo(ctx context.Context, tx *sql.Tx, upto int64, force bool) (int64, error) {
 	if db.pg {
-		return nil // the search column is generated with the row
+		return upto, nil // the search column is generated with the row
 	}
 	var done int64
 	if err := db.ws.indexed.queryRow(ctx, tx).Scan(&done); err != nil {
-		return err
+		return 0, err
 	}
 	if upto <= done || (!force && upto-done < indexBatch) {
-		return nil
+		return done, nil
 	}
 	if db.ver >= hazardBatchVersion {
 		if _, err := db.ws.hazards.exec(ctx, tx, done, upto); err != nil {
-			return err
+			return 0, err
 		}
 	}
 	if db.ver >= keysVersion {
 		if _, err := db.ws.keys.exec(ctx, tx, done, upto); err != nil {
-			return err
+			return 0, err
 		}
 	}
 	if _, err := db.ws.index.exec(ctx, tx, done, upto); err != nil {
-		return err
+		return 0, err
 	}
-	_, err := db.ws.setIndexed.exec(ctx, tx, upto)
-	return err
+	if _, err := db.ws.setIndexed.exec(ctx, tx, upto); err != nil {
+		return 0, err
+	}
+	return upto, nil
 }
 
 // syncIndex indexes every row not yet in the search index.
@@ -436,7 +459,7 @@ func (db *DB) syncIndex(ctx context.Context) error {
 	if err := tx.QueryRowContext(ctx, `SELECT coalesce(max(id), 0) FROM queries`).Scan(&last); err != nil {
 		return err
 	}
-	if err := db.indexUpTo(ctx, tx, last, true); err != nil {
+	if _, err := db.indexUpTo(ctx, tx, last, true); err != nil {
 		return err
 	}
 	return tx.Commit()

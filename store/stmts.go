@@ -44,6 +44,7 @@ const insertV7 = `INSERT INTO queries (id, kind, time, user_id, user_name, chann
 type writeStmts struct {
 	head, insert, hazard, hazards, keys, index, event, indexed, setIndexed, timeBroken stmt
 	seq                                                                                stmt // PostgreSQL: chain_state.seq
+	fast                                                                               stmt // appendFast; prepared on the writer pool
 }
 
 func newWriteStmts(pg bool) *writeStmts {
@@ -69,6 +70,7 @@ func newWriteStmts(pg bool) *writeStmts {
 		indexed:    stmt{sql: `SELECT indexed_upto FROM search_state`},
 		setIndexed: stmt{sql: `UPDATE search_state SET indexed_upto = ?`},
 		event:      stmt{sql: `SELECT id FROM queries WHERE event_id = ?`},
+		fast:       stmt{sql: fastInsert},
 	}
 }
 
@@ -91,5 +93,5 @@ func (ws *writeStmts) close() {
 }
 
 func (ws *writeStmts) all() []*stmt {
-	return []*stmt{&ws.head, &ws.insert, &ws.hazard, &ws.hazards, &ws.keys, &ws.index, &ws.event, &ws.indexed, &ws.setIndexed, &ws.timeBroken}
+	return []*stmt{&ws.head, &ws.insert, &ws.hazard, &ws.hazards, &ws.keys, &ws.index, &ws.event, &ws.indexed, &ws.setIndexed, &ws.timeBroken, &ws.fast}
 }

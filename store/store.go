@@ -27,6 +27,7 @@ import (
 	"fmt"
 	"os"
 	"strings"
+	"sync"
 	"time"
 
 	"github.com/mattn/go-sqlite3"
@@ -85,6 +86,9 @@ type DB struct {
 	replica string
 	lease   time.Duration
 	site    string
+
+	headMu sync.Mutex
+	head   chainHead // SQLite: the newest row this process wrote (head.go)
 }
 
 // Sentinel errors. Wrapped errors match with errors.Is.

@@ -1,0 +1,12 @@
+-- Version 12: the decision level is no longer a column of queries.
+--
+-- SQLite computes a table's generated columns on every INSERT, VIRTUAL ones
+-- too, so each logged query parsed its whole result JSON (about 10 kB) a
+-- second time only to compute a level that no index of queries carries
+-- any more since version 11: query_keys holds it for every row up to the
+-- indexed mark. The level is now computed by the statements that read it
+-- (levelExpr in store/keys.go, the same expression with the column's TEXT
+-- affinity): the batch that writes query_keys, Verify, and the digest for
+-- the few rows above the mark. The column was VIRTUAL, so dropping it
+-- rewrites no row; no chained or derived row changes.
+ALTER TABLE queries DROP COLUMN level;
