@@ -11,7 +11,6 @@ import (
 	"strings"
 	"time"
 	"unicode/utf8"
-	"unsafe"
 )
 
 // Hazard is one hazard found in a mix, as logged.
@@ -45,8 +44,7 @@ type Query struct {
 	Hazards        []Hazard `json:"hazards"`
 	Streams        []string `json:"streams"` // stream texts as parsed, tags resolved
 
-	// Result is the full engine result JSON (nil for errors). LogQuery
-	// reads it in place: do not change its bytes while LogQuery runs.
+	// Result is the full engine result JSON (nil for errors).
 	Result json.RawMessage `json:"result"`
 	// ResultCompact says Result is valid JSON without insignificant
 	// whitespace, as json.Marshal writes it: LogQuery then stores it as it
@@ -256,10 +254,7 @@ func encodeQuery(q *Query) (*row, error) {
 			return nil, err
 		}
 		q.Result = res
-		// The row lives only while LogQuery runs, during which the caller
-		// may not change q.Result (Query.Result): the result, a third of
-		// what is hashed and written, is read in place instead of copied.
-		r.Result = sql.NullString{String: unsafe.String(unsafe.SliceData(res), len(res)), Valid: true}
+		r.Result = sql.NullString{String: string(res), Valid: true}
 	}
 	return r, nil
 }
