@@ -51,6 +51,13 @@ type Rule struct {
 	// hydroxide it takes up).
 	AcidTo, BaseTo *float64
 	Per            float64
+	// Never marks a "never {A, B}" rule: the listed species are left out of
+	// the candidates of a mix altogether unless a stream brings them, and
+	// each one a stream brings may not grow (a no-gain rule per species, so
+	// that one listed metal cannot form at the expense of another). Such
+	// species never form in water (sodium or magnesium metal), and a change
+	// that would form them is not worth listing as held back.
+	Never bool
 }
 
 // Group selects atoms: of an element within an oxidation-state range, of an
@@ -205,6 +212,9 @@ func parseLockRow(line string) (Lock, error) {
 		if r.Dir == OneWay && len(l.Rules) > 1 {
 			return Lock{}, fmt.Errorf("lock %s: a one-way rule stands alone, not joined by \"or\"", l.ID)
 		}
+		if r.Never && (len(l.Rules) > 1 || f[2] != "always") {
+			return Lock{}, fmt.Errorf("lock %s: a never rule stands alone and applies always", l.ID)
+		}
 	}
 	if f[2] != "always" {
 		c, err := parseCond(f[2])
@@ -220,7 +230,7 @@ func parseLockRow(line string) (Lock, error) {
 func parseRule(s string) (Rule, error) {
 	dir, rest, ok := strings.Cut(s, " ")
 	if !ok {
-		return Rule{}, fmt.Errorf("rule %q: want no-gain, no-loss or fixed followed by a group", s)
+		return Rule{}, fmt.Errorf("rule %q: want no-gain, no-loss, fixed or never followed by a group", s)
 	}
 	var r Rule
 	switch dir {
@@ -230,6 +240,15 @@ func parseRule(s string) (Rule, error) {
 		r.Dir = NoLoss
 	case "fixed":
 		r.Dir = Fixed
+	case "never":
+		g, err := parseGroup(strings.TrimSpace(rest))
+		if err != nil {
+			return Rule{}, err
+		}
+		if len(g.Species) == 0 {
+			return Rule{}, fmt.Errorf("rule %q: never takes a list of species, like never {Na(s), K(s)}", s)
+		}
+		return Rule{Dir: NoGain, Group: g, Never: true}, nil
 	case "one-way":
 		el := strings.TrimSpace(rest)
 		if !chem.IsElementSymbol(el) {
@@ -237,7 +256,7 @@ func parseRule(s string) (Rule, error) {
 		}
 		return Rule{Dir: OneWay, Group: Group{Element: el, Lo: -8, Hi: 8, text: el}}, nil
 	default:
-		return Rule{}, fmt.Errorf("rule %q: %q is not no-gain, no-loss, fixed or one-way", s, dir)
+		return Rule{}, fmt.Errorf("rule %q: %q is not no-gain, no-loss, fixed, never or one-way", s, dir)
 	}
 	rest, allowance, hasAllowance := strings.Cut(strings.TrimSpace(rest), " + ")
 	g, err := parseGroup(strings.TrimSpace(rest))

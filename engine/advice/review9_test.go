@@ -1,0 +1,78 @@
+package advice_test
+
+import (
+	"strings"
+	"testing"
+
+	"mixward/engine"
+)
+
+// molOf sums the final composition of r over the species texts.
+func molOf(r *engine.Result, texts ...string) float64 {
+	tot := 0.0
+	for _, a := range r.FinalComposition {
+		for _, t := range texts {
+			if a.Text == t {
+				tot += a.Mol
+			}
+		}
+	}
+	return tot
+}
+
+// hazardCodes lists the codes of the answer's hazards.
+func hazardCodes(r *engine.Result) []string {
+	var out []string
+	for _, h := range r.Hazards {
+		out = append(out, h.Code)
+	}
+	return out
+}
+
+// TestActiveMetalsNeverDeposit: lithium, sodium, potassium, magnesium,
+// calcium, strontium, barium and aluminium are never formed as metal from
+// water or their salts in water (Pourbaix, Atlas of Electrochemical
+// Equilibria (1974), from memory): magnesium in caustic soda does not turn
+// the sodium into metal (review 9, U05), it corrodes slowly, giving hydrogen
+// and magnesium hydroxide (Bretherick's Handbook, magnesium with water, from
+// memory), and a metal brought as metal never grows.
+func TestActiveMetalsNeverDeposit(t *testing.T) {
+	a := mustAdvisor(t)
+	metals := []string{"Li(s)", "Na(s)", "K(s)", "Mg(s)", "Ca(s)", "Sr(s)", "Ba(s)", "Al(s)"}
+	for _, c := range []struct {
+		req     string
+		brought map[string]float64 // metal → mol brought (5 kg Mg = 205.7 mol)
+	}{
+		{"mix 100 L NaOH 20 % + 5 kg Mg", map[string]float64{"Mg(s)": 205.8}},
+		{"mix 100 L CaCl2 20 % + 5 kg Mg", map[string]float64{"Mg(s)": 205.8}},
+		{"mix 100 L BaCl2 10 % + 1 kg Mg", map[string]float64{"Mg(s)": 41.2}},
+		{"mix 100 L MgCl2 20 % + 5 kg Al", map[string]float64{"Al(s)": 185.4}},
+		{"mix 100 L water + 1 kg Na", map[string]float64{"Na(s)": 43.5}},
+	} {
+		r := ask(t, a, c.req)
+		for _, m := range metals {
+			if got := molOf(r, m); got > c.brought[m]+1e-6 {
+				t.Errorf("%s: %s %.4g mol in the tank, brought %g: these metals never form in water", c.req, m, got, c.brought[m])
+			}
+		}
+		if r.Reaction != nil && strings.Contains(r.Reaction.Text, "→") {
+			right := r.Reaction.Text[strings.Index(r.Reaction.Text, "→"):]
+			for _, m := range metals {
+				if strings.Contains(right, " "+m) {
+					t.Errorf("%s: equation %q forms %s", c.req, r.Reaction.Text, m)
+				}
+			}
+		}
+	}
+	r := ask(t, a, "mix 100 L NaOH 20 % + 5 kg Mg")
+	if r.Decision.Level != engine.WithPrecautions || !strings.Contains(strings.Join(hazardCodes(r), " "), "slow-hydrogen") {
+		t.Errorf("magnesium in caustic: %s %v, want with-precautions, slow-hydrogen", r.Decision.Level, hazardCodes(r))
+	}
+	found := false
+	for _, h := range r.HeldBack {
+		found = found || h.Reaction != nil && strings.Contains(h.Reaction.Text, "Mg(OH)2(s)") && strings.Contains(h.Reaction.Text, "H2(g)")
+	}
+	if !found {
+		t.Errorf("magnesium in caustic: held back %v, want magnesium to hydroxide and hydrogen (the slow change)", r.HeldBack)
+	}
+}
