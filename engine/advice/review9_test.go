@@ -76,3 +76,42 @@ func TestActiveMetalsNeverDeposit(t *testing.T) {
 		t.Errorf("magnesium in caustic: held back %v, want magnesium to hydroxide and hydrogen (the slow change)", r.HeldBack)
 	}
 }
+
+// TestBaseMetalsNeedStrongReducer: iron(III) is taken to iron(II), never
+// to the metal, by hydroxylamine and hydrazine (review 9, U01; Vogel's
+// Textbook of Macro and Semimicro Qualitative Inorganic Analysis, iron(III)
+// with reducing agents, from memory); a more active metal still cements a
+// nobler one (copper on iron, nickel on zinc). Iron salts catalyse the
+// violent decomposition of concentrated hydroxylamine (Bretherick's
+// Handbook, hydroxylamine: metal salts, from memory).
+func TestBaseMetalsNeedStrongReducer(t *testing.T) {
+	a := mustAdvisor(t)
+	for _, req := range []string{
+		"mix 20 L hydroxylamine 50 % + 20 L FeCl3 40 %",
+		"mix 20 L N2H4 35 % + 20 L FeCl3 40 %",
+		"mix 20 L N2H4 35 % + 20 L NiSO4 10 %",
+	} {
+		r := ask(t, a, req)
+		if got := molOf(r, "Fe(s)", "Ni(s)"); got > 1e-6 {
+			t.Errorf("%s: %.4g mol of metal deposited; mild reducers stop at the lower ion", req, got)
+		}
+		if r.Reaction != nil && (strings.Contains(r.Reaction.Text, "Fe(s)") || strings.Contains(r.Reaction.Text, "Ni(s)")) {
+			t.Errorf("%s: equation %q deposits the metal", req, r.Reaction.Text)
+		}
+	}
+	r := ask(t, a, "mix 20 L hydroxylamine 50 % + 20 L FeCl3 40 %")
+	if r.Reaction == nil || !strings.Contains(r.Reaction.Text, "Fe^2+") {
+		t.Errorf("hydroxylamine with iron(III): equation %v, want iron(II)", r.Reaction)
+	}
+	if r.Decision.Level != engine.DoNotMix || !strings.Contains(r.Decision.Title, "hydroxylamine") {
+		t.Errorf("hydroxylamine with iron(III): %s %q, want do-not-mix naming the hydroxylamine decomposition", r.Decision.Level, r.Decision.Title)
+	}
+	for req, metal := range map[string]string{
+		"mix 100 L CuSO4 10 % + 5 kg Fe": "Cu(s)",
+		"mix 100 L NiSO4 10 % + 5 kg Zn": "Ni(s)",
+	} {
+		if got := molOf(ask(t, a, req), metal); got < 10 {
+			t.Errorf("%s: %s %.4g mol, want it cemented by the more active metal", req, metal, got)
+		}
+	}
+}

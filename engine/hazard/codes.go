@@ -46,6 +46,7 @@ var codes = []Code{
 	{"acid-fumes", "drives out acid fumes", []string{"toxic-gas"}},
 	{"halogen-fumes", "gives off bromine or iodine with sulfur dioxide", []string{"toxic-gas"}},
 	{"hydrazine-nitric", "hydrazine with nitric acid: violent, explosive salt", nil},
+	{"hydroxylamine-decomposition", "hydroxylamine with iron or copper salts: violent decomposition", nil},
 	{"damp-dithionite", "wet dithionite heats itself: gives off SO2, can ignite", nil},
 	{"stream-fumes", "a stream gives off a toxic gas by itself", []string{"toxic-gas"}},
 	{"solid-oxidizer-heating", "solid chlorinating agent: heats and ignites with little water", nil},

@@ -14,7 +14,7 @@ import (
 // reliable Gibbs energies, or they are runaways rather than equilibria).
 // Each is judged from what the streams bring together, with its source.
 var familyRules = []func(o *Outcome) (engine.Hazard, bool){
-	chloroAmines, nitrateEsters, nitricOrganic, hydrazineNitric, dampDithionite, ammoniumNitrite, permanganateSulfuric, volatileAcid,
+	chloroAmines, nitrateEsters, nitricOrganic, hydrazineNitric, hydroxylamineMetalSalts, dampDithionite, ammoniumNitrite, permanganateSulfuric, volatileAcid,
 	solidHypochlorite, magnesiumWater, cyanideOxidation, halideSulfuric, chlorateSulfuric, hotElectrolessNickel, nitricMetalFumes,
 	// organic, azide and solid-chlorinator families (organic.go)
 	organicPeroxides, perchlorateEsters, peracidAlkali, oxidizerOrganic, bisChloromethylEther,
@@ -152,6 +152,53 @@ func hydrazineNitric(o *Outcome) (engine.Hazard, bool) {
 	return mk("hydrazine-nitric", sev, msg,
 		"Do not combine. Keep hydrazine and its solutions away from nitric acid and other oxidizing acids; never let hydrazine nitrate liquors dry out.",
 		"Bretherick's Handbook of Reactive Chemical Hazards, hydrazine: nitric acid, and hydrazinium nitrate (from memory); thresholds 2 mol/L nitric acid, 0.5 and 1 mol/L hydrazinium nitrate: common practice, no source"), true
+}
+
+// hydroxylamineMetalSalts: iron and copper salts catalyse the decomposition
+// of hydroxylamine; in concentrated solutions (the 50 % grade, its salts
+// at a few mol/L) it runs away, violently and possibly explosively, with
+// nitrogen, nitrous oxide, ammonia and heat. Thresholds: danger from 1 mol/L
+// hydroxylamine in the mix (about 3 %), a warning from 0.1 mol/L; the metal
+// from 1e-4 mol/L (a few ppm: traces catalyse).
+func hydroxylamineMetalSalts(o *Outcome) (engine.Hazard, bool) {
+	ha := o.MolarBefore("NH2OH", "NH3OH+")
+	metal := metalSaltMolar(o.Before, o.VolumeL, "Fe", "Cu")
+	if ha < 0.1 || metal < 1e-4 {
+		return engine.Hazard{}, false
+	}
+	sev := engine.Warning
+	if ha >= 1 {
+		sev = engine.Danger
+	}
+	return mk("hydroxylamine-decomposition", sev,
+		"Hydroxylamine ("+fmtNum(ha, 2)+" mol/L) with iron or copper salts ("+fmtNum(metal, 2)+" mol/L): the metal ions catalyse its decomposition, which in concentrated solution runs away violently, possibly explosively, with nitrogen, nitrous oxide, ammonia and heat.",
+		"Do not combine. Keep hydroxylamine and its solutions free of iron and copper (no rusty or copper-alloy equipment, no metal-salt liquors), cool and vented.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, hydroxylamine: metal salts (from memory); thresholds 0.1 and 1 mol/L hydroxylamine, 1e-4 mol/L metal: common practice, no source"), true
+}
+
+// metalSaltMolar is the mol/L of the atoms of the elements els held in
+// their ions, complexes and salts, solid hydroxides too (not as the bare
+// metal), among xs in volL litres.
+func metalSaltMolar(xs []Amount, volL float64, els ...string) float64 {
+	t := 0.0
+	for i := range xs {
+		a := &xs[i]
+		m := a.Molar
+		if a.Species.Phase == engine.Solid && volL > 0 {
+			m = a.Mol / volL
+		}
+		if m < TraceMolar {
+			continue
+		}
+		atoms, err := chem.ParseFormula(a.Species.Formula)
+		if err != nil || len(atoms) == 1 && a.Species.Charge == 0 {
+			continue
+		}
+		for _, el := range els {
+			t += m * float64(atoms[el])
+		}
+	}
+	return t
 }
 
 // DithioniteSolubility is the solubility of sodium dithionite, about
