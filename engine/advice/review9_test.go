@@ -115,3 +115,43 @@ func TestBaseMetalsNeedStrongReducer(t *testing.T) {
 		}
 	}
 }
+
+// TestSlowMetalsInAcid: nickel, cobalt, tin and lead dissolve only slowly in
+// dilute non-oxidizing acids (Vogel's Textbook of Macro and Semimicro
+// Qualitative Inorganic Analysis, from memory; nickel anodes in hydrochloric
+// strike baths: common practice, no source): slow hydrogen, vent, no closed
+// vessel (review 9, U06), not a refusal; iron, zinc, aluminium, magnesium,
+// cadmium and manganese give their hydrogen at once and stay refused, also
+// when a slow metal comes with them.
+func TestSlowMetalsInAcid(t *testing.T) {
+	a := mustAdvisor(t)
+	for _, req := range []string{
+		"mix 100 L HCl 10 % + 5 kg Ni",
+		"mix 100 L H2SO4 10 % + 5 kg Ni",
+		"mix 100 L HCl 10 % + 5 kg Co",
+		"mix 100 L HCl 10 % + 5 kg Sn",
+		"mix 100 L H2SO4 10 % + 5 kg Pb",
+	} {
+		r := ask(t, a, req)
+		if r.Decision.Level != engine.WithPrecautions || !strings.Contains(strings.Join(hazardCodes(r), " "), "slow-hydrogen") {
+			t.Errorf("%s: %s %q %v, want with-precautions, slow-hydrogen", req, r.Decision.Level, r.Decision.Title, hazardCodes(r))
+		}
+		if !strings.Contains(strings.Join(r.Decision.Actions, "\n"), "closed vessel") {
+			t.Errorf("%s: actions %q, want no closed vessel", req, r.Decision.Actions)
+		}
+	}
+	for _, req := range []string{
+		"mix 100 L HCl 10 % + 5 kg Fe",
+		"mix 100 L H2SO4 10 % + 5 kg Zn",
+		"mix 100 L HCl 10 % + 5 kg Al",
+		"mix 100 L HCl 10 % + 5 kg Mg",
+		"mix 100 L HCl 10 % + 5 kg Cd",
+		"mix 100 L HCl 10 % + 5 kg Mn",
+		"mix 100 L HCl 10 % + 5 kg Ni + 5 kg Fe",
+	} {
+		r := ask(t, a, req)
+		if r.Decision.Level != engine.DoNotMix || !strings.Contains(strings.Join(hazardCodes(r), " "), "hydrogen-release") {
+			t.Errorf("%s: %s %q %v, want do-not-mix, hydrogen-release", req, r.Decision.Level, r.Decision.Title, hazardCodes(r))
+		}
+	}
+}

@@ -316,9 +316,23 @@ func solidHypochlorite(o *Outcome) (engine.Hazard, bool) {
 }
 
 // magnesiumWater: magnesium corrodes in water and neutral salt solutions
-// with a slow, steady release of hydrogen (faster warm or with chloride).
+// with a slow, steady release of hydrogen (faster warm or with chloride);
+// nickel, cobalt, tin and lead dissolve only slowly in dilute
+// non-oxidizing acids (the state holds their hydrogen back, lock
+// hydrogen-slow-metals): the same slow hydrogen, over hours to days.
 func magnesiumWater(o *Outcome) (engine.Hazard, bool) {
-	if o.VolumeL <= 0 || o.PH < 4 || o.GasMol("H2") > 0 || o.Measured["H2"].Mol > 0 {
+	if o.VolumeL <= 0 || o.GasMol("H2") > 0 || o.Measured["H2"].Mol > 0 {
+		return engine.Hazard{}, false
+	}
+	if heldBy(o, "hydrogen-slow-metals") {
+		if names := slowMetalNames(o); names != "" {
+			return mk("slow-hydrogen", engine.Warning,
+				strings.ToUpper(names[:1])+names[1:]+" dissolves only slowly in this acid (pH "+fmtNum(o.PH, 3)+"): hydrogen comes off slowly but steadily, over hours to days, as long as metal and acid last; hot acid or fine powder dissolves faster.",
+				"Do not hold it in a closed vessel: vent the headspace and keep sparks and hot work away.",
+				"Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, nickel, cobalt, tin and lead with dilute acids (from memory); common practice, no source (nickel strike baths)"), true
+		}
+	}
+	if o.PH < 4 {
 		return engine.Hazard{}, false
 	}
 	for _, a := range o.Before {
@@ -330,6 +344,30 @@ func magnesiumWater(o *Outcome) (engine.Hazard, bool) {
 		}
 	}
 	return engine.Hazard{}, false
+}
+
+// slowMetals names the metals of lock hydrogen-slow-metals.
+var slowMetals = []struct{ formula, name string }{{"Ni", "nickel"}, {"Co", "cobalt"}, {"Sn", "tin"}, {"Pb", "lead"}}
+
+// slowMetalNames names the slow metals brought as metal ("nickel", "tin
+// and lead"); empty when there are none.
+func slowMetalNames(o *Outcome) string {
+	var names []string
+	for _, m := range slowMetals {
+		for _, a := range o.Before {
+			if s := a.Species; s.Charge == 0 && s.Phase == engine.Solid && s.Formula == m.formula && a.Mol > 0 {
+				names = append(names, m.name)
+				break
+			}
+		}
+	}
+	switch len(names) {
+	case 0:
+		return ""
+	case 1:
+		return names[0]
+	}
+	return strings.Join(names[:len(names)-1], ", ") + " and " + names[len(names)-1]
 }
 
 // cyanideOxidation: cyanide destruction by hypochlorite or peroxide is a
