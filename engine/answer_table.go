@@ -279,7 +279,7 @@ func (e *Engine) liftLock(mx *state.Mix, l *state.Lock) *HeldBack {
 	}
 	free := *mx
 	free.Combined, free.Final = mx.Final, st
-	steps, err := explain.Steps(e.Tables.Thermo, &free)
+	steps, err := explain.StepsIn(e.Tables.Thermo, &free, explain.MediumAt(e.Tables.Thermo, free.Combined.PH, free.TempK))
 	if err != nil || len(steps) == 0 {
 		return nil
 	}

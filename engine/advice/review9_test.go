@@ -155,3 +155,41 @@ func TestSlowMetalsInAcid(t *testing.T) {
 		}
 	}
 }
+
+// TestNitrogenDioxideInWater: nitrogen dioxide dissolving in water gives
+// nitric acid and nitric oxide, 3 NO2 + H2O → 2 HNO3 + NO (the nitrous acid
+// breaks down the same way in the acid it makes; Vogel's Textbook of Macro
+// and Semimicro Qualitative Inorganic Analysis, from memory): 5 kg (108.7
+// mol) gives about 36 mol NO in a 0.14 M nitric acid mix (review 9, U04),
+// so the equation carries no hydroxide and nitric oxide is judged against
+// its limit (NIOSH Pocket Guide, NO IDLH 100 ppm). In strong caustic the
+// same gas gives nitrite and nitrate and no nitric oxide.
+func TestNitrogenDioxideInWater(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "mix 5 kg NO2 + 500 L water")
+	if r.Reaction == nil || strings.Contains(r.Reaction.Text, "OH-") || !strings.Contains(r.Reaction.Text, "NO(g)") {
+		t.Errorf("NO2 into water: equation %v, want NO in acid medium (no OH-)", r.Reaction)
+	}
+	if r.Conditions.Medium != engine.Acid {
+		t.Errorf("NO2 into water: medium %s, want acid (the mix ends near pH 1)", r.Conditions.Medium)
+	}
+	no := 0.0
+	for _, g := range r.Decision.Gases {
+		if strings.HasPrefix(g.Text, "NO ") || g.Text == "NO" || strings.HasPrefix(g.Text, "NO(g)") {
+			no += g.Mol
+		}
+	}
+	if no < 25 || no > 40 {
+		t.Errorf("NO2 into water: NO %.3g mol among the gases %v, want about 36", no, r.Decision.Gases)
+	}
+	if !strings.Contains(strings.Join(hazardCodes(r), " "), "no-release") {
+		t.Errorf("NO2 into water: hazards %v, want no-release", hazardCodes(r))
+	}
+	s := ask(t, a, "mix 1 kg NO2 + 200 L NaOH 20 %")
+	if got := molOf(s, "NO(g)", "NO"); got > 1e-3 {
+		t.Errorf("NO2 into strong caustic: %.3g mol NO, want nitrite and nitrate only", got)
+	}
+	if got := molOf(s, "NO2-"); got < 5 {
+		t.Errorf("NO2 into strong caustic: nitrite %.3g mol, want about 10 (half the 21.7 mol NO2)", got)
+	}
+}
