@@ -251,7 +251,12 @@ func (e *Engine) tableCouple(c *candidate, reducer bool) *Couple {
 
 // heldBack lists the locks that held something back in the mix.
 func (e *Engine) heldBack(mx *state.Mix) []HeldBack {
-	locks := append(mx.Final.Held[:len(mx.Final.Held):len(mx.Final.Held)], mx.Final.Undecided...)
+	var locks []*state.Lock
+	for _, l := range append(mx.Final.Held[:len(mx.Final.Held):len(mx.Final.Held)], mx.Final.Undecided...) {
+		if !l.Never() { // what cannot happen in water is not "possible on paper"
+			locks = append(locks, l)
+		}
+	}
 	// Each lock is lifted in its own solve; the solves share nothing but
 	// the read-only mix and the model's locked caches, so they run side by
 	// side and the answer keeps the locks' order.

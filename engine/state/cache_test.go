@@ -22,7 +22,7 @@ func TestCandidatesKept(t *testing.T) {
 		t.Error("two feeds of the same elements did not share their candidate species")
 	}
 	els := map[string]bool{"H": true, "O": true, "Fe": true, "S": true, "K": true, "Mn": true}
-	if !reflect.DeepEqual(a.list, m.within(els, nil)) {
+	if !reflect.DeepEqual(a.list, m.within(els)) {
 		t.Error("the kept candidate species differ from the species data's")
 	}
 	if len(a.list) != cap(a.list) {

@@ -24,6 +24,11 @@ type Lock struct {
 	groups []Group // every group the row names, for checking against the species data
 }
 
+// Never reports whether the lock is a never rule: what it holds back is
+// not possible in water at all, so the answer does not list it as "possible
+// on paper, held back".
+func (l *Lock) Never() bool { return len(l.Rules) == 1 && l.Rules[0].Never }
+
 // Direction says which way a rule keeps a group.
 type Direction int
 
@@ -51,12 +56,11 @@ type Rule struct {
 	// hydroxide it takes up).
 	AcidTo, BaseTo *float64
 	Per            float64
-	// Never marks a "never {A, B}" rule: the listed species are left out of
-	// the candidates of a mix altogether unless a stream brings them, and
-	// each one a stream brings may not grow (a no-gain rule per species, so
-	// that one listed metal cannot form at the expense of another). Such
-	// species never form in water (sodium or magnesium metal), and a change
-	// that would form them is not worth listing as held back.
+	// Never marks a "never {A, B}" rule: each listed species may not grow
+	// beyond what the streams bring (a no-gain rule per species, so that one
+	// listed metal cannot form at the expense of another). Such species
+	// never form in water (sodium or magnesium metal), and a change that
+	// would form them is not worth listing as held back (see Lock.Never).
 	Never bool
 }
 
@@ -212,8 +216,8 @@ func parseLockRow(line string) (Lock, error) {
 		if r.Dir == OneWay && len(l.Rules) > 1 {
 			return Lock{}, fmt.Errorf("lock %s: a one-way rule stands alone, not joined by \"or\"", l.ID)
 		}
-		if r.Never && (len(l.Rules) > 1 || f[2] != "always") {
-			return Lock{}, fmt.Errorf("lock %s: a never rule stands alone and applies always", l.ID)
+		if r.Never && len(l.Rules) > 1 {
+			return Lock{}, fmt.Errorf("lock %s: a never rule stands alone, not joined by \"or\"", l.ID)
 		}
 	}
 	if f[2] != "always" {

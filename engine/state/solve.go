@@ -282,8 +282,7 @@ func constraintSets(mx *Mix, locks []*Lock, n0 []float64, allow map[string]float
 }
 
 // neverRules spells out a never rule for the species of mx: one no-gain
-// rule for each listed species a stream brought (the others are not
-// candidates at all, see Model.candidates).
+// rule for each listed species among them.
 func neverRules(mx *Mix, l *Lock, n0 []float64) []lockRule {
 	var out []lockRule
 	for _, sp := range l.Rules[0].Group.Species {

@@ -69,9 +69,6 @@ type Model struct {
 	// species are the candidate species of a feed by its elements
 	// (candidates); a few kilobytes each.
 	species *lru.Cache[string, *speciesSet]
-	// never are the species of the never rules: not candidates unless a
-	// stream brings them.
-	never map[string]bool
 }
 
 // NewModel reads data/locks.txt from fsys.
@@ -94,17 +91,7 @@ func NewModel(db *thermo.DB, fsys fs.FS) (*Model, error) {
 	if err != nil {
 		return nil, err
 	}
-	never := map[string]bool{}
-	for _, l := range locks {
-		for _, r := range l.Rules {
-			if r.Never {
-				for _, sp := range r.Group.Species {
-					never[sp] = true
-				}
-			}
-		}
-	}
-	return &Model{DB: db, Locks: locks, streams: newStreamCache(), species: species, never: never}, nil
+	return &Model{DB: db, Locks: locks, streams: newStreamCache(), species: species}, nil
 }
 
 // State is one solved state.
@@ -303,30 +290,25 @@ func addTo(dst, src []float64) {
 }
 
 // candidates are the species made only of the elements the feed brings,
-// less the species of the never rules that no stream brings, from the
-// model's cache when a feed of the same elements was solved before
+// from the model's cache when a feed of the same elements was solved before
 // (the points of a pour, the held-back changes and every repeat of a
 // request). The slice is shared: it must not be written.
 func (m *Model) candidates(f Feed) *speciesSet {
 	els := map[string]bool{"H": true, "O": true}
-	brought := map[string]bool{}
 	for _, st := range f.Streams {
 		for _, it := range st.Items {
 			for el := range it.Species.Atoms {
 				els[el] = true
 			}
-			if m.never[it.Species.Text] {
-				brought[it.Species.Text] = true
-			}
 		}
 	}
-	key := strings.Join(slices.Sorted(maps.Keys(els)), " ") + " | " + strings.Join(slices.Sorted(maps.Keys(brought)), " ")
+	key := strings.Join(slices.Sorted(maps.Keys(els)), " ")
 	if m.species != nil {
 		if set, ok := m.species.Get(key); ok {
 			return set
 		}
 	}
-	set := &speciesSet{list: m.within(els, brought)}
+	set := &speciesSet{list: m.within(els)}
 	if m.species != nil {
 		m.species.Add(key, set)
 	}
@@ -342,14 +324,10 @@ type speciesSet struct {
 }
 
 // within lists the species of the data made only of els, in the order of
-// their texts, the stand-in ions last; a species of a never rule only when
-// brought.
-func (m *Model) within(els, brought map[string]bool) []*thermo.Species {
+// their texts, the stand-in ions last.
+func (m *Model) within(els map[string]bool) []*thermo.Species {
 	var out []*thermo.Species
 	for _, sp := range m.DB.Within(els) {
-		if m.never[sp.Text] && !brought[sp.Text] {
-			continue
-		}
 		// Water vapour is the solvent's own (boiling is judged from the
 		// heat); a pure liquid of a compound (H2SO4(l), SO3(l)) is the
 		// concentrated reagent itself, not a phase that separates from water.
