@@ -251,7 +251,12 @@ func (e *Engine) tableCouple(c *candidate, reducer bool) *Couple {
 
 // heldBack lists the locks that held something back in the mix.
 func (e *Engine) heldBack(mx *state.Mix) []HeldBack {
-	locks := append(mx.Final.Held[:len(mx.Final.Held):len(mx.Final.Held)], mx.Final.Undecided...)
+	var locks []*state.Lock
+	for _, l := range append(mx.Final.Held[:len(mx.Final.Held):len(mx.Final.Held)], mx.Final.Undecided...) {
+		if !l.Never() { // what cannot happen in water is not "possible on paper"
+			locks = append(locks, l)
+		}
+	}
 	// Each lock is lifted in its own solve; the solves share nothing but
 	// the read-only mix and the model's locked caches, so they run side by
 	// side and the answer keeps the locks' order.
@@ -279,7 +284,7 @@ func (e *Engine) liftLock(mx *state.Mix, l *state.Lock) *HeldBack {
 	}
 	free := *mx
 	free.Combined, free.Final = mx.Final, st
-	steps, err := explain.Steps(e.Tables.Thermo, &free)
+	steps, err := explain.StepsIn(e.Tables.Thermo, &free, explain.MediumAt(e.Tables.Thermo, free.Combined.PH, free.TempK))
 	if err != nil || len(steps) == 0 {
 		return nil
 	}

@@ -205,7 +205,7 @@ func (e *Engine) predict(asked *Request, full bool) (*Result, error) {
 	res.Notes = append(append(res.Notes, mx.Notes...), mx.Final.Eq.Notes...)
 	res.Conditions.PH = roundDec(mx.Combined.PH, 2)
 	res.Conditions.PHFinal = ptr(roundDec(mx.Final.PH, 2))
-	res.Conditions.Medium = Medium(explain.MediumAt(e.Tables.Thermo, mx.Combined.PH, mx.TempK))
+	res.Conditions.Medium = Medium(explain.HeadlineMedium(e.Tables.Thermo, mx))
 	res.Species = speciesOut(mx, steps)
 	for _, st := range steps {
 		res.Steps = append(res.Steps, e.stepOut(mx, st))

@@ -253,8 +253,10 @@ func TestProductsAtFinalPH(t *testing.T) {
 		want mixOutcome
 	}{
 		{"mix 1 kg Al + 20 L NaOH 20 %", mixOutcome{atLeast: map[string]float64{"Al(OH)4-": 36}, atMost: map[string]float64{"Al(OH)3(s)": 0.01}}},
-		// 1 kg Sn is 8.4 mol: at most 8.4 mol H2.
-		{"mix 1 kg Sn + 20 L HCl 10 %", mixOutcome{atLeast: map[string]float64{"Sn^2+|SnOH+": 8}, atMost: map[string]float64{"SnO2(s)": 0, "H2(g)": 8.6}}},
+		// 1 kg Sn is 8.4 mol: at most 8.4 mol H2. Hot: in cold dilute acid
+		// tin dissolves only slowly and its hydrogen is held back (lock
+		// hydrogen-slow-metals).
+		{"mix 1 kg Sn + 20 L HCl 10 %, 70 C", mixOutcome{atLeast: map[string]float64{"Sn^2+|SnOH+": 8}, atMost: map[string]float64{"SnO2(s)": 0, "H2(g)": 8.6}}},
 		{"mix 100 L Na2S 5 % + 100 L FeCl3 40 %", mixOutcome{atLeast: map[string]float64{"S(s)": 50}, atMost: map[string]float64{"SO4^2-|HSO4-|NaSO4-|H2SO3|HSO3-|S4O6^2-|S2O3^2-": 0.01}}},
 		// A strong oxidizing agent still takes sulfide to sulfate.
 		{"mix 100 L Na2S 2 % + 20 L H2O2 35 %", mixOutcome{atLeast: map[string]float64{"SO4^2-|HSO4-|NaSO4-": 20}}},

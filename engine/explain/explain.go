@@ -41,14 +41,22 @@ type Step struct {
 }
 
 // Steps explains the redox changes of a solved mix, the one that moves the
-// most electrons first. A mix without any redox change gives none.
+// most electrons first, the headline written in HeadlineMedium. A mix
+// without any redox change gives none.
 func Steps(db *thermo.DB, mx *state.Mix) ([]Step, error) {
+	return StepsIn(db, mx, HeadlineMedium(db, mx))
+}
+
+// StepsIn is Steps with the headline written in the medium med (a change
+// held back is written in the medium of the mixed state it would start
+// from, whatever the pH it would end at).
+func StepsIn(db *thermo.DB, mx *state.Mix, med Medium) ([]Step, error) {
 	ts := Transfers(mx.Species, mx.Combined.Amount, mx.Final.Amount)
 	matches := significant(mx, Pairs(ts, 1e-4))
 	if len(matches) == 0 {
 		return nil, nil
 	}
-	x, err := newExplainer(db, mx)
+	x, err := newExplainer(db, mx, med)
 	if err != nil {
 		return nil, err
 	}
@@ -195,8 +203,8 @@ type explainer struct {
 	lnReached []float64
 }
 
-func newExplainer(db *thermo.DB, mx *state.Mix) (*explainer, error) {
-	x := &explainer{db: db, mx: mx, lnA: mx.Combined.LnA, med: MediumAt(db, mx.Combined.PH, mx.TempK)}
+func newExplainer(db *thermo.DB, mx *state.Mix, med Medium) (*explainer, error) {
+	x := &explainer{db: db, mx: mx, lnA: mx.Combined.LnA, med: med}
 	x.lnReached = make([]float64, len(mx.Species))
 	for i, v := range x.lnA {
 		x.lnReached[i] = v
@@ -210,6 +218,28 @@ func newExplainer(db *thermo.DB, mx *state.Mix) (*explainer, error) {
 	}
 	x.bal = b
 	return x, nil
+}
+
+// crossing is how far (pH units) past neutral the mixed state must end up,
+// on the other side from the mix as combined, for the change to be
+// written in the medium it makes.
+const crossing = 1.0
+
+// HeadlineMedium is the medium the headline is written in: the mix's as
+// combined, unless the change itself carries the mix more than a pH unit
+// past neutral to the other side (nitrogen dioxide dissolving in water makes
+// nitric acid; hypochlorite spent on thiosulfate leaves acid): then the
+// medium it runs in, so that an acid mix is not written with hydroxide.
+func HeadlineMedium(db *thermo.DB, mx *state.Mix) Medium {
+	comb := MediumAt(db, mx.Combined.PH, mx.TempK)
+	if mx.Final == nil || math.IsNaN(mx.Final.PH) {
+		return comb
+	}
+	fin := MediumAt(db, mx.Final.PH, mx.TempK)
+	if fin != comb && math.Abs(mx.Final.PH-NeutralPH(db, mx.TempK)) > crossing {
+		return fin
+	}
+	return comb
 }
 
 // MediumAt is acid below neutral pH at the temperature (pKw/2 from the

@@ -47,6 +47,7 @@ var codes = []Code{
 	{"halogen-fumes", "gives off bromine or iodine with sulfur dioxide", []string{"toxic-gas"}},
 	{"hydrazine-nitric", "hydrazine with nitric acid: violent, explosive salt", nil},
 	{"chlorate-sulfite", "chlorate with sulfite: self-accelerating, can take off", nil},
+	{"hydroxylamine-decomposition", "hydroxylamine with iron or copper salts: violent decomposition", nil},
 	{"damp-dithionite", "wet dithionite heats itself: gives off SO2, can ignite", nil},
 	{"stream-fumes", "a stream gives off a toxic gas by itself", []string{"toxic-gas"}},
 	{"solid-oxidizer-heating", "solid chlorinating agent: heats and ignites with little water", nil},

@@ -14,7 +14,7 @@ import (
 // reliable Gibbs energies, or they are runaways rather than equilibria).
 // Each is judged from what the streams bring together, with its source.
 var familyRules = []func(o *Outcome) (engine.Hazard, bool){
-	chloroAmines, nitrateEsters, nitricOrganic, hydrazineNitric, dampDithionite, ammoniumNitrite, permanganateSulfuric, volatileAcid,
+	chloroAmines, nitrateEsters, nitricOrganic, hydrazineNitric, hydroxylamineMetalSalts, dampDithionite, ammoniumNitrite, permanganateSulfuric, volatileAcid,
 	solidHypochlorite, magnesiumWater, cyanideOxidation, halideSulfuric, chlorateSulfuric, hotElectrolessNickel, nitricMetalFumes,
 	chlorateSulfite,
 	// organic, azide and solid-chlorinator families (organic.go)
@@ -156,6 +156,53 @@ func hydrazineNitric(o *Outcome) (engine.Hazard, bool) {
 		"Bretherick's Handbook of Reactive Chemical Hazards, hydrazine: nitric acid, and hydrazinium nitrate (from memory); thresholds 2 mol/L nitric acid, 0.5 and 1 mol/L hydrazinium nitrate: common practice, no source"), true
 }
 
+// hydroxylamineMetalSalts: iron and copper salts catalyse the decomposition
+// of hydroxylamine; in concentrated solutions (the 50 % grade, its salts
+// at a few mol/L) it runs away, violently and possibly explosively, with
+// nitrogen, nitrous oxide, ammonia and heat. Thresholds: danger from 1 mol/L
+// hydroxylamine in the mix (about 3 %), a warning from 0.1 mol/L; the metal
+// from 1e-4 mol/L (a few ppm: traces catalyse).
+func hydroxylamineMetalSalts(o *Outcome) (engine.Hazard, bool) {
+	ha := o.MolarBefore("NH2OH", "NH3OH+")
+	metal := metalSaltMolar(o.Before, o.VolumeL, "Fe", "Cu")
+	if ha < 0.1 || metal < 1e-4 {
+		return engine.Hazard{}, false
+	}
+	sev := engine.Warning
+	if ha >= 1 {
+		sev = engine.Danger
+	}
+	return mk("hydroxylamine-decomposition", sev,
+		"Hydroxylamine ("+fmtNum(ha, 2)+" mol/L) with iron or copper salts ("+fmtNum(metal, 2)+" mol/L): the metal ions catalyse its decomposition, which in concentrated solution runs away violently, possibly explosively, with nitrogen, nitrous oxide, ammonia and heat.",
+		"Do not combine. Keep hydroxylamine and its solutions free of iron and copper (no rusty or copper-alloy equipment, no metal-salt liquors), cool and vented.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, hydroxylamine: metal salts (from memory); thresholds 0.1 and 1 mol/L hydroxylamine, 1e-4 mol/L metal: common practice, no source"), true
+}
+
+// metalSaltMolar is the mol/L of the atoms of the elements els held in
+// their ions, complexes and salts, solid hydroxides too (not as the bare
+// metal), among xs in volL litres.
+func metalSaltMolar(xs []Amount, volL float64, els ...string) float64 {
+	t := 0.0
+	for i := range xs {
+		a := &xs[i]
+		m := a.Molar
+		if a.Species.Phase == engine.Solid && volL > 0 {
+			m = a.Mol / volL
+		}
+		if m < TraceMolar {
+			continue
+		}
+		atoms, err := chem.ParseFormula(a.Species.Formula)
+		if err != nil || len(atoms) == 1 && a.Species.Charge == 0 {
+			continue
+		}
+		for _, el := range els {
+			t += m * float64(atoms[el])
+		}
+	}
+	return t
+}
+
 // DithioniteSolubility is the solubility of sodium dithionite, about
 // 182 g per litre of water at 20 °C (CRC Handbook, Physical Constants of
 // Inorganic Compounds, from memory).
@@ -291,9 +338,23 @@ func solidHypochlorite(o *Outcome) (engine.Hazard, bool) {
 }
 
 // magnesiumWater: magnesium corrodes in water and neutral salt solutions
-// with a slow, steady release of hydrogen (faster warm or with chloride).
+// with a slow, steady release of hydrogen (faster warm or with chloride);
+// nickel, cobalt, tin and lead dissolve only slowly in dilute
+// non-oxidizing acids (the state holds their hydrogen back, lock
+// hydrogen-slow-metals): the same slow hydrogen, over hours to days.
 func magnesiumWater(o *Outcome) (engine.Hazard, bool) {
-	if o.VolumeL <= 0 || o.PH < 4 || o.GasMol("H2") > 0 || o.Measured["H2"].Mol > 0 {
+	if o.VolumeL <= 0 || o.GasMol("H2") > 0 || o.Measured["H2"].Mol > 0 {
+		return engine.Hazard{}, false
+	}
+	if heldBy(o, "hydrogen-slow-metals") {
+		if names := slowMetalNames(o); names != "" {
+			return mk("slow-hydrogen", engine.Warning,
+				strings.ToUpper(names[:1])+names[1:]+" dissolves only slowly in this acid (pH "+fmtNum(o.PH, 3)+"): hydrogen comes off slowly but steadily, over hours to days, as long as metal and acid last; hot acid or fine powder dissolves faster.",
+				"Do not hold it in a closed vessel: vent the headspace and keep sparks and hot work away.",
+				"Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, nickel, cobalt, tin and lead with dilute acids (from memory); common practice, no source (nickel strike baths)"), true
+		}
+	}
+	if o.PH < 4 {
 		return engine.Hazard{}, false
 	}
 	for _, a := range o.Before {
@@ -305,6 +366,30 @@ func magnesiumWater(o *Outcome) (engine.Hazard, bool) {
 		}
 	}
 	return engine.Hazard{}, false
+}
+
+// slowMetals names the metals of lock hydrogen-slow-metals.
+var slowMetals = []struct{ formula, name string }{{"Ni", "nickel"}, {"Co", "cobalt"}, {"Sn", "tin"}, {"Pb", "lead"}}
+
+// slowMetalNames names the slow metals brought as metal ("nickel", "tin
+// and lead"); empty when there are none.
+func slowMetalNames(o *Outcome) string {
+	var names []string
+	for _, m := range slowMetals {
+		for _, a := range o.Before {
+			if s := a.Species; s.Charge == 0 && s.Phase == engine.Solid && s.Formula == m.formula && a.Mol > 0 {
+				names = append(names, m.name)
+				break
+			}
+		}
+	}
+	switch len(names) {
+	case 0:
+		return ""
+	case 1:
+		return names[0]
+	}
+	return strings.Join(names[:len(names)-1], ", ") + " and " + names[len(names)-1]
 }
 
 // cyanideOxidation: cyanide destruction by hypochlorite or peroxide is a

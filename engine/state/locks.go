@@ -24,6 +24,11 @@ type Lock struct {
 	groups []Group // every group the row names, for checking against the species data
 }
 
+// Never reports whether the lock is a never rule: what it holds back is
+// not possible in water at all, so the answer does not list it as "possible
+// on paper, held back".
+func (l *Lock) Never() bool { return len(l.Rules) == 1 && l.Rules[0].Never }
+
 // Direction says which way a rule keeps a group.
 type Direction int
 
@@ -62,6 +67,12 @@ type Rule struct {
 	// come off thiosulfate together with sulfur dioxide or bisulfite (in
 	// acid), never with sulfate.
 	With *Group
+	// Never marks a "never {A, B}" rule: each listed species may not grow
+	// beyond what the streams bring (a no-gain rule per species, so that one
+	// listed metal cannot form at the expense of another). Such species
+	// never form in water (sodium or magnesium metal), and a change that
+	// would form them is not worth listing as held back (see Lock.Never).
+	Never bool
 }
 
 // Group selects atoms: of an element within an oxidation-state range, of an
@@ -230,6 +241,9 @@ func parseLockRow(line string) (Lock, error) {
 		if (r.Dir == OneWay || r.Dir == NoNewBonds) && len(l.Rules) > 1 {
 			return Lock{}, fmt.Errorf("lock %s: a one-way or no-new-bonds rule stands alone, not joined by \"or\"", l.ID)
 		}
+		if r.Never && len(l.Rules) > 1 {
+			return Lock{}, fmt.Errorf("lock %s: a never rule stands alone, not joined by \"or\"", l.ID)
+		}
 	}
 	if f[2] != "always" {
 		c, err := parseCond(f[2])
@@ -245,7 +259,7 @@ func parseLockRow(line string) (Lock, error) {
 func parseRule(s string) (Rule, error) {
 	dir, rest, ok := strings.Cut(s, " ")
 	if !ok {
-		return Rule{}, fmt.Errorf("rule %q: want no-gain, no-loss or fixed followed by a group", s)
+		return Rule{}, fmt.Errorf("rule %q: want no-gain, no-loss, fixed or never followed by a group", s)
 	}
 	var r Rule
 	switch dir {
@@ -255,6 +269,15 @@ func parseRule(s string) (Rule, error) {
 		r.Dir = NoLoss
 	case "fixed":
 		r.Dir = Fixed
+	case "never":
+		g, err := parseGroup(strings.TrimSpace(rest))
+		if err != nil {
+			return Rule{}, err
+		}
+		if len(g.Species) == 0 {
+			return Rule{}, fmt.Errorf("rule %q: never takes a list of species, like never {Na(s), K(s)}", s)
+		}
+		return Rule{Dir: NoGain, Group: g, Never: true}, nil
 	case "one-way":
 		el := strings.TrimSpace(rest)
 		if !chem.IsElementSymbol(el) {
@@ -267,7 +290,7 @@ func parseRule(s string) (Rule, error) {
 		}
 		return Rule{Dir: NoNewBonds, Group: Group{Element: "C", Organic: true, text: "C(organic)"}}, nil
 	default:
-		return Rule{}, fmt.Errorf("rule %q: %q is not no-gain, no-loss, fixed, one-way or no-new-bonds", s, dir)
+		return Rule{}, fmt.Errorf("rule %q: %q is not no-gain, no-loss, fixed, never, one-way or no-new-bonds", s, dir)
 	}
 	rest, allowance, hasAllowance := strings.Cut(strings.TrimSpace(rest), " + ")
 	g, err := parseGroup(strings.TrimSpace(rest))

@@ -141,6 +141,8 @@ func TestLockErrors(t *testing.T) {
 		{"x | no-gain {N2, two NH3} | t<60 | why | src", "a count before a species"},
 		{"x | one-way N(3) | t<60 | why | src", "one-way takes an element alone"},
 		{"x | one-way N or no-gain S(6) | t<60 | why | src", "stands alone"},
+		{"x | never Na(0) | always | why | src", "never takes a list of species"},
+		{"x | never {Na(s)} or no-gain S(6) | always | why | src", "stands alone"},
 	}
 	for _, c := range cases {
 		_, err := parseLocks("locks.txt", []byte(c.row+"\n"))

@@ -65,7 +65,7 @@ func (m *Model) formationRules(mx *Mix, n0 []float64, volL float64) []lockRule {
 	var out []lockRule
 	for i := range m.Locks {
 		l := &m.Locks[i]
-		if g := l.Rules[0].Group; len(l.Rules) != 1 || l.Rules[0].Dir == Fixed || (len(g.Species) == 0 && g.Without == "") {
+		if g := l.Rules[0].Group; len(l.Rules) != 1 || l.Rules[0].Dir == Fixed || l.Rules[0].Never || (len(g.Species) == 0 && g.Without == "") {
 			continue
 		}
 		if l.When == nil || l.When.Holds(env) {
@@ -270,6 +270,12 @@ func constraintSets(mx *Mix, locks []*Lock, n0 []float64, allow map[string]float
 			}
 			continue
 		}
+		if l.Rules[0].Never {
+			for _, c := range neverRules(mx, l, n0) {
+				fork([]lockRule{c})
+			}
+			continue
+		}
 		if vacuous(mx, l, n0) {
 			continue
 		}
@@ -283,6 +289,22 @@ func constraintSets(mx *Mix, locks []*Lock, n0 []float64, allow map[string]float
 		fork(alts)
 	}
 	return sets
+}
+
+// neverRules spells out a never rule for the species of mx: one no-gain
+// rule for each listed species among them.
+func neverRules(mx *Mix, l *Lock, n0 []float64) []lockRule {
+	var out []lockRule
+	for _, sp := range l.Rules[0].Group.Species {
+		g := Group{Species: []string{sp}, Per: []float64{1}, text: "{" + sp + "}"}
+		r := Rule{Dir: NoGain, Group: g}
+		c := ruleConstraint(mx, l.ID+"#0"+sp, r, n0)
+		if !slices.ContainsFunc(c.Coef, func(w float64) bool { return w > 0 }) {
+			continue
+		}
+		out = append(out, lockRule{c: c, g: g})
+	}
+	return out
 }
 
 // oneWayRules spells out a one-way rule on element el for the amounts n0:
