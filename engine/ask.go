@@ -22,7 +22,7 @@ import (
 // tests run both validations on data/, so a table that reaches a build has
 // passed them.
 func New(fsys fs.FS) (*Engine, error) {
-	t, err := loadAll(fsys)
+	t, model, modelErr, err := loadAll(fsys)
 	if err != nil {
 		return nil, err
 	}
@@ -68,9 +68,8 @@ func New(fsys fs.FS) (*Engine, error) {
 			}
 		}
 	}
-	model, err := state.NewModel(t.Thermo, fsys)
-	if err != nil {
-		return nil, err
+	if modelErr != nil {
+		return nil, modelErr
 	}
 	return &Engine{Tables: t, Model: model}, nil
 }
@@ -104,11 +103,13 @@ func (t *Tables) indexHalf(h *HalfReaction) {
 }
 
 // loadAll reads every table of fsys. The tables of Load are parsed on the
-// calling goroutine while a second one reads the species data, the hazard
-// rules, the enthalpies and the dilution heats: they share nothing until
-// both are done. The first error in the order loadFast, species, hazards,
-// enthalpies, dilution is returned.
-func loadAll(fsys fs.FS) (*Tables, error) {
+// calling goroutine while a second one reads the species data and then the
+// locks (state.NewModel, which needs the species data), and a third the
+// hazard rules, the enthalpies and the dilution heats: they share nothing
+// until all are done. The first error in the order loadFast, species,
+// hazards, enthalpies, dilution is returned; the locks' error is returned
+// apart (modelErr), for New to report after the tables that depend on Load.
+func loadAll(fsys fs.FS) (t *Tables, model *state.Model, modelErr, err error) {
 	var (
 		db     *thermo.DB
 		haz    []*HazardRule
@@ -118,23 +119,27 @@ func loadAll(fsys fs.FS) (*Tables, error) {
 		others sync.WaitGroup
 	)
 	others.Go(func() {
-		db, errs[0] = thermo.Load(fsys)
+		if db, errs[0] = thermo.Load(fsys); errs[0] == nil {
+			model, modelErr = state.NewModel(db, fsys)
+		}
+	})
+	others.Go(func() {
 		haz, errs[1] = LoadHazardRules(fsys)
 		enth, errs[2] = LoadEnthalpies(fsys)
 		dil, errs[3] = loadDilution(fsys)
 	})
-	t, err := loadFast(fsys)
+	t, err = loadFast(fsys)
 	others.Wait()
 	if err != nil {
-		return nil, err
+		return nil, nil, nil, err
 	}
 	for _, err := range errs {
 		if err != nil {
-			return nil, err
+			return nil, nil, nil, err
 		}
 	}
 	t.Thermo, t.Hazards, t.Enthalpies, t.Dilution = db, haz, enth, dil
-	return t, nil
+	return t, model, modelErr, nil
 }
 
 // maxAlternatives bounds the other reacting pairs listed with an answer.

@@ -240,6 +240,15 @@ func contains(list []string, s string) bool {
 func constraintSets(mx *Mix, locks []*Lock, n0 []float64, allow map[string]float64) [][]lockRule {
 	sets := [][]lockRule{nil}
 	fork := func(alts []lockRule) {
+		if len(alts) == 1 {
+			// One alternative joins every set as it stands: each set
+			// owns its backing array (a fork below copies), so the
+			// append cannot reach another set.
+			for i := range sets {
+				sets[i] = append(sets[i], alts[0])
+			}
+			return
+		}
 		var next [][]lockRule
 		for _, c := range alts {
 			for _, s := range sets {
@@ -362,8 +371,11 @@ type lockRule struct {
 	whole bool
 }
 
+// ruleConstraint is rule r as a constraint on the species of mx. Its Coef
+// is the mix's cached weights of the group: read only (addConstraints
+// copies it onto the problem's species).
 func ruleConstraint(mx *Mix, name string, r Rule, n0 []float64) equilibrium.Constraint {
-	c := equilibrium.Constraint{Name: name, Coef: append([]float64(nil), mx.weightsOf(r.Group)...)}
+	c := equilibrium.Constraint{Name: name, Coef: mx.weightsOf(r.Group)}
 	for i, w := range c.Coef {
 		c.Bound += w * n0[i]
 	}
@@ -406,10 +418,7 @@ func (m *Model) solve(mx *Mix, n0 []float64, frozen bool, cons []lockRule, volL 
 		}
 		left = append(left, lr)
 	}
-	rows := make([]map[string]float64, len(mx.Species))
-	for i, sp := range mx.Species {
-		rows[i] = components(sp, frozen, organicLocked)
-	}
+	rows := mx.componentRows(frozen, organicLocked)
 	b := newProblem(mx, n0, rows)
 	cons, shut := presolve(mx, n0, left)
 	b.addSpecies(mx, rows, shut)
