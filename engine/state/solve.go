@@ -9,6 +9,7 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"sync"
 
 	"gonum.org/v1/gonum/mat"
 
@@ -22,6 +23,7 @@ var (
 	dump       func(name string, p equilibrium.Problem)
 	dumpPrefix string
 	dumpN      int
+	dumpMu     sync.Mutex
 )
 
 // presence is the concentration (mol/L) above which a group counts as
@@ -37,7 +39,7 @@ func (m *Model) solveLocked(mx *Mix, n0 []float64, volL float64) (*State, error)
 	if err != nil {
 		return nil, fmt.Errorf("as combined: %w", err)
 	}
-	return m.solveFrom(mx, n0, combined, volL, "")
+	return m.solveFrom(mx, n0, combined, volL, "", combined.Amount)
 }
 
 // solveCombined is n0 as combined: acid–base and complexing only, every
@@ -77,13 +79,16 @@ func (m *Model) formationRules(mx *Mix, n0 []float64, volL float64) []lockRule {
 }
 
 // Without solves the mix again with one lock lifted: what the lock held back.
+// The solve starts from the mix at equilibrium under every lock, which the
+// state without one of them is nearer to than the mix as combined (the cold
+// start remains the solver's fallback).
 func (m *Model) Without(mx *Mix, lockID string) (*State, error) {
-	return m.solveFrom(mx, mx.Initial, mx.Combined, mx.VolumeL, lockID)
+	return m.solveFrom(mx, mx.Initial, mx.Combined, mx.VolumeL, lockID, mx.Final.Amount)
 }
 
 // solveFrom solves n0 at equilibrium under the locks (but skip) whose
-// conditions hold for its combined state.
-func (m *Model) solveFrom(mx *Mix, n0 []float64, combined *State, volL float64, skip string) (*State, error) {
+// conditions hold for its combined state, from the warm start start.
+func (m *Model) solveFrom(mx *Mix, n0 []float64, combined *State, volL float64, skip string, start []float64) (*State, error) {
 	env := m.env(mx, combined, volL)
 	var applied []*Lock
 	for i := range m.Locks {
@@ -92,7 +97,7 @@ func (m *Model) solveFrom(mx *Mix, n0 []float64, combined *State, volL float64, 
 			applied = append(applied, l)
 		}
 	}
-	best, err := m.solveSets(mx, n0, applied, volL, nil, combined.Amount)
+	best, err := m.solveSets(mx, n0, applied, volL, nil, start)
 	if err != nil {
 		return nil, err
 	}
@@ -424,8 +429,10 @@ func (m *Model) solve(mx *Mix, n0 []float64, frozen bool, cons []lockRule, volL 
 	b.addSpecies(mx, rows, shut)
 	b.addConstraints(cons, start)
 	if dump != nil {
+		dumpMu.Lock() // the ends of a titration are solved side by side
 		dumpN++
 		dump(fmt.Sprintf("%s-%d-frozen%v", dumpPrefix, dumpN, frozen), b.p)
+		dumpMu.Unlock()
 	}
 	eq, err := solveSafely(b.p)
 	if err != nil {
