@@ -415,7 +415,7 @@ func (m *Model) solve(mx *Mix, n0 []float64, frozen bool, cons []lockRule, volL 
 	// A lock that fixes organic carbon is met by giving each organic
 	// compound its own component (see components), not by a constraint.
 	organicLocked := frozen
-	left := cons[:0:0]
+	left := make([]lockRule, 0, len(cons))
 	for _, lr := range cons {
 		if lr.g.Organic && lr.c.Rel == equilibrium.Exactly {
 			organicLocked = true
@@ -656,7 +656,7 @@ func lnActivity(ph equilibrium.Phase, eq equilibrium.State, j int) float64 {
 // solve's caller through the names it keeps.
 func presolve(mx *Mix, n0 []float64, cons []lockRule) ([]lockRule, map[int]bool) {
 	shut := map[int]bool{}
-	var left []lockRule
+	left := make([]lockRule, 0, len(cons))
 	for _, lr := range cons {
 		c, g := lr.c, lr.g
 		var list []int
@@ -703,9 +703,9 @@ func elementTotal(mx *Mix, n0 []float64, el string) float64 {
 // pinned a whole element and were not found so: the caller judges those by
 // lifting the lock (Model.Without).
 func pinnedHeld(mx *Mix, p equilibrium.Problem, eq equilibrium.State, rows []map[string]float64, comps map[string]int, cons []lockRule) (held, maybe []string) {
-	var pinned []lockRule
-	for _, lr := range cons {
-		if strings.HasSuffix(lr.c.Name, "=pinned") {
+	var pinned []*lockRule
+	for i := range cons {
+		if lr := &cons[i]; strings.HasSuffix(lr.c.Name, "=pinned") {
 			pinned = append(pinned, lr)
 		}
 	}
