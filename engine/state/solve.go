@@ -79,11 +79,11 @@ func (m *Model) formationRules(mx *Mix, n0 []float64, volL float64) []lockRule {
 }
 
 // Without solves the mix again with one lock lifted: what the lock held back.
-// The solve starts from the mix at equilibrium under every lock, which the
-// state without one of them is nearer to than the mix as combined (the cold
-// start remains the solver's fallback).
+// It starts from the mix as combined, as the mix's own solve does: a start
+// from the mix at equilibrium under every lock takes fewer Newton steps but
+// more of them by the least-squares fallback, and costs more in all.
 func (m *Model) Without(mx *Mix, lockID string) (*State, error) {
-	return m.solveFrom(mx, mx.Initial, mx.Combined, mx.VolumeL, lockID, mx.Final.Amount)
+	return m.solveFrom(mx, mx.Initial, mx.Combined, mx.VolumeL, lockID, mx.Combined.Amount)
 }
 
 // solveFrom solves n0 at equilibrium under the locks (but skip) whose
