@@ -243,7 +243,7 @@ func contains(list []string, s string) bool {
 }
 
 func constraintSets(mx *Mix, locks []*Lock, n0 []float64, allow map[string]float64) [][]lockRule {
-	sets := [][]lockRule{nil}
+	sets := [][]lockRule{make([]lockRule, 0, len(locks))}
 	fork := func(alts []lockRule) {
 		if len(alts) == 1 {
 			// One alternative joins every set as it stands: each set
