@@ -39,7 +39,7 @@ func (m *Model) solveLocked(mx *Mix, n0 []float64, volL float64) (*State, error)
 	if err != nil {
 		return nil, fmt.Errorf("as combined: %w", err)
 	}
-	return m.solveFrom(mx, n0, combined, volL, "", combined.Amount)
+	return m.solveFrom(mx, n0, combined, volL)
 }
 
 // solveCombined is n0 as combined: acid–base and complexing only, every
@@ -79,16 +79,27 @@ func (m *Model) formationRules(mx *Mix, n0 []float64, volL float64) []lockRule {
 }
 
 // Without solves the mix again with one lock lifted: what the lock held back.
-// It starts from the mix as combined, as the mix's own solve does: a start
-// from the mix at equilibrium under every lock takes fewer Newton steps but
-// more of them by the least-squares fallback, and costs more in all.
+// The locks that apply are those of the mix's own solve but the one lifted:
+// their conditions were judged on the same state as combined, at the same
+// temperatures.
 func (m *Model) Without(mx *Mix, lockID string) (*State, error) {
-	return m.solveFrom(mx, mx.Initial, mx.Combined, mx.VolumeL, lockID, mx.Combined.Amount)
+	var applied []*Lock
+	if mx.Final != nil && mx.Final.Applied != nil {
+		applied = make([]*Lock, 0, len(mx.Final.Applied))
+		for _, l := range mx.Final.Applied {
+			if l.ID != lockID {
+				applied = append(applied, l)
+			}
+		}
+	} else {
+		applied = m.applied(mx, mx.Combined, mx.VolumeL, lockID)
+	}
+	return m.solveUnder(mx, mx.Initial, mx.Combined, mx.VolumeL, applied)
 }
 
-// solveFrom solves n0 at equilibrium under the locks (but skip) whose
-// conditions hold for its combined state, from the warm start start.
-func (m *Model) solveFrom(mx *Mix, n0 []float64, combined *State, volL float64, skip string, start []float64) (*State, error) {
+// applied lists the locks (but skip) whose conditions hold for the state as
+// combined, in the order of the table.
+func (m *Model) applied(mx *Mix, combined *State, volL float64, skip string) []*Lock {
 	env := m.env(mx, combined, volL)
 	var applied []*Lock
 	for i := range m.Locks {
@@ -97,6 +108,18 @@ func (m *Model) solveFrom(mx *Mix, n0 []float64, combined *State, volL float64, 
 			applied = append(applied, l)
 		}
 	}
+	return applied
+}
+
+// solveFrom solves n0 at equilibrium under the locks whose conditions hold
+// for its combined state.
+func (m *Model) solveFrom(mx *Mix, n0 []float64, combined *State, volL float64) (*State, error) {
+	return m.solveUnder(mx, n0, combined, volL, m.applied(mx, combined, volL, ""))
+}
+
+// solveUnder solves n0 at equilibrium under the applied locks.
+func (m *Model) solveUnder(mx *Mix, n0 []float64, combined *State, volL float64, applied []*Lock) (*State, error) {
+	start := combined.Amount
 	best, err := m.solveSets(mx, n0, applied, volL, nil, start)
 	if err != nil {
 		return nil, err
