@@ -21,19 +21,51 @@ import (
 // species table (thermo.Load; thermo's DB.Check is the full validation): the
 // tests run both validations on data/, so a table that reaches a build has
 // passed them.
+//
+// The tables are read on three goroutines that share nothing until all are
+// done (see others): this one reads the tables of Load, then the tables
+// that refer to their chemicals and the indexes built from them.
 func New(fsys fs.FS) (*Engine, error) {
-	t, err := loadAll(fsys)
+	o := startOthers(fsys)
+	t, err := loadFast(fsys)
+	var after error
+	if err == nil {
+		after = loadAfter(fsys, t)
+	}
+	o.wg.Wait()
+	// The first error in the order loadFast, species, hazards, enthalpies,
+	// dilution, ceilings, solubility, products, locks is returned.
 	if err != nil {
 		return nil, err
 	}
+	for _, err := range o.errs {
+		if err != nil {
+			return nil, err
+		}
+	}
+	if after != nil {
+		return nil, after
+	}
+	if o.modelErr != nil {
+		return nil, o.modelErr
+	}
+	t.Thermo, t.Hazards, t.Enthalpies, t.Dilution = o.db, o.haz, o.enth, o.dil
+	return &Engine{Tables: t, Model: o.model}, nil
+}
+
+// loadAfter reads the tables that refer to the chemicals of t (ceilings,
+// solubility, products) and builds t's indexes. None of it needs the
+// species data.
+func loadAfter(fsys fs.FS, t *Tables) error {
+	var err error
 	if t.Ceilings, err = LoadCeilings(fsys, t); err != nil {
-		return nil, err
+		return err
 	}
 	if t.Solubility, err = LoadSolubility(fsys, t); err != nil {
-		return nil, err
+		return err
 	}
 	if t.Products, err = LoadProducts(fsys, t); err != nil {
-		return nil, err
+		return err
 	}
 	t.atoms = map[string]Atoms{}
 	for _, h := range t.Half {
@@ -68,11 +100,7 @@ func New(fsys fs.FS) (*Engine, error) {
 			}
 		}
 	}
-	model, err := state.NewModel(t.Thermo, fsys)
-	if err != nil {
-		return nil, err
-	}
-	return &Engine{Tables: t, Model: model}, nil
+	return nil
 }
 
 // indexHalf fills the cached keys, texts and atom counts of one
@@ -103,38 +131,34 @@ func (t *Tables) indexHalf(h *HalfReaction) {
 	}
 }
 
-// loadAll reads every table of fsys. The tables of Load are parsed on the
-// calling goroutine while a second one reads the species data, the hazard
-// rules, the enthalpies and the dilution heats: they share nothing until
-// both are done. The first error in the order loadFast, species, hazards,
-// enthalpies, dilution is returned.
-func loadAll(fsys fs.FS) (*Tables, error) {
-	var (
-		db     *thermo.DB
-		haz    []*HazardRule
-		enth   map[string]Enthalpy
-		dil    *Dilution
-		errs   [4]error
-		others sync.WaitGroup
-	)
-	others.Go(func() {
-		db, errs[0] = thermo.Load(fsys)
-		haz, errs[1] = LoadHazardRules(fsys)
-		enth, errs[2] = LoadEnthalpies(fsys)
-		dil, errs[3] = loadDilution(fsys)
-	})
-	t, err := loadFast(fsys)
-	others.Wait()
-	if err != nil {
-		return nil, err
-	}
-	for _, err := range errs {
-		if err != nil {
-			return nil, err
+// others reads, beside New's own goroutine, what does not depend on the
+// tables of Load: the species data and then the locks (state.NewModel, which
+// needs the species data) on one goroutine, the hazard rules, the enthalpies
+// and the dilution heats on another.
+type others struct {
+	wg       sync.WaitGroup
+	db       *thermo.DB
+	model    *state.Model
+	haz      []*HazardRule
+	enth     map[string]Enthalpy
+	dil      *Dilution
+	errs     [4]error // species, hazards, enthalpies, dilution
+	modelErr error
+}
+
+func startOthers(fsys fs.FS) *others {
+	o := &others{}
+	o.wg.Go(func() {
+		if o.db, o.errs[0] = thermo.Load(fsys); o.errs[0] == nil {
+			o.model, o.modelErr = state.NewModel(o.db, fsys)
 		}
-	}
-	t.Thermo, t.Hazards, t.Enthalpies, t.Dilution = db, haz, enth, dil
-	return t, nil
+	})
+	o.wg.Go(func() {
+		o.haz, o.errs[1] = LoadHazardRules(fsys)
+		o.enth, o.errs[2] = LoadEnthalpies(fsys)
+		o.dil, o.errs[3] = loadDilution(fsys)
+	})
+	return o
 }
 
 // maxAlternatives bounds the other reacting pairs listed with an answer.

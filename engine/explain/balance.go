@@ -4,7 +4,9 @@ import (
 	"fmt"
 	"math"
 	"sort"
+	"strconv"
 
+	lru "github.com/hashicorp/golang-lru/v2"
 	"gonum.org/v1/gonum/mat"
 
 	"mixward/engine/thermo"
@@ -82,7 +84,7 @@ func (b *balancer) Reduction(ox, red *thermo.Species, key string, med Medium) (t
 		}
 	}
 	perOx := float64(ox.Atoms[key]) * (ox.Ox[key] - red.Ox[key])
-	nu, e, err := solveCoefficients(terms, perOx)
+	nu, e, err := balanced(terms, perOx)
 	if err != nil {
 		return thermo.Reaction{}, fmt.Errorf("%s → %s: %v", ox.Text, red.Text, err)
 	}
@@ -145,6 +147,48 @@ func (b *balancer) unmatched(ox, red *thermo.Species) []string {
 	}
 	sort.Strings(out)
 	return out
+}
+
+// A half-reaction's coefficients depend only on its species and the
+// electrons per oxidized form, and each request balances the same few
+// couples again for the mix and for every held-back change: balanced keeps
+// them. The key is the species texts (thermo reads a species' atoms and
+// charge from its text), the charges and perOx, exactly; the cache is bounded and safe for concurrent use.
+var coefficients = mustLRU(coefficientsSize)
+
+// coefficientsSize bounds the half-reactions kept (a few hundred bytes each).
+const coefficientsSize = 4096
+
+type coefficientsEntry struct {
+	nu  []int
+	n   int
+	err error
+}
+
+func mustLRU(size int) *lru.Cache[string, coefficientsEntry] {
+	c, err := lru.New[string, coefficientsEntry](size)
+	if err != nil {
+		panic(err) // only for a size below 1
+	}
+	return c
+}
+
+// balanced is solveCoefficients through the cache. The slice returned is
+// the caller's own.
+func balanced(terms []*thermo.Species, perOx float64) ([]int, int, error) {
+	b := make([]byte, 0, 16*len(terms)+24)
+	for _, sp := range terms {
+		b = append(b, sp.Text...)
+		b = strconv.AppendInt(append(b, 0), int64(sp.Charge), 10)
+		b = append(b, 0)
+	}
+	key := string(strconv.AppendFloat(b, perOx, 'g', -1, 64))
+	if e, ok := coefficients.Get(key); ok {
+		return append([]int(nil), e.nu...), e.n, e.err
+	}
+	nu, n, err := solveCoefficients(terms, perOx)
+	coefficients.Add(key, coefficientsEntry{nu: append([]int(nil), nu...), n: n, err: err})
+	return nu, n, err
 }
 
 // solveCoefficients finds signed coefficients (terms[0] consumed with −k)

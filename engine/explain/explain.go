@@ -253,7 +253,7 @@ func MediumAt(db *thermo.DB, pH, tempK float64) Medium {
 
 // NeutralPH is pKw/2 at tempK from the species data (7.00 at 25 °C).
 func NeutralPH(db *thermo.DB, tempK float64) float64 {
-	r, err := thermo.ParseReaction(db, "H2O -> H+ + OH-")
+	r, err := db.WaterIonization()
 	if err != nil {
 		return 7
 	}

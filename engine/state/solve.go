@@ -9,6 +9,7 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"sync"
 
 	"gonum.org/v1/gonum/mat"
 
@@ -22,6 +23,7 @@ var (
 	dump       func(name string, p equilibrium.Problem)
 	dumpPrefix string
 	dumpN      int
+	dumpMu     sync.Mutex
 )
 
 // presence is the concentration (mol/L) above which a group counts as
@@ -37,7 +39,7 @@ func (m *Model) solveLocked(mx *Mix, n0 []float64, volL float64) (*State, error)
 	if err != nil {
 		return nil, fmt.Errorf("as combined: %w", err)
 	}
-	return m.solveFrom(mx, n0, combined, volL, "")
+	return m.solveFrom(mx, n0, combined, volL)
 }
 
 // solveCombined is n0 as combined: acid–base and complexing only, every
@@ -77,13 +79,27 @@ func (m *Model) formationRules(mx *Mix, n0 []float64, volL float64) []lockRule {
 }
 
 // Without solves the mix again with one lock lifted: what the lock held back.
+// The locks that apply are those of the mix's own solve but the one lifted:
+// their conditions were judged on the same state as combined, at the same
+// temperatures.
 func (m *Model) Without(mx *Mix, lockID string) (*State, error) {
-	return m.solveFrom(mx, mx.Initial, mx.Combined, mx.VolumeL, lockID)
+	var applied []*Lock
+	if mx.Final != nil && mx.Final.Applied != nil {
+		applied = make([]*Lock, 0, len(mx.Final.Applied))
+		for _, l := range mx.Final.Applied {
+			if l.ID != lockID {
+				applied = append(applied, l)
+			}
+		}
+	} else {
+		applied = m.applied(mx, mx.Combined, mx.VolumeL, lockID)
+	}
+	return m.solveUnder(mx, mx.Initial, mx.Combined, mx.VolumeL, applied)
 }
 
-// solveFrom solves n0 at equilibrium under the locks (but skip) whose
-// conditions hold for its combined state.
-func (m *Model) solveFrom(mx *Mix, n0 []float64, combined *State, volL float64, skip string) (*State, error) {
+// applied lists the locks (but skip) whose conditions hold for the state as
+// combined, in the order of the table.
+func (m *Model) applied(mx *Mix, combined *State, volL float64, skip string) []*Lock {
 	env := m.env(mx, combined, volL)
 	var applied []*Lock
 	for i := range m.Locks {
@@ -92,7 +108,19 @@ func (m *Model) solveFrom(mx *Mix, n0 []float64, combined *State, volL float64, 
 			applied = append(applied, l)
 		}
 	}
-	best, err := m.solveSets(mx, n0, applied, volL, nil, combined.Amount)
+	return applied
+}
+
+// solveFrom solves n0 at equilibrium under the locks whose conditions hold
+// for its combined state.
+func (m *Model) solveFrom(mx *Mix, n0 []float64, combined *State, volL float64) (*State, error) {
+	return m.solveUnder(mx, n0, combined, volL, m.applied(mx, combined, volL, ""))
+}
+
+// solveUnder solves n0 at equilibrium under the applied locks.
+func (m *Model) solveUnder(mx *Mix, n0 []float64, combined *State, volL float64, applied []*Lock) (*State, error) {
+	start := combined.Amount
+	best, err := m.solveSets(mx, n0, applied, volL, nil, start)
 	if err != nil {
 		return nil, err
 	}
@@ -238,8 +266,17 @@ func contains(list []string, s string) bool {
 }
 
 func constraintSets(mx *Mix, locks []*Lock, n0 []float64, allow map[string]float64) [][]lockRule {
-	sets := [][]lockRule{nil}
+	sets := [][]lockRule{make([]lockRule, 0, len(locks))}
 	fork := func(alts []lockRule) {
+		if len(alts) == 1 {
+			// One alternative joins every set as it stands: each set
+			// owns its backing array (a fork below copies), so the
+			// append cannot reach another set.
+			for i := range sets {
+				sets[i] = append(sets[i], alts[0])
+			}
+			return
+		}
 		var next [][]lockRule
 		for _, c := range alts {
 			for _, s := range sets {
@@ -436,12 +473,18 @@ type lockRule struct {
 	whole bool
 }
 
+// ruleConstraint is rule r as a constraint on the species of mx. Its Coef
+// is the mix's cached weights of the group: read only (addConstraints
+// copies it onto the problem's species).
 func ruleConstraint(mx *Mix, name string, r Rule, n0 []float64) equilibrium.Constraint {
-	c := equilibrium.Constraint{Name: name, Coef: append([]float64(nil), mx.weightsOf(r.Group)...)}
+	c := equilibrium.Constraint{Name: name, Coef: mx.weightsOf(r.Group)}
 	if r.With != nil {
+		// The shared weights are read-only: the paired rule gets its own row.
+		coef := append([]float64(nil), c.Coef...)
 		for i, w := range mx.weightsOf(*r.With) {
-			c.Coef[i] -= w
+			coef[i] -= w
 		}
+		c.Coef = coef
 	}
 	for i, w := range c.Coef {
 		c.Bound += w * n0[i]
@@ -477,7 +520,7 @@ func (m *Model) solve(mx *Mix, n0 []float64, frozen bool, cons []lockRule, volL 
 	// A lock that fixes organic carbon is met by giving each organic
 	// compound its own component (see components), not by a constraint.
 	organicLocked := frozen
-	left := cons[:0:0]
+	left := make([]lockRule, 0, len(cons))
 	for _, lr := range cons {
 		if lr.g.Organic && lr.c.Rel == equilibrium.Exactly {
 			organicLocked = true
@@ -485,17 +528,16 @@ func (m *Model) solve(mx *Mix, n0 []float64, frozen bool, cons []lockRule, volL 
 		}
 		left = append(left, lr)
 	}
-	rows := make([]map[string]float64, len(mx.Species))
-	for i, sp := range mx.Species {
-		rows[i] = components(sp, frozen, organicLocked)
-	}
+	rows := mx.componentRows(frozen, organicLocked)
 	b := newProblem(mx, n0, rows)
 	cons, shut := presolve(mx, n0, left)
 	b.addSpecies(mx, rows, shut)
 	b.addConstraints(cons, start)
 	if dump != nil {
+		dumpMu.Lock() // the ends of a titration are solved side by side
 		dumpN++
 		dump(fmt.Sprintf("%s-%d-frozen%v", dumpPrefix, dumpN, frozen), b.p)
+		dumpMu.Unlock()
 	}
 	eq, err := solveSafely(b.p)
 	if err != nil {
@@ -719,7 +761,7 @@ func lnActivity(ph equilibrium.Phase, eq equilibrium.State, j int) float64 {
 // solve's caller through the names it keeps.
 func presolve(mx *Mix, n0 []float64, cons []lockRule) ([]lockRule, map[int]bool) {
 	shut := map[int]bool{}
-	var left []lockRule
+	left := make([]lockRule, 0, len(cons))
 	for _, lr := range cons {
 		c, g := lr.c, lr.g
 		var list []int
@@ -769,9 +811,9 @@ func elementTotal(mx *Mix, n0 []float64, el string) float64 {
 // pinned a whole element and were not found so: the caller judges those by
 // lifting the lock (Model.Without).
 func pinnedHeld(mx *Mix, p equilibrium.Problem, eq equilibrium.State, rows []map[string]float64, comps map[string]int, cons []lockRule) (held, maybe []string) {
-	var pinned []lockRule
-	for _, lr := range cons {
-		if strings.HasSuffix(lr.c.Name, "=pinned") {
+	var pinned []*lockRule
+	for i := range cons {
+		if lr := &cons[i]; strings.HasSuffix(lr.c.Name, "=pinned") {
 			pinned = append(pinned, lr)
 		}
 	}

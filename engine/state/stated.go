@@ -180,12 +180,20 @@ func (m *Model) titrateOnce(mx *Mix, n0 []float64, volL, target float64) (float6
 	}
 	limit := math.Asinh(20 * volL) // up to 20 mol/L of acid or base
 	lo, hi := -limit, limit        // f falls as u rises
+	// The two ends of the bracket are independent solves (each as slow as
+	// a few steps of the secant together): they run side by side.
+	var (
+		fhi   float64
+		errHi error
+		ends  sync.WaitGroup
+	)
+	ends.Go(func() { fhi, errHi = f(hi) })
 	flo, err := f(lo)
+	ends.Wait()
 	if err != nil {
 		return 0, err
 	}
-	fhi, err := f(hi)
-	if err != nil {
+	if err = errHi; err != nil {
 		return 0, err
 	}
 	if flo < 0 || fhi > 0 {

@@ -10,6 +10,39 @@ import "sync"
 type weights struct {
 	mu  sync.Mutex
 	set map[string][]float64 // group text → weight per species
+
+	// rows are the component rows of the species (components), one list
+	// per frozen/organicLocked combination, built once: every solve of
+	// the mix reads them.
+	rows [4]struct {
+		once sync.Once
+		list []map[string]float64
+	}
+}
+
+// componentRows returns the component row of each species of mx for a
+// solve frozen or not, with organic carbon locked or not (read only).
+func (mx *Mix) componentRows(frozen, organicLocked bool) []map[string]float64 {
+	build := func() []map[string]float64 {
+		rows := make([]map[string]float64, len(mx.Species))
+		for i, sp := range mx.Species {
+			rows[i] = components(sp, frozen, organicLocked)
+		}
+		return rows
+	}
+	if mx.weights == nil {
+		return build()
+	}
+	k := 0
+	if frozen {
+		k |= 1
+	}
+	if organicLocked {
+		k |= 2
+	}
+	r := &mx.weights.rows[k]
+	r.once.Do(func() { r.list = build() })
+	return r.list
 }
 
 // weightsOf returns the weight of g in each species of mx (read only).

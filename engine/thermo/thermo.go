@@ -18,6 +18,7 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"sync"
 
 	"gonum.org/v1/gonum/unit/constant"
 
@@ -80,6 +81,21 @@ type DB struct {
 	file   string                    // "data/species.txt", for messages
 
 	withheld map[string]*Withheld // by chemical formula (withheld.txt)
+
+	// water is the ionization of water, parsed once on first use (every
+	// answer asks for the neutral pH several times).
+	water struct {
+		once sync.Once
+		r    Reaction
+		err  error
+	}
+}
+
+// WaterIonization is H2O → H+ + OH- over the species of the DB, parsed once.
+// The reaction returned is shared: read only.
+func (db *DB) WaterIonization() (Reaction, error) {
+	db.water.once.Do(func() { db.water.r, db.water.err = ParseReaction(db, "H2O -> H+ + OH-") })
+	return db.water.r, db.water.err
 }
 
 // RowError is one bad row of a table: `FILE:LINE: what is wrong; what to do`.
