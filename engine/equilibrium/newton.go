@@ -13,17 +13,23 @@ import (
 
 // Newton solve limits and tolerances.
 const (
-	maxNewton   = 200   // iterations per Newton solve
-	maxFlat     = 10    // accepted steps in a row that do not lower the merit
-	flatGain    = 1e-8  // by more than this fraction
-	tolBalance  = 1e-12 // balance residual relative to the row's scale
-	tolStalled  = 1e-10 // accepted when the line search can do no better
-	tolLog      = 1e-10 // saturation and gas residuals (natural-log units)
-	armijo      = 1e-4
-	maxBacktrak = 50
-	maxExtend   = 256  // longest extrapolated step, in Newton steps
-	stepGrow    = 2.0  // a species may rise this much (ln units) above the totals' scale per step
-	stepFall    = 30.0 // the main carrier of a balance may fall this much (ln units) per step
+	maxNewton = 200 // iterations per Newton solve
+	// maxSolveSteps bounds the accepted Newton steps of one Solve over all
+	// its rounds (activity, phases, constraints), each bounded by itself
+	// but not their product: a solve that has not settled by then is
+	// reported as not converging rather than left to run for minutes.
+	// Solves of plant mixes take a few hundred.
+	maxSolveSteps = 4000
+	maxFlat       = 10    // accepted steps in a row that do not lower the merit
+	flatGain      = 1e-8  // by more than this fraction
+	tolBalance    = 1e-12 // balance residual relative to the row's scale
+	tolStalled    = 1e-10 // accepted when the line search can do no better
+	tolLog        = 1e-10 // saturation and gas residuals (natural-log units)
+	armijo        = 1e-4
+	maxBacktrak   = 50
+	maxExtend     = 256  // longest extrapolated step, in Newton steps
+	stepGrow      = 2.0  // a species may rise this much (ln units) above the totals' scale per step
+	stepFall      = 30.0 // the main carrier of a balance may fall this much (ln units) per step
 )
 
 // linearMode selects how solveLinear solves the Newton equations.
@@ -334,7 +340,12 @@ func (s *system) newton(pt *point, w *newtonWork, tr *trace) error {
 		s.residual(pt, w.pures, w.f[:d], w.sc[:d])
 		phi := merit(w.f[:d], w.fix)
 		if converged(w.f[:d], w.sc[:d], q) {
-			if s.updateGamma(pt) {
+			// A fresh activity coefficient is worth another pass, but
+			// not endlessly: a coefficient that keeps moving by a hair
+			// at every pass (the ionic strength of a strong caustic
+			// with a trace of aluminate) made this loop run for ever.
+			// The outer loop of solveGamma settles what is left.
+			if it < maxNewton && s.updateGamma(pt) {
 				nearby = true
 				continue
 			}
@@ -344,6 +355,9 @@ func (s *system) newton(pt *point, w *newtonWork, tr *trace) error {
 		if it == maxNewton {
 			tr.dump(s, pt, w.f[:d], w.sc[:d])
 			return fmt.Errorf("%d Newton iterations (merit %.3g)", maxNewton, phi)
+		}
+		if w.iter >= maxSolveSteps {
+			return fmt.Errorf("%d Newton steps in one solve without settling: %w", maxSolveSteps, ErrNoConvergence)
 		}
 		s.jacobian(pt, w, d)
 		if err := solveLinear(w, d, luOrSVD); err != nil {
