@@ -246,6 +246,11 @@ var strongOxidizers = []strongOxidizer{
 	// dry to the same.
 	{name: "Chlorate", reagent: "ClO3-", species: []string{"ClO3-", "HClO3"}, solids: []string{"NaClO3", "KClO3"},
 		electrons: 6, solution: 1, organic: OrganicLiquidMolar, landsNeat: true, slow: true},
+	// Sodium chlorite soaks into organic matter that burns fiercely once
+	// dry, and with acid gives chlorine dioxide (Bretherick's Handbook,
+	// sodium chlorite, from memory).
+	{name: "Chlorite", reagent: "ClO2-", species: []string{"ClO2-", "HClO2"}, solids: []string{"NaClO2"},
+		electrons: 4, solution: 1, organic: OrganicLiquidMolar, landsNeat: true, slow: true},
 	{name: "Bromate", reagent: "BrO3-", species: []string{"BrO3-"}, solids: []string{"NaBrO3", "KBrO3"},
 		electrons: 6, organic: OrganicLiquidMolar, slow: true},
 	{name: "Perchlorate", reagent: "ClO4-", species: []string{"ClO4-"}, solids: []string{"NaClO4", "KClO4", "NH4ClO4"},
@@ -303,8 +308,8 @@ func oxidizerOrganic(o *Outcome) (engine.Hazard, bool) {
 		}
 		return withHeat(mk("oxidizer-organic-fire", sev,
 			x.name+" with an organic liquid ("+fmtNum(org, 2)+" mol/L of alcohol, solvent, glycol, amine or glycerol): "+what+" ("+heat+" from Thornton's rule).",
-			"Do not combine. Keep strong oxidizers (permanganate, chromic acid, hypochlorite and chlorinating granules, chlorates, bromates, perchlorates, nitrates, persulfates, peroxides) away from solvents, alcohols, amines and glycerol; dispose of each separately.",
-			"Bretherick's Handbook of Reactive Chemical Hazards, potassium permanganate with glycerol, chromium trioxide with ethanol, calcium hypochlorite with alcohols, sodium chlorate with organic matter, nitrates and perchlorates with organic materials, sodium peroxide with organic matter (from memory); heat by Thornton's rule, 418 kJ per mol O2 (from memory); thresholds: common practice, no source"), rh), true
+			"Do not combine. Keep strong oxidizers (permanganate, chromic acid, hypochlorite and chlorinating granules, chlorates, chlorites, bromates, perchlorates, nitrates, persulfates, peroxides) away from solvents, alcohols, amines and glycerol; dispose of each separately.",
+			"Bretherick's Handbook of Reactive Chemical Hazards, potassium permanganate with glycerol, chromium trioxide with ethanol, calcium hypochlorite with alcohols, sodium chlorate and sodium chlorite with organic matter, nitrates and perchlorates with organic materials, sodium peroxide with organic matter (from memory); heat by Thornton's rule, 418 kJ per mol O2 (from memory); thresholds: common practice, no source"), rh), true
 	}
 	return engine.Hazard{}, false
 }
