@@ -16,7 +16,7 @@ import (
 var familyRules = []func(o *Outcome) (engine.Hazard, bool){
 	chloroAmines, nitrateEsters, nitricOrganic, hydrazineNitric, hydroxylamineMetalSalts, dampDithionite, ammoniumNitrite, permanganateSulfuric, volatileAcid,
 	solidHypochlorite, magnesiumWater, cyanideOxidation, halideSulfuric, chlorateSulfuric, hotElectrolessNickel, nitricMetalFumes,
-	chlorateSulfite,
+	chlorateSulfite, hydrazineOxidizer,
 	// organic, azide and solid-chlorinator families (organic.go)
 	organicPeroxides, perchlorateEsters, peracidAlkali, oxidizerOrganic, bisChloromethylEther,
 	cannizzaro, hexamine, formaldehydeHypochlorite, haloform, heavyMetalAzide, mixedChlorinators,
@@ -202,6 +202,34 @@ func metalSaltMolar(xs []Amount, volL float64, els ...string) float64 {
 	}
 	return t
 }
+
+// hydrazineOxidizer: concentrated hydrazine meeting a strong oxidizing
+// agent (hypochlorite, peroxide, permanganate, chromic acid, chlorate) reacts
+// violently, to the boil, and what is not yet oxidized comes off the hot
+// liquid as hydrazine vapour (NIOSH: carcinogen, IDLH 50 ppm); hypochlorite
+// also gives chloramines. Hydrazine is destroyed on purpose only dilute,
+// the oxidizer dosed slowly. Judged on what the streams bring together,
+// from hydrazineOxidizerMolar hydrazine and oxidizerMolar oxidizer.
+func hydrazineOxidizer(o *Outcome) (engine.Hazard, bool) {
+	hz := o.MolarBefore("N2H4", "N2H5+", "N2H6^2+")
+	ox := o.MolarBefore("OCl-", "HOCl", "H2O2", "HO2-", "MnO4-", "HCrO4-", "CrO4^2-", "H2CrO4", "ClO3-")
+	ox += 2 * o.MolarBefore("Cr2O7^2-")
+	if hz < hydrazineOxidizerMolar || ox < oxidizerMolar {
+		return engine.Hazard{}, false
+	}
+	return mk("hydrazine-oxidizer", engine.Danger,
+		"Concentrated hydrazine ("+fmtNum(hz, 2)+" mol/L in the mix) meets a strong oxidizing agent ("+fmtNum(ox, 2)+" mol/L): the reaction is violent and boils where they meet, and the hot liquid gives off hydrazine vapour (a carcinogen, NIOSH IDLH 50 ppm) and, with hypochlorite, chloramines.",
+		"Do not combine concentrates. Destroy hydrazine only dilute (below about 5 %, 1.5 mol/L), dosing the oxidizer slowly with cooling and extraction; keep hydrazine drums away from oxidizers.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, hydrazine: oxidants (from memory); NIOSH Pocket Guide, hydrazine, IDLH 50 ppm (from memory); thresholds 1 mol/L hydrazine and 0.3 mol/L oxidizer: common practice, no source"), true
+}
+
+// hydrazineOxidizerMolar and oxidizerMolar: hydrazine (about 3 %) and the
+// oxidizing agent, mol/L in the mix, from which hydrazineOxidizer counts; a
+// boiler-water dose (hundreds of ppm) stays far below.
+const (
+	hydrazineOxidizerMolar = 1.0
+	oxidizerMolar          = 0.3
+)
 
 // DithioniteSolubility is the solubility of sodium dithionite, about
 // 182 g per litre of water at 20 °C (CRC Handbook, Physical Constants of
