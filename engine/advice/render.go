@@ -2,6 +2,7 @@ package advice
 
 import (
 	"fmt"
+	"math"
 	"strconv"
 	"strings"
 
@@ -388,6 +389,10 @@ func hazardNum(x float64) string {
 	s := fmt.Sprintf("%.3g", x)
 	if strings.ContainsAny(s, "e") {
 		s = fmt.Sprintf("%.0f", x)
+		if a := math.Abs(x); a > 0 && a < 1 {
+			// A trace keeps three significant digits: 0.0000125, not 0.
+			s = fmt.Sprintf("%.*f", 2-int(math.Floor(math.Log10(a))), x)
+		}
 	}
 	return s
 }

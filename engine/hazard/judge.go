@@ -27,6 +27,7 @@ var gasCodes = map[string]string{
 	"H2": "hydrogen-release", "O2": "oxygen-release", "NOCl": "nocl-release",
 	// organic and azide families
 	"CO": "co-release", "HN3": "hn3-release",
+	"HF": "hf-release", "HCl": "hcl-release",
 }
 
 // gasActions is what to do, by gas, for a danger and for a warning.
@@ -41,6 +42,8 @@ var gasActions = map[string][2]string{
 	"NO2":  {"Do not combine outside a fume extraction; anyone exposed sees a doctor (lung damage shows hours later).", "Work only with extraction."},
 	"NO":   {"Do not combine outside a fume extraction (it turns to brown nitrogen dioxide in air).", "Work only with extraction."},
 	"Br2":  {"Do not combine. Work only with extraction, goggles and gloves.", "Work only with extraction, goggles and gloves."},
+	"HCl":  {"Do not combine outside a fume extraction; hydrochloric acid fumes burn eyes and lungs.", "Work with extraction running and the tank covered: the acid fumes."},
+	"HF":   {"Do not combine outside a fume extraction; HF-rated gloves, face shield and calcium gluconate gel at hand; anyone exposed sees a doctor.", "Work only with extraction; HF-rated gloves and face shield, calcium gluconate gel at hand."},
 	"NOCl": {"Make aqua regia only in a fume cupboard or under extraction, in small amounts, fresh; never store it in a closed container (the gas bursts it).", "Work only with extraction; never close the container."},
 	"CNCl": {"Do not combine below pH 10. For cyanide destruction raise the pH to 10.5 or more before any hypochlorite goes in.", "Raise the pH to 10.5 before dosing hypochlorite."},
 	"H2":   {"Do not combine in a closed vessel. Vent the headspace, keep sparks and hot work away.", "Vent the headspace and keep sparks and hot work away."},
@@ -206,7 +209,13 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 	// Carbon dioxide from neutralising carbonate is a foaming and
 	// confined-space hazard to ventilate, not a reason never to neutralise
 	// (common practice, no source): a warning at most, like oxygen.
-	if ratio >= DangerRatio && g.LimitName != "O2" && g.Formula != "CO2" && !smallPuff(o, g, hs, ratio) {
+	// Hydrogen chloride and hydrogen fluoride over a mix of their acids
+	// at equilibrium are the acid's own fumes (warm or strong acid smokes):
+	// extraction, not a refusal. When a reaction drives them out (strong
+	// sulfuric acid on chloride, acid on fluoride) the acid-fumes and
+	// hydrofluoric families judge it, by amount.
+	acidFume := (g.Formula == "HCl" || g.Formula == "HF") && p != nil && len(p.origins) == 1 && p.origins[0] == "the mix at equilibrium"
+	if ratio >= DangerRatio && g.LimitName != "O2" && g.Formula != "CO2" && !acidFume && !smallPuff(o, g, hs, ratio) {
 		sev, act = engine.Danger, gasActions[g.Formula][0]
 	}
 	if g.Formula == "HCN" && sev == engine.Danger && cyanideMakeUp(o) {

@@ -1,0 +1,53 @@
+package advice_test
+
+import (
+	"strings"
+	"testing"
+
+	"mixward/engine"
+	"mixward/engine/advice"
+)
+
+// TestReview10Pours checks pours from a plant chemist's tenth review:
+//   - sodium chlorite with an organic liquid is a strong oxidizer with fuel,
+//     as chlorate is (Bretherick's Handbook, sodium chlorite, from memory);
+//     chlorite dosed into water is no concern;
+//   - concentrated hydrazine with hypochlorite reacts violently and the hot
+//     mix gives off hydrazine (Bretherick's Handbook, hydrazine: oxidants;
+//     NIOSH Pocket Guide, hydrazine IDLH 50 ppm; from memory); a boiler-water
+//     dose of hydrazine with a little bleach is no concern;
+//   - hydrofluoric and hydrochloric acid fumes over the mix are judged
+//     against their IDLH (30 and 50 ppm, NIOSH Pocket Guide, from memory):
+//     named in "Forms" and never no-concern above the limit, but as the
+//     acid's own fumes a warning, not a refusal;
+//   - a solve that ran for ever (aluminium in strong potassium hydroxide)
+//     answers.
+func TestReview10Pours(t *testing.T) {
+	a := mustAdvisor(t)
+	cases := []struct {
+		req   string
+		level engine.Level
+		code  string
+		forms string // a fragment of the short answer's Forms line
+	}{
+		{"mix 50 L NaClO2 25 % + 5 L methanol", engine.DoNotMix, "oxidizer-organic-fire", ""},
+		{"mix 1000 L water + 2 L NaClO2 25 %", engine.NoConcern, "", ""},
+		{"mix 100 L hydrazine 35 % + 50 L NaOCl 12.5 %", engine.DoNotMix, "hydrazine-oxidizer", ""},
+		{"mix 1000 L N2H4 200 ppm + 1 L NaOCl 12.5 %", engine.NoConcern, "", ""},
+		{"mix 500 L water + 10 L HF 48 %", engine.WithPrecautions, "hf-release", "Forms: HF "},
+		{"mix 5 kg Cu + 100 L HCl 32 %", engine.WithPrecautions, "hcl-release", "Forms: HCl "},
+		{"mix 100 L KOH 20 % + 5 kg Al", engine.DoNotMix, "hydrogen-release", "Forms: H2 "},
+	}
+	for _, c := range cases {
+		r := ask(t, a, c.req)
+		if r.Decision.Level != c.level {
+			t.Errorf("%s: %s %q, want %s", c.req, r.Decision.Level, r.Decision.Title, c.level)
+		}
+		if c.code != "" && !hasCode(r, c.code) {
+			t.Errorf("%s: no %s hazard", c.req, c.code)
+		}
+		if c.forms != "" && !strings.Contains(advice.RenderShort(r), c.forms) {
+			t.Errorf("%s: short answer lacks %q:\n%s", c.req, c.forms, advice.RenderShort(r))
+		}
+	}
+}
