@@ -316,12 +316,16 @@ func (p *parser) tagError(tag *token, text string, err error) error {
 	}
 }
 
+// stopWord: a word that ends a chemical's name: the conditions, a pH, or a
+// word that separates streams ("and", "with", "into").
+func stopWord(tk *token) bool { return isWord(tk, "at", "ph", "and", "with", "into") }
+
 // nameWords are the words from the current token that may name a chemical.
 func (p *parser) nameWords() []*token {
 	var words []*token
 	for j := p.i; j < len(p.toks); j++ {
 		tk := &p.toks[j]
-		if tk.kind != tWord || isWord(tk, "at", "ph", "and", "with") {
+		if tk.kind != tWord || stopWord(tk) {
 			break
 		}
 		words = append(words, tk)
@@ -350,7 +354,7 @@ func (p *parser) component() (Component, error) {
 		if tk := p.peek(); tk != nil && tk.kind == tNumber {
 			p.i++
 			return c, p.concUnit(&c, tk)
-		} else if tk != nil && tk.kind == tWord && !isWord(tk, "at", "ph", "and", "with") {
+		} else if tk != nil && tk.kind == tWord && !stopWord(tk) {
 			return c, p.errAt(tk, "unknown-word",
 				"%q does not belong after %s; give a concentration (\"%s 10 %%\") or separate components with \",\"", tk.text, name, name)
 		}

@@ -501,6 +501,8 @@ func TestOperatorVerbs(t *testing.T) {
 	for _, text := range []string{
 		"combine 50 L NaOH 15 % with 2 kg Al",
 		"pour 10 L HCl 10 % into 100 L water",
+		"pour 40 L water into 200 L H2SO4 98 %", // a bare name before "into"
+		"pour 5 kg NaCl into 100 L water",
 		"mix 50 L NH4OH 28 % + 50 L NaOCl 12.5 %",
 	} {
 		req, err := engine.Parse(text, tb, engine.AskOptions{})
