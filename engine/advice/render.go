@@ -301,6 +301,10 @@ func reactionLine(r *engine.Result) string {
 		return "Redox: no redox reaction runs at these conditions (what is held back is in the details)"
 	case r.Reaction == nil:
 		return "Redox: no oxidizing and reducing agent pair"
+	case r.Verdict == engine.Spontaneous && r.Decision != nil && held(r.Decision.Held, r.Reaction.Text) && formsGas(r) && r.ECell != nil:
+		// The change runs and its gas is counted; a lock only stops it
+		// part of the way (the metal left once the acid is spent).
+		return fmt.Sprintf("Redox: %s (spontaneous, E cell %+.2f V; runs until a kinetic limit stops it, see the details)", r.Reaction.Text, *r.ECell)
 	case r.Verdict == engine.Spontaneous && r.Decision != nil && held(r.Decision.Held, r.Reaction.Text):
 		return "Redox: " + r.Reaction.Text + " possible on paper, held back (not counted; see the details)"
 	case r.Verdict == engine.Spontaneous && r.ECell != nil:

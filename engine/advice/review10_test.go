@@ -51,3 +51,16 @@ func TestReview10Pours(t *testing.T) {
 		}
 	}
 }
+
+// TestRedoxLineAgreesWithForms: a change whose gas the answer counts is not
+// printed as held back and not counted, although a lock stops it part of
+// the way (aluminium left once the acid is spent: an eleventh review).
+func TestRedoxLineAgreesWithForms(t *testing.T) {
+	a := mustAdvisor(t)
+	for _, req := range []string{"mix 10 kg Al + 200 L HCl 15 %", "mix 50 L NaOCl 12.5 % + 50 L FeCl3 40 %"} {
+		short := advice.RenderShort(ask(t, a, req))
+		if strings.Contains(short, "held back (not counted") || !strings.Contains(short, "(spontaneous, E cell") {
+			t.Errorf("%s: the Redox line disagrees with the gas counted:\n%s", req, short)
+		}
+	}
+}
