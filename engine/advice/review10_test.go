@@ -64,3 +64,22 @@ func TestRedoxLineAgreesWithForms(t *testing.T) {
 		}
 	}
 }
+
+// TestGasDrivenOffByTheBoil: strong ammonia (1336 mol in 100 L of 25 %)
+// half neutralised by 60 % nitric acid (652 mol) reaches about 99 °C by its
+// own heat, and the free ammonia (about 680 mol) boils off with the steam
+// (NBS Tables 1982 neutralisation and dilution heats; common practice, no
+// source), not the 0.75 mol its equilibrium at the starting temperature
+// gives a closed headspace.
+func TestGasDrivenOffByTheBoil(t *testing.T) {
+	r := ask(t, mustAdvisor(t), "mix 100 L ammonia 25 % + 50 L HNO3 60 %")
+	nh3 := 0.0
+	for _, h := range r.Hazards {
+		if h.Code == "ammonia-release" && h.Gas != nil {
+			nh3 = h.Gas.Mol
+		}
+	}
+	if r.Decision.Level != engine.DoNotMix || nh3 < 500 || nh3 > 800 {
+		t.Errorf("ammonia neutralised to the boil: %s, NH3 %.1f mol; want do-not-mix and about 680 mol driven off", r.Decision.Level, nh3)
+	}
+}

@@ -122,6 +122,13 @@ func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 			// The mixed state has this gas: its numbers, not an estimate.
 			p = &pool{mol: m.Mol, molecular: 1, origins: []string{"the mix at equilibrium"}}
 			hs = Headspace{PPM: math.Min(m.PPM, 1e6), Vents: m.PPM >= 1e6}
+			if boilsOff(o) && g.LimitName != "LFL" && g.LimitName != "O2" && m.Dissolved > m.Mol {
+				// A mix its own heat takes to the boil drives the
+				// dissolved gas out with the steam: the equilibrium
+				// figure at the starting temperature is no bound.
+				p = &pool{mol: m.Mol + m.Dissolved, molecular: 1, origins: []string{"the mix, driven off as its own heat takes it to the boil"}}
+				hs = Headspace{PPM: 1e6, Vents: true}
+			}
 		} else {
 			hs = Share(p.mol, p.molecular, g.KH, o.VolumeL, o.HeadspaceL, o.TemperatureK(), o.PressureKPa)
 		}
@@ -199,6 +206,17 @@ const BicarbonatePH = 8.0
 func roomPPM(o *Outcome, mol float64) float64 {
 	l := mol * litreBarPerMolK() * o.TemperatureK() / (o.PressureKPa / 100)
 	return l / (RoomM3 * 1000) * 1e6
+}
+
+// boilOffC is the temperature, reached by the mix's own heat, from which a
+// dissolved toxic gas is taken as driven off with the steam: near the
+// boiling point of the liquid (common practice, no source: strong ammonia
+// neutralised with strong acid fumes ammonia as it boils).
+const boilOffC = 95.0
+
+// boilsOff: the mix's own heat takes it to boilOffC or the boil.
+func boilsOff(o *Outcome) bool {
+	return o.Heat.Known && o.Heat.RiseC > 0 && (o.Heat.Boils || o.Heat.ReachedC >= boilOffC)
 }
 
 func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) engine.Hazard {
