@@ -112,6 +112,15 @@ func termKey(t EqTerm) (key, text string) {
 // missing lists (sorted) the species without a row in h; when it is not
 // empty the enthalpy is meaningless and must not be shown.
 func ReactionEnthalpy(r *Reaction, h map[string]Enthalpy) (kJPerMol float64, missing []string) {
+	return reactionEnthalpyBy(r, func(key, _ string) (float64, bool) {
+		e, ok := h[key]
+		return e.DeltaHf, ok
+	})
+}
+
+// reactionEnthalpyBy is ReactionEnthalpy with ΔHf° looked up by
+// dfh(Species.Key, text).
+func reactionEnthalpyBy(r *Reaction, dfh func(key, text string) (float64, bool)) (kJPerMol float64, missing []string) {
 	if r == nil {
 		return 0, nil
 	}
@@ -119,7 +128,7 @@ func ReactionEnthalpy(r *Reaction, h map[string]Enthalpy) (kJPerMol float64, mis
 	add := func(terms []EqTerm, sign float64) {
 		for _, t := range terms {
 			key, text := termKey(t)
-			e, ok := h[key]
+			v, ok := dfh(key, text)
 			if !ok {
 				if !seen[text] {
 					seen[text] = true
@@ -127,7 +136,7 @@ func ReactionEnthalpy(r *Reaction, h map[string]Enthalpy) (kJPerMol float64, mis
 				}
 				continue
 			}
-			kJPerMol += sign * float64(t.Coef) * e.DeltaHf
+			kJPerMol += sign * float64(t.Coef) * v
 		}
 	}
 	add(r.Products, 1)

@@ -67,45 +67,26 @@ func (m *mixture) solutionHeat(t *Tables) (kJ float64, leftOut []string) {
 			leftOut = append(leftOut, d.chem.Formula)
 			continue
 		}
-		dh, missing := ReactionEnthalpy(rx, t.Enthalpies)
-		for _, text := range missing {
-			// Only a solid's ions are taken from the species data: a neat
-			// liquid (ethanol) mixes with water with a heat that depends
-			// on the ratio, which infinite dilution overstates many times
-			// where the liquid is the bulk.
-			sp, ok := t.Thermo.Get(text)
-			if d.phase != Solid || !ok || !sp.HasDfH {
-				leftOut = append(leftOut, d.chem.Formula)
-				dh = math.NaN()
-				break
+		// Only a solid's ions are taken from the species data where
+		// enthalpies.txt lacks them: a neat liquid (ethanol) mixes with
+		// water with a heat that depends on the ratio, which infinite
+		// dilution overstates many times where the liquid is the bulk.
+		dh, missing := reactionEnthalpyBy(rx, func(key, text string) (float64, bool) {
+			if e, ok := t.Enthalpies[key]; ok {
+				return e.DeltaHf, true
 			}
-			dh += termSign(rx, text) * termCoef(rx, text) * sp.DfH
+			if sp, ok := t.Thermo.Get(text); ok && sp.HasDfH && d.phase == Solid {
+				return sp.DfH, true
+			}
+			return 0, false
+		})
+		if len(missing) > 0 {
+			leftOut = append(leftOut, d.chem.Formula)
+			continue
 		}
-		if !math.IsNaN(dh) {
-			kJ += -dh * d.mol
-		}
+		kJ += -dh * d.mol
 	}
 	return kJ, leftOut
-}
-
-// termSign is +1 for a product of r written as text, −1 for a reactant.
-func termSign(r *Reaction, text string) float64 {
-	for _, p := range r.Products {
-		if _, tx := termKey(p); tx == text {
-			return 1
-		}
-	}
-	return -1
-}
-
-// termCoef is the coefficient of the term of r written as text.
-func termCoef(r *Reaction, text string) float64 {
-	for _, p := range append(append([]EqTerm{}, r.Products...), r.Reactants...) {
-		if _, tx := termKey(p); tx == text {
-			return float64(p.Coef)
-		}
-	}
-	return 0
 }
 
 // dissolution writes "NaOH(s) → Na+ + OH-" for a dissolving reagent, with

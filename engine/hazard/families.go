@@ -209,12 +209,12 @@ func metalSaltMolar(xs []Amount, volL float64, els ...string) float64 {
 // liquid as hydrazine vapour (NIOSH: carcinogen, IDLH 50 ppm); hypochlorite
 // also gives chloramines. Hydrazine is destroyed on purpose only dilute,
 // the oxidizer dosed slowly. Judged on what the streams bring together,
-// from hydrazineOxidizerMolar hydrazine and oxidizerMolar oxidizer.
+// from hydrazineOxidizerMolar hydrazine and hydrazineOxidantMolar oxidizer.
 func hydrazineOxidizer(o *Outcome) (engine.Hazard, bool) {
 	hz := o.MolarBefore("N2H4", "N2H5+", "N2H6^2+")
 	ox := o.MolarBefore("OCl-", "HOCl", "H2O2", "HO2-", "MnO4-", "HCrO4-", "CrO4^2-", "H2CrO4", "ClO3-")
 	ox += 2 * o.MolarBefore("Cr2O7^2-")
-	if hz < hydrazineOxidizerMolar || ox < oxidizerMolar {
+	if hz < hydrazineOxidizerMolar || ox < hydrazineOxidantMolar {
 		return engine.Hazard{}, false
 	}
 	return mk("hydrazine-oxidizer", engine.Danger,
@@ -223,12 +223,12 @@ func hydrazineOxidizer(o *Outcome) (engine.Hazard, bool) {
 		"Bretherick's Handbook of Reactive Chemical Hazards, hydrazine: oxidants (from memory); NIOSH Pocket Guide, hydrazine, IDLH 50 ppm (from memory); thresholds 1 mol/L hydrazine and 0.3 mol/L oxidizer: common practice, no source"), true
 }
 
-// hydrazineOxidizerMolar and oxidizerMolar: hydrazine (about 3 %) and the
+// hydrazineOxidizerMolar and hydrazineOxidantMolar: hydrazine (about 3 %) and the
 // oxidizing agent, mol/L in the mix, from which hydrazineOxidizer counts; a
 // boiler-water dose (hundreds of ppm) stays far below.
 const (
 	hydrazineOxidizerMolar = 1.0
-	oxidizerMolar          = 0.3
+	hydrazineOxidantMolar  = 0.3
 )
 
 // DithioniteSolubility is the solubility of sodium dithionite, about

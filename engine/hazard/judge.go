@@ -120,7 +120,7 @@ func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 		var hs Headspace
 		if m, ok := o.Measured[f]; ok && !(p.beyond > m.Mol) {
 			// The mixed state has this gas: its numbers, not an estimate.
-			p = &pool{mol: m.Mol, molecular: 1, origins: []string{"the mix at equilibrium"}}
+			p = &pool{mol: m.Mol, molecular: 1, origins: []string{"the mix at equilibrium"}, equilibrium: true}
 			hs = Headspace{PPM: math.Min(m.PPM, 1e6), Vents: m.PPM >= 1e6}
 			if boilsOff(o) && g.LimitName != "LFL" && g.LimitName != "O2" && m.Dissolved > m.Mol {
 				// A mix its own heat takes to the boil drives the
@@ -232,7 +232,7 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 	// extraction, not a refusal. When a reaction drives them out (strong
 	// sulfuric acid on chloride, acid on fluoride) the acid-fumes and
 	// hydrofluoric families judge it, by amount.
-	acidFume := (g.Formula == "HCl" || g.Formula == "HF") && p != nil && len(p.origins) == 1 && p.origins[0] == "the mix at equilibrium"
+	acidFume := (g.Formula == "HCl" || g.Formula == "HF") && p != nil && p.equilibrium
 	if ratio >= DangerRatio && g.LimitName != "O2" && g.Formula != "CO2" && !acidFume && !smallPuff(o, g, hs, ratio) {
 		sev, act = engine.Danger, gasActions[g.Formula][0]
 	}

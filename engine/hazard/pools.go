@@ -27,7 +27,10 @@ type pool struct {
 	outside    string  // the origin of the largest amount added beyond the state
 	outsideMol float64 // and that amount
 	origins    []string
-	sources    []string
+	// equilibrium: the amount is the mixed state's own figure for the gas
+	// at equilibrium (no reaction outside the state, no boil-off).
+	equilibrium bool
+	sources     []string
 }
 
 // pools works out, for each gas of the table, what in the mix can become
