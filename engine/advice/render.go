@@ -3,6 +3,7 @@ package advice
 import (
 	"fmt"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -125,6 +126,9 @@ func formsLine(r *engine.Result) string {
 		}
 		if len(parts) > 0 {
 			return "Forms: " + strings.Join(parts, "; ") + " (no gas of concern in the headspace)"
+		}
+		if slices.ContainsFunc(r.Hazards, func(h engine.Hazard) bool { return h.Code == "slow-hydrogen" }) {
+			return "Forms: hydrogen, slowly over hours (not counted: no amount at once)"
 		}
 		return "Forms: no gas of concern"
 	}

@@ -130,15 +130,26 @@ func TestSlowMetalsInAcid(t *testing.T) {
 		"mix 100 L H2SO4 10 % + 5 kg Ni",
 		"mix 100 L HCl 10 % + 5 kg Co",
 		"mix 100 L HCl 10 % + 5 kg Sn",
-		"mix 100 L H2SO4 10 % + 5 kg Pb",
+		"mix 100 L HCl 10 % + 5 kg Pb",
 	} {
 		r := ask(t, a, req)
 		if r.Decision.Level != engine.WithPrecautions || !strings.Contains(strings.Join(hazardCodes(r), " "), "slow-hydrogen") {
 			t.Errorf("%s: %s %q %v, want with-precautions, slow-hydrogen", req, r.Decision.Level, r.Decision.Title, hazardCodes(r))
 		}
+		// The Forms line names the slow hydrogen the hazard warns of
+		// (review 11, N04), not "no gas of concern".
+		if got := formsOf(t, r); !strings.Contains(got, "Forms: hydrogen, slowly") {
+			t.Errorf("%s: %s, want Forms naming the slow hydrogen", req, got)
+		}
 		if !strings.Contains(strings.Join(r.Decision.Actions, "\n"), "closed vessel") {
 			t.Errorf("%s: actions %q, want no closed vessel", req, r.Decision.Actions)
 		}
+	}
+	// Lead in sulfuric acid is held by its sulfate film: lead-lined tanks
+	// carry sulfuric acid (common practice, no source; Vogel's Textbook,
+	// lead with dilute sulfuric acid, from memory; review 11, N03).
+	if r := ask(t, a, "mix 100 L H2SO4 10 % + 5 kg Pb"); strings.Contains(strings.Join(hazardCodes(r), " "), "slow-hydrogen") {
+		t.Errorf("lead in sulfuric acid: %v, want no slow hydrogen", hazardCodes(r))
 	}
 	for _, req := range []string{
 		"mix 100 L HCl 10 % + 5 kg Fe",

@@ -400,10 +400,17 @@ func magnesiumWater(o *Outcome) (engine.Hazard, bool) {
 var slowMetals = []struct{ formula, name string }{{"Ni", "nickel"}, {"Co", "cobalt"}, {"Sn", "tin"}, {"Pb", "lead"}}
 
 // slowMetalNames names the slow metals brought as metal ("nickel", "tin
-// and lead"); empty when there are none.
+// and lead"); empty when there are none. Lead in sulfate is left out: its
+// lead sulfate film stops it (lead-lined tanks carry sulfuric acid;
+// Vogel's Textbook, lead with dilute sulfuric acid, from memory; common
+// practice, no source).
 func slowMetalNames(o *Outcome) string {
 	var names []string
+	sulfate := o.MolarBefore("SO4^2-", "HSO4-") >= TraceMolar
 	for _, m := range slowMetals {
+		if m.formula == "Pb" && sulfate {
+			continue // held by its sulfate film: lead linings carry sulfuric acid
+		}
 		for _, a := range o.Before {
 			if s := a.Species; s.Charge == 0 && s.Phase == engine.Solid && s.Formula == m.formula && a.Mol > 0 {
 				names = append(names, m.name)
