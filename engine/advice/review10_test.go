@@ -83,3 +83,54 @@ func TestGasDrivenOffByTheBoil(t *testing.T) {
 		t.Errorf("ammonia neutralised to the boil: %s, NH3 %.1f mol; want do-not-mix and about 680 mol driven off", r.Decision.Level, nh3)
 	}
 }
+
+// gasJudged is the mol and headspace ppm of the judged gas of a hazard.
+func gasJudged(r *engine.Result, code string) (mol, ppm float64) {
+	for _, h := range r.Hazards {
+		if h.Code == code && h.Gas != nil {
+			return h.Gas.Mol, h.Gas.HeadspacePPM
+		}
+	}
+	return 0, 0
+}
+
+// TestDrivenOffCountedOnce: with a stated headspace the closed headspace's
+// share is not counted twice. 50 L of 10 % sodium cyanide (about 102 mol at
+// 1.00 kg/L) boiled by 98 % sulfuric acid gives off at most its 102 mol of
+// HCN, about 2.5 m³, which is about 12 % of a 20 m³ headspace (ideal gas;
+// review 12, T26: 174 mol and 1,000,000 ppm before). Likewise ammonia.
+func TestDrivenOffCountedOnce(t *testing.T) {
+	a := mustAdvisor(t)
+	for _, tc := range []struct {
+		req, code            string
+		maxMol, ppmLo, ppmHi float64
+	}{
+		{"mix 50 L NaCN 10 % + 20 L H2SO4 98 % at headspace 20 m3", "hcn-release", 108, 9e4, 1.6e5},
+		{"mix 100 L ammonia 25 % + 50 L HNO3 60 % at headspace 20 m3", "ammonia-release", 700, 5e5, 1e6},
+	} {
+		r := ask(t, a, tc.req)
+		mol, ppm := gasJudged(r, tc.code)
+		if mol <= 0 || mol > tc.maxMol || ppm < tc.ppmLo || ppm > tc.ppmHi {
+			t.Errorf("%s: %s %.1f mol, %.0f ppm; want at most %.0f mol, %.0f–%.0f ppm", tc.req, tc.code, mol, ppm, tc.maxMol, tc.ppmLo, tc.ppmHi)
+		}
+	}
+}
+
+// TestGasAtTheTemperatureReached: 38 % bisulfite with 12.5 % hypochlorite
+// reaches about 86 °C by its own heat (about 201 mol × 321 kJ; NBS Tables
+// 1982, from memory). At 86 °C the Henry constant of sulfur dioxide is about
+// 0.21 mol/(L·bar) (1.3 at 25 °C, Sander 2015, moved by van 't Hoff with
+// ΔsolH −26.2 kJ/mol from NBS 1982 ΔfH° of SO2(g) and H2SO3): 200 L hold
+// about 43 mol at 1 bar, so about 120 of its 165 mol come off, not the
+// 5.65 mol of the 25 °C state (review 12, T20).
+func TestGasAtTheTemperatureReached(t *testing.T) {
+	r := ask(t, mustAdvisor(t), "mix 100 L NaHSO3 38 % + 100 L NaOCl 12.5 %")
+	if mol, _ := gasJudged(r, "so2-release"); mol < 80 || mol > 170 {
+		t.Errorf("bisulfite with hypochlorite at about 86 °C: SO2 %.1f mol, want about 120 mol driven off", mol)
+	}
+	// A mix that warms by less than WarmedRiseC keeps its state's figure.
+	r = ask(t, mustAdvisor(t), "mix 100 L NaCN 5 % + 2 L HCl 32 %")
+	if mol, _ := gasJudged(r, "hcn-release"); mol > 5 {
+		t.Errorf("cyanide with a little acid, barely warmed: HCN %.2f mol, want the closed-headspace figure (under 5 mol)", mol)
+	}
+}

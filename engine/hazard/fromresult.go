@@ -106,7 +106,15 @@ func (o *Outcome) measured(r *engine.Result, t *engine.Tables) {
 	for _, g := range r.Gases {
 		f := strings.TrimSuffix(g.Text, "(g)")
 		if _, ok := o.Measured[f]; (ok || kineticGas[f]) && g.PartialKPa > 0 {
-			o.Measured[f] = MeasuredGas{Mol: g.Mol, PPM: g.HeadspacePPM, Dissolved: dissolvedAs(r.FinalComposition, f)}
+			dissolved, form, waters := dissolvedAs(r.FinalComposition, f)
+			if g.Kind == "headspace" {
+				// The closed headspace's share was taken out of the
+				// liquid after the state: the composition still holds it.
+				dissolved = g.LiquidMol
+			}
+			m := MeasuredGas{Mol: g.Mol, PPM: g.HeadspacePPM, Dissolved: dissolved}
+			m.SolHkJ, m.HasSolH = solutionEnthalpy(t, f, form, waters)
+			o.Measured[f] = m
 		}
 	}
 	// Dinitrogen tetroxide is nitrogen dioxide paired up (N2O4 ⇌ 2 NO2,
@@ -123,13 +131,14 @@ func (o *Outcome) measured(r *engine.Result, t *engine.Tables) {
 
 // dissolvedAs is the mol of a gas left dissolved as its neutral molecule:
 // the same formula in solution, or the formula with water (dissolved sulfur
-// and carbon dioxide are written H2SO3 and H2CO3 in the NBS tables).
-func dissolvedAs(comp []engine.AmountOf, gas string) float64 {
+// and carbon dioxide are written H2SO3 and H2CO3 in the NBS tables). It
+// also returns the text of the largest such form and its waters added.
+func dissolvedAs(comp []engine.AmountOf, gas string) (n float64, form string, waters int) {
 	ga, err := engine.ParseFormula(gas)
 	if err != nil {
-		return 0
+		return 0, "", 0
 	}
-	n := 0.0
+	most := 0.0
 	for _, a := range comp {
 		if a.Phase != engine.Aqueous && a.Phase != "" || strings.ContainsAny(a.Text, "+-^") {
 			continue
@@ -152,9 +161,25 @@ func dissolvedAs(comp []engine.AmountOf, gas string) float64 {
 		}
 		if same {
 			n += a.Mol
+			if a.Mol > most {
+				most, form, waters = a.Mol, a.Text, w
+			}
 		}
 	}
-	return n
+	return n, form, waters
+}
+
+// solutionEnthalpy is ΔH of dissolving the gas as its dissolved form (with
+// its waters, H2O(l) taken up), from the species data: negative, as gases
+// dissolve with heat given off. False when either ΔfH° is missing.
+func solutionEnthalpy(t *engine.Tables, gas, form string, waters int) (float64, bool) {
+	g, ok1 := t.Thermo.Get(gas + "(g)")
+	d, ok2 := t.Thermo.Get(form)
+	w, ok3 := t.Thermo.Get("H2O")
+	if !ok1 || !ok2 || !ok3 || !g.HasDfH || !d.HasDfH || !w.HasDfH || form == "" {
+		return 0, false
+	}
+	return d.DfH - g.DfH - float64(waters)*w.DfH, true
 }
 
 // reactions sorts the engine's reactions into those that proceed and those

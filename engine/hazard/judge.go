@@ -122,12 +122,17 @@ func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 			// The mixed state has this gas: its numbers, not an estimate.
 			p = &pool{mol: m.Mol, molecular: 1, origins: []string{"the mix at equilibrium"}, equilibrium: true}
 			hs = Headspace{PPM: math.Min(m.PPM, 1e6), Vents: m.PPM >= 1e6}
-			if boilsOff(o) && g.LimitName != "LFL" && g.LimitName != "O2" && m.Dissolved > m.Mol {
+			if boilsOff(o) && g.LimitName != "LFL" && g.LimitName != "O2" && m.Dissolved > 1e-3*m.Mol {
 				// A mix its own heat takes to the boil drives the
 				// dissolved gas out with the steam: the equilibrium
-				// figure at the starting temperature is no bound.
+				// figure at the starting temperature is no bound. All
+				// of it, given off and dissolved, goes into the
+				// headspace (filling it and venting when it is more).
 				p = &pool{mol: m.Mol + m.Dissolved, molecular: 1, origins: []string{"the mix, driven off as its own heat takes it to the boil"}}
-				hs = Headspace{PPM: 1e6, Vents: true}
+				ppm := p.mol * litreBarPerMolK() * o.TemperatureK() / (o.PressureKPa / 100) / o.HeadspaceL * 1e6
+				hs = Headspace{PPM: math.Min(ppm, 1e6), Vents: !(ppm < 1e6)}
+			} else if w, ok := warmedOff(o, g, m); ok {
+				p, hs = w.pool, w.hs
 			}
 		} else {
 			hs = Share(p.mol, p.molecular, g.KH, o.VolumeL, o.HeadspaceL, o.TemperatureK(), o.PressureKPa)
@@ -213,6 +218,46 @@ func roomPPM(o *Outcome, mol float64) float64 {
 // boiling point of the liquid (common practice, no source: strong ammonia
 // neutralised with strong acid fumes ammonia as it boils).
 const boilOffC = 95.0
+
+// WarmedRiseC is the rise, by the mix's own heat, from which a dissolved
+// gas is shared with the headspace at the temperature reached rather than
+// the starting one (common practice, no source: the state is solved at the
+// starting temperature; a 10 K rise already halves the Henry constant of
+// sulfur dioxide).
+const WarmedRiseC = 10.0
+
+type warmed struct {
+	pool *pool
+	hs   Headspace
+}
+
+// warmedOff shares a measured gas between the liquid and the headspace at
+// the temperature the mix's own heat takes it to, below boilOffC: the
+// Henry constant (Sander 2015, at 25 °C) moved by van 't Hoff with the
+// enthalpy of dissolving from the species data (assumed constant over the
+// range), the gas given off and dissolved shared anew. False when the mix
+// does not warm by WarmedRiseC, the gas is not a toxic one held in the
+// liquid, or the warm share gives off no more than the state.
+func warmedOff(o *Outcome, g *GasData, m MeasuredGas) (warmed, bool) {
+	if !o.Heat.Known || o.Heat.RiseC < WarmedRiseC || boilsOff(o) || !m.HasSolH || !(m.Dissolved > 0) ||
+		g.LimitName == "LFL" || g.LimitName == "O2" || !(g.KH > 0) {
+		return warmed{}, false
+	}
+	const tRef = 298.15
+	tK := o.Heat.ReachedC + 273.15
+	kH := g.KH * math.Exp(-m.SolHkJ*1000/engine.MolarGasConstant()*(1/tK-1/tRef))
+	total := m.Mol + m.Dissolved
+	hs := Share(total, 1, kH, o.VolumeL, o.HeadspaceL, tK, o.PressureKPa)
+	off := hs.GasMol
+	if hs.Vents {
+		off = math.Max(off, total-kH*o.VolumeL*o.PressureKPa/100)
+	}
+	if !(off > 1.5*m.Mol) {
+		return warmed{}, false
+	}
+	origin := "the mix, warmed to " + fmtNum(o.Heat.ReachedC, 2) + " °C by its own heat (Henry constant moved by van 't Hoff)"
+	return warmed{&pool{mol: off, molecular: 1, origins: []string{origin}}, hs}, true
+}
 
 // boilsOff: the mix's own heat takes it to boilOffC or the boil.
 func boilsOff(o *Outcome) bool {

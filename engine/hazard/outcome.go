@@ -121,6 +121,11 @@ type MeasuredGas struct {
 	Mol       float64 // given off, or held by the headspace when none is given off
 	PPM       float64 // equilibrium headspace concentration by volume
 	Dissolved float64 // mol of the molecule left dissolved in the liquid
+	// SolHkJ is the enthalpy of dissolving the gas (kJ/mol, negative),
+	// from the species data, when HasSolH: it moves the Henry constant
+	// to the temperature the mix's own heat takes it to.
+	SolHkJ  float64
+	HasSolH bool
 }
 
 // InTank is the outcome judged with the gas space of the tank it happens
