@@ -314,6 +314,17 @@ type GasJudged struct {
 	Outside     string `json:"outside_reaction,omitempty"`
 	LimitSource string `json:"limit_source"`
 	HenrySource string `json:"henry_source"`
+	// Method says where HeadspacePPM came from: "vapour table" (the
+	// partial pressure over a solution of the liquid's strength,
+	// data/vapour.txt) or "mixed state" (Henry's law or the mixed state's
+	// activities). StrengthPct is the % w/w of the gas's free solute in the
+	// liquid the vapour table was read at; VapourSource its rows' sources.
+	Method       string  `json:"figure_method,omitempty"`
+	StrengthPct  float64 `json:"strength_pct,omitempty"`
+	VapourSource string  `json:"vapour_source,omitempty"`
+	// LowerBound: the liquid is stronger than the vapour table's last row,
+	// whose figure HeadspacePPM then is: the real one is higher.
+	LowerBound bool `json:"lower_bound,omitempty"`
 }
 
 // HeatJudged is a heat hazard in numbers.

@@ -69,6 +69,7 @@ func FromResult(r *engine.Result, t *engine.Tables) *Outcome {
 	}
 	o.heatOf(r, headRuns)
 	o.measured(r, t)
+	o.strengths(r, t)
 	return o
 }
 
