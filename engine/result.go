@@ -325,6 +325,11 @@ type GasJudged struct {
 	// LowerBound: the liquid is stronger than the vapour table's last row,
 	// whose figure HeadspacePPM then is: the real one is higher.
 	LowerBound bool `json:"lower_bound,omitempty"`
+	// ClosedRiseBar, when the request states a headspace the gas
+	// overfills at the ambient pressure, is the pressure rise (bar above
+	// the ambient) the gas would give if the vessel were really closed:
+	// ideal gas at the mix's temperature, all of it as gas.
+	ClosedRiseBar float64 `json:"closed_rise_bar,omitempty"`
 }
 
 // HeatJudged is a heat hazard in numbers.

@@ -184,6 +184,21 @@ func fromVapourTable(o *Outcome, d *Data, gas string, p *pool, hs Headspace) (*p
 	return &q, vh
 }
 
+// closedRise is the pressure (bar above the ambient) the gas of p would
+// add to a stated headspace it overfills if the vessel were really closed:
+// ideal gas at the mix's temperature after its own heat, all of the amount
+// as gas (what dissolves is not taken off: the upper figure). Only for a
+// stated headspace and a gas the reactions give off, not the vapour of the
+// liquid itself, which closing caps at its vapour pressure.
+func closedRise(o *Outcome, p *pool) (bar, tempC float64, ok bool) {
+	if !o.HeadspaceStated || p == nil || p.vapour || !(o.HeadspaceL > 0) || !(p.mol > 0) {
+		return 0, 0, false
+	}
+	tempC = o.vapourTemperatureC()
+	bar = p.mol * litreBarPerMolK() * (tempC + 273.15) / o.HeadspaceL
+	return bar, tempC, bar > o.PressureKPa/100
+}
+
 // RespiratorRatio is the multiple of the limit from which the acid's own
 // fumes over an open tank call for respiratory protection, not only
 // extraction (common practice, no source).
@@ -299,8 +314,15 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 	}
 	msg := fmt.Sprintf("%s: %s mol (%s L as gas) can leave the liquid (%s). At equilibrium the headspace (%s, %s L) holds %s ppm, %s× %s.",
 		upperFirst(g.Name), fmtNum(p.mol, 3), fmtNum(litres, 3), strings.Join(p.origins, "; "), hsWhy, fmtNum(o.HeadspaceL, 4), fmtNum(hs.PPM, 3), fmtNum(ratio, 2), limit)
+	closedBar := 0.0
 	if hs.Vents {
 		msg += " It fills the headspace and the rest vents."
+		if bar, tC, ok := closedRise(o, p); ok {
+			closedBar = bar
+			msg += fmt.Sprintf(" If the vessel were really closed, the %s L of gas would raise the stated %s L headspace by about %s bar (ideal gas at the mix's %s °C, all of it as gas).",
+				fmtNum(p.mol*litreBarPerMolK()*(tC+273.15)/(o.PressureKPa/100), 3), fmtNum(o.HeadspaceL, 4), fmtNum(bar, 2), fmtNum(tC, 3))
+			act = fmt.Sprintf("Never close this vessel: the gas would raise it by about %s bar; keep it vented. %s", fmtNum(bar, 2), act)
+		}
 	}
 	msg += figureNote(p, g)
 	if g.Formula == "CO2" {
@@ -319,6 +341,9 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 	}
 	if p.beyond > 0 {
 		h.Gas.Outside = p.outside
+	}
+	if closedBar > 0 {
+		h.Gas.ClosedRiseBar = sigN(closedBar, 3)
 	}
 	if freeSolute[g.Formula] != nil {
 		h.Gas.Method = MethodState
