@@ -441,7 +441,16 @@ type Conditions struct {
 	// stated one, else the liquid volume (HeadspaceStated false).
 	HeadspaceL      float64 `json:"headspace_l"`
 	HeadspaceStated bool    `json:"headspace_stated"`
-	Medium          Medium  `json:"medium"` // acid or base: which table form applies
+	// Medium is the medium the half-reactions and the net equation are
+	// written in (acid or base: which table form applies): the mix's as
+	// combined, before any reaction, unless the change carries the mix more
+	// than a pH unit past neutral to the other side. Its meaning is kept;
+	// MediumFinal is the medium at PHFinal.
+	Medium Medium `json:"medium"`
+	// MediumFinal is the medium at the pH after every change (PHFinal):
+	// acid below neutral pH at the mix temperature, base at or above; empty
+	// when there is no equilibrium pH.
+	MediumFinal Medium `json:"medium_final,omitempty"`
 }
 
 // Allowance was a kinetic allowance of the earlier pair ranking. The field
