@@ -230,6 +230,9 @@ func (e *Engine) predict(asked *Request, full bool) (*Result, error) {
 	res.Conditions.PH = roundDec(mx.Combined.PH, 2)
 	res.Conditions.PHFinal = ptr(roundDec(mx.Final.PH, 2))
 	res.Conditions.Medium = Medium(explain.HeadlineMedium(e.Tables.Thermo, mx))
+	if !math.IsNaN(mx.Final.PH) {
+		res.Conditions.MediumFinal = Medium(explain.MediumAt(e.Tables.Thermo, mx.Final.PH, mx.TempK))
+	}
 	res.Species = speciesOut(mx, steps)
 	for _, st := range steps {
 		res.Steps = append(res.Steps, e.stepOut(mx, st))

@@ -23,6 +23,7 @@ const waterMolarMass = 18.015
 // the water of each liquid stream. Assumptions go to m's notes.
 func feedOf(req *Request, t *Tables, db *thermo.DB, m *mixture) (state.Feed, error) {
 	f := state.Feed{TempK: req.TemperatureK, PressureBar: req.PressureKPa / 100, PH: req.PH}
+	m.fuelOxidizer = partnerAbove(req, t, db, organicFuelV)
 	for si := range req.Streams {
 		st, err := streamFeed(si, &req.Streams[si], t, db, m)
 		if err != nil {
@@ -54,6 +55,16 @@ func streamFeed(si int, st *Stream, t *Tables, db *thermo.DB, m *mixture) (state
 	for ci := range st.Components {
 		c := &st.Components[ci]
 		if c.Chemical.Formula == "H2O" {
+			continue
+		}
+		if w, ok := db.Withheld(c.Chemical.Formula); ok && fuelBeside(w, m.fuelOxidizer) {
+			// The class of strong oxidizers with organic matter decides
+			// before the missing data withhold the answer.
+			mol, _, err := componentMoles(st, c, vol, liquid, t, m)
+			if err != nil {
+				return state.Stream{}, err
+			}
+			m.notAssessFuel(c, w, st.Label(), mol)
 			continue
 		}
 		if w, ok := db.Withheld(c.Chemical.Formula); ok && w.Role != "" {

@@ -39,6 +39,11 @@ type mixture struct {
 	dissolved   []dissolved // solids and near-pure liquids that dissolve into the mix
 	solutes     []soluteIn  // solutes with heats of concentrated solution (data/dilution.txt)
 	notAssessed []NotAssessed
+	// fuelOxidizer names the strong oxidizing agent of the request (E° of
+	// organicFuelV or more, solid or strong: partnerAbove) beside which an
+	// organic chemical without data is taken in as fuel for the hazard
+	// rules instead of withholding the answer.
+	fuelOxidizer string
 	// water is set when a liquid stream carries water (as water or as a
 	// solution); neatOrganic when a liquid stream is a neat organic liquid.
 	water, neatOrganic bool

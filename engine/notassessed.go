@@ -18,7 +18,42 @@ type NotAssessed struct {
 	Formula string `json:"formula"`
 	Stream  string `json:"stream"`
 	Reason  string `json:"reason"`
-	Role    string `json:"role"` // reductant, oxidant or inert (data/withheld.txt)
+	Role    string `json:"role"` // reductant, oxidant or inert (data/withheld.txt); fuel (RoleFuel)
+	// Mol is the amount of a chemical taken in as fuel (Role RoleFuel),
+	// and Oxidizer the strong oxidizing agent of the request beside it.
+	Mol      float64 `json:"mol,omitempty"`
+	Oxidizer string  `json:"oxidizer,omitempty"`
+}
+
+// RoleFuel is the role of a NotAssessed chemical that is organic matter
+// without data beside a strong oxidizing agent: it is left out of the
+// state, the gases and the heat, but handed to the hazard rules as fuel by
+// its amount, so the class of strong oxidizers with organic matter
+// (Bretherick's Handbook of Reactive Chemical Hazards, chlorates,
+// permanganates, nitric acid with organic matter, from memory) decides,
+// not the missing ΔfG°.
+const RoleFuel = "fuel"
+
+// fuelBeside: a withheld chemical is taken in as fuel when it is organic
+// (carbon and hydrogen), is not given a redox role of its own (a reductant
+// such as an aldehyde stays with refuseAgentOfConcern) and the request
+// brings a strong oxidizing agent.
+func fuelBeside(w *thermo.Withheld, oxidizer string) bool {
+	return oxidizer != "" && organicFormula(w.Formula) && (w.Role == "" || w.Role == thermo.RoleInert)
+}
+
+// notAssessFuel records c as not assessed, taken in as fuel.
+func (m *mixture) notAssessFuel(c *Component, w *thermo.Withheld, stream string, mol float64) {
+	for i, n := range m.notAssessed {
+		if n.Formula == w.Formula {
+			m.notAssessed[i].Mol += mol
+			return
+		}
+	}
+	m.notAssessed = append(m.notAssessed, NotAssessed{
+		Name: c.Name, Formula: w.Formula, Role: RoleFuel, Stream: stream, Mol: mol, Oxidizer: m.fuelOxidizer,
+		Reason: "no thermodynamic data (" + w.Missing + "); judged only as organic matter beside the strong oxidizing agent " + m.fuelOxidizer,
+	})
 }
 
 // oxidizerOfConcernV is the standard potential (V) from which a species the
@@ -49,13 +84,15 @@ func (m *mixture) notAssess(c *Component, w *thermo.Withheld, stream string) {
 //     brought by another chemical of the request;
 //   - an unassessed oxidizing agent meets any chemical that the tables list
 //     as a reducing agent (the reduced side of a half-reaction);
-//   - an inert one (a surfactant) is not refused for a redox partner, but
-//     if it is organic it is still fuel: it is refused beside an oxidizing
-//     agent of E° organicFuelV or more (concentrated nitric acid,
-//     permanganate, dichromate, peroxide), whose families of runaway and
-//     fire with organic matter cannot be judged without it (Bretherick's
-//     Handbook of Reactive Chemical Hazards, nitric acid and permanganate
-//     with organic materials, from memory).
+//   - an inert one (a surfactant) is not refused for a redox partner.
+//
+// Organic matter without data (inert or without a role) beside an
+// oxidizing agent of E° organicFuelV or more (concentrated nitric acid,
+// permanganate, dichromate, chlorate, peroxide) never reaches this check:
+// streamFeed takes it in as fuel (RoleFuel) and the hazard rules of strong
+// oxidizers with organic matter judge it (Bretherick's Handbook of Reactive
+// Chemical Hazards, nitric acid, permanganate and chlorates with organic
+// materials, from memory).
 //
 // Water alone never makes it the agent of concern.
 func refuseAgentOfConcern(req *Request, t *Tables, db *thermo.DB) error {
@@ -67,13 +104,8 @@ func refuseAgentOfConcern(req *Request, t *Tables, db *thermo.DB) error {
 				continue
 			}
 			if w.Role == thermo.RoleInert {
-				if !organicFormula(w.Formula) {
-					continue
-				}
-				if other := partnerAbove(req, t, db, organicFuelV); other != "" {
-					return withheld(c, fmt.Sprintf("no thermodynamic data for %s (%s); answer withheld: it is organic matter, and %s is a strong oxidizing agent that can take organic matter into a runaway or a fire",
-						c.Name, w.Missing, other))
-				}
+				// Organic matter beside a strong oxidizing agent is taken
+				// in as fuel (fuelBeside): the hazard rules judge it.
 				continue
 			}
 			if other := partnerOf(req, t, db, w.Role); other != "" {

@@ -30,18 +30,23 @@ func TestNotAssessed(t *testing.T) {
 		{"aldehyde with peroxide is refused", "mix 10 L glutaraldehyde 50 % + 10 L H2O2 35 %", ""},
 		// A quat is organic matter: concentrated nitric acid or solid
 		// permanganate with it is the runaway or fire of oxidizers with
-		// organic materials (Bretherick's Handbook, from memory), which
-		// cannot be judged without it; a 1 % nitric rinse beside it can.
-		{"quat with concentrated nitric is refused", "mix 100 L benzalkonium chloride 50 % + 100 L HNO3 68 %", "-organic"},
-		{"quat with solid permanganate is refused", "mix 100 L benzalkonium chloride 50 % + 10 kg KMnO4", "-organic"},
+		// organic materials (Bretherick's Handbook, from memory). The
+		// engine takes it in as fuel by its amount, for the hazard rules
+		// of that class to refuse (engine/advice fuel_without_data_test),
+		// instead of withholding the answer; a 1 % nitric rinse beside it
+		// is only not assessed.
+		{"quat with concentrated nitric is taken in as fuel", "mix 100 L benzalkonium chloride 50 % + 100 L HNO3 68 %", "-organic"},
+		{"quat with solid permanganate is taken in as fuel", "mix 100 L benzalkonium chloride 50 % + 10 kg KMnO4", "-organic"},
 		{"quat with a dilute nitric rinse is answered", "mix 100 L quat 10 % + 100 L HNO3 1 %", "quat"},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			r, err := mustEngine(t).Ask(tc.req, engine.AskOptions{})
 			if tc.want == "-organic" {
-				var pe *engine.ParseError
-				if !errors.As(err, &pe) || pe.Code != "withheld" || !strings.Contains(pe.Message, "it is organic matter") {
-					t.Fatalf("want a withheld answer naming organic matter, got %v", err)
+				if err != nil {
+					t.Fatalf("Ask: %v, want an answer with the organic taken in as fuel", err)
+				}
+				if len(r.NotAssessed) != 1 || r.NotAssessed[0].Role != engine.RoleFuel || !(r.NotAssessed[0].Mol > 0) || r.NotAssessed[0].Oxidizer == "" {
+					t.Fatalf("not assessed = %+v, want the quat as fuel with its amount and the oxidizer", r.NotAssessed)
 				}
 				return
 			}

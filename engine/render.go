@@ -19,7 +19,7 @@ func RenderText(r *Result) string {
 	}
 	c := r.Conditions
 	if c.VolumeL > 0 {
-		w("Conditions: %s, %.1f °C, %s L mixed, %s medium\n", conditionsPH(c), c.TemperatureC, trimFloat(c.VolumeL, 4), c.Medium)
+		w("Conditions: %s, %.1f °C, %s L mixed, %s\n", conditionsPH(c), c.TemperatureC, trimFloat(c.VolumeL, 4), conditionsMedium(c))
 	} else {
 		w("Conditions: %.1f °C, no liquid\n", c.TemperatureC)
 	}
@@ -287,6 +287,16 @@ func conditionsPH(c Conditions) string {
 		return fmt.Sprintf("pH %.2f (%s)", c.PH, how)
 	}
 	return fmt.Sprintf("pH %.2f at equilibrium (%.2f as combined, before any reaction, %s)", *c.PHFinal, c.PH, how)
+}
+
+// conditionsMedium names the medium beside the pH the Conditions line
+// leads with: after the reaction when it reacts, with the medium the
+// equations are written in when that differs (the mix as combined).
+func conditionsMedium(c Conditions) string {
+	if !reacts(c) || c.MediumFinal == "" || c.MediumFinal == c.Medium {
+		return string(c.Medium) + " medium"
+	}
+	return fmt.Sprintf("%s medium after the reaction (equations written in %s medium, as combined)", c.MediumFinal, c.Medium)
 }
 
 // reacts reports whether the equilibrium pH differs from the pH as

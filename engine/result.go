@@ -314,6 +314,22 @@ type GasJudged struct {
 	Outside     string `json:"outside_reaction,omitempty"`
 	LimitSource string `json:"limit_source"`
 	HenrySource string `json:"henry_source"`
+	// Method says where HeadspacePPM came from: "vapour table" (the
+	// partial pressure over a solution of the liquid's strength,
+	// data/vapour.txt) or "mixed state" (Henry's law or the mixed state's
+	// activities). StrengthPct is the % w/w of the gas's free solute in the
+	// liquid the vapour table was read at; VapourSource its rows' sources.
+	Method       string  `json:"figure_method,omitempty"`
+	StrengthPct  float64 `json:"strength_pct,omitempty"`
+	VapourSource string  `json:"vapour_source,omitempty"`
+	// LowerBound: the liquid is stronger than the vapour table's last row,
+	// whose figure HeadspacePPM then is: the real one is higher.
+	LowerBound bool `json:"lower_bound,omitempty"`
+	// ClosedRiseBar, when the request states a headspace the gas
+	// overfills at the ambient pressure, is the pressure rise (bar above
+	// the ambient) the gas would give if the vessel were really closed:
+	// ideal gas at the mix's temperature, all of it as gas.
+	ClosedRiseBar float64 `json:"closed_rise_bar,omitempty"`
 }
 
 // HeatJudged is a heat hazard in numbers.
@@ -425,7 +441,16 @@ type Conditions struct {
 	// stated one, else the liquid volume (HeadspaceStated false).
 	HeadspaceL      float64 `json:"headspace_l"`
 	HeadspaceStated bool    `json:"headspace_stated"`
-	Medium          Medium  `json:"medium"` // acid or base: which table form applies
+	// Medium is the medium the half-reactions and the net equation are
+	// written in (acid or base: which table form applies): the mix's as
+	// combined, before any reaction, unless the change carries the mix more
+	// than a pH unit past neutral to the other side. Its meaning is kept;
+	// MediumFinal is the medium at PHFinal.
+	Medium Medium `json:"medium"`
+	// MediumFinal is the medium at the pH after every change (PHFinal):
+	// acid below neutral pH at the mix temperature, base at or above; empty
+	// when there is no equilibrium pH.
+	MediumFinal Medium `json:"medium_final,omitempty"`
 }
 
 // Allowance was a kinetic allowance of the earlier pair ranking. The field

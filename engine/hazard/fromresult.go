@@ -60,6 +60,17 @@ func FromResult(r *engine.Result, t *engine.Tables) *Outcome {
 			}
 		}
 	}
+	for _, n := range r.NotAssessed {
+		if n.Role != engine.RoleFuel || !(n.Mol > 0) {
+			continue
+		}
+		a := Amount{Species: engine.Species{Formula: n.Formula, Phase: engine.Aqueous}, Mol: n.Mol}
+		if o.VolumeL > 0 {
+			a.Molar = n.Mol / o.VolumeL
+		}
+		o.Fuel = append(o.Fuel, a)
+		o.FuelOxidizer = n.Oxidizer
+	}
 	o.fromState = r.Conditions.PHFinal != nil
 	headRuns := o.reactions(r)
 	o.After = o.Before
@@ -69,6 +80,7 @@ func FromResult(r *engine.Result, t *engine.Tables) *Outcome {
 	}
 	o.heatOf(r, headRuns)
 	o.measured(r, t)
+	o.strengths(r, t)
 	return o
 }
 

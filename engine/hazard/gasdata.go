@@ -36,6 +36,9 @@ type Data struct {
 	// Families are the reaction enthalpies of the families, by hazard code
 	// (data/familyheats.txt); see UseSpecies.
 	Families map[string]*FamilyHeat
+	// Vapour are the rows of data/vapour.txt by gas: partial pressures over
+	// the gas's own solution by strength.
+	Vapour map[string][]VapourRow
 }
 
 // Load reads the gas table from fsys (normally data.FS).
@@ -49,6 +52,9 @@ func Load(fsys fs.FS) (*Data, error) {
 		return nil, err
 	}
 	if d.Families, err = loadFamilyHeats(fsys); err != nil {
+		return nil, err
+	}
+	if d.Vapour, err = loadVapour(fsys, d.Gases); err != nil {
 		return nil, err
 	}
 	return d, nil

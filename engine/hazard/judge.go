@@ -137,6 +137,9 @@ func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 		} else {
 			hs = Share(p.mol, p.molecular, g.KH, o.VolumeL, o.HeadspaceL, o.TemperatureK(), o.PressureKPa)
 		}
+		if !(hs.Vents && hs.PPM >= 1e6) {
+			p, hs = fromVapourTable(o, d, f, p, hs)
+		}
 		js[f] = judged{p, hs}
 		total += hs.PPM
 	}
@@ -166,6 +169,51 @@ func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 		out = append(out, gasHazard(o, g, p, hs, ratio))
 	}
 	return out
+}
+
+// fromVapourTable replaces the headspace figure of a gas of the vapour
+// table (HCl, HF, NH3) by the partial pressure over a solution of the
+// liquid's strength when that strength is inside the table's range: the
+// mixed state's Davies activities, or Henry's law, read far too low over
+// strong acid or ammonia. The pool's amount is at least what the headspace
+// then holds. A pool that reaches past the state (a fast reaction outside
+// it) keeps its own figure.
+func fromVapourTable(o *Outcome, d *Data, gas string, p *pool, hs Headspace) (*pool, Headspace) {
+	vh, src, lower, ok := vapourFigure(o, d, gas)
+	if !ok || p == nil || p.beyond > 0 {
+		return p, hs
+	}
+	q := *p
+	q.vapour, q.pct, q.tempC, q.lower, q.vapourSource = true, o.Strength[gas], o.vapourTemperatureC(), lower, src
+	q.mol = math.Max(q.mol, vh.GasMol)
+	return &q, vh
+}
+
+// closedRise is the pressure (bar above the ambient) the gas of p would
+// add to a stated headspace it overfills if the vessel were really closed:
+// ideal gas at the mix's temperature after its own heat, all of the amount
+// as gas (what dissolves is not taken off: the upper figure). Only for a
+// stated headspace and a gas the reactions give off, not the vapour of the
+// liquid itself, which closing caps at its vapour pressure.
+func closedRise(o *Outcome, p *pool) (bar, tempC float64, ok bool) {
+	if !o.HeadspaceStated || p == nil || p.vapour || !(o.HeadspaceL > 0) || !(p.mol > 0) {
+		return 0, 0, false
+	}
+	tempC = o.vapourTemperatureC()
+	bar = p.mol * litreBarPerMolK() * (tempC + 273.15) / o.HeadspaceL
+	return bar, tempC, bar > o.PressureKPa/100
+}
+
+// RespiratorRatio is the multiple of the limit from which the acid's own
+// fumes over an open tank call for respiratory protection, not only
+// extraction (common practice, no source).
+const RespiratorRatio = 10.0
+
+// strongFumeActions are the warnings for the acid's own fumes at
+// RespiratorRatio times the limit and more.
+var strongFumeActions = map[string]string{
+	"HCl": "Keep the tank covered with extraction running; near an open tank wear respiratory protection (full-face mask with acid-gas cartridge; breathing apparatus in a confined space): the fumes stand at ten times the limit or more.",
+	"HF":  "Keep the tank covered with extraction running; near an open tank wear respiratory protection (full-face mask with acid-gas cartridge; breathing apparatus in a confined space), HF-rated gloves and face shield, calcium gluconate gel at hand: the fumes stand at ten times the limit or more.",
 }
 
 // DiluteHypochloriteMolar is the hypochlorite (all forms, mol/L of the mix
@@ -281,6 +329,9 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 	if ratio >= DangerRatio && g.LimitName != "O2" && g.Formula != "CO2" && !acidFume && !smallPuff(o, g, hs, ratio) {
 		sev, act = engine.Danger, gasActions[g.Formula][0]
 	}
+	if acidFume && sev == engine.Warning && ratio >= RespiratorRatio && strongFumeActions[g.Formula] != "" {
+		act = strongFumeActions[g.Formula]
+	}
 	if g.Formula == "HCN" && sev == engine.Danger && cyanideMakeUp(o) {
 		// Cyanide dissolving in plain water hydrolyses (CN- + H2O ⇌ HCN +
 		// OH-, pKa 9.2) and smells of HCN over the tank: the routine
@@ -308,9 +359,17 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 	}
 	msg := fmt.Sprintf("%s: %s mol (%s L as gas) can leave the liquid (%s). At equilibrium the headspace (%s, %s L) holds %s ppm, %s× %s.",
 		upperFirst(g.Name), fmtNum(p.mol, 3), fmtNum(litres, 3), strings.Join(p.origins, "; "), hsWhy, fmtNum(o.HeadspaceL, 4), fmtNum(hs.PPM, 3), fmtNum(ratio, 2), limit)
+	closedBar := 0.0
 	if hs.Vents {
 		msg += " It fills the headspace and the rest vents."
+		if bar, tC, ok := closedRise(o, p); ok {
+			closedBar = bar
+			msg += fmt.Sprintf(" If the vessel were really closed, the %s L of gas would raise the stated %s L headspace by about %s bar (ideal gas at the mix's %s °C, all of it as gas).",
+				fmtNum(p.mol*litreBarPerMolK()*(tC+273.15)/(o.PressureKPa/100), 3), fmtNum(o.HeadspaceL, 4), fmtNum(bar, 2), fmtNum(tC, 3))
+			act = fmt.Sprintf("Never close this vessel: the gas would raise it by about %s bar; keep it vented. %s", fmtNum(bar, 2), act)
+		}
 	}
+	msg += figureNote(p, g)
 	if g.Formula == "CO2" {
 		msg += " Spread over a " + fmtNum(RoomM3, 2) + " m³ room it would make " + fmtNum(roomPPM(o, p.mol), 3) + " ppm (judged by the smaller of the two; an asphyxiant, not toxic at low level)."
 	}
@@ -327,6 +386,16 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 	}
 	if p.beyond > 0 {
 		h.Gas.Outside = p.outside
+	}
+	if closedBar > 0 {
+		h.Gas.ClosedRiseBar = sigN(closedBar, 3)
+	}
+	if freeSolute[g.Formula] != nil {
+		h.Gas.Method = MethodState
+	}
+	if p.vapour {
+		h.Gas.Method, h.Gas.StrengthPct, h.Gas.LowerBound = MethodVapour, sigN(p.pct, 3), p.lower
+		h.Gas.VapourSource = strings.Join(p.vapourSource, "; ")
 	}
 	if g.Formula == "CO2" {
 		if room := roomPPM(o, p.mol); room/g.LimitPPM < hs.PPM/g.LimitPPM {

@@ -2,6 +2,7 @@ package hazard
 
 import (
 	"math"
+	"strings"
 
 	"mixward/engine"
 	"mixward/engine/chem"
@@ -76,9 +77,16 @@ var organicLiquids = map[string]float64{
 // bound). With any false it counts only organicLiquids: a strong oxidizer
 // in solution meets acetone, formaldehyde and urea in their own families
 // (haloform, formaldehyde oxidation, N-chloro compounds).
+//
+// Organic matter taken in as fuel without data (Outcome.Fuel) counts as
+// any other organic molecule.
 func organicLiquid(o *Outcome, any bool) (molar, electrons float64) {
-	for i := range o.Before {
-		a := &o.Before[i]
+	xs := o.Before
+	if len(o.Fuel) > 0 {
+		xs = append(append([]Amount{}, o.Before...), o.Fuel...)
+	}
+	for i := range xs {
+		a := &xs[i]
 		if a.Molar < TraceMolar || a.Species.Charge < 0 {
 			continue
 		}
@@ -312,6 +320,33 @@ func oxidizerOrganic(o *Outcome) (engine.Hazard, bool) {
 			"Bretherick's Handbook of Reactive Chemical Hazards, potassium permanganate with glycerol, chromium trioxide with ethanol, calcium hypochlorite with alcohols, sodium chlorate and sodium chlorite with organic matter, nitrates and perchlorates with organic materials, sodium peroxide with organic matter (from memory); heat by Thornton's rule, 418 kJ per mol O2 (from memory); thresholds: common practice, no source"), rh), true
 	}
 	return engine.Hazard{}, false
+}
+
+// unassessedFuel: organic matter whose data the tables lack, beside a
+// strong oxidizing agent that oxidizerOrganic does not judge on its own
+// terms (nitric acid; a solution below that rule's thresholds; solids with
+// no liquid, such as chlorate with sugar). Without the
+// data nothing shows the mix to be safe, and the class of strong oxidizers
+// with organic matter is one of runaway and fire: refused.
+func unassessedFuel(o *Outcome) (engine.Hazard, bool) {
+	if len(o.Fuel) == 0 {
+		return engine.Hazard{}, false
+	}
+	if _, ok := oxidizerOrganic(o); ok {
+		return engine.Hazard{}, false
+	}
+	var names []string
+	for _, f := range o.Fuel {
+		amount := fmtNum(f.Molar, 2) + " mol/L in the mix"
+		if !(f.Molar > 0) {
+			amount = fmtNum(f.Mol, 3) + " mol, no liquid"
+		}
+		names = append(names, f.Species.Formula+" ("+amount+")")
+	}
+	return mk("oxidizer-organic-fire", engine.Danger,
+		o.FuelOxidizer+" is a strong oxidizing agent and "+strings.Join(names, ", ")+" is organic matter the tables hold no thermodynamic data for: strong oxidizers with organic matter can run away or ignite, and without the data nothing shows this mix to be safe.",
+		"Do not combine. Keep strong oxidizers away from solvents, glycols, sugars and other organic matter; ask a chemist before any such mix.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, nitric acid, chlorates, permanganates and peroxides with organic materials (from memory); refusal without data: common practice, no source"), true
 }
 
 func lowerFirst(s string) string {

@@ -109,6 +109,15 @@ type Outcome struct {
 	// headspace and the headspace concentration. A measured gas is judged
 	// on these numbers, not estimated from its dissolved pool.
 	Measured map[string]MeasuredGas
+	// Strength is, by gas of the vapour table (HCl, HF, NH3), the % w/w of
+	// its free solute in the liquid after reaction.
+	Strength map[string]float64
+	// Fuel is organic matter the tables hold no data for, left out of the
+	// state but taken in as fuel beside a strong oxidizing agent
+	// (engine.RoleFuel), by amount and mol/L of the mix; FuelOxidizer
+	// names that oxidizing agent.
+	Fuel         []Amount
+	FuelOxidizer string
 
 	fromState bool // filled from the equilibrium state, whose kinetic locks are applied
 	// families are the reaction enthalpies of the families (Data.Families),

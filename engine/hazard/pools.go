@@ -31,6 +31,13 @@ type pool struct {
 	// at equilibrium (no reaction outside the state, no boil-off).
 	equilibrium bool
 	sources     []string
+	// vapour: the headspace figure was read from the vapour table at the
+	// liquid's strength (pct % w/w, tempC); lower: the liquid is stronger
+	// than the table's last row, whose figure is a lower bound.
+	vapour       bool
+	pct, tempC   float64
+	lower        bool
+	vapourSource []string
 }
 
 // pools works out, for each gas of the table, what in the mix can become

@@ -37,6 +37,9 @@ func relative(mix []engine.Hazard, alone []Alone, final bool) []engine.Hazard {
 				h.Severity = engine.Warning
 				h.Title = strings.TrimPrefix(h.Title, "releases ") + " over the mix above its limit, as over " + b + " alone"
 				h.Action = "Work with extraction running and the precautions of " + b + " itself (its safety data sheet); keep the tank covered."
+				if h.Gas.Ratio >= RespiratorRatio {
+					h.Action += " Near an open tank wear respiratory protection: the fumes stand at " + fmtNum(h.Gas.Ratio, 2) + "× " + h.Gas.LimitName + " over the liquid."
+				}
 			} else {
 				h.Severity = engine.Info
 				h.Action = "Handle it as that stream's own hazard (its safety data sheet)."
