@@ -176,7 +176,7 @@ func (m *Model) titrateOnce(mx *Mix, n0 []float64, volL, target float64) (float6
 		// added, is often far from the point (a mol of zinc beside 20 mol/L
 		// of base took 215 Newton steps from there, 7 cold).
 		n := m.withAcid(mx, n0, math.Sinh(u))
-		s, err := m.solve(mx, n, true, m.formationRules(mx, n, volL), volL, nil)
+		s, err := m.solve(mx, n, true, m.formationRules(mx, n, volL), volL, nil, nil)
 		if err != nil {
 			return 0, fmt.Errorf("fitting pH %g: %w", target, err)
 		}
