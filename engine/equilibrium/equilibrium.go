@@ -179,6 +179,12 @@ type Problem struct {
 	// Start is an optional warm start (mol per species), for example the
 	// Amount of a nearby solved State.
 	Start []float64
+	// StartActive names the inequality constraints taken as active from
+	// the first round of a warm start, for example the Active of the
+	// nearby State when only their bounds differ. The active-set loop
+	// still adds the violated ones and drops those whose multiplier has
+	// the wrong sign; when the warm start fails they are forgotten.
+	StartActive []string
 }
 
 // State is the equilibrium of a Problem. Slices are indexed like

@@ -393,3 +393,67 @@ func TestNotesAndExactly(t *testing.T) {
 		t.Errorf("active %q, want the Exactly lock", st.Active)
 	}
 }
+
+// TestStartActive: constraints named in Problem.StartActive start the warm
+// start active, and the state is the cold solve's whether they still bind
+// (the bound moved), no longer bind (dropped) or are not in the problem.
+func TestStartActive(t *testing.T) {
+	species := append([]string{"Fe^2+", "Fe^3+", "MnO4-", "Mn^2+"}, sulfateAcid...)
+	recipe := map[string]float64{"H2O": water, "K+": 0.01, "MnO4-": 0.01, "Fe^2+": 0.04, "SO4^2-": 0.14, "H+": 0.2}
+	withBound := func(bound float64) Problem {
+		p := build(species, recipe)
+		coef := make([]float64, len(p.Species))
+		coef[index(p, "MnO4-")] = 1
+		p.Constraints = []Constraint{{Name: "manganese(VII) held", Coef: coef, Rel: AtLeast, Bound: bound}}
+		return p
+	}
+	first, err := Solve(withBound(0.009))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(first.Active) != 1 {
+		t.Fatalf("the lock at 0.009 mol does not bind: active %q", first.Active)
+	}
+	for _, tc := range []struct {
+		name        string
+		bound       float64
+		startActive []string
+		wantActive  int
+	}{
+		{"still binds", 0.008, first.Active, 1},
+		{"no longer binds", 0.001, first.Active, 0},
+		{"unknown name", 0.008, []string{"no such lock"}, 1},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			cold, err := Solve(withBound(tc.bound))
+			if err != nil {
+				t.Fatal(err)
+			}
+			p := withBound(tc.bound)
+			p.Start, p.StartActive = first.Amount, tc.startActive
+			warm, err := Solve(p)
+			if err != nil {
+				t.Fatal(err)
+			}
+			checkTotals(t, p, warm)
+			if len(warm.Active) != tc.wantActive || len(cold.Active) != tc.wantActive {
+				t.Errorf("active: warm %q, cold %q, want %d constraints", warm.Active, cold.Active, tc.wantActive)
+			}
+			for i := range cold.Amount {
+				a, b := cold.Amount[i], warm.Amount[i]
+				if math.Abs(a-b) > 1e-9*math.Max(a, b)+1e-20 {
+					t.Errorf("%s: cold %.12g, warm %.12g", p.Species[i].Name, a, b)
+				}
+			}
+			p.StartActive = nil
+			plain, err := Solve(p)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if tc.name == "still binds" && warm.Iterations >= plain.Iterations {
+				t.Errorf("warm start with the binding lock active: %d iterations, without: %d", warm.Iterations, plain.Iterations)
+			}
+			t.Logf("iterations: cold %d, warm %d, warm without StartActive %d", cold.Iterations, warm.Iterations, plain.Iterations)
+		})
+	}
+}

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"slices"
 )
 
 // solve is Solve with an optional debug trace.
@@ -70,6 +71,53 @@ type lockSolver struct {
 	dropped map[int]bool
 	w       newtonWork
 	tr      *trace
+	// before is the active set before activateAtStart added the
+	// constraints of Problem.StartActive (nil when it added none).
+	before []int
+}
+
+// activateAtStart takes the inequality constraints named in
+// Problem.StartActive as active for the warm start's first round. A name
+// the problem does not hold is ignored; when the rows cannot take the set,
+// the warm start goes without it.
+func (ls *lockSolver) activateAtStart() error {
+	p := ls.s.p
+	if len(p.StartActive) == 0 {
+		return nil
+	}
+	var add []int
+	for k, c := range p.Constraints {
+		if c.Rel != Exactly && slices.Contains(p.StartActive, c.Name) && !slices.Contains(ls.active, k) {
+			add = append(add, k)
+		}
+	}
+	if len(add) == 0 {
+		return nil
+	}
+	ls.before = append([]int{}, ls.active...)
+	ls.active = append(ls.active, add...)
+	rows, err := ls.rows()
+	if err != nil {
+		return ls.restoreActive()
+	}
+	ls.s.setRows(rows)
+	ls.tr.note("constraints active at the warm start: %v", add)
+	return nil
+}
+
+// restoreActive returns to the active set before activateAtStart, so that
+// the cold start begins as it would without Problem.StartActive.
+func (ls *lockSolver) restoreActive() error {
+	if ls.before == nil {
+		return nil
+	}
+	ls.active, ls.before = ls.before, nil
+	rows, err := ls.rows()
+	if err != nil {
+		return err
+	}
+	ls.s.setRows(rows)
+	return nil
 }
 
 func (ls *lockSolver) activeNames() []string {
@@ -166,6 +214,9 @@ func (ls *lockSolver) solveRound(prevPt *point, prevRows []balanceRow) (*point, 
 	case prevPt != nil:
 		pt = remap(prevPt, prevRows, s.rows)
 	case len(s.p.Start) > 0:
+		if err := ls.activateAtStart(); err != nil {
+			return nil, err
+		}
 		pt = s.startFrom(s.p.Start, true)
 	}
 	if pt != nil {
@@ -178,6 +229,9 @@ func (ls *lockSolver) solveRound(prevPt *point, prevRows []balanceRow) (*point, 
 			return pt, nil
 		}
 		ls.tr.note("warm start failed: %v", err)
+		if err := ls.restoreActive(); err != nil {
+			return nil, err
+		}
 	}
 	n, tight, err := s.lpStartTight()
 	var used *solventUsedUp

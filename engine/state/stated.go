@@ -171,8 +171,12 @@ func (m *Model) titrateOnce(mx *Mix, n0 []float64, volL, target float64) (float6
 		// listed species from forming: without them cyanide "hydrolyses" to
 		// carbon monoxide and ammonia here and the fit adds a mole of acid
 		// per mole of cyanide.
+		// Each point starts cold, from the dominant species the linear
+		// program finds: a start from the amounts as poured, acid or base
+		// added, is often far from the point (a mol of zinc beside 20 mol/L
+		// of base took 215 Newton steps from there, 7 cold).
 		n := m.withAcid(mx, n0, math.Sinh(u))
-		s, err := m.solveCombined(mx, n, volL)
+		s, err := m.solve(mx, n, true, m.formationRules(mx, n, volL), volL, nil, nil)
 		if err != nil {
 			return 0, fmt.Errorf("fitting pH %g: %w", target, err)
 		}
