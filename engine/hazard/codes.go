@@ -70,6 +70,7 @@ var codes = []Code{
 	{"nitrate-esters", "forms nitrate esters (explosive); never cool and hold", nil},
 	{"peracid-alkali", "peracid with strong alkali: violent decomposition, oxygen and boiling caustic", []string{"oxygen-enrichment"}},
 	{"oxidizer-organic-fire", "strong oxidizer with organic liquid: fire or violent reaction", nil},
+	{"oxidizer-fuel-blend", "solid oxidizer blended dry with a fuel: fire or explosion", nil},
 	{"bis-chloromethyl-ether", "forms bis(chloromethyl) ether (causes cancer)", nil},
 	{"formaldehyde-caustic-heat", "formaldehyde with strong caustic: runaway heat", nil},
 	{"formaldehyde-ammonia-heat", "formaldehyde with ammonia: strong heat, ammonia boils off", nil},

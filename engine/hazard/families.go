@@ -18,7 +18,7 @@ var familyRules = []func(o *Outcome) (engine.Hazard, bool){
 	solidHypochlorite, magnesiumWater, cyanideOxidation, halideSulfuric, chlorateSulfuric, hotElectrolessNickel, nitricMetalFumes,
 	chlorateSulfite, hydrazineOxidizer,
 	// organic, azide and solid-chlorinator families (organic.go)
-	organicPeroxides, perchlorateEsters, peracidAlkali, oxidizerOrganic, unassessedFuel, bisChloromethylEther,
+	organicPeroxides, perchlorateEsters, peracidAlkali, oxidizerOrganic, unassessedFuel, dryOxidizerFuel, bisChloromethylEther,
 	cannizzaro, hexamine, formaldehydeHypochlorite, haloform, heavyMetalAzide, mixedChlorinators,
 	// silicate with acid (silica.go)
 	silicaGel,

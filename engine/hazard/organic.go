@@ -2,6 +2,7 @@ package hazard
 
 import (
 	"math"
+	"slices"
 	"strings"
 
 	"mixward/engine"
@@ -619,4 +620,100 @@ func carbonMonoxideFromAcids(o *Outcome, ps map[string]*pool) {
 	addTo(ps, "CO", (formic+oxalic)*o.VolumeL, 1,
 		"formic or oxalic acid dehydrated by concentrated sulfuric acid (HCOOH → CO + H2O)",
 		"Vogel's Textbook of Practical Organic Chemistry and Vogel's Qualitative Inorganic Analysis, carbon monoxide from formic or oxalic acid and concentrated sulfuric acid (from memory)")
+}
+
+// dryOxidizerFuel: a solid strong oxidizer blended dry with a solid fuel —
+// sugar, other organic solids, sulfur, carbon, metal powder, sulfides,
+// sulfites and thiosulfate, hypophosphite, hydrides, ammonium salts,
+// cyanides — makes a mixture that burns fiercely or explodes from
+// friction, impact, heat or a spark (chlorate with sugar or sulfur,
+// permanganate with sulfur or glycerol, nitrate with aluminium powder).
+// Solids alone do not react in a tank, but the blend itself is the hazard:
+// a drum, a hopper or a spill of the two.
+func dryOxidizerFuel(o *Outcome) (engine.Hazard, bool) {
+	if o.VolumeL > 0 {
+		return engine.Hazard{}, false
+	}
+	var oxName string
+	for _, x := range strongOxidizers {
+		if o.SolidStream(x.solids...) {
+			oxName = x.name
+			break
+		}
+	}
+	if oxName == "" {
+		return engine.Hazard{}, false
+	}
+	for _, c := range o.SolidChemicals {
+		if isStrongOxidizerSolid(c) {
+			continue
+		}
+		if what, ok := solidFuel(c); ok {
+			return mk("oxidizer-fuel-blend", engine.Danger,
+				oxName+" blended dry with "+c+" ("+what+"): the blend burns fiercely or explodes from friction, impact, heat or a spark; it needs no liquid to react.",
+				"Do not blend. Keep the oxidizer and the fuel apart in storage, scoops, hoppers and waste drums; sweep up a spill of either at once with clean tools and keep it wet until disposed of.",
+				"Bretherick's Handbook of Reactive Chemical Hazards, sodium and potassium chlorate with sugar, sulfur and phosphorus, potassium permanganate with sulfur, nitrates with aluminium powder, peroxides and persulfates with organic matter (from memory)"), true
+		}
+	}
+	return engine.Hazard{}, false
+}
+
+// isStrongOxidizerSolid reports whether the formula is one of the solids of
+// strongOxidizers.
+func isStrongOxidizerSolid(formula string) bool {
+	for _, x := range strongOxidizers {
+		if slices.Contains(x.solids, formula) {
+			return true
+		}
+	}
+	return false
+}
+
+// fuelMetals are the elements that burn as a powder with an oxidizer.
+var fuelMetals = map[string]bool{"Al": true, "Mg": true, "Zn": true, "Fe": true, "Ti": true, "Si": true,
+	"Mn": true, "Cu": true, "Ca": true, "Na": true, "K": true, "Li": true, "S": true, "C": true, "P": true, "Sn": true, "Ni": true}
+
+// solidFuel reports whether a solid chemical is a fuel for a strong
+// oxidizer, by its atoms: an element (a metal, sulfur, carbon,
+// phosphorus); carbon below carbonate (organic matter, cyanide,
+// thiocyanate); sulfur below sulfate (sulfide, sulfur, thiosulfate,
+// sulfite, dithionite); phosphorus below phosphate (hypophosphite,
+// phosphite); hydride or borohydride; nitrogen with hydrogen and no oxygen
+// beyond sulfamate (ammonium, hydrazine and hydroxylamine salts). It names
+// the kind.
+func solidFuel(formula string) (string, bool) {
+	// Water of crystallisation (FeSO4.7H2O) is no oxygen of the fuel.
+	a, err := engine.ParseFormula(strings.SplitN(formula, ".", 2)[0])
+	if err != nil || len(a) == 0 {
+		return "", false
+	}
+	if len(a) == 1 {
+		for el := range a {
+			return "a fuel element", fuelMetals[el]
+		}
+	}
+	c, h, o, n, s, p, b := a["C"], a["H"], a["O"], a["N"], a["S"], a["P"], a["B"]
+	switch {
+	case c > 0 && h > 0 && o < 3*c:
+		return "organic matter", true
+	case c > 0 && n > 0 && o == 0:
+		return "a cyanide", true
+	case s > 0 && o < 4*s:
+		return "a sulfur reducing agent", true
+	case p > 0 && o < 4*p:
+		return "a phosphorus reducing agent", true
+	case b > 0 && h > 0 && o == 0:
+		return "a borohydride", true
+	case n > 0 && h >= 3*n && o == 0:
+		return "an ammonium salt or hydrazine", true
+	case h > 0 && o == 0 && c == 0 && n == 0 && s == 0 && p == 0 && b == 0 && noHalogen(a):
+		return "a hydride", true
+	}
+	return "", false
+}
+
+// noHalogen reports whether the atoms hold no halogen (HCl, HF are acids,
+// not hydrides).
+func noHalogen(a engine.Atoms) bool {
+	return a["F"] == 0 && a["Cl"] == 0 && a["Br"] == 0 && a["I"] == 0
 }
