@@ -25,7 +25,10 @@ type Request struct {
 	// TempFromStreams: TemperatureK is the streams' own temperatures
 	// averaged (StreamsTemperatureK), not one stated for the whole mix.
 	TempFromStreams bool
-	Notes           []string // how the parser read the request where the answer should say so
+	// PourInto: the request wrote an order of addition, "pour A into B"
+	// (two streams): the first stream runs into the second.
+	PourInto bool
+	Notes    []string // how the parser read the request where the answer should say so
 }
 
 // Stream is one stream of a mix request.
@@ -367,8 +370,10 @@ func (p *parser) request() (*Request, error) {
 	if len(p.toks) == 0 {
 		return nil, &ParseError{Code: "empty-request", Message: "the request is empty; write the streams to mix, e.g. " + example, Position: 1, Suggestions: []string{}}
 	}
+	pour := false
 	if tk := p.peek(); isWord(tk, "mix") || isWord(tk, "combine") || isWord(tk, "pour") {
 		// The verbs operators type for the same question.
+		pour = isWord(tk, "pour")
 		p.i++
 	}
 	for {
@@ -386,6 +391,9 @@ func (p *parser) request() (*Request, error) {
 			break
 		}
 		if isSeparator(tk) {
+			if len(req.Streams) == 1 && pour && isWord(tk, "into") {
+				req.PourInto = true
+			}
 			p.i++
 			continue
 		}
@@ -398,6 +406,7 @@ func (p *parser) request() (*Request, error) {
 		return nil, p.errAt(tk, "unexpected-token", "did not expect %q here; separate streams with \"+\" or \"and\", and components with \",\"", tk.text)
 	}
 	p.startTemperature(req)
+	req.PourInto = req.PourInto && len(req.Streams) == 2
 	if len(req.Streams) > 20 {
 		return nil, &ParseError{Code: "too-many-streams", Message: fmt.Sprintf("%d streams: mixward takes at most 20 in one request", len(req.Streams)), Position: req.Streams[20].Pos, Suggestions: []string{}}
 	}

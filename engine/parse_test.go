@@ -580,3 +580,27 @@ func TestStatedHeadspace(t *testing.T) {
 		t.Errorf("chlorine: %.3g mol at %.4g ppm over 250 L, %.3g mol at %.4g ppm over 20 m³; want the same ppm and 80 times the amount", m1, p1, m2, p2)
 	}
 }
+
+// TestParsePourInto: "pour A into B" records the order written (two
+// streams only); "mix", "combine" and "+" write none.
+func TestParsePourInto(t *testing.T) {
+	for _, tc := range []struct {
+		req  string
+		want bool
+	}{
+		{"pour 40 L water into 200 L H2SO4 98 %", true},
+		{"pour 40 L water into 200 L H2SO4 98 % at 30 C", true},
+		{"pour 40 L water + 200 L H2SO4 98 %", false},
+		{"mix 40 L water into 200 L H2SO4 98 %", false},
+		{"combine 40 L water with 200 L H2SO4 98 %", false},
+		{"pour 40 L water into 200 L H2SO4 98 % + 10 L HCl 10 %", false},
+	} {
+		req, err := engine.ParseRequest(tc.req, mustEngine(t).Tables, nil)
+		if err != nil {
+			t.Fatalf("%s: %v", tc.req, err)
+		}
+		if req.PourInto != tc.want {
+			t.Errorf("%s: PourInto %v, want %v", tc.req, req.PourInto, tc.want)
+		}
+	}
+}

@@ -101,12 +101,24 @@ type Decision struct {
 // other, from the first drop to the final ratio.
 type Addition struct {
 	Orders []PourOrder `json:"orders"`
-	Advice string      `json:"advice"`
-	Points int         `json:"points"` // mixes evaluated along the pour, all orders
+	// Written is the order the request wrote ("pour A into B"), when it
+	// wrote one.
+	Written *WrittenOrder `json:"written,omitempty"`
+	Advice  string        `json:"advice"`
+	Points  int           `json:"points"` // mixes evaluated along the pour, all orders
 	// Sequences are, for three or four streams, every order of running the
 	// streams one after another into one tank, best first: the first stream
 	// is the tank, each step runs the next stream into what is there.
 	Sequences []PourSequence `json:"sequences,omitempty"`
+}
+
+// WrittenOrder is the order of addition a request wrote: Added runs into
+// Into. Worse: it meets a hazard of a higher level than the other order,
+// which the decision then names first.
+type WrittenOrder struct {
+	Added string `json:"added"`
+	Into  string `json:"into"`
+	Worse bool   `json:"worse"`
 }
 
 // PourSequence is one order of running three or more streams into one tank.

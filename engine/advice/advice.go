@@ -84,6 +84,7 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 	if res.Addition == nil {
 		res.Addition = &engine.Addition{Orders: []engine.PourOrder{}, Advice: "One stream: nothing is poured into anything."}
 	}
+	pour.Written(res.Addition, req)
 	d := hazard.Decide(res.Hazards, res.Addition)
 	d.HeadspaceL, d.HeadspaceStated = o.HeadspaceL, o.HeadspaceStated
 	d.Held = []string{}

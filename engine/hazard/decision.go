@@ -53,6 +53,11 @@ func Decide(final []engine.Hazard, add *engine.Addition) engine.Decision {
 			d.Title = worseOrderTitle(add, choice)
 		}
 		d.Title += "; order of addition matters: add " + choice.Added + " into " + choice.Into
+		if w := add.Written; w != nil && w.Worse && w.Added == choice.Into {
+			// The request wrote the worse order: say so first.
+			d.Title = "not in the order written: " + strings.TrimSuffix(worseOrderTitle(add, choice), " if poured the other way") +
+				" while " + w.Added + " runs into " + w.Into + "; add " + choice.Added + " into " + choice.Into + " instead"
+		}
 	}
 	if add != nil && add.Advice != "" && allW >= 2 {
 		d.Actions = appendNew(d.Actions, add.Advice)

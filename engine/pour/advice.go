@@ -150,3 +150,15 @@ func heatOnly(o engine.PourOrder) bool {
 	}
 	return len(o.Hazards) > 0
 }
+
+// Written records on add the order of addition the request wrote ("pour A
+// into B": the first stream into the second), and whether it meets a
+// hazard of a higher level than the other order.
+func Written(add *engine.Addition, req *engine.Request) {
+	if add == nil || !req.PourInto || len(req.Streams) != 2 || len(add.Orders) != 2 {
+		return
+	}
+	// The orders of a pair come as (second into first, first into second).
+	w, other := add.Orders[1], add.Orders[0]
+	add.Written = &engine.WrittenOrder{Added: w.Added, Into: w.Into, Worse: worst(w) > worst(other)}
+}
