@@ -1,0 +1,72 @@
+package advice_test
+
+import (
+	"strings"
+	"testing"
+
+	"mixward/engine"
+)
+
+// decisionGas is the moles of a gas the decision counts.
+func decisionGas(r *engine.Result, text string) float64 {
+	if r.Decision == nil {
+		return 0
+	}
+	for _, g := range r.Decision.Gases {
+		if g.Text == text {
+			return g.Mol
+		}
+	}
+	return 0
+}
+
+// TestBorohydrideKeptUntilAcid: a borohydride liquor is kept as borohydride
+// by itself, diluted with water or with caustic (it is sold stabilised in
+// caustic soda and hydrolyses only slowly above about pH 10: Kreevoy and
+// Jacobson 1979, from memory); acid takes it to boric acid and hydrogen in
+// minutes, BH4- + H+ + 3 H2O → H3BO3 + 4 H2 (Bretherick's Handbook of
+// Reactive Chemical Hazards, sodium tetrahydroborate, from memory), four
+// hydrogen molecules for each proton the acid brings.
+//
+// Hand checks: 100 L of 12 % NaBH4 at 1.00 g/mL (no density row) is
+// 12000/37.83 = 317 mol; 50 L of 10 % HCl at 1.048 g/mL (CRC, from memory)
+// is 5240/36.46 = 144 mol H+, so about 575 mol H2; ΔrH ≈ −263 kJ/mol
+// (NBS Tables 1982: BH4- +48, H3BO3(aq) −1072 kJ/mol, from memory) gives
+// ≈ 38 MJ. 20 L of 80 % acetic acid at 1.07 g/mL (CRC, from memory) is
+// 285 mol, all of it reaching the borohydride: ≈ 1140 mol H2.
+func TestBorohydrideKeptUntilAcid(t *testing.T) {
+	a := mustAdvisor(t)
+	cases := []struct {
+		name, req        string
+		level            engine.Level
+		h2Min, h2Max     float64
+		heatMin, heatMax float64 // kJ released (0, 0: not checked)
+	}{
+		{"diluted with water", "mix 100 L NaBH4 12 % + 100 L water", engine.NoConcern, 0, 1, 0, 0},
+		{"stream alone, larger", "mix 500 L NaBH4 12 % + 10 L water", engine.NoConcern, 0, 1, 0, 0},
+		{"with caustic", "mix 100 L NaBH4 12 % + 50 L NaOH 20 %", engine.NoConcern, 0, 1, 0, 0},
+		{"into hydrochloric acid", "mix 100 L NaBH4 12 % + 50 L HCl 10 %", engine.DoNotMix, 545, 600, 34000, 42000},
+		{"acid listed first, weaker", "mix 50 L HCl 5 % + 100 L NaBH4 12 %", engine.DoNotMix, 265, 305, 0, 0},
+		{"acetic acid reaches it too", "mix 100 L NaBH4 12 % + 20 L acetic acid 80 %", engine.DoNotMix, 1080, 1200, 0, 0},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			r := ask(t, a, c.req)
+			if r.Decision == nil || r.Decision.Level != c.level {
+				t.Fatalf("%s: decision %+v, want %s", c.req, r.Decision, c.level)
+			}
+			if h2 := decisionGas(r, "H2(g)"); h2 < c.h2Min || h2 > c.h2Max {
+				t.Errorf("%s: H2 %.1f mol, want %.0f–%.0f", c.req, h2, c.h2Min, c.h2Max)
+			}
+			if c.heatMax > 0 {
+				h := r.Decision.Heat
+				if h == nil || h.ReleasedkJ < c.heatMin || h.ReleasedkJ > c.heatMax {
+					t.Errorf("%s: heat %+v, want %.0f–%.0f kJ released", c.req, h, c.heatMin, c.heatMax)
+				}
+			}
+			if c.level == engine.NoConcern && !strings.Contains(strings.ToLower(strings.Join(r.Decision.Held, " ")), "borohydride") {
+				t.Errorf("%s: the kept hydrolysis is not listed as held back: %q", c.req, r.Decision.Held)
+			}
+		})
+	}
+}
