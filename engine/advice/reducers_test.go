@@ -70,3 +70,43 @@ func TestBorohydrideKeptUntilAcid(t *testing.T) {
 		})
 	}
 }
+
+// TestHypophosphiteWithNitricAcid: nitric acid of about 2 mol/L and more
+// in the mix oxidizes hypophosphite with brown fumes, and the heat makes it
+// run away (Vogel's Textbook of Macro and Semimicro Qualitative Inorganic
+// Analysis, hypophosphites; Bretherick's Handbook of Reactive Chemical
+// Hazards, hypophosphites with oxidants; both from memory); dilute nitric
+// acid leaves it, as the electroless-nickel lock says.
+//
+// Hand checks: 50 L of 30 % NaH2PO2 at 1.00 g/mL (no density row) is
+// 15000/87.98 = 170 mol; 20 L of 68 % HNO3 at 1.41 g/mL (CRC, from memory)
+// is 304 mol. 3 H3PO2 + 2 NO3- + 2 H+ → 3 H3PO3 + 2 NO + H2O has
+// ΔrH = 3(−964.8) + 2(90.25) − 285.83 − 3(−604.6) − 2(−205.0) = −776 kJ
+// (NBS Tables 1982, from memory): the mix releases heat at any starting
+// temperature and boils.
+func TestHypophosphiteWithNitricAcid(t *testing.T) {
+	a := mustAdvisor(t)
+	for _, req := range []string{
+		"mix 50 L NaH2PO2 30 % + 20 L HNO3 68 %",
+		"mix 50 L NaH2PO2 30 % + 20 L HNO3 68 % at 80 C",
+		"mix 20 L HNO3 68 % + 50 L NaH2PO2 30 %",
+	} {
+		r := ask(t, a, req)
+		if r.Decision == nil || r.Decision.Level != engine.DoNotMix {
+			t.Fatalf("%s: decision %+v, want do-not-mix", req, r.Decision)
+		}
+		if no := decisionGas(r, "NO(g)") + decisionGas(r, "NO2(g)"); no < 60 {
+			t.Errorf("%s: NO + NO2 %.1f mol, want at least 60", req, no)
+		}
+		if h := r.Decision.Heat; h == nil || h.ReleasedkJ < 25000 || !h.Boils {
+			t.Errorf("%s: heat %+v, want at least 25 MJ released and boiling", req, h)
+		}
+		if strings.Contains(strings.Join(r.Decision.Held, " "), "electroless") {
+			t.Errorf("%s: the oxidation is still held back by the electroless-nickel lock: %q", req, r.Decision.Held)
+		}
+	}
+	r := ask(t, a, "mix 50 L NaH2PO2 30 % + 20 L HNO3 5 %")
+	if r.Decision == nil || r.Decision.Level == engine.DoNotMix || decisionGas(r, "NO(g)") > 1 {
+		t.Errorf("dilute nitric acid: decision %+v, NO %.1f mol; want the hypophosphite kept", r.Decision, decisionGas(r, "NO(g)"))
+	}
+}
