@@ -110,3 +110,32 @@ func TestHypophosphiteWithNitricAcid(t *testing.T) {
 		t.Errorf("dilute nitric acid: decision %+v, NO %.1f mol; want the hypophosphite kept", r.Decision, decisionGas(r, "NO(g)"))
 	}
 }
+
+// TestAluminiumInNitricAcid: concentrated nitric acid passivates aluminium,
+// but below about 80 % the metal is still attacked slowly with brown fumes
+// (Perry's Chemical Engineers' Handbook, corrosion tables, from memory;
+// aluminium tanks carry strong nitric acid, common practice, no source);
+// dilute nitric acid attacks it at once.
+func TestAluminiumInNitricAcid(t *testing.T) {
+	a := mustAdvisor(t)
+	cases := []struct {
+		req   string
+		level engine.Level
+		code  string
+	}{
+		{"mix 50 L HNO3 68 % + 5 kg Al", engine.WithPrecautions, "nitric-slow-attack"},
+		{"mix 5 kg Al + 100 L HNO3 65 %", engine.WithPrecautions, "nitric-slow-attack"},
+		{"mix 50 L HNO3 98 % + 5 kg Al", engine.NoConcern, ""},
+		{"mix 50 L HNO3 30 % + 5 kg Al", engine.DoNotMix, ""},
+	}
+	for _, c := range cases {
+		r := ask(t, a, c.req)
+		if r.Decision == nil || r.Decision.Level != c.level {
+			t.Errorf("%s: decision %+v, want %s", c.req, r.Decision, c.level)
+			continue
+		}
+		if _, ok := hazardOf(r, c.code); c.code != "" && !ok {
+			t.Errorf("%s: no %s hazard among %+v", c.req, c.code, r.Hazards)
+		}
+	}
+}

@@ -130,6 +130,9 @@ func formsLine(r *engine.Result) string {
 		if slices.ContainsFunc(r.Hazards, func(h engine.Hazard) bool { return h.Code == "slow-hydrogen" }) {
 			return "Forms: hydrogen, slowly over hours (not counted: no amount at once)"
 		}
+		if slices.ContainsFunc(r.Hazards, func(h engine.Hazard) bool { return h.Code == "nitric-slow-attack" }) {
+			return "Forms: nitrogen oxides, slowly while the metal corrodes (not counted: no amount at once)"
+		}
 		return "Forms: no gas of concern"
 	}
 	return "Forms: " + strings.Join(parts, "; ")

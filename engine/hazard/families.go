@@ -15,7 +15,7 @@ import (
 // Each is judged from what the streams bring together, with its source.
 var familyRules = []func(o *Outcome) (engine.Hazard, bool){
 	chloroAmines, nitrateEsters, nitricOrganic, hydrazineNitric, hydroxylamineMetalSalts, dampDithionite, ammoniumNitrite, permanganateSulfuric, volatileAcid,
-	solidHypochlorite, magnesiumWater, cyanideOxidation, halideSulfuric, chlorateSulfuric, hotElectrolessNickel, nitricMetalFumes,
+	solidHypochlorite, magnesiumWater, cyanideOxidation, halideSulfuric, chlorateSulfuric, hotElectrolessNickel, nitricMetalFumes, aluminiumNitricSlow,
 	chlorateSulfite, hydrazineOxidizer,
 	// organic, azide and solid-chlorinator families (organic.go)
 	organicPeroxides, perchlorateEsters, peracidAlkali, oxidizerOrganic, bisChloromethylEther,
@@ -582,4 +582,25 @@ func nitricMetalFumes(o *Outcome) (engine.Hazard, bool) {
 		}
 	}
 	return engine.Hazard{}, false
+}
+
+// nitricProofMolar (mol/L of nitrate as combined) is about 80 % nitric acid
+// (1.45 g/mL, 18.4 mol/L: CRC Handbook, concentrative properties, from
+// memory): aluminium stands up to nitric acid above it; at 60–80 % the
+// film holds (lock nitric-passivation-aluminium) but the metal is still
+// attacked slowly.
+const nitricProofMolar = 18.0
+
+// aluminiumNitricSlow: aluminium held passive by concentrated nitric acid
+// (lock nitric-passivation-aluminium) below about 80 % still corrodes
+// slowly with brown fumes; powder and turnings go faster, and diluting the
+// acid with the metal in it makes the attack quick.
+func aluminiumNitricSlow(o *Outcome) (engine.Hazard, bool) {
+	if !heldBy(o, "nitric-passivation-aluminium") || o.MolarBefore("NO3-", "HNO3") >= nitricProofMolar {
+		return engine.Hazard{}, false
+	}
+	return mk("nitric-slow-attack", engine.Warning,
+		"Aluminium is passivated by nitric acid of this strength ("+fmtNum(o.MolarBefore("NO3-", "HNO3"), 3)+" mol/L nitrate), but below about 80 % acid the film does not stop it altogether: the metal corrodes slowly with brown nitrogen oxides (not counted here), powder and turnings faster, and diluting the acid with the metal in it makes the attack fast.",
+		"Keep aluminium powder and turnings out; do not dilute or rinse with the metal in the acid; work with extraction and keep the vessel vented.",
+		"Perry's Chemical Engineers' Handbook, corrosion of aluminium by nitric acid (from memory); aluminium tanks for strong (above about 80 %) nitric acid: common practice, no source"), true
 }
