@@ -5,6 +5,7 @@ import (
 	"testing"
 
 	"mixward/engine"
+	"mixward/engine/advice"
 )
 
 // decisionGas is the moles of a gas the decision counts.
@@ -138,4 +139,46 @@ func TestAluminiumInNitricAcid(t *testing.T) {
 			t.Errorf("%s: no %s hazard among %+v", c.req, c.code, r.Hazards)
 		}
 	}
+}
+
+// TestRunawayHeatIfItRuns: a runaway a hazard names but the mix as made
+// does not run (ammonium with nitrite, cold and near neutral) shows the
+// heat it would give off, not counted; once warm the state runs it and
+// counts it, and nothing is left to show apart.
+//
+// Hand check: 50 L of 25 % NH4Cl at 1.00 g/mL (no density row) is
+// 12500/53.49 = 234 mol; NH4+ + NO2- → N2 + 2 H2O has ΔrH = 2(−285.83) −
+// (−132.51) − (−104.6) = −334.6 kJ/mol (NBS Tables 1982, from memory):
+// 78 MJ, enough to boil the 100 L many times over.
+func TestRunawayHeatIfItRuns(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "mix 50 L NaNO2 40 % + 50 L NH4Cl 25 %")
+	if r.Decision == nil || r.Decision.Level != engine.DoNotMix || r.Decision.Heat == nil {
+		t.Fatalf("decision %+v, want do-not-mix with a heat figure", r.Decision)
+	}
+	h := r.Decision.Heat
+	if len(h.IfRuns) != 1 || h.IfRuns[0].ReleasedkJ < 74000 || h.IfRuns[0].ReleasedkJ > 82000 || !h.IfRuns[0].Boils || h.IfRuns[0].Counted {
+		t.Fatalf("if it runs: %+v, want one uncounted runaway of about 78 MJ that boils", h.IfRuns)
+	}
+	if h.ReleasedkJ > 1000 {
+		t.Errorf("the runaway's heat is counted in the mix's own (%.0f kJ)", h.ReleasedkJ)
+	}
+	if line := heatLineOf(t, a, "mix 50 L NaNO2 40 % + 50 L NH4Cl 25 %"); !strings.Contains(line, "if it runs:") {
+		t.Errorf("short answer heat line %q has no heat if it runs", line)
+	}
+	r = ask(t, a, "mix 50 L NaNO2 40 % + 50 L NH4Cl 25 % at 50 C")
+	if r.Decision == nil || r.Decision.Heat == nil || len(r.Decision.Heat.IfRuns) != 0 || r.Decision.Heat.ReleasedkJ < 40000 {
+		t.Errorf("warm mix: heat %+v, want the decomposition counted in the mix's heat and none apart", r.Decision.Heat)
+	}
+}
+
+// heatLineOf is the Heat line of the short answer.
+func heatLineOf(t *testing.T, a *advice.Advisor, req string) string {
+	t.Helper()
+	for _, l := range strings.Split(advice.RenderShort(ask(t, a, req)), "\n") {
+		if strings.HasPrefix(l, "Heat:") {
+			return l
+		}
+	}
+	return ""
 }

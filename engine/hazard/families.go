@@ -268,10 +268,17 @@ func ammoniumNitrite(o *Outcome) (engine.Hazard, bool) {
 	if o.TemperatureC >= 40 || o.PH < 5 || n >= 1 {
 		sev = engine.Danger
 	}
-	return mk("ammonium-nitrite-runaway", sev,
+	h := mk("ammonium-nitrite-runaway", sev,
 		"Ammonium with nitrite ("+fmtNum(n, 2)+" mol/L of each) decomposes to nitrogen and water, giving off up to "+fmtNum(kJ, 3)+" kJ; warm or acidic it speeds itself up and can run away with a surge of gas.",
 		"Do not combine, or only dilute and cold with venting; never heat or acidify such a mix.",
-		"Bretherick's Handbook of Reactive Chemical Hazards, ammonium nitrite (from memory); ΔH from NBS Tables 1982 ΔfH° of NH4+, NO2- and H2O(l); thresholds: common practice, no source"), true
+		"Bretherick's Handbook of Reactive Chemical Hazards, ammonium nitrite (from memory); ΔH from NBS Tables 1982 ΔfH° of NH4+, NO2- and H2O(l); thresholds: common practice, no source")
+	if o.Molar("N2", "N2(g)") < o.MolarBefore("N2", "N2(g)")+n/2 && o.GasMol("N2") < n*o.VolumeL/2 {
+		// The state does not run it (cold, not acid): its heat is shown
+		// as the heat if it runs, not counted.
+		h.RunawayHeat = o.familyHeat("ammonium-nitrite-runaway",
+			reagent{"NH4+", o.MolarBefore("NH4+", "NH3") * o.VolumeL, 1}, reagent{"NO2-", o.MolarBefore("NO2-", "HNO2") * o.VolumeL, 1})
+	}
+	return h, true
 }
 
 // permanganateSulfuric: permanganate with concentrated sulfuric acid forms
