@@ -1,6 +1,7 @@
 package advice_test
 
 import (
+	"slices"
 	"strings"
 	"testing"
 
@@ -181,4 +182,43 @@ func heatLineOf(t *testing.T, a *advice.Advisor, req string) string {
 		}
 	}
 	return ""
+}
+
+// TestChloriteTakesChlorineFirst: chlorite in acid takes hypochlorous acid
+// and chlorine to chlorine dioxide first (2 ClO2- + HOCl + H+ → 2 ClO2 +
+// Cl- + H2O; White's Handbook of Chlorination, chlorine–chlorite
+// generation, from memory): only hypochlorite beyond half the chlorite is
+// left to give chlorine.
+//
+// Hand checks at 1.00 g/mL for chlorite (no density row): 10 L of 25 %
+// NaClO2 is 2500/90.44 = 27.6 mol; 10 L of 12.5 % NaOCl at 1.18 g/mL
+// (data/densities.txt) is 19.8 mol. Chlorite takes 13.8 mol of it to 27.6
+// mol ClO2; 6.0 mol hypochlorite is left, as chlorine in the hydrochloric
+// acid. With 20 L of chlorite (55 mol) none is left: no chlorine.
+func TestChloriteTakesChlorineFirst(t *testing.T) {
+	a := mustAdvisor(t)
+	cases := []struct {
+		req                     string
+		clo2Min, cl2Min, cl2Max float64
+	}{
+		{"mix 10 L NaClO2 25 % + 10 L NaOCl 12.5 % + 10 L HCl 32 %", 26.5, 5, 7},
+		{"mix 10 L HCl 32 % + 10 L NaOCl 12.5 % + 10 L NaClO2 25 %", 26.5, 5, 7},
+		{"mix 20 L NaClO2 25 % + 10 L NaOCl 12.5 % + 10 L HCl 32 %", 39.5, 0, 0.5},
+	}
+	for _, c := range cases {
+		r := ask(t, a, c.req)
+		sum := func(texts ...string) float64 {
+			tot := 0.0
+			for _, x := range r.FinalComposition {
+				if slices.Contains(texts, x.Text) {
+					tot += x.Mol
+				}
+			}
+			return tot
+		}
+		clo2, cl2 := sum("ClO2", "ClO2(g)"), sum("Cl2", "Cl2(g)")
+		if clo2 < c.clo2Min || cl2 < c.cl2Min || cl2 > c.cl2Max {
+			t.Errorf("%s: ClO2 %.1f mol (want at least %.1f), Cl2 %.1f mol (want %.1f–%.1f)", c.req, clo2, c.clo2Min, cl2, c.cl2Min, c.cl2Max)
+		}
+	}
 }
