@@ -85,7 +85,8 @@ func TestBorohydrideKeptUntilAcid(t *testing.T) {
 // is 304 mol. 3 H3PO2 + 2 NO3- + 2 H+ → 3 H3PO3 + 2 NO + H2O has
 // ΔrH = 3(−964.8) + 2(90.25) − 285.83 − 3(−604.6) − 2(−205.0) = −776 kJ
 // (NBS Tables 1982, from memory): the mix releases heat at any starting
-// temperature and boils.
+// temperature and boils. The acid limit written for metals (four protons
+// per nitric oxide) does not hold it back: hypophosphite spends about one.
 func TestHypophosphiteWithNitricAcid(t *testing.T) {
 	a := mustAdvisor(t)
 	for _, req := range []string{
@@ -97,8 +98,10 @@ func TestHypophosphiteWithNitricAcid(t *testing.T) {
 		if r.Decision == nil || r.Decision.Level != engine.DoNotMix {
 			t.Fatalf("%s: decision %+v, want do-not-mix", req, r.Decision)
 		}
-		if no := decisionGas(r, "NO(g)") + decisionGas(r, "NO2(g)"); no < 60 {
-			t.Errorf("%s: NO + NO2 %.1f mol, want at least 60", req, no)
+		// At most all of it to phosphate: 170 × 4/3 = 227 mol NO; at least
+		// the first step to phosphite, 170 × 2/3 = 113 mol.
+		if no := decisionGas(r, "NO(g)") + decisionGas(r, "NO2(g)"); no < 110 || no > 235 {
+			t.Errorf("%s: NO + NO2 %.1f mol, want 110–235", req, no)
 		}
 		if h := r.Decision.Heat; h == nil || h.ReleasedkJ < 25000 || !h.Boils {
 			t.Errorf("%s: heat %+v, want at least 25 MJ released and boiling", req, h)
