@@ -44,6 +44,9 @@ func TestDissolutionHeatOfSalts(t *testing.T) {
 		{"Na2S", 78.04, -77.0, "NBS Tables 1982: Na2S(s) −364.8, Na+ −240.12, HS- −17.6, OH- −229.99, H2O(l) −285.83 (sulfide hydrolysed)"},
 		{"Al2(SO4)3", 342.15, -349.0, "NBS Tables 1982: Al2(SO4)3(s) −3440.84, Al^3+ −531, SO4^2- −909.34"},
 		{"NiSO4", 154.76, -90.4, "NBS Tables 1982: NiSO4(s) −872.91, Ni^2+ −54.0, SO4^2- −909.34"},
+		{"ZnCl2", 136.29, -73.1, "CRC Enthalpy of solution of electrolytes; NBS Tables 1982: ZnCl2(s) −415.05"},
+		{"NiCl2", 129.60, -82.9, "CRC Enthalpy of solution of electrolytes; NBS Tables 1982: NiCl2(s) −305.33"},
+		{"NiSO4.6H2O", 262.85, 4.5, "NBS Tables 1982: NiSO4·6H2O(s) −2682.8, Ni^2+ −54.0, SO4^2- −909.27, H2O(l) −285.83"},
 	}
 	const mol = 2.0
 	for _, c := range cases {

@@ -256,6 +256,15 @@ func renderAmounts(b *strings.Builder, r *Result) {
 				w("  ΔH of the headline reaction %s kJ per mol as written\n", trimFloat(*h.DeltaHkJPerMol, 1))
 			}
 			w("  %s\n", h.Assumption)
+			for _, x := range h.IfRuns {
+				w("  Not counted above, held back: if %s runs, it gives off %s kJ more", x.Reaction, sigText(x.ReleasedkJ))
+				if x.Boils {
+					w(" and the mix boils")
+				} else if x.ReachedC != nil {
+					w(", to about %.0f °C", *x.ReachedC)
+				}
+				w(" (%s)\n", x.Source)
+			}
 		case h.Withheld != "":
 			w("\nHeat: no estimate, %s\n", h.Withheld)
 		case len(h.Missing) > 0:

@@ -254,6 +254,10 @@ type Hazard struct {
 	// liquid), which the equilibrium state does not run; the decision's
 	// heat adds it.
 	ReactionHeat *ReactionHeat `json:"reaction_heat,omitempty"`
+	// RunawayHeat is the heat of the runaway a family hazard names but
+	// the mix as made does not run (it is held back until warm or acid):
+	// never counted, shown as the heat if it runs.
+	RunawayHeat *ReactionHeat `json:"runaway_heat,omitempty"`
 	// Counts are the gases a hazard counts by amount outside its Gas
 	// figure: a reaction family the equilibrium state does not run
 	// (hydrogen chloride driven out by concentrated sulfuric acid, oxygen
@@ -303,6 +307,10 @@ type ReactionHeat struct {
 	Reagents       []string `json:"reagents"`           // what it uses up, for sharing between families
 	Counted        bool     `json:"counted"`            // added to the decision's heat
 	Source         string   `json:"source"`
+	// ReachedC and Boils are given for a runaway that is held back (see
+	// HeatJudged.IfRuns): the temperature the mix would reach if it ran.
+	ReachedC *float64 `json:"reached_c,omitempty"`
+	Boils    bool     `json:"boils,omitempty"`
 }
 
 // GasJudged is a gas hazard in numbers: the amount released and the
@@ -354,6 +362,10 @@ type HeatJudged struct {
 	// the heat of reactions judged as families to it.
 	StatekJ   *float64       `json:"state_kj,omitempty"`
 	Reactions []ReactionHeat `json:"reactions,omitempty"`
+	// IfRuns is the heat of each runaway a hazard names that does not run
+	// in the mix as made (ammonium with nitrite, cold and not acid): not
+	// counted in ReleasedkJ, shown as what it would give off if it ran.
+	IfRuns []ReactionHeat `json:"if_runs,omitempty"`
 }
 
 // Amounts is the stoichiometry of the headline reaction.
@@ -424,6 +436,9 @@ type Heat struct {
 	FamilyReactions []ReactionHeat `json:"family_reactions,omitempty"`
 	TotalReleasedkJ *float64       `json:"total_released_kj,omitempty"`
 	WaterFlashedKg  *float64       `json:"water_flashed_kg,omitempty"`
+	// IfRuns is the heat of each runaway a hazard names that the mix as
+	// made does not run (see HeatJudged.IfRuns): not counted above.
+	IfRuns []ReactionHeat `json:"if_runs,omitempty"`
 }
 
 // Step is one follow-on reaction, predicted on what the previous one left.

@@ -96,7 +96,10 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 		d.Held = append(d.Held, h.Text+": "+h.Reason)
 	}
 	if o.Heat.Known {
-		d.Heat = &engine.HeatJudged{ReleasedkJ: round1(o.Heat.ReleasedkJ), ReachedC: round1(o.Heat.ReachedC), Boils: o.Heat.Boils}
+		d.Heat = &engine.HeatJudged{ReleasedkJ: round1(o.Heat.ReleasedkJ), ReachedC: round1(o.Heat.ReachedC), Boils: o.Heat.Boils, IfRuns: o.Heat.IfRuns}
+		if res.Heat != nil {
+			res.Heat.IfRuns = o.Heat.IfRuns
+		}
 		if len(o.Heat.Families) > 0 {
 			state := round1(o.Heat.StatekJ)
 			d.Heat.StatekJ, d.Heat.Reactions = &state, o.Heat.Families

@@ -130,6 +130,9 @@ func formsLine(r *engine.Result) string {
 		if slices.ContainsFunc(r.Hazards, func(h engine.Hazard) bool { return h.Code == "slow-hydrogen" }) {
 			return "Forms: hydrogen, slowly over hours (not counted: no amount at once)"
 		}
+		if slices.ContainsFunc(r.Hazards, func(h engine.Hazard) bool { return h.Code == "nitric-slow-attack" }) {
+			return "Forms: nitrogen oxides, slowly while the metal corrodes (not counted: no amount at once)"
+		}
 		return "Forms: no gas of concern"
 	}
 	return "Forms: " + strings.Join(parts, "; ")
@@ -254,8 +257,24 @@ func heatLine(r *engine.Result) string {
 		for _, x := range r.Decision.Heat.Reactions {
 			line += fmt.Sprintf("; %s kJ of it from %s", num(x.ReleasedkJ), x.Reaction)
 		}
+		for _, x := range r.Decision.Heat.IfRuns {
+			line += "; " + ifRunsText(x)
+		}
 	}
 	return line
+}
+
+// ifRunsText is the heat of a held-back runaway: "if it runs: 84000 kJ
+// more (NH4+ + NO2- -> N2(g) + 2 H2O), would boil".
+func ifRunsText(x engine.ReactionHeat) string {
+	s := fmt.Sprintf("if it runs: %s kJ more (%s)", num(x.ReleasedkJ), x.Reaction)
+	switch {
+	case x.Boils:
+		s += ", would boil"
+	case x.ReachedC != nil:
+		s += fmt.Sprintf(", to about %s °C", num(*x.ReachedC))
+	}
+	return s
 }
 
 func heatFigure(r *engine.Result) string {

@@ -55,6 +55,7 @@ var codes = []Code{
 	{"stream-fumes", "a stream gives off a toxic gas by itself", []string{"toxic-gas"}},
 	{"solid-oxidizer-heating", "solid chlorinating agent: heats and ignites with little water", nil},
 	{"slow-hydrogen", "slow release of flammable hydrogen", []string{"flammable-gas"}},
+	{"nitric-slow-attack", "metal attacked slowly by nitric acid: brown fumes", nil},
 	{"cyanide-oxidation", "cyanide oxidation: only as a controlled step", []string{"cyanide-present"}},
 	{"hot-electroless-bath", "hot electroless-nickel bath: can crash with hydrogen", []string{"flammable-gas"}},
 	{"explosive-residue", "leaves explosive residues on standing", nil},

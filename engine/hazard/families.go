@@ -15,7 +15,7 @@ import (
 // Each is judged from what the streams bring together, with its source.
 var familyRules = []func(o *Outcome) (engine.Hazard, bool){
 	chloroAmines, nitrateEsters, nitricOrganic, hydrazineNitric, hydroxylamineMetalSalts, dampDithionite, ammoniumNitrite, permanganateSulfuric, volatileAcid,
-	solidHypochlorite, magnesiumWater, cyanideOxidation, halideSulfuric, chlorateSulfuric, hotElectrolessNickel, nitricMetalFumes,
+	solidHypochlorite, magnesiumWater, cyanideOxidation, halideSulfuric, chlorateSulfuric, hotElectrolessNickel, nitricMetalFumes, aluminiumNitricSlow,
 	chlorateSulfite, hydrazineOxidizer,
 	// organic, azide and solid-chlorinator families (organic.go)
 	organicPeroxides, perchlorateEsters, peracidAlkali, oxidizerOrganic, unassessedFuel, dryOxidizerFuel, bisChloromethylEther,
@@ -268,10 +268,17 @@ func ammoniumNitrite(o *Outcome) (engine.Hazard, bool) {
 	if o.TemperatureC >= 40 || o.PH < 5 || n >= 1 {
 		sev = engine.Danger
 	}
-	return mk("ammonium-nitrite-runaway", sev,
+	h := mk("ammonium-nitrite-runaway", sev,
 		"Ammonium with nitrite ("+fmtNum(n, 2)+" mol/L of each) decomposes to nitrogen and water, giving off up to "+fmtNum(kJ, 3)+" kJ; warm or acidic it speeds itself up and can run away with a surge of gas.",
 		"Do not combine, or only dilute and cold with venting; never heat or acidify such a mix.",
-		"Bretherick's Handbook of Reactive Chemical Hazards, ammonium nitrite (from memory); ΔH from NBS Tables 1982 ΔfH° of NH4+, NO2- and H2O(l); thresholds: common practice, no source"), true
+		"Bretherick's Handbook of Reactive Chemical Hazards, ammonium nitrite (from memory); ΔH from NBS Tables 1982 ΔfH° of NH4+, NO2- and H2O(l); thresholds: common practice, no source")
+	if o.Molar("N2", "N2(g)") < o.MolarBefore("N2", "N2(g)")+n/2 && o.GasMol("N2") < n*o.VolumeL/2 {
+		// The state does not run it (cold, not acid): its heat is shown
+		// as the heat if it runs, not counted.
+		h.RunawayHeat = o.familyHeat("ammonium-nitrite-runaway",
+			reagent{"NH4+", o.MolarBefore("NH4+", "NH3") * o.VolumeL, 1}, reagent{"NO2-", o.MolarBefore("NO2-", "HNO2") * o.VolumeL, 1})
+	}
+	return h, true
 }
 
 // permanganateSulfuric: permanganate with concentrated sulfuric acid forms
@@ -582,4 +589,25 @@ func nitricMetalFumes(o *Outcome) (engine.Hazard, bool) {
 		}
 	}
 	return engine.Hazard{}, false
+}
+
+// nitricProofMolar (mol/L of nitrate as combined) is about 80 % nitric acid
+// (1.45 g/mL, 18.4 mol/L: CRC Handbook, concentrative properties, from
+// memory): aluminium stands up to nitric acid above it; at 60–80 % the
+// film holds (lock nitric-passivation-aluminium) but the metal is still
+// attacked slowly.
+const nitricProofMolar = 18.0
+
+// aluminiumNitricSlow: aluminium held passive by concentrated nitric acid
+// (lock nitric-passivation-aluminium) below about 80 % still corrodes
+// slowly with brown fumes; powder and turnings go faster, and diluting the
+// acid with the metal in it makes the attack quick.
+func aluminiumNitricSlow(o *Outcome) (engine.Hazard, bool) {
+	if !heldBy(o, "nitric-passivation-aluminium") || o.MolarBefore("NO3-", "HNO3") >= nitricProofMolar {
+		return engine.Hazard{}, false
+	}
+	return mk("nitric-slow-attack", engine.Warning,
+		"Aluminium is passivated by nitric acid of this strength ("+fmtNum(o.MolarBefore("NO3-", "HNO3"), 3)+" mol/L nitrate), but below about 80 % acid the film does not stop it altogether: the metal corrodes slowly with brown nitrogen oxides (not counted here), powder and turnings faster, and diluting the acid with the metal in it makes the attack fast.",
+		"Keep aluminium powder and turnings out; do not dilute or rinse with the metal in the acid; work with extraction and keep the vessel vented.",
+		"Perry's Chemical Engineers' Handbook, corrosion of aluminium by nitric acid (from memory); aluminium tanks for strong (above about 80 %) nitric acid: common practice, no source"), true
 }

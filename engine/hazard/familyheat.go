@@ -138,3 +138,26 @@ func (o *Outcome) runsOrganic() bool {
 	}
 	return false
 }
+
+// addRunawayHeat lists the heat of each runaway a hazard names but the mix
+// as made does not run, with the temperature it would take the mix to (from
+// the heat as judged, about 1 kg per litre): shown, never counted.
+func addRunawayHeat(o *Outcome, hs []engine.Hazard) {
+	for i := range hs {
+		r := hs[i].RunawayHeat
+		if r == nil || !(r.ReleasedkJ > 0) {
+			continue
+		}
+		x := *r
+		startC := o.TemperatureC
+		if o.Heat.Known {
+			startC = o.Heat.ReachedC
+		}
+		reached := startC + engine.TemperatureRise(x.ReleasedkJ, o.VolumeL)
+		if x.Boils = reached >= BoilingC; x.Boils {
+			reached = BoilingC
+		}
+		x.ReachedC = &reached
+		o.Heat.IfRuns = append(o.Heat.IfRuns, x)
+	}
+}

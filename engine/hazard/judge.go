@@ -418,6 +418,7 @@ func Judge(o *Outcome, d *Data) []engine.Hazard {
 		}
 	}
 	addFamilyHeat(o, out)
+	addRunawayHeat(o, out)
 	fillCounts(o, d, out)
 	out = append(out, judgeHeat(o)...)
 	sort.SliceStable(out, func(i, j int) bool {

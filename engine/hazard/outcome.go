@@ -79,6 +79,9 @@ type Heat struct {
 	// ReleasedkJ; StatekJ is what the state gave before them.
 	Families []engine.ReactionHeat
 	StatekJ  float64
+	// IfRuns are the runaways the hazards name that do not run as mixed,
+	// with the temperature the mix would reach if each ran (not counted).
+	IfRuns []engine.ReactionHeat
 }
 
 // Outcome is what forms when the streams are combined: the view the hazard

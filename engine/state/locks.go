@@ -67,6 +67,13 @@ type Rule struct {
 	// come off thiosulfate together with sulfur dioxide or bisulfite (in
 	// acid), never with sulfate.
 	With *Group
+	// SpentBy, when set, lowers a no-gain group's cap by Per of its units
+	// for each atom of this group the streams bring, never below zero: the
+	// group is used up by the second before any of it can be left over or
+	// made anew ("no-gain {HOCl, OCl-, Cl2, Cl2(g)} + spent by Cl(3) x 0.5":
+	// chlorite takes hypochlorous acid and chlorine to chlorine dioxide
+	// first, one for every two chlorite).
+	SpentBy *Group
 	// Never marks a "never {A, B}" rule: each listed species may not grow
 	// beyond what the streams bring (a no-gain rule per species, so that one
 	// listed metal cannot form at the expense of another). Such species
@@ -309,9 +316,24 @@ func parseRule(s string) (Rule, error) {
 // parseAllowance reads "acid to ph N [x K]", "base to ph N [x K]" or
 // "with GROUP".
 func (r *Rule) parseAllowance(s string) error {
-	bad := fmt.Errorf(`want "+ acid to ph N [x K]", "+ base to ph N [x K]" or "+ with GROUP" after a no-gain group`)
+	bad := fmt.Errorf(`want "+ acid to ph N [x K]", "+ base to ph N [x K]", "+ with GROUP" or "+ spent by GROUP [x K]" after a no-gain group`)
 	if r.Dir != NoGain {
 		return bad
+	}
+	if rest, ok := strings.CutPrefix(s, "spent by "); ok {
+		grp, per, hasPer := strings.Cut(rest, " x ")
+		g, err := parseGroup(strings.TrimSpace(grp))
+		if err != nil {
+			return err
+		}
+		r.Per = 1
+		if hasPer {
+			if r.Per, err = strconv.ParseFloat(strings.TrimSpace(per), 64); err != nil || r.Per <= 0 || r.Per > 10 {
+				return bad
+			}
+		}
+		r.SpentBy = &g
+		return nil
 	}
 	if rest, ok := strings.CutPrefix(s, "with "); ok {
 		g, err := parseGroup(strings.TrimSpace(rest))

@@ -1,6 +1,7 @@
 package state
 
 import (
+	"math"
 	"strings"
 	"testing"
 
@@ -354,5 +355,43 @@ func TestNoNewBonds(t *testing.T) {
 	}
 	if _, err := parseGroup("C(organic>=1)"); err == nil {
 		t.Error("C(organic>=1): no error")
+	}
+}
+
+// TestSpentByRule: "no-gain G + spent by G2 x K" caps the group at what the
+// streams bring less K per atom of G2, never below zero: two chlorite take
+// one hypochlorous acid (White's Handbook of Chlorination, chlorine–chlorite
+// generation, from memory).
+func TestSpentByRule(t *testing.T) {
+	r, err := parseRule("no-gain {HOCl, Cl2} + spent by Cl(3) x 0.5")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.SpentBy == nil || r.SpentBy.Element != "Cl" || r.Per != 0.5 {
+		t.Fatalf("parsed %+v, want spent by Cl(3) at 0.5", r)
+	}
+	db := loadDB(t)
+	var mx Mix
+	for _, s := range []string{"HOCl", "Cl2", "ClO2-", "Cl-"} {
+		sp, ok := db.Get(s)
+		if !ok {
+			t.Fatalf("%s: no species data", s)
+		}
+		mx.Species = append(mx.Species, sp)
+	}
+	for _, c := range []struct{ hocl, cl2, clo2, want float64 }{
+		{20, 0, 27.5, 6.25}, // hypochlorite beyond half the chlorite is left
+		{20, 1, 50, 0},      // chlorite enough for all of it: never below zero
+		{5, 0, 0, 5},        // no chlorite: the plain no-gain cap
+	} {
+		got := ruleConstraint(&mx, "x#0", r, []float64{c.hocl, c.cl2, c.clo2, 10}).Bound
+		if math.Abs(got-c.want) > 1e-9 {
+			t.Errorf("HOCl %g, Cl2 %g, chlorite %g: bound %g, want %g", c.hocl, c.cl2, c.clo2, got, c.want)
+		}
+	}
+	for _, bad := range []string{"no-loss {HOCl} + spent by Cl(3)", "no-gain {HOCl} + spent by Cl(3) x 0", "no-gain {HOCl} + spent by"} {
+		if _, err := parseRule(bad); err == nil {
+			t.Errorf("parseRule(%q): no error", bad)
+		}
 	}
 }

@@ -501,6 +501,13 @@ func ruleConstraint(mx *Mix, name string, r Rule, n0 []float64) equilibrium.Cons
 	for i, w := range c.Coef {
 		c.Bound += w * n0[i]
 	}
+	if r.SpentBy != nil {
+		spent := 0.0
+		for i, w := range mx.weightsOf(*r.SpentBy) {
+			spent += w * n0[i]
+		}
+		c.Bound = math.Max(0, c.Bound-r.Per*spent)
+	}
 	switch r.Dir {
 	case NoGain:
 		c.Rel = equilibrium.AtMost
