@@ -305,6 +305,13 @@ func reactionLine(r *engine.Result) string {
 		// does not hold: name it rather than a pair held back on paper.
 		return "Redox: " + x + ", fast in the concentrated mix (outside the equilibrium model; the gas it gives is counted above)"
 	}
+	if x := familyReaction(r); x != "" && (r.Reaction != nil || len(r.HeldBack) > 0) &&
+		(r.Reaction == nil || r.Verdict != engine.Spontaneous || r.Decision != nil && held(r.Decision.Held, r.Reaction.Text)) {
+		// The hazard counts a reaction family the equilibrium holds back
+		// (an oxidizer burning an organic liquid): the line must not say
+		// it does not run while the Heat line counts it.
+		return "Redox: " + x + ": runs, judged as a reaction family (its heat is counted above; the equation the equilibrium holds back is in the details)"
+	}
 	if hb := pairHeld(r); hb != nil && (r.Reaction == nil || agents(r.Reaction) < 2) {
 		// The streams meeting is what the operator asks about: a pair held
 		// back heads the line before one agent's own change held back.
@@ -345,6 +352,19 @@ func reactionLine(r *engine.Result) string {
 	// The strongest pair on paper that does not run is for the details:
 	// in the short answer it read as a reaction that happens.
 	return "Redox: no redox reaction runs at these conditions (the pairs are in the details)"
+}
+
+// familyReaction names the first reaction family whose heat the decision
+// counts ("chromic acid oxidizing the organic liquid"), or "". The Redox
+// line names it only where the mix has a redox pair on paper: a family
+// without one (formaldehyde with ammonia) is no redox change.
+func familyReaction(r *engine.Result) string {
+	if r.Decision == nil || r.Decision.Heat == nil || len(r.Decision.Heat.Reactions) == 0 {
+		return ""
+	}
+	x := r.Decision.Heat.Reactions[0].Reaction
+	x, _, _ = strings.Cut(x, " (")
+	return strings.ToUpper(x[:1]) + x[1:]
 }
 
 // givesGas: a product of x is a gas.

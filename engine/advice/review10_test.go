@@ -134,3 +134,17 @@ func TestGasAtTheTemperatureReached(t *testing.T) {
 		t.Errorf("cyanide with a little acid, barely warmed: HCN %.2f mol, want the closed-headspace figure (under 5 mol)", mol)
 	}
 }
+
+// TestRedoxLineAgreesWithFamilyHeat: when the Heat line counts a reaction
+// family the equilibrium holds back (chromic acid or hypochlorite burning an
+// alcohol, Thornton's rule), the Redox line names it as running, not "held
+// back" or "no redox reaction runs" (review 12, T07 and T18).
+func TestRedoxLineAgreesWithFamilyHeat(t *testing.T) {
+	a := mustAdvisor(t)
+	for _, req := range []string{"mix 50 L CrO3 30 % + 10 L ethanol", "mix 100 L NaOCl 12.5 % + 10 L methanol"} {
+		short := advice.RenderShort(ask(t, a, req))
+		if !strings.Contains(short, "oxidizing the organic liquid: runs") || strings.Contains(short, "held back (not counted") || strings.Contains(short, "no redox reaction runs") {
+			t.Errorf("%s: the Redox line disagrees with the heat counted:\n%s", req, short)
+		}
+	}
+}
