@@ -249,13 +249,24 @@ func bromateWithAcid(o *Outcome, ps map[string]*pool) {
 }
 
 // cyanogenChloride: CN- + HOCl → CNCl + OH-; below pH 10 cyanogen chloride
-// is not hydrolysed to cyanate fast enough and escapes.
+// is not hydrolysed to cyanate fast enough and escapes. In acid (the mix
+// as combined below pH 7) an answer from the equilibrium state counts it
+// there: the cyanide-chlorination-acid lock of data/locks.txt stops
+// cyanide at cyanogen chloride, so the same hypochlorite is never spent
+// twice. Between pH 7 and 10 the state takes cyanide to cyanate, and the
+// cyanogen chloride counted here is that cyanate's own forerunner (one
+// path, CN- → CNCl → OCN-, not a second one): up to the cyanide the state
+// takes to cyanate escapes before it hydrolyses.
 func cyanogenChloride(o *Outcome, ps map[string]*pool) {
 	cn, ocl := o.MolarBefore("CN-", "HCN"), o.MolarBefore("OCl-", "HOCl")
-	if cn < TraceMolar || ocl < TraceMolar || o.PH >= 10 {
+	if cn < TraceMolar || ocl < TraceMolar || o.PH >= 10 || o.fromState && o.PH < 7 {
 		return
 	}
-	addTo(ps, "CNCl", math.Min(cn, ocl)*o.VolumeL, 1, "cyanide with hypochlorite below pH 10",
+	mol := math.Min(cn, ocl) * o.VolumeL
+	if o.fromState {
+		mol = math.Min(mol, (o.Molar("OCN-", "HOCN")-o.MolarBefore("OCN-", "HOCN"))*o.VolumeL)
+	}
+	addTo(ps, "CNCl", mol, 1, "cyanide with hypochlorite between pH 7 and 10, on its way to cyanate",
 		"alkaline chlorination of cyanide is run at pH 10 or above so that cyanogen chloride hydrolyses to cyanate: common practice, no source")
 }
 
