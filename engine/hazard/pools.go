@@ -253,10 +253,10 @@ func bromateWithAcid(o *Outcome, ps map[string]*pool) {
 // as combined below pH 7) an answer from the equilibrium state counts it
 // there: the cyanide-chlorination-acid lock of data/locks.txt stops
 // cyanide at cyanogen chloride, so the same hypochlorite is never spent
-// twice. Between pH 7 and 10 the state takes cyanide to cyanate, and the
-// cyanogen chloride counted here is that cyanate's own forerunner (one
-// path, CN- → CNCl → OCN-, not a second one): up to the cyanide the state
-// takes to cyanate escapes before it hydrolyses.
+// twice. Between pH 7 and 10 the state takes cyanide on to cyanate, carbon
+// dioxide and nitrogen, and the cyanogen chloride counted here is their
+// forerunner on the same path (CN- → CNCl → OCN- → CO2 + N2), not a second
+// one: at most the cyanide the state oxidizes escapes as it.
 func cyanogenChloride(o *Outcome, ps map[string]*pool) {
 	cn, ocl := o.MolarBefore("CN-", "HCN"), o.MolarBefore("OCl-", "HOCl")
 	if cn < TraceMolar || ocl < TraceMolar || o.PH >= 10 || o.fromState && o.PH < 7 {
@@ -264,10 +264,17 @@ func cyanogenChloride(o *Outcome, ps map[string]*pool) {
 	}
 	mol := math.Min(cn, ocl) * o.VolumeL
 	if o.fromState {
-		mol = math.Min(mol, (o.Molar("OCN-", "HOCN")-o.MolarBefore("OCN-", "HOCN"))*o.VolumeL)
+		mol = math.Min(mol, cyanideOxidizedMol(o))
 	}
-	addTo(ps, "CNCl", mol, 1, "cyanide with hypochlorite between pH 7 and 10, on its way to cyanate",
+	addTo(ps, "CNCl", mol, 1, "cyanide with hypochlorite below pH 10, on its way to cyanate",
 		"alkaline chlorination of cyanide is run at pH 10 or above so that cyanogen chloride hydrolyses to cyanate: common practice, no source")
+}
+
+// cyanideOxidizedMol is the carbon the mixed state takes from cyanide to
+// cyanate and carbon dioxide (mol).
+func cyanideOxidizedMol(o *Outcome) float64 {
+	forms := []string{"OCN-", "HOCN", "HCO3-", "CO3^2-", "H2CO3"}
+	return (o.Molar(forms...)-o.MolarBefore(forms...))*o.VolumeL + o.GasMol("CO2")
 }
 
 // borohydrideInAcid: BH4- + H+ + 3 H2O → B(OH)3 + 4 H2, fast below about
