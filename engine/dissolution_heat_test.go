@@ -44,6 +44,10 @@ func TestDissolutionHeatOfSalts(t *testing.T) {
 		{"Na2S", 78.04, -77.0, "NBS Tables 1982: Na2S(s) −364.8, Na+ −240.12, HS- −17.6, OH- −229.99, H2O(l) −285.83 (sulfide hydrolysed)"},
 		{"Al2(SO4)3", 342.15, -349.0, "NBS Tables 1982: Al2(SO4)3(s) −3440.84, Al^3+ −531, SO4^2- −909.34"},
 		{"NiSO4", 154.76, -90.4, "NBS Tables 1982: NiSO4(s) −872.91, Ni^2+ −54.0, SO4^2- −909.34"},
+		{"KClO3", 122.55, 41.38, "CRC Enthalpy of solution of electrolytes"},
+		{"KBrO3", 167.00, 41.1, "CRC Enthalpy of solution of electrolytes"},
+		{"NaClO3", 106.44, 21.72, "CRC Enthalpy of solution of electrolytes"},
+		{"NaBrO3", 150.89, 26.9, "CRC Enthalpy of solution of electrolytes"},
 	}
 	const mol = 2.0
 	for _, c := range cases {
