@@ -190,7 +190,26 @@ func nitricWithOrganic(o *Outcome, ps map[string]*pool) {
 	}
 	_, orgE := organicLiquid(o, true)
 	n := math.Min(orgE, hno3) * o.VolumeL
-	addBeyond(ps, "NO2", n, "nitric acid oxidizing the organic matter (as ethanol: C2H5OH + 4 H+ + 4 NO3- → CH3COOH + 4 NO2 + 3 H2O)",
+	// The one-carbon reagents with a reaction of their own go on to carbon
+	// dioxide, one per formula unit, as far as the acid goes; when one of
+	// them is all the organic matter, the nitrogen dioxide is written by
+	// its own equation.
+	origin := "nitric acid oxidizing the organic matter (as ethanol: C2H5OH + 4 H+ + 4 NO3- → CH3COOH + 4 NO2 + 3 H2O)"
+	acid := hno3 * o.VolumeL
+	for _, row := range nitricOwnRows {
+		all := o.MolarBefore(row.species...)
+		mol := math.Min(all*o.VolumeL, acid/row.electrons)
+		if !(mol > 0) {
+			continue
+		}
+		addBeyond(ps, "CO2", mol, "nitric acid taking "+row.species[0]+" to carbon dioxide ("+row.equation+")",
+			"Bretherick's Handbook of Reactive Chemical Hazards, nitric acid with organic compounds (from memory)")
+		acid -= mol * row.electrons
+		if all*row.electrons >= orgE*(1-1e-9) {
+			origin = "nitric acid oxidizing " + row.species[0] + " (" + row.equation + ")"
+		}
+	}
+	addBeyond(ps, "NO2", n, origin,
 		"Bretherick's Handbook of Reactive Chemical Hazards, nitric acid with organic compounds (from memory); one NO2 per electron taken from the organic: common practice, no source")
 }
 
