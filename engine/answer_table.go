@@ -285,10 +285,32 @@ func (e *Engine) liftLock(mx *state.Mix, l *state.Lock) *HeldBack {
 	free := *mx
 	free.Combined, free.Final = mx.Final, st
 	steps, err := explain.StepsIn(e.Tables.Thermo, &free, explain.MediumAt(e.Tables.Thermo, free.Combined.PH, free.TempK))
-	if err != nil || len(steps) == 0 {
+	if err != nil {
 		return nil
 	}
-	return &HeldBack{Lock: l.ID, Reason: l.Reason, Source: l.Source, Reaction: reactionOut(steps[0].Net, steps[0].N)}
+	// The lock decides what it holds back: a step that moves none of its
+	// group is a knock-on of the change it holds (hematite that would
+	// free acid for more chlorine off bleach and iron(III) chloride), not
+	// that change, and often the very change the mix runs and counts.
+	for _, st := range steps {
+		if touches(l, st.Net) {
+			return &HeldBack{Lock: l.ID, Reason: l.Reason, Source: l.Source, Reaction: reactionOut(st.Net, st.N)}
+		}
+	}
+	return nil
+}
+
+// touches reports whether a reaction moves a species of one of the lock's
+// groups.
+func touches(l *state.Lock, r thermo.Reaction) bool {
+	for _, rule := range l.Rules {
+		for _, t := range r.Terms {
+			if rule.Group.Weight(t.Species) > 0 || rule.With != nil && rule.With.Weight(t.Species) > 0 {
+				return true
+			}
+		}
+	}
+	return false
 }
 
 // finish judges the hazards and caveats of an answer from its species, steps,

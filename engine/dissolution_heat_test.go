@@ -47,6 +47,10 @@ func TestDissolutionHeatOfSalts(t *testing.T) {
 		{"ZnCl2", 136.29, -73.1, "CRC Enthalpy of solution of electrolytes; NBS Tables 1982: ZnCl2(s) −415.05"},
 		{"NiCl2", 129.60, -82.9, "CRC Enthalpy of solution of electrolytes; NBS Tables 1982: NiCl2(s) −305.33"},
 		{"NiSO4.6H2O", 262.85, 4.5, "NBS Tables 1982: NiSO4·6H2O(s) −2682.8, Ni^2+ −54.0, SO4^2- −909.27, H2O(l) −285.83"},
+		{"KClO3", 122.55, 41.38, "CRC Enthalpy of solution of electrolytes"},
+		{"KBrO3", 167.00, 41.1, "CRC Enthalpy of solution of electrolytes"},
+		{"NaClO3", 106.44, 21.72, "CRC Enthalpy of solution of electrolytes"},
+		{"NaBrO3", 150.89, 26.9, "CRC Enthalpy of solution of electrolytes"},
 	}
 	const mol = 2.0
 	for _, c := range cases {

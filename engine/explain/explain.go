@@ -329,13 +329,22 @@ func (x *explainer) couple(t Transfer) (Couple, error) {
 	if agent == nil || product == nil {
 		return Couple{}, fmt.Errorf("explain: no species holds %s in state %g or %g", t.Element, t.From, t.To)
 	}
-	ox, red := agent, product
-	if !t.Reduction() {
-		ox, red = product, agent
-	}
-	half, err := x.bal.Reduction(ox, red, t.Element, x.med)
+	half, err := x.half(t, agent, product)
 	if err != nil {
-		return Couple{}, fmt.Errorf("explain: %w", err)
+		// The product that holds the most atoms may be one that moves
+		// electrons inside itself (cyanogen chloride holds chlorine(-I)
+		// beside carbon(IV): HOCl + HCN → CNCl + H2O needs none from
+		// outside). The change is then written to the main dissolved
+		// carrier of the same state (chloride), which the other half
+		// takes up again.
+		alt := dominantIn(x.mx, x.mx.Final.Amount, t.Element, t.To, chem.Aqueous)
+		if alt == nil || alt == product {
+			return Couple{}, fmt.Errorf("explain: %w", err)
+		}
+		if half, err = x.half(t, agent, alt); err != nil {
+			return Couple{}, fmt.Errorf("explain: %w", err)
+		}
+		product = alt
 	}
 	c := Couple{Agent: agent, Product: mainProduct(half, agent, product), Half: half, Element: t.Element, From: t.From, To: t.To}
 	c.E0 = half.E0(x.mx.TempK)
@@ -344,6 +353,15 @@ func (x *explainer) couple(t Transfer) (Couple, error) {
 	// rather than at its standard state.
 	c.Ereached = c.E0 - thermo.R*x.mx.TempK/(float64(half.Electrons)*thermo.F)*LnQ(x.mx.Species, x.lnReached, half)
 	return c, nil
+}
+
+// half writes the reduction of a transfer between its agent and product.
+func (x *explainer) half(t Transfer, agent, product *thermo.Species) (thermo.Reaction, error) {
+	ox, red := agent, product
+	if !t.Reduction() {
+		ox, red = product, agent
+	}
+	return x.bal.Reduction(ox, red, t.Element, x.med)
 }
 
 // agentOf is the species that stands for an agent (el in state ox): its

@@ -2,6 +2,7 @@ package hazard
 
 import (
 	"math"
+	"slices"
 	"strings"
 
 	"mixward/engine"
@@ -105,15 +106,85 @@ func nitricOrganic(o *Outcome) (engine.Hazard, bool) {
 	if hno3 >= 4 {
 		sev = engine.Danger
 	}
-	_, orgE := organicLiquid(o, true)
-	rh := o.familyHeat("nitric-organic-runaway", reagent{"organic liquid", orgE / 4 * o.VolumeL, 1}, reagent{"HNO3", hno3 * o.VolumeL, 4})
-	if rh != nil && o.MolarBefore("C2H5OH") < orgE/4 {
-		rh.Reaction = "nitric acid oxidizing the organic matter, counted as ethanol equivalents (C2H5OH + 4 H+ + 4 NO3- → CH3COOH + 4 NO2(g) + 3 H2O)"
-	}
+	rh := o.nitricOrganicHeat(hno3)
 	return withHeat(mk("nitric-organic-runaway", sev,
 		"Nitric acid at "+fmtNum(hno3, 2)+" mol/L with organic matter ("+fmtNum(c, 2)+" mol/L of carbon) oxidizes it after a delay, then runs away with heat and brown nitrogen dioxide fumes; closed containers burst.",
 		"Do not combine. Keep organic products, solvents and rags away from nitric acid; never put them in the same waste drum.",
 		"Bretherick's Handbook of Reactive Chemical Hazards, nitric acid with organic compounds (from memory); heat counted for alcohols, glycerol and the like as ethanol equivalents (4 electrons each), from data/familyheats.txt; 2 and 4 mol/L thresholds: common practice, no source"), rh), true
+}
+
+// nitricOwnRows are the organic reagents with a nitric-acid reaction of
+// their own in data/familyheats.txt (code nitric-organic-runaway:NAME),
+// with the electrons each formula unit gives up there; the rest of the
+// organic matter counts as ethanol equivalents (4 electrons each).
+var nitricOwnRows = []struct {
+	name      string
+	species   []string
+	electrons float64
+	equation  string // with nitric acid, for the gas's origin
+}{
+	{"formic", []string{"HCOOH", "HCOO-"}, 2, "HCOOH + 2 HNO3 → CO2 + 2 NO2 + 2 H2O"},
+	{"methanol", []string{"CH3OH", "CH3OH(l)"}, 6, "CH3OH + 6 HNO3 → CO2 + 6 NO2 + 5 H2O"},
+}
+
+// nitricOrganicHeat is the heat of nitric acid (mol/L) oxidizing the
+// organic matter of the mix: each reagent with a row of its own by that
+// reaction, the rest as ethanol equivalents, the acid shared in that
+// order.
+func (o *Outcome) nitricOrganicHeat(hno3 float64) *engine.ReactionHeat {
+	_, orgE := organicLiquid(o, true)
+	acid := hno3 * o.VolumeL
+	var parts []*engine.ReactionHeat
+	for _, row := range nitricOwnRows {
+		mol := o.MolarBefore(row.species...) * o.VolumeL
+		if mol <= 0 {
+			continue
+		}
+		rh := o.familyHeat("nitric-organic-runaway:"+row.name, reagent{"organic liquid", mol, 1}, reagent{"HNO3", acid, row.electrons})
+		if rh == nil {
+			continue // no row: the ethanol equivalents count it
+		}
+		orgE -= row.electrons * mol / o.VolumeL
+		acid -= rh.ExtentMol * row.electrons
+		parts = append(parts, rh)
+	}
+	if orgE > 1e-9 && acid > 0 {
+		rh := o.familyHeat("nitric-organic-runaway", reagent{"organic liquid", orgE / 4 * o.VolumeL, 1}, reagent{"HNO3", acid, 4})
+		if rh != nil && o.MolarBefore("C2H5OH") < orgE/4 {
+			rh.Reaction = "nitric acid oxidizing the organic matter, counted as ethanol equivalents (C2H5OH + 4 H+ + 4 NO3- → CH3COOH + 4 NO2(g) + 3 H2O)"
+		}
+		if rh != nil {
+			parts = append(parts, rh)
+		}
+	}
+	return joinHeats(parts)
+}
+
+// joinHeats is one ReactionHeat for several reactions of one family run
+// side by side: their heats add, the reactions are listed, and the extent
+// counts each reaction as written.
+func joinHeats(parts []*engine.ReactionHeat) *engine.ReactionHeat {
+	if len(parts) == 0 {
+		return nil
+	}
+	if len(parts) == 1 {
+		return parts[0]
+	}
+	out := *parts[0]
+	out.Reagents = append([]string(nil), out.Reagents...)
+	for _, p := range parts[1:] {
+		out.Reaction += "; " + p.Reaction
+		out.ExtentMol = sig(out.ExtentMol + p.ExtentMol)
+		out.ReleasedkJ = sig(out.ReleasedkJ + p.ReleasedkJ)
+		out.Source += "; " + p.Source
+		for _, r := range p.Reagents {
+			if !slices.Contains(out.Reagents, r) {
+				out.Reagents = append(out.Reagents, r)
+			}
+		}
+	}
+	out.DeltaHkJPerMol = sig(-out.ReleasedkJ / out.ExtentMol)
+	return &out
 }
 
 // nitricMeetsOrganic is the nitric acid (mol/L) and organic carbon (mol/L)

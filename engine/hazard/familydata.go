@@ -44,8 +44,11 @@ func parseFamilyHeats(b []byte) (map[string]*FamilyHeat, error) {
 		for i := range f {
 			f[i] = strings.TrimSpace(f[i])
 		}
-		if !knownCode(f[0]) {
-			return nil, fmt.Errorf("%s:%d: %q is not a hazard code; use one of the codes in engine/hazard/codes.go", FamilyHeatFile, n, f[0])
+		// A family may have a row of its own for one reagent with species
+		// data ("nitric-organic-runaway:formic"): the part before the colon
+		// is the hazard code.
+		if base, _, _ := strings.Cut(f[0], ":"); !knownCode(base) {
+			return nil, fmt.Errorf("%s:%d: %q is not a hazard code; use one of the codes in engine/hazard/codes.go", FamilyHeatFile, n, base)
 		}
 		if _, dup := out[f[0]]; dup {
 			return nil, fmt.Errorf("%s:%d: %s is listed twice; keep one row per family", FamilyHeatFile, n, f[0])
@@ -110,7 +113,8 @@ func (o *Outcome) family(code string) (familyReaction, bool) {
 	if fh.FromSpecies && !strings.HasPrefix(src, "ΔfH° of data/species.txt") {
 		src = "ΔfH° of data/species.txt; " + src
 	}
-	return familyReaction{code: code, reaction: strings.ReplaceAll(fh.Reaction, "->", "→"), dH: fh.DeltaH, source: src}, true
+	base, _, _ := strings.Cut(code, ":")
+	return familyReaction{code: base, reaction: strings.ReplaceAll(fh.Reaction, "->", "→"), dH: fh.DeltaH, source: src}, true
 }
 
 func knownCode(code string) bool {

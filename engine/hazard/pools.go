@@ -197,7 +197,26 @@ func nitricWithOrganic(o *Outcome, ps map[string]*pool) {
 	}
 	_, orgE := organicLiquid(o, true)
 	n := math.Min(orgE, hno3) * o.VolumeL
-	addBeyond(ps, "NO2", n, "nitric acid oxidizing the organic matter (as ethanol: C2H5OH + 4 H+ + 4 NO3- → CH3COOH + 4 NO2 + 3 H2O)",
+	// The one-carbon reagents with a reaction of their own go on to carbon
+	// dioxide, one per formula unit, as far as the acid goes; when one of
+	// them is all the organic matter, the nitrogen dioxide is written by
+	// its own equation.
+	origin := "nitric acid oxidizing the organic matter (as ethanol: C2H5OH + 4 H+ + 4 NO3- → CH3COOH + 4 NO2 + 3 H2O)"
+	acid := hno3 * o.VolumeL
+	for _, row := range nitricOwnRows {
+		all := o.MolarBefore(row.species...)
+		mol := math.Min(all*o.VolumeL, acid/row.electrons)
+		if !(mol > 0) {
+			continue
+		}
+		addBeyond(ps, "CO2", mol, "nitric acid taking "+row.species[0]+" to carbon dioxide ("+row.equation+")",
+			"Bretherick's Handbook of Reactive Chemical Hazards, nitric acid with organic compounds (from memory)")
+		acid -= mol * row.electrons
+		if all*row.electrons >= orgE*(1-1e-9) {
+			origin = "nitric acid oxidizing " + row.species[0] + " (" + row.equation + ")"
+		}
+	}
+	addBeyond(ps, "NO2", n, origin,
 		"Bretherick's Handbook of Reactive Chemical Hazards, nitric acid with organic compounds (from memory); one NO2 per electron taken from the organic: common practice, no source")
 }
 
@@ -256,14 +275,32 @@ func bromateWithAcid(o *Outcome, ps map[string]*pool) {
 }
 
 // cyanogenChloride: CN- + HOCl → CNCl + OH-; below pH 10 cyanogen chloride
-// is not hydrolysed to cyanate fast enough and escapes.
+// is not hydrolysed to cyanate fast enough and escapes. In acid (the mix
+// as combined below pH 7) an answer from the equilibrium state counts it
+// there: the cyanide-chlorination-acid lock of data/locks.txt stops
+// cyanide at cyanogen chloride, so the same hypochlorite is never spent
+// twice. Between pH 7 and 10 the state takes cyanide on to cyanate, carbon
+// dioxide and nitrogen, and the cyanogen chloride counted here is their
+// forerunner on the same path (CN- → CNCl → OCN- → CO2 + N2), not a second
+// one: at most the cyanide the state oxidizes escapes as it.
 func cyanogenChloride(o *Outcome, ps map[string]*pool) {
 	cn, ocl := o.MolarBefore("CN-", "HCN"), o.MolarBefore("OCl-", "HOCl")
-	if cn < TraceMolar || ocl < TraceMolar || o.PH >= 10 {
+	if cn < TraceMolar || ocl < TraceMolar || o.PH >= 10 || o.fromState && o.PH < 7 {
 		return
 	}
-	addTo(ps, "CNCl", math.Min(cn, ocl)*o.VolumeL, 1, "cyanide with hypochlorite below pH 10",
+	mol := math.Min(cn, ocl) * o.VolumeL
+	if o.fromState {
+		mol = math.Min(mol, cyanideOxidizedMol(o))
+	}
+	addTo(ps, "CNCl", mol, 1, "cyanide with hypochlorite below pH 10, on its way to cyanate",
 		"alkaline chlorination of cyanide is run at pH 10 or above so that cyanogen chloride hydrolyses to cyanate: common practice, no source")
+}
+
+// cyanideOxidizedMol is the carbon the mixed state takes from cyanide to
+// cyanate and carbon dioxide (mol).
+func cyanideOxidizedMol(o *Outcome) float64 {
+	forms := []string{"OCN-", "HOCN", "HCO3-", "CO3^2-", "H2CO3"}
+	return (o.Molar(forms...)-o.MolarBefore(forms...))*o.VolumeL + o.GasMol("CO2")
 }
 
 // borohydrideInAcid: BH4- + H+ + 3 H2O → B(OH)3 + 4 H2, fast below about
