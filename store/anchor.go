@@ -137,7 +137,7 @@ func (c *anchorCheck) finish(rep *VerifyReport) (int64, string) {
 			problem = fmt.Sprintf("row %d: has hash %s, but %s noted %s: the row and every row after it were re-hashed after it was noted", a.ID, short(a.FoundHash), a.from, short(a.Hash))
 		case a.Status == "missing" && a.ID > rep.LastID:
 			brokenID = a.ID
-			problem = fmt.Sprintf("row %d: is noted in %s but the log ends at row %d: the newest rows were cut off (and sqlite_sequence rewound)", a.ID, a.from, rep.LastID)
+			problem = fmt.Sprintf("row %d: is noted in %s but the log ends at row %d: the newest rows were cut off (and the record of deleted ids rewound)", a.ID, a.from, rep.LastID)
 		case a.Status == "missing" && a.ID > 0:
 			brokenID = a.ID
 			problem = fmt.Sprintf("row %d: is noted in %s but is not in the log", a.ID, a.from)

@@ -122,9 +122,12 @@ func copyRows(ctx context.Context, src, dst *DB, in, out *sql.Tx, rep *CopyRepor
 		return err
 	}
 	seq = max(seq, lastID)
-	if dst.pg {
+	switch {
+	case dst.pg:
 		_, err = out.ExecContext(ctx, `UPDATE chain_state SET seq = greatest(seq, ?)`, seq)
-	} else {
+	case dst.ver >= idsVersion:
+		_, err = out.ExecContext(ctx, `UPDATE query_ids SET retired_upto = max(retired_upto, ?)`, seq)
+	default:
 		_, err = out.ExecContext(ctx, `INSERT INTO sqlite_sequence (name, seq) SELECT 'queries', 0
 			WHERE NOT EXISTS (SELECT 1 FROM sqlite_sequence WHERE name = 'queries')`)
 		if err == nil {
@@ -145,7 +148,7 @@ func copyRows(ctx context.Context, src, dst *DB, in, out *sql.Tx, rep *CopyRepor
 
 // issuedUpTo is the highest id src ever issued.
 func issuedUpTo(ctx context.Context, src *DB, in *sql.Tx) (int64, error) {
-	q := `SELECT seq FROM sqlite_sequence WHERE name = 'queries'`
+	q := `SELECT max(` + retiredSQL(src.ver) + `, coalesce((SELECT max(id) FROM queries), 0))`
 	if src.pg {
 		q = `SELECT seq FROM chain_state`
 	}

@@ -34,26 +34,42 @@ func (db *DB) noteHead(id int64, hash string, mark int64) {
 	db.head = chainHead{ok: true, id: id, hash: hash, mark: max(mark, db.head.mark)}
 }
 
+// idsVersion is the schema version from which queries has no
+// AUTOINCREMENT: query_ids.retired_upto, raised by a trigger on every
+// delete, keeps deleted ids from being issued again
+// (migrations/0013_ids_retired.sql).
+const idsVersion = 13
+
+// retiredSQL is the highest id no new row may take apart from the rows
+// present: query_ids.retired_upto, or before idsVersion the highest id
+// sqlite_sequence issued.
+func retiredSQL(ver int) string {
+	if ver < idsVersion {
+		return `coalesce((SELECT seq FROM sqlite_sequence WHERE name = 'queries'), 0)`
+	}
+	return `coalesce((SELECT retired_upto FROM query_ids), 0)`
+}
+
 // fastInsert appends a sealed row (parameters 1–26 in rowColumns order:
 // id first, time third, hash 23rd), parameters 27 and 28 being the head it
 // was sealed on (id, hash). Its hash is written only if the row with that
 // id exists with that hash and is not later than the new row (else
 // time_order_broken must be set: appendRow does it), no row has a higher
-// id and sqlite_sequence issued no higher id: the id and link appendRow
+// id and no higher id was retired (retiredSQL): the id and link appendRow
 // would give it, read in the INSERT's own write transaction. Otherwise the
 // hash is NULL and the NOT NULL constraint refuses the row. (A VALUES row,
 // not INSERT … SELECT … WHERE: a SELECT that reads queries while inserting
 // into it makes SQLite copy the row through a temporary table first.)
-var fastInsert = func() string {
+func fastInsert(ver int) string {
 	p := make([]string, 26)
 	for i := range p {
 		p[i] = "?" + strconv.Itoa(i+1)
 	}
 	p[22] = `CASE WHEN (SELECT hash = ?28 AND time <= ?3 FROM queries WHERE id = ?27)
 	  AND NOT EXISTS (SELECT 1 FROM queries WHERE id > ?27)
-	  AND coalesce((SELECT seq FROM sqlite_sequence WHERE name = 'queries'), 0) <= ?27 THEN ?23 END`
+	  AND ` + retiredSQL(ver) + ` <= ?27 THEN ?23 END`
 	return `INSERT INTO queries (` + rowColumns + `) VALUES (` + strings.Join(p, ", ") + `)`
-}()
+}
 
 // appendFast appends r in one statement outside an explicit transaction
 // (SQLite wraps it in its own), sealed on the head this process last

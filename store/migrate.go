@@ -2,7 +2,9 @@ package store
 
 import (
 	"context"
+	"database/sql"
 	"embed"
+	"errors"
 	"fmt"
 	"io/fs"
 	"path"
@@ -89,8 +91,32 @@ func (db *DB) migrate(ctx context.Context, upto int) error {
 	}
 }
 
+// rebuildVersions are the SQLite steps that rebuild a table others refer
+// to: foreign_key_check runs before their commit.
+var rebuildVersions = map[int]bool{idsVersion: true}
+
+// migrateStep applies the next step in its own transaction. On SQLite the
+// step runs with foreign keys off (they cannot be switched inside a
+// transaction): a step that rebuilds a table drops the old one, and with
+// foreign keys on that would first delete the rows referring to it
+// (ON DELETE CASCADE). This is SQLite's own procedure for schema changes
+// (sqlite.org/lang_altertable.html, "Making Other Kinds Of Table Schema
+// Changes"), foreign_key_check included.
 func (db *DB) migrateStep(ctx context.Context, upto int) (done bool, err error) {
-	tx, err := db.w.BeginTx(ctx, nil)
+	begin := db.w.BeginTx
+	if !db.pg {
+		conn, err := db.w.Conn(ctx)
+		if err != nil {
+			return false, fmt.Errorf("open database %s: %w", db.path, err)
+		}
+		defer conn.Close()
+		if _, err := conn.ExecContext(ctx, `PRAGMA foreign_keys = OFF`); err != nil {
+			return false, fmt.Errorf("open database %s: %w", db.path, err)
+		}
+		defer conn.ExecContext(context.Background(), `PRAGMA foreign_keys = ON`)
+		begin = conn.BeginTx
+	}
+	tx, err := begin(ctx, nil)
 	if err != nil {
 		return false, fmt.Errorf("open database %s: %w", db.path, err)
 	}
@@ -112,6 +138,11 @@ func (db *DB) migrateStep(ctx context.Context, upto int) (done bool, err error) 
 	if _, err := tx.ExecContext(ctx, m.sql); err != nil {
 		return false, fmt.Errorf("open database %s: apply migration %s: %w", db.path, m.name, err)
 	}
+	if !db.pg && rebuildVersions[m.version] {
+		if err := foreignKeyCheck(ctx, tx); err != nil {
+			return false, fmt.Errorf("open database %s: apply migration %s: %w", db.path, m.name, err)
+		}
+	}
 	if _, err := tx.ExecContext(ctx, `INSERT INTO schema_version (version, name, applied_at) VALUES (?, ?, ?)`,
 		m.version, m.name, formatTime(db.now())); err != nil {
 		return false, fmt.Errorf("open database %s: record migration %s: %w", db.path, m.name, err)
@@ -120,6 +151,21 @@ func (db *DB) migrateStep(ctx context.Context, upto int) (done bool, err error) 
 		return false, fmt.Errorf("open database %s: commit migration %s: %w", db.path, m.name, err)
 	}
 	return false, nil
+}
+
+// foreignKeyCheck reports the first row whose reference has no parent.
+func foreignKeyCheck(ctx context.Context, tx *sql.Tx) error {
+	var table, parent string
+	var rowid sql.NullInt64
+	var fk int
+	err := tx.QueryRowContext(ctx, `PRAGMA foreign_key_check`).Scan(&table, &rowid, &parent, &fk)
+	switch {
+	case errors.Is(err, sql.ErrNoRows):
+		return nil
+	case err != nil:
+		return fmt.Errorf("check references: %w", err)
+	}
+	return fmt.Errorf("row %d of %s refers to a missing row of %s: restore a backup and report this", rowid.Int64, table, parent)
 }
 
 // migrations returns the schema steps of db's backend.

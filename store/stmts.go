@@ -53,10 +53,7 @@ func newWriteStmts(pg bool) *writeStmts {
 	}
 	return &writeStmts{
 		// The highest id ever issued, the newest row's id and its hash.
-		head: stmt{sql: `SELECT coalesce((SELECT seq FROM sqlite_sequence WHERE name = 'queries'), 0),
-			coalesce((SELECT max(id) FROM queries), 0),
-			coalesce((SELECT hash FROM queries ORDER BY id DESC LIMIT 1), ?),
-			coalesce((SELECT time FROM queries ORDER BY id DESC LIMIT 1), '')`},
+		head:       stmt{sql: headSQL(SchemaVersion())},
 		timeBroken: stmt{sql: `UPDATE search_state SET time_order_broken = 1 WHERE time_order_broken = 0`},
 		insert: stmt{sql: `INSERT INTO queries (` + rowColumns + `)
 			VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`},
@@ -69,8 +66,27 @@ func newWriteStmts(pg bool) *writeStmts {
 			SELECT ` + ftsDocColumns + ` FROM queries q WHERE q.kind = 'query' AND q.id > ? AND q.id <= ?`},
 		indexed:    stmt{sql: `SELECT indexed_upto FROM search_state`},
 		setIndexed: stmt{sql: `UPDATE search_state SET indexed_upto = ?`},
-		event:      stmt{sql: `SELECT id FROM queries WHERE event_id = ?`},
-		fast:       stmt{sql: fastInsert},
+		// event_id <> '' lets the partial index queries_event serve it
+		// (without it SQLite cannot prove the index holds the row: a scan).
+		event: stmt{sql: `SELECT id FROM queries WHERE event_id = ? AND event_id <> ''`},
+		fast:  stmt{sql: fastInsert(SchemaVersion())},
+	}
+}
+
+// headSQL reads the highest id no new row may take apart from the rows
+// present (retiredSQL), the newest row's id, its hash and its time.
+func headSQL(ver int) string {
+	return `SELECT ` + retiredSQL(ver) + `,
+		coalesce((SELECT max(id) FROM queries), 0),
+		coalesce((SELECT hash FROM queries ORDER BY id DESC LIMIT 1), ?),
+		coalesce((SELECT time FROM queries ORDER BY id DESC LIMIT 1), '')`
+}
+
+// forVersion fits the statements that read the retired ids to a file of
+// schema version ver (tests build files of older versions).
+func (ws *writeStmts) forVersion(ver int) {
+	if ver < idsVersion && ws.head.sql != "" {
+		ws.head.sql, ws.fast.sql = headSQL(ver), fastInsert(ver)
 	}
 }
 

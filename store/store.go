@@ -169,6 +169,7 @@ func openAt(ctx context.Context, path string, opt Options, upto int) (*DB, error
 		db.w.Close()
 		return nil, err
 	}
+	db.ws.forVersion(db.ver)
 	db.ws.prepare(ctx, db.w)
 	db.r, err = sql.Open("sqlite3", dsn(path, "mode=ro", "_txlock=deferred"))
 	if err != nil {

@@ -92,9 +92,9 @@ func forgeAppend(t *testing.T, raw *sql.DB, key *ChainKey, madeUpHash bool) {
 }
 
 // cutTail deletes rows after keep with everything derived from them and
-// rewinds sqlite_sequence, as a careful attacker would.
+// rewinds the record of deleted ids, as a careful attacker would.
 const cutTail = `DELETE FROM queries WHERE id > 4; DELETE FROM query_hazards WHERE query_id > 4; DELETE FROM query_keys WHERE id > 4;
-	UPDATE sqlite_sequence SET seq = 4 WHERE name = 'queries'; UPDATE search_state SET indexed_upto = min(indexed_upto, 4)`
+	UPDATE query_ids SET retired_upto = 4; UPDATE search_state SET indexed_upto = min(indexed_upto, 4)`
 
 // TestTamperMethods tries each way of changing the log with the file (and
 // sometimes the key) in hand against Verify: with and without the key,
@@ -162,10 +162,10 @@ func TestTamperMethods(t *testing.T) {
 			editRow3(t, raw, nil)
 			rehash(t, raw, 3, k)
 		}, detected: true, problem: "row 6: has hash"},
-		{name: "cut the tail and rewind sqlite_sequence, no anchor (not detected)", tamper: sqlStep(cutTail)},
-		{name: "cut the tail and rewind sqlite_sequence, with anchor", anchor: true, tamper: sqlStep(cutTail),
+		{name: "cut the tail and rewind the retired ids, no anchor (not detected)", tamper: sqlStep(cutTail)},
+		{name: "cut the tail and rewind the retired ids, with anchor", anchor: true, tamper: sqlStep(cutTail),
 			detected: true, problem: "row 6: is noted in an anchor but the log ends at row 4: the newest rows were cut off"},
-		{name: "cut the tail, rewind sqlite_sequence, derived rows left", tamper: sqlStep(`DELETE FROM queries WHERE id > 4; UPDATE sqlite_sequence SET seq = 4`),
+		{name: "cut the tail, rewind the retired ids, derived rows left", tamper: sqlStep(`DELETE FROM queries WHERE id > 4; UPDATE query_ids SET retired_upto = 4`),
 			detected: true, problem: "hazard rows of query 5 remain"},
 		{name: "delete flagged hazard rows", tamper: sqlStep(`DELETE FROM query_hazards WHERE severity IN ('danger', 'warning')`),
 			detected: true, problem: "row 1: hazard 1 (CL2-GAS) is missing from the hazard table"},

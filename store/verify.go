@@ -70,7 +70,7 @@ type pruneRecord struct {
 //
 // Without anchors or a key, someone who can write the file and recomputes
 // every hash after an edit (or deletes the newest rows and rewinds
-// sqlite_sequence, and the derived rows with them) is not caught: compare
+// query_ids.retired_upto, and the derived rows with them) is not caught: compare
 // HeadHash with a copy kept elsewhere (a digest, a backup, an anchors file).
 func (db *DB) Verify(ctx context.Context, anchors ...Anchor) (VerifyReport, error) {
 	tx, err := db.readTx(ctx)
@@ -122,7 +122,7 @@ func verifyTx(ctx context.Context, tx queryer, ver int, key *ChainKey, anchors [
 	w.recorded = newAnchorCheck(recorded, func(i int) string { return from[i] })
 	rep.DigestAnchors = len(recorded)
 	var seq int64
-	seqSQL := `SELECT seq FROM sqlite_sequence WHERE name = 'queries'`
+	seqSQL := `SELECT ` + retiredSQL(ver)
 	if pg {
 		seqSQL = `SELECT seq FROM chain_state`
 	}

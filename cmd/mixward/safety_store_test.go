@@ -345,7 +345,7 @@ func TestKeyedChainCLI(t *testing.T) {
 	anchors := filepath.Join(t.TempDir(), "anchors.txt")
 	os.WriteFile(anchors, []byte(fmt.Sprintf("# shift report 06:00\n%d %s\n", rep.LastID, rep.HeadHash)), 0o600)
 	sqlExec(t, path, `DELETE FROM queries WHERE id = 3; DELETE FROM query_hazards WHERE query_id = 3; DELETE FROM query_keys WHERE id = 3;
-		UPDATE sqlite_sequence SET seq = 2 WHERE name = 'queries'; UPDATE search_state SET indexed_upto = min(indexed_upto, 2)`)
+		UPDATE query_ids SET retired_upto = 2; UPDATE search_state SET indexed_upto = min(indexed_upto, 2)`)
 	if code, out, _ := storeCLI(t, keyed, "log", "verify"); code != 0 {
 		t.Errorf("verify without anchors after a careful cut: %d (the cut alone is not visible)\n%s", code, out)
 	}
