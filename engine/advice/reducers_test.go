@@ -50,6 +50,13 @@ func TestBorohydrideKeptUntilAcid(t *testing.T) {
 		{"into hydrochloric acid", "mix 100 L NaBH4 12 % + 50 L HCl 10 %", engine.DoNotMix, 545, 600, 34000, 42000},
 		{"acid listed first, weaker", "mix 50 L HCl 5 % + 100 L NaBH4 12 %", engine.DoNotMix, 265, 305, 0, 0},
 		{"acetic acid reaches it too", "mix 100 L NaBH4 12 % + 20 L acetic acid 80 %", engine.DoNotMix, 1080, 1200, 0, 0},
+		// The caustic keeps the hydrolysis back, never an oxidizer: BH4- +
+		// 4 OCl- → B(OH)4- + 4 Cl-, about −1630 kJ per BH4- (NBS Tables 1982:
+		// BH4- +48, OCl- −107.1, B(OH)4- −1344, Cl- −167.2, from memory);
+		// 50 L of 12.5 % hypochlorite (≈ 90 mol) takes ≈ 22 mol BH4-: ≈ 37 MJ
+		// into 100 L, boils (Bretherick's Handbook, sodium tetrahydroborate:
+		// oxidants, from memory). The borohydride left over is still kept.
+		{"with hypochlorite", "mix 50 L NaBH4 12 % + 50 L NaOCl 12.5 %", engine.DoNotMix, 0, 1, 32000, 45000},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
