@@ -242,6 +242,9 @@ type strongOxidizer struct {
 	slow bool
 }
 
+// hypochloriteIndex is the place of the hypochlorite row in strongOxidizers.
+const hypochloriteIndex = 2
+
 var strongOxidizers = []strongOxidizer{
 	{name: "Permanganate", reagent: "MnO4-", species: []string{"MnO4-", "HMnO4"}, solids: []string{"KMnO4", "NaMnO4"}, electrons: 3,
 		solution: 0.2, organic: OrganicLiquidMolar},
@@ -656,6 +659,32 @@ func dryOxidizerFuel(o *Outcome) (engine.Hazard, bool) {
 		}
 	}
 	return engine.Hazard{}, false
+}
+
+// dryChlorinatorAcid: a solid chlorinating agent (calcium or lithium
+// hypochlorite, chlorinated isocyanurates, BCDMH) blended dry with a solid
+// acid (sodium bisulfate, sulfamic, citric or oxalic acid) gives chlorine
+// as soon as the blend takes up moisture from the air, and heats until it
+// smoulders or ignites: such blends have caused fires and chlorine releases
+// in pool-chemical stores.
+func dryChlorinatorAcid(o *Outcome) (engine.Hazard, bool) {
+	if o.VolumeL > 0 || len(o.SolidAcids) == 0 {
+		return engine.Hazard{}, false
+	}
+	var chlor string
+	for _, c := range o.SolidChemicals {
+		if slices.Contains(strongOxidizers[hypochloriteIndex].solids, c) {
+			chlor = c
+			break
+		}
+	}
+	if chlor == "" {
+		return engine.Hazard{}, false
+	}
+	return mk("dry-blend-chlorine", engine.Danger,
+		"Chlorinating agent "+chlor+" blended dry with the acid "+o.SolidAcids[0]+": the blend gives off chlorine as soon as it takes up moisture (humid air, a wet scoop), and heats until it smoulders or ignites; it needs no liquid to start.",
+		"Do not blend. Store, scoop and dose the chlorinator and the acid apart, each with its own clean, dry tools; dissolve each separately into plenty of water and add them to the pool or tank at different points.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, calcium hypochlorite: acids, and chlorinated isocyanurates (from memory); common practice, no source (pool-chemical store fires)"), true
 }
 
 // isStrongOxidizerSolid reports whether the formula is one of the solids of
