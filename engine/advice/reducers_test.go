@@ -139,6 +139,12 @@ func TestAluminiumInNitricAcid(t *testing.T) {
 		{"mix 5 kg Al + 100 L HNO3 65 %", engine.WithPrecautions, "nitric-slow-attack"},
 		{"mix 50 L HNO3 98 % + 5 kg Al", engine.NoConcern, ""},
 		{"mix 50 L HNO3 30 % + 5 kg Al", engine.DoNotMix, ""},
+		// Iron is passivated too, but carbon steel is no nitric-acid
+		// material at any strength (Perry's, corrosion tables; Pourbaix
+		// Atlas, iron; from memory); chromium stays quiet.
+		{"mix 10 kg Fe + 50 L HNO3 68 %", engine.WithPrecautions, "nitric-slow-attack"},
+		{"mix 10 kg Fe + 50 L HNO3 98 %", engine.WithPrecautions, "nitric-slow-attack"},
+		{"mix 5 kg Cr + 50 L HNO3 68 %", engine.NoConcern, ""},
 	}
 	for _, c := range cases {
 		r := ask(t, a, c.req)
