@@ -258,6 +258,13 @@ func renderAmounts(b *strings.Builder, r *Result) {
 		for _, g := range r.Gases {
 			w("  %-8s %s mol = %s L = %s m³\n", g.Text, sigText(g.Mol), sigText(g.VolumeL), sigText(g.VolumeM3))
 		}
+		if r.Decision != nil {
+			for _, g := range r.Decision.Gases {
+				if g.Kind == "driven-off" {
+					w("  %-8s %s mol = %s L counted by the decision: driven off by the mix's own heat or beyond the mixed state (see Hazards)\n", g.Text, sigText(g.Mol), sigText(g.VolumeL))
+				}
+			}
+		}
 	}
 	if h := r.Heat; h != nil {
 		label := "Heat"

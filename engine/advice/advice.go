@@ -92,6 +92,7 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 	for _, g := range o.Gases {
 		d.Gases = append(d.Gases, engine.GasReleaseOf(g.Formula+"(g)", g.Mol, o.TemperatureK(), o.PressureKPa))
 	}
+	judgedGases(&d, res.Hazards)
 	for _, h := range o.HeldBack {
 		d.Held = append(d.Held, h.Text+": "+h.Reason)
 	}
@@ -201,3 +202,23 @@ func rise(r *engine.Result) float64 {
 func round1(x float64) float64 { return math.Round(x*10) / 10 }
 
 func trim(x float64) string { return fmt.Sprintf("%.4g", x) }
+
+// judgedGases raises a gas of the decision to the amount its hazard judges
+// when that is larger: a gas the mix's own heat drives off (the Henry
+// constant at the temperature reached), a boil-off, or a fast reaction
+// beyond the equilibrium state. The decision's list then agrees with the
+// short answer's Forms line; Kind "driven-off" marks such a figure.
+func judgedGases(d *engine.Decision, hs []engine.Hazard) {
+	for _, h := range hs {
+		j := h.Gas
+		if j == nil || !(j.Mol > 0) {
+			continue
+		}
+		for i := range d.Gases {
+			g := &d.Gases[i]
+			if g.Text == j.Formula+"(g)" && j.Mol > 1.2*g.Mol {
+				g.Mol, g.VolumeL, g.VolumeM3, g.Kind = j.Mol, j.VolumeL, j.VolumeL/1000, "driven-off"
+			}
+		}
+	}
+}

@@ -40,3 +40,29 @@ func TestDetailsAgreeWithShortOnFamilies(t *testing.T) {
 		}
 	}
 }
+
+// TestDecisionGasesAgreeWithForms: a gas the mix's own heat drives off
+// (bisulfite with hypochlorite warms to about 86 °C: SO2 121 mol against
+// 5.65 mol held at 25 °C; Henry constant moved by van 't Hoff, Sander 2015)
+// is counted in decision.gases with the hazard's figure, as the short
+// answer's Forms line has it, and the full answer names it beside the 25 °C
+// table. Tried as a new user would: the JSON decision said 5.65 mol.
+func TestDecisionGasesAgreeWithForms(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "mix 100 L NaHSO3 38 % + 100 L NaOCl 12.5 %")
+	var so2 float64
+	for _, g := range r.Decision.Gases {
+		if g.Text == "SO2(g)" {
+			so2 = g.Mol
+			if g.Kind != "driven-off" {
+				t.Errorf("SO2 kind %q, want driven-off", g.Kind)
+			}
+		}
+	}
+	if so2 < 80 {
+		t.Errorf("decision SO2 %.1f mol, want the warmed figure (about 120)", so2)
+	}
+	if d := advice.RenderDetails(r); !strings.Contains(d, "counted by the decision: driven off") {
+		t.Errorf("details do not name the driven-off figure")
+	}
+}
