@@ -5,6 +5,7 @@ import (
 	"testing"
 
 	"mixward/engine"
+	"mixward/engine/advice"
 )
 
 // TestDryOxidizerFuelBlend: a solid strong oxidizer blended dry with a solid
@@ -82,5 +83,16 @@ func TestDryChlorinatorAcidBlend(t *testing.T) {
 		if strings.Contains(strings.Join(hazardCodes(r), " "), "dry-blend-chlorine") {
 			t.Errorf("%s: %v, want no dry-blend-chlorine", req, hazardCodes(r))
 		}
+	}
+}
+
+// TestDryBlendShortAnswer: solids blended dry have no liquid, so the short
+// answer says the heat is not estimated for a dry blend (not that data are
+// missing) and gives no headspace basis of "0 L".
+func TestDryBlendShortAnswer(t *testing.T) {
+	a := mustAdvisor(t)
+	s := advice.RenderShort(ask(t, a, "mix 50 kg NaCl + 50 kg Na2CO3"))
+	if strings.Contains(s, "formation enthalpies missing") || strings.Contains(s, "(0 L;") || !strings.Contains(s, "solids blended dry") {
+		t.Errorf("dry blend short answer:\n%s", s)
 	}
 }

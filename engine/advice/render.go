@@ -71,6 +71,10 @@ func RenderShort(r *engine.Result) string {
 	if r.Decision != nil {
 		hs, stated = r.Decision.HeadspaceL, r.Decision.HeadspaceStated
 	}
+	if r.Conditions.VolumeL == 0 {
+		w("Dry blend: judged as solids only. %s\n", shortCaution)
+		return b.String()
+	}
 	w("Gas figures: %s, at equilibrium. %s\n", HeadspaceBasis(hs, stated), shortCaution)
 	return b.String()
 }
@@ -284,6 +288,9 @@ func heatFigure(r *engine.Result) string {
 	if r.Decision == nil || r.Decision.Heat == nil {
 		if r.Heat != nil && r.Heat.Withheld != "" {
 			return "Heat: no estimate (" + r.Heat.Withheld + ")"
+		}
+		if r.Conditions.VolumeL == 0 {
+			return "Heat: not estimated for solids blended dry (no liquid); the hazards say what the blend does"
 		}
 		return "Heat: no estimate (formation enthalpies missing)"
 	}
