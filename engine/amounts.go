@@ -3,6 +3,7 @@ package engine
 import (
 	"fmt"
 	"strconv"
+	"strings"
 )
 
 // ReadAmounts is readAmounts, for callers that build further requests from
@@ -43,6 +44,9 @@ func readAmounts(req *Request, t *Tables) *Request {
 		st.Components = append([]Component(nil), st.Components...)
 		for ci := range st.Components {
 			readStrength(&st, &st.Components[ci], t, note)
+			if st.MassKg > 0 && st.VolumeL == 0 {
+				hydrateNote(&st.Components[ci], t, note)
+			}
 		}
 		readSolutionMass(&st, t, note)
 		if GasAsSold(&st, t) {
@@ -54,6 +58,32 @@ func readAmounts(req *Request, t *Tables) *Request {
 	}
 	capSolids(&out, t, note)
 	return &out
+}
+
+// hydrateNote says which form of a salt poured as a solid was read, where
+// the dictionary knows it both anhydrous and as a hydrate: the two dissolve
+// with very different heats (anhydrous nickel sulfate gives off about
+// 90 kJ/mol, the hexahydrate takes up about 5; NBS Tables 1982, from
+// memory). A name of the trade that means the hydrate (nickel sulfate,
+// bluestone) is read as the hydrate; a formula as written.
+func hydrateNote(c *Component, t *Tables, note func(string, ...any)) {
+	f := c.Chemical.Formula
+	if base, _, ok := strings.Cut(f, "."); ok {
+		if hydrateDots(strings.TrimSpace(c.Name)) != f {
+			note("%s read as %s, the hydrate sold; write %s for the anhydrous salt", c.Name, f, base)
+		}
+		return
+	}
+	for _, h := range t.Chemicals {
+		if strings.HasPrefix(h.Formula, f+".") && strings.HasSuffix(h.Formula, "H2O") {
+			what := c.Name + " read as the anhydrous salt " + f
+			if hydrateDots(strings.TrimSpace(c.Name)) == f {
+				what = f + " read as the anhydrous salt"
+			}
+			note("%s; if it is the hydrate, write %s: it dissolves with a different heat", what, h.Formula)
+			return
+		}
+	}
 }
 
 // readStrength gives a component named without a strength the strength of

@@ -70,3 +70,28 @@ func TestHeatLineNamesUncountedDissolving(t *testing.T) {
 		t.Errorf("ethanol into water: not counted %v; a molecular liquid's heat of mixing is left out by design", r.Heat.NotDissolvedCounted)
 	}
 }
+
+// TestHydrateOfCommerce: plating shops make up nickel baths with the
+// hexahydrates, which dissolve with about +5 kJ/mol (nickel sulfate) where
+// the anhydrous salt gives off about 90 (NBS Tables 1982, from memory).
+// Tried as a new user would, a Watts bath make-up named "nickel sulfate"
+// read "do not mix: gets near boiling" because the name meant the anhydrous
+// salt, unsaid. The trade name now reads as the hydrate sold and says so;
+// the formula NiSO4 keeps the anhydrous salt and says which form it read.
+func TestHydrateOfCommerce(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "mix 100 L water + 25 kg nickel sulfate + 5 kg nickel chloride + 5 kg boric acid at 55 C")
+	if r.Decision.Level != engine.NoConcern {
+		t.Errorf("Watts make-up by trade names: %s (%s), want no-concern", r.Decision.Level, r.Decision.Title)
+	}
+	if s := advice.RenderShort(r); !strings.Contains(s, "nickel sulfate read as NiSO4.6H2O") {
+		t.Errorf("short answer does not say the hydrate was read:\n%s", s)
+	}
+	r = ask(t, a, "mix 100 L water + 25 kg NiSO4 at 55 C")
+	if r.Heat == nil || r.Heat.HeatReleasedkJ == nil || *r.Heat.HeatReleasedkJ < 12000 {
+		t.Errorf("anhydrous NiSO4: heat %+v, want about 14.6 MJ released", r.Heat)
+	}
+	if s := advice.RenderShort(r); !strings.Contains(s, "NiSO4 read as the anhydrous salt; if it is the hydrate, write NiSO4.6H2O") {
+		t.Errorf("short answer does not say the anhydrous salt was read:\n%s", s)
+	}
+}
