@@ -257,6 +257,12 @@ func (m *mixture) addStream(st *Stream, si int, t *Tables, seenChem map[string]b
 	return fict, assumed, nil
 }
 
+// maxDefaultGPerL bounds the 1 mol/L read for a solution named without a
+// strength: a chemical whose 1 mol/L would be more than this many grams per
+// litre (polyaluminium chloride, 1269 g/mol) is refused without a strength
+// rather than read as a solution with no water left in it.
+const maxDefaultGPerL = 500
+
 // neatDensity is the density of a liquid sold neat (a 100 % row in
 // data/densities.txt: alcohols, glycols, ketones, amines, solvents, bromine,
 // hydrazine): a stream naming it without a concentration is that liquid, not
@@ -345,6 +351,9 @@ func componentMoles(st *Stream, c *Component, vol float64, liquid bool, t *Table
 			molar = pct / 100 * d * 1000 / mm
 			m.note("no concentration given for %s: read as %g %% w/w (%.4g kg/L, %.3g mol/L)", ch.Formula, pct, d, molar)
 			break
+		}
+		if mm > maxDefaultGPerL {
+			return 0, false, &ParseError{Code: "no-strength", Message: fmt.Sprintf("%s is given by volume without a strength, and the 1 mol/L otherwise assumed would be %.0f g/L of it, more than a solution holds; state the strength, for example \"%s 10 %%\"", c.Name, mm, c.Name), Position: c.Pos, Token: c.Name, Suggestions: []string{}}
 		}
 		molar = 1
 		m.assume("no concentration given for %s: 1 mol/L assumed; state the strength", ch.Formula)
