@@ -237,6 +237,7 @@ func heatOut(mx *state.Mix, m *mixture, t *Tables) *Heat {
 		released += q
 	}
 	if len(leftOut) > 0 {
+		h.NotDissolvedCounted = m.ionicOnly(leftOut)
 		h.Assumption += "; no heat of dissolving counted for " + strings.Join(leftOut, ", ") + " (no formation enthalpy of the solid on record)"
 	}
 	if q := dilutionHeat(mx, m.solutes, t); q != 0 {

@@ -51,6 +51,11 @@ func TestDissolutionHeatOfSalts(t *testing.T) {
 		{"KBrO3", 167.00, 41.1, "CRC Enthalpy of solution of electrolytes"},
 		{"NaClO3", 106.44, 21.72, "CRC Enthalpy of solution of electrolytes"},
 		{"NaBrO3", 150.89, 26.9, "CRC Enthalpy of solution of electrolytes"},
+		{"AlCl3", 133.34, -329, "CRC Enthalpy of solution of electrolytes; NBS Tables 1982: AlCl3(s) −704.2"},
+		{"FeCl3", 162.20, -151, "CRC Enthalpy of solution of electrolytes; NBS Tables 1982: FeCl3(s) −399.49"},
+		{"K2CO3", 138.21, -30.9, "CRC Enthalpy of solution of electrolytes"},
+		{"KCN", 65.12, 11.7, "CRC Enthalpy of solution of electrolytes"},
+		{"K2CrO4", 194.19, 18.2, "CRC Enthalpy of solution of electrolytes"},
 	}
 	const mol = 2.0
 	for _, c := range cases {

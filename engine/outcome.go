@@ -2,6 +2,7 @@ package engine
 
 import (
 	"math"
+	"slices"
 )
 
 // maxSteps bounds the follow-on reactions predicted after the headline.
@@ -67,15 +68,17 @@ func (m *mixture) solutionHeat(t *Tables) (kJ float64, leftOut []string) {
 			leftOut = append(leftOut, d.chem.Formula)
 			continue
 		}
-		// Only a solid's ions are taken from the species data where
-		// enthalpies.txt lacks them: a neat liquid (ethanol) mixes with
-		// water with a heat that depends on the ratio, which infinite
-		// dilution overstates many times where the liquid is the bulk.
+		// Only the ions of a solid, or of a liquid that ionises (tin(IV)
+		// chloride), are taken from the species data where enthalpies.txt
+		// lacks them: a neat molecular liquid (ethanol) mixes with water
+		// with a heat that depends on the ratio, which infinite dilution
+		// overstates many times where the liquid is the bulk.
+		ions := d.phase == Solid || givesIons(d.chem)
 		dh, missing := reactionEnthalpyBy(rx, func(key, text string) (float64, bool) {
 			if e, ok := t.Enthalpies[key]; ok {
 				return e.DeltaHf, true
 			}
-			if sp, ok := t.Thermo.Get(text); ok && sp.HasDfH && d.phase == Solid {
+			if sp, ok := t.Thermo.Get(text); ok && sp.HasDfH && ions {
 				return sp.DfH, true
 			}
 			return 0, false
@@ -87,6 +90,28 @@ func (m *mixture) solutionHeat(t *Tables) (kJ float64, leftOut []string) {
 		kJ += -dh * d.mol
 	}
 	return kJ, leftOut
+}
+
+// ionicOnly keeps the reagents of formulas that dissolve into ions: the
+// heat of mixing a molecular liquid (ethanol) is left out by design.
+func (m *mixture) ionicOnly(formulas []string) []string {
+	var out []string
+	for _, d := range m.dissolved {
+		if givesIons(d.chem) && slices.Contains(formulas, d.chem.Formula) && !slices.Contains(out, d.chem.Formula) {
+			out = append(out, d.chem.Formula)
+		}
+	}
+	return out
+}
+
+// givesIons says the chemical dissolves into ions rather than as a molecule.
+func givesIons(c *Chemical) bool {
+	for _, g := range c.Gives {
+		if g.Charge != 0 {
+			return true
+		}
+	}
+	return false
 }
 
 // dissolution writes "NaOH(s) → Na+ + OH-" for a dissolving reagent, with

@@ -40,8 +40,15 @@ func RenderText(r *Result) string {
 	// A pair that does not run (the table method's strongest pair in a mix
 	// where nothing changes) is shown as on paper only, never as a reaction.
 	onPaper := r.Verdict == NonSpontaneous || r.Verdict == Spontaneous && r.Hindered
-	if r.Oxidizer != nil && r.Reducer != nil && onPaper {
+	fam := familyCounted(r)
+	switch {
+	case r.Oxidizer != nil && r.Reducer != nil && onPaper && fam != "" && r.Verdict == Spontaneous:
+		w("\nThe strongest pair on the table, held back in the equilibrium state; the reaction runs as its family instead (%s), counted in the heat below\n", fam)
+	case r.Oxidizer != nil && r.Reducer != nil && onPaper:
 		w("\nOn paper only, not running at these conditions: the strongest pair on the table\n")
+		if fam != "" {
+			w("What runs instead is judged as a reaction family: %s (its heat below)\n", fam)
+		}
 	}
 	if r.Oxidizer != nil && r.Reducer != nil {
 		w("\nOxidizing agent: %s   E° %+.3f V, E here %+.3f V\n", r.Oxidizer.Species, r.Oxidizer.EStandard, r.Oxidizer.E)
@@ -50,6 +57,8 @@ func RenderText(r *Result) string {
 		w("  oxidation: %s\n", r.Reducer.HalfReaction)
 	}
 	switch {
+	case r.Reaction != nil && onPaper && fam != "" && r.Verdict == Spontaneous:
+		w("\nNet ionic equation of the pair (%d e-), as the table writes it:\n  %s\n", r.Reaction.Electrons, r.Reaction.Text)
 	case r.Reaction != nil && onPaper:
 		w("\nNet ionic equation on paper (%d e-), does not run:\n  %s\n", r.Reaction.Electrons, r.Reaction.Text)
 	case r.Reaction != nil && r.OutsideAqueous != "":
@@ -108,6 +117,21 @@ func RenderText(r *Result) string {
 
 // Headline is the one-line verdict shown first.
 func Headline(r *Result) string {
+	fam := familyCounted(r)
+	switch {
+	case fam != "" && r.Verdict == Spontaneous && r.Reaction != nil:
+		s := "SPONTANEOUS — " + r.Oxidizer.Species + " oxidizes " + r.Reducer.Species + "; runs, judged as a reaction family: " + fam
+		if d := dangerCount(r); d > 0 {
+			s += fmt.Sprintf(" (%d danger hazard%s)", d, plural(d))
+		}
+		return s
+	case fam != "":
+		s := "REACTS — " + fam + ", judged as a reaction family (the potential table has no pair for it that runs)"
+		if d := dangerCount(r); d > 0 {
+			s += fmt.Sprintf(" (%d danger hazard%s)", d, plural(d))
+		}
+		return s
+	}
 	switch r.Verdict {
 	case Spontaneous:
 		s := "SPONTANEOUS"
@@ -135,6 +159,17 @@ func Headline(r *Result) string {
 		}
 		return s
 	}
+}
+
+// familyCounted is the reaction judged as a family whose heat the decision
+// counts (chromic acid or hypochlorite burning an alcohol, nitric acid with
+// formic acid), as written, when there is one.
+func familyCounted(r *Result) string {
+	if r.Decision == nil || r.Decision.Heat == nil || len(r.Decision.Heat.Reactions) == 0 {
+		return ""
+	}
+	x, _, _ := strings.Cut(r.Decision.Heat.Reactions[0].Reaction, " (")
+	return x
 }
 
 func dangerCount(r *Result) int {
@@ -225,16 +260,23 @@ func renderAmounts(b *strings.Builder, r *Result) {
 		}
 	}
 	if h := r.Heat; h != nil {
+		label := "Heat"
+		if d := r.Decision; d != nil && d.Heat != nil && len(d.Heat.Reactions) > 0 {
+			writeFamilyHeat(w, d.Heat)
+			label = "  Heat of the mixed state alone"
+		}
 		switch {
+		case h.HeatReleasedkJ != nil && *h.HeatReleasedkJ == 0 && label != "Heat":
+			w("\n%s: none (no strong acid meets strong base, nothing solid dissolves)\n", label)
 		case h.HeatReleasedkJ != nil && *h.HeatReleasedkJ == 0:
-			w("\nHeat: none estimated (no reaction runs, no strong acid meets strong base, nothing solid dissolves)\n")
+			w("\n%s: none estimated (no reaction runs, no strong acid meets strong base, nothing solid dissolves)\n", label)
 
 		case h.HeatReleasedkJ != nil:
 
 			if q := *h.HeatReleasedkJ; q >= 0 {
-				w("\nHeat: %s kJ released", sigText(q))
+				w("\n%s: %s kJ released", label, sigText(q))
 			} else {
-				w("\nHeat: %s kJ taken up (the mix cools)", sigText(-q))
+				w("\n%s: %s kJ taken up (the mix cools)", label, sigText(-q))
 			}
 
 			if h.NeutralisationkJ != 0 {
@@ -280,6 +322,21 @@ func renderAmounts(b *strings.Builder, r *Result) {
 			}
 			w("  %-10s %s mol\n", c.Text, sigText(c.Mol))
 		}
+	}
+}
+
+// writeFamilyHeat writes the heat the decision counts when it adds
+// reactions judged as families to the mixed state's: the figure of the
+// short answer, each family's part, then (by the caller) the state's own.
+func writeFamilyHeat(w func(string, ...any), h *HeatJudged) {
+	w("\nHeat: %s kJ released in all", sigText(h.ReleasedkJ))
+	if h.Boils {
+		w(", would reach the boiling point: boils\n")
+	} else {
+		w(", to about %.0f °C\n", h.ReachedC)
+	}
+	for _, x := range h.Reactions {
+		w("  %s kJ of it from %s, judged as a reaction family (%s)\n", sigText(x.ReleasedkJ), x.Reaction, x.Source)
 	}
 }
 

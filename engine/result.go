@@ -417,6 +417,10 @@ type Heat struct {
 	DilutionkJ float64  `json:"dilution_kj,omitempty"`
 	Assumption string   `json:"assumption"`
 	Missing    []string `json:"missing,omitempty"` // species without formation-enthalpy data
+	// NotDissolvedCounted names the solid or near-pure reagents whose heat
+	// of dissolving is not in the figure (no formation enthalpy on record):
+	// the figure may then be far from the truth, in either direction.
+	NotDissolvedCounted []string `json:"dissolving_not_counted,omitempty"`
 	// LeftOutBoundkJ bounds what the figure leaves out when a species of
 	// Missing is made or used up on the whole: it is counted as its nearest
 	// form with ΔfH° plus hydroxide and water, and the heat of forming it

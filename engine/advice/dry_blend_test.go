@@ -50,3 +50,37 @@ func TestDryOxidizerFuelBlend(t *testing.T) {
 		t.Errorf("nitrate and thiosulfate in water: %v", hazardCodes(r))
 	}
 }
+
+// TestDryChlorinatorAcidBlend: a solid chlorinating agent blended dry with a
+// solid acid gives chlorine as soon as it takes up moisture and heats until
+// it smoulders (Bretherick's Handbook of Reactive Chemical Hazards, calcium
+// hypochlorite: acids, from memory; common practice, no source). Tried as a
+// new user would: calcium hypochlorite with sodium bisulfate read "with
+// precautions", as calcium hypochlorite alone does. Boric and cyanuric acid
+// are too weak to count; salts without acid stay as they were.
+func TestDryChlorinatorAcidBlend(t *testing.T) {
+	a := mustAdvisor(t)
+	for _, req := range []string{
+		"mix 10 kg Ca(OCl)2 + 10 kg NaHSO4",
+		"mix 5 kg sodium dichloroisocyanurate + 5 kg sulfamic acid",
+		"mix 5 kg trichloroisocyanuric acid + 5 kg citric acid",
+		"mix 2 kg LiOCl + 2 kg oxalic acid",
+	} {
+		r := ask(t, a, req)
+		if r.Decision.Level != engine.DoNotMix || !strings.Contains(strings.Join(hazardCodes(r), " "), "dry-blend-chlorine") {
+			t.Errorf("%s: %s %v, want do-not-mix, dry-blend-chlorine", req, r.Decision.Level, hazardCodes(r))
+		}
+	}
+	for _, req := range []string{
+		"mix 10 kg Ca(OCl)2 + 10 kg NaCl",
+		"mix 10 kg Ca(OCl)2 + 10 kg boric acid",
+		"mix 10 kg trichloroisocyanuric acid + 10 kg cyanuric acid",
+		"mix 10 kg NaHSO4 + 10 kg NaCl",
+		"mix 10 kg Ca(OCl)2 + 10 kg NaHSO4 + 2000 L water",
+	} {
+		r := ask(t, a, req)
+		if strings.Contains(strings.Join(hazardCodes(r), " "), "dry-blend-chlorine") {
+			t.Errorf("%s: %v, want no dry-blend-chlorine", req, hazardCodes(r))
+		}
+	}
+}

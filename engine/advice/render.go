@@ -253,6 +253,9 @@ func heatLine(r *engine.Result) string {
 	if h := r.Heat; h != nil && h.LeftOutBoundkJ != nil && r.Decision != nil && r.Decision.Heat != nil {
 		line += fmt.Sprintf(" (%s estimated from a related form; within ±%s kJ)", strings.Join(h.Missing, ", "), num(*h.LeftOutBoundkJ))
 	}
+	if h := r.Heat; h != nil && len(h.NotDissolvedCounted) > 0 {
+		line += fmt.Sprintf(" (heat of dissolving %s not counted: no data)", strings.Join(h.NotDissolvedCounted, ", "))
+	}
 	if r.Decision != nil && r.Decision.Heat != nil {
 		for _, x := range r.Decision.Heat.Reactions {
 			line += fmt.Sprintf("; %s kJ of it from %s", num(x.ReleasedkJ), x.Reaction)

@@ -59,7 +59,11 @@ func TestHazardsAdded(t *testing.T) {
 			"Bretherick's Handbook, sodium dithionite; NIOSH IDLH sulfur dioxide 100 ppm"},
 		{"dithionite self-heating", "mix 1 kg Na2S2O4 + 10 L H2SO4 10 %", "self-heating", engine.Warning,
 			"Bretherick's Handbook, sodium dithionite"},
-		{"hydrofluoric acid", "mix 1 L HF 40 % + 1 L water", "hf-burns", engine.Danger,
+		// Diluting 40 % acid for a pickle is routine with HF precautions
+		// (common practice, no source); heated concentrated acid fumes.
+		{"hydrofluoric acid", "mix 1 L HF 40 % + 1 L water", "hf-burns", engine.Warning,
+			"NIOSH Pocket Guide, hydrogen fluoride IDLH 30 ppm"},
+		{"hydrofluoric acid heated", "mix 50 L HF 40 % + 50 L H2SO4 98 %", "hf-burns", engine.Danger,
 			"NIOSH Pocket Guide, hydrogen fluoride IDLH 30 ppm"},
 		{"aqua regia", "mix 3 L HCl 37 % + 1 L HNO3 65 %", "chlorine-release", engine.Danger,
 			"CRC Handbook and Bretherick's Handbook, aqua regia"},

@@ -72,6 +72,8 @@ var codes = []Code{
 	{"peracid-alkali", "peracid with strong alkali: violent decomposition, oxygen and boiling caustic", []string{"oxygen-enrichment"}},
 	{"oxidizer-organic-fire", "strong oxidizer with organic liquid: fire or violent reaction", nil},
 	{"oxidizer-fuel-blend", "solid oxidizer blended dry with a fuel: fire or explosion", nil},
+	{"peracid-runaway", "peracid forms fast from concentrated peroxide: violent decomposition", nil},
+	{"dry-blend-chlorine", "solid chlorinating agent blended dry with a solid acid: chlorine, heat, fire", nil},
 	{"bis-chloromethyl-ether", "forms bis(chloromethyl) ether (causes cancer)", nil},
 	{"formaldehyde-caustic-heat", "formaldehyde with strong caustic: runaway heat", nil},
 	{"formaldehyde-ammonia-heat", "formaldehyde with ammonia: strong heat, ammonia boils off", nil},

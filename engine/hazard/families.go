@@ -19,7 +19,7 @@ var familyRules = []func(o *Outcome) (engine.Hazard, bool){
 	solidHypochlorite, magnesiumWater, cyanideOxidation, halideSulfuric, chlorateSulfuric, hotElectrolessNickel, nitricMetalFumes, aluminiumNitricSlow,
 	chlorateSulfite, hydrazineOxidizer,
 	// organic, azide and solid-chlorinator families (organic.go)
-	organicPeroxides, perchlorateEsters, peracidAlkali, oxidizerOrganic, unassessedFuel, dryOxidizerFuel, bisChloromethylEther,
+	organicPeroxides, perchlorateEsters, peracidAlkali, peracids, oxidizerOrganic, unassessedFuel, dryOxidizerFuel, dryChlorinatorAcid, bisChloromethylEther,
 	cannizzaro, hexamine, formaldehydeHypochlorite, haloform, heavyMetalAzide, mixedChlorinators,
 	// silicate with acid (silica.go)
 	silicaGel,
@@ -672,13 +672,24 @@ const nitricProofMolar = 18.0
 // aluminiumNitricSlow: aluminium held passive by concentrated nitric acid
 // (lock nitric-passivation-aluminium) below about 80 % still corrodes
 // slowly with brown fumes; powder and turnings go faster, and diluting the
-// acid with the metal in it makes the attack quick.
+// acid with the metal in it makes the attack quick. Iron and carbon steel
+// (lock nitric-passivation-iron) are no nitric-acid material at any
+// strength: the film breaks on dilution, scratching or a trace of chloride
+// and the attack then runs fast with nitrogen oxides. Chromium, the metal
+// that makes stainless steel resist nitric acid, stays quiet.
 func aluminiumNitricSlow(o *Outcome) (engine.Hazard, bool) {
-	if !heldBy(o, "nitric-passivation-aluminium") || o.MolarBefore("NO3-", "HNO3") >= nitricProofMolar {
+	nitrate := o.MolarBefore("NO3-", "HNO3")
+	var metal, material string
+	switch {
+	case heldBy(o, "nitric-passivation-iron"):
+		metal, material = "Iron and carbon steel are", "carbon steel is no material for nitric acid at any strength (stainless steel is)"
+	case heldBy(o, "nitric-passivation-aluminium") && nitrate < nitricProofMolar:
+		metal, material = "Aluminium is", "aluminium stands up only to nitric acid above about 80 %"
+	default:
 		return engine.Hazard{}, false
 	}
 	return mk("nitric-slow-attack", engine.Warning,
-		"Aluminium is passivated by nitric acid of this strength ("+fmtNum(o.MolarBefore("NO3-", "HNO3"), 3)+" mol/L nitrate), but below about 80 % acid the film does not stop it altogether: the metal corrodes slowly with brown nitrogen oxides (not counted here), powder and turnings faster, and diluting the acid with the metal in it makes the attack fast.",
-		"Keep aluminium powder and turnings out; do not dilute or rinse with the metal in the acid; work with extraction and keep the vessel vented.",
-		"Perry's Chemical Engineers' Handbook, corrosion of aluminium by nitric acid (from memory); aluminium tanks for strong (above about 80 %) nitric acid: common practice, no source"), true
+		metal+" passivated by nitric acid of this strength ("+fmtNum(nitrate, 3)+" mol/L nitrate), but the film does not stop it altogether: the metal corrodes slowly with brown nitrogen oxides (not counted here), powder and turnings faster, and diluting the acid with the metal in it, a scratch or a trace of chloride makes the attack fast; "+material+".",
+		"Keep metal powder and turnings out; do not dilute or rinse with the metal in the acid; work with extraction and keep the vessel vented.",
+		"Perry's Chemical Engineers' Handbook, corrosion of aluminium and steels by nitric acid (from memory); Pourbaix, Atlas of Electrochemical Equilibria (1974), iron: passivation (from memory); aluminium tanks for strong (above about 80 %) nitric acid: common practice, no source"), true
 }

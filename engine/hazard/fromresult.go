@@ -57,6 +57,9 @@ func FromResult(r *engine.Result, t *engine.Tables) *Outcome {
 			if ch, ok := t.Lookup(f); ok {
 				o.StrongAcid = o.StrongAcid || ch.Class == engine.StrongAcid
 				o.StrongBase = o.StrongBase || ch.Class == engine.StrongBase
+				if s.MassKg > 0 && s.VolumeL == 0 && solidAcid(ch) {
+					o.SolidAcids = append(o.SolidAcids, f)
+				}
 			}
 		}
 	}
@@ -379,4 +382,29 @@ func (o *Outcome) heatOf(r *engine.Result, headRuns bool) {
 	}
 	o.Heat = Heat{Known: true, ReleasedkJ: q, RiseC: rise, ReachedC: o.TemperatureC + rise, Reactions: headRuns && q != h.NeutralisationkJ+h.DissolutionkJ}
 	o.Heat.Boils = rise > 0 && o.Heat.ReachedC >= BoilingC
+}
+
+// notSolidAcids are weak acids too weak, or too much else, to count as the
+// acid of a dry blend: boric acid (pKa 9.2), cyanuric acid (6.9, the
+// stabiliser blended with chlorinated isocyanurates), and the acids that
+// are oxidizers or poisons in their own right.
+var notSolidAcids = map[string]bool{"H3BO3": true, "C3H3N3O3": true, "HOCl": true, "HCN": true, "H2O2": true, "CrO3": true, "HClO3": true, "HClO4": true}
+
+// solidAcid reports whether a chemical poured dry is an acid in water:
+// a strong or weak acid (first pKa below about 5: sulfamic, oxalic,
+// citric acids) or a bisulfate (sodium bisulfate, the "dry acid" of pool
+// stores).
+func solidAcid(ch *engine.Chemical) bool {
+	if notSolidAcids[ch.Formula] {
+		return false
+	}
+	if ch.Class == engine.StrongAcid || ch.Class == engine.WeakAcid {
+		return true
+	}
+	for _, g := range ch.Gives {
+		if g.Formula == "HSO4" && g.Charge == -1 {
+			return true
+		}
+	}
+	return false
 }

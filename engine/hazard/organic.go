@@ -148,6 +148,47 @@ func organicPeroxides(o *Outcome) (engine.Hazard, bool) {
 		"Bretherick's Handbook of Reactive Chemical Hazards, hydrogen peroxide with ketones and acetone with hydrogen peroxide (from memory); thresholds 0.05 mol/L ketone and 0.1 mol/L peroxide: common practice, no source"), true
 }
 
+// Peracid thresholds (mol/L in the mix before reaction): hydrogen peroxide
+// from about 3 mol/L (10 %) with formic acid from 0.1 mol/L below pH 5,
+// where the acid is mostly un-ionised, or with acetic or propionic acid
+// from 0.5 mol/L and a mineral acid below pH 1 (common practice, no
+// source).
+const (
+	peracidPeroxideMolar = 3.0
+	performicMolar       = 0.1
+	peracidAcidMolar     = 0.5
+	peracidMaxPH         = 5.0
+)
+
+// peracids: concentrated hydrogen peroxide with a carboxylic acid forms the
+// peracid, RCOOH + H2O2 ⇌ RCOOOH + H2O. Formic acid catalyses its own
+// reaction and performic acid forms within the hour; it decomposes
+// violently, with gas and heat, and has exploded. Acetic and propionic
+// acid form their peracids over hours to days (peracidForming's note), in
+// minutes with a mineral acid as catalyst: the way peracetic acid is made,
+// under control, cooled and vented.
+func peracids(o *Outcome) (engine.Hazard, bool) {
+	p := o.MolarBefore("H2O2", "HO2-")
+	if p < peracidPeroxideMolar || o.PH >= peracidMaxPH {
+		return engine.Hazard{}, false
+	}
+	const src = "Bretherick's Handbook of Reactive Chemical Hazards, peroxyformic acid, and hydrogen peroxide with carboxylic acids (from memory); thresholds 3 mol/L peroxide, 0.1 mol/L formic and 0.5 mol/L acetic or propionic acid below pH 5: common practice, no source"
+	if f := o.MolarBefore("HCOOH", "HCOO-"); f >= performicMolar {
+		return mk("peracid-runaway", engine.Danger,
+			"Formic acid ("+fmtNum(f, 2)+" mol/L in the mix) with concentrated hydrogen peroxide ("+fmtNum(p, 2)+" mol/L) forms performic acid within the hour; it decomposes violently, with gas and heat, and has exploded.",
+			"Do not combine. Keep formic acid and formate-bearing waste out of peroxide tanks and drums; performic acid is made only in situ, cooled and in small amounts, under a written procedure.",
+			src), true
+	}
+	a := o.MolarBefore("CH3COOH", "CH3CH2COOH")
+	if a < peracidAcidMolar || o.PH >= 1 {
+		return engine.Hazard{}, false // acetic acid alone: peracidForming's note
+	}
+	return mk("peracid-runaway", engine.Danger,
+		"Acetic or propionic acid ("+fmtNum(a, 2)+" mol/L in the mix) with concentrated hydrogen peroxide ("+fmtNum(p, 2)+" mol/L) and a mineral acid (pH "+fmtNum(o.PH, 2)+") forms the peracid within minutes, with heat and oxygen: it fires organic matter and decomposes violently when it warms or meets metals.",
+		"Do not combine. Peracid is made only under a written procedure: cooled, vented, stabilised, with the catalyst acid dosed as the procedure says.",
+		src), true
+}
+
 // perchlorateEsters: concentrated perchloric acid with alcohols and other
 // organic matter forms alkyl perchlorates, extremely shock-sensitive, and
 // the mix can explode when warmed or left to concentrate.
@@ -241,6 +282,9 @@ type strongOxidizer struct {
 	// dried out (a soaked rag, a crust on the drum) or lit.
 	slow bool
 }
+
+// hypochloriteIndex is the place of the hypochlorite row in strongOxidizers.
+const hypochloriteIndex = 2
 
 var strongOxidizers = []strongOxidizer{
 	{name: "Permanganate", reagent: "MnO4-", species: []string{"MnO4-", "HMnO4"}, solids: []string{"KMnO4", "NaMnO4"}, electrons: 3,
@@ -656,6 +700,32 @@ func dryOxidizerFuel(o *Outcome) (engine.Hazard, bool) {
 		}
 	}
 	return engine.Hazard{}, false
+}
+
+// dryChlorinatorAcid: a solid chlorinating agent (calcium or lithium
+// hypochlorite, chlorinated isocyanurates, BCDMH) blended dry with a solid
+// acid (sodium bisulfate, sulfamic, citric or oxalic acid) gives chlorine
+// as soon as the blend takes up moisture from the air, and heats until it
+// smoulders or ignites: such blends have caused fires and chlorine releases
+// in pool-chemical stores.
+func dryChlorinatorAcid(o *Outcome) (engine.Hazard, bool) {
+	if o.VolumeL > 0 || len(o.SolidAcids) == 0 {
+		return engine.Hazard{}, false
+	}
+	var chlor string
+	for _, c := range o.SolidChemicals {
+		if slices.Contains(strongOxidizers[hypochloriteIndex].solids, c) {
+			chlor = c
+			break
+		}
+	}
+	if chlor == "" {
+		return engine.Hazard{}, false
+	}
+	return mk("dry-blend-chlorine", engine.Danger,
+		"Chlorinating agent "+chlor+" blended dry with the acid "+o.SolidAcids[0]+": the blend gives off chlorine as soon as it takes up moisture (humid air, a wet scoop), and heats until it smoulders or ignites; it needs no liquid to start.",
+		"Do not blend. Store, scoop and dose the chlorinator and the acid apart, each with its own clean, dry tools; dissolve each separately into plenty of water and add them to the pool or tank at different points.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, calcium hypochlorite: acids, and chlorinated isocyanurates (from memory); common practice, no source (pool-chemical store fires)"), true
 }
 
 // isStrongOxidizerSolid reports whether the formula is one of the solids of

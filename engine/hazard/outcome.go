@@ -100,7 +100,11 @@ type Outcome struct {
 	SolidChemicals  []string // formulas of streams given as solids (a mass, no liquid)
 	// SolidKg is the mass (kg) of each chemical poured as a solid stream
 	// of that chemical alone.
-	SolidKg    map[string]float64
+	SolidKg map[string]float64
+	// SolidAcids are the chemicals poured dry that are acids in water:
+	// strong acids, weak acids of the first pKa below about 5, and
+	// bisulfates (see solidAcid).
+	SolidAcids []string
 	StrongAcid bool // a stream holds a strong acid
 	StrongBase bool // a stream holds a strong base
 	Reactions  []Proceeding

@@ -130,14 +130,23 @@ func hydrofluoric(o *Outcome) (engine.Hazard, bool) {
 		}
 		msg = "Hydrofluoric acid is handled on its way into the mix, which takes it up: splashes and fumes burn late and fluoride poisons through the skin (IDLH 30 ppm)."
 	}
+	// The acid's own hazard is a warning with its precautions: diluting
+	// 40 % acid to 20 % for a pickle is routine work. Concentrated acid
+	// that the mix heats fumes heavily, and that is a reason not to mix.
 	sev := engine.Warning
-	if hf >= 10 {
+	if hf >= 10 && o.Heat.Known && (o.Heat.Boils || o.Heat.ReachedC >= hfHotC) {
 		sev = engine.Danger
+		msg += " The mix heats it to about " + fmtNum(o.Heat.ReachedC, 2) + " °C, where it fumes heavily."
 	}
 	return mk("hf-burns", sev, msg,
-		"Wear HF-rated gloves and face shield, keep calcium gluconate gel at hand, work with extraction; transfer concentrated or anhydrous HF closed, or below the liquid surface.",
-		"NIOSH Pocket Guide, hydrogen fluoride, IDLH 30 ppm (from memory); calcium gluconate first aid and closed transfer: common practice, no source; 10 mol/L danger threshold: common practice, no source"), true
+		"Wear HF-rated gloves and face shield, keep calcium gluconate gel at hand, work with extraction; add the acid into the water, never the reverse; transfer concentrated or anhydrous HF closed, or below the liquid surface.",
+		"NIOSH Pocket Guide, hydrogen fluoride, IDLH 30 ppm (from memory); calcium gluconate first aid and closed transfer: common practice, no source; danger from 10 mol/L heated to 60 °C: common practice, no source"), true
 }
+
+// hfHotC is the temperature from which concentrated hydrofluoric acid in a
+// mix fumes heavily (its vapour pressure about quadruples from 25 to
+// 60 °C: data/vapour.txt slope; common practice, no source).
+const hfHotC = 60
 
 // alkaliMetalFire: sodium, potassium and lithium with water.
 func alkaliMetalFire(o *Outcome) (engine.Hazard, bool) {

@@ -81,6 +81,9 @@ func peracidForming(o *Outcome) (engine.Hazard, bool) {
 	if h2o2 < 0.5 || acid < 0.5 {
 		return engine.Hazard{}, false
 	}
+	if _, fast := peracids(o); fast {
+		return engine.Hazard{}, false // the runaway says it
+	}
 	return mk("peracid-forming", engine.Warning,
 		"Hydrogen peroxide ("+fmtNum(h2o2, 2)+" mol/L) with acetic acid ("+fmtNum(acid, 2)+" mol/L) forms peracetic acid slowly, over hours to days (faster with a strong acid): not counted here, but the mix gives off oxygen as it stands and concentrated mixes can run away when heated or contaminated.",
 		"Use vented containers only, keep the mix cool and free of metals and dirt, and do not store it in a closed drum.",
