@@ -252,7 +252,11 @@ func chlorateWithHydrochloric(o *Outcome, ps map[string]*pool) {
 	if clo3 < TraceMolar || cl < TraceMolar || o.PH > 1 {
 		return
 	}
-	n := math.Min(clo3, cl) * o.VolumeL
+	// The acid is counted once: the mixed state has already spent what
+	// went to chlorine (ClO3- + 6 H+ + 5 Cl- → 3 Cl2 + 3 H2O), so chlorine
+	// dioxide comes only from the free acid left beside the chlorate and
+	// chloride, two protons and one chloride per ClO2.
+	n := min(clo3, cl, o.Molar("H+")/2) * o.VolumeL
 	const src = "chlorate with hydrochloric acid gives chlorine dioxide (explosive above about 10 % in air): Bretherick's Handbook of Reactive Chemical Hazards, sodium chlorate, from memory"
 	addTo(ps, "ClO2", n, 1, "chlorate with hydrochloric acid", src)
 	addTo(ps, "Cl2", n/2, 1, "chlorate with hydrochloric acid", src)
