@@ -324,3 +324,31 @@ func TestThiosulfateWithHalogens(t *testing.T) {
 		})
 	}
 }
+
+// TestPermanganateStopsAtDioxide: permanganate in neutral or alkaline
+// solution takes three electrons and stops at manganese dioxide; in clearly
+// acid solution it goes on to manganese(II) (Vogel's Textbook of
+// Quantitative Chemical Analysis, potassium permanganate, from memory).
+// 100 L of 5 % KMnO4 holds about 32.7 mol (5.18 kg at 1.035 kg/L).
+func TestPermanganateStopsAtDioxide(t *testing.T) {
+	low := "Mn(OH)2(s)|Mn^2+|MnOH+|Mn(s)"
+	cases := []struct {
+		req  string
+		want mixOutcome
+	}{
+		{"mix 100 L KMnO4 5 % + 10 L ethanol", mixOutcome{
+			atLeast: map[string]float64{"MnO2(s)": 30},
+			atMost:  map[string]float64{low: 0.01}}},
+		{"mix 100 L KMnO4 5 % + 30 L isopropanol", mixOutcome{
+			atLeast: map[string]float64{"MnO2(s)": 30},
+			atMost:  map[string]float64{low: 0.01}}},
+		{"mix 100 L KMnO4 5 % + 20 L sodium sulfite 10 %", mixOutcome{
+			atMost: map[string]float64{low: 0.01}}},
+		// Sulfuric acid: five electrons, manganese(II).
+		{"mix 100 L KMnO4 5 % + 100 L H2SO4 20 % + 1 L ethanol", mixOutcome{
+			atLeast: map[string]float64{"Mn^2+|MnSO4": 10}}},
+	}
+	for _, c := range cases {
+		t.Run(c.req, func(t *testing.T) { checkOutcome(t, c.req, c.want) })
+	}
+}

@@ -71,6 +71,7 @@ var codes = []Code{
 	{"nitrate-esters", "forms nitrate esters (explosive); never cool and hold", nil},
 	{"peracid-alkali", "peracid with strong alkali: violent decomposition, oxygen and boiling caustic", []string{"oxygen-enrichment"}},
 	{"oxidizer-organic-fire", "strong oxidizer with organic liquid: fire or violent reaction", nil},
+	{"oxidizer-organic-heat", "strong oxidizer solution oxidizes the organic liquid: heat", []string{"oxidizer-organic-fire"}},
 	{"oxidizer-fuel-blend", "solid oxidizer blended dry with a fuel: fire or explosion", nil},
 	{"peracid-runaway", "peracid forms fast from concentrated peroxide: violent decomposition", nil},
 	{"dry-blend-chlorine", "solid chlorinating agent blended dry with a solid acid: chlorine, heat, fire", nil},

@@ -359,7 +359,14 @@ func oxidizerOrganic(o *Outcome) (engine.Hazard, bool) {
 		if x.slow {
 			what = how + " makes with it a mixture that burns fiercely or explodes once warmed, dried out (a soaked rag, a crust on a drum) or lit"
 		}
-		return withHeat(mk("oxidizer-organic-fire", sev,
+		code := "oxidizer-organic-fire"
+		if sev == engine.Warning {
+			// A dilute solution that stays short of scalding oxidizes the
+			// liquid with heat; the title must not promise a fire.
+			code = "oxidizer-organic-heat"
+			what = how + " oxidizes it with heat; stronger or hotter, it can set it alight"
+		}
+		return withHeat(mk(code, sev,
 			x.name+" with an organic liquid ("+fmtNum(org, 2)+" mol/L of alcohol, solvent, glycol, amine or glycerol): "+what+" ("+heat+" from Thornton's rule).",
 			"Do not combine. Keep strong oxidizers (permanganate, chromic acid, hypochlorite and chlorinating granules, chlorates, chlorites, bromates, perchlorates, nitrates, persulfates, peroxides) away from solvents, alcohols, amines and glycerol; dispose of each separately.",
 			"Bretherick's Handbook of Reactive Chemical Hazards, potassium permanganate with glycerol, chromium trioxide with ethanol, calcium hypochlorite with alcohols, sodium chlorate and sodium chlorite with organic matter, nitrates and perchlorates with organic materials, sodium peroxide with organic matter (from memory); heat by Thornton's rule, 418 kJ per mol O2 (from memory); thresholds: common practice, no source"), rh), true
