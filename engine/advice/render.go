@@ -117,10 +117,27 @@ func NotAssessedLine(r *engine.Result) string {
 // equilibrium state does not run, a volatile product in the liquid). None
 // is left out: a gas a hazard counts, or one above its limit, is never
 // hidden behind "no gas of concern". With none, the gases formed.
+// surgeShare is the share of the liquid's volume from which a gas without a
+// hazard of its own is named on the Forms line beside the gases of concern.
+const surgeShare = 0.1
+
 func formsLine(r *engine.Result) string {
 	var parts []string
+	named := map[string]bool{}
 	for _, f := range gasesFormed(r.Hazards) {
 		parts = append(parts, f.text())
+		named[f.formula] = true
+	}
+	if len(parts) > 0 && r.Decision != nil {
+		// A gas with no hazard of its own (nitrogen, carbon dioxide below
+		// its limit) still swells the headspace: name it when it comes to
+		// a sizeable share of the liquid's volume.
+		for _, g := range r.Decision.Gases {
+			f := strings.TrimSuffix(g.Text, "(g)")
+			if !named[f] && g.VolumeL >= surgeShare*r.Conditions.VolumeL && g.VolumeL >= 1 {
+				parts = append(parts, fmt.Sprintf("%s %s mol (%s L), a gas surge to vent", f, num(g.Mol), num(g.VolumeL)))
+			}
+		}
 	}
 	if len(parts) == 0 && r.Decision != nil {
 		for _, g := range r.Decision.Gases {
