@@ -87,6 +87,7 @@ var codes = []Code{
 	{"chlorate-reducer-acid", "chlorate with a reducing agent: never acidify", nil},
 	{"peracid-forming", "forms peracetic acid slowly: gas on standing", nil},
 	{"warm-bleach", "warm bleach: loses strength, forms chlorate", nil},
+	{"warm-persulfate", "warm persulfate gives off oxygen as it stands", nil},
 	{"boils", "boils", []string{"boiling", "neutralisation-heat"}},
 	{"near-boiling", "gets near boiling: spits where the streams meet", []string{"boiling", "strong-heat", "neutralisation-heat"}},
 	{"scalding-heat", "gets hot enough to scald", []string{"strong-heat", "neutralisation-heat"}},

@@ -12,7 +12,7 @@ import (
 // peroxide and acetic acid, peracid breaking down in alkali). Each rule
 // names its source.
 var slowRules = []func(o *Outcome) (engine.Hazard, bool){
-	chromiumVILeft, chlorateKept, peracidForming, warmHypochlorite,
+	chromiumVILeft, chlorateKept, peracidForming, warmHypochlorite, warmPersulfate,
 }
 
 // standingCodes are hazards of the mix as it stands (it changes over hours:
@@ -113,4 +113,35 @@ func warmHypochlorite(o *Outcome) (engine.Hazard, bool) {
 		"Hypochlorite ("+fmtNum(left, 2)+" mol/L) at about "+fmtNum(t, 3)+" °C loses available chlorine and builds up chlorate over hours (days at 50–60 °C, weeks at room temperature), with some oxygen and heat.",
 		"Use a warm batch promptly and vent its tank; keep bleach stock below about 30 °C.",
 		"White's Handbook of Chlorination, hypochlorite stability (from memory); 40 °C threshold: common practice, no source"), true
+}
+
+// WarmPersulfateC is the temperature from which persulfate left in a mix
+// breaks down within a shift: its half-life is about a day at 60 °C and a
+// few hours at 70–80 °C, shorter in strong acid (Kolthoff and Miller,
+// J. Am. Chem. Soc. 1951, persulfate decomposition rates, from memory).
+const WarmPersulfateC = 60
+
+// warmPersulfate: persulfate kept warm gives off oxygen as it breaks down
+// (S2O8^2- + H2O → 2 HSO4- + ½ O2), and in strong acid forms
+// peroxymonosulfuric (Caro's) acid on the way, a strong oxidizer that fires
+// organic matter. The answer is for the mix as first made (locks
+// persulfate-no-oxygen, persulfate-no-peroxide); the operator needs the note,
+// with the oxygen the batch gives off in all.
+func warmPersulfate(o *Outcome) (engine.Hazard, bool) {
+	left := o.Molar("S2O8^2-", "HS2O8-")
+	t := o.TemperatureC
+	if o.Heat.Known {
+		t = math.Max(t, o.Heat.ReachedC)
+	}
+	if left < 0.01 || t < WarmPersulfateC || o.VolumeL <= 0 {
+		return engine.Hazard{}, false
+	}
+	o2 := left * o.VolumeL / 2
+	msg := "Persulfate (" + fmtNum(left, 2) + " mol/L) at about " + fmtNum(t, 3) + " °C breaks down over hours, giving off up to " + fmtNum(o2, 3) + " mol of oxygen (" + fmtNum(engine.GasVolumeL(o2, 298.15, 101.325), 3) + " L) as the batch stands"
+	if o.PH < 1 {
+		msg += ", and in this strong acid forms peroxymonosulfuric (Caro's) acid on the way, a strong oxidizer that fires organic matter"
+	}
+	return mk("warm-persulfate", engine.Warning, msg+".",
+		"Vent the tank and use the batch promptly; keep organic matter, solvents and rags away from it; do not store it warm in a closed vessel.",
+		"Kolthoff and Miller, J. Am. Chem. Soc. 1951, persulfate decomposition rates (from memory); Bretherick's Handbook of Reactive Chemical Hazards, peroxodisulfates and peroxomonosulfuric acid (from memory); 60 °C threshold: common practice, no source"), true
 }
