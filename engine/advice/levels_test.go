@@ -90,7 +90,7 @@ func TestSequenceNeutralisesFirst(t *testing.T) {
 			t.Errorf("sequence %v runs the acid last, into bleach, and meets %q; want danger", s.Streams, s.Worst)
 		}
 	}
-	if strings.Contains(add.Advice, "Neither order is safe") || !strings.Contains(add.Advice, "then run in NaOCl 12.5 %") {
+	if strings.Contains(add.Advice, "Neither order is safe") || !strings.Contains(add.Advice, "then add NaOCl 12.5 %") {
 		t.Errorf("advice %q", add.Advice)
 	}
 	if r.Decision.Level != engine.WithPrecautions {

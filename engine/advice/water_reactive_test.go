@@ -95,3 +95,16 @@ func TestHydrateOfCommerce(t *testing.T) {
 		t.Errorf("short answer does not say the anhydrous salt was read:\n%s", s)
 	}
 }
+
+// TestSequenceStartsWithLiquid: a bath made up from dry salts and water is
+// started with the water and the salts dissolved into it; among equally safe
+// sequences the one starting with a liquid is named. Tried as a new user
+// would: a zinc chloride bath make-up said "start with ZnCl2, then KCl, then
+// H3BO3, then run in H2O" and in the next sentence "add ZnCl2 into H2O".
+func TestSequenceStartsWithLiquid(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "mix 10 kg zinc chloride + 25 kg potassium chloride + 3 kg boric acid + 100 L water")
+	if !strings.HasPrefix(r.Addition.Advice, "In sequence: start with H2O,") {
+		t.Errorf("advice %q, want the sequence to start with the water", r.Addition.Advice)
+	}
+}

@@ -44,7 +44,7 @@ var gasActions = map[string][2]string{
 	"Br2":  {"Do not combine. Work only with extraction, goggles and gloves.", "Work only with extraction, goggles and gloves."},
 	"HCl":  {"Do not combine outside a fume extraction; hydrochloric acid fumes burn eyes and lungs.", "Work with extraction running and the tank covered: the acid fumes."},
 	"HF":   {"Do not combine outside a fume extraction; HF-rated gloves, face shield and calcium gluconate gel at hand; anyone exposed sees a doctor.", "Work only with extraction; HF-rated gloves and face shield, calcium gluconate gel at hand."},
-	"NOCl": {"Make aqua regia only in a fume cupboard or under extraction, in small amounts, fresh; never store it in a closed container (the gas bursts it).", "Work only with extraction; never close the container."},
+	"NOCl": {"Do not combine outside a fume cupboard or extraction; mix only small amounts, use them fresh and never store the mix in a closed container (the gas bursts it).", "Work only with extraction; never close the container."},
 	"CNCl": {"Do not combine below pH 10. For cyanide destruction raise the pH to 10.5 or more before any hypochlorite goes in.", "Raise the pH to 10.5 before dosing hypochlorite."},
 	"H2":   {"Do not combine in a closed vessel. Vent the headspace, keep sparks and hot work away.", "Vent the headspace and keep sparks and hot work away."},
 	"O2":   {"Keep oil, grease and flames away and vent the headspace.", "Vent the headspace; keep oil and grease away."},

@@ -24,7 +24,9 @@ func sequences(req *engine.Request, eval Evaluate, orders map[[2]int]engine.Pour
 	steps := map[string]engine.PourOrder{}
 	pts := 0
 	var out []engine.PourSequence
+	var solidFirst []bool
 	for _, perm := range permutations(n) {
+		solidFirst = append(solidFirst, dry(&req.Streams[perm[0]]))
 		seq := engine.PourSequence{Streams: make([]string, n), Steps: []engine.PourOrder{}}
 		for i, k := range perm {
 			seq.Streams[i] = Name(&req.Streams[k])
@@ -49,13 +51,29 @@ func sequences(req *engine.Request, eval Evaluate, orders map[[2]int]engine.Pour
 		}
 		out = append(out, seq)
 	}
-	sort.SliceStable(out, func(i, j int) bool {
+	// Among equally safe sequences one that starts the tank with a liquid
+	// comes first: solids are dissolved into a liquid, not run into each
+	// other dry.
+	idx := make([]int, len(out))
+	for i := range idx {
+		idx[i] = i
+	}
+	sort.SliceStable(idx, func(a, b int) bool {
+		i, j := idx[a], idx[b]
 		wi, wj := rank(out[i].Worst), rank(out[j].Worst)
 		if wi != wj {
 			return wi < wj
 		}
+		if solidFirst[i] != solidFirst[j] {
+			return !solidFirst[i]
+		}
 		return seqSpan(out[i]) < seqSpan(out[j])
 	})
+	sorted := make([]engine.PourSequence, len(out))
+	for k, i := range idx {
+		sorted[k] = out[i]
+	}
+	out = sorted
 	return out, pts
 }
 
@@ -134,6 +152,9 @@ func atInlet(r *engine.Request, eval Evaluate) ([]engine.PourHazard, int) {
 	return out, pts
 }
 
+// dry reports whether a stream is a solid given by mass alone.
+func dry(s *engine.Stream) bool { return s.MassKg > 0 && s.VolumeL == 0 }
+
 // stepKey names a step by the set of streams in the tank and the one added.
 func stepKey(tank []int, added int) string {
 	s := slices.Clone(tank)
@@ -201,7 +222,7 @@ func sequenceAdvice(seqs []engine.PourSequence, orders []engine.PourOrder) strin
 	}
 	s := "In sequence: start with " + best.Streams[0]
 	for _, n := range best.Streams[1:] {
-		s += ", then run in " + n
+		s += ", then add " + n
 	}
 	s += ", slowly"
 	if rank(best.Worst) > 0 {
