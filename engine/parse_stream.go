@@ -161,6 +161,11 @@ func (p *parser) components(st *Stream, start *token) error {
 			p.i++
 			continue
 		}
+		// A stream's own pH or temperature may follow a component without a
+		// comma: "NaCN 500 mg/L pH 10", "water 60 C".
+		if u := p.peekAt(1); isWord(tk, "ph") || tk.kind == tNumber && u != nil && u.kind == tWord && temperatureUnits[strings.ToLower(u.text)] != nil {
+			continue
+		}
 		return p.errAt(tk, "unexpected-token", "did not expect %q here; separate components of a stream with \",\" and streams with \"+\" or \"and\"", tk.text)
 	}
 	if len(st.Components) == 0 {

@@ -84,6 +84,14 @@ func TestParseRequest(t *testing.T) {
 				t.Errorf("stream 1 = %+v", s)
 			}
 		}},
+		// Tried as a new user would: "NaCN 500 mg/L pH 10" was refused
+		// for want of a comma before the stream's pH.
+		{"a pH after a strength without a comma", "1000 L NaCN 500 mg/L pH 10 + 10 L H2SO4 10 %", 2, func(t *testing.T, r *engine.Request) {
+			s := r.Streams[0]
+			if len(s.Components) != 1 || s.PH == nil || *s.PH != 10 || r.Streams[1].PH != nil {
+				t.Errorf("stream 1 = %+v", s)
+			}
+		}},
 		{"all concentration units", "Fe2(SO4)3 2 g/L, NH4Cl 5 mmol/L, KMnO4 3 mg/L, NaCl 100 ppm, CuSO4 1 % w/v, HNO3 2 % w/w, K2Cr2O7 0.1 mol/L + FeSO4 1 M", 2, func(t *testing.T, r *engine.Request) {
 			units := []engine.ConcUnit{engine.GPerL, engine.MilliM, engine.MgPerL, engine.PPM, engine.PctWV, engine.PctWW, engine.Molar}
 			for i, u := range units {
