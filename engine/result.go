@@ -366,6 +366,12 @@ type HeatJudged struct {
 	// in the mix as made (ammonium with nitrite, cold and not acid): not
 	// counted in ReleasedkJ, shown as what it would give off if it ran.
 	IfRuns []ReactionHeat `json:"if_runs,omitempty"`
+	// SteamKg is the water a boiling mix boils off as steam (the heat past
+	// the boiling point over water's enthalpy of vaporisation), and
+	// SteamRiseBar what that steam alone would raise a stated closed
+	// headspace by, ideal gas at 100 °C.
+	SteamKg      float64 `json:"steam_kg,omitempty"`
+	SteamRiseBar float64 `json:"steam_rise_bar,omitempty"`
 }
 
 // Amounts is the stoichiometry of the headline reaction.

@@ -97,7 +97,7 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 		d.Held = append(d.Held, h.Text+": "+h.Reason)
 	}
 	if o.Heat.Known {
-		d.Heat = &engine.HeatJudged{ReleasedkJ: round1(o.Heat.ReleasedkJ), ReachedC: round1(o.Heat.ReachedC), Boils: o.Heat.Boils, IfRuns: o.Heat.IfRuns}
+		d.Heat = &engine.HeatJudged{ReleasedkJ: round1(o.Heat.ReleasedkJ), ReachedC: round1(o.Heat.ReachedC), Boils: o.Heat.Boils, IfRuns: o.Heat.IfRuns, SteamKg: round1(o.Heat.SteamKg)}
 		if res.Heat != nil {
 			res.Heat.IfRuns = o.Heat.IfRuns
 		}

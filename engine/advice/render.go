@@ -313,6 +313,8 @@ func heatFigure(r *engine.Result) string {
 	}
 	h := r.Decision.Heat
 	switch {
+	case h.Boils && h.SteamKg >= 0.1:
+		return fmt.Sprintf("Heat: %s kJ, would reach about %s °C: boils, about %s kg of steam", num(h.ReleasedkJ), num(h.ReachedC), num(h.SteamKg))
 	case h.Boils:
 		return fmt.Sprintf("Heat: %s kJ, would reach about %s °C: boils", num(h.ReleasedkJ), num(h.ReachedC))
 	case h.ReleasedkJ == 0:

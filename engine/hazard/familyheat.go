@@ -116,7 +116,10 @@ func addFamilyHeat(o *Outcome, hs []engine.Hazard) {
 	h.ReachedC = o.TemperatureC + h.RiseC
 	h.Boils = h.RiseC > 0 && h.ReachedC >= BoilingC
 	if h.Boils {
-		// Above the boiling point the heat boils water off instead.
+		// Above the boiling point the heat boils water off instead
+		// (about 1 kg per litre of mix).
+		past := h.ReleasedkJ - o.VolumeL*waterCpKJ*(BoilingC-o.TemperatureC)
+		h.SteamKg = max(h.SteamKg, past/steamKJPerKg)
 		h.RiseC, h.ReachedC = BoilingC-o.TemperatureC, BoilingC
 	}
 	h.Reactions = true

@@ -382,7 +382,20 @@ func (o *Outcome) heatOf(r *engine.Result, headRuns bool) {
 	}
 	o.Heat = Heat{Known: true, ReleasedkJ: q, RiseC: rise, ReachedC: o.TemperatureC + rise, Reactions: headRuns && q != h.NeutralisationkJ+h.DissolutionkJ}
 	o.Heat.Boils = rise > 0 && o.Heat.ReachedC >= BoilingC
+	if o.Heat.Boils && h.WaterFlashedKg != nil && q == total {
+		o.Heat.SteamKg = *h.WaterFlashedKg
+	}
 }
+
+// Water's heat capacity, 4.18 kJ/(kg·K), and enthalpy of vaporisation at
+// 100 °C, 40.65 kJ/mol = 2257 kJ/kg (CRC Handbook, Properties of water and
+// Enthalpy of vaporization; from memory): the steam a boiling mix gives off
+// is the heat past the boiling point over the latter.
+const (
+	waterCpKJ      = 4.18
+	steamKJPerKg   = 2257.0
+	steamMolarMass = 18.015
+)
 
 // notSolidAcids are weak acids too weak, or too much else, to count as the
 // acid of a dry blend: boric acid (pKa 9.2), cyanuric acid (6.9, the

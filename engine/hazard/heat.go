@@ -23,9 +23,19 @@ func judgeHeat(o *Outcome) []engine.Hazard {
 	var z engine.Hazard
 	switch {
 	case h.Boils:
-		z = mk("boils", engine.Danger,
-			"The mix releases "+fmtNum(h.ReleasedkJ, 3)+" kJ and would reach about "+fmtNum(h.ReachedC, 3)+" °C: it boils and spits hot liquid and mist.",
-			"Do not mix in one go: use more water, run the concentrated liquid slowly into the water with cooling and stirring; wear a face shield.", src)
+		msg, act := "The mix releases "+fmtNum(h.ReleasedkJ, 3)+" kJ and would reach about "+fmtNum(h.ReachedC, 3)+" °C: it boils and spits hot liquid and mist", "Do not mix in one go: use more water, run the concentrated liquid slowly into the water with cooling and stirring; wear a face shield."
+		if h.SteamKg >= 0.1 {
+			mol := h.SteamKg * 1000 / steamMolarMass
+			msg += ", boiling off about " + fmtNum(h.SteamKg, 2) + " kg of water as steam (" + fmtNum(engine.GasVolumeL(mol, BoilingC+273.15, 101.325)/1000, 2) + " m³ at 100 °C)"
+			hj.SteamKg = sig(h.SteamKg)
+			if o.HeadspaceStated && o.HeadspaceL > 0 {
+				bar := mol * engine.MolarGasConstant() * (BoilingC + 273.15) / (o.HeadspaceL / 1000) / 1e5
+				hj.SteamRiseBar = sig(bar)
+				msg += "; closed, the steam alone would raise the stated " + fmtNum(o.HeadspaceL, 3) + " L headspace by about " + fmtNum(bar, 2) + " bar"
+				act = "Never mix this in a closed vessel: the steam bursts it. " + act
+			}
+		}
+		z = mk("boils", engine.Danger, msg+".", act, src)
 	case h.ReachedC >= NearBoilC && h.RiseC >= 2*WarmRise:
 		// Where the streams meet the liquid runs well above the mean: a mix
 		// whose mean reaches 80 °C boils and spits locally when poured in one

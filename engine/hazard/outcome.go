@@ -74,6 +74,7 @@ type Heat struct {
 	RiseC      float64 // temperature change of the whole mix
 	ReachedC   float64 // starting temperature plus the rise
 	Boils      bool    // reached the boiling point of the liquid
+	SteamKg    float64 // water boiled off as steam when Boils (0: not known)
 	Reactions  bool    // the heat includes reactions (not only neutralisation and dissolving)
 	// Families are the reactions judged as families whose heat is added to
 	// ReleasedkJ; StatekJ is what the state gave before them.
