@@ -53,3 +53,24 @@ func TestNitricOrganicOwnReactions(t *testing.T) {
 		}
 	}
 }
+
+// TestNitricOrganicGasByOwnEquation: the nitrogen dioxide of a reagent with
+// a nitric-acid reaction of its own follows that equation: methanol gives
+// six NO2 per CO2 (CH3OH + 6 HNO3 → CO2 + 6 NO2 + 5 H2O; Bretherick's
+// Handbook, nitric acid with methanol, from memory), as far as the acid
+// goes. Tried as a new user would: 5 L of methanol in 50 L of 68 % nitric
+// acid listed CO2 124 mol and NO2 494 mol (four per CO2). Hand: 5 L ×
+// 0.7914 kg/L / 32.04 g/mol = 123.5 mol methanol, 741 mol NO2 of the 761
+// mol acid (50 L × 1.41 kg/L × 0.68 / 63.01 g/mol).
+func TestNitricOrganicGasByOwnEquation(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "mix 50 L HNO3 68 % + 5 L methanol")
+	co2, no2 := judgedGas(r, "CO2"), judgedGas(r, "NO2")
+	if math.Abs(co2-123.5) > 3 || math.Abs(no2-6*co2) > 0.02*6*co2 {
+		t.Errorf("methanol in nitric acid: CO2 %.1f, NO2 %.1f mol; want about 123.5 and six times that", co2, no2)
+	}
+	r = ask(t, a, "mix 50 L HNO3 68 % + 50 L methanol")
+	if no2 := judgedGas(r, "NO2"); no2 > 770 {
+		t.Errorf("methanol in excess: NO2 %.1f mol, more than the 761 mol of acid", no2)
+	}
+}

@@ -196,13 +196,15 @@ func nitricWithOrganic(o *Outcome, ps map[string]*pool) {
 		return
 	}
 	_, orgE := organicLiquid(o, true)
-	n := math.Min(orgE, hno3) * o.VolumeL
 	// The one-carbon reagents with a reaction of their own go on to carbon
-	// dioxide, one per formula unit, as far as the acid goes; when one of
-	// them is all the organic matter, the nitrogen dioxide is written by
-	// its own equation.
+	// dioxide, one per formula unit, and give the nitrogen dioxide of
+	// their own equation (six per methanol), as far as the acid goes; the
+	// rest of the organic matter gives one NO2 per electron it counts for
+	// (organicLiquid) with the acid left. When one of them is all the
+	// organic matter, the gas's origin is its own equation.
 	origin := "nitric acid oxidizing the organic matter (as ethanol: C2H5OH + 4 H+ + 4 NO3- → CH3COOH + 4 NO2 + 3 H2O)"
 	acid := hno3 * o.VolumeL
+	n, ownE := 0.0, 0.0
 	for _, row := range nitricOwnRows {
 		all := o.MolarBefore(row.species...)
 		mol := math.Min(all*o.VolumeL, acid/row.electrons)
@@ -212,12 +214,25 @@ func nitricWithOrganic(o *Outcome, ps map[string]*pool) {
 		addBeyond(ps, "CO2", mol, "nitric acid taking "+row.species[0]+" to carbon dioxide ("+row.equation+")",
 			"Bretherick's Handbook of Reactive Chemical Hazards, nitric acid with organic compounds (from memory)")
 		acid -= mol * row.electrons
-		if all*row.electrons >= orgE*(1-1e-9) {
+		n += mol * row.electrons
+		ownE += all * o.VolumeL * ownBaseElectrons(row.species[0], row.electrons)
+		if all*ownBaseElectrons(row.species[0], row.electrons) >= orgE*(1-1e-9) {
 			origin = "nitric acid oxidizing " + row.species[0] + " (" + row.equation + ")"
 		}
 	}
+	n += math.Min(math.Max(orgE*o.VolumeL-ownE, 0), math.Max(acid, 0))
 	addBeyond(ps, "NO2", n, origin,
 		"Bretherick's Handbook of Reactive Chemical Hazards, nitric acid with organic compounds (from memory); one NO2 per electron taken from the organic: common practice, no source")
+}
+
+// ownBaseElectrons is what organicLiquid counts for one formula unit of a
+// reagent with a nitric-acid reaction of its own: its usual product's
+// electrons (organicLiquids), or those of that reaction.
+func ownBaseElectrons(formula string, own float64) float64 {
+	if e, ok := organicLiquids[formula]; ok {
+		return e
+	}
+	return own
 }
 
 // chlorateWithSulfuric: concentrated sulfuric acid turns chlorate into
