@@ -24,6 +24,7 @@ var codes = []Code{
 	{"chloramine-release", "forms chloramines", []string{"hypochlorite-ammonia"}},
 	{"nitrogen-trichloride", "forms explosive nitrogen trichloride", []string{"hypochlorite-ammonia"}},
 	{"clo2-release", "releases chlorine dioxide", []string{"toxic-gas"}},
+	{"chloric-acid", "acid chlorate: chloric acid, gives chlorine dioxide when warm, fires organic matter", nil},
 	{"bromine-release", "releases bromine", []string{"toxic-gas"}},
 	{"h2s-release", "releases hydrogen sulfide", []string{"acid-sulfide", "sulfide-near-neutral", "toxic-gas"}},
 	{"so2-release", "releases sulfur dioxide", []string{"acid-sulfite", "sulfite-acidic", "toxic-gas"}},

@@ -17,7 +17,7 @@ import (
 var familyRules = []func(o *Outcome) (engine.Hazard, bool){
 	chloroAmines, nitrateEsters, nitricOrganic, hydrazineNitric, hydroxylamineMetalSalts, dampDithionite, ammoniumNitrite, permanganateSulfuric, volatileAcid,
 	solidHypochlorite, magnesiumWater, cyanideOxidation, halideSulfuric, chlorateSulfuric, hotElectrolessNickel, nitricMetalFumes, aluminiumNitricSlow,
-	chlorateSulfite, hydrazineOxidizer,
+	chlorateSulfite, hydrazineOxidizer, chloricAcid,
 	// organic, azide and solid-chlorinator families (organic.go)
 	organicPeroxides, perchlorateEsters, peracidAlkali, peracids, oxidizerOrganic, unassessedFuel, dryOxidizerFuel, dryChlorinatorAcid, bisChloromethylEther,
 	cannizzaro, hexamine, formaldehydeHypochlorite, haloform, heavyMetalAzide, mixedChlorinators,
@@ -574,6 +574,31 @@ func chlorateSulfuric(o *Outcome) (engine.Hazard, bool) {
 			fmtNum(clo3*2/3*o.VolumeL, 3)+" mol ClO2); chlorine dioxide is toxic (NIOSH IDLH 5 ppm) and explodes above about 10 % in air, and the acid's heat speeds it up.",
 		"Do not combine, at any rate of addition: keep chlorate away from strong acids; if it has happened, leave the area and keep sources of ignition away.",
 		"Bretherick's Handbook of Reactive Chemical Hazards, sodium chlorate: sulfuric acid (from memory); White's Handbook of Chlorination, chlorine dioxide generation (from memory); NIOSH Pocket Guide, chlorine dioxide IDLH 5 ppm (from memory); 6 mol/L threshold: common practice, no source"), true
+}
+
+// chloricAcid: chlorate in strong acid (below pH 0, about 1 mol/L of free
+// acid) at 1 mol/L or more, without chloride to reduce it, is chloric acid:
+// a strong oxidizer that breaks down to chlorine dioxide when it warms or
+// concentrates, and sets organic matter alight. Concentrated sulfuric acid
+// (chlorateSulfuric) and hydrochloric acid (the chlorate with chloride
+// pools) have their own rules; dilute bromic acid keeps (Vogel's Textbook,
+// bromates, from memory) and is left out.
+func chloricAcid(o *Outcome) (engine.Hazard, bool) {
+	ox := o.MolarBefore("ClO3-", "HClO3")
+	if ox < 1 || o.PH >= 0 || o.MolarBefore("Cl-", "Br-", "I-") >= 0.1 {
+		return engine.Hazard{}, false
+	}
+	if _, _, ok := chlorateMeetsSulfuric(o); ok {
+		return engine.Hazard{}, false
+	}
+	sev, warm := engine.Warning, ""
+	if o.Heat.Known && o.Heat.ReachedC >= ScaldC {
+		sev, warm = engine.Danger, " The mix's own heat takes it to about "+fmtNum(o.Heat.ReachedC, 2)+" °C, where the breakdown runs."
+	}
+	return mk("chloric-acid", sev,
+		"Chlorate ("+fmtNum(ox, 2)+" mol/L) in strong acid (pH "+fmtNum(o.PH, 2)+") is chloric acid: a strong oxidizer that breaks down to chlorine dioxide when it warms or concentrates, and sets organic matter, rags and wood alight."+warm,
+		"Keep the mix cool and dilute; keep organic matter, solvents, rags and wood away; never let it dry out or evaporate; work with extraction.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, chloric acid and chlorates with acids (from memory); pH 0 and 1 mol/L thresholds: common practice, no source"), true
 }
 
 // chlorateSulfite: concentrated chlorate or bromate beside concentrated
