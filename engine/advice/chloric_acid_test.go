@@ -29,3 +29,25 @@ func TestChloricAcid(t *testing.T) {
 		}
 	}
 }
+
+// TestThiosulfateKillMadeAlkaline: a halogen killed with plain thiosulfate
+// makes its own acid, which drives sulfur dioxide off the rest of the
+// thiosulfate; kill liquors are made alkaline first with soda ash or
+// bicarbonate (common practice, no source). The action says so; with soda
+// ash in the liquor the kill is no longer refused for sulfur dioxide.
+func TestThiosulfateKillMadeAlkaline(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "mix 1 L bromine + 100 L Na2S2O3 10 %")
+	h, ok := hazardOf(r, "so2-release")
+	if !ok || !strings.Contains(h.Action, "Make the thiosulfate alkaline first") {
+		t.Errorf("bromine kill: so2 hazard %+v, want the soda-ash action", h)
+	}
+	r = ask(t, a, "mix 1 L bromine + 100 L Na2S2O3 10 %, Na2CO3 5 %")
+	if slices.Contains(hazardCodes(r), "so2-release") {
+		t.Errorf("bromine kill with soda ash: codes %v", hazardCodes(r))
+	}
+	r = ask(t, a, "mix 200 L Na2S2O3 20 % + 20 L HCl 32 %")
+	if h, ok := hazardOf(r, "so2-release"); !ok || strings.Contains(h.Action, "alkaline first") {
+		t.Errorf("thiosulfate with acid: %+v; the acid stream is the cause, not the reaction", h)
+	}
+}

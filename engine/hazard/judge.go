@@ -338,6 +338,14 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 		// make-up dissolves it in water made alkaline first.
 		sev, act = engine.Warning, "Make the water alkaline first (caustic to pH 12 or more), then dissolve the cyanide in it; work with extraction and an HCN detector."
 	}
+	if g.Formula == "SO2" && sev == engine.Danger && !o.StrongAcid && o.MolarBefore("S2O3^2-") >= TraceMolar {
+		// No stream brings the acid: the reaction makes it (a halogen or
+		// hypochlorite killed with thiosulfate: 4 Br2 + S2O3^2- + 5 H2O →
+		// 8 Br- + 2 HSO4- + 8 H+), and the acid turns the rest of the
+		// thiosulfate to sulfur dioxide. Kill liquors are made alkaline
+		// first (common practice, no source).
+		act = "Make the thiosulfate alkaline first (soda ash or bicarbonate, enough for the acid the reaction makes), then dose slowly with extraction: as written the reaction makes its own acid, which drives off sulfur dioxide."
+	}
 	if g.Formula == "SO2" && chromiumVIReduction(o) {
 		act = chromeReductionActions[0]
 		if sev == engine.Danger {
