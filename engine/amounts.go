@@ -70,15 +70,15 @@ func hydrateNote(c *Component, t *Tables, note func(string, ...any)) {
 	f := c.Chemical.Formula
 	if base, _, ok := strings.Cut(f, "."); ok {
 		if hydrateDots(strings.TrimSpace(c.Name)) != f {
-			note("%s read as %s, the hydrate sold; write %s for the anhydrous salt", c.Name, f, base)
+			note("%s read as %s, the hydrate sold; write %s for the anhydrous form", c.Name, f, base)
 		}
 		return
 	}
 	for _, h := range t.Chemicals {
 		if strings.HasPrefix(h.Formula, f+".") && strings.HasSuffix(h.Formula, "H2O") {
-			what := c.Name + " read as the anhydrous salt " + f
+			what := c.Name + " read as the anhydrous form " + f
 			if hydrateDots(strings.TrimSpace(c.Name)) == f {
-				what = f + " read as the anhydrous salt"
+				what = f + " read as the anhydrous form"
 			}
 			note("%s; if it is the hydrate, write %s: it dissolves with a different heat", what, h.Formula)
 			return

@@ -96,3 +96,20 @@ func TestDryBlendShortAnswer(t *testing.T) {
 		t.Errorf("dry blend short answer:\n%s", s)
 	}
 }
+
+// TestDryAcidCarbonateNote: a dry acid blended with bicarbonate keeps while
+// dry but fizzes once wet (effervescent blends; common practice, no
+// source): no concern as a dry blend, with a note in the short answer.
+func TestDryAcidCarbonateNote(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "mix 25 kg citric acid + 25 kg NaHCO3")
+	if r.Decision.Level != engine.NoConcern {
+		t.Errorf("citric acid with bicarbonate, dry: %s", r.Decision.Level)
+	}
+	if s := advice.RenderShort(r); !strings.Contains(s, "Note: The acid H3C6H5O7 blended dry with NaHCO3") {
+		t.Errorf("no note of the gas once wet:\n%s", s)
+	}
+	if r := ask(t, a, "mix 25 kg NaCl + 25 kg NaHCO3"); strings.Contains(strings.Join(hazardCodes(r), " "), "dry-blend-gas-when-wet") {
+		t.Errorf("salt with bicarbonate: %v", hazardCodes(r))
+	}
+}

@@ -67,6 +67,13 @@ func RenderShort(r *engine.Result) string {
 			w("- %s\n", a)
 		}
 	}
+	notes := 0
+	for _, h := range r.Hazards {
+		if h.Severity == engine.Info && notes < 2 {
+			w("Note: %s\n", h.Message)
+			notes++
+		}
+	}
 	hs, stated := 0.0, false
 	if r.Decision != nil {
 		hs, stated = r.Decision.HeadspaceL, r.Decision.HeadspaceStated

@@ -91,7 +91,7 @@ func TestHydrateOfCommerce(t *testing.T) {
 	if r.Heat == nil || r.Heat.HeatReleasedkJ == nil || *r.Heat.HeatReleasedkJ < 12000 {
 		t.Errorf("anhydrous NiSO4: heat %+v, want about 14.6 MJ released", r.Heat)
 	}
-	if s := advice.RenderShort(r); !strings.Contains(s, "NiSO4 read as the anhydrous salt; if it is the hydrate, write NiSO4.6H2O") {
+	if s := advice.RenderShort(r); !strings.Contains(s, "NiSO4 read as the anhydrous form; if it is the hydrate, write NiSO4.6H2O") {
 		t.Errorf("short answer does not say the anhydrous salt was read:\n%s", s)
 	}
 }

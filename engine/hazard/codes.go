@@ -75,6 +75,7 @@ var codes = []Code{
 	{"oxidizer-organic-heat", "strong oxidizer solution oxidizes the organic liquid: heat", []string{"oxidizer-organic-fire"}},
 	{"oxidizer-fuel-blend", "solid oxidizer blended dry with a fuel: fire or explosion", nil},
 	{"peracid-runaway", "peracid forms fast from concentrated peroxide: violent decomposition", nil},
+	{"dry-blend-gas-when-wet", "dry acid with carbonate: carbon dioxide once wet", nil},
 	{"dry-blend-chlorine", "solid chlorinating agent blended dry with a solid acid: chlorine, heat, fire", nil},
 	{"bis-chloromethyl-ether", "forms bis(chloromethyl) ether (causes cancer)", nil},
 	{"formaldehyde-caustic-heat", "formaldehyde with strong caustic: runaway heat", nil},

@@ -735,6 +735,28 @@ func dryChlorinatorAcid(o *Outcome) (engine.Hazard, bool) {
 		"Bretherick's Handbook of Reactive Chemical Hazards, calcium hypochlorite: acids, and chlorinated isocyanurates (from memory); common practice, no source (pool-chemical store fires)"), true
 }
 
+// dryCarbonates are the carbonates and bicarbonates that give off carbon
+// dioxide with an acid.
+var dryCarbonates = []string{"Na2CO3", "Na2CO3.10H2O", "NaHCO3", "K2CO3", "KHCO3", "CaCO3", "MgCO3"}
+
+// dryAcidCarbonate: a solid acid blended dry with a carbonate keeps while
+// dry but fizzes once wet (the effervescent blend): carbon dioxide and
+// foam in a closed drum or a damp store. A note, not a reason not to blend.
+func dryAcidCarbonate(o *Outcome) (engine.Hazard, bool) {
+	if o.VolumeL > 0 || len(o.SolidAcids) == 0 {
+		return engine.Hazard{}, false
+	}
+	for _, c := range o.SolidChemicals {
+		if slices.Contains(dryCarbonates, c) {
+			return mk("dry-blend-gas-when-wet", engine.Info,
+				"The acid "+o.SolidAcids[0]+" blended dry with "+c+" keeps while dry, but gives off carbon dioxide and foams as soon as it takes up water (humid air, a wet scoop, a wash-down).",
+				"Keep the blend dry, in a vented or loosely closed container; never wash it down into a closed sump.",
+				"common practice, no source (effervescent blends of citric acid and bicarbonate)"), true
+		}
+	}
+	return engine.Hazard{}, false
+}
+
 // isStrongOxidizerSolid reports whether the formula is one of the solids of
 // strongOxidizers.
 func isStrongOxidizerSolid(formula string) bool {
