@@ -51,3 +51,19 @@ func TestThiosulfateKillMadeAlkaline(t *testing.T) {
 		t.Errorf("thiosulfate with acid: %+v; the acid stream is the cause, not the reaction", h)
 	}
 }
+
+// TestCyanideOxidationNamesCyanogenChloride: alkaline chlorination of
+// cyanide is safe only above about pH 10; below it hypochlorite stops at
+// cyanogen chloride (White's Handbook of Chlorination, from memory). The
+// warning says so with hypochlorite, and not with peroxide.
+func TestCyanideOxidationNamesCyanogenChloride(t *testing.T) {
+	a := mustAdvisor(t)
+	h, ok := hazardOf(ask(t, a, "mix 100 L NaCN 5 % + 100 L NaOCl 12.5 %"), "cyanide-oxidation")
+	if !ok || !strings.Contains(h.Message, "cyanogen chloride") {
+		t.Errorf("cyanide with hypochlorite: %+v", h)
+	}
+	h, ok = hazardOf(ask(t, a, "mix 1000 L NaCN 1 g/L, NaOH 0.1 M + 10 L H2O2 35 %"), "cyanide-oxidation")
+	if !ok || strings.Contains(h.Message, "cyanogen chloride") {
+		t.Errorf("cyanide with peroxide: %+v", h)
+	}
+}

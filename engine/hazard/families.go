@@ -515,10 +515,14 @@ func cyanideOxidation(o *Outcome) (engine.Hazard, bool) {
 	if cn < TraceMolar || ox < TraceMolar {
 		return engine.Hazard{}, false
 	}
-	return mk("cyanide-oxidation", engine.Warning,
-		"This is a cyanide oxidation ("+fmtNum(cn, 2)+" mol/L cyanide): it is safe only as a controlled treatment step.",
-		"Hold the pH at 10.5 or more before and during dosing, dose the oxidant slowly with ORP control and stirring, vent the tank and check for hydrogen cyanide.",
-		"alkaline cyanide treatment, pH 10.5 and ORP control: common practice, no source"), true
+	msg, check := "This is a cyanide oxidation ("+fmtNum(cn, 2)+" mol/L cyanide): it is safe only as a controlled treatment step.", "hydrogen cyanide"
+	if hypochloriteAny(o) >= TraceMolar {
+		msg += " Below about pH 10 hypochlorite stops at cyanogen chloride, a toxic gas (ACGIH ceiling 0.3 ppm)."
+		check = "hydrogen cyanide and cyanogen chloride"
+	}
+	return mk("cyanide-oxidation", engine.Warning, msg,
+		"Hold the pH at 10.5 or more before and during dosing, dose the oxidant slowly with ORP control and stirring, vent the tank and check for "+check+".",
+		"alkaline cyanide treatment, pH 10.5 and ORP control: common practice, no source; White's Handbook of Chlorination, cyanogen chloride below pH 10 (from memory)"), true
 }
 
 // labileCyanideMolar is the mol/L of cyanide held in the complexes that
