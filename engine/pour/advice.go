@@ -119,10 +119,20 @@ func firstWorst(o engine.PourOrder) float64 {
 	return f
 }
 
+// codes names the hazards an order meets, each once; of the graded heat
+// hazards only the hottest is named (the pour passes through the milder
+// ones on the way to it).
 func codes(o engine.PourOrder) string {
 	var cs []string
 	seen := map[string]bool{}
+	hottest := 0
 	for _, h := range o.Hazards {
+		hottest = max(hottest, heatGrade[h.Code])
+	}
+	for _, h := range o.Hazards {
+		if g := heatGrade[h.Code]; g > 0 && g < hottest {
+			continue
+		}
 		if !seen[h.Code] {
 			seen[h.Code] = true
 			cs = append(cs, h.Code)
@@ -138,13 +148,13 @@ func pct(f float64) string {
 
 func strconvF(x float64) string { return strconv.FormatFloat(x, 'f', 1, 64) }
 
-// heatCodes are the hazards of heat alone.
-var heatCodes = map[string]bool{"boils": true, "near-boiling": true, "scalding-heat": true, "warms": true}
+// heatGrade ranks the hazards of heat alone, mildest first.
+var heatGrade = map[string]int{"warms": 1, "scalding-heat": 2, "near-boiling": 3, "boils": 4}
 
 // heatOnly reports whether every hazard of an order is one of heat.
 func heatOnly(o engine.PourOrder) bool {
 	for _, h := range o.Hazards {
-		if !heatCodes[h.Code] {
+		if heatGrade[h.Code] == 0 {
 			return false
 		}
 	}

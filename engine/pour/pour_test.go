@@ -216,3 +216,18 @@ func TestInletJudgesNoHeat(t *testing.T) {
 		t.Error("the gas where the salt lands is not reported")
 	}
 }
+
+// An order that passes through the milder heat hazards on its way to
+// boiling is named by the hottest only; gases are all named.
+func TestCodesNameTheHottestHeatOnly(t *testing.T) {
+	o := engine.PourOrder{Hazards: []engine.PourHazard{
+		{Code: "warms"}, {Code: "scalding-heat"}, {Code: "hcn-release"}, {Code: "near-boiling"}, {Code: "boils"}, {Code: "warms"},
+	}}
+	if got, want := codes(o), "hcn-release, boils"; got != want {
+		t.Errorf("codes = %q, want %q", got, want)
+	}
+	o.Hazards = o.Hazards[:3]
+	if got, want := codes(o), "scalding-heat, hcn-release"; got != want {
+		t.Errorf("codes = %q, want %q", got, want)
+	}
+}

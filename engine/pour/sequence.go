@@ -141,7 +141,7 @@ func atInlet(r *engine.Request, eval Evaluate) ([]engine.PourHazard, int) {
 		}
 		pts++
 		for _, h := range hs {
-			if h.Severity != engine.Danger || h.Heat != nil || heatCodes[h.Code] || seen[h.Code] {
+			if h.Severity != engine.Danger || h.Heat != nil || heatGrade[h.Code] > 0 || seen[h.Code] {
 				continue
 			}
 			seen[h.Code] = true
