@@ -350,6 +350,10 @@ type GasJudged struct {
 	// the ambient) the gas would give if the vessel were really closed:
 	// ideal gas at the mix's temperature, all of it as gas.
 	ClosedRiseBar float64 `json:"closed_rise_bar,omitempty"`
+	// DissolvedMol, when the gas fills the headspace at the ambient
+	// pressure, is what stays dissolved in the saturated liquid (given
+	// when it is at least half of Mol): it keeps coming off an open tank.
+	DissolvedMol float64 `json:"dissolved_mol,omitempty"`
 }
 
 // HeatJudged is a heat hazard in numbers.

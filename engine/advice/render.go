@@ -241,8 +241,11 @@ func (g *gasFormed) text() string {
 		return fmt.Sprintf("%s %s mol (%s L), headspace %s ppm; over a %s m³ room %s ppm = %s× %s %s ppm",
 			j.Formula, num(j.Mol), num(j.VolumeL), num(j.HeadspacePPM), num(hazard.RoomM3), num(j.RoomPPM), num(j.Ratio), j.LimitName, num(j.LimitPPM))
 	case j != nil:
-		return fmt.Sprintf("%s %s mol (%s L), headspace %s ppm = %s× %s %s ppm",
-			j.Formula, num(j.Mol), num(j.VolumeL), num(j.HeadspacePPM), num(j.Ratio), j.LimitName, num(j.LimitPPM))
+		s := fmt.Sprintf("%s %s mol (%s L)", j.Formula, num(j.Mol), num(j.VolumeL))
+		if j.DissolvedMol > 0 {
+			s += fmt.Sprintf(" and %s mol more dissolved, still coming off", num(j.DissolvedMol))
+		}
+		return s + fmt.Sprintf(", headspace %s ppm = %s× %s %s ppm", num(j.HeadspacePPM), num(j.Ratio), j.LimitName, num(j.LimitPPM))
 	case c != nil:
 		s := fmt.Sprintf("%s %s mol (%s L)", g.formula, num(c.Mol), num(c.VolumeL))
 		if beyond > 0 {

@@ -208,6 +208,13 @@ func newExplainer(db *thermo.DB, mx *state.Mix, med Medium) (*explainer, error) 
 	x.lnReached = make([]float64, len(mx.Species))
 	for i, v := range x.lnA {
 		x.lnReached[i] = v
+		if sp := mx.Species[i]; sp.Text == "H+" || sp.Text == "OH-" {
+			// The medium counts at its activity as combined, as in LnQ:
+			// a change that carries the pH across neutral (chlorite
+			// disproportionating until the acid is spent) is driven by
+			// the medium it starts in, not judged at the end it reaches.
+			continue
+		}
 		if math.IsNaN(v) || v <= traceLnA {
 			x.lnReached[i] = mx.Final.LnA[i]
 		}

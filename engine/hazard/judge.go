@@ -122,6 +122,9 @@ func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 			// The mixed state has this gas: its numbers, not an estimate.
 			p = &pool{mol: m.Mol, molecular: 1, origins: []string{"the mix at equilibrium"}, equilibrium: true}
 			hs = Headspace{PPM: math.Min(m.PPM, 1e6), Vents: m.PPM >= 1e6}
+			if hs.Vents {
+				p.dissolved = m.Dissolved
+			}
 			if boilsOff(o) && g.LimitName != "LFL" && g.LimitName != "O2" && m.Dissolved > 1e-3*m.Mol {
 				// A mix its own heat takes to the boil drives the
 				// dissolved gas out with the steam: the equilibrium
@@ -170,6 +173,12 @@ func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 	}
 	return out
 }
+
+// SaturatedShare is the part of the amount given off from which what
+// stays dissolved in a liquid saturated with the gas is named beside it:
+// such a liquid keeps giving the gas off an open tank (chlorine dioxide
+// from acidified chlorite is mostly in solution at ambient pressure).
+const SaturatedShare = 0.5
 
 // fromVapourTable replaces the headspace figure of a gas of the vapour
 // table (HCl, HF, NH3) by the partial pressure over a solution of the
@@ -370,6 +379,9 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 	closedBar := 0.0
 	if hs.Vents {
 		msg += " It fills the headspace and the rest vents."
+		if p.dissolved >= SaturatedShare*p.mol {
+			msg += fmt.Sprintf(" Another %s mol stays dissolved in the saturated liquid and keeps coming off an open tank.", fmtNum(p.dissolved, 3))
+		}
 		if bar, tC, ok := closedRise(o, p); ok {
 			closedBar = bar
 			msg += fmt.Sprintf(" If the vessel were really closed, the %s L of gas would raise the stated %s L headspace by about %s bar (ideal gas at the mix's %s °C, all of it as gas).",
@@ -394,6 +406,9 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 	}
 	if p.beyond > 0 {
 		h.Gas.Outside = p.outside
+	}
+	if hs.Vents && p.dissolved >= SaturatedShare*p.mol {
+		h.Gas.DissolvedMol = sig(p.dissolved)
 	}
 	if closedBar > 0 {
 		h.Gas.ClosedRiseBar = sigN(closedBar, 3)

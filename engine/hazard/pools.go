@@ -30,7 +30,11 @@ type pool struct {
 	// equilibrium: the amount is the mixed state's own figure for the gas
 	// at equilibrium (no reaction outside the state, no boil-off).
 	equilibrium bool
-	sources     []string
+	// dissolved is what stays dissolved of the gas in a liquid saturated
+	// with it (the gas fills the headspace at the ambient pressure):
+	// given with equilibrium pools only.
+	dissolved float64
+	sources   []string
 	// vapour: the headspace figure was read from the vapour table at the
 	// liquid's strength (pct % w/w, tempC); lower: the liquid is stronger
 	// than the table's last row, whose figure is a lower bound.
