@@ -321,6 +321,16 @@ func (p *parser) tagError(tag *token, text string, err error) error {
 	}
 }
 
+// solidForms are the words for the physical form of a solid that may
+// follow its name (trade usage, common practice, no source).
+var solidForms = map[string]bool{
+	"powder": true, "powdered": true, "dust": true, "flake": true, "flakes": true, "pellet": true, "pellets": true,
+	"prills": true, "prilled": true, "granules": true, "granular": true, "beads": true, "pearls": true,
+	"crystals": true, "crystal": true, "filings": true, "turnings": true, "shavings": true, "chips": true,
+	"scrap": true, "swarf": true, "pieces": true, "lumps": true, "briquettes": true, "tablets": true, "pucks": true,
+	"solid": true, "foil": true, "wire": true, "sheet": true,
+}
+
 // stopWord: a word that ends a chemical's name: the conditions, a pH, or a
 // word that separates streams ("and", "with", "into").
 func stopWord(tk *token) bool { return isWord(tk, "at", "ph", "and", "with", "into") }
@@ -356,6 +366,12 @@ func (p *parser) component() (Component, error) {
 		}
 		p.i += k
 		c := Component{Chemical: chem, Name: name, Pos: p.pos(words[0])}
+		if tk := p.peek(); tk != nil && tk.kind == tWord && solidForms[strings.ToLower(tk.text)] {
+			// "caustic soda flakes", "aluminium powder": the physical form
+			// of a solid, read and said, not an unknown word.
+			p.i++
+			p.note("%q read as the form of solid %s: the form changes how fast it reacts (powder and dust fastest), not what forms", tk.text, name)
+		}
 		if tk := p.peek(); tk != nil && tk.kind == tNumber {
 			p.i++
 			return c, p.concUnit(&c, tk)

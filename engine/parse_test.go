@@ -246,6 +246,8 @@ func TestParseForgiving(t *testing.T) {
 		{"gallons", "3 gallons NaOCl 5 % + HCl 1 M", nil, []float64{3 * 3.785411784, 0}, []string{"3 gallons read as US gallons"}, 0},
 		{"wt%", "NaOCl 12.5 wt% + HCl 10 wt %", []float64{12.5, 10}, nil, nil, 0},
 		{"MPa", "Zn + HCl 1 M at 0.2 MPa", nil, nil, nil, 0},
+		{"the form of a solid", "5 kg NaOH flakes + 20 L water", nil, nil, []string{`"flakes" read as the form of solid NaOH`}, 0},
+		{"the form of a solid before its strength", "aluminium powder 100 % + NaOH 20 %", []float64{100, 20}, nil, []string{`"powder" read as the form`}, 0},
 	}
 	for _, tc := range cases {
 		t.Run(tc.name, func(t *testing.T) {
