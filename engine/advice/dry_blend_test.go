@@ -113,3 +113,33 @@ func TestDryAcidCarbonateNote(t *testing.T) {
 		t.Errorf("salt with bicarbonate: %v", hazardCodes(r))
 	}
 }
+
+// TestDryAmmoniumBlends: ammonium salts whose anion carries oxygen are
+// fuels as well (the ammonium burns; with a chlorinator, damp, it gives
+// nitrogen trichloride: Bretherick's Handbook, calcium hypochlorite, from
+// memory), and a solid nitrite blended dry with any ammonium salt makes
+// ammonium nitrite in the first moisture (Bretherick's Handbook, ammonium
+// nitrite, from memory). Tried as a new user would: all four read "no
+// concern" or only "with precautions". Blends without the pair stay quiet.
+func TestDryAmmoniumBlends(t *testing.T) {
+	a := mustAdvisor(t)
+	for req, code := range map[string]string{
+		"mix 25 kg ammonium nitrate + 25 kg sodium nitrite":     "ammonium-nitrite-runaway",
+		"mix 10 kg ammonium chloride + 10 kg sodium nitrite":    "ammonium-nitrite-runaway",
+		"mix 20 kg sodium nitrite + 20 kg ammonium sulfate":     "ammonium-nitrite-runaway",
+		"mix 5 kg calcium hypochlorite + 5 kg ammonium sulfate": "oxidizer-fuel-blend",
+	} {
+		r := ask(t, a, req)
+		if r.Decision.Level != engine.DoNotMix || !strings.Contains(strings.Join(hazardCodes(r), " "), code) {
+			t.Errorf("%s: %s %v, want do-not-mix, %s", req, r.Decision.Level, hazardCodes(r), code)
+		}
+	}
+	for _, req := range []string{
+		"mix 5 kg sodium nitrite + 5 kg sodium chloride",
+		"mix 5 kg ammonium sulfate + 5 kg potassium chloride",
+	} {
+		if r := ask(t, a, req); r.Decision.Level != engine.NoConcern {
+			t.Errorf("%s: %s %v, want no-concern", req, r.Decision.Level, hazardCodes(r))
+		}
+	}
+}

@@ -700,8 +700,12 @@ func dryOxidizerFuel(o *Outcome) (engine.Hazard, bool) {
 			continue
 		}
 		if what, ok := solidFuel(c); ok {
+			more := ""
+			if oxName == "Hypochlorite" && (ammoniumLike(c) || strings.HasPrefix(what, "an ammonium")) {
+				more = " Damp, the chlorinator and the ammonium give chloramines and explosive nitrogen trichloride."
+			}
 			return mk("oxidizer-fuel-blend", engine.Danger,
-				oxName+" blended dry with "+c+" ("+what+"): the blend burns fiercely or explodes from friction, impact, heat or a spark; it needs no liquid to react.",
+				oxName+" blended dry with "+c+" ("+what+"): the blend burns fiercely or explodes from friction, impact, heat or a spark; it needs no liquid to react."+more,
 				"Do not blend. Keep the oxidizer and the fuel apart in storage, scoops, hoppers and waste drums; sweep up a spill of either at once with clean tools and keep it wet until disposed of.",
 				"Bretherick's Handbook of Reactive Chemical Hazards, sodium and potassium chlorate with sugar, sulfur and phosphorus, potassium permanganate with sulfur, nitrates with aluminium powder, peroxides and persulfates with organic matter (from memory)"), true
 		}
@@ -805,10 +809,57 @@ func solidFuel(formula string) (string, bool) {
 		return "a borohydride", true
 	case n > 0 && h >= 3*n && o == 0:
 		return "an ammonium salt or hydrazine", true
+	case ammoniumLike(formula):
+		// The oxygen of an oxoanion ((NH4)2SO4, NH4H2PO4) feeds nothing:
+		// the ammonium is the fuel (and with hypochlorite it gives
+		// nitrogen trichloride).
+		return "an ammonium, hydrazinium or hydroxylammonium salt", true
 	case h > 0 && o == 0 && c == 0 && n == 0 && s == 0 && p == 0 && b == 0 && noHalogen(a):
 		return "a hydride", true
 	}
 	return "", false
+}
+
+// ammoniumLike reports whether a formula carries ammonium, hydrazine or
+// hydroxylamine as written ((NH4)2SO4, N2H6SO4, (NH3OH)2SO4).
+func ammoniumLike(formula string) bool {
+	for _, g := range []string{"NH4", "N2H4", "N2H5", "N2H6", "NH3OH", "NH2OH"} {
+		if strings.Contains(formula, g) {
+			return true
+		}
+	}
+	return false
+}
+
+// dryNitrites are the solid nitrites of the dictionary.
+var dryNitrites = []string{"NaNO2", "KNO2", "Ca(NO2)2"}
+
+// dryNitriteAmmonium: a solid nitrite blended dry with a solid ammonium
+// salt makes ammonium nitrite in the first moisture it takes up (NH4+ +
+// NO2- → N2 + 2 H2O, −334.6 kJ/mol, NBS Tables 1982 ΔfH°), which
+// decomposes by itself, faster as it warms: a damp blend can heat up and
+// burst its container. With ammonium nitrate the blend is an oxidizer–fuel
+// mixture as well.
+func dryNitriteAmmonium(o *Outcome) (engine.Hazard, bool) {
+	if o.VolumeL > 0 {
+		return engine.Hazard{}, false
+	}
+	var nitrite, ammonium string
+	for _, c := range o.SolidChemicals {
+		switch {
+		case slices.Contains(dryNitrites, c):
+			nitrite = c
+		case ammoniumLike(c):
+			ammonium = c
+		}
+	}
+	if nitrite == "" || ammonium == "" {
+		return engine.Hazard{}, false
+	}
+	return mk("ammonium-nitrite-runaway", engine.Danger,
+		"The nitrite "+nitrite+" blended dry with the ammonium salt "+ammonium+" forms ammonium nitrite in the first moisture it takes up (humid air, a wet scoop), which decomposes to nitrogen with heat and speeds itself up as it warms: a damp blend can heat, gas and burst its container.",
+		"Do not blend, store or bag together; keep nitrites apart from ammonium salts and acids, and dissolve each separately into plenty of water.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, ammonium nitrite and sodium nitrite with ammonium salts (from memory); sodium nitrite safety data sheets, incompatible with ammonium salts (common practice, no source)"), true
 }
 
 // noHalogen reports whether the atoms hold no halogen (HCl, HF are acids,
