@@ -3,6 +3,7 @@ package engine
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 
 	"mixward/engine/chem"
@@ -213,10 +214,7 @@ func heatOut(mx *state.Mix, m *mixture, t *Tables) *Heat {
 		}
 	}
 	h := &Heat{Assumption: heatAssumption, Missing: missing}
-	bound, ok := estimateLeftOut(mx, dfh, math.Max(missingShare*big, floor))
-	if !ok {
-		return h
-	}
+	bound, standInKJ, standIn := estimateLeftOut(mx, dfh, math.Max(missingShare*big, floor))
 	if bound > 0 {
 		h.LeftOutBoundkJ = ptr(roundDec(bound, 0))
 	}
@@ -231,6 +229,17 @@ func heatOut(mx *state.Mix, m *mixture, t *Tables) *Heat {
 		return h
 	}
 	released := -dh
+	if len(standIn) > 0 {
+		if standInKJ > 0.5*math.Abs(released) {
+			// The stand-in could change the figure's sign or size
+			// wholesale: no figure rather than a misleading one.
+			h.LeftOutBoundkJ = nil
+			return h
+		}
+		h.GibbsStandIn = standIn
+		h.Assumption += "; no ΔfH° for " + strings.Join(standIn, ", ") + ": counted at its ΔfG° (its entropy of formation, within about " +
+			strconv.Itoa(int(gibbsStandInKJ)) + " kJ/mol, not counted)"
+	}
 	q, leftOut := m.solutionHeat(t)
 	if q != 0 {
 		h.DissolutionkJ = q
@@ -283,9 +292,11 @@ const leftOutFloorKJ = 60.0
 // changes, net, by more than limit (mol), from formEstimate, and returns
 // the bound (kJ) on what the estimates leave out: per mole the larger of
 // leftOutFloorKJ and the Gibbs energy of forming the species from that
-// form, whose enthalpy is the part not counted. ok is false when a species
-// has no such form: then no figure can be given.
-func estimateLeftOut(mx *state.Mix, dfh []float64, limit float64) (boundKJ float64, ok bool) {
+// form, whose enthalpy is the part not counted. A species with no such
+// form (an organic anion an oxidation makes: glycolate from glycerol) is
+// counted at its ΔfG° and named in standIn, with gibbsStandInKJ per mole
+// in the bound: its entropy of formation is what that leaves out.
+func estimateLeftOut(mx *state.Mix, dfh []float64, limit float64) (boundKJ, standInKJ float64, standIn []string) {
 	net := skeletonChanges(mx, dfh)
 	for i, sp := range mx.Species {
 		d := math.Abs(mx.Final.Amount[i] - mx.Initial[i])
@@ -294,13 +305,22 @@ func estimateLeftOut(mx *state.Mix, dfh []float64, limit float64) (boundKJ float
 		}
 		est, dG, found := formEstimate(mx, sp)
 		if !found {
-			return 0, false
+			dfh[i] = sp.DfG
+			standInKJ += d * gibbsStandInKJ
+			standIn = append(standIn, sp.Text)
+			continue
 		}
 		dfh[i] = est
 		boundKJ += d * math.Max(leftOutFloorKJ, math.Abs(dG))
 	}
-	return boundKJ, true
+	return boundKJ + standInKJ, standInKJ, standIn
 }
+
+// gibbsStandInKJ bounds, per mole, the error of counting a species at its
+// ΔfG° for want of ΔfH°: T·ΔfS° of small organic and oxo anions formed from
+// the elements is mostly within 150 kJ/mol at 298 K (S° of the elements
+// and of such ions, NBS Tables 1982, from memory).
+const gibbsStandInKJ = 150.0
 
 // formEstimate is ΔfH° of sp taken as a form of the same element in the
 // same oxidation state that has ΔfH° (an ion, or a hydroxide, oxide or

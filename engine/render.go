@@ -298,7 +298,9 @@ func renderAmounts(b *strings.Builder, r *Result) {
 			}
 
 			w("\n")
-			if h.LeftOutBoundkJ != nil {
+			if h.LeftOutBoundkJ != nil && len(h.GibbsStandIn) > 0 {
+				w("  %s without ΔfH°: counted as a related form with ΔfH° plus hydroxide and water where one exists, else at ΔfG° (%s); what that leaves out is at most about %s kJ in all\n", strings.Join(h.Missing, ", "), strings.Join(h.GibbsStandIn, ", "), sigText(*h.LeftOutBoundkJ))
+			} else if h.LeftOutBoundkJ != nil {
 				w("  %s counted as a related form with ΔfH° plus hydroxide and water; the heat of forming it from that form is left out (at most about %s kJ in all)\n", strings.Join(h.Missing, ", "), sigText(*h.LeftOutBoundkJ))
 			}
 			if h.DeltaHkJPerMol != nil {

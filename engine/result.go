@@ -436,6 +436,9 @@ type Heat struct {
 	// form with ΔfH° plus hydroxide and water, and the heat of forming it
 	// from that form (at most this many kJ in all) is not counted.
 	LeftOutBoundkJ *float64 `json:"left_out_bound_kj,omitempty"`
+	// GibbsStandIn names the species of Missing with no related form with
+	// ΔfH°, counted at their ΔfG° instead (within LeftOutBoundkJ).
+	GibbsStandIn []string `json:"dfg_stand_in,omitempty"`
 	// Withheld says why no figure is given when it is not missing data:
 	// a solid dissolved into too little water for the solution model.
 	Withheld string `json:"withheld,omitempty"`

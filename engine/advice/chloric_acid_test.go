@@ -4,6 +4,8 @@ import (
 	"slices"
 	"strings"
 	"testing"
+
+	"mixward/engine"
 )
 
 // TestChloricAcid: chlorate in strong acid without chloride is chloric
@@ -93,5 +95,26 @@ func TestAcidChloriteCountsItsChlorineDioxide(t *testing.T) {
 	}
 	if !strings.Contains(h.Message, "stays dissolved") {
 		t.Errorf("message does not name the dissolved chlorine dioxide: %s", h.Message)
+	}
+}
+
+// TestHeatWithAGibbsStandIn: permanganate oxidizing glycerol makes
+// glycolate, which has ΔfG° but no ΔfH° on record; the heat is counted
+// with glycolate at its ΔfG° and said so, not dropped (which read "no
+// concern" beside a reaction at +1.6 V). Hand check: about −450 kJ per mol
+// MnO4- reduced to MnO2 oxidizing an alcohol (NBS Tables 1982 ΔfH°, from
+// memory): 39 mol MnO4- in 200 L of 3 % → about 17.5 MJ.
+func TestHeatWithAGibbsStandIn(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "mix 200 L KMnO4 3 % + 50 L glycerol")
+	h := r.Heat
+	if h == nil || h.HeatReleasedkJ == nil || len(h.GibbsStandIn) == 0 {
+		t.Fatalf("heat %+v: want a figure with a ΔfG° stand-in", h)
+	}
+	if q := *h.HeatReleasedkJ; q < 12000 || q > 22000 {
+		t.Errorf("heat %g kJ, want about 17500", q)
+	}
+	if r.Decision.Level == engine.NoConcern {
+		t.Errorf("decision no-concern beside a reaction that warms the mix by 14 K")
 	}
 }

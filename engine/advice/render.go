@@ -128,6 +128,10 @@ func NotAssessedLine(r *engine.Result) string {
 // hazard of its own is named on the Forms line beside the gases of concern.
 const surgeShare = 0.1
 
+// traceGasShare is the volume of gas, as a share of the liquid's, below
+// which a gas with no hazard is left off the Forms line.
+const traceGasShare = 1e-3
+
 func formsLine(r *engine.Result) string {
 	var parts []string
 	named := map[string]bool{}
@@ -148,6 +152,9 @@ func formsLine(r *engine.Result) string {
 	}
 	if len(parts) == 0 && r.Decision != nil {
 		for _, g := range r.Decision.Gases {
+			if g.VolumeL < traceGasShare*r.Conditions.VolumeL {
+				continue // a trace of gas (0.1 mL of CO2 from a 250 L mix) is no news
+			}
 			if len(parts) < 3 {
 				parts = append(parts, fmt.Sprintf("%s %s L", g.Text, num(g.VolumeL)))
 			}
@@ -282,7 +289,13 @@ func (g *gasFormed) litresPerMol() float64 {
 func heatLine(r *engine.Result) string {
 	line := heatFigure(r)
 	if h := r.Heat; h != nil && h.LeftOutBoundkJ != nil && r.Decision != nil && r.Decision.Heat != nil {
-		line += fmt.Sprintf(" (%s estimated from a related form; within ±%s kJ)", strings.Join(h.Missing, ", "), num(*h.LeftOutBoundkJ))
+		how := "estimated from a related form"
+		if len(h.GibbsStandIn) > 0 && !slices.ContainsFunc(h.Missing, func(m string) bool { return !slices.Contains(h.GibbsStandIn, m) }) {
+			how = "counted at its ΔfG° for want of ΔfH°"
+		} else if len(h.GibbsStandIn) > 0 {
+			how = "estimated from related forms or ΔfG°"
+		}
+		line += fmt.Sprintf(" (%s %s; within ±%s kJ)", strings.Join(h.Missing, ", "), how, num(*h.LeftOutBoundkJ))
 	}
 	if h := r.Heat; h != nil && len(h.NotDissolvedCounted) > 0 {
 		line += fmt.Sprintf(" (heat of dissolving %s not counted: no data)", strings.Join(h.NotDissolvedCounted, ", "))
