@@ -33,7 +33,7 @@ func TestLookup(t *testing.T) {
 		{"CuSO4·5H2O", "CuSO4.5H2O"},
 		{"CuSO4*5H2O", "CuSO4.5H2O"},
 		{"cuso4.5h2o", "CuSO4.5H2O"},
-		{"papermaker’s alum", "Al2(SO4)3"}, // curly apostrophe
+		{"papermaker’s alum", "Al2(SO4)3.14H2O"}, // curly apostrophe
 		{"sodium metabisulfite", "Na2S2O5"},
 		{"chromic acid", "CrO3"},
 		{"Cu", "Cu"},

@@ -118,3 +118,24 @@ func TestHeatWithAGibbsStandIn(t *testing.T) {
 		t.Errorf("decision no-concern beside a reaction that warms the mix by 14 K")
 	}
 }
+
+// TestAlumIsTheHydrate: the water-treatment trade's solid aluminium
+// sulfate ("alum", 17 % Al2O3) is the nominal 14-hydrate (common practice,
+// no source), which dissolves with far less heat than the anhydrous salt
+// (18-hydrate −56 kJ/mol, anhydrous −350 kJ/mol from NBS 1982 ΔfH°, from
+// memory). Tried as a new user would: 50 kg of alum in 1000 L read as the
+// anhydrous salt, 49.6 MJ, "never water into it". The anhydrous form is
+// still there by name.
+func TestAlumIsTheHydrate(t *testing.T) {
+	a := mustAdvisor(t)
+	for _, req := range []string{"mix 1000 L water + 50 kg alum", "mix 1000 L water pH 6.5 + 50 kg aluminium sulfate"} {
+		r := ask(t, a, req)
+		if r.Heat == nil || r.Heat.HeatReleasedkJ == nil || *r.Heat.HeatReleasedkJ > 15000 || r.Decision.Level != engine.NoConcern {
+			t.Errorf("%s: heat %+v, %s; want the 14-hydrate's 10 MJ or so, no concern", req, r.Heat, r.Decision.Level)
+		}
+	}
+	r := ask(t, a, "mix 1000 L water + 50 kg anhydrous aluminium sulfate")
+	if r.Heat == nil || r.Heat.HeatReleasedkJ == nil || *r.Heat.HeatReleasedkJ < 40000 {
+		t.Errorf("anhydrous: heat %+v, want about 50 MJ", r.Heat)
+	}
+}
