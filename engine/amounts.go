@@ -43,6 +43,7 @@ func readAmounts(req *Request, t *Tables) *Request {
 		st.shown = req.Streams[i].Label()
 		st.Components = append([]Component(nil), st.Components...)
 		for ci := range st.Components {
+			soldAsSalt(&st.Components[ci], t, note)
 			readStrength(&st, &st.Components[ci], t, note)
 			if st.MassKg > 0 && st.VolumeL == 0 {
 				hydrateNote(&st.Components[ci], t, note)
@@ -58,6 +59,48 @@ func readAmounts(req *Request, t *Tables) *Request {
 	}
 	capSolids(&out, t, note)
 	return &out
+}
+
+// saltsSold are the salts a strong solution named after a sparingly
+// soluble acid is sold as: a "40 % EDTA" or "40 % NTA" product is the
+// sodium salt (suppliers' data sheets: common practice, no source); the
+// free acids dissolve only about 0.05 % and 0.13 % (solubility.txt).
+var saltsSold = map[string]string{
+	"C10H16N2O8": "Na4C10H12N2O8", // EDTA → tetrasodium EDTA
+	"C6H9NO6":    "Na3C6H6NO6",    // NTA → trisodium NTA
+}
+
+// soldAsSalt reads a component named after a sparingly soluble acid at a
+// strength more than ten times what the acid dissolves as the salt it is
+// sold as, and says so.
+func soldAsSalt(c *Component, t *Tables, note func(string, ...any)) {
+	salt, ok := saltsSold[c.Chemical.Formula]
+	sol, known := t.Solubility[c.Chemical.Formula]
+	if !ok || !known {
+		return
+	}
+	var gPerL float64
+	switch c.Unit {
+	case PctWW, PctWV:
+		gPerL = c.Value * 10
+	case GPerL:
+		gPerL = c.Value
+	case Molar:
+		gPerL = c.Value * c.Chemical.MolarMass
+	default:
+		return
+	}
+	if gPerL <= 10*sol.GPer100G*10 {
+		return
+	}
+	for _, ch := range t.Chemicals {
+		if ch.Formula == salt {
+			note("%s %s cannot be the free acid %s (it dissolves only about %s g/L): read as %s %s, the salt such products are; name the salt to be explicit",
+				c.Name, trimNum(c.Value)+" "+unitText(c.Unit), c.Chemical.Formula, trimNum(sol.GPer100G*10), salt, trimNum(c.Value)+" "+unitText(c.Unit))
+			c.Chemical = ch
+			return
+		}
+	}
 }
 
 // hydrateNote says which form of a salt poured as a solid was read, where

@@ -139,3 +139,20 @@ func TestAlumIsTheHydrate(t *testing.T) {
 		t.Errorf("anhydrous: heat %+v, want about 50 MJ", r.Heat)
 	}
 }
+
+// TestStrongEDTAIsTheSodiumSalt: EDTA dissolves only about 0.5 g/L as the
+// free acid (CRC Handbook, from memory); a "40 % EDTA" product is the
+// tetrasodium salt (common practice, no source). Tried as a new user
+// would: read as 40 % of the free acid, it "warmed noticeably" with
+// caustic. A strength the acid can reach stays the acid.
+func TestStrongEDTAIsTheSodiumSalt(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "mix 300 L EDTA 40 % + 300 L NaOH 10 %")
+	if r.Decision.Level != engine.NoConcern || !strings.Contains(strings.Join(r.Notes, " "), "read as Na4C10H12N2O8 40 %") {
+		t.Errorf("EDTA 40 %%: %s, notes %q", r.Decision.Level, r.Notes)
+	}
+	r = ask(t, a, "mix 1000 L water + 1000 L EDTA 0.2 g/L")
+	if strings.Contains(strings.Join(r.Notes, " "), "cannot be the free acid") {
+		t.Errorf("EDTA 0.2 g/L read as the salt: %q", r.Notes)
+	}
+}
