@@ -73,12 +73,12 @@ func (s *Stream) contents() string {
 			if c.Unit == PctWW {
 				u = "%"
 			}
-			p += " " + strconv.FormatFloat(c.Value, 'g', -1, 64) + " " + u
+			p += " " + strconv.FormatFloat(c.Value, 'g', 6, 64) + " " + u
 		}
 		parts = append(parts, p)
 	}
 	if s.PH != nil {
-		parts = append(parts, "pH "+strconv.FormatFloat(*s.PH, 'g', -1, 64))
+		parts = append(parts, "pH "+strconv.FormatFloat(*s.PH, 'g', 6, 64))
 	}
 	return strings.Join(parts, ", ")
 }

@@ -156,3 +156,24 @@ func TestStrongEDTAIsTheSodiumSalt(t *testing.T) {
 		t.Errorf("EDTA 0.2 g/L read as the salt: %q", r.Notes)
 	}
 }
+
+// TestChromiumUnderdosed: a chromium(VI) reduction that runs out of
+// reducing agent leaves chromium(VI) that must not go on as treated
+// (common practice, no source): 400 L of 5 % dichromate (68 mol, 408 mol
+// of electrons) with 100 L of 20 % FeSO4 (about 160 mol Fe2+) leaves about
+// 50 mol Cr(VI). The action says so, once; a full dose does not.
+func TestChromiumUnderdosed(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "mix 400 L potassium dichromate 5 % + 100 L H2SO4 20 % + 100 L ferrous sulfate 20 %")
+	acts := strings.Join(r.Decision.Actions, "\n")
+	if !strings.Contains(acts, "Chromium(VI) is not all reduced") {
+		t.Errorf("underdosed: actions %q", acts)
+	}
+	if n := strings.Count(acts, "Both orders meet the same hazards"); n > 1 {
+		t.Errorf("the same pour advice %d times: %q", n, acts)
+	}
+	r = ask(t, a, "mix 400 L potassium dichromate 5 % + 100 L H2SO4 20 % + 400 L ferrous sulfate 20 %")
+	if strings.Contains(strings.Join(r.Decision.Actions, "\n"), "not all reduced") {
+		t.Errorf("full dose read as underdosed")
+	}
+}

@@ -221,9 +221,17 @@ func chromiumVI(o *Outcome) (engine.Hazard, bool) {
 	if math.Max(o.MolarBefore("Cr2O7^2-", "CrO4^2-", "HCrO4-", "H2CrO4"), o.Molar("Cr2O7^2-", "CrO4^2-", "HCrO4-")) < TraceMolar {
 		return engine.Hazard{}, false
 	}
+	msg := "Hexavalent chromium causes cancer; the workplace limit is 5 µg/m³ (OSHA)."
+	act := "Work inside the site's chromium(VI) controls: closed transfer, extraction, gloves and eye protection; collect every drop for treatment."
+	if left := o.Molar("Cr2O7^2-", "CrO4^2-", "HCrO4-", "H2CrO4"); left >= TraceMolar && o.Formed("Cr^3+", "CrOH^2+", "Cr(OH)3(s)", "Cr(OH)4-", "Cr2O3(s)") && !heldBy(o, "chromium-vi-sulfite-slow") {
+		// A reduction ran and stopped with chromium(VI) left: the
+		// reducing agent ran short (a treatment underdosed).
+		msg += " Not all of it is reduced: " + fmtNum(left*o.VolumeL, 3) + " mol chromium(VI) stays in the mix (the reducing agent ran short)."
+		act = "Chromium(VI) is not all reduced (" + fmtNum(left*o.VolumeL, 3) + " mol left): dose more reducing agent under ORP control before the mix goes on as treated. " + act
+	}
 	return mk("chromium-vi-exposure", engine.Warning,
-		"Hexavalent chromium causes cancer; the workplace limit is 5 µg/m³ (OSHA).",
-		"Work inside the site's chromium(VI) controls: closed transfer, extraction, gloves and eye protection; collect every drop for treatment.",
+		msg,
+		act,
 		"IARC Monographs volume 100C, 2012, Group 1 (from memory); OSHA 29 CFR 1910.1026, PEL 5 µg/m³ (from memory)"), true
 }
 

@@ -1,6 +1,7 @@
 package pour
 
 import (
+	"slices"
 	"strconv"
 	"strings"
 
@@ -48,7 +49,9 @@ func advice(add *engine.Addition) string {
 			parts = append(parts, "Never let "+x.Added+" and "+x.Into+" meet neat ("+codes(x)+" while "+x.Added+" runs into "+x.Into+", "+codes(y)+" the other way).")
 			continue
 		}
-		parts = append(parts, pairAdvice(x, y))
+		if a := pairAdvice(x, y); !slices.Contains(parts, a) {
+			parts = append(parts, a)
+		}
 	}
 	if len(add.Orders) > 2 && quiet*2 == len(add.Orders) {
 		return "Any order: nothing of concern appears along the pour of any pair."
@@ -171,4 +174,10 @@ func Written(add *engine.Addition, req *engine.Request) {
 	// The orders of a pair come as (second into first, first into second).
 	w, other := add.Orders[1], add.Orders[0]
 	add.Written = &engine.WrittenOrder{Added: w.Added, Into: w.Into, Worse: worst(w) > worst(other)}
+	if ww := worst(w); ww > 0 && ww == worst(other) && firstWorst(w) < firstWorst(other)/2 {
+		// Neither order avoids the hazard, but the one written meets it
+		// much sooner (water into strong acid boils at the first drop).
+		add.Advice = "The order written is the worse one: " + codes(w) + " from " + pct(firstWorst(w)) + " of the addition while " +
+			w.Added + " runs into " + w.Into + ", from " + pct(firstWorst(other)) + " the other way. " + add.Advice
+	}
 }
