@@ -352,3 +352,56 @@ func TestPermanganateStopsAtDioxide(t *testing.T) {
 		t.Run(c.req, func(t *testing.T) { checkOutcome(t, c.req, c.want) })
 	}
 }
+
+// TestPermanganateInStrongAcid: in strong acid held in excess permanganate is
+// reduced to manganese(II), chloride included (the laboratory preparation of
+// chlorine: 2 MnO4- + 16 H+ + 10 Cl- → 2 Mn2+ + 5 Cl2 + 8 H2O), and no
+// manganese dioxide stays (Vogel's Textbook of Quantitative Chemical
+// Analysis, potassium permanganate, from memory); with the acid short, or in
+// neutral and alkaline mixes, it stops at manganese dioxide. The thresholds
+// of the lock (pH below 1 as combined, 10 H+ of free acid per MnO4-) are
+// common practice, no source. 100 L of 5 % KMnO4 hold about 32.7 mol
+// (1.035 kg/L); 50 L of 32 % HCl about 509 mol (1.16 kg/L), 15.6 per MnO4-;
+// 50 L of 10 % HCl about 144 mol, 4.4 per MnO4- (short of the 8 the
+// reduction to Mn2+ takes).
+func TestPermanganateInStrongAcid(t *testing.T) {
+	low := "Mn^2+|MnCl+|MnSO4|MnOH+"
+	high := "MnO2(s)|Mn2O3(s)|Mn3O4(s)|MnOOH(s)"
+	cases := []struct {
+		req  string
+		want mixOutcome
+	}{
+		// Chloride in excess strong acid: Mn2+ and 5/2 Cl2 per MnO4-,
+		// 81.7 mol Cl2 in gas and liquid (hand: 32.7 × 2.5).
+		{"mix 100 L KMnO4 5 % + 50 L HCl 32 %", mixOutcome{
+			atLeast: map[string]float64{low: 32, "Cl2(g)|Cl2": 80},
+			atMost:  map[string]float64{high: 0.01},
+			held:    []string{"permanganate-acid-to-manganese-ii"}}},
+		{"mix 100 L KMnO4 5 % + 200 L HCl 10 %", mixOutcome{
+			atLeast: map[string]float64{low: 32, "Cl2(g)|Cl2": 80},
+			atMost:  map[string]float64{high: 0.01}}},
+		// Acid short of 8 H+ per MnO4-: the dioxide comes down.
+		{"mix 100 L KMnO4 5 % + 50 L HCl 10 %", mixOutcome{
+			atLeast: map[string]float64{"MnO2(s)": 20},
+			notHeld: []string{"permanganate-acid-to-manganese-ii"}}},
+		// Iron(II), peroxide and ethanol in sulfuric acid: manganese(II).
+		{"mix 10 L KMnO4 2 % + 100 L FeSO4 10 % + 50 L H2SO4 20 %", mixOutcome{
+			atLeast: map[string]float64{low: 1.2},
+			atMost:  map[string]float64{high: 0.001}}},
+		{"mix 10 L KMnO4 2 % + 20 L H2O2 3 % + 50 L H2SO4 20 %", mixOutcome{
+			atLeast: map[string]float64{low: 1.2},
+			atMost:  map[string]float64{high: 0.001}}},
+		// Neutral and alkaline: the dioxide, the new lock not applied.
+		{"mix 100 L KMnO4 2 % + 10 L C2H5OH 10 %", mixOutcome{
+			atLeast: map[string]float64{"MnO2(s)": 10},
+			notHeld: []string{"permanganate-acid-to-manganese-ii"}}},
+		{"mix 100 L KMnO4 2 % + 10 L Na2SO3 10 % + 10 L NaOH 5 %", mixOutcome{
+			atLeast: map[string]float64{"MnO2(s)": 5},
+			atMost:  map[string]float64{low: 0.01}}},
+		{"mix 10 L KMnO4 2 % + 20 L H2O2 3 %", mixOutcome{
+			atLeast: map[string]float64{"MnO2(s)": 1}}},
+	}
+	for _, c := range cases {
+		t.Run(c.req, func(t *testing.T) { checkOutcome(t, c.req, c.want) })
+	}
+}
