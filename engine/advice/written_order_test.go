@@ -35,3 +35,22 @@ func TestWrittenOrderJudgedFirst(t *testing.T) {
 		t.Errorf("mix with no order written: written %+v, want none", r.Addition.Written)
 	}
 }
+
+// TestWrittenOrderSoonerWhenBothBoil: with equal volumes both orders boil
+// at the end, but water run into strong acid boils from the first drop and
+// acid run into water only from about a third of the pour (common practice,
+// no source: "always add acid to water"). Tried as a new user would: the
+// short answer to "pour water into acid" read the same as "pour acid into
+// water". The written order is named as the worse one; the other order
+// written gets no such line.
+func TestWrittenOrderSoonerWhenBothBoil(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "pour 100 L water into 100 L H2SO4 96 %")
+	if !strings.HasPrefix(r.Addition.Advice, "The order written is the worse one") {
+		t.Errorf("water into acid: advice %q", r.Addition.Advice)
+	}
+	r = ask(t, a, "pour 100 L H2SO4 96 % into 100 L water")
+	if strings.Contains(r.Addition.Advice, "order written") {
+		t.Errorf("acid into water: advice %q", r.Addition.Advice)
+	}
+}
