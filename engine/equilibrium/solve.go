@@ -234,6 +234,9 @@ func (ls *lockSolver) solveRound(prevPt *point, prevRows []balanceRow) (*point, 
 		}
 	}
 	n, tight, err := s.lpStartTight()
+	if errors.Is(err, ErrInfeasible) {
+		n, tight, err = ls.releaseActive(n, tight, err)
+	}
 	var used *solventUsedUp
 	if errors.As(err, &used) {
 		return nil, err
@@ -281,6 +284,47 @@ func (ls *lockSolver) solveRound(prevPt *point, prevRows []balanceRow) (*point, 
 		return nil, fmt.Errorf("equilibrium: %v (cold start from the dominant species): %w", err, ErrNoConvergence)
 	}
 	return pt, nil
+}
+
+// releaseActive answers a linear program found infeasible with the active
+// inequality constraints taken as equalities. The active set is a guess
+// (violated constraints are added together, a warm start brings its own),
+// and two inequalities that each hold can contradict each other as
+// equalities: with the balances they may pin a third amount (no-gain of
+// nitrogen(II..V) and no-gain of nitrogen(−III..IV), their bounds adding up
+// beyond the nitrogen total, ask nitric acid to be reduced with nothing to
+// reduce it when both are equalities, while as inequalities they leave the
+// nitrate as it is). The program is then solved with the inequalities as
+// inequalities, and the ones it meets with equality are the new active set;
+// when that program too is infeasible, the active set and the verdict stand
+// (blame names the constraints).
+func (ls *lockSolver) releaseActive(n []float64, tight []int, err error) ([]float64, []int, error) {
+	p := ls.s.p
+	var eqs []int
+	for _, k := range ls.active {
+		if p.Constraints[k].Rel == Exactly {
+			eqs = append(eqs, k)
+		}
+	}
+	if len(eqs) == len(ls.active) {
+		return n, tight, err
+	}
+	was, wasRows := ls.active, ls.s.rows
+	ls.active = eqs
+	rows, rerr := ls.rows()
+	if rerr != nil {
+		ls.active = was
+		return n, tight, err
+	}
+	ls.s.setRows(rows)
+	n2, tight2, err2 := ls.s.lpStartTight()
+	if err2 != nil {
+		ls.active = was
+		ls.s.setRows(wasRows)
+		return n, tight, err
+	}
+	ls.tr.note("the active constraints cannot hold together as equalities (%v); released", err)
+	return n2, tight2, nil
 }
 
 // blame names the active constraints when the balances alone are feasible.
