@@ -354,6 +354,11 @@ type GasJudged struct {
 	// pressure, is what stays dissolved in the saturated liquid (given
 	// when it is at least half of Mol): it keeps coming off an open tank.
 	DissolvedMol float64 `json:"dissolved_mol,omitempty"`
+	// Forerunner, when set, names what the mixed state takes the gas's
+	// atoms on to (cyanogen chloride on its way to cyanate): Mol is then
+	// the worst case of an intermediate, not an amount beside the
+	// state's products.
+	Forerunner string `json:"intermediate_before,omitempty"`
 }
 
 // HeatJudged is a heat hazard in numbers.

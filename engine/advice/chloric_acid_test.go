@@ -177,3 +177,18 @@ func TestChromiumUnderdosed(t *testing.T) {
 		t.Errorf("full dose read as underdosed")
 	}
 }
+
+// TestCyanogenChlorideIsAnIntermediate: between pH 7 and 10 hypochlorite
+// takes cyanide on through cyanogen chloride to cyanate and, in excess, to
+// nitrogen (White's Handbook of Chlorination, cyanide, from memory); the
+// cyanogen chloride is the worst case of that path, not a product beside
+// the nitrogen. Tried as a new user would: the Forms line listed both as if
+// the cyanide were counted twice.
+func TestCyanogenChlorideIsAnIntermediate(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "mix 400 L NaCN 2 g/L pH 8 + 60 L NaOCl 12.5 %")
+	h, ok := hazardOf(r, "cyanogen-chloride-release")
+	if !ok || h.Gas == nil || h.Gas.Forerunner != "cyanate" || r.Decision.Level != engine.DoNotMix {
+		t.Fatalf("cyanogen chloride %+v, %s", h.Gas, r.Decision.Level)
+	}
+}

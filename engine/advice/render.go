@@ -247,6 +247,9 @@ func (g *gasFormed) text() string {
 	case j != nil && j.RoomPPM > 0:
 		return fmt.Sprintf("%s %s mol (%s L), headspace %s ppm; over a %s m³ room %s ppm = %s× %s %s ppm",
 			j.Formula, num(j.Mol), num(j.VolumeL), num(j.HeadspacePPM), num(hazard.RoomM3), num(j.RoomPPM), num(j.Ratio), j.LimitName, num(j.LimitPPM))
+	case j != nil && j.Forerunner != "":
+		return fmt.Sprintf("%s up to %s mol (%s L), an intermediate before %s (the same atoms, not extra), headspace %s ppm = %s× %s %s ppm",
+			j.Formula, num(j.Mol), num(j.VolumeL), j.Forerunner, num(j.HeadspacePPM), num(j.Ratio), j.LimitName, num(j.LimitPPM))
 	case j != nil:
 		s := fmt.Sprintf("%s %s mol (%s L)", j.Formula, num(j.Mol), num(j.VolumeL))
 		if j.DissolvedMol > 0 {

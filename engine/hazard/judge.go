@@ -407,6 +407,7 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 	if p.beyond > 0 {
 		h.Gas.Outside = p.outside
 	}
+	h.Gas.Forerunner = p.forerunner
 	if hs.Vents && p.dissolved >= SaturatedShare*p.mol {
 		h.Gas.DissolvedMol = sig(p.dissolved)
 	}

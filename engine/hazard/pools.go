@@ -34,7 +34,11 @@ type pool struct {
 	// with it (the gas fills the headspace at the ambient pressure):
 	// given with equilibrium pools only.
 	dissolved float64
-	sources   []string
+	// forerunner names what the gas is on its way to when the mixed state
+	// takes the same atoms further (cyanogen chloride before cyanate):
+	// its amount is a worst case, not a product beside the state's.
+	forerunner string
+	sources    []string
 	// vapour: the headspace figure was read from the vapour table at the
 	// liquid's strength (pct % w/w, tempC); lower: the liquid is stronger
 	// than the table's last row, whose figure is a lower bound.
@@ -317,6 +321,9 @@ func cyanogenChloride(o *Outcome, ps map[string]*pool) {
 	}
 	addTo(ps, "CNCl", mol, 1, "cyanide with hypochlorite below pH 10, on its way to cyanate",
 		"alkaline chlorination of cyanide is run at pH 10 or above so that cyanogen chloride hydrolyses to cyanate: common practice, no source")
+	if p := ps["CNCl"]; p != nil && o.fromState && p.mol > 0 {
+		p.forerunner = "cyanate"
+	}
 }
 
 // cyanideOxidizedMol is the carbon the mixed state takes from cyanide to
