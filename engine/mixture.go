@@ -346,6 +346,12 @@ func componentMoles(st *Stream, c *Component, vol float64, liquid bool, t *Table
 			m.note("%s given without an amount: present in excess", ch.Formula)
 			return 0, true, nil
 		}
+		if st.PH != nil && liquid && (ch.Class == StrongAcid || ch.Class == StrongBase) {
+			// "NaOH pH 11": the acid or base is what brings the stream to
+			// the stated pH, whose stand-in (buildMixture) stands for it.
+			m.note("%s named without a strength beside pH %.4g: read as the %s that brings the stream to that pH", ch.Formula, *st.PH, ch.Formula)
+			return 0, false, nil
+		}
 		if pct, d, ok := soldStrength(ch, t); ok {
 			// Requests read through readAmounts carry this strength already.
 			molar = pct / 100 * d * 1000 / mm

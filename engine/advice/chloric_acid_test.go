@@ -192,3 +192,19 @@ func TestCyanogenChlorideIsAnIntermediate(t *testing.T) {
 		t.Fatalf("cyanogen chloride %+v, %s", h.Gas, r.Decision.Level)
 	}
 }
+
+// TestBaseNamedWithAPH: "NaOH pH 11" in a stream is the caustic that holds
+// the stream at pH 11 (the way cyanide rinses are written on a plant:
+// common practice, no source), not 1 mol/L of caustic beside a pH the
+// answer then ignores as conflicting.
+func TestBaseNamedWithAPH(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "mix 400 L NaCN 2 g/L, NaOH pH 11 + 60 L NaOCl 12.5 %")
+	notes := strings.Join(r.Notes, " ")
+	if strings.Contains(notes, "conflicts") || !strings.Contains(notes, "brings the stream to that pH") {
+		t.Errorf("notes %q", notes)
+	}
+	if ph := r.Conditions.PH; ph > 11.5 {
+		t.Errorf("pH as combined %g, want about 11 (not 1 M caustic)", ph)
+	}
+}
