@@ -1,6 +1,7 @@
 package advice_test
 
 import (
+	"math"
 	"strings"
 	"testing"
 
@@ -72,26 +73,30 @@ func TestGasOfTheStockAsStored(t *testing.T) {
 // first 0.1 % of 80 °C caustic run into a drum of 35 % peroxide at 25 °C
 // leaves the drum near 25 °C and barely alkaline: nothing boils there. At 2 %
 // (2 L of 0.5 mol/L NaOH into 5 L, about 41 °C) the drum is near pH 9.9
-// (1 mol HO2- to 57 mol H2O2, pKa 11.6) with peroxide far above 1 mol/L,
+// (1 mol HO2- to 57 mol H2O2, pKa 11.6) with peroxide far above 2.9 mol/L,
 // which breaks down at once (Bretherick's Handbook, hydrogen peroxide with
 // bases, from memory), and boils. Judged at the 77 °C of the finished mix
 // the same point stays below pH 9.5 and the boiling starts only at 7 %.
 func TestPourPointStartsAtItsOwnTemperature(t *testing.T) {
 	a := mustAdvisor(t)
 	r := ask(t, a, "mix 100 L NaOH 2 %, 80 C + 5 L H2O2 35 %")
+	// The first stretch that boils counts: between about 15 and 40 % of
+	// the addition the drum holds under 2.9 mol/L peroxide with less than a
+	// third of it as the anion, which keeps for a while (as a hot alkaline
+	// bleaching bath does), and boils again further on.
 	found := false
 	for _, o := range r.Addition.Orders {
 		if o.Added != "NaOH 2 %" {
 			continue
 		}
+		first := 2.0
 		for _, ph := range o.Hazards {
-			if ph.Code != "boils" {
-				continue
+			if ph.Code == "boils" {
+				found, first = true, math.Min(first, ph.FromFraction)
 			}
-			found = true
-			if ph.FromFraction < 0.005 || ph.FromFraction > 0.03 {
-				t.Errorf("%s into %s boils from %g of the addition, want from 0.5 to 3 %%", o.Added, o.Into, ph.FromFraction)
-			}
+		}
+		if found && (first < 0.005 || first > 0.03) {
+			t.Errorf("%s into %s boils from %g of the addition, want from 0.5 to 3 %%", o.Added, o.Into, first)
 		}
 	}
 	if !found {
