@@ -73,3 +73,15 @@ func TestSequenceDangerLeadsTheTitle(t *testing.T) {
 		t.Errorf("title %q, want the pour's danger first, then the final mix's reason", d.Title)
 	}
 }
+
+// TestHeatActionFollowsItsCause: more water is the cure for the heat of
+// diluting a concentrate ("always add acid to water", common practice, no
+// source), not for the heat of a reaction (aluminium in caustic), which is
+// taken in small portions with cooling.
+func TestHeatActionFollowsItsCause(t *testing.T) {
+	dilution := heatAction(Heat{Known: true, ReleasedkJ: 40000, MixingkJ: 38000})
+	reaction := heatAction(Heat{Known: true, ReleasedkJ: 40000, MixingkJ: 2000, Reactions: true})
+	if !strings.Contains(dilution, "use more water") || !strings.Contains(reaction, "small portions") {
+		t.Errorf("dilution %q, reaction %q", dilution, reaction)
+	}
+}

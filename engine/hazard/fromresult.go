@@ -380,7 +380,7 @@ func (o *Outcome) heatOf(r *engine.Result, headRuns bool) {
 			rise = engine.TemperatureRise(q, o.VolumeL) // about 1 kg per litre
 		}
 	}
-	o.Heat = Heat{Known: true, ReleasedkJ: q, RiseC: rise, ReachedC: o.TemperatureC + rise, Reactions: headRuns && q != h.NeutralisationkJ+h.DissolutionkJ}
+	o.Heat = Heat{Known: true, ReleasedkJ: q, RiseC: rise, ReachedC: o.TemperatureC + rise, Reactions: headRuns && q != h.NeutralisationkJ+h.DissolutionkJ, MixingkJ: h.DissolutionkJ}
 	o.Heat.Boils = rise > 0 && o.Heat.ReachedC >= BoilingC
 	if o.Heat.Boils && h.WaterFlashedKg != nil && q == total {
 		o.Heat.SteamKg = *h.WaterFlashedKg

@@ -23,7 +23,7 @@ func judgeHeat(o *Outcome) []engine.Hazard {
 	var z engine.Hazard
 	switch {
 	case h.Boils:
-		msg, act := "The mix releases "+fmtNum(h.ReleasedkJ, 3)+" kJ and would reach about "+fmtNum(h.ReachedC, 3)+" °C: it boils and spits hot liquid and mist", "Do not mix in one go: use more water, run the concentrated liquid slowly into the water with cooling and stirring; wear a face shield."
+		msg, act := "The mix releases "+fmtNum(h.ReleasedkJ, 3)+" kJ and would reach about "+fmtNum(h.ReachedC, 3)+" °C: it boils and spits hot liquid and mist", heatAction(h)
 		if h.SteamKg >= 0.1 {
 			mol := h.SteamKg * 1000 / steamMolarMass
 			msg += ", boiling off about " + fmtNum(h.SteamKg, 2) + " kg of water as steam (" + fmtNum(engine.GasVolumeL(mol, BoilingC+273.15, 101.325)/1000, 2) + " m³ at 100 °C)"
@@ -42,7 +42,7 @@ func judgeHeat(o *Outcome) []engine.Hazard {
 		// go (Bretherick's Handbook, acids with bases, from memory).
 		z = mk("near-boiling", engine.Danger,
 			"The mix releases "+fmtNum(h.ReleasedkJ, 3)+" kJ and reaches about "+fmtNum(h.ReachedC, 3)+" °C on average: where the streams meet it boils and spits.",
-			"Do not mix in one go: use more water, run the concentrated liquid slowly into the water with cooling and stirring; wear a face shield.", src)
+			heatAction(h), src)
 	case h.ReachedC >= ScaldC:
 		z = mk("scalding-heat", engine.Warning,
 			"The mix releases "+fmtNum(h.ReleasedkJ, 3)+" kJ and reaches about "+fmtNum(h.ReachedC, 3)+" °C: hot enough to scald.",
@@ -56,4 +56,16 @@ func judgeHeat(o *Outcome) []engine.Hazard {
 	}
 	z.Heat = hj
 	return []engine.Hazard{z}
+}
+
+// heatAction is what to do about a mix that boils or nearly boils: more
+// water and the concentrate run slowly into it when the heat is mostly
+// that of diluting or dissolving; small portions into an open, vented tank
+// with cooling when a reaction gives most of it (aluminium in caustic:
+// more water does not take the reaction's heat away, only spreads it).
+func heatAction(h Heat) string {
+	if h.Reactions && h.MixingkJ < 0.5*h.ReleasedkJ {
+		return "Do not mix in one go: add the reacting stream in small portions with cooling and stirring, into an open, vented tank, letting each portion finish before the next; wear a face shield."
+	}
+	return "Do not mix in one go: use more water, run the concentrated liquid slowly into the water with cooling and stirring; wear a face shield."
 }

@@ -76,6 +76,7 @@ type Heat struct {
 	Boils      bool    // reached the boiling point of the liquid
 	SteamKg    float64 // water boiled off as steam when Boils (0: not known)
 	Reactions  bool    // the heat includes reactions (not only neutralisation and dissolving)
+	MixingkJ   float64 // the part of ReleasedkJ from dissolving solids and diluting concentrated reagents
 	// Families are the reactions judged as families whose heat is added to
 	// ReleasedkJ; StatekJ is what the state gave before them.
 	Families []engine.ReactionHeat
