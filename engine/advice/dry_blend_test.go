@@ -143,3 +143,31 @@ func TestDryAmmoniumBlends(t *testing.T) {
 		}
 	}
 }
+
+// TestCarbon: activated carbon and charcoal are known as carbon. Dry with
+// a solid oxidizer they are the classic fuel (black powder: nitrate with
+// charcoal; Bretherick's Handbook, from memory); in water oxidizing agents
+// do not burn them at plant temperatures (activated-carbon dechlorination:
+// common practice, no source), but carbon breaks strong peroxide down to
+// oxygen with heat, and concentrated nitric acid attacks it (Bretherick's
+// Handbook, hydrogen peroxide and nitric acid with carbon, from memory).
+func TestCarbon(t *testing.T) {
+	a := mustAdvisor(t)
+	for req, want := range map[string]engine.Level{
+		"mix 25 kg potassium nitrate + 5 kg charcoal":             engine.DoNotMix,
+		"mix 1000 L water + 10 kg activated carbon":               engine.NoConcern,
+		"mix 1000 L water, NaOCl 5 mg/L + 50 kg activated carbon": engine.NoConcern,
+		"mix 100 L H2O2 35 % + 5 kg activated carbon":             engine.DoNotMix,
+		"mix 100 L HNO3 65 % + 5 kg charcoal":                     engine.DoNotMix,
+	} {
+		if r := ask(t, a, req); r.Decision.Level != want {
+			t.Errorf("%s: %s %v, want %s", req, r.Decision.Level, hazardCodes(r), want)
+		}
+	}
+	r := ask(t, a, "mix 100 L H2O2 35 % + 5 kg activated carbon")
+	for _, g := range r.Decision.Gases {
+		if strings.HasPrefix(g.Text, "CO2") {
+			t.Errorf("carbon burnt by peroxide: %v", r.Decision.Gases)
+		}
+	}
+}
