@@ -208,3 +208,26 @@ func TestBaseNamedWithAPH(t *testing.T) {
 		t.Errorf("pH as combined %g, want about 11 (not 1 M caustic)", ph)
 	}
 }
+
+// TestHydrazineWithNitrite: nitrous acid turns hydrazine into hydrazoic
+// acid, N2H5+ + HNO2 → HN3 + H+ + 2 H2O (Bretherick's Handbook of Reactive
+// Chemical Hazards, hydrazine with nitrous acid, from memory). Tried as a
+// new user would: the alkaline pair read "no concern" (the lock's partner
+// list left hydrazine out), and with excess acid only nitric oxide was
+// named. Hand check: 20 L of 10 % NaNO2 hold 31 mol nitrite, hydrazine is in
+// excess: up to 31 mol HN3.
+func TestHydrazineWithNitrite(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "mix 100 L hydrazine 15 % + 100 L sodium nitrite 10 %")
+	if _, ok := hazardOf(r, "azide-forming"); !ok || r.Decision.Level == engine.NoConcern {
+		t.Errorf("alkaline: %s %v", r.Decision.Level, hazardCodes(r))
+	}
+	r = ask(t, a, "mix 20 L hydrazine 15 % + 20 L sodium nitrite 10 % + 100 L HCl 10 %")
+	h, ok := hazardOf(r, "hn3-release")
+	if !ok || h.Gas == nil || h.Gas.Mol < 25 || h.Gas.Mol > 35 || r.Decision.Level != engine.DoNotMix {
+		t.Errorf("acid: %s %v %+v", r.Decision.Level, hazardCodes(r), h.Gas)
+	}
+	if r := ask(t, a, "mix 100 L hydrazine 15 % + 100 L water"); r.Decision.Level != engine.NoConcern {
+		t.Errorf("hydrazine with water: %s", r.Decision.Level)
+	}
+}

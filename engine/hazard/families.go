@@ -19,7 +19,7 @@ var familyRules = []func(o *Outcome) (engine.Hazard, bool){
 	solidHypochlorite, magnesiumWater, cyanideOxidation, halideSulfuric, chlorateSulfuric, hotElectrolessNickel, nitricMetalFumes, aluminiumNitricSlow,
 	chlorateSulfite, hydrazineOxidizer, chloricAcid,
 	// organic, azide and solid-chlorinator families (organic.go)
-	organicPeroxides, perchlorateEsters, peracidAlkali, peracids, oxidizerOrganic, unassessedFuel, dryOxidizerFuel, dryNitriteAmmonium, dryChlorinatorAcid, dryAcidCarbonate, bisChloromethylEther,
+	organicPeroxides, perchlorateEsters, peracidAlkali, peracids, oxidizerOrganic, unassessedFuel, dryOxidizerFuel, dryNitriteAmmonium, azideForming, dryChlorinatorAcid, dryAcidCarbonate, bisChloromethylEther,
 	cannizzaro, hexamine, formaldehydeHypochlorite, haloform, heavyMetalAzide, mixedChlorinators,
 	// silicate with acid (silica.go)
 	silicaGel,
@@ -721,4 +721,26 @@ func aluminiumNitricSlow(o *Outcome) (engine.Hazard, bool) {
 		metal+" passivated by nitric acid of this strength ("+fmtNum(nitrate, 3)+" mol/L nitrate), but the film does not stop it altogether: the metal corrodes slowly with brown nitrogen oxides (not counted here), powder and turnings faster, and diluting the acid with the metal in it, a scratch or a trace of chloride makes the attack fast; "+material+".",
 		"Keep metal powder and turnings out; do not dilute or rinse with the metal in the acid; work with extraction and keep the vessel vented.",
 		"Perry's Chemical Engineers' Handbook, corrosion of aluminium and steels by nitric acid (from memory); Pourbaix, Atlas of Electrochemical Equilibria (1974), iron: passivation (from memory); aluminium tanks for strong (above about 80 %) nitric acid: common practice, no source"), true
+}
+
+// azideForming: hydrazine with nitrite keeps while alkaline, but nitrous
+// acid turns hydrazine into hydrazoic acid (N2H5+ + HNO2 → HN3 + H+ +
+// 2 H2O), toxic and explosive: a waste that holds both must never be
+// acidified, and its metal salts (lead, copper azide) are detonators
+// (Bretherick's Handbook of Reactive Chemical Hazards, hydrazine and
+// hydrazoic acid, from memory). In acid the gas itself is judged
+// (hydrazoicFromHydrazine).
+func azideForming(o *Outcome) (engine.Hazard, bool) {
+	hyd, nit := o.MolarBefore("N2H4", "N2H5+"), o.MolarBefore("NO2-", "HNO2")
+	if hyd < TraceMolar || nit < TraceMolar {
+		return engine.Hazard{}, false
+	}
+	sev, act := engine.Warning, "Do not store or collect hydrazine and nitrite together; never acidify such a mix; keep it away from copper, lead and brass fittings."
+	if o.PH < 7 {
+		sev, act = engine.Danger, "Do not combine: in acid the hydrazine turns into hydrazoic acid, a toxic, explosive gas. If it has happened, leave the area and ventilate."
+	}
+	return mk("azide-forming", sev,
+		"Hydrazine ("+fmtNum(hyd, 2)+" mol/L) with nitrite ("+fmtNum(nit, 2)+" mol/L): nitrous acid turns hydrazine into hydrazoic acid (HN3), very toxic, volatile and explosive, and its heavy-metal salts are detonators; alkaline it keeps, once acid it forms.",
+		act,
+		"Bretherick's Handbook of Reactive Chemical Hazards, hydrazine with nitrous acid and hydrazoic acid (from memory)"), true
 }

@@ -103,7 +103,7 @@ func addTo(ps map[string]*pool, gas string, mol, molecular float64, origin, sour
 // each is a reaction known to run fast at plant temperature.
 var poolRules = []func(o *Outcome, ps map[string]*pool){
 	chlorineFromHypochlorite, aquaRegia, chlorateWithHydrochloric, bromateWithAcid,
-	cyanogenChloride, borohydrideInAcid, dithioniteInAcid, alkaliMetalInWater,
+	cyanogenChloride, hydrazoicFromHydrazine, borohydrideInAcid, dithioniteInAcid, alkaliMetalInWater,
 	halideWithSulfuric, sulfideBeforeNitric, nitricWithOrganic, chlorateWithSulfuric,
 	// organic families (organic.go)
 	carbonMonoxideFromAcids,
@@ -405,4 +405,21 @@ func sulfideBeforeNitric(o *Outcome, ps map[string]*pool) {
 	addBeyond(ps, "H2S", gas+dissolved, "sulfide acidified by the nitric acid at once, before the slower oxidation to sulfur",
 		"dilute nitric acid takes hydrogen sulfide to sulfur more slowly than acid frees it: Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, sulfides with dilute nitric acid, from memory")
 	ps["H2S"].molecular = math.Max(share, 1e-9)
+}
+
+// hydrazoicFromHydrazine: nitrous acid takes hydrazine to hydrazoic acid,
+// N2H5+ + HNO2 → HN3 + H+ + 2 H2O, the way azide is made (Bretherick's
+// Handbook of Reactive Chemical Hazards, hydrazine with nitrous acid, from
+// memory). The equilibrium state goes on to nitrogen, which HN3 is far
+// above in Gibbs energy; the fast step stops at HN3 in acid. Counted up to
+// the smaller of hydrazine and nitrite when the mix is acid (below pH 7).
+func hydrazoicFromHydrazine(o *Outcome, ps map[string]*pool) {
+	hyd, nit := o.MolarBefore("N2H4", "N2H5+"), o.MolarBefore("NO2-", "HNO2")
+	if hyd < TraceMolar || nit < TraceMolar || o.PH >= 7 {
+		return
+	}
+	// Beyond the state, which takes it on to nitrogen; all as the
+	// molecule (an upper bound between pH 4.65 and 7).
+	addBeyond(ps, "HN3", math.Min(hyd, nit)*o.VolumeL, "hydrazine with nitrous acid (N2H5+ + HNO2 → HN3 + H+ + 2 H2O)",
+		"Bretherick's Handbook of Reactive Chemical Hazards, hydrazine with nitrous acid (from memory)")
 }
