@@ -231,3 +231,20 @@ func TestHydrazineWithNitrite(t *testing.T) {
 		t.Errorf("hydrazine with water: %s", r.Decision.Level)
 	}
 }
+
+// TestPersulfateQuench: persulfate is reduced at its peroxo oxygen to
+// sulfate, S2O8^2- + 2 S2O3^2- → 2 SO4^2- + S4O6^2- (E° S2O8^2-/SO4^2-
+// +2.01 V, CRC Handbook, Electrochemical Series; from memory), not to the
+// thiosulfate that carries most sulfur in the mix. Tried as a new user
+// would: the half-reaction took persulfate to thiosulfate (10 electrons)
+// and 2 mL of sulfur dioxide raised a warning.
+func TestPersulfateQuench(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "mix 50 L potassium persulfate 5 % + 50 L sodium thiosulfate 20 %")
+	if r.Reaction == nil || r.Reaction.Text != "S2O8^2- + 2 S2O3^2- → 2 SO4^2- + S4O6^2-" {
+		t.Errorf("headline %v", r.Reaction)
+	}
+	if r.Decision.Level != engine.NoConcern {
+		t.Errorf("%s %v, want no-concern (a 8 K warming)", r.Decision.Level, hazardCodes(r))
+	}
+}

@@ -267,6 +267,11 @@ func NeutralPH(db *thermo.DB, tempK float64) float64 {
 	return -r.LogK(tempK) / 2
 }
 
+// partnerShare is the least share of an element's atoms in the mix a
+// carrier in the agent's own state of that element must hold to be taken
+// as its partner.
+const partnerShare = 0.01
+
 // partner is the main carrier of an element in the mix at equilibrium (or as
 // combined) other than the given species and free of the couple's key
 // element.
@@ -274,6 +279,37 @@ func (x *explainer) partner(el, key string, not ...*thermo.Species) *thermo.Spec
 	skip := map[string]bool{}
 	if key != "H" && key != "O" { // hydrogen and oxygen are in nearly every carrier
 		skip[key] = true
+	}
+	// An element that does not change state stays in its state: the
+	// sulfur of persulfate reduced at its peroxo oxygen ends in sulfate,
+	// not in the thiosulfate that happens to carry most sulfur in the mix.
+	for _, sp := range not {
+		if sp == nil || sp.Atoms[el] == 0 || sp.Ox == nil || el == key {
+			continue
+		}
+		for _, amount := range [][]float64{x.mx.Final.Amount, x.mx.Combined.Amount} {
+			// Only a carrier that holds a real share of the element: a
+			// trace of bare Cu+ beside copper cyanide is no partner.
+			total := 0.0
+			for i, c := range x.mx.Species {
+				total += amount[i] * float64(c.Atoms[el])
+			}
+			same := func(c *thermo.Species) bool {
+				if c.Ox == nil || math.Abs(c.Ox[el]-sp.Ox[el]) >= 0.01 {
+					return false
+				}
+				for i, s := range x.mx.Species {
+					if s == c {
+						return amount[i]*float64(c.Atoms[el]) >= partnerShare*total
+					}
+				}
+				return false
+			}
+			if best := x.carrierWhere(el, amount, false, skip, not, same); best != nil {
+				return best
+			}
+		}
+		break
 	}
 	// Main species first: an ion pair (FeSO4+, NaSO4-) would drag a metal
 	// into a half-reaction that does not concern it.
@@ -291,10 +327,15 @@ func (x *explainer) partner(el, key string, not ...*thermo.Species) *thermo.Spec
 // main species (minor false) or of all of them, other than those listed or
 // holding a skipped element.
 func (x *explainer) carrier(el string, amount []float64, minor bool, skip map[string]bool, not []*thermo.Species) *thermo.Species {
+	return x.carrierWhere(el, amount, minor, skip, not, func(*thermo.Species) bool { return true })
+}
+
+// carrierWhere is carrier among the species ok accepts.
+func (x *explainer) carrierWhere(el string, amount []float64, minor bool, skip map[string]bool, not []*thermo.Species, ok func(*thermo.Species) bool) *thermo.Species {
 	var best *thermo.Species
 	bestMol := 0.0
 	for i, sp := range x.mx.Species {
-		if sp.Atoms[el] == 0 || (sp.Minor && !minor) || contains(not, sp) || hasAny(sp, skip) {
+		if sp.Atoms[el] == 0 || (sp.Minor && !minor) || contains(not, sp) || hasAny(sp, skip) || !ok(sp) {
 			continue
 		}
 		if m := amount[i] * float64(sp.Atoms[el]); m > bestMol {

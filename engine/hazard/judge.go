@@ -83,6 +83,21 @@ func smallPuff(o *Outcome, g *GasData, hs Headspace, ratio float64) bool {
 	return puff < limitMol
 }
 
+// tinyPuff reports whether an amount-scaled gas comes off in so small an
+// amount (given off and in the headspace together) that spread over
+// ReferenceAirL it would not reach WarningRatio of its limit: a few
+// millilitres of sulfur dioxide over an unbuffered mix that a trace of
+// acid took to pH 3 are no warning.
+func tinyPuff(o *Outcome, g *GasData, hs Headspace, p *pool) bool {
+	if !amountScaled[g.Formula] || !(o.HeadspaceL > 0) || p == nil {
+		return false
+	}
+	rt := litreBarPerMolK() * o.TemperatureK()
+	amb := o.PressureKPa / 100
+	puff := math.Max(hs.PPM*1e-6*amb*o.HeadspaceL/rt, p.mol)
+	return puff < WarningRatio*g.LimitPPM*1e-6*amb*ReferenceAirL/rt
+}
+
 // chromiumVIReduction reports whether sulfur dioxide comes from reducing
 // chromium(VI) in acid: the reduction needs the acid (pH 2–3), so the
 // action must not say to avoid it.
@@ -166,7 +181,7 @@ func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 				continue
 			}
 		}
-		if !(ratio >= WarningRatio) {
+		if !(ratio >= WarningRatio) || tinyPuff(o, g, hs, p) {
 			continue
 		}
 		out = append(out, gasHazard(o, g, p, hs, ratio))
