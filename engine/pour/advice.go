@@ -73,6 +73,12 @@ func pairAdvice(x, y engine.PourOrder) string {
 		return better(x, y)
 	case wy < wx:
 		return better(y, x)
+	case bulkInto(x):
+		// Both orders meet the same level: running a tank into a drum to
+		// shorten the stretch is no practical advice; dose the drum.
+		return doseSmall(y)
+	case bulkInto(y):
+		return doseSmall(x)
 	case span(x) < span(y):
 		return lessens(x, y)
 	case span(y) < span(x):
@@ -106,6 +112,14 @@ func acidGasOnly(o engine.PourOrder) bool {
 		}
 	}
 	return len(o.Hazards) > 0
+}
+
+// bulkInto reports whether an order runs a stream at least ten times
+// larger into the other.
+func bulkInto(o engine.PourOrder) bool { return o.IntoL > 0 && o.AddedL >= 10*o.IntoL }
+
+func doseSmall(o engine.PourOrder) string {
+	return "Dose " + o.Added + " slowly into " + o.Into + ", under control: either order meets " + codes(o) + ", and running the larger stream into the smaller is not practical."
 }
 
 func lessens(good, bad engine.PourOrder) string {

@@ -231,3 +231,17 @@ func TestCodesNameTheHottestHeatOnly(t *testing.T) {
 		t.Errorf("codes = %q, want %q", got, want)
 	}
 }
+
+// TestDoseTheSmallerStream: when both orders meet the same level, the
+// advice never runs a stream ten times larger into the other to shorten
+// the stretch: it doses the smaller into the larger (common practice, no
+// source: a drum of peroxide is dosed into the rinse tank).
+func TestDoseTheSmallerStream(t *testing.T) {
+	h := []engine.PourHazard{{Code: "cyanide-oxidation", Worst: engine.Warning, FromFraction: 0.5, ToFraction: 1}}
+	bulk := engine.PourOrder{Added: "rinse", Into: "peroxide", AddedL: 800, IntoL: 5, Hazards: h}
+	drum := engine.PourOrder{Added: "peroxide", Into: "rinse", AddedL: 5, IntoL: 800,
+		Hazards: []engine.PourHazard{{Code: "cyanide-oxidation", Worst: engine.Warning, FromFraction: 0.001, ToFraction: 1}}}
+	if got := pairAdvice(bulk, drum); !strings.HasPrefix(got, "Dose peroxide slowly into rinse") {
+		t.Errorf("advice %q", got)
+	}
+}
