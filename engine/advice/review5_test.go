@@ -32,7 +32,7 @@ func TestReview5Levels(t *testing.T) {
 	}{
 		{"mix 1000 L water + 10 kg NaHCO3", engine.NoConcern, "", "co2-release", ""},
 		{"mix 100 L Na2CO3 10 % + 100 L HCl 10 %", engine.WithPrecautions, "co2-release", "", ""},
-		{"mix 1000 L water + 0.5 L NH3 25 % + 1 L NaOCl 12.5 %", engine.WithPrecautions, "chloramine-release", "", "Dose the ammonia first"},
+		{"mix 1000 L water + 0.5 L NH3 25 % + 1 L NaOCl 12.5 %", engine.WithPrecautions, "chloramine-release", "", "order of the site's chloramination practice"},
 		{"mix 100 L Na2SiO3 30 % + 100 L H2SO4 10 %", engine.WithPrecautions, "silica-gel", "", ""},
 		{"mix 100 L H2O2 35 % + 1 L NaOH 1 %", engine.DoNotMix, "alkaline-peroxide", "", ""},
 		{"mix 100 L H2O2 35 % + 10 L NH3 25 %", engine.DoNotMix, "alkaline-peroxide", "", ""},

@@ -63,10 +63,11 @@ func chloramines(o *Outcome) (engine.Hazard, bool) {
 	act := "Do not combine; rinse lines between chlorinated and ammoniated products. If it has happened, leave and ventilate."
 	ratio := ClNWeightRatio(o)
 	if sev == engine.Warning && ratio < MonochloramineRatio {
-		// Chloramination: ammonia dosed first, then chlorine below 5:1 by
-		// weight, gives monochloramine on purpose.
+		// Chloramination: ammonia and chlorine dosed into the water
+		// separately (either first, by the site's practice) below 5:1 by
+		// weight give monochloramine on purpose.
 		formed += " The Cl2:NH3-N weight ratio is " + fmtNum(ratio, 2) + ":1, in the monochloramine region (below 5:1)."
-		act = "Dose the ammonia first, then the hypochlorite, into the water, and keep the Cl2:N weight ratio below 5:1 (above it dichloramine and nitrogen trichloride form); never let the concentrates meet neat, and rinse lines between chlorinated and ammoniated products."
+		act = "Dose each into the water at its own point, in the order of the site's chloramination practice (ammonia first, or chlorine first with the ammonia soon after), and keep the Cl2:N weight ratio below 5:1 (above it dichloramine and nitrogen trichloride form); never let the concentrates meet neat, and rinse lines between chlorinated and ammoniated products."
 	}
 	return withCounts(mk("chloramine-release", sev,
 		"Hypochlorite with ammonia or ammonium forms chloramines ("+fmtNum(n, 2)+" mol/L of each can meet): toxic, choking gases."+formed,
