@@ -1,6 +1,7 @@
 package advice_test
 
 import (
+	"fmt"
 	"slices"
 	"strings"
 	"testing"
@@ -161,13 +162,19 @@ func TestStrongEDTAIsTheSodiumSalt(t *testing.T) {
 // reducing agent leaves chromium(VI) that must not go on as treated
 // (common practice, no source): 400 L of 5 % dichromate (68 mol, 408 mol
 // of electrons) with 100 L of 20 % FeSO4 (about 160 mol Fe2+) leaves about
-// 50 mol Cr(VI). The action says so, once; a full dose does not.
+// 85 mol Cr as Cr(VI). The action says so, once; a full dose does not.
 func TestChromiumUnderdosed(t *testing.T) {
 	a := mustAdvisor(t)
 	r := ask(t, a, "mix 400 L potassium dichromate 5 % + 100 L H2SO4 20 % + 100 L ferrous sulfate 20 %")
 	acts := strings.Join(r.Decision.Actions, "\n")
 	if !strings.Contains(acts, "Chromium(VI) is not all reduced") {
 		t.Errorf("underdosed: actions %q", acts)
+	}
+	// Counted as chromium atoms: about 140 mol Cr in, 160 mol Fe2+
+	// reduces 53 of them, about 85 mol Cr stay.
+	var left float64
+	if _, err := fmt.Sscanf(acts[strings.Index(acts, "reduced (")+len("reduced ("):], "%g mol Cr", &left); err != nil || left < 70 || left > 95 {
+		t.Errorf("chromium left %g (%v), want about 85 mol Cr", left, err)
 	}
 	if n := strings.Count(acts, "Both orders meet the same hazards"); n > 1 {
 		t.Errorf("the same pour advice %d times: %q", n, acts)

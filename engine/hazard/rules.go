@@ -224,11 +224,12 @@ func chromiumVI(o *Outcome) (engine.Hazard, bool) {
 	}
 	msg := "Hexavalent chromium causes cancer; the workplace limit is 5 µg/m³ (OSHA)."
 	act := "Work inside the site's chromium(VI) controls: closed transfer, extraction, gloves and eye protection; collect every drop for treatment."
-	if left := o.Molar("Cr2O7^2-", "CrO4^2-", "HCrO4-", "H2CrO4"); left >= TraceMolar && o.Formed("Cr^3+", "CrOH^2+", "Cr(OH)3(s)", "Cr(OH)4-", "Cr2O3(s)") && !heldBy(o, "chromium-vi-sulfite-slow") {
+	// Chromium atoms, not formula units: dichromate holds two.
+	if left := 2*o.Molar("Cr2O7^2-") + o.Molar("CrO4^2-", "HCrO4-", "H2CrO4"); left >= TraceMolar && o.Formed("Cr^3+", "CrOH^2+", "Cr(OH)3(s)", "Cr(OH)4-", "Cr2O3(s)") && !heldBy(o, "chromium-vi-sulfite-slow") {
 		// A reduction ran and stopped with chromium(VI) left: the
 		// reducing agent ran short (a treatment underdosed).
-		msg += " Not all of it is reduced: " + fmtNum(left*o.VolumeL, 3) + " mol chromium(VI) stays in the mix (the reducing agent ran short)."
-		act = "Chromium(VI) is not all reduced (" + fmtNum(left*o.VolumeL, 3) + " mol left): dose more reducing agent under ORP control before the mix goes on as treated. " + act
+		msg += " Not all of it is reduced: " + fmtNum(left*o.VolumeL, 3) + " mol of chromium as chromium(VI) ("+fmtNum(left*o.VolumeL*51.996/1000, 3)+" kg Cr) stays in the mix (the reducing agent ran short)."
+		act = "Chromium(VI) is not all reduced (" + fmtNum(left*o.VolumeL, 3) + " mol Cr left): dose more reducing agent under ORP control before the mix goes on as treated. " + act
 	}
 	return mk("chromium-vi-exposure", engine.Warning,
 		msg,
