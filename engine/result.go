@@ -147,6 +147,13 @@ type PourHazard struct {
 	ToFraction   float64  `json:"to_fraction"`
 	Worst        Severity `json:"worst"`
 	Message      string   `json:"message,omitempty"` // the worst point's message
+	// GasFormula and GasMol, for a gas hazard, are the largest amount of
+	// the gas given off at any point of the run, with the fraction of the
+	// addition there (GasAtFraction): the tank holds all of the stream
+	// added into and that share of the other, real amounts.
+	GasFormula    string  `json:"gas_formula,omitempty"`
+	GasMol        float64 `json:"gas_mol,omitempty"`
+	GasAtFraction float64 `json:"gas_at_fraction,omitempty"`
 }
 
 // Verdict is the one-word outcome of a prediction.

@@ -7,6 +7,7 @@ import (
 	"testing"
 
 	"mixward/engine"
+	"mixward/engine/advice"
 )
 
 // TestChloricAcid: chlorate in strong acid without chloride is chloric
@@ -253,5 +254,30 @@ func TestPersulfateQuench(t *testing.T) {
 	}
 	if r.Decision.Level != engine.NoConcern {
 		t.Errorf("%s %v, want no-concern (a 8 K warming)", r.Decision.Level, hazardCodes(r))
+	}
+}
+
+// TestWorstGasAlongThePour: bleach run into acid gives chlorine from the
+// first litre though the final mix ends near neutral. 200 L of 12.5 %
+// NaOCl hold about 400 mol hypochlorite and 50 L of 10 % HCl about 144 mol
+// acid: OCl- + Cl- + 2 H+ → Cl2 + H2O gives at most 72 mol Cl2 while the
+// acid lasts (White's Handbook of Chlorination, from memory). The short
+// answer names the worst point's amount beside the final one.
+func TestWorstGasAlongThePour(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "mix 200 L NaOCl 12.5 % + 50 L HCl 10 %")
+	var most float64
+	for _, o := range r.Addition.Orders {
+		for _, h := range o.Hazards {
+			if h.GasFormula == "Cl2" {
+				most = max(most, h.GasMol)
+			}
+		}
+	}
+	if most < 40 || most > 75 {
+		t.Errorf("worst chlorine along the pour %g mol, want 40–72", most)
+	}
+	if s := advice.RenderShort(r); !strings.Contains(s, "along the pour (NaOCl 12.5 % into HCl 10 %") {
+		t.Errorf("short answer does not name it:\n%s", s)
 	}
 }

@@ -128,6 +128,36 @@ func NotAssessedLine(r *engine.Result) string {
 // hazard of its own is named on the Forms line beside the gases of concern.
 const surgeShare = 0.1
 
+// alongPour is ", up to N mol along the pour (A into B, at P %)" when some
+// point of the pour gives off at least twice the gas the final mix does
+// and at least a mole: bleach run into acid gives chlorine from the first
+// litre though the final mix ends near neutral.
+func alongPour(r *engine.Result, f *gasFormed) string {
+	if r.Addition == nil {
+		return ""
+	}
+	final := 0.0
+	if f.judged != nil {
+		final = f.judged.Mol
+	} else if f.count != nil {
+		final = f.count.Mol
+	}
+	var best *engine.PourHazard
+	var by engine.PourOrder
+	for _, o := range r.Addition.Orders {
+		for i := range o.Hazards {
+			if h := &o.Hazards[i]; h.GasFormula == f.formula && (best == nil || h.GasMol > best.GasMol) {
+				best, by = h, o
+			}
+		}
+	}
+	if best == nil || best.GasMol < 1 || best.GasMol < 2*final {
+		return ""
+	}
+	return fmt.Sprintf("; up to %s mol (%s L) along the pour (%s into %s, at %s of it)",
+		num(best.GasMol), num(best.GasMol*f.litresPerMol()), by.Added, by.Into, pctText(best.GasAtFraction))
+}
+
 // traceGasShare is the volume of gas, as a share of the liquid's, below
 // which a gas with no hazard is left off the Forms line.
 const traceGasShare = 1e-3
@@ -136,7 +166,7 @@ func formsLine(r *engine.Result) string {
 	var parts []string
 	named := map[string]bool{}
 	for _, f := range gasesFormed(r.Hazards) {
-		parts = append(parts, f.text())
+		parts = append(parts, f.text()+alongPour(r, f))
 		named[f.formula] = true
 	}
 	if len(parts) > 0 && r.Decision != nil {

@@ -108,6 +108,7 @@ func order(req *engine.Request, a, b int, eval Evaluate, streams func(f float64)
 			}
 			seen[h.Code] = true
 			if ph := open[h.Code]; ph != nil {
+				largestGas(ph, h, f)
 				ph.ToFraction = f
 				if rank(h.Severity) > rank(ph.Worst) || (h.Severity == ph.Worst && ratio(h) > worstRatio[h.Code]) {
 					ph.Worst, ph.Message = h.Severity, h.Message
@@ -117,6 +118,7 @@ func order(req *engine.Request, a, b int, eval Evaluate, streams func(f float64)
 			}
 			worstRatio[h.Code] = ratio(h)
 			open[h.Code] = &engine.PourHazard{Code: h.Code, FromFraction: f, ToFraction: f, Worst: h.Severity, Message: h.Message}
+			largestGas(open[h.Code], h, f)
 			keys = append(keys, h.Code)
 		}
 		// A hazard that stopped is closed; if it comes back it is a new run.
@@ -175,3 +177,11 @@ func ratio(h engine.Hazard) float64 {
 }
 
 func rank(s engine.Severity) int { return s.Rank() }
+
+// largestGas keeps on ph the largest amount of the gas of h met so far.
+func largestGas(ph *engine.PourHazard, h engine.Hazard, f float64) {
+	if h.Gas == nil || !(h.Gas.Mol > ph.GasMol) {
+		return
+	}
+	ph.GasFormula, ph.GasMol, ph.GasAtFraction = h.Gas.Formula, h.Gas.Mol, f
+}
