@@ -217,6 +217,10 @@ func cyanideComplexed(o *Outcome) (engine.Hazard, bool) {
 		"Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, cyanide with iron(II) and iron(III) (from memory); ferrocyanide log β6 35, Smith & Martell Critical Stability Constants (from memory); release of cyanide from iron complexes in light and acid: common practice, no source"), true
 }
 
+// chromiumGPerMol is the standard atomic weight of chromium (IUPAC 2013,
+// 51.9961; from memory).
+const chromiumGPerMol = 51.9961
+
 // chromiumVI: hexavalent chromium is a human carcinogen.
 func chromiumVI(o *Outcome) (engine.Hazard, bool) {
 	if math.Max(o.MolarBefore("Cr2O7^2-", "CrO4^2-", "HCrO4-", "H2CrO4"), o.Molar("Cr2O7^2-", "CrO4^2-", "HCrO4-")) < TraceMolar {
@@ -228,7 +232,7 @@ func chromiumVI(o *Outcome) (engine.Hazard, bool) {
 	if left := 2*o.Molar("Cr2O7^2-") + o.Molar("CrO4^2-", "HCrO4-", "H2CrO4"); left >= TraceMolar && o.Formed("Cr^3+", "CrOH^2+", "Cr(OH)3(s)", "Cr(OH)4-", "Cr2O3(s)") && !heldBy(o, "chromium-vi-sulfite-slow") {
 		// A reduction ran and stopped with chromium(VI) left: the
 		// reducing agent ran short (a treatment underdosed).
-		msg += " Not all of it is reduced: " + fmtNum(left*o.VolumeL, 3) + " mol of chromium as chromium(VI) (" + fmtNum(left*o.VolumeL*51.996/1000, 3) + " kg Cr) stays in the mix (the reducing agent ran short)."
+		msg += " Not all of it is reduced: " + fmtNum(left*o.VolumeL, 3) + " mol of chromium as chromium(VI) (" + fmtNum(left*o.VolumeL*chromiumGPerMol/1000, 3) + " kg Cr) stays in the mix (the reducing agent ran short)."
 		act = "Chromium(VI) is not all reduced (" + fmtNum(left*o.VolumeL, 3) + " mol Cr left): dose more reducing agent under ORP control before the mix goes on as treated. " + act
 	}
 	return mk("chromium-vi-exposure", engine.Warning,
