@@ -281,3 +281,19 @@ func TestWorstGasAlongThePour(t *testing.T) {
 		t.Errorf("short answer does not name it:\n%s", s)
 	}
 }
+
+// TestNChloroHeatNamedAsMissing: hypochlorite chlorinating an amine or
+// urea gives off heat the state cannot count (no species data for the
+// N-chloro compounds); the heat figure says so rather than reading as
+// the whole (tried as a new user would: "1.7 kJ taken up" beside 99 mol of
+// N-chloro compounds).
+func TestNChloroHeatNamedAsMissing(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "mix 200 L monoethanolamine 20 % + 50 L NaOCl 12.5 %")
+	if s := advice.RenderShort(r); !strings.Contains(s, "N-chloro compounds not counted") {
+		t.Errorf("short answer:\n%s", s)
+	}
+	if s := advice.RenderShort(ask(t, a, "mix 200 L NaOH 5 % + 50 L NaOCl 12.5 %")); strings.Contains(s, "N-chloro") {
+		t.Errorf("caustic with bleach names N-chloro heat:\n%s", s)
+	}
+}

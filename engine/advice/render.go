@@ -333,6 +333,11 @@ func heatLine(r *engine.Result) string {
 	if h := r.Heat; h != nil && len(h.NotDissolvedCounted) > 0 {
 		line += fmt.Sprintf(" (heat of dissolving %s not counted: no data)", strings.Join(h.NotDissolvedCounted, ", "))
 	}
+	if slices.ContainsFunc(r.Hazards, func(h engine.Hazard) bool { return h.Code == "n-chloro-compounds" }) {
+		// The N-chloro compounds of amines and urea have no species
+		// data: the state does not form them, so their heat is missing.
+		line += " (heat of forming the N-chloro compounds not counted: no data, so the mix gets warmer than this)"
+	}
 	if r.Decision != nil && r.Decision.Heat != nil {
 		for _, x := range r.Decision.Heat.Reactions {
 			line += fmt.Sprintf("; %s kJ of it from %s", num(x.ReleasedkJ), x.Reaction)
