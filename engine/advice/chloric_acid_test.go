@@ -297,3 +297,18 @@ func TestNChloroHeatNamedAsMissing(t *testing.T) {
 		t.Errorf("caustic with bleach names N-chloro heat:\n%s", s)
 	}
 }
+
+// TestFastPeroxideCatalysts: chromium(VI) breaks peroxide down within
+// seconds through peroxochromium species (Bretherick's Handbook, hydrogen
+// peroxide with chromates, from memory), as fast as hypochlorite does: the
+// same oxygen surge per litre reads the same. Tried as a new user would:
+// dichromate with 35 % peroxide (1 mol O2 per litre) read "with
+// precautions" where hypochlorite with it read "do not mix".
+func TestFastPeroxideCatalysts(t *testing.T) {
+	a := mustAdvisor(t)
+	for _, req := range []string{"mix 100 L potassium dichromate 5 % + 20 L H2O2 35 %", "mix 200 L NaOCl 12.5 % + 20 L H2O2 35 %"} {
+		if r := ask(t, a, req); r.Decision.Level != engine.DoNotMix {
+			t.Errorf("%s: %s %v", req, r.Decision.Level, hazardCodes(r))
+		}
+	}
+}

@@ -40,7 +40,7 @@ type o2Source struct {
 func oxygenSources(o *Outcome) []o2Source {
 	var out []o2Source
 	if n := math.Max(o.Measured["O2"].Mol, o.GasMol("O2")); n > 0 {
-		out = append(out, o2Source{mol: n, what: "the reactions that run in the mix", state: true, fast: pairGivesOxygen(o),
+		out = append(out, o2Source{mol: n, what: "the reactions that run in the mix", state: true, fast: pairGivesOxygen(o) || fastPeroxideCatalyst(o),
 			source: "oxygen from the mix at equilibrium; Bretherick's Handbook of Reactive Chemical Hazards, hydrogen peroxide with sodium hypochlorite (from memory)"})
 	}
 	pa := o.MolarBefore("CH3CO3H", "CH3CO3-")
@@ -63,6 +63,19 @@ func oxygenSources(o *Outcome) []o2Source {
 			source: "Bretherick's Handbook of Reactive Chemical Hazards, peroxyacids (from memory); pKa 8.2: suppliers' data, from memory"})
 	}
 	return out
+}
+
+// fastPeroxideCatalyst reports whether peroxide meets a catalyst that
+// breaks it down within seconds to minutes, not hours: chromium(VI)
+// (through the blue peroxochromium species), permanganate and manganese
+// dioxide, activated carbon (Bretherick's Handbook of Reactive Chemical
+// Hazards, hydrogen peroxide with chromates, permanganates and carbon;
+// from memory).
+func fastPeroxideCatalyst(o *Outcome) bool {
+	if o.MolarBefore("H2O2", "HO2-") < TraceMolar {
+		return false
+	}
+	return o.MolarBefore("Cr2O7^2-", "CrO4^2-", "HCrO4-", "H2CrO4", "MnO4-") >= TraceMolar || o.Named("MnO2", "C")
 }
 
 // pairGivesOxygen reports whether a reaction that proceeds gives off oxygen
