@@ -282,6 +282,11 @@ func (g *gasFormed) text() string {
 			j.Formula, num(j.Mol), num(j.VolumeL), j.Forerunner, num(j.HeadspacePPM), num(j.Ratio), j.LimitName, num(j.LimitPPM))
 	case j != nil:
 		s := fmt.Sprintf("%s %s mol (%s L)", j.Formula, num(j.Mol), num(j.VolumeL))
+		if j.Outside != "" {
+			// A fast reaction outside the equilibrium gives it (hydrazoic
+			// acid from hydrazine and nitrous acid): a worst case.
+			s = fmt.Sprintf("%s up to %s mol (%s L)", j.Formula, num(j.Mol), num(j.VolumeL))
+		}
 		if j.DissolvedMol > 0 {
 			s += fmt.Sprintf(" and %s mol more dissolved, still coming off", num(j.DissolvedMol))
 		}

@@ -294,16 +294,8 @@ func (x *explainer) partner(el, key string, not ...*thermo.Species) *thermo.Spec
 			for i, c := range x.mx.Species {
 				total += amount[i] * float64(c.Atoms[el])
 			}
-			same := func(c *thermo.Species) bool {
-				if c.Ox == nil || math.Abs(c.Ox[el]-sp.Ox[el]) >= 0.01 {
-					return false
-				}
-				for i, s := range x.mx.Species {
-					if s == c {
-						return amount[i]*float64(c.Atoms[el]) >= partnerShare*total
-					}
-				}
-				return false
+			same := func(i int, c *thermo.Species) bool {
+				return c.Ox != nil && math.Abs(c.Ox[el]-sp.Ox[el]) < 0.01 && amount[i]*float64(c.Atoms[el]) >= partnerShare*total
 			}
 			if best := x.carrierWhere(el, amount, false, skip, not, same); best != nil {
 				return best
@@ -327,15 +319,16 @@ func (x *explainer) partner(el, key string, not ...*thermo.Species) *thermo.Spec
 // main species (minor false) or of all of them, other than those listed or
 // holding a skipped element.
 func (x *explainer) carrier(el string, amount []float64, minor bool, skip map[string]bool, not []*thermo.Species) *thermo.Species {
-	return x.carrierWhere(el, amount, minor, skip, not, func(*thermo.Species) bool { return true })
+	return x.carrierWhere(el, amount, minor, skip, not, func(int, *thermo.Species) bool { return true })
 }
 
-// carrierWhere is carrier among the species ok accepts.
-func (x *explainer) carrierWhere(el string, amount []float64, minor bool, skip map[string]bool, not []*thermo.Species, ok func(*thermo.Species) bool) *thermo.Species {
+// carrierWhere is carrier among the species ok accepts (given each
+// species' index in the mix and the species).
+func (x *explainer) carrierWhere(el string, amount []float64, minor bool, skip map[string]bool, not []*thermo.Species, ok func(int, *thermo.Species) bool) *thermo.Species {
 	var best *thermo.Species
 	bestMol := 0.0
 	for i, sp := range x.mx.Species {
-		if sp.Atoms[el] == 0 || (sp.Minor && !minor) || contains(not, sp) || hasAny(sp, skip) || !ok(sp) {
+		if sp.Atoms[el] == 0 || (sp.Minor && !minor) || contains(not, sp) || hasAny(sp, skip) || !ok(i, sp) {
 			continue
 		}
 		if m := amount[i] * float64(sp.Atoms[el]); m > bestMol {

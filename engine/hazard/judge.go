@@ -189,6 +189,24 @@ func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 	return out
 }
 
+// ventsOff is what the message adds for a gas that fills the headspace
+// and vents: what stays dissolved in the saturated liquid, and with a
+// stated headspace the pressure rise if the vessel were really closed
+// (which also leads the action, returned with that rise in bar).
+func ventsOff(o *Outcome, p *pool, act string) (msg, action string, closedBar float64) {
+	msg = " It fills the headspace and the rest vents."
+	if p.dissolved >= SaturatedShare*p.mol {
+		msg += fmt.Sprintf(" Another %s mol stays dissolved in the saturated liquid and keeps coming off an open tank.", fmtNum(p.dissolved, 3))
+	}
+	bar, tC, ok := closedRise(o, p)
+	if !ok {
+		return msg, act, 0
+	}
+	msg += fmt.Sprintf(" If the vessel were really closed, the %s L of gas would raise the stated %s L headspace by about %s bar (ideal gas at the mix's %s °C, all of it as gas).",
+		fmtNum(p.mol*litreBarPerMolK()*(tC+273.15)/(o.PressureKPa/100), 3), fmtNum(o.HeadspaceL, 4), fmtNum(bar, 2), fmtNum(tC, 3))
+	return msg, fmt.Sprintf("Never close this vessel: the gas would raise it by about %s bar; keep it vented. %s", fmtNum(bar, 2), act), bar
+}
+
 // SaturatedShare is the part of the amount given off from which what
 // stays dissolved in a liquid saturated with the gas is named beside it:
 // such a liquid keeps giving the gas off an open tank (chlorine dioxide
@@ -393,16 +411,9 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 		upperFirst(g.Name), fmtNum(p.mol, 3), fmtNum(litres, 3), strings.Join(p.origins, "; "), hsWhy, fmtNum(o.HeadspaceL, 4), fmtNum(hs.PPM, 3), fmtNum(ratio, 2), limit)
 	closedBar := 0.0
 	if hs.Vents {
-		msg += " It fills the headspace and the rest vents."
-		if p.dissolved >= SaturatedShare*p.mol {
-			msg += fmt.Sprintf(" Another %s mol stays dissolved in the saturated liquid and keeps coming off an open tank.", fmtNum(p.dissolved, 3))
-		}
-		if bar, tC, ok := closedRise(o, p); ok {
-			closedBar = bar
-			msg += fmt.Sprintf(" If the vessel were really closed, the %s L of gas would raise the stated %s L headspace by about %s bar (ideal gas at the mix's %s °C, all of it as gas).",
-				fmtNum(p.mol*litreBarPerMolK()*(tC+273.15)/(o.PressureKPa/100), 3), fmtNum(o.HeadspaceL, 4), fmtNum(bar, 2), fmtNum(tC, 3))
-			act = fmt.Sprintf("Never close this vessel: the gas would raise it by about %s bar; keep it vented. %s", fmtNum(bar, 2), act)
-		}
+		var more string
+		more, act, closedBar = ventsOff(o, p, act)
+		msg += more
 	}
 	msg += figureNote(p, g)
 	if g.Formula == "CO2" {
