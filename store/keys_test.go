@@ -147,10 +147,10 @@ func TestQueryKeysSameResults(t *testing.T) {
 			}
 		}
 	}
-	logTo(100, false) // the mark at 64, 36 rows above it
-	same("before migrating", 100, false)
+	logTo(indexBatch+36, false) // the mark at indexBatch, 36 rows above it
+	same("before migrating", indexBatch+36, false)
 
-	// Stopped without Close, so rows 65-100 stay unindexed, then migrated.
+	// Stopped without Close, so the 36 rows above the mark stay unindexed, then migrated.
 	mig.ws.close()
 	mig.r.Close()
 	mig.w.Close()
@@ -163,9 +163,9 @@ func TestQueryKeysSameResults(t *testing.T) {
 	if err := mig.r.QueryRow(`SELECT count(*) FROM queries WHERE id > (SELECT indexed_upto FROM search_state)`).Scan(&above); err != nil || above != 36 {
 		t.Fatalf("migrated file: %d rows above the mark, %v; want 36 (the test needs them)", above, err)
 	}
-	same("after migrating", 100, true)
-	logTo(28, false) // the mark at 128, none above
-	same("at a batch", 128, true)
+	same("after migrating", indexBatch+36, true)
+	logTo(indexBatch-36, false) // the mark at 2*indexBatch, none above
+	same("at a batch", 2*indexBatch, true)
 	logTo(40, true) // times step back now and then
 	// A read-only reader sees the 40 rows above the mark without indexing them.
 	ro, err := OpenReadOnly(ctx, curPath, Options{Now: clocks[2].Now})
@@ -176,5 +176,5 @@ func TestQueryKeysSameResults(t *testing.T) {
 	if got, want := keysResults(t, ro, true), keysResults(t, ref, true); got != want {
 		t.Errorf("read-only file answers differently from the file without query_keys:\n got %.600s\nwant %.600s", got, want)
 	}
-	same("with the clock stepped back", 168, true)
+	same("with the clock stepped back", 2*indexBatch+40, true)
 }

@@ -391,7 +391,7 @@ func TestMigrateHazardRowsBatched(t *testing.T) {
 		t.Fatal(err)
 	}
 	logN(t, old, c, indexBatch+6)
-	// Stopped without Close, so rows 65-70 stay unindexed.
+	// Stopped without Close, so the 6 rows above the mark stay unindexed.
 	old.ws.close()
 	old.r.Close()
 	old.w.Close()
@@ -403,7 +403,7 @@ func TestMigrateHazardRowsBatched(t *testing.T) {
 		}
 		return n
 	}
-	if n := count(`SELECT count(*) FROM query_hazards WHERE query_id > 64`); n != 12 {
+	if n := count(fmt.Sprintf(`SELECT count(*) FROM query_hazards WHERE query_id > %d`, indexBatch)); n != 12 {
 		t.Fatalf("version 9 file: %d hazard rows above the mark, want 12 (the test needs them)", n)
 	}
 
@@ -443,7 +443,7 @@ func TestMigrateHazardRowsBatched(t *testing.T) {
 	verify("after migrating", indexBatch+6)
 	hazardSearch("after migrating", indexBatch+6)
 
-	logN(t, db, c, indexBatch) // one batch: rows 65-128 get their hazard rows
+	logN(t, db, c, indexBatch) // one batch: the rows up to 2*indexBatch get their hazard rows
 	if n := count(`SELECT count(*) FROM query_hazards`); n != 2*2*indexBatch {
 		t.Errorf("after the next batch: %d hazard rows, want %d", n, 2*2*indexBatch)
 	}
@@ -451,10 +451,11 @@ func TestMigrateHazardRowsBatched(t *testing.T) {
 	hazardSearch("after the next batch", 2*indexBatch+6)
 
 	// A hazard row added to a row not yet indexed is reported.
-	if _, err := raw.Exec(`INSERT INTO query_hazards (query_id, pos, code, severity, message) VALUES (133, 0, 'HEAT', 'info', 'x')`); err != nil {
+	above := int64(2*indexBatch + 5)
+	if _, err := raw.Exec(`INSERT INTO query_hazards (query_id, pos, code, severity, message) VALUES (?, 0, 'HEAT', 'info', 'x')`, above); err != nil {
 		t.Fatal(err)
 	}
-	if rep, _ := db.Verify(ctx); rep.OK || rep.BrokenID != 133 || !strings.Contains(rep.Problem, "not indexed yet") {
-		t.Errorf("Verify with a hazard row added above the mark = %+v; want row 133 reported", rep)
+	if rep, _ := db.Verify(ctx); rep.OK || rep.BrokenID != above || !strings.Contains(rep.Problem, "not indexed yet") {
+		t.Errorf("Verify with a hazard row added above the mark = %+v; want row %d reported", rep, above)
 	}
 }

@@ -399,7 +399,7 @@ func (db *DB) insertHazards(ctx context.Context, tx *sql.Tx, id int64, hz []Haza
 // indexBatch is how many logged rows may wait for the search index and
 // their hazard rows before LogQuery writes them (in its own transaction,
 // one FTS segment for all, the hazard rows in one statement).
-const indexBatch = 64
+const indexBatch = 256
 
 // indexUpTo indexes every query row with id in (indexed_upto, upto], writes
 // the hazard rows of every row there (schema hazardBatchVersion and later)

@@ -302,7 +302,7 @@ func TestSearchIndexCatchesUp(t *testing.T) {
 	c := newClock(t0)
 	db, path := mustOpen(t, c.Now)
 	ctx := context.Background()
-	logN(t, db, c, 150)
+	logN(t, db, c, 2*indexBatch+22)
 	mark := func() int64 {
 		var n int64
 		if err := db.r.QueryRowContext(ctx, `SELECT indexed_upto FROM search_state`).Scan(&n); err != nil {
@@ -310,23 +310,24 @@ func TestSearchIndexCatchesUp(t *testing.T) {
 		}
 		return n
 	}
-	if got := mark(); got != 128 {
-		t.Errorf("indexed up to %d after 150 queries, want 128 (batches of %d)", got, indexBatch)
+	if got := mark(); got != 2*indexBatch {
+		t.Errorf("indexed up to %d after %d queries, want %d (batches of %d)", got, 2*indexBatch+22, 2*indexBatch, indexBatch)
 	}
-	// T-250 is query 150, not yet indexed: Search indexes it first.
-	page, err := db.Search(ctx, SearchOptions{Terms: "T-250"})
-	if err != nil || len(page.Queries) != 1 || page.Queries[0].ID != 150 {
+	// The newest query is not yet indexed: Search indexes it first.
+	last := int64(2*indexBatch + 22)
+	page, err := db.Search(ctx, SearchOptions{Terms: fmt.Sprintf("T-%d", 100+last)})
+	if err != nil || len(page.Queries) != 1 || page.Queries[0].ID != last {
 		t.Fatalf("Search(newest) = %v, %v", ids(page.Queries), err)
 	}
-	if got := mark(); got != 150 {
-		t.Errorf("indexed up to %d after a search, want 150", got)
+	if got := mark(); got != last {
+		t.Errorf("indexed up to %d after a search, want %d", got, last)
 	}
 	logN(t, db, c, 3)
 	db.Close()
 	var n int64
 	rawDB(t, path).QueryRow(`SELECT indexed_upto FROM search_state`).Scan(&n)
-	if n != 153 {
-		t.Errorf("indexed up to %d after Close, want 153", n)
+	if n != last+3 {
+		t.Errorf("indexed up to %d after Close, want %d", n, last+3)
 	}
 }
 
