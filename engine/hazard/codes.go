@@ -68,6 +68,7 @@ var codes = []Code{
 	{"co-release", "releases carbon monoxide", []string{"toxic-gas"}},
 	{"hn3-release", "releases hydrazoic acid", []string{"acid-azide", "toxic-gas"}},
 	{"azide-forming", "hydrazine with nitrite: forms hydrazoic acid once acid", nil},
+	{"azide-left", "azide destruction incomplete: azide left", nil},
 	{"organic-peroxides", "forms explosive organic peroxides", nil},
 	{"perchlorate-esters", "forms explosive perchlorate esters", nil},
 	{"nitrate-esters", "forms nitrate esters (explosive); never cool and hold", nil},

@@ -19,7 +19,7 @@ var familyRules = []func(o *Outcome) (engine.Hazard, bool){
 	solidHypochlorite, magnesiumWater, cyanideOxidation, halideSulfuric, chlorateSulfuric, hotElectrolessNickel, nitricMetalFumes, aluminiumNitricSlow,
 	chlorateSulfite, hydrazineOxidizer, chloricAcid,
 	// organic, azide and solid-chlorinator families (organic.go)
-	organicPeroxides, perchlorateEsters, peracidAlkali, peracids, oxidizerOrganic, unassessedFuel, dryOxidizerFuel, dryNitriteAmmonium, azideForming, dryChlorinatorAcid, dryAcidCarbonate, bisChloromethylEther,
+	organicPeroxides, perchlorateEsters, peracidAlkali, peracids, oxidizerOrganic, unassessedFuel, dryOxidizerFuel, dryNitriteAmmonium, azideForming, azideLeft, dryChlorinatorAcid, dryAcidCarbonate, bisChloromethylEther,
 	cannizzaro, hexamine, formaldehydeHypochlorite, haloform, heavyMetalAzide, mixedChlorinators,
 	// silicate with acid (silica.go)
 	silicaGel,
@@ -721,6 +721,29 @@ func aluminiumNitricSlow(o *Outcome) (engine.Hazard, bool) {
 		metal+" passivated by nitric acid of this strength ("+fmtNum(nitrate, 3)+" mol/L nitrate), but the film does not stop it altogether: the metal corrodes slowly with brown nitrogen oxides (not counted here), powder and turnings faster, and diluting the acid with the metal in it, a scratch or a trace of chloride makes the attack fast; "+material+".",
 		"Keep metal powder and turnings out; do not dilute or rinse with the metal in the acid; work with extraction and keep the vessel vented.",
 		"Perry's Chemical Engineers' Handbook, corrosion of aluminium and steels by nitric acid (from memory); Pourbaix, Atlas of Electrochemical Equilibria (1974), iron: passivation (from memory); aluminium tanks for strong (above about 80 %) nitric acid: common practice, no source"), true
+}
+
+// sodiumAzideGPerMol is the molar mass of NaN3 (IUPAC standard atomic
+// weights; from memory).
+const sodiumAzideGPerMol = 65.01
+
+// azideLeft: an azide destruction (nitrite with acid, which gives nitrogen
+// and nitrous oxide) ran and stopped with azide left, because the acid or
+// the nitrite ran short: the batch is not yet fit to release.
+func azideLeft(o *Outcome) (engine.Hazard, bool) {
+	before, left := o.MolarBefore("N3-", "HN3"), o.Molar("N3-", "HN3")
+	if left < TraceMolar || before-left < 0.01*before || !o.Formed("N2O", "N2O(g)", "N2", "N2(g)") {
+		return engine.Hazard{}, false
+	}
+	short := "the acid ran short"
+	if o.Molar("NO2-", "HNO2") < TraceMolar {
+		short = "the nitrite ran short"
+	}
+	mol := left * o.VolumeL
+	return mk("azide-left", engine.Warning,
+		"Not all the azide is destroyed: "+fmtNum(mol, 3)+" mol of azide ("+fmtNum(mol*sodiumAzideGPerMol/1000, 3)+" kg as sodium azide) stays in the mix ("+short+"). Azide is very toxic, gives hydrazoic acid in any acid and forms explosive salts with copper and lead.",
+		"Do not release it as treated: add nitrite, then acid slowly, until nitrous acid stays in excess (starch-iodide paper turns blue) and a ferric chloride test shows no red azide colour; keep it out of copper, lead and brass drains.",
+		"azide destruction with nitrite and acid and its end-point tests: common practice (laboratory waste handling), no source; red colour of iron(III) azide: Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, azides (from memory)"), true
 }
 
 // azideForming: hydrazine with nitrite keeps while alkaline, but nitrous
