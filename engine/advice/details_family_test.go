@@ -19,7 +19,7 @@ import (
 func TestDetailsAgreeWithShortOnFamilies(t *testing.T) {
 	a := mustAdvisor(t)
 	for _, req := range []string{
-		"mix 50 L CrO3 30 % + 10 L ethanol",
+		"mix 100 L NaOCl 12.5 % + 10 L isopropanol",
 		"mix 100 L NaOCl 12.5 % + 10 L methanol",
 		"mix 50 L HNO3 68 % + 5 L formic acid 85 %",
 	} {

@@ -8,7 +8,7 @@ import (
 )
 
 // TestOxidizerWithOrganicWithoutData: organic matter the dictionary knows
-// but the species data lack (glycols, sugar, solvents) beside a strong
+// but the species data lack (sugar, solvents, surfactants) beside a strong
 // oxidizing agent is refused by the class of strong oxidizers with organic
 // matter (Bretherick's Handbook of Reactive Chemical Hazards: chlorates,
 // permanganates, chromium trioxide, nitric acid, nitrates and hydrogen
@@ -19,13 +19,10 @@ import (
 func TestOxidizerWithOrganicWithoutData(t *testing.T) {
 	a := mustAdvisor(t)
 	refused := []string{
-		"mix 10 kg NaClO3 + 20 L ethylene glycol",
-		"mix 5 kg KMnO4 + 10 L propylene glycol",
-		"mix 50 L HNO3 68 % + 20 L ethylene glycol",
 		"mix 10 L H2O2 50 % + 10 L toluene",
 		"mix 200 L CrO3 25 % + 10 L hexane",
 		"mix 10 kg NaClO3 + 100 L sucrose 20 %",
-		"mix 10 kg NaNO3 + 20 L propylene glycol",
+		"mix 10 kg NaNO3 + 20 L dichloromethane",
 		"mix 100 L benzalkonium chloride 50 % + 100 L HNO3 68 %",
 		"mix 100 L benzalkonium chloride 50 % + 10 kg KMnO4",
 	}
@@ -49,8 +46,8 @@ func TestOxidizerWithOrganicWithoutData(t *testing.T) {
 			t.Errorf("%s: the organic is not listed as not assessed fuel: %+v", req, r.NotAssessed)
 		}
 	}
-	if _, err := askErr(a, "mix 100 L water + 20 L ethylene glycol"); err == nil {
-		t.Errorf("water with ethylene glycol: answered, want withheld for the missing data")
+	if _, err := askErr(a, "mix 100 L water + 20 L sucrose 50 %"); err == nil {
+		t.Errorf("water with sucrose: answered, want withheld for the missing data")
 	}
 	if r := ask(t, a, "mix 100 L HNO3 1 % + 1 L benzalkonium chloride"); r.Decision.Level == engine.DoNotMix {
 		t.Errorf("dilute nitric acid with a quat: refused, want the quat only not assessed")

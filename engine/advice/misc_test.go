@@ -166,7 +166,9 @@ func TestFamilyHeatCounted(t *testing.T) {
 		{"mix 100 L HCHO 37 % + 100 L NaOH 50 %", "formaldehyde-caustic-heat", 80e3, 95e3, true},
 		{"mix 100 L HCHO 37 % + 100 L NaOCl 12.5 %", "formaldehyde-oxidation", 70e3, 85e3, true},
 		{"mix 100 L acetone + 100 L NaOCl 12.5 %", "chloroform-formation", 30e3, 37e3, false},
-		{"mix 100 L CrO3 250 g/L + 10 L ethanol", "oxidizer-organic-fire", 60e3, 80e3, true},
+		// 100 L of 12.5 % hypochlorite (about 200 mol, 400 mol of
+		// electrons) with 10 L of methanol (247 mol, 988): 400 × 104.5 kJ.
+		{"mix 100 L NaOCl 12.5 % + 10 L methanol", "oxidizer-organic-fire", 38e3, 46e3, true},
 		{"mix 100 L HNO3 68 % + 10 L ethanol", "nitric-organic-runaway", 12e3, 18e3, false},
 		{"mix 100 L HCHO 37 % + 100 L ammonia 25 %", "formaldehyde-ammonia-heat", 40e3, 120e3, true},
 		{"mix 100 L NaOH 10 % + 100 L HCl 10 %", "", 0, 0, false},
@@ -202,5 +204,68 @@ func TestFamilyHeatCounted(t *testing.T) {
 		if sh := advice.RenderShort(r); !strings.Contains(sh, "kJ of it from") {
 			t.Errorf("%s: the Heat line does not name the family's part:\n%s", tc.req, sh)
 		}
+	}
+}
+
+// TestAcidDichromateOxidizesAlcohols: dichromate in strong acid (chromic
+// acid, or dichromate with sulfuric acid below about pH 1) oxidizes
+// alcohols and glycols within minutes in the cold (Vogel's Textbook of
+// Practical Organic Chemistry, oxidation of alcohols, from memory): the
+// mixed state runs it, to the usual products (ethanol to acetic acid,
+// isopropanol to acetone; never propane, oxalic or glycolic acid from
+// them), and its heat is the state's. Hand check for the chromic acid
+// bath: 25 kg CrO3 (250 mol, 750 mol of electrons) with 10 L of ethanol
+// (171 mol, 685 mol of electrons to acetic acid): about 685 × 104.5 kJ =
+// 72 MJ by Thornton's rule (from memory), and 110 L boil.
+func TestAcidDichromateOxidizesAlcohols(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "mix 100 L CrO3 250 g/L + 10 L ethanol")
+	if h := r.Decision.Heat; h == nil || h.ReleasedkJ < 60e3 || h.ReleasedkJ > 85e3 || !h.Boils {
+		t.Errorf("chromic acid with ethanol: heat %+v, want 60–85 MJ counted and boiling", h)
+	}
+	for _, tc := range []struct{ req, want string }{
+		{"mix 100 L sodium dichromate 10 %, H2SO4 20 % + 2 L ethanol", "CH3COOH"},
+		{"mix 200 L chromic acid 250 g/L + 20 L isopropanol", "CH3COCH3"},
+		{"mix 100 L sodium dichromate 10 %, H2SO4 20 % + 2 L ethylene glycol", "CO2"},
+	} {
+		r := ask(t, a, tc.req)
+		short := advice.RenderShort(r)
+		if !strings.Contains(short, "Redox: ") || !strings.Contains(short, tc.want) || strings.Contains(short, "held back") {
+			t.Errorf("%s: want the oxidation to %s running:\n%s", tc.req, tc.want, short)
+		}
+		for _, bad := range []string{"C3H8", "H2C2O4", "HOCH2COOH"} {
+			if strings.Contains(short, bad) && tc.want != "CO2" {
+				t.Errorf("%s: forms %s:\n%s", tc.req, bad, short)
+			}
+		}
+	}
+	// Dilute chromic acid rinse above pH 1 keeps the alcohol (slow).
+	r = ask(t, a, "mix 1000 L chromic acid 1 g/L, pH 2.5 + 1 L ethanol")
+	if r.Decision.Level == engine.DoNotMix {
+		t.Errorf("a dilute chromic rinse at pH 2.5 with a litre of ethanol: do-not-mix, want the slow oxidation held back")
+	}
+}
+
+// TestGlycolsAnswered: ethylene and propylene glycol have species rows
+// (estimated from their liquids, data/species.txt), so a coolant make-up
+// is answered, not withheld, and permanganate takes propylene glycol's
+// primary alcohol group to lactate (as ethylene glycol's to glycolate),
+// never to glycerol: oxidizing agents do not add hydroxyl groups to a
+// methyl group (Vogel's Textbook of Practical Organic Chemistry, from
+// memory).
+func TestGlycolsAnswered(t *testing.T) {
+	a := mustAdvisor(t)
+	for _, req := range []string{"mix 500 L water + 100 L propylene glycol", "mix 500 L water + 100 L ethylene glycol"} {
+		r, err := askErr(a, req)
+		if err != nil {
+			t.Fatalf("%s: %v, want an answer", req, err)
+		}
+		if r.Decision.Level != engine.NoConcern {
+			t.Errorf("%s: level %v, want no concern", req, r.Decision.Level)
+		}
+	}
+	short := advice.RenderShort(ask(t, a, "mix 100 L KMnO4 5 % + 10 L propylene glycol"))
+	if strings.Contains(short, "C3H5(OH)3") || !strings.Contains(short, "CH3CH(OH)COO-") {
+		t.Errorf("permanganate with propylene glycol: want lactate, no glycerol:\n%s", short)
 	}
 }

@@ -141,7 +141,7 @@ func TestGasAtTheTemperatureReached(t *testing.T) {
 // back" or "no redox reaction runs" (review 12, T07 and T18).
 func TestRedoxLineAgreesWithFamilyHeat(t *testing.T) {
 	a := mustAdvisor(t)
-	for _, req := range []string{"mix 50 L CrO3 30 % + 10 L ethanol", "mix 100 L NaOCl 12.5 % + 10 L methanol"} {
+	for _, req := range []string{"mix 100 L NaOCl 12.5 % + 10 L isopropanol", "mix 100 L NaOCl 12.5 % + 10 L methanol"} {
 		short := advice.RenderShort(ask(t, a, req))
 		if !strings.Contains(short, "oxidizing the organic liquid: runs") || strings.Contains(short, "held back (not counted") || strings.Contains(short, "no redox reaction runs") {
 			t.Errorf("%s: the Redox line disagrees with the heat counted:\n%s", req, short)

@@ -64,9 +64,12 @@ var ketones = []string{"CH3COCH3"}
 // organicLiquids are the organic liquids whose usual product with a strong
 // oxidizing agent is known, with the electrons one molecule gives up to it
 // (methanol to formic acid, ethanol to acetic acid, isopropanol to acetone,
-// glycerol to carbon dioxide).
+// glycerol and ethylene glycol to carbon dioxide, propylene glycol to
+// acetic acid and carbon dioxide: C3H8O2 + 2 H2O → CH3COOH + CO2 + 8 H+ +
+// 8 e-).
 var organicLiquids = map[string]float64{
 	"CH3OH": 4, "C2H5OH": 4, "(CH3)2CHOH": 2, "C3H5(OH)3": 14,
+	"HOCH2CH2OH": 10, "CH3CH(OH)CH2OH": 8,
 }
 
 // organicLiquid is the mol/L of organic fuel that a strong oxidizing agent

@@ -194,8 +194,20 @@ func parseCond(s string) (Cond, error) {
 	return c, nil
 }
 
+// afterHas reports whether the next token is an item of a has-list: the
+// token before is "has" or an item that ends with a comma. A parenthesis
+// there opens a species ((CH3)2CHOH), not a group of conditions.
+func afterHas(out []string) bool {
+	if len(out) == 0 {
+		return false
+	}
+	last := out[len(out)-1]
+	return last == "has" || strings.HasSuffix(last, ",")
+}
+
 // condTokens splits on spaces, keeps parentheses apart, and keeps a has-list
-// ("has Fe(2..3), Mn(2)") together as one token each group.
+// ("has Fe(2..3), Mn(2)") together as one token each group; a species that
+// begins with a parenthesis ((CH3)2CHOH) may stand in a has-list.
 func condTokens(s string) []string {
 	var out []string
 	var cur strings.Builder
@@ -210,7 +222,7 @@ func condTokens(s string) []string {
 		switch {
 		case r == ' ' && depth == 0:
 			flush()
-		case r == '(' && cur.Len() == 0:
+		case r == '(' && cur.Len() == 0 && !afterHas(out):
 			out = append(out, "(")
 		case r == '(':
 			depth++

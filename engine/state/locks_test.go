@@ -117,6 +117,11 @@ func TestConditions(t *testing.T) {
 		{"not (ph>=13 and has Al(0), Zn(0))", true},
 		{"has N(3) and has NH2SO3-, NH2SO3H", false},
 		{"has Cl(1), Br(1) or (ph<4 and t<60)", true},
+		// A species that begins with a parenthesis may stand in a
+		// has-list, first or later; a parenthesis elsewhere groups.
+		{"has (CH3)2CHOH, Cu(2)", true},
+		{"not (has Cl(1) and has Br(1), (CH3)2CHOH, NH2SO3-)", false},
+		{"has (CH3)2CHOH or (ph<4 and t<60)", false},
 	}
 	for _, c := range cases {
 		got, err := parseCond(c.cond)
