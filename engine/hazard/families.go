@@ -759,7 +759,10 @@ func azideForming(o *Outcome) (engine.Hazard, bool) {
 		return engine.Hazard{}, false
 	}
 	sev, act := engine.Warning, "Do not store or collect hydrazine and nitrite together; never acidify such a mix; keep it away from copper, lead and brass fittings."
-	if o.PH < 7 {
+	// A stream of strong acid beside them is the acidification itself,
+	// even where the hydrazine buffers the final mix above pH 7: where the
+	// acid runs in, nitrous acid meets hydrazinium first.
+	if o.PH < 7 || o.StrongAcid {
 		sev, act = engine.Danger, "Do not combine: in acid the hydrazine turns into hydrazoic acid, a toxic, explosive gas. If it has happened, leave the area and ventilate."
 	}
 	return mk("azide-forming", sev,

@@ -83,18 +83,38 @@ func smallPuff(o *Outcome, g *GasData, hs Headspace, ratio float64) bool {
 	return puff < limitMol
 }
 
-// tinyPuff reports whether an amount-scaled gas comes off in so small an
-// amount (given off and in the headspace together) that spread over
-// ReferenceAirL it would not reach WarningRatio of its limit: a few
-// millilitres of sulfur dioxide over an unbuffered mix that a trace of
-// acid took to pH 3 are no warning.
+// tinyPuff reports whether a gas comes off in so small an amount (given
+// off and in the headspace together) that spread over ReferenceAirL it
+// would not reach WarningRatio of its limit: a trace, below the threshold
+// at which a rule may fire. A few millilitres of sulfur dioxide over an
+// unbuffered mix that a trace of acid took to pH 3 are no warning. So is a
+// toxic gas that a reaction forms (no stream brings its dissolved forms)
+// in the first millilitres of a pour, in a tank whose headspace is many
+// times the liquid (InTank): the trace of chlorine the equilibrium holds
+// over a few millilitres of alkaline bleach on a heap of salt stands at a
+// high concentration over so small a liquid, but all of it would not
+// trouble a room. In a mix judged by itself the closed headspace equals
+// the liquid and its concentration decides (a litre of bleach with a litre
+// of citric acid gives a few millilitres of chlorine, at the surface far
+// above the limit). A vapour a stream gives off by itself (hydrogen
+// chloride over hot acid, ammonia, hydrogen fluoride) keeps coming off an
+// open tank however little a closed headspace holds, and a flammable gas
+// is judged where it gathers: neither is judged by amount.
 func tinyPuff(o *Outcome, g *GasData, hs Headspace, p *pool) bool {
-	if !amountScaled[g.Formula] || !(o.HeadspaceL > 0) || p == nil {
+	formedTrace := o.HeadspaceL > 5*o.VolumeL && len(g.Pool) > 0 && o.MolarBefore(g.Pool...) < TraceMolar && g.LimitName != "LFL" && g.LimitName != "O2"
+	if !amountScaled[g.Formula] && !formedTrace || !(o.HeadspaceL > 0) || p == nil {
 		return false
 	}
 	rt := litreBarPerMolK() * o.TemperatureK()
 	amb := o.PressureKPa / 100
 	puff := math.Max(hs.PPM*1e-6*amb*o.HeadspaceL/rt, p.mol)
+	if formedTrace && !amountScaled[g.Formula] {
+		// What the reaction gives off is all there is of it: a tank's
+		// headspace over the first millilitres of a pour holds no more
+		// than they can give, whatever concentration the equilibrium
+		// stands at over so small a liquid.
+		puff = p.mol
+	}
 	return puff < WarningRatio*g.LimitPPM*1e-6*amb*ReferenceAirL/rt
 }
 
