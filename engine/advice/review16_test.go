@@ -44,6 +44,15 @@ func TestReview16(t *testing.T) {
 			level: engine.NoConcern, not: "chlorine-release",
 		},
 		{
+			// Perborate tetrahydrate dissolves slowly, about 2.3 g per
+			// 100 g of water (CRC Handbook, from memory): water run onto
+			// 10 kg of it holds about 0.16 mol/L of peroxide at the first
+			// percent of the pour, far from the alkaline strength that
+			// heats itself (laundry practice: common practice, no source).
+			name: "perborate make-up", req: "mix 1000 L water + 10 kg sodium perborate",
+			level: engine.NoConcern, not: "near-boiling",
+		},
+		{
 			// A litre of 5 % bleach with a litre of 5 % citric acid: a few
 			// millilitres of chlorine, far above its limit over the liquid
 			// (the amount threshold of a pour point must not hide it).
@@ -72,5 +81,26 @@ func TestReview16(t *testing.T) {
 				t.Errorf("%s fires (final or along the pour)", tc.not)
 			}
 		})
+	}
+}
+
+// TestPermanganatePeroxideInAcid: in sulfuric acid held in excess,
+// permanganate takes peroxide stoichiometrically to manganese(II) and
+// oxygen (2 MnO4- + 5 H2O2 + 6 H+ → 2 Mn2+ + 5 O2 + 8 H2O: the
+// permanganate titration of peroxide), and manganese(II) in acid does not
+// break down the excess peroxide (Greenwood & Earnshaw, Chemistry of the
+// Elements, manganese, from memory). 200 L of 2 % KMnO4 is 200 × 1.01 ×
+// 0.02 / 158.03 = 25.6 mol: 64 mol O2, not the 509 mol of all the
+// peroxide. Without the acid, manganese dioxide forms and does break the
+// peroxide down (the lock's catalyst clause).
+func TestPermanganatePeroxideInAcid(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "mix 200 L potassium permanganate 2 % + 100 L H2O2 30 % + 50 L sulfuric acid 20 %")
+	if o2 := gasMolOf(r, "O2"); o2 < 55 || o2 > 75 {
+		t.Errorf("permanganate with peroxide in excess sulfuric acid: O2 %.1f mol, want about 64 (permanganate limiting)", o2)
+	}
+	r = ask(t, a, "mix 200 L potassium permanganate 2 % + 100 L H2O2 30 %")
+	if o2 := gasMolOf(r, "O2"); o2 < 400 {
+		t.Errorf("permanganate with peroxide, no acid: O2 %.1f mol, want the peroxide broken down on manganese dioxide (about 500)", o2)
 	}
 }
