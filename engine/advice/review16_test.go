@@ -1,9 +1,11 @@
 package advice_test
 
 import (
+	"strings"
 	"testing"
 
 	"mixward/engine"
+	"mixward/engine/advice"
 )
 
 // TestReview16 holds pours a plant-chemist review of the build would not
@@ -102,5 +104,22 @@ func TestPermanganatePeroxideInAcid(t *testing.T) {
 	r = ask(t, a, "mix 200 L potassium permanganate 2 % + 100 L H2O2 30 %")
 	if o2 := gasMolOf(r, "O2"); o2 < 400 {
 		t.Errorf("permanganate with peroxide, no acid: O2 %.1f mol, want the peroxide broken down on manganese dioxide (about 500)", o2)
+	}
+}
+
+// TestHydrateNamedForSulfideAndPhosphate: sodium sulfide (flakes of about
+// 60 % Na2S) and trisodium phosphate (the dodecahydrate crystals) are sold
+// as hydrates (common practice, no source); the answer says it read the
+// name as the anhydrous salt and how to write the hydrate, as it does for
+// soda ash and ferrous sulfate.
+func TestHydrateNamedForSulfideAndPhosphate(t *testing.T) {
+	a := mustAdvisor(t)
+	for req, want := range map[string]string{
+		"mix 500 L sulfuric acid 25 % + 30 kg sodium sulfide": "write Na2S.9H2O",
+		"mix 500 L water + 20 kg trisodium phosphate":         "write Na3PO4.12H2O",
+	} {
+		if short := advice.RenderShort(ask(t, a, req)); !strings.Contains(short, want) {
+			t.Errorf("%s: no %q in\n%s", req, want, short)
+		}
 	}
 }
