@@ -123,3 +123,15 @@ func TestHydrateNamedForSulfideAndPhosphate(t *testing.T) {
 		}
 	}
 }
+
+// TestComplexedCyanideInAcidNamesHCN: a request that acidifies a
+// hexacyanoferrate is the acidification itself; its action names hydrogen
+// cyanide instead of only "keep it alkaline" (hexacyanoferrate safety data
+// sheets, EUH032, from memory).
+func TestComplexedCyanideInAcidNamesHCN(t *testing.T) {
+	r := ask(t, mustAdvisor(t), "mix 100 L potassium ferricyanide 5 % + 20 L HCl 32 %")
+	h, ok := hazardOf(r, "cyanide-complexed")
+	if !ok || !strings.HasPrefix(h.Action, "Do not acidify it") || !strings.Contains(h.Action, "hydrogen cyanide") {
+		t.Errorf("cyanide-complexed in acid: %+v, want an action that leads with not acidifying and names hydrogen cyanide", h)
+	}
+}

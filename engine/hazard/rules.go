@@ -211,10 +211,20 @@ func cyanideComplexed(o *Outcome) (engine.Hazard, bool) {
 	if fe < TraceMolar || !o.Named("NaCN", "KCN", "HCN", "CuCN", "Zn(CN)2", "AgCN") && o.PH >= 4 {
 		return engine.Hazard{}, false
 	}
+	act := "Treat as cyanide waste: keep it alkaline, covered and out of sunlight, and send it to cyanide treatment, not to the drain."
+	if o.PH < 4 {
+		// The request is the acidification itself: say so first
+		// (potassium ferrocyanide and ferricyanide safety data sheets,
+		// EUH032 "contact with acids liberates very toxic gas"; from
+		// memory). A warning, not a danger: in the cold the complex gives
+		// it off only slowly (Vogel, hexacyanoferrates with dilute acid:
+		// hydrogen cyanide on warming).
+		act = "Do not acidify it: in acid (pH " + fmtNum(o.PH, 2) + " here) the complex gives off hydrogen cyanide, slowly in the cold, faster warm or in light; if it has happened, keep it covered and vented to a scrubber or outdoors, and neutralise it back to alkaline. " + act
+	}
 	return mk("cyanide-complexed", engine.Warning,
 		"Iron holds cyanide as hexacyanoferrate ("+fmtNum(fe, 2)+" mol/L): free hydrogen cyanide stays low in the cold, but the liquor and any blue sludge (Prussian-blue-type solids with excess iron) are still cyanide waste, and acid with warmth or light gives hydrogen cyanide off again slowly.",
-		"Treat as cyanide waste: keep it alkaline, covered and out of sunlight, and send it to cyanide treatment, not to the drain.",
-		"Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, cyanide with iron(II) and iron(III) (from memory); ferrocyanide log β6 35, Smith & Martell Critical Stability Constants (from memory); release of cyanide from iron complexes in light and acid: common practice, no source"), true
+		act,
+		"Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, cyanide with iron(II) and iron(III) (from memory); ferrocyanide log β6 35, Smith & Martell Critical Stability Constants (from memory); release of cyanide from iron complexes in light and acid: common practice, no source; in acid: hexacyanoferrate safety data sheets, EUH032 (from memory)"), true
 }
 
 // chromiumGPerMol is the standard atomic weight of chromium (IUPAC 2013,
