@@ -28,6 +28,11 @@ func TestLookup(t *testing.T) {
 		{"caustic soda", "NaOH"},
 		{"lye", "NaOH"},
 		{"copperas", "FeSO4.7H2O"},
+		{"cooling water", "H2O"}, // plant words for water (common practice)
+		{"rinse water", "H2O"},
+		{"lime slurry", "Ca(OH)2"},
+		{"potassium peroxymonosulfate", "K5H3(SO4)2(SO5)2"}, // the triple salt the trade sells
+		{"sodium sulfide nonahydrate", "Na2S.9H2O"},
 		{"ferrous sulfate", "FeSO4"},
 		{"iron(II) sulfate", "FeSO4"},
 		{"CuSO4·5H2O", "CuSO4.5H2O"},
