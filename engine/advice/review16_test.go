@@ -55,6 +55,24 @@ func TestReview16(t *testing.T) {
 			level: engine.NoConcern, not: "near-boiling",
 		},
 		{
+			// Free hydroxylamine from its sulfate and caustic: far less
+			// stable than the salt (Bretherick's Handbook, hydroxylamine,
+			// from memory): 100 L of 10 % salt frees about 129 mol.
+			name: "hydroxylamine freed", req: "mix 100 L hydroxylamine sulfate 10 % + 20 L NaOH 50 %",
+			level: engine.WithPrecautions, want: "hydroxylamine-freed",
+		},
+		{
+			// Hot unbuffered dithionite breaks down and turns the bath
+			// acid (common practice, no source).
+			name: "hot dithionite", req: "mix 100 L water + 1 kg sodium dithionite at 70 C",
+			level: engine.WithPrecautions, want: "hot-dithionite",
+		},
+		{
+			// Held with caustic it keeps hot: no warning for the mix.
+			name: "hot dithionite with caustic", req: "mix 100 L NaOH 1 % + 1 kg sodium dithionite at 70 C",
+			level: engine.WithPrecautions, not: "hot-dithionite",
+		},
+		{
 			// A litre of 5 % bleach with a litre of 5 % citric acid: a few
 			// millilitres of chlorine, far above its limit over the liquid
 			// (the amount threshold of a pour point must not hide it).

@@ -15,7 +15,7 @@ import (
 // reliable Gibbs energies, or they are runaways rather than equilibria).
 // Each is judged from what the streams bring together, with its source.
 var familyRules = []func(o *Outcome) (engine.Hazard, bool){
-	chloroAmines, nitrateEsters, nitricOrganic, hydrazineNitric, hydroxylamineMetalSalts, dampDithionite, ammoniumNitrite, permanganateSulfuric, volatileAcid,
+	chloroAmines, nitrateEsters, nitricOrganic, hydrazineNitric, hydroxylamineMetalSalts, hydroxylamineFreed, dampDithionite, hotDithionite, ammoniumNitrite, permanganateSulfuric, volatileAcid,
 	solidHypochlorite, magnesiumWater, cyanideOxidation, halideSulfuric, chlorateSulfuric, hotElectrolessNickel, nitricMetalFumes, aluminiumNitricSlow,
 	chlorateSulfite, hydrazineOxidizer, chloricAcid,
 	// organic, azide and solid-chlorinator families (organic.go)
@@ -247,6 +247,46 @@ func hydroxylamineMetalSalts(o *Outcome) (engine.Hazard, bool) {
 		"Hydroxylamine ("+fmtNum(ha, 2)+" mol/L) with iron or copper salts ("+fmtNum(metal, 2)+" mol/L): the metal ions catalyse its decomposition, which in concentrated solution runs away violently, possibly explosively, with nitrogen, nitrous oxide, ammonia and heat.",
 		"Do not combine. Keep hydroxylamine and its solutions free of iron and copper (no rusty or copper-alloy equipment, no metal-salt liquors), cool and vented.",
 		"Bretherick's Handbook of Reactive Chemical Hazards, hydroxylamine: metal salts (from memory); thresholds 0.1 and 1 mol/L hydroxylamine, 1e-4 mol/L metal: common practice, no source"), true
+}
+
+// hydroxylamineFreed: strong base frees hydroxylamine from its salts
+// (NH3OH+, pKa 5.96), and the free base is far less stable than the salt:
+// it breaks down on standing, faster warm, alkaline or with traces of iron
+// or copper, with nitrogen, ammonia and heat, and concentrated or heated
+// it can explode (Bretherick's Handbook of Reactive Chemical Hazards,
+// hydroxylamine, from memory). A warning from HydroxylamineFreeMolar of
+// free base made from a salt (common practice, no source).
+func hydroxylamineFreed(o *Outcome) (engine.Hazard, bool) {
+	free := o.Molar("NH2OH")
+	if !o.StrongBase || !o.Named("(NH3OH)2SO4", "NH3OHCl") || free < HydroxylamineFreeMolar || o.Named("NH2OH") {
+		return engine.Hazard{}, false
+	}
+	return mk("hydroxylamine-freed", engine.Warning,
+		"The base frees hydroxylamine from its salt ("+fmtNum(free, 2)+" mol/L free base, "+fmtNum(free*o.VolumeL, 3)+" mol): free hydroxylamine is far less stable than its salts and breaks down on standing, faster warm, alkaline or with traces of iron or copper, giving nitrogen, ammonia and heat; concentrated or heated it can explode.",
+		"Free it only as needed and use it at once: keep it cool and vented, out of iron and copper equipment, and never heat or concentrate the liquor.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, hydroxylamine (from memory); pKa 5.96: CRC Handbook, Dissociation Constants of Inorganic Acids and Bases (from memory); threshold: common practice, no source"), true
+}
+
+// HydroxylamineFreeMolar is the free hydroxylamine (mol/L, about 1.6 %)
+// from which freeing it is named (common practice, no source).
+const HydroxylamineFreeMolar = 0.5
+
+// hotDithionite: hot (about 60 °C and more) and not held strongly alkaline,
+// dissolved dithionite breaks down within minutes to an hour (2 S2O4^2- +
+// H2O → S2O3^2- + 2 HSO3-), turns the bath acid and speeds itself up, with
+// sulfur dioxide and sulfur to follow (common practice, no source;
+// Greenwood & Earnshaw, Chemistry of the Elements, dithionite, from
+// memory). The state runs it (lock dithionite-keeps released): this names
+// it and what to do.
+func hotDithionite(o *Outcome) (engine.Hazard, bool) {
+	before := o.MolarBefore("S2O4^2-", "HS2O4-")
+	if before < TraceMolar || o.Molar("S2O4^2-", "HS2O4-") > 0.5*before || !o.Formed("S2O3^2-", "HS2O3-") || o.TemperatureC < 60 {
+		return engine.Hazard{}, false
+	}
+	return mk("hot-dithionite", engine.Warning,
+		"Hot ("+fmtNum(o.TemperatureC, 3)+" °C) and not held strongly alkaline, the dithionite breaks down into thiosulfate and bisulfite within minutes to an hour: it loses its reducing power, turns the bath acid (pH "+fmtNum(o.PH, 2)+" here), which speeds the breakdown, and sulfur dioxide and sulfur follow.",
+		"Make hot dithionite baths up with caustic soda (to about pH 11 or more) and use them at once; vent the tank.",
+		"hot dithionite baths held alkaline and used at once: common practice, no source; Greenwood & Earnshaw, Chemistry of the Elements, dithionite (from memory)"), true
 }
 
 // metalSaltMolar is the mol/L of the atoms of the elements els held in
