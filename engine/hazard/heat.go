@@ -41,7 +41,7 @@ func judgeHeat(o *Outcome) []engine.Hazard {
 		// whose mean reaches 80 °C boils and spits locally when poured in one
 		// go (Bretherick's Handbook, acids with bases, from memory).
 		sev, act := engine.Danger, heatAction(h)
-		if dilutionHeat(h) {
+		if dilutionHeat(o) {
 			// Most of the heat is that of diluting or dissolving: run
 			// slowly into the water with cooling and stirring, the tank
 			// never reaches the mean of a mix made in one go. A routine
@@ -69,10 +69,31 @@ func judgeHeat(o *Outcome) []engine.Hazard {
 	return []engine.Hazard{z}
 }
 
-// dilutionHeat: at least half the heat is that of diluting concentrated
-// reagents or dissolving solids, none of a reaction.
-func dilutionHeat(h Heat) bool {
-	return !h.Reactions && h.MixingkJ >= 0.5*h.ReleasedkJ
+// dilutionHeat: the heat is mostly that of diluting concentrated reagents
+// or dissolving solids, none of a reaction: at least half of it counted as
+// such, or the mix is one chemical poured dry into water (caustic flakes:
+// the state's own change of the solid to ions). A weak acid or ammonia
+// meeting a base is counted in the state, not as dilution, and stays out.
+func dilutionHeat(o *Outcome) bool {
+	h := o.Heat
+	if h.Reactions || !(h.ReleasedkJ > 0) {
+		return false
+	}
+	return h.MixingkJ >= 0.5*h.ReleasedkJ || oneSolidIntoWater(o)
+}
+
+// oneSolidIntoWater: the streams are water and one chemical poured dry.
+func oneSolidIntoWater(o *Outcome) bool {
+	n := 0
+	for _, c := range o.Chemicals {
+		if c == "H2O" {
+			continue
+		}
+		if n++; n > 1 || !o.SolidStream(c) {
+			return false
+		}
+	}
+	return n == 1
 }
 
 // heatAction is what to do about a mix that boils or nearly boils: more

@@ -172,12 +172,13 @@ func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 				ppm := p.mol * litreBarPerMolK() * o.TemperatureK() / (o.PressureKPa / 100) / o.HeadspaceL * 1e6
 				hs = Headspace{PPM: math.Min(ppm, 1e6), Vents: !(ppm < 1e6)}
 			} else if w, ok := warmedOff(o, g, m); ok {
-				if o.Heat.ReachedC < ScaldC {
-					// Warmed below scalding, the mix dosed slowly with
-					// the temperature watched stays near the streams'
+				if o.Heat.ReachedC < NearBoilC {
+					// Warmed below near-boiling, the mix dosed slowly
+					// with cooling and the temperature watched (the
+					// action of its heat hazard) stays near the streams'
 					// own: the cold figure is what it then holds. A mix
-					// that scalds or nearly boils drives the gas out in
-					// earnest (common practice, no source).
+					// that nearly boils drives the gas out in earnest
+					// (common practice, no source).
 					cold = hs.PPM
 				}
 				p, hs = w.pool, w.hs

@@ -44,8 +44,9 @@ func TestOwnHazardComparison(t *testing.T) {
 
 // TestNearBoilingByHeatSource: a mean of 80–100 °C reached by diluting or
 // dissolving is a warning (run the concentrate slowly into the water with
-// cooling: a routine make-up, common practice, no source); by a reaction it
-// stays a danger, and a mean that boils is always one.
+// cooling: a routine make-up, common practice, no source); by a reaction or
+// mostly by neutralisation it stays a danger, and a mean that boils is
+// always one.
 func TestNearBoilingByHeatSource(t *testing.T) {
 	for _, tc := range []struct {
 		name string
@@ -54,11 +55,21 @@ func TestNearBoilingByHeatSource(t *testing.T) {
 		sev  engine.Severity
 	}{
 		{"dilution", Heat{Known: true, ReleasedkJ: 59650, RiseC: 61.4, ReachedC: 81.4, MixingkJ: 59650}, "near-boiling", engine.Warning},
+		// 50 kg of caustic flakes in 200 L of water: the state's own
+		// change of the solid to ions, less a dilution correction.
+		{"dissolving flakes", Heat{Known: true, ReleasedkJ: 51460, RiseC: 56.5, ReachedC: 81.5, MixingkJ: -4177}, "near-boiling", engine.Warning},
+		// Caustic on a weak acid (peracetic, acetic): the state's heat,
+		// not dilution.
+		{"weak acid with caustic", Heat{Known: true, ReleasedkJ: 50000, RiseC: 60, ReachedC: 85, MixingkJ: 10000}, "near-boiling", engine.Danger},
 		{"reaction", Heat{Known: true, ReleasedkJ: 5000, RiseC: 60, ReachedC: 85, Reactions: true, MixingkJ: 100}, "near-boiling", engine.Danger},
 		{"boils", Heat{Known: true, ReleasedkJ: 42710, RiseC: 80, ReachedC: 100, Boils: true, MixingkJ: 42710}, "boils", engine.Danger},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
-			hs := judgeHeat(&Outcome{Heat: tc.heat})
+			o := &Outcome{Heat: tc.heat, Chemicals: []string{"H2O", "CH3COOH", "NaOH"}}
+			if tc.name == "dissolving flakes" {
+				o.Chemicals, o.SolidChemicals = []string{"H2O", "NaOH"}, []string{"NaOH"}
+			}
+			hs := judgeHeat(o)
 			if len(hs) != 1 || hs[0].Code != tc.code || hs[0].Severity != tc.sev {
 				t.Fatalf("got %+v, want %s %s", hs, tc.code, tc.sev)
 			}
@@ -84,6 +95,7 @@ func TestHydrofluoricBurnStrength(t *testing.T) {
 		{"silicofluoride in water", Outcome{Before: hf(0.0024), After: hf(0.0024), Chemicals: []string{"Na2SiF6", "H2O"}}, false, false},
 		{"HF 5 % with lime", Outcome{Before: hf(1.32), After: hf(1.32), Chemicals: []string{"HF", "Ca(OH)2"}}, true, false},
 		{"HF 40 % into water", Outcome{Before: hf(11.5), After: hf(11.5), Chemicals: []string{"HF", "H2O"}}, true, true},
+		{"fluorosilicic acid handled", Outcome{Before: hf(0.002), After: hf(0.002), Chemicals: []string{"H2SiF6", "H2O"}}, true, false},
 		{"HF taken up by caustic", Outcome{Chemicals: []string{"HF", "NaOH"}}, true, false},
 	} {
 		t.Run(tc.name, func(t *testing.T) {

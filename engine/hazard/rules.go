@@ -129,10 +129,18 @@ func hydrofluoric(o *Outcome) (engine.Hazard, bool) {
 		// HF at pH 3–4) no HF rule fires from the trace. The mix takes a
 		// named acid up (caustic, lime), but the operator still handles
 		// the hydrofluoric acid on its way in.
-		if !o.Named("HF", "NH4HF2") {
+		switch {
+		case o.Named("HF", "NH4HF2"):
+			msg = "Hydrofluoric acid is handled on its way into the mix, which takes it up: splashes and fumes burn late and fluoride poisons through the skin (IDLH 30 ppm)."
+		case o.Named("H2SiF6"):
+			// The trade acid (20–25 %) is a strong acid whose fumes carry
+			// hydrogen fluoride; its data sheets treat splashes as HF
+			// burns (suppliers' safety data sheets, calcium gluconate
+			// first aid, from memory).
+			msg = "Fluorosilicic acid is handled on its way into the mix: a strong acid whose fumes carry hydrogen fluoride, splashes treated as hydrofluoric acid burns (IDLH 30 ppm)."
+		default:
 			return engine.Hazard{}, false
 		}
-		msg = "Hydrofluoric acid is handled on its way into the mix, which takes it up: splashes and fumes burn late and fluoride poisons through the skin (IDLH 30 ppm)."
 	}
 	// The acid's own hazard is a warning with its precautions: diluting
 	// 40 % acid to 20 % for a pickle is routine work. Concentrated acid
