@@ -55,7 +55,34 @@ func TestOwnHazardsNoWorse(t *testing.T) {
 			name: "bisulfite 38 % with water", req: "mix 1000 L water pH 7 + 10 L sodium bisulfite 38 %",
 			level: engine.NoConcern, not: "so2-release",
 		},
+		{
+			// 10 % acid with lime warms to about 63 °C adiabatically; dosed
+			// slowly with cooling (the heat's own action) the HF over the
+			// liquid stays below the acid's own (common practice, no
+			// source).
+			name: "HF 10 % neutralised with lime", req: "mix 500 L HF 10 % + 40 kg calcium hydroxide",
+			level: engine.WithPrecautions, title: "as over HF 10 % alone", want: "hf-release",
+		},
+		{
+			// Caustic flakes dissolved slowly into four times their mass
+			// of water, with cooling: a routine make-up (common practice,
+			// no source); about 51 MJ, a mean of about 81 °C in one go.
+			name: "caustic flakes into water", req: "mix 200 L water + 50 kg sodium hydroxide",
+			level: engine.WithPrecautions, title: "add NaOH into H2O", want: "near-boiling",
+		},
 		// The real alarms stay.
+		{
+			// Twice their mass of water: the mean boils.
+			name: "caustic flakes into little water", req: "mix 100 L water + 50 kg sodium hydroxide",
+			level: engine.DoNotMix, want: "boils",
+		},
+		{
+			// The trade's fluorosilicic acid (20–25 %) fumes hydrogen
+			// fluoride; its data sheets treat splashes as HF burns
+			// (suppliers' safety data sheets, from memory).
+			name: "fluorosilicic acid diluted", req: "mix 100 L fluorosilicic acid 25 % + 100 L water",
+			level: engine.WithPrecautions, want: "hf-burns",
+		},
 		{
 			// Bisulfite with a strong acid gives off sulfur dioxide
 			// (Bretherick's Handbook of Reactive Chemical Hazards, sodium
