@@ -349,6 +349,11 @@ type GasJudged struct {
 	Method       string  `json:"figure_method,omitempty"`
 	StrengthPct  float64 `json:"strength_pct,omitempty"`
 	VapourSource string  `json:"vapour_source,omitempty"`
+	// ColdPPM, when the mix's own heat drives the gas out (the Henry
+	// constant moved to the temperature reached), is the headspace
+	// concentration at the streams' temperature: what a mix dosed slowly
+	// and kept cool holds, compared with the streams alone.
+	ColdPPM float64 `json:"cold_ppm,omitempty"`
 	// LowerBound: the liquid is stronger than the vapour table's last row,
 	// whose figure HeadspacePPM then is: the real one is higher.
 	LowerBound bool `json:"lower_bound,omitempty"`

@@ -59,7 +59,7 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 		return nil, err
 	}
 	o := hazard.FromResult(res, a.Engine.Tables)
-	alone := a.alone(req)
+	alone := a.alone(req, o.HeadspaceL)
 	res.Hazards = hazard.RelativeFinal(hazard.Judge(o, a.Gases), pick(alone, req.Streams))
 	if o.Heat.Known && len(o.Heat.Families) > 0 {
 		res.Notes = append(res.Notes, fmt.Sprintf("heat counted for the hazards: %.0f kJ, of which %.0f kJ from reactions judged as families (their stoichiometry and reaction enthalpy, limited by the reagent that runs out first)", o.Heat.ReleasedkJ, o.Heat.ReleasedkJ-o.Heat.StatekJ))
@@ -145,7 +145,11 @@ func (a *Advisor) evaluateIn(req *engine.Request, headspaceL float64) ([]engine.
 // none) and without the pH stated for the mix. A hazard is the stream's own
 // only if the stock gives it off as stored: a drum of peroxide at 25 °C
 // gives off no oxygen, whatever the hot tank it goes into makes of it.
-func (a *Advisor) alone(req *engine.Request) map[string]hazard.Alone {
+//
+// Each stream is also judged in the tank's headspace (headspaceL, the one
+// the points of the pour are judged with, hazard.Alone.InTank), so that a
+// gas is compared with the stream's own at the same gas space.
+func (a *Advisor) alone(req *engine.Request, headspaceL float64) map[string]hazard.Alone {
 	out := map[string]hazard.Alone{}
 	for _, s := range req.Streams {
 		r := streamAlone(req, s)
@@ -161,7 +165,11 @@ func (a *Advisor) alone(req *engine.Request) map[string]hazard.Alone {
 		if err != nil {
 			continue
 		}
-		out[streamKey(s)] = hazard.Alone{Name: pour.Name(&s), Hazards: hs}
+		al := hazard.Alone{Name: pour.Name(&s), Hazards: hs}
+		if in, err := a.evaluateIn(&r, headspaceL); err == nil {
+			al.InTank = in
+		}
+		out[streamKey(s)] = al
 	}
 	return out
 }

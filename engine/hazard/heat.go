@@ -40,9 +40,20 @@ func judgeHeat(o *Outcome) []engine.Hazard {
 		// Where the streams meet the liquid runs well above the mean: a mix
 		// whose mean reaches 80 °C boils and spits locally when poured in one
 		// go (Bretherick's Handbook, acids with bases, from memory).
-		z = mk("near-boiling", engine.Danger,
+		sev, act := engine.Danger, heatAction(h)
+		if dilutionHeat(o) {
+			// Most of the heat is that of diluting or dissolving: run
+			// slowly into the water with cooling and stirring, the tank
+			// never reaches the mean of a mix made in one go. A routine
+			// make-up (acid into four volumes of water), not a reason
+			// to refuse; the pour judges the order (water into the
+			// concentrate boils where it lands) and a mix whose mean
+			// boils stays a danger (common practice, no source).
+			sev, act = engine.Warning, "Never mix in one go: run the concentrated liquid slowly into the water, never the reverse, with cooling and stirring, so that the tank stays well below "+fmtNum(NearBoilC, 2)+" °C; wear a face shield."
+		}
+		z = mk("near-boiling", sev,
 			"The mix releases "+fmtNum(h.ReleasedkJ, 3)+" kJ and reaches about "+fmtNum(h.ReachedC, 3)+" °C on average: where the streams meet it boils and spits.",
-			heatAction(h), src)
+			act, src)
 	case h.ReachedC >= ScaldC:
 		z = mk("scalding-heat", engine.Warning,
 			"The mix releases "+fmtNum(h.ReleasedkJ, 3)+" kJ and reaches about "+fmtNum(h.ReachedC, 3)+" °C: hot enough to scald.",
@@ -56,6 +67,33 @@ func judgeHeat(o *Outcome) []engine.Hazard {
 	}
 	z.Heat = hj
 	return []engine.Hazard{z}
+}
+
+// dilutionHeat: the heat is mostly that of diluting concentrated reagents
+// or dissolving solids, none of a reaction: at least half of it counted as
+// such, or the mix is one chemical poured dry into water (caustic flakes:
+// the state's own change of the solid to ions). A weak acid or ammonia
+// meeting a base is counted in the state, not as dilution, and stays out.
+func dilutionHeat(o *Outcome) bool {
+	h := o.Heat
+	if h.Reactions || !(h.ReleasedkJ > 0) {
+		return false
+	}
+	return h.MixingkJ >= 0.5*h.ReleasedkJ || oneSolidIntoWater(o)
+}
+
+// oneSolidIntoWater: the streams are water and one chemical poured dry.
+func oneSolidIntoWater(o *Outcome) bool {
+	n := 0
+	for _, c := range o.Chemicals {
+		if c == "H2O" {
+			continue
+		}
+		if n++; n > 1 || !o.SolidStream(c) {
+			return false
+		}
+	}
+	return n == 1
 }
 
 // heatAction is what to do about a mix that boils or nearly boils: more

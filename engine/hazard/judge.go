@@ -145,14 +145,16 @@ var chromeReductionActions = [2]string{
 func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 	ps := pools(o, d)
 	type judged struct {
-		p  *pool
-		hs Headspace
+		p    *pool
+		hs   Headspace
+		cold float64 // headspace ppm before the mix's own heat moved it
 	}
 	js := map[string]judged{}
 	total := 0.0
 	for _, f := range d.order {
 		g, p := d.Gases[f], ps[f]
 		var hs Headspace
+		cold := 0.0
 		if m, ok := o.Measured[f]; ok && !(p.beyond > m.Mol) {
 			// The mixed state has this gas: its numbers, not an estimate.
 			p = &pool{mol: m.Mol, molecular: 1, origins: []string{"the mix at equilibrium"}, equilibrium: true}
@@ -170,6 +172,15 @@ func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 				ppm := p.mol * litreBarPerMolK() * o.TemperatureK() / (o.PressureKPa / 100) / o.HeadspaceL * 1e6
 				hs = Headspace{PPM: math.Min(ppm, 1e6), Vents: !(ppm < 1e6)}
 			} else if w, ok := warmedOff(o, g, m); ok {
+				if o.Heat.ReachedC < NearBoilC {
+					// Warmed below near-boiling, the mix dosed slowly
+					// with cooling and the temperature watched (the
+					// action of its heat hazard) stays near the streams'
+					// own: the cold figure is what it then holds. A mix
+					// that nearly boils drives the gas out in earnest
+					// (common practice, no source).
+					cold = hs.PPM
+				}
 				p, hs = w.pool, w.hs
 			}
 		} else {
@@ -178,7 +189,7 @@ func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 		if !(hs.Vents && hs.PPM >= 1e6) {
 			p, hs = fromVapourTable(o, d, f, p, hs)
 		}
-		js[f] = judged{p, hs}
+		js[f] = judged{p, hs, cold}
 		total += hs.PPM
 	}
 	var out []engine.Hazard
@@ -204,7 +215,11 @@ func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 		if !(ratio >= WarningRatio) || tinyPuff(o, g, hs, p) {
 			continue
 		}
-		out = append(out, gasHazard(o, g, p, hs, ratio))
+		h := gasHazard(o, g, p, hs, ratio)
+		if c := js[f].cold; c > 0 && h.Gas != nil {
+			h.Gas.ColdPPM = sig(c)
+		}
+		out = append(out, h)
 	}
 	return out
 }

@@ -37,6 +37,13 @@ func relative(mix []engine.Hazard, alone []Alone, final bool) []engine.Hazard {
 				h.Severity = engine.Warning
 				h.Title = strings.TrimPrefix(h.Title, "releases ") + " over the mix above its limit, as over " + b + " alone"
 				h.Action = "Work with extraction running and the precautions of " + b + " itself (its safety data sheet); keep the tank covered."
+				if h.Gas.ColdPPM > 0 {
+					// The figure above is the mix at the temperature its
+					// own heat reaches; dosed slowly and kept cool it holds
+					// no more than the stream alone.
+					h.Message += " Kept at the streams' temperature the mix holds about " + fmtNum(h.Gas.ColdPPM, 3) + " ppm, no more than over " + b + " alone: the rise comes from the mix's own heat."
+					h.Action += " Dose slowly and keep the mix cool: its own heat drives the gas out."
+				}
 				if h.Gas.Ratio >= RespiratorRatio {
 					h.Action += " Near an open tank wear respiratory protection: the fumes stand at " + fmtNum(h.Gas.Ratio, 2) + "× " + h.Gas.LimitName + " over the liquid."
 				}
@@ -97,6 +104,13 @@ var alwaysOwnToMix = map[string]bool{"boils": true, "near-boiling": true, "solid
 type Alone struct {
 	Name    string
 	Hazards []engine.Hazard
+	// InTank are the stream's hazards alone in the gas space of the tank
+	// the mix is made in (the headspace its points are judged with): a
+	// gas is compared at the same headspace, so that a drum's own sulfur
+	// dioxide, judged by amount under the tank's headspace at a point of
+	// the pour, is not taken for a gas the pour makes. Nil when the
+	// tank's headspace is the stream's own.
+	InTank []engine.Hazard
 }
 
 // ownHazard finds a stream that alone has the hazard at least as badly.
@@ -105,15 +119,22 @@ func ownHazard(h engine.Hazard, alone []Alone) (string, bool) {
 		return "", false
 	}
 	for _, a := range alone {
-		for _, b := range a.Hazards {
+		for _, b := range append(a.Hazards[:len(a.Hazards):len(a.Hazards)], a.InTank...) {
 			if b.Code != h.Code {
 				continue
 			}
 			if h.Gas != nil && b.Gas != nil {
 				// A gas that fills the headspace either way is compared by
-				// the amount that can leave the liquid.
-				worse := h.Gas.HeadspacePPM > b.Gas.HeadspacePPM*1.05 ||
-					(h.Gas.HeadspacePPM >= 1e6*0.999 && h.Gas.Mol > b.Gas.Mol*1.05)
+				// the amount that can leave the liquid. A gas the mix's own
+				// heat drives out is compared at the streams' temperature:
+				// the heat is judged by its own hazard, whose action (dose
+				// slowly, watch the temperature) keeps the mix near it.
+				ppm := h.Gas.HeadspacePPM
+				if h.Gas.ColdPPM > 0 {
+					ppm = h.Gas.ColdPPM
+				}
+				worse := ppm > b.Gas.HeadspacePPM*1.05 ||
+					(ppm >= 1e6*0.999 && h.Gas.Mol > b.Gas.Mol*1.05)
 				if !worse {
 					return a.Name, true
 				}

@@ -123,13 +123,24 @@ func silverAmmonia(o *Outcome) (engine.Hazard, bool) {
 func hydrofluoric(o *Outcome) (engine.Hazard, bool) {
 	hf := math.Max(o.MolarBefore("HF"), o.Molar("HF"))
 	msg := "Hydrofluoric acid (" + fmtNum(hf, 2) + " mol/L HF): burns show up late and fluoride poisons through the skin; concentrated acid fumes (IDLH 30 ppm)."
-	if hf < 1e-3 {
-		// The mix takes the acid up (caustic, lime), but the operator
-		// still handles the hydrofluoric acid on its way in.
-		if !o.Named("HF", "NH4HF2") {
+	if hf < hfBurnMolar {
+		// Below burn strength (fluoride salts in water: a fluoridation
+		// make-up of sodium fluoride and silicofluoride holds a few mmol/L
+		// HF at pH 3–4) no HF rule fires from the trace. The mix takes a
+		// named acid up (caustic, lime), but the operator still handles
+		// the hydrofluoric acid on its way in.
+		switch {
+		case o.Named("HF", "NH4HF2"):
+			msg = "Hydrofluoric acid is handled on its way into the mix, which takes it up: splashes and fumes burn late and fluoride poisons through the skin (IDLH 30 ppm)."
+		case o.Named("H2SiF6"):
+			// The trade acid (20–25 %) is a strong acid whose fumes carry
+			// hydrogen fluoride; its data sheets treat splashes as HF
+			// burns (suppliers' safety data sheets, calcium gluconate
+			// first aid, from memory).
+			msg = "Fluorosilicic acid is handled on its way into the mix: a strong acid whose fumes carry hydrogen fluoride, splashes treated as hydrofluoric acid burns (IDLH 30 ppm)."
+		default:
 			return engine.Hazard{}, false
 		}
-		msg = "Hydrofluoric acid is handled on its way into the mix, which takes it up: splashes and fumes burn late and fluoride poisons through the skin (IDLH 30 ppm)."
 	}
 	// The acid's own hazard is a warning with its precautions: diluting
 	// 40 % acid to 20 % for a pickle is routine work. Concentrated acid
@@ -139,10 +150,29 @@ func hydrofluoric(o *Outcome) (engine.Hazard, bool) {
 		sev = engine.Danger
 		msg += " The mix heats it to about " + fmtNum(o.Heat.ReachedC, 2) + " °C, where it fumes heavily."
 	}
-	return mk("hf-burns", sev, msg,
-		"Wear HF-rated gloves and face shield, keep calcium gluconate gel at hand, work with extraction; add the acid into the water, never the reverse; transfer concentrated or anhydrous HF closed, or below the liquid surface.",
-		"NIOSH Pocket Guide, hydrogen fluoride, IDLH 30 ppm (from memory); calcium gluconate first aid and closed transfer: common practice, no source; danger from 10 mol/L heated to 60 °C: common practice, no source"), true
+	act := "Wear HF-rated gloves and face shield, keep calcium gluconate gel at hand, work with extraction."
+	if hf >= hfStrongMolar {
+		// Strong acid meets water in this mix: the order and the closed
+		// transfer matter. A dilute acid neutralised with a dry dose (lime
+		// into 5 % acid) has no water to run it into.
+		act = "Wear HF-rated gloves and face shield, keep calcium gluconate gel at hand, work with extraction; add the acid into the water, never the reverse; transfer concentrated or anhydrous HF closed, or below the liquid surface."
+	}
+	return mk("hf-burns", sev, msg, act,
+		"NIOSH Pocket Guide, hydrogen fluoride, IDLH 30 ppm (from memory); calcium gluconate first aid and closed transfer: common practice, no source; danger from 10 mol/L heated to 60 °C: common practice, no source; burn strength from 0.05 mol/L (about 0.1 %): EU CLP Annex VI specific concentration limits for hydrofluoric acid, skin irritant from 0.1 % (from memory)"), true
 }
+
+// hfBurnMolar is the HF (molecular, in the mix as combined or after) from
+// which the hydrofluoric-acid rule fires: about 0.1 % w/w, where the EU CLP
+// Annex VI specific concentration limits for hydrofluoric acid begin (skin
+// irritant 0.1–1 %, corrosive from 1 %; from memory). Sodium silicofluoride
+// in water (about pH 3.5) holds a few mmol/L and causes no HF burns (AWWA
+// fluoridation practice, from memory).
+const hfBurnMolar = 0.05
+
+// hfStrongMolar is the HF from which the action names the order of
+// addition and the closed transfer of concentrated acid: about 10 % w/w
+// (common practice, no source).
+const hfStrongMolar = 5.0
 
 // hfHotC is the temperature from which concentrated hydrofluoric acid in a
 // mix fumes heavily (its vapour pressure about quadruples from 25 to
