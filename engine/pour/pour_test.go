@@ -241,7 +241,7 @@ func TestDoseTheSmallerStream(t *testing.T) {
 	bulk := engine.PourOrder{Added: "rinse", Into: "peroxide", AddedL: 800, IntoL: 5, Hazards: h}
 	drum := engine.PourOrder{Added: "peroxide", Into: "rinse", AddedL: 5, IntoL: 800,
 		Hazards: []engine.PourHazard{{Code: "cyanide-oxidation", Worst: engine.Warning, FromFraction: 0.001, ToFraction: 1}}}
-	if got := pairAdvice(bulk, drum); !strings.HasPrefix(got, "Dose peroxide slowly into rinse") {
+	if got := pairAdvice(&bulk, &drum); !strings.HasPrefix(got, "Dose peroxide slowly into rinse") || !drum.Advised || bulk.Advised {
 		t.Errorf("advice %q", got)
 	}
 }
