@@ -56,6 +56,12 @@ func advice(add *engine.Addition) string {
 	// A sequence of three or more streams that meets no danger keeps the
 	// unsafe pairs apart.
 	safeSeq := len(add.Sequences) > 0 && rank(add.Sequences[0].Worst) < 3
+	// A sequence named before this advice sets the order of every pair:
+	// a pair's own advice that runs the other way is left out.
+	var seq *engine.PourSequence
+	if sequenceAdvice(add.Sequences, add.Orders) != "" {
+		seq = &add.Sequences[0]
+	}
 	for i := 0; i+1 < len(add.Orders); i += 2 {
 		x, y := &add.Orders[i], &add.Orders[i+1]
 		if worst(*x) == 0 && worst(*y) == 0 {
@@ -70,7 +76,12 @@ func advice(add *engine.Addition) string {
 			parts = append(parts, "Never let "+x.Added+" and "+x.Into+" meet neat ("+codes(*x)+" while "+x.Added+" runs into "+x.Into+", "+codes(*y)+" the other way).")
 			continue
 		}
-		if a := pairAdvice(x, y); !slices.Contains(parts, a) {
+		a := pairAdvice(x, y)
+		if seq != nil && ((x.Advised && againstSequence(x, seq)) || (y.Advised && againstSequence(y, seq))) {
+			x.Advised, x.Dosed, y.Advised, y.Dosed = false, false, false, false
+			continue
+		}
+		if !slices.Contains(parts, a) {
 			parts = append(parts, a)
 		}
 	}
