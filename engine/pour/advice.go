@@ -164,17 +164,31 @@ func dosed(good, bad engine.PourOrder) string {
 		return "Bring " + bad.Into + " to neutral first (pH 7 or more), then dose " + bad.Added + " slowly into it: as they are, " +
 			bad.Added + " into " + bad.Into + " meets " + codes(bad) + " from " + pct(firstWorst(bad)) + " of the addition" + tail
 	}
-	return "Dose " + bad.Added + " slowly into " + bad.Into + ", under control, holding the pH the actions above name: without that, it meets " +
+	return "Dose " + bad.Added + " slowly into " + bad.Into + ", under control, holding the pH at " + holdPH(bad, Rank(&good)) + " or more: without that, it meets " +
 		gasesBeyond(bad, Rank(&good)) + " from " + pct(firstWorst(bad)) + " of the addition" + tail
 }
 
-// pHGases are the gases that holding the tank's pH keeps in the liquid:
-// chlorine from hypochlorite (above pH 7), hydrogen cyanide and cyanogen
-// chloride (pH 10.5 or more), hydrogen sulfide (alkaline), sulfur dioxide
-// (neutral or above). Common practice, no source; White's Handbook of
-// Chlorination, cyanogen chloride below pH 10 (from memory).
-var pHGases = map[string]bool{"chlorine-release": true, "hcn-release": true, "cyanogen-chloride-release": true,
-	"h2s-release": true, "so2-release": true}
+// holdPH is the pH at or above which the tank keeps in the liquid every
+// gas of o above the rank r (the highest of their pHGases floors).
+func holdPH(o engine.PourOrder, r int) string {
+	ph := 0.0
+	for _, h := range o.Hazards {
+		if h.Code != "warms" && rank(h.Worst) > r {
+			ph = max(ph, pHGases[h.Code])
+		}
+	}
+	return strconv.FormatFloat(ph, 'f', -1, 64)
+}
+
+// pHGases are the gases that holding the tank's pH keeps in the liquid,
+// with the pH to hold: chlorine from hypochlorite 7 or more, hydrogen
+// cyanide and cyanogen chloride 10.5 or more (alkaline cyanide treatment:
+// common practice, no source; White's Handbook of Chlorination, cyanogen
+// chloride below pH 10, from memory), hydrogen sulfide 10 or more (pKa1
+// about 7, CRC Handbook, from memory: a thousandth left as H2S), sulfur
+// dioxide 7 or more (common practice, no source).
+var pHGases = map[string]float64{"chlorine-release": 7, "hcn-release": 10.5, "cyanogen-chloride-release": 10.5,
+	"h2s-release": 10, "so2-release": 7}
 
 // pHGasesBeyond reports whether every hazard of o above the rank r is one
 // of the pHGases (and there is one).
@@ -184,7 +198,7 @@ func pHGasesBeyond(o engine.PourOrder, r int) bool {
 		if h.Code == "warms" || rank(h.Worst) <= r {
 			continue
 		}
-		if !pHGases[h.Code] {
+		if _, ok := pHGases[h.Code]; !ok {
 			return false
 		}
 		n++

@@ -269,7 +269,7 @@ func TestOneRuleForTheOrder(t *testing.T) {
 	bulk := engine.PourOrder{Added: "rinse", Into: "bleach", AddedL: 600, IntoL: 30, Hazards: []engine.PourHazard{warn("cyanide-oxidation", 0.001)}}
 	dose := engine.PourOrder{Added: "bleach", Into: "rinse", AddedL: 30, IntoL: 600, Hazards: []engine.PourHazard{
 		{Code: "hcn-release", Worst: engine.Danger, FromFraction: 0.001, ToFraction: 0.3}, warn("cyanide-oxidation", 0.001)}}
-	if got := pairAdvice(&bulk, &dose); !strings.HasPrefix(got, "Dose bleach slowly into rinse, under control, holding the pH") || !dose.Advised || !dose.Dosed || bulk.Advised {
+	if got := pairAdvice(&bulk, &dose); !strings.HasPrefix(got, "Dose bleach slowly into rinse, under control, holding the pH at 10.5 or more") || !dose.Advised || !dose.Dosed || bulk.Advised {
 		t.Errorf("advice %q, advised %v/%v", got, dose.Advised, bulk.Advised)
 	}
 	// A danger the pH does not decide is not dosed into: the larger stream
