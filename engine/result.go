@@ -137,6 +137,14 @@ type PourOrder struct {
 	// mass), so the advice can tell when an order runs a tank into a drum.
 	AddedL float64 `json:"added_l,omitempty"`
 	IntoL  float64 `json:"into_l,omitempty"`
+	// Advised marks the order of its pair that the advice names (at most
+	// one of the two; none when either order will do or neither is safe):
+	// the decision's title and the written-order check name the same one.
+	Advised bool `json:"advised,omitempty"`
+	// Dosed: the advised order is the smaller stream dosed under control
+	// into the much larger one, although running the larger into the
+	// smaller meets less (which is not practical at those volumes).
+	Dosed bool `json:"dosed,omitempty"`
 }
 
 // PourHazard is one hazard met along a pour, between two fractions of the

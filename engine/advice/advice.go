@@ -70,6 +70,32 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 		res.Notes = append(res.Notes, BleachCausticNote)
 	}
 	res.Notes = append(res.Notes, "gas concentrations are for "+HeadspaceBasis(o.HeadspaceL, o.HeadspaceStated)+", at equilibrium")
+	// tankPH is the pH of the tank a point of the pour was poured into
+	// (every stream of the point but the last, the one added), solved
+	// once per tank: the pour judges whether the tank has crossed the
+	// middle of the pH range between two points.
+	tanks := map[string]float64{}
+	tankPH := func(r *engine.Request) float64 {
+		n := len(r.Streams) - 1
+		if n < 1 {
+			return math.NaN()
+		}
+		key := ""
+		for _, s := range r.Streams[:n] {
+			key += streamKey(s) + fmt.Sprintf("\x00%g\x00%g\x01", s.VolumeL, s.MassKg)
+		}
+		if ph, ok := tanks[key]; ok {
+			return ph
+		}
+		t := *r
+		t.Streams = r.Streams[:n]
+		ph := math.NaN()
+		if _, to, err := a.judgeIn(&t, o.HeadspaceL); err == nil {
+			ph = to.PH
+		}
+		tanks[key] = ph
+		return ph
+	}
 	res.Addition = pour.AnalyseLocal(req, func(r *engine.Request) ([]engine.Hazard, error) {
 		if r.TempFromStreams {
 			// A point of the pour starts at the temperature of the
@@ -78,8 +104,11 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 			// temperature of the finished mix.
 			r.TemperatureK, _ = engine.StreamsTemperatureK(r.Streams)
 		}
-		hs, err := a.evaluateIn(r, o.HeadspaceL)
-		return hazard.Relative(hazard.AlongPour(hs), pick(alone, r.Streams)), err
+		hs, po, err := a.judgeIn(r, o.HeadspaceL)
+		if err != nil {
+			return nil, err
+		}
+		return hazard.Relative(hazard.AlongPourAt(hs, po, func() float64 { return tankPH(r) }), pick(alone, r.Streams)), nil
 	}, a.landing(req, a.concentrates(req)))
 	if res.Addition == nil {
 		res.Addition = &engine.Addition{Orders: []engine.PourOrder{}, Advice: "One stream: nothing is poured into anything."}
@@ -131,13 +160,19 @@ func (a *Advisor) evaluate(req *engine.Request) ([]engine.Hazard, error) {
 // evaluateIn judges one point of a pour in a tank whose headspace is
 // headspaceL (see hazard.Outcome.InTank).
 func (a *Advisor) evaluateIn(req *engine.Request, headspaceL float64) ([]engine.Hazard, error) {
+	hs, _, err := a.judgeIn(req, headspaceL)
+	return hs, err
+}
+
+// judgeIn is evaluateIn with the Outcome judged.
+func (a *Advisor) judgeIn(req *engine.Request, headspaceL float64) ([]engine.Hazard, *hazard.Outcome, error) {
 	res, err := a.Engine.PredictBrief(req)
 	if err != nil {
-		return nil, err
+		return nil, nil, err
 	}
 	o := hazard.FromResult(res, a.Engine.Tables)
 	o.InTank(headspaceL)
-	return hazard.Judge(o, a.Gases), nil
+	return hazard.Judge(o, a.Gases), o, nil
 }
 
 // alone judges each stream by itself, keyed by streamKey: as it is stored

@@ -4,6 +4,7 @@ import (
 	"strings"
 
 	"mixward/engine"
+	"mixward/engine/pour"
 )
 
 // NoConcernTitle is the decision's title when nothing of concern forms.
@@ -52,8 +53,12 @@ func Decide(final []engine.Hazard, add *engine.Addition) engine.Decision {
 		if finalW < 2 {
 			d.Title = worseOrderTitle(add, choice)
 		}
-		d.Title += "; order of addition matters: add " + choice.Added + " into " + choice.Into
-		if w := add.Written; w != nil && w.Worse && w.Added == choice.Into {
+		if choice.Dosed {
+			d.Title += "; order of addition matters: dose " + choice.Added + " into " + choice.Into + " under control"
+		} else {
+			d.Title += "; order of addition matters: add " + choice.Added + " into " + choice.Into
+		}
+		if w := add.Written; w != nil && w.Worse && w.Added == choice.Into && !choice.Dosed {
 			// The request wrote the worse order: say so first.
 			d.Title = "not in the order written: " + strings.TrimSuffix(worseOrderTitle(add, choice), " if poured the other way") +
 				" while " + w.Added + " runs into " + w.Into + "; add " + choice.Added + " into " + choice.Into + " instead"
@@ -241,7 +246,14 @@ func pourLevels(add *engine.Addition) (best int, order *engine.PourOrder, all in
 		}
 		all = max(all, wx, wy)
 		if d := max(wx, wy) - pb; d > 0 && max(wx, wy) > gap {
+			// The order the pour advice names (pour.Rank's choice, or
+			// the smaller stream dosed into the larger).
 			gap, choice = max(wx, wy), good
+			if y.Advised {
+				choice = y
+			} else if x.Advised {
+				choice = x
+			}
 		}
 	}
 	return best, order, all, choice
@@ -252,16 +264,7 @@ func pourLevels(add *engine.Addition) (best int, order *engine.PourOrder, all in
 // of part of the tank is no hazard of the pour, and a warning for it (water
 // run onto a heap of trisodium phosphate warms the first litre) teaches
 // operators to ignore warnings. The final mix's own warming still counts.
-func orderRank(o *engine.PourOrder) int {
-	w := 0
-	for _, h := range o.Hazards {
-		if h.Code == "warms" {
-			continue
-		}
-		w = max(w, rank(h.Worst))
-	}
-	return w
-}
+func orderRank(o *engine.PourOrder) int { return pour.Rank(o) }
 
 // sequenceRank is orderRank over the steps of a sequence.
 func sequenceRank(s *engine.PourSequence) int {

@@ -85,3 +85,28 @@ func TestHeatActionFollowsItsCause(t *testing.T) {
 		t.Errorf("dilution %q, reaction %q", dilution, reaction)
 	}
 }
+
+// TestSilicaGelAlongThePour: a point of the pour gels throughout the tank
+// only between about pH 3 and 10, or once the tank has crossed that range
+// from where it started (Iler, The Chemistry of Silica, 1979, gel time
+// against pH, from memory).
+func TestSilicaGelAlongThePour(t *testing.T) {
+	hs := []engine.Hazard{{Code: "silica-gel", Severity: engine.Warning}}
+	tank := func(ph float64) func() float64 { return func() float64 { return ph } }
+	for _, c := range []struct {
+		name       string
+		ph, tankPH float64
+		want       bool
+	}{
+		{"silicate tank, acid in deficit", 12, 13, false},
+		{"middle of the range", 7, 13, true},
+		{"acid tank, silicate in deficit", 1, 0.5, false},
+		{"acid tank crossed to alkaline", 12, 0.5, true},
+		{"silicate tank crossed to acid", 1, 13, true},
+	} {
+		o := &Outcome{PH: c.ph}
+		if got := len(AlongPourAt(hs, o, tank(c.tankPH))) == 1; got != c.want {
+			t.Errorf("%s: silica-gel kept %v, want %v", c.name, got, c.want)
+		}
+	}
+}

@@ -23,11 +23,27 @@ var standingCodes = map[string]bool{"warm-bleach": true, "peracid-forming": true
 // AlongPour drops from the hazards of one point of a pour those of the mix
 // as it stands, which the final mix reports.
 func AlongPour(hs []engine.Hazard) []engine.Hazard {
+	return AlongPourAt(hs, nil, nil)
+}
+
+// AlongPourAt is AlongPour for a point judged as o (nil: not known) in a
+// tank whose pH before the addition tankPH gives (called only when needed;
+// nil or NaN: not known). A point of the pour outside the pH range where
+// silica gels throughout the tank (SilicaGelLowPH to SilicaGelHighPH)
+// keeps no silica-gel of its own unless the tank started on the other side
+// of that range and so has passed through it: the gel where the acid lands
+// is the final mix's, whichever the order, and the pour then shows which
+// order keeps the tank on the side of its end point.
+func AlongPourAt(hs []engine.Hazard, o *Outcome, tankPH func() float64) []engine.Hazard {
 	out := hs[:0:0]
 	for _, h := range hs {
-		if !standingCodes[h.Code] {
-			out = append(out, h)
+		if standingCodes[h.Code] {
+			continue
 		}
+		if h.Code == "silica-gel" && o != nil && !silicaGelsAt(o.PH) && !crossed(o.PH, tankPH) {
+			continue
+		}
+		out = append(out, h)
 	}
 	return out
 }
@@ -144,4 +160,14 @@ func warmPersulfate(o *Outcome) (engine.Hazard, bool) {
 	return mk("warm-persulfate", engine.Warning, msg+".",
 		"Vent the tank and use the batch promptly; keep organic matter, solvents and rags away from it; do not store it warm in a closed vessel.",
 		"Kolthoff and Miller, J. Am. Chem. Soc. 1951, persulfate decomposition rates (from memory); Bretherick's Handbook of Reactive Chemical Hazards, peroxodisulfates and peroxomonosulfuric acid (from memory); 60 °C threshold: common practice, no source"), true
+}
+
+// crossed reports whether a tank that started at the pH tankPH gives has
+// passed through the silica gel range to reach ph.
+func crossed(ph float64, tankPH func() float64) bool {
+	if tankPH == nil {
+		return false
+	}
+	t := tankPH()
+	return (t <= SilicaGelLowPH && ph >= SilicaGelHighPH) || (t >= SilicaGelHighPH && ph <= SilicaGelLowPH)
 }

@@ -17,39 +17,71 @@ func worst(o engine.PourOrder) int {
 	return w
 }
 
-// span is how much of the addition the order's worst hazards cover.
-func span(o engine.PourOrder) float64 {
-	w, s := worst(o), 0.0
+// Rank is the worst hazard met along an order, the one rule by which the
+// orders of a pair are compared, here and in the decision (hazard.Decide):
+// a mix that only warms on the way (below scalding: "warms") counts for
+// nothing, since a passing warm-up of part of the tank is no hazard of the
+// pour.
+func Rank(o *engine.PourOrder) int {
+	w := 0
 	for _, h := range o.Hazards {
-		if rank(h.Worst) == w {
+		if h.Code == "warms" {
+			continue
+		}
+		w = max(w, rank(h.Worst))
+	}
+	return w
+}
+
+// span is how much of the addition the order's worst hazards cover (by
+// Rank; by the warm-up when that is all the order meets).
+func span(o engine.PourOrder) float64 {
+	w, s := Rank(&o), 0.0
+	for _, h := range o.Hazards {
+		if w > 0 && h.Code == "warms" {
+			continue
+		}
+		if rank(h.Worst) == w || (w == 0 && h.Code == "warms") {
 			s += h.ToFraction - h.FromFraction + 0.001
 		}
 	}
 	return s
 }
 
-// advice compares the orders of each pair of streams and says which to use.
+// advice compares the orders of each pair of streams, says which to use and
+// marks it Advised.
 func advice(add *engine.Addition) string {
 	var parts []string
 	quiet := 0
 	// A sequence of three or more streams that meets no danger keeps the
 	// unsafe pairs apart.
 	safeSeq := len(add.Sequences) > 0 && rank(add.Sequences[0].Worst) < 3
+	// A sequence named before this advice sets the order of every pair:
+	// a pair's own advice that runs the other way is left out.
+	var seq *engine.PourSequence
+	if sequenceAdvice(add.Sequences, add.Orders) != "" {
+		seq = &add.Sequences[0]
+	}
 	for i := 0; i+1 < len(add.Orders); i += 2 {
-		x, y := add.Orders[i], add.Orders[i+1]
-		if worst(x) == 0 && worst(y) == 0 {
+		x, y := &add.Orders[i], &add.Orders[i+1]
+		if worst(*x) == 0 && worst(*y) == 0 {
 			quiet++
 			if len(add.Orders) > 2 {
 				continue // with three or more streams only the pairs that matter are named
 			}
 		}
-		if safeSeq && worst(x) >= 3 && worst(y) >= 3 && !heatOnly(x) && !heatOnly(y) {
+		if safeSeq && Rank(x) >= 3 && Rank(y) >= 3 && !heatOnly(*x) && !heatOnly(*y) {
 			// With three or more streams such a pair meets only in the
 			// sequence named before this advice, never neat.
-			parts = append(parts, "Never let "+x.Added+" and "+x.Into+" meet neat ("+codes(x)+" while "+x.Added+" runs into "+x.Into+", "+codes(y)+" the other way).")
+			parts = append(parts, "Never let "+x.Added+" and "+x.Into+" meet neat ("+codes(*x)+" while "+x.Added+" runs into "+x.Into+", "+codes(*y)+" the other way).")
 			continue
 		}
-		if a := pairAdvice(x, y); !slices.Contains(parts, a) {
+		a := pairAdvice(x, y)
+		if seq != nil && ((x.Advised && againstSequence(x, seq)) || (y.Advised && againstSequence(y, seq))) {
+			x.Advised, x.Dosed, y.Advised, y.Dosed = false, false, false, false
+			continue
+		}
+		if !slices.Contains(parts, a) {
 			parts = append(parts, a)
 		}
 	}
@@ -59,45 +91,130 @@ func advice(add *engine.Addition) string {
 	return strings.Join(parts, " ")
 }
 
-func pairAdvice(x, y engine.PourOrder) string {
-	wx, wy := worst(x), worst(y)
+// pairAdvice chooses between the two orders of a pair by one rule, marks
+// the one it names Advised (and Dosed) and says why:
+//   - the order of the lower Rank, unless it runs a stream ten or more times
+//     larger into the smaller and what the other order meets beyond it is
+//     a gas that holding the pH (or neutralising first) prevents: then the
+//     smaller stream is dosed into the larger under that control (a
+//     treatment reagent into the waste tank; common practice, no source);
+//   - at the same Rank, the smaller stream dosed into the larger when one is
+//     ten times the other, else the order that meets its hazards over less
+//     of the pour.
+//
+// No order is named when neither is safe or nothing of concern appears.
+func pairAdvice(x, y *engine.PourOrder) string {
+	rx, ry := Rank(x), Rank(y)
 	switch {
-	case wx == 0 && wy == 0:
+	case worst(*x) == 0 && worst(*y) == 0:
 		return "Either order: nothing of concern appears along the pour of " + x.Added + " and " + x.Into + "."
-	case wx >= 3 && wy >= 3 && heatOnly(x) && heatOnly(y):
+	case rx >= 3 && ry >= 3 && heatOnly(*x) && heatOnly(*y):
 		return "Neither order is safe with this little water: use more water and run the concentrate into it slowly, with cooling and stirring (" +
-			codes(x) + " while " + x.Added + " runs into " + x.Into + ", " + codes(y) + " the other way)."
-	case wx >= 3 && wy >= 3:
-		return "Neither order is safe: " + codes(x) + " while " + x.Added + " runs into " + x.Into + ", " + codes(y) + " the other way."
-	case wx < wy:
+			codes(*x) + " while " + x.Added + " runs into " + x.Into + ", " + codes(*y) + " the other way)."
+	case rx >= 3 && ry >= 3:
+		return "Neither order is safe: " + codes(*x) + " while " + x.Added + " runs into " + x.Into + ", " + codes(*y) + " the other way."
+	case rx < ry:
 		return better(x, y)
-	case wy < wx:
+	case ry < rx:
 		return better(y, x)
-	case bulkInto(x):
+	case bulkInto(*x):
 		// Both orders meet the same level: running a tank into a drum to
 		// shorten the stretch is no practical advice; dose the drum.
-		return doseSmall(y)
-	case bulkInto(y):
-		return doseSmall(x)
-	case span(x) < span(y):
-		return lessens(x, y)
-	case span(y) < span(x):
-		return lessens(y, x)
+		y.Advised = true
+		return doseSmall(*y)
+	case bulkInto(*y):
+		x.Advised = true
+		return doseSmall(*x)
+	case span(*x) < span(*y):
+		x.Advised = true
+		return lessens(*x, *y)
+	case span(*y) < span(*x):
+		y.Advised = true
+		return lessens(*y, *x)
 	}
-	return "Both orders meet the same hazards (" + codes(x) + "); no order of addition avoids them: follow the actions above."
+	return "Both orders meet the same hazards (" + codes(*x) + "); no order of addition avoids them: follow the actions above."
 }
 
-func better(good, bad engine.PourOrder) string {
-	s := "Add " + good.Added + " into " + good.Into + ", slowly; never " + bad.Added + " into " + bad.Into + " (" + codes(bad) + " from " + pct(firstWorst(bad)) + " of the addition)."
-	if worst(good) > 0 {
-		s += " That order still meets " + codes(good) + "."
+// better advises good, of the lower Rank, over bad; or, when good runs a
+// much larger stream into the smaller and bad meets beyond it only gases
+// that the pH decides, bad dosed under control.
+func better(good, bad *engine.PourOrder) string {
+	if bulkInto(*good) && pHGasesBeyond(*bad, Rank(good)) {
+		bad.Advised, bad.Dosed = true, true
+		return dosed(*good, *bad)
 	}
-	if good.IntoL > 0 && good.AddedL >= 10*good.IntoL && acidGasOnly(bad) {
-		// Running a tank into a drum is seldom practical: the gas comes
-		// from the acid of the larger stream, which can be changed first.
-		s += " At these volumes, rather bring " + good.Added + " to neutral first (pH 7 or more), then run " + good.Into + " into it."
+	good.Advised = true
+	s := "Add " + good.Added + " into " + good.Into + ", slowly; never " + bad.Added + " into " + bad.Into + " (" + codes(*bad) + " from " + pct(firstWorst(*bad)) + " of the addition)."
+	if Rank(good) > 0 {
+		s += " That order still meets " + codes(*good) + "."
 	}
 	return s
+}
+
+// dosed is the advice to dose bad.Added, the smaller stream, into the
+// larger under control, when running the larger into it (good) meets less
+// but is not practical. Running a tank into a drum is seldom practical: a
+// treatment reagent is dosed into the waste tank, with its pH held (common
+// practice, no source).
+func dosed(good, bad engine.PourOrder) string {
+	tail := "; running " + good.Added + " into " + good.Into + " meets less but is not practical at these volumes."
+	if acidGasOnly(bad) {
+		// The gas comes from the acid of the larger stream, which can be
+		// changed first.
+		return "Bring " + bad.Into + " to neutral first (pH 7 or more), then dose " + bad.Added + " slowly into it: as they are, " +
+			bad.Added + " into " + bad.Into + " meets " + codes(bad) + " from " + pct(firstWorst(bad)) + " of the addition" + tail
+	}
+	return "Dose " + bad.Added + " slowly into " + bad.Into + ", under control, holding the pH at " + holdPH(bad, Rank(&good)) + " or more: without that, it meets " +
+		gasesBeyond(bad, Rank(&good)) + " from " + pct(firstWorst(bad)) + " of the addition" + tail
+}
+
+// holdPH is the pH at or above which the tank keeps in the liquid every
+// gas of o above the rank r (the highest of their pHGases floors).
+func holdPH(o engine.PourOrder, r int) string {
+	ph := 0.0
+	for _, h := range o.Hazards {
+		if h.Code != "warms" && rank(h.Worst) > r {
+			ph = max(ph, pHGases[h.Code])
+		}
+	}
+	return strconv.FormatFloat(ph, 'f', -1, 64)
+}
+
+// pHGases are the gases that holding the tank's pH keeps in the liquid,
+// with the pH to hold: chlorine from hypochlorite 7 or more, hydrogen
+// cyanide and cyanogen chloride 10.5 or more (alkaline cyanide treatment:
+// common practice, no source; White's Handbook of Chlorination, cyanogen
+// chloride below pH 10, from memory), hydrogen sulfide 10 or more (pKa1
+// about 7, CRC Handbook, from memory: a thousandth left as H2S), sulfur
+// dioxide 7 or more (common practice, no source).
+var pHGases = map[string]float64{"chlorine-release": 7, "hcn-release": 10.5, "cyanogen-chloride-release": 10.5,
+	"h2s-release": 10, "so2-release": 7}
+
+// pHGasesBeyond reports whether every hazard of o above the rank r is one
+// of the pHGases (and there is one).
+func pHGasesBeyond(o engine.PourOrder, r int) bool {
+	n := 0
+	for _, h := range o.Hazards {
+		if h.Code == "warms" || rank(h.Worst) <= r {
+			continue
+		}
+		if _, ok := pHGases[h.Code]; !ok {
+			return false
+		}
+		n++
+	}
+	return n > 0
+}
+
+// gasesBeyond names the hazards of o above the rank r, each once.
+func gasesBeyond(o engine.PourOrder, r int) string {
+	var cs []string
+	for _, h := range o.Hazards {
+		if h.Code != "warms" && rank(h.Worst) > r && !slices.Contains(cs, h.Code) {
+			cs = append(cs, h.Code)
+		}
+	}
+	return strings.Join(cs, ", ")
 }
 
 // acidGasOnly reports whether every hazard of an order is a gas that acid
@@ -128,7 +245,11 @@ func lessens(good, bad engine.PourOrder) string {
 
 func firstWorst(o engine.PourOrder) float64 {
 	w, f := worst(o), 1.0
+	r := Rank(&o)
 	for _, h := range o.Hazards {
+		if r > 0 && h.Code == "warms" {
+			continue // named by the hazards that count (Rank)
+		}
 		if rank(h.Worst) == w && h.FromFraction < f {
 			f = h.FromFraction
 		}
@@ -138,7 +259,8 @@ func firstWorst(o engine.PourOrder) float64 {
 
 // codes names the hazards an order meets, each once; of the graded heat
 // hazards only the hottest is named (the pour passes through the milder
-// ones on the way to it).
+// ones on the way to it), and a mere warm-up not beside a hazard that
+// counts.
 func codes(o engine.PourOrder) string {
 	var cs []string
 	seen := map[string]bool{}
@@ -146,9 +268,13 @@ func codes(o engine.PourOrder) string {
 	for _, h := range o.Hazards {
 		hottest = max(hottest, heatGrade[h.Code])
 	}
+	counts := Rank(&o) > 0
 	for _, h := range o.Hazards {
 		if g := heatGrade[h.Code]; g > 0 && g < hottest {
 			continue
+		}
+		if counts && h.Code == "warms" {
+			continue // no hazard of the pour beside one that counts (Rank)
 		}
 		if !seen[h.Code] {
 			seen[h.Code] = true
@@ -186,9 +312,11 @@ func Written(add *engine.Addition, req *engine.Request) {
 		return
 	}
 	// The orders of a pair come as (second into first, first into second).
+	// The written order is judged by the rule that chose the advised one:
+	// it is the worse one only when the other is advised.
 	w, other := add.Orders[1], add.Orders[0]
-	add.Written = &engine.WrittenOrder{Added: w.Added, Into: w.Into, Worse: worst(w) > worst(other)}
-	if ww := worst(w); ww > 0 && ww == worst(other) && firstWorst(w) < firstWorst(other)/2 {
+	add.Written = &engine.WrittenOrder{Added: w.Added, Into: w.Into, Worse: !w.Advised && other.Advised && Rank(&w) > Rank(&other)}
+	if ww := worst(w); ww > 0 && ww == worst(other) && !w.Advised && firstWorst(w) < firstWorst(other)/2 {
 		// Neither order avoids the hazard, but the one written meets it
 		// much sooner (water into strong acid boils at the first drop).
 		add.Advice = "The order written is the worse one: " + codes(w) + " from " + pct(firstWorst(w)) + " of the addition while " +

@@ -241,7 +241,52 @@ func TestDoseTheSmallerStream(t *testing.T) {
 	bulk := engine.PourOrder{Added: "rinse", Into: "peroxide", AddedL: 800, IntoL: 5, Hazards: h}
 	drum := engine.PourOrder{Added: "peroxide", Into: "rinse", AddedL: 5, IntoL: 800,
 		Hazards: []engine.PourHazard{{Code: "cyanide-oxidation", Worst: engine.Warning, FromFraction: 0.001, ToFraction: 1}}}
-	if got := pairAdvice(bulk, drum); !strings.HasPrefix(got, "Dose peroxide slowly into rinse") {
+	if got := pairAdvice(&bulk, &drum); !strings.HasPrefix(got, "Dose peroxide slowly into rinse") || !drum.Advised || bulk.Advised {
 		t.Errorf("advice %q", got)
+	}
+}
+
+// TestOneRuleForTheOrder: the advice chooses by Rank, which leaves out a
+// mere warm-up, as the decision's title does; the written order is judged
+// by the same choice; a treatment reagent is dosed into the much larger
+// tank when what it meets beyond the other order is a gas that holding the
+// pH prevents (hypochlorite into a cyanide rinse held at pH 10.5 or more
+// under ORP control: common practice, no source).
+func TestOneRuleForTheOrder(t *testing.T) {
+	warn := func(code string, from float64) engine.PourHazard {
+		return engine.PourHazard{Code: code, Worst: engine.Warning, FromFraction: from, ToFraction: 1}
+	}
+	// Peroxide into stannous chloride scalds; the other way only warms,
+	// over more of the pour.
+	hot := engine.PourOrder{Added: "peroxide", Into: "tin", AddedL: 20, IntoL: 100,
+		Hazards: []engine.PourHazard{{Code: "warms", Worst: engine.Warning, FromFraction: 0.07, ToFraction: 0.2}, {Code: "scalding-heat", Worst: engine.Warning, FromFraction: 0.3, ToFraction: 0.8}}}
+	mild := engine.PourOrder{Added: "tin", Into: "peroxide", AddedL: 100, IntoL: 20, Hazards: []engine.PourHazard{warn("warms", 0.07)}}
+	if got := pairAdvice(&hot, &mild); !strings.HasPrefix(got, "Add tin into peroxide") || !mild.Advised || hot.Advised || strings.Contains(got, "warms") {
+		t.Errorf("advice %q, advised %v/%v", got, mild.Advised, hot.Advised)
+	}
+	// 600 L of rinse into 30 L of bleach meets less, but the bleach is
+	// dosed into the rinse with its pH held.
+	bulk := engine.PourOrder{Added: "rinse", Into: "bleach", AddedL: 600, IntoL: 30, Hazards: []engine.PourHazard{warn("cyanide-oxidation", 0.001)}}
+	dose := engine.PourOrder{Added: "bleach", Into: "rinse", AddedL: 30, IntoL: 600, Hazards: []engine.PourHazard{
+		{Code: "hcn-release", Worst: engine.Danger, FromFraction: 0.001, ToFraction: 0.3}, warn("cyanide-oxidation", 0.001)}}
+	if got := pairAdvice(&bulk, &dose); !strings.HasPrefix(got, "Dose bleach slowly into rinse, under control, holding the pH at 10.5 or more") || !dose.Advised || !dose.Dosed || bulk.Advised {
+		t.Errorf("advice %q, advised %v/%v", got, dose.Advised, bulk.Advised)
+	}
+	// A danger the pH does not decide is not dosed into: the larger stream
+	// still runs into the smaller.
+	bulk.Advised, dose.Advised, dose.Dosed = false, false, false
+	dose.Hazards[0].Code = "nitrogen-trichloride"
+	if got := pairAdvice(&bulk, &dose); !strings.HasPrefix(got, "Add rinse into bleach") || !bulk.Advised || dose.Advised {
+		t.Errorf("advice %q", got)
+	}
+	// Written: acid written into a silicate tank that it is advised into
+	// is not the worse order, whatever meets its hazard sooner.
+	acid := engine.PourOrder{Added: "acid", Into: "silicate", AddedL: 20, IntoL: 400, Hazards: []engine.PourHazard{warn("silica-gel", 0.001)}}
+	sil := engine.PourOrder{Added: "silicate", Into: "acid", AddedL: 400, IntoL: 20, Hazards: []engine.PourHazard{warn("silica-gel", 0.003)}}
+	add := &engine.Addition{Orders: []engine.PourOrder{sil, acid}}
+	add.Advice = advice(add)
+	Written(add, &engine.Request{PourInto: true, Streams: make([]engine.Stream, 2)})
+	if add.Written == nil || add.Written.Worse || strings.Contains(add.Advice, "worse") || !add.Orders[1].Advised {
+		t.Errorf("written %+v, advice %q", add.Written, add.Advice)
 	}
 }

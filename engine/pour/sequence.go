@@ -60,6 +60,12 @@ func sequences(req *engine.Request, eval Evaluate, orders map[[2]int]engine.Pour
 	}
 	sort.SliceStable(idx, func(a, b int) bool {
 		i, j := idx[a], idx[b]
+		// By the rule the decision follows (Rank over the steps, then
+		// the worst severity), so that the sequence advised is the
+		// title's.
+		if ri, rj := seqRank(&out[i]), seqRank(&out[j]); ri != rj {
+			return ri < rj
+		}
 		wi, wj := rank(out[i].Worst), rank(out[j].Worst)
 		if wi != wj {
 			return wi < wj
@@ -248,4 +254,20 @@ func sequenceAdvice(seqs []engine.PourSequence, orders []engine.PourOrder) strin
 		return s + ": that sequence keeps apart the streams that meet " + strings.Join(pair, ", ") + " when run directly into each other."
 	}
 	return s + ": nothing of concern appears along that sequence."
+}
+
+// seqRank is Rank over the steps of a sequence.
+func seqRank(s *engine.PourSequence) int {
+	w := 0
+	for i := range s.Steps {
+		w = max(w, Rank(&s.Steps[i]))
+	}
+	return w
+}
+
+// againstSequence reports whether running o.Added into o.Into goes against
+// the sequence s, in which every stream runs into those before it.
+func againstSequence(o *engine.PourOrder, s *engine.PourSequence) bool {
+	a, b := slices.Index(s.Streams, o.Added), slices.Index(s.Streams, o.Into)
+	return a >= 0 && b >= 0 && a < b
 }
