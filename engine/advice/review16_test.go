@@ -17,6 +17,7 @@ func TestReview16(t *testing.T) {
 		level     engine.Level
 		want      string // a hazard code that must be there ("" for none)
 		not       string // a hazard code that must not be there, final or along the pour
+		finalNot  string // a hazard code that must not be there in the final mix
 	}{
 		{
 			// Hydrazine with nitrite and a strong acid: the acid is the
@@ -73,6 +74,21 @@ func TestReview16(t *testing.T) {
 			level: engine.WithPrecautions, not: "hot-dithionite",
 		},
 		{
+			// Piranha: three parts of 96 % sulfuric acid to one of 30 %
+			// peroxide forms Caro's acid (Bretherick's Handbook, hydrogen
+			// peroxide with sulfuric acid, from memory); with a solvent in
+			// the mix it is a danger.
+			name: "piranha with isopropanol", req: "mix 30 L H2O2 30 % + 90 L sulfuric acid 96 % + 5 L isopropanol",
+			level: engine.DoNotMix, want: "caro-acid-forming",
+		},
+		{
+			// Dilute peroxide and acid in a rinse tank: no Caro's acid in
+			// the mix (the pair poured neat, peroxide into the 50 % acid,
+			// does form some along its pour).
+			name: "dilute peroxide and acid rinse", req: "mix 1000 L water + 10 L H2O2 35 % + 10 L sulfuric acid 50 %",
+			level: engine.WithPrecautions, finalNot: "caro-acid-forming",
+		},
+		{
 			// A litre of 5 % bleach with a litre of 5 % citric acid: a few
 			// millilitres of chlorine, far above its limit over the liquid
 			// (the amount threshold of a pour point must not hide it).
@@ -91,6 +107,9 @@ func TestReview16(t *testing.T) {
 			}
 			if tc.want != "" && !codes[tc.want] {
 				t.Errorf("no %s among %v", tc.want, hazardCodes(r))
+			}
+			if tc.finalNot != "" && codes[tc.finalNot] {
+				t.Errorf("%s fires in the final mix", tc.finalNot)
 			}
 			for _, o := range r.Addition.Orders {
 				for _, h := range o.Hazards {

@@ -12,7 +12,7 @@ import (
 // peroxide and acetic acid, peracid breaking down in alkali). Each rule
 // names its source.
 var slowRules = []func(o *Outcome) (engine.Hazard, bool){
-	chromiumVILeft, chlorateKept, peracidForming, warmHypochlorite, warmPersulfate,
+	chromiumVILeft, chlorateKept, peracidForming, warmHypochlorite, warmPersulfate, caroAcid,
 }
 
 // standingCodes are hazards of the mix as it stands (it changes over hours:
@@ -160,6 +160,40 @@ func warmPersulfate(o *Outcome) (engine.Hazard, bool) {
 	return mk("warm-persulfate", engine.Warning, msg+".",
 		"Vent the tank and use the batch promptly; keep organic matter, solvents and rags away from it; do not store it warm in a closed vessel.",
 		"Kolthoff and Miller, J. Am. Chem. Soc. 1951, persulfate decomposition rates (from memory); Bretherick's Handbook of Reactive Chemical Hazards, peroxodisulfates and peroxomonosulfuric acid (from memory); 60 °C threshold: common practice, no source"), true
+}
+
+// Caro's acid thresholds (mol/L in the mix before reaction; common
+// practice, no source): peroxide of about 5 % and sulfuric acid of about
+// 40 % and more, where peroxymonosulfuric acid forms in a share that
+// matters (the cleaning "piranha" mixes are 3–4 parts of 96 % acid to one
+// of 30 % peroxide: about 2.4 mol/L peroxide in 13 mol/L acid).
+const (
+	CaroPeroxideMolar = 1.5
+	CaroSulfuricMolar = 5.0
+)
+
+// caroAcid: concentrated peroxide with strong sulfuric acid forms
+// peroxymonosulfuric (Caro's) acid, H2O2 + H2SO4 ⇌ H2SO5 + H2O, which
+// fires organic matter (solvents, rags, gloves, residues) and gives off
+// oxygen as it stands, faster warm: such mixes are kept open and free of
+// organics (Bretherick's Handbook of Reactive Chemical Hazards, hydrogen
+// peroxide with sulfuric acid, peroxomonosulfuric acid; from memory). The
+// state holds its share back as within the table's uncertainty; the rule
+// names it. With organic liquid in the mix it is a danger.
+func caroAcid(o *Outcome) (engine.Hazard, bool) {
+	h2o2 := o.MolarBefore("H2O2", "HO2-")
+	acid := o.MolarBefore("H2SO4", "HSO4-", "SO4^2-")
+	if h2o2 < CaroPeroxideMolar || acid < CaroSulfuricMolar || o.PH >= 0.5 {
+		return engine.Hazard{}, false
+	}
+	sev, act := engine.Warning, "Keep the mix in an open, vented vessel, never closed; keep solvents, oils, rags, gloves and other organic matter away; make only what is needed and let it cool before disposal."
+	if org, _ := organicLiquid(o, true); org >= OrganicLiquidMolar {
+		sev, act = engine.Danger, "Do not combine with organic matter: peroxymonosulfuric acid reacts violently, possibly explosively, with solvents and other organics."
+	}
+	return mk("caro-acid-forming", sev,
+		"Peroxide ("+fmtNum(h2o2, 2)+" mol/L) with strong sulfuric acid ("+fmtNum(acid, 2)+" mol/L) forms peroxymonosulfuric (Caro's) acid: a strong oxidizer that fires organic matter and gives off oxygen as it stands, faster warm.",
+		act,
+		"Bretherick's Handbook of Reactive Chemical Hazards, hydrogen peroxide with sulfuric acid and peroxomonosulfuric acid (from memory); thresholds 1.5 mol/L peroxide and 5 mol/L sulfuric acid: common practice, no source"), true
 }
 
 // crossed reports whether a tank that started at the pH tankPH gives has
