@@ -89,6 +89,15 @@ func TestReview16(t *testing.T) {
 			level: engine.WithPrecautions, finalNot: "caro-acid-forming",
 		},
 		{
+			// Borohydride in caustic reducing copper: the fresh copper
+			// catalyses the hydrolysis of the excess borohydride even at
+			// pH 14 (Bretherick's Handbook, sodium tetrahydroborate with
+			// metal salts, from memory): 50 L of 12 % is about 190 mol
+			// BH4-, copper takes about 40, up to about 600 mol H2.
+			name: "borohydride on copper", req: "mix 50 L sodium borohydride 12 %, NaOH 40 % + 500 L copper sulfate 5 %",
+			level: engine.DoNotMix, want: "hydrogen-release",
+		},
+		{
 			// A litre of 5 % bleach with a litre of 5 % citric acid: a few
 			// millilitres of chlorine, far above its limit over the liquid
 			// (the amount threshold of a pour point must not hide it).
