@@ -181,3 +181,22 @@ func TestComplexedCyanideInAcidNamesHCN(t *testing.T) {
 		t.Errorf("cyanide-complexed in acid: %+v, want an action that leads with not acidifying and names hydrogen cyanide", h)
 	}
 }
+
+// TestCatalysedPeroxideNotInPortions: iron salts catalyse the breakdown of
+// peroxide and are not used up (Bretherick's Handbook of Reactive Chemical
+// Hazards, hydrogen peroxide with metal salts, from memory): dosing the iron
+// "in small portions, letting each finish" cannot control it, since the
+// first portion breaks down the whole tank. A pair that uses its partner up
+// (hypochlorite with peroxide) is still dosed slowly.
+func TestCatalysedPeroxideNotInPortions(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "mix 500 L H2O2 50 % + 50 L ferrous sulfate 20 %")
+	h, ok := hazardOf(r, "boils")
+	if !ok || strings.Contains(h.Action, "small portions") || !strings.Contains(h.Action, "not used up") {
+		t.Errorf("peroxide with iron: boils %+v, want the catalyst named, not small portions", h)
+	}
+	r = ask(t, a, "mix 200 L sodium hydroxide 20 % + 5 kg aluminium")
+	if h, ok := hazardOf(r, "boils"); !ok || !strings.Contains(h.Action, "small portions") {
+		t.Errorf("aluminium in caustic: boils %+v, want small portions", h)
+	}
+}

@@ -79,8 +79,8 @@ func TestSequenceDangerLeadsTheTitle(t *testing.T) {
 // source), not for the heat of a reaction (aluminium in caustic), which is
 // taken in small portions with cooling.
 func TestHeatActionFollowsItsCause(t *testing.T) {
-	dilution := heatAction(Heat{Known: true, ReleasedkJ: 40000, MixingkJ: 38000})
-	reaction := heatAction(Heat{Known: true, ReleasedkJ: 40000, MixingkJ: 2000, Reactions: true})
+	dilution := heatAction(&Outcome{}, Heat{Known: true, ReleasedkJ: 40000, MixingkJ: 38000})
+	reaction := heatAction(&Outcome{}, Heat{Known: true, ReleasedkJ: 40000, MixingkJ: 2000, Reactions: true})
 	if !strings.Contains(dilution, "use more water") || !strings.Contains(reaction, "small portions") {
 		t.Errorf("dilution %q, reaction %q", dilution, reaction)
 	}

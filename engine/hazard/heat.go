@@ -23,7 +23,7 @@ func judgeHeat(o *Outcome) []engine.Hazard {
 	var z engine.Hazard
 	switch {
 	case h.Boils:
-		msg, act := "The mix releases "+fmtNum(h.ReleasedkJ, 3)+" kJ and would reach about "+fmtNum(h.ReachedC, 3)+" °C: it boils and spits hot liquid and mist", heatAction(h)
+		msg, act := "The mix releases "+fmtNum(h.ReleasedkJ, 3)+" kJ and would reach about "+fmtNum(h.ReachedC, 3)+" °C: it boils and spits hot liquid and mist", heatAction(o, h)
 		if h.SteamKg >= 0.1 {
 			mol := h.SteamKg * 1000 / steamMolarMass
 			msg += ", boiling off about " + fmtNum(h.SteamKg, 2) + " kg of water as steam (" + fmtNum(engine.GasVolumeL(mol, BoilingC+273.15, 101.325)/1000, 2) + " m³ at 100 °C)"
@@ -40,7 +40,7 @@ func judgeHeat(o *Outcome) []engine.Hazard {
 		// Where the streams meet the liquid runs well above the mean: a mix
 		// whose mean reaches 80 °C boils and spits locally when poured in one
 		// go (Bretherick's Handbook, acids with bases, from memory).
-		sev, act := engine.Danger, heatAction(h)
+		sev, act := engine.Danger, heatAction(o, h)
 		if dilutionHeat(o) {
 			// Most of the heat is that of diluting or dissolving: run
 			// slowly into the water with cooling and stirring, the tank
@@ -96,12 +96,27 @@ func oneSolidIntoWater(o *Outcome) bool {
 	return n == 1
 }
 
+// catalysedPeroxide reports whether the mix breaks peroxide down on a
+// catalyst or by its own alkali, not by a partner it uses up: peroxide is
+// there, oxygen forms, and no pair of agents gives it (OCl- + H2O2 → O2 is
+// dosed in portions) unless a fast catalyst breaks down the rest
+// (chromium(VI), permanganate, manganese dioxide, carbon).
+func catalysedPeroxide(o *Outcome) bool {
+	if o == nil || o.MolarBefore("H2O2", "HO2-") < TraceMolar || !(o.GasMol("O2") > 0 || o.Measured["O2"].Mol > 0) {
+		return false
+	}
+	return !pairGivesOxygen(o) || fastPeroxideCatalyst(o)
+}
+
 // heatAction is what to do about a mix that boils or nearly boils: more
 // water and the concentrate run slowly into it when the heat is mostly
 // that of diluting or dissolving; small portions into an open, vented tank
 // with cooling when a reaction gives most of it (aluminium in caustic:
 // more water does not take the reaction's heat away, only spreads it).
-func heatAction(h Heat) string {
+func heatAction(o *Outcome, h Heat) string {
+	if catalysedPeroxide(o) {
+		return "Do not combine: the catalyst (a metal salt, or the alkali) is not used up, so a small portion of it breaks down all the peroxide it reaches, with oxygen and heat; adding it slowly does not help. To destroy peroxide, dilute it well first and add the catalyst to the dilute liquor in an open, vented tank."
+	}
 	if h.Reactions && h.MixingkJ < 0.5*h.ReleasedkJ {
 		return "Do not mix in one go: add the reacting stream in small portions with cooling and stirring, into an open, vented tank, letting each portion finish before the next; wear a face shield."
 	}
