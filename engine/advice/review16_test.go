@@ -98,6 +98,31 @@ func TestReview16(t *testing.T) {
 			level: engine.DoNotMix, want: "hydrogen-release",
 		},
 		{
+			// Ammonium nitrate blended dry with caustic flakes: ammonia
+			// with heat once the caustic draws moisture (Bretherick's
+			// Handbook, ammonium salts with bases, from memory).
+			name: "dry ammonium nitrate with caustic", req: "mix 25 kg ammonium nitrate + 5 kg sodium hydroxide",
+			level: engine.DoNotMix, want: "dry-blend-ammonia",
+		},
+		{
+			// Ammonium sulfate with salt: nothing.
+			name: "dry ammonium sulfate with salt", req: "mix 25 kg ammonium sulfate + 10 kg sodium chloride",
+			level: engine.NoConcern, not: "dry-blend-ammonia",
+		},
+		{
+			// Iodine with strong ammonia: nitrogen triiodide (Bretherick's
+			// Handbook, iodine with ammonia, from memory).
+			name: "iodine with ammonia", req: "mix 50 L ammonia 25 % + 2 kg iodine",
+			level: engine.DoNotMix, want: "nitrogen-triiodide",
+		},
+		{
+			// Peroxide on potassium iodide, neutral: the foaming
+			// breakdown, catalysed (Greenwood & Earnshaw, hydrogen
+			// peroxide, from memory): 50 L of 35 % is 572 mol, 286 mol O2.
+			name: "peroxide on iodide", req: "mix 100 L potassium iodide 10 % + 50 L H2O2 35 %",
+			level: engine.DoNotMix, want: "oxygen-surge",
+		},
+		{
 			// A litre of 5 % bleach with a litre of 5 % citric acid: a few
 			// millilitres of chlorine, far above its limit over the liquid
 			// (the amount threshold of a pour point must not hide it).

@@ -865,6 +865,57 @@ func dryNitriteAmmonium(o *Outcome) (engine.Hazard, bool) {
 		"Bretherick's Handbook of Reactive Chemical Hazards, ammonium nitrite and sodium nitrite with ammonium salts (from memory); sodium nitrite safety data sheets, incompatible with ammonium salts (common practice, no source)"), true
 }
 
+// dryBases are the solid strong bases of the dictionary.
+var dryBases = []string{"NaOH", "KOH", "LiOH", "Ca(OH)2", "CaO"}
+
+// dryAmmoniumCaustic: an ammonium salt blended dry with a solid strong
+// base gives off ammonia with heat as soon as the blend takes up moisture
+// (caustic soda draws it from the air): NH4+ + OH- → NH3 + H2O, about one
+// ammonia for each hydroxide, in a drum, a hopper or a damp store
+// (common practice, no source; Bretherick's Handbook of Reactive Chemical
+// Hazards, ammonium salts with bases, from memory). With ammonium nitrate
+// the caustic also lowers its decomposition temperature.
+func dryAmmoniumCaustic(o *Outcome) (engine.Hazard, bool) {
+	if o.VolumeL > 0 {
+		return engine.Hazard{}, false
+	}
+	var ammonium, base string
+	for _, c := range o.SolidChemicals {
+		switch {
+		case slices.Contains(dryBases, c):
+			base = c
+		case strings.Contains(c, "NH4"):
+			ammonium = c
+		}
+	}
+	if ammonium == "" || base == "" {
+		return engine.Hazard{}, false
+	}
+	kg := math.Min(o.SolidKg[ammonium], o.SolidKg[base])
+	return mk("dry-blend-ammonia", engine.Danger,
+		"The ammonium salt "+ammonium+" blended dry with "+base+" gives off ammonia with heat as soon as the blend takes up moisture ("+base+" draws it from humid air): up to one ammonia for each hydroxide, several cubic metres of gas from tens of kilograms ("+fmtNum(kg, 3)+" kg of the smaller of the two here), in a drum, a hopper or a closed store.",
+		"Do not blend, store or bag together; keep ammonium salts apart from caustic soda, potash and lime, and dissolve each separately into plenty of water with ventilation.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, ammonium salts with bases (from memory); caustic soda hygroscopic, ammonia from ammonium salts and alkali: common practice, no source"), true
+}
+
+// nitrogenTriiodide: iodine with concentrated ammonia (about 1 mol/L of
+// free ammonia and more, with the mix alkaline) throws down nitrogen
+// triiodide–ammonia (NI3·NH3), a black solid that detonates at a touch
+// once dry; dilute ammonia and iodide-rich iodine solutions (I3-) give
+// less, but the solid is the hazard wherever iodine meets strong ammonia
+// (Bretherick's Handbook of Reactive Chemical Hazards, iodine with
+// ammonia, from memory; 1 mol/L threshold: common practice, no source).
+func nitrogenTriiodide(o *Outcome) (engine.Hazard, bool) {
+	iodine := o.MolarBefore("I2", "I3-")
+	if iodine < FamilyTraceMolar && !o.Named("I2") || o.MolarBefore("NH3") < 1 || o.PH < 9 {
+		return engine.Hazard{}, false
+	}
+	return mk("nitrogen-triiodide", engine.Danger,
+		"Iodine with concentrated ammonia ("+fmtNum(o.MolarBefore("NH3"), 2)+" mol/L) throws down nitrogen triiodide, a black solid that detonates at a touch, a vibration or a fly once dry; wet sludge on a tank wall or in a drain dries to it.",
+		"Do not combine. Keep iodine and iodine solutions away from ammonia; if it has happened, keep the solid wet and ask for its destruction (sodium thiosulfate solution) by trained staff.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, iodine with ammonia (nitrogen triiodide), from memory; destruction with thiosulfate: common practice, no source"), true
+}
+
 // noHalogen reports whether the atoms hold no halogen (HCl, HF are acids,
 // not hydrides).
 func noHalogen(a engine.Atoms) bool {

@@ -75,6 +75,9 @@ func fastPeroxideCatalyst(o *Outcome) bool {
 	if o.MolarBefore("H2O2", "HO2-") < TraceMolar {
 		return false
 	}
+	if o.MolarBefore("I-") >= TraceMolar && o.PH >= 5 {
+		return true // iodide, neutral or alkaline: the foaming breakdown (Greenwood & Earnshaw, hydrogen peroxide, from memory)
+	}
 	return o.MolarBefore("Cr2O7^2-", "CrO4^2-", "HCrO4-", "H2CrO4", "MnO4-") >= TraceMolar || o.Named("MnO2", "C")
 }
 

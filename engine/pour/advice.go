@@ -240,7 +240,12 @@ func doseSmall(o engine.PourOrder) string {
 }
 
 func lessens(good, bad engine.PourOrder) string {
-	return "Add " + good.Added + " into " + good.Into + ", slowly: it meets " + codes(good) + " over less of the pour than the other way."
+	c := codes(good)
+	if c == "" {
+		// The good order meets nothing: name what the other way meets.
+		return "Add " + good.Added + " into " + good.Into + ", slowly: the other way meets " + codes(bad) + "."
+	}
+	return "Add " + good.Added + " into " + good.Into + ", slowly: it meets " + c + " over less of the pour than the other way."
 }
 
 func firstWorst(o engine.PourOrder) float64 {
