@@ -123,6 +123,13 @@ func TestReview16(t *testing.T) {
 			level: engine.DoNotMix, want: "oxygen-surge",
 		},
 		{
+			// Ammonium persulfate 20 % (about 0.9 mol/L in the mix) with
+			// neat glycol: slow cold, runaway warm (Bretherick's Handbook,
+			// peroxodisulfates with organic matter, from memory).
+			name: "persulfate with glycol", req: "mix 200 L ammonium persulfate 20 % + 20 L ethylene glycol",
+			level: engine.WithPrecautions, want: "oxidizer-organic-heat",
+		},
+		{
 			// A litre of 5 % bleach with a litre of 5 % citric acid: a few
 			// millilitres of chlorine, far above its limit over the liquid
 			// (the amount threshold of a pour point must not hide it).

@@ -313,8 +313,13 @@ var strongOxidizers = []strongOxidizer{
 		electrons: 8, organic: OrganicLiquidMolar, slow: true},
 	{name: "Nitrate", reagent: "NO3-", species: []string{"NO3-"}, solids: []string{"NaNO3", "KNO3", "NH4NO3", "Ca(NO3)2"},
 		electrons: 5, organic: OrganicLiquidMolar, slow: true},
+	// A persulfate solution oxidizes alcohols and glycols slowly in the
+	// cold but with runaway heat once warm (about 50–60 °C, where it
+	// breaks into sulfate radicals): Bretherick's Handbook, peroxodisulfates
+	// with organic matter, from memory; 0.5 mol/L: common practice, no
+	// source.
 	{name: "Persulfate", reagent: "S2O8^2-", species: []string{"S2O8^2-"}, solids: []string{"Na2S2O8", "K2S2O8", "(NH4)2S2O8"},
-		electrons: 2, organic: OrganicLiquidMolar, slow: true},
+		electrons: 2, solution: 0.5, organic: OrganicLiquidMolar, slow: true},
 	{name: "Sodium peroxide", reagent: "O2^2-", species: []string{"HO2-"}, solids: []string{"Na2O2"},
 		electrons: 2, organic: OrganicLiquidMolar},
 }
