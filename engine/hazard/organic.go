@@ -186,6 +186,14 @@ func peracids(o *Outcome) (engine.Hazard, bool) {
 	if a < peracidAcidMolar || o.PH >= 1 {
 		return engine.Hazard{}, false // acetic acid alone: peracidForming's note
 	}
+	if o.MolarBefore("CH3CO3H", "CH3CO3-") >= 0.2*a {
+		// The acetic acid and peroxide are those of an equilibrium
+		// peracetic acid product (15 % grades hold about as much acetic
+		// acid as peracid): a mineral acid only speeds the approach to an
+		// equilibrium already reached, and its water shifts it back
+		// (peracetic acid suppliers' technical data, from memory).
+		return engine.Hazard{}, false
+	}
 	return mk("peracid-runaway", engine.Danger,
 		"Acetic or propionic acid ("+fmtNum(a, 2)+" mol/L in the mix) with concentrated hydrogen peroxide ("+fmtNum(p, 2)+" mol/L) and a mineral acid (pH "+fmtNum(o.PH, 2)+") forms the peracid within minutes, with heat and oxygen: it fires organic matter and decomposes violently when it warms or meets metals.",
 		"Do not combine. Peracid is made only under a written procedure: cooled, vented, stabilised, with the catalyst acid dosed as the procedure says.",
