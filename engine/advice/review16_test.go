@@ -138,6 +138,24 @@ func TestReview16(t *testing.T) {
 			level: engine.NoConcern, not: "peracid-runaway",
 		},
 		{
+			// Copper(II) with cyanide: cyanogen, up to half the copper
+			// (Greenwood & Earnshaw, cyanogen, from memory).
+			name: "copper sulfate with cyanide", req: "mix 100 L sodium cyanide 5 % + 100 L copper sulfate 10 %",
+			level: engine.DoNotMix, want: "cyanogen-release",
+		},
+		{
+			// A copper cyanide plating bath (copper(I)) gives none.
+			name: "copper cyanide bath diluted", req: "mix 500 L copper cyanide 30 g/L, NaCN 20 g/L + 100 L water",
+			level: engine.NoConcern, not: "cyanogen-release",
+		},
+		{
+			// Silver nitrate, nitric acid and ethanol: the fulminate
+			// (Bretherick's Handbook, silver nitrate with ethanol, from
+			// memory).
+			name: "silver nitrate, nitric acid and ethanol", req: "mix 100 L silver nitrate 10 % + 50 L HNO3 65 % + 50 L ethanol",
+			level: engine.DoNotMix, want: "silver-fulminate",
+		},
+		{
 			// A litre of 5 % bleach with a litre of 5 % citric acid: a few
 			// millilitres of chlorine, far above its limit over the liquid
 			// (the amount threshold of a pour point must not hide it).

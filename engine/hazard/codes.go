@@ -89,6 +89,8 @@ var codes = []Code{
 	{"chloroform-formation", "forms chloroform (haloform reaction)", nil},
 	{"heavy-metal-azide", "forms explosive heavy-metal azides", nil},
 	{"nitrogen-triiodide", "iodine with strong ammonia: explosive nitrogen triiodide", nil},
+	{"silver-fulminate", "silver salt with nitric acid and ethanol: explosive fulminate", nil},
+	{"cyanogen-release", "copper(II) with cyanide: gives off toxic cyanogen", []string{"toxic-gas", "cyanide-present"}},
 	{"mixed-chlorinators", "different chlorinating products: fire, chlorine, nitrogen trichloride", nil},
 	{"chromium-vi-exposure", "hexavalent chromium (causes cancer)", []string{"carcinogen-cr6"}},
 	{"chromium-vi-not-reduced", "chromium(VI) not reduced at this pH", []string{"carcinogen-cr6"}},

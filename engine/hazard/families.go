@@ -19,7 +19,7 @@ var familyRules = []func(o *Outcome) (engine.Hazard, bool){
 	solidHypochlorite, magnesiumWater, cyanideOxidation, halideSulfuric, chlorateSulfuric, hotElectrolessNickel, nitricMetalFumes, aluminiumNitricSlow,
 	chlorateSulfite, hydrazineOxidizer, chloricAcid,
 	// organic, azide and solid-chlorinator families (organic.go)
-	organicPeroxides, perchlorateEsters, peracidAlkali, peracids, oxidizerOrganic, unassessedFuel, dryOxidizerFuel, dryNitriteAmmonium, dryAmmoniumCaustic, nitrogenTriiodide, azideForming, azideLeft, dryChlorinatorAcid, dryAcidCarbonate, bisChloromethylEther,
+	organicPeroxides, perchlorateEsters, peracidAlkali, peracids, oxidizerOrganic, unassessedFuel, dryOxidizerFuel, dryNitriteAmmonium, dryAmmoniumCaustic, nitrogenTriiodide, silverFulminate, cyanogenFromCopper, azideForming, azideLeft, dryChlorinatorAcid, dryAcidCarbonate, bisChloromethylEther,
 	cannizzaro, hexamine, formaldehydeHypochlorite, haloform, heavyMetalAzide, mixedChlorinators,
 	// silicate with acid (silica.go)
 	silicaGel,

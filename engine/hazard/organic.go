@@ -929,6 +929,45 @@ func nitrogenTriiodide(o *Outcome) (engine.Hazard, bool) {
 		"Bretherick's Handbook of Reactive Chemical Hazards, iodine with ammonia (nitrogen triiodide), from memory; destruction with thiosulfate: common practice, no source"), true
 }
 
+// silverFulminate: silver ions with nitric acid and ethanol form silver
+// fulminate, AgCNO, a primary explosive that detonates dry, on friction or
+// on shock (the fulminate preparation; mercury behaves the same way):
+// Bretherick's Handbook of Reactive Chemical Hazards, silver nitrate with
+// ethanol and silver fulminate, from memory. Thresholds: 1 mol/L nitric
+// acid, a trace of silver and of ethanol (common practice, no source).
+func silverFulminate(o *Outcome) (engine.Hazard, bool) {
+	ag := metalSaltMolar(o.Before, o.VolumeL, "Ag", "Hg")
+	if ag < FamilyTraceMolar || o.MolarBefore("NO3-", "HNO3") < 1 || o.PH >= 1 || o.MolarBefore("C2H5OH") < FamilyTraceMolar {
+		return engine.Hazard{}, false
+	}
+	return mk("silver-fulminate", engine.Danger,
+		"Silver (or mercury) salt ("+fmtNum(ag, 2)+" mol/L) with nitric acid and ethanol forms the fulminate, a primary explosive: up to "+fmtNum(ag*o.VolumeL, 3)+" mol, crystals that detonate dry, on friction or on shock.",
+		"Do not combine. If it has happened, keep the residue wet, do not scrape, filter or dry it, and call specialists to destroy it.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, silver nitrate with ethanol, silver and mercury fulminates (from memory); thresholds and aftermath: common practice, no source"), true
+}
+
+// cyanogenFromCopper: copper(II) oxidizes cyanide, 2 Cu2+ + 4 CN- → 2
+// CuCN + (CN)2: cyanogen, a very toxic gas, comes off where a copper(II)
+// salt meets free cyanide, up to half the copper (Greenwood & Earnshaw,
+// Chemistry of the Elements, cyanogen, from memory; NIOSH Pocket Guide,
+// cyanogen, REL 10 ppm, from memory). Copper(I) cyanide dissolved in
+// cyanide (the plating bath) gives none.
+func cyanogenFromCopper(o *Outcome) (engine.Hazard, bool) {
+	cu := o.MolarBefore("Cu^2+", "CuOH+", "Cu2(OH)2^2+", "CuSO4", "CuCl+")
+	if o.Named("Cu(OH)2", "CuO") {
+		cu = math.Max(cu, FamilyTraceMolar)
+	}
+	cn := o.MolarBefore("CN-", "HCN")
+	if cu < FamilyTraceMolar || cn < FamilyTraceMolar {
+		return engine.Hazard{}, false
+	}
+	mol := math.Min(cu/2, cn/4) * o.VolumeL
+	return mk("cyanogen-release", engine.Danger,
+		"Copper(II) oxidizes cyanide to cyanogen, (CN)2, a very toxic gas (NIOSH REL 10 ppm), with copper(I) cyanide: up to "+fmtNum(mol, 3)+" mol ("+fmtNum(engine.GasVolumeL(mol, 298.15, 101.325), 3)+" L) where the copper salt meets free cyanide.",
+		"Do not combine. Never add copper(II) salts to cyanide liquors or cyanide to copper baths; if it has happened, leave the area, ventilate and raise the alarm.",
+		"Greenwood & Earnshaw, Chemistry of the Elements, cyanogen from copper(II) and cyanide (from memory); NIOSH Pocket Guide, cyanogen, REL 10 ppm (from memory)"), true
+}
+
 // noHalogen reports whether the atoms hold no halogen (HCl, HF are acids,
 // not hydrides).
 func noHalogen(a engine.Atoms) bool {
