@@ -258,3 +258,19 @@ func TestCatalysedPeroxideNotInPortions(t *testing.T) {
 		t.Errorf("aluminium in caustic: boils %+v, want small portions", h)
 	}
 }
+
+// TestAluminiumInHotCaustic: aluminium dissolves in caustic while it stays
+// strongly alkaline, 2 Al + 2 OH- + 6 H2O → 2 Al(OH)4- + 3 H2 (common
+// practice, no source); the allowance counts the hydroxide above a
+// hydroxide level, not above a pH read at 80 °C, where water ionises more
+// (pKw about 12.6, CRC Handbook, Ionization Constant of Water, from
+// memory). 500 L of 2 % caustic (255 mol OH-) with 5 kg of aluminium
+// (185 mol): aluminium-limited, 278 mol H2, hot as cold.
+func TestAluminiumInHotCaustic(t *testing.T) {
+	a := mustAdvisor(t)
+	for _, req := range []string{"mix 500 L NaOH 2 % + 5 kg aluminium", "mix 500 L NaOH 2 % + 5 kg aluminium at 80 C"} {
+		if h2 := gasMolOf(ask(t, a, req), "H2"); h2 < 250 || h2 > 300 {
+			t.Errorf("%s: H2 %.1f mol, want about 278 (aluminium-limited)", req, h2)
+		}
+	}
+}

@@ -247,8 +247,8 @@ func (m *Model) acidAllowances(mx *Mix, applied []*Lock, st *State, n0 []float64
 					continue
 				}
 				spend = -x * r.Per // the base it takes to reach the pH: the acid that can be spent
-			case r.BaseTo != nil && combined.PH > *r.BaseTo:
-				x, err := m.titrate(mx, n0, volL, *r.BaseTo)
+			case r.BaseTo != nil && combined.PH > baseTarget(mx, *r.BaseTo):
+				x, err := m.titrate(mx, n0, volL, baseTarget(mx, *r.BaseTo))
 				if err != nil || x <= 0 {
 					continue
 				}
@@ -263,6 +263,37 @@ func (m *Model) acidAllowances(mx *Mix, applied []*Lock, st *State, n0 []float64
 		}
 	}
 	return out
+}
+
+// baseTarget is the pH at the mix's temperature with the hydroxide that pH
+// ph has at 25 °C: a "+ base to ph N" allowance counts the hydroxide held
+// above a hydroxide level ("while the solution stays strongly alkaline"),
+// and water ionises more when hot (pKw about 14.0 at 25 °C, 12.6 at 80 °C:
+// CRC Handbook, Ionization Constant of Water, from memory), so the same
+// caustic reads about 1.4 pH units lower at 80 °C. From the species data:
+// pKw(T) = (G(H+) + G(OH-) − G(H2O)) / (RT ln 10).
+func baseTarget(mx *Mix, ph float64) float64 {
+	pkw := func(tempK float64) (float64, bool) {
+		var g float64
+		n := 0
+		for _, sp := range mx.Species {
+			switch sp.Text {
+			case "H+", "OH-":
+				g += sp.GibbsRT(tempK)
+				n++
+			case "H2O":
+				g -= sp.GibbsRT(tempK)
+				n++
+			}
+		}
+		return g / math.Ln10, n == 3
+	}
+	hot, ok1 := pkw(mx.TempK)
+	cold, ok2 := pkw(298.15)
+	if !ok1 || !ok2 {
+		return ph
+	}
+	return ph - (cold - hot)
 }
 
 func contains(list []string, s string) bool {
