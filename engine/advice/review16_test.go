@@ -274,3 +274,13 @@ func TestAluminiumInHotCaustic(t *testing.T) {
 		}
 	}
 }
+
+// TestChromeReductionAtLowPH: a bisulfite reduction of chromium(VI) runs
+// at pH 2–3 and stops above about 4 (common practice, no source: chromium
+// waste treatment); the short answer says so.
+func TestChromeReductionAtLowPH(t *testing.T) {
+	r := ask(t, mustAdvisor(t), "mix 500 L chromic acid 3 g/L + 20 L sodium bisulfite 38 %")
+	if h, ok := hazardOf(r, "chromium-vi-exposure"); !ok || !strings.Contains(h.Action, "pH 2–3") {
+		t.Errorf("chromium(VI) with bisulfite: %+v, want the reduction at pH 2–3 named", h)
+	}
+}

@@ -274,6 +274,11 @@ func chromiumVI(o *Outcome) (engine.Hazard, bool) {
 		// reducing agent ran short (a treatment underdosed).
 		msg += " Not all of it is reduced: " + fmtNum(left*o.VolumeL, 3) + " mol of chromium as chromium(VI) (" + fmtNum(left*o.VolumeL*chromiumGPerMol/1000, 3) + " kg Cr) stays in the mix (the reducing agent ran short)."
 		act = "Chromium(VI) is not all reduced (" + fmtNum(left*o.VolumeL, 3) + " mol Cr left): dose more reducing agent under ORP control before the mix goes on as treated. " + act
+	} else if o.Formed("Cr^3+", "CrOH^2+", "Cr(OH)3(s)") && o.MolarBefore("H2SO3", "HSO3-", "SO3^2-", "S2O5^2-") >= TraceMolar {
+		// A sulfite reduction of chromium(VI): it runs at pH 2–3, fast
+		// and complete, and slows to a stop above about pH 4 (common
+		// practice, no source: chromium waste treatment).
+		act = "Reduce at pH 2–3 (add acid first if the liquor is not that acid), dosing the bisulfite under ORP control; raise the pH to settle chromium(III) hydroxide only once no chromium(VI) is left. " + act
 	}
 	return mk("chromium-vi-exposure", engine.Warning,
 		msg,
