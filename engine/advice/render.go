@@ -158,6 +158,46 @@ func alongPour(r *engine.Result, f *gasFormed) string {
 		num(best.GasMol), num(best.GasMol*f.litresPerMol()), by.Added, by.Into, pctText(best.GasAtFraction))
 }
 
+// pourOnlyGases are the gases that a point of the pour gives off, a mole or
+// more, but the final mix does not (hydrogen while borohydride in caustic
+// runs into acid, though the final mix stays alkaline): "H2 none in the
+// final mix; up to N mol (L) along the pour (A into B, at P % of it)", the
+// largest per gas, in the order the pour meets them.
+func pourOnlyGases(r *engine.Result, named map[string]bool) []string {
+	if r.Addition == nil {
+		return nil
+	}
+	type worst struct {
+		h  *engine.PourHazard
+		by engine.PourOrder
+	}
+	var order []string
+	best := map[string]worst{}
+	for _, o := range r.Addition.Orders {
+		for i := range o.Hazards {
+			h := &o.Hazards[i]
+			if h.GasFormula == "" || named[h.GasFormula] || h.GasMol < 1 {
+				continue
+			}
+			w, ok := best[h.GasFormula]
+			if !ok {
+				order = append(order, h.GasFormula)
+			}
+			if !ok || h.GasMol > w.h.GasMol {
+				best[h.GasFormula] = worst{h, o}
+			}
+		}
+	}
+	var out []string
+	for _, f := range order {
+		w := best[f]
+		l := engine.GasVolumeL(w.h.GasMol, r.Conditions.TemperatureK, 101.325)
+		out = append(out, fmt.Sprintf("%s none in the final mix; up to %s mol (%s L) along the pour (%s into %s, at %s of it)",
+			f, num(w.h.GasMol), num(l), w.by.Added, w.by.Into, pctText(w.h.GasAtFraction)))
+	}
+	return out
+}
+
 // traceGasShare is the volume of gas, as a share of the liquid's, below
 // which a gas with no hazard is left off the Forms line.
 const traceGasShare = 1e-3
@@ -169,6 +209,8 @@ func formsLine(r *engine.Result) string {
 		parts = append(parts, f.text()+alongPour(r, f))
 		named[f.formula] = true
 	}
+	pourOnly := pourOnlyGases(r, named)
+	parts = append(parts, pourOnly...)
 	if len(parts) > 0 && r.Decision != nil {
 		// A gas with no hazard of its own (nitrogen, carbon dioxide below
 		// its limit) still swells the headspace: name it when it comes to

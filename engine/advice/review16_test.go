@@ -284,3 +284,15 @@ func TestChromeReductionAtLowPH(t *testing.T) {
 		t.Errorf("chromium(VI) with bisulfite: %+v, want the reduction at pH 2–3 named", h)
 	}
 }
+
+// TestFormsNamesAGasOnlyAlongThePour: borohydride held in caustic run into
+// hydrochloric acid gives hydrogen where it lands, four per borohydride the
+// acid reaches (Kreevoy and Jacobson 1979, from memory), though the final
+// mix stays alkaline and gives none: the Forms line names it with its
+// amount along the pour, not "no gas of concern".
+func TestFormsNamesAGasOnlyAlongThePour(t *testing.T) {
+	short := advice.RenderShort(ask(t, mustAdvisor(t), "mix 100 L sodium borohydride 12 %, NaOH 40 % + 100 L HCl 10 %"))
+	if !strings.Contains(short, "Forms: H2 none in the final mix; up to ") || strings.Contains(short, "no gas of concern") {
+		t.Errorf("want hydrogen along the pour on the Forms line:\n%s", short)
+	}
+}
