@@ -296,3 +296,24 @@ func TestFormsNamesAGasOnlyAlongThePour(t *testing.T) {
 		t.Errorf("want hydrogen along the pour on the Forms line:\n%s", short)
 	}
 }
+
+// TestPeroxideTakenByAReducerIsDosedSlowly: hypophosphite takes peroxide up
+// (H2PO2- + 2 H2O2 → H2PO4- + 2 H2O), so the heat is controlled by dosing
+// slowly; only a catalyst that is not used up makes slow dosing useless.
+// The boiling hypophosphite is named for phosphine (sodium hypophosphite
+// safety data sheets, from memory). With iodide the surge and the heat give
+// one action, not two that contradict each other.
+func TestPeroxideTakenByAReducerIsDosedSlowly(t *testing.T) {
+	a := mustAdvisor(t)
+	r := ask(t, a, "mix 100 L sodium hypophosphite 25 % + 50 L H2O2 35 %")
+	if h, ok := hazardOf(r, "boils"); !ok || strings.Contains(h.Action, "not used up") {
+		t.Errorf("hypophosphite with peroxide: boils %+v, want slow dosing, not a catalyst", h)
+	}
+	if _, ok := hazardOf(r, "hypophosphite-phosphine"); !ok {
+		t.Errorf("hypophosphite boiling: no phosphine warning among %v", hazardCodes(r))
+	}
+	short := advice.RenderShort(ask(t, a, "mix 100 L potassium iodide 10 % + 50 L H2O2 35 %"))
+	if strings.Contains(short, "dose one into the other slowly") {
+		t.Errorf("peroxide on iodide: a slow-dosing action beside the catalyst's:\n%s", short)
+	}
+}

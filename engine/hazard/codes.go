@@ -54,6 +54,7 @@ var codes = []Code{
 	{"hydroxylamine-decomposition", "hydroxylamine with iron or copper salts: violent decomposition", nil},
 	{"damp-dithionite", "wet dithionite heats itself: gives off SO2, can ignite", nil},
 	{"hot-dithionite", "hot dithionite breaks down: bath turns acid, sulfur dioxide follows", nil},
+	{"hypophosphite-phosphine", "hot hypophosphite: can give off phosphine", nil},
 	{"hydroxylamine-freed", "frees hydroxylamine from its salt: unstable, keep cool, use at once", nil},
 	{"stream-fumes", "a stream gives off a toxic gas by itself", []string{"toxic-gas"}},
 	{"solid-oxidizer-heating", "solid chlorinating agent: heats and ignites with little water", nil},

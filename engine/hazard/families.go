@@ -15,7 +15,7 @@ import (
 // reliable Gibbs energies, or they are runaways rather than equilibria).
 // Each is judged from what the streams bring together, with its source.
 var familyRules = []func(o *Outcome) (engine.Hazard, bool){
-	chloroAmines, nitrateEsters, nitricOrganic, hydrazineNitric, hydroxylamineMetalSalts, hydroxylamineFreed, dampDithionite, hotDithionite, ammoniumNitrite, permanganateSulfuric, volatileAcid,
+	chloroAmines, nitrateEsters, nitricOrganic, hydrazineNitric, hydroxylamineMetalSalts, hydroxylamineFreed, dampDithionite, hotDithionite, hotHypophosphite, ammoniumNitrite, permanganateSulfuric, volatileAcid,
 	solidHypochlorite, magnesiumWater, cyanideOxidation, halideSulfuric, chlorateSulfuric, hotElectrolessNickel, nitricMetalFumes, aluminiumNitricSlow,
 	chlorateSulfite, hydrazineOxidizer, chloricAcid,
 	// organic, azide and solid-chlorinator families (organic.go)
@@ -265,6 +265,25 @@ func hydroxylamineFreed(o *Outcome) (engine.Hazard, bool) {
 		"The base frees hydroxylamine from its salt ("+fmtNum(free, 2)+" mol/L free base, "+fmtNum(free*o.VolumeL, 3)+" mol): free hydroxylamine is far less stable than its salts and breaks down on standing, faster warm, alkaline or with traces of iron or copper, giving nitrogen, ammonia and heat; concentrated or heated it can explode.",
 		"Free it only as needed and use it at once: keep it cool and vented, out of iron and copper equipment, and never heat or concentrate the liquor.",
 		"Bretherick's Handbook of Reactive Chemical Hazards, hydroxylamine (from memory); pKa 5.96: CRC Handbook, Dissociation Constants of Inorganic Acids and Bases (from memory); threshold: common practice, no source"), true
+}
+
+// hotHypophosphite: hypophosphite that boils, or is heated with strong
+// caustic (about 80 °C and more), breaks down and gives off phosphine, a
+// very toxic gas that can ignite in air (sodium hypophosphite safety data
+// sheets; Greenwood & Earnshaw, Chemistry of the Elements, phosphorus
+// oxoacids; from memory). Named whenever hypophosphite is there before the
+// mix reacts and the mix boils or is hot and strongly alkaline: what is
+// left of it at the boil is not known to the state (the reaction that
+// heats it may take it all).
+func hotHypophosphite(o *Outcome) (engine.Hazard, bool) {
+	hp := o.MolarBefore("H2PO2-", "H3PO2")
+	if hp < 0.1 || !(o.Heat.Known && o.Heat.Boils || o.StrongBase && math.Max(o.TemperatureC, o.Heat.ReachedC) >= 80) {
+		return engine.Hazard{}, false
+	}
+	return mk("hypophosphite-phosphine", engine.Warning,
+		"Hypophosphite ("+fmtNum(hp, 2)+" mol/L) in a mix that boils or is hot and strongly alkaline breaks down and can give off phosphine, a very toxic gas that can ignite in air.",
+		"Keep hypophosphite liquors below boiling and away from hot strong caustic; work with extraction and no ignition sources.",
+		"sodium hypophosphite safety data sheets (phosphine on heating), Greenwood & Earnshaw, Chemistry of the Elements, phosphorus oxoacids (from memory); 0.1 mol/L and 80 °C: common practice, no source"), true
 }
 
 // HydroxylamineFreeMolar is the free hydroxylamine (mol/L, about 1.6 %)

@@ -1,6 +1,10 @@
 package hazard
 
-import "mixward/engine"
+import (
+	"math"
+
+	"mixward/engine"
+)
 
 // Heat thresholds (common practice, no source): skin scalds above about
 // 60 °C; a rise of 10 °C is worth dosing slowly for; a stated temperature
@@ -96,16 +100,42 @@ func oneSolidIntoWater(o *Outcome) bool {
 	return n == 1
 }
 
+// catalysedAction is what to do where a catalyst breaks peroxide down.
+const catalysedAction = "Do not combine: the catalyst (a metal salt, iodide, or the alkali) is not used up, so a small portion of it breaks down all the peroxide it reaches, with oxygen and heat; adding it slowly does not help. To destroy peroxide, dilute it well first and add the catalyst to the dilute liquor in an open, vented tank."
+
 // catalysedPeroxide reports whether the mix breaks peroxide down on a
 // catalyst or by its own alkali, not by a partner it uses up: peroxide is
 // there, oxygen forms, and no pair of agents gives it (OCl- + H2O2 → O2 is
 // dosed in portions) unless a fast catalyst breaks down the rest
 // (chromium(VI), permanganate, manganese dioxide, carbon).
 func catalysedPeroxide(o *Outcome) bool {
-	if o == nil || o.MolarBefore("H2O2", "HO2-") < TraceMolar || !(o.GasMol("O2") > 0 || o.Measured["O2"].Mol > 0) {
+	if o == nil || o.VolumeL <= 0 {
 		return false
 	}
-	return !pairGivesOxygen(o) || fastPeroxideCatalyst(o)
+	before := o.MolarBefore("H2O2", "HO2-") * o.VolumeL
+	o2 := math.Max(o.GasMol("O2"), o.Measured["O2"].Mol)
+	if before < TraceMolar*o.VolumeL || !(o2 > 0) {
+		return false
+	}
+	// Most of the peroxide that goes must go to oxygen (two per O2): a
+	// reducing agent that takes it up (sulfite, hypophosphite, iron(II)
+	// alone) is dosed slowly, whatever boils off at the end.
+	used := before - o.Molar("H2O2", "HO2-")*o.VolumeL
+	if used <= 0 || 2*o2 < 0.5*used {
+		return false
+	}
+	if pairGivesOxygen(o) && !fastPeroxideCatalyst(o) {
+		return false // hypochlorite with peroxide: each takes the other
+	}
+	// A catalyst that is not used up: iron, copper, silver or platinum
+	// salts, the fast catalysts (chromium(VI), permanganate, manganese
+	// dioxide, carbon, iodide), cobalt or nickel once neutral or alkaline,
+	// or concentrated peroxide made alkaline (the lock
+	// peroxide-self-decomposition names the same).
+	return fastPeroxideCatalyst(o) ||
+		metalSaltMolar(o.Before, o.VolumeL, "Fe", "Cu", "Ag", "Pt") >= 1e-4 ||
+		o.PH >= 7 && metalSaltMolar(o.Before, o.VolumeL, "Co", "Ni") >= 1e-4 ||
+		o.PH >= 9.5 && o.MolarBefore("H2O2", "HO2-") >= 2.9
 }
 
 // heatAction is what to do about a mix that boils or nearly boils: more
@@ -115,7 +145,7 @@ func catalysedPeroxide(o *Outcome) bool {
 // more water does not take the reaction's heat away, only spreads it).
 func heatAction(o *Outcome, h Heat) string {
 	if catalysedPeroxide(o) {
-		return "Do not combine: the catalyst (a metal salt, or the alkali) is not used up, so a small portion of it breaks down all the peroxide it reaches, with oxygen and heat; adding it slowly does not help. To destroy peroxide, dilute it well first and add the catalyst to the dilute liquor in an open, vented tank."
+		return catalysedAction
 	}
 	if h.Reactions && h.MixingkJ < 0.5*h.ReleasedkJ {
 		return "Do not mix in one go: add the reacting stream in small portions with cooling and stirring, into an open, vented tank, letting each portion finish before the next; wear a face shield."

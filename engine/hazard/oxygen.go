@@ -146,10 +146,13 @@ func oxygenSurge(o *Outcome) (engine.Hazard, bool) {
 	c := beyondCount("O2", "oxygen", best.mol, best.what)
 	c.Beyond = !best.state && !(o.Measured["O2"].Mol > 0 || o.GasMol("O2") > 0)
 	if best.fast && per >= SurgeMolPerL {
+		act := "Do not mix in one go: dose one into the other slowly, diluted, into an open, vented tank with headroom; keep oil, grease and flames away."
+		if catalysedPeroxide(o) {
+			act = catalysedAction
+		}
 		return withCounts(mk("oxygen-surge", engine.Danger,
 			"Oxygen comes off fast from "+best.what+" ("+amount+"; "+fmtNum(per, 2)+" mol per litre of mix), with heat: the liquid foams over and a closed vessel bursts.",
-			"Do not mix in one go: dose one into the other slowly, diluted, into an open, vented tank with headroom; keep oil, grease and flames away.",
-			src), c), true
+			act, src), c), true
 	}
 	if best.state {
 		return engine.Hazard{}, false
