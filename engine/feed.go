@@ -139,11 +139,21 @@ func addBleachSalt(st *Stream, out *state.Stream, db *thermo.DB, m *mixture) {
 	}
 	na, ok1 := db.Get("Na+")
 	cl, ok2 := db.Get("Cl-")
-	if ocl <= 0 || !ok1 || !ok2 || !streamHas(st, "NaOCl") {
+	if ocl <= 0 || !ok1 || !ok2 {
 		return
 	}
-	out.Items = append(out.Items, state.Item{Species: na, Mol: ocl}, state.Item{Species: cl, Mol: ocl})
-	m.note("sodium hypochlorite solution taken to carry one NaCl per NaOCl, as made from chlorine and caustic soda; name the NaCl in the stream to state it otherwise")
+	switch {
+	case streamHas(st, "NaOCl"):
+		out.Items = append(out.Items, state.Item{Species: na, Mol: ocl}, state.Item{Species: cl, Mol: ocl})
+		m.note("sodium hypochlorite solution taken to carry one NaCl per NaOCl, as made from chlorine and caustic soda; name the NaCl in the stream to state it otherwise")
+	case streamHas(st, "Ca(OCl)2"):
+		// High-test calcium hypochlorite (65–70 % Ca(OCl)2) carries
+		// about 15–20 % sodium chloride and a little calcium chloride:
+		// about one chloride per two hypochlorite (suppliers' typical
+		// analysis, from memory); bleaching powder carries more.
+		out.Items = append(out.Items, state.Item{Species: na, Mol: ocl / 2}, state.Item{Species: cl, Mol: ocl / 2})
+		m.note("calcium hypochlorite taken to carry one NaCl per two hypochlorite, as the high-test granules do; name the NaCl in the stream to state it otherwise")
+	}
 }
 
 func streamHas(st *Stream, formula string) bool {

@@ -193,7 +193,7 @@ func keepFaults(db *thermo.DB, c *engine.Chemical, res *engine.Result) []string 
 			skeletons = append(skeletons, skel)
 		}
 	}
-	if c.Formula == "NaOCl" { // the feed adds one NaCl per NaOCl (engine/feed.go: made from chlorine and caustic)
+	if c.Formula == "NaOCl" || c.Formula == "Ca(OCl)2" { // the feed adds NaCl beside the hypochlorite (engine/feed.go: addBleachSalt)
 		brought["Cl"] = append(brought["Cl"], -1)
 	}
 	var faults []string

@@ -156,6 +156,14 @@ func TestReview16(t *testing.T) {
 			level: engine.DoNotMix, want: "silver-fulminate",
 		},
 		{
+			// Calcium hypochlorite granules carry sodium chloride (high-test
+			// grades about 15–20 %, suppliers' typical analysis, from
+			// memory): with acetic acid at pH 4.6 they give chlorine, as
+			// bleach does.
+			name: "calcium hypochlorite with acetic acid", req: "mix 100 L calcium hypochlorite 10 % + 20 L acetic acid 80 %",
+			level: engine.DoNotMix, want: "chlorine-release",
+		},
+		{
 			// A litre of 5 % bleach with a litre of 5 % citric acid: a few
 			// millilitres of chlorine, far above its limit over the liquid
 			// (the amount threshold of a pour point must not hide it).
