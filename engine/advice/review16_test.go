@@ -164,6 +164,13 @@ func TestReview16(t *testing.T) {
 			level: engine.DoNotMix, want: "chlorine-release",
 		},
 		{
+			// Hydroxylamine sulfate with nitrite: nitrous oxide, one per
+			// hydroxylamine, with heat (Greenwood & Earnshaw, hydroxylamine
+			// with nitrous acid, from memory); was held back.
+			name: "hydroxylamine with nitrite", req: "mix 100 L hydroxylamine sulfate 10 % + 50 L sodium nitrite 20 %",
+			level: engine.WithPrecautions, want: "scalding-heat",
+		},
+		{
 			// A litre of 5 % bleach with a litre of 5 % citric acid: a few
 			// millilitres of chlorine, far above its limit over the liquid
 			// (the amount threshold of a pour point must not hide it).
