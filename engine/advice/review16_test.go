@@ -332,3 +332,14 @@ func TestPeroxideTakenByAReducerIsDosedSlowly(t *testing.T) {
 		t.Errorf("peroxide on iodide: a slow-dosing action beside the catalyst's:\n%s", short)
 	}
 }
+
+// TestPersulfateGlycolShowsHeatIfItRuns: persulfate does not oxidize the
+// glycol at once in the cold, so its heat is not counted, but the Heat line
+// shows what it gives if it runs warm: 198 mol persulfate × 2 electrons ×
+// 104.5 kJ (Thornton's rule, from memory) is about 41 MJ.
+func TestPersulfateGlycolShowsHeatIfItRuns(t *testing.T) {
+	short := advice.RenderShort(ask(t, mustAdvisor(t), "mix 200 L ammonium persulfate 20 % + 20 L ethylene glycol"))
+	if !strings.Contains(short, "if it runs: ") {
+		t.Errorf("persulfate with glycol: want the heat if it runs:\n%s", short)
+	}
+}

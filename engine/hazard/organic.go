@@ -357,9 +357,15 @@ func oxidizerOrganic(o *Outcome) (engine.Hazard, bool) {
 		}
 		kJ := math.Min(ox*x.electrons, orgE) * o.VolumeL * ThorntonKJPerElectron
 		heat, hot := heatEstimate(o, kJ)
+		var runaway *engine.ReactionHeat
 		if x.slow {
 			// Nothing burns until the mixture is lit or dries out: the
-			// heat is what a fire would give, not what the mix does.
+			// heat is what a fire would give, not what the mix does. A
+			// solution that oxidizes the liquid once warm (persulfate)
+			// shows it as the heat if it runs, not counted.
+			if !solid {
+				runaway = rh
+			}
 			rh, hot = nil, false
 			heat = "if it burns, " + heat
 		}
@@ -382,10 +388,12 @@ func oxidizerOrganic(o *Outcome) (engine.Hazard, bool) {
 			code = "oxidizer-organic-heat"
 			what = how + " oxidizes it with heat; stronger or hotter, it can set it alight"
 		}
-		return withHeat(mk(code, sev,
+		h := withHeat(mk(code, sev,
 			x.name+" with an organic liquid ("+fmtNum(org, 2)+" mol/L of alcohol, solvent, glycol, amine or glycerol): "+what+" ("+heat+" from Thornton's rule).",
 			"Do not combine. Keep strong oxidizers (permanganate, chromic acid, hypochlorite and chlorinating granules, chlorates, chlorites, bromates, perchlorates, nitrates, persulfates, peroxides) away from solvents, alcohols, amines and glycerol; dispose of each separately.",
-			"Bretherick's Handbook of Reactive Chemical Hazards, potassium permanganate with glycerol, chromium trioxide with ethanol, calcium hypochlorite with alcohols, sodium chlorate and sodium chlorite with organic matter, nitrates and perchlorates with organic materials, sodium peroxide with organic matter (from memory); heat by Thornton's rule, 418 kJ per mol O2 (from memory); thresholds: common practice, no source"), rh), true
+			"Bretherick's Handbook of Reactive Chemical Hazards, potassium permanganate with glycerol, chromium trioxide with ethanol, calcium hypochlorite with alcohols, sodium chlorate and sodium chlorite with organic matter, nitrates and perchlorates with organic materials, sodium peroxide with organic matter (from memory); heat by Thornton's rule, 418 kJ per mol O2 (from memory); thresholds: common practice, no source"), rh)
+		h.RunawayHeat = runaway
+		return h, true
 	}
 	return engine.Hazard{}, false
 }
