@@ -31,6 +31,9 @@ func TestLookup(t *testing.T) {
 		{"cooling water", "H2O"}, // plant words for water (common practice)
 		{"rinse water", "H2O"},
 		{"lime slurry", "Ca(OH)2"},
+		{"zinc sulfate", "ZnSO4.7H2O"}, // the crystals the trade sells (common practice)
+		{"magnesium sulfate", "MgSO4.7H2O"},
+		{"anhydrous magnesium sulfate", "MgSO4"},
 		{"potassium peroxymonosulfate", "K5H3(SO4)2(SO5)2"}, // the triple salt the trade sells
 		{"sodium sulfide nonahydrate", "Na2S.9H2O"},
 		{"ferrous sulfate", "FeSO4"},

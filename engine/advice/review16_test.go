@@ -171,6 +171,13 @@ func TestReview16(t *testing.T) {
 			level: engine.WithPrecautions, want: "scalding-heat",
 		},
 		{
+			// Zinc and magnesium sulfate as the trade sells them, the
+			// heptahydrates, dissolve with little heat (NBS Tables 1982,
+			// from memory): a feed make-up is no concern.
+			name: "zinc and magnesium sulfate make-up", req: "mix 1000 L water + 20 kg zinc sulfate + 10 kg magnesium sulfate",
+			level: engine.NoConcern, not: "scalding-heat",
+		},
+		{
 			// A litre of 5 % bleach with a litre of 5 % citric acid: a few
 			// millilitres of chlorine, far above its limit over the liquid
 			// (the amount threshold of a pour point must not hide it).
