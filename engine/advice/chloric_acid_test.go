@@ -177,8 +177,13 @@ func TestChromiumUnderdosed(t *testing.T) {
 	if _, err := fmt.Sscanf(acts[strings.Index(acts, "reduced (")+len("reduced ("):], "%g mol Cr", &left); err != nil || left < 70 || left > 95 {
 		t.Errorf("chromium left %g (%v), want about 85 mol Cr", left, err)
 	}
-	if n := strings.Count(acts, "Both orders meet the same hazards"); n > 1 {
-		t.Errorf("the same pour advice %d times: %q", n, acts)
+	seen := map[string]bool{}
+	for _, sentence := range strings.SplitAfter(acts, ".") {
+		sentence = strings.TrimSpace(sentence)
+		if strings.Contains(sentence, "meet the same hazards") && seen[sentence] {
+			t.Errorf("the same pour advice twice: %q in %q", sentence, acts)
+		}
+		seen[sentence] = true
 	}
 	r = ask(t, a, "mix 400 L potassium dichromate 5 % + 100 L H2SO4 20 % + 400 L ferrous sulfate 20 %")
 	if strings.Contains(strings.Join(r.Decision.Actions, "\n"), "not all reduced") {

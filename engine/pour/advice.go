@@ -132,7 +132,7 @@ func pairAdvice(x, y *engine.PourOrder) string {
 		y.Advised = true
 		return lessens(*y, *x)
 	}
-	return "Both orders meet the same hazards (" + codes(*x) + "); no order of addition avoids them: follow the actions above."
+	return "Both orders of " + x.Added + " and " + x.Into + " meet the same hazards (" + codes(*x) + "); no order of addition avoids them: follow the actions above."
 }
 
 // better advises good, of the lower Rank, over bad; or, when good runs a
