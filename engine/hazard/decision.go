@@ -156,15 +156,15 @@ func softened(actions []string) []string {
 // and acid) may never meet neat in a good sequence (acid into caustic first).
 func decideSequence(d engine.Decision, finalW int, final []engine.Hazard, add *engine.Addition) engine.Decision {
 	best := &add.Sequences[0]
-	bestW, allW := sequenceRank(best), 0
+	bestW, allW := pour.SequenceRank(best), 0
 	for i := range add.Sequences {
 		s := &add.Sequences[i]
-		if w := sequenceRank(s); w < bestW || (w == bestW && rank(s.Worst) < rank(best.Worst)) {
+		if w := pour.SequenceRank(s); w < bestW || (w == bestW && rank(s.Worst) < rank(best.Worst)) {
 			best, bestW = s, w
 		}
 	}
 	for i := range add.Sequences {
-		allW = max(allW, sequenceRank(&add.Sequences[i]))
+		allW = max(allW, pour.SequenceRank(&add.Sequences[i]))
 	}
 	level := max(finalW, bestW)
 	seqText := strings.Join(best.Streams, ", then ")
@@ -265,15 +265,6 @@ func pourLevels(add *engine.Addition) (best int, order *engine.PourOrder, all in
 // run onto a heap of trisodium phosphate warms the first litre) teaches
 // operators to ignore warnings. The final mix's own warming still counts.
 func orderRank(o *engine.PourOrder) int { return pour.Rank(o) }
-
-// sequenceRank is orderRank over the steps of a sequence.
-func sequenceRank(s *engine.PourSequence) int {
-	w := 0
-	for i := range s.Steps {
-		w = max(w, orderRank(&s.Steps[i]))
-	}
-	return w
-}
 
 func pourTitle(add *engine.Addition, o *engine.PourOrder) string {
 	worst := o.Hazards[0]

@@ -63,7 +63,7 @@ func sequences(req *engine.Request, eval Evaluate, orders map[[2]int]engine.Pour
 		// By the rule the decision follows (Rank over the steps, then
 		// the worst severity), so that the sequence advised is the
 		// title's.
-		if ri, rj := seqRank(&out[i]), seqRank(&out[j]); ri != rj {
+		if ri, rj := SequenceRank(&out[i]), SequenceRank(&out[j]); ri != rj {
 			return ri < rj
 		}
 		wi, wj := rank(out[i].Worst), rank(out[j].Worst)
@@ -256,8 +256,9 @@ func sequenceAdvice(seqs []engine.PourSequence, orders []engine.PourOrder) strin
 	return s + ": nothing of concern appears along that sequence."
 }
 
-// seqRank is Rank over the steps of a sequence.
-func seqRank(s *engine.PourSequence) int {
+// SequenceRank is Rank over the steps of a sequence: how the sequences are
+// ordered here and how the decision ranks them (hazard.decideSequence).
+func SequenceRank(s *engine.PourSequence) int {
 	w := 0
 	for i := range s.Steps {
 		w = max(w, Rank(&s.Steps[i]))
