@@ -118,6 +118,7 @@ type soluteIn struct {
 	stream   int // index of the stream in the request
 	mol      float64
 	waterMol float64 // the stream's water; 0 for a solid stream
+	liquid   bool    // from a liquid stream: counted at its water ratio, 0 for one with no water (oleum)
 }
 
 // recordSolutes notes the solutes of a stream that have heats of
@@ -133,7 +134,7 @@ func (m *mixture) recordSolutes(t *Tables, found []soluteIn, waterMol float64, l
 			continue
 		}
 		if liquid {
-			s.waterMol = waterMol
+			s.waterMol, s.liquid = waterMol, true
 			m.undissolveLiquid(s.chem)
 		}
 		m.solutes = append(m.solutes, s)
@@ -169,8 +170,8 @@ func dilutionHeat(mx *state.Mix, solutes []soluteIn, t *Tables) float64 {
 		inStream[s.stream] += s.mol
 	}
 	for _, s := range solutes {
-		if s.waterMol > 0 {
-			q += s.mol * RelativeEnthalpy(t.Dilution.Points[s.chem.Formula], s.waterMol/inStream[s.stream])
+		if s.liquid {
+			q += s.mol * RelativeEnthalpy(t.Dilution.Points[s.chem.Formula], math.Max(0, s.waterMol)/inStream[s.stream])
 		}
 	}
 	left := soluteLeft(mx, solutes)
@@ -183,9 +184,29 @@ func dilutionHeat(mx *state.Mix, solutes []soluteIn, t *Tables) float64 {
 		return q
 	}
 	for i, s := range solutes {
-		q -= s.mol * left[i] * RelativeEnthalpy(t.Dilution.Points[s.chem.Formula], w/total)
+		q -= s.mol * left[i] * RelativeEnthalpy(t.Dilution.Points[s.chem.Formula], w/total+waterTaken(s.chem))
 	}
 	return q
+}
+
+// waterTaken is the water one formula unit of a chemical takes up as it
+// gives its species (SO3 + H2O → H+ + HSO4-: one), zero for most. Its rows
+// in data/dilution.txt count that water as part of the solution, while the
+// mix's water is counted after it has been taken.
+func waterTaken(ch *Chemical) float64 {
+	own, err := ParseFormula(ch.Formula)
+	if err != nil {
+		return 0
+	}
+	h := 0.0
+	for _, g := range ch.Gives {
+		a, err := ParseFormula(g.Species.Formula)
+		if err != nil {
+			return 0
+		}
+		h += float64(g.Coef) * float64(a["H"])
+	}
+	return math.Max(0, (h-float64(own["H"]))/2)
 }
 
 // heatCapacityOf is the specific heat capacity of the mix, kJ/(kg·K): water's,

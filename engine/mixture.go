@@ -369,6 +369,14 @@ func componentMoles(st *Stream, c *Component, vol float64, liquid bool, t *Table
 		molar = c.Value / 1000
 	case PctWW:
 		d, ok := t.Density(ch.Formula, c.Value)
+		if sd, sok := solutionDensity(st, t); sok && len(st.Components) > 1 {
+			// One liquid has one density: every share of a blend given in
+			// % w/w is read with the density of the stream, taken from the
+			// first of its chemicals with a density row at its strength
+			// (oleum 20 % is 20 % SO3 and 80 % H2SO4 at 1.92 kg/L, not the
+			// sulfuric acid at the 1.73 of its 80 % solution in water).
+			d, ok = sd, true
+		}
 		if !ok {
 			d = 1
 			if c.Value > 5 {

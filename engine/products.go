@@ -21,10 +21,14 @@ type Product struct {
 	Source     string
 }
 
-// Companion is a chemical a product carries, at its % w/w in the product.
+// Companion is a chemical a product carries, at its % w/w in the product,
+// or (Rest) as the whole balance of the product in place of water: oleum
+// is free sulfur trioxide in sulfuric acid, "oleum 20 %" 20 % SO3 and 80 %
+// H2SO4 with no water at all.
 type Companion struct {
 	Formula   string
 	PercentWW float64
+	Rest      bool
 }
 
 // LoadProducts reads and validates data/products.txt from fsys against the
@@ -71,11 +75,20 @@ func (l *productLoader) product(f []string, _ int) {
 	}
 	p := Product{Formula: f[0], Grade: grade, Source: f[3]}
 	total := grade
-	for _, part := range strings.Split(f[2], ", ") {
+	parts := strings.Split(f[2], ", ")
+	for _, part := range parts {
 		formula, pct, found := strings.Cut(strings.TrimSpace(part), " ")
+		if found && pct == "rest" {
+			if len(parts) != 1 || !l.chem[formula] || formula == f[0] {
+				l.fail("companions", part, "\"FORMULA rest\" stands alone and names another chemical of %s%s", tableDir, ChemicalsFile)
+				return
+			}
+			p.Companions = append(p.Companions, Companion{Formula: formula, Rest: true})
+			continue
+		}
 		v, err := strconv.ParseFloat(pct, 64)
 		if !found || err != nil || !(v > 0) {
-			l.fail("companions", part, "write each as \"FORMULA %% w/w\" (\"H2O2 23\"), separated by \", \"")
+			l.fail("companions", part, "write each as \"FORMULA %% w/w\" (\"H2O2 23\"), separated by \", \", or one \"FORMULA rest\"")
 			return
 		}
 		if !l.chem[formula] || formula == f[0] {
@@ -130,6 +143,7 @@ func (p *parser) asSold(st *Stream) {
 		}
 		g := gradeFor(ps, pct)
 		var added []string
+		rest := false
 		for _, k := range g.Companions {
 			if named[k.Formula] {
 				continue
@@ -139,16 +153,40 @@ func (p *parser) asSold(st *Stream) {
 				continue
 			}
 			v := k.PercentWW / g.Grade * c.Value
+			if k.Rest {
+				if c.Unit != PctWW {
+					continue // the balance of a product is only read beside a % w/w
+				}
+				v = 100 - namedPctWW(st)
+				if !(v > 0) {
+					continue
+				}
+				rest = true
+			}
 			st.Components = append(st.Components, Component{Chemical: chem, Name: k.Formula, Pos: c.Pos, Value: v, Unit: c.Unit,
 				numText: strconv.FormatFloat(v, 'g', 3, 64), numPos: c.Pos})
 			named[k.Formula] = true
 			added = append(added, fmtNum(v)+" "+unitText(c.Unit)+" "+k.Formula)
 		}
-		if len(added) > 0 {
+		if rest {
+			p.note("%s %s %s read as the trade grade: %s %s %s in %s, with no water (%s)",
+				c.Name, fmtNum(c.Value), unitText(c.Unit), fmtNum(c.Value), unitText(c.Unit), c.Chemical.Formula, strings.Join(added, " and "), g.Source)
+		} else if len(added) > 0 {
 			p.note("%s %s %s read as the commercial product, with %s (typical %g %% grade, suppliers' data, from memory; name them in the stream to override)",
 				c.Name, fmtNum(c.Value), unitText(c.Unit), strings.Join(added, " and "), g.Grade)
 		}
 	}
+}
+
+// namedPctWW is the sum of the % w/w the stream's components name.
+func namedPctWW(st *Stream) float64 {
+	sum := 0.0
+	for _, c := range st.Components {
+		if c.Unit == PctWW {
+			sum += c.Value
+		}
+	}
+	return sum
 }
 
 // percentOf is a mass concentration in % w/w, taking a dilute solution's

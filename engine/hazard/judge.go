@@ -372,10 +372,22 @@ func warmedOff(o *Outcome, g *GasData, m MeasuredGas) (warmed, bool) {
 	tK := o.Heat.ReachedC + 273.15
 	kH := g.KH * math.Exp(-m.SolHkJ*1000/engine.MolarGasConstant()*(1/tK-1/tRef))
 	total := m.Mol + m.Dissolved
-	hs := Share(total, 1, kH, o.VolumeL, o.HeadspaceL, tK, o.PressureKPa)
+	// The dissolved pool may hold more than the molecule: chlorine's holds
+	// its hypochlorous acid and chloride (Cl2 + H2O ⇌ HOCl + H+ + Cl-),
+	// which turn into chlorine only as far as the mix's acid and chloride
+	// let them. Its share as the molecule is what the state's own pressure
+	// over it says (Henry's law: molecule = kH·p); warming moves the Henry
+	// constant, not that share.
+	molecular := 1.0
+	if pBar := m.PPM * 1e-6 * o.PressureKPa / 100; pBar > 0 && o.VolumeL > 0 {
+		if apparent := m.Dissolved / (o.VolumeL * pBar); apparent > g.KH {
+			molecular = g.KH / apparent
+		}
+	}
+	hs := Share(total, molecular, kH, o.VolumeL, o.HeadspaceL, tK, o.PressureKPa)
 	off := hs.GasMol
 	if hs.Vents {
-		off = math.Max(off, total-kH*o.VolumeL*o.PressureKPa/100)
+		off = math.Max(off, total-kH/molecular*o.VolumeL*o.PressureKPa/100)
 	}
 	if !(off > 1.5*m.Mol) {
 		return warmed{}, false

@@ -1,0 +1,98 @@
+package advice_test
+
+import (
+	"math"
+	"testing"
+
+	"mixward/engine"
+)
+
+// pourGasMax is the largest amount of a gas any order of the pour meets.
+func pourGasMax(r *engine.Result, formula string) float64 {
+	n := 0.0
+	if r.Addition == nil {
+		return 0
+	}
+	for _, o := range r.Addition.Orders {
+		for _, h := range o.Hazards {
+			if h.GasFormula == formula && h.GasMol > n {
+				n = h.GasMol
+			}
+		}
+	}
+	return n
+}
+
+// TestReview19 holds pours a plant-chemist review of the build would not
+// sign, with the hand figure and its source beside each.
+func TestReview19(t *testing.T) {
+	a := mustAdvisor(t)
+
+	t.Run("oleum is free SO3 in sulfuric acid", func(t *testing.T) {
+		// Oleum 20 % is 20 % free SO3 in 80 % H2SO4, no water (common
+		// practice, no source); 100 L at 1.92 kg/L (Perry's Handbook,
+		// from memory) hold 480 mol SO3 and 1567 mol H2SO4. SO3(l) + H2O
+		// → H2SO4(l) gives 87 kJ/mol and the acid then dilutes into 500
+		// L of water by about 68 kJ/mol (NBS Tables 1982, CRC Handbook,
+		// from memory): about 42 + 140 = 180 MJ. It was read as 20 %
+		// disulfuric acid in water, 0.34 MJ and no concern.
+		r := ask(t, a, "pour 500 L water into 100 L oleum 20 %")
+		if r.Heat == nil || r.Heat.HeatReleasedkJ == nil {
+			t.Fatal("no heat")
+		}
+		if q := *r.Heat.HeatReleasedkJ; q < 150e3 || q > 220e3 {
+			t.Errorf("heat %.0f kJ, want about 180000", q)
+		}
+		if r.Decision == nil || r.Decision.Level == engine.NoConcern {
+			t.Errorf("decision %+v: water into oleum boils", r.Decision)
+		}
+		h := finalMol(r, "H+")
+		if math.Abs(h-2047)/2047 > 0.05 {
+			t.Errorf("H+ %.0f mol, want about 2047 (480 SO3 + 1567 H2SO4)", h)
+		}
+	})
+
+	t.Run("oleum let down into strong acid", func(t *testing.T) {
+		// The 4 % water of 500 L of 96 % acid (2040 mol) takes up the 480
+		// mol of SO3: tens of MJ, not nothing (hand about 29 MJ from the
+		// heats of the NBS Tables 1982, from memory).
+		r := ask(t, a, "pour 100 L oleum 20 % into 500 L sulfuric acid 96 %")
+		if q := *r.Heat.HeatReleasedkJ; q < 15e3 || q > 60e3 {
+			t.Errorf("heat %.0f kJ, want about 29000", q)
+		}
+	})
+
+	t.Run("thiosulfate dosed into bleach gives no chlorine by warming", func(t *testing.T) {
+		// 2 L of 20 % thiosulfate (2.96 mol) in 50 L of 12.5 % bleach
+		// makes 5.9 mol H+ and leaves most of the hypochlorite: pH about
+		// 8.5, where the hypochlorous acid pool is not chlorine (Cl2
+		// hydrolysis constant about 4e-4 mol²/L², Connick and Chia 1959,
+		// from memory). Warming it does not make 85 mol of chlorine: at
+		// most the acid made, 5.9 mol.
+		r := ask(t, a, "mix 2 L sodium thiosulfate 20 % + 50 L NaOCl 12.5 % at 30 C")
+		if n := judgedGas(r, "Cl2"); n > 6 {
+			t.Errorf("chlorine %.1f mol, want at most the 5.9 mol of acid made", n)
+		}
+		if n := pourGasMax(r, "Cl2"); n > 6 {
+			t.Errorf("chlorine along the pour %.1f mol, want at most 5.9", n)
+		}
+	})
+
+	t.Run("chlorite and hydrochloric acid end acid", func(t *testing.T) {
+		// 5 ClO2- + 4 H+ → 4 ClO2 + Cl- + 2 H2O: 20 L of 9 % HCl (51 mol)
+		// take at most 51 mol of 650 mol chlorite to chlorine dioxide and
+		// the rest stays chlorite once the acid is spent (White's Handbook
+		// of Chlorination, from memory). It used to run on to pH 10.3
+		// with an equation that made hydroxide.
+		r := ask(t, a, "mix 200 L sodium chlorite 25 % + 20 L HCl 9 %")
+		if r.Conditions.PHFinal == nil || *r.Conditions.PHFinal > 7 {
+			t.Errorf("final pH %v, want acid (about 5)", r.Conditions.PHFinal)
+		}
+		if n := finalMol(r, "ClO2", "ClO2(g)"); n > 55 || n < 20 {
+			t.Errorf("ClO2 %.1f mol, want about 41–51 (acid-limited)", n)
+		}
+		if r.Decision == nil || r.Decision.Level != engine.DoNotMix {
+			t.Errorf("decision %+v, want do-not-mix", r.Decision)
+		}
+	})
+}
