@@ -2,6 +2,7 @@ package advice_test
 
 import (
 	"math"
+	"strings"
 	"testing"
 
 	"mixward/engine"
@@ -93,6 +94,32 @@ func TestReview19(t *testing.T) {
 		}
 		if r.Decision == nil || r.Decision.Level != engine.DoNotMix {
 			t.Errorf("decision %+v, want do-not-mix", r.Decision)
+		}
+	})
+
+	t.Run("caustic dosed into a cyanide rinse", func(t *testing.T) {
+		// Caustic raises a cyanide liquor's pH and lowers its hydrogen
+		// cyanide (pKa 9.2, CRC Handbook, from memory); bringing a cyanide
+		// stream "to neutral" would turn 99 % of it into HCN. The rinse's
+		// own trace of HCN over its headspace is not something the caustic
+		// meets along the pour.
+		r := ask(t, a, "mix 500 L sodium cyanide 1 % + 100 L NaOCl 12.5 % + 20 L NaOH 20 % at 40 C")
+		lines := append([]string{r.Decision.Title, r.Addition.Advice}, r.Decision.Actions...)
+		for _, l := range lines {
+			if strings.Contains(l, "to neutral") {
+				t.Errorf("a cyanide stream is told to go neutral: %q", l)
+			}
+		}
+	})
+
+	t.Run("ammonia-peroxide clean made up water first", func(t *testing.T) {
+		// The routine clean: ammonia and peroxide run into hot water in an
+		// extracted bath (common practice, no source). Strong ammonia's own
+		// fumes where it lands are its own, not the pour's: with
+		// precautions, water first, never the two concentrates neat.
+		r := ask(t, a, "mix 500 L water + 100 L H2O2 30 % + 100 L ammonia 28 % at 70 C")
+		if r.Decision == nil || r.Decision.Level != engine.WithPrecautions {
+			t.Errorf("decision %+v, want with-precautions", r.Decision)
 		}
 	})
 }

@@ -92,6 +92,7 @@ func order(req *engine.Request, a, b int, eval Evaluate, streams func(f float64)
 	open := map[string]*engine.PourHazard{}
 	worstRatio := map[string]float64{} // the message kept is that of the worst point
 	var keys []string
+	own, _ := tankAlone(req, eval, streams) // not points along the pour
 	pts := 0
 	for _, f := range fractions {
 		r := *req
@@ -103,7 +104,7 @@ func order(req *engine.Request, a, b int, eval Evaluate, streams func(f float64)
 		pts++
 		seen := map[string]bool{}
 		for _, h := range hs {
-			if h.Severity == engine.Info || seen[h.Code] {
+			if h.Severity == engine.Info || seen[h.Code] || own.covers(h) {
 				continue
 			}
 			seen[h.Code] = true
@@ -136,6 +137,80 @@ func order(req *engine.Request, a, b int, eval Evaluate, streams func(f float64)
 		}
 	}
 	return po, pts
+}
+
+// tankHazards are the hazards of what is in the tank before anything is
+// added, by code.
+type tankHazards map[string]engine.Hazard
+
+// tankAlone judges what is poured together, each apart: the tank before
+// the pour (the streams at the share 0 of the added one, without it) and the
+// added stream by itself (at its full amount). It returns their hazards, the
+// louder of the two by code, and the mixes evaluated.
+func tankAlone(req *engine.Request, eval Evaluate, streams func(f float64) []engine.Stream) (tankHazards, int) {
+	var tank []engine.Stream
+	for _, s := range streams(0) {
+		if s.VolumeL > 0 || s.MassKg > 0 {
+			tank = append(tank, s)
+		}
+	}
+	all := streams(1)
+	var added []engine.Stream
+	if len(all) > len(tank) {
+		added = all[len(all)-1:] // streams puts the added stream last
+	}
+	own := tankHazards{}
+	pts := 0
+	for _, part := range [][]engine.Stream{tank, added} {
+		if len(part) == 0 || !allLiquid(part) {
+			// A dry solid by itself is not the liquid it is judged as:
+			// water run onto dithionite powder meets what the solution
+			// alone would not show.
+			continue
+		}
+		r := *req
+		r.Streams = part
+		hs, err := eval(&r)
+		if err != nil {
+			continue
+		}
+		pts++
+		for _, h := range hs {
+			if o, ok := own[h.Code]; !ok || rank(h.Severity) > rank(o.Severity) ||
+				(h.Severity == o.Severity && ratio(h) > ratio(o)) {
+				own[h.Code] = h
+			}
+		}
+	}
+	return own, pts
+}
+
+// allLiquid reports whether every stream is given by volume.
+func allLiquid(ss []engine.Stream) bool {
+	for _, s := range ss {
+		if !(s.VolumeL > 0) {
+			return false
+		}
+	}
+	return true
+}
+
+// covers reports whether the tank or the added stream alone already has
+// the hazard h, as loud and as strong (its gas no more than a tenth above):
+// the pour does not meet it, the stream has it whatever it meets (a cyanide
+// liquor's own hydrogen cyanide over its closed headspace when caustic is
+// dosed into it; strong ammonia's own fumes when water runs into it or it
+// runs into water). A stream's own hazards are the final mix's to name,
+// with the stream's own precautions.
+func (own tankHazards) covers(h engine.Hazard) bool {
+	o, ok := own[h.Code]
+	if !ok || rank(h.Severity) > rank(o.Severity) {
+		return false
+	}
+	// Only gases are compared: a hazard without a figure (hydrofluoric acid
+	// burns, chromium(VI) exposure) stays with the pour, whose order the
+	// advice may still settle.
+	return h.Gas != nil && o.Gas != nil && h.Gas.Ratio <= 1.1*o.Gas.Ratio
 }
 
 // withLocal puts the hazards where the added stream lands before those of

@@ -9,7 +9,7 @@ import (
 )
 
 // fakeEval raises "gas" as a danger whenever the acid stream (named "acid")
-// is in excess of the base by volume, and "warm" as a warning past half the
+// is in excess of the base by volume (with some base in), and "warm" as a warning past half the
 // final ratio: enough to check the ranges and the advice without the engine.
 func fakeEval(req *engine.Request) ([]engine.Hazard, error) {
 	vol := map[string]float64{}
@@ -17,7 +17,7 @@ func fakeEval(req *engine.Request) ([]engine.Hazard, error) {
 		vol[s.Text] += s.VolumeL
 	}
 	var hs []engine.Hazard
-	if vol["acid"] > vol["base"] {
+	if vol["acid"] > vol["base"] && vol["base"] > 0 { // each alone has nothing
 		hs = append(hs, engine.Hazard{Code: "gas", Severity: engine.Danger})
 	}
 	if vol["acid"] >= 0.5 && vol["base"] >= 0.5 {
@@ -64,8 +64,13 @@ func TestAnalyseTwoStreams(t *testing.T) {
 }
 
 func TestAnalyseThreeStreamsAndNeither(t *testing.T) {
+	// Any two streams meet the hazard; one alone has none (a stream's own
+	// hazards are not the pour's).
 	always := func(req *engine.Request) ([]engine.Hazard, error) {
-		return []engine.Hazard{{Code: "gas", Severity: engine.Danger}}, nil
+		if len(req.Streams) < 2 {
+			return nil, nil
+		}
+		return []engine.Hazard{{Code: "gas", Severity: engine.Danger, Gas: &engine.GasJudged{Ratio: 100}}}, nil
 	}
 	req := &engine.Request{Streams: []engine.Stream{{Text: "a"}, {Text: "b"}, {Text: "c", MassKg: 2}}}
 	add := Analyse(req, always)
@@ -189,7 +194,7 @@ func TestInletJudgesNoHeat(t *testing.T) {
 			vol[s.Text] += s.VolumeL + s.MassKg
 		}
 		var hs []engine.Hazard
-		if vol["salt"] > vol["water"] {
+		if vol["salt"] > vol["water"] && vol["water"] > 0 { // the salt alone has nothing
 			hs = append(hs, engine.Hazard{Code: "near-boiling", Severity: engine.Danger, Heat: &engine.HeatJudged{ReachedC: 95}})
 			hs = append(hs, engine.Hazard{Code: "fumes", Severity: engine.Danger})
 		}
@@ -288,5 +293,45 @@ func TestOneRuleForTheOrder(t *testing.T) {
 	Written(add, &engine.Request{PourInto: true, Streams: make([]engine.Stream, 2)})
 	if add.Written == nil || add.Written.Worse || strings.Contains(add.Advice, "worse") || !add.Orders[1].Advised {
 		t.Errorf("written %+v, advice %q", add.Written, add.Advice)
+	}
+}
+
+// TestStreamsOwnHazardsAreNotThePours: a hazard the tank or the added
+// stream has by itself, as loud, is not met along the pour (caustic dosed
+// into a cyanide liquor does not release its hydrogen cyanide; water run
+// into strong ammonia does not raise its fumes); one the pour makes louder
+// is.
+func TestStreamsOwnHazardsAreNotThePours(t *testing.T) {
+	eval := func(req *engine.Request) ([]engine.Hazard, error) {
+		vol := map[string]float64{}
+		for _, s := range req.Streams {
+			vol[s.Text] += s.VolumeL
+		}
+		var hs []engine.Hazard
+		if vol["cyanide"] > 0 {
+			// The liquor's own trace over its headspace; acid makes it louder.
+			r := 2.0
+			if vol["acid"] > 0 {
+				r = 500
+			}
+			hs = append(hs, engine.Hazard{Code: "hcn-release", Severity: engine.Danger, Gas: &engine.GasJudged{Formula: "HCN", Ratio: r}})
+		}
+		return hs, nil
+	}
+	for _, tc := range []struct {
+		other string
+		want  bool
+	}{{"caustic", false}, {"acid", true}} {
+		req := &engine.Request{Streams: []engine.Stream{{Text: "cyanide", VolumeL: 100}, {Text: tc.other, VolumeL: 10}}}
+		add := Analyse(req, eval)
+		for _, o := range add.Orders {
+			got := false
+			for _, h := range o.Hazards {
+				got = got || h.Code == "hcn-release"
+			}
+			if got != tc.want {
+				t.Errorf("%s into %s: hcn-release met %v, want %v", o.Added, o.Into, got, tc.want)
+			}
+		}
 	}
 }

@@ -133,6 +133,13 @@ func atInlet(r *engine.Request, eval Evaluate) ([]engine.PourHazard, int) {
 	added := withAmount(r.Streams[n-1])
 	var out []engine.PourHazard
 	seen := map[string]bool{}
+	// What the added stream has by itself it has wherever it lands.
+	own, _ := tankAlone(r, eval, func(f float64) []engine.Stream {
+		if f == 0 {
+			return nil
+		}
+		return []engine.Stream{added}
+	})
 	pts := 0
 	for _, f := range inletShares {
 		q := *r
@@ -147,7 +154,7 @@ func atInlet(r *engine.Request, eval Evaluate) ([]engine.PourHazard, int) {
 		}
 		pts++
 		for _, h := range hs {
-			if h.Severity != engine.Danger || h.Heat != nil || heatGrade[h.Code] > 0 || seen[h.Code] {
+			if h.Severity != engine.Danger || h.Heat != nil || heatGrade[h.Code] > 0 || seen[h.Code] || own.covers(h) {
 				continue
 			}
 			seen[h.Code] = true
