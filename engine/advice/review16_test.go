@@ -125,9 +125,11 @@ func TestReview16(t *testing.T) {
 		{
 			// Ammonium persulfate 20 % (about 0.9 mol/L in the mix) with
 			// neat glycol: slow cold, runaway warm (Bretherick's Handbook,
-			// peroxodisulfates with organic matter, from memory).
+			// peroxodisulfates with organic matter, from memory); if it
+			// runs, its heat (persulfate's reduction counted, review 19)
+			// boils the mix: do not mix.
 			name: "persulfate with glycol", req: "mix 200 L ammonium persulfate 20 % + 20 L ethylene glycol",
-			level: engine.WithPrecautions, want: "oxidizer-organic-heat",
+			level: engine.DoNotMix, want: "oxidizer-organic-fire",
 		},
 		{
 			// A peracetic acid sanitiser dose with phosphoric acid: the
@@ -342,8 +344,10 @@ func TestPeroxideTakenByAReducerIsDosedSlowly(t *testing.T) {
 
 // TestPersulfateGlycolShowsHeatIfItRuns: persulfate does not oxidize the
 // glycol at once in the cold, so its heat is not counted, but the Heat line
-// shows what it gives if it runs warm: 198 mol persulfate × 2 electrons ×
-// 104.5 kJ (Thornton's rule, from memory) is about 41 MJ.
+// shows what it gives if it runs warm: about 175 mol persulfate × 2
+// electrons × 198.5 kJ (Thornton's rule, from memory, with persulfate's
+// heat of reduction against oxygen's, NBS Tables 1982 ΔfH°, from memory)
+// is about 70 MJ.
 func TestPersulfateGlycolShowsHeatIfItRuns(t *testing.T) {
 	short := advice.RenderShort(ask(t, mustAdvisor(t), "mix 200 L ammonium persulfate 20 % + 20 L ethylene glycol"))
 	if !strings.Contains(short, "if it runs: ") {

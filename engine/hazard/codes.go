@@ -99,6 +99,7 @@ var codes = []Code{
 	{"peracid-forming", "forms peracetic acid slowly: gas on standing", nil},
 	{"warm-bleach", "warm bleach: loses strength, forms chlorate", nil},
 	{"warm-persulfate", "warm persulfate gives off oxygen as it stands", nil},
+	{"hot-peroxide-concentrate", "concentrated peroxide heated past about 50 °C: can run away", nil},
 	{"caro-acid-forming", "peroxide with strong sulfuric acid: Caro's acid fires organic matter", nil},
 	{"boils", "boils", []string{"boiling", "neutralisation-heat"}},
 	{"near-boiling", "gets near boiling: spits where the streams meet", []string{"boiling", "strong-heat", "neutralisation-heat"}},

@@ -26,7 +26,13 @@ type FamilyHeat struct {
 	DeltaH      float64
 	Stated      float64 // the row's number; NaN when written "-"
 	FromSpecies bool
-	Source      string
+	// Electrons is the electrons a half-reaction row takes up (0 for a
+	// reaction): its DeltaH is then per that many mol of electrons.
+	Electrons int
+	// Protons is the H+ a half-reaction row takes up (net, left less
+	// right).
+	Protons float64
+	Source  string
 }
 
 func parseFamilyHeats(b []byte) (map[string]*FamilyHeat, error) {
@@ -90,7 +96,12 @@ func (d *Data) UseSpecies(db *thermo.DB) error {
 		if db != nil {
 			if r, err := thermo.ParseReaction(db, fh.Reaction); err == nil {
 				if dh, ok := r.DeltaH(); ok {
-					fh.DeltaH, fh.FromSpecies = dh, true
+					fh.DeltaH, fh.FromSpecies, fh.Electrons = dh, true, r.Electrons
+					for _, t := range r.Terms {
+						if t.Species.Text == "H+" {
+							fh.Protons -= t.Nu
+						}
+					}
 					continue
 				}
 			}

@@ -44,6 +44,20 @@ func TestFamilyHeatsAgainstSpeciesData(t *testing.T) {
 			t.Errorf("%s: stated %.1f kJ/mol, species data %.1f", code, fh.Stated, fh.DeltaH)
 		}
 	}
+	// The oxidizing agents' reductions (oxidizerKJPerElectron) are
+	// half-reactions computed from the species data; the stated numbers
+	// are the hand values.
+	for code, fh := range d.Families {
+		if !strings.HasPrefix(code, "oxidizer-organic-fire:") {
+			continue
+		}
+		if !fh.FromSpecies || fh.Electrons <= 0 {
+			t.Errorf("%s: not a half-reaction the species data give (%q)", code, fh.Reaction)
+		}
+		if !math.IsNaN(fh.Stated) && math.Abs(fh.Stated-fh.DeltaH) > 5 {
+			t.Errorf("%s: stated %.1f kJ/mol, species data %.1f", code, fh.Stated, fh.DeltaH)
+		}
+	}
 	quoted := []struct {
 		code string
 		dH   float64

@@ -292,6 +292,11 @@ type strongOxidizer struct {
 	// but makes a mixture that burns fiercely or explodes once warmed,
 	// dried out (a soaked rag, a crust on the drum) or lit.
 	slow bool
+	// warmRuns: a slow oxidizer whose solution oxidizes the liquid by
+	// itself once warm (warmNote says from where), with runaway heat: the
+	// heat if it runs is a danger when it would boil the mix.
+	warmRuns bool
+	warmNote string
 }
 
 // hypochloriteIndex is the place of the hypochlorite row in strongOxidizers.
@@ -327,7 +332,8 @@ var strongOxidizers = []strongOxidizer{
 	// with organic matter, from memory; 0.5 mol/L: common practice, no
 	// source.
 	{name: "Persulfate", reagent: "S2O8^2-", species: []string{"S2O8^2-"}, solids: []string{"Na2S2O8", "K2S2O8", "(NH4)2S2O8"},
-		electrons: 2, solution: 0.5, organic: OrganicLiquidMolar, slow: true},
+		electrons: 2, solution: 0.5, organic: OrganicLiquidMolar, slow: true,
+		warmRuns: true, warmNote: "about 50–60 °C, where it breaks into sulfate radicals"},
 	{name: "Sodium peroxide", reagent: "O2^2-", species: []string{"HO2-"}, solids: []string{"Na2O2"},
 		electrons: 2, organic: OrganicLiquidMolar},
 }
@@ -339,47 +345,142 @@ var strongOxidizers = []strongOxidizer{
 // is an estimate only.
 const ThorntonKJPerElectron = 418.0 / 4
 
+// oxidizerKJPerElectron is the heat of the oxidizing agent reagent
+// oxidizing organic matter, kJ per mol of electrons: Thornton's rule holds
+// for oxygen, and an oxidizing agent whose reduction gives off more (or
+// less) heat than oxygen's adds the difference per electron (Hess's law):
+// the organic side of the reaction is the same whichever agent takes its
+// electrons. The reductions are rows oxidizer-organic-fire:REAGENT of
+// data/familyheats.txt, computed from the species data; without them the
+// rule alone. It also says how the figure was reached.
+func (o *Outcome) oxidizerKJPerElectron(reagent string) (float64, string) {
+	base := ThorntonKJPerElectron
+	if f, ok := o.family("oxidizer-organic-fire"); ok {
+		base = -f.dH
+	}
+	red, o2 := o.families["oxidizer-organic-fire:"+reagent], o.families["oxidizer-organic-fire:O2"]
+	if red == nil || o2 == nil || red.Electrons <= 0 || o2.Electrons <= 0 || !red.FromSpecies || !o2.FromSpecies {
+		return base, "Thornton's rule, about " + fmtNum(base, 4) + " kJ per mol of electrons"
+	}
+	extra := o2.DeltaH/float64(o2.Electrons) - red.DeltaH/float64(red.Electrons)
+	// The rows are written in acid. An agent that takes up more H+ per
+	// electron than oxygen (permanganate to manganese dioxide) finds them
+	// as free acid only in an acid mix; short of it they come from water,
+	// which costs the heat of neutralisation back (55.84 kJ per mol, NBS
+	// Tables 1982 ΔfH° of water and hydroxide, from memory).
+	if h := red.Protons/float64(red.Electrons) - o2.Protons/float64(o2.Electrons); h > 0 && o.PH >= AcidMixPH {
+		extra -= h * neutralisationKJ
+	}
+	kJ := base + extra
+	return kJ, "about " + fmtNum(kJ, 3) + " kJ per mol of electrons: Thornton's rule for oxygen, " + fmtNum(base, 4) + ", " + signed(extra) +
+		" kJ for this agent's reduction against oxygen's"
+}
+
+// AcidMixPH is the pH below which a mix holds the free acid that an
+// oxidizing agent's reduction takes up (common practice, no source).
+const AcidMixPH = 2.0
+
+// neutralisationKJ is the heat of H+ + OH- → H2O, kJ per mol: ΔfH° of
+// water −285.83 less hydroxide −229.99 (NBS Tables 1982, from memory).
+const neutralisationKJ = -dfHWater + dfHHydroxide
+
+// signed writes x with its sign (+94, −12).
+func signed(x float64) string {
+	if x < 0 {
+		return "−" + fmtNum(-x, 2)
+	}
+	return "+" + fmtNum(x, 2)
+}
+
 // oxidizerOrganic: solid permanganate, chromic acid, calcium hypochlorite
 // or a chloroisocyanurate on an organic liquid ignites, often after a short
 // delay; concentrated chromic acid oxidizes alcohols fast, to the boil.
 func oxidizerOrganic(o *Outcome) (engine.Hazard, bool) {
-	for _, x := range strongOxidizers {
+	for i, x := range strongOxidizers {
 		ox := o.MolarBefore(x.species...)
 		solid := o.SolidStream(x.solids...)
-		conc := x.solution > 0 && ox >= x.solution && (x.acidPH == 0 || o.PH < x.acidPH)
+		acid := x.acidPH == 0 || o.PH < x.acidPH
+		conc := x.solution > 0 && ox >= x.solution && acid
 		org, orgE := organicLiquid(o, solid || x.slow)
-		if !(solid && org >= OrganicLiquidMolar) && !(conc && org >= x.organic) {
+		// Solvents (ketones, hydrocarbons) that a solution oxidizes only
+		// slowly in the cold; hypochlorite meets acetone in its own family
+		// (haloform).
+		var solv, solvE float64
+		if !solid && !x.slow && i != hypochloriteIndex {
+			solv, solvE = solventFuel(o)
+		}
+		fastE := math.Min(ox*x.electrons, orgE)
+		perE, basis := o.oxidizerKJPerElectron(x.reagent)
+		// A weaker solution that still boils the mix with the organic
+		// liquid in it (the oxidation's heat with the rest of the mix's:
+		// dichromate and sulfuric acid with isopropanol) boils off
+		// flammable vapour over a strong oxidizer.
+		boiling := false
+		if !solid && !conc && !x.slow && x.solution > 0 && acid && ox >= OxidizerReagentMolar && org >= OrganicLiquidMolar {
+			reached := o.TemperatureC
+			if o.Heat.Known {
+				reached = o.Heat.ReachedC
+			}
+			if !o.runsOrganic() {
+				reached += engine.TemperatureRise(fastE*o.VolumeL*perE, o.VolumeL)
+			}
+			boiling = reached >= BoilingC
+		}
+		if !(solid && org >= OrganicLiquidMolar) && !(conc && org+solv >= x.organic) && !boiling {
 			continue
 		}
-		rh := o.familyHeat("oxidizer-organic-fire", reagent{x.reagent, ox * x.electrons * o.VolumeL, 1}, reagent{"organic liquid", orgE * o.VolumeL, 1})
-		if rh != nil {
-			rh.Reaction = lowerFirst(x.name) + " oxidizing the organic liquid (Thornton's rule, about 104.5 kJ per mol of electrons)"
-		}
-		kJ := math.Min(ox*x.electrons, orgE) * o.VolumeL * ThorntonKJPerElectron
-		heat, hot := heatEstimate(o, kJ)
+		rh := o.oxidizerHeat(x, perE, basis, ox*x.electrons*o.VolumeL, orgE*o.VolumeL)
+		heat, hot := heatEstimate(o, fastE*o.VolumeL*perE)
 		var runaway *engine.ReactionHeat
-		if x.slow {
+		slowOnly := orgE <= 0 && solvE > 0
+		switch {
+		case x.slow:
 			// Nothing burns until the mixture is lit or dries out: the
 			// heat is what a fire would give, not what the mix does. A
 			// solution that oxidizes the liquid once warm (persulfate)
-			// shows it as the heat if it runs, not counted.
+			// shows it as the heat if it runs, not counted; if that heat
+			// would boil the mix it is a runaway waiting for the first
+			// warm spot.
 			if !solid {
 				runaway = rh
 			}
-			rh, hot = nil, false
+			rh = nil
 			heat = "if it burns, " + heat
+			if x.warmRuns && !solid {
+				heat = "if it runs, " + strings.TrimPrefix(heat, "if it burns, ")
+			} else {
+				hot = false
+			}
+		case solvE > 0:
+			// The solvent's share: slow in the cold, shown as the heat if
+			// it runs once the bath warms, never counted.
+			runaway = o.oxidizerHeat(x, perE, basis, math.Max(ox*x.electrons-fastE, 0)*o.VolumeL, solvE*o.VolumeL)
+			if slowOnly && runaway != nil {
+				var runHot bool
+				heat, runHot = heatEstimate(o, runaway.ReleasedkJ)
+				heat, hot = "if it runs, "+heat, runHot
+			}
 		}
 		sev := engine.Warning
-		if solid || hot || org >= OrganicNeatMolar || conc && x.landsNeat {
+		if solid || hot || boiling || org+solv >= OrganicNeatMolar || conc && x.landsNeat {
 			sev = engine.Danger
 		}
 		how := "a concentrated solution"
 		if solid {
 			how = "the solid"
+		} else if boiling {
+			how = "the solution"
 		}
 		what := how + " oxidizes it violently and can set it alight, often after a short delay"
-		if x.slow {
+		switch {
+		case boiling:
+			what = how + " oxidizes it and the mix boils: flammable vapour comes off over a strong oxidizer, which can set it alight"
+		case x.slow && x.warmRuns && !solid:
+			what = how + " oxidizes it slowly in the cold, then with runaway heat once warm (" + x.warmNote + "), and makes with it a mixture that burns fiercely once dried out (a soaked rag, a crust on a drum) or lit"
+		case x.slow:
 			what = how + " makes with it a mixture that burns fiercely or explodes once warmed, dried out (a soaked rag, a crust on a drum) or lit"
+		case slowOnly:
+			what = how + " oxidizes ketones and solvents slowly in the cold, then fast and with heat once the bath warms, and can set them alight"
 		}
 		code := "oxidizer-organic-fire"
 		if sev == engine.Warning {
@@ -387,15 +488,71 @@ func oxidizerOrganic(o *Outcome) (engine.Hazard, bool) {
 			// liquid with heat; the title must not promise a fire.
 			code = "oxidizer-organic-heat"
 			what = how + " oxidizes it with heat; stronger or hotter, it can set it alight"
+			if slowOnly {
+				what = how + " oxidizes it slowly in the cold, with heat once warm; stronger or hotter, it can set it alight"
+			}
 		}
 		h := withHeat(mk(code, sev,
-			x.name+" with an organic liquid ("+fmtNum(org, 2)+" mol/L of alcohol, solvent, glycol, amine or glycerol): "+what+" ("+heat+" from Thornton's rule).",
-			"Do not combine. Keep strong oxidizers (permanganate, chromic acid, hypochlorite and chlorinating granules, chlorates, chlorites, bromates, perchlorates, nitrates, persulfates, peroxides) away from solvents, alcohols, amines and glycerol; dispose of each separately.",
-			"Bretherick's Handbook of Reactive Chemical Hazards, potassium permanganate with glycerol, chromium trioxide with ethanol, calcium hypochlorite with alcohols, sodium chlorate and sodium chlorite with organic matter, nitrates and perchlorates with organic materials, sodium peroxide with organic matter (from memory); heat by Thornton's rule, 418 kJ per mol O2 (from memory); thresholds: common practice, no source"), rh)
+			x.name+" with an organic liquid ("+fmtNum(org+solv, 2)+" mol/L of alcohol, solvent, glycol, amine or glycerol): "+what+" ("+heat+", from Thornton's rule and the agent's heat of reduction).",
+			"Do not combine. Keep strong oxidizers (permanganate, chromic acid, hypochlorite and chlorinating granules, chlorates, chlorites, bromates, perchlorates, nitrates, persulfates, peroxides) away from solvents, alcohols, ketones, amines and glycerol; never dose a solvent into an oxidizer bath; dispose of each separately.",
+			"Bretherick's Handbook of Reactive Chemical Hazards, potassium permanganate with glycerol, chromium trioxide with ethanol and with acetone, calcium hypochlorite with alcohols, sodium chlorate and sodium chlorite with organic matter, nitrates and perchlorates with organic materials, peroxodisulfates with organic matter, sodium peroxide with organic matter (from memory); heat by Thornton's rule, 418 kJ per mol O2 (from memory), with the difference between the agent's heat of reduction and oxygen's from ΔfH° of data/species.txt (NBS Tables 1982, from memory); thresholds: common practice, no source"), rh)
 		h.RunawayHeat = runaway
 		return h, true
 	}
 	return engine.Hazard{}, false
+}
+
+// OxidizerReagentMolar is the least strong oxidizer in the mix (mol/L) that
+// the boiling case of oxidizerOrganic counts: a reagent, not a trace
+// (common practice, no source).
+const OxidizerReagentMolar = 0.1
+
+// oxidizerHeat is the heat of the oxidizer x taking up to oxE mol of
+// electrons from fuelE mol of electrons' worth of organic matter, perE kJ
+// per mol of electrons; nil when the data have no row for the family.
+func (o *Outcome) oxidizerHeat(x strongOxidizer, perE float64, basis string, oxE, fuelE float64) *engine.ReactionHeat {
+	rh := o.familyHeat("oxidizer-organic-fire", reagent{x.reagent, oxE, 1}, reagent{"organic liquid", fuelE, 1})
+	if rh == nil {
+		return nil
+	}
+	rh.Reaction = lowerFirst(x.name) + " oxidizing the organic liquid (" + basis + ")"
+	rh.DeltaHkJPerMol = sig(-perE)
+	rh.ReleasedkJ = sig(perE * rh.ExtentMol)
+	if f, ok := o.family("oxidizer-organic-fire:" + x.reagent); ok {
+		rh.Source += "; " + f.source
+	}
+	return rh
+}
+
+// solvents are the organic solvents that a strong oxidizer in solution
+// oxidizes only slowly in the cold, and fast once the bath warms, with the
+// electrons one molecule gives up (acetone to acetic acid and carbon
+// dioxide, CH3COCH3 + 3 H2O → CH3COOH + CO2 + 8 H+ + 8 e-; 0: burnt right
+// through, an upper bound): concentrated chromic acid with acetone is a
+// listed violent reaction (Bretherick's Handbook of Reactive Chemical
+// Hazards, chromium trioxide: acetone, from memory).
+var solvents = map[string]float64{"CH3COCH3": 8, "C6H5CH3": 0, "C6H14": 0}
+
+// solventFuel is the mol/L of solvents in the mix and the mol/L of
+// electrons they can give up.
+func solventFuel(o *Outcome) (molar, electrons float64) {
+	for i := range o.Before {
+		a := &o.Before[i]
+		e, ok := solvents[a.key()]
+		if !ok || a.Molar < TraceMolar {
+			continue
+		}
+		if e == 0 {
+			at, err := chem.ParseFormula(a.Species.Formula)
+			if err != nil {
+				continue
+			}
+			e = fuelElectrons(at, a.Species.Charge)
+		}
+		molar += a.Molar
+		electrons += a.Molar * e
+	}
+	return molar, electrons
 }
 
 // unassessedFuel: organic matter whose data the tables lack, beside a

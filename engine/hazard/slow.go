@@ -2,6 +2,7 @@ package hazard
 
 import (
 	"math"
+	"strings"
 
 	"mixward/engine"
 )
@@ -12,7 +13,7 @@ import (
 // peroxide and acetic acid, peracid breaking down in alkali). Each rule
 // names its source.
 var slowRules = []func(o *Outcome) (engine.Hazard, bool){
-	chromiumVILeft, chlorateKept, peracidForming, warmHypochlorite, warmPersulfate, caroAcid,
+	chromiumVILeft, chlorateKept, peracidForming, warmHypochlorite, warmPersulfate, caroAcid, hotPeroxideConcentrate,
 }
 
 // standingCodes are hazards of the mix as it stands (it changes over hours:
@@ -160,6 +161,55 @@ func warmPersulfate(o *Outcome) (engine.Hazard, bool) {
 	return mk("warm-persulfate", engine.Warning, msg+".",
 		"Vent the tank and use the batch promptly; keep organic matter, solvents and rags away from it; do not store it warm in a closed vessel.",
 		"Kolthoff and Miller, J. Am. Chem. Soc. 1951, persulfate decomposition rates (from memory); Bretherick's Handbook of Reactive Chemical Hazards, peroxodisulfates and peroxomonosulfuric acid (from memory); 60 °C threshold: common practice, no source"), true
+}
+
+// Hot peroxide concentrate (common practice, no source, unless said):
+// hydrogen peroxide of about 30 % (9 mol/L) and peracetic acid of about
+// 15 % (2 mol/L) are the strengths from which a batch heated past about
+// 50 °C can self-accelerate: concentrated peracids and peroxides decompose
+// faster as they warm, with oxygen and more heat (Bretherick's Handbook of
+// Reactive Chemical Hazards, peroxyacetic acid and hydrogen peroxide, from
+// memory; peracetic acid suppliers' SADT about 50–60 °C, from memory). A
+// mix of both counts each against its own strength (a 15 % peracetic acid
+// grade carries about 23 % peroxide). The heat must be the mix's own: the
+// rule is about a reaction or dilution that heats the concentrate, not a
+// stated warm tank.
+const (
+	HotPeroxideMolar = 9.0
+	HotPeracidMolar  = 2.0
+	HotPeroxideC     = 50.0
+	// HotPeroxideRiseC is the least rise by the mix's own heat the rule
+	// counts.
+	HotPeroxideRiseC = 5.0
+	// CoolPeroxideC is the temperature a dosing of such a concentrate is
+	// kept below.
+	CoolPeroxideC = 40.0
+)
+
+// hotPeroxideConcentrate: concentrated peroxide or peracid left in excess
+// by a reaction (or a dilution) that heats it past about 50 °C can
+// self-accelerate: it decomposes faster as it warms, giving off oxygen and
+// more heat, and may boil over or burst its tank. Cooling after the fact is
+// too late: the concentrate is diluted first, then dosed with cooling.
+func hotPeroxideConcentrate(o *Outcome) (engine.Hazard, bool) {
+	if !o.Heat.Known || o.Heat.ReachedC < HotPeroxideC || o.Heat.RiseC < HotPeroxideRiseC || o.VolumeL <= 0 {
+		return engine.Hazard{}, false
+	}
+	h2o2, pa := o.Molar("H2O2", "HO2-"), o.Molar("CH3CO3H", "CH3CO3-")
+	if h2o2/HotPeroxideMolar+pa/HotPeracidMolar < 1 {
+		return engine.Hazard{}, false
+	}
+	var what []string
+	if pa >= 0.01 {
+		what = append(what, "peracetic acid "+fmtNum(pa, 2)+" mol/L")
+	}
+	if h2o2 >= 0.01 {
+		what = append(what, "hydrogen peroxide "+fmtNum(h2o2, 2)+" mol/L")
+	}
+	return mk("hot-peroxide-concentrate", engine.Danger,
+		"The mix heats concentrated peroxide ("+strings.Join(what, ", ")+" left after the reaction) to about "+fmtNum(o.Heat.ReachedC, 3)+" °C: above about 50 °C concentrated peracids and peroxides decompose faster as they warm, with oxygen and more heat, and the batch can run away, boil over or burst a closed tank.",
+		"Do not combine as written: dilute the concentrate with water first (below about 15 % peracid or 30 % peroxide), then dose the other stream slowly with cooling, keeping the tank below about "+fmtNum(CoolPeroxideC, 2)+" °C; vent the tank.",
+		"Bretherick's Handbook of Reactive Chemical Hazards, peroxyacetic acid and hydrogen peroxide (from memory); peracetic acid suppliers' SADT about 50–60 °C (from memory); thresholds 9 mol/L peroxide, 2 mol/L peracid, 50 °C and 40 °C: common practice, no source"), true
 }
 
 // Caro's acid thresholds (mol/L in the mix before reaction; common
