@@ -65,6 +65,11 @@ func TestReview19Sequences(t *testing.T) {
 		// make-up that may be blended dry keeps the warning.
 		{req: "mix 5 kg ammonium sulfate + 5 kg NaOH", level: engine.DoNotMix, order: "NaOH>(NH4)2SO4"},
 		{req: "mix 2000 L water + 1 kg sodium nitrite + 1 kg ammonium chloride", level: engine.WithPrecautions, order: "NaNO2>NH4Cl"},
+		// Bleach run into water already acidified gives chlorine (common
+		// practice, no source: never add acid to a tank containing
+		// hypochlorite, nor hypochlorite to acid): with the water first,
+		// the order of the reagents into it still matters.
+		{req: "mix 2000 L water + 20 L NaOH 50 % + 5 L NaOCl 12.5 % + 2 L HCl 33 %", level: engine.WithPrecautions, advice: "Never let HCl 33 % and NaOCl 12.5 % meet neat"},
 		// A solid chlorinator with a solid acid gives chlorine (Bretherick's
 		// Handbook, calcium hypochlorite: acids, from memory).
 		{req: "mix 10 kg Ca(OCl)2 + 10 kg NaHSO4", level: engine.DoNotMix, order: "NaHSO4>Ca(OCl)2"},

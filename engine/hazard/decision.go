@@ -171,8 +171,8 @@ func decideSequence(d engine.Decision, finalW int, final []engine.Hazard, add *e
 	}
 	// liftW is the worst rank of the other sequences that lifts the
 	// decision: all of it, unless a natural sequence (water first) is
-	// among the best; then only what pour.LiftRank counts, and the rest
-	// stays in the advice (an action line).
+	// among the best; then only the dangers pour.LiftRank counts, and the
+	// rest stays in the advice (an action line).
 	liftW := allW
 	if natural {
 		liftW = bestW

@@ -291,24 +291,37 @@ func SequenceRank(s *engine.PourSequence) int {
 	return w
 }
 
-// LiftRank is the rank by which a sequence other than the natural one
-// lifts the decision of a make-up that a natural sequence (water first,
-// the rest run into it) makes safely. Solids are charged from bags, often
-// into the empty tank or blended dry before the water goes in, so a danger
-// met among dry solids (a dry blend of oxidizer with fuel, of ammonium
-// salt with caustic, of acid with hypochlorite granules: Bretherick's
-// Handbook of Reactive Chemical Hazards, from memory) or by water run onto
-// them (water onto caustic flakes boils: common practice, no source)
-// counts (PourOrder.DryStep). A milder hazard there (a dry effervescent
-// blend fizzing as it is wetted, a heap warming), and whatever
-// concentrates meet when run neat into each other or onto a solid before
-// the water, stay in the advice: the make-up is run the natural way, and
-// the action line names what to avoid (common practice, no source).
+// LiftRank is the rank by which a sequence other than the best lifts the
+// decision of a make-up that a natural sequence (water first, the rest run
+// into it) makes safely; hazard.decideSequence uses it then. Only a danger
+// counts: a milder hazard along another sequence (soda ash run into alum
+// water fizzes, a dry effervescent blend fizzes as it is wetted, a heap
+// warms) stays in the advice, as an action line.
+//   - Another sequence that also starts with the water counts by its
+//     dangers: running the reagents into the water in the wrong order is a
+//     mistake an operator makes (bleach into water already acidified).
+//   - A sequence that starts with something else counts only by a danger
+//     met among dry solids (PourOrder.DryStep): solids are charged from
+//     bags, often into the empty tank or blended dry before the water goes
+//     in, so a dry blend of oxidizer with fuel, of ammonium salt with
+//     caustic, of acid with hypochlorite granules (Bretherick's Handbook of
+//     Reactive Chemical Hazards, from memory) and water run onto caustic
+//     flakes (it boils where it lands: common practice, no source) are
+//     real. What concentrates meet run neat into each other or onto a
+//     solid before the water is named by the advice ("never let … meet
+//     neat") and does not lift the decision (common practice, no source).
 func LiftRank(s *engine.PourSequence) int {
+	danger := engine.Danger.Rank()
+	if s.WaterFirst {
+		if r := SequenceRank(s); r >= danger {
+			return r
+		}
+		return 0
+	}
 	w := 0
 	for i := range s.Steps {
 		st := &s.Steps[i]
-		if r := Rank(st); st.DryStep && r >= engine.Danger.Rank() {
+		if r := Rank(st); st.DryStep && r >= danger {
 			w = max(w, r)
 		}
 	}
