@@ -126,6 +126,10 @@ type PourSequence struct {
 	Streams []string    `json:"streams"` // in the order they go in; the first is the tank
 	Steps   []PourOrder `json:"steps"`   // each stream after the first run into what is there
 	Worst   Severity    `json:"worst,omitempty"`
+	// WaterFirst: the sequence starts the tank with a stream of water
+	// alone (the natural way of a make-up: the rest dissolved or diluted
+	// into it). Not part of the JSON answer: the decision reads it.
+	WaterFirst bool `json:"-"`
 }
 
 // PourOrder is one order of addition: Added is run into Into.
@@ -145,6 +149,11 @@ type PourOrder struct {
 	// into the much larger one, although running the larger into the
 	// smaller meets less (which is not practical at those volumes).
 	Dosed bool `json:"dosed,omitempty"`
+	// DryStep: every stream already in the tank is a solid given by mass
+	// and the stream run in is another solid (a dry blend) or water run
+	// onto them. Set on the steps of a sequence; not part of the JSON
+	// answer.
+	DryStep bool `json:"-"`
 }
 
 // PourHazard is one hazard met along a pour, between two fractions of the

@@ -59,6 +59,7 @@ func (a *Advisor) Predict(req *engine.Request) (*engine.Result, error) {
 		return nil, err
 	}
 	o := hazard.FromResult(res, a.Engine.Tables)
+	o.HottestC = hottestC(req)
 	alone := a.alone(req, o.HeadspaceL)
 	res.Hazards = hazard.RelativeFinal(hazard.Judge(o, a.Gases), pick(alone, req.Streams))
 	if o.Heat.Known && len(o.Heat.Families) > 0 {
@@ -171,6 +172,7 @@ func (a *Advisor) judgeIn(req *engine.Request, headspaceL float64) ([]engine.Haz
 		return nil, nil, err
 	}
 	o := hazard.FromResult(res, a.Engine.Tables)
+	o.HottestC = hottestC(req)
 	o.InTank(headspaceL)
 	return hazard.Judge(o, a.Gases), o, nil
 }
@@ -207,6 +209,22 @@ func (a *Advisor) alone(req *engine.Request, headspaceL float64) map[string]haza
 		out[streamKey(s)] = al
 	}
 	return out
+}
+
+// hottestC is the temperature (°C) of the hottest stream of req as
+// stored (25 °C for one without its own), or the one stated for the whole
+// mix when that is hotter (hazard.Outcome.HottestC).
+func hottestC(req *engine.Request) float64 {
+	k := engine.StandardTemperatureK
+	if req.TempStated && !req.TempFromStreams {
+		k = req.TemperatureK
+	}
+	for _, s := range req.Streams {
+		if s.TemperatureK != nil {
+			k = max(k, *s.TemperatureK)
+		}
+	}
+	return k - 273.15
 }
 
 // streamAlone is the request of one stream of req by itself, as stored.

@@ -84,9 +84,12 @@ func TestReview16(t *testing.T) {
 		{
 			// Dilute peroxide and acid in a rinse tank: no Caro's acid in
 			// the mix (the pair poured neat, peroxide into the 50 % acid,
-			// does form some along its pour).
+			// does form some along its pour). Each run into the water is
+			// the natural make-up and meets nothing, so the neat pair is
+			// an action line, not a precaution of the mix (review 19:
+			// common practice, no source).
 			name: "dilute peroxide and acid rinse", req: "mix 1000 L water + 10 L H2O2 35 % + 10 L sulfuric acid 50 %",
-			level: engine.WithPrecautions, finalNot: "caro-acid-forming",
+			level: engine.NoConcern, finalNot: "caro-acid-forming",
 		},
 		{
 			// Borohydride in caustic reducing copper: the fresh copper

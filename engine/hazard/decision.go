@@ -163,8 +163,22 @@ func decideSequence(d engine.Decision, finalW int, final []engine.Hazard, add *e
 			best, bestW = s, w
 		}
 	}
+	natural := false
 	for i := range add.Sequences {
-		allW = max(allW, pour.SequenceRank(&add.Sequences[i]))
+		s := &add.Sequences[i]
+		allW = max(allW, pour.SequenceRank(s))
+		natural = natural || (s.WaterFirst && pour.SequenceRank(s) == bestW)
+	}
+	// liftW is the worst rank of the other sequences that lifts the
+	// decision: all of it, unless a natural sequence (water first) is
+	// among the best; then only the dangers pour.LiftRank counts, and the
+	// rest stays in the advice (an action line).
+	liftW := allW
+	if natural {
+		liftW = bestW
+		for i := range add.Sequences {
+			liftW = max(liftW, pour.LiftRank(&add.Sequences[i]))
+		}
 	}
 	level := max(finalW, bestW)
 	seqText := strings.Join(best.Streams, ", then ")
@@ -188,7 +202,7 @@ func decideSequence(d engine.Decision, finalW int, final []engine.Hazard, add *e
 					" from "+pct(ph.FromFraction)+" to "+pct(ph.ToFraction)+" of the addition")
 			}
 		}
-	case allW > bestW:
+	case liftW > bestW:
 		level = max(level, 2)
 		if finalW < 2 {
 			d.Title = "hazard along the pour in other sequences"

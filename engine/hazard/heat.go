@@ -58,7 +58,14 @@ func judgeHeat(o *Outcome) []engine.Hazard {
 		z = mk("near-boiling", sev,
 			"The mix releases "+fmtNum(h.ReleasedkJ, 3)+" kJ and reaches about "+fmtNum(h.ReachedC, 3)+" °C on average: where the streams meet it boils and spits.",
 			act, src)
-	case h.ReachedC >= ScaldC:
+	case h.ReachedC >= ScaldC && !(max(o.HottestC, o.TemperatureC) >= ScaldC && dilutionHeat(o)):
+		// Dissolving or diluting makes a hazard of scalding only where it
+		// brings the liquid to scalding: water stated at 70 °C scalds
+		// before it meets anything, and the operator handles it as hot
+		// water; a few degrees more from dissolving soda ash in it are
+		// judged as a warm-up (below), near-boiling and boiling as above.
+		// A reaction's heat in a hot liquid still counts: it speeds up as
+		// it warms (common practice, no source).
 		z = mk("scalding-heat", engine.Warning,
 			"The mix releases "+fmtNum(h.ReleasedkJ, 3)+" kJ and reaches about "+fmtNum(h.ReachedC, 3)+" °C: hot enough to scald.",
 			"Dose slowly with cooling and stirring; wear a face shield and heat-resistant gloves.", src)

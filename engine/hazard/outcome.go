@@ -93,13 +93,18 @@ type Outcome struct {
 	HeadspaceL      float64 // gas space above the liquid
 	HeadspaceStated bool    // false: taken equal to the liquid volume
 	TemperatureC    float64 // of the streams before they react
-	PressureKPa     float64
-	PH              float64
-	PHStated        bool
-	Before          []Amount // species after mixing and acid–base speciation, before any redox reaction
-	After           []Amount // species after the reactions that proceed
-	Chemicals       []string // formulas named in the streams
-	SolidChemicals  []string // formulas of streams given as solids (a mass, no liquid)
+	// HottestC is the temperature of the hottest stream as stored, or the
+	// one stated for the whole mix (0 when not set: judged from
+	// TemperatureC alone). A liquid that hot before it meets anything
+	// scalds by itself; see judgeHeat.
+	HottestC       float64
+	PressureKPa    float64
+	PH             float64
+	PHStated       bool
+	Before         []Amount // species after mixing and acid–base speciation, before any redox reaction
+	After          []Amount // species after the reactions that proceed
+	Chemicals      []string // formulas named in the streams
+	SolidChemicals []string // formulas of streams given as solids (a mass, no liquid)
 	// SolidKg is the mass (kg) of each chemical poured as a solid stream
 	// of that chemical alone.
 	SolidKg map[string]float64

@@ -27,7 +27,7 @@ func sequences(req *engine.Request, eval Evaluate, orders map[[2]int]engine.Pour
 	var solidFirst []bool
 	for _, perm := range permutations(n) {
 		solidFirst = append(solidFirst, dry(&req.Streams[perm[0]]))
-		seq := engine.PourSequence{Streams: make([]string, n), Steps: []engine.PourOrder{}}
+		seq := engine.PourSequence{Streams: make([]string, n), Steps: []engine.PourOrder{}, WaterFirst: water(&req.Streams[perm[0]])}
 		for i, k := range perm {
 			seq.Streams[i] = Name(&req.Streams[k])
 		}
@@ -43,6 +43,7 @@ func sequences(req *engine.Request, eval Evaluate, orders map[[2]int]engine.Pour
 				st, p = into(req, tank, added, eval, local)
 				pts += p
 			}
+			st.DryStep = allDry(req, tank) && (dry(&req.Streams[added]) || water(&req.Streams[added]))
 			steps[key] = st
 			seq.Steps = append(seq.Steps, st)
 			if w := worst(st); w > rank(seq.Worst) {
@@ -168,6 +169,30 @@ func atInlet(r *engine.Request, eval Evaluate) ([]engine.PourHazard, int) {
 // dry reports whether a stream is a solid given by mass alone.
 func dry(s *engine.Stream) bool { return s.MassKg > 0 && s.VolumeL == 0 }
 
+// allDry reports whether every stream of tank is dry.
+func allDry(req *engine.Request, tank []int) bool {
+	for _, k := range tank {
+		if !dry(&req.Streams[k]) {
+			return false
+		}
+	}
+	return len(tank) > 0
+}
+
+// water reports whether a stream is water alone (at any stated pH or
+// temperature), given by volume.
+func water(s *engine.Stream) bool {
+	if s.VolumeL <= 0 || len(s.Components) == 0 {
+		return false
+	}
+	for _, c := range s.Components {
+		if c.Chemical == nil || c.Chemical.Formula != "H2O" {
+			return false
+		}
+	}
+	return true
+}
+
 // stepKey names a step by the set of streams in the tank and the one added.
 func stepKey(tank []int, added int) string {
 	s := slices.Clone(tank)
@@ -269,6 +294,43 @@ func SequenceRank(s *engine.PourSequence) int {
 	w := 0
 	for i := range s.Steps {
 		w = max(w, Rank(&s.Steps[i]))
+	}
+	return w
+}
+
+// LiftRank is the rank by which a sequence other than the best lifts the
+// decision of a make-up that a natural sequence (water first, the rest run
+// into it) makes safely; hazard.decideSequence uses it then. Only a danger
+// counts: a milder hazard along another sequence (soda ash run into alum
+// water fizzes, a dry effervescent blend fizzes as it is wetted, a heap
+// warms) stays in the advice, as an action line.
+//   - Another sequence that also starts with the water counts by its
+//     dangers: running the reagents into the water in the wrong order is a
+//     mistake an operator makes (bleach into water already acidified).
+//   - A sequence that starts with something else counts only by a danger
+//     met among dry solids (PourOrder.DryStep): solids are charged from
+//     bags, often into the empty tank or blended dry before the water goes
+//     in, so a dry blend of oxidizer with fuel, of ammonium salt with
+//     caustic, of acid with hypochlorite granules (Bretherick's Handbook of
+//     Reactive Chemical Hazards, from memory) and water run onto caustic
+//     flakes (it boils where it lands: common practice, no source) are
+//     real. What concentrates meet run neat into each other or onto a
+//     solid before the water is named by the advice ("never let … meet
+//     neat") and does not lift the decision (common practice, no source).
+func LiftRank(s *engine.PourSequence) int {
+	danger := engine.Danger.Rank()
+	if s.WaterFirst {
+		if r := SequenceRank(s); r >= danger {
+			return r
+		}
+		return 0
+	}
+	w := 0
+	for i := range s.Steps {
+		st := &s.Steps[i]
+		if r := Rank(st); st.DryStep && r >= danger {
+			w = max(w, r)
+		}
 	}
 	return w
 }
