@@ -364,6 +364,12 @@ func (g *gasFormed) text() string {
 		if beyond > 0 {
 			s = fmt.Sprintf("%s up to %s mol (%s L)", g.formula, num(beyond), num(beyond*g.litresPerMol()))
 		}
+		if c.ClosedRiseBar > 0 && c.LimitName == "" && beyond == 0 {
+			// A gas without a limit of its own counted by the
+			// gas-pressure hazard: its volume is the news (the pressure
+			// closes the line).
+			return s + ", a gas surge to vent"
+		}
 		switch {
 		case c.HeadspacePPM > 0 && c.Ratio > 0:
 			s += fmt.Sprintf("; at equilibrium headspace %s ppm = %s× %s %s ppm", num(c.HeadspacePPM), num(c.Ratio), c.LimitName, num(c.LimitPPM))
