@@ -134,7 +134,9 @@ func gasPressure(o *Outcome, hs []engine.Hazard) (engine.Hazard, bool) {
 		return engine.Hazard{}, false
 	}
 	tC := o.vapourTemperatureC()
-	litres := total * litreBarPerMolK() * (tC + 273.15) / (o.PressureKPa / 100)
+	// The volume as the other gas figures give it: at the streams'
+	// temperature and the ambient pressure.
+	litres := total * litreBarPerMolK() * o.TemperatureK() / (o.PressureKPa / 100)
 	var parts []string
 	var counts []engine.GasCount
 	note := ""
@@ -154,8 +156,8 @@ func gasPressure(o *Outcome, hs []engine.Hazard) (engine.Hazard, bool) {
 	if o.HeadspaceStated {
 		hsWhy = "as stated"
 	}
-	msg := fmt.Sprintf("The mix gives off %s of gas (%s, %s L at %s °C and the ambient pressure). Closed in, it would raise the headspace (%s, %s L) by about %s bar (ideal gas at the mix's %s °C, all of it as gas): more than a tank, its lid or a drum holds.%s",
-		pluralMol(total), strings.Join(parts, ", "), fmtNum(litres, 3), fmtNum(tC, 3), hsWhy, fmtNum(o.HeadspaceL, 4), fmtNum(bar, 2), fmtNum(tC, 3), note)
+	msg := fmt.Sprintf("The mix gives off %s of gas (%s, %s L as gas). Closed in, it would raise the headspace (%s, %s L) by about %s bar (ideal gas at the mix's %s °C, all of it as gas): more than a tank, its lid or a drum holds.%s",
+		pluralMol(total), strings.Join(parts, ", "), fmtNum(litres, 3), hsWhy, fmtNum(o.HeadspaceL, 4), fmtNum(bar, 2), fmtNum(tC, 3), note)
 	act := fmt.Sprintf("Never close this vessel: the gas would raise it by about %s bar. Use an open, vented tank with headroom and dose slowly, so the gas comes off as it forms.", fmtNum(bar, 2))
 	h := mk("gas-pressure", engine.Warning, msg, act,
 		"ideal gas, V = nRT/P (CODATA 2018 R); "+fmtNum(ClosedRiseMinBar, 2)+" bar threshold: common practice, no source")
