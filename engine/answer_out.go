@@ -40,6 +40,20 @@ func gasesOut(mx *state.Mix, formed func(*thermo.Species) bool, kPa, headspaceL 
 		if g.HeadspacePPM < 1 && f.Amount[i] < 1e-6*mx.VolumeL {
 			continue // a trace: below 1 ppm in the headspace and 1 µmol per litre
 		}
+		if f.Amount[i] > 0 && f.Eq.GasMoles > 0 && f.Eq.GasMoles*MolarGasConstant()/100*mx.TempK/mx.Pressure < headspaceL {
+			// A bubble that does not fill the headspace: the state holds
+			// the gas phase at the ambient pressure, over a liquid
+			// saturated at it, but the closed headspace is air and takes
+			// more out of the liquid until the gas's partial pressure
+			// there and in the liquid agree (see bubbleSplit).
+			if gas, liquid, pSplit, ok := bubbleSplit(mx, f, i, p, headspaceL); ok {
+				g.Mol, g.LiquidMol = gas, sigDigits(liquid, 6)
+				g.PartialKPa = sigDigits(pSplit*100, 4)
+				g.HeadspacePPM = sigDigits(pSplit/(kPa/100)*1e6, 4)
+				g.VolumeL = GasVolumeL(g.Mol, mx.TempK, kPa)
+				g.VolumeM3 = g.VolumeL / 1000
+			}
+		}
 		if f.Amount[i] <= 0 {
 			// Dissolved: what the closed headspace holds, taken out of
 			// the liquid (see headspaceSplit).
@@ -91,6 +105,35 @@ func headspaceSplit(mx *state.Mix, f *state.State, i int, p, headspaceL float64)
 	pBar = n / (mx.VolumeL*kH + headspaceL/rt)
 	gas = pBar * headspaceL / rt
 	return gas, n - gas, pBar
+}
+
+// bubbleSplit shares a gas the state gives off as a bubble at the ambient
+// pressure (partial pressure p, bar) between the liquid and a closed
+// headspace of headspaceL litres of air that the bubble does not fill.
+// The state keeps the liquid saturated at p; the headspace instead holds
+// the gas at its own partial pressure p' < p, and the liquid gives up its
+// dissolved molecule until both agree. With N the bubble and the
+// dissolved molecule together and kH = dissolved/(VL·p) (the state's own
+// solubility),
+//
+//	N = p'·(VL·kH + VG/(R·T))
+//
+// (Henry's law and the ideal gas, as headspaceSplit). Sodium bicarbonate
+// with a little acetic acid keeps most of its carbon dioxide dissolved as
+// H2CO3 at 1 atm, yet into a headspace as large as the liquid about half
+// of it comes off (kH(CO2) 0.034 mol/(L·atm), Sander 2015, from memory).
+// It reports false when the liquid holds none of the gas dissolved.
+func bubbleSplit(mx *state.Mix, f *state.State, i int, p, headspaceL float64) (gas, liquid, pBar float64, ok bool) {
+	diss := dissolvedPool(mx, f, i)
+	if !(diss > 0) || !(p > 0) || !(mx.VolumeL > 0) || !(headspaceL > 0) {
+		return 0, 0, 0, false
+	}
+	rt := MolarGasConstant() / 100 * mx.TempK // L·bar/mol
+	n := f.Amount[i] + diss
+	kH := diss / mx.VolumeL / p
+	pBar = n / (mx.VolumeL*kH + headspaceL/rt)
+	gas = pBar * headspaceL / rt
+	return gas, n - gas, pBar, true
 }
 
 // dissolvedPool is the mol the liquid holds of gas species i (see

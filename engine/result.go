@@ -315,6 +315,11 @@ type GasCount struct {
 	LimitPPM     float64 `json:"limit_ppm,omitempty"`
 	Ratio        float64 `json:"ratio,omitempty"` // HeadspacePPM / LimitPPM
 	LimitSource  string  `json:"limit_source,omitempty"`
+	// ClosedRiseBar, on the gases of the gas-pressure hazard, is the
+	// pressure rise (bar above the ambient) all the gas the mix gives off
+	// would give its closed headspace: ideal gas at the mix's temperature,
+	// all of it as gas.
+	ClosedRiseBar float64 `json:"closed_rise_bar,omitempty"`
 }
 
 // ReactionHeat is the heat of a reaction judged as a family: its
@@ -376,8 +381,10 @@ type GasJudged struct {
 	LowerBound bool `json:"lower_bound,omitempty"`
 	// ClosedRiseBar, when the request states a headspace the gas
 	// overfills at the ambient pressure, is the pressure rise (bar above
-	// the ambient) the gas would give if the vessel were really closed:
-	// ideal gas at the mix's temperature, all of it as gas.
+	// the ambient) this gas alone would give if the vessel were really
+	// closed: ideal gas at the mix's temperature, all of it as gas. The
+	// words and the action for it are the gas-pressure hazard's, which
+	// counts every gas the mix gives off, in any headspace.
 	ClosedRiseBar float64 `json:"closed_rise_bar,omitempty"`
 	// DissolvedMol, when the gas fills the headspace at the ambient
 	// pressure, is what stays dissolved in the saturated liquid (given
@@ -445,7 +452,11 @@ type GasRelease struct {
 	HeadspacePPM float64 `json:"headspace_ppm"`
 	// LiquidMol, for Kind "headspace", is what stays dissolved as the
 	// neutral molecule once the headspace holds Mol: the two add up to the
-	// molecule the mixed state holds (the headspace is not extra gas).
+	// molecule the mixed state holds (the headspace is not extra gas). A
+	// gas the state gives off as a bubble too small to fill the headspace
+	// has it as well: the closed headspace of air takes more out of the
+	// liquid than the bubble at the ambient pressure, and Mol and
+	// LiquidMol add up to the bubble and the dissolved molecule.
 	LiquidMol float64 `json:"liquid_mol,omitempty"`
 }
 

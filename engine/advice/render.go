@@ -192,8 +192,16 @@ func pourOnlyGases(r *engine.Result, named map[string]bool) []string {
 	for _, f := range order {
 		w := best[f]
 		l := engine.GasVolumeL(w.h.GasMol, r.Conditions.TemperatureK, 101.325)
-		out = append(out, fmt.Sprintf("%s none in the final mix; up to %s mol (%s L) along the pour (%s into %s, at %s of it)",
-			f, num(w.h.GasMol), num(l), w.by.Added, w.by.Into, pctText(w.h.GasAtFraction)))
+		// The final mix may give off some of it too, below what makes it
+		// a hazard there: its figure, not "none".
+		final := "none in the final mix"
+		for _, g := range r.Gases {
+			if strings.TrimSuffix(g.Text, "(g)") == f && g.VolumeL >= traceGasShare*r.Conditions.VolumeL {
+				final = fmt.Sprintf("%s mol (%s L) in the final mix, below its limit there", num(g.Mol), num(g.VolumeL))
+			}
+		}
+		out = append(out, fmt.Sprintf("%s %s; up to %s mol (%s L) along the pour (%s into %s, at %s of it)",
+			f, final, num(w.h.GasMol), num(l), w.by.Added, w.by.Into, pctText(w.h.GasAtFraction)))
 	}
 	return out
 }
@@ -242,7 +250,25 @@ func formsLine(r *engine.Result) string {
 		}
 		return "Forms: no gas of concern"
 	}
+	if bar := closedRise(r.Hazards); bar > 0 {
+		parts = append(parts, fmt.Sprintf("closed in, all of it would raise the headspace by about %s bar: vent it", num(bar)))
+	}
 	return "Forms: " + strings.Join(parts, "; ")
+}
+
+// closedRise is the pressure rise (bar) the gas-pressure hazard gives the
+// closed headspace, 0 without it.
+func closedRise(hs []engine.Hazard) float64 {
+	bar := 0.0
+	for _, h := range hs {
+		if h.Code != "gas-pressure" {
+			continue
+		}
+		for _, c := range h.Counts {
+			bar = max(bar, c.ClosedRiseBar)
+		}
+	}
+	return bar
 }
 
 // gasFormed is one gas of the Forms line: its judged figure (a gas hazard),
@@ -337,6 +363,12 @@ func (g *gasFormed) text() string {
 		s := fmt.Sprintf("%s %s mol (%s L)", g.formula, num(c.Mol), num(c.VolumeL))
 		if beyond > 0 {
 			s = fmt.Sprintf("%s up to %s mol (%s L)", g.formula, num(beyond), num(beyond*g.litresPerMol()))
+		}
+		if c.ClosedRiseBar > 0 && c.LimitName == "" && beyond == 0 {
+			// A gas without a limit of its own counted by the
+			// gas-pressure hazard: its volume is the news (the pressure
+			// closes the line).
+			return s + ", a gas surge to vent"
 		}
 		switch {
 		case c.HeadspacePPM > 0 && c.Ratio > 0:

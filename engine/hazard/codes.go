@@ -36,6 +36,7 @@ var codes = []Code{
 	{"ammonium-salt-fumes", "fumes of ammonium salt and heat", nil},
 	{"co2-release", "releases carbon dioxide", []string{"acid-carbonate", "toxic-gas"}},
 	{"fizzing-pressure", "fizzes: foam-over and pressure", []string{"acid-carbonate"}},
+	{"gas-pressure", "gives off enough gas to burst a closed tank", nil},
 	{"hydrogen-release", "releases flammable hydrogen", []string{"flammable-gas"}},
 	{"alkali-metal-fire", "alkali metal with water: fire", []string{"flammable-gas"}},
 	{"oxygen-release", "releases oxygen", []string{"oxygen-enrichment"}},

@@ -122,7 +122,7 @@ func (o *Outcome) measured(r *engine.Result, t *engine.Tables) {
 		f := strings.TrimSuffix(g.Text, "(g)")
 		if _, ok := o.Measured[f]; (ok || kineticGas[f]) && g.PartialKPa > 0 {
 			dissolved, form, waters := dissolvedAs(r.FinalComposition, f)
-			if g.Kind == "headspace" {
+			if g.Kind == "headspace" || g.LiquidMol > 0 {
 				// The closed headspace's share was taken out of the
 				// liquid after the state: the composition still holds it.
 				dissolved = g.LiquidMol

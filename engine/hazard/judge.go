@@ -226,20 +226,22 @@ func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 
 // ventsOff is what the message adds for a gas that fills the headspace
 // and vents: what stays dissolved in the saturated liquid, and with a
-// stated headspace the pressure rise if the vessel were really closed
-// (which also leads the action, returned with that rise in bar).
+// stated headspace the pressure rise of this gas alone if the vessel were
+// really closed, returned in bar for the numbers (the words and the action
+// are the gas-pressure hazard's).
 func ventsOff(o *Outcome, p *pool, act string) (msg, action string, closedBar float64) {
 	msg = " It fills the headspace and the rest vents."
 	if p.dissolved >= SaturatedShare*p.mol {
 		msg += fmt.Sprintf(" Another %s mol stays dissolved in the saturated liquid and keeps coming off an open tank.", fmtNum(p.dissolved, 3))
 	}
-	bar, tC, ok := closedRise(o, p)
+	bar, _, ok := closedRise(o, p)
 	if !ok {
 		return msg, act, 0
 	}
-	msg += fmt.Sprintf(" If the vessel were really closed, the %s L of gas would raise the stated %s L headspace by about %s bar (ideal gas at the mix's %s °C, all of it as gas).",
-		fmtNum(p.mol*litreBarPerMolK()*(tC+273.15)/(o.PressureKPa/100), 3), fmtNum(o.HeadspaceL, 4), fmtNum(bar, 2), fmtNum(tC, 3))
-	return msg, fmt.Sprintf("Never close this vessel: the gas would raise it by about %s bar; keep it vented. %s", fmtNum(bar, 2), act), bar
+	// The pressure line and the action never to close the vessel are the
+	// gas-pressure hazard's (gasPressure), which counts every gas the mix
+	// gives off: the figure of this gas alone is kept in the numbers.
+	return msg, act, bar
 }
 
 // SaturatedShare is the part of the amount given off from which what
@@ -513,6 +515,9 @@ func Judge(o *Outcome, d *Data) []engine.Hazard {
 		if h, ok := r(o); ok {
 			out = append(out, h)
 		}
+	}
+	if h, ok := gasPressure(o, out); ok {
+		out = append(out, h)
 	}
 	addFamilyHeat(o, out)
 	addRunawayHeat(o, out)
