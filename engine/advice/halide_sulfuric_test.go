@@ -11,9 +11,9 @@ import (
 // Analysis, bromides and iodides, from memory); the decision counts the
 // gases. Chloride gives hydrogen chloride only, and dilute acid neither.
 //
-// Hand checks: 100 L NaBr 40 % (1.41 g/mL, from memory, as the density
-// table has it) holds about 389 mol bromide, so up to 389/2 = 195 mol Br2
-// and as much SO2; 100 L KI 10 % holds about 60–65 mol iodide, so up to
+// Hand checks: 100 L NaBr 40 % (1.41 g/mL, suppliers' data, from memory,
+// as the density table has it) holds about 548 mol bromide, so up to
+// 548/2 = 274 mol Br2 and as much SO2; 100 L KI 10 % holds about 60–65 mol iodide, so up to
 // 60/8 = 7.5 to 8 mol H2S.
 func TestHalideWithConcentratedSulfuric(t *testing.T) {
 	a := mustAdvisor(t)
@@ -22,7 +22,7 @@ func TestHalideWithConcentratedSulfuric(t *testing.T) {
 		want map[string][2]float64 // gas → mol range
 		none []string
 	}{
-		{"mix 100 L NaBr 40 % + 100 L H2SO4 98 %", map[string][2]float64{"Br2": {185, 200}, "SO2": {185, 200}}, nil},
+		{"mix 100 L NaBr 40 % + 100 L H2SO4 98 %", map[string][2]float64{"Br2": {260, 280}, "SO2": {260, 280}}, nil},
 		{"mix 100 L KI 10 % + 100 L H2SO4 98 %", map[string][2]float64{"H2S": {7, 8.3}}, nil},
 		{"mix 100 L NaCl 20 % + 100 L H2SO4 98 %", nil, []string{"Cl2", "Br2", "H2S"}},
 		{"mix 100 L NaBr 40 % + 100 L H2SO4 10 %", nil, []string{"Br2", "SO2"}},

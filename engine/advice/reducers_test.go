@@ -206,19 +206,19 @@ func heatLineOf(t *testing.T, a *advice.Advisor, req string) string {
 // generation, from memory): only hypochlorite beyond half the chlorite is
 // left to give chlorine.
 //
-// Hand checks at 1.00 g/mL for chlorite (no density row): 10 L of 25 %
-// NaClO2 is 2500/90.44 = 27.6 mol; 10 L of 12.5 % NaOCl at 1.18 g/mL
-// (data/densities.txt) is 19.8 mol. Chlorite takes 13.8 mol of it to 27.6
-// mol ClO2; 6.0 mol hypochlorite is left, as chlorine in the hydrochloric
-// acid. With 20 L of chlorite (55 mol) none is left: no chlorine.
+// Hand checks at 1.21 g/mL for 25 % chlorite (suppliers' data, from
+// memory, data/densities.txt): 10 L of 25 % NaClO2 is 3025/90.44 = 33.4
+// mol; 10 L of 12.5 % NaOCl at 1.18 g/mL (data/densities.txt) is 19.8 mol.
+// Chlorite takes 16.7 mol of it to 33.4 mol ClO2; 3.1 mol hypochlorite is
+// left, as chlorine in the hydrochloric acid. With 20 L of chlorite (55 mol) none is left: no chlorine.
 func TestChloriteTakesChlorineFirst(t *testing.T) {
 	a := mustAdvisor(t)
 	cases := []struct {
 		req                     string
 		clo2Min, cl2Min, cl2Max float64
 	}{
-		{"mix 10 L NaClO2 25 % + 10 L NaOCl 12.5 % + 10 L HCl 32 %", 26.5, 5, 7},
-		{"mix 10 L HCl 32 % + 10 L NaOCl 12.5 % + 10 L NaClO2 25 %", 26.5, 5, 7},
+		{"mix 10 L NaClO2 25 % + 10 L NaOCl 12.5 % + 10 L HCl 32 %", 32, 2.5, 4},
+		{"mix 10 L HCl 32 % + 10 L NaOCl 12.5 % + 10 L NaClO2 25 %", 32, 2.5, 4},
 		{"mix 20 L NaClO2 25 % + 10 L NaOCl 12.5 % + 10 L HCl 32 %", 39.5, 0, 0.5},
 	}
 	for _, c := range cases {

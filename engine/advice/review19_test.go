@@ -122,4 +122,36 @@ func TestReview19(t *testing.T) {
 			t.Errorf("decision %+v, want with-precautions", r.Decision)
 		}
 	})
+
+	t.Run("mixed acid make-up", func(t *testing.T) {
+		// Sulfuric acid run into nitric acid is how mixed acid is made up
+		// for nitrating and bright dipping, cooled and under extraction
+		// (common practice, no source): nothing drives the nitric acid
+		// out as from a nitrate salt. With a nitrate salt the strong acid
+		// does drive nitric acid vapour out (Vogel's Textbook of Macro and
+		// Semimicro Qualitative Inorganic Analysis, from memory), and with
+		// hydrochloric acid it drives out hydrogen chloride.
+		r := ask(t, a, "pour 100 L sulfuric acid 96 % into 50 L nitric acid 68 %")
+		if r.Decision == nil || r.Decision.Level != engine.WithPrecautions {
+			t.Errorf("decision %+v, want with-precautions", r.Decision)
+		}
+		if n := judgedGas(r, "HNO3"); n > 0 {
+			t.Errorf("%.0f mol of nitric acid counted as driven out of mixed acid", n)
+		}
+		r = ask(t, a, "mix 100 L HCl 32 % + 100 L sulfuric acid 96 %")
+		if r.Decision == nil || r.Decision.Level != engine.DoNotMix {
+			t.Errorf("hydrochloric into strong sulfuric: decision %+v, want do-not-mix", r.Decision)
+		}
+	})
+
+	t.Run("commercial ferric chloride is read at its density", func(t *testing.T) {
+		// 42 % ferric chloride is about 1.45 kg/L (suppliers' data, from
+		// memory): 200 L hold about 750 mol Fe3+, which take 250 mol of
+		// the 371 mol of aluminium; the rest gives about 180 mol H2.
+		r := ask(t, a, "mix 200 L ferric chloride 42 % + 10 kg aluminium")
+		fe := combinedMol(r, "Fe^3+", "FeOH^2+", "Fe(OH)2+", "FeCl^2+", "FeCl2+", "Fe2(OH)2^4+")
+		if fe < 680 || fe > 800 {
+			t.Errorf("Fe(III) %.0f mol as combined, want about 750", fe)
+		}
+	})
 }

@@ -447,9 +447,20 @@ func volatileAcid(o *Outcome) (engine.Hazard, bool) {
 	var names []string
 	var counts []engine.GasCount
 	n := 0.0
+	mixedAcid := false
 	for _, v := range volatileAcids {
 		m := o.MolarBefore(v.species...)
 		if m < 0.1 {
+			continue
+		}
+		if v.formula == "HNO3" && !nitrateSalt(o) {
+			// Nitric acid itself with strong sulfuric acid is mixed acid,
+			// made up routinely for nitrating and bright dipping: the
+			// sulfuric acid into the nitric, slowly, cooled, under
+			// extraction. It fumes more as it warms, but nothing drives
+			// the nitric acid out of it as from a nitrate salt (common
+			// practice, no source).
+			mixedAcid = true
 			continue
 		}
 		names, n = append(names, v.name), n+m
@@ -460,12 +471,29 @@ func volatileAcid(o *Outcome) (engine.Hazard, bool) {
 		}
 	}
 	if len(names) == 0 {
+		if mixedAcid {
+			return mk("acid-fumes", engine.Warning,
+				"Concentrated sulfuric acid ("+fmtNum(h2so4, 2)+" mol/L in the mix) with nitric acid is mixed acid: it heats as it is made and gives off nitric acid vapour and nitrogen oxides, the more the warmer it gets.",
+				"Make it up in an acid-resistant vessel under extraction: run the sulfuric acid slowly into the nitric with cooling and stirring, keep it below about 40 °C and away from organic matter; wear acid-resistant gloves and a face shield.",
+				"mixed acid make-up: common practice, no source; Bretherick's Handbook of Reactive Chemical Hazards, nitric acid with sulfuric acid and organic matter (from memory)"), true
+		}
 		return engine.Hazard{}, false
 	}
 	return withCounts(mk("acid-fumes", engine.Danger,
 		"Concentrated sulfuric acid ("+fmtNum(h2so4, 2)+" mol/L in the mix) drives "+strings.Join(names, " and ")+" out of the solution ("+fmtNum(n*o.VolumeL, 3)+" mol can come off) with heat: dense, corrosive fumes.",
 		"Do not combine. If both must go to one drain, dilute each into plenty of water first, separately.",
 		"Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, chlorides and nitrates with concentrated sulfuric acid (from memory); NIOSH Pocket Guide, hydrogen chloride IDLH 50 ppm (from memory); 8 mol/L threshold: common practice, no source"), counts...), true
+}
+
+// nitrateSalt reports whether a stream brings a nitrate other than nitric
+// acid itself (sodium, potassium, ammonium, calcium nitrate …).
+func nitrateSalt(o *Outcome) bool {
+	for _, f := range o.Chemicals {
+		if f != "HNO3" && strings.Contains(f, "NO3") {
+			return true
+		}
+	}
+	return false
 }
 
 // volatileAcids are the acids concentrated sulfuric acid drives out of a

@@ -159,7 +159,7 @@ func judgeGas(o *Outcome, d *Data) []engine.Hazard {
 			// The mixed state has this gas: its numbers, not an estimate.
 			p = &pool{mol: m.Mol, molecular: 1, origins: []string{"the mix at equilibrium"}, equilibrium: true}
 			hs = Headspace{PPM: math.Min(m.PPM, 1e6), Vents: m.PPM >= 1e6}
-			if hs.Vents {
+			if m.PPM >= NearSaturatedPPM {
 				p.dissolved = m.Dissolved
 			}
 			if boilsOff(o) && g.LimitName != "LFL" && g.LimitName != "O2" && m.Dissolved > 1e-3*m.Mol {
@@ -249,6 +249,13 @@ func ventsOff(o *Outcome, p *pool, act string) (msg, action string, closedBar fl
 // such a liquid keeps giving the gas off an open tank (chlorine dioxide
 // from acidified chlorite is mostly in solution at ambient pressure).
 const SaturatedShare = 0.5
+
+// NearSaturatedPPM is the headspace share of a gas from which the liquid
+// under it counts as (nearly) saturated with the gas: at half an
+// atmosphere and more, what stays dissolved keeps coming off an open tank
+// and is named beside what the closed headspace holds (Henry's law:
+// common practice, no source).
+const NearSaturatedPPM = 5e5
 
 // fromVapourTable replaces the headspace figure of a gas of the vapour
 // table (HCl, HF, NH3) by the partial pressure over a solution of the
@@ -463,6 +470,8 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 		var more string
 		more, act, closedBar = ventsOff(o, p, act)
 		msg += more
+	} else if p.dissolved > 0 && p.dissolved >= SaturatedShare*p.mol {
+		msg += fmt.Sprintf(" Another %s mol stays dissolved in the nearly saturated liquid and keeps coming off an open tank.", fmtNum(p.dissolved, 3))
 	}
 	msg += figureNote(p, g)
 	if g.Formula == "CO2" {
@@ -483,7 +492,7 @@ func gasHazard(o *Outcome, g *GasData, p *pool, hs Headspace, ratio float64) eng
 		h.Gas.Outside = p.outside
 	}
 	h.Gas.Forerunner = p.forerunner
-	if hs.Vents && p.dissolved >= SaturatedShare*p.mol {
+	if p.dissolved > 0 && p.dissolved >= SaturatedShare*p.mol {
 		h.Gas.DissolvedMol = sig(p.dissolved)
 	}
 	if closedBar > 0 {
