@@ -154,4 +154,36 @@ func TestReview19(t *testing.T) {
 			t.Errorf("Fe(III) %.0f mol as combined, want about 750", fe)
 		}
 	})
+
+	t.Run("fertiliser make-up", func(t *testing.T) {
+		// Wetting ammonium sulfate gives no ammonia: the salt of a strong
+		// acid holds pH 5–5.5 (common practice, no source). The first
+		// litres of water on 10 kg of it dissolve only 75.4 g per 100 g
+		// (CRC Handbook, from memory); it was read as 250 mol/L, which
+		// made ammonia.
+		r := ask(t, a, "mix 300 L water + 30 kg urea + 10 kg ammonium sulfate")
+		if r.Decision == nil || r.Decision.Level != engine.NoConcern {
+			t.Errorf("decision %+v, want no-concern", r.Decision)
+		}
+	})
+
+	t.Run("copper catalyst in peroxide cyanide destruction", func(t *testing.T) {
+		// 30 g of copper sulfate (0.19 mol, about 40 mg/L Cu) in 300 L of
+		// alkaline 0.05 % cyanide (3.1 mol): the copper-catalysed peroxide
+		// kill (common practice, no source). With the cyanide in excess
+		// and the liquor alkaline, cyanogen is taken up by the alkali
+		// (Greenwood & Earnshaw, from memory). 2 kg of copper sulfate in
+		// the same liquor (Cu:CN 0.4) stays a danger.
+		r := ask(t, a, "mix 300 L sodium cyanide 0.05 %, NaOH 0.2 % + 5 L H2O2 35 % + 30 g copper sulfate")
+		if h, ok := hazardOf(r, "cyanogen-release"); ok && h.Severity == engine.Danger {
+			t.Errorf("catalytic copper: cyanogen %s", h.Severity)
+		}
+		if r.Decision == nil || r.Decision.Level == engine.DoNotMix {
+			t.Errorf("decision %+v, want with precautions", r.Decision)
+		}
+		r = ask(t, a, "mix 300 L sodium cyanide 0.05 %, NaOH 0.2 % + 2 kg copper sulfate")
+		if h, ok := hazardOf(r, "cyanogen-release"); !ok || h.Severity != engine.Danger {
+			t.Errorf("copper in excess: cyanogen %+v, want a danger", h)
+		}
+	})
 }

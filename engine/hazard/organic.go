@@ -1111,6 +1111,10 @@ func silverFulminate(o *Outcome) (engine.Hazard, bool) {
 		"Bretherick's Handbook of Reactive Chemical Hazards, silver nitrate with ethanol, silver and mercury fulminates (from memory); thresholds and aftermath: common practice, no source"), true
 }
 
+// cyanogenRELppm is the NIOSH REL of cyanogen, 10 ppm (NIOSH Pocket Guide,
+// from memory; no IDLH is listed).
+const cyanogenRELppm = 10.0
+
 // cyanogenFromCopper: copper(II) oxidizes cyanide, 2 Cu2+ + 4 CN- → 2
 // CuCN + (CN)2: cyanogen, a very toxic gas, comes off where a copper(II)
 // salt meets free cyanide, up to half the copper (Greenwood & Earnshaw,
@@ -1127,7 +1131,27 @@ func cyanogenFromCopper(o *Outcome) (engine.Hazard, bool) {
 		return engine.Hazard{}, false
 	}
 	mol := math.Min(cu/2, cn/4) * o.VolumeL
-	return mk("cyanogen-release", engine.Danger,
+	if o.PH >= 10 && cn >= 4*cu {
+		// A trace of copper in an alkaline cyanide liquor with the cyanide
+		// in excess (the copper catalyst of peroxide cyanide destruction,
+		// 10–50 mg/L): the copper sits as cyano-cuprate(I), and what
+		// cyanogen its reduction makes is taken up by the alkali at once,
+		// (CN)2 + 2 OH- → CN- + OCN- + H2O, as a halogen is (Greenwood &
+		// Earnshaw, Chemistry of the Elements, cyanogen, from memory;
+		// copper-catalysed peroxide treatment: common practice, no source).
+		return mk("cyanogen-release", engine.Warning,
+			"Copper(II) ("+fmtNum(cu, 2)+" mol/L) meets a cyanide liquor that holds the cyanide in excess and stays alkaline (pH "+fmtNum(o.PH, 3)+"): the copper goes to cyano-cuprate(I) and the little cyanogen that makes (up to "+fmtNum(mol, 3)+" mol) is taken up by the alkali, to cyanate and cyanide.",
+			"Dose the copper salt as a dilute solution into the cyanide liquor held above pH 10.5, never the cyanide into a copper bath; vent the tank.",
+			"Greenwood & Earnshaw, Chemistry of the Elements, cyanogen from copper(II) and cyanide, and in alkali (from memory); copper-catalysed peroxide cyanide treatment: common practice, no source"), true
+	}
+	sev := engine.Danger
+	if roomPPM(o, mol) < cyanogenRELppm {
+		// So little that spread over a small plant room it stays below
+		// the exposure limit (a crystal of copper salt landing in a
+		// cyanide liquor): named, not a reason to refuse.
+		sev = engine.Warning
+	}
+	return mk("cyanogen-release", sev,
 		"Copper(II) oxidizes cyanide to cyanogen, (CN)2, a very toxic gas (NIOSH REL 10 ppm), with copper(I) cyanide: up to "+fmtNum(mol, 3)+" mol ("+fmtNum(engine.GasVolumeL(mol, 298.15, 101.325), 3)+" L) where the copper salt meets free cyanide.",
 		"Do not combine. Never add copper(II) salts to cyanide liquors or cyanide to copper baths; if it has happened, leave the area, ventilate and raise the alarm.",
 		"Greenwood & Earnshaw, Chemistry of the Elements, cyanogen from copper(II) and cyanide (from memory); NIOSH Pocket Guide, cyanogen, REL 10 ppm (from memory)"), true
