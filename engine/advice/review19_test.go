@@ -186,4 +186,26 @@ func TestReview19(t *testing.T) {
 			t.Errorf("copper in excess: cyanogen %+v, want a danger", h)
 		}
 	})
+
+	t.Run("urea kills nitrite as far as the acid goes", func(t *testing.T) {
+		// 2 HNO2 + CO(NH2)2 → 2 N2 + CO2 + 3 H2O (Vogel's Textbook of Macro
+		// and Semimicro Qualitative Inorganic Analysis, from memory): 50 L of
+		// 20 % sulfuric acid bring 232 mol H+, so about 232 mol N2 and 116
+		// mol CO2; ΔH about −693 kJ per urea (NBS Tables 1982, from memory):
+		// 80 MJ, it boils. It was read as nitric oxide from the nitrite
+		// alone, 2.3 MJ, with the urea a spectator.
+		r := ask(t, a, "mix 100 L sodium nitrite 40 % + 50 L urea 40 % + 50 L sulfuric acid 20 %")
+		if n := finalMol(r, "N2", "N2(g)"); n < 200 || n > 240 {
+			t.Errorf("N2 %.0f mol, want about 232 (acid-limited)", n)
+		}
+		if n := finalMol(r, "NO", "NO(g)"); n > 10 {
+			t.Errorf("NO %.0f mol beside urea in excess, want little", n)
+		}
+		if q := *r.Heat.HeatReleasedkJ; q < 60e3 || q > 110e3 {
+			t.Errorf("heat %.0f kJ, want about 80000", q)
+		}
+		if u := finalMol(r, "CO(NH2)2"); u < 200 {
+			t.Errorf("urea left %.0f mol, want the 333 less 116 the acid reaches", u)
+		}
+	})
 }

@@ -566,10 +566,12 @@ func heldLocks(applied []*Lock, active []string) []*Lock {
 func (m *Model) solve(mx *Mix, n0 []float64, frozen bool, cons []lockRule, volL float64, start []float64, active []string) (*State, error) {
 	// A lock that fixes organic carbon is met by giving each organic
 	// compound its own component (see components), not by a constraint.
+	// One that leaves some compounds out (C(organic without N)) stays a
+	// constraint on the carbon of the others.
 	organicLocked := frozen
 	left := make([]lockRule, 0, len(cons))
 	for _, lr := range cons {
-		if lr.g.Organic && lr.c.Rel == equilibrium.Exactly {
+		if lr.g.Organic && lr.g.Without == "" && lr.g.MinAtoms == 0 && lr.c.Rel == equilibrium.Exactly {
 			organicLocked = true
 			continue
 		}
