@@ -208,4 +208,20 @@ func TestReview19(t *testing.T) {
 			t.Errorf("urea left %.0f mol, want the 333 less 116 the acid reaches", u)
 		}
 	})
+
+	t.Run("hypophosphite in hot strong caustic", func(t *testing.T) {
+		// Hot alkali takes hypophosphite to phosphite with hydrogen, one
+		// each (Bretherick's Handbook of Reactive Chemical Hazards, sodium
+		// phosphinate, from memory): 100 L of 30 % read at 1.00 kg/L hold
+		// 341 mol, so up to 341 mol H2 at 80 °C; none in the cold, where
+		// caustic keeps it.
+		r := ask(t, a, "mix 100 L sodium hypophosphite 30 % + 50 L NaOH 50 % at 80 C")
+		if n := finalMol(r, "H2", "H2(g)"); n < 300 || n > 360 {
+			t.Errorf("H2 %.0f mol, want about 341 (to phosphite, not phosphate)", n)
+		}
+		r = ask(t, a, "mix 100 L sodium hypophosphite 30 % + 50 L NaOH 50 %")
+		if n := finalMol(r, "H2", "H2(g)"); n > 1 {
+			t.Errorf("cold: H2 %.1f mol, want none", n)
+		}
+	})
 }
