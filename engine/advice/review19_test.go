@@ -224,4 +224,19 @@ func TestReview19(t *testing.T) {
 			t.Errorf("cold: H2 %.1f mol, want none", n)
 		}
 	})
+
+	t.Run("sulfide into acid ferric chloride", func(t *testing.T) {
+		// 40 % ferric chloride is strongly acid: the sulfide is hydrogen
+		// sulfide the moment it lands (111 mol as combined), and iron(III)
+		// takes it to sulfur only as fast as it reacts (acid ferric H2S
+		// scrubbers need contact time: common practice, no source). The
+		// hydrogen sulfide is named, with how to dose.
+		r := ask(t, a, "mix 100 L sodium sulfide 10 % + 100 L ferric chloride 40 % at headspace 0.5 m3")
+		if _, ok := hazardOf(r, "h2s-release"); !ok {
+			t.Errorf("no hydrogen sulfide among %v", hazardCodes(r))
+		}
+		if r.Decision == nil || r.Decision.Level == engine.NoConcern {
+			t.Errorf("decision %+v", r.Decision)
+		}
+	})
 }

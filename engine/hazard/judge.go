@@ -525,6 +525,9 @@ func Judge(o *Outcome, d *Data) []engine.Hazard {
 			out = append(out, h)
 		}
 	}
+	if h, ok := sulfideFreedByAcid(o, out); ok {
+		out = append(out, h)
+	}
 	if h, ok := gasPressure(o, out); ok {
 		out = append(out, h)
 	}
