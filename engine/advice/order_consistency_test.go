@@ -56,7 +56,9 @@ func TestOneOrderPerAnswer(t *testing.T) {
 		{"water-into-acid-written", "pour 500 L water into 20 L H2SO4 98 %", "H2SO4 98 %", ""},
 		{"caustic-into-water", "mix 100 L water + 60 L NaOH 50 %", "NaOH 50 %", ""},
 		{"hf-into-water", "mix 500 L water + 20 L HF 48 %", "HF 48 %", "HF 48 %"},
-		{"copper-cyanide-peroxide", "mix 800 L copper cyanide 1 g/L, NaCN 0.5 g/L, pH 11 + 10 L H2O2 35 %", "-", ""},
+		// The treatment reagent into the rinse: 800 L of rinse run into 10 L of
+		// 35 % peroxide would boil it on the copper (common practice, no source).
+		{"copper-cyanide-peroxide", "mix 800 L copper cyanide 1 g/L, NaCN 0.5 g/L, pH 11 + 10 L H2O2 35 %", "H2O2 35 %", ""},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {

@@ -239,4 +239,18 @@ func TestReview19(t *testing.T) {
 			t.Errorf("decision %+v", r.Decision)
 		}
 	})
+
+	t.Run("hypochlorite leaves the copper of a copper cyanide bath oxidized", func(t *testing.T) {
+		// Hypochlorite takes copper(I) cyanide to copper(I) chloride or
+		// cyanide, then to copper(II); never to copper metal (alkaline
+		// chlorination of copper cyanide rinses: common practice, no
+		// source). The equation used to make Cu(s).
+		r := ask(t, a, "mix 500 L copper cyanide 6 %, sodium cyanide 4 % + 100 L NaOCl 12.5 %")
+		if n := finalMol(r, "Cu(s)"); n > 0.1 {
+			t.Errorf("copper metal %.1f mol from hypochlorite", n)
+		}
+		if r.Reaction != nil && strings.Contains(r.Reaction.Text, "Cu(s)") {
+			t.Errorf("equation %q makes copper metal", r.Reaction.Text)
+		}
+	})
 }
