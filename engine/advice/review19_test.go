@@ -269,4 +269,29 @@ func TestReview19(t *testing.T) {
 			t.Errorf("Cl2 %.0f mol, want almost none", n)
 		}
 	})
+
+	t.Run("chlorite blended dry with a solid acid", func(t *testing.T) {
+		// Sodium chlorite with an acid gives chlorine dioxide as soon as
+		// the blend is damp (Bretherick's Handbook of Reactive Chemical
+		// Hazards, sodium chlorite with acids, from memory).
+		r := ask(t, a, "mix 20 kg sodium chlorite + 5 kg sodium bisulfate")
+		if r.Decision == nil || r.Decision.Level != engine.DoNotMix {
+			t.Errorf("decision %+v, want do-not-mix", r.Decision)
+		}
+	})
+
+	t.Run("hexacyanoferrate in strong acid", func(t *testing.T) {
+		// Ferricyanide with 32 % hydrochloric acid: the safety data sheets'
+		// "contact with acids liberates very toxic gas" (EUH032, from
+		// memory) is the request itself; a trace of acid in a large rinse
+		// stays a warning.
+		r := ask(t, a, "mix 100 L potassium ferricyanide 10 % + 50 L HCl 32 %")
+		if r.Decision == nil || r.Decision.Level != engine.DoNotMix {
+			t.Errorf("decision %+v, want do-not-mix", r.Decision)
+		}
+		r = ask(t, a, "mix 1000 L water + 1 kg potassium ferrocyanide + 1 L HCl 10 %")
+		if r.Decision == nil || r.Decision.Level == engine.DoNotMix {
+			t.Errorf("dilute: decision %+v, want with precautions", r.Decision)
+		}
+	})
 }

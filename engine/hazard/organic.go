@@ -912,6 +912,18 @@ func dryChlorinatorAcid(o *Outcome) (engine.Hazard, bool) {
 		}
 	}
 	if chlor == "" {
+		if slices.Contains(o.SolidChemicals, "NaClO2") {
+			// Sodium chlorite blended dry with a solid acid gives off
+			// chlorine dioxide as the blend takes up moisture, and the
+			// dry oxidizer with the blend's organic acids can ignite
+			// (Bretherick's Handbook of Reactive Chemical Hazards, sodium
+			// chlorite: acids, from memory; the two-part chlorine dioxide
+			// tablets are kept apart until use: common practice, no source).
+			return mk("clo2-release", engine.Danger,
+				"Sodium chlorite blended dry with the acid "+o.SolidAcids[0]+": the blend gives off chlorine dioxide, toxic and explosive when concentrated, as soon as it takes up moisture (humid air, a wet scoop), and the dry oxidizer can set organic matter alight.",
+				"Do not blend. Store, scoop and dose the chlorite and the acid apart, each with its own clean, dry tools; make chlorine dioxide only in a generator or by adding each to plenty of water at the point of use.",
+				"Bretherick's Handbook of Reactive Chemical Hazards, sodium chlorite with acids (from memory); common practice, no source"), true
+		}
 		return engine.Hazard{}, false
 	}
 	return mk("dry-blend-chlorine", engine.Danger,

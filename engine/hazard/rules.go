@@ -251,7 +251,16 @@ func cyanideComplexed(o *Outcome) (engine.Hazard, bool) {
 		// hydrogen cyanide on warming).
 		act = "Do not acidify it: in acid (pH " + fmtNum(o.PH, 2) + " here) the complex gives off hydrogen cyanide, slowly in the cold, faster warm or in light; if it has happened, keep it covered and vented to a scrubber or outdoors, and neutralise it back to alkaline. " + act
 	}
-	return mk("cyanide-complexed", engine.Warning,
+	sev := engine.Warning
+	if o.MolarBefore("H+") >= 3 {
+		// Concentrated strong acid (3 mol/L and more in the mix), not a
+		// dilute one: the hexacyanoferrate goes to the free acid and gives
+		// hydrogen cyanide off (the safety data sheets' EUH032; faster
+		// warm): the acidification the action forbids is the request
+		// itself. Dilute acid gives it off only on warming (Vogel).
+		sev = engine.Danger
+	}
+	return mk("cyanide-complexed", sev,
 		"Iron holds cyanide as hexacyanoferrate ("+fmtNum(fe, 2)+" mol/L): free hydrogen cyanide stays low in the cold, but the liquor and any blue sludge (Prussian-blue-type solids with excess iron) are still cyanide waste, and acid with warmth or light gives hydrogen cyanide off again slowly.",
 		act,
 		"Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, cyanide with iron(II) and iron(III) (from memory); ferrocyanide log β6 35, Smith & Martell Critical Stability Constants (from memory); release of cyanide from iron complexes in light and acid: common practice, no source; in acid: hexacyanoferrate safety data sheets, EUH032 (from memory)"), true
