@@ -156,7 +156,7 @@ func openAt(ctx context.Context, path string, opt Options, upto int) (*DB, error
 	}
 	db.w.SetMaxOpenConns(1)
 	db.w.SetConnMaxIdleTime(0)
-	if err := db.w.PingContext(ctx); err != nil {
+	if err := pingWriter(ctx, db.w); err != nil {
 		db.w.Close()
 		return nil, fmt.Errorf("open database %s: %w (check the directory exists and is writable)", path, err)
 	}
@@ -232,6 +232,27 @@ func (db *DB) checkKey(ctx context.Context, q queryer) error {
 			db.path, ErrChainKey, keyID, db.key.id)
 	}
 	return nil
+}
+
+// pingWriter opens the writer's connection. Switching a file that another
+// process is creating to WAL mode can return SQLITE_BUSY at once, without
+// the busy handler (SQLite, "Write-Ahead Logging": changing the journal
+// mode needs an exclusive lock), so a busy first open is retried for up to
+// busyTimeout before it is reported.
+func pingWriter(ctx context.Context, w *sql.DB) error {
+	deadline := time.Now().Add(busyTimeout * time.Millisecond)
+	for {
+		err := w.PingContext(ctx)
+		var se sqlite3.Error
+		if err == nil || !errors.As(err, &se) || se.Code != sqlite3.ErrBusy && se.Code != sqlite3.ErrLocked || time.Now().After(deadline) {
+			return err
+		}
+		select {
+		case <-ctx.Done():
+			return err
+		case <-time.After(50 * time.Millisecond):
+		}
+	}
 }
 
 // dsn builds a go-sqlite3 URI for path with the common pragmas plus extra.
