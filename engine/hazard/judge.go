@@ -525,7 +525,7 @@ func Judge(o *Outcome, d *Data) []engine.Hazard {
 			out = append(out, h)
 		}
 	}
-	if h, ok := sulfideFreedByAcid(o, out); ok {
+	if h, ok := sulfideFreedByAcid(o, d, out); ok {
 		out = append(out, h)
 	}
 	if h, ok := gasPressure(o, out); ok {
