@@ -3,6 +3,7 @@ package engine
 import (
 	"errors"
 	"fmt"
+	"strconv"
 	"strings"
 )
 
@@ -331,6 +332,17 @@ var solidForms = map[string]bool{
 	"solid": true, "foil": true, "wire": true, "sheet": true,
 }
 
+// numberWord reports whether a word reads as a number to strconv ("Inf",
+// "NaN"): a misplaced value, not part of a chemical's name.
+func numberWord(s string) bool {
+	_, err := strconv.ParseFloat(s, 64)
+	return err == nil
+}
+
+// liquidForms are the words for a liquid's form that may follow its name
+// (trade usage, common practice, no source).
+var liquidForms = map[string]bool{"solution": true, "soln": true, "liquor": true, "liquid": true, "lye": true}
+
 // stopWord: a word that ends a chemical's name: the conditions, a pH, or a
 // word that separates streams ("and", "with", "into").
 func stopWord(tk *token) bool { return isWord(tk, "at", "ph", "and", "with", "into") }
@@ -372,10 +384,21 @@ func (p *parser) component() (Component, error) {
 			p.i++
 			p.note("%q read as the form of solid %s: the form changes how fast it reacts (powder and dust fastest), not what forms", tk.text, name)
 		}
+		if tk := p.peek(); tk != nil && tk.kind == tWord && liquidForms[strings.ToLower(tk.text)] {
+			// "caustic soda liquor", "ferric chloride solution": the
+			// form of a liquid, which the concentration says already.
+			p.i++
+		}
 		if tk := p.peek(); tk != nil && tk.kind == tNumber {
 			p.i++
 			return c, p.concUnit(&c, tk)
 		} else if tk != nil && tk.kind == tWord && !stopWord(tk) {
+			if _, known := p.t.Lookup(tk.text); !known && !numberWord(tk.text) {
+				// "calcium carbide", "stainless steel": a name mixward
+				// does not know that begins with one it does.
+				p.i -= k
+				return Component{}, p.unknownName(words)
+			}
 			return c, p.errAt(tk, "unknown-word",
 				"%q does not belong after %s; give a concentration (\"%s 10 %%\") or separate components with \",\"", tk.text, name, name)
 		}

@@ -151,6 +151,9 @@ func TestParseErrors(t *testing.T) {
 		{"mix 1 L Cu + 1 L HCl 37 %", "metal-by-volume", 5, ""},
 		{"Zn + HCl 1 M at pH", "bad-ph", 19, ""},
 		{"Zn HCl", "unknown-word", 4, ""},
+		// A name that begins with a known one is an unknown chemical, not
+		// a stray word after the known part.
+		{"10 kg sodium widget + 100 L water", "unknown-chemical", 7, "sodium"},
 		{"NaOCl 12.5 % HCl", "unexpected-token", 14, ""},
 		{"-5 L NaOCl", "bad-amount", 1, ""},
 		{"T-999 + HCl 1 M", "unknown-tag", 1, ""},

@@ -67,13 +67,28 @@ const (
 	SevereRatio   = 100.0
 )
 
-// amountScaled are the gases judged by amount as well as concentration.
-var amountScaled = map[string]bool{"SO2": true}
+// amountScaled reports whether gas g of the mix is judged by amount as
+// well as concentration: sulfur dioxide always, and ammonia that a base
+// frees from an ammonium salt when no stream brings ammonia itself (a
+// little caustic in an ammonium chloride rinse, ammonium bicarbonate
+// dissolved in water give off a few millilitres, which smell at the
+// surface but do not trouble a room; common practice, no source). Ammonia
+// solution keeps giving its vapour off an open tank, and is judged by
+// concentration alone.
+func amountScaled(o *Outcome, g *GasData) bool {
+	switch g.Formula {
+	case "SO2":
+		return true
+	case "NH3":
+		return !o.Named("NH3")
+	}
+	return false
+}
 
 // smallPuff reports whether an amount-scaled gas above its limit comes off
 // in an amount too small to bring ReferenceAirL of air to the limit.
 func smallPuff(o *Outcome, g *GasData, hs Headspace, ratio float64) bool {
-	if !amountScaled[g.Formula] || ratio >= SevereRatio || !(o.HeadspaceL > 0) {
+	if !amountScaled(o, g) || ratio >= SevereRatio || !(o.HeadspaceL > 0) {
 		return false
 	}
 	rt := litreBarPerMolK() * o.TemperatureK()
@@ -102,13 +117,13 @@ func smallPuff(o *Outcome, g *GasData, hs Headspace, ratio float64) bool {
 // is judged where it gathers: neither is judged by amount.
 func tinyPuff(o *Outcome, g *GasData, hs Headspace, p *pool) bool {
 	formedTrace := o.HeadspaceL > 5*o.VolumeL && len(g.Pool) > 0 && o.MolarBefore(g.Pool...) < TraceMolar && g.LimitName != "LFL" && g.LimitName != "O2"
-	if !amountScaled[g.Formula] && !formedTrace || !(o.HeadspaceL > 0) || p == nil {
+	if !amountScaled(o, g) && !formedTrace || !(o.HeadspaceL > 0) || p == nil {
 		return false
 	}
 	rt := litreBarPerMolK() * o.TemperatureK()
 	amb := o.PressureKPa / 100
 	puff := math.Max(hs.PPM*1e-6*amb*o.HeadspaceL/rt, p.mol)
-	if formedTrace && !amountScaled[g.Formula] {
+	if formedTrace && !amountScaled(o, g) {
 		// What the reaction gives off is all there is of it: a tank's
 		// headspace over the first millilitres of a pour holds no more
 		// than they can give, whatever concentration the equilibrium
