@@ -74,4 +74,16 @@ func TestReview22(t *testing.T) {
 			t.Errorf("ammonia 10 %%: no ammonia judged")
 		}
 	})
+
+	t.Run("strong sulfuric acid drives nitric acid out of a nitrate when warm too", func(t *testing.T) {
+		// 100 L of 40 % sodium nitrate (621 mol) with 100 L of 96 %
+		// sulfuric acid (1800 mol): the old way of making nitric acid
+		// (Vogel's Qualitative Inorganic Analysis, nitrates with
+		// concentrated sulfuric acid, from memory). Warm, a quarter of
+		// the sulfate sits as the NaSO4- ion pair, still the acid's.
+		r := ask(t, a, "mix 100 L NaNO3 40 % + 100 L H2SO4 96 % at 60 C")
+		if _, ok := hazardOf(r, "acid-fumes"); !ok {
+			t.Errorf("no acid-fumes hazard for a nitrate in warm strong sulfuric acid")
+		}
+	})
 }

@@ -430,8 +430,13 @@ func sulfuric(o *Outcome) float64 {
 	if o.PH >= 0.5 {
 		return 0
 	}
-	return o.MolarBefore("H2SO4", "HSO4-", "SO4^2-")
+	return o.MolarBefore(sulfateForms...)
 }
+
+// sulfateForms are the dissolved forms of sulfuric acid and sulfate the
+// species data hold, ion pairs included: warm strong acid with much sodium
+// holds a quarter of its sulfate as NaSO4-, which is still the acid's.
+var sulfateForms = []string{"H2SO4", "HSO4-", "SO4^2-", "NaSO4-", "KSO4-", "MgSO4", "CaSO4", "ZnSO4", "CuSO4", "FeSO4+", "Fe(SO4)2-"}
 
 // volatileAcid: concentrated sulfuric acid takes up the water of the other
 // stream and drives out hydrogen chloride, nitric acid vapour or hydrogen
@@ -571,7 +576,7 @@ var slowMetals = []struct{ formula, name string }{{"Ni", "nickel"}, {"Co", "coba
 // practice, no source).
 func slowMetalNames(o *Outcome) string {
 	var names []string
-	sulfate := o.MolarBefore("SO4^2-", "HSO4-") >= TraceMolar
+	sulfate := o.MolarBefore(sulfateForms...) >= TraceMolar
 	for _, m := range slowMetals {
 		if m.formula == "Pb" && sulfate {
 			continue // held by its sulfate film: lead linings carry sulfuric acid

@@ -232,7 +232,7 @@ const (
 // names it. With organic liquid in the mix it is a danger.
 func caroAcid(o *Outcome) (engine.Hazard, bool) {
 	h2o2 := o.MolarBefore("H2O2", "HO2-")
-	acid := o.MolarBefore("H2SO4", "HSO4-", "SO4^2-")
+	acid := o.MolarBefore(sulfateForms...)
 	if h2o2 < CaroPeroxideMolar || acid < CaroSulfuricMolar || o.PH >= 0.5 {
 		return engine.Hazard{}, false
 	}
