@@ -86,4 +86,25 @@ func TestReview22(t *testing.T) {
 			t.Errorf("no acid-fumes hazard for a nitrate in warm strong sulfuric acid")
 		}
 	})
+
+	t.Run("bleach with acetone names the chloroform", func(t *testing.T) {
+		// 201 mol hypochlorite and 272 mol acetone: 67 mol chloroform
+		// by the haloform reaction (Vogel's Practical Organic Chemistry,
+		// from memory), in a mix near 90 °C, above chloroform's boiling
+		// point of 61 °C (CRC Handbook, from memory).
+		r := ask(t, a, "mix 100 L NaOCl 12.5 % + 20 L acetone")
+		h, ok := hazardOf(r, "chloroform-formation")
+		if !ok {
+			t.Fatal("no chloroform-formation hazard")
+		}
+		var n float64
+		for _, c := range h.Counts {
+			if c.Formula == "CHCl3" {
+				n = c.Mol
+			}
+		}
+		if n < 55 || n > 75 {
+			t.Errorf("chloroform %.1f mol, want about 67", n)
+		}
+	})
 }

@@ -708,10 +708,19 @@ func haloform(o *Outcome) (engine.Hazard, bool) {
 	if hot || n/3 >= 0.05 {
 		sev = engine.Danger
 	}
-	return withHeat(mk("chloroform-formation", sev,
-		"Hypochlorite with a ketone ("+fmtNum(k, 2)+" mol/L acetone) runs the haloform reaction (CH3COCH3 + 3 OCl- → CHCl3 + CH3COO- + 2 OH-): up to "+fmtNum(n/3*o.VolumeL, 2)+" mol chloroform, toxic and a suspected carcinogen, in the liquid and the vapour; "+heat+".",
+	// Chloroform stays in the liquid as a dense oil or in solution, and
+	// its vapour (boiling point 61 °C) comes off the warm mix: counted in
+	// the liquid against its IDLH so the short answer names it.
+	vapour := engine.GasCount{Formula: "CHCl3", Name: "chloroform vapour", Mol: n / 3 * o.VolumeL, InLiquid: true,
+		From: "the haloform reaction", LimitName: "IDLH", LimitPPM: 500, LimitSource: "NIOSH Pocket Guide, chloroform, IDLH 500 ppm (1994), from memory"}
+	boilsOff := ""
+	if hot {
+		boilsOff = " Chloroform boils at 61 °C (CRC Handbook, from memory): a mix this hot gives much of it off as vapour."
+	}
+	return withCounts(withHeat(mk("chloroform-formation", sev,
+		"Hypochlorite with a ketone ("+fmtNum(k, 2)+" mol/L acetone) runs the haloform reaction (CH3COCH3 + 3 OCl- → CHCl3 + CH3COO- + 2 OH-): up to "+fmtNum(n/3*o.VolumeL, 2)+" mol chloroform, toxic and a suspected carcinogen, in the liquid and the vapour; "+heat+"."+boilsOff,
 		"Do not combine. Keep solvents out of bleach and bleach out of solvent waste.",
-		"Bretherick's Handbook of Reactive Chemical Hazards, sodium hypochlorite with acetone (from memory); Vogel's Textbook of Practical Organic Chemistry, haloform reaction (from memory); heat estimate from ΔfH° (NBS Tables 1982, from memory); thresholds: common practice, no source"), rh), true
+		"Bretherick's Handbook of Reactive Chemical Hazards, sodium hypochlorite with acetone (from memory); Vogel's Textbook of Practical Organic Chemistry, haloform reaction (from memory); heat estimate from ΔfH° (NBS Tables 1982, from memory); thresholds: common practice, no source"), rh), vapour), true
 }
 
 // heavyMetals are the metals whose azides are primary explosives.
