@@ -107,4 +107,25 @@ func TestReview22(t *testing.T) {
 			t.Errorf("chloroform %.1f mol, want about 67", n)
 		}
 	})
+
+	t.Run("copper(II) into cyanide counts the cyanogen", func(t *testing.T) {
+		// 100 L of 5 % NaCN (102 mol) with 100 L of 10 % CuSO4 (69 mol):
+		// 2 Cu2+ + 4 CN- → 2 CuCN + (CN)2, cyanide-limited, up to 25 mol
+		// cyanogen (Greenwood & Earnshaw, cyanogen, from memory), most
+		// of the copper first going down as hydroxide.
+		r := ask(t, a, "mix 100 L sodium cyanide 5 % + 100 L copper sulfate 10 %")
+		h, ok := hazardOf(r, "cyanogen-release")
+		if !ok {
+			t.Fatal("no cyanogen-release hazard")
+		}
+		var n float64
+		for _, c := range h.Counts {
+			if c.Formula == "C2N2" {
+				n = c.Mol
+			}
+		}
+		if n < 20 || n > 27 {
+			t.Errorf("cyanogen %.1f mol, want about 25", n)
+		}
+	})
 }

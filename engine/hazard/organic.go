@@ -1143,7 +1143,16 @@ const cyanogenRELppm = 10.0
 // cyanogen, REL 10 ppm, from memory). Copper(I) cyanide dissolved in
 // cyanide (the plating bath) gives none.
 func cyanogenFromCopper(o *Outcome) (engine.Hazard, bool) {
-	cu := o.MolarBefore("Cu^2+", "CuOH+", "Cu2(OH)2^2+", "CuSO4", "CuCl+")
+	// Copper(II) as the streams bring it, or as the mix holds it (much of
+	// it goes down as hydroxide where cyanide, a base, meets it: fresh
+	// copper hydroxide takes cyanide to cyanogen as well).
+	cuForms := []string{"Cu^2+", "CuOH+", "CuSO4", "CuCl+", "Cu(OH)2(s)"}
+	cu := math.Max(o.MolarBefore(cuForms...)+2*o.MolarBefore("Cu2(OH)2^2+"), o.Molar(cuForms...)+2*o.Molar("Cu2(OH)2^2+"))
+	for i := range o.After {
+		if a := &o.After[i]; a.Species.Text() == "Cu(OH)2(s)" && o.VolumeL > 0 && a.Molar < TraceMolar {
+			cu += a.Mol / o.VolumeL // a solid's amount, when not given per litre
+		}
+	}
 	if o.Named("Cu(OH)2", "CuO") {
 		cu = math.Max(cu, FamilyTraceMolar)
 	}
@@ -1172,10 +1181,14 @@ func cyanogenFromCopper(o *Outcome) (engine.Hazard, bool) {
 		// cyanide liquor): named, not a reason to refuse.
 		sev = engine.Warning
 	}
-	return mk("cyanogen-release", sev,
+	// Counted as a gas a reaction outside the state gives off, so the
+	// short answer's Forms line carries its amount against the limit.
+	c := beyondCount("C2N2", "cyanogen", mol, "copper(II) oxidizing cyanide")
+	c.LimitName, c.LimitPPM, c.LimitSource = "REL", cyanogenRELppm, "NIOSH Pocket Guide, cyanogen, REL 10 ppm (no IDLH listed), from memory"
+	return withCounts(mk("cyanogen-release", sev,
 		"Copper(II) oxidizes cyanide to cyanogen, (CN)2, a very toxic gas (NIOSH REL 10 ppm), with copper(I) cyanide: up to "+fmtNum(mol, 3)+" mol ("+fmtNum(engine.GasVolumeL(mol, 298.15, 101.325), 3)+" L) where the copper salt meets free cyanide.",
 		"Do not combine. Never add copper(II) salts to cyanide liquors or cyanide to copper baths; if it has happened, leave the area, ventilate and raise the alarm.",
-		"Greenwood & Earnshaw, Chemistry of the Elements, cyanogen from copper(II) and cyanide (from memory); NIOSH Pocket Guide, cyanogen, REL 10 ppm (from memory)"), true
+		"Greenwood & Earnshaw, Chemistry of the Elements, cyanogen from copper(II) and cyanide (from memory); NIOSH Pocket Guide, cyanogen, REL 10 ppm (from memory)"), c), true
 }
 
 // noHalogen reports whether the atoms hold no halogen (HCl, HF are acids,
