@@ -1143,16 +1143,7 @@ const cyanogenRELppm = 10.0
 // cyanogen, REL 10 ppm, from memory). Copper(I) cyanide dissolved in
 // cyanide (the plating bath) gives none.
 func cyanogenFromCopper(o *Outcome) (engine.Hazard, bool) {
-	// Copper(II) as the streams bring it, or as the mix holds it (much of
-	// it goes down as hydroxide where cyanide, a base, meets it: fresh
-	// copper hydroxide takes cyanide to cyanogen as well).
-	cuForms := []string{"Cu^2+", "CuOH+", "CuSO4", "CuCl+", "Cu(OH)2(s)"}
-	cu := math.Max(o.MolarBefore(cuForms...)+2*o.MolarBefore("Cu2(OH)2^2+"), o.Molar(cuForms...)+2*o.Molar("Cu2(OH)2^2+"))
-	for i := range o.After {
-		if a := &o.After[i]; a.Species.Text() == "Cu(OH)2(s)" && o.VolumeL > 0 && a.Molar < TraceMolar {
-			cu += a.Mol / o.VolumeL // a solid's amount, when not given per litre
-		}
-	}
+	cu := o.MolarBefore("Cu^2+", "CuOH+", "Cu2(OH)2^2+", "CuSO4", "CuCl+")
 	if o.Named("Cu(OH)2", "CuO") {
 		cu = math.Max(cu, FamilyTraceMolar)
 	}
@@ -1160,7 +1151,10 @@ func cyanogenFromCopper(o *Outcome) (engine.Hazard, bool) {
 	if cu < FamilyTraceMolar || cn < FamilyTraceMolar {
 		return engine.Hazard{}, false
 	}
-	mol := math.Min(cu/2, cn/4) * o.VolumeL
+	// The amount counts all the copper(II): much of it goes down as
+	// hydroxide where cyanide, a base, meets it, and fresh copper
+	// hydroxide takes cyanide to cyanogen as well.
+	mol := math.Min(math.Max(cu, copperIIAll(o))/2, cn/4) * o.VolumeL
 	if o.PH >= 10 && cn >= 4*cu {
 		// A trace of copper in an alkaline cyanide liquor with the cyanide
 		// in excess (the copper catalyst of peroxide cyanide destruction,
@@ -1189,6 +1183,18 @@ func cyanogenFromCopper(o *Outcome) (engine.Hazard, bool) {
 		"Copper(II) oxidizes cyanide to cyanogen, (CN)2, a very toxic gas (NIOSH REL 10 ppm), with copper(I) cyanide: up to "+fmtNum(mol, 3)+" mol ("+fmtNum(engine.GasVolumeL(mol, 298.15, 101.325), 3)+" L) where the copper salt meets free cyanide.",
 		"Do not combine. Never add copper(II) salts to cyanide liquors or cyanide to copper baths; if it has happened, leave the area, ventilate and raise the alarm.",
 		"Greenwood & Earnshaw, Chemistry of the Elements, cyanogen from copper(II) and cyanide (from memory); NIOSH Pocket Guide, cyanogen, REL 10 ppm (from memory)"), c), true
+}
+
+// copperIIAll is the mol/L of copper(II) the mixed state holds, dissolved
+// or as hydroxide.
+func copperIIAll(o *Outcome) float64 {
+	n := o.Molar("Cu^2+", "CuOH+", "CuSO4", "CuCl+") + 2*o.Molar("Cu2(OH)2^2+")
+	for i := range o.After {
+		if a := &o.After[i]; a.Species.Text() == "Cu(OH)2(s)" && o.VolumeL > 0 {
+			n += a.Mol / o.VolumeL
+		}
+	}
+	return n
 }
 
 // noHalogen reports whether the atoms hold no halogen (HCl, HF are acids,
