@@ -246,6 +246,7 @@ func (e *Engine) predict(asked *Request, full bool) (*Result, error) {
 		res.HeldBack = e.heldBack(mx)
 	}
 	res.FinalComposition = compositionOut(mx)
+	res.ReadAs = append(res.ReadAs, metalFormNotes(req, mx)...)
 	res.Gases = gasesOut(mx, formedBy(steps), m.pressureKPa, res.Conditions.HeadspaceL)
 	res.Heat = heatOut(mx, m, e.Tables)
 	e.outsideAqueous(res, m)
@@ -405,4 +406,47 @@ func unsolved(err error) error {
 	}
 	return &ParseError{Code: code, Suggestions: []string{},
 		Message: "no answer for this mix: " + err.Error() + "; the answer is withheld rather than guessed: check the safety data sheets and ask a chemist before combining"}
+}
+
+// metalFormNotes says, for each metal poured as a solid without a word for
+// its form ("turnings", "powder"), that the answer counts it as reacting as
+// far as the mix takes it, as chips and powder do: a solid part reacts at
+// its surface only, so the same gas and heat come over minutes to hours,
+// and a passive metal (aluminium, stainless steel) in cold acid may hardly
+// react (common practice, no source).
+func metalFormNotes(req *Request, mx *state.Mix) []string {
+	var out []string
+	for _, st := range req.Streams {
+		if st.VolumeL > 0 || st.MassKg <= 0 || len(st.Components) != 1 {
+			continue
+		}
+		c := st.Components[0]
+		if c.Chemical == nil || c.Chemical.Class != Metal || formStated(req.Notes, c.Name) || alkaliMetal[c.Chemical.Formula] {
+			continue
+		}
+		for i, sp := range mx.Species {
+			if sp.Text != c.Chemical.Formula+"(s)" || !(mx.Initial[i] > 0) {
+				continue
+			}
+			if used := (mx.Initial[i] - mx.Final.Amount[i]) / mx.Initial[i]; used >= 0.1 {
+				out = append(out, fmt.Sprintf("%s counted as reacting as far as the mix takes it, as turnings, chips or powder do; solid parts react at their surface, more slowly, and a passive metal in cold acid may hardly react", c.Name))
+			}
+		}
+	}
+	return out
+}
+
+// alkaliMetal are the metals that react with water in any form, lumps
+// as fast as anything (Greenwood & Earnshaw, alkali metals, from memory).
+var alkaliMetal = map[string]bool{"Li": true, "Na": true, "K": true, "Ca": true, "Sr": true, "Ba": true}
+
+// formStated reports whether the request named the form of solid name
+// ("aluminium turnings"): the parser's note says so.
+func formStated(notes []string, name string) bool {
+	for _, n := range notes {
+		if strings.Contains(n, "read as the form of solid "+name) {
+			return true
+		}
+	}
+	return false
 }

@@ -128,4 +128,25 @@ func TestReview22(t *testing.T) {
 			t.Errorf("cyanogen %.1f mol, want about 25", n)
 		}
 	})
+
+	t.Run("a metal given by mass is said to be counted as chips", func(t *testing.T) {
+		// Massive aluminium in cold 20 % sulfuric acid is the anodising
+		// bath itself and reacts slowly (common practice, no source):
+		// the answer counts it as turnings and says so; named turnings
+		// and sodium (which reacts in any form) get no such line.
+		has := func(r *engine.Result) bool {
+			for _, n := range r.ReadAs {
+				if strings.Contains(n, "counted as reacting as far as the mix takes it") {
+					return true
+				}
+			}
+			return false
+		}
+		if r := ask(t, a, "mix 200 L sulfuric acid 20 % + 20 kg aluminium at 20 C"); !has(r) {
+			t.Errorf("aluminium by mass: no line on its form in %q", r.ReadAs)
+		}
+		if r := ask(t, a, "mix 200 L sulfuric acid 20 % + 20 kg aluminium turnings"); has(r) {
+			t.Errorf("aluminium turnings: form line although the form is named")
+		}
+	})
 }
