@@ -261,9 +261,14 @@ func TestHydrateNamedForSulfideAndPhosphate(t *testing.T) {
 // sheets, EUH032, from memory).
 func TestComplexedCyanideInAcidNamesHCN(t *testing.T) {
 	r := ask(t, mustAdvisor(t), "mix 100 L potassium ferricyanide 5 % + 20 L HCl 32 %")
-	h, ok := hazardOf(r, "cyanide-complexed")
-	if !ok || !strings.HasPrefix(h.Action, "Do not acidify it") || !strings.Contains(h.Action, "hydrogen cyanide") {
-		t.Errorf("cyanide-complexed in acid: %+v, want an action that leads with not acidifying and names hydrogen cyanide", h)
+	// The acidification is judged by cyanide-complex-acid, whose
+	// headline names hydrogen cyanide.
+	h, ok := hazardOf(r, "cyanide-complex-acid")
+	if !ok || !strings.HasPrefix(h.Action, "Do not") || !strings.Contains(h.Title, "hydrogen cyanide") || !strings.Contains(h.Message, "hydrogen cyanide") {
+		t.Errorf("hexacyanoferrate in acid: %+v, want an action that leads with \"Do not\" and hydrogen cyanide named", h)
+	}
+	if _, ok := hazardOf(r, "cyanide-complexed"); ok {
+		t.Error("hexacyanoferrate in acid: cyanide-complexed raised beside cyanide-complex-acid")
 	}
 }
 

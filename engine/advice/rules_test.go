@@ -134,8 +134,8 @@ func TestHazardsAdded(t *testing.T) {
 			"Vogel, nitric acid with zinc"},
 		{"silver cyanide bath into acid", "mix 10 L KAg(CN)2 5 % + 10 L HCl 10 %", "hcn-release", engine.Danger,
 			"Bretherick's Handbook, cyanides with acids; NIOSH IDLH hydrogen cyanide 50 ppm"},
-		{"ferrocyanide with acid", "mix 10 L K4Fe(CN)6 5 % + 10 L HCl 10 %", "cyanide-complexed", engine.Warning,
-			"Vogel, hexacyanoferrates with dilute acid (hydrogen cyanide on warming)"},
+		{"ferrocyanide with acid", "mix 10 L K4Fe(CN)6 5 % + 10 L HCl 10 %", "cyanide-complex-acid", engine.Warning,
+			"Vogel, hexacyanoferrates with dilute acid (hydrogen cyanide on warming); safety data sheets, EUH032"},
 		{"cyanide bound by ferrous sulfate", "mix 100 L NaCN 1 %, pH 11 + 100 L FeSO4 0.5 M", "cyanide-complexed", engine.Warning,
 			"Vogel, cyanide with iron(II); Smith & Martell, ferrocyanide log β6 35"},
 	} {

@@ -301,6 +301,37 @@ func (x *explainer) partner(el, key string, not ...*thermo.Species) *thermo.Spec
 				return best
 			}
 		}
+		// No carrier free of the key element holds a real share: the
+		// element stays with the part of the key element that does not
+		// change, in the same states (the copper of Cu(CN)3^2- whose
+		// cyanide is partly taken to cyanate stays as Cu(CN)2- or
+		// CuCN(s), not as a trace of CuCl2- that exists only in strong
+		// acid chloride liquors). Only where the mix at equilibrium
+		// still holds it so: copper cyanide under excess peroxide ends as
+		// copper(II) hydroxide, and the fallback below writes that.
+		if el != key && key != "H" && key != "O" && sp.Atoms[key] > 0 {
+			keyOx := sp.Ox[key]
+			for _, amount := range [][]float64{x.mx.Final.Amount} {
+				total := 0.0
+				for i, c := range x.mx.Species {
+					total += amount[i] * float64(c.Atoms[el])
+				}
+				sameKey := func(i int, c *thermo.Species) bool {
+					if c.Ox == nil || math.Abs(c.Ox[el]-sp.Ox[el]) >= 0.01 || amount[i]*float64(c.Atoms[el]) < partnerShare*total {
+						return false
+					}
+					// Not the agent again in another acid–base form
+					// (CN- beside HCN): that carries no element apart.
+					if skeletonOf(c) == skeletonOf(sp) {
+						return false
+					}
+					return c.Atoms[key] == 0 || math.Abs(c.Ox[key]-keyOx) < 0.01
+				}
+				if best := x.carrierWhere(el, amount, false, nil, not, sameKey); best != nil {
+					return best
+				}
+			}
+		}
 		break
 	}
 	// Main species first: an ion pair (FeSO4+, NaSO4-) would drag a metal

@@ -20,6 +20,7 @@ var codes = []Code{
 	{"cyanogen-chloride-release", "releases cyanogen chloride", []string{"toxic-gas"}},
 	{"cyanide-kept-alkaline", "cyanide present: keep it alkaline", []string{"cyanide-present"}},
 	{"cyanide-complexed", "binds cyanide as iron complexes: still cyanide waste", []string{"cyanide-present"}},
+	{"cyanide-complex-acid", "acid frees hydrogen cyanide from a cyanide complex", []string{"acid-cyanide"}},
 	{"chlorine-release", "releases chlorine", []string{"hypochlorite-acid", "toxic-gas"}},
 	{"chloramine-release", "forms chloramines", []string{"hypochlorite-ammonia"}},
 	{"nitrogen-trichloride", "forms explosive nitrogen trichloride", []string{"hypochlorite-ammonia"}},

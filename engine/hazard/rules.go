@@ -233,37 +233,18 @@ func cyanideAlkaline(o *Outcome) (engine.Hazard, bool) {
 // is bound as hexacyanoferrate (ferrocyanide, log β6 about 35): the free
 // hydrogen cyanide falls, but the liquor stays a cyanide waste. With excess
 // iron it throws down Prussian-blue-type solids, and in acid, light or heat
-// the complexes give hydrogen cyanide off again slowly; the rule fires too
-// for a hexacyanoferrate in acid below pH 4 (safety data sheets of potassium
-// ferrocyanide: contact with acids liberates very toxic gas).
+// the complexes give hydrogen cyanide off again slowly. In acid below pH 4
+// the acidification is the hazard: cyanide-complex-acid (cyanide_acid.go)
+// judges it, for every metal cyanide complex alike.
 func cyanideComplexed(o *Outcome) (engine.Hazard, bool) {
 	fe := math.Max(o.Molar("Fe(CN)6^4-", "Fe(CN)6^3-"), o.MolarBefore("Fe(CN)6^4-", "Fe(CN)6^3-"))
-	if fe < TraceMolar || !o.Named("NaCN", "KCN", "HCN", "CuCN", "Zn(CN)2", "AgCN") && o.PH >= 4 {
+	if fe < TraceMolar || o.PH < 4 || !o.Named("NaCN", "KCN", "HCN", "CuCN", "Zn(CN)2", "AgCN") {
 		return engine.Hazard{}, false
 	}
-	act := "Treat as cyanide waste: keep it alkaline, covered and out of sunlight, and send it to cyanide treatment, not to the drain."
-	if o.PH < 4 {
-		// The request is the acidification itself: say so first
-		// (potassium ferrocyanide and ferricyanide safety data sheets,
-		// EUH032 "contact with acids liberates very toxic gas"; from
-		// memory). A warning, not a danger: in the cold the complex gives
-		// it off only slowly (Vogel, hexacyanoferrates with dilute acid:
-		// hydrogen cyanide on warming).
-		act = "Do not acidify it: in acid (pH " + fmtNum(o.PH, 2) + " here) the complex gives off hydrogen cyanide, slowly in the cold, faster warm or in light; if it has happened, keep it covered and vented to a scrubber or outdoors, and neutralise it back to alkaline. " + act
-	}
-	sev := engine.Warning
-	if o.MolarBefore("H+") >= 3 {
-		// Concentrated strong acid (3 mol/L and more in the mix), not a
-		// dilute one: the hexacyanoferrate goes to the free acid and gives
-		// hydrogen cyanide off (the safety data sheets' EUH032; faster
-		// warm): the acidification the action forbids is the request
-		// itself. Dilute acid gives it off only on warming (Vogel).
-		sev = engine.Danger
-	}
-	return mk("cyanide-complexed", sev,
+	return mk("cyanide-complexed", engine.Warning,
 		"Iron holds cyanide as hexacyanoferrate ("+fmtNum(fe, 2)+" mol/L): free hydrogen cyanide stays low in the cold, but the liquor and any blue sludge (Prussian-blue-type solids with excess iron) are still cyanide waste, and acid with warmth or light gives hydrogen cyanide off again slowly.",
-		act,
-		"Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, cyanide with iron(II) and iron(III) (from memory); ferrocyanide log β6 35, Smith & Martell Critical Stability Constants (from memory); release of cyanide from iron complexes in light and acid: common practice, no source; in acid: hexacyanoferrate safety data sheets, EUH032 (from memory)"), true
+		"Treat as cyanide waste: keep it alkaline, covered and out of sunlight, and send it to cyanide treatment, not to the drain.",
+		"Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, cyanide with iron(II) and iron(III) (from memory); ferrocyanide log β6 35, Smith & Martell Critical Stability Constants (from memory); release of cyanide from iron complexes in light and acid: common practice, no source"), true
 }
 
 // chromiumGPerMol is the standard atomic weight of chromium (IUPAC 2013,
