@@ -576,6 +576,14 @@ func pairHeld(r *engine.Result) *engine.HeldBack {
 	if r.Reaction != nil && r.Verdict == engine.Spontaneous && !r.Hindered && (r.Decision == nil || !held(r.Decision.Held, r.Reaction.Text)) {
 		return nil
 	}
+	if r.Reaction != nil && r.Verdict == engine.Spontaneous && !r.Hindered && formsGas(r) {
+		// The answer's own change runs and gives off its gas; a lock only
+		// stops it part of the way (chlorite to chlorine dioxide as far as
+		// the acid reaches). A change held back beside it (the chlorine
+		// dioxide it made taken on to perchlorate) is not what the
+		// streams do when they meet.
+		return nil
+	}
 	for i := range r.HeldBack {
 		if hb := &r.HeldBack[i]; hb.Reaction != nil && agents(hb.Reaction) >= 2 {
 			return hb

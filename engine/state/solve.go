@@ -131,10 +131,33 @@ func (m *Model) solveUnder(mx *Mix, n0 []float64, combined *State, volL float64,
 	}
 	// A lock that lets its group grow by the acid the mix holds: only when
 	// it held something back at no allowance is the acid titrated.
-	if allow := m.acidAllowances(mx, applied, best, n0, combined, volL); allow != nil {
+	allow := m.acidAllowances(mx, applied, best, n0, combined, volL)
+	if allow != nil {
 		// The solve with the allowances starts where the one without
 		// them ended, with the same constraints active: only the bounds
 		// of the allowed rules have moved.
+		if best, err = m.solveSets(mx, n0, applied, volL, allow, best.Amount, best.Eq.Active); err != nil {
+			return nil, err
+		}
+	}
+	// The reaction the allowance (or none) let run may itself make acid or
+	// base: bisulfite taken to sulfate by chlorite makes two protons for
+	// each chlorite (ClO2- + 2 HSO3- → Cl- + 2 SO4^2- + 2 H+), and that acid
+	// then breaks down the chlorite left over (5 HClO2 → 4 ClO2 + HCl +
+	// 2 H2O; White's Handbook of Chlorination, chlorite, from memory). The
+	// acid (or base) the state at equilibrium still holds beyond the pH of a
+	// rule that held something back is counted too, a few rounds at most.
+	for round := 0; round < maxAllowanceRounds; round++ {
+		more := m.madeAllowances(mx, applied, best, combined, volL)
+		if more == nil {
+			break
+		}
+		if allow == nil {
+			allow = map[string]float64{}
+		}
+		for k, v := range more {
+			allow[k] += v
+		}
 		if best, err = m.solveSets(mx, n0, applied, volL, allow, best.Amount, best.Eq.Active); err != nil {
 			return nil, err
 		}
@@ -242,13 +265,13 @@ func (m *Model) acidAllowances(mx *Mix, applied []*Lock, st *State, n0 []float64
 			var spend float64
 			switch {
 			case r.AcidTo != nil && combined.PH < *r.AcidTo:
-				x, err := m.titrate(mx, n0, volL, *r.AcidTo)
+				x, err := m.titrateCapacity(mx, n0, volL, *r.AcidTo)
 				if err != nil || x >= 0 {
 					continue
 				}
 				spend = -x * r.Per // the base it takes to reach the pH: the acid that can be spent
 			case r.BaseTo != nil && combined.PH > baseTarget(mx, *r.BaseTo):
-				x, err := m.titrate(mx, n0, volL, baseTarget(mx, *r.BaseTo))
+				x, err := m.titrateCapacity(mx, n0, volL, baseTarget(mx, *r.BaseTo))
 				if err != nil || x <= 0 {
 					continue
 				}
@@ -264,6 +287,62 @@ func (m *Model) acidAllowances(mx *Mix, applied []*Lock, st *State, n0 []float64
 	}
 	return out
 }
+
+// maxAllowanceRounds bounds the recounts of acid or base made by the
+// reaction an allowance let run.
+const maxAllowanceRounds = 3
+
+// madeAllowances titrates the state at equilibrium st, as it stands, to the
+// pH of each "+ acid to ph N" or "+ base to ph N" rule that held something
+// back while st is still beyond that pH and the reaction made it more acid
+// (or more alkaline) than the mix as combined: the acid or base the
+// reaction made. Nil when there is none worth a solve. A reaction that
+// spent acid (a metal in acid, whose salt hydrolyses a little: aluminium
+// and iron(III) ions are weak acids) leaves the mix less acid than
+// combined and is not counted again.
+func (m *Model) madeAllowances(mx *Mix, applied []*Lock, st, combined *State, volL float64) map[string]float64 {
+	var out map[string]float64
+	for _, l := range applied {
+		for k, r := range l.Rules {
+			name := l.ID + "#" + strconv.Itoa(k)
+			if !contains(st.Eq.Active, name) {
+				continue
+			}
+			var spend float64
+			switch {
+			case r.AcidTo != nil && st.PH < *r.AcidTo-allowanceSlack && st.PH < combined.PH-allowanceSlack:
+				x, err := m.titrateCapacity(mx, st.Amount, volL, *r.AcidTo)
+				if err != nil || x >= 0 {
+					continue
+				}
+				spend = -x * r.Per
+			case r.BaseTo != nil && st.PH > baseTarget(mx, *r.BaseTo)+allowanceSlack && st.PH > combined.PH+allowanceSlack:
+				x, err := m.titrateCapacity(mx, st.Amount, volL, baseTarget(mx, *r.BaseTo))
+				if err != nil || x <= 0 {
+					continue
+				}
+				spend = x * r.Per
+			default:
+				continue
+			}
+			if spend < allowanceMin*volL {
+				continue
+			}
+			if out == nil {
+				out = map[string]float64{}
+			}
+			out[name] = spend
+		}
+	}
+	return out
+}
+
+// allowanceSlack (pH units) and allowanceMin (mol/L) keep the recount from
+// chasing the rounding of a state that already sits at the rule's pH.
+const (
+	allowanceSlack = 0.05
+	allowanceMin   = 1e-4
+)
 
 // baseTarget is the pH at the mix's temperature with the hydroxide that pH
 // ph has at 25 °C: a "+ base to ph N" allowance counts the hydroxide held

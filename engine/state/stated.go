@@ -107,13 +107,49 @@ func (m *Model) withAcid(mx *Mix, n0 []float64, x float64) []float64 {
 // brings the solution as combined to pH target: a bracketing secant
 // (Illinois) on u = asinh(x), where the pH is smooth and monotone.
 func (m *Model) titrate(mx *Mix, n0 []float64, volL, target float64) (float64, error) {
-	key := titrationKey(n0, volL, target, mx.TempK, mx.reachC())
+	return m.titrateUpTo(mx, n0, volL, target, 20*volL)
+}
+
+// titrateUpTo is titrate with up to limit mol of acid or base.
+func (m *Model) titrateUpTo(mx *Mix, n0 []float64, volL, target, limit float64) (float64, error) {
+	key := titrationKey(n0, volL, target, mx.TempK, mx.reachC()) + strconv.FormatFloat(limit, 'g', -1, 64)
 	if x, err, ok := mx.titrations.get(key); ok {
 		return x, err
 	}
-	x, err := m.titrateOnce(mx, n0, volL, target)
+	x, err := m.titrateOnce(mx, n0, volL, target, limit)
 	mx.titrations.put(key, x, err)
 	return x, err
+}
+
+// titrateCapacity titrates as titrate does and, where the pH is beyond what
+// 20 mol/L of acid or base reaches, once more with as much as the streams
+// could hold (capacity): a lock allowance counts all the acid of a
+// near-anhydrous acid (1 L of 98 % sulfuric acid holds about 37 mol of
+// protons; CRC Handbook, density of sulfuric acid 1.84 g/mL, from memory),
+// where a stated pH stops at 20 mol/L.
+func (m *Model) titrateCapacity(mx *Mix, n0 []float64, volL, target float64) (float64, error) {
+	x, err := m.titrate(mx, n0, volL, target)
+	if !errors.Is(err, errUnreachable) {
+		return x, err
+	}
+	if c := capacity(mx, n0); c > 20*volL {
+		return m.titrateUpTo(mx, n0, volL, target, c)
+	}
+	return x, err
+}
+
+// capacity bounds the mol of strong acid or base that the amounts n0 could
+// take up or give: the hydrogen and the charges of every species but water,
+// counted generously (the titration only needs a bracket).
+func capacity(mx *Mix, n0 []float64) float64 {
+	var c float64
+	for i, sp := range mx.Species {
+		if i >= len(n0) || sp.Text == "H2O" || sp.Text == "H2O(l)" {
+			continue
+		}
+		c += n0[i] * (float64(sp.Atoms["H"]) + 2*math.Abs(float64(sp.Charge)) + 1)
+	}
+	return 1.1 * c
 }
 
 // titrations keeps the titrations of one mix: the held-back changes solve
@@ -165,7 +201,7 @@ func (t *titrations) put(key string, x float64, err error) {
 }
 
 // titrateOnce is titrate without the memory.
-func (m *Model) titrateOnce(mx *Mix, n0 []float64, volL, target float64) (float64, error) {
+func (m *Model) titrateOnce(mx *Mix, n0 []float64, volL, target, limitMol float64) (float64, error) {
 	f := func(u float64) (float64, error) {
 		// The same solve as the mix as combined, with the locks that keep
 		// listed species from forming: without them cyanide "hydrolyses" to
@@ -182,8 +218,8 @@ func (m *Model) titrateOnce(mx *Mix, n0 []float64, volL, target float64) (float6
 		}
 		return s.PH - target, nil
 	}
-	limit := math.Asinh(20 * volL) // up to 20 mol/L of acid or base
-	lo, hi := -limit, limit        // f falls as u rises
+	limit := math.Asinh(limitMol) // up to limitMol of acid or base (20 mol/L for a stated pH)
+	lo, hi := -limit, limit       // f falls as u rises
 	// The two ends of the bracket are independent solves (each as slow as
 	// a few steps of the secant together): they run side by side.
 	var (
