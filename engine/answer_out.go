@@ -268,6 +268,16 @@ func heatOut(mx *state.Mix, m *mixture, t *Tables) *Heat {
 		}
 	}
 	if why := tooLittleWater(mx, m, t); why != "" {
+		// The heat of dissolving has no figure, but a reaction whose own
+		// heat would take the whole mass past boiling (borohydride in a
+		// little acid) is not left without one: that much is certain
+		// whatever the solids' heats of solution add.
+		if len(standIn) == 0 && len(missing) == 0 && m.massKg > 0 {
+			cp := heatCapacityOf(m.massKg, m.solutes, t)
+			if boil := m.massKg * cp * (boilingPointC(m.pressureKPa) - (mx.TempK - 273.15)); -dh > boil && boil > 0 {
+				why += fmt.Sprintf("; the reaction alone releases about %.0f kJ, enough to boil the mix", roundSig(-dh, 2))
+			}
+		}
 		h.Withheld = why
 		return h
 	}

@@ -24,18 +24,20 @@ func decisionGas(r *engine.Result, text string) float64 {
 
 // TestBorohydrideKeptUntilAcid: a borohydride liquor is kept as borohydride
 // by itself, diluted with water or with caustic (it is sold stabilised in
-// caustic soda and hydrolyses only slowly above about pH 10: Kreevoy and
-// Jacobson 1979, from memory); acid takes it to boric acid and hydrogen in
-// minutes, BH4- + H+ + 3 H2O → H3BO3 + 4 H2 (Bretherick's Handbook of
-// Reactive Chemical Hazards, sodium tetrahydroborate, from memory), four
-// hydrogen molecules for each proton the acid brings.
+// caustic soda; unstabilised, its own metaborate holds it near pH 10–11,
+// where its half-life is hours: log t½ in minutes = pH − (0.034 T − 1.92),
+// Kreevoy and Jacobson 1979, from memory); acid takes it to boric acid and
+// hydrogen at once, BH4- + H+ + 3 H2O → H3BO3 + 4 H2 (Bretherick's Handbook
+// of Reactive Chemical Hazards, sodium tetrahydroborate, from memory), and
+// the boric acid so made buffers the rest near pH 9, where the half-life is
+// minutes (same rate law), so in an acid mix all of it goes to hydrogen, not
+// only what the acid reaches.
 //
 // Hand checks: 100 L of 12 % NaBH4 at 1.00 g/mL (no density row) is
-// 12000/37.83 = 317 mol; 50 L of 10 % HCl at 1.048 g/mL (CRC, from memory)
-// is 5240/36.46 = 144 mol H+, so about 575 mol H2; ΔrH ≈ −263 kJ/mol
-// (NBS Tables 1982: BH4- +48, H3BO3(aq) −1072 kJ/mol, from memory) gives
-// ≈ 38 MJ. 20 L of 80 % acetic acid at 1.07 g/mL (CRC, from memory) is
-// 285 mol, all of it reaching the borohydride: ≈ 1140 mol H2.
+// 12000/37.83 = 317 mol: 4 × 317 = 1268 mol H2 with any of the acids below
+// (50 L of 10 % HCl, 144 mol H+; 50 L of 5 % HCl; 20 L of 80 % acetic
+// acid); ΔrH ≈ −263 kJ/mol (NBS Tables 1982: BH4- +48, H3BO3(aq) −1072
+// kJ/mol, from memory) gives ≈ 83 MJ.
 func TestBorohydrideKeptUntilAcid(t *testing.T) {
 	a := mustAdvisor(t)
 	cases := []struct {
@@ -47,9 +49,9 @@ func TestBorohydrideKeptUntilAcid(t *testing.T) {
 		{"diluted with water", "mix 100 L NaBH4 12 % + 100 L water", engine.NoConcern, 0, 1, 0, 0},
 		{"stream alone, larger", "mix 500 L NaBH4 12 % + 10 L water", engine.NoConcern, 0, 1, 0, 0},
 		{"with caustic", "mix 100 L NaBH4 12 % + 50 L NaOH 20 %", engine.NoConcern, 0, 1, 0, 0},
-		{"into hydrochloric acid", "mix 100 L NaBH4 12 % + 50 L HCl 10 %", engine.DoNotMix, 545, 600, 34000, 42000},
-		{"acid listed first, weaker", "mix 50 L HCl 5 % + 100 L NaBH4 12 %", engine.DoNotMix, 265, 305, 0, 0},
-		{"acetic acid reaches it too", "mix 100 L NaBH4 12 % + 20 L acetic acid 80 %", engine.DoNotMix, 1080, 1200, 0, 0},
+		{"into hydrochloric acid", "mix 100 L NaBH4 12 % + 50 L HCl 10 %", engine.DoNotMix, 1200, 1300, 75000, 90000},
+		{"acid listed first, weaker", "mix 50 L HCl 5 % + 100 L NaBH4 12 %", engine.DoNotMix, 1200, 1300, 0, 0},
+		{"acetic acid reaches it too", "mix 100 L NaBH4 12 % + 20 L acetic acid 80 %", engine.DoNotMix, 1200, 1300, 0, 0},
 		// The caustic keeps the hydrolysis back, never an oxidizer: BH4- +
 		// 4 OCl- → B(OH)4- + 4 Cl-, about −1630 kJ per BH4- (NBS Tables 1982:
 		// BH4- +48, OCl- −107.1, B(OH)4- −1344, Cl- −167.2, from memory);

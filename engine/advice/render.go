@@ -469,6 +469,11 @@ func reactionLine(r *engine.Result) string {
 	if r.OutsideAqueous != "" {
 		return "Redox: " + r.OutsideAqueous
 	}
+	if r.Reaction == nil && r.Conditions.VolumeL == 0 && dryBlendFire(r) {
+		// Solids blended dry have no water phase, so no aqueous pair: the
+		// hazard is the blend itself, not the absence of a reaction.
+		return "Redox: an oxidizer–fuel dry blend, outside the aqueous model (no solution equation): it burns or explodes once lit by friction, impact, heat or a spark"
+	}
 	if x := outsideReaction(r); x != "" && (r.Reaction == nil || r.Verdict != engine.Spontaneous) {
 		// The gas of concern comes from a fast reaction the equilibrium
 		// does not hold: name it rather than a pair held back on paper.
@@ -671,6 +676,17 @@ func Reasons(r *engine.Result) []string {
 func held(hs []string, text string) bool {
 	for _, h := range hs {
 		if strings.HasPrefix(h, text+": ") {
+			return true
+		}
+	}
+	return false
+}
+
+// dryBlendFire reports whether the hazards judge the mix an oxidizer blended
+// dry with a fuel.
+func dryBlendFire(r *engine.Result) bool {
+	for _, h := range r.Hazards {
+		if h.Code == "oxidizer-fuel-blend" {
 			return true
 		}
 	}
