@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"sort"
+	"strings"
 )
 
 // inMix is one species in the mix with its amount.
@@ -387,6 +388,14 @@ func componentMoles(st *Stream, c *Component, vol float64, liquid bool, t *Table
 			}
 		}
 		molar = c.Value / 100 * d * 1000 / mm
+		if base, _, hyd := strings.Cut(ch.Formula, "."); hyd && c.Value > 0 {
+			// A solution of a salt the trade sells as a hydrate (ferrous
+			// sulfate, copperas): its % is read as % of the hydrate named,
+			// which is less of the salt itself; say how much.
+			if mb, err := t.MolarMass(base); err == nil {
+				m.assume("%s %g %% read as %% w/w of %s, that is %.3g %% %s; write %s %g %% for a strength counted as the anhydrous salt", c.Name, c.Value, ch.Formula, c.Value*mb/mm, base, base, c.Value)
+			}
+		}
 	case PctWV:
 		molar = c.Value * 10 / mm
 	case GPerL:
