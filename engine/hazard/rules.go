@@ -11,7 +11,7 @@ import (
 var presenceRules = []func(o *Outcome) (engine.Hazard, bool){
 	chloramines, nitrogenTrichloride, silverAmmonia, hydrofluoric,
 	alkaliMetalFire, dithioniteSelfHeating, ammoniaWithStrongAcid, cyanideAlkaline,
-	chromiumVI, carbonateFizz, cyanideComplexed,
+	chromiumVI, carbonateFizz, cyanideComplexed, flammableLiquid,
 }
 
 func mk(code string, sev engine.Severity, msg, action, source string) engine.Hazard {
