@@ -293,11 +293,35 @@ func (e *Engine) liftLock(mx *state.Mix, l *state.Lock) *HeldBack {
 	// free acid for more chlorine off bleach and iron(III) chloride), not
 	// that change, and often the very change the mix runs and counts.
 	for _, st := range steps {
+		if formsNever(e.Model.Locks, st.Net) {
+			continue
+		}
 		if touches(l, st.Net) {
 			return &HeldBack{Lock: l.ID, Reason: l.Reason, Source: l.Source, Reaction: reactionOut(st.Net, st.N)}
 		}
 	}
 	return nil
+}
+
+// formsNever reports whether a reaction forms a species of a never row
+// (sodium, potassium or magnesium metal from their ions in water): such a
+// change is not possible in water at all, whatever the row's condition (the
+// condition only saves the solver the constraint where no strong reducer is
+// brought), so it is not listed as held back either. Lifting a lock can
+// otherwise let the solver reach it: hydrazoic acid falling apart to
+// nitrogen by reducing sodium ions to the metal.
+func formsNever(locks []state.Lock, r thermo.Reaction) bool {
+	for i := range locks {
+		if !locks[i].Never() {
+			continue
+		}
+		for _, t := range r.Terms {
+			if t.Nu > 0 && locks[i].Rules[0].Group.Weight(t.Species) > 0 {
+				return true
+			}
+		}
+	}
+	return false
 }
 
 // touches reports whether a reaction moves a species of one of the lock's

@@ -260,7 +260,21 @@ func (t *Tables) MolarMass(formula string) (float64, error) {
 // at percentWW % w/w, interpolated linearly between the rows of
 // densities.txt. It returns false for a formula without a density table and
 // for a concentration outside the table's range.
+//
+// A hydrate without a table of its own (ZnSO4.7H2O, FeSO4.7H2O) is read on
+// its anhydrous salt's table at the same strength counted as the anhydrous
+// salt: 20 % of the heptahydrate is the solution of 20 × M(ZnSO4) /
+// M(ZnSO4·7H2O) % ZnSO4.
 func (t *Tables) Density(formula string, percentWW float64) (gPerML float64, ok bool) {
+	if len(t.Densities[formula]) == 0 {
+		if anh, _, hyd := strings.Cut(formula, "."); hyd && len(t.Densities[anh]) > 0 {
+			mh, err1 := t.MolarMass(formula)
+			ma, err2 := t.MolarMass(anh)
+			if err1 == nil && err2 == nil && mh > 0 {
+				return t.Density(anh, percentWW*ma/mh)
+			}
+		}
+	}
 	pts := t.Densities[formula]
 	if len(pts) == 0 || !(percentWW >= pts[0].PercentWW) || !(percentWW <= pts[len(pts)-1].PercentWW) {
 		return 0, false

@@ -36,8 +36,11 @@ func TestLookup(t *testing.T) {
 		{"anhydrous magnesium sulfate", "MgSO4"},
 		{"potassium peroxymonosulfate", "K5H3(SO4)2(SO5)2"}, // the triple salt the trade sells
 		{"sodium sulfide nonahydrate", "Na2S.9H2O"},
-		{"ferrous sulfate", "FeSO4"},
-		{"iron(II) sulfate", "FeSO4"},
+		{"ferrous sulfate", "FeSO4.7H2O"}, // copperas, the crystal the trade sells (common practice, no source)
+		{"iron(II) sulfate", "FeSO4.7H2O"},
+		{"anhydrous ferrous sulfate", "FeSO4"},
+		{"trisodium phosphate", "Na3PO4.12H2O"}, // TSP crystals (common practice, no source)
+		{"anhydrous trisodium phosphate", "Na3PO4"},
 		{"CuSO4·5H2O", "CuSO4.5H2O"},
 		{"CuSO4*5H2O", "CuSO4.5H2O"},
 		{"cuso4.5h2o", "CuSO4.5H2O"},

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"sort"
+	"strings"
 )
 
 // inMix is one species in the mix with its amount.
@@ -387,6 +388,19 @@ func componentMoles(st *Stream, c *Component, vol float64, liquid bool, t *Table
 			}
 		}
 		molar = c.Value / 100 * d * 1000 / mm
+		if base, ok := saltOfSolution(c, ch, t); ok {
+			// A solution of a salt the trade sells as a hydrate, named by
+			// the salt's plain name (ferrous sulfate 20 %, zinc sulfate
+			// 20 %): its strength is the salt dissolved, as solution
+			// strengths are given (common practice, no source), on the
+			// salt's own density table. The crystal (copperas, the
+			// heptahydrate, its formula) keeps its own mass.
+			if db, dok := t.Density(base, c.Value); dok {
+				mb, _ := t.MolarMass(base)
+				molar = c.Value / 100 * db * 1000 / mb
+				m.note("%s %g %% read as %g %% %s, the salt dissolved; name the hydrate (%s) for a strength counted as the crystal", c.Name, c.Value, c.Value, base, ch.Formula)
+			}
+		}
 	case PctWV:
 		molar = c.Value * 10 / mm
 	case GPerL:
@@ -627,4 +641,29 @@ func (m *mixture) list() []*inMix {
 		out = append(out, water)
 	}
 	return out
+}
+
+// saltOfSolution reports, for a chemical read as a hydrate by a plain name
+// of the salt (ferrous sulfate, zinc sulfate, TSP), the anhydrous formula
+// whose strength a solution's % gives. A name that says hydrate or crystal,
+// an old trade name of the crystal (copperas, vitriol, Epsom or Glauber's
+// salt) or the hydrate's formula keeps the hydrate.
+func saltOfSolution(c *Component, ch *Chemical, t *Tables) (string, bool) {
+	base, _, hyd := strings.Cut(ch.Formula, ".")
+	if !hyd {
+		return "", false
+	}
+	name := strings.ToLower(strings.TrimSpace(c.Name))
+	if hydrateDots(strings.TrimSpace(c.Name)) == ch.Formula {
+		return "", false
+	}
+	for _, w := range []string{"hydrate", "crystal", "copperas", "vitriol", "epsom", "glauber"} {
+		if strings.Contains(name, w) {
+			return "", false
+		}
+	}
+	if _, err := t.MolarMass(base); err != nil {
+		return "", false
+	}
+	return base, true
 }

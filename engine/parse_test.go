@@ -71,7 +71,7 @@ func TestParseRequest(t *testing.T) {
 			}
 		}},
 		{"multi-word names", "bleach + iron(II) sulfate 0.1 M + caustic soda 2 %", 3, func(t *testing.T, r *engine.Request) {
-			want := []string{"NaOCl", "FeSO4", "NaOH"}
+			want := []string{"NaOCl", "FeSO4.7H2O", "NaOH"} // iron(II) sulfate is read as copperas, the crystal sold (common practice, no source)
 			for i, w := range want {
 				if got := r.Streams[i].Components[0].Chemical.Formula; got != w {
 					t.Errorf("stream %d = %s, want %s", i+1, got, w)

@@ -240,14 +240,16 @@ func TestPermanganatePeroxideInAcid(t *testing.T) {
 
 // TestHydrateNamedForSulfideAndPhosphate: sodium sulfide (flakes of about
 // 60 % Na2S) and trisodium phosphate (the dodecahydrate crystals) are sold
-// as hydrates (common practice, no source); the answer says it read the
-// name as the anhydrous salt and how to write the hydrate, as it does for
-// soda ash and ferrous sulfate.
+// as hydrates (common practice, no source); for sodium sulfide the answer
+// says it read the name as the anhydrous salt and how to write the hydrate,
+// as it does for soda ash; trisodium phosphate, like ferrous sulfate, is
+// read as the crystal sold, and the answer says how to write the anhydrous
+// salt.
 func TestHydrateNamedForSulfideAndPhosphate(t *testing.T) {
 	a := mustAdvisor(t)
 	for req, want := range map[string]string{
 		"mix 500 L sulfuric acid 25 % + 30 kg sodium sulfide": "write Na2S.9H2O",
-		"mix 500 L water + 20 kg trisodium phosphate":         "write Na3PO4.12H2O",
+		"mix 500 L water + 20 kg trisodium phosphate":         "read as Na3PO4.12H2O, the hydrate sold; write Na3PO4",
 	} {
 		if short := advice.RenderShort(ask(t, a, req)); !strings.Contains(short, want) {
 			t.Errorf("%s: no %q in\n%s", req, want, short)

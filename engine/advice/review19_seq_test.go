@@ -33,8 +33,9 @@ func TestReview19Sequences(t *testing.T) {
 		// (water-treatment practice: common practice, no source).
 		{req: "mix 1000 L water + 10 kg sodium carbonate + 5 kg aluminium sulfate", level: engine.NoConcern, advice: "In sequence: start with H2O"},
 		// Permanganate and ferrous sulfate each dissolved into a tonne of
-		// water: a blend wetted dry warms, which only the dry blend meets.
-		{req: "mix 1000 L water + 2 kg potassium permanganate + 5 kg ferrous sulfate", level: engine.NoConcern, advice: "In sequence: start with H2O"},
+		// water: a blend wetted dry warms, which only the dry blend meets
+		// (the anhydrous salt; "ferrous sulfate" alone is now copperas).
+		{req: "mix 1000 L water + 2 kg potassium permanganate + 5 kg anhydrous ferrous sulfate", level: engine.NoConcern, advice: "In sequence: start with H2O"},
 		// Dechlorination: thiosulfate and a litre of bleach into a tonne of
 		// water (common practice, no source); the two must never meet neat.
 		{req: "mix 1000 L water pH 6.5 + 2 kg sodium thiosulfate + 1 L NaOCl 12.5 %", level: engine.NoConcern, advice: "Never let NaOCl 12.5 % and Na2S2O3 meet neat"},

@@ -13,23 +13,32 @@ const NoConcernTitle = "no redox or acid–base reaction of concern"
 // noteCodes are info hazards whose action the decision still carries: a
 // mix that is of no concern as made but turns dangerous by one wrong step
 // (chlorate with a reducing agent, acidified).
-var noteCodes = map[string]bool{"chlorate-reducer-acid": true}
+var noteCodes = map[string]bool{"chlorate-reducer-acid": true, "flammable-liquid": true}
 
 // Decide derives the operator's decision from the hazards of the final mix
 // and of the pour. The final mix counts as it is; of the orders of
 // addition the better one counts, since the operator can choose it. The
 // redox verdict plays no part.
+//
+// The actions of the info notes (noteCodes) come last, after the order of
+// addition, so that a note never pushes the pour's advice out of the short
+// answer.
 func Decide(final []engine.Hazard, add *engine.Addition) engine.Decision {
+	d := decide(final, add)
+	for _, h := range final {
+		if h.Severity == engine.Info && noteCodes[h.Code] {
+			d.Actions = appendNew(d.Actions, h.Action)
+		}
+	}
+	return d
+}
+
+func decide(final []engine.Hazard, add *engine.Addition) engine.Decision {
 	d := engine.Decision{Level: engine.NoConcern, Title: NoConcernTitle, Reasons: []string{}, Actions: []string{}}
 	finalW := worstOf(final)
 	for _, h := range final {
 		if h.Severity != engine.Info {
 			d.Reasons = append(d.Reasons, Reason(h))
-			d.Actions = appendNew(d.Actions, h.Action)
-		}
-	}
-	for _, h := range final {
-		if h.Severity == engine.Info && noteCodes[h.Code] {
 			d.Actions = appendNew(d.Actions, h.Action)
 		}
 	}

@@ -94,6 +94,13 @@ func organicLiquid(o *Outcome, any bool) (molar, electrons float64) {
 		if a.Molar < TraceMolar || a.Species.Charge < 0 {
 			continue
 		}
+		// The carriers of stabilised chlorine (cyanuric acid, dimethyl-
+		// hydantoin) are not fuel: chlorine rides on them, and they are left
+		// over when it is spent (White's Handbook of Chlorination,
+		// chlorinated isocyanurates, from memory).
+		if stabiliserCarrier[a.key()] {
+			continue
+		}
 		e, ok := organicLiquids[a.key()]
 		if !ok && !any {
 			continue

@@ -49,7 +49,11 @@ func relative(mix []engine.Hazard, alone []Alone, final bool) []engine.Hazard {
 				}
 			} else {
 				h.Severity = engine.Info
-				h.Action = "Handle it as that stream's own hazard (its safety data sheet)."
+				if h.Code != "flammable-liquid" {
+					// A flammable product keeps its own handling: the
+					// operator stores the mix, not the stream.
+					h.Action = "Handle it as that stream's own hazard (its safety data sheet)."
+				}
 			}
 		}
 		out = append(out, h)

@@ -11,7 +11,7 @@ import (
 var presenceRules = []func(o *Outcome) (engine.Hazard, bool){
 	chloramines, nitrogenTrichloride, silverAmmonia, hydrofluoric,
 	alkaliMetalFire, dithioniteSelfHeating, ammoniaWithStrongAcid, cyanideAlkaline,
-	chromiumVI, carbonateFizz, cyanideComplexed,
+	chromiumVI, carbonateFizz, cyanideComplexed, flammableLiquid,
 }
 
 func mk(code string, sev engine.Severity, msg, action, source string) engine.Hazard {
@@ -69,11 +69,44 @@ func chloramines(o *Outcome) (engine.Hazard, bool) {
 		formed += " The Cl2:NH3-N weight ratio is " + fmtNum(ratio, 2) + ":1, in the monochloramine region (below 5:1)."
 		act = "Dose each into the water at its own point, in the order of the site's chloramination practice (ammonia first, or chlorine first with the ammonia soon after), and keep the Cl2:N weight ratio below 5:1 (above it dichloramine and nitrogen trichloride form); never let the concentrates meet neat, and rinse lines between chlorinated and ammoniated products."
 	}
+	formed += beyondMonochloramine(o, ratio)
 	return withCounts(mk("chloramine-release", sev,
 		"Hypochlorite with ammonia or ammonium forms chloramines ("+fmtNum(n, 2)+" mol/L of each can meet): toxic, choking gases."+formed,
 		act,
-		"chloramine formation by pH and the 5:1 Cl2:N weight ratio of monochloramine: White's Handbook of Chlorination and Alternative Disinfectants, chloramination (from memory); 0.01 mol/L threshold for danger: common practice, no source; no exposure limit for chloramines: NIOSH Pocket Guide lists none (from memory)"), c), true
+		"chloramine formation by pH and the 5:1 Cl2:N weight ratio of monochloramine: White's Handbook of Chlorination and Alternative Disinfectants, chloramination (from memory); breakpoint at about 7.6:1 by weight (1.5 hypochlorite per ammonia), beyond it nitrogen gas, dichloramine and nitrogen trichloride: White's Handbook of Chlorination, the breakpoint curve (from memory); nitrogen trichloride explosive and lachrymatory: Bretherick's Handbook of Reactive Chemical Hazards, nitrogen trichloride (from memory); 0.01 mol/L threshold for danger: common practice, no source; no exposure limit for chloramines: NIOSH Pocket Guide lists none (from memory)"), c), true
 }
+
+// beyondMonochloramine names what hypochlorite beyond one per ammonia goes
+// on to form, which the state cannot hold (no species data for NHCl2 and
+// NCl3, data/species.txt): between 5:1 and the breakpoint (about 7.6:1 Cl2:N
+// by weight, 1.5 hypochlorite per ammonia) dichloramine beside the
+// monochloramine; past the breakpoint the excess takes the chloramines to
+// nitrogen gas, and with hypochlorite left over and the pH lower (below
+// about 7.5, as acid is added or the bleach's caustic is spent) to
+// dichloramine and nitrogen trichloride (White's Handbook of Chlorination,
+// the breakpoint curve, from memory; Bretherick's Handbook, nitrogen
+// trichloride, from memory). Empty below 5:1.
+func beyondMonochloramine(o *Outcome, ratio float64) string {
+	if ratio < MonochloramineRatio || math.IsInf(ratio, 1) {
+		return ""
+	}
+	molar := ratio * 14.007 / 70.90
+	at := " The Cl2:NH3-N weight ratio is " + fmtNum(ratio, 2) + ":1 (" + fmtNum(molar, 2) + " hypochlorite per ammonia)"
+	if ratio < BreakpointRatio {
+		return at + ", above the monochloramine region (5:1) and short of breakpoint (about 7.6:1): dichloramine (NHCl2) forms beside the monochloramine, more so as the pH falls."
+	}
+	slow := ""
+	if o.PH >= 10 {
+		slow = " At pH " + fmtNum(o.PH, 3) + " the mix first holds monochloramine and the excess hypochlorite; the breakdown runs as it stands and as the pH falls."
+	}
+	return at + ", past breakpoint (about 7.6:1, 1.5 hypochlorite per ammonia): the excess hypochlorite takes the chloramine on to nitrogen gas, and where hypochlorite is left over at a lower pH (below about 7.5: acid added, or the bleach's caustic spent) to dichloramine (NHCl2) and nitrogen trichloride (NCl3), an explosive oil and a tear-gas vapour." + slow
+}
+
+// BreakpointRatio is the Cl2:NH3-N weight ratio of breakpoint chlorination,
+// about 7.6:1 (1.5 hypochlorite per ammonia), beyond which free chlorine
+// remains and the chloramines are destroyed to nitrogen (White's Handbook of
+// Chlorination, the breakpoint curve, from memory).
+const BreakpointRatio = 7.6
 
 // MonochloramineRatio is the Cl2:NH3-N weight ratio below which chlorine
 // dosed into ammoniated water forms monochloramine (White's Handbook of

@@ -13,7 +13,7 @@ import (
 // peroxide and acetic acid, peracid breaking down in alkali). Each rule
 // names its source.
 var slowRules = []func(o *Outcome) (engine.Hazard, bool){
-	chromiumVILeft, chlorateKept, peracidForming, warmHypochlorite, warmPersulfate, caroAcid, hotPeroxideConcentrate,
+	chromiumVILeft, chlorateKept, peracidForming, warmHypochlorite, warmPersulfate, caroAcid, hotPeroxideConcentrate, peroxideOnCopper,
 }
 
 // standingCodes are hazards of the mix as it stands (it changes over hours:
@@ -255,3 +255,30 @@ func crossed(ph float64, tankPH func() float64) bool {
 	t := tankPH()
 	return (t <= SilicaGelLowPH && ph >= SilicaGelHighPH) || (t >= SilicaGelHighPH && ph <= SilicaGelLowPH)
 }
+
+// peroxideOnCopper: peroxide kept beside dissolved copper in acid (a
+// sulfuric–peroxide etch or microetch after the copper is taken up). In
+// acid copper(II) is a weak catalyst, so the peroxide is not lost at once
+// (the lock peroxide-self-decomposition holds it below pH 4), but it is
+// lost over hours, faster warm, as oxygen: the bath is vented and topped up,
+// never closed (common practice in printed-circuit and metal-finishing
+// etching, no source; Greenwood & Earnshaw, Chemistry of the Elements,
+// hydrogen peroxide, catalysed decomposition, from memory). The oxygen
+// figure is all the peroxide left, ½ O2 per H2O2.
+func peroxideOnCopper(o *Outcome) (engine.Hazard, bool) {
+	h2o2 := o.Molar("H2O2", "HO2-")
+	cu := o.Molar("Cu^2+", "CuSO4", "CuOH+", "Cu2(OH)2^2+", "CuCl+", "CuCl2")
+	if h2o2 < PeroxideOnCopperMolar || cu < TraceMolar || o.PH >= 4 || o.VolumeL <= 0 {
+		return engine.Hazard{}, false
+	}
+	o2 := h2o2 * o.VolumeL / 2
+	return mk("peroxide-slow-oxygen", engine.Warning,
+		"The mix keeps "+fmtNum(h2o2, 2)+" mol/L hydrogen peroxide beside "+fmtNum(cu, 2)+" mol/L dissolved copper: in acid the copper breaks the peroxide down slowly, over hours (faster when warm), giving off oxygen, up to "+fmtNum(o2, 3)+" mol O2 ("+fmtNum(o2*24.47, 3)+" L at 25 °C) if all of it goes.",
+		"Keep the tank vented, never closed; keep it below about 50 °C with cooling, add the copper in portions, and top the peroxide up as it is spent.",
+		"Greenwood & Earnshaw, Chemistry of the Elements, hydrogen peroxide (catalysed decomposition), from memory; sulfuric–peroxide etches run vented at 30–50 °C: common practice, no source; 0.1 mol/L threshold: common practice, no source"), true
+}
+
+// PeroxideOnCopperMolar is the least peroxide (mol/L) left beside dissolved
+// copper that peroxideOnCopper counts (about 0.3 %; common practice, no
+// source).
+const PeroxideOnCopperMolar = 0.1
