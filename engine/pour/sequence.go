@@ -134,13 +134,20 @@ func atInlet(r *engine.Request, eval Evaluate) ([]engine.PourHazard, int) {
 	added := withAmount(r.Streams[n-1])
 	var out []engine.PourHazard
 	seen := map[string]bool{}
-	// What the added stream has by itself it has wherever it lands.
-	own, _ := tankAlone(r, eval, func(f float64) []engine.Stream {
-		if f == 0 {
-			return nil
-		}
-		return []engine.Stream{added}
-	})
+	// What the added stream has by itself it has wherever it lands; what a
+	// stream of the tank gives off by itself (hot dilute ammonia's own
+	// vapour) is the tank's, not made where the stream lands.
+	own := tankHazards{}
+	for _, s := range r.Streams {
+		one := withAmount(s)
+		o, _ := tankAlone(r, eval, func(f float64) []engine.Stream {
+			if f == 0 {
+				return nil
+			}
+			return []engine.Stream{one}
+		})
+		own.merge(o)
+	}
 	pts := 0
 	for _, f := range inletShares {
 		q := *r
