@@ -168,6 +168,11 @@ type PourHazard struct {
 	// the gas given off at any point of the run, with the fraction of the
 	// addition there (GasAtFraction): the tank holds all of the stream
 	// added into and that share of the other, real amounts.
+	// Diluted: met only where the added stream lands in a tank whose
+	// reagents are already diluted in its water (see pour.DilutedTank),
+	// and judged a warning there: dosed at a separate point with mixing
+	// it meets no concentrate. Not part of the JSON answer.
+	Diluted       bool    `json:"-"`
 	GasFormula    string  `json:"gas_formula,omitempty"`
 	GasMol        float64 `json:"gas_mol,omitempty"`
 	GasAtFraction float64 `json:"gas_at_fraction,omitempty"`

@@ -182,7 +182,29 @@ func decideSequence(d engine.Decision, finalW int, final []engine.Hazard, add *e
 	}
 	level := max(finalW, bestW)
 	seqText := strings.Join(best.Streams, ", then ")
+	dil, rest := pour.DilutedRank(best)
 	switch {
+	case dil && bestW > finalW && rest <= finalW:
+		// The best sequence meets its hazards only where a stream lands
+		// in the tank's diluted water, which dosing at a separate point
+		// avoids: the level is that of a precaution, and the title names
+		// the sequence.
+		t := "order of addition matters: " + seqText + ", dosing into the diluted water at a separate point"
+		if finalW >= 2 && d.Title != NoConcernTitle {
+			t = d.Title + "; " + t
+		}
+		d.Title = t
+		for _, st := range best.Steps {
+			for _, ph := range st.Hazards {
+				if ph.Code != "warms" {
+					d.Reasons = append(d.Reasons, "while "+st.Added+" runs into "+st.Into+": "+codeTitle(ph.Code)+" where it lands, if dosed where the others went in")
+				}
+			}
+		}
+	case dil && bestW == finalW && allW > bestW:
+		// The final mix sets the level; the sequence still decides where
+		// the acid may go in.
+		d.Title += "; order of addition matters: " + seqText + ", dosing into the diluted water at a separate point"
 	case bestW > finalW:
 		for _, st := range best.Steps {
 			for _, ph := range st.Hazards {
@@ -207,7 +229,9 @@ func decideSequence(d engine.Decision, finalW int, final []engine.Hazard, add *e
 		if finalW < 2 {
 			d.Title = "hazard along the pour in other sequences"
 		}
-		d.Title += "; order of addition matters: " + seqText
+		if !strings.Contains(d.Title, "order of addition matters") {
+			d.Title += "; order of addition matters: " + seqText
+		}
 	}
 	if add.Advice != "" && allW >= 2 {
 		d.Actions = appendNew(d.Actions, add.Advice)

@@ -74,6 +74,10 @@ func sequences(req *engine.Request, eval Evaluate, orders map[[2]int]engine.Pour
 		if solidFirst[i] != solidFirst[j] {
 			return !solidFirst[i]
 		}
+		if out[i].WaterFirst != out[j].WaterFirst {
+			// The natural make-up, water first, among equally safe ones.
+			return out[i].WaterFirst
+		}
 		return seqSpan(out[i]) < seqSpan(out[j])
 	})
 	sorted := make([]engine.PourSequence, len(out))
@@ -148,6 +152,7 @@ func atInlet(r *engine.Request, eval Evaluate) ([]engine.PourHazard, int) {
 		})
 		own.merge(o)
 	}
+	diluted := dilutedTank(r.Streams[:n-1])
 	pts := 0
 	for _, f := range inletShares {
 		q := *r
@@ -166,11 +171,40 @@ func atInlet(r *engine.Request, eval Evaluate) ([]engine.PourHazard, int) {
 				continue
 			}
 			seen[h.Code] = true
-			out = append(out, engine.PourHazard{Code: h.Code, FromFraction: fractions[0], ToFraction: fractions[0], Worst: h.Severity,
-				Message: "where " + Name(&r.Streams[n-1]) + " lands, in excess over the tank's liquid: " + h.Message})
+			ph := engine.PourHazard{Code: h.Code, FromFraction: fractions[0], ToFraction: fractions[0], Worst: h.Severity,
+				Message: "where " + Name(&r.Streams[n-1]) + " lands, in excess over the tank's liquid: " + h.Message}
+			if diluted {
+				ph.Worst, ph.Diluted = engine.Warning, true
+				ph.Message = "where " + Name(&r.Streams[n-1]) + " lands, in excess over the tank's liquid, if dosed where the tank's reagents went in: " + h.Message +
+					" Dosed into the diluted tank at a separate point, with mixing, it meets no concentrate."
+			}
+			out = append(out, ph)
 		}
 	}
 	return out, pts
+}
+
+// DilutionFactor is how many times the volume of the tank's reagents its
+// water must be for the tank to count as diluted where a stream lands: acid
+// dosed into water that already holds a little bleach, at a point away from
+// where the bleach went in and with mixing, meets no concentrate (common
+// practice, no source: pool and cooling-water acid dosing).
+const DilutionFactor = 5.0
+
+// dilutedTank reports whether the streams of a tank hold water at least
+// DilutionFactor times the volume (a solid's mass in kg counted as litres)
+// of everything else in it: the reagents in it are diluted.
+func dilutedTank(tank []engine.Stream) bool {
+	w, other := 0.0, 0.0
+	for i := range tank {
+		s := withAmount(tank[i])
+		if water(&s) {
+			w += s.VolumeL
+			continue
+		}
+		other += s.VolumeL + s.MassKg
+	}
+	return w > 0 && other > 0 && w >= DilutionFactor*other
 }
 
 // dry reports whether a stream is a solid given by mass alone.
@@ -270,6 +304,9 @@ func sequenceAdvice(seqs []engine.PourSequence, orders []engine.PourOrder) strin
 		s += ", then add " + n
 	}
 	s += ", slowly"
+	if d := dilutedSteps(&best); d != "" {
+		return s + ": " + d
+	}
 	if rank(best.Worst) > 0 {
 		var cs []string
 		for _, st := range best.Steps {
@@ -347,4 +384,56 @@ func LiftRank(s *engine.PourSequence) int {
 func againstSequence(o *engine.PourOrder, s *engine.PourSequence) bool {
 	a, b := slices.Index(s.Streams, o.Added), slices.Index(s.Streams, o.Into)
 	return a >= 0 && b >= 0 && a < b
+}
+
+// DilutedRank tells whether the sequence s meets a hazard (one that
+// counts, Rank) only where a stream lands in the diluted tank
+// (PourHazard.Diluted), and the worst rank of its other hazards.
+func DilutedRank(s *engine.PourSequence) (diluted bool, rest int) {
+	for _, st := range s.Steps {
+		for _, h := range st.Hazards {
+			switch {
+			case h.Code == "warms":
+			case h.Diluted:
+				diluted = true
+			default:
+				rest = max(rest, rank(h.Worst))
+			}
+		}
+	}
+	return diluted, rest
+}
+
+// dilutedSteps is the precaution for the steps of s that meet a hazard
+// only where the added stream lands in the diluted tank: dose it into the
+// diluted water at a separate point, with mixing; then what the sequence
+// still meets besides ("" when s meets nothing there).
+func dilutedSteps(s *engine.PourSequence) string {
+	var parts, at, other []string
+	for i, st := range s.Steps {
+		dosed := false
+		for _, h := range st.Hazards {
+			switch {
+			case h.Code == "warms":
+			case h.Diluted:
+				if !slices.Contains(at, h.Code) {
+					at = append(at, h.Code)
+				}
+				if !dosed {
+					dosed = true
+					parts = append(parts, "dose "+st.Added+" into the diluted water at a separate point, away from where "+strings.Join(s.Streams[1:i+1], " and ")+" went in, with mixing")
+				}
+			case !slices.Contains(other, h.Code):
+				other = append(other, h.Code)
+			}
+		}
+	}
+	if len(parts) == 0 {
+		return ""
+	}
+	out := strings.Join(parts, "; ") + " (where it lands it would meet " + strings.Join(at, ", ") + ")"
+	if len(other) > 0 {
+		out += "; that sequence still meets " + strings.Join(other, ", ")
+	}
+	return out + "."
 }
