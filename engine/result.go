@@ -130,6 +130,9 @@ type PourSequence struct {
 	// alone (the natural way of a make-up: the rest dissolved or diluted
 	// into it). Not part of the JSON answer: the decision reads it.
 	WaterFirst bool `json:"-"`
+	// Written: the sequence is the order the request lists the streams
+	// in. Not part of the JSON answer: the decision reads it.
+	Written bool `json:"-"`
 }
 
 // PourOrder is one order of addition: Added is run into Into.

@@ -27,7 +27,8 @@ func sequences(req *engine.Request, eval Evaluate, orders map[[2]int]engine.Pour
 	var solidFirst []bool
 	for _, perm := range permutations(n) {
 		solidFirst = append(solidFirst, dry(&req.Streams[perm[0]]))
-		seq := engine.PourSequence{Streams: make([]string, n), Steps: []engine.PourOrder{}, WaterFirst: water(&req.Streams[perm[0]])}
+		seq := engine.PourSequence{Streams: make([]string, n), Steps: []engine.PourOrder{}, WaterFirst: water(&req.Streams[perm[0]]),
+			Written: slices.IsSorted(perm)}
 		for i, k := range perm {
 			seq.Streams[i] = Name(&req.Streams[k])
 		}
