@@ -130,9 +130,12 @@ type PourSequence struct {
 	// alone (the natural way of a make-up: the rest dissolved or diluted
 	// into it). Not part of the JSON answer: the decision reads it.
 	WaterFirst bool `json:"-"`
-	// Written: the sequence is the order the request lists the streams
-	// in. Not part of the JSON answer: the decision reads it.
-	Written bool `json:"-"`
+	// BulkFirst: no stream is water, and the sequence starts the tank
+	// with the largest stream by volume (the bulk liquid the others are
+	// dosed into: a soda ash wash that hypochlorite and thiosulfate go
+	// into). The natural way of such a make-up, as water first is of the
+	// others. Not part of the JSON answer: the decision reads it.
+	BulkFirst bool `json:"-"`
 }
 
 // PourOrder is one order of addition: Added is run into Into.

@@ -167,12 +167,12 @@ func decideSequence(d engine.Decision, finalW int, final []engine.Hazard, add *e
 	for i := range add.Sequences {
 		s := &add.Sequences[i]
 		allW = max(allW, pour.SequenceRank(s))
-		// The sequence written, when it is among the best, is as natural
-		// as water first: the operator already runs the streams in that
-		// order, and a danger only in an order nobody chose does not lift
-		// the decision (the advice still names the pairs never to meet
-		// neat; common practice, no source).
-		natural = natural || ((s.WaterFirst || s.Written) && pour.SequenceRank(s) == bestW)
+		// Without water, the bulk liquid first (the others dosed into
+		// it) is as natural as water first: a danger only in an order
+		// that starts elsewhere does not lift the decision (the advice
+		// still names the pairs never to meet neat; common practice, no
+		// source).
+		natural = natural || ((s.WaterFirst || s.BulkFirst) && pour.SequenceRank(s) == bestW)
 	}
 	// liftW is the worst rank of the other sequences that lifts the
 	// decision: all of it, unless a natural sequence (water first) is

@@ -25,10 +25,11 @@ func sequences(req *engine.Request, eval Evaluate, orders map[[2]int]engine.Pour
 	pts := 0
 	var out []engine.PourSequence
 	var solidFirst []bool
+	bulk := bulkStreams(req)
 	for _, perm := range permutations(n) {
 		solidFirst = append(solidFirst, dry(&req.Streams[perm[0]]))
 		seq := engine.PourSequence{Streams: make([]string, n), Steps: []engine.PourOrder{}, WaterFirst: water(&req.Streams[perm[0]]),
-			Written: slices.IsSorted(perm)}
+			BulkFirst: bulk[perm[0]]}
 		for i, k := range perm {
 			seq.Streams[i] = Name(&req.Streams[k])
 		}
@@ -208,6 +209,25 @@ func dilutedTank(tank []engine.Stream) bool {
 	return w > 0 && other > 0 && w >= DilutionFactor*other
 }
 
+// bulkStreams marks, when no stream of req is water, the liquid streams of
+// the largest volume: the bulk the others are dosed into.
+func bulkStreams(req *engine.Request) map[int]bool {
+	most := 0.0
+	for i := range req.Streams {
+		if water(&req.Streams[i]) {
+			return nil
+		}
+		most = max(most, req.Streams[i].VolumeL)
+	}
+	out := map[int]bool{}
+	for i, s := range req.Streams {
+		if most > 0 && s.VolumeL == most {
+			out[i] = true
+		}
+	}
+	return out
+}
+
 // dry reports whether a stream is a solid given by mass alone.
 func dry(s *engine.Stream) bool { return s.MassKg > 0 && s.VolumeL == 0 }
 
@@ -352,6 +372,8 @@ func SequenceRank(s *engine.PourSequence) int {
 //   - Another sequence that also starts with the water counts by its
 //     dangers: running the reagents into the water in the wrong order is a
 //     mistake an operator makes (bleach into water already acidified).
+//     Without a water stream the bulk liquid (PourSequence.BulkFirst)
+//     plays the water's part.
 //   - A sequence that starts with something else counts only by a danger
 //     met among dry solids (PourOrder.DryStep): solids are charged from
 //     bags, often into the empty tank or blended dry before the water goes
@@ -364,7 +386,7 @@ func SequenceRank(s *engine.PourSequence) int {
 //     neat") and does not lift the decision (common practice, no source).
 func LiftRank(s *engine.PourSequence) int {
 	danger := engine.Danger.Rank()
-	if s.WaterFirst {
+	if s.WaterFirst || s.BulkFirst {
 		if r := SequenceRank(s); r >= danger {
 			return r
 		}
