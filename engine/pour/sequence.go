@@ -3,6 +3,7 @@ package pour
 import (
 	"slices"
 	"sort"
+	"strconv"
 	"strings"
 
 	"mixward/engine"
@@ -22,6 +23,7 @@ func sequences(req *engine.Request, eval Evaluate, orders map[[2]int]engine.Pour
 		return nil, 0
 	}
 	steps := map[string]engine.PourOrder{}
+	memo := map[string]tankHazards{} // each stream alone, for atInlet
 	pts := 0
 	var out []engine.PourSequence
 	var solidFirst []bool
@@ -42,7 +44,7 @@ func sequences(req *engine.Request, eval Evaluate, orders map[[2]int]engine.Pour
 			}
 			if !ok {
 				var p int
-				st, p = into(req, tank, added, eval, local)
+				st, p = into(req, tank, added, eval, local, memo)
 				pts += p
 			}
 			st.DryStep = allDry(req, tank) && (dry(&req.Streams[added]) || water(&req.Streams[added]))
@@ -91,7 +93,7 @@ func sequences(req *engine.Request, eval Evaluate, orders map[[2]int]engine.Pour
 }
 
 // into runs stream added into a tank holding the streams of tank.
-func into(req *engine.Request, tank []int, added int, eval Evaluate, local Local) (engine.PourOrder, int) {
+func into(req *engine.Request, tank []int, added int, eval Evaluate, local Local, memo map[string]tankHazards) (engine.PourOrder, int) {
 	r := *req
 	r.Streams = make([]engine.Stream, 0, len(tank)+1)
 	names := make([]string, 0, len(tank))
@@ -109,7 +111,7 @@ func into(req *engine.Request, tank []int, added int, eval Evaluate, local Local
 	})
 	po.Into = strings.Join(names, " + ")
 	po.Hazards = withLocal(po.Hazards, local, req.Streams[added], r.Streams[:len(tank)])
-	inlet, p := atInlet(&r, eval)
+	inlet, p := atInlet(&r, eval, memo)
 	po.Hazards = append(inlet, po.Hazards...)
 	return po, pts + p
 }
@@ -132,7 +134,7 @@ var inletShares = [...]float64{0.01, 0.05}
 // concentrate); the whole of a stream set free in a hundredth of the tank
 // at once (20 kg of caustic flakes in 2 L) is no state the tank passes
 // through.
-func atInlet(r *engine.Request, eval Evaluate) ([]engine.PourHazard, int) {
+func atInlet(r *engine.Request, eval Evaluate, memo map[string]tankHazards) ([]engine.PourHazard, int) {
 	n := len(r.Streams)
 	if n < 3 {
 		return nil, 0
@@ -142,16 +144,22 @@ func atInlet(r *engine.Request, eval Evaluate) ([]engine.PourHazard, int) {
 	seen := map[string]bool{}
 	// What the added stream has by itself it has wherever it lands; what a
 	// stream of the tank gives off by itself (hot dilute ammonia's own
-	// vapour) is the tank's, not made where the stream lands.
+	// vapour) is the tank's, not made where the stream lands. Each stream
+	// alone is judged once for all the steps (memo).
 	own := tankHazards{}
 	for _, s := range r.Streams {
 		one := withAmount(s)
-		o, _ := tankAlone(r, eval, func(f float64) []engine.Stream {
-			if f == 0 {
-				return nil
-			}
-			return []engine.Stream{one}
-		})
+		key := Name(&one) + "\x00" + strconv.FormatFloat(one.VolumeL, 'g', -1, 64) + "\x00" + strconv.FormatFloat(one.MassKg, 'g', -1, 64)
+		o, ok := memo[key]
+		if !ok {
+			o, _ = tankAlone(r, eval, func(f float64) []engine.Stream {
+				if f == 0 {
+					return nil
+				}
+				return []engine.Stream{one}
+			})
+			memo[key] = o
+		}
 		own.merge(o)
 	}
 	diluted := dilutedTank(r.Streams[:n-1])
