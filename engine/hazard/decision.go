@@ -238,6 +238,12 @@ func decideSequence(d engine.Decision, finalW int, final []engine.Hazard, add *e
 			d.Title += "; order of addition matters: " + seqText
 		}
 	}
+	if allW > bestW && level >= 2 && level < 3 && !strings.Contains(d.Title, "order of addition matters") && !strings.Contains(d.Title, "in every sequence") {
+		// Other sequences meet worse than the best; the level comes from
+		// elsewhere (the final mix), but the title still names the
+		// sequence the advice gives.
+		d.Title += "; order of addition matters: " + seqText
+	}
 	if add.Advice != "" && allW >= 2 {
 		d.Actions = appendNew(d.Actions, add.Advice)
 	}

@@ -139,7 +139,9 @@ func tinyPuff(o *Outcome, g *GasData, hs Headspace, p *pool) bool {
 	rt := litreBarPerMolK() * o.TemperatureK()
 	amb := o.PressureKPa / 100
 	puff := math.Max(hs.PPM*1e-6*amb*o.HeadspaceL/rt, p.mol)
-	if formedTrace && !amountScaled(o, g) {
+	if formedTrace && (!amountScaled(o, g) || g.Formula == "Cl2") {
+		// (Chlorine over alkaline hypochlorite is judged by amount too,
+		// amountScaled, and keeps this reading of the first millilitres.)
 		// What the reaction gives off is all there is of it: a tank's
 		// headspace over the first millilitres of a pour holds no more
 		// than they can give, whatever concentration the equilibrium
