@@ -130,6 +130,12 @@ type PourSequence struct {
 	// alone (the natural way of a make-up: the rest dissolved or diluted
 	// into it). Not part of the JSON answer: the decision reads it.
 	WaterFirst bool `json:"-"`
+	// BulkFirst: no stream is water, and the sequence starts the tank
+	// with the largest stream by volume (the bulk liquid the others are
+	// dosed into: a soda ash wash that hypochlorite and thiosulfate go
+	// into). The natural way of such a make-up, as water first is of the
+	// others. Not part of the JSON answer: the decision reads it.
+	BulkFirst bool `json:"-"`
 }
 
 // PourOrder is one order of addition: Added is run into Into.
@@ -168,6 +174,11 @@ type PourHazard struct {
 	// the gas given off at any point of the run, with the fraction of the
 	// addition there (GasAtFraction): the tank holds all of the stream
 	// added into and that share of the other, real amounts.
+	// Diluted: met only where the added stream lands in a tank whose
+	// reagents are already diluted in its water (see pour.DilutedTank),
+	// and judged a warning there: dosed at a separate point with mixing
+	// it meets no concentrate. Not part of the JSON answer.
+	Diluted       bool    `json:"-"`
 	GasFormula    string  `json:"gas_formula,omitempty"`
 	GasMol        float64 `json:"gas_mol,omitempty"`
 	GasAtFraction float64 `json:"gas_at_fraction,omitempty"`

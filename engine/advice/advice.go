@@ -206,6 +206,19 @@ func (a *Advisor) alone(req *engine.Request, headspaceL float64) map[string]haza
 		if in, err := a.evaluateIn(&r, headspaceL); err == nil {
 			al.InTank = in
 		}
+		if k, ok := statedHotter(req, &r); ok {
+			// The stream at the temperature stated for the mix: what it
+			// gives off by itself there (hazard.Alone.Hot).
+			hr := r
+			hr.TemperatureK, hr.TempStated = k, true
+			if hs, err := a.evaluate(&hr); err == nil {
+				al.Hot = hs
+			}
+			if in, err := a.evaluateIn(&hr, headspaceL); err == nil {
+				al.Hot = append(al.Hot, in...)
+			}
+			al.HotC = k - 273.15
+		}
 		out[streamKey(s)] = al
 	}
 	return out
@@ -225,6 +238,15 @@ func hottestC(req *engine.Request) float64 {
 		}
 	}
 	return k - 273.15
+}
+
+// statedHotter gives the temperature stated for the whole mix of req when
+// it is hotter than the stream alone (r, as stored) by more than a degree.
+func statedHotter(req, r *engine.Request) (float64, bool) {
+	if !req.TempStated || req.TempFromStreams || !(req.TemperatureK > r.TemperatureK+1) {
+		return 0, false
+	}
+	return req.TemperatureK, true
 }
 
 // streamAlone is the request of one stream of req by itself, as stored.

@@ -79,10 +79,13 @@ func TestReview19StrongOxidizerWithOrganic(t *testing.T) {
 		{
 			// A peracetic acid sanitiser dose quenched in plenty of water
 			// stays cold and dilute: no hot concentrate (common practice,
-			// no source). The level is that of the build before this
-			// change (the pour sequences name the neat streams).
+			// no source). Each dosed into the water at its own point, the
+			// two never meet neat, and what the second meets where it
+			// lands in the diluted water is a dosing precaution, not a
+			// danger of another water-first sequence: no concern, the
+			// advice naming the neat streams never to meet (review 22).
 			name: "dilute peracetic acid quench", req: "mix 1000 L water + 2 L peracetic acid 15 % + 1 L sodium bisulfite 38 %",
-			level: engine.WithPrecautions, not: "hot-peroxide-concentrate",
+			level: engine.NoConcern, not: "hot-peroxide-concentrate",
 		},
 		{
 			// Dilute permanganate with a little ethanol: heat, short of

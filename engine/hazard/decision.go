@@ -176,7 +176,12 @@ func decideSequence(d engine.Decision, finalW int, final []engine.Hazard, add *e
 	for i := range add.Sequences {
 		s := &add.Sequences[i]
 		allW = max(allW, pour.SequenceRank(s))
-		natural = natural || (s.WaterFirst && pour.SequenceRank(s) == bestW)
+		// Without water, the bulk liquid first (the others dosed into
+		// it) is as natural as water first: a danger only in an order
+		// that starts elsewhere does not lift the decision (the advice
+		// still names the pairs never to meet neat; common practice, no
+		// source).
+		natural = natural || ((s.WaterFirst || s.BulkFirst) && pour.SequenceRank(s) == bestW)
 	}
 	// liftW is the worst rank of the other sequences that lifts the
 	// decision: all of it, unless a natural sequence (water first) is
@@ -191,7 +196,29 @@ func decideSequence(d engine.Decision, finalW int, final []engine.Hazard, add *e
 	}
 	level := max(finalW, bestW)
 	seqText := strings.Join(best.Streams, ", then ")
+	dil, rest := pour.DilutedRank(best)
 	switch {
+	case dil && bestW > finalW && rest <= finalW:
+		// The best sequence meets its hazards only where a stream lands
+		// in the tank's diluted water, which dosing at a separate point
+		// avoids: the level is that of a precaution, and the title names
+		// the sequence.
+		t := "order of addition matters: " + seqText + ", dosing into the diluted water at a separate point"
+		if finalW >= 2 && d.Title != NoConcernTitle {
+			t = d.Title + "; " + t
+		}
+		d.Title = t
+		for _, st := range best.Steps {
+			for _, ph := range st.Hazards {
+				if ph.Code != "warms" {
+					d.Reasons = append(d.Reasons, "while "+st.Added+" runs into "+st.Into+": "+codeTitle(ph.Code)+" where it lands, if dosed where the others went in")
+				}
+			}
+		}
+	case dil && bestW == finalW && allW > bestW:
+		// The final mix sets the level; the sequence still decides where
+		// the acid may go in.
+		d.Title += "; order of addition matters: " + seqText + ", dosing into the diluted water at a separate point"
 	case bestW > finalW:
 		for _, st := range best.Steps {
 			for _, ph := range st.Hazards {
@@ -216,6 +243,14 @@ func decideSequence(d engine.Decision, finalW int, final []engine.Hazard, add *e
 		if finalW < 2 {
 			d.Title = "hazard along the pour in other sequences"
 		}
+		if !strings.Contains(d.Title, "order of addition matters") {
+			d.Title += "; order of addition matters: " + seqText
+		}
+	}
+	if allW > bestW && level >= 2 && level < 3 && !strings.Contains(d.Title, "order of addition matters") && !strings.Contains(d.Title, "in every sequence") {
+		// Other sequences meet worse than the best; the level comes from
+		// elsewhere (the final mix), but the title still names the
+		// sequence the advice gives.
 		d.Title += "; order of addition matters: " + seqText
 	}
 	if add.Advice != "" && allW >= 2 {

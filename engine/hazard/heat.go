@@ -53,7 +53,7 @@ func judgeHeat(o *Outcome) []engine.Hazard {
 			// to refuse; the pour judges the order (water into the
 			// concentrate boils where it lands) and a mix whose mean
 			// boils stays a danger (common practice, no source).
-			sev, act = engine.Warning, "Never mix in one go: run the concentrated liquid slowly into the water, never the reverse, with cooling and stirring, so that the tank stays well below "+fmtNum(NearBoilC, 2)+" °C; wear a face shield."
+			sev, act = engine.Warning, dilutionAction(o, h)
 		}
 		z = mk("near-boiling", sev,
 			"The mix releases "+fmtNum(h.ReleasedkJ, 3)+" kJ and reaches about "+fmtNum(h.ReachedC, 3)+" °C on average: where the streams meet it boils and spits.",
@@ -157,5 +157,64 @@ func heatAction(o *Outcome, h Heat) string {
 	if h.Reactions && h.MixingkJ < 0.5*h.ReleasedkJ {
 		return "Do not mix in one go: add the reacting stream in small portions with cooling and stirring, into an open, vented tank, letting each portion finish before the next; wear a face shield."
 	}
+	if piranha(o) {
+		return piranhaAction
+	}
+	if solidIntoWater(o) {
+		return "Do not mix in one go: use more water, add the solid a little at a time into the water with cooling and stirring, never the water onto the solid; wear a face shield."
+	}
 	return "Do not mix in one go: use more water, run the concentrated liquid slowly into the water with cooling and stirring; wear a face shield."
+}
+
+// piranhaAction is what to do about the heat of a peroxide–sulfuric acid
+// bath, which is meant to hold no more water than its two liquids bring:
+// "use more water" would spoil it. The peroxide goes slowly into the acid,
+// a small batch at a time, in an open glass or PTFE vessel, left to cool
+// before use or disposal, with organic matter kept away (common practice,
+// no source).
+const piranhaAction = "Do not mix in one go: add the peroxide slowly to the acid, never the reverse, a small batch at a time, in an open glass or PTFE vessel; let it cool before use or disposal; keep solvents and other organic matter away; wear a face shield."
+
+// piranha: concentrated peroxide with strong sulfuric acid, in the
+// strengths of Caro's acid (caroAcid), the mix a cleaning bath is made of.
+func piranha(o *Outcome) bool {
+	return o.MolarBefore("H2O2", "HO2-") >= CaroPeroxideMolar && o.MolarBefore("H2SO4", "HSO4-", "SO4^2-") >= CaroSulfuricMolar && o.PH < 0.5
+}
+
+// solidIntoWater: the concentrate whose heat the mix releases is a solid
+// poured dry (quicklime, caustic flakes), so the advice speaks of a
+// solid added into the water, not of a liquid run into it.
+func solidIntoWater(o *Outcome) bool {
+	n := 0
+	for _, c := range o.Chemicals {
+		if c == "H2O" {
+			continue
+		}
+		if !o.SolidStream(c) {
+			return false
+		}
+		n++
+	}
+	return n > 0
+}
+
+// dilutionAction is what to do about a mix that nearly boils from the
+// heat of diluting or dissolving: the concentrate run (or, a solid, added a
+// little at a time) into the water, with cooling. When the mix made as
+// written already reaches NearBoilC on average, slow dosing alone cannot
+// keep the tank below it: more water or cooling is needed, and the advice
+// says so rather than promising a temperature the prediction exceeds
+// (common practice, no source).
+func dilutionAction(o *Outcome, h Heat) string {
+	what := "run the concentrated liquid slowly into the water, never the reverse"
+	if solidIntoWater(o) {
+		what = "add the solid a little at a time into the water, never the water onto the solid"
+	}
+	if piranha(o) {
+		return piranhaAction
+	}
+	if h.ReachedC >= NearBoilC {
+		return "Never mix in one go: " + what + ", with stirring; made as written the whole tank reaches about " + fmtNum(h.ReachedC, 3) +
+			" °C, so use more water or cooling to keep it below " + fmtNum(NearBoilC, 2) + " °C; wear a face shield."
+	}
+	return "Never mix in one go: " + what + ", with cooling and stirring, so that the tank stays well below " + fmtNum(NearBoilC, 2) + " °C; wear a face shield."
 }

@@ -67,6 +67,12 @@ const (
 	SevereRatio   = 100.0
 )
 
+// AlkalineChlorinePH is the pH of the mix from which chlorine is judged by
+// amount as well as concentration (amountScaled): half a unit above
+// neutral, where hypochlorous acid is mostly hypochlorite (pKa 7.5, CRC
+// Handbook, from memory). Common practice, no source.
+const AlkalineChlorinePH = 7.5
+
 // amountScaled reports whether gas g of the mix is judged by amount as
 // well as concentration: sulfur dioxide always, and ammonia that a base
 // frees from an ammonium salt when no stream brings ammonia itself (a
@@ -79,6 +85,16 @@ func amountScaled(o *Outcome, g *GasData) bool {
 	switch g.Formula {
 	case "SO2":
 		return true
+	case "Cl2":
+		// Chlorine over a mix that stays alkaline (pH 7.5 or more, no
+		// strong acid named) is the equilibrium trace over hypochlorite
+		// (Cl2 + H2O ⇌ HOCl + H+ + Cl-, K about 4e-4: CRC Handbook, from
+		// memory): millilitres at most, which stand above the limit in a
+		// closed headspace over strong bleach but do not trouble a room.
+		// Below that pH, or with an acid stream, acid drives it out in
+		// amount and the concentration decides (common practice, no
+		// source).
+		return o.PH >= AlkalineChlorinePH && !o.StrongAcid && len(o.SolidAcids) == 0
 	case "NH3":
 		return !o.Named("NH3")
 	}
@@ -123,7 +139,9 @@ func tinyPuff(o *Outcome, g *GasData, hs Headspace, p *pool) bool {
 	rt := litreBarPerMolK() * o.TemperatureK()
 	amb := o.PressureKPa / 100
 	puff := math.Max(hs.PPM*1e-6*amb*o.HeadspaceL/rt, p.mol)
-	if formedTrace && !amountScaled(o, g) {
+	if formedTrace && (!amountScaled(o, g) || g.Formula == "Cl2") {
+		// (Chlorine over alkaline hypochlorite is judged by amount too,
+		// amountScaled, and keeps this reading of the first millilitres.)
 		// What the reaction gives off is all there is of it: a tank's
 		// headspace over the first millilitres of a pour holds no more
 		// than they can give, whatever concentration the equilibrium

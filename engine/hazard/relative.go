@@ -55,6 +55,8 @@ func relative(mix []engine.Hazard, alone []Alone, final bool) []engine.Hazard {
 					h.Action = "Handle it as that stream's own hazard (its safety data sheet)."
 				}
 			}
+		} else if b, c, ok := hotOwnGas(h, alone); final && ok {
+			h = hotOwn(h, b, c)
 		}
 		out = append(out, h)
 	}
@@ -108,6 +110,13 @@ var alwaysOwnToMix = map[string]bool{"boils": true, "near-boiling": true, "solid
 type Alone struct {
 	Name    string
 	Hazards []engine.Hazard
+	// Hot are the stream's hazards alone at the temperature stated for
+	// the mix, when that is hotter than the stream as stored (HotC, °C),
+	// in its own headspace and in the tank's; nil otherwise. A gas the
+	// stream gives off by itself at that temperature (hot dilute ammonia
+	// in boiler feedwater) is its own vapour, not a reaction of the mix.
+	Hot  []engine.Hazard
+	HotC float64
 	// InTank are the stream's hazards alone in the gas space of the tank
 	// the mix is made in (the headspace its points are judged with): a
 	// gas is compared at the same headspace, so that a drum's own sulfur
@@ -150,4 +159,42 @@ func ownHazard(h engine.Hazard, alone []Alone) (string, bool) {
 		}
 	}
 	return "", false
+}
+
+// hotOwnGas finds a stream that alone, at the temperature stated for the
+// mix, gives off the gas of the danger h at least as strongly (headspace
+// within 5 %): the mix gives off the stream's own vapour at that
+// temperature and no reaction forms more of it. It returns the stream's
+// name and the temperature.
+func hotOwnGas(h engine.Hazard, alone []Alone) (string, float64, bool) {
+	if h.Severity != engine.Danger || h.Gas == nil || alwaysOwnToMix[h.Code] || h.Gas.LimitName == "LFL" {
+		return "", 0, false
+	}
+	ppm := h.Gas.HeadspacePPM
+	if h.Gas.ColdPPM > 0 {
+		ppm = h.Gas.ColdPPM
+	}
+	for _, a := range alone {
+		for _, b := range a.Hot {
+			if b.Code == h.Code && b.Gas != nil && ppm <= b.Gas.HeadspacePPM*1.05 {
+				return a.Name, a.HotC, true
+			}
+		}
+	}
+	return "", 0, false
+}
+
+// hotOwn turns the danger h, a gas stream b gives off by itself at c °C,
+// into a warning with the precautions for a hot stream's own vapour:
+// closed dosing and a vent to a safe place (common practice, no source:
+// hot dosing of ammonia or hydrazine into boiler feedwater is done closed,
+// with the deaerator or tank vented outside).
+func hotOwn(h engine.Hazard, b string, c float64) engine.Hazard {
+	gas := strings.TrimPrefix(h.Title, "releases ")
+	h.Severity = engine.Warning
+	h.Title = gas + " off the hot mix, as off " + b + " alone at " + fmtNum(c, 3) + " °C"
+	h.Action = "Dose closed (through a closed line or below the surface) and vent the tank to a safe place: at " + fmtNum(c, 3) + " °C " + b +
+		" gives off " + gas + " by itself, whatever it is mixed with."
+	h.Message = "At " + fmtNum(c, 3) + " °C " + b + " gives off " + gas + " by itself, as much as the mix does: its own vapour, not a reaction. " + h.Message
+	return h
 }

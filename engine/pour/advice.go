@@ -70,6 +70,15 @@ func advice(add *engine.Addition) string {
 				continue // with three or more streams only the pairs that matter are named
 			}
 		}
+		if len(add.Orders) > 2 && Rank(x) == 0 && Rank(y) == 0 {
+			// A pair that only warms either way (no hazard of the pour,
+			// Rank) is not worth an order of its own among three or more
+			// streams: advice to run it one way "over less of the pour"
+			// beside a pair that no order makes safe reads as a
+			// contradiction.
+			quiet++
+			continue
+		}
 		if safeSeq && Rank(x) >= 3 && Rank(y) >= 3 && !heatOnly(*x) && !heatOnly(*y) {
 			// With three or more streams such a pair meets only in the
 			// sequence named before this advice, never neat.
@@ -121,10 +130,10 @@ func pairAdvice(x, y *engine.PourOrder) string {
 		// Both orders meet the same level: running a tank into a drum to
 		// shorten the stretch is no practical advice; dose the drum.
 		y.Advised = true
-		return doseSmall(*y)
+		return doseSmall(*y, *x)
 	case bulkInto(*y):
 		x.Advised = true
-		return doseSmall(*x)
+		return doseSmall(*x, *y)
 	case span(*x) < span(*y):
 		x.Advised = true
 		return lessens(*x, *y)
@@ -132,7 +141,7 @@ func pairAdvice(x, y *engine.PourOrder) string {
 		y.Advised = true
 		return lessens(*y, *x)
 	}
-	return "Both orders of " + x.Added + " and " + x.Into + " meet the same hazards (" + codes(*x) + "); no order of addition avoids them: follow the actions above."
+	return "Both orders of " + x.Added + " and " + x.Into + " meet the same hazards (" + codes(*x) + "); no order of adding these two avoids them: follow the actions above."
 }
 
 // better advises good, of the lower Rank, over bad; or, when good runs a
@@ -235,8 +244,19 @@ func acidGasOnly(o engine.PourOrder) bool {
 // larger into the other.
 func bulkInto(o engine.PourOrder) bool { return o.IntoL > 0 && o.AddedL >= 10*o.IntoL }
 
-func doseSmall(o engine.PourOrder) string {
-	return "Dose " + o.Added + " slowly into " + o.Into + ", under control: either order meets " + codes(o) + ", and running the larger stream into the smaller is not practical."
+// doseSmall advises dosing o.Added, the smaller stream, into the larger;
+// other is the other order of the pair. When the order dosed meets
+// nothing itself (only the other way warms), the advice says what the other
+// way meets rather than naming a blank hazard.
+func doseSmall(o, other engine.PourOrder) string {
+	if c := codes(o); c != "" {
+		return "Dose " + o.Added + " slowly into " + o.Into + ", under control: either order meets " + c + ", and running the larger stream into the smaller is not practical."
+	}
+	s := "Dose " + o.Added + " slowly into " + o.Into
+	if c := codes(other); c != "" {
+		return s + ": the other way meets " + c + "."
+	}
+	return s + "."
 }
 
 func lessens(good, bad engine.PourOrder) string {

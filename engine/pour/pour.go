@@ -185,6 +185,15 @@ func tankAlone(req *engine.Request, eval Evaluate, streams func(f float64) []eng
 	return own, pts
 }
 
+// merge keeps in own the louder of its hazards and those of o, by code.
+func (own tankHazards) merge(o tankHazards) {
+	for c, h := range o {
+		if p, ok := own[c]; !ok || rank(h.Severity) > rank(p.Severity) || (h.Severity == p.Severity && ratio(h) > ratio(p)) {
+			own[c] = h
+		}
+	}
+}
+
 // allLiquid reports whether every stream is given by volume.
 func allLiquid(ss []engine.Stream) bool {
 	for _, s := range ss {

@@ -3,6 +3,7 @@ package pour
 import (
 	"slices"
 	"sort"
+	"strconv"
 	"strings"
 
 	"mixward/engine"
@@ -22,12 +23,15 @@ func sequences(req *engine.Request, eval Evaluate, orders map[[2]int]engine.Pour
 		return nil, 0
 	}
 	steps := map[string]engine.PourOrder{}
+	memo := map[string]tankHazards{} // each stream alone, for atInlet
 	pts := 0
 	var out []engine.PourSequence
 	var solidFirst []bool
+	bulk := bulkStreams(req)
 	for _, perm := range permutations(n) {
 		solidFirst = append(solidFirst, dry(&req.Streams[perm[0]]))
-		seq := engine.PourSequence{Streams: make([]string, n), Steps: []engine.PourOrder{}, WaterFirst: water(&req.Streams[perm[0]])}
+		seq := engine.PourSequence{Streams: make([]string, n), Steps: []engine.PourOrder{}, WaterFirst: water(&req.Streams[perm[0]]),
+			BulkFirst: bulk[perm[0]]}
 		for i, k := range perm {
 			seq.Streams[i] = Name(&req.Streams[k])
 		}
@@ -40,7 +44,7 @@ func sequences(req *engine.Request, eval Evaluate, orders map[[2]int]engine.Pour
 			}
 			if !ok {
 				var p int
-				st, p = into(req, tank, added, eval, local)
+				st, p = into(req, tank, added, eval, local, memo)
 				pts += p
 			}
 			st.DryStep = allDry(req, tank) && (dry(&req.Streams[added]) || water(&req.Streams[added]))
@@ -74,6 +78,10 @@ func sequences(req *engine.Request, eval Evaluate, orders map[[2]int]engine.Pour
 		if solidFirst[i] != solidFirst[j] {
 			return !solidFirst[i]
 		}
+		if out[i].WaterFirst != out[j].WaterFirst {
+			// The natural make-up, water first, among equally safe ones.
+			return out[i].WaterFirst
+		}
 		return seqSpan(out[i]) < seqSpan(out[j])
 	})
 	sorted := make([]engine.PourSequence, len(out))
@@ -85,7 +93,7 @@ func sequences(req *engine.Request, eval Evaluate, orders map[[2]int]engine.Pour
 }
 
 // into runs stream added into a tank holding the streams of tank.
-func into(req *engine.Request, tank []int, added int, eval Evaluate, local Local) (engine.PourOrder, int) {
+func into(req *engine.Request, tank []int, added int, eval Evaluate, local Local, memo map[string]tankHazards) (engine.PourOrder, int) {
 	r := *req
 	r.Streams = make([]engine.Stream, 0, len(tank)+1)
 	names := make([]string, 0, len(tank))
@@ -103,7 +111,7 @@ func into(req *engine.Request, tank []int, added int, eval Evaluate, local Local
 	})
 	po.Into = strings.Join(names, " + ")
 	po.Hazards = withLocal(po.Hazards, local, req.Streams[added], r.Streams[:len(tank)])
-	inlet, p := atInlet(&r, eval)
+	inlet, p := atInlet(&r, eval, memo)
 	po.Hazards = append(inlet, po.Hazards...)
 	return po, pts + p
 }
@@ -126,7 +134,7 @@ var inletShares = [...]float64{0.01, 0.05}
 // concentrate); the whole of a stream set free in a hundredth of the tank
 // at once (20 kg of caustic flakes in 2 L) is no state the tank passes
 // through.
-func atInlet(r *engine.Request, eval Evaluate) ([]engine.PourHazard, int) {
+func atInlet(r *engine.Request, eval Evaluate, memo map[string]tankHazards) ([]engine.PourHazard, int) {
 	n := len(r.Streams)
 	if n < 3 {
 		return nil, 0
@@ -134,13 +142,27 @@ func atInlet(r *engine.Request, eval Evaluate) ([]engine.PourHazard, int) {
 	added := withAmount(r.Streams[n-1])
 	var out []engine.PourHazard
 	seen := map[string]bool{}
-	// What the added stream has by itself it has wherever it lands.
-	own, _ := tankAlone(r, eval, func(f float64) []engine.Stream {
-		if f == 0 {
-			return nil
+	// What the added stream has by itself it has wherever it lands; what a
+	// stream of the tank gives off by itself (hot dilute ammonia's own
+	// vapour) is the tank's, not made where the stream lands. Each stream
+	// alone is judged once for all the steps (memo).
+	own := tankHazards{}
+	for _, s := range r.Streams {
+		one := withAmount(s)
+		key := Name(&one) + "\x00" + strconv.FormatFloat(one.VolumeL, 'g', -1, 64) + "\x00" + strconv.FormatFloat(one.MassKg, 'g', -1, 64)
+		o, ok := memo[key]
+		if !ok {
+			o, _ = tankAlone(r, eval, func(f float64) []engine.Stream {
+				if f == 0 {
+					return nil
+				}
+				return []engine.Stream{one}
+			})
+			memo[key] = o
 		}
-		return []engine.Stream{added}
-	})
+		own.merge(o)
+	}
+	diluted := dilutedTank(r.Streams[:n-1])
 	pts := 0
 	for _, f := range inletShares {
 		q := *r
@@ -159,11 +181,59 @@ func atInlet(r *engine.Request, eval Evaluate) ([]engine.PourHazard, int) {
 				continue
 			}
 			seen[h.Code] = true
-			out = append(out, engine.PourHazard{Code: h.Code, FromFraction: fractions[0], ToFraction: fractions[0], Worst: h.Severity,
-				Message: "where " + Name(&r.Streams[n-1]) + " lands, in excess over the tank's liquid: " + h.Message})
+			ph := engine.PourHazard{Code: h.Code, FromFraction: fractions[0], ToFraction: fractions[0], Worst: h.Severity,
+				Message: "where " + Name(&r.Streams[n-1]) + " lands, in excess over the tank's liquid: " + h.Message}
+			if diluted {
+				ph.Worst, ph.Diluted = engine.Warning, true
+				ph.Message = "where " + Name(&r.Streams[n-1]) + " lands, in excess over the tank's liquid, if dosed where the tank's reagents went in: " + h.Message +
+					" Dosed into the diluted tank at a separate point, with mixing, it meets no concentrate."
+			}
+			out = append(out, ph)
 		}
 	}
 	return out, pts
+}
+
+// DilutionFactor is how many times the volume of the tank's reagents its
+// water must be for the tank to count as diluted where a stream lands: acid
+// dosed into water that already holds a little bleach, at a point away from
+// where the bleach went in and with mixing, meets no concentrate (common
+// practice, no source: pool and cooling-water acid dosing).
+const DilutionFactor = 5.0
+
+// dilutedTank reports whether the streams of a tank hold water at least
+// DilutionFactor times the volume (a solid's mass in kg counted as litres)
+// of everything else in it: the reagents in it are diluted.
+func dilutedTank(tank []engine.Stream) bool {
+	w, other := 0.0, 0.0
+	for i := range tank {
+		s := withAmount(tank[i])
+		if water(&s) {
+			w += s.VolumeL
+			continue
+		}
+		other += s.VolumeL + s.MassKg
+	}
+	return w > 0 && other > 0 && w >= DilutionFactor*other
+}
+
+// bulkStreams marks, when no stream of req is water, the liquid streams of
+// the largest volume: the bulk the others are dosed into.
+func bulkStreams(req *engine.Request) map[int]bool {
+	most := 0.0
+	for i := range req.Streams {
+		if water(&req.Streams[i]) {
+			return nil
+		}
+		most = max(most, req.Streams[i].VolumeL)
+	}
+	out := map[int]bool{}
+	for i, s := range req.Streams {
+		if most > 0 && s.VolumeL == most {
+			out[i] = true
+		}
+	}
+	return out
 }
 
 // dry reports whether a stream is a solid given by mass alone.
@@ -263,6 +333,9 @@ func sequenceAdvice(seqs []engine.PourSequence, orders []engine.PourOrder) strin
 		s += ", then add " + n
 	}
 	s += ", slowly"
+	if d := dilutedSteps(&best); d != "" {
+		return s + ": " + d
+	}
 	if rank(best.Worst) > 0 {
 		var cs []string
 		for _, st := range best.Steps {
@@ -307,6 +380,8 @@ func SequenceRank(s *engine.PourSequence) int {
 //   - Another sequence that also starts with the water counts by its
 //     dangers: running the reagents into the water in the wrong order is a
 //     mistake an operator makes (bleach into water already acidified).
+//     Without a water stream the bulk liquid (PourSequence.BulkFirst)
+//     plays the water's part.
 //   - A sequence that starts with something else counts only by a danger
 //     met among dry solids (PourOrder.DryStep): solids are charged from
 //     bags, often into the empty tank or blended dry before the water goes
@@ -319,7 +394,7 @@ func SequenceRank(s *engine.PourSequence) int {
 //     neat") and does not lift the decision (common practice, no source).
 func LiftRank(s *engine.PourSequence) int {
 	danger := engine.Danger.Rank()
-	if s.WaterFirst {
+	if s.WaterFirst || s.BulkFirst {
 		if r := SequenceRank(s); r >= danger {
 			return r
 		}
@@ -340,4 +415,56 @@ func LiftRank(s *engine.PourSequence) int {
 func againstSequence(o *engine.PourOrder, s *engine.PourSequence) bool {
 	a, b := slices.Index(s.Streams, o.Added), slices.Index(s.Streams, o.Into)
 	return a >= 0 && b >= 0 && a < b
+}
+
+// DilutedRank tells whether the sequence s meets a hazard (one that
+// counts, Rank) only where a stream lands in the diluted tank
+// (PourHazard.Diluted), and the worst rank of its other hazards.
+func DilutedRank(s *engine.PourSequence) (diluted bool, rest int) {
+	for _, st := range s.Steps {
+		for _, h := range st.Hazards {
+			switch {
+			case h.Code == "warms":
+			case h.Diluted:
+				diluted = true
+			default:
+				rest = max(rest, rank(h.Worst))
+			}
+		}
+	}
+	return diluted, rest
+}
+
+// dilutedSteps is the precaution for the steps of s that meet a hazard
+// only where the added stream lands in the diluted tank: dose it into the
+// diluted water at a separate point, with mixing; then what the sequence
+// still meets besides ("" when s meets nothing there).
+func dilutedSteps(s *engine.PourSequence) string {
+	var parts, at, other []string
+	for i, st := range s.Steps {
+		dosed := false
+		for _, h := range st.Hazards {
+			switch {
+			case h.Code == "warms":
+			case h.Diluted:
+				if !slices.Contains(at, h.Code) {
+					at = append(at, h.Code)
+				}
+				if !dosed {
+					dosed = true
+					parts = append(parts, "dose "+st.Added+" into the diluted water at a separate point, away from where "+strings.Join(s.Streams[1:i+1], " and ")+" went in, with mixing")
+				}
+			case !slices.Contains(other, h.Code):
+				other = append(other, h.Code)
+			}
+		}
+	}
+	if len(parts) == 0 {
+		return ""
+	}
+	out := strings.Join(parts, "; ") + " (where it lands it would meet " + strings.Join(at, ", ") + ")"
+	if len(other) > 0 {
+		out += "; that sequence still meets " + strings.Join(other, ", ")
+	}
+	return out + "."
 }
