@@ -1,6 +1,7 @@
 package advice_test
 
 import (
+	"math"
 	"strings"
 	"testing"
 
@@ -104,10 +105,16 @@ func TestReview22Cyan(t *testing.T) {
 		req   string
 		sev   engine.Severity
 		level engine.Level
+		hcn   float64 // mol HCN the acid can free, one per gold
 	}{
-		{"mix 10 L potassium gold cyanide 1 % + 10 L sulfuric acid 20 %", engine.Warning, engine.WithPrecautions},
-		{"mix 10 L potassium gold cyanide 1 % + 10 L sulfuric acid 20 % at 60 C", engine.Danger, engine.DoNotMix},
-		{"mix 10 L potassium gold cyanide 1 % + 10 L HCl 32 %", engine.Danger, engine.DoNotMix},
+		// Cold, but 0.347 mol HCN would bring a small room (25 m³) to
+		// about 340 ppm, past the IDLH of 50 ppm (NIOSH Pocket Guide,
+		// from memory): a danger, as the action ("do not acidify") says.
+		{"mix 10 L potassium gold cyanide 1 % + 10 L sulfuric acid 20 %", engine.Danger, engine.DoNotMix, 0.347},
+		// A drip of gold bath into an acid rinse: a trace, a warning.
+		{"mix 200 L sulfuric acid 2 % + 20 mL potassium gold cyanide 1 %", engine.Warning, engine.WithPrecautions, 0.000694},
+		{"mix 10 L potassium gold cyanide 1 % + 10 L sulfuric acid 20 % at 60 C", engine.Danger, engine.DoNotMix, 0.347},
+		{"mix 10 L potassium gold cyanide 1 % + 10 L HCl 32 %", engine.Danger, engine.DoNotMix, 0.347},
 	} {
 		t.Run("gold cyanide "+tc.req, func(t *testing.T) {
 			r := ask(t, a, tc.req)
@@ -122,8 +129,8 @@ func TestReview22Cyan(t *testing.T) {
 			for _, c := range h.Counts {
 				if c.Formula == "HCN" {
 					found = true
-					if c.Mol < 0.33 || c.Mol > 0.36 {
-						t.Errorf("HCN up to %.3g mol, want about 0.347", c.Mol)
+					if math.Abs(c.Mol-tc.hcn)/tc.hcn > 0.05 {
+						t.Errorf("HCN up to %.3g mol, want about %.3g", c.Mol, tc.hcn)
 					}
 				}
 			}

@@ -52,6 +52,10 @@ var cyanideComplexes = []cyanideComplex{
 	{[]string{"Ni(CN)4^2-"}, 4, "tetracyanonickelate (nickel cyanide)", 4.5, true},
 }
 
+// hcnIDLHppm is the NIOSH IDLH of hydrogen cyanide (NIOSH Pocket Guide,
+// 1994, from memory), as in data/gases.txt.
+const hcnIDLHppm = 50
+
 // cyanideAcidHotC is the temperature from which acid frees hydrogen cyanide
 // from a cyanide complex fast, not slowly: the hexacyanoferrate-inert lock
 // lifts there too (common practice, no source).
@@ -76,7 +80,7 @@ func cyanideFreedByAcid(o *Outcome, out []engine.Hazard) (engine.Hazard, bool) {
 			hcn = &out[i]
 		}
 	}
-	cn := 0.0
+	cn, notIron := 0.0, 0.0
 	var names []string
 	firm := false
 	for _, c := range cyanideComplexes {
@@ -85,6 +89,9 @@ func cyanideFreedByAcid(o *Outcome, out []engine.Hazard) (engine.Hazard, bool) {
 			continue
 		}
 		cn += c.Freed * m
+		if c.BelowPH < 4 || c.Labile {
+			notIron += c.Freed * m
+		}
 		if !c.Labile {
 			firm = true
 		}
@@ -98,7 +105,11 @@ func cyanideFreedByAcid(o *Outcome, out []engine.Hazard) (engine.Hazard, bool) {
 	sev := engine.Warning
 	hot := math.Max(o.TemperatureC, o.Heat.ReachedC) >= cyanideAcidHotC
 	strong := o.MolarBefore("H+") >= cyanideAcidStrongMolar
-	if hot || strong {
+	// Hexacyanoferrates give their cyanide up slowly in cold dilute acid;
+	// the other complexes do not hold it against acid for long, so enough
+	// of them to bring a small room past the IDLH is a danger cold too
+	// (NIOSH Pocket Guide, hydrogen cyanide IDLH 50 ppm, from memory).
+	if hot || strong || roomPPM(o, notIron*o.VolumeL) >= hcnIDLHppm {
 		sev = engine.Danger
 	}
 	if hcn != nil && hcn.Severity.Rank() >= sev.Rank() {
