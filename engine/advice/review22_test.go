@@ -149,4 +149,18 @@ func TestReview22(t *testing.T) {
 			t.Errorf("aluminium turnings: form line although the form is named")
 		}
 	})
+
+	t.Run("oleum into water names the acid mist", func(t *testing.T) {
+		// Oleum is let down into 96–98 % acid, never into water: the SO3
+		// gives a sulfuric acid mist (Perry's Handbook, oleum, from
+		// memory; common practice, no source).
+		r := ask(t, a, "pour 100 L oleum 20 % into 500 L water")
+		if _, ok := hazardOf(r, "oleum-mist"); !ok {
+			t.Errorf("oleum into water: no oleum-mist hazard")
+		}
+		r = ask(t, a, "pour 100 L oleum 20 % into 500 L sulfuric acid 96 %")
+		if _, ok := hazardOf(r, "oleum-mist"); ok {
+			t.Errorf("oleum let down into strong acid: oleum-mist, want none")
+		}
+	})
 }

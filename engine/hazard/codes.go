@@ -47,6 +47,7 @@ var codes = []Code{
 	{"ammonium-nitrite-runaway", "ammonium with nitrite: runaway decomposition", nil},
 	{"manganese-heptoxide", "forms explosive manganese heptoxide", nil},
 	{"acid-fumes", "drives out acid fumes", []string{"toxic-gas"}},
+	{"oleum-mist", "oleum with water: sulfuric acid mist", nil},
 	{"halogen-fumes", "gives off bromine or iodine with sulfur dioxide", []string{"toxic-gas"}},
 	{"hydrazine-nitric", "hydrazine with nitric acid: violent, explosive salt", nil},
 	{"chlorate-sulfite", "chlorate with sulfite: self-accelerating, can take off", nil},

@@ -17,7 +17,7 @@ import (
 var familyRules = []func(o *Outcome) (engine.Hazard, bool){
 	chloroAmines, nitrateEsters, nitricOrganic, hydrazineNitric, hydroxylamineMetalSalts, hydroxylamineFreed, dampDithionite, hotDithionite, hotHypophosphite, ammoniumNitrite, permanganateSulfuric, volatileAcid,
 	solidHypochlorite, magnesiumWater, cyanideOxidation, halideSulfuric, chlorateSulfuric, hotElectrolessNickel, nitricMetalFumes, aluminiumNitricSlow,
-	chlorateSulfite, hydrazineOxidizer, chloricAcid,
+	chlorateSulfite, hydrazineOxidizer, chloricAcid, oleumMist,
 	// organic, azide and solid-chlorinator families (organic.go)
 	organicPeroxides, perchlorateEsters, peracidAlkali, peracids, oxidizerOrganic, unassessedFuel, dryOxidizerFuel, dryNitriteAmmonium, dryAmmoniumCaustic, nitrogenTriiodide, silverFulminate, cyanogenFromCopper, azideForming, azideLeft, dryChlorinatorAcid, dryAcidCarbonate, bisChloromethylEther,
 	cannizzaro, hexamine, formaldehydeHypochlorite, haloform, heavyMetalAzide, mixedChlorinators,
@@ -861,4 +861,30 @@ func azideForming(o *Outcome) (engine.Hazard, bool) {
 		"Hydrazine ("+fmtNum(hyd, 2)+" mol/L) with nitrite ("+fmtNum(nit, 2)+" mol/L): nitrous acid turns hydrazine into hydrazoic acid (HN3), very toxic, volatile and explosive, and its heavy-metal salts are detonators; alkaline it keeps, once acid it forms.",
 		act,
 		"Bretherick's Handbook of Reactive Chemical Hazards, hydrazine with nitrous acid and hydrazoic acid (from memory)"), true
+}
+
+// oleumMist: oleum (free SO3 in sulfuric acid) meeting water or an aqueous
+// stream gives a dense, white sulfuric acid mist besides its heat: the SO3
+// that leaves the liquid takes up water vapour in the air as droplets too
+// fine for a water scrubber, and oleum fumes by itself. Oleum is let down
+// into 96–98 % sulfuric acid, whose little water takes the SO3 inside the
+// liquid, never straight into water (Perry's Chemical Engineers'
+// Handbook, oleum, from memory; common practice, no source).
+func oleumMist(o *Outcome) (engine.Hazard, bool) {
+	if !o.Named("SO3") {
+		return engine.Hazard{}, false
+	}
+	other := false
+	for _, c := range o.Chemicals {
+		if c != "SO3" && c != "H2SO4" {
+			other = true
+		}
+	}
+	if !other {
+		return engine.Hazard{}, false
+	}
+	return mk("oleum-mist", engine.Warning,
+		"Oleum brings free sulfur trioxide: where it meets water it gives a dense, white sulfuric acid mist as well as its heat, and the mist passes through a water scrubber.",
+		"Let oleum down into 96–98 % sulfuric acid first, closed or under extraction with a mist eliminator, never straight into water or a dilute stream; wear acid-resistant clothing and a face shield.",
+		"Perry's Chemical Engineers' Handbook, sulfuric acid and oleum (from memory); common practice, no source"), true
 }
