@@ -1,6 +1,7 @@
 package hazard
 
 import (
+	"slices"
 	"strings"
 
 	"mixward/engine"
@@ -25,6 +26,7 @@ var noteCodes = map[string]bool{"chlorate-reducer-acid": true, "flammable-liquid
 // answer.
 func Decide(final []engine.Hazard, add *engine.Addition) engine.Decision {
 	d := decide(final, add)
+	d.Actions = withoutSlowDosing(d.Actions)
 	for _, h := range final {
 		if h.Severity == engine.Info && noteCodes[h.Code] {
 			d.Actions = appendNew(d.Actions, h.Action)
@@ -106,6 +108,25 @@ func anyRate(final []engine.Hazard) bool {
 		}
 	}
 	return false
+}
+
+// withoutSlowDosing takes "add slowly" out of the other actions when one
+// says that adding slowly does not help (a catalyst that is not used up):
+// the two must not stand side by side. The rest of such an action (work
+// with extraction running) stays.
+func withoutSlowDosing(actions []string) []string {
+	if !slices.ContainsFunc(actions, func(a string) bool { return strings.Contains(a, "slowly does not help") }) {
+		return actions
+	}
+	out := actions[:0:0]
+	for _, a := range actions {
+		if !strings.Contains(a, "slowly does not help") {
+			a = strings.ReplaceAll(a, "Add slowly with ", "Work with ")
+			a = strings.ReplaceAll(a, "add slowly with ", "work with ")
+		}
+		out = append(out, a)
+	}
+	return out
 }
 
 // withoutRateActions drops the actions that suggest a safe way of making

@@ -110,3 +110,18 @@ func TestSilicaGelAlongThePour(t *testing.T) {
 		}
 	}
 }
+
+// TestWithoutSlowDosing: an action that says adding slowly does not help
+// (a catalyst that is not used up) takes "add slowly" out of the others,
+// and leaves actions alone otherwise.
+func TestWithoutSlowDosing(t *testing.T) {
+	in := []string{"Do not combine in a closed space. Add slowly with extraction running, away from hypochlorite.", catalysedAction}
+	got := withoutSlowDosing(append([]string(nil), in...))
+	if got[0] != "Do not combine in a closed space. Work with extraction running, away from hypochlorite." || got[1] != catalysedAction {
+		t.Errorf("withoutSlowDosing = %q", got)
+	}
+	plain := []string{"Do not combine in a closed space. Add slowly with extraction running, away from hypochlorite."}
+	if got := withoutSlowDosing(plain); got[0] != plain[0] {
+		t.Errorf("without a catalyst action: %q, want unchanged", got)
+	}
+}
