@@ -421,7 +421,7 @@ func metalFormNotes(req *Request, mx *state.Mix) []string {
 			continue
 		}
 		c := st.Components[0]
-		if c.Chemical == nil || c.Chemical.Class != Metal || formStated(req.Notes, c.Name) || alkaliMetal[c.Chemical.Formula] {
+		if c.Chemical == nil || c.Chemical.Class != Metal || c.Form != "" || alkaliMetal[c.Chemical.Formula] {
 			continue
 		}
 		for i, sp := range mx.Species {
@@ -439,14 +439,3 @@ func metalFormNotes(req *Request, mx *state.Mix) []string {
 // alkaliMetal are the metals that react with water in any form, lumps
 // as fast as anything (Greenwood & Earnshaw, alkali metals, from memory).
 var alkaliMetal = map[string]bool{"Li": true, "Na": true, "K": true, "Ca": true, "Sr": true, "Ba": true}
-
-// formStated reports whether the request named the form of solid name
-// ("aluminium turnings"): the parser's note says so.
-func formStated(notes []string, name string) bool {
-	for _, n := range notes {
-		if strings.Contains(n, "read as the form of solid "+name) {
-			return true
-		}
-	}
-	return false
-}

@@ -93,6 +93,7 @@ type Component struct {
 	Pos      int     // 1-based position in the request
 	Value    float64 // concentration value, in Unit
 	Unit     ConcUnit
+	Form     string // the word for a solid's form that followed its name ("turnings"), if any
 
 	numText string // the value as typed ("12,5"), for errors
 	numPos  int    // its position, for errors

@@ -382,6 +382,7 @@ func (p *parser) component() (Component, error) {
 			// "caustic soda flakes", "aluminium powder": the physical form
 			// of a solid, read and said, not an unknown word.
 			p.i++
+			c.Form = strings.ToLower(tk.text)
 			p.note("%q read as the form of solid %s: the form changes how fast it reacts (powder and dust fastest), not what forms", tk.text, name)
 		}
 		if tk := p.peek(); tk != nil && tk.kind == tWord && liquidForms[strings.ToLower(tk.text)] {

@@ -2,6 +2,7 @@ package hazard
 
 import (
 	"math"
+	"slices"
 	"strings"
 
 	"mixward/engine"
@@ -52,9 +53,12 @@ var cyanideComplexes = []cyanideComplex{
 	{[]string{"Ni(CN)4^2-"}, 4, "tetracyanonickelate (nickel cyanide)", 4.5, true},
 }
 
-// hcnIDLHppm is the NIOSH IDLH of hydrogen cyanide (NIOSH Pocket Guide,
-// 1994, from memory), as in data/gases.txt.
-const hcnIDLHppm = 50
+// pastLimit reports whether mol of gas formula, spread over a small plant
+// room (RoomM3), would stand at or above the gas table's limit for it.
+func pastLimit(o *Outcome, d *Data, formula string, mol float64) bool {
+	g, ok := d.Gases[formula]
+	return ok && g.LimitPPM > 0 && roomPPM(o, mol) >= g.LimitPPM
+}
 
 // cyanideAcidHotC is the temperature from which acid frees hydrogen cyanide
 // from a cyanide complex fast, not slowly: the hexacyanoferrate-inert lock
@@ -73,7 +77,7 @@ const cyanideAcidStrongMolar = 3
 // on the table). A warning; a danger in strong acid or hot. Where the state's
 // hydrogen cyanide already raised hcn-release at that level or above, that
 // figure stands alone; for the labile complexes any hcn-release does.
-func cyanideFreedByAcid(o *Outcome, out []engine.Hazard) (engine.Hazard, bool) {
+func cyanideFreedByAcid(o *Outcome, d *Data, out []engine.Hazard) (engine.Hazard, bool) {
 	var hcn *engine.Hazard
 	for i := range out {
 		if out[i].Code == "hcn-release" {
@@ -95,7 +99,7 @@ func cyanideFreedByAcid(o *Outcome, out []engine.Hazard) (engine.Hazard, bool) {
 		if !c.Labile {
 			firm = true
 		}
-		if !containsString(names, c.Name) {
+		if !slices.Contains(names, c.Name) {
 			names = append(names, c.Name)
 		}
 	}
@@ -108,8 +112,8 @@ func cyanideFreedByAcid(o *Outcome, out []engine.Hazard) (engine.Hazard, bool) {
 	// Hexacyanoferrates give their cyanide up slowly in cold dilute acid;
 	// the other complexes do not hold it against acid for long, so enough
 	// of them to bring a small room past the IDLH is a danger cold too
-	// (NIOSH Pocket Guide, hydrogen cyanide IDLH 50 ppm, from memory).
-	if hot || strong || roomPPM(o, notIron*o.VolumeL) >= hcnIDLHppm {
+	// (the gas table's limit: NIOSH Pocket Guide, IDLH).
+	if hot || strong || pastLimit(o, d, "HCN", notIron*o.VolumeL) {
 		sev = engine.Danger
 	}
 	if hcn != nil && hcn.Severity.Rank() >= sev.Rank() {
@@ -139,13 +143,4 @@ func cyanideFreedByAcid(o *Outcome, out []engine.Hazard) (engine.Hazard, bool) {
 	h := mk("cyanide-complex-acid", sev, msg, act,
 		"metal cyanide complexes with acid: safety data sheets of potassium ferrocyanide, ferricyanide and dicyanoaurate, EUH032 (from memory); Vogel's Textbook of Macro and Semimicro Qualitative Inorganic Analysis, hexacyanoferrates with dilute acid (from memory); dicyanoaurate below about pH 3 and acid gold baths at pH 3.5–5: common practice, no source; weak-acid-dissociable complexes at pH 4.5: Standard Methods 4500-CN I (from memory); NIOSH Pocket Guide, hydrogen cyanide IDLH 50 ppm (from memory)")
 	return withCounts(h, engine.GasCount{Formula: "HCN", Name: "hydrogen cyanide", Mol: mol, InLiquid: true, Beyond: true, From: "acid taking the cyanide complex apart"}), true
-}
-
-func containsString(xs []string, s string) bool {
-	for _, x := range xs {
-		if x == s {
-			return true
-		}
-	}
-	return false
 }

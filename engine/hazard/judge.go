@@ -561,7 +561,7 @@ func Judge(o *Outcome, d *Data) []engine.Hazard {
 	if h, ok := sulfideFreedByAcid(o, d, out); ok {
 		out = append(out, h)
 	}
-	if h, ok := cyanideFreedByAcid(o, out); ok {
+	if h, ok := cyanideFreedByAcid(o, d, out); ok {
 		out = append(out, h)
 	}
 	if h, ok := gasPressure(o, out); ok {

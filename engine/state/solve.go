@@ -262,21 +262,8 @@ func (m *Model) acidAllowances(mx *Mix, applied []*Lock, st *State, n0 []float64
 			if !contains(st.Eq.Active, name) {
 				continue
 			}
-			var spend float64
-			switch {
-			case r.AcidTo != nil && combined.PH < *r.AcidTo:
-				x, err := m.titrateCapacity(mx, n0, volL, *r.AcidTo)
-				if err != nil || x >= 0 {
-					continue
-				}
-				spend = -x * r.Per // the base it takes to reach the pH: the acid that can be spent
-			case r.BaseTo != nil && combined.PH > baseTarget(mx, *r.BaseTo):
-				x, err := m.titrateCapacity(mx, n0, volL, baseTarget(mx, *r.BaseTo))
-				if err != nil || x <= 0 {
-					continue
-				}
-				spend = x * r.Per // the acid it takes: the base that can be spent
-			default:
+			spend, ok := m.allowanceSpend(mx, r, n0, combined.PH, 0, volL)
+			if !ok {
 				continue
 			}
 			if out == nil {
@@ -286,6 +273,28 @@ func (m *Model) acidAllowances(mx *Mix, applied []*Lock, st *State, n0 []float64
 		}
 	}
 	return out
+}
+
+// allowanceSpend is what rule r lets its group grow by for the amounts n at
+// pH ph: when ph lies beyond the rule's pH by more than slack, the base (or
+// acid) it takes to bring n to that pH, times the rule's Per. ok is false
+// when there is none.
+func (m *Model) allowanceSpend(mx *Mix, r Rule, n []float64, ph, slack, volL float64) (spend float64, ok bool) {
+	switch {
+	case r.AcidTo != nil && ph < *r.AcidTo-slack:
+		x, err := m.titrateCapacity(mx, n, volL, *r.AcidTo)
+		if err != nil || x >= 0 {
+			return 0, false
+		}
+		return -x * r.Per, true // the base it takes to reach the pH: the acid that can be spent
+	case r.BaseTo != nil && ph > baseTarget(mx, *r.BaseTo)+slack:
+		x, err := m.titrateCapacity(mx, n, volL, baseTarget(mx, *r.BaseTo))
+		if err != nil || x <= 0 {
+			return 0, false
+		}
+		return x * r.Per, true // the acid it takes: the base that can be spent
+	}
+	return 0, false
 }
 
 // maxAllowanceRounds bounds the recounts of acid or base made by the
@@ -308,21 +317,13 @@ func (m *Model) madeAllowances(mx *Mix, applied []*Lock, st, combined *State, vo
 			if !contains(st.Eq.Active, name) {
 				continue
 			}
-			var spend float64
-			switch {
-			case r.AcidTo != nil && st.PH < *r.AcidTo-allowanceSlack && st.PH < combined.PH-allowanceSlack:
-				x, err := m.titrateCapacity(mx, st.Amount, volL, *r.AcidTo)
-				if err != nil || x >= 0 {
-					continue
-				}
-				spend = -x * r.Per
-			case r.BaseTo != nil && st.PH > baseTarget(mx, *r.BaseTo)+allowanceSlack && st.PH > combined.PH+allowanceSlack:
-				x, err := m.titrateCapacity(mx, st.Amount, volL, baseTarget(mx, *r.BaseTo))
-				if err != nil || x <= 0 {
-					continue
-				}
-				spend = x * r.Per
-			default:
+			// Only what the reaction made: the state beyond the mix as
+			// combined, in the rule's direction.
+			if r.AcidTo != nil && !(st.PH < combined.PH-allowanceSlack) || r.BaseTo != nil && !(st.PH > combined.PH+allowanceSlack) {
+				continue
+			}
+			spend, ok := m.allowanceSpend(mx, r, st.Amount, st.PH, allowanceSlack, volL)
+			if !ok {
 				continue
 			}
 			if spend < allowanceMin*volL {
